@@ -1,0 +1,137 @@
+"""The ``ionicity`` command line: turns options into a config and calls the
+:mod:`pipelines` API.
+
+Exit codes (one place, also in ``--help``):
+  0  done; rows that could not be scored are marked in the table
+  1  with --strict, when any row has status error
+  2  bad usage or unreadable input, with a one-line reason
+  3  an internal error (a bug: please report it with --verbose output)
+"""
+from __future__ import annotations
+
+import argparse
+import sys
+
+EXIT_OK = 0
+EXIT_STRICT_ERRORS = 1
+EXIT_USAGE = 2
+EXIT_INTERNAL = 3
+
+_EPILOG = """exit codes:
+  0  done; rows that could not be scored are marked in the table
+  1  with --strict, when any row has status error
+  2  bad usage or unreadable input, with a one-line reason
+  3  an internal error
+
+Descriptors are estimates for screening and data work. They are not safety
+data: check the safety data sheet, local codes and a qualified person before
+storing, mixing, heating or wetting any chemical."""
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message: str):  # argparse's own exit code is already 2
+        self.print_usage(sys.stderr)
+        self.exit(EXIT_USAGE, f"ionicity: error: {message}\n")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="ionicity",
+        description="Annotate tables of chemical formulas with ions, oxidation states and ionic-bonding descriptors.",
+        epilog=_EPILOG,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    parser.add_argument("--verbose", action="store_true", help="show tracebacks for internal errors")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    sub.required = True
+
+    score = sub.add_parser("score", help="score a CSV, TSV or Parquet table", epilog=_EPILOG,
+                           formatter_class=argparse.RawDescriptionHelpFormatter)
+    score.add_argument("input", metavar="INPUT", help="input table (.csv, .tsv, .parquet, a folder or glob of Parquet parts, or - for CSV on stdin)")
+    score.add_argument("-o", "--output", default="-", help="output table; its extension sets the format (default: CSV on stdout)")
+    score.add_argument("--formula-col", metavar="COL", help="column holding the formulas (default: the column named 'formula', any case)")
+    score.add_argument("--name-col", metavar="COL", help="column naming each row; quoted in the message of rows that fail")
+    score.add_argument("--prefix", default="", metavar="TEXT", help="prefix for every generated column name")
+    score.add_argument("--strict", action="store_true", help="exit 1 when any row has status error")
+    score.add_argument("--overwrite", action="store_true", help="replace an existing output file")
+    score.add_argument("--quiet", action="store_true", help="no progress and no summary on stderr")
+    score.add_argument("--batch-rows", type=int, default=65536, metavar="N", help="rows per batch (default: 65536)")
+    score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
+
+    explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
+    explain.add_argument("formula", metavar="FORMULA")
+    explain.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
+
+    columns = sub.add_parser("columns", help="every output column with its type, unit, method and source")
+    columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
+    columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
+    return parser
+
+
+def _run_score(args) -> int:
+    from pipelines.batch import ScoreConfig, score_file
+
+    if args.batch_rows < 1:
+        print(f"ionicity: error: --batch-rows must be a positive whole number, not {args.batch_rows}", file=sys.stderr)
+        return EXIT_USAGE
+    config = ScoreConfig(
+        input=args.input,
+        output=args.output,
+        formula_col=args.formula_col,
+        name_col=args.name_col,
+        prefix=args.prefix,
+        overwrite=args.overwrite,
+        strict=args.strict,
+        quiet=args.quiet,
+        batch_rows=args.batch_rows,
+    )
+    summary = score_file(config)
+    if not args.quiet:
+        print(summary, file=sys.stderr)
+    if args.strict and summary.error:
+        return EXIT_STRICT_ERRORS
+    return EXIT_OK
+
+
+def _run_explain(args) -> int:
+    from pipelines.explain import explain_formula
+
+    print(explain_formula(args.formula))
+    return EXIT_OK
+
+
+def _run_columns(args) -> int:
+    from pipelines.explain import columns_table
+
+    print(columns_table(args.format))
+    return EXIT_OK
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    from pipelines.io import InputError
+
+    try:
+        if args.command == "score":
+            return _run_score(args)
+        if args.command == "explain":
+            return _run_explain(args)
+        return _run_columns(args)
+    except InputError as exc:
+        print(f"ionicity: error: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    except KeyboardInterrupt:
+        print("ionicity: interrupted; no output was written", file=sys.stderr)
+        return 130
+    except BrokenPipeError:
+        return EXIT_OK
+    except Exception as exc:  # a bug: say so in one line unless --verbose
+        if args.verbose:
+            raise
+        print(f"ionicity: internal error: {type(exc).__name__}: {exc} (rerun with --verbose for details)", file=sys.stderr)
+        return EXIT_INTERNAL
+
+
+def entry_point() -> None:
+    sys.exit(main())

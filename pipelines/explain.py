@@ -1,0 +1,91 @@
+"""Text for people: ``ionicity explain`` and ``ionicity columns``."""
+from __future__ import annotations
+
+import math
+
+from scorer.columns import descriptor_modules, output_columns
+from scorer.formula import FormulaError, parse_formula
+from scorer.ions import decompose
+from scorer.record import score_composition
+
+__all__ = ["explain_formula", "columns_table"]
+
+CAUTION = (
+    "Screening estimates, not safety data: check the safety data sheet, local codes and a qualified"
+    " person before storing, mixing, heating or wetting any chemical."
+)
+
+
+def _value_text(value) -> str:
+    if value is None:
+        return "-"
+    if isinstance(value, float):
+        return "-" if math.isnan(value) else f"{value:.6g}"
+    return str(value) if value != "" else "-"
+
+
+def explain_formula(text: str) -> str:
+    """Every score of one compound with the method and the inputs behind it."""
+    lines = [f"formula: {text}"]
+    try:
+        comp = parse_formula(text)
+    except FormulaError as exc:
+        return "\n".join(lines + [f"status: error", f"message: {exc}"])
+    dec = decompose(comp)
+    record = score_composition(comp)
+    lines.append(f"status: {record['status']}")
+    if record["message"]:
+        lines.append(f"message: {record['message']}")
+    lines.append("")
+    lines.append("composition")
+    for name in ("formula_normalized", "substance_class", "cations", "anions", "oxidation_states",
+                 "hydrate_water", "molar_mass_g_mol"):
+        lines.append(f"  {name}: {_value_text(record[name])}")
+    if dec.alternatives:
+        lines.append("  equally plausible: " + " | ".join(dec.alternatives))
+    for term in dec.cations + dec.anions:
+        ion = term.ion
+        if not ion.monatomic:
+            lines.append(f"  {ion.ion_id}: {ion.name} ({ion.family}); source: {ion.source}")
+    for module in descriptor_modules():
+        lines.append("")
+        lines.append(module.__name__.rsplit(".", 1)[-1])
+        for column in module.COLUMNS:
+            lines.append(f"  {column.name}: {_value_text(record[column.name])}")
+        for line in module.explain(dec):
+            lines.append(f"    {line}")
+    lines.append("")
+    lines.append(CAUTION)
+    return "\n".join(lines)
+
+
+def columns_table(fmt: str = "text") -> str:
+    """Every generated column with its type, unit, method and source."""
+    columns = output_columns()
+    if fmt == "csv":
+        import csv
+        import io
+
+        buffer = io.StringIO()
+        writer = csv.writer(buffer, lineterminator="\n")
+        writer.writerow(["name", "type", "unit", "description", "method", "source", "aggregation"])
+        for c in columns:
+            writer.writerow([c.name, c.dtype, c.unit, c.description, c.method, c.source, c.aggregation])
+        return buffer.getvalue().rstrip("\n")
+    if fmt == "markdown":
+        rows = ["| column | type | unit | meaning | method and source |", "| --- | --- | --- | --- | --- |"]
+        for c in columns:
+            method = "; ".join(x for x in (c.method, c.source, c.aggregation) if x)
+            rows.append(f"| `{c.name}` | {c.dtype} | {c.unit} | {c.description} | {method} |".replace("\n", " "))
+        return "\n".join(rows)
+    blocks = []
+    for c in columns:
+        block = [f"{c.name}  ({c.dtype}{', ' + c.unit if c.unit else ''})", f"    {c.description}"]
+        if c.method:
+            block.append(f"    method: {c.method}")
+        if c.source:
+            block.append(f"    source: {c.source}")
+        if c.aggregation:
+            block.append(f"    several ions: {c.aggregation}")
+        blocks.append("\n".join(block))
+    return "\n".join(blocks)

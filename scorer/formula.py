@@ -1,0 +1,597 @@
+"""Formula grammar: text as people type it -> one immutable :class:`Composition`.
+
+Accepted, in any combination:
+
+* element symbols with integer or decimal counts (``Fe0.95O``), checked
+  against the periodic table, case-sensitively (``Co`` is cobalt, ``CO`` is
+  carbon monoxide);
+* nested groups in ``()``, ``[]`` and ``{}`` with a count after the closing
+  bracket;
+* hydrates and adducts joined by ``·``, ``•``, ``∙``, ``⋅``, ``.``, ``*`` or
+  ``+`` with a leading multiplier (``CuSO4·5H2O``, ``CaSO4·0.5H2O``,
+  ``2CaSO4·H2O``); a top-level ``(H2O)n`` group is lattice water too, so
+  ``CaCO3(H2O)6`` equals ``CaCO3·6H2O``;
+* explicit ion charges: ``SO4^2-``, ``SO4(2-)``, ``SO4--``, ``Fe+3``,
+  ``Fe3+``, ``[Fe(CN)6]4-``, Unicode superscripts ``SO₄²⁻``;
+* Unicode subscripts (``Na₂SO₄``), the vulgar fraction ``½``, full-width
+  characters, Unicode minus signs and stray whitespace;
+* the ionic-liquid bracket shorthand of the trade: ``[C4mim][BF4]``,
+  ``[bmim]PF6``, ``[C2mim][NTf2]``, ``[emim]OAc``, ``[N4444]Br``, whose
+  abbreviations come from the ion library (``scorer/data/ions.csv``).
+
+Parsing is a hand-written recursive-descent grammar over the text; nothing is
+evaluated. Length, nesting depth, single counts and the total atom count are
+bounded (see the ``MAX_*`` constants), so a hostile cell costs microseconds.
+Anything else raises :class:`FormulaError`, a ``ValueError`` whose message
+quotes the bad text and says what would be accepted.
+"""
+from __future__ import annotations
+
+import math
+import re
+import unicodedata
+from dataclasses import dataclass, field
+from functools import lru_cache
+
+__all__ = [
+    "Composition",
+    "FormulaError",
+    "parse_formula",
+    "hill_formula",
+    "format_count",
+    "MAX_FORMULA_LENGTH",
+    "MAX_NESTING_DEPTH",
+    "MAX_COUNT",
+    "MAX_TOTAL_ATOMS",
+]
+
+MAX_FORMULA_LENGTH = 200
+MAX_NESTING_DEPTH = 6
+MAX_COUNT = 10_000
+MAX_TOTAL_ATOMS = 100_000
+
+
+class FormulaError(ValueError):
+    """A formula that the grammar does not accept; the message says why."""
+
+
+_SUBSCRIPTS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
+_SUPERSCRIPT_CHARS = "⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻"
+_SUPERSCRIPTS = str.maketrans(_SUPERSCRIPT_CHARS, "0123456789+-")
+_DOT_SEPARATORS = "·•∙⋅・･×"
+_MINUS_SIGNS = "−–—‐‑"
+_OPEN = {"(": ")", "[": "]", "{": "}"}
+_CLOSE = {v: k for k, v in _OPEN.items()}
+_NUMBER = re.compile(r"\d+(?:\.\d+)?")
+# Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
+# adduct and not as the decimal count "2.2".
+_ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O|D2O|NH3|H2O2|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
+_STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
+_NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3"}
+
+
+def format_count(value: float) -> str:
+    """Write a count the way formulas do: integers bare, decimals trimmed.
+
+    >>> [format_count(v) for v in (1, 2.0, 0.5, 0.95, 1/3)]
+    ['1', '2', '0.5', '0.95', '0.333333']
+    """
+    if abs(value - round(value)) < 1e-9:
+        return str(int(round(value)))
+    return f"{value:.6f}".rstrip("0").rstrip(".")
+
+
+def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:
+    """Hill order (carbon, hydrogen, then alphabetical; all alphabetical
+    without carbon), counts of one omitted.
+
+    >>> hill_formula({"O": 4, "S": 1, "Cu": 1})
+    'CuO4S'
+    >>> hill_formula({"O": 1, "H": 6, "C": 2})
+    'C2H6O'
+    """
+    items = dict(counts)
+    order = sorted(items)
+    if "C" in items:
+        order = ["C"] + (["H"] if "H" in items else []) + [s for s in order if s not in ("C", "H")]
+    return "".join(s + ("" if abs(items[s] - 1) < 1e-9 else format_count(items[s])) for s in order)
+
+
+@dataclass(frozen=True)
+class Composition:
+    """An immutable parsed formula.
+
+    ``counts`` is the flat element count of one formula unit without its
+    lattice water, in Hill order; ``hydrate_water`` the molecules of lattice
+    water; ``charge`` the net charge written in the text (0 for a compound);
+    ``ion_hints`` the ions named explicitly by the ionic-liquid shorthand or by
+    a bracketed complex of the ion library, as ``(ion_id, count)`` pairs;
+    ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``).
+    ``canonical`` is one string per compound: every accepted spelling of the
+    same formula unit gives the same one.
+    """
+
+    text: str = field(compare=False)
+    counts: tuple[tuple[str, float], ...]
+    hydrate_water: float = 0.0
+    charge: int = 0
+    ion_hints: tuple[tuple[str, float], ...] = ()
+    neutral_adducts: tuple[tuple[str, float], ...] = ()
+    notes: tuple[str, ...] = field(default=(), compare=False)
+
+    @property
+    def elements(self) -> tuple[str, ...]:
+        return tuple(s for s, _ in self.counts)
+
+    def as_dict(self) -> dict[str, float]:
+        return dict(self.counts)
+
+    @property
+    def hill(self) -> str:
+        return hill_formula(self.counts)
+
+    @property
+    def total_counts(self) -> dict[str, float]:
+        """Flat counts including lattice water."""
+        total = dict(self.counts)
+        if self.hydrate_water:
+            total["H"] = total.get("H", 0.0) + 2 * self.hydrate_water
+            total["O"] = total.get("O", 0.0) + self.hydrate_water
+        return total
+
+    @property
+    def canonical(self) -> str:
+        from scorer.model import format_charge
+
+        text = self.hill
+        if self.charge:
+            text += "^" + format_charge(self.charge)
+        if self.hydrate_water:
+            water = format_count(self.hydrate_water)
+            text += "·" + ("" if water == "1" else water) + "H2O"
+        return text
+
+
+def _normalise_text(text: str) -> str:
+    """Map the Unicode and typing variants onto the plain grammar alphabet."""
+    text = re.sub(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])", "*", text)
+    text = text.replace("½", "0.5").replace("¼", "0.25").replace("¾", "0.75")
+    out = []
+    i = 0
+    while i < len(text):
+        ch = text[i]
+        if ch in _SUPERSCRIPT_CHARS:
+            j = i
+            while j < len(text) and text[j] in _SUPERSCRIPT_CHARS:
+                j += 1
+            out.append("^" + text[i:j].translate(_SUPERSCRIPTS))
+            i = j
+            continue
+        out.append(ch)
+        i += 1
+    text = "".join(out).translate(_SUBSCRIPTS)
+    for ch in _DOT_SEPARATORS:
+        text = text.replace(ch, "*")
+    for ch in _MINUS_SIGNS:
+        text = text.replace(ch, "-")
+    text = unicodedata.normalize("NFKC", text)
+    return "".join(text.split())
+
+
+_CHARGE_PATTERNS = (
+    re.compile(r"\^\(?(?P<digits>\d*)(?P<sign>[+-])\)?$"),
+    re.compile(r"\^\(?(?P<sign>[+-])(?P<digits>\d*)\)?$"),
+    re.compile(r"(?<=[A-Za-z0-9)\]}])\((?P<digits>\d*)(?P<sign>[+-])\)$"),
+    re.compile(r"(?<=[A-Za-z0-9)\]}])\((?P<sign>[+-])(?P<digits>\d*)\)$"),
+    re.compile(r"(?<=[A-Za-z)\]}])(?P<sign>[+-])(?P<digits>\d+)$"),
+    re.compile(r"(?<=\d)(?P<sign>[+-])(?P<digits>\d+)$"),
+)
+
+
+def _split_charge(text: str) -> tuple[str, int, str | None]:
+    """Take a written charge off the end: (body, charge, note)."""
+    pair = re.fullmatch(r"\[([^\[\]]+)\]\+?\[([^\[\]]+)\]-", text)
+    if pair:
+        from scorer import ion_library
+
+        cation, anion = (ion_library.find_alias(g) for g in pair.groups())
+        if cation is not None and anion is not None and cation.charge > 0 > anion.charge:
+            return text, 0, None  # "[C4mim]+[BF4]-": the signs restate each ion's charge
+    for pattern in _CHARGE_PATTERNS:
+        m = pattern.search(text)
+        if m:
+            magnitude = int(m.group("digits") or 1)
+            sign = 1 if m.group("sign") == "+" else -1
+            return text[: m.start()], sign * magnitude, None
+    m = re.search(r"([+-]+)$", text)
+    if not m or m.start() == 0:
+        return text, 0, None
+    signs = m.group(1)
+    if len(set(signs)) != 1:
+        raise FormulaError(f"cannot read the charge {signs!r} at the end of {text!r}; write it as ^2- or (2-)")
+    body = text[: m.start()]
+    sign = 1 if signs[0] == "+" else -1
+    digits = re.search(r"(\d+(?:\.\d+)?)$", body)
+    if len(signs) > 1 or not digits or "." in digits.group(1):
+        return body, sign * len(signs), None
+    # "Fe3+" (charge 3+) against "NH4+" (count 4, charge +): one digit before
+    # a single sign is ambiguous. A bracket before it makes it a charge
+    # ("[Fe(CN)6]4-"); otherwise prefer the reading that names a known ion.
+    before = body[: digits.start()]
+    charge_digit = digits.group(1)[-1]
+    as_charge_body = body[:-1]
+    if before.endswith(("]", ")", "}")) and len(digits.group(1)) == 1:
+        return as_charge_body, sign * int(charge_digit), None
+    as_count_known = _names_known_ion(body, sign)
+    as_charge_known = _names_known_ion(as_charge_body, sign * int(charge_digit))
+    if as_charge_known and not as_count_known:
+        return as_charge_body, sign * int(charge_digit), None
+    if as_count_known and not as_charge_known:
+        return body, sign, None
+    single_element = re.fullmatch(r"[A-Z][a-z]?\d*", body) is not None
+    if as_charge_known and as_count_known:
+        charge_reading = f"{as_charge_body}^{charge_digit}{signs}"
+        count_reading = f"{body}^{signs}"
+        chosen, other = (charge_reading, count_reading) if single_element else (count_reading, charge_reading)
+        note = f"{text!r} was read as {chosen} (also possible: {other}); write the charge with ^ to choose"
+        if single_element:
+            return as_charge_body, sign * int(charge_digit), note
+        return body, sign, note
+    if single_element:
+        return as_charge_body, sign * int(charge_digit), None
+    return body, sign, None
+
+
+def _names_known_ion(body: str, charge: int) -> bool:
+    from scorer import ion_library
+
+    try:
+        counts, _ = _parse_component(body, allow_ion_refs=False)
+    except FormulaError:
+        return False
+    return ion_library.is_known_ion(counts, charge)
+
+
+def _split_components(text: str) -> list[str]:
+    """Split at adduct separators outside brackets, keeping decimals whole."""
+    parts: list[str] = []
+    depth = 0
+    start = 0
+    i = 0
+    n = len(text)
+    while i < n:
+        ch = text[i]
+        if ch in _OPEN:
+            depth += 1
+        elif ch in _CLOSE:
+            depth -= 1
+        elif depth == 0 and i > start:
+            rest = text[i + 1:]
+            is_separator = False
+            if ch == "*":
+                is_separator = True
+            elif ch == "+" and _STARTS_FORMULA.match(rest):
+                is_separator = True
+            elif ch == ".":
+                after_digit = text[i - 1].isdigit()
+                if not after_digit or not rest[:1].isdigit() or _ADDUCT_AFTER_DOT.match(rest):
+                    is_separator = True
+            if is_separator:
+                parts.append(text[start:i])
+                start = i + 1
+                # the multiplier of the next component is read whole here, so
+                # that its own decimal point is not taken for a separator
+                m = _NUMBER.match(text, start)
+                i = m.end() if m else start
+                continue
+        i += 1
+    parts.append(text[start:])
+    return parts
+
+
+class _Parser:
+    """Recursive descent over one adduct component."""
+
+    def __init__(self, text: str, allow_ion_refs: bool):
+        self.text = text
+        self.pos = 0
+        self.allow_ion_refs = allow_ion_refs
+        self.ion_refs: list[tuple[str, float]] = []
+        self.water_groups = 0.0
+
+    def error(self, what: str) -> FormulaError:
+        return FormulaError(f"{what} at position {self.pos + 1} of {self.text!r}")
+
+    def number(self) -> float | None:
+        m = _NUMBER.match(self.text, self.pos)
+        if not m:
+            return None
+        self.pos = m.end()
+        value = float(m.group())
+        if value <= 0:
+            raise self.error(f"count {m.group()!r} must be positive")
+        if value > MAX_COUNT:
+            raise FormulaError(
+                f"count {m.group()} in {self.text!r} is larger than {MAX_COUNT}; formulas are written per formula unit"
+            )
+        return value
+
+    def sequence(self, depth: int, closer: str | None) -> dict[str, float]:
+        from scorer.elements import is_element_symbol
+
+        counts: dict[str, float] = {}
+        text = self.text
+        while self.pos < len(text):
+            ch = text[self.pos]
+            if closer is not None and ch == closer:
+                return counts
+            if ch in _CLOSE:
+                raise self.error(f"unbalanced {ch!r}: no matching {_CLOSE[ch]!r} before it")
+            if ch in _OPEN:
+                if depth + 1 > MAX_NESTING_DEPTH:
+                    raise self.error(f"brackets nested deeper than {MAX_NESTING_DEPTH}")
+                if depth == 0 and self.allow_ion_refs and (ch == "[" or self.abbreviation_group()):
+                    ref = self.ion_reference()
+                    if ref is not None:
+                        continue
+                opened_at = self.pos
+                self.pos += 1
+                inner = self.sequence(depth + 1, _OPEN[ch])
+                if self.pos >= len(text):
+                    self.pos = opened_at
+                    raise self.error(f"unbalanced {ch!r}: no closing {_OPEN[ch]!r}")
+                if not inner:
+                    raise self.error("empty brackets")
+                self.pos += 1
+                multiplier = self.number() or 1.0
+                if depth == 0 and inner == {"H": 2.0, "O": 1.0}:
+                    self.water_groups += multiplier
+                    continue
+                for symbol, n in inner.items():
+                    counts[symbol] = counts.get(symbol, 0.0) + n * multiplier
+                continue
+            if ch.isupper() and depth == 0 and self.pos > 0 and self.allow_ion_refs and self.abbreviation_tail():
+                continue
+            if ch.isupper():
+                two = text[self.pos:self.pos + 2]
+                if len(two) == 2 and two[1].islower() and is_element_symbol(two):
+                    symbol = two
+                elif is_element_symbol(ch):
+                    symbol = ch
+                else:
+                    m = re.match(r"[A-Z][a-z]*", text[self.pos:])
+                    raise self.error(f"unknown element {m.group()!r}")
+                self.pos += len(symbol)
+                n = self.number() or 1.0
+                counts[symbol] = counts.get(symbol, 0.0) + n
+                continue
+            if ch.isdigit():
+                raise self.error(f"a count {ch!r} with nothing before it to count")
+            if ch.islower():
+                raise self.error(f"unexpected {ch!r}: element symbols start with a capital letter")
+            if ch in "+-^":
+                raise self.error(f"unexpected {ch!r}: a charge goes at the end, e.g. SO4^2-")
+            raise self.error(f"unexpected character {ch!r}")
+        if closer is not None:
+            raise FormulaError(f"unbalanced {_CLOSE[closer]!r}: no closing {closer!r} in {self.text!r}")
+        return counts
+
+    def abbreviation_group(self) -> bool:
+        """``(OAc)2``: a bracket holding an abbreviation that is not a formula."""
+        from scorer import ion_library
+
+        closer = _OPEN[self.text[self.pos]]
+        end = self.text.find(closer, self.pos)
+        return end > 0 and ion_library.find_abbreviation(self.text[self.pos + 1:end]) is not None
+
+    def abbreviation_tail(self) -> bool:
+        """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""
+        from scorer import ion_library
+
+        ion = ion_library.find_abbreviation(self.text[self.pos:])
+        if ion is None:
+            return False
+        self.ion_refs.append((ion.ion_id, 1.0))
+        self.pos = len(self.text)
+        return True
+
+    def ion_reference(self) -> bool | None:
+        """``[C4mim]``, ``(OAc)``: a bracket whose content names a library ion."""
+        from scorer import ion_library
+
+        end = self.text.find(_OPEN[self.text[self.pos]], self.pos)
+        if end < 0:
+            return None
+        content = self.text[self.pos + 1:end]
+        ion = ion_library.find_alias(content)
+        if ion is None:
+            return None
+        self.pos = end + 1
+        count = self.number() or 1.0
+        # an explicit sign after the bracket ("[C4mim]+[BF4]-") restates the charge
+        if self.pos < len(self.text) and self.text[self.pos] in "+-":
+            if (self.text[self.pos] == "+") == (ion.charge > 0):
+                self.pos += 1
+        self.ion_refs.append((ion.ion_id, count))
+        rest = self.text[self.pos:]
+        if rest and not rest.startswith("["):
+            tail = ion_library.find_alias(rest.rstrip("+-"), exact_case=True)
+            if tail is not None:
+                self.ion_refs.append((tail.ion_id, 1.0))
+                self.pos = len(self.text)
+        return True
+
+
+def _parse_component(text: str, allow_ion_refs: bool = True) -> tuple[dict[str, float], _Parser]:
+    parser = _Parser(text, allow_ion_refs)
+    counts = parser.sequence(0, None)
+    return counts, parser
+
+
+@lru_cache(maxsize=65536)
+def parse_formula(text: str) -> Composition:
+    """Parse formula text into a :class:`Composition`.
+
+    Parameters
+    ----------
+    text : str
+        A chemical formula as typed, e.g. ``"CuSO4·5H2O"``, ``"Na₂SO₄"``,
+        ``"[C4mim][BF4]"`` or ``"SO4^2-"``.
+
+    Returns
+    -------
+    Composition
+
+    Raises
+    ------
+    FormulaError
+        For anything the grammar does not accept; the message quotes the bad
+        text and the position.
+
+    Examples
+    --------
+    >>> parse_formula("CuSO4·5H2O").canonical
+    'CuO4S·5H2O'
+    >>> parse_formula("CaCO3(H2O)6") == parse_formula("CaCO3.6H2O")
+    True
+    >>> parse_formula("SO4^2-").charge
+    -2
+    """
+    if not isinstance(text, str):
+        raise FormulaError(f"expected formula text, got {type(text).__name__}")
+    if len(text) > MAX_FORMULA_LENGTH:
+        raise FormulaError(
+            f"formula is {len(text)} characters long; the limit is {MAX_FORMULA_LENGTH}"
+            f" (starts {text[:20]!r})"
+        )
+    notes: list[str] = []
+    if _STOCK_NAME.search(text):
+        m = _STOCK_NAME.search(text)
+        raise FormulaError(
+            f"{m.group()!r} in {text!r} is a Stock name (oxidation state in Roman numerals), not a formula;"
+            " write the formula, e.g. Fe3O4 or FeCl3"
+        )
+    m = _ANNOTATION.search(text)
+    if m and m.start() > 0:
+        notes.append(f"ignored the note {m.group().strip()!r}")
+        text_to_parse = text[: m.start()]
+    else:
+        text_to_parse = text
+    text_to_parse = _shorthand_with_spaces(text_to_parse)
+    cleaned = _normalise_text(text_to_parse)
+    if not cleaned:
+        raise FormulaError("empty formula")
+    try:
+        return _parse_cleaned(text, cleaned, notes)
+    except FormulaError as exc:
+        message = str(exc)
+        hint = _suggest(cleaned)
+        if hint:
+            message += f"; did you mean {hint!r}?"
+        elif cleaned != text:
+            message += f" (read from {text!r})"
+        raise FormulaError(message) from None
+
+
+def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
+    body, charge, charge_note = _split_charge(cleaned)
+    if not body:
+        raise FormulaError(f"no formula before the charge in {text!r}")
+    if charge_note:
+        notes.append(charge_note)
+    totals: dict[str, float] = {}
+    water = 0.0
+    hints: dict[str, float] = {}
+    adducts: dict[str, float] = {}
+    for index, component in enumerate(_split_components(body)):
+        if not component:
+            raise FormulaError(f"an adduct separator with nothing after it in {text!r}")
+        m = _NUMBER.match(component)
+        multiplier = 1.0
+        if m:
+            multiplier = float(m.group())
+            if multiplier <= 0 or multiplier > MAX_COUNT:
+                raise FormulaError(f"multiplier {m.group()} in {text!r} must be between 0 and {MAX_COUNT}")
+            component = component[m.end():]
+            if not component:
+                raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
+        counts, parser = _parse_component(component)
+        if not counts and not parser.ion_refs:
+            raise FormulaError(f"no elements in {component!r}")
+        water += parser.water_groups * multiplier
+        if index > 0 and counts == {"H": 2.0, "O": 1.0} and not parser.ion_refs:
+            water += multiplier
+            continue
+        key = tuple(sorted(counts.items()))
+        if index > 0 and key in _NEUTRAL_ADDUCTS and not parser.ion_refs:
+            name = _NEUTRAL_ADDUCTS[key]
+            adducts[name] = adducts.get(name, 0.0) + multiplier
+        for ion_id, n in parser.ion_refs:
+            from scorer import ion_library
+
+            hints[ion_id] = hints.get(ion_id, 0.0) + n * multiplier
+            for symbol, k in ion_library.get_ion(ion_id).composition:
+                totals[symbol] = totals.get(symbol, 0.0) + k * n * multiplier
+        for symbol, n in counts.items():
+            totals[symbol] = totals.get(symbol, 0.0) + n * multiplier
+    if not totals:
+        if water:
+            totals = {"H": 2.0 * water, "O": water}
+            water = 0.0
+        else:
+            raise FormulaError(f"no elements in {text!r}")
+    total_atoms = sum(totals.values()) + 3 * water
+    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
+        raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
+    ordered = tuple((s, totals[s]) for s in _hill_order(totals))
+    return Composition(
+        text=text,
+        counts=ordered,
+        hydrate_water=water,
+        charge=charge,
+        ion_hints=tuple(sorted(hints.items())),
+        neutral_adducts=tuple(sorted(adducts.items())),
+        notes=tuple(notes),
+    )
+
+
+_STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
+# "(s)", "(aq)", "(anhydr.)", "(tech. grade)": lowercase notes after the formula
+_ANNOTATION = re.compile(r"\s*\((?=[^)]*[a-z])[a-z .,%0-9-]+\)\s*$")
+
+
+def _shorthand_with_spaces(text: str) -> str:
+    """``bmim BF4`` -> ``[bmim][BF4]`` when both words are ions of the library."""
+    words = text.split()
+    if len(words) != 2 or any(ch in text for ch in "[]"):
+        return text
+    from scorer import ion_library
+
+    first = ion_library.find_alias(words[0])
+    if first is None or first.charge <= 0 or not first.organic:
+        return text
+    second = ion_library.find_alias(words[1])
+    return f"[{words[0]}][{words[1]}]" if second is not None else f"[{words[0]}]{words[1]}"
+
+
+def _suggest(cleaned: str) -> str | None:
+    """A corrected spelling for a mis-cased symbol ("NaCL" -> "NaCl")."""
+    from scorer.elements import is_element_symbol
+
+    for i in range(len(cleaned) - 1):
+        pair = cleaned[i:i + 2]
+        if pair.isupper() and pair.isalpha() and is_element_symbol(pair[0] + pair[1].lower()):
+            candidate = cleaned[:i] + pair[0] + pair[1].lower() + cleaned[i + 2:]
+            try:
+                _parse_cleaned(candidate, candidate, [])
+            except FormulaError:
+                continue
+            return candidate
+    return None
+
+
+def _hill_order(counts: dict[str, float]) -> list[str]:
+    order = sorted(counts)
+    if "C" in counts:
+        order = ["C"] + (["H"] if "H" in counts else []) + [s for s in order if s not in ("C", "H")]
+    return order

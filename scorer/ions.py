@@ -1,0 +1,582 @@
+"""Ions and oxidation states: a composition -> a charge-balanced
+:class:`~scorer.model.Decomposition`, and what kind of substance it is.
+
+The solver
+----------
+1. Ions written explicitly (the ionic-liquid shorthand, bracketed complexes
+   of the library such as ``[Fe(CN)6]``) are taken as given; lattice water
+   and neutral adducts (``NH3``) are set apart.
+2. The rest is searched for polyatomic ions of the library, largest first,
+   each tried at every multiplicity that fits (at most three species).
+3. Whatever is left is assigned monatomic ions: metals positive, from their
+   element's listed oxidation states; a metal may be split over two states
+   (mixed valence, ``Fe3O4`` = Fe(2+) + 2 Fe(3+); ``Fe0.95O``).
+4. Every charge-balanced candidate gets a penalty (below); the lowest wins.
+   Candidates that tie with it are reported as equally plausible.
+
+Penalties (additive; lower is more plausible), common practice:
+
+====================================================  =======
+choice                                                penalty
+====================================================  =======
+an oxidation state outside the element's main list     2
+a monatomic cation of a non-metal (C4+, S6+ ...)       5
+H+ as a monatomic cation                               1.5
+a metal split over two oxidation states                1
+peroxide, superoxide, ozonide, polysulfide, C2(2-)     1.5
+an uncommon ion (hydrazinium, sulfamate, S2Ox, amide,  0.5
+fulminate, ammine and hydroxo complexes, alkoxides ...)
+H3O+ or an oxocation (NO2+, UO2(2+), VO(2+) ...)        2
+a hydrogen-oxoanion (HSO4-: H2SO4 reads as 2 H+)       0.05
+mercury as Hg(+) (mercury(I) is Hg2(2+))               1
+each distinct ion species                              0.1
+====================================================  =======
+
+A best penalty of 5 or more means no sensible ionic reading: the entry is
+then classed covalent (or unknown) and its formal oxidation states are found
+by electronegativity instead (:func:`formal_oxidation_states`).
+
+``substance_class`` values
+--------------------------
+``ionic_salt``
+    charge-balanced ions with an inorganic (or metal) cation.
+``ionic_liquid_pair``
+    an organic cation (imidazolium, pyrrolidinium, ammonium, phosphonium...)
+    with any anion; whether it melts below 100 C is the melting columns' job.
+``acid``
+    no metal; H+ with a single inorganic or carboxylate anion (HCl, H2SO4,
+    CH3COOH).
+``base``
+    a hydroxide (every anion OH-) or ammonia/hydrazine.
+``covalent_molecular``
+    non-metal molecules (CCl4, glucose) and high-valent metal halides that
+    are molecular (TiCl4, SnCl4: metal oxidation state of 4 or more with only
+    halide anions; common practice).
+``covalent_network``
+    extended covalent solids of B, C, Si, Ge with N, O, C (SiO2, SiC, BN,
+    diamond; common practice).
+``metallic``
+    elemental metals, alloys and intermetallics (every element a metal).
+``element``
+    a non-metallic element (O2, S8, P4, a noble gas).
+``ion``
+    a lone ion written with its charge (``SO4^2-``).
+``unknown``
+    none of these could be established; the message says why.
+"""
+from __future__ import annotations
+
+import itertools
+from functools import lru_cache
+
+from scorer.elements import get_element
+from scorer.formula import Composition, format_count
+from scorer.ion_library import get_ion, ion_library, ions_by_composition, monatomic_ion, same_label_ions
+from scorer.model import Decomposition, Ion, IonTerm
+
+__all__ = ["decompose", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
+
+SUBSTANCE_CLASSES = (
+    "ionic_salt",
+    "ionic_liquid_pair",
+    "acid",
+    "base",
+    "covalent_molecular",
+    "covalent_network",
+    "metallic",
+    "element",
+    "ion",
+    "unknown",
+)
+
+_HALOGENS = frozenset({"F", "Cl", "Br", "I", "At"})
+_NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
+_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O"})
+_RARE_ANION_FAMILIES = frozenset({"chalcogenide-polyatomic", "carbide"})
+_ACID_ANION_FAMILIES = frozenset({
+    "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
+    "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
+})
+_PENALTY_EXTRA_STATE = 2.0
+_PENALTY_NONMETAL_CATION = 5.0
+_PENALTY_PROTON = 1.5
+_PENALTY_MIXED_VALENCE = 1.0
+_PENALTY_RARE_ANION = 1.5
+_PENALTY_UNCOMMON_ION = 0.5
+_PENALTY_HYDROGEN_ANION = 0.05
+# Ions real salts seldom contain; they win only where nothing common fits.
+_UNCOMMON_FAMILIES = frozenset({
+    "ammine-complex", "hydroxo-complex", "polyhalide", "organic-anion", "alkylphosphate", "amidinium",
+})
+_UNCOMMON_IONS = frozenset({
+    "N2H5(+)", "N2H6(2+)", "NH3OH(+)", "NH2SO3(-)", "S2O4(2-)", "S2O5(2-)", "S2O6(2-)",
+    "S2O7(2-)", "S2O8(2-)", "HO2(-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)",
+})
+_PENALTY_SPECIES = 0.1
+_PENALTY_FRACTIONAL_SPLIT = 1.0
+# binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
+_ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
+# hydronium only where nothing else fits: H3PO4 is 3 H+ + PO4(3-), not H3O+ + PO3-
+_ION_PENALTIES = {"H3O(+)": 2.0}
+# oxocations (NO2+, UO2 2+, VO 2+) only where nothing else fits: HNO3 is H+ + NO3-
+_PENALTY_OXOCATION = 2.0
+_IONIC_THRESHOLD = 5.0
+_MAX_POLYATOMIC_SPECIES = 3
+_MAX_SEARCH_NODES = 20000
+_TOL = 1e-6
+
+
+def format_ion_terms(terms) -> str:
+    """``Fe(3+)*2;SO4(2-)*3`` from a sequence of IonTerm."""
+    return ";".join(str(t) for t in terms)
+
+
+def format_oxidation_states(states) -> str:
+    """``Fe:+3;S:+6;O:-2``; averages of mixed or fractional states to 3 decimals."""
+    parts = []
+    for symbol, value in states:
+        text = format_count(round(abs(value), 3))
+        sign = "+" if value > 0 else ("-" if value < 0 else "")
+        parts.append(f"{symbol}:{sign}{text}")
+    return ";".join(parts)
+
+
+def _is_metal(symbol: str) -> bool:
+    return get_element(symbol).is_metal
+
+
+def _states(symbol: str) -> tuple[tuple[int, float], ...]:
+    """Non-zero oxidation states with their penalty (main 0, extra 2)."""
+    element = get_element(symbol)
+    seen = {}
+    for s in element.oxidation_states_main:
+        if s != 0:
+            seen.setdefault(int(s), 0.0)
+    for s in element.oxidation_states_extra:
+        if s != 0:
+            seen.setdefault(int(s), _PENALTY_EXTRA_STATE)
+    return tuple(sorted(seen.items()))
+
+
+def _monatomic_options(symbol: str, count: float):
+    """(kind, payload, penalty) options for one leftover element."""
+    metal = _is_metal(symbol)
+    options = []
+    for state, penalty in _states(symbol):
+        if metal and state < 0:
+            continue
+        if state > 0 and not metal:
+            penalty += _PENALTY_PROTON if symbol == "H" else _PENALTY_NONMETAL_CATION
+        if symbol == "Hg" and state == 1:
+            penalty += 1.0
+        options.append(("single", state, penalty))
+    if metal and (count > 1 + _TOL or abs(count - round(count)) > _TOL):
+        positives = [(s, p) for s, p in _states(symbol) if s > 0]
+        for (s1, p1), (s2, p2) in itertools.combinations(positives, 2):
+            options.append(("mixed", (s1, s2), p1 + p2 + _PENALTY_MIXED_VALENCE))
+    return options
+
+
+def _assign_monatomic(remaining: dict[str, float], needed: float):
+    """All charge-balanced monatomic assignments of ``remaining``.
+
+    Yields (penalty, [(symbol, state, count), ...]).
+    """
+    symbols = [s for s, n in remaining.items() if n > _TOL]
+    if not symbols:
+        if abs(needed) < _TOL:
+            yield 0.0, []
+        return
+    per_symbol = [_monatomic_options(s, remaining[s]) for s in symbols]
+    for combo in itertools.product(*per_symbol):
+        mixed = [i for i, opt in enumerate(combo) if opt[0] == "mixed"]
+        if len(mixed) > 1:
+            continue
+        fixed = sum(opt[1] * remaining[symbols[i]] for i, opt in enumerate(combo) if opt[0] == "single")
+        penalty = sum(opt[2] for opt in combo)
+        if not mixed:
+            if abs(fixed - needed) < _TOL:
+                yield penalty, [(symbols[i], opt[1], remaining[symbols[i]]) for i, opt in enumerate(combo)]
+            continue
+        i = mixed[0]
+        n = remaining[symbols[i]]
+        s1, s2 = combo[i][1]
+        residual = needed - fixed
+        # x ions at s1 and n - x at s2 carry the residual charge
+        x = (s2 * n - residual) / (s2 - s1)
+        if abs(n - round(n)) < _TOL and abs(x - round(x)) > _TOL:
+            penalty += _PENALTY_FRACTIONAL_SPLIT
+        if _TOL < x < n - _TOL:
+            out = [(symbols[j], opt[1], remaining[symbols[j]]) for j, opt in enumerate(combo) if j != i]
+            out += [(symbols[i], s1, round(x, 9)), (symbols[i], s2, round(n - x, 9))]
+            yield penalty, out
+
+
+def _fits(composition, remaining: dict[str, float]) -> int:
+    """How many times an ion's composition fits in ``remaining``."""
+    times = None
+    for symbol, k in composition:
+        have = remaining.get(symbol, 0.0)
+        t = int((have + _TOL) // k)
+        times = t if times is None else min(times, t)
+        if times == 0:
+            return 0
+    return times or 0
+
+
+def _subtract(remaining: dict[str, float], composition, times: float) -> dict[str, float]:
+    out = dict(remaining)
+    for symbol, k in composition:
+        out[symbol] = out.get(symbol, 0.0) - k * times
+        if abs(out[symbol]) < _TOL:
+            del out[symbol]
+    return out
+
+
+def _ion_penalty(ion: Ion) -> float:
+    if ion.ion_id in _ION_PENALTIES:
+        return _ION_PENALTIES[ion.ion_id]
+    if ion.family in _RARE_ANION_FAMILIES:
+        return _PENALTY_RARE_ANION
+    if ion.family == "oxocation":
+        return _PENALTY_OXOCATION
+    if ion.family in _UNCOMMON_FAMILIES or ion.ion_id in _UNCOMMON_IONS:
+        return _PENALTY_UNCOMMON_ION
+    if ion.family == "hydrogen-oxoanion":
+        return _PENALTY_HYDROGEN_ANION
+    return 0.0
+
+
+def _search(remaining: dict[str, float], needed: float):
+    """Charge-balanced readings of ``remaining`` as library and monatomic ions.
+
+    A depth-first branch and bound: library ions that fit are tried, common
+    ones and larger ones first, each at every multiplicity from the most that
+    fits down to none; a branch is cut once its penalty so far exceeds the
+    best complete reading. Yields (penalty, [(Ion, count), ...]).
+    """
+    candidates = [
+        ion for ion in ion_library()
+        if (len(ion.composition) > 1 or ion.composition[0][1] > 1) and _fits(ion.composition, remaining)
+    ]
+    candidates.sort(key=lambda ion: (_ion_penalty(ion), -ion.atom_count, ion.ion_id))
+    nodes = 0
+    best = [float("inf")]
+    found: list = []
+
+    def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
+        nonlocal nodes
+        nodes += 1
+        if nodes > _MAX_SEARCH_NODES:
+            return
+        floor = cost + _PENALTY_SPECIES * (len(chosen) + (1 if left else 0))
+        if floor > best[0] + _TOL:
+            return
+        if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
+            for penalty, singles in _assign_monatomic(left, needed - charge):
+                terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
+                total = penalty + cost + _PENALTY_SPECIES * len(terms)
+                if total <= best[0] + _TOL:
+                    best[0] = min(best[0], total)
+                    found.append((total, terms))
+            return
+        ion = candidates[index]
+        most = _fits(ion.composition, left)
+        for times in range(most, 0, -1):
+            walk(
+                index + 1,
+                _subtract(left, ion.composition, times),
+                chosen + [(ion, float(times))],
+                charge + ion.charge * times,
+                cost + _ion_penalty(ion),
+            )
+        walk(index + 1, left, chosen, charge, cost)
+
+    walk(0, dict(remaining), [], 0.0, 0.0)
+    return [(p, t) for p, t in found if p <= best[0] + _TOL]
+
+
+def _electronegativity(symbol: str) -> float:
+    value = get_element(symbol).electronegativity_pauling
+    return value if value == value else 1.0
+
+
+_DEFAULT_STATES = {"F": -1, "O": -2, "H": 1, "Cl": -1, "Br": -1, "I": -1, "N": -3, "S": -2, "Se": -2, "P": -3}
+
+
+def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tuple[tuple[str, float], ...]:
+    """Formal oxidation states of a covalent formula by electronegativity.
+
+    Every element but one takes its usual state (F -1, O -2, H +1, halogens
+    -1, N -3, S -2 ...; the most electronegative element its most negative
+    listed state); the least electronegative element whose resulting state
+    lies within its listed range takes the balance, possibly fractional
+    (common practice).
+
+    >>> dict(formal_oxidation_states({"C": 1, "Cl": 4}))
+    {'C': 4.0, 'Cl': -1.0}
+    >>> dict(formal_oxidation_states({"H": 2, "O": 2}))
+    {'H': 1.0, 'O': -1.0}
+    """
+    symbols = list(counts)
+    if len(symbols) == 1:
+        ((symbol, n),) = counts.items()
+        return ((symbol, charge / n),)
+    by_chi = sorted(symbols, key=_electronegativity)
+    most = by_chi[-1]
+
+    def default(symbol: str) -> float:
+        if symbol == "H" and symbol == most:
+            return -1.0
+        if symbol in _DEFAULT_STATES and (symbol != "H" or _electronegativity(most) > 2.2):
+            state = _DEFAULT_STATES[symbol]
+            if state < 0 and symbol != most and _electronegativity(symbol) < _electronegativity(most) - 1.0:
+                state = -state if symbol != "N" else 3
+            return float(state)
+        states = [s for s, _ in _states(symbol)] or [0]
+        return float(min(states) if symbol == most else max(states))
+
+    # an element without a usual state (C in organics, Si in SiC) balances first
+    balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
+    for balancer in balancers:
+        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+        states = [s for s, _ in _states(balancer)] or [0]
+        if min(states) - _TOL <= value <= max(states) + _TOL:
+            break
+    else:
+        balancer = balancers[0]
+        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+    return tuple((s, round(value if s == balancer else default(s), 6)) for s in symbols)
+
+
+def _oxidation_states_of(terms: list[IonTerm]) -> tuple[tuple[str, float], ...]:
+    totals: dict[str, float] = {}
+    weights: dict[str, float] = {}
+    for term in terms:
+        ion = term.ion
+        for symbol, state in ion.oxidation_states:
+            k = dict(ion.composition).get(symbol, 1.0) * term.count
+            totals[symbol] = totals.get(symbol, 0.0) + state * k
+            weights[symbol] = weights.get(symbol, 0.0) + k
+    return tuple((s, round(totals[s] / weights[s], 6)) for s in totals)
+
+
+def _merge(terms: list[tuple[Ion, float]]) -> tuple[list[IonTerm], list[IonTerm]]:
+    merged: dict[str, list] = {}
+    for ion, n in terms:
+        if ion.ion_id in merged:
+            merged[ion.ion_id][1] += n
+        else:
+            merged[ion.ion_id] = [ion, n]
+    cations = [IonTerm(ion, n) for ion, n in merged.values() if ion.charge > 0]
+    anions = [IonTerm(ion, n) for ion, n in merged.values() if ion.charge < 0]
+    # metals before ammonium-like cations, lower charge first: a stable order
+    cations.sort(key=lambda t: (t.ion.organic, not t.ion.monatomic, t.ion.charge, t.ion.ion_id))
+    anions.sort(key=lambda t: (t.ion.organic, not t.ion.monatomic, -t.ion.charge, t.ion.ion_id))
+    return cations, anions
+
+
+def _reading_text(cations, anions) -> str:
+    return format_ion_terms(list(cations) + list(anions))
+
+
+def _nonionic(comp: Composition, counts: dict[str, float], notes: list[str], water: float, neutral) -> Decomposition:
+    symbols = set(counts)
+    states = formal_oxidation_states(counts, comp.charge)
+    if all(_is_metal(s) for s in symbols):
+        cls = "metallic"
+        states = tuple((s, 0.0) for s in counts)
+    elif len(symbols) == 1:
+        cls = "covalent_network" if symbols <= _NETWORK_FORMERS else "element"
+        states = tuple((s, 0.0) for s in counts)
+    elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
+        cls = "base"
+    elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}):
+        cls = "covalent_network"
+    elif any(_is_metal(s) for s in symbols):
+        cls = "unknown"
+        states = ()
+        notes.append("no charge-balanced set of ions found: check the formula (counts, charges, a missing element)")
+    else:
+        cls = "covalent_molecular"
+    return Decomposition(
+        composition=tuple(counts.items()),
+        hydrate_water=water,
+        neutral_parts=neutral,
+        oxidation_states=states,
+        substance_class=cls,
+        notes=tuple(notes),
+    )
+
+
+@lru_cache(maxsize=65536)
+def decompose(comp: Composition) -> Decomposition:
+    """Find the ions, oxidation states and substance class of a composition.
+
+    Parameters
+    ----------
+    comp : Composition
+        From :func:`scorer.formula.parse_formula`.
+
+    Returns
+    -------
+    Decomposition
+        ``notes`` carries warnings (ambiguity, guessed readings); an entry that
+        could not be resolved has ``substance_class == "unknown"`` and a note
+        saying why.
+
+    Examples
+    --------
+    >>> from scorer.formula import parse_formula
+    >>> d = decompose(parse_formula("Fe3O4"))
+    >>> format_ion_terms(d.cations), format_ion_terms(d.anions)
+    ('Fe(2+)*1;Fe(3+)*2', 'O(2-)*4')
+    >>> format_oxidation_states(d.oxidation_states)
+    'Fe:+2.667;O:-2'
+    """
+    counts = comp.as_dict()
+    notes = list(comp.notes)
+    water = comp.hydrate_water
+    neutral = tuple(f"{name}*{format_count(n)}" for name, n in comp.neutral_adducts)
+    for name, n in comp.neutral_adducts:
+        if name == "NH3":
+            counts = _subtract(counts, (("H", 3.0), ("N", 1.0)), n)
+
+    if comp.charge:
+        return _lone_ion(comp, counts, notes)
+
+    symbols = set(counts)
+    if len(symbols) == 1 or all(_is_metal(s) for s in symbols):
+        return _nonionic(comp, counts, notes, water, neutral)
+    if "(NH2)" in comp.text and not any(_is_metal(s) for s in symbols):
+        # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
+        return _nonionic(comp, counts, notes, water, neutral)
+
+    remaining = dict(counts)
+    hinted = []
+    for ion_id, n in comp.ion_hints:
+        ion = get_ion(ion_id)
+        # a bracketed complex names its composition, not its charge:
+        # [Fe(CN)6] is hexacyanoferrate(II) in K4[Fe(CN)6], (III) in K3[Fe(CN)6]
+        hinted.append([(variant, n) for variant in same_label_ions(ion)])
+        remaining = _subtract(remaining, ion.composition, n)
+
+    readings = []
+    for given in itertools.product(*hinted):
+        given = list(given)
+        given_charge = sum(ion.charge * n for ion, n in given)
+        if remaining:
+            for penalty, terms in _search(remaining, -given_charge):
+                readings.append((penalty, given + terms))
+        elif abs(given_charge) < _TOL:
+            readings.append((0.0, given))
+    if hinted and not remaining and not readings:
+        notes.append("the ions written do not balance: " + ", ".join(
+            f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
+
+    readings = [r for r in readings if _has_both_signs(r[1])]
+    if not readings:
+        if comp.ion_hints and not notes:
+            notes.append("the written ions leave a remainder that no ion assignment balances")
+        return _nonionic(comp, counts, notes, water, neutral)
+
+    best_penalty = min(p for p, _ in readings)
+    if best_penalty >= _IONIC_THRESHOLD:
+        return _nonionic(comp, counts, notes, water, neutral)
+
+    seen: dict[str, tuple] = {}
+    for penalty, terms in sorted(readings, key=lambda r: (r[0], _reading_text(*_merge(r[1])))):
+        if penalty > best_penalty + _TOL:
+            break
+        cations, anions = _merge(terms)
+        seen.setdefault(_reading_text(cations, anions), (cations, anions))
+    (text, (cations, anions)), *others = seen.items()
+    alternatives = tuple(t for t, _ in others)
+    if alternatives:
+        notes.append("ambiguous: equally plausible readings " + " | ".join((text,) + alternatives))
+
+    states = _oxidation_states_of(cations + anions)
+    cls = _classify(counts, cations, anions)
+    if cls == "unknown":
+        # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-:
+        # not an acid, so read it as the molecule it is
+        return _nonionic(comp, counts, list(comp.notes), water, neutral)
+    if cls == "covalent_molecular":
+        return Decomposition(
+            composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+            oxidation_states=states, substance_class=cls, notes=tuple(notes),
+        )
+    return Decomposition(
+        composition=tuple(counts.items()),
+        cations=tuple(cations),
+        anions=tuple(anions),
+        neutral_parts=neutral,
+        hydrate_water=water,
+        oxidation_states=states,
+        substance_class=cls,
+        alternatives=alternatives,
+        notes=tuple(notes),
+    )
+
+
+def _has_both_signs(terms) -> bool:
+    return any(ion.charge > 0 for ion, _ in terms) and any(ion.charge < 0 for ion, _ in terms)
+
+
+def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
+    has_metal = any(_is_metal(s) for s in counts)
+    cation_ions = [t.ion for t in cations]
+    if any(ion.organic for ion in cation_ions):
+        return "ionic_liquid_pair"
+    if not has_metal and all(ion.element == "H" for ion in cation_ions):
+        anion = anions[0].ion if len(anions) == 1 and anions[0].count == 1 else None
+        if anion is not None and anion.family in _ACID_ANION_FAMILIES and (
+            not anion.monatomic or anion.element in _ACID_FORMING_ELEMENTS
+        ):
+            return "acid"
+        return "unknown"
+    if all(t.ion.ion_id == "OH(-)" for t in anions):
+        return "base"
+    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and _is_metal(ion.element)]
+    if (
+        metal_states
+        and len(cation_ions) == 1
+        and max(metal_states) >= 4
+        and all(t.ion.monatomic and t.ion.element in _HALOGENS for t in anions)
+    ):
+        return "covalent_molecular"
+    return "ionic_salt"
+
+
+def _lone_ion(comp: Composition, counts: dict[str, float], notes: list[str]) -> Decomposition:
+    charge = comp.charge
+    candidates = ions_by_composition(counts, charge)
+    ion = candidates[0] if candidates else None
+    if ion is None and len(counts) == 1:
+        ((symbol, n),) = counts.items()
+        if n == 1:
+            ion = monatomic_ion(symbol, charge)
+            if charge not in [s for s, _ in _states(symbol)]:
+                notes.append(f"{symbol} is not listed with oxidation state {charge:+d}")
+    if ion is None:
+        notes.append(f"{comp.hill} with charge {charge:+d} is not an ion of the library")
+        return Decomposition(
+            composition=tuple(counts.items()),
+            oxidation_states=formal_oxidation_states(counts, charge),
+            substance_class="ion",
+            notes=tuple(notes),
+        )
+    if len(candidates) > 1:
+        notes.append("ambiguous: " + " | ".join(i.ion_id for i in candidates))
+    term = (IonTerm(ion, 1.0),)
+    return Decomposition(
+        composition=tuple(counts.items()),
+        cations=term if charge > 0 else (),
+        anions=term if charge < 0 else (),
+        hydrate_water=comp.hydrate_water,
+        oxidation_states=ion.oxidation_states,
+        substance_class="ion",
+        notes=tuple(notes),
+    )

@@ -1,0 +1,118 @@
+"""The compound model shared by every scoring module.
+
+A formula is parsed into a :class:`scorer.formula.Composition`; the ion solver
+(:mod:`scorer.ions`) turns it into a :class:`Decomposition`, and each
+descriptor module (character, fajans, hsab, lattice, melting) reads a
+``Decomposition`` and returns plain values for its columns.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+__all__ = ["Column", "Ion", "IonTerm", "Decomposition", "format_charge"]
+
+
+def format_charge(charge: int) -> str:
+    """Write an ion charge the way the output columns do.
+
+    >>> [format_charge(c) for c in (1, -1, 2, -3)]
+    ['+', '-', '2+', '3-']
+    """
+    if charge == 0:
+        return "0"
+    sign = "+" if charge > 0 else "-"
+    magnitude = abs(int(charge))
+    return sign if magnitude == 1 else f"{magnitude}{sign}"
+
+
+@dataclass(frozen=True)
+class Ion:
+    """One ion: monatomic (``Fe(3+)``), inorganic polyatomic (``SO4(2-)``) or
+    organic (``[C4mim](+)``).
+
+    ``ion_id`` is the unique key used by every data table under
+    ``scorer/data/``: ``LABEL(CHARGE)`` with the charge written by
+    :func:`format_charge`.
+    """
+
+    ion_id: str
+    label: str
+    charge: int
+    composition: tuple[tuple[str, float], ...]
+    family: str
+    name: str = ""
+    organic: bool = False
+    element: str | None = None
+    oxidation_states: tuple[tuple[str, float], ...] = ()
+    source: str = ""
+
+    @property
+    def monatomic(self) -> bool:
+        return self.element is not None
+
+    @property
+    def atom_count(self) -> float:
+        return sum(n for _, n in self.composition)
+
+
+@dataclass(frozen=True)
+class IonTerm:
+    """An ion and how many of it one formula unit holds."""
+
+    ion: Ion
+    count: float
+
+    def __str__(self) -> str:
+        count = self.count
+        text = f"{count:g}" if count != int(count) else str(int(count))
+        return f"{self.ion.ion_id}*{text}"
+
+
+@dataclass(frozen=True)
+class Decomposition:
+    """What a formula unit is made of, as ions where it is ionic.
+
+    ``composition`` is the flat element count of one formula unit without
+    its lattice water, in canonical order. ``cations`` and ``anions`` are empty for covalent and metallic
+    substances; ``oxidation_states`` then still holds the formal states where
+    they could be assigned. ``hydrate_water`` counts lattice water per formula
+    unit, kept apart from the ions. ``alternatives`` lists other assignments
+    that were equally plausible (written like the ``cations``/``anions``
+    columns) and ``notes`` the warnings for the row.
+    """
+
+    composition: tuple[tuple[str, float], ...] = ()
+    cations: tuple[IonTerm, ...] = ()
+    anions: tuple[IonTerm, ...] = ()
+    neutral_parts: tuple[str, ...] = ()
+    hydrate_water: float = 0.0
+    oxidation_states: tuple[tuple[str, float], ...] = ()
+    substance_class: str = "unknown"
+    alternatives: tuple[str, ...] = ()
+    notes: tuple[str, ...] = field(default=())
+
+    @property
+    def is_ionic(self) -> bool:
+        return bool(self.cations) and bool(self.anions)
+
+
+@dataclass(frozen=True)
+class Column:
+    """One generated output column, declared once.
+
+    The registry in :mod:`scorer.columns` collects these from every scoring
+    module; it drives the table writer, ``ionicity columns`` and the README
+    table.
+
+    ``dtype`` is one of ``"string"``, ``"float64"``, ``"int64"``, ``"bool"``.
+    ``aggregation`` says how several cations or anions are combined (empty
+    where the column is per compound).
+    """
+
+    name: str
+    dtype: str
+    unit: str
+    description: str
+    method: str
+    source: str
+    aggregation: str = ""

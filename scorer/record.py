@@ -1,0 +1,150 @@
+"""Score one compound into one record: a dict with one value per output column."""
+from __future__ import annotations
+
+import math
+from functools import lru_cache
+
+from scorer.columns import descriptor_modules, output_columns
+from scorer.elements import get_element
+from scorer.formula import Composition, FormulaError, format_count, parse_formula
+from scorer.ions import decompose, format_ion_terms, format_oxidation_states
+from scorer.model import Decomposition, IonTerm
+
+__all__ = ["score_formula", "score_composition", "normalized_formula", "molar_mass_g_mol", "empty_record"]
+
+
+def empty_record() -> dict:
+    """A record with every column empty: NaN for numbers, None for text."""
+    return {c.name: (math.nan if c.dtype == "float64" else None) for c in output_columns()}
+
+
+def molar_mass_g_mol(counts: dict[str, float]) -> float:
+    """Sum of standard atomic weights times counts.
+
+    >>> round(molar_mass_g_mol({"Na": 1, "Cl": 1}), 3)
+    58.44
+    """
+    return float(sum(get_element(s).atomic_weight * n for s, n in counts.items()))
+
+
+def _ion_text(term: IonTerm, bracket_polyatomic: bool) -> str:
+    ion = term.ion
+    label = ion.label
+    count = "" if abs(term.count - 1) < 1e-9 else format_count(term.count)
+    if ion.monatomic or label.startswith("["):
+        return label + count
+    if "(" in label or bracket_polyatomic:
+        return f"[{label}]{count}"
+    if count and len(ion.composition) > 1 or (count and ion.composition[0][1] != 1):
+        return f"({label}){count}"
+    return label + count
+
+
+def normalized_formula(comp: Composition, dec: Decomposition) -> str:
+    """One canonical string per compound.
+
+    Ionic entries are written from their ions, cations then anions
+    (``Fe2(SO4)3``, ``(NH4)2SO4``, ``K4[Fe(CN)6]``, ``[C4mim][BF4]``); a metal
+    present in two oxidation states, covalent and metallic entries use the
+    Hill formula. Lattice water follows as ``·nH2O``.
+    """
+    if dec.substance_class == "ion" and len(dec.cations + dec.anions) == 1:
+        from scorer.model import format_charge
+
+        ion = (dec.cations + dec.anions)[0].ion
+        return f"{ion.label}^{format_charge(ion.charge)}"
+    if not dec.is_ionic or comp.charge != 0:
+        return comp.canonical
+    if dec.substance_class == "acid" and any(t.ion.organic for t in dec.anions):
+        return comp.canonical
+    # a metal in two oxidation states is written once (Fe3O4, Pb3O4)
+    merged: dict[str, IonTerm] = {}
+    for term in dec.cations + dec.anions:
+        key = term.ion.element or term.ion.ion_id
+        if key in merged:
+            merged[key] = IonTerm(merged[key].ion, merged[key].count + term.count)
+        else:
+            merged[key] = term
+    ionic_liquid = any(t.ion.organic for t in dec.cations)
+    text = "".join(_ion_text(t, ionic_liquid) for t in merged.values())
+    text += "".join("·" + _adduct_text(p) for p in dec.neutral_parts)
+    if dec.hydrate_water:
+        water = format_count(dec.hydrate_water)
+        text += "·" + ("" if water == "1" else water) + "H2O"
+    return text
+
+
+def _adduct_text(part: str) -> str:
+    name, _, count = part.partition("*")
+    return ("" if count == "1" else count) + name
+
+
+def score_composition(comp: Composition) -> dict:
+    """Score a parsed composition; see :func:`score_formula`."""
+    record = empty_record()
+    dec = decompose(comp)
+    notes = list(dec.notes)
+    record["formula_normalized"] = normalized_formula(comp, dec)
+    record["substance_class"] = dec.substance_class
+    record["cations"] = format_ion_terms(dec.cations)
+    record["anions"] = format_ion_terms(dec.anions)
+    record["oxidation_states"] = format_oxidation_states(dec.oxidation_states)
+    record["hydrate_water"] = float(dec.hydrate_water)
+    record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
+    for module in descriptor_modules():
+        values, module_notes = module.describe(dec)
+        record.update(values)
+        notes.extend(module_notes)
+    error = dec.substance_class == "unknown"
+    record["status"] = "error" if error else ("warning" if notes else "ok")
+    record["message"] = "; ".join(dict.fromkeys(notes))
+    return record
+
+
+@lru_cache(maxsize=65536)
+def _score_text(text: str) -> tuple:
+    try:
+        comp = parse_formula(text)
+    except FormulaError as exc:
+        record = empty_record()
+        record["status"] = "error"
+        record["message"] = str(exc)
+        return tuple(record.items())
+    return tuple(score_composition(comp).items())
+
+
+def score_formula(text) -> dict:
+    """Score one formula: a dict with one value per generated output column.
+
+    Never raises on bad input: a formula that cannot be read or resolved gets
+    ``status == "error"`` and a ``message`` saying why.
+
+    Parameters
+    ----------
+    text : str
+        A formula as typed (``"CuSO4·5H2O"``, ``"[C4mim][BF4]"``...).
+
+    Returns
+    -------
+    dict
+        Keys are the generated column names of :func:`scorer.columns.output_columns`.
+
+    Examples
+    --------
+    >>> r = score_formula("Fe2(SO4)3")
+    >>> r["status"], r["cations"], r["anions"], r["oxidation_states"]
+    ('ok', 'Fe(3+)*2', 'SO4(2-)*3', 'Fe:+3;S:+6;O:-2')
+    >>> score_formula("Xx2O")["message"]
+    "unknown element 'Xx' at position 1 of 'Xx2O'"
+    """
+    if text is None or (isinstance(text, float) and math.isnan(text)):
+        record = empty_record()
+        record.update(status="error", message="empty formula cell")
+        return record
+    if not isinstance(text, str):
+        text = str(text)
+    if not text.strip():
+        record = empty_record()
+        record.update(status="error", message="empty formula cell")
+        return record
+    return dict(_score_text(text))
