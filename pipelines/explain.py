@@ -89,3 +89,34 @@ def columns_table(fmt: str = "text") -> str:
             block.append(f"    several ions: {c.aggregation}")
         blocks.append("\n".join(block))
     return "\n".join(blocks)
+
+
+_START = "<!-- columns:start -->"
+_END = "<!-- columns:end -->"
+
+
+def readme_with_columns(text: str) -> str:
+    """``text`` with the generated column table between the README markers."""
+    head, _, rest = text.partition(_START)
+    _, _, tail = rest.partition(_END)
+    return f"{head}{_START}\n{columns_table('markdown')}\n{_END}{tail}"
+
+
+def _main(argv: list[str] | None = None) -> int:
+    import argparse
+    from pathlib import Path
+
+    parser = argparse.ArgumentParser(prog="python -m pipelines.explain")
+    parser.add_argument("--update-readme", action="store_true", help="rewrite the column table in README.md")
+    parser.add_argument("--readme", default=str(Path(__file__).resolve().parent.parent / "README.md"))
+    args = parser.parse_args(argv)
+    if not args.update_readme:
+        print(columns_table("markdown"))
+        return 0
+    path = Path(args.readme)
+    path.write_text(readme_with_columns(path.read_text(encoding="utf-8")), encoding="utf-8")
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(_main())
