@@ -22,6 +22,11 @@ BASE_COLUMNS: tuple[Column, ...] = (
     Column("status", "string", "", "ok, warning or error", "", ""),
     Column("message", "string", "", "why, for warning and error rows; empty when ok", "", ""),
     Column(
+        "value_notes", "string", "",
+        "why some generated values are empty or estimated for this row (an ion no published table covers,"
+        " a quantity that does not apply); informational, does not change status", "", "",
+    ),
+    Column(
         "formula_normalized", "string", "",
         "the parsed formula written canonically: ions in order (cations, then anions) for ionic entries,"
         " Hill order otherwise; lattice water as ·nH2O; a lone ion's charge as ^2-",
@@ -57,7 +62,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ()
+DESCRIPTOR_MODULES: tuple[str, ...] = ("scorer.character", "scorer.fajans", "scorer.hsab", "scorer.lattice")
 
 
 @cache

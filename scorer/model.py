@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-__all__ = ["Column", "Ion", "IonTerm", "Decomposition", "format_charge"]
+__all__ = ["Column", "Ion", "IonTerm", "Decomposition", "RowWarning", "format_charge"]
 
 
 def format_charge(charge: int) -> str:
@@ -116,3 +116,15 @@ class Column:
     method: str
     source: str
     aggregation: str = ""
+
+
+class RowWarning(str):
+    """A descriptor note that turns its row's status into ``warning``.
+
+    Descriptor modules return notes with their values. A plain ``str`` note
+    explains a value left empty or estimated by design (an ion no published
+    table covers, a quantity that does not apply) and goes to the ``value_notes``
+    column without changing the status. A ``RowWarning`` says something the
+    user should check (a structure type guessed, an input read in one of two
+    ways) and goes to ``message`` with status ``warning``.
+    """

@@ -8,7 +8,9 @@ from scorer.columns import descriptor_modules, output_columns
 from scorer.elements import get_element
 from scorer.formula import Composition, FormulaError, format_count, parse_formula
 from scorer.ions import decompose, format_ion_terms, format_oxidation_states
-from scorer.model import Decomposition, IonTerm
+from scorer.model import Decomposition, IonTerm, RowWarning
+
+_IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
 __all__ = ["score_formula", "score_composition", "normalized_formula", "molar_mass_g_mol", "empty_record"]
 
@@ -91,13 +93,18 @@ def score_composition(comp: Composition) -> dict:
     record["oxidation_states"] = format_oxidation_states(dec.oxidation_states)
     record["hydrate_water"] = float(dec.hydrate_water)
     record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
+    gaps: list[str] = []
+    if dec.substance_class not in _IONIC_CLASSES:
+        gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
     for module in descriptor_modules():
         values, module_notes = module.describe(dec)
         record.update(values)
-        notes.extend(module_notes)
+        for note in module_notes:
+            (notes if isinstance(note, RowWarning) else gaps).append(note)
     error = dec.substance_class == "unknown"
     record["status"] = "error" if error else ("warning" if notes else "ok")
     record["message"] = "; ".join(dict.fromkeys(notes))
+    record["value_notes"] = "; ".join(dict.fromkeys(gaps))
     return record
 
 

@@ -1,0 +1,589 @@
+"""Bond character: electronegativity difference, Pauling and Hannay-Smyth
+ionic character, and the van Arkel-Ketelaar bond-type triangle.
+
+Every value uses Pauling electronegativities from the element snapshot
+(:mod:`scorer.elements`; CRC Handbook values via mendeleev).
+
+Which two atoms
+---------------
+A salt's bond is the contact between a cation and an anion, so the
+electronegativity difference is taken between the atom of each ion that
+meets the other (:func:`contact_atom`):
+
+* monatomic ions: the element itself;
+* oxygen-bearing anions (oxoanions, carboxylates, sulfonates, alkylsulfates,
+  hydroxide, [NTf2] and [FSI], whose cations sit at the sulfonyl oxygens): O;
+* halo-complexes and polyhalides without oxygen (BF4, PF6, AlCl4, PtCl6,
+  ICl2, [FAP]): the most electronegative halogen, which forms their surface;
+* pseudohalides by their usual donor atom: C for cyanide and fulminate, N for
+  thiocyanate, selenocyanate and cyanate; N for cyano-complexes and the
+  all-nitrile ionic-liquid anions ([dca], [tcm], B(CN)4), whose terminal
+  nitrogens face the cations;
+* hydridic anions (BH4, AlH4, whose central atom is less electronegative than
+  H): H; other one-element anions with H (OH, HS, NH2): the heavy atom;
+* cations with a metal atom (UO2, VO, BiO, Hg2): the metal; ammine complexes
+  and cations without a metal that carry H (NH4, H3O, every organic cation):
+  H, the atom through which they hydrogen-bond to the anion; other cations
+  without a metal (NO, NO2): the least electronegative atom.
+
+No published group electronegativity is used; ``explain`` says which rule
+picked each atom.
+
+Several ions
+------------
+With several cations or anions every cation-anion pair is weighted by the
+product of the two ions' stoichiometric fractions on their own side
+(:func:`contact_pairs`); KAl(SO4)2 gives the pairs K-SO4 and Al-SO4 at 1/2 each.
+Pair values are averaged with those weights; ``ionic_character_pauling_min_pct``
+reports the least ionic pair.
+
+Covalent molecules, networks, metals and alloys
+-----------------------------------------------
+Without ions, ``delta_chi_pauling`` is the largest difference between
+elements present (max - min: the most polar bond the composition allows) and
+``mean_chi_pauling`` the composition-weighted mean electronegativity. Lattice
+water is never counted.
+
+The triangle
+------------
+van Arkel (1941) and Ketelaar (1947) plot the mean electronegativity (x)
+against the difference (y); pure elements lie on the base (metals left,
+non-metals right) and the most ionic salts at the apex (Jensen, J. Chem. Educ.
+1995, 72, 395). The region boundaries used here are
+common practice, chosen for this project on the Pauling scale; see
+:func:`van_arkel_ketelaar_bond_type`.
+"""
+from __future__ import annotations
+
+import math
+
+from scorer.model import Column, Decomposition, Ion, IonTerm
+
+__all__ = [
+    "COLUMNS",
+    "BOND_TYPES",
+    "IONIC_DELTA_CHI",
+    "POLAR_DELTA_CHI",
+    "describe",
+    "explain",
+    "contact_atom",
+    "contact_pairs",
+    "pauling_electronegativity",
+    "weighted_mean",
+    "pauling_ionic_character_pct",
+    "hannay_smyth_ionic_character_pct",
+    "van_arkel_ketelaar_bond_type",
+]
+
+BOND_TYPES = ("ionic", "ionic_covalent", "covalent", "covalent_metallic", "metallic", "metallic_ionic")
+
+# Pauling (1960, p. 98-100): a single bond is 50 % ionic at a difference of
+# about 1.7, the usual dividing line between "ionic" and "covalent".
+IONIC_DELTA_CHI = 1.7
+# Below 0.5 a bond counts as non-polar (6 % ionic by Pauling's equation): common practice.
+POLAR_DELTA_CHI = 0.5
+# The electropositive partner of an ionic bond must be metal-like; H (2.20) is not.
+IONIC_MAX_LOW_CHI = 2.0
+# Splits of the base and of the polar band on the Pauling scale (common practice):
+# below 1.95 metals (Cu, Ni, Ag, Hg, Bi at 1.90-1.93), 1.95-2.2 metalloids
+# (Ge 2.01, B 2.04, Sb 2.05, Te 2.10, As 2.18), 2.2 and up non-metals (H, C, N, O, S, halogens).
+METALLIC_MAX_MEAN_CHI = 1.95
+COVALENT_MIN_MEAN_CHI = 2.2
+NONMETAL_MIN_HIGH_CHI = 2.15
+
+_SOURCE_PAULING = "Pauling, The Nature of the Chemical Bond, 3rd ed., Cornell University Press, 1960, ch. 3"
+_SOURCE_HS = "Hannay & Smyth, J. Am. Chem. Soc. 1946, 68, 171"
+_SOURCE_CHI = "Pauling electronegativities, CRC Handbook (Haynes 2014) via the mendeleev snapshot"
+_SOURCE_VAK = (
+    "van Arkel, Molecules and Crystals, 1941 (Dutch ed.); Ketelaar, Chemical Constitution, 1947; "
+    "Jensen, J. Chem. Educ. 1995, 72, 395; boundaries common practice"
+)
+_AGG_PAIRS = (
+    "several ions: mean over cation-anion pairs weighted by the product of each ion's stoichiometric "
+    "fraction on its own side; no ions: from the composition (see method)"
+)
+
+COLUMNS: tuple[Column, ...] = (
+    Column(
+        "delta_chi_pauling", "float64", "Pauling units",
+        "electronegativity difference across the cation-anion contact; for covalent and metallic"
+        " substances the largest difference between elements present",
+        "|chi(anion contact atom) - chi(cation contact atom)|; contact atoms by ion family"
+        " (scorer.character.contact_atom); without ions max(chi) - min(chi) over the composition",
+        _SOURCE_CHI, _AGG_PAIRS,
+    ),
+    Column(
+        "ionic_character_pauling_pct", "float64", "%",
+        "Pauling's amount of ionic character of the contact bond",
+        "100*(1 - exp(-dchi^2/4)) per pair", _SOURCE_PAULING, _AGG_PAIRS,
+    ),
+    Column(
+        "ionic_character_hannay_smyth_pct", "float64", "%",
+        "Hannay-Smyth ionic character of the contact bond, capped at 100",
+        "16*|dchi| + 3.5*dchi^2 per pair", _SOURCE_HS, _AGG_PAIRS,
+    ),
+    Column(
+        "ionic_character_pauling_min_pct", "float64", "%",
+        "Pauling ionic character of the least ionic cation-anion pair (equals the mean for one pair)",
+        "min over pairs of 100*(1 - exp(-dchi^2/4))", _SOURCE_PAULING,
+        "extreme pair: the minimum over cation-anion pairs; without ions as ionic_character_pauling_pct",
+    ),
+    Column(
+        "mean_chi_pauling", "float64", "Pauling units",
+        "x coordinate of the van Arkel-Ketelaar triangle: mean electronegativity of the contact pair"
+        " (salts) or composition-weighted mean (no ions)",
+        "(chi_cation_contact + chi_anion_contact)/2; without ions sum(n_i*chi_i)/sum(n_i)",
+        _SOURCE_VAK, _AGG_PAIRS,
+    ),
+    Column(
+        "bond_type", "string", "",
+        "region of the van Arkel-Ketelaar triangle: ionic, ionic_covalent (polar covalent),"
+        " covalent, covalent_metallic (metalloid, semiconductor), metallic, metallic_ionic"
+        " (Zintl-like, polar intermetallic)",
+        "from (mean_chi_pauling, delta_chi_pauling): ionic if dchi >= 1.7 and mean - dchi/2 < 2.0;"
+        " else if dchi >= 0.5: ionic_covalent when mean + dchi/2 >= 2.15, otherwise metallic_ionic;"
+        " else by mean: < 1.95 metallic, < 2.2 covalent_metallic, otherwise covalent",
+        _SOURCE_VAK, "several ions: classified from the pair-weighted coordinates",
+    ),
+)
+
+
+# ------------------------------------------------------------------ equations
+
+
+def pauling_ionic_character_pct(delta_chi):
+    """Pauling's amount of ionic character of a single bond.
+
+    .. math:: I = 100\\,(1 - e^{-\\Delta\\chi^2/4})
+
+    Parameters
+    ----------
+    delta_chi : float or array-like
+        Electronegativity difference between the two atoms [Pauling units];
+        the sign is irrelevant.
+
+    Returns
+    -------
+    float or numpy.ndarray
+        Ionic character [%], from 0 to 100 (NaN stays NaN).
+
+    References
+    ----------
+    L. Pauling, The Nature of the Chemical Bond, 3rd ed., Cornell University
+    Press, 1960, section 3-9, Table 3-10 (from memory).
+
+    Examples
+    --------
+    Pauling's table gives 22 % at a difference of 1.0 and 63 % at 2.0:
+
+    >>> round(pauling_ionic_character_pct(1.0), 1), round(pauling_ionic_character_pct(2.0), 1)
+    (22.1, 63.2)
+    """
+    import numpy as np
+
+    d = np.asarray(delta_chi, dtype=float)
+    value = 100.0 * (1.0 - np.exp(-(d * d) / 4.0))
+    return float(value) if value.ndim == 0 else value
+
+
+def hannay_smyth_ionic_character_pct(delta_chi):
+    """Hannay and Smyth's ionic character, fitted to the dipole moments of the hydrogen halides.
+
+    .. math:: I = 16\\,|\\Delta\\chi| + 3.5\\,\\Delta\\chi^2
+
+    capped at 100 % (the fit exceeds 100 above a difference of about 3.5).
+
+    Parameters
+    ----------
+    delta_chi : float or array-like
+        Electronegativity difference [Pauling units].
+
+    Returns
+    -------
+    float or numpy.ndarray
+        Ionic character [%].
+
+    References
+    ----------
+    N. B. Hannay, C. P. Smyth, J. Am. Chem. Soc. 1946, 68, 171-173.
+
+    Examples
+    --------
+    HF with Pauling's 1960 values (F 4.0, H 2.1, difference 1.9) is 43 %
+    ionic by this equation:
+
+    >>> round(hannay_smyth_ionic_character_pct(1.9), 1)
+    43.0
+    """
+    import numpy as np
+
+    d = np.abs(np.asarray(delta_chi, dtype=float))
+    value = np.minimum(16.0 * d + 3.5 * d * d, 100.0)
+    return float(value) if value.ndim == 0 else value
+
+
+def van_arkel_ketelaar_bond_type(mean_chi: float, delta_chi: float) -> str | None:
+    """Place a point of the van Arkel-Ketelaar triangle in one of its regions.
+
+    The triangle plots the mean electronegativity ``x`` against the difference
+    ``y``; ``x - y/2`` and ``x + y/2`` are then the electronegativities of the
+    electropositive and electronegative partners, so every boundary below is a
+    line parallel to one side of the triangle.
+
+    ================  =====================================================
+    region            condition (Pauling units)
+    ================  =====================================================
+    ionic             y >= 1.7 (Pauling's 50 % ionic character) and
+                      x - y/2 < 2.0 (the electropositive partner is a metal)
+    ionic_covalent    0.5 <= y, not ionic, and x + y/2 >= 2.15 (polar covalent)
+    metallic_ionic    0.5 <= y and x + y/2 < 2.15 (Zintl-like, polar intermetallic)
+    metallic          y < 0.5 and x < 1.95
+    covalent_metallic y < 0.5 and 1.95 <= x < 2.2 (metalloids, semiconductors)
+    covalent          y < 0.5 and x >= 2.2
+    ================  =====================================================
+
+    The 1.7 line is Pauling's; the others are common practice, placed on the
+    Pauling scale so that the elements fall where the periodic table puts
+    them. The Pauling scale overlaps for some elements, so Si (1.90) falls
+    among the metals and Mo, Ru, Rh, Pd, Os, Ir, Pt, Au (2.16-2.40) among the
+    non-metals; read ``bond_type`` with ``substance_class``.
+
+    Parameters
+    ----------
+    mean_chi : float
+        Mean electronegativity [Pauling units].
+    delta_chi : float
+        Electronegativity difference, >= 0 [Pauling units].
+
+    Returns
+    -------
+    str or None
+        One of :data:`BOND_TYPES`; None when either input is NaN.
+
+    References
+    ----------
+    W. B. Jensen, J. Chem. Educ. 1995, 72, 395 (the
+    triangle's history and axes); L. Pauling, The Nature of the Chemical
+    Bond, 1960 (the 1.7 line).
+
+    Examples
+    --------
+    >>> van_arkel_ketelaar_bond_type(2.045, 2.23)   # NaCl
+    'ionic'
+    >>> van_arkel_ketelaar_bond_type(3.09, 1.78)    # HF
+    'ionic_covalent'
+    >>> van_arkel_ketelaar_bond_type(1.775, 0.25)   # CuZn brass
+    'metallic'
+    """
+    x, y = float(mean_chi), abs(float(delta_chi))
+    if math.isnan(x) or math.isnan(y):
+        return None
+    if y >= IONIC_DELTA_CHI and x - y / 2 < IONIC_MAX_LOW_CHI:
+        return "ionic"
+    if y >= POLAR_DELTA_CHI:
+        return "ionic_covalent" if x + y / 2 >= NONMETAL_MIN_HIGH_CHI else "metallic_ionic"
+    if x < METALLIC_MAX_MEAN_CHI:
+        return "metallic"
+    if x < COVALENT_MIN_MEAN_CHI:
+        return "covalent_metallic"
+    return "covalent"
+
+
+# ------------------------------------------------------------------ helpers
+
+
+def pauling_electronegativity(symbol: str) -> float:
+    """Pauling electronegativity of an element; NaN when unknown (He, Ne, Eu...).
+
+    >>> pauling_electronegativity("Cl")
+    3.16
+    """
+    from scorer.elements import get_element
+
+    try:
+        return float(get_element(symbol).electronegativity_pauling)
+    except KeyError:
+        return math.nan
+
+
+_HALOGENS = ("F", "Cl", "Br", "I", "At")
+# The donor atom usually met by the cation (Greenwood & Earnshaw, Chemistry of
+# the Elements, 2nd ed., 1997, ch. 8 and 15, from memory): cyanide and
+# fulminate bind through C; thiocyanate, selenocyanate and cyanate through N.
+_PSEUDOHALIDE_CONTACT = {"CN": "C", "CNO": "C", "SCN": "N", "SeCN": "N", "OCN": "N"}
+_NITRILE_FAMILIES = ("cyano-complex", "cyano-anion")
+
+
+def _is_metal(symbol: str) -> bool:
+    from scorer.elements import get_element
+
+    try:
+        return get_element(symbol).is_metal
+    except KeyError:
+        return False
+
+
+def contact_atom(ion: Ion) -> tuple[str | None, str]:
+    """The atom of ``ion`` that meets the counter-ion, and why it was chosen.
+
+    The rules are in the module docstring; they follow the ion's family and
+    composition, never its name.
+
+    Parameters
+    ----------
+    ion : scorer.model.Ion
+
+    Returns
+    -------
+    (symbol, reason) : tuple of (str or None, str)
+
+    Examples
+    --------
+    >>> from scorer.model import Ion
+    >>> so4 = Ion("SO4(2-)", "SO4", -2, (("S", 1), ("O", 4)), "oxoanion")
+    >>> contact_atom(so4)[0]
+    'O'
+    """
+    elements = [s for s, n in ion.composition if n > 0]
+    if ion.element is not None or len(elements) == 1:
+        symbol = ion.element or elements[0]
+        return symbol, "monatomic ion" if ion.element else "one-element ion"
+    if not elements:
+        return None, "ion without a composition"
+    heavy = [s for s in elements if s != "H"]
+    chi = {s: pauling_electronegativity(s) for s in elements}
+    known = [s for s in elements if not math.isnan(chi[s])]
+    if ion.charge < 0:
+        if ion.label in _PSEUDOHALIDE_CONTACT:
+            return _PSEUDOHALIDE_CONTACT[ion.label], "pseudohalide: its usual donor atom"
+        if ion.family in _NITRILE_FAMILIES and "N" in elements:
+            return "N", "cyano anion: the terminal nitrile N faces the cations"
+        if len(heavy) == 1 and "H" in elements:
+            if chi[heavy[0]] < chi["H"]:
+                return "H", f"hydridic anion: H is more electronegative than {heavy[0]}"
+            return heavy[0], "hydrogen-bearing anion: the charge sits on the heavy atom"
+        if "O" in elements:
+            return "O", "oxygen-bearing anion: the cations meet its O atoms"
+        halogens = [s for s in _HALOGENS if s in elements]
+        if halogens:
+            best = max(halogens, key=lambda s: chi[s])
+            return best, "halo-complex: its surface halogen atoms meet the cations"
+        if not known:
+            return None, "no element of the anion has a Pauling electronegativity"
+        candidates = [s for s in known if s != "H"] or known
+        return max(candidates, key=lambda s: chi[s]), "most electronegative non-H atom of the anion"
+    metals = [s for s in elements if _is_metal(s)]
+    if metals and ion.family != "ammine-complex":
+        known_metals = [s for s in metals if not math.isnan(chi[s])] or metals
+        best = min(known_metals, key=lambda s: chi[s] if not math.isnan(chi[s]) else 9.0)
+        return best, "cation with a metal atom: the metal meets the anions"
+    if "H" in elements:
+        return "H", "molecular cation: it meets the anion through its H atoms (hydrogen bonds)"
+    if not known:
+        return None, "no element of the cation has a Pauling electronegativity"
+    return min(known, key=lambda s: chi[s]), "cation without metal or H: its least electronegative atom"
+
+
+def contact_pairs(dec: Decomposition) -> list[tuple[IonTerm, IonTerm, float]]:
+    """Every cation-anion pair of a decomposition with its weight.
+
+    The weight of a pair is (n_cation / total cations) * (n_anion / total
+    anions), counts per formula unit; the weights sum to 1.
+
+    Examples
+    --------
+    >>> from scorer.model import Ion, IonTerm, Decomposition
+    >>> k = IonTerm(Ion("K(+)", "K", 1, (("K", 1),), "monatomic", element="K"), 1)
+    >>> al = IonTerm(Ion("Al(3+)", "Al", 3, (("Al", 1),), "monatomic", element="Al"), 1)
+    >>> so4 = IonTerm(Ion("SO4(2-)", "SO4", -2, (("S", 1), ("O", 4)), "oxoanion"), 2)
+    >>> [w for _, _, w in contact_pairs(Decomposition(cations=(k, al), anions=(so4,)))]
+    [0.5, 0.5]
+    """
+    total_c = sum(t.count for t in dec.cations)
+    total_a = sum(t.count for t in dec.anions)
+    if total_c <= 0 or total_a <= 0:
+        return []
+    return [(c, a, (c.count / total_c) * (a.count / total_a)) for c in dec.cations for a in dec.anions]
+
+
+def weighted_mean(values: list[tuple[float, float]]) -> float:
+    """Mean of (value, weight) pairs, skipping NaN values and renormalising; NaN if none."""
+    usable = [(v, w) for v, w in values if v is not None and not math.isnan(v) and w > 0]
+    total = sum(w for _, w in usable)
+    if total <= 0:
+        return math.nan
+    return sum(v * w for v, w in usable) / total
+
+
+def _fmt(value: float, digits: int = 2) -> str:
+    return "nan" if value is None or math.isnan(value) else f"{value:.{digits}f}"
+
+
+# ------------------------------------------------------------------ per compound
+
+
+def _pair_rows(dec: Decomposition) -> list[dict]:
+    rows = []
+    for cation, anion, weight in contact_pairs(dec):
+        c_atom, c_why = contact_atom(cation.ion)
+        a_atom, a_why = contact_atom(anion.ion)
+        chi_c = pauling_electronegativity(c_atom) if c_atom else math.nan
+        chi_a = pauling_electronegativity(a_atom) if a_atom else math.nan
+        delta = abs(chi_a - chi_c)
+        rows.append(
+            dict(
+                cation=cation.ion.ion_id, anion=anion.ion.ion_id, weight=weight,
+                c_atom=c_atom, c_why=c_why, a_atom=a_atom, a_why=a_why,
+                chi_c=chi_c, chi_a=chi_a, delta=delta, mean=(chi_c + chi_a) / 2,
+                pauling=pauling_ionic_character_pct(delta) if not math.isnan(delta) else math.nan,
+                hannay_smyth=hannay_smyth_ionic_character_pct(delta) if not math.isnan(delta) else math.nan,
+            )
+        )
+    return rows
+
+
+def _composition_chis(dec: Decomposition) -> tuple[list[tuple[str, float, float]], list[str]]:
+    rows, missing = [], []
+    for symbol, count in dec.composition:
+        chi = pauling_electronegativity(symbol)
+        if math.isnan(chi):
+            missing.append(symbol)
+        rows.append((symbol, float(count), chi))
+    return rows, missing
+
+
+def _empty_values() -> dict[str, object]:
+    return {c.name: (None if c.dtype == "string" else math.nan) for c in COLUMNS}
+
+
+def _analyse(dec: Decomposition) -> tuple[dict[str, object], list[str], list[str]]:
+    values = _empty_values()
+    notes: list[str] = []
+    lines: list[str] = []
+    if dec.is_ionic:
+        rows = _pair_rows(dec)
+        bad = [r for r in rows if math.isnan(r["delta"])]
+        for r in bad:
+            which = [a for a, chi in ((r["c_atom"], r["chi_c"]), (r["a_atom"], r["chi_a"])) if math.isnan(chi)]
+            notes.append(
+                f"no Pauling electronegativity for {', '.join(str(w) for w in which) or 'a contact atom'}"
+                f" ({r['cation']} with {r['anion']}): bond-character values left out for that pair"
+            )
+        good = [r for r in rows if not math.isnan(r["delta"])]
+        if good:
+            delta = weighted_mean([(r["delta"], r["weight"]) for r in good])
+            mean = weighted_mean([(r["mean"], r["weight"]) for r in good])
+            values.update(
+                delta_chi_pauling=delta,
+                ionic_character_pauling_pct=weighted_mean([(r["pauling"], r["weight"]) for r in good]),
+                ionic_character_hannay_smyth_pct=weighted_mean([(r["hannay_smyth"], r["weight"]) for r in good]),
+                ionic_character_pauling_min_pct=min(r["pauling"] for r in good),
+                mean_chi_pauling=mean,
+                bond_type=van_arkel_ketelaar_bond_type(mean, delta),
+            )
+        for r in rows:
+            lines.append(
+                f"pair {r['cation']} / {r['anion']} (weight {r['weight']:.3g}): contact atoms"
+                f" {r['c_atom']} ({r['c_why']}; chi {_fmt(r['chi_c'])}) and {r['a_atom']} ({r['a_why']};"
+                f" chi {_fmt(r['chi_a'])}); dchi = |{_fmt(r['chi_a'])} - {_fmt(r['chi_c'])}| = {_fmt(r['delta'])};"
+                f" Pauling 100*(1 - exp(-dchi^2/4)) = {_fmt(r['pauling'], 1)} %;"
+                f" Hannay-Smyth 16*dchi + 3.5*dchi^2 = {_fmt(r['hannay_smyth'], 1)} %"
+            )
+        if len(rows) > 1:
+            lines.append("several ions: pair values averaged with the weights shown (product of stoichiometric fractions)")
+        return values, notes, lines
+
+    rows, missing = _composition_chis(dec)
+    if not rows:
+        notes.append("no composition: bond-character values not computed")
+        return values, notes, lines
+    if missing:
+        notes.append(
+            f"no Pauling electronegativity for {', '.join(missing)}: bond-character values not computed"
+        )
+        lines.append(f"composition {_composition_text(rows)}; missing Pauling electronegativity for {', '.join(missing)}")
+        return values, notes, lines
+    chis = [chi for _, _, chi in rows]
+    total = sum(n for _, n, _ in rows)
+    mean = sum(n * chi for _, n, chi in rows) / total
+    delta = max(chis) - min(chis)
+    bond_type = van_arkel_ketelaar_bond_type(mean, delta)
+    values.update(
+        delta_chi_pauling=delta,
+        ionic_character_pauling_pct=pauling_ionic_character_pct(delta),
+        ionic_character_hannay_smyth_pct=hannay_smyth_ionic_character_pct(delta),
+        ionic_character_pauling_min_pct=pauling_ionic_character_pct(delta),
+        mean_chi_pauling=mean,
+        bond_type=bond_type,
+    )
+    hi = max(rows, key=lambda r: r[2])
+    lo = min(rows, key=lambda r: r[2])
+    lines.append(
+        f"no ions ({dec.substance_class}): composition {_composition_text(rows)}; dchi = max - min ="
+        f" {_fmt(hi[2])} ({hi[0]}) - {_fmt(lo[2])} ({lo[0]}) = {_fmt(delta)}; mean chi ="
+        f" sum(n*chi)/sum(n) = {_fmt(mean, 3)}"
+    )
+    symbols = [s for s, _, _ in rows]
+    metal_flags = [_is_metal(s) for s in symbols]
+    if all(metal_flags) and bond_type not in ("metallic", "metallic_ionic"):
+        high = [s for s in symbols if pauling_electronegativity(s) >= METALLIC_MAX_MEAN_CHI]
+        notes.append(
+            f"bond_type {bond_type}: Pauling's scale puts {', '.join(high)} among the non-metals"
+            " although every element here is a metal"
+        )
+    elif not any(metal_flags) and bond_type == "metallic":
+        notes.append(
+            f"bond_type metallic: Pauling's scale puts {', '.join(symbols)} among the metals"
+            " although no element here is a metal"
+        )
+    return values, notes, lines
+
+
+def _composition_text(rows) -> str:
+    return " ".join(f"{s}{n:g}(chi {_fmt(chi)})" for s, n, chi in rows)
+
+
+def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
+    """Values for every column of :data:`COLUMNS`, and notes for the row.
+
+    Never raises: odd input gives NaN/None values and a note saying why.
+
+    Examples
+    --------
+    >>> from scorer.model import Ion, IonTerm, Decomposition
+    >>> na = Ion("Na(+)", "Na", 1, (("Na", 1),), "monatomic", element="Na")
+    >>> cl = Ion("Cl(-)", "Cl", -1, (("Cl", 1),), "monatomic", element="Cl")
+    >>> values, notes = describe(Decomposition(cations=(IonTerm(na, 1),), anions=(IonTerm(cl, 1),)))
+    >>> round(values["delta_chi_pauling"], 2), round(values["ionic_character_pauling_pct"], 1), values["bond_type"]
+    (2.23, 71.2, 'ionic')
+    """
+    try:
+        values, notes, _ = _analyse(dec)
+    except Exception as exc:  # a descriptor must never stop the batch
+        return _empty_values(), [f"bond character not computed: {type(exc).__name__}: {exc}"]
+    return values, notes
+
+
+def explain(dec: Decomposition) -> list[str]:
+    """Lines for ``ionicity explain``: each value with its inputs and equation."""
+    try:
+        values, notes, lines = _analyse(dec)
+    except Exception as exc:
+        return [f"bond character not computed: {type(exc).__name__}: {exc}"]
+    out = ["Bond character (Pauling electronegativities, CRC Handbook via mendeleev):"]
+    out += ["  " + line for line in lines]
+    mean, delta = values["mean_chi_pauling"], values["delta_chi_pauling"]
+    out += [
+        f"  delta_chi_pauling = {_fmt(delta)}",
+        f"  ionic_character_pauling_pct = {_fmt(values['ionic_character_pauling_pct'], 1)}"
+        " [100*(1 - exp(-dchi^2/4)); Pauling 1960]",
+        f"  ionic_character_hannay_smyth_pct = {_fmt(values['ionic_character_hannay_smyth_pct'], 1)}"
+        " [16*|dchi| + 3.5*dchi^2, capped at 100; Hannay & Smyth 1946]",
+        f"  ionic_character_pauling_min_pct = {_fmt(values['ionic_character_pauling_min_pct'], 1)} [least ionic pair]",
+        f"  mean_chi_pauling = {_fmt(mean, 3)}; bond_type = {values['bond_type']} [van Arkel-Ketelaar triangle:"
+        f" ionic if dchi >= {IONIC_DELTA_CHI} and mean - dchi/2 < {IONIC_MAX_LOW_CHI}; polar band dchi >= {POLAR_DELTA_CHI}"
+        f" split at mean + dchi/2 = {NONMETAL_MIN_HIGH_CHI}; base split at mean {METALLIC_MAX_MEAN_CHI} and"
+        f" {COVALENT_MIN_MEAN_CHI}; common practice]",
+    ]
+    out += ["  note: " + n for n in notes]
+    return out

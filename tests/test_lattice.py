@@ -1,0 +1,382 @@
+"""Lattice-energy equations, structure types and the descriptor protocol.
+
+The estimates are compared with Born-Haber lattice potential energies from the
+CRC Handbook of Chemistry and Physics, section 12, "Lattice energies"
+(H. D. B. Jenkins and H. K. Roobottom), Table 1, column U_POT(BFHC), kJ/mol.
+These numbers are from memory; the alkali-halide and alkaline-earth fluoride
+values are cross-checked below against our own Born-Haber cycles built from
+NBS enthalpies and the NIST ionisation energies of the element snapshot.
+"""
+from __future__ import annotations
+
+import doctest
+import math
+import statistics
+import time
+
+import numpy as np
+import pytest
+
+from scorer import lattice, madelung, radii
+from scorer.lattice import (
+    COLUMNS,
+    KAPUSTINSKII_CONSTANT_KJ_NM_MOL,
+    assign_structure_type,
+    born_haber_lattice_energy_kJ_mol,
+    born_lande_lattice_energy_kJ_mol,
+    born_mayer_lattice_energy_kJ_mol,
+    describe,
+    explain,
+    glasser_jenkins_vbt_lattice_energy_kJ_mol,
+    glasser_kapustinskii_lattice_energy_kJ_mol,
+    kapustinskii_lattice_energy_kJ_mol,
+)
+from scorer.model import Decomposition, Ion, IonTerm, RowWarning
+
+ions = pytest.importorskip("scorer.ions")
+
+
+def salt(cations, anions, water=0.0, cls="ionic_salt") -> Decomposition:
+    """A Decomposition from ((ion_id, count), ...) pairs, without the solver."""
+    return Decomposition(
+        cations=tuple(IonTerm(ions.get_ion(i), n) for i, n in cations),
+        anions=tuple(IonTerm(ions.get_ion(i), n) for i, n in anions),
+        hydrate_water=water,
+        substance_class=cls,
+    )
+
+
+# CRC Handbook, "Lattice energies" (Jenkins & Roobottom), Table 1, U_POT(BFHC) in kJ/mol,
+# from memory. Salt -> (cations, anions, value).
+EXPERIMENTAL = {
+    "LiF": ((("Li(+)", 1),), (("F(-)", 1),), 1049),
+    "LiCl": ((("Li(+)", 1),), (("Cl(-)", 1),), 864),
+    "LiBr": ((("Li(+)", 1),), (("Br(-)", 1),), 820),
+    "LiI": ((("Li(+)", 1),), (("I(-)", 1),), 764),
+    "NaF": ((("Na(+)", 1),), (("F(-)", 1),), 930),
+    "NaCl": ((("Na(+)", 1),), (("Cl(-)", 1),), 790),
+    "NaBr": ((("Na(+)", 1),), (("Br(-)", 1),), 754),
+    "NaI": ((("Na(+)", 1),), (("I(-)", 1),), 705),
+    "KF": ((("K(+)", 1),), (("F(-)", 1),), 829),
+    "KCl": ((("K(+)", 1),), (("Cl(-)", 1),), 720),
+    "KBr": ((("K(+)", 1),), (("Br(-)", 1),), 691),
+    "KI": ((("K(+)", 1),), (("I(-)", 1),), 650),
+    "RbF": ((("Rb(+)", 1),), (("F(-)", 1),), 795),
+    "RbCl": ((("Rb(+)", 1),), (("Cl(-)", 1),), 695),
+    "RbBr": ((("Rb(+)", 1),), (("Br(-)", 1),), 668),
+    "RbI": ((("Rb(+)", 1),), (("I(-)", 1),), 632),
+    "CsF": ((("Cs(+)", 1),), (("F(-)", 1),), 759),
+    "CsCl": ((("Cs(+)", 1),), (("Cl(-)", 1),), 670),
+    "CsBr": ((("Cs(+)", 1),), (("Br(-)", 1),), 647),
+    "CsI": ((("Cs(+)", 1),), (("I(-)", 1),), 613),
+    "MgO": ((("Mg(2+)", 1),), (("O(2-)", 1),), 3795),
+    "CaO": ((("Ca(2+)", 1),), (("O(2-)", 1),), 3414),
+    "SrO": ((("Sr(2+)", 1),), (("O(2-)", 1),), 3217),
+    "BaO": ((("Ba(2+)", 1),), (("O(2-)", 1),), 3029),
+    "MgF2": ((("Mg(2+)", 1),), (("F(-)", 2),), 2978),
+    "CaF2": ((("Ca(2+)", 1),), (("F(-)", 2),), 2651),
+    "SrF2": ((("Sr(2+)", 1),), (("F(-)", 2),), 2513),
+    "BaF2": ((("Ba(2+)", 1),), (("F(-)", 2),), 2373),
+    "Al2O3": ((("Al(3+)", 2),), (("O(2-)", 3),), 15916),
+    "NaNO3": ((("Na(+)", 1),), (("NO3(-)", 1),), 755),
+    "KNO3": ((("K(+)", 1),), (("NO3(-)", 1),), 685),
+    "CaCO3": ((("Ca(2+)", 1),), (("CO3(2-)", 1),), 2804),
+    "MgCO3": ((("Mg(2+)", 1),), (("CO3(2-)", 1),), 3122),
+    "KClO4": ((("K(+)", 1),), (("ClO4(-)", 1),), 599),
+    "NH4Cl": ((("NH4(+)", 1),), (("Cl(-)", 1),), 705),
+}
+
+# Tolerance per method, relative:
+# - Kapustinskii: 8 %. Kapustinskii (Q. Rev. Chem. Soc. 1956, 10, 283) presents his equation
+#   as reproducing cycle values of simple salts to a few per cent (from memory); we use Shannon
+#   CN VI radii instead of his Goldschmidt radii, and allow 8 %.
+# - VBT: 7 %, the bound Glasser and Jenkins state for volume-based estimates (J. Am. Chem. Soc.
+#   2000, 122, 632, abstract: "certainly within +/-7%"; read).
+# - Born-Mayer and Born-Lande with tabulated radii and fixed rho or Pauling n: no single published
+#   bound; 8 %, our choice (Huheey 1993's NaCl Born-Lande example, 755 against a cycle value of
+#   about 787, is 4 % low; from memory). Without the van der Waals term both run low.
+TOLERANCE = {
+    "lattice_energy_kapustinskii_kJ_mol": 0.08,
+    "lattice_energy_vbt_kJ_mol": 0.07,
+    "lattice_energy_born_mayer_kJ_mol": 0.08,
+    "lattice_energy_born_lande_kJ_mol": 0.08,
+}
+
+# Salts outside the tolerance, kept as strict expected failures so an improvement shows:
+KNOWN_MISSES = {
+    ("lattice_energy_kapustinskii_kJ_mol", "CaCO3"): "+9 % with the CO3(2-) thermochemical radius 178 pm (from memory)",
+    ("lattice_energy_vbt_kJ_mol", "NaNO3"): "-10 % with Vm = 0.068 nm^3 from Jenkins's ion volumes",
+    ("lattice_energy_vbt_kJ_mol", "MgO"): "+15 %: the general 2I(alpha/Vm^1/3 + beta) form overestimates small 2:2 oxides",
+    ("lattice_energy_vbt_kJ_mol", "CaO"): "+14 %: as MgO",
+    ("lattice_energy_vbt_kJ_mol", "SrO"): "+13 %: as MgO",
+    ("lattice_energy_vbt_kJ_mol", "BaO"): "+13 %: as MgO",
+    ("lattice_energy_born_mayer_kJ_mol", "MgF2"): "-8.0 %: rutile geometry of TiO2, without van der Waals term",
+}
+
+
+def _cases():
+    for method in TOLERANCE:
+        for name in EXPERIMENTAL:
+            reason = KNOWN_MISSES.get((method, name))
+            marks = [pytest.mark.xfail(strict=True, reason=reason)] if reason else []
+            yield pytest.param(method, name, marks=marks, id=f"{method.split('_')[2]}-{name}")
+
+
+def _estimate(method: str, name: str) -> float:
+    cations, anions, _ = EXPERIMENTAL[name]
+    values, _ = describe(salt(cations, anions))
+    return values[method]
+
+
+@pytest.mark.parametrize("method, name", list(_cases()))
+def test_estimate_against_born_haber_value(method, name):
+    value = _estimate(method, name)
+    expected = EXPERIMENTAL[name][2]
+    if math.isnan(value):
+        pytest.skip(f"{method} does not apply to {name}")
+    assert value == pytest.approx(expected, rel=TOLERANCE[method])
+
+
+def median_absolute_percentage_errors() -> dict[str, tuple[float, int]]:
+    """Median |estimate - cycle| / cycle in %, and how many salts, per method."""
+    out = {}
+    for method in TOLERANCE:
+        errors = []
+        for name, (_, _, expected) in EXPERIMENTAL.items():
+            value = _estimate(method, name)
+            if not math.isnan(value):
+                errors.append(abs(value - expected) / expected * 100.0)
+        out[method] = (statistics.median(errors), len(errors))
+    return out
+
+
+def test_median_errors_within_tolerance():
+    assert len(EXPERIMENTAL) >= 25
+    medians = median_absolute_percentage_errors()
+    for method, (median, count) in medians.items():
+        assert count >= 25, method
+        assert median <= TOLERANCE[method] * 100.0, (method, median)
+
+
+# --- Born-Haber cycle: the experimental values themselves --------------------------------
+
+# NBS tables (Wagman et al., J. Phys. Chem. Ref. Data 1982, 11, suppl. 2; from memory):
+# enthalpies of formation of the solids and of the gaseous atoms, kJ/mol.
+FORMATION = {
+    "LiF": -616.0, "LiCl": -408.6, "LiBr": -351.2, "LiI": -270.4,
+    "NaF": -576.6, "NaCl": -411.2, "NaBr": -361.1, "NaI": -287.8,
+    "KF": -567.3, "KCl": -436.5, "KBr": -393.8, "KI": -327.9,
+    "RbF": -557.7, "RbCl": -435.4, "RbBr": -394.6, "RbI": -333.8,
+    "CsF": -553.5, "CsCl": -443.0, "CsBr": -405.8, "CsI": -346.6,
+    "MgF2": -1124.2, "CaF2": -1228.0, "SrF2": -1216.3, "BaF2": -1207.1,
+}
+ATOMISATION = {
+    "Li": 159.3, "Na": 107.5, "K": 89.0, "Rb": 80.9, "Cs": 76.5,
+    "Mg": 147.1, "Ca": 177.8, "Sr": 164.4, "Ba": 180.0,
+    "F": 79.4, "Cl": 121.3, "Br": 111.9, "I": 106.8,
+}
+EV_KJ_MOL = 96.485332
+
+
+def test_born_haber_cycle_reproduces_handbook_values():
+    from scorer.elements import get_element
+
+    for name, formation in FORMATION.items():
+        cations, anions, expected = EXPERIMENTAL[name]
+        metal = cations[0][0].split("(")[0]
+        halogen = anions[0][0].split("(")[0]
+        n_x = anions[0][1]
+        charge = n_x
+        m = get_element(metal)
+        x = get_element(halogen)
+        ionisation = sum(m.ionization_energies_eV[:charge]) * EV_KJ_MOL  # NIST ASD via the snapshot
+        electron_gain = -x.electron_affinity_eV * EV_KJ_MOL  # CRC Handbook via the snapshot
+        u = born_haber_lattice_energy_kJ_mol(
+            formation, ATOMISATION[metal], ionisation, ATOMISATION[halogen], electron_gain,
+            1, n_x, kind="potential_energy",
+        )
+        assert u == pytest.approx(expected, rel=0.01), name
+
+
+def test_born_haber_enthalpy_vs_potential_energy():
+    h = born_haber_lattice_energy_kJ_mol(-411.15, 107.32, 495.8, 121.3, -348.6)
+    u = born_haber_lattice_energy_kJ_mol(-411.15, 107.32, 495.8, 121.3, -348.6, kind="potential_energy")
+    # Jenkins: Delta H_L = U_POT - R T for MX of monatomic ions.
+    assert u - h == pytest.approx(8.314462618e-3 * 298.15)
+    with pytest.raises(ValueError, match="potential_energy"):
+        born_haber_lattice_energy_kJ_mol(-411.15, 107.32, 495.8, 121.3, -348.6, kind="free_energy")
+
+
+# --- Equations -----------------------------------------------------------------------------
+
+
+def test_worked_examples():
+    # CRC Handbook 'Lattice energies' worked example, NH4HF2: r 0.136 + 0.172 nm (read).
+    assert kapustinskii_lattice_energy_kJ_mol(2, 1, -1, 136.0, 172.0) == pytest.approx(700.0, abs=0.5)
+    # Huheey 1993, Born-Lande example for NaCl (A 1.74756, r0 281 pm, n 8): -755 (from memory).
+    assert born_lande_lattice_energy_kJ_mol(1.74756, 1, 281.0, 8) == pytest.approx(755.0, rel=0.002)
+
+
+def test_kapustinskii_constant_is_coulomb_times_half_rock_salt_madelung():
+    # K = N_A e^2/(4 pi eps0) * A(NaCl)/2, which is why Kapustinskii equals Born-Mayer on rock salt.
+    derived = lattice.COULOMB_KJ_PM_MOL * madelung.madelung_constant("rock-salt") / 2 / 1000.0
+    assert derived == pytest.approx(KAPUSTINSKII_CONSTANT_KJ_NM_MOL, abs=0.01)
+    assert kapustinskii_lattice_energy_kJ_mol(2, 1, -1, 102.0, 181.0) == pytest.approx(
+        born_mayer_lattice_energy_kJ_mol(madelung.madelung_constant("rock-salt"), 1, 283.0), rel=1e-4
+    )
+
+
+def test_generalised_kapustinskii_equals_binary_form():
+    # For a binary salt 2I = nu |z+ z-| (Glasser, Inorg. Chem. 1995, 34, 4935).
+    # CaF2: nu = 3, |z+ z-| = 2, I = 3.
+    assert glasser_kapustinskii_lattice_energy_kJ_mol(3, 100.0, 133.0) == pytest.approx(
+        kapustinskii_lattice_energy_kJ_mol(3, 2, -1, 100.0, 133.0)
+    )
+
+
+def test_vbt_forms():
+    # 1:1, KCl with Jenkins volumes: 2 (117.3/Vm^(1/3) + 51.9).
+    v = 0.00986 + 0.047
+    assert glasser_jenkins_vbt_lattice_energy_kJ_mol(1, v, salt_type="1:1") == pytest.approx(
+        2 * (117.3 / v ** (1 / 3) + 51.9)
+    )
+    # Limiting form, A I (2I/Vm)^(1/3), A = 121.39 (Glasser & Jenkins 2000, abstract; read).
+    assert glasser_jenkins_vbt_lattice_energy_kJ_mol(15, 0.0425, salt_type="limiting") == pytest.approx(
+        121.39 * 15 * (30 / 0.0425) ** (1 / 3)
+    )
+    with pytest.raises(ValueError, match="general"):
+        glasser_jenkins_vbt_lattice_energy_kJ_mol(1, 0.05, salt_type="2:2")
+
+
+def test_equations_are_vectorised():
+    r0 = np.array([281.0, 314.0, 353.0])
+    out = born_lande_lattice_energy_kJ_mol(1.74756, 1, r0, np.array([8, 9, 10.5]))
+    assert out.shape == (3,)
+    assert out[1] == pytest.approx(born_lande_lattice_energy_kJ_mol(1.74756, 1, 314.0, 9))
+    vols = np.array([0.045, 0.060, 0.269])
+    assert glasser_jenkins_vbt_lattice_energy_kJ_mol(1, vols, salt_type="1:1").shape == (3,)
+    assert born_mayer_lattice_energy_kJ_mol(1.74756, 1, r0).shape == (3,)
+    assert kapustinskii_lattice_energy_kJ_mol(2, 1, 1, np.array([102, 138]), 181.0).shape == (2,)
+    assert born_haber_lattice_energy_kJ_mol(np.array([-411.2, -436.5]), [107.5, 89.0], [495.8, 418.8], 121.3, -348.6).shape == (2,)
+
+
+def test_docstring_examples():
+    for module in (lattice, madelung, radii):
+        failures, _ = doctest.testmod(module)
+        assert failures == 0, module.__name__
+
+
+# --- Structure types ---------------------------------------------------------------------
+
+
+def test_structure_types_known_guessed_none():
+    get = ions.get_ion
+    known = assign_structure_type(get("Cs(+)"), get("Cl(-)"), 1, 1)
+    assert (known.structure_type, known.origin) == ("caesium-chloride", "known")
+    # CuO is tenorite (not a prototype here); Cu2+ 73 / O2- 140 = 0.52 gives rock salt by the rule.
+    guessed = assign_structure_type(get("Cu(2+)"), get("O(2-)"), 1, 1)
+    assert (guessed.structure_type, guessed.origin) == ("rock-salt", "guessed")
+    assert "guessed" in guessed.note
+    # CaCl2 is a distorted rutile; the rule's guess (0.55) agrees.
+    assert assign_structure_type(get("Ca(2+)"), get("Cl(-)"), 1, 2).structure_type == "rutile"
+    none = assign_structure_type(get("Li(+)"), get("N(3-)"), 3, 1)
+    assert (none.structure_type, none.origin) == (None, "none")
+    poly = assign_structure_type(get("Na(+)"), get("NO3(-)"), 1, 1)
+    assert poly.origin == "none"
+
+
+def test_structure_prototype_table():
+    table = lattice.structure_prototypes()
+    assert len(table) >= 60
+    for (cation_id, anion_id), (structure_type, source) in table.items():
+        assert structure_type in madelung.PROTOTYPES
+        assert source
+        assert ions.get_ion(cation_id).charge > 0 > ions.get_ion(anion_id).charge
+
+
+def test_born_exponents_pauling():
+    # Pauling, The Nature of the Chemical Bond, 1960 (from memory): He 5, Ne 7, Ar 9, Kr 10, Xe 12.
+    assert lattice.born_exponent("Li", 1)[0] == 5
+    assert lattice.born_exponent("F", -1)[0] == 7
+    assert lattice.born_exponent("Cl", -1)[0] == 9
+    assert lattice.born_exponent("Ag", 1)[0] == 10
+    assert lattice.born_exponent("I", -1)[0] == 12
+    n, why = lattice.born_exponent("Fe", 3)
+    assert n == 9 and "common practice" in why
+
+
+# --- Descriptor protocol -------------------------------------------------------------------
+
+
+def test_describe_returns_every_column():
+    values, notes = describe(salt((("Na(+)", 1),), (("Cl(-)", 1),)))
+    assert set(values) == {c.name for c in COLUMNS}
+    assert values["structure_type"] == "rock-salt"
+    assert values["structure_type_origin"] == "known"
+    assert notes == []
+    for c in COLUMNS:
+        assert c.unit == "kJ/mol" if c.name.endswith("_kJ_mol") else c.dtype == "string"
+
+
+def test_guessed_structure_is_warned():
+    values, notes = describe(salt((("Cu(2+)", 1),), (("O(2-)", 1),)))
+    assert values["structure_type_origin"] == "guessed"
+    warnings = [n for n in notes if isinstance(n, RowWarning)]
+    assert warnings and "guessed" in warnings[0]
+    # A known structure raises no warning.
+    _, notes = describe(salt((("Na(+)", 1),), (("Cl(-)", 1),)))
+    assert not any(isinstance(n, RowWarning) for n in notes)
+
+
+def test_non_ionic_and_odd_input_do_not_raise():
+    values, notes = describe(Decomposition(composition=(("C", 1), ("Cl", 4)), substance_class="covalent_molecular"))
+    assert all((v is None) or math.isnan(v) for v in values.values())
+    acid = salt((("H(+)", 1),), (("Cl(-)", 1),), cls="acid")
+    values, notes = describe(acid)
+    assert math.isnan(values["lattice_energy_vbt_kJ_mol"]) and "acid" in notes[0]
+    bogus = Ion("Xq(+)", "Xq", 1, (("Xq", 1),), "monatomic", element="Xq")
+    values, notes = describe(Decomposition(cations=(IonTerm(bogus, 1),), anions=(IonTerm(ions.get_ion("Cl(-)"), 1),)))
+    assert math.isnan(values["lattice_energy_kapustinskii_kJ_mol"])
+    assert notes
+
+
+def test_several_ions_and_hydrates():
+    alum = salt((("K(+)", 1), ("Al(3+)", 1)), (("SO4(2-)", 2),), water=12)
+    values, notes = describe(alum)
+    assert math.isfinite(values["lattice_energy_kapustinskii_kJ_mol"])
+    assert math.isfinite(values["lattice_energy_vbt_kJ_mol"])
+    assert math.isnan(values["lattice_energy_born_lande_kJ_mol"])
+    assert any("anhydrous" in n for n in notes)
+    assert any("binary" in n for n in notes)
+    # Lattice water does not change the estimates (they are for the anhydrous salt).
+    dry, _ = describe(salt((("K(+)", 1), ("Al(3+)", 1)), (("SO4(2-)", 2),)))
+    assert dry["lattice_energy_vbt_kJ_mol"] == values["lattice_energy_vbt_kJ_mol"]
+
+
+def test_ionic_liquids_get_volume_based_values():
+    values, notes = describe(salt((("[C4mim](+)", 1),), (("BF4(-)", 1),), cls="ionic_liquid_pair"))
+    # Vm = 0.196 + 0.073 nm^3 (Slattery 2007; Jenkins 1999; from memory), 1:1 coefficients.
+    assert values["lattice_energy_vbt_kJ_mol"] == pytest.approx(2 * (117.3 / 0.269 ** (1 / 3) + 51.9))
+    assert math.isnan(values["lattice_energy_born_mayer_kJ_mol"])
+    # An ion with no tabulated volume is covered by the additive estimate.
+    values, _ = describe(salt((("[P66614](+)", 1),), (("[dca](-)", 1),), cls="ionic_liquid_pair"))
+    assert 250 < values["lattice_energy_vbt_kJ_mol"] < 450
+
+
+def test_explain_shows_equation_and_origins():
+    lines = explain(salt((("Ca(2+)", 1),), (("F(-)", 2),)))
+    text = "\n".join(lines)
+    for needle in ("Kapustinskii", "VBT", "Born-Mayer", "Born-Lande", "Shannon (1976)", "fluorite", "Ewald", "Vm ="):
+        assert needle in text, needle
+
+
+def test_describe_is_fast():
+    madelung.madelung_details("rock-salt")  # warm the one-off Ewald sum
+    cases = [salt(((c, 1),), ((a, 1),)) for c in ("Li(+)", "Na(+)", "K(+)", "Rb(+)", "Ag(+)", "Tl(+)")
+             for a in ("F(-)", "Cl(-)", "Br(-)", "I(-)", "NO3(-)", "CN(-)")]
+    lattice._compute.cache_clear()
+    start = time.perf_counter()
+    for dec in cases:
+        describe(dec)
+    per_call = (time.perf_counter() - start) / len(cases)
+    assert per_call < 0.005  # seconds; about 0.3 ms on a laptop
