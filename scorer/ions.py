@@ -145,6 +145,7 @@ def _is_metal(symbol: str) -> bool:
     return get_element(symbol).is_metal
 
 
+@lru_cache(maxsize=None)
 def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     """Non-zero oxidation states with their penalty (main 0, extra 2)."""
     element = get_element(symbol)
@@ -158,6 +159,7 @@ def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     return tuple(sorted(seen.items()))
 
 
+@lru_cache(maxsize=4096)
 def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
     metal = _is_metal(symbol)
@@ -170,46 +172,102 @@ def _monatomic_options(symbol: str, count: float):
         if symbol == "Hg" and state == 1:
             penalty += 1.0
         options.append(("single", state, penalty))
+    options.sort(key=lambda o: o[2])
     if metal and (count > 1 + _TOL or abs(count - round(count)) > _TOL):
         positives = [(s, p) for s, p in _states(symbol) if s > 0]
         for (s1, p1), (s2, p2) in itertools.combinations(positives, 2):
             options.append(("mixed", (s1, s2), p1 + p2 + _PENALTY_MIXED_VALENCE))
-    return options
+    return tuple(options)
 
 
-def _assign_monatomic(remaining: dict[str, float], needed: float):
-    """All charge-balanced monatomic assignments of ``remaining``.
+@lru_cache(maxsize=65536)
+def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float):
+    """All charge-balanced monatomic assignments with penalty <= cap.
 
-    Yields (penalty, [(symbol, state, count), ...]).
+    A depth-first walk over the elements with the reachable charge range of
+    the elements still to assign as the bound. Returns a tuple of
+    (penalty, ((symbol, state, count), ...)).
     """
-    symbols = [s for s, n in remaining.items() if n > _TOL]
+    symbols = [s for s, n in remaining if n > _TOL]
+    counts = {s: n for s, n in remaining}
     if not symbols:
-        if abs(needed) < _TOL:
-            yield 0.0, []
-        return
-    per_symbol = [_monatomic_options(s, remaining[s]) for s in symbols]
-    for combo in itertools.product(*per_symbol):
-        mixed = [i for i, opt in enumerate(combo) if opt[0] == "mixed"]
-        if len(mixed) > 1:
-            continue
-        fixed = sum(opt[1] * remaining[symbols[i]] for i, opt in enumerate(combo) if opt[0] == "single")
-        penalty = sum(opt[2] for opt in combo)
-        if not mixed:
-            if abs(fixed - needed) < _TOL:
-                yield penalty, [(symbols[i], opt[1], remaining[symbols[i]]) for i, opt in enumerate(combo)]
-            continue
-        i = mixed[0]
-        n = remaining[symbols[i]]
-        s1, s2 = combo[i][1]
-        residual = needed - fixed
-        # x ions at s1 and n - x at s2 carry the residual charge
-        x = (s2 * n - residual) / (s2 - s1)
-        if abs(n - round(n)) < _TOL and abs(x - round(x)) > _TOL:
-            penalty += _PENALTY_FRACTIONAL_SPLIT
-        if _TOL < x < n - _TOL:
-            out = [(symbols[j], opt[1], remaining[symbols[j]]) for j, opt in enumerate(combo) if j != i]
-            out += [(symbols[i], s1, round(x, 9)), (symbols[i], s2, round(n - x, 9))]
-            yield penalty, out
+        return ((0.0, ()),) if abs(needed) < _TOL else ()
+    per_symbol = [_monatomic_options(s, counts[s]) for s in symbols]
+
+    def reach(option, n):
+        if option[0] == "single":
+            return option[1] * n, option[1] * n
+        s1, s2 = option[1]
+        return s1 * n, s2 * n
+
+    # lowest and highest charge the elements from index i on can carry
+    lows = [0.0] * (len(symbols) + 1)
+    highs = [0.0] * (len(symbols) + 1)
+    for i in range(len(symbols) - 1, -1, -1):
+        n = counts[symbols[i]]
+        spans = [reach(o, n) for o in per_symbol[i]] or [(0.0, 0.0)]
+        lows[i] = lows[i + 1] + min(lo for lo, _ in spans)
+        highs[i] = highs[i + 1] + max(hi for _, hi in spans)
+    out = []
+
+    def walk(i, charge, penalty, picked, mixed):
+        if penalty > cap + _TOL:
+            return
+        rest = needed - charge
+        if mixed is None and (rest < lows[i] - _TOL or rest > highs[i] + _TOL):
+            return
+        if i == len(symbols):
+            if mixed is None:
+                if abs(rest) < _TOL:
+                    out.append((penalty, tuple(picked)))
+                return
+            symbol, n, (s1, s2) = mixed
+            # x ions at s1 and n - x at s2 carry the residual charge
+            x = (s2 * n - rest) / (s2 - s1)
+            extra = 0.0
+            if abs(n - round(n)) < _TOL and abs(x - round(x)) > _TOL:
+                extra = _PENALTY_FRACTIONAL_SPLIT
+            if _TOL < x < n - _TOL and penalty + extra <= cap + _TOL:
+                out.append((penalty + extra, tuple(picked) + ((symbol, s1, round(x, 9)), (symbol, s2, round(n - x, 9)))))
+            return
+        symbol = symbols[i]
+        n = counts[symbol]
+        for option in per_symbol[i]:
+            kind, state, option_penalty = option
+            if kind == "single":
+                walk(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
+            elif mixed is None:
+                # the split element's charge is settled at the end; bound with its range
+                walk_mixed(i, charge, penalty + option_penalty, picked, (symbol, n, state))
+
+    def walk_mixed(i, charge, penalty, picked, mixed):
+        symbol, n, (s1, s2) = mixed
+        rest_lo, rest_hi = lows[i + 1], highs[i + 1]
+        need = needed - charge
+        if need - s2 * n > rest_hi + _TOL or need - s1 * n < rest_lo - _TOL:
+            return
+        walk_rest(i + 1, charge, penalty, picked, mixed)
+
+    def walk_rest(i, charge, penalty, picked, mixed):
+        if penalty > cap + _TOL:
+            return
+        if i == len(symbols):
+            walk(i, charge, penalty, picked, mixed)
+            return
+        symbol = symbols[i]
+        n = counts[symbol]
+        for kind, state, option_penalty in per_symbol[i]:
+            if kind == "single":
+                walk_rest(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
+
+    walk(0, 0.0, 0.0, [], None)
+    return tuple(out)
+
+
+def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf")):
+    """Charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)])."""
+    key = tuple(sorted((s, round(n, 9)) for s, n in remaining.items() if n > _TOL))
+    return _assign_monatomic_cached(key, round(needed, 9), cap)
 
 
 def _fits(composition, remaining: dict[str, float]) -> int:
@@ -247,6 +305,21 @@ def _ion_penalty(ion: Ion) -> float:
     return 0.0
 
 
+@lru_cache(maxsize=1)
+def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
+    return tuple(
+        (ion, frozenset(symbol for symbol, _ in ion.composition))
+        for ion in ion_library()
+        if len(ion.composition) > 1 or ion.composition[0][1] > 1
+    )
+
+
+@lru_cache(maxsize=4096)
+def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
+    """Polyatomic library ions made only of the elements ``present``."""
+    return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
+
+
 def _search(remaining: dict[str, float], needed: float):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
@@ -255,11 +328,11 @@ def _search(remaining: dict[str, float], needed: float):
     fits down to none; a branch is cut once its penalty so far exceeds the
     best complete reading. Yields (penalty, [(Ion, count), ...]).
     """
-    candidates = [
-        ion for ion in ion_library()
-        if (len(ion.composition) > 1 or ion.composition[0][1] > 1) and _fits(ion.composition, remaining)
-    ]
+    candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
     candidates.sort(key=lambda ion: (_ion_penalty(ion), -ion.atom_count, ion.ion_id))
+    coverable = [frozenset()] * (len(candidates) + 1)
+    for i in range(len(candidates) - 1, -1, -1):
+        coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
     nodes = 0
     best = [float("inf")]
     found: list = []
@@ -269,11 +342,16 @@ def _search(remaining: dict[str, float], needed: float):
         nodes += 1
         if nodes > _MAX_SEARCH_NODES:
             return
-        floor = cost + _PENALTY_SPECIES * (len(chosen) + (1 if left else 0))
+        # a leftover element no later candidate contains becomes a monatomic
+        # species of its own; the others need at least one more species
+        later = coverable[index]
+        alone = sum(1 for symbol in left if symbol not in later)
+        floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
         if floor > best[0] + _TOL:
             return
         if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
-            for penalty, singles in _assign_monatomic(left, needed - charge):
+            cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
+            for penalty, singles in _assign_monatomic(left, needed - charge, round(cap, 9)):
                 terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
                 total = penalty + cost + _PENALTY_SPECIES * len(terms)
                 if total <= best[0] + _TOL:
