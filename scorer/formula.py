@@ -65,9 +65,10 @@ _CLOSE = {v: k for k, v in _OPEN.items()}
 _NUMBER = re.compile(r"\d+(?:\.\d+)?")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
 # adduct and not as the decimal count "2.2".
-_ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O|D2O|NH3|H2O2|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
+_ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
-_NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3"}
+_NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
+_WATER = "_water"
 
 
 def format_count(value: float) -> str:
@@ -297,7 +298,6 @@ class _Parser:
         self.pos = 0
         self.allow_ion_refs = allow_ion_refs
         self.ion_refs: list[tuple[str, float]] = []
-        self.water_groups = 0.0
 
     def error(self, what: str) -> FormulaError:
         return FormulaError(f"{what} at position {self.pos + 1} of {self.text!r}")
@@ -344,15 +344,16 @@ class _Parser:
                     raise self.error("empty brackets")
                 self.pos += 1
                 multiplier = self.number() or 1.0
-                if depth == 0 and inner == {"H": 2.0, "O": 1.0}:
-                    self.water_groups += multiplier
-                    continue
+                if inner == {"H": 2.0, "O": 1.0}:
+                    # (H2O)n, also inside a complex ([Co(H2O)6]Cl2), is water:
+                    # carried as a pseudo-element so outer counts multiply it
+                    inner = {_WATER: 1.0}
                 for symbol, n in inner.items():
                     counts[symbol] = counts.get(symbol, 0.0) + n * multiplier
                 continue
-            if ch.isupper() and depth == 0 and self.pos > 0 and self.allow_ion_refs and self.abbreviation_tail():
+            if "A" <= ch <= "Z" and depth == 0 and self.pos > 0 and self.allow_ion_refs and self.abbreviation_tail():
                 continue
-            if ch.isupper():
+            if "A" <= ch <= "Z":
                 two = text[self.pos:self.pos + 2]
                 if len(two) == 2 and two[1].islower() and is_element_symbol(two):
                     symbol = two
@@ -367,7 +368,7 @@ class _Parser:
                 continue
             if ch.isdigit():
                 raise self.error(f"a count {ch!r} with nothing before it to count")
-            if ch.islower():
+            if "a" <= ch <= "z":
                 raise self.error(f"unexpected {ch!r}: element symbols start with a capital letter")
             if ch in "+-^":
                 raise self.error(f"unexpected {ch!r}: a charge goes at the end, e.g. SO4^2-")
@@ -516,9 +517,9 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
             if not component:
                 raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
         counts, parser = _parse_component(component)
-        if not counts and not parser.ion_refs:
+        water += counts.pop(_WATER, 0.0) * multiplier
+        if not counts and not parser.ion_refs and not water:
             raise FormulaError(f"no elements in {component!r}")
-        water += parser.water_groups * multiplier
         if index > 0 and counts == {"H": 2.0, "O": 1.0} and not parser.ion_refs:
             water += multiplier
             continue

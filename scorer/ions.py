@@ -23,7 +23,9 @@ an oxidation state outside the element's main list     2
 a monatomic cation of a non-metal (C4+, S6+ ...)       5
 H+ as a monatomic cation                               1.5
 a metal split over two oxidation states                1
-peroxide, superoxide, ozonide, polysulfide, C2(2-)     1.5
+  (+0.1 for each state skipped between the two)
+peroxide, superoxide, ozonide                          3.5
+polysulfide, C2(2-) and other carbides                 1.5
 an uncommon ion (hydrazinium, sulfamate, S2Ox, amide,  0.5
 fulminate, ammine and hydroxo complexes, alkoxides ...)
 H3O+ or an oxocation (NO2+, UO2(2+), VO(2+) ...)        2
@@ -49,9 +51,10 @@ by electronegativity instead (:func:`formal_oxidation_states`).
 ``base``
     a hydroxide (every anion OH-) or ammonia/hydrazine.
 ``covalent_molecular``
-    non-metal molecules (CCl4, glucose) and high-valent metal halides that
-    are molecular (TiCl4, SnCl4: metal oxidation state of 4 or more with only
-    halide anions; common practice).
+    non-metal molecules (CCl4, glucose); high-valent metal halides and oxides
+    that are molecular (TiCl4, SnCl4: metal at +4 or more with only halide
+    anions; Mn2O7, OsO4: metal at +7 or more with only oxide; common
+    practice); organometallics written with CO or C5H5 ligands.
 ``covalent_network``
     extended covalent solids of B, C, Si, Ge with N, O, C (SiO2, SiC, BN,
     diamond; common practice).
@@ -67,6 +70,7 @@ by electronegativity instead (:func:`formal_oxidation_states`).
 from __future__ import annotations
 
 import itertools
+import re
 from functools import lru_cache
 
 from scorer.elements import get_element
@@ -103,6 +107,10 @@ _PENALTY_PROTON = 1.5
 _PENALTY_MIXED_VALENCE = 1.0
 _PENALTY_RARE_ANION = 1.5
 _PENALTY_UNCOMMON_ION = 0.5
+# O-O anions only where no mixed valence explains the oxygen (YBa2Cu3O7 is
+# Cu(II)/Cu(III), not Cu(I) with peroxide)
+_PENALTY_PEROXO = 3.5
+_PEROXO_IONS = frozenset({"O2(2-)", "O2(-)", "O3(-)"})
 _PENALTY_HYDROGEN_ANION = 0.05
 # Ions real salts seldom contain; they win only where nothing common fits.
 _UNCOMMON_FAMILIES = frozenset({
@@ -110,11 +118,23 @@ _UNCOMMON_FAMILIES = frozenset({
 })
 _UNCOMMON_IONS = frozenset({
     "N2H5(+)", "N2H6(2+)", "NH3OH(+)", "NH2SO3(-)", "S2O4(2-)", "S2O5(2-)", "S2O6(2-)",
-    "S2O7(2-)", "S2O8(2-)", "HO2(-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)",
+    "S2O7(2-)", "S2O8(2-)", "HO2(-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)", "SO5(2-)",
+    # oxoanions that mostly exist as formula units of mixed oxides, where the
+    # monatomic reading (spinels, ZnFe2O4, MgAl2O4) is the usual description
+    "SbO4(3-)", "SbO3(-)", "MnO4(3-)", "CrO2(-)", "ZnO2(2-)", "SiO3(2-)", "PO3(-)", "VO3(-)",
+    "FeO4(2-)",
 })
+# actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)
+_ACTINYL_IONS = frozenset({"UO2(2+)", "UO2(+)", "NpO2(2+)", "NpO2(+)", "PuO2(2+)"})
+# acid anions that keep a proton: H2S reads 2 H+ + S2-, oxalic acid 2 H+ + C2O4(2-)
+_HYDROGEN_ANIONS = frozenset({"HS(-)", "HSe(-)", "HC2O4(-)"})
 _PENALTY_SPECIES = 0.1
 _PENALTY_FRACTIONAL_SPLIT = 1.0
+# a bare cation of charge 5 or more is a formal device (U6+ + 2 O2- in uranyl nitrate)
+_PENALTY_HIGH_CATION = 1.0
 # binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
+_ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
+_ORGANOMETALLIC = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
 _ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
 # hydronium only where nothing else fits: H3PO4 is 3 H+ + PO4(3-), not H3O+ + PO3-
 _ION_PENALTIES = {"H3O(+)": 2.0}
@@ -145,11 +165,23 @@ def _is_metal(symbol: str) -> bool:
     return get_element(symbol).is_metal
 
 
+# States that mendeleev lists only as "extra" but that are common in salts
+# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory):
+# Cu(I) in CuCl and Cu2O, Mn(III) in Mn2O3 and Mn3O4, Ti(III), V(III)/V(IV),
+# Cr(II), Au(I), U(IV) in UO2, Os(VIII) and Ru(VIII) in the tetroxides, Re(VII).
+_COMMON_STATES = {
+    "Cu": (1,), "Mn": (3,), "Ti": (2, 3), "V": (2, 3, 4), "Cr": (2,), "Au": (1,), "U": (4,),
+    "Os": (8,), "Ru": (8,), "Re": (7,), "Sm": (2,), "Yb": (2,),
+}
+
+
 @lru_cache(maxsize=None)
 def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     """Non-zero oxidation states with their penalty (main 0, extra 2)."""
     element = get_element(symbol)
     seen = {}
+    for s in _COMMON_STATES.get(symbol, ()):
+        seen[s] = 0.0
     for s in element.oxidation_states_main:
         if s != 0:
             seen.setdefault(int(s), 0.0)
@@ -164,19 +196,29 @@ def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
     metal = _is_metal(symbol)
     options = []
-    for state, penalty in _states(symbol):
+    states = _states(symbol)
+    most_negative = min((s for s, _ in states if s < 0), default=None)
+    for state, penalty in states:
         if metal and state < 0:
             continue
+        if state < 0 and state != most_negative:
+            # a monatomic anion carries its element's most negative state (N3-, O2-, S2-):
+            # N- or O- as free ions read NO2 as NO+ + O-
+            continue
+        if state >= 5:
+            penalty += _PENALTY_HIGH_CATION
         if state > 0 and not metal:
             penalty += _PENALTY_PROTON if symbol == "H" else _PENALTY_NONMETAL_CATION
         if symbol == "Hg" and state == 1:
             penalty += 1.0
         options.append(("single", state, penalty))
     options.sort(key=lambda o: o[2])
-    if metal and (count > 1 + _TOL or abs(count - round(count)) > _TOL):
+    if metal:
         positives = [(s, p) for s, p in _states(symbol) if s > 0]
         for (s1, p1), (s2, p2) in itertools.combinations(positives, 2):
-            options.append(("mixed", (s1, s2), p1 + p2 + _PENALTY_MIXED_VALENCE))
+            # adjacent states first: YBa2Cu3O7 is Cu(II)/Cu(III) rather than Cu(I)/Cu(III)
+            gap = _PENALTY_SPECIES * (s2 - s1 - 1)
+            options.append(("mixed", (s1, s2), p1 + p2 + _PENALTY_MIXED_VALENCE + gap))
     return tuple(options)
 
 
@@ -294,13 +336,17 @@ def _subtract(remaining: dict[str, float], composition, times: float) -> dict[st
 def _ion_penalty(ion: Ion) -> float:
     if ion.ion_id in _ION_PENALTIES:
         return _ION_PENALTIES[ion.ion_id]
+    if ion.ion_id in _PEROXO_IONS:
+        return _PENALTY_PEROXO
     if ion.family in _RARE_ANION_FAMILIES:
         return _PENALTY_RARE_ANION
+    if ion.ion_id in _ACTINYL_IONS:
+        return _PENALTY_UNCOMMON_ION
     if ion.family == "oxocation":
         return _PENALTY_OXOCATION
     if ion.family in _UNCOMMON_FAMILIES or ion.ion_id in _UNCOMMON_IONS:
         return _PENALTY_UNCOMMON_ION
-    if ion.family == "hydrogen-oxoanion":
+    if ion.family == "hydrogen-oxoanion" or ion.ion_id in _HYDROGEN_ANIONS:
         return _PENALTY_HYDROGEN_ANION
     return 0.0
 
@@ -515,12 +561,13 @@ def decompose(comp: Composition) -> Decomposition:
     'Fe:+2.667;O:-2'
     """
     counts = comp.as_dict()
-    notes = list(comp.notes)
+    # the parser's notes (ignored annotations...) belong to the spelling, not the
+    # composition: the record adds them, so this cache stays spelling-free
+    notes: list[str] = []
     water = comp.hydrate_water
     neutral = tuple(f"{name}*{format_count(n)}" for name, n in comp.neutral_adducts)
     for name, n in comp.neutral_adducts:
-        if name == "NH3":
-            counts = _subtract(counts, (("H", 3.0), ("N", 1.0)), n)
+        counts = _subtract(counts, _ADDUCT_COMPOSITIONS[name], n)
 
     if comp.charge:
         return _lone_ion(comp, counts, notes)
@@ -531,6 +578,13 @@ def decompose(comp: Composition) -> Decomposition:
     if "(NH2)" in comp.text and not any(_is_metal(s) for s in symbols):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
         return _nonionic(comp, counts, notes, water, neutral)
+    if _ORGANOMETALLIC.search(comp.text) and any(_is_metal(s) for s in symbols):
+        # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2
+        return Decomposition(
+            composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+            substance_class="covalent_molecular",
+            notes=("organometallic (CO or C5H5 ligands): formal oxidation states not assigned",),
+        )
 
     remaining = dict(counts)
     hinted = []
@@ -565,7 +619,7 @@ def decompose(comp: Composition) -> Decomposition:
         return _nonionic(comp, counts, notes, water, neutral)
 
     seen: dict[str, tuple] = {}
-    for penalty, terms in sorted(readings, key=lambda r: (r[0], _reading_text(*_merge(r[1])))):
+    for penalty, terms in sorted(readings, key=lambda r: (round(r[0], 9), _library_order(r[1]), _reading_text(*_merge(r[1])))):
         if penalty > best_penalty + _TOL:
             break
         cations, anions = _merge(terms)
@@ -580,7 +634,7 @@ def decompose(comp: Composition) -> Decomposition:
     if cls == "unknown":
         # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-:
         # not an acid, so read it as the molecule it is
-        return _nonionic(comp, counts, list(comp.notes), water, neutral)
+        return _nonionic(comp, counts, [], water, neutral)
     if cls == "covalent_molecular":
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
@@ -597,6 +651,17 @@ def decompose(comp: Composition) -> Decomposition:
         alternatives=alternatives,
         notes=tuple(notes),
     )
+
+
+@lru_cache(maxsize=1)
+def _library_rank() -> dict[str, int]:
+    return {ion.ion_id: i for i, ion in enumerate(ion_library())}
+
+
+def _library_order(terms) -> tuple[int, ...]:
+    """Ties go to the ions listed first in the library (ferrocyanide before ferricyanide)."""
+    rank = _library_rank()
+    return tuple(sorted(rank.get(ion.ion_id, -1) for ion, _ in terms if not ion.monatomic))
 
 
 def _has_both_signs(terms) -> bool:
@@ -618,13 +683,12 @@ def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[Ion
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
     metal_states = [ion.charge for ion in cation_ions if ion.monatomic and _is_metal(ion.element)]
-    if (
-        metal_states
-        and len(cation_ions) == 1
-        and max(metal_states) >= 4
-        and all(t.ion.monatomic and t.ion.element in _HALOGENS for t in anions)
-    ):
-        return "covalent_molecular"
+    if metal_states and len(cation_ions) == 1 and all(t.ion.monatomic for t in anions):
+        anion_elements = {t.ion.element for t in anions}
+        if max(metal_states) >= 4 and anion_elements <= _HALOGENS:
+            return "covalent_molecular"
+        if max(metal_states) >= 7 and anion_elements == {"O"}:
+            return "covalent_molecular"  # Mn2O7, OsO4, RuO4
     return "ionic_salt"
 
 

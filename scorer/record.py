@@ -85,7 +85,7 @@ def score_composition(comp: Composition) -> dict:
     """Score a parsed composition; see :func:`score_formula`."""
     record = empty_record()
     dec = decompose(comp)
-    notes = list(dec.notes)
+    notes = [RowWarning(n) for n in comp.notes] + list(dec.notes)
     record["formula_normalized"] = normalized_formula(comp, dec)
     record["substance_class"] = dec.substance_class
     record["cations"] = format_ion_terms(dec.cations)
@@ -148,7 +148,14 @@ def score_formula(text) -> dict:
         record = empty_record()
         record.update(status="error", message="empty formula cell")
         return record
-    if not isinstance(text, str):
+    if isinstance(text, (bytes, bytearray)):
+        try:
+            text = bytes(text).decode("utf-8")
+        except UnicodeDecodeError:
+            record = empty_record()
+            record.update(status="error", message="the cell holds bytes that are not UTF-8 text")
+            return record
+    elif not isinstance(text, str):
         text = str(text)
     if not text.strip():
         record = empty_record()

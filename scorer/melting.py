@@ -1,0 +1,2 @@
+"""placeholder"""
+MODEL_FEATURES = ()
