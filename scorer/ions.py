@@ -26,6 +26,7 @@ a metal split over two oxidation states                1
   (+0.1 for each state skipped between the two)
 peroxide, superoxide, ozonide                          3.5
 polysulfide, C2(2-) and other carbides                 1.5
+an oxoanion of a mixed oxide (MnO4(3-), ZnO2(2-) ...)   1.5
 an uncommon ion (hydrazinium, sulfamate, S2Ox, amide,  0.5
 fulminate, ammine and hydroxo complexes, alkoxides ...)
 H3O+ or an oxocation (NO2+, UO2(2+), VO(2+) ...)        2
@@ -119,11 +120,14 @@ _UNCOMMON_FAMILIES = frozenset({
 _UNCOMMON_IONS = frozenset({
     "N2H5(+)", "N2H6(2+)", "NH3OH(+)", "NH2SO3(-)", "S2O4(2-)", "S2O5(2-)", "S2O6(2-)",
     "S2O7(2-)", "S2O8(2-)", "HO2(-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)", "SO5(2-)",
-    # oxoanions that mostly exist as formula units of mixed oxides, where the
-    # monatomic reading (spinels, ZnFe2O4, MgAl2O4) is the usual description
-    "SbO4(3-)", "SbO3(-)", "MnO4(3-)", "CrO2(-)", "ZnO2(2-)", "SiO3(2-)", "PO3(-)", "VO3(-)",
     "FeO4(2-)",
 })
+# oxoanions that mostly exist as formula units of mixed oxides, where the
+# monatomic reading (spinels ZnFe2O4, LiMn2O4) is the usual description
+_FORMULA_UNIT_OXOANIONS = frozenset({
+    "SbO4(3-)", "SbO3(-)", "MnO4(3-)", "CrO2(-)", "ZnO2(2-)",
+})
+_PENALTY_FORMULA_UNIT_OXOANION = 1.5
 # actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)
 _ACTINYL_IONS = frozenset({"UO2(2+)", "UO2(+)", "NpO2(2+)", "NpO2(+)", "PuO2(2+)"})
 # acid anions that keep a proton: H2S reads 2 H+ + S2-, oxalic acid 2 H+ + C2O4(2-)
@@ -235,6 +239,9 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
     if not symbols:
         return ((0.0, ()),) if abs(needed) < _TOL else ()
     per_symbol = [_monatomic_options(s, counts[s]) for s in symbols]
+    # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
+    # and a last resort in a stoichiometric one
+    stoichiometric = all(abs(n - round(n)) < _TOL for _, n in remaining)
 
     def reach(option, n):
         if option[0] == "single":
@@ -267,7 +274,7 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
             # x ions at s1 and n - x at s2 carry the residual charge
             x = (s2 * n - rest) / (s2 - s1)
             extra = 0.0
-            if abs(n - round(n)) < _TOL and abs(x - round(x)) > _TOL:
+            if stoichiometric and abs(x - round(x)) > _TOL:
                 extra = _PENALTY_FRACTIONAL_SPLIT
             if _TOL < x < n - _TOL and penalty + extra <= cap + _TOL:
                 out.append((penalty + extra, tuple(picked) + ((symbol, s1, round(x, 9)), (symbol, s2, round(n - x, 9)))))
@@ -340,6 +347,8 @@ def _ion_penalty(ion: Ion) -> float:
         return _PENALTY_PEROXO
     if ion.family in _RARE_ANION_FAMILIES:
         return _PENALTY_RARE_ANION
+    if ion.ion_id in _FORMULA_UNIT_OXOANIONS:
+        return _PENALTY_FORMULA_UNIT_OXOANION
     if ion.ion_id in _ACTINYL_IONS:
         return _PENALTY_UNCOMMON_ION
     if ion.family == "oxocation":
@@ -475,6 +484,22 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
     return tuple((s, round(value if s == balancer else default(s), 6)) for s in symbols)
 
 
+def _organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
+    """Formal states of a homoleptic carbonyl (neutral CO: metal 0, C +2, O -2)
+    or metallocene (two C5H5(-): metal +2, C -1.2, H +1); IUPAC Red Book
+    2005, IR-10 (organometallic compounds)."""
+    metals = [s for s in counts if _is_metal(s)]
+    if len(metals) != 1:
+        return ()
+    metal = metals[0]
+    rest = {s: n for s, n in counts.items() if s != metal}
+    if set(rest) == {"C", "O"} and abs(rest["C"] - rest["O"]) < _TOL:
+        return ((metal, 0.0), ("C", 2.0), ("O", -2.0))
+    if set(rest) == {"C", "H"} and abs(rest["C"] - 10 * counts[metal]) < _TOL and abs(rest["H"] - rest["C"]) < _TOL:
+        return ((metal, 2.0), ("C", -1.2), ("H", 1.0))
+    return ()
+
+
 def _oxidation_states_of(terms: list[IonTerm]) -> tuple[tuple[str, float], ...]:
     totals: dict[str, float] = {}
     weights: dict[str, float] = {}
@@ -583,7 +608,9 @@ def decompose(comp: Composition) -> Decomposition:
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
             substance_class="covalent_molecular",
-            notes=("organometallic (CO or C5H5 ligands): formal oxidation states not assigned",),
+            oxidation_states=_organometallic_states(counts),
+            notes=() if _organometallic_states(counts) else (
+                "organometallic with ligands other than CO or C5H5: formal oxidation states not assigned",),
         )
 
     remaining = dict(counts)

@@ -105,11 +105,17 @@ def test_known_failures_are_few_and_explained():
 # --------------------------------------------------------------------------- the solver against them
 
 
+# two charge-balanced readings with common states; the solver must say so
+# (see test_chalcopyrite_reports_both_readings and test_soluble_prussian_blue_reports_both_readings)
+GENUINELY_AMBIGUOUS = {"CuFeS2", "KFe[Fe(CN)6]"}
+
+
 @pytest.mark.parametrize("row", _params())
 def test_case_ions_and_oxidation_states(row):
     record = score_formula(row["formula"])
     assert record["status"] in ("ok", "warning"), record["message"]
-    assert "ambiguous" not in record["message"], record["message"]
+    if row["formula"] not in GENUINELY_AMBIGUOUS:
+        assert "ambiguous" not in record["message"], record["message"]
     assert record["substance_class"] == row["substance_class"]
     assert (record["cations"] or "") == row["cations"]
     assert (record["anions"] or "") == row["anions"]
