@@ -57,7 +57,6 @@ from dataclasses import dataclass
 from functools import lru_cache, reduce
 
 import numpy as np
-from scipy.special import erfc
 
 __all__ = [
     "CrystalStructure",
@@ -197,6 +196,13 @@ class MadelungResult:
         raise ValueError(f"unknown convention {convention!r}; allowed: {', '.join(CONVENTIONS)}")
 
 
+def _erfc(x: np.ndarray) -> np.ndarray:
+    """Complementary error function of an array (the standard library's
+    ``math.erfc`` element by element; scipy's import alone would cost more
+    than the whole summation)."""
+    return np.fromiter(map(math.erfc, x.ravel()), dtype=float, count=x.size).reshape(x.shape)
+
+
 def _cartesian(structure: CrystalStructure) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     lattice = np.asarray(structure.lattice, dtype=float)
     frac = np.asarray(structure.fractional_positions, dtype=float) % 1.0
@@ -276,7 +282,7 @@ def ewald_energy_per_cell(structure: CrystalStructure, *, alpha: float | None = 
         r = np.linalg.norm(diffs + shift, axis=-1)
         mask = (r > 1e-10) & (r < reach)
         if np.any(mask):
-            e_real += float(np.sum(qq[mask] * erfc(alpha * r[mask]) / r[mask]))
+            e_real += float(np.sum(qq[mask] * _erfc(alpha * r[mask]) / r[mask]))
     e_real *= 0.5
 
     # Reciprocal space.
