@@ -69,6 +69,7 @@ _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5O
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
 _WATER = "_water"
+_ORGANOMETALLIC_GROUPS = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
 
 
 def format_count(value: float) -> str:
@@ -107,7 +108,10 @@ class Composition:
     water; ``charge`` the net charge written in the text (0 for a compound);
     ``ion_hints`` the ions named explicitly by the ionic-liquid shorthand or by
     a bracketed complex of the ion library, as ``(ion_id, count)`` pairs;
-    ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``).
+    ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``);
+    ``structure_hint`` what the written groups say about bonding that the
+    counts cannot (``"amide"`` for ``CO(NH2)2``, ``"organometallic"`` for
+    ``Fe(CO)5`` or ``Fe(C5H5)2``), so it takes part in equality.
     ``canonical`` is one string per compound: every accepted spelling of the
     same formula unit gives the same one.
     """
@@ -118,6 +122,7 @@ class Composition:
     charge: int = 0
     ion_hints: tuple[tuple[str, float], ...] = ()
     neutral_adducts: tuple[tuple[str, float], ...] = ()
+    structure_hint: str = ""
     notes: tuple[str, ...] = field(default=(), compare=False)
 
     @property
@@ -545,6 +550,11 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
     if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
         raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
     ordered = tuple((s, totals[s]) for s in _hill_order(totals))
+    hint = ""
+    if _ORGANOMETALLIC_GROUPS.search(cleaned):
+        hint = "organometallic"
+    elif "(NH2)" in cleaned:
+        hint = "amide"
     return Composition(
         text=text,
         counts=ordered,
@@ -552,6 +562,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
         charge=charge,
         ion_hints=tuple(sorted(hints.items())),
         neutral_adducts=tuple(sorted(adducts.items())),
+        structure_hint=hint,
         notes=tuple(notes),
     )
 

@@ -71,7 +71,6 @@ by electronegativity instead (:func:`formal_oxidation_states`).
 from __future__ import annotations
 
 import itertools
-import re
 from functools import lru_cache
 
 from scorer.elements import get_element
@@ -138,7 +137,6 @@ _PENALTY_FRACTIONAL_SPLIT = 1.0
 _PENALTY_HIGH_CATION = 1.0
 # binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
-_ORGANOMETALLIC = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
 _ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
 # hydronium only where nothing else fits: H3PO4 is 3 H+ + PO4(3-), not H3O+ + PO3-
 _ION_PENALTIES = {"H3O(+)": 2.0}
@@ -600,10 +598,10 @@ def decompose(comp: Composition) -> Decomposition:
     symbols = set(counts)
     if len(symbols) == 1 or all(_is_metal(s) for s in symbols):
         return _nonionic(comp, counts, notes, water, neutral)
-    if "(NH2)" in comp.text and not any(_is_metal(s) for s in symbols):
+    if comp.structure_hint == "amide" and not any(_is_metal(s) for s in symbols):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
         return _nonionic(comp, counts, notes, water, neutral)
-    if _ORGANOMETALLIC.search(comp.text) and any(_is_metal(s) for s in symbols):
+    if comp.structure_hint == "organometallic" and any(_is_metal(s) for s in symbols):
         # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
