@@ -1,10 +1,32 @@
 """ionicity's batch side: table I/O, engines and the command line.
 
 ``score_table`` scores a pandas DataFrame; ``score_file`` streams a CSV, TSV
-or Parquet file into another. Both add the columns of
-``scorer.columns.output_columns()``.
+or Parquet file (or a folder of Parquet parts) into another. Both add the
+columns of ``scorer.columns.output_columns()``.
+
+Names are imported on first use, so ``import pipelines`` (and each worker
+process) does not pay for pyarrow until it is needed.
 """
-from pipelines.batch import ScoreConfig, Summary, score_file, score_table
-from pipelines.io import InputError
+from __future__ import annotations
+
+import importlib
 
 __all__ = ["ScoreConfig", "Summary", "InputError", "score_file", "score_table"]
+
+_HOMES = {
+    "ScoreConfig": "pipelines.batch",
+    "Summary": "pipelines.batch",
+    "score_file": "pipelines.batch",
+    "score_table": "pipelines.batch",
+    "InputError": "pipelines.io",
+}
+
+
+def __getattr__(name: str):
+    if name in _HOMES:
+        return getattr(importlib.import_module(_HOMES[name]), name)
+    raise AttributeError(f"module 'pipelines' has no attribute {name!r}")
+
+
+def __dir__():
+    return sorted(list(globals()) + __all__)

@@ -1,33 +1,88 @@
 """The local engine: score a table batch by batch, each distinct formula once.
 
-Per batch: dictionary-encode the formula column, score the distinct formulas
-that the process-wide cache has not seen, build each generated column for the
-distinct values and expand it to every row with one ``take``. Rows keep their
-order and input columns pass through untouched.
+Per batch: dictionary-encode the formula column, look the distinct formulas
+up in the process-wide :class:`FormulaCache`, score only the new ones (across
+worker processes when there are enough of them to pay for it), build each
+generated column for the distinct values and expand it to every row with one
+``take``. Rows keep their order and input columns pass through untouched.
+
+The same :func:`score_batch` runs inside each Dask worker
+(:mod:`pipelines.dask_engine`).
 """
 from __future__ import annotations
 
+import json
 import math
+import os
+import re
 import sys
 import time
-from dataclasses import dataclass, field
+from concurrent.futures import ProcessPoolExecutor
+from concurrent.futures.process import BrokenProcessPool
+from dataclasses import asdict, dataclass
 
 import pyarrow as pa
 import pyarrow.compute as pc
 
 from scorer.columns import output_columns
-from scorer.record import score_formula
 
+from pipelines._pool import default_workers, score_values, worker_init
 from pipelines.io import InputError, TableWriter, open_reader
 
-__all__ = ["ScoreConfig", "Summary", "score_batch", "score_table", "score_file", "find_formula_column", "FormulaCache"]
+__all__ = [
+    "ScoreConfig",
+    "Summary",
+    "FormulaCache",
+    "BatchScorer",
+    "score_batch",
+    "score_table",
+    "score_file",
+    "find_formula_column",
+    "output_schema",
+    "provenance_metadata",
+    "ENGINES",
+    "PARALLEL_MIN_NEW",
+]
 
 _ARROW_TYPES = {"string": pa.string(), "float64": pa.float64(), "int64": pa.int64(), "bool": pa.bool_()}
+ENGINES = ("local", "dask")
+# Below this many new distinct formulas in a batch, shipping them to worker
+# processes costs more than scoring them here (measured: see pipelines.bench
+# --calibrate and DEVELOPERS.md, "Benchmarks").
+PARALLEL_MIN_NEW = 256
+_CHUNKS_PER_WORKER = 4
+_MIN_CHUNK = 32
+_ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
+
+
+def _locality_key(text: str) -> tuple[str, str]:
+    # Hydrates and other spellings of one salt share the scorer's per-process
+    # caches (the salt is decomposed once), so keep them in the same chunk.
+    return (_ADDUCT_MARKS.split(text, 1)[0].strip(), text)
 
 
 @dataclass
 class ScoreConfig:
-    """Options of one scoring run; the CLI builds one from its arguments."""
+    """Options of one scoring run; the CLI builds one from its arguments.
+
+    Parameters
+    ----------
+    input, output : str
+        Paths (``-`` for CSV on stdin / stdout). The output format follows
+        the output's extension; the Dask engine writes a folder of Parquet
+        parts.
+    formula_col, name_col : str or None
+        Column holding the formulas (default: the one named ``formula`` in any
+        case) and an optional column quoted in the message of failed rows.
+    prefix : str, default=""
+        Prefix for every generated column name.
+    engine : {"local", "dask"}, default="local"
+    workers : int or None, default=None
+        Processes scoring distinct formulas (local engine) or Dask workers of
+        the local cluster; ``None`` means every core.
+    scheduler : str or None
+        Address of a running Dask scheduler (``--engine dask`` only).
+    """
 
     input: str
     output: str
@@ -38,6 +93,20 @@ class ScoreConfig:
     strict: bool = False
     quiet: bool = False
     batch_rows: int = 65536
+    engine: str = "local"
+    workers: int | None = None
+    scheduler: str | None = None
+
+    def validate(self) -> None:
+        """Raise :class:`InputError` for options that cannot work together."""
+        if self.engine not in ENGINES:
+            raise InputError(f"unknown engine {self.engine!r}; choose one of {', '.join(ENGINES)}")
+        if self.workers is not None and (not isinstance(self.workers, int) or self.workers < 1):
+            raise InputError(f"--workers must be a whole number of at least 1, not {self.workers!r}")
+        if not isinstance(self.batch_rows, int) or self.batch_rows < 1:
+            raise InputError(f"--batch-rows must be a positive whole number, not {self.batch_rows!r}")
+        if self.scheduler is not None and self.engine != "dask":
+            raise InputError("--scheduler needs --engine dask")
 
 
 @dataclass
@@ -59,25 +128,168 @@ class Summary:
         )
 
 
-@dataclass
+def _to_arrays(records: list[tuple]) -> list[pa.Array]:
+    """Records (tuples in column order) to one Arrow array per generated column."""
+    generated = output_columns()
+    by_column = list(zip(*records)) if records else [()] * len(generated)
+    arrays = []
+    for column, values in zip(generated, by_column):
+        if column.dtype == "float64":
+            # a NaN score becomes a null cell, as for text columns (v != v only
+            # for NaN; from_pandas=True would do it too but imports pandas)
+            arrays.append(pa.array([None if v is None or v != v else v for v in values], type=pa.float64()))
+        else:
+            arrays.append(pa.array(values, type=_ARROW_TYPES[column.dtype]))
+    return arrays
+
+
 class FormulaCache:
-    """Records of formulas already scored in this process."""
+    """Scores of the formulas already seen in this process, kept as one Arrow
+    array per generated column (row ``index[formula]``), so a batch's
+    columns are two ``take``s away, whatever its size.
 
-    records: dict = field(default_factory=dict)
+    ``None`` is the key of the empty-cell record. Bounded so that a table of
+    ever-new formulas keeps flat memory: when full, the oldest quarter of the
+    entries not needed by the current batch is dropped.
+    """
 
-    def get_many(self, formulas: list) -> list[dict]:
-        out = []
-        records = self.records
-        for text in formulas:
-            record = records.get(text)
-            if record is None:
-                record = score_formula(text)
-                records[text] = record
-            out.append(record)
-        return out
+    def __init__(self, max_entries: int = 200_000):
+        self.max_entries = max_entries
+        self.index: dict = {}
+        self._arrays: list[pa.Array] = _to_arrays([])
+        self._pending: list[tuple] = []
+
+    def __len__(self) -> int:
+        return len(self.index)
+
+    def missing(self, formulas) -> list:
+        index = self.index
+        return [f for f in formulas if f not in index]
+
+    def add(self, formulas: list, values: list[tuple], keep=()) -> None:
+        """Store records; ``keep`` lists formulas that must survive eviction."""
+        if len(self.index) + len(formulas) > self.max_entries:
+            self._evict(len(formulas), set(keep))
+        base = len(self.index)
+        for offset, text in enumerate(formulas):
+            self.index[text] = base + offset
+        self._pending.extend(values)
+
+    def arrays(self) -> list[pa.Array]:
+        if self._pending:
+            fresh = _to_arrays(self._pending)
+            self._arrays = [pa.concat_arrays([old, new]) for old, new in zip(self._arrays, fresh)]
+            self._pending = []
+        return self._arrays
+
+    def ids(self, formulas) -> list[int]:
+        index = self.index
+        return [index[f] for f in formulas]
+
+    def _evict(self, incoming: int, keep: set) -> None:
+        arrays = self.arrays()
+        budget = max(min(len(self.index) * 3 // 4, self.max_entries - incoming), 0)
+        kept = [f for f in self.index if f in keep]
+        others = [f for f in self.index if f not in keep]
+        kept += others[max(len(others) - max(budget - len(kept), 0), 0):]
+        kept.sort(key=self.index.__getitem__)
+        rows = pa.array([self.index[f] for f in kept], type=pa.int64())
+        self._arrays = [a.take(rows) for a in arrays]
+        self.index = {f: i for i, f in enumerate(kept)}
 
 
 _PROCESS_CACHE = FormulaCache()
+
+
+class BatchScorer:
+    """Scores the distinct formulas of each batch, once each per process.
+
+    New formulas go to a pool of ``workers`` processes when a batch brings at
+    least :data:`PARALLEL_MIN_NEW` of them; fewer are scored in-process. The
+    pool is started on first need and reused for every later batch; use the
+    scorer as a context manager (or call :meth:`close`) to stop it.
+    """
+
+    def __init__(self, workers: int | None = None, cache: FormulaCache | None = None,
+                 parallel_min_new: int | None = None):
+        self.workers = default_workers() if workers is None else max(int(workers), 1)
+        self.cache = _PROCESS_CACHE if cache is None else cache
+        self.parallel_min_new = PARALLEL_MIN_NEW if parallel_min_new is None else parallel_min_new
+        self._pool: ProcessPoolExecutor | None = None
+        self.seen: set[int] = set()
+        self.scored_in_pool = 0
+
+    def __enter__(self) -> "BatchScorer":
+        return self
+
+    def __exit__(self, exc_type, exc, tb) -> None:
+        self.close(cancel=exc_type is not None)
+
+    def close(self, cancel: bool = False) -> None:
+        """Stop the pool; ``cancel`` (after an error or Ctrl-C) stops the
+        workers at once rather than letting them finish their chunk."""
+        pool, self._pool = self._pool, None
+        if pool is None:
+            return
+        if cancel:
+            # a worker still starting up when the parent exits would print a
+            # traceback about its vanished semaphores; stop them first
+            for process in list((getattr(pool, "_processes", None) or {}).values()):
+                process.terminate()
+        pool.shutdown(wait=True, cancel_futures=True)
+
+    def _start_pool(self) -> ProcessPoolExecutor:
+        import multiprocessing
+
+        methods = multiprocessing.get_all_start_methods()
+        context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
+        if context.get_start_method() == "forkserver":
+            context.set_forkserver_preload(["pipelines._pool"])
+        return ProcessPoolExecutor(
+            max_workers=self.workers, mp_context=context, initializer=worker_init, initargs=(os.getpid(),)
+        )
+
+    def _score_new(self, new: list) -> list[tuple]:
+        if self.workers < 2 or len(new) < self.parallel_min_new:
+            return score_values(new)
+        order = sorted(range(len(new)), key=lambda i: _locality_key(new[i]))
+        grouped = [new[i] for i in order]
+        size = max(_MIN_CHUNK, math.ceil(len(new) / (self.workers * _CHUNKS_PER_WORKER)))
+        chunks = [grouped[i:i + size] for i in range(0, len(grouped), size)]
+        try:
+            if self._pool is None:
+                self._pool = self._start_pool()
+            results = list(self._pool.map(score_values, chunks))
+        except BrokenProcessPool:
+            # a worker died (out of memory, killed): carry on here rather than lose the run
+            self.close(cancel=True)
+            self.workers = 1
+            return score_values(new)
+        self.scored_in_pool += len(new)
+        records: list = [None] * len(new)
+        for position, record in zip(order, (r for chunk in results for r in chunk)):
+            records[position] = record
+        return records
+
+    def ids(self, formulas: list) -> list[int]:
+        """Cache rows for ``formulas`` (distinct; strings, or ``None`` for an
+        empty cell), scoring those not seen yet."""
+        cache = self.cache
+        self.seen.update(hash(f) for f in formulas if f is not None and f.strip())
+        new = cache.missing(formulas)
+        if new:
+            texts = [f for f in new if f is not None]
+            values = self._score_new(texts) if texts else []
+            if len(texts) < len(new):
+                texts.append(None)
+                values.append(score_values([None])[0])
+            cache.add(texts, values, keep=formulas)
+        return cache.ids(formulas)
+
+    def columns(self, formulas: list) -> list[pa.Array]:
+        """One array per generated column, one row per entry of ``formulas``."""
+        rows = pa.array(self.ids(formulas), type=pa.int64())
+        return [a.take(rows) for a in self.cache.arrays()]
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
@@ -106,92 +318,147 @@ def generated_names(input_names: list[str], prefix: str) -> list[str]:
     return names
 
 
-def output_schema(input_schema: pa.Schema, prefix: str) -> pa.Schema:
+def output_schema(input_schema: pa.Schema, prefix: str = "") -> pa.Schema:
+    """Input fields, unchanged, followed by the generated columns."""
     names = generated_names(input_schema.names, prefix)
-    fields = list(input_schema) + [
-        pa.field(name, _ARROW_TYPES[c.dtype]) for name, c in zip(names, output_columns())
-    ]
+    fields = list(input_schema) + [pa.field(name, _ARROW_TYPES[c.dtype]) for name, c in zip(names, output_columns())]
     return pa.schema(fields)
-
-
-def _with_name(record: dict, name) -> dict:
-    if record["status"] != "error" or not name:
-        return record
-    record = dict(record)
-    record["message"] = f"{record['message']} (row names {name!r})"
-    return record
 
 
 def score_batch(
     batch: pa.RecordBatch,
     formula_col: str,
     schema: pa.Schema,
-    cache: FormulaCache | None = None,
+    scorer: BatchScorer | FormulaCache | None = None,
     name_col: str | None = None,
 ) -> pa.RecordBatch:
-    """Append the generated columns to one batch, in row order."""
-    cache = cache or _PROCESS_CACHE
+    """Append the generated columns to one batch, in row order.
+
+    ``schema`` is :func:`output_schema` of the batch's schema (it names the
+    generated columns, prefix included).
+    """
+    if not isinstance(scorer, BatchScorer):
+        scorer = BatchScorer(1, cache=scorer)
     formulas = batch.column(batch.schema.get_field_index(formula_col))
     if not pa.types.is_string(formulas.type):
         formulas = pc.cast(formulas, pa.string())
-    if name_col is not None:
-        names = batch.column(batch.schema.get_field_index(name_col))
-        keys = pc.binary_join_element_wise(
-            pc.fill_null(formulas, "\x00"), pc.fill_null(pc.cast(names, pa.string()), ""), "\x01"
-        )
-        encoded = pc.dictionary_encode(keys)
-        distinct = encoded.dictionary.to_pylist()
-        split = [k.split("\x01", 1) for k in distinct]
-        records = [
-            _with_name(r, n) for r, (_, n) in zip(cache.get_many([None if f == "\x00" else f for f, _ in split]), split)
-        ]
-    else:
-        encoded = pc.dictionary_encode(formulas)
-        distinct = encoded.dictionary.to_pylist()
-        records = cache.get_many(distinct)
+    encoded = pc.dictionary_encode(formulas)
+    distinct = encoded.dictionary.to_pylist()
     indices = encoded.indices
     if indices.null_count:
-        records = records + [score_formula(None)]
-        indices = pc.fill_null(indices, len(records) - 1)
-    columns = list(batch.columns)
-    for column in output_columns():
-        values = [r[column.name] for r in records]
-        if column.dtype == "float64":
-            values = [None if v is None or (isinstance(v, float) and math.isnan(v)) else float(v) for v in values]
-        array = pa.array(values, type=_ARROW_TYPES[column.dtype])
-        columns.append(pc.take(array, indices))
+        distinct.append(None)
+        indices = pc.fill_null(indices, len(distinct) - 1)
+    rows = pa.array(scorer.ids(distinct), type=pa.int64()).take(indices)
+    columns = list(batch.columns) + [a.take(rows) for a in scorer.cache.arrays()]
+    if name_col is not None:
+        _name_failed_rows(columns, batch, name_col, len(batch.columns))
     return pa.RecordBatch.from_arrays(columns, schema=schema)
 
 
-def _count_status(summary: Summary, batch: pa.RecordBatch, prefix: str) -> None:
-    counts = pc.value_counts(batch.column(batch.schema.get_field_index(prefix + "status"))).to_pylist()
+def _name_failed_rows(columns: list, batch: pa.RecordBatch, name_col: str, first: int) -> None:
+    names = output_columns()
+    status_at = first + [c.name for c in names].index("status")
+    message_at = first + [c.name for c in names].index("message")
+    row_names = batch.column(batch.schema.get_field_index(name_col))
+    if not pa.types.is_string(row_names.type):
+        row_names = pc.cast(row_names, pa.string())
+    row_names = pc.fill_null(row_names, "")
+    failed = pc.and_(pc.equal(columns[status_at], "error"), pc.not_equal(row_names, ""))
+    labelled = pc.binary_join_element_wise(pc.fill_null(columns[message_at], ""), " (row named '", row_names, "')", "")
+    columns[message_at] = pc.if_else(failed, labelled, columns[message_at])
+
+
+def _count_status(summary: Summary, batch: pa.RecordBatch, status_name: str) -> None:
+    counts = pc.value_counts(batch.column(batch.schema.get_field_index(status_name))).to_pylist()
     for item in counts:
-        setattr(summary, item["values"], getattr(summary, item["values"]) + item["counts"])
+        if item["values"] in ("ok", "warning", "error"):
+            setattr(summary, item["values"], getattr(summary, item["values"]) + item["counts"])
 
 
-class _Progress:
-    """A one-line progress report on stderr, only when stderr is a terminal."""
+class Progress:
+    """Rows done, rows per second and time left on one stderr line, only when
+    stderr is a terminal and the run is not ``--quiet``."""
 
-    def __init__(self, enabled: bool):
-        self.enabled = enabled and sys.stderr.isatty()
+    def __init__(self, enabled: bool, total_rows: int | None = None, fraction_done=None, stream=None):
+        self.stream = stream or sys.stderr
+        self.enabled = enabled and self.stream.isatty()
+        self.total_rows = total_rows
+        self.fraction_done = fraction_done
         self.start = time.perf_counter()
         self.last = 0.0
 
-    def update(self, rows: int) -> None:
+    def update(self, rows: int, force: bool = False) -> None:
         if not self.enabled:
             return
         now = time.perf_counter()
-        if now - self.last < 0.2:
+        if now - self.last < 0.25 and not force:
             return
         self.last = now
-        rate = rows / max(now - self.start, 1e-9)
-        sys.stderr.write(f"\r{rows:,} rows  {rate:,.0f} rows/s")
-        sys.stderr.flush()
+        elapsed = max(now - self.start, 1e-9)
+        fraction = None
+        if self.total_rows:
+            fraction = rows / self.total_rows
+        elif self.fraction_done is not None:
+            fraction = self.fraction_done()
+        left = ""
+        if fraction and fraction > 0:
+            seconds = max(elapsed * (1 - fraction) / fraction, 0.0)
+            left = f"  {int(seconds // 60)}:{int(seconds % 60):02d} left"
+        percent = f" ({100 * fraction:.0f}%)" if fraction is not None else ""
+        self.stream.write(f"\r{rows:,} rows{percent}  {rows / elapsed:,.0f} rows/s{left}   ")
+        self.stream.flush()
 
     def close(self) -> None:
         if self.enabled:
-            sys.stderr.write("\r" + " " * 60 + "\r")
-            sys.stderr.flush()
+            self.stream.write("\r" + " " * 72 + "\r")
+            self.stream.flush()
+
+
+def _data_versions() -> dict:
+    import hashlib
+    from importlib import resources
+
+    from scorer.elements import snapshot_info
+
+    info = snapshot_info()
+    tables = {}
+    for entry in sorted(resources.files("scorer.data").iterdir(), key=lambda e: e.name):
+        if entry.name.endswith((".csv", ".json")):
+            tables[entry.name] = "sha256:" + hashlib.sha256(entry.read_bytes()).hexdigest()[:16]
+    return {
+        "elements_snapshot": {
+            "mendeleev_version": info.get("mendeleev_version"),
+            "format_version": info.get("format_version"),
+        },
+        "tables": tables,
+    }
+
+
+def provenance_metadata(config: ScoreConfig, formula_col: str) -> dict[str, str]:
+    """Parquet key-value metadata: ionicity version, data snapshot versions
+    (the element snapshot's mendeleev version and a digest of every packaged
+    table) and the options of the run."""
+    from scorer import __version__
+
+    options = {k: v for k, v in asdict(config).items() if k not in ("output", "quiet", "overwrite")}
+    options["formula_col"] = formula_col
+    return {
+        "ionicity.version": __version__,
+        "ionicity.data_versions": json.dumps(_data_versions(), sort_keys=True),
+        "ionicity.options": json.dumps(options, sort_keys=True),
+    }
+
+
+def prepare(config: ScoreConfig):
+    """Open the input and check the options against it: returns the reader,
+    the formula column and the output schema. Raises :class:`InputError`."""
+    config.validate()
+    reader = open_reader(config.input, config.batch_rows)
+    names = reader.schema.names
+    formula_col = find_formula_column(names, config.formula_col)
+    if config.name_col is not None and config.name_col not in names:
+        raise InputError(f"no column {config.name_col!r} for --name-col; columns found: {', '.join(map(repr, names))}")
+    return reader, formula_col, output_schema(reader.schema, config.prefix)
 
 
 def score_file(config: ScoreConfig | str, output: str | None = None, **options) -> Summary:
@@ -200,78 +467,85 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     ``score_file("in.csv", "out.parquet", formula_col="smiles_free_formula")``
     or ``score_file(ScoreConfig(...))``. Raises :class:`InputError` for
     unusable input or options; nothing is written at the output path then.
+    With ``engine="dask"`` the work goes to :func:`pipelines.dask_engine.score_file_dask`.
     """
     if not isinstance(config, ScoreConfig):
         config = ScoreConfig(input=config, output=output if output is not None else "-", **options)
-    started = time.perf_counter()
-    reader = open_reader(config.input, config.batch_rows)
-    names = reader.schema.names
-    formula_col = find_formula_column(names, config.formula_col)
-    if config.name_col is not None and config.name_col not in names:
-        raise InputError(f"no column {config.name_col!r} for --name-col; columns found: {', '.join(map(repr, names))}")
-    schema = output_schema(reader.schema, config.prefix)
-    from scorer import __version__
-    from scorer.elements import snapshot_info
+    config.validate()
+    if config.engine == "dask":
+        from pipelines.dask_engine import score_file_dask
 
-    metadata = {
-        "ionicity.version": __version__,
-        "ionicity.elements_snapshot": str(snapshot_info().get("mendeleev_version", "")),
-        "ionicity.formula_col": formula_col,
-        "ionicity.input": config.input,
-    }
-    writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata)
+        return score_file_dask(config)
+    started = time.perf_counter()
+    reader, formula_col, schema = prepare(config)
+    metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
+    writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths)
     summary = Summary(output=config.output)
-    progress = _Progress(not config.quiet)
-    before = len(_PROCESS_CACHE.records)
+    progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
+    status_name = config.prefix + "status"
+    scorer = BatchScorer(config.workers)
     try:
         for batch in reader.batches:
-            scored = score_batch(batch, formula_col, schema, name_col=config.name_col)
-            if config.prefix:
-                scored = scored.rename_columns(schema.names)
+            scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col)
             writer.write(scored)
             summary.rows += batch.num_rows
-            _count_status(summary, scored, config.prefix)
+            _count_status(summary, scored, status_name)
             progress.update(summary.rows)
         if summary.rows == 0:
             raise InputError(f"input {config.input!r} has a header but no data rows")
         writer.commit()
     except BaseException:
         writer.abort()
+        scorer.close(cancel=True)
         raise
     finally:
         progress.close()
-    summary.distinct_formulas = max(len(_PROCESS_CACHE.records) - before, 0)
+    scorer.close()
+    summary.distinct_formulas = len(scorer.seen)
     summary.seconds = time.perf_counter() - started
     return summary
 
 
-def score_table(df, formula_col: str | None = None, *, name_col: str | None = None, prefix: str = ""):
+def score_table(df, formula_col: str | None = None, *, name_col: str | None = None, prefix: str = "",
+                workers: int | None = 1):
     """Score a pandas DataFrame; returns a new DataFrame with the generated
     columns appended (input columns, index and order unchanged).
 
+    Each distinct formula is scored once; ``workers`` > 1 scores many new
+    distinct formulas across processes, as :func:`score_file` does.
+
     >>> import pandas as pd
-    >>> out = score_table(pd.DataFrame({"formula": ["NaCl", "Xx2O"]}))
+    >>> out = score_table(pd.DataFrame({"formula": ["NaCl", "Xx2O", "NaCl"]}))
     >>> out["status"].tolist()
-    ['ok', 'error']
+    ['ok', 'error', 'ok']
     """
+    import numpy as np
     import pandas as pd
 
     names = [str(c) for c in df.columns]
     formula_col = find_formula_column(names, formula_col)
+    if name_col is not None and name_col not in names:
+        raise InputError(f"no column {name_col!r} for name_col; columns found: {', '.join(map(repr, names))}")
     out_names = generated_names(names, prefix)
     formulas = df[formula_col]
     codes, uniques = pd.factorize(formulas, use_na_sentinel=True)
-    records = _PROCESS_CACHE.get_many(list(uniques))
+    texts = [u if isinstance(u, str) else str(u) for u in uniques]
     if (codes < 0).any():
-        records.append(score_formula(None))
-        codes = codes.copy()
-        codes[codes < 0] = len(records) - 1
+        texts.append(None)
+        codes = np.where(codes < 0, len(texts) - 1, codes)
+    with BatchScorer(workers) as scorer:
+        arrays = scorer.columns(texts)
     result = df.copy()
-    for name, column in zip(out_names, output_columns()):
-        values = [r[column.name] for r in records]
+    for name, column, array in zip(out_names, output_columns(), arrays):
         if column.dtype == "float64":
-            series = pd.Series(pd.array(values, dtype="float64"))
+            values = array.to_numpy(zero_copy_only=False).astype("float64")
         else:
-            series = pd.Series(values, dtype="object")
-        result[name] = series.take(codes).to_numpy()
+            values = np.asarray(array.to_pylist(), dtype="object")
+        result[name] = values[codes] if len(codes) else values[:0]
+    if name_col is not None:
+        row_names = df[name_col].astype("object").where(df[name_col].notna(), "").astype(str).to_numpy()
+        failed = (result[prefix + "status"].to_numpy() == "error") & (row_names != "")
+        messages = result[prefix + "message"].to_numpy(dtype="object").copy()
+        messages[failed] = [f"{m or ''} (row named '{n}')" for m, n in zip(messages[failed], row_names[failed])]
+        result[prefix + "message"] = messages
     return result

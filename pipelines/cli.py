@@ -6,6 +6,7 @@ Exit codes (one place, also in ``--help``):
   1  with --strict, when any row has status error
   2  bad usage or unreadable input, with a one-line reason
   3  an internal error (a bug: please report it with --verbose output)
+  130  interrupted (Ctrl-C or SIGTERM); no output file was left behind
 """
 from __future__ import annotations
 
@@ -22,6 +23,7 @@ _EPILOG = """exit codes:
   1  with --strict, when any row has status error
   2  bad usage or unreadable input, with a one-line reason
   3  an internal error
+  130  interrupted (Ctrl-C or SIGTERM); no output file was left behind
 
 Descriptors are estimates for screening and data work. They are not safety
 data: check the safety data sheet, local codes and a qualified person before
@@ -56,6 +58,14 @@ def build_parser() -> argparse.ArgumentParser:
     score.add_argument("--overwrite", action="store_true", help="replace an existing output file")
     score.add_argument("--quiet", action="store_true", help="no progress and no summary on stderr")
     score.add_argument("--batch-rows", type=int, default=65536, metavar="N", help="rows per batch (default: 65536)")
+    score.add_argument("--engine", choices=("local", "dask"), default="local",
+                       help="local: this machine, batch by batch (default); dask: dask.dataframe on a local"
+                            " cluster or on --scheduler, writing a folder of Parquet parts")
+    score.add_argument("--workers", type=int, metavar="N",
+                       help="processes scoring distinct formulas (dask: workers of the local cluster);"
+                            " default: every core")
+    score.add_argument("--scheduler", metavar="ADDRESS",
+                       help="address of a running Dask scheduler, e.g. tcp://10.0.0.5:8786 (with --engine dask)")
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -71,9 +81,6 @@ def build_parser() -> argparse.ArgumentParser:
 def _run_score(args) -> int:
     from pipelines.batch import ScoreConfig, score_file
 
-    if args.batch_rows < 1:
-        print(f"ionicity: error: --batch-rows must be a positive whole number, not {args.batch_rows}", file=sys.stderr)
-        return EXIT_USAGE
     config = ScoreConfig(
         input=args.input,
         output=args.output,
@@ -84,6 +91,9 @@ def _run_score(args) -> int:
         strict=args.strict,
         quiet=args.quiet,
         batch_rows=args.batch_rows,
+        engine=args.engine,
+        workers=args.workers,
+        scheduler=args.scheduler,
     )
     summary = score_file(config)
     if not args.quiet:
@@ -107,6 +117,23 @@ def _run_columns(args) -> int:
     return EXIT_OK
 
 
+def _interrupt_on_sigterm() -> None:
+    """Turn SIGTERM into KeyboardInterrupt so a terminated run cleans up as Ctrl-C does."""
+    import signal
+    import threading
+
+    if threading.current_thread() is not threading.main_thread():
+        return
+
+    def handler(signum, frame):
+        raise KeyboardInterrupt
+
+    try:
+        signal.signal(signal.SIGTERM, handler)
+    except (ValueError, OSError):
+        pass
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
@@ -122,7 +149,10 @@ def main(argv: list[str] | None = None) -> int:
         print(f"ionicity: error: {exc}", file=sys.stderr)
         return EXIT_USAGE
     except KeyboardInterrupt:
-        print("ionicity: interrupted; no output was written", file=sys.stderr)
+        if getattr(args, "output", None) == "-":
+            print("ionicity: interrupted; the table on stdout is incomplete", file=sys.stderr)
+        else:
+            print("ionicity: interrupted; no output was written", file=sys.stderr)
         return 130
     except BrokenPipeError:
         return EXIT_OK
@@ -134,4 +164,5 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def entry_point() -> None:
+    _interrupt_on_sigterm()
     sys.exit(main())

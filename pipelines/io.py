@@ -4,26 +4,53 @@ batch to a temporary file that is renamed into place only when complete.
 Input cells pass through unchanged: CSV and TSV columns are read as text
 (nothing is inferred, so ``007`` stays ``007`` and an empty cell stays
 empty), Parquet columns keep their types.
+
+Temporary outputs are named ``.ionicity-PID@HOST.TOKEN.partial`` and sit
+beside the output. An interrupted run removes its own (Ctrl-C, SIGTERM); one
+that was killed outright cannot, so every later run first removes the
+partials of this host whose process is gone (:func:`clean_stale_partials`).
 """
 from __future__ import annotations
 
+import codecs
 import glob
 import io
 import os
+import re
+import secrets
+import shutil
+import socket
 import sys
-import tempfile
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Iterator
+from typing import Callable, Iterator
 
 import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
-__all__ = ["InputError", "TableReader", "TableWriter", "open_reader", "format_of", "FORMATS"]
+__all__ = [
+    "InputError",
+    "TableReader",
+    "TableWriter",
+    "open_reader",
+    "format_of",
+    "FORMATS",
+    "partial_path",
+    "clean_stale_partials",
+]
 
 FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet"}
 _BLOCK_SIZE = 1 << 22
+# the header is read from this much of the input before the streaming reader
+# starts, so that stdin can be replayed and bad encodings caught before any
+# output exists
+_HEAD_BYTES = 1 << 20
+_HEADER_BLOCK = 1 << 18
+
+_PARTIAL_PREFIX = ".ionicity-"
+_PARTIAL_SUFFIX = ".partial"
+_PARTIAL_RE = re.compile(r"^\.ionicity-(\d+)@([A-Za-z0-9-]+)\.[0-9a-f]{8}\.partial$")
 
 
 class InputError(ValueError):
@@ -31,7 +58,11 @@ class InputError(ValueError):
 
 
 def format_of(path: str) -> str:
-    """The table format named by a path's extension (``-`` is CSV)."""
+    """The table format named by a path's extension (``-`` is CSV).
+
+    >>> format_of("samples.TSV"), format_of("-"), format_of("parts/*.parquet")
+    ('tsv', 'csv', 'parquet')
+    """
     if path == "-":
         return "csv"
     p = Path(path)
@@ -42,80 +73,280 @@ def format_of(path: str) -> str:
         return FORMATS[suffix]
     if any(ch in path for ch in "*?["):
         return "parquet"
-    raise InputError(
-        f"cannot tell the format of {path!r} from its extension; use .csv, .tsv or .parquet"
-    )
+    raise InputError(f"cannot tell the format of {path!r} from its extension; use .csv, .tsv or .parquet")
+
+
+# --------------------------------------------------------------------------- partial files
+
+
+def _host_tag() -> str:
+    return re.sub(r"[^A-Za-z0-9-]", "-", socket.gethostname())[:60] or "host"
+
+
+def partial_path(directory: str) -> str:
+    """A fresh temporary path in ``directory`` named after this process and host."""
+    name = f"{_PARTIAL_PREFIX}{os.getpid()}@{_host_tag()}.{secrets.token_hex(4)}{_PARTIAL_SUFFIX}"
+    return os.path.join(directory, name)
+
+
+def _pid_alive(pid: int) -> bool:
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except (PermissionError, OSError):
+        return True
+    return True
+
+
+def clean_stale_partials(directory: str) -> list[str]:
+    """Remove partial outputs left in ``directory`` by killed runs on this host.
+
+    Only names of our own pattern whose process id is no longer running here
+    are removed, so a run in progress (on this host or, on a shared disk,
+    another one) is never touched. Returns the paths removed.
+    """
+    if os.name != "posix":
+        return []
+    removed = []
+    host = _host_tag()
+    try:
+        names = os.listdir(directory or ".")
+    except OSError:
+        return []
+    for name in names:
+        match = _PARTIAL_RE.match(name)
+        if not match or match.group(2) != host or _pid_alive(int(match.group(1))):
+            continue
+        path = os.path.join(directory, name)
+        try:
+            if os.path.isdir(path) and not os.path.islink(path):
+                shutil.rmtree(path)
+            else:
+                os.remove(path)
+            removed.append(path)
+        except OSError:  # another run removed it first
+            pass
+    return removed
+
+
+def _remove(path: str | None) -> None:
+    if path is None:
+        return
+    try:
+        if os.path.isdir(path) and not os.path.islink(path):
+            shutil.rmtree(path)
+        elif os.path.exists(path):
+            os.remove(path)
+    except OSError:
+        pass
+
+
+def check_output_path(path: str, overwrite: bool, inputs: tuple[str, ...] = (), dataset: bool = False) -> str:
+    """Refuse outputs that would replace the input or an existing file without
+    ``overwrite``; returns the output's folder. ``dataset`` outputs are
+    folders of Parquet parts."""
+    if os.path.isdir(path) and not dataset:
+        raise InputError(f"output {path!r} is a directory; give a file name ending .csv, .tsv or .parquet")
+    if os.path.exists(path) and not overwrite:
+        raise InputError(f"output {path!r} exists; pass --overwrite to replace it")
+    if os.path.exists(path):
+        target = os.path.realpath(path)
+        for source in inputs:
+            real = os.path.realpath(source)
+            if source != "-" and (real == target or real.startswith(target + os.sep)):
+                raise InputError(f"output {path!r} is (or holds) the input; choose another output path")
+    directory = os.path.dirname(os.path.abspath(path))
+    if not os.path.isdir(directory):
+        raise InputError(f"output folder {directory!r} does not exist")
+    return directory
+
+
+# --------------------------------------------------------------------------- reading
 
 
 @dataclass
 class TableReader:
-    """Row batches of one input table, with its schema known up front."""
+    """Row batches of one input table, with its schema known up front.
+
+    ``total_rows`` is known for Parquet; for CSV and TSV files
+    ``fraction_done()`` estimates progress from the bytes read so far.
+    """
 
     schema: pa.Schema
     batches: Iterator[pa.RecordBatch]
     fmt: str
     source: str
+    total_rows: int | None = None
+    fraction_done: Callable[[], float | None] = field(default=lambda: None)
+    paths: tuple[str, ...] = ()
+
+
+class _CountingStream(io.RawIOBase):
+    """A read-only stream that replays ``head`` then continues with ``raw``,
+    counting the bytes handed out (for the progress estimate)."""
+
+    def __init__(self, head: bytes, raw):
+        self._head = memoryview(head)
+        self._raw = raw
+        self.consumed = 0
+
+    def readable(self) -> bool:
+        return True
+
+    def readinto(self, buffer) -> int:
+        if self._head.nbytes:
+            n = min(len(buffer), self._head.nbytes)
+            buffer[:n] = self._head[:n]
+            self._head = self._head[n:]
+        else:
+            data = self._raw.read(len(buffer))
+            n = len(data)
+            buffer[:n] = data
+        self.consumed += n
+        return n
+
+    def read(self, size: int = -1) -> bytes:
+        if size is None or size < 0:
+            chunks = [bytes(self._head), self._raw.read()]
+            self._head = memoryview(b"")
+            data = b"".join(chunks)
+            self.consumed += len(data)
+            return data
+        buffer = bytearray(size)
+        n = self.readinto(buffer)
+        return bytes(buffer[:n])
+
+
+def _read_head(raw) -> bytes:
+    chunks, size = [], 0
+    while size < _HEAD_BYTES:
+        data = raw.read(_HEAD_BYTES - size)
+        if not data:
+            break
+        chunks.append(data)
+        size += len(data)
+    return b"".join(chunks)
+
+
+def _encoding_problem(head: bytes, complete: bool) -> str | None:
+    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)) or b"\x00" in head[:4096]:
+        return "looks like UTF-16 or binary, not UTF-8 text; re-save it as UTF-8 CSV"
+    try:
+        codecs.getincrementaldecoder("utf-8")().decode(head, final=complete)
+    except UnicodeDecodeError as exc:
+        return f"is not valid UTF-8 text (byte {exc.start + 1}); re-save it as UTF-8"
+    return None
+
+
+def _first_line(exc: BaseException) -> str:
+    text = str(exc).strip()
+    return text.splitlines()[0] if text else type(exc).__name__
+
+
+def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
+    kind = "TSV" if delimiter == "\t" else "CSV"
+    if path == "-":
+        raw = sys.stdin.buffer
+        total_bytes = None
+        label = "standard input"
+    else:
+        if not os.path.exists(path):
+            raise InputError(f"input file {path!r} does not exist")
+        if os.path.isdir(path):
+            raise InputError(f"input {path!r} is a folder; folders are read as Parquet parts only")
+        try:
+            raw = open(path, "rb")
+        except OSError as exc:
+            raise InputError(f"cannot open {path!r}: {exc.strerror or exc}") from None
+        total_bytes = os.fstat(raw.fileno()).st_size
+        label = repr(path)
+    head = _read_head(raw)
+    complete = len(head) < _HEAD_BYTES
+    if not head.strip(b"\r\n\t \xef\xbb\xbf"):
+        raise InputError(f"input {label} is empty: expected a header row and data rows")
+    problem = _encoding_problem(head, complete)
+    if problem:
+        raise InputError(f"input {label} {problem}")
+    parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
+    try:
+        header_reader = pacsv.open_csv(
+            io.BytesIO(head),
+            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK),
+            parse_options=parse_options,
+            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False),
+        )
+        names = header_reader.schema.names
+    except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
+        raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
+    if len(set(names)) != len(names):
+        dupes = sorted({n for n in names if names.count(n) > 1})
+        raise InputError(f"input {label} has duplicate column names {dupes}; rename them first")
+    if any(n == "" for n in names):
+        raise InputError(f"input {label} has a column with an empty name; give every column a name")
+    stream = _CountingStream(head, raw)
+    if len(names) == 1:
+        # one column: a blank line is an empty cell, and dropping it would lose a row
+        parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True, ignore_empty_lines=False)
+    try:
+        reader = pacsv.open_csv(
+            stream,
+            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE),
+            parse_options=parse_options,
+            convert_options=pacsv.ConvertOptions(
+                column_types={n: pa.string() for n in names},
+                strings_can_be_null=False,
+                quoted_strings_can_be_null=False,
+            ),
+        )
+    except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
+        raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
+
+    def batches() -> Iterator[pa.RecordBatch]:
+        try:
+            while True:
+                try:
+                    batch = reader.read_next_batch()
+                except StopIteration:
+                    return
+                for start in range(0, batch.num_rows, batch_rows):
+                    yield batch.slice(start, batch_rows)
+        except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
+            text = _first_line(exc)
+            if "UTF8" in text or "utf8" in text or "utf-8" in text:
+                raise InputError(f"input {label} is not valid UTF-8 text; re-save it as UTF-8") from None
+            raise InputError(f"cannot read {label} as {kind}: {text}") from None
+        finally:
+            if path != "-":
+                raw.close()
+
+    def fraction_done() -> float | None:
+        if not total_bytes:
+            return None
+        return min(stream.consumed / total_bytes, 1.0)
+
+    return TableReader(
+        reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
+        fraction_done=fraction_done, paths=(path,),
+    )
 
 
 def _parquet_paths(path: str) -> list[str]:
     if os.path.isdir(path):
-        paths = sorted(glob.glob(os.path.join(path, "**", "*.parquet"), recursive=True))
+        paths = sorted(
+            p for p in glob.glob(os.path.join(path, "**", "*"), recursive=True)
+            if os.path.isfile(p) and p.lower().endswith((".parquet", ".pq"))
+            and not os.path.basename(p).startswith((".", "_"))
+        )
     elif any(ch in path for ch in "*?["):
-        paths = sorted(glob.glob(path, recursive=True))
+        paths = sorted(p for p in glob.glob(path, recursive=True) if os.path.isfile(p))
     else:
+        if not os.path.exists(path):
+            raise InputError(f"input file {path!r} does not exist")
         paths = [path]
     if not paths:
         raise InputError(f"no Parquet files found at {path!r}")
     return paths
-
-
-def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
-    source = sys.stdin.buffer if path == "-" else path
-    if path != "-" and not os.path.exists(path):
-        raise InputError(f"input file {path!r} does not exist")
-    if path == "-":
-        source = io.BytesIO(sys.stdin.buffer.read())
-    try:
-        header_reader = pacsv.open_csv(
-            source,
-            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE),
-            parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True),
-            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False),
-        )
-        names = header_reader.schema.names
-    except pa.ArrowInvalid as exc:
-        text = str(exc)
-        if "Empty CSV file" in text:
-            raise InputError(f"input {path!r} is empty: expected a header row and data rows") from None
-        if "UTF8" in text or "utf8" in text or "UTF-8" in text:
-            raise InputError(f"input {path!r} is not valid UTF-8 text; re-save it as UTF-8") from None
-        raise InputError(f"cannot read {path!r} as {'TSV' if delimiter == chr(9) else 'CSV'}: {text.splitlines()[0]}") from None
-    if len(set(names)) != len(names):
-        dupes = sorted({n for n in names if names.count(n) > 1})
-        raise InputError(f"input {path!r} has duplicate column names {dupes}; rename them first")
-    if isinstance(source, io.BytesIO):
-        source.seek(0)
-    reader = pacsv.open_csv(
-        source,
-        read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE),
-        parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True),
-        convert_options=pacsv.ConvertOptions(
-            column_types={n: pa.string() for n in names}, strings_can_be_null=False, quoted_strings_can_be_null=False
-        ),
-    )
-
-    def batches() -> Iterator[pa.RecordBatch]:
-        try:
-            for batch in reader:
-                for start in range(0, batch.num_rows, batch_rows):
-                    yield batch.slice(start, batch_rows)
-        except pa.ArrowInvalid as exc:
-            text = str(exc).splitlines()[0]
-            if "UTF8" in text or "utf8" in text:
-                raise InputError(f"input {path!r} is not valid UTF-8 text; re-save it as UTF-8") from None
-            raise InputError(f"cannot read {path!r}: {text}") from None
-
-    return TableReader(reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path)
 
 
 def _read_parquet(path: str, batch_rows: int) -> TableReader:
@@ -123,66 +354,96 @@ def _read_parquet(path: str, batch_rows: int) -> TableReader:
     try:
         files = [pq.ParquetFile(p) for p in paths]
     except (pa.ArrowInvalid, OSError) as exc:
-        raise InputError(f"cannot read {path!r} as Parquet: {str(exc).splitlines()[0]}") from None
+        raise InputError(f"cannot read {path!r} as Parquet: {_first_line(exc)}") from None
     schema = files[0].schema_arrow
     for p, f in zip(paths[1:], files[1:]):
         if not f.schema_arrow.equals(schema, check_metadata=False):
             raise InputError(f"Parquet part {p!r} has a different schema from {paths[0]!r}")
     schema = schema.remove_metadata()
+    total = sum(f.metadata.num_rows for f in files)
 
     def batches() -> Iterator[pa.RecordBatch]:
-        for f in files:
-            for batch in f.iter_batches(batch_size=batch_rows):
-                yield pa.RecordBatch.from_arrays(batch.columns, schema=schema)
+        try:
+            for f in files:
+                for batch in f.iter_batches(batch_size=batch_rows):
+                    yield pa.RecordBatch.from_arrays(batch.columns, schema=schema)
+        except (pa.ArrowInvalid, OSError) as exc:
+            raise InputError(f"cannot read {path!r} as Parquet: {_first_line(exc)}") from None
+        finally:
+            for f in files:
+                f.close()
 
-    return TableReader(schema, batches(), "parquet", path)
+    return TableReader(schema, batches(), "parquet", path, total_rows=total, paths=tuple(paths))
 
 
 def open_reader(path: str, batch_rows: int = 65536) -> TableReader:
-    """Open an input table for batch reading; raises :class:`InputError`."""
+    """Open an input table for batch reading; raises :class:`InputError`.
+
+    ``path`` is a ``.csv``, ``.tsv`` or ``.parquet`` file, a folder or glob of
+    Parquet parts, or ``-`` for CSV on standard input.
+    """
     fmt = format_of(path)
     if fmt == "parquet":
         return _read_parquet(path, batch_rows)
     return _read_csv(path, "\t" if fmt == "tsv" else ",", batch_rows)
 
 
+# --------------------------------------------------------------------------- writing
+
+
 class TableWriter:
     """Writes batches to a temporary file beside ``path``; :meth:`commit`
     renames it into place, :meth:`abort` removes it. ``-`` writes CSV to
-    stdout."""
+    stdout.
 
-    def __init__(self, path: str, schema: pa.Schema, overwrite: bool = False, metadata: dict | None = None):
+    ``metadata`` (str to str) is stored as Parquet key-value metadata; CSV and
+    TSV have nowhere to keep it.
+    """
+
+    def __init__(
+        self,
+        path: str,
+        schema: pa.Schema,
+        overwrite: bool = False,
+        metadata: dict | None = None,
+        inputs: tuple[str, ...] = (),
+    ):
         self.path = path
         self.fmt = format_of(path) if path != "-" else "csv"
         self._tmp: str | None = None
+        self._file = None
         if path != "-":
-            if os.path.isdir(path):
-                raise InputError(f"output {path!r} is a directory; give a file name ending .csv, .tsv or .parquet")
-            if os.path.exists(path) and not overwrite:
-                raise InputError(f"output {path!r} exists; pass --overwrite to replace it")
-            directory = os.path.dirname(os.path.abspath(path))
-            if not os.path.isdir(directory):
-                raise InputError(f"output folder {directory!r} does not exist")
-            fd, self._tmp = tempfile.mkstemp(prefix=".ionicity-", suffix=".partial", dir=directory)
-            os.close(fd)
-            sink = self._tmp
+            directory = check_output_path(path, overwrite, inputs)
+            clean_stale_partials(directory)
+            self._tmp = partial_path(directory)
+            # os.open honours the umask, unlike mkstemp's 0600
+            fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+            self._file = os.fdopen(fd, "wb")
+            sink = self._file
         else:
             sink = sys.stdout.buffer
         if metadata and self.fmt == "parquet":
-            schema = schema.with_metadata({k: str(v) for k, v in metadata.items()})
+            schema = schema.with_metadata({str(k): str(v) for k, v in metadata.items()})
         self.schema = schema
-        if self.fmt == "parquet":
-            self._writer = pq.ParquetWriter(sink, schema)
-        else:
-            delimiter = "\t" if self.fmt == "tsv" else ","
-            self._writer = pacsv.CSVWriter(sink, schema, write_options=pacsv.WriteOptions(delimiter=delimiter))
+        try:
+            if self.fmt == "parquet":
+                self._writer = pq.ParquetWriter(sink, schema)
+            else:
+                delimiter = "\t" if self.fmt == "tsv" else ","
+                self._writer = pacsv.CSVWriter(sink, schema, write_options=pacsv.WriteOptions(delimiter=delimiter))
+        except BaseException:
+            self.abort()
+            raise
 
     def write(self, batch: pa.RecordBatch) -> None:
-        self._writer.write(pa.Table.from_batches([batch], schema=self.schema) if self.fmt == "parquet" else batch)
+        self._writer.write_batch(batch) if self.fmt == "parquet" else self._writer.write(batch)
 
     def commit(self) -> None:
         self._writer.close()
         if self._tmp is not None:
+            self._file.flush()
+            os.fsync(self._file.fileno())
+            self._file.close()
             os.replace(self._tmp, self.path)
             self._tmp = None
         else:
@@ -193,6 +454,10 @@ class TableWriter:
             self._writer.close()
         except Exception:  # the original error matters, not this one
             pass
-        if self._tmp is not None and os.path.exists(self._tmp):
-            os.remove(self._tmp)
+        if self._file is not None:
+            try:
+                self._file.close()
+            except Exception:
+                pass
+        _remove(self._tmp)
         self._tmp = None

@@ -70,6 +70,7 @@ by electronegativity instead (:func:`formal_oxidation_states`).
 """
 from __future__ import annotations
 
+import dataclasses
 import itertools
 from functools import lru_cache
 
@@ -144,7 +145,7 @@ _ION_PENALTIES = {"H3O(+)": 2.0}
 _PENALTY_OXOCATION = 2.0
 _IONIC_THRESHOLD = 5.0
 _MAX_POLYATOMIC_SPECIES = 3
-_MAX_SEARCH_NODES = 20000
+_MAX_SEARCH_NODES = 5000
 _TOL = 1e-6
 
 
@@ -382,7 +383,8 @@ def _search(remaining: dict[str, float], needed: float):
     best complete reading. Yields (penalty, [(Ion, count), ...]).
     """
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
-    candidates.sort(key=lambda ion: (_ion_penalty(ion), -ion.atom_count, ion.ion_id))
+    # common ions first, larger first: the best reading is found early and bounds the rest
+    candidates.sort(key=lambda ion: (_ion_penalty(ion) >= _PENALTY_UNCOMMON_ION, -ion.atom_count, _ion_penalty(ion), ion.ion_id))
     coverable = [frozenset()] * (len(candidates) + 1)
     for i in range(len(candidates) - 1, -1, -1):
         coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
@@ -424,7 +426,8 @@ def _search(remaining: dict[str, float], needed: float):
         walk(index + 1, left, chosen, charge, cost)
 
     walk(0, dict(remaining), [], 0.0, 0.0)
-    return [(p, t) for p, t in found if p <= best[0] + _TOL]
+    readings = [(p, t) for p, t in found if p <= best[0] + _TOL]
+    return readings, nodes > _MAX_SEARCH_NODES
 
 
 def _electronegativity(symbol: str) -> float:
@@ -558,7 +561,6 @@ def _nonionic(comp: Composition, counts: dict[str, float], notes: list[str], wat
     )
 
 
-@lru_cache(maxsize=65536)
 def decompose(comp: Composition) -> Decomposition:
     """Find the ions, oxidation states and substance class of a composition.
 
@@ -583,6 +585,15 @@ def decompose(comp: Composition) -> Decomposition:
     >>> format_oxidation_states(d.oxidation_states)
     'Fe:+2.667;O:-2'
     """
+    if comp.hydrate_water:
+        # hydrates of one salt share the solver's work: water is set apart anyway
+        anhydrous = _decompose(dataclasses.replace(comp, hydrate_water=0.0))
+        return dataclasses.replace(anhydrous, hydrate_water=comp.hydrate_water)
+    return _decompose(comp)
+
+
+@lru_cache(maxsize=65536)
+def _decompose(comp: Composition) -> Decomposition:
     counts = comp.as_dict()
     # the parser's notes (ignored annotations...) belong to the spelling, not the
     # composition: the record adds them, so this cache stays spelling-free
@@ -625,8 +636,12 @@ def decompose(comp: Composition) -> Decomposition:
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            for penalty, terms in _search(remaining, -given_charge):
-                readings.append((penalty, given + terms))
+            found, cut_short = _search(remaining, -given_charge)
+            readings.extend((penalty, given + terms) for penalty, terms in found)
+            if cut_short and f"search cut short" not in " ".join(notes):
+                notes.append(
+                    f"the ion search was cut short after {_MAX_SEARCH_NODES} steps; a better reading may exist"
+                )
         elif abs(given_charge) < _TOL:
             readings.append((0.0, given))
     if hinted and not remaining and not readings:

@@ -46,6 +46,11 @@ class Ion:
     oxidation_states: tuple[tuple[str, float], ...] = ()
     source: str = ""
 
+    def __hash__(self) -> int:
+        # ion_id is unique; hashing every field on each cache lookup is the
+        # hot path of scoring
+        return hash(self.ion_id)
+
     @property
     def monatomic(self) -> bool:
         return self.element is not None

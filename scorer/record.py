@@ -1,7 +1,9 @@
 """Score one compound into one record: a dict with one value per output column."""
 from __future__ import annotations
 
+import dataclasses
 import math
+import sys
 from functools import lru_cache
 
 from scorer.columns import descriptor_modules, output_columns
@@ -81,11 +83,24 @@ def _adduct_text(part: str) -> str:
     return ("" if count == "1" else count) + name
 
 
+@lru_cache(maxsize=65536)
+def _describe(module_name: str, dec: Decomposition) -> tuple[dict, tuple[str, ...]]:
+    """One module's values for one decomposition, computed once per process.
+
+    Modules that do not declare ``USES_HYDRATE_WATER = True`` see the
+    anhydrous decomposition, so the hydrates of one salt share the work.
+    """
+    module = sys.modules[module_name]
+    values, notes = module.describe(dec)
+    return values, tuple(notes)
+
+
 def score_composition(comp: Composition) -> dict:
     """Score a parsed composition; see :func:`score_formula`."""
     record = empty_record()
     dec = decompose(comp)
     notes = [RowWarning(n) for n in comp.notes] + list(dec.notes)
+    gaps: list[str] = []
     record["formula_normalized"] = normalized_formula(comp, dec)
     record["substance_class"] = dec.substance_class
     record["cations"] = format_ion_terms(dec.cations)
@@ -93,11 +108,18 @@ def score_composition(comp: Composition) -> dict:
     record["oxidation_states"] = format_oxidation_states(dec.oxidation_states)
     record["hydrate_water"] = float(dec.hydrate_water)
     record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
-    gaps: list[str] = []
     if dec.substance_class not in _IONIC_CLASSES:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
+    anhydrous = dec
+    if dec.hydrate_water:
+        anhydrous = dataclasses.replace(dec, hydrate_water=0.0)
+        if dec.substance_class in _IONIC_CLASSES:
+            gaps.append(
+                f"descriptors are for the anhydrous salt ({format_count(dec.hydrate_water)} H2O of lattice water"
+                " per formula unit is not modelled)"
+            )
     for module in descriptor_modules():
-        values, module_notes = module.describe(dec)
+        values, module_notes = _describe(module.__name__, dec if getattr(module, "USES_HYDRATE_WATER", False) else anhydrous)
         record.update(values)
         for note in module_notes:
             (notes if isinstance(note, RowWarning) else gaps).append(note)

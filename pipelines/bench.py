@@ -1,0 +1,357 @@
+"""Benchmark: ionicity ``score`` against the I/O floor and a per-row baseline.
+
+``python -m pipelines.bench --rows N --distinct D`` generates a synthetic
+table of N rows holding D distinct realistic formulas (salts, hydrates in
+several spellings, double salts, ionic liquids and a few typos, every one of
+the D present, the rest drawn uniformly), then measures in one run:
+
+* ``io_floor_seconds``: a fresh Python process that reads the table with
+  pyarrow and writes it back in the same format, nothing else;
+* ``score_seconds``: ``python -m pipelines score IN -o OUT --quiet``, end to
+  end in a fresh process (start-up included, as for the floor);
+* ``per_row_seconds``: what a hand-written pandas ``apply`` costs: read with
+  pandas, ``df[formula].apply(score_row)`` where ``score_row`` first clears
+  every formula-level cache of the scorer (so each row is scored from
+  scratch, as an uncached per-row function would), then write. The apply is
+  timed on a random sample of rows and scaled to N (its cost is linear in
+  rows: nothing is shared between rows); read and write are taken as the
+  floor's.
+
+It prints ``name: value`` lines, among them ``ratio_vs_io_floor``
+(score / floor), ``speedup_vs_per_row`` (per-row / score),
+``distinct_per_second`` (D / score seconds) and ``peak_rss_mib`` (the largest
+resident set of the score process or any of its workers, from ``wait4``).
+
+``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
+D) and prints both peak RSS figures and their ratio. ``--calibrate`` times
+in-process against pooled scoring of fresh distinct formulas, to set
+:data:`pipelines.batch.PARALLEL_MIN_NEW`.
+"""
+from __future__ import annotations
+
+import argparse
+import os
+import random
+import subprocess
+import sys
+import tempfile
+import time
+from math import gcd
+
+__all__ = ["realistic_formulas", "write_table", "main"]
+
+# Invented lab inventory: formulas as people type them. Charges are the
+# textbook ones (common practice).
+_CATIONS = [
+    ("Li", 1), ("Na", 1), ("K", 1), ("Rb", 1), ("Cs", 1), ("Ag", 1), ("Tl", 1), ("NH4", 1),
+    ("Mg", 2), ("Ca", 2), ("Sr", 2), ("Ba", 2), ("Fe", 2), ("Co", 2), ("Ni", 2), ("Cu", 2), ("Zn", 2),
+    ("Mn", 2), ("Cd", 2), ("Pb", 2), ("Sn", 2), ("Al", 3), ("Fe", 3), ("Cr", 3), ("Ga", 3), ("In", 3),
+    ("La", 3), ("Ce", 3), ("Nd", 3), ("Y", 3), ("Bi", 3),
+]
+_ANIONS = [
+    ("F", 1), ("Cl", 1), ("Br", 1), ("I", 1), ("OH", 1), ("NO3", 1), ("NO2", 1), ("ClO4", 1), ("ClO3", 1),
+    ("BrO3", 1), ("IO3", 1), ("MnO4", 1), ("HCO3", 1), ("HSO4", 1), ("H2PO4", 1), ("CN", 1), ("SCN", 1),
+    ("BF4", 1), ("PF6", 1), ("CH3COO", 1), ("HCOO", 1), ("O", 2), ("S", 2), ("SO4", 2), ("SO3", 2),
+    ("CO3", 2), ("CrO4", 2), ("Cr2O7", 2), ("MoO4", 2), ("WO4", 2), ("SeO4", 2), ("HPO4", 2), ("S2O3", 2),
+    ("C2O4", 2), ("PO4", 3), ("AsO4", 3),
+]
+_IL_CATIONS = [
+    "[C2mim]", "[C3mim]", "[C4mim]", "[C5mim]", "[C6mim]", "[C8mim]", "[C10mim]", "[C4C1mim]", "[C2py]",
+    "[C4py]", "[C4mpy]", "[C3mpyr]", "[C4mpyr]", "[C4mpip]", "[N1111]", "[N2222]", "[N4444]", "[P4444]",
+    "[P66614]", "[Ch]", "[EtNH3]", "[Et3NH]", "[bmim]", "[emim]", "[hmim]", "[omim]",
+]
+_IL_ANIONS = [
+    "[BF4]", "[PF6]", "[NTf2]", "[OTf]", "[OAc]", "Cl", "Br", "I", "[NO3]", "[SCN]", "[HSO4]", "[BETI]",
+    "[N(CN)2]", "[MeSO4]", "[EtSO4]", "[FSI]",
+]
+_WATERS = ("0.5", "1", "1.5", "2", "3", "4", "5", "6", "7", "8", "9", "10", "12")
+_SEPARATORS = ("·", ".", "*")
+
+
+def _group(symbol: str, n: int) -> str:
+    if n == 1:
+        return symbol
+    multi = sum(ch.isupper() for ch in symbol) > 1 or any(ch.isdigit() for ch in symbol)
+    return f"({symbol}){n}" if multi else f"{symbol}{n}"
+
+
+def _salt(cation: tuple[str, int], anion: tuple[str, int]) -> str:
+    (c, qc), (a, qa) = cation, anion
+    g = gcd(qc, qa)
+    return _group(c, qa // g) + _group(a, qc // g)
+
+
+def realistic_formulas(distinct: int, seed: int = 7) -> list[str]:
+    """``distinct`` different formula texts as an inventory would hold them.
+
+    Mix (while each pool lasts): anhydrous salts 15 %, ionic liquids 10 %,
+    double salts and alums 5 %, typos 2 %, hydrates in three spellings of the
+    water dot for the rest.
+
+    >>> f = realistic_formulas(500)
+    >>> len(f), len(set(f))
+    (500, 500)
+    """
+    rng = random.Random(seed)
+    salts = sorted({_salt(c, a) for c in _CATIONS for a in _ANIONS})
+    ils = sorted({c + a for c in _IL_CATIONS for a in _IL_ANIONS})
+    doubles = sorted(
+        {f"{m}{t}(SO4)2·12H2O" for m in ("K", "Na", "NH4", "Rb", "Cs") for t in ("Al", "Cr", "Fe", "Ga", "In")}
+        | {f"{m}2{d}(SO4)2·6H2O" for m in ("K", "NH4", "Rb") for d in ("Fe", "Co", "Ni", "Cu", "Zn", "Mg", "Mn")}
+    )
+    hydrates = [
+        f"{s}{sep}{'' if w == '1' else w}H2O" for s in salts for w in _WATERS for sep in _SEPARATORS
+    ]
+    for pool in (salts, ils, doubles, hydrates):
+        rng.shuffle(pool)
+    typos = [s[:-1] + "x" + s[-1] if i % 2 else s.lower() for i, s in enumerate(salts[: max(distinct // 50, 1)])]
+    wanted = [
+        (salts, int(distinct * 0.15)), (ils, int(distinct * 0.10)), (doubles, int(distinct * 0.05)),
+        (typos, int(distinct * 0.02)),
+    ]
+    chosen: list[str] = []
+    seen: set[str] = set()
+    for pool, n in wanted:
+        for text in pool[:n]:
+            if text not in seen:
+                seen.add(text)
+                chosen.append(text)
+    for pool in (hydrates, salts, ils, doubles):
+        for text in pool:
+            if len(chosen) >= distinct:
+                break
+            if text not in seen:
+                seen.add(text)
+                chosen.append(text)
+    if len(chosen) < distinct:
+        raise ValueError(f"--distinct {distinct} is more than the {len(chosen)} realistic formulas generated")
+    rng.shuffle(chosen)
+    return chosen[:distinct]
+
+
+def write_table(path: str, rows: int, distinct: int, seed: int = 7, chunk_rows: int = 1_000_000) -> None:
+    """Write an invented inventory table of ``rows`` rows to ``path``
+    (.parquet, .csv or .tsv): ``sample_id`` (int64), ``formula`` (every one of
+    ``distinct`` formulas at least once), ``lot`` (text with Unicode, some
+    empty) and ``mass_g`` (float64, some null)."""
+    import numpy as np
+    import pyarrow as pa
+    import pyarrow.csv as pacsv
+    import pyarrow.parquet as pq
+
+    if distinct > rows:
+        raise ValueError("--distinct cannot exceed --rows")
+    formulas = pa.array(realistic_formulas(distinct, seed))
+    rng = np.random.default_rng(seed)
+    picks = rng.integers(0, distinct, size=rows, dtype=np.int32)
+    picks[rng.choice(rows, size=distinct, replace=False)] = np.arange(distinct, dtype=np.int32)
+    lots = pa.array(["", "LOT-α-001", "LOT-β-017", "réf. 42", "batch 7, shelf B", "ロット9"])
+    writer = None
+    fmt = os.path.splitext(path)[1].lower()
+    try:
+        for start in range(0, rows, chunk_rows):
+            n = min(chunk_rows, rows - start)
+            mass = rng.gamma(2.0, 25.0, size=n)
+            table = pa.table({
+                "sample_id": pa.array(np.arange(start, start + n, dtype=np.int64)),
+                "formula": formulas.take(pa.array(picks[start:start + n])),
+                "lot": lots.take(pa.array(rng.integers(0, len(lots), size=n))),
+                "mass_g": pa.array(np.round(mass, 3), mask=rng.random(n) < 0.05),
+            })
+            if writer is None:
+                if fmt == ".parquet":
+                    writer = pq.ParquetWriter(path, table.schema)
+                else:
+                    options = pacsv.WriteOptions(delimiter="\t" if fmt == ".tsv" else ",")
+                    writer = pacsv.CSVWriter(path, table.schema, write_options=options)
+            writer.write_table(table)
+    finally:
+        if writer is not None:
+            writer.close()
+
+
+# --------------------------------------------------------------------------- measuring
+
+_FLOOR_CODE = """
+import sys, pyarrow.parquet as pq, pyarrow.csv as pacsv
+src, dst = sys.argv[1], sys.argv[2]
+if src.endswith(".parquet"):
+    pq.write_table(pq.read_table(src), dst)
+else:
+    pacsv.write_csv(pacsv.read_csv(src), dst)
+"""
+
+
+def _run(argv: list[str], env: dict | None = None) -> tuple[float, float]:
+    """Wall seconds and peak RSS (MiB) of a child process and its descendants."""
+    started = time.perf_counter()
+    process = subprocess.Popen(argv, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    stderr = process.stderr.read()
+    _, status, usage = os.wait4(process.pid, 0)
+    seconds = time.perf_counter() - started
+    process.returncode = os.waitstatus_to_exitcode(status)
+    if process.returncode != 0:
+        raise RuntimeError(f"{' '.join(argv)} failed ({process.returncode}): {stderr.decode(errors='replace')}")
+    return seconds, usage.ru_maxrss / 1024.0
+
+
+def _env() -> dict:
+    env = dict(os.environ)
+    root = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+    env["PYTHONPATH"] = root + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
+    return env
+
+
+def measure_floor(path: str, workdir: str) -> tuple[float, float]:
+    out = os.path.join(workdir, "floor" + os.path.splitext(path)[1])
+    return _run([sys.executable, "-c", _FLOOR_CODE, path, out], env=_env())
+
+
+def measure_score(path: str, workdir: str, workers: int | None = None) -> tuple[float, float]:
+    out = os.path.join(workdir, "scored" + os.path.splitext(path)[1])
+    argv = [sys.executable, "-m", "pipelines", "score", path, "-o", out, "--quiet", "--overwrite"]
+    if workers:
+        argv += ["--workers", str(workers)]
+    return _run(argv, env=_env())
+
+
+def formula_caches() -> list:
+    """The scorer's caches keyed by formula text, parsed composition or
+    decomposition: what an uncached per-row function must not reuse. Caches
+    of data tables (loaded once per process by any user) are left alone."""
+    import importlib
+
+    found = []
+    for module_name, attribute in (
+        ("scorer.record", "_score_text"),
+        ("scorer.record", "_describe"),
+        ("scorer.formula", "parse_formula"),
+        ("scorer.ions", "_decompose"),
+        ("scorer.ions", "_assign_monatomic_cached"),
+        ("scorer.lattice", "_compute"),
+    ):
+        function = getattr(importlib.import_module(module_name), attribute, None)
+        if function is not None and hasattr(function, "cache_clear"):
+            found.append((f"{module_name}.{attribute}", function))
+    return found
+
+
+def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> tuple[float, int, list[str]]:
+    """Seconds per row of an uncached pandas apply, on a random sample."""
+    import numpy as np
+    import pandas as pd
+    import pyarrow.parquet as pq
+    import pyarrow.csv as pacsv
+
+    from scorer.record import score_formula
+
+    table = pq.read_table(path, columns=["formula"]) if path.endswith(".parquet") else pacsv.read_csv(
+        path, convert_options=pacsv.ConvertOptions(include_columns=["formula"], column_types={"formula": "string"}))
+    rng = np.random.default_rng(seed)
+    sample = table.take(rng.choice(table.num_rows, size=min(sample_rows, table.num_rows), replace=False))
+    frame = sample.to_pandas()
+    caches = formula_caches()
+
+    def score_row(text):
+        for _, function in caches:
+            function.cache_clear()
+        return score_formula(text)
+
+    score_formula("NaCl")  # data tables load once, as in any user's session
+    started = time.perf_counter()
+    records = frame["formula"].apply(score_row)
+    scored = pd.concat([frame, pd.DataFrame(list(records), index=frame.index)], axis=1)
+    seconds = time.perf_counter() - started
+    assert len(scored) == len(frame)
+    return seconds / len(frame), len(frame), [name for name, _ in caches]
+
+
+def calibrate(sizes=(32, 64, 128, 256, 512, 1024, 2048), workers: int | None = None) -> list[tuple[int, float, float]]:
+    """Seconds to score ``n`` fresh distinct formulas in-process and in a warm pool."""
+    from pipelines.batch import BatchScorer, FormulaCache
+
+    pool_formulas = realistic_formulas(sum(sizes) * 2, seed=3)
+    results = []
+    with BatchScorer(workers, cache=FormulaCache(), parallel_min_new=1) as pooled:
+        pooled.columns(pool_formulas[-64:])  # start and warm the pool
+        offset = 0
+        for n in sizes:
+            serial_texts = pool_formulas[offset:offset + n]
+            pooled_texts = pool_formulas[offset + n:offset + 2 * n]
+            offset += 2 * n
+            started = time.perf_counter()
+            BatchScorer(1, cache=FormulaCache()).columns(serial_texts)
+            serial = time.perf_counter() - started
+            started = time.perf_counter()
+            pooled.columns(pooled_texts)
+            results.append((n, serial, time.perf_counter() - started))
+    return results
+
+
+def _print(name: str, value) -> None:
+    if isinstance(value, float):
+        value = f"{value:.4g}"
+    print(f"{name}: {value}", flush=True)
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(prog="python -m pipelines.bench", description=__doc__.split("\n\n")[0])
+    parser.add_argument("--rows", type=int, default=1_000_000, help="rows of the synthetic table (default: 10^6)")
+    parser.add_argument("--distinct", type=int, default=20_000, help="distinct formulas among them (default: 20,000)")
+    parser.add_argument("--format", choices=("parquet", "csv"), default="parquet", help="table format (default: parquet)")
+    parser.add_argument("--workers", type=int, help="--workers passed to ionicity score (default: every core)")
+    parser.add_argument("--baseline-rows", type=int, default=2000,
+                        help="rows of the random sample the per-row baseline is timed on (default: 2000)")
+    parser.add_argument("--memory-scaling", action="store_true",
+                        help="score N and 10 N rows and print both peak RSS figures and their ratio")
+    parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring")
+    parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
+    parser.add_argument("--seed", type=int, default=7)
+    args = parser.parse_args(argv)
+    if args.rows < 1 or args.distinct < 1 or args.distinct > args.rows:
+        parser.error("need 1 <= --distinct <= --rows")
+
+    if args.calibrate:
+        for n, serial, pooled in calibrate(workers=args.workers):
+            _print(f"calibrate_{n}_serial_seconds", serial)
+            _print(f"calibrate_{n}_pool_seconds", pooled)
+        return 0
+
+    with tempfile.TemporaryDirectory(prefix="ionicity-bench-", dir=args.workdir) as workdir:
+        table = os.path.join(workdir, f"table.{args.format}")
+        _print("rows", args.rows)
+        _print("distinct", args.distinct)
+        _print("format", args.format)
+        _print("cpu_count", os.cpu_count())
+        if args.memory_scaling:
+            figures = []
+            for rows in (args.rows, args.rows * 10):
+                write_table(table, rows, args.distinct, args.seed)
+                seconds, rss = measure_score(table, workdir, args.workers)
+                _print(f"score_seconds_{rows}_rows", seconds)
+                _print(f"peak_rss_mib_{rows}_rows", rss)
+                figures.append(rss)
+                os.remove(table)
+            _print("peak_rss_ratio_10x_rows", figures[1] / figures[0])
+            return 0
+        write_table(table, args.rows, args.distinct, args.seed)
+        floor, floor_rss = measure_floor(table, workdir)
+        seconds, rss = measure_score(table, workdir, args.workers)
+        per_row, sampled, cleared = measure_per_row(table, args.rows, args.baseline_rows)
+        baseline = floor + per_row * args.rows
+        _print("io_floor_seconds", floor)
+        _print("score_seconds", seconds)
+        _print("per_row_seconds_per_row", per_row)
+        _print("per_row_sample_rows", sampled)
+        _print("per_row_caches_cleared", ", ".join(cleared))
+        _print("per_row_seconds_estimated", baseline)
+        _print("ratio_vs_io_floor", seconds / floor)
+        _print("speedup_vs_per_row", baseline / seconds)
+        _print("distinct_per_second", args.distinct / seconds)
+        _print("io_floor_peak_rss_mib", floor_rss)
+        _print("peak_rss_mib", rss)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,259 @@
+"""pipelines.batch: the local engine.
+
+Invariants checked against the input itself (an external reference for
+"nothing changed"): every input column hashes the same before and after, row
+count and order hold, and each distinct formula is scored exactly once. The
+expected records come from scorer.record.score_formula called directly.
+"""
+from __future__ import annotations
+
+import hashlib
+import json
+import os
+
+import pandas as pd
+import pyarrow as pa
+import pyarrow.csv as pacsv
+import pyarrow.parquet as pq
+import pytest
+
+import pipelines._pool as pool_module
+from pipelines.batch import (
+    BatchScorer,
+    FormulaCache,
+    ScoreConfig,
+    output_schema,
+    score_batch,
+    score_file,
+    score_table,
+)
+from pipelines.bench import realistic_formulas, write_table
+from pipelines.io import InputError
+from scorer.columns import column_names, output_columns
+from scorer.record import score_formula
+
+FORMULAS = ["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3", "Xx2O", "", "  ", "Na₂SO₄", "NaCl"]
+
+
+def column_digest(column) -> str:
+    """SHA-256 of a column's values, nulls and empty strings kept apart."""
+    series = pd.Series(column.to_pylist(), dtype=object)
+    hashed = pd.util.hash_pandas_object(series.fillna("\x00<null>"), index=False).to_numpy()
+    return hashlib.sha256(hashed.tobytes()).hexdigest()
+
+
+def digests(table: pa.Table, names) -> dict:
+    return {n: column_digest(table.column(n)) for n in names}
+
+
+def mixed_table(rows: int, seed: int = 1) -> pa.Table:
+    import random
+
+    rng = random.Random(seed)
+    choices = FORMULAS + [None]
+    return pa.table({
+        "id": pa.array(range(rows), pa.int64()),
+        "formula": [rng.choice(choices) for _ in range(rows)],
+        "note": [rng.choice(["α", "β,γ", 'q"q', "", None, "line\nbreak", "ロット"]) for _ in range(rows)],
+        "dup": ["same"] * rows,
+        "mass": [rng.choice([1.5, None, float("nan"), -0.0]) for _ in range(rows)],
+    })
+
+
+def test_every_generated_column_follows_the_registry(tmp_path):
+    src = tmp_path / "in.parquet"
+    pq.write_table(mixed_table(50), src)
+    score_file(str(src), str(tmp_path / "out.parquet"), quiet=True)
+    names = pq.read_schema(tmp_path / "out.parquet").names
+    assert names == ["id", "formula", "note", "dup", "mass"] + [c.name for c in output_columns()]
+
+
+@pytest.mark.parametrize("fmt", ["parquet", "csv", "tsv"])
+def test_rows_order_and_input_columns_survive(tmp_path, fmt):
+    table = mixed_table(3000)
+    src = tmp_path / f"in.{fmt}"
+    out = tmp_path / f"out.{fmt}"
+    if fmt == "parquet":
+        pq.write_table(table, src, row_group_size=700)
+    else:
+        # text formats hold text: compare text with text
+        table = table.drop_columns(["mass"]).set_column(0, "id", pa.array([str(i) for i in range(3000)]))
+        table = table.set_column(1, "formula", pa.array([f or "" for f in table.column("formula").to_pylist()]))
+        table = table.set_column(2, "note", pa.array([f or "" for f in table.column("note").to_pylist()]))
+        pacsv.write_csv(table, src, pacsv.WriteOptions(delimiter="\t" if fmt == "tsv" else ","))
+    summary = score_file(str(src), str(out), quiet=True, batch_rows=512)
+    if fmt == "parquet":
+        result = pq.read_table(out)
+    else:
+        opts = pacsv.ParseOptions(delimiter="\t" if fmt == "tsv" else ",", newlines_in_values=True)
+        names = pacsv.open_csv(out, parse_options=opts).schema.names
+        result = pacsv.read_csv(out, parse_options=opts, convert_options=pacsv.ConvertOptions(
+            column_types={n: pa.string() for n in names}, strings_can_be_null=False))
+    assert result.num_rows == table.num_rows == summary.rows
+    assert digests(result, table.column_names) == digests(table, table.column_names)
+    expected = [score_formula(f)["status"] for f in table.column("formula").to_pylist()]
+    assert result.column("status").to_pylist() == expected
+    assert summary.ok + summary.warning + summary.error == summary.rows
+
+
+def test_values_match_score_formula(tmp_path):
+    src = tmp_path / "in.parquet"
+    pq.write_table(pa.table({"formula": FORMULAS + [None]}), src)
+    score_file(str(src), str(tmp_path / "out.parquet"), quiet=True)
+    rows = pq.read_table(tmp_path / "out.parquet").to_pylist()
+    for row, text in zip(rows, FORMULAS + [None]):
+        expected = score_formula(text)
+        for column in output_columns():
+            value, want = row[column.name], expected[column.name]
+            if column.dtype == "float64" and (want is None or want != want):
+                assert value is None, (text, column.name)  # NaN is written as a null cell
+            else:
+                assert value == want, (text, column.name)
+
+
+def test_each_distinct_formula_is_scored_once(monkeypatch):
+    calls = []
+    real = pool_module.score_values
+
+    def counting(texts):
+        calls.extend(texts)
+        return real(texts)
+
+    monkeypatch.setattr("pipelines.batch.score_values", counting)
+    table = pa.table({"formula": ["NaCl", "KCl", "NaCl", None, "KCl", "MgO"] * 50})
+    schema = output_schema(table.schema)
+    scorer = BatchScorer(1, cache=FormulaCache())
+    for batch in table.to_batches(max_chunksize=40):
+        score_batch(batch, "formula", schema, scorer)
+    assert sorted(c for c in calls if c is not None) == ["KCl", "MgO", "NaCl"]
+    assert len(scorer.seen) == 3
+
+
+def test_pool_gives_the_same_records_as_in_process():
+    texts = realistic_formulas(300, seed=5)
+    serial = BatchScorer(1, cache=FormulaCache()).columns(texts)
+    with BatchScorer(2, cache=FormulaCache(), parallel_min_new=1) as pooled:
+        parallel = pooled.columns(texts)
+        assert pooled.scored_in_pool == 300
+    assert all(a.equals(b) for a, b in zip(parallel, serial))
+
+
+def test_cache_stays_bounded_and_keeps_what_a_batch_needs():
+    cache = FormulaCache(max_entries=100)
+    scorer = BatchScorer(1, cache=cache)
+    first = scorer.columns(["NaCl", "Xx2O"])
+    for start in range(0, 1000, 30):
+        texts = [f"Na{i}Cl" for i in range(start, start + 30)]
+        columns = scorer.columns(texts + ["NaCl"])
+        assert len(cache) <= 100
+        assert columns[column_names().index("molar_mass_g_mol")][-1].as_py() == first[
+            column_names().index("molar_mass_g_mol")][0].as_py()
+    assert "Xx2O" not in cache.index  # the oldest went
+    assert scorer.columns(["Xx2O"])[0].to_pylist() == ["error"]
+
+
+def test_a_scorer_bug_marks_the_row_and_the_run_goes_on(monkeypatch):
+    real = pool_module.score_formula
+
+    def flaky(text):
+        if text == "KCl":
+            raise RuntimeError("boom")
+        return real(text)
+
+    monkeypatch.setattr(pool_module, "score_formula", flaky)
+    monkeypatch.setattr("pipelines.batch._PROCESS_CACHE", FormulaCache())
+    out = score_table(pd.DataFrame({"formula": ["NaCl", "KCl"]}), workers=1)
+    assert out["status"].tolist() == ["ok", "error"]
+    assert "internal error" in out["message"][1] and "boom" in out["message"][1]
+
+
+def test_name_col_is_quoted_in_failed_rows(tmp_path):
+    src = tmp_path / "in.csv"
+    src.write_text("formula,name\nXx2O,bottle 7\nNaCl,bottle 8\nQq,\n")
+    score_file(str(src), str(tmp_path / "out.parquet"), name_col="name", quiet=True)
+    messages = pq.read_table(tmp_path / "out.parquet").column("message").to_pylist()
+    assert messages[0].endswith("(row named 'bottle 7')")
+    assert "bottle" not in (messages[1] or "")
+    assert "row named" not in messages[2]
+    frame = score_table(pd.DataFrame({"formula": ["Xx2O", "NaCl"], "name": ["bottle 7", "bottle 8"]}), name_col="name")
+    assert frame["message"][0] == messages[0]
+
+
+def test_prefix_and_clash(tmp_path):
+    src = tmp_path / "in.csv"
+    src.write_text("formula,status\nNaCl,kept\n")
+    with pytest.raises(InputError, match="--prefix"):
+        score_file(str(src), str(tmp_path / "out.csv"), quiet=True)
+    assert not (tmp_path / "out.csv").exists()
+    score_file(str(src), str(tmp_path / "out.parquet"), prefix="ion_", quiet=True)
+    row = pq.read_table(tmp_path / "out.parquet").to_pylist()[0]
+    assert row["status"] == "kept" and row["ion_status"] == "ok"
+
+
+def test_parquet_provenance(tmp_path):
+    src = tmp_path / "in.csv"
+    src.write_text("Formula\nNaCl\n")
+    score_file(ScoreConfig(input=str(src), output=str(tmp_path / "out.parquet"), quiet=True, workers=1))
+    meta = pq.read_schema(tmp_path / "out.parquet").metadata
+    from scorer import __version__
+
+    assert meta[b"ionicity.version"].decode() == __version__
+    data = json.loads(meta[b"ionicity.data_versions"])
+    assert data["elements_snapshot"]["mendeleev_version"]
+    assert "ions.csv" in data["tables"] and data["tables"]["ions.csv"].startswith("sha256:")
+    options = json.loads(meta[b"ionicity.options"])
+    assert options["formula_col"] == "Formula" and options["engine"] == "local" and options["workers"] == 1
+
+
+def test_summary_counts(tmp_path):
+    # one column: the blank line is an empty formula cell, still a row
+    src = tmp_path / "in.csv"
+    src.write_text("formula\nNaCl\nNaCl\nXx2O\n\nKCl\n")
+    summary = score_file(str(src), str(tmp_path / "out.csv"), quiet=True)
+    assert (summary.rows, summary.error, summary.distinct_formulas) == (5, 2, 3)
+    assert str(summary).startswith("rows: 5, ok: ")
+
+
+@pytest.mark.parametrize(
+    "content, match",
+    [("formula\n", "no data rows"), ("name\nx\n", "no column named 'formula'"), ("", "empty")],
+)
+def test_unusable_input_writes_nothing(tmp_path, content, match):
+    src = tmp_path / "in.csv"
+    src.write_text(content)
+    with pytest.raises(InputError, match=match):
+        score_file(str(src), str(tmp_path / "out.parquet"), quiet=True)
+    assert sorted(os.listdir(tmp_path)) == ["in.csv"]
+
+
+def test_bad_options():
+    for options, match in (
+        ({"engine": "spark"}, "local, dask"),
+        ({"workers": 0}, "--workers"),
+        ({"batch_rows": 0}, "--batch-rows"),
+        ({"scheduler": "tcp://x:1"}, "--engine dask"),
+    ):
+        with pytest.raises(InputError, match=match):
+            ScoreConfig(input="a.csv", output="b.csv", **options).validate()
+
+
+def test_score_table_keeps_index_and_columns():
+    frame = pd.DataFrame({"formula": ["NaCl", None, "KCl"], "x": [1, 2, 3]}, index=[10, 5, 7])
+    out = score_table(frame)
+    assert list(out.index) == [10, 5, 7] and out["x"].tolist() == [1, 2, 3]
+    assert out["status"].tolist() == ["ok", "error", "ok"]
+    assert list(out.columns) == ["formula", "x"] + list(column_names())
+
+
+@pytest.mark.slow
+def test_a_million_rows(tmp_path):
+    # realistic table: nulls and Unicode in 'lot' and 'mass_g', duplicates everywhere
+    src = tmp_path / "big.parquet"
+    write_table(str(src), 1_000_000, 2000, seed=3)
+    out = tmp_path / "big_out.parquet"
+    summary = score_file(str(src), str(out), quiet=True)
+    source = pq.read_table(src)
+    result = pq.read_table(out, columns=source.column_names + ["status"])
+    assert result.num_rows == 1_000_000 == summary.rows
+    assert digests(result, source.column_names) == digests(source, source.column_names)
+    assert summary.distinct_formulas == 2000
