@@ -226,6 +226,7 @@ def formula_caches() -> list:
         ("scorer.record", "_score_text"),
         ("scorer.record", "_describe"),
         ("scorer.formula", "parse_formula"),
+        ("scorer.formula", "_parse_normalised"),
         ("scorer.ions", "_decompose"),
         ("scorer.ions", "_assign_monatomic_cached"),
         ("scorer.lattice", "_compute"),

@@ -30,6 +30,7 @@ from __future__ import annotations
 import math
 import re
 import unicodedata
+import dataclasses
 from dataclasses import dataclass, field
 from functools import lru_cache
 
@@ -488,7 +489,7 @@ def parse_formula(text: str) -> Composition:
     if not cleaned:
         raise FormulaError("empty formula")
     try:
-        return _parse_cleaned(text, cleaned, notes)
+        parsed = _parse_normalised(cleaned)
     except FormulaError as exc:
         message = str(exc)
         hint = _suggest(cleaned)
@@ -497,6 +498,15 @@ def parse_formula(text: str) -> Composition:
         elif cleaned != text:
             message += f" (read from {text!r})"
         raise FormulaError(message) from None
+    notes.extend(parsed.notes)
+    return dataclasses.replace(parsed, text=text, notes=tuple(notes))
+
+
+@lru_cache(maxsize=65536)
+def _parse_normalised(cleaned: str) -> Composition:
+    """Parse text already mapped onto the plain alphabet: spellings that differ
+    only in Unicode, separators or spaces share this cache."""
+    return _parse_cleaned(cleaned, cleaned, [])
 
 
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
