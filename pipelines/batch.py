@@ -24,7 +24,7 @@ from dataclasses import asdict, dataclass
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from scorer.columns import output_columns
+from scorer.columns import column_names, output_columns
 
 from pipelines._pool import default_workers, score_values, worker_init
 from pipelines.io import InputError, TableWriter, open_reader
@@ -82,6 +82,9 @@ class ScoreConfig:
         the local cluster; ``None`` means every core.
     scheduler : str or None
         Address of a running Dask scheduler (``--engine dask`` only).
+    mp_model : str or None
+        A melting-point model written by ``ionicity fit-melting``; adds
+        ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K``.
     """
 
     input: str
@@ -96,6 +99,7 @@ class ScoreConfig:
     engine: str = "local"
     workers: int | None = None
     scheduler: str | None = None
+    mp_model: str | None = None
 
     def validate(self) -> None:
         """Raise :class:`InputError` for options that cannot work together."""
@@ -308,8 +312,9 @@ def find_formula_column(names: list[str], requested: str | None) -> str:
     )
 
 
-def generated_names(input_names: list[str], prefix: str) -> list[str]:
-    names = [prefix + c.name for c in output_columns()]
+def generated_names(input_names: list[str], prefix: str, with_model: bool = False) -> list[str]:
+    """Generated column names (with ``prefix``); a clash with an input column is an error."""
+    names = [prefix + c.name for c in _generated_columns(with_model)]
     clashes = [n for n in names if n in input_names]
     if clashes:
         raise InputError(
@@ -318,11 +323,59 @@ def generated_names(input_names: list[str], prefix: str) -> list[str]:
     return names
 
 
-def output_schema(input_schema: pa.Schema, prefix: str = "") -> pa.Schema:
-    """Input fields, unchanged, followed by the generated columns."""
-    names = generated_names(input_schema.names, prefix)
-    fields = list(input_schema) + [pa.field(name, _ARROW_TYPES[c.dtype]) for name, c in zip(names, output_columns())]
+def _generated_columns(with_model: bool) -> tuple:
+    if not with_model:
+        return output_columns()
+    from scorer.melting import MODEL_COLUMNS
+
+    return output_columns() + tuple(MODEL_COLUMNS)
+
+
+def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False) -> pa.Schema:
+    """Input fields, unchanged, followed by the generated columns (and the
+    melting-model columns when a model is applied)."""
+    columns = _generated_columns(with_model)
+    names = generated_names(input_schema.names, prefix, with_model)
+    fields = list(input_schema) + [pa.field(name, _ARROW_TYPES[c.dtype]) for name, c in zip(names, columns)]
     return pa.schema(fields)
+
+
+class ModelApplier:
+    """Applies a fitted melting model to the distinct formulas of each batch,
+    once per formula: the three ``mp_*_K`` columns, and the status and
+    message of rows outside the model's training domain."""
+
+    def __init__(self, model):
+        from scorer.melting import MODEL_COLUMNS, MODEL_FEATURES
+
+        self.model = model
+        self.names = [c.name for c in MODEL_COLUMNS]
+        self.needs = ("status", "message", "substance_class", "cations", "anions") + tuple(
+            f for f in MODEL_FEATURES if f in column_names()
+        )
+        self.done: dict = {}
+
+    def columns(self, distinct: list, cache_rows: pa.Array, cache: FormulaCache) -> tuple[list[pa.Array], pa.Array, pa.Array]:
+        """(model arrays, status, message) for ``distinct``, one row each."""
+        from pipelines.melting_fit import apply_model_to_records
+
+        new = [i for i, f in enumerate(distinct) if f not in self.done]
+        if new:
+            positions = column_names()
+            arrays = cache.arrays()
+            picked = {name: arrays[positions.index(name)].take(pa.array([cache_rows[i].as_py() for i in new], type=pa.int64())).to_pylist()
+                      for name in self.needs}
+            records = [{name: picked[name][k] for name in self.needs} for k in range(len(new))]
+            for i, record in zip(new, apply_model_to_records(records, self.model)):
+                self.done[distinct[i]] = tuple(record.get(n) for n in self.names) + (record["status"], record["message"])
+        rows = [self.done[f] for f in distinct]
+        model_arrays = [
+            pa.array([None if r[k] is None or r[k] != r[k] else float(r[k]) for r in rows], type=pa.float64())
+            for k in range(len(self.names))
+        ]
+        status = pa.array([r[-2] for r in rows], type=pa.string())
+        message = pa.array([r[-1] for r in rows], type=pa.string())
+        return model_arrays, status, message
 
 
 def score_batch(
@@ -331,6 +384,7 @@ def score_batch(
     schema: pa.Schema,
     scorer: BatchScorer | FormulaCache | None = None,
     name_col: str | None = None,
+    model: ModelApplier | None = None,
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
@@ -348,8 +402,16 @@ def score_batch(
     if indices.null_count:
         distinct.append(None)
         indices = pc.fill_null(indices, len(distinct) - 1)
-    rows = pa.array(scorer.ids(distinct), type=pa.int64()).take(indices)
+    cache_rows = pa.array(scorer.ids(distinct), type=pa.int64())
+    rows = cache_rows.take(indices)
     columns = list(batch.columns) + [a.take(rows) for a in scorer.cache.arrays()]
+    if model is not None:
+        model_arrays, status, message = model.columns(distinct, cache_rows, scorer.cache)
+        first = len(batch.columns)
+        names = column_names()
+        columns[first + names.index("status")] = status.take(indices)
+        columns[first + names.index("message")] = message.take(indices)
+        columns += [a.take(indices) for a in model_arrays]
     if name_col is not None:
         _name_failed_rows(columns, batch, name_col, len(batch.columns))
     return pa.RecordBatch.from_arrays(columns, schema=schema)
@@ -458,7 +520,21 @@ def prepare(config: ScoreConfig):
     formula_col = find_formula_column(names, config.formula_col)
     if config.name_col is not None and config.name_col not in names:
         raise InputError(f"no column {config.name_col!r} for --name-col; columns found: {', '.join(map(repr, names))}")
-    return reader, formula_col, output_schema(reader.schema, config.prefix)
+    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
+
+
+def load_model_applier(config: ScoreConfig) -> ModelApplier | None:
+    """The ``--mp-model`` file, checked and loaded; InputError when unusable."""
+    if config.mp_model is None:
+        return None
+    from scorer.melting import ModelFormatError
+
+    from pipelines.melting_fit import load_model
+
+    try:
+        return ModelApplier(load_model(config.mp_model))
+    except ModelFormatError as exc:
+        raise InputError(str(exc).splitlines()[0]) from None
 
 
 def score_file(config: ScoreConfig | str, output: str | None = None, **options) -> Summary:
@@ -477,6 +553,7 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
 
         return score_file_dask(config)
     started = time.perf_counter()
+    model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
     writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths)
@@ -486,7 +563,7 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     scorer = BatchScorer(config.workers)
     try:
         for batch in reader.batches:
-            scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col)
+            scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model)
             writer.write(scored)
             summary.rows += batch.num_rows
             _count_status(summary, scored, status_name)

@@ -66,6 +66,9 @@ def build_parser() -> argparse.ArgumentParser:
                             " default: every core")
     score.add_argument("--scheduler", metavar="ADDRESS",
                        help="address of a running Dask scheduler, e.g. tcp://10.0.0.5:8786 (with --engine dask)")
+    score.add_argument("--mp-model", metavar="PATH",
+                       help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
+                            " 90%% interval (screening estimates, not safety data)")
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -75,6 +78,10 @@ def build_parser() -> argparse.ArgumentParser:
     columns = sub.add_parser("columns", help="every output column with its type, unit, method and source")
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
+
+    from pipelines.melting_fit import add_fit_melting_parser
+
+    add_fit_melting_parser(sub)
     return parser
 
 
@@ -94,8 +101,13 @@ def _run_score(args) -> int:
         engine=args.engine,
         workers=args.workers,
         scheduler=args.scheduler,
+        mp_model=args.mp_model,
     )
     summary = score_file(config)
+    if args.mp_model and not args.quiet:
+        from pipelines.melting_fit import CAUTION
+
+        print(CAUTION, file=sys.stderr)
     if not args.quiet:
         print(summary, file=sys.stderr)
     if args.strict and summary.error:
@@ -144,6 +156,10 @@ def main(argv: list[str] | None = None) -> int:
             return _run_score(args)
         if args.command == "explain":
             return _run_explain(args)
+        if args.command == "fit-melting":
+            from pipelines.melting_fit import run_fit_melting
+
+            return run_fit_melting(args)
         return _run_columns(args)
     except InputError as exc:
         print(f"ionicity: error: {exc}", file=sys.stderr)

@@ -22,7 +22,7 @@ import time
 
 import pyarrow as pa
 
-from pipelines.batch import ScoreConfig, Summary, prepare, provenance_metadata, score_batch
+from pipelines.batch import ScoreConfig, Summary, load_model_applier, prepare, provenance_metadata, score_batch
 from pipelines.io import InputError, _remove, check_output_path, clean_stale_partials, partial_path
 
 __all__ = ["score_file_dask", "score_partition"]
@@ -31,12 +31,13 @@ _CSV_BLOCK = "64MB"
 _CONNECT_TIMEOUT = "20s"
 
 
-def score_partition(frame, formula_col: str, name_col: str | None, input_schema: pa.Schema, schema: pa.Schema):
+def score_partition(frame, formula_col: str, name_col: str | None, input_schema: pa.Schema, schema: pa.Schema,
+                    model=None):
     """Score one pandas partition with :func:`pipelines.batch.score_batch`;
     returns a pandas frame of ``schema``'s columns, rows in order."""
     table = pa.Table.from_pandas(frame, schema=input_schema, preserve_index=False)
     batches = table.to_batches() or [pa.RecordBatch.from_pylist([], schema=input_schema)]
-    scored = [score_batch(b, formula_col, schema, name_col=name_col) for b in batches]
+    scored = [score_batch(b, formula_col, schema, name_col=name_col, model=model) for b in batches]
     out = pa.Table.from_batches(scored, schema=schema).to_pandas()
     out.index = frame.index
     return out
@@ -119,6 +120,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         raise InputError("--engine dask writes a folder of Parquet parts; give -o a folder name (e.g. out.parquet)")
     if config.input == "-":
         raise InputError("--engine dask cannot read standard input; give a file, or use --engine local")
+    model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
     dask, dd, distributed = _import_dask()
     inputs = reader.paths or (config.input,)
@@ -148,7 +150,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
             client.register_plugin(_warm_up_plugin(), name="ionicity-warm-up")
             meta = schema.empty_table().to_pandas()
             scored = frame.map_partitions(
-                score_partition, formula_col, config.name_col, input_schema, schema, meta=meta,
+                score_partition, formula_col, config.name_col, input_schema, schema, model, meta=meta,
                 enforce_metadata=False,
             )
             write = scored.to_parquet(

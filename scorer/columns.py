@@ -62,7 +62,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("scorer.character", "scorer.fajans", "scorer.hsab", "scorer.lattice")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("scorer.character", "scorer.fajans", "scorer.hsab", "scorer.lattice", "scorer.melting")
 
 
 @cache

@@ -116,7 +116,7 @@ def score_composition(comp: Composition) -> dict:
         if dec.substance_class in _IONIC_CLASSES:
             gaps.append(
                 f"descriptors are for the anhydrous salt ({format_count(dec.hydrate_water)} H2O of lattice water"
-                " per formula unit is not modelled)"
+                " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)"
             )
     for module in descriptor_modules():
         values, module_notes = _describe(module.__name__, dec if getattr(module, "USES_HYDRATE_WATER", False) else anhydrous)

@@ -1,0 +1,330 @@
+"""Tests for scorer.melting: trend index, melting class, the model schema and the numpy predictor."""
+from __future__ import annotations
+
+import copy
+import math
+import time
+
+import numpy as np
+import pytest
+
+from scorer import melting
+from scorer.formula import parse_formula
+from scorer.ions import decompose
+from scorer.model import Decomposition
+
+
+def _describe(formula: str):
+    return melting.describe(decompose(parse_formula(formula)))
+
+
+def _index(formula: str) -> float:
+    return _describe(formula)[0]["mp_trend_index"]
+
+
+def _class(formula: str):
+    return _describe(formula)[0]["melting_class"]
+
+
+# ---------------------------------------------------------------- classes
+
+# Ionic liquids with measured melting points below 100 C. Every value is recalled
+# from the cited paper (from memory), in K.
+KNOWN_IONIC_LIQUIDS = [
+    # Holbrey & Seddon, J. Chem. Soc., Dalton Trans. 1999, 2133 (from memory): 15 C
+    ("[C2mim][BF4]", 288),
+    # Huddleston et al., Green Chem. 2001, 3, 156 (from memory): about 10 C
+    ("[C4mim][PF6]", 283),
+    # Tokuda et al., J. Phys. Chem. B 2005, 109, 6103 (from memory): about -3 C
+    ("[C4mim][NTf2]", 270),
+    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -15 C
+    ("[C2mim][NTf2]", 258),
+    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -9 C
+    ("[C2mim][OTf]", 264),
+    # MacFarlane et al., J. Phys. Chem. B 1999, 103, 4164 (from memory): -18 C
+    ("[C4mpyr][NTf2]", 255),
+    # MacFarlane et al., Chem. Commun. 2001, 1430 (from memory): -21 C
+    ("[C2mim][dca]", 252),
+    # Huddleston et al., Green Chem. 2001, 3, 156 (from memory): about 65 C
+    ("[C4mim]Cl", 338),
+]
+
+
+@pytest.mark.parametrize("formula, mp_K", KNOWN_IONIC_LIQUIDS)
+def test_known_ionic_liquids_are_classed_ionic_liquid(formula, mp_K):
+    assert mp_K < 373.15  # the check's own premise: the trade's definition
+    assert _class(formula) == "ionic_liquid"
+
+
+# Melting points from the CRC Handbook of Chemistry and Physics, 'Physical constants
+# of inorganic compounds' (from memory), in K; all far above 100 C.
+NOT_IONIC_LIQUIDS = [
+    ("LiF", 1121), ("NaCl", 1074), ("KCl", 1044), ("KBr", 1007), ("CsI", 894), ("LiCl", 883),
+    ("MgO", 3098), ("CaO", 2886), ("Al2O3", 2345), ("Na2O", 1405), ("ZrO2", 2988),
+    ("Na2SO4", 1157), ("K2SO4", 1342), ("MgSO4", 1397), ("CaSO4", 1733), ("BaSO4", 1853),
+]
+
+
+@pytest.mark.parametrize("formula, mp_K", NOT_IONIC_LIQUIDS)
+def test_alkali_halides_oxides_sulfates_are_not_ionic_liquids(formula, mp_K):
+    assert _class(formula) in ("molten_salt", "refractory")
+
+
+@pytest.mark.parametrize("formula", ["MgO", "CaO", "ZrO2"])
+def test_refractory_oxides(formula):
+    # MgO 3098 K, CaO 2886 K, ZrO2 2988 K: above the 1500 C of ISO 836 (CRC Handbook, from memory)
+    assert _class(formula) == "refractory"
+
+
+def test_class_thresholds_follow_the_documented_temperatures():
+    # the ionic-liquid line is the trade's 100 C (Wasserscheid & Welton 2008, from memory)
+    edge = math.log10(373.15)
+    assert melting.melting_class_from_index(edge - 1e-9) == "ionic_liquid"
+    assert melting.melting_class_from_index(edge + 1e-9) == "low_melting_salt"
+    assert melting.melting_class_from_index(math.log10(573.15) + 1e-9) == "molten_salt"
+    assert melting.melting_class_from_index(math.log10(1773.15) + 1e-9) == "refractory"
+    assert melting.melting_class_from_index(float("nan")) is None
+    names = [name for name, _, _ in melting.MELTING_CLASSES]
+    assert names == ["ionic_liquid", "low_melting_salt", "molten_salt", "refractory"]
+
+
+# ------------------------------------------------------------------- ranks
+
+# Pairs (higher, lower) by measured melting point, CRC Handbook (from memory), in K.
+RANKED_PAIRS = [
+    ("MgO", "NaCl"),           # 3098 > 1074: doubly charged ions
+    ("CaF2", "CaCl2"),         # 1691 > 1045: smaller anion
+    ("NaCl", "AgCl"),          # 1074 > 728: Fajans' third rule (Ag+ is d10)
+    ("KCl", "ZnCl2"),          # 1044 > 563: covalent, chain-forming ZnCl2
+    ("NaCl", "NaNO3"),         # 1074 > 580: a molecular anion melts lower
+    ("K2SO4", "KNO3"),         # 1342 > 607
+    ("NaCl", "[C2mim]Cl"),     # 1074 > 360 (Wilkes et al., Inorg. Chem. 1982, 21, 1263, from memory)
+    ("[C2mim][BF4]", "[C4mim][BF4]"),  # 288 > about 200 (glass former): longer chain, more flexible
+    ("CaO", "Na2O"),           # 2886 > 1405
+]
+
+
+@pytest.mark.parametrize("higher, lower", RANKED_PAIRS)
+def test_index_ranks_measured_pairs(higher, lower):
+    assert _index(higher) > _index(lower)
+
+
+def test_index_reads_on_a_log_kelvin_scale_near_nacl():
+    # not a prediction, but the scale is anchored so that simple salts land within
+    # a factor of 1.5 of their melting point: NaCl 1074 K (CRC Handbook, from memory)
+    assert 1074 / 1.5 < melting.trend_temperature_K(_index("NaCl")) < 1074 * 1.5
+
+
+# --------------------------------------------------------------- equations
+
+
+def test_dannenfelser_yalkowsky_entropy_matches_the_published_form():
+    # dS = R ln(2.435**tau) - R ln(sigma) (Dannenfelser & Yalkowsky 1996, from memory)
+    R = 8.314462618
+    assert melting.dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(4.0, 2.0) == pytest.approx(
+        R * (4 * math.log(2.435) - math.log(2.0)))
+    # tau below zero counts as zero
+    assert melting.dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(-1.0) == 0.0
+    arr = melting.dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(np.array([0.0, 1.0]), np.array([1.0, 1.0]))
+    assert arr.shape == (2,)
+
+
+def test_trend_index_accepts_arrays_and_matches_scalar_calls():
+    args = ([380.9, 2187.5], [2.045, 2.375], [0.131, 0.388], [False, False], [0.0, 0.0], [2, 2])
+    vector = melting.melting_trend_index(*args)
+    scalar = [melting.melting_trend_index(*(a[i] for a in args)) for i in range(2)]
+    assert np.allclose(vector, scalar)
+
+
+def test_trend_index_moves_the_way_its_physics_says():
+    base = dict(lattice_energy_per_ion_kJ_mol=400.0, contact_chi_pauling=2.1, contact_index=0.1,
+                pseudo_noble_gas=False, polyatomic_anion_fraction=0.0, ions_per_formula_unit=2)
+    i0 = melting.melting_trend_index(**base)
+    assert melting.melting_trend_index(**{**base, "lattice_energy_per_ion_kJ_mol": 800.0}) > i0
+    assert melting.melting_trend_index(**{**base, "contact_index": 0.6}) < i0
+    assert melting.melting_trend_index(**{**base, "pseudo_noble_gas": True}) < i0
+    assert melting.melting_trend_index(**{**base, "flexibility_entropy_J_mol_K": 20.0}) < i0
+    assert melting.melting_trend_index(**{**base, "delocalised_fraction": 1.0}) < i0
+    # long chains pack: the same flexibility with packing melts higher than without
+    flexible = melting.melting_trend_index(**{**base, "flexibility_entropy_J_mol_K": 60.0})
+    packed = melting.melting_trend_index(**{**base, "flexibility_entropy_J_mol_K": 60.0,
+                                            "chain_packing_entropy_J_mol_K": 40.0})
+    assert packed > flexible
+
+
+def test_ion_shape_table_has_a_source_on_every_row_and_covers_the_organic_ions():
+    from scorer.ion_library import ion_library
+
+    table = melting._shape_table()
+    assert len(table) == 72
+    assert all(row[3] for row in table.values())
+    ionic_liquid_ions = [ion.ion_id for ion in ion_library() if ion.label.startswith("[")]
+    assert ionic_liquid_ions and all(ion_id in table for ion_id in ionic_liquid_ions)
+    # ions added to the library later get an estimate, never an error
+    for ion in ion_library():
+        tau, sigma, _, basis = melting.ion_shape(ion)
+        assert tau >= 0 and sigma >= 1 and basis
+
+
+def test_ion_shape_counts_torsions_by_the_rule():
+    from scorer.ion_library import get_ion
+
+    # tau = SP3 + 0.5 SP2 + 0.5 RING - 1 (Dannenfelser & Yalkowsky 1996, from memory):
+    # [C4mim]: three CH2 + one ring -> 2.5; [N1111]: the N alone -> 0, sigma 12 (Td)
+    assert melting.ion_shape(get_ion("[C4mim](+)"))[:2] == (2.5, 1.0)
+    assert melting.ion_shape(get_ion("[N1111](+)"))[:2] == (0.0, 12.0)
+    assert melting.ion_shape(get_ion("SO4(2-)"))[:3] == (0.0, 1.0, False)
+
+
+# ------------------------------------------------------------ the protocol
+
+
+def test_columns_are_declared_once_with_units_and_sources():
+    names = [c.name for c in melting.COLUMNS]
+    assert names == ["mp_trend_index", "melting_class"]
+    for column in melting.COLUMNS + melting.MODEL_COLUMNS:
+        assert column.source and column.method and column.description
+    assert [c.name for c in melting.MODEL_COLUMNS] == ["mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"]
+
+
+def test_describe_returns_every_column():
+    values, notes = _describe("K2SO4")
+    assert set(values) == {c.name for c in melting.COLUMNS}
+    assert isinstance(values["mp_trend_index"], float) and values["melting_class"] == "molten_salt"
+    assert notes == []
+
+
+@pytest.mark.parametrize("formula", ["SiO2", "CCl4", "Fe", "O2"])
+def test_non_ionic_entries_get_empty_values_without_a_note(formula):
+    values, notes = _describe(formula)
+    assert math.isnan(values["mp_trend_index"]) and values["melting_class"] is None
+    assert notes == []
+
+
+def test_acids_get_empty_values_and_a_reason():
+    values, notes = _describe("HCl")
+    assert math.isnan(values["mp_trend_index"])
+    assert any("acid" in n for n in notes)
+
+
+def test_hydrates_are_scored_as_the_anhydrous_salt_with_a_note():
+    hydrate, notes = _describe("CuSO4.5H2O")
+    anhydrous, _ = _describe("CuSO4")
+    assert hydrate["mp_trend_index"] == anhydrous["mp_trend_index"]
+    assert any("anhydrous" in n for n in notes)
+
+
+def test_equivalent_spellings_give_the_same_index():
+    # invariance: one compound, two spellings
+    assert _index("NaCl") == _index("ClNa")
+    assert _index("CaCO3·6H2O") == _index("CaCO3(H2O)6")
+
+
+def test_describe_never_raises_on_odd_input():
+    values, notes = melting.describe(Decomposition())
+    assert math.isnan(values["mp_trend_index"])
+    values, notes = melting.describe(object())  # not a decomposition at all
+    assert math.isnan(values["mp_trend_index"]) and notes
+
+
+def test_explain_names_the_method_and_the_inputs():
+    lines = melting.explain(decompose(parse_formula("[C4mim][PF6]")))
+    text = "\n".join(lines)
+    assert "mp_trend_index" in text and "melting_class = ionic_liquid" in text
+    assert "Dannenfelser-Yalkowsky" in text and "kJ/mol" in text and "safety data sheet" in text
+    assert melting.explain(decompose(parse_formula("HCl")))[0].startswith("melting trend: not estimated")
+
+
+def test_describe_is_fast_once_the_tables_are_loaded():
+    decs = [decompose(parse_formula(f)) for f in ("NaCl", "MgO", "K2SO4", "[C4mim][NTf2]", "Fe2(SO4)3")]
+    for d in decs:
+        melting.describe(d)
+    melting.melting_terms.cache_clear()
+    start = time.perf_counter()
+    for d in decs:
+        melting.describe(d)
+    assert (time.perf_counter() - start) / len(decs) < 0.005
+
+
+# ------------------------------------------------------ model schema and predictor
+
+
+def _tiny_model_document(features=("mp_trend_index",)) -> dict:
+    # one stump: trend index <= 3.0 -> ln 600 K, else ln 1500 K; NaN goes left
+    return {
+        "format": melting.MODEL_FORMAT,
+        "format_version": melting.MODEL_FORMAT_VERSION,
+        "model_type": "gradient_boosted_trees",
+        "target": "ln_mp_K",
+        "features": list(features),
+        "baseline": 0.0,
+        "trees": [{
+            "feature": [0, 0, 0], "threshold": [3.0, 0.0, 0.0], "left": [1, 0, 0], "right": [2, 0, 0],
+            "missing_left": [1, 0, 0], "leaf": [0, 1, 1], "value": [0.0, math.log(600.0), math.log(1500.0)],
+        }],
+        "interval": {"coverage": 0.9, "log_halfwidth": 0.2},
+        "domain": {"feature_min": [2.0] * len(features), "feature_max": [3.5] * len(features),
+                   "substance_classes": ["ionic_salt"]},
+    }
+
+
+def _features(**named) -> np.ndarray:
+    x = np.full(len(melting.MODEL_FEATURES), np.nan)
+    for name, value in named.items():
+        x[melting.MODEL_FEATURES.index(name)] = value
+    x[melting.MODEL_FEATURES.index("ions_per_formula_unit")] = 2.0
+    return x
+
+
+def test_predictor_walks_the_tree_and_adds_the_interval():
+    model = melting.model_from_dict(_tiny_model_document())
+    x = np.vstack([_features(mp_trend_index=2.5), _features(mp_trend_index=3.2), _features()])
+    pred, low, high = melting.predict_melting_K(model, x)
+    assert pred == pytest.approx([600.0, 1500.0, 600.0])  # NaN follows missing_left
+    assert low == pytest.approx(pred * math.exp(-0.2)) and high == pytest.approx(pred * math.exp(0.2))
+
+
+def test_predictor_gives_nan_for_rows_without_ions():
+    model = melting.model_from_dict(_tiny_model_document())
+    pred, _, _ = melting.predict_melting_K(model, np.full((1, len(melting.MODEL_FEATURES)), np.nan))
+    assert math.isnan(pred[0])
+
+
+def test_domain_check_names_the_feature_outside():
+    model = melting.model_from_dict(_tiny_model_document())
+    assert melting.outside_training_domain(model, _features(mp_trend_index=3.0), "ionic_salt") == []
+    reasons = melting.outside_training_domain(model, _features(mp_trend_index=5.0), "ionic_liquid_pair")
+    assert any("mp_trend_index" in r for r in reasons) and any("ionic_liquid_pair" in r for r in reasons)
+
+
+@pytest.mark.parametrize("change, message", [
+    (lambda d: d.update(format="pickle"), "not an ionicity melting model"),
+    (lambda d: d.update(model_type="random_forest"), "model_type 'random_forest' is not accepted"),
+    (lambda d: d.update(model_type="sklearn.ensemble.HistGradientBoostingRegressor"), "is not accepted"),
+    (lambda d: d.update(payload="__import__('os')"), "unexpected keys"),
+    (lambda d: d.update(features=["os.system"]), "features ionicity does not compute"),
+    (lambda d: d["trees"][0].update(value=["1", 2, 3]), "only numbers"),
+    (lambda d: d["trees"][0].update(left=[0, 0, 0]), "point forward"),
+    (lambda d: d["trees"][0].update(feature=[5, 0, 0]), "outside"),
+    (lambda d: d["trees"][0].update(extra=[1]), "exactly the keys"),
+    (lambda d: d.update(format_version=99), "format_version"),
+    (lambda d: d["interval"].update(log_halfwidth=-1), "log_halfwidth"),
+    (lambda d: d.update(target="mp_C"), "target"),
+    (lambda d: d.pop("trees"), "missing keys"),
+])
+def test_model_documents_other_than_the_expected_type_are_refused(change, message):
+    document = copy.deepcopy(_tiny_model_document())
+    change(document)
+    with pytest.raises(melting.ModelFormatError, match=message):
+        melting.model_from_dict(document)
+
+
+def test_model_features_from_record_reads_the_ion_columns():
+    record = {"cations": "[C4mim](+)*1", "anions": "[NTf2](-)*1", "mp_trend_index": 2.1,
+              "cation_pseudo_noble_gas": True}
+    named = dict(zip(melting.MODEL_FEATURES, melting.model_features_from_record(record).tolist()))
+    assert named["organic_ion_fraction"] == 1.0 and named["polyatomic_anion_fraction"] == 1.0
+    assert named["cation_pseudo_noble_gas"] == 1.0 and named["mp_trend_index"] == 2.1
+    assert math.isnan(named["lattice_energy_vbt_kJ_mol"])
+    empty = melting.model_features_from_record({})
+    assert np.isnan(empty).all()
