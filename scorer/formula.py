@@ -498,8 +498,9 @@ def parse_formula(text: str) -> Composition:
         elif cleaned != text:
             message += f" (read from {text!r})"
         raise FormulaError(message) from None
-    notes.extend(parsed.notes)
-    return dataclasses.replace(parsed, text=text, notes=tuple(notes))
+    if not notes and not parsed.notes and parsed.text == text:
+        return parsed
+    return dataclasses.replace(parsed, text=text, notes=tuple(notes) + parsed.notes)
 
 
 @lru_cache(maxsize=65536)

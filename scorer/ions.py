@@ -79,7 +79,7 @@ from scorer.formula import Composition, format_count
 from scorer.ion_library import get_ion, ion_library, ions_by_composition, monatomic_ion, same_label_ions
 from scorer.model import Decomposition, Ion, IonTerm
 
-__all__ = ["decompose", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
+__all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
 
 SUBSTANCE_CLASSES = (
     "ionic_salt",
@@ -585,15 +585,24 @@ def decompose(comp: Composition) -> Decomposition:
     >>> format_oxidation_states(d.oxidation_states)
     'Fe:+2.667;O:-2'
     """
+    anhydrous = decompose_anhydrous(comp)
     if comp.hydrate_water:
-        # hydrates of one salt share the solver's work: water is set apart anyway
-        anhydrous = _decompose(dataclasses.replace(comp, hydrate_water=0.0))
         return dataclasses.replace(anhydrous, hydrate_water=comp.hydrate_water)
-    return _decompose(comp)
+    return anhydrous
+
+
+def decompose_anhydrous(comp: Composition) -> Decomposition:
+    """:func:`decompose` of the formula without its lattice water: the hydrates
+    of one salt share this result (and the solver's work)."""
+    return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
 
 
 @lru_cache(maxsize=65536)
-def _decompose(comp: Composition) -> Decomposition:
+def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
+    comp = Composition(
+        text="", counts=counts_key, charge=charge, ion_hints=ion_hints,
+        neutral_adducts=neutral_adducts, structure_hint=structure_hint,
+    )
     counts = comp.as_dict()
     # the parser's notes (ignored annotations...) belong to the spelling, not the
     # composition: the record adds them, so this cache stays spelling-free

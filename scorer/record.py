@@ -1,7 +1,6 @@
 """Score one compound into one record: a dict with one value per output column."""
 from __future__ import annotations
 
-import dataclasses
 import math
 import sys
 from functools import lru_cache
@@ -9,7 +8,7 @@ from functools import lru_cache
 from scorer.columns import descriptor_modules, output_columns
 from scorer.elements import get_element
 from scorer.formula import Composition, FormulaError, format_count, parse_formula
-from scorer.ions import decompose, format_ion_terms, format_oxidation_states
+from scorer.ions import decompose, decompose_anhydrous, format_ion_terms, format_oxidation_states
 from scorer.model import Decomposition, IonTerm, RowWarning
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
@@ -110,9 +109,8 @@ def score_composition(comp: Composition) -> dict:
     record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
     if dec.substance_class not in _IONIC_CLASSES:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
-    anhydrous = dec
+    anhydrous = decompose_anhydrous(comp) if dec.hydrate_water else dec
     if dec.hydrate_water:
-        anhydrous = dataclasses.replace(dec, hydrate_water=0.0)
         if dec.substance_class in _IONIC_CLASSES:
             gaps.append(
                 f"descriptors are for the anhydrous salt ({format_count(dec.hydrate_water)} H2O of lattice water"
