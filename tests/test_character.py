@@ -11,19 +11,7 @@ from scorer import character as C
 from scorer.ion_library import get_ion, monatomic_ion
 from scorer.model import Decomposition, IonTerm
 
-
-def salt(cations, anions) -> Decomposition:
-    """A decomposition from [(ion, count)] lists; ions are ids or (symbol, charge)."""
-
-    def term(spec, count):
-        ion = monatomic_ion(*spec) if isinstance(spec, tuple) else get_ion(spec)
-        return IonTerm(ion, count)
-
-    return Decomposition(
-        cations=tuple(term(s, n) for s, n in cations),
-        anions=tuple(term(s, n) for s, n in anions),
-        substance_class="ionic_salt",
-    )
+from _builders import salt
 
 
 def neutral(composition, substance_class="covalent_molecular") -> Decomposition:

@@ -1,7 +1,8 @@
 """pipelines.dask_engine: the same per-batch function on a two-worker Dask
 cluster must give exactly the local engine's table (the reference here is
 the local engine's own output, checked against scorer.record in
-test_batch.py)."""
+test_batch.py). No scientific reference values: a property of our own code.
+"""
 from __future__ import annotations
 
 import json

@@ -11,17 +11,7 @@ from scorer import fajans as F
 from scorer.ion_library import get_ion, monatomic_ion
 from scorer.model import Decomposition, IonTerm
 
-
-def salt(cations, anions) -> Decomposition:
-    def term(spec, count):
-        ion = monatomic_ion(*spec) if isinstance(spec, tuple) else get_ion(spec)
-        return IonTerm(ion, count)
-
-    return Decomposition(
-        cations=tuple(term(s, n) for s, n in cations),
-        anions=tuple(term(s, n) for s, n in anions),
-        substance_class="ionic_salt",
-    )
+from _builders import salt
 
 
 def binary(m, zm, x, zx) -> Decomposition:

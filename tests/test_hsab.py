@@ -13,19 +13,9 @@ from scorer import hsab as H
 from scorer.ion_library import get_ion, monatomic_ion
 from scorer.model import Decomposition, IonTerm
 
+from _builders import salt
+
 DATA = Path(__file__).resolve().parents[1] / "scorer" / "data"
-
-
-def salt(cations, anions) -> Decomposition:
-    def term(spec, count):
-        ion = monatomic_ion(*spec) if isinstance(spec, tuple) else get_ion(spec)
-        return IonTerm(ion, count)
-
-    return Decomposition(
-        cations=tuple(term(s, n) for s, n in cations),
-        anions=tuple(term(s, n) for s, n in anions),
-        substance_class="ionic_salt",
-    )
 
 
 def ion(ion_id: str):

@@ -23,6 +23,8 @@ import pytest
 
 from scorer import score_formula
 
+from _builders import formula_piece as _piece
+
 periodictable = pytest.importorskip("periodictable")
 
 RELATIVE_TOLERANCE = 1e-4  # 0.01 %
@@ -47,14 +49,6 @@ ANIONS = [
 ]
 WATER = [0, 0, 0, 0.5, 1, 1.5, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 18, 24]
 SEPARATORS = ["·", ".", "*", "•", "+", "⋅"]
-
-
-def _piece(text: str, count: int) -> str:
-    if count == 1:
-        return text
-    if re.fullmatch(r"[A-Z][a-z]?", text):
-        return f"{text}{count}"
-    return f"({text}){count}"
 
 
 def _salt(cation: tuple[str, int], anion: tuple[str, int]) -> str:

@@ -28,6 +28,8 @@ from hypothesis import strategies as st
 
 from scorer import parse_formula, score_formula
 
+from _builders import formula_piece as _piece
+
 DETERMINISTIC = settings(
     derandomize=True,
     database=None,
@@ -58,14 +60,6 @@ METALS_FOR_OXIDES = ["Fe", "Co", "Mn", "Pb", "Cu", "Ni", "Cr", "V", "Ti", "Sn", 
 
 _SUBSCRIPTS = str.maketrans("0123456789", "₀₁₂₃₄₅₆₇₈₉")
 _TERM = re.compile(r"^(?P<ion>.+)\((?P<digits>\d*)(?P<sign>[+-])\)\*(?P<count>\d+(?:\.\d+)?)$")
-
-
-def _piece(text: str, count: int) -> str:
-    if count == 1:
-        return text
-    if re.fullmatch(r"[A-Z][a-z]?", text):
-        return f"{text}{count}"
-    return f"({text}){count}"
 
 
 def salt_text(cation, anion) -> str:
