@@ -26,7 +26,8 @@ def _value_text(value) -> str:
 
 def explain_formula(text: str) -> str:
     """Every score of one compound with the method and the inputs behind it."""
-    lines = [f"formula: {text}"]
+    shown = text if len(text) <= 80 else f"{text[:80]}... ({len(text)} characters)"
+    lines = [f"formula: {shown}"]
     try:
         comp = parse_formula(text)
     except FormulaError as exc:

@@ -24,10 +24,12 @@ def empty_record() -> dict:
 def molar_mass_g_mol(counts: dict[str, float]) -> float:
     """Sum of standard atomic weights times counts.
 
-    >>> round(molar_mass_g_mol({"Na": 1, "Cl": 1}), 3)
-    58.44
+    >>> molar_mass_g_mol({"Na": 1, "Cl": 1})
+    58.4398
     """
-    return float(sum(get_element(s).atomic_weight * n for s, n in counts.items()))
+    # standard atomic weights carry at most 5-6 significant figures; rounding
+    # drops float noise such as 58.43976928000001 from the table
+    return round(float(sum(get_element(s).atomic_weight * n for s, n in counts.items())), 4)
 
 
 def _ion_text(term: IonTerm, bracket_polyatomic: bool) -> str:
