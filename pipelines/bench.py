@@ -224,7 +224,7 @@ def formula_caches() -> list:
     found = []
     for module_name, attribute in (
         ("scorer.record", "_score_text"),
-        ("scorer.record", "_describe"),
+        ("scorer.record", "_anhydrous_scores"),
         ("scorer.formula", "parse_formula"),
         ("scorer.formula", "_parse_normalised"),
         ("scorer.ions", "_decompose"),

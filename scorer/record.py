@@ -2,13 +2,12 @@
 from __future__ import annotations
 
 import math
-import sys
 from functools import lru_cache
 
 from scorer.columns import descriptor_modules, output_columns
 from scorer.elements import get_element
 from scorer.formula import Composition, FormulaError, format_count, parse_formula
-from scorer.ions import decompose, decompose_anhydrous, format_ion_terms, format_oxidation_states
+from scorer.ions import decompose_anhydrous, format_ion_terms, format_oxidation_states
 from scorer.model import Decomposition, IonTerm, RowWarning
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
@@ -84,46 +83,63 @@ def _adduct_text(part: str) -> str:
     return ("" if count == "1" else count) + name
 
 
-@lru_cache(maxsize=65536)
-def _describe(module_name: str, dec: Decomposition) -> tuple[dict, tuple[str, ...]]:
-    """One module's values for one decomposition, computed once per process.
+def _water_suffix(water: float) -> str:
+    if not water:
+        return ""
+    count = format_count(water)
+    return "·" + ("" if count == "1" else count) + "H2O"
 
-    Modules that do not declare ``USES_HYDRATE_WATER = True`` see the
-    anhydrous decomposition, so the hydrates of one salt share the work.
+
+@lru_cache(maxsize=65536)
+def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint):
+    """Everything a record holds that does not depend on lattice water or on
+    the spelling, computed once per anhydrous composition: the hydrates and
+    the spellings of one salt share it.
+
+    Returns (values, warnings, gaps, formula_normalized without water).
     """
-    module = sys.modules[module_name]
-    values, notes = module.describe(dec)
-    return values, tuple(notes)
+    comp = Composition(
+        text="", counts=counts, charge=charge, ion_hints=ion_hints,
+        neutral_adducts=neutral_adducts, structure_hint=structure_hint,
+    )
+    dec = decompose_anhydrous(comp)
+    values: dict = {
+        "substance_class": dec.substance_class,
+        "cations": format_ion_terms(dec.cations),
+        "anions": format_ion_terms(dec.anions),
+        "oxidation_states": format_oxidation_states(dec.oxidation_states),
+    }
+    warnings = list(dec.notes)
+    gaps: list[str] = []
+    if dec.substance_class not in _IONIC_CLASSES:
+        gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
+    for module in descriptor_modules():
+        module_values, module_notes = module.describe(dec)
+        values.update(module_values)
+        for note in module_notes:
+            (warnings if isinstance(note, RowWarning) else gaps).append(note)
+    return values, tuple(warnings), tuple(gaps), normalized_formula(comp, dec)
 
 
 def score_composition(comp: Composition) -> dict:
     """Score a parsed composition; see :func:`score_formula`."""
+    values, warnings, gaps, formula = _anhydrous_scores(
+        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
+    )
     record = empty_record()
-    dec = decompose(comp)
-    notes = [RowWarning(n) for n in comp.notes] + list(dec.notes)
-    gaps: list[str] = []
-    record["formula_normalized"] = normalized_formula(comp, dec)
-    record["substance_class"] = dec.substance_class
-    record["cations"] = format_ion_terms(dec.cations)
-    record["anions"] = format_ion_terms(dec.anions)
-    record["oxidation_states"] = format_oxidation_states(dec.oxidation_states)
-    record["hydrate_water"] = float(dec.hydrate_water)
+    record.update(values)
+    notes = [RowWarning(n) for n in comp.notes] + list(warnings)
+    gaps = list(gaps)
+    water = comp.hydrate_water
+    if water and values["substance_class"] in _IONIC_CLASSES:
+        gaps.insert(0, (
+            f"descriptors are for the anhydrous salt ({format_count(water)} H2O of lattice water"
+            " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)"
+        ))
+    record["formula_normalized"] = formula + _water_suffix(water)
+    record["hydrate_water"] = float(water)
     record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
-    if dec.substance_class not in _IONIC_CLASSES:
-        gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
-    anhydrous = decompose_anhydrous(comp) if dec.hydrate_water else dec
-    if dec.hydrate_water:
-        if dec.substance_class in _IONIC_CLASSES:
-            gaps.append(
-                f"descriptors are for the anhydrous salt ({format_count(dec.hydrate_water)} H2O of lattice water"
-                " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)"
-            )
-    for module in descriptor_modules():
-        values, module_notes = _describe(module.__name__, dec if getattr(module, "USES_HYDRATE_WATER", False) else anhydrous)
-        record.update(values)
-        for note in module_notes:
-            (notes if isinstance(note, RowWarning) else gaps).append(note)
-    error = dec.substance_class == "unknown"
+    error = values["substance_class"] == "unknown"
     record["status"] = "error" if error else ("warning" if notes else "ok")
     record["message"] = "; ".join(dict.fromkeys(notes))
     record["value_notes"] = "; ".join(dict.fromkeys(gaps))
