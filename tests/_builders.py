@@ -28,3 +28,22 @@ def formula_piece(text: str, count: int) -> str:
     if re.fullmatch(r"[A-Z][a-z]?", text):
         return f"{text}{count}"
     return f"({text}){count}"
+
+
+_SUBSCRIPT_DIGITS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
+
+
+def periodictable_spelling(text: str) -> str | None:
+    """The same formula in periodictable's grammar ('+' joins adducts,
+    round brackets only), or None where periodictable has no spelling
+    (ionic-liquid abbreviations, charges)."""
+    text = text.translate(_SUBSCRIPT_DIGITS).replace("½", "0.5")
+    text = re.sub(r"[·•∙⋅*]", "+", text)
+    # a dot joins adducts where a formula starts right after it ("K2SO4.Al2(SO4)3") or where a
+    # count ends before it and water follows ("CuSO4.5H2O"); elsewhere it is a decimal ("Fe0.95O")
+    text = re.sub(r"\.(?=[A-Z(\[])", "+", text)
+    text = re.sub(r"(?<=[A-Za-z)\]])(\d+)\.(?=\d+(?:\.\d+)?H2O)", r"\1+", text)
+    text = text.replace("[", "(").replace("]", ")")
+    if re.search(r"[a-z]{2}|\s|\^|[+-]$", text):
+        return None
+    return text

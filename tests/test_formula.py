@@ -25,6 +25,8 @@ import pytest
 import scorer
 from scorer import FormulaError, parse_formula, score_formula
 
+from _builders import periodictable_spelling
+
 periodictable = pytest.importorskip("periodictable")
 
 CASES_FILE = Path(__file__).resolve().parent / "data" / "formula_cases.csv"
@@ -42,25 +44,6 @@ def load_cases() -> list[dict[str, str]]:
 
 
 CASES = load_cases()
-
-_SUBSCRIPT_DIGITS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
-
-
-def periodictable_spelling(text: str) -> str | None:
-    """The same formula in periodictable's grammar ('+' joins adducts,
-    round brackets only), or None where periodictable has no spelling
-    (ionic-liquid abbreviations, charges)."""
-    text = text.translate(_SUBSCRIPT_DIGITS).replace("½", "0.5")
-    text = re.sub(r"[·•∙⋅*]", "+", text)
-    # a dot joins adducts where a formula starts right after it ("K2SO4.Al2(SO4)3") or where a
-    # count ends before it and water follows ("CuSO4.5H2O"); elsewhere it is a decimal ("Fe0.95O")
-    text = re.sub(r"\.(?=[A-Z(\[])", "+", text)
-    text = re.sub(r"(?<=[A-Za-z)\]])(\d+)\.(?=\d+(?:\.\d+)?H2O)", r"\1+", text)
-    text = text.replace("[", "(").replace("]", ")")
-    if re.search(r"[a-z]{2}|\s|\^|[+-]$", text):
-        return None
-    return text
-
 
 def _translatable(row: dict[str, str]) -> bool:
     if row["substance_class"] == "ion":

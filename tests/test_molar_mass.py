@@ -24,6 +24,7 @@ import pytest
 from scorer import score_formula
 
 from _builders import formula_piece as _piece
+from _builders import periodictable_spelling
 
 periodictable = pytest.importorskip("periodictable")
 
@@ -73,7 +74,6 @@ def generated_pairs() -> list[tuple[str, str]]:
     return sorted(pairs.items())
 
 
-_SUBSCRIPT_DIGITS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
 
 
 def case_pairs() -> list[tuple[str, str]]:
@@ -86,12 +86,8 @@ def case_pairs() -> list[tuple[str, str]]:
         text = row["formula"]
         if row["substance_class"] == "ion" or re.search(r"[\[\s]", text) and row["substance_class"] == "ionic_liquid_pair":
             continue
-        pt = text.translate(_SUBSCRIPT_DIGITS).replace("½", "0.5")
-        pt = re.sub(r"[·•∙⋅*]", "+", pt)
-        pt = re.sub(r"\.(?=[A-Z(\[])", "+", pt)
-        pt = re.sub(r"(?<=[A-Za-z)\]])(\d+)\.(?=\d+(?:\.\d+)?H2O)", r"\1+", pt)
-        pt = pt.replace("[", "(").replace("]", ")")
-        if re.search(r"[a-z]{2}|\s", pt):
+        pt = periodictable_spelling(text)
+        if pt is None:
             continue
         out.append((text, pt))
     return out
