@@ -42,9 +42,15 @@ __all__ = [
     "provenance_metadata",
     "ENGINES",
     "PARALLEL_MIN_NEW",
+    "TEXT_TYPE",
 ]
 
 _ARROW_TYPES = {"string": pa.string(), "float64": pa.float64(), "int64": pa.int64(), "bool": pa.bool_()}
+# Generated text columns are written dictionary-encoded: most hold a few
+# distinct values (status, classes) or repeat per distinct formula, and a
+# reader gets each text once (pandas: a categorical column).
+TEXT_TYPE = pa.dictionary(pa.int32(), pa.string())
+_OUTPUT_TYPES = dict(_ARROW_TYPES, string=TEXT_TYPE)
 ENGINES = ("local", "dask")
 # Below this many new distinct formulas in a batch, shipping them to worker
 # processes costs more than scoring them here (measured: see pipelines.bench
@@ -132,35 +138,38 @@ class Summary:
         )
 
 
-def _to_arrays(records: list[tuple]) -> list[pa.Array]:
-    """Records (tuples in column order) to one Arrow array per generated column."""
-    generated = output_columns()
-    by_column = list(zip(*records)) if records else [()] * len(generated)
-    arrays = []
-    for column, values in zip(generated, by_column):
-        if column.dtype == "float64":
-            # a NaN score becomes a null cell, as for text columns (v != v only
-            # for NaN; from_pandas=True would do it too but imports pandas)
-            arrays.append(pa.array([None if v is None or v != v else v for v in values], type=pa.float64()))
-        else:
-            arrays.append(pa.array(values, type=_ARROW_TYPES[column.dtype]))
-    return arrays
+def _float_array(values) -> pa.Array:
+    # a NaN score becomes a null cell, as for text columns (v != v only for
+    # NaN; from_pandas=True would do it too but imports pandas)
+    return pa.array([None if v is None or v != v else v for v in values], type=pa.float64())
 
 
 class FormulaCache:
     """Scores of the formulas already seen in this process, kept as one Arrow
     array per generated column (row ``index[formula]``), so a batch's
-    columns are two ``take``s away, whatever its size.
+    columns are one ``take`` away, whatever its size.
 
-    ``None`` is the key of the empty-cell record. Bounded so that a table of
-    ever-new formulas keeps flat memory: when full, the oldest quarter of the
-    entries not needed by the current batch is dropped.
+    Text columns are held dictionary-encoded (:data:`TEXT_TYPE`: each
+    distinct text once, an ``int32`` code per entry), so taking them for a
+    batch copies 4-byte codes instead of the texts: ``value_notes`` alone
+    averages some 350 characters a row. ``None`` is the key of the
+    empty-cell record. Bounded so that a table of ever-new formulas keeps
+    flat memory: when full, the oldest quarter of the entries not needed by
+    the current batch is dropped, and the dictionaries are rebuilt from what
+    is kept.
     """
 
     def __init__(self, max_entries: int = 200_000):
         self.max_entries = max_entries
         self.index: dict = {}
-        self._arrays: list[pa.Array] = _to_arrays([])
+        columns = output_columns()
+        self._text = [c.dtype == "string" for c in columns]
+        self._codes: list[dict | None] = [{} if text else None for text in self._text]
+        self._arrays: list[pa.Array] = [
+            pa.DictionaryArray.from_arrays(pa.array([], pa.int32()), pa.array([], pa.string())) if text
+            else pa.array([], _ARROW_TYPES[c.dtype])
+            for c, text in zip(columns, self._text)
+        ]
         self._pending: list[tuple] = []
 
     def __len__(self) -> int:
@@ -180,11 +189,28 @@ class FormulaCache:
         self._pending.extend(values)
 
     def arrays(self) -> list[pa.Array]:
+        """One array per generated column, one row per cached formula; text
+        columns as ``DictionaryArray``."""
         if self._pending:
-            fresh = _to_arrays(self._pending)
-            self._arrays = [pa.concat_arrays([old, new]) for old, new in zip(self._arrays, fresh)]
+            by_column = list(zip(*self._pending))
             self._pending = []
+            self._arrays = [
+                self._append_text(k, old, values) if codes is not None
+                else pa.concat_arrays([old, _float_array(values) if old.type == pa.float64()
+                                       else pa.array(values, type=old.type)])
+                for k, (old, codes, values) in enumerate(zip(self._arrays, self._codes, by_column))
+            ]
         return self._arrays
+
+    def _append_text(self, k: int, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
+        codes = self._codes[k]
+        grown = len(codes)
+        new_codes = [None if v is None else codes.setdefault(v, len(codes)) for v in values]
+        dictionary = old.dictionary
+        if len(codes) > grown:
+            dictionary = pa.concat_arrays([dictionary, pa.array(list(codes)[grown:], type=pa.string())])
+        indices = pa.concat_arrays([old.indices, pa.array(new_codes, type=pa.int32())])
+        return pa.DictionaryArray.from_arrays(indices, dictionary, safe=False)
 
     def ids(self, formulas) -> list[int]:
         index = self.index
@@ -198,7 +224,18 @@ class FormulaCache:
         kept += others[max(len(others) - max(budget - len(kept), 0), 0):]
         kept.sort(key=self.index.__getitem__)
         rows = pa.array([self.index[f] for f in kept], type=pa.int64())
-        self._arrays = [a.take(rows) for a in arrays]
+        self._arrays = []
+        for k, array in enumerate(arrays):
+            array = array.take(rows)
+            if self._codes[k] is not None:
+                # drop the texts no kept entry uses, so the dictionaries stay bounded too
+                values = array.to_pylist()
+                codes = self._codes[k] = {}
+                array = pa.DictionaryArray.from_arrays(
+                    pa.array([None if v is None else codes.setdefault(v, len(codes)) for v in values], pa.int32()),
+                    pa.array(list(codes), type=pa.string()), safe=False,
+                )
+            self._arrays.append(array)
         self.index = {f: i for i, f in enumerate(kept)}
 
 
@@ -336,7 +373,7 @@ def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = 
     melting-model columns when a model is applied)."""
     columns = _generated_columns(with_model)
     names = generated_names(input_schema.names, prefix, with_model)
-    fields = list(input_schema) + [pa.field(name, _ARROW_TYPES[c.dtype]) for name, c in zip(names, columns)]
+    fields = list(input_schema) + [pa.field(name, _OUTPUT_TYPES[c.dtype]) for name, c in zip(names, columns)]
     return pa.schema(fields)
 
 
@@ -373,8 +410,8 @@ class ModelApplier:
             pa.array([None if r[k] is None or r[k] != r[k] else float(r[k]) for r in rows], type=pa.float64())
             for k in range(len(self.names))
         ]
-        status = pa.array([r[-2] for r in rows], type=pa.string())
-        message = pa.array([r[-1] for r in rows], type=pa.string())
+        status = pc.dictionary_encode(pa.array([r[-2] for r in rows], type=pa.string()))
+        message = pc.dictionary_encode(pa.array([r[-1] for r in rows], type=pa.string()))
         return model_arrays, status, message
 
 
@@ -425,9 +462,11 @@ def _name_failed_rows(columns: list, batch: pa.RecordBatch, name_col: str, first
     if not pa.types.is_string(row_names.type):
         row_names = pc.cast(row_names, pa.string())
     row_names = pc.fill_null(row_names, "")
-    failed = pc.and_(pc.equal(columns[status_at], "error"), pc.not_equal(row_names, ""))
-    labelled = pc.binary_join_element_wise(pc.fill_null(columns[message_at], ""), " (row named '", row_names, "')", "")
-    columns[message_at] = pc.if_else(failed, labelled, columns[message_at])
+    status = columns[status_at].dictionary_decode()
+    message = columns[message_at].dictionary_decode()
+    failed = pc.and_(pc.equal(status, "error"), pc.not_equal(row_names, ""))
+    labelled = pc.binary_join_element_wise(pc.fill_null(message, ""), " (row named '", row_names, "')", "")
+    columns[message_at] = pc.dictionary_encode(pc.if_else(failed, labelled, message))
 
 
 def _count_status(summary: Summary, batch: pa.RecordBatch, status_name: str) -> None:

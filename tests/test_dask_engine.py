@@ -55,6 +55,11 @@ def parts(tmp_path):
     return folder
 
 
+def _decoded(table: pa.Table) -> pa.Table:
+    return pa.table({name: column.cast(pa.string()) if pa.types.is_dictionary(column.type) else column
+                     for name, column in zip(table.column_names, table.columns)})
+
+
 def _local(input_path, out_path):
     score_file(ScoreConfig(input=str(input_path), output=str(out_path), quiet=True, workers=1))
     return pq.read_table(out_path)
@@ -69,7 +74,9 @@ def test_parquet_parts_on_two_workers_match_the_local_engine(parts, tmp_path, cl
     assert out.is_dir() and sorted(os.listdir(out))[0] == "part-000000.parquet"
     result = pq.read_table(out)
     assert result.schema.equals(local.schema, check_metadata=False)
-    assert result.equals(local)
+    # text columns are dictionary-encoded; each engine builds its own
+    # dictionaries, so the values are compared, not the encodings
+    assert _decoded(result).equals(_decoded(local))
     assert summary.rows == 2500 and summary.rows == summary.ok + summary.warning + summary.error
     local_summary = score_file(str(parts), str(tmp_path / "again.csv"), quiet=True)
     assert (summary.ok, summary.warning, summary.error, summary.distinct_formulas) == (
@@ -88,7 +95,7 @@ def test_csv_on_the_default_local_cluster_matches_the_local_engine(tmp_path):
     local = _local(src, tmp_path / "local.parquet")
     out = tmp_path / "dask_out"
     assert main(["score", str(src), "-o", str(out), "--engine", "dask", "--workers", "2", "--quiet"]) == 0
-    assert pq.read_table(out).equals(local)
+    assert _decoded(pq.read_table(out)).equals(_decoded(local))
 
 
 def test_overwrite_replaces_a_previous_dataset(parts, tmp_path, cluster):
