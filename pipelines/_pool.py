@@ -11,22 +11,21 @@ import os
 import signal
 
 from scorer.columns import column_names
-from scorer.record import score_formula
+from scorer.record import score_formula, score_row
 
-__all__ = ["score_values", "warm_up", "default_workers"]
+__all__ = ["score_values", "warm_up", "default_workers", "ready"]
 
 
 def score_values(texts: list) -> list[tuple]:
     """Score formulas; one tuple of values per formula, in
     :func:`scorer.columns.column_names` order."""
-    names = column_names()
     out = []
     for text in texts:
         try:
-            record = score_formula(text)
+            out.append(score_row(text))
         except Exception as exc:  # a scorer bug must not sink the whole table
             record = _failed_record(text, exc)
-        out.append(tuple(record[name] for name in names))
+            out.append(tuple(record[name] for name in column_names()))
     return out
 
 
@@ -40,6 +39,10 @@ def _failed_record(text, exc: Exception) -> dict:
         " (a bug in ionicity; please report it)"
     )
     return record
+
+
+def ready() -> None:
+    """A task that does nothing: submitting one per worker starts them all."""
 
 
 def warm_up() -> None:

@@ -11,22 +11,25 @@ The same :func:`score_batch` runs inside each Dask worker
 """
 from __future__ import annotations
 
+import itertools
 import json
 import math
 import os
 import re
 import sys
 import time
-from concurrent.futures import ProcessPoolExecutor
+from collections import deque
+from concurrent.futures import CancelledError, ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import asdict, dataclass
 
+import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
 from scorer.columns import column_names, output_columns
 
-from pipelines._pool import default_workers, score_values, worker_init
+from pipelines._pool import default_workers, ready, score_values, worker_init
 from pipelines.io import InputError, TableWriter, open_reader
 
 __all__ = [
@@ -57,6 +60,8 @@ ENGINES = ("local", "dask")
 # --calibrate and DEVELOPERS.md, "Benchmarks").
 PARALLEL_MIN_NEW = 256
 _CHUNKS_PER_WORKER = 4
+# batches read and sent for scoring before the oldest is written
+_READ_AHEAD_BATCHES = 8
 _MIN_CHUNK = 32
 _ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
 
@@ -171,6 +176,10 @@ class FormulaCache:
             for c, text in zip(columns, self._text)
         ]
         self._pending: list[tuple] = []
+        self._keys = pa.array([], pa.string())
+        self._pending_keys: list = []
+        # per row, the token of the last scorer that counted it (first_seen)
+        self._marks = np.zeros(0, dtype=np.int64)
 
     def __len__(self) -> int:
         return len(self.index)
@@ -180,13 +189,36 @@ class FormulaCache:
         return [f for f in formulas if f not in index]
 
     def add(self, formulas: list, values: list[tuple], keep=()) -> None:
-        """Store records; ``keep`` lists formulas that must survive eviction."""
+        """Store records; ``keep`` (a list or an Arrow array) holds formulas
+        that must survive eviction."""
         if len(self.index) + len(formulas) > self.max_entries:
-            self._evict(len(formulas), set(keep))
+            self._evict(len(formulas), set(keep.to_pylist() if isinstance(keep, pa.Array) else keep))
         base = len(self.index)
         for offset, text in enumerate(formulas):
             self.index[text] = base + offset
         self._pending.extend(values)
+        self._pending_keys.extend(formulas)
+
+    def keys(self) -> pa.Array:
+        """The cached formulas in row order (a string array; null is the
+        empty-cell record), for ``pyarrow.compute.index_in``."""
+        if self._pending_keys:
+            self._keys = pa.concat_arrays([self._keys, pa.array(self._pending_keys, type=pa.string())])
+            self._marks = np.concatenate([self._marks, np.zeros(len(self._pending_keys), dtype=np.int64)])
+            self._pending_keys = []
+        return self._keys
+
+    def first_seen(self, rows: pa.Array, token: int) -> list:
+        """The formulas at cache ``rows`` not yet marked with ``token``;
+        marks them. A scorer counts the distinct formulas of its run this
+        way without hashing every row's text again."""
+        keys = self.keys()
+        distinct = pc.unique(rows).to_numpy(zero_copy_only=False)
+        fresh = distinct[self._marks[distinct] != token]
+        if not len(fresh):
+            return []
+        self._marks[fresh] = token
+        return keys.take(pa.array(fresh)).to_pylist()
 
     def arrays(self) -> list[pa.Array]:
         """One array per generated column, one row per cached formula; text
@@ -224,6 +256,9 @@ class FormulaCache:
         kept += others[max(len(others) - max(budget - len(kept), 0), 0):]
         kept.sort(key=self.index.__getitem__)
         rows = pa.array([self.index[f] for f in kept], type=pa.int64())
+        self.keys()
+        self._keys = pa.array(kept, type=pa.string())
+        self._marks = self._marks[rows.to_numpy()]
         self._arrays = []
         for k, array in enumerate(arrays):
             array = array.take(rows)
@@ -240,6 +275,7 @@ class FormulaCache:
 
 
 _PROCESS_CACHE = FormulaCache()
+_TOKENS = itertools.count(1)
 
 
 class BatchScorer:
@@ -257,8 +293,13 @@ class BatchScorer:
         self.cache = _PROCESS_CACHE if cache is None else cache
         self.parallel_min_new = PARALLEL_MIN_NEW if parallel_min_new is None else parallel_min_new
         self._pool: ProcessPoolExecutor | None = None
-        self.seen: set[int] = set()
+        self._seen: set[int] = set()
+        self._token = next(_TOKENS)
         self.scored_in_pool = 0
+        # chunks sent to the pool and not collected yet: (sequence number, future, formulas)
+        self._chunks: deque = deque()
+        self._sequence = 0
+        self._in_flight: set = set()
 
     def __enter__(self) -> "BatchScorer":
         return self
@@ -266,10 +307,17 @@ class BatchScorer:
     def __exit__(self, exc_type, exc, tb) -> None:
         self.close(cancel=exc_type is not None)
 
+    @property
+    def distinct_formulas(self) -> int:
+        """Distinct non-blank formulas met so far by this scorer."""
+        return len(self._seen)
+
     def close(self, cancel: bool = False) -> None:
         """Stop the pool; ``cancel`` (after an error or Ctrl-C) stops the
         workers at once rather than letting them finish their chunk."""
         pool, self._pool = self._pool, None
+        self._chunks.clear()
+        self._in_flight.clear()
         if pool is None:
             return
         if cancel:
@@ -290,33 +338,67 @@ class BatchScorer:
             max_workers=self.workers, mp_context=context, initializer=worker_init, initargs=(os.getpid(),)
         )
 
+    def _chunks_of(self, texts: list) -> list[list]:
+        # hydrates and other spellings of one salt side by side, so that they
+        # share a worker's caches
+        texts = sorted(texts, key=_locality_key)
+        size = max(_MIN_CHUNK, math.ceil(len(texts) / (self.workers * _CHUNKS_PER_WORKER)))
+        return [texts[i:i + size] for i in range(0, len(texts), size)]
+
+    def _use_pool(self, count: int) -> bool:
+        # once the pool runs, even a few formulas go there: its workers have
+        # the data tables loaded, this process may not
+        return self.workers >= 2 and (count >= self.parallel_min_new or self._pool is not None)
+
+    def start(self) -> None:
+        """Start the worker pool now (when a large input is sure to need
+        it), so that it starts while this process reads the first batch."""
+        if self.workers < 2 or self._pool is not None:
+            return
+        try:
+            self._pool = self._start_pool()
+            for _ in range(self.workers):
+                self._pool.submit(ready)
+        except (BrokenProcessPool, RuntimeError, OSError):
+            self._fall_back()
+
+    def _fall_back(self) -> None:
+        # a worker died (out of memory, killed): carry on in this process
+        # rather than lose the run
+        pool, self._pool = self._pool, None
+        self.workers = 1
+        if pool is not None:
+            for process in list((getattr(pool, "_processes", None) or {}).values()):
+                process.terminate()
+            pool.shutdown(wait=True, cancel_futures=True)
+
     def _score_new(self, new: list) -> list[tuple]:
-        if self.workers < 2 or len(new) < self.parallel_min_new:
+        """Score ``new`` (strings) now: in the pool when there are enough."""
+        if not self._use_pool(len(new)):
             return score_values(new)
-        order = sorted(range(len(new)), key=lambda i: _locality_key(new[i]))
-        grouped = [new[i] for i in order]
-        size = max(_MIN_CHUNK, math.ceil(len(new) / (self.workers * _CHUNKS_PER_WORKER)))
-        chunks = [grouped[i:i + size] for i in range(0, len(grouped), size)]
+        chunks = self._chunks_of(new)
         try:
             if self._pool is None:
                 self._pool = self._start_pool()
             results = list(self._pool.map(score_values, chunks))
-        except BrokenProcessPool:
-            # a worker died (out of memory, killed): carry on here rather than lose the run
-            self.close(cancel=True)
-            self.workers = 1
+        except (BrokenProcessPool, CancelledError):
+            self._fall_back()
             return score_values(new)
         self.scored_in_pool += len(new)
-        records: list = [None] * len(new)
-        for position, record in zip(order, (r for chunk in results for r in chunk)):
-            records[position] = record
-        return records
+        scored = {text: record for chunk, values in zip(chunks, results) for text, record in zip(chunk, values)}
+        return [scored[text] for text in new]
+
+    def _note_seen(self, formulas) -> None:
+        self._seen.update(hash(f) for f in formulas if f is not None and f.strip())
+
+    def _store(self, texts: list, values: list[tuple], keep) -> None:
+        self.cache.add(texts, values, keep=keep)
 
     def ids(self, formulas: list) -> list[int]:
         """Cache rows for ``formulas`` (distinct; strings, or ``None`` for an
         empty cell), scoring those not seen yet."""
         cache = self.cache
-        self.seen.update(hash(f) for f in formulas if f is not None and f.strip())
+        self._note_seen(formulas)
         new = cache.missing(formulas)
         if new:
             texts = [f for f in new if f is not None]
@@ -331,6 +413,91 @@ class BatchScorer:
         """One array per generated column, one row per entry of ``formulas``."""
         rows = pa.array(self.ids(formulas), type=pa.int64())
         return [a.take(rows) for a in self.cache.arrays()]
+
+    # -- one batch at a time, scoring ahead ----------------------------------------
+
+    def submit(self, formulas: pa.Array) -> "Ticket":
+        """Start scoring the new distinct formulas of one batch (a string
+        array; nulls are empty cells) and return at once; :meth:`rows_of`
+        collects them. Batches must be collected in the order they were
+        submitted. A few new formulas are scored here and now; many go to
+        the worker pool, so that the caller can read and write other batches
+        meanwhile."""
+        missing = pc.is_null(pc.index_in(formulas, value_set=self.cache.keys(), skip_nulls=False))
+        if pc.any(missing).as_py():
+            new = [f for f in pc.unique(formulas.filter(missing)).to_pylist() if f not in self._in_flight]
+            texts = [f for f in new if f is not None]
+            if len(texts) < len(new):
+                self._store([None], score_values([None]), keep=formulas)
+            if texts and not self._use_pool(len(texts)):
+                self._store(texts, score_values(texts), keep=formulas)
+            elif texts:
+                self._send(texts, formulas)
+        return Ticket(formulas, self._sequence)
+
+    def _send(self, texts: list, keep: pa.Array) -> None:
+        try:
+            if self._pool is None:
+                self._pool = self._start_pool()
+            for chunk in self._chunks_of(texts):
+                future = self._pool.submit(score_values, chunk)
+                self._sequence += 1
+                self._chunks.append((self._sequence, future, chunk))
+                self._in_flight.update(chunk)
+        except (BrokenProcessPool, RuntimeError):
+            self._fall_back()
+            # whatever was sent is collected (and rescored here) by rows_of
+            todo = [t for t in texts if t not in self._in_flight]
+            if todo:
+                self._store(todo, score_values(todo), keep=keep)
+
+    def ready(self, ticket: "Ticket") -> bool:
+        """Whether :meth:`rows_of` would return without waiting for the pool."""
+        return all(future.done() for sequence, future, _ in self._chunks if sequence <= ticket.last_chunk)
+
+    def rows_of(self, ticket: "Ticket") -> pa.Array:
+        """Cache row of every entry of a submitted batch, waiting for its
+        formulas (and those of earlier batches) to be scored."""
+        while self._chunks and self._chunks[0][0] <= ticket.last_chunk:
+            _, future, chunk = self._chunks.popleft()
+            try:
+                values = future.result()
+                self.scored_in_pool += len(chunk)
+            except (BrokenProcessPool, CancelledError):
+                self._fall_back()
+                values = score_values(chunk)
+            self._in_flight.difference_update(chunk)
+            self._store(chunk, values, keep=ticket.formulas)
+        keys = self.cache.keys()
+        rows = pc.index_in(ticket.formulas, value_set=keys, skip_nulls=False)
+        if rows.null_count:
+            # evicted from a full cache while the batch waited: score again
+            missing = pc.unique(ticket.formulas.filter(pc.is_null(rows))).to_pylist()
+            texts = [f for f in missing if f is not None]
+            values = self._score_new(texts) if texts else []
+            if len(texts) < len(missing):
+                texts.append(None)
+                values += score_values([None])
+            self._store(texts, values, keep=ticket.formulas)
+            rows = pc.index_in(ticket.formulas, value_set=self.cache.keys(), skip_nulls=False)
+        self._note_seen(self.cache.first_seen(rows, self._token))
+        return rows
+
+
+@dataclass(frozen=True)
+class Ticket:
+    """A batch's formulas handed to :meth:`BatchScorer.submit`."""
+
+    formulas: pa.Array
+    last_chunk: int
+
+
+def formula_array(batch: pa.RecordBatch, formula_col: str) -> pa.Array:
+    """The formula column of a batch as a string array."""
+    formulas = batch.column(batch.schema.get_field_index(formula_col))
+    if not pa.types.is_string(formulas.type):
+        formulas = pc.cast(formulas, pa.string())
+    return formulas
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
@@ -422,27 +589,29 @@ def score_batch(
     scorer: BatchScorer | FormulaCache | None = None,
     name_col: str | None = None,
     model: ModelApplier | None = None,
+    ticket: Ticket | None = None,
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
     ``schema`` is :func:`output_schema` of the batch's schema (it names the
-    generated columns, prefix included).
+    generated columns, prefix included). ``ticket`` is what
+    :meth:`BatchScorer.submit` returned for this batch, when its formulas
+    were sent for scoring ahead of time.
     """
     if not isinstance(scorer, BatchScorer):
         scorer = BatchScorer(1, cache=scorer)
-    formulas = batch.column(batch.schema.get_field_index(formula_col))
-    if not pa.types.is_string(formulas.type):
-        formulas = pc.cast(formulas, pa.string())
-    encoded = pc.dictionary_encode(formulas)
-    distinct = encoded.dictionary.to_pylist()
-    indices = encoded.indices
-    if indices.null_count:
-        distinct.append(None)
-        indices = pc.fill_null(indices, len(distinct) - 1)
-    cache_rows = pa.array(scorer.ids(distinct), type=pa.int64())
-    rows = cache_rows.take(indices)
+    if ticket is None:
+        ticket = scorer.submit(formula_array(batch, formula_col))
+    rows = scorer.rows_of(ticket)
     columns = list(batch.columns) + [a.take(rows) for a in scorer.cache.arrays()]
     if model is not None:
+        encoded = pc.dictionary_encode(ticket.formulas)
+        distinct = encoded.dictionary.to_pylist()
+        indices = encoded.indices
+        if indices.null_count:
+            distinct.append(None)
+            indices = pc.fill_null(indices, len(distinct) - 1)
+        cache_rows = pa.array(scorer.cache.ids(distinct), type=pa.int64())
         model_arrays, status, message = model.columns(distinct, cache_rows, scorer.cache)
         first = len(batch.columns)
         names = column_names()
@@ -595,18 +764,33 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
-    writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths)
+    writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths,
+                         background=True)
     summary = Summary(output=config.output)
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"
     scorer = BatchScorer(config.workers)
+    if _worth_a_pool(reader):
+        scorer.start()
+    waiting: deque = deque()  # (batch, ticket): submitted, not written yet
+
+    def finish() -> None:
+        batch, ticket = waiting.popleft()
+        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket)
+        writer.write(scored)
+        summary.rows += batch.num_rows
+        _count_status(summary, scored, status_name)
+        progress.update(summary.rows)
+
     try:
+        # Read ahead: while the pool scores the new formulas of later
+        # batches, earlier ones are taken from the cache and written.
         for batch in reader.batches:
-            scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model)
-            writer.write(scored)
-            summary.rows += batch.num_rows
-            _count_status(summary, scored, status_name)
-            progress.update(summary.rows)
+            waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))
+            while waiting and (len(waiting) > _READ_AHEAD_BATCHES or scorer.ready(waiting[0][1])):
+                finish()
+        while waiting:
+            finish()
         if summary.rows == 0:
             raise InputError(f"input {config.input!r} has a header but no data rows")
         writer.commit()
@@ -617,9 +801,20 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     finally:
         progress.close()
     scorer.close()
-    summary.distinct_formulas = len(scorer.seen)
+    summary.distinct_formulas = scorer.distinct_formulas
     summary.seconds = time.perf_counter() - started
     return summary
+
+
+def _worth_a_pool(reader) -> bool:
+    """Whether the input is large enough that starting the worker pool
+    before the first batch arrives is worth it (it usually is needed then)."""
+    if reader.total_rows is not None:
+        return reader.total_rows >= 16 * PARALLEL_MIN_NEW
+    try:
+        return os.path.getsize(reader.source) >= 1 << 18
+    except (OSError, TypeError, ValueError):
+        return False
 
 
 def score_table(df, formula_col: str | None = None, *, name_col: str | None = None, prefix: str = "",

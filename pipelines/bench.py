@@ -227,6 +227,7 @@ def formula_caches() -> list:
         ("scorer.record", "_anhydrous_scores"),
         ("scorer.formula", "parse_formula"),
         ("scorer.formula", "_parse_normalised"),
+        ("scorer.formula", "_component"),
         ("scorer.ions", "_decompose"),
         ("scorer.ions", "_assign_monatomic_cached"),
         ("scorer.lattice", "_compute"),

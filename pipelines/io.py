@@ -397,7 +397,12 @@ class TableWriter:
     stdout.
 
     ``metadata`` (str to str) is stored as Parquet key-value metadata; CSV and
-    TSV have nowhere to keep it.
+    TSV have nowhere to keep it. Parquet batches are gathered into row groups
+    of at least ``row_group_rows`` rows. With ``background=True`` the
+    encoding and writing happen in a thread of their own (Arrow releases the
+    GIL while it encodes), so the caller can prepare the next batch
+    meanwhile; an error there is raised by the next :meth:`write` or by
+    :meth:`commit`.
     """
 
     def __init__(
@@ -407,19 +412,30 @@ class TableWriter:
         overwrite: bool = False,
         metadata: dict | None = None,
         inputs: tuple[str, ...] = (),
+        background: bool = False,
+        row_group_rows: int = 1 << 16,
     ):
         self.path = path
         self.fmt = format_of(path) if path != "-" else "csv"
+        self.row_group_rows = row_group_rows
         self._tmp: str | None = None
         self._file = None
+        self._gathered: list[pa.RecordBatch] = []
+        self._gathered_rows = 0
+        self._thread = None
+        self._error: BaseException | None = None
         if path != "-":
             directory = check_output_path(path, overwrite, inputs)
             clean_stale_partials(directory)
             self._tmp = partial_path(directory)
             # os.open honours the umask, unlike mkstemp's 0600
             fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
-            self._file = os.fdopen(fd, "wb")
-            sink = self._file
+            if self.fmt == "parquet":
+                # a native file: Arrow writes it without taking the GIL
+                os.close(fd)
+                self._file = sink = pa.OSFile(self._tmp, mode="wb")
+            else:
+                self._file = sink = os.fdopen(fd, "wb")
         else:
             sink = sys.stdout.buffer
         if metadata and self.fmt == "parquet":
@@ -434,16 +450,73 @@ class TableWriter:
         except BaseException:
             self.abort()
             raise
+        if background:
+            import queue
+            import threading
+
+            self._queue = queue.Queue(maxsize=4)
+            self._thread = threading.Thread(target=self._drain, name="ionicity-writer", daemon=True)
+            self._thread.start()
 
     def write(self, batch: pa.RecordBatch) -> None:
-        self._writer.write_batch(batch) if self.fmt == "parquet" else self._writer.write(batch)
+        if self._thread is None:
+            self._write_now(batch)
+            return
+        if self._error is not None:
+            raise self._error
+        self._queue.put(batch)
+
+    def _drain(self) -> None:
+        while True:
+            batch = self._queue.get()
+            if batch is None:
+                return
+            if self._error is None:
+                try:
+                    self._write_now(batch)
+                except BaseException as exc:  # raised again in the caller's thread
+                    self._error = exc
+
+    def _stop_thread(self) -> None:
+        thread, self._thread = self._thread, None
+        if thread is not None:
+            self._queue.put(None)
+            thread.join()
+
+    def _write_now(self, batch: pa.RecordBatch) -> None:
+        if self.fmt != "parquet":
+            self._writer.write(batch)
+            return
+        self._gathered.append(batch)
+        self._gathered_rows += batch.num_rows
+        if self._gathered_rows >= self.row_group_rows:
+            self._flush()
+
+    def _flush(self) -> None:
+        if self._gathered:
+            table = pa.Table.from_batches(self._gathered, schema=self.schema)
+            self._gathered, self._gathered_rows = [], 0
+            self._writer.write_table(table, row_group_size=max(table.num_rows, 1))
 
     def commit(self) -> None:
+        self._stop_thread()
+        if self._error is not None:
+            raise self._error
+        if self.fmt == "parquet":
+            self._flush()
         self._writer.close()
         if self._tmp is not None:
             self._file.flush()
-            os.fsync(self._file.fileno())
-            self._file.close()
+            if isinstance(self._file, pa.NativeFile):
+                self._file.close()
+                fd = os.open(self._tmp, os.O_RDONLY)
+                try:
+                    os.fsync(fd)
+                finally:
+                    os.close(fd)
+            else:
+                os.fsync(self._file.fileno())
+                self._file.close()
             os.replace(self._tmp, self.path)
             self._tmp = None
         else:
@@ -451,13 +524,15 @@ class TableWriter:
 
     def abort(self) -> None:
         try:
-            self._writer.close()
-        except Exception:  # the original error matters, not this one
+            self._stop_thread()
+        except BaseException:  # the original error matters, not this one
             pass
-        if self._file is not None:
-            try:
-                self._file.close()
-            except Exception:
-                pass
+        self._gathered = []
+        for closable in (getattr(self, "_writer", None), self._file):
+            if closable is not None:
+                try:
+                    closable.close()
+                except Exception:
+                    pass
         _remove(self._tmp)
         self._tmp = None

@@ -64,6 +64,7 @@ _MINUS_SIGNS = "−–—‐‑"
 _OPEN = {"(": ")", "[": "]", "{": "}"}
 _CLOSE = {v: k for k, v in _OPEN.items()}
 _NUMBER = re.compile(r"\d+(?:\.\d+)?")
+_SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
 # adduct and not as the decimal count "2.2".
 _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
@@ -161,7 +162,10 @@ class Composition:
 
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
-    text = re.sub(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])", "*", text)
+    text = _SPACED_TIMES.sub("*", text)
+    if text.isascii():
+        # no superscripts, subscripts, dots, dashes or compatibility forms
+        return "".join(text.split())
     text = text.replace("½", "0.5").replace("¼", "0.25").replace("¾", "0.75")
     out = []
     i = 0
@@ -436,6 +440,14 @@ def _parse_component(text: str, allow_ion_refs: bool = True) -> tuple[dict[str, 
 
 
 @lru_cache(maxsize=65536)
+def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[str, float], ...]]:
+    """(element counts, ion references) of one adduct component, cached: the
+    salt part of every hydrate and spelling of a salt is read once."""
+    counts, parser = _parse_component(text)
+    return tuple(counts.items()), tuple(parser.ion_refs)
+
+
+@lru_cache(maxsize=65536)
 def parse_formula(text: str) -> Composition:
     """Parse formula text into a :class:`Composition`.
 
@@ -532,18 +544,19 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
             component = component[m.end():]
             if not component:
                 raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
-        counts, parser = _parse_component(component)
+        counted, ion_refs = _component(component)
+        counts = dict(counted)
         water += counts.pop(_WATER, 0.0) * multiplier
-        if not counts and not parser.ion_refs and not water:
+        if not counts and not ion_refs and not water:
             raise FormulaError(f"no elements in {component!r}")
-        if index > 0 and counts == {"H": 2.0, "O": 1.0} and not parser.ion_refs:
+        if index > 0 and counts == {"H": 2.0, "O": 1.0} and not ion_refs:
             water += multiplier
             continue
         key = tuple(sorted(counts.items()))
-        if index > 0 and key in _NEUTRAL_ADDUCTS and not parser.ion_refs:
+        if index > 0 and key in _NEUTRAL_ADDUCTS and not ion_refs:
             name = _NEUTRAL_ADDUCTS[key]
             adducts[name] = adducts.get(name, 0.0) + multiplier
-        for ion_id, n in parser.ion_refs:
+        for ion_id, n in ion_refs:
             from scorer import ion_library
 
             hints[ion_id] = hints.get(ion_id, 0.0) + n * multiplier

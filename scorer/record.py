@@ -12,12 +12,13 @@ from scorer.model import Decomposition, IonTerm, RowWarning
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
-__all__ = ["score_formula", "score_composition", "normalized_formula", "molar_mass_g_mol", "empty_record"]
+__all__ = ["score_formula", "score_row", "score_composition", "normalized_formula", "molar_mass_g_mol", "empty_record"]
 
 
 def empty_record() -> dict:
     """A record with every column empty: NaN for numbers, None for text."""
-    return {c.name: (math.nan if c.dtype == "float64" else None) for c in output_columns()}
+    names, _, empty = _layout()
+    return dict(zip(names, empty))
 
 
 def molar_mass_g_mol(counts: dict[str, float]) -> float:
@@ -121,29 +122,51 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     return values, tuple(warnings), tuple(gaps), normalized_formula(comp, dec)
 
 
+@lru_cache(maxsize=None)
+def _layout() -> tuple[tuple[str, ...], dict[str, int], tuple]:
+    """Column names, their positions and the empty row (NaN / None)."""
+    columns = output_columns()
+    names = tuple(c.name for c in columns)
+    empty = tuple(math.nan if c.dtype == "float64" else None for c in columns)
+    return names, {n: i for i, n in enumerate(names)}, empty
+
+
 def score_composition(comp: Composition) -> dict:
     """Score a parsed composition; see :func:`score_formula`."""
+    return dict(zip(_layout()[0], _composition_row(comp)))
+
+
+def _composition_row(comp: Composition) -> tuple:
     values, warnings, gaps, formula = _anhydrous_scores(
         comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
     )
-    record = empty_record()
-    record.update(values)
+    _, position, empty = _layout()
+    row = list(empty)
+    for name, value in values.items():
+        row[position[name]] = value
     notes = [RowWarning(n) for n in comp.notes] + list(warnings)
-    gaps = list(gaps)
     water = comp.hydrate_water
     if water and values["substance_class"] in _IONIC_CLASSES:
-        gaps.insert(0, (
+        gaps = (
             f"descriptors are for the anhydrous salt ({format_count(water)} H2O of lattice water"
-            " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)"
-        ))
-    record["formula_normalized"] = formula + _water_suffix(water)
-    record["hydrate_water"] = float(water)
-    record["molar_mass_g_mol"] = molar_mass_g_mol(comp.total_counts)
+            " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)",
+        ) + gaps
+    row[position["formula_normalized"]] = formula + _water_suffix(water)
+    row[position["hydrate_water"]] = float(water)
+    row[position["molar_mass_g_mol"]] = molar_mass_g_mol(comp.total_counts)
     error = values["substance_class"] == "unknown"
-    record["status"] = "error" if error else ("warning" if notes else "ok")
-    record["message"] = "; ".join(dict.fromkeys(notes))
-    record["value_notes"] = "; ".join(dict.fromkeys(gaps))
-    return record
+    row[position["status"]] = "error" if error else ("warning" if notes else "ok")
+    row[position["message"]] = "; ".join(dict.fromkeys(notes))
+    row[position["value_notes"]] = "; ".join(dict.fromkeys(gaps))
+    return tuple(row)
+
+
+def _error_row(message: str) -> tuple:
+    _, position, empty = _layout()
+    row = list(empty)
+    row[position["status"]] = "error"
+    row[position["message"]] = message
+    return tuple(row)
 
 
 @lru_cache(maxsize=65536)
@@ -151,11 +174,25 @@ def _score_text(text: str) -> tuple:
     try:
         comp = parse_formula(text)
     except FormulaError as exc:
-        record = empty_record()
-        record["status"] = "error"
-        record["message"] = str(exc)
-        return tuple(record.items())
-    return tuple(score_composition(comp).items())
+        return _error_row(str(exc))
+    return _composition_row(comp)
+
+
+def score_row(text) -> tuple:
+    """:func:`score_formula` as a tuple of values in
+    :func:`scorer.columns.column_names` order (what batch engines store)."""
+    if text is None or (isinstance(text, float) and math.isnan(text)):
+        return _error_row("empty formula cell")
+    if isinstance(text, (bytes, bytearray)):
+        try:
+            text = bytes(text).decode("utf-8")
+        except UnicodeDecodeError:
+            return _error_row("the cell holds bytes that are not UTF-8 text")
+    elif not isinstance(text, str):
+        text = str(text)
+    if not text.strip():
+        return _error_row("empty formula cell")
+    return _score_text(text)
 
 
 def score_formula(text) -> dict:
@@ -182,21 +219,4 @@ def score_formula(text) -> dict:
     >>> score_formula("Xx2O")["message"]
     "unknown element 'Xx' at position 1 of 'Xx2O'"
     """
-    if text is None or (isinstance(text, float) and math.isnan(text)):
-        record = empty_record()
-        record.update(status="error", message="empty formula cell")
-        return record
-    if isinstance(text, (bytes, bytearray)):
-        try:
-            text = bytes(text).decode("utf-8")
-        except UnicodeDecodeError:
-            record = empty_record()
-            record.update(status="error", message="the cell holds bytes that are not UTF-8 text")
-            return record
-    elif not isinstance(text, str):
-        text = str(text)
-    if not text.strip():
-        record = empty_record()
-        record.update(status="error", message="empty formula cell")
-        return record
-    return dict(_score_text(text))
+    return dict(zip(_layout()[0], score_row(text)))

@@ -126,7 +126,7 @@ def test_each_distinct_formula_is_scored_once(monkeypatch):
     for batch in table.to_batches(max_chunksize=40):
         score_batch(batch, "formula", schema, scorer)
     assert sorted(c for c in calls if c is not None) == ["KCl", "MgO", "NaCl"]
-    assert len(scorer.seen) == 3
+    assert scorer.distinct_formulas == 3
 
 
 def test_pool_gives_the_same_records_as_in_process():
@@ -153,14 +153,14 @@ def test_cache_stays_bounded_and_keeps_what_a_batch_needs():
 
 
 def test_a_scorer_bug_marks_the_row_and_the_run_goes_on(monkeypatch):
-    real = pool_module.score_formula
+    real = pool_module.score_row
 
     def flaky(text):
         if text == "KCl":
             raise RuntimeError("boom")
         return real(text)
 
-    monkeypatch.setattr(pool_module, "score_formula", flaky)
+    monkeypatch.setattr(pool_module, "score_row", flaky)
     monkeypatch.setattr("pipelines.batch._PROCESS_CACHE", FormulaCache())
     out = score_table(pd.DataFrame({"formula": ["NaCl", "KCl"]}), workers=1)
     assert out["status"].tolist() == ["ok", "error"]
