@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import itertools
 import json
+import zlib
 import math
 import os
 import re
@@ -62,6 +63,10 @@ PARALLEL_MIN_NEW = 256
 _CHUNKS_PER_WORKER = 4
 # batches read and sent for scoring before the oldest is written
 _READ_AHEAD_BATCHES = 8
+_FIRST_SLICE_ROWS = 4096
+# Parquet min/max statistics skip these free-text columns: no filter would
+# use them, and they cost a tenth of the write
+_NO_STATISTICS = ("message", "value_notes", "formula_normalized", "cations", "anions", "oxidation_states")
 _MIN_CHUNK = 32
 _ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
 
@@ -281,10 +286,14 @@ _TOKENS = itertools.count(1)
 class BatchScorer:
     """Scores the distinct formulas of each batch, once each per process.
 
-    New formulas go to a pool of ``workers`` processes when a batch brings at
-    least :data:`PARALLEL_MIN_NEW` of them; fewer are scored in-process. The
-    pool is started on first need and reused for every later batch; use the
-    scorer as a context manager (or call :meth:`close`) to stop it.
+    New formulas go to ``workers`` worker processes when a batch brings at
+    least :data:`PARALLEL_MIN_NEW` of them (or when the workers run
+    already); fewer are scored in-process. Each formula goes to the worker
+    chosen by its salt part (the text before any hydrate dot), so that the
+    hydrates and spellings of one salt meet that worker's caches and the
+    salt is resolved once, not once per worker. The workers start on first
+    need (or :meth:`start`) and serve every later batch; use the scorer as a
+    context manager (or call :meth:`close`) to stop them.
     """
 
     def __init__(self, workers: int | None = None, cache: FormulaCache | None = None,
@@ -292,11 +301,13 @@ class BatchScorer:
         self.workers = default_workers() if workers is None else max(int(workers), 1)
         self.cache = _PROCESS_CACHE if cache is None else cache
         self.parallel_min_new = PARALLEL_MIN_NEW if parallel_min_new is None else parallel_min_new
-        self._pool: ProcessPoolExecutor | None = None
+        # one single-process executor per worker, so that a task can be
+        # sent to a chosen worker
+        self._pools: list[ProcessPoolExecutor] = []
         self._seen: set[int] = set()
         self._token = next(_TOKENS)
         self.scored_in_pool = 0
-        # chunks sent to the pool and not collected yet: (sequence number, future, formulas)
+        # chunks sent to the workers and not collected yet: (sequence number, future, formulas)
         self._chunks: deque = deque()
         self._sequence = 0
         self._in_flight: set = set()
@@ -313,79 +324,80 @@ class BatchScorer:
         return len(self._seen)
 
     def close(self, cancel: bool = False) -> None:
-        """Stop the pool; ``cancel`` (after an error or Ctrl-C) stops the
-        workers at once rather than letting them finish their chunk."""
-        pool, self._pool = self._pool, None
+        """Stop the workers; ``cancel`` (after an error or Ctrl-C) stops them
+        at once rather than letting them finish their chunk."""
+        pools, self._pools = self._pools, []
         self._chunks.clear()
         self._in_flight.clear()
-        if pool is None:
-            return
         if cancel:
             # a worker still starting up when the parent exits would print a
             # traceback about its vanished semaphores; stop them first
-            for process in list((getattr(pool, "_processes", None) or {}).values()):
-                process.terminate()
-        pool.shutdown(wait=True, cancel_futures=True)
+            for pool in pools:
+                for process in list((getattr(pool, "_processes", None) or {}).values()):
+                    process.terminate()
+        for pool in pools:
+            pool.shutdown(wait=True, cancel_futures=True)
 
-    def _start_pool(self) -> ProcessPoolExecutor:
+    def _start_pools(self) -> list[ProcessPoolExecutor]:
+        if self._pools:
+            return self._pools
         import multiprocessing
 
         methods = multiprocessing.get_all_start_methods()
         context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
         if context.get_start_method() == "forkserver":
             context.set_forkserver_preload(["pipelines._pool"])
-        return ProcessPoolExecutor(
-            max_workers=self.workers, mp_context=context, initializer=worker_init, initargs=(os.getpid(),)
-        )
-
-    def _chunks_of(self, texts: list) -> list[list]:
-        # hydrates and other spellings of one salt side by side, so that they
-        # share a worker's caches
-        texts = sorted(texts, key=_locality_key)
-        size = max(_MIN_CHUNK, math.ceil(len(texts) / (self.workers * _CHUNKS_PER_WORKER)))
-        return [texts[i:i + size] for i in range(0, len(texts), size)]
+        self._pools = [
+            ProcessPoolExecutor(max_workers=1, mp_context=context, initializer=worker_init, initargs=(os.getpid(),))
+            for _ in range(self.workers)
+        ]
+        return self._pools
 
     def _use_pool(self, count: int) -> bool:
-        # once the pool runs, even a few formulas go there: its workers have
-        # the data tables loaded, this process may not
-        return self.workers >= 2 and (count >= self.parallel_min_new or self._pool is not None)
+        # once the workers run, even a few formulas go there: they have the
+        # data tables loaded, this process may not
+        return self.workers >= 2 and (count >= self.parallel_min_new or bool(self._pools))
 
     def start(self) -> None:
-        """Start the worker pool now (when a large input is sure to need
-        it), so that it starts while this process reads the first batch."""
-        if self.workers < 2 or self._pool is not None:
+        """Start the workers now (when a large input is sure to need them),
+        so that they start while this process reads the first batch."""
+        if self.workers < 2 or self._pools:
             return
         try:
-            self._pool = self._start_pool()
-            for _ in range(self.workers):
-                self._pool.submit(ready)
+            for pool in self._start_pools():
+                pool.submit(ready)
         except (BrokenProcessPool, RuntimeError, OSError):
             self._fall_back()
 
     def _fall_back(self) -> None:
         # a worker died (out of memory, killed): carry on in this process
         # rather than lose the run
-        pool, self._pool = self._pool, None
+        self.close(cancel=True)
         self.workers = 1
-        if pool is not None:
-            for process in list((getattr(pool, "_processes", None) or {}).values()):
-                process.terminate()
-            pool.shutdown(wait=True, cancel_futures=True)
+
+    def _assign(self, texts: list) -> list[tuple[int, list]]:
+        """(worker, chunk) pairs: each text to the worker of its salt part,
+        in chunks small enough that results flow back while others run."""
+        groups: list[list] = [[] for _ in range(self.workers)]
+        for text in sorted(texts, key=_locality_key):
+            groups[zlib.crc32(_locality_key(text)[0].encode("utf-8", "surrogatepass")) % self.workers].append(text)
+        size = max(_MIN_CHUNK, math.ceil(len(texts) / (self.workers * _CHUNKS_PER_WORKER)))
+        return [(worker, group[i:i + size]) for worker, group in enumerate(groups) for i in range(0, len(group), size)]
 
     def _score_new(self, new: list) -> list[tuple]:
-        """Score ``new`` (strings) now: in the pool when there are enough."""
+        """Score ``new`` (strings) now: in the workers when there are enough."""
         if not self._use_pool(len(new)):
             return score_values(new)
-        chunks = self._chunks_of(new)
         try:
-            if self._pool is None:
-                self._pool = self._start_pool()
-            results = list(self._pool.map(score_values, chunks))
-        except (BrokenProcessPool, CancelledError):
+            pools = self._start_pools()
+            futures = [(pools[worker].submit(score_values, chunk), chunk) for worker, chunk in self._assign(new)]
+            scored = {}
+            for future, chunk in futures:
+                scored.update(zip(chunk, future.result()))
+        except (BrokenProcessPool, CancelledError, RuntimeError):
             self._fall_back()
             return score_values(new)
         self.scored_in_pool += len(new)
-        scored = {text: record for chunk, values in zip(chunks, results) for text, record in zip(chunk, values)}
         return [scored[text] for text in new]
 
     def _note_seen(self, formulas) -> None:
@@ -437,19 +449,16 @@ class BatchScorer:
 
     def _send(self, texts: list, keep: pa.Array) -> None:
         try:
-            if self._pool is None:
-                self._pool = self._start_pool()
-            for chunk in self._chunks_of(texts):
-                future = self._pool.submit(score_values, chunk)
+            pools = self._start_pools()
+            for worker, chunk in self._assign(texts):
+                future = pools[worker].submit(score_values, chunk)
                 self._sequence += 1
                 self._chunks.append((self._sequence, future, chunk))
                 self._in_flight.update(chunk)
         except (BrokenProcessPool, RuntimeError):
             self._fall_back()
-            # whatever was sent is collected (and rescored here) by rows_of
-            todo = [t for t in texts if t not in self._in_flight]
-            if todo:
-                self._store(todo, score_values(todo), keep=keep)
+            # what was sent is dropped with the workers; score it all here
+            self._store(texts, score_values(texts), keep=keep)
 
     def ready(self, ticket: "Ticket") -> bool:
         """Whether :meth:`rows_of` would return without waiting for the pool."""
@@ -764,8 +773,9 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
+    no_statistics = {config.prefix + name for name in _NO_STATISTICS}
     writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths,
-                         background=True)
+                         background=True, statistics=[n for n in schema.names if n not in no_statistics])
     summary = Summary(output=config.output)
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"
@@ -785,7 +795,7 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     try:
         # Read ahead: while the pool scores the new formulas of later
         # batches, earlier ones are taken from the cache and written.
-        for batch in reader.batches:
+        for batch in _slices(reader.batches, config.batch_rows):
             waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))
             while waiting and (len(waiting) > _READ_AHEAD_BATCHES or scorer.ready(waiting[0][1])):
                 finish()
@@ -804,6 +814,20 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     summary.distinct_formulas = scorer.distinct_formulas
     summary.seconds = time.perf_counter() - started
     return summary
+
+
+def _slices(batches, batch_rows: int):
+    """The input's first rows in small slices, doubling up to ``batch_rows``:
+    the first results are ready (and written) while the workers score the
+    rest."""
+    size = min(_FIRST_SLICE_ROWS, batch_rows)
+    for batch in batches:
+        offset = 0
+        while offset < batch.num_rows:
+            n = min(size, batch.num_rows - offset)
+            yield batch.slice(offset, n) if n < batch.num_rows else batch
+            offset += n
+            size = min(size * 2, batch_rows)
 
 
 def _worth_a_pool(reader) -> bool:

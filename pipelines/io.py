@@ -402,7 +402,8 @@ class TableWriter:
     encoding and writing happen in a thread of their own (Arrow releases the
     GIL while it encodes), so the caller can prepare the next batch
     meanwhile; an error there is raised by the next :meth:`write` or by
-    :meth:`commit`.
+    :meth:`commit`. ``statistics`` names the Parquet columns that get
+    min/max statistics (default: all).
     """
 
     def __init__(
@@ -414,6 +415,7 @@ class TableWriter:
         inputs: tuple[str, ...] = (),
         background: bool = False,
         row_group_rows: int = 1 << 16,
+        statistics: list[str] | None = None,
     ):
         self.path = path
         self.fmt = format_of(path) if path != "-" else "csv"
@@ -443,7 +445,7 @@ class TableWriter:
         self.schema = schema
         try:
             if self.fmt == "parquet":
-                self._writer = pq.ParquetWriter(sink, schema)
+                self._writer = pq.ParquetWriter(sink, schema, write_statistics=True if statistics is None else statistics)
             else:
                 delimiter = "\t" if self.fmt == "tsv" else ","
                 self._writer = pacsv.CSVWriter(sink, schema, write_options=pacsv.WriteOptions(delimiter=delimiter))
