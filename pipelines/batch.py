@@ -64,9 +64,7 @@ _CHUNKS_PER_WORKER = 4
 # batches read and sent for scoring before the oldest is written
 _READ_AHEAD_BATCHES = 8
 _FIRST_SLICE_ROWS = 4096
-# Parquet min/max statistics skip these free-text columns: no filter would
-# use them, and they cost a tenth of the write
-_NO_STATISTICS = ("message", "value_notes", "formula_normalized", "cations", "anions", "oxidation_states")
+
 _MIN_CHUNK = 32
 _ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
 
@@ -174,7 +172,6 @@ class FormulaCache:
         self.index: dict = {}
         columns = output_columns()
         self._text = [c.dtype == "string" for c in columns]
-        self._codes: list[dict | None] = [{} if text else None for text in self._text]
         self._arrays: list[pa.Array] = [
             pa.DictionaryArray.from_arrays(pa.array([], pa.int32()), pa.array([], pa.string())) if text
             else pa.array([], _ARROW_TYPES[c.dtype])
@@ -232,22 +229,21 @@ class FormulaCache:
             by_column = list(zip(*self._pending))
             self._pending = []
             self._arrays = [
-                self._append_text(k, old, values) if codes is not None
+                self._append_text(old, values) if text
                 else pa.concat_arrays([old, _float_array(values) if old.type == pa.float64()
                                        else pa.array(values, type=old.type)])
-                for k, (old, codes, values) in enumerate(zip(self._arrays, self._codes, by_column))
+                for old, text, values in zip(self._arrays, self._text, by_column)
             ]
         return self._arrays
 
-    def _append_text(self, k: int, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
-        codes = self._codes[k]
-        grown = len(codes)
-        new_codes = [None if v is None else codes.setdefault(v, len(codes)) for v in values]
+    def _append_text(self, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
+        texts = pa.array(values, type=pa.string())
         dictionary = old.dictionary
-        if len(codes) > grown:
-            dictionary = pa.concat_arrays([dictionary, pa.array(list(codes)[grown:], type=pa.string())])
-        indices = pa.concat_arrays([old.indices, pa.array(new_codes, type=pa.int32())])
-        return pa.DictionaryArray.from_arrays(indices, dictionary, safe=False)
+        unseen = pc.unique(texts.filter(pc.is_null(pc.index_in(texts, value_set=dictionary)))).drop_null()
+        if len(unseen):
+            dictionary = pa.concat_arrays([dictionary, unseen])
+        codes = pc.index_in(texts, value_set=dictionary)  # null stays null
+        return pa.DictionaryArray.from_arrays(pa.concat_arrays([old.indices, codes]), dictionary, safe=False)
 
     def ids(self, formulas) -> list[int]:
         index = self.index
@@ -267,14 +263,9 @@ class FormulaCache:
         self._arrays = []
         for k, array in enumerate(arrays):
             array = array.take(rows)
-            if self._codes[k] is not None:
+            if self._text[k]:
                 # drop the texts no kept entry uses, so the dictionaries stay bounded too
-                values = array.to_pylist()
-                codes = self._codes[k] = {}
-                array = pa.DictionaryArray.from_arrays(
-                    pa.array([None if v is None else codes.setdefault(v, len(codes)) for v in values], pa.int32()),
-                    pa.array(list(codes), type=pa.string()), safe=False,
-                )
+                array = pc.dictionary_encode(array.dictionary_decode())
             self._arrays.append(array)
         self.index = {f: i for i, f in enumerate(kept)}
 
@@ -773,9 +764,12 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
-    no_statistics = {config.prefix + name for name in _NO_STATISTICS}
+    # Parquet min/max statistics for the input and the numeric columns only:
+    # on generated text (free text, or a few labels found in every row group)
+    # no reader could skip a row group by them, and they cost a fifth of the write
+    statistics = [f.name for f in schema if not pa.types.is_dictionary(f.type)]
     writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths,
-                         background=True, statistics=[n for n in schema.names if n not in no_statistics])
+                         background=True, statistics=statistics)
     summary = Summary(output=config.output)
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"

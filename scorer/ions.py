@@ -227,10 +227,14 @@ def _monatomic_options(symbol: str, count: float):
 
 @lru_cache(maxsize=65536)
 def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float):
-    """All charge-balanced monatomic assignments with penalty <= cap.
+    """The best charge-balanced monatomic assignments with penalty <= cap.
 
-    A depth-first walk over the elements with the reachable charge range of
-    the elements still to assign as the bound. Returns a tuple of
+    "Best" counts each species as the caller does (penalty plus
+    ``_PENALTY_SPECIES`` per species): only the assignments within tolerance
+    of the lowest such cost are returned, since the caller's cost of a
+    reading differs from it by a constant. A depth-first walk over the
+    elements, bounded by the reachable charge range of the elements still to
+    assign and by that lowest cost so far. Returns a tuple of
     (penalty, ((symbol, state, count), ...)).
     """
     symbols = [s for s, n in remaining if n > _TOL]
@@ -257,17 +261,28 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
         lows[i] = lows[i + 1] + min(lo for lo, _ in spans)
         highs[i] = highs[i + 1] + max(hi for _, hi in spans)
     out = []
+    # lowest penalty + _PENALTY_SPECIES * species of a complete assignment so far
+    best = [float("inf")]
+    count = len(symbols)
+
+    def keep(penalty, terms):
+        total = penalty + _PENALTY_SPECIES * len(terms)
+        if total <= best[0] + _TOL:
+            best[0] = min(best[0], total)
+            out.append((penalty, terms))
 
     def walk(i, charge, penalty, picked, mixed):
         if penalty > cap + _TOL:
+            return
+        if penalty + _PENALTY_SPECIES * (len(picked) + count - i + (2 if mixed else 0)) > best[0] + _TOL:
             return
         rest = needed - charge
         if mixed is None and (rest < lows[i] - _TOL or rest > highs[i] + _TOL):
             return
         if i == len(symbols):
             if mixed is None:
-                if abs(rest) < _TOL:
-                    out.append((penalty, tuple(picked)))
+                if abs(rest) < _TOL and not with_mixed[0]:
+                    keep(penalty, tuple(picked))
                 return
             symbol, n, (s1, s2) = mixed
             # x ions at s1 and n - x at s2 carry the residual charge
@@ -276,7 +291,7 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
             if stoichiometric and abs(x - round(x)) > _TOL:
                 extra = _PENALTY_FRACTIONAL_SPLIT
             if _TOL < x < n - _TOL and penalty + extra <= cap + _TOL:
-                out.append((penalty + extra, tuple(picked) + ((symbol, s1, round(x, 9)), (symbol, s2, round(n - x, 9)))))
+                keep(penalty + extra, tuple(picked) + ((symbol, s1, round(x, 9)), (symbol, s2, round(n - x, 9))))
             return
         symbol = symbols[i]
         n = counts[symbol]
@@ -284,7 +299,7 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
             kind, state, option_penalty = option
             if kind == "single":
                 walk(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
-            elif mixed is None:
+            elif mixed is None and with_mixed[0]:
                 # the split element's charge is settled at the end; bound with its range
                 walk_mixed(i, charge, penalty + option_penalty, picked, (symbol, n, state))
 
@@ -299,6 +314,12 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
     def walk_rest(i, charge, penalty, picked, mixed):
         if penalty > cap + _TOL:
             return
+        if penalty + _PENALTY_SPECIES * (len(picked) + count - i + 2) > best[0] + _TOL:
+            return
+        _, split_n, (s1, s2) = mixed
+        need = needed - charge
+        if need - s2 * split_n > highs[i] + _TOL or need - s1 * split_n < lows[i] - _TOL:
+            return
         if i == len(symbols):
             walk(i, charge, penalty, picked, mixed)
             return
@@ -308,8 +329,14 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
             if kind == "single":
                 walk_rest(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
 
+    # single states everywhere first: the best such reading then bounds the
+    # mixed-valence ones, which cost more and are many
+    with_mixed = [False]
     walk(0, 0.0, 0.0, [], None)
-    return tuple(out)
+    if any(option[0] == "mixed" for options in per_symbol for option in options):
+        with_mixed[0] = True
+        walk(0, 0.0, 0.0, [], None)
+    return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best[0] + _TOL)
 
 
 def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf")):
