@@ -1,19 +1,14 @@
 """Worker side of multiprocess scoring: kept free of pyarrow and pandas so a
-worker process only carries the scorer.
-
-Workers come from a ``forkserver`` (``spawn`` where there is none) that has
-imported this module once, so each worker starts with the scorer loaded and
-its data tables read by :func:`warm_up`; a task is one list of formulas.
+worker process only carries the scorer. A task is one list of formulas
+(:func:`score_values`); how workers are started is in
+:mod:`pipelines._workers`.
 """
 from __future__ import annotations
-
-import os
-import signal
 
 from scorer.columns import column_names
 from scorer.record import score_formula, score_row
 
-__all__ = ["score_values", "warm_up", "default_workers", "ready"]
+__all__ = ["score_values", "warm_up"]
 
 
 def score_values(texts: list) -> list[tuple]:
@@ -41,49 +36,20 @@ def _failed_record(text, exc: Exception) -> dict:
     return record
 
 
-def ready() -> None:
-    """A task that does nothing: submitting one per worker starts them all."""
+_WARM = []
 
 
 def warm_up() -> None:
-    """Load the scorer's data tables now rather than inside the first task."""
-    for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]"):
+    """Load the scorer's data tables and compute the Madelung constant of
+    every prototype now, rather than inside the first tasks; once per
+    process (the forkserver does it once for all workers, see
+    :mod:`pipelines._warm`)."""
+    if _WARM:
+        return
+    from scorer.madelung import PROTOTYPES, madelung_details
+
+    for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl"):
         score_formula(text)
-
-
-def worker_init(parent_pid: int | None = None) -> None:
-    """Run once in each worker: ignore Ctrl-C (it reaches the whole process
-    group; the parent decides what to do), exit when the parent is gone, and
-    load the data tables."""
-    signal.signal(signal.SIGINT, signal.SIG_IGN)
-    if parent_pid is not None:
-        _exit_with(parent_pid)
-    warm_up()
-
-
-def _exit_with(parent_pid: int) -> None:
-    # A parent killed outright (SIGKILL, out of memory) cannot stop its pool,
-    # and a worker holds its own task pipe open, so it would wait forever.
-    import threading
-    import time
-
-    def watch():
-        while True:
-            time.sleep(0.5)
-            try:
-                os.kill(parent_pid, 0)
-            except ProcessLookupError:
-                os._exit(0)
-            except OSError:
-                pass
-
-    threading.Thread(target=watch, name="ionicity-parent-watch", daemon=True).start()
-
-
-def default_workers() -> int:
-    """The cores this process may use."""
-    if hasattr(os, "process_cpu_count"):
-        return os.process_cpu_count() or 1
-    if hasattr(os, "sched_getaffinity"):
-        return len(os.sched_getaffinity(0)) or 1
-    return os.cpu_count() or 1
+    for name in PROTOTYPES:
+        madelung_details(name)
+    _WARM.append(True)

@@ -30,7 +30,8 @@ import pyarrow.compute as pc
 
 from scorer.columns import column_names, output_columns
 
-from pipelines._pool import default_workers, ready, score_values, worker_init
+from pipelines._pool import score_values
+from pipelines._workers import default_workers, new_workers, ready, take_prestarted
 from pipelines.io import InputError, TableWriter, open_reader
 
 __all__ = [
@@ -330,18 +331,8 @@ class BatchScorer:
             pool.shutdown(wait=True, cancel_futures=True)
 
     def _start_pools(self) -> list[ProcessPoolExecutor]:
-        if self._pools:
-            return self._pools
-        import multiprocessing
-
-        methods = multiprocessing.get_all_start_methods()
-        context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
-        if context.get_start_method() == "forkserver":
-            context.set_forkserver_preload(["pipelines._pool"])
-        self._pools = [
-            ProcessPoolExecutor(max_workers=1, mp_context=context, initializer=worker_init, initargs=(os.getpid(),))
-            for _ in range(self.workers)
-        ]
+        if not self._pools:
+            self._pools = take_prestarted(self.workers) or new_workers(self.workers)
         return self._pools
 
     def _use_pool(self, count: int) -> bool:

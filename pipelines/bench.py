@@ -97,7 +97,7 @@ def realistic_formulas(distinct: int, seed: int = 7) -> list[str]:
     ils = sorted({c + a for c in _IL_CATIONS for a in _IL_ANIONS})
     doubles = sorted(
         {f"{m}{t}(SO4)2·12H2O" for m in ("K", "Na", "NH4", "Rb", "Cs") for t in ("Al", "Cr", "Fe", "Ga", "In")}
-        | {f"{m}2{d}(SO4)2·6H2O" for m in ("K", "NH4", "Rb") for d in ("Fe", "Co", "Ni", "Cu", "Zn", "Mg", "Mn")}
+        | {f"{_group(m, 2)}{d}(SO4)2·6H2O" for m in ("K", "NH4", "Rb") for d in ("Fe", "Co", "Ni", "Cu", "Zn", "Mg", "Mn")}
     )
     hydrates = [
         f"{s}{sep}{'' if w == '1' else w}H2O" for s in salts for w in _WATERS for sep in _SEPARATORS

@@ -11,6 +11,7 @@ Exit codes (one place, also in ``--help``):
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 
 EXIT_OK = 0
@@ -146,9 +147,39 @@ def _interrupt_on_sigterm() -> None:
         pass
 
 
+# an input file at least this large almost surely brings enough new
+# formulas to need the worker processes: start them before the heavy imports
+_PRESTART_BYTES = 1 << 20
+
+
+def _prestart_workers(args) -> None:
+    if args.command != "score" or args.engine != "local" or args.workers == 1:
+        return
+    try:
+        large = os.path.isfile(args.input) and os.path.getsize(args.input) >= _PRESTART_BYTES
+    except (OSError, ValueError, TypeError):
+        large = False
+    if large:
+        from pipelines._workers import default_workers, prestart
+
+        workers = args.workers or default_workers()
+        if workers >= 2:
+            prestart(workers)
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
+    _prestart_workers(args)
+    try:
+        return _dispatch(args)
+    finally:
+        from pipelines._workers import discard_prestarted
+
+        discard_prestarted()
+
+
+def _dispatch(args) -> int:
     from pipelines.io import InputError
 
     try:

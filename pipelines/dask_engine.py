@@ -140,7 +140,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                 except (OSError, TimeoutError) as exc:
                     raise InputError(f"cannot reach the Dask scheduler at {config.scheduler!r}: {exc}") from None
             else:
-                from pipelines._pool import default_workers
+                from pipelines._workers import default_workers
 
                 cluster = distributed.LocalCluster(
                     n_workers=config.workers or default_workers(), threads_per_worker=1, processes=True,

@@ -1,0 +1,7 @@
+"""Imported once by the workers' forkserver: loads the scorer and warms its
+caches there, so that every worker forked from it starts ready, sharing
+those pages, instead of each worker paying for it. The main process never
+imports this module (a 10-row table must not pay for it either)."""
+from pipelines._pool import warm_up
+
+warm_up()

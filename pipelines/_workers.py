@@ -1,0 +1,105 @@
+"""Starting the scoring workers. Kept light (no pyarrow, no scorer) so that
+the command line can start them before its own heavy imports.
+
+Each worker is a single-process executor, so that a task can be sent to a
+chosen worker (see :class:`pipelines.batch.BatchScorer`). Workers come from a
+``forkserver`` (``spawn`` where there is none) that imported
+:mod:`pipelines._warm` once: every worker starts with the scorer loaded and
+its caches warm. :func:`prestart` starts them early; the first
+:class:`~pipelines.batch.BatchScorer` that needs as many workers takes them
+(:func:`take_prestarted`).
+"""
+from __future__ import annotations
+
+import os
+import signal
+from concurrent.futures import ProcessPoolExecutor
+
+__all__ = ["default_workers", "new_workers", "prestart", "take_prestarted", "discard_prestarted", "ready"]
+
+_PRESTARTED: list[ProcessPoolExecutor] = []
+
+
+def default_workers() -> int:
+    """The cores this process may use."""
+    if hasattr(os, "process_cpu_count"):
+        return os.process_cpu_count() or 1
+    if hasattr(os, "sched_getaffinity"):
+        return len(os.sched_getaffinity(0)) or 1
+    return os.cpu_count() or 1
+
+
+def new_workers(count: int) -> list[ProcessPoolExecutor]:
+    """``count`` single-process executors; their processes start on the first task."""
+    import multiprocessing
+
+    methods = multiprocessing.get_all_start_methods()
+    context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
+    if context.get_start_method() == "forkserver":
+        context.set_forkserver_preload(["pipelines._warm"])
+    return [
+        ProcessPoolExecutor(max_workers=1, mp_context=context, initializer=worker_init, initargs=(os.getpid(),))
+        for _ in range(count)
+    ]
+
+
+def prestart(count: int) -> None:
+    """Start ``count`` workers now, in the background."""
+    discard_prestarted()
+    workers = new_workers(count)
+    for worker in workers:
+        worker.submit(ready)
+    _PRESTARTED[:] = workers
+
+
+def take_prestarted(count: int) -> list[ProcessPoolExecutor] | None:
+    """The prestarted workers if there are ``count`` of them (else none)."""
+    if len(_PRESTARTED) != count:
+        discard_prestarted()
+        return None
+    workers = list(_PRESTARTED)
+    _PRESTARTED.clear()
+    return workers
+
+
+def discard_prestarted() -> None:
+    """Stop prestarted workers nobody took (the run failed, or needed none)."""
+    workers = list(_PRESTARTED)
+    _PRESTARTED.clear()
+    for worker in workers:
+        worker.shutdown(wait=False, cancel_futures=True)
+
+
+def ready() -> None:
+    """A task that does nothing: submitting one to a worker starts it."""
+
+
+def worker_init(parent_pid: int | None = None) -> None:
+    """Run once in each worker: ignore Ctrl-C (it reaches the whole process
+    group; the parent decides what to do), exit when the parent is gone, and
+    warm the scorer's caches (already done when forked from the forkserver)."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    if parent_pid is not None:
+        _exit_with(parent_pid)
+    from pipelines._pool import warm_up
+
+    warm_up()
+
+
+def _exit_with(parent_pid: int) -> None:
+    # A parent killed outright (SIGKILL, out of memory) cannot stop its
+    # workers, and a worker holds its own task pipe open, so it would wait forever.
+    import threading
+    import time
+
+    def watch():
+        while True:
+            time.sleep(0.5)
+            try:
+                os.kill(parent_pid, 0)
+            except ProcessLookupError:
+                os._exit(0)
+            except OSError:
+                pass
+
+    threading.Thread(target=watch, name="ionicity-parent-watch", daemon=True).start()
