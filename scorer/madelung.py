@@ -276,14 +276,10 @@ def ewald_energy_per_cell(structure: CrystalStructure, *, alpha: float | None = 
     diffs = positions[None, :, :] - positions[:, None, :]
     reach = real_cutoff + float(np.max(np.linalg.norm(diffs, axis=-1)))
     shifts = _translations(lattice, reach) @ lattice
-    qq = charges[:, None] * charges[None, :]
-    e_real = 0.0
-    for shift in shifts:
-        r = np.linalg.norm(diffs + shift, axis=-1)
-        mask = (r > 1e-10) & (r < reach)
-        if np.any(mask):
-            e_real += float(np.sum(qq[mask] * _erfc(alpha * r[mask]) / r[mask]))
-    e_real *= 0.5
+    qq = np.broadcast_to(charges[:, None] * charges[None, :], (len(shifts), n_sites, n_sites))
+    r = np.linalg.norm(diffs[None, :, :, :] + shifts[:, None, None, :], axis=-1)
+    mask = (r > 1e-10) & (r < reach)
+    e_real = 0.5 * float(np.sum(qq[mask] * _erfc(alpha * r[mask]) / r[mask]))
 
     # Reciprocal space.
     reciprocal = 2.0 * math.pi * np.linalg.inv(lattice).T
