@@ -80,7 +80,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
-    from pipelines.melting_fit import add_fit_melting_parser
+    from pipelines.melting_cli import add_fit_melting_parser
 
     add_fit_melting_parser(sub)
     return parser
@@ -106,7 +106,7 @@ def _run_score(args) -> int:
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:
-        from pipelines.melting_fit import CAUTION
+        from pipelines.melting_cli import CAUTION
 
         print(CAUTION, file=sys.stderr)
     if not args.quiet:

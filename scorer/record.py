@@ -97,7 +97,8 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     the spelling, computed once per anhydrous composition: the hydrates and
     the spellings of one salt share it.
 
-    Returns (values, warnings, gaps, formula_normalized without water).
+    Returns (values, warnings, gaps, formula_normalized without water, the
+    values laid out as a row in column order).
     """
     comp = Composition(
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
@@ -119,7 +120,11 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
         values.update(module_values)
         for note in module_notes:
             (warnings if isinstance(note, RowWarning) else gaps).append(note)
-    return values, tuple(warnings), tuple(gaps), normalized_formula(comp, dec)
+    _, position, empty = _layout()
+    row = list(empty)
+    for name, value in values.items():
+        row[position[name]] = value
+    return values, tuple(warnings), tuple(gaps), normalized_formula(comp, dec), tuple(row)
 
 
 @lru_cache(maxsize=None)
@@ -137,13 +142,11 @@ def score_composition(comp: Composition) -> dict:
 
 
 def _composition_row(comp: Composition) -> tuple:
-    values, warnings, gaps, formula = _anhydrous_scores(
+    values, warnings, gaps, formula, base = _anhydrous_scores(
         comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
     )
-    _, position, empty = _layout()
-    row = list(empty)
-    for name, value in values.items():
-        row[position[name]] = value
+    position = _layout()[1]
+    row = list(base)
     notes = [RowWarning(n) for n in comp.notes] + list(warnings)
     water = comp.hydrate_water
     if water and values["substance_class"] in _IONIC_CLASSES:

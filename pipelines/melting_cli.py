@@ -1,0 +1,55 @@
+"""The ``fit-melting`` command's arguments, kept apart from
+:mod:`pipelines.melting_fit` so that building the command line imports
+nothing heavy (``ionicity score`` starts its workers right after parsing)."""
+from __future__ import annotations
+
+import argparse
+
+__all__ = ["add_fit_melting_parser", "CAUTION", "EXTRA_HINT", "TOLERANCE_K"]
+
+EXTRA_HINT = "pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)"
+CAUTION = (
+    "Predicted melting points are estimates for screening, not for process safety: decomposition,"
+    " hydration and pressure are not modelled. Check measured data and the safety data sheet before"
+    " heating anything."
+)
+# sources further apart than this disagree
+TOLERANCE_K = 20.0
+_OUTPUTS = ("melting_model.json", "training_set.csv", "decisions.csv", "report.json", "parity.png")
+
+
+def add_fit_melting_parser(subparsers) -> argparse.ArgumentParser:
+    """Register ``fit-melting`` on the CLI's subparsers; returns the new parser.
+
+    Wiring in :mod:`pipelines.cli`: ``add_fit_melting_parser(sub)`` inside
+    ``build_parser`` and ``if args.command == "fit-melting": return run_fit_melting(args)``
+    in ``main``.
+    """
+    parser = subparsers.add_parser(
+        "fit-melting",
+        help="fit a melting-point regression on open data (needs the 'melting' extra)",
+        description=(
+            "Build a training set of salt melting points from the 'chemicals' package at run time"
+            " (and/or your own table), cross-validate a regression over ionicity's columns with groups"
+            " by anion family and by cation element, and write a JSON model for 'ionicity score --mp-model'."
+        ),
+        epilog=(
+            "writes into OUTPUT_DIR: " + ", ".join(_OUTPUTS) + "\n\n"
+            "needs: " + EXTRA_HINT + "\n\n" + CAUTION
+        ),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    parser.add_argument("-o", "--output-dir", required=True, metavar="DIR", help="folder for the model, data and report")
+    parser.add_argument("--table", metavar="PATH", help="your own melting points: a CSV/TSV/Parquet with a formula column and a melting point in K")
+    parser.add_argument("--formula-col", default="formula", metavar="COL", help="formula column of --table (default: formula)")
+    parser.add_argument("--mp-col", metavar="COL", help="melting-point column of --table, in K (default: mp_K, melting_point_K or tm_K)")
+    parser.add_argument("--no-open-data", action="store_true", help="use only --table, not the chemicals package")
+    parser.add_argument("--tolerance-K", type=float, default=TOLERANCE_K, metavar="K",
+                        help=f"sources further apart than this disagree (default: {TOLERANCE_K:g})")
+    parser.add_argument("--folds", type=int, default=5, metavar="N", help="grouped cross-validation folds (default: 5)")
+    parser.add_argument("--coverage", type=float, default=0.9, metavar="P", help="prediction-interval coverage (default: 0.9)")
+    parser.add_argument("--seed", type=int, default=0, help="random seed (default: 0)")
+    parser.add_argument("--overwrite", action="store_true", help="replace existing outputs in OUTPUT_DIR")
+    parser.add_argument("--quiet", action="store_true", help="no progress on stderr")
+    parser.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
+    return parser
