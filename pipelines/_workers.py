@@ -18,6 +18,7 @@ from concurrent.futures import ProcessPoolExecutor
 __all__ = ["default_workers", "new_workers", "prestart", "take_prestarted", "discard_prestarted", "ready"]
 
 _PRESTARTED: list[ProcessPoolExecutor] = []
+_STARTING: list = []
 
 
 def default_workers() -> int:
@@ -44,16 +45,35 @@ def new_workers(count: int) -> list[ProcessPoolExecutor]:
 
 
 def prestart(count: int) -> None:
-    """Start ``count`` workers now, in the background."""
+    """Start ``count`` workers in a background thread: starting the
+    forkserver waits for it to load and warm the scorer, which this process
+    does not need to wait for."""
+    import threading
+
     discard_prestarted()
-    workers = new_workers(count)
-    for worker in workers:
-        worker.submit(ready)
-    _PRESTARTED[:] = workers
+
+    def start() -> None:
+        workers = new_workers(count)
+        _PRESTARTED[:] = workers
+        try:
+            for worker in workers:
+                worker.submit(ready)
+        except Exception:  # noqa: BLE001 - the scorer starts its own workers then
+            pass
+
+    thread = threading.Thread(target=start, name="ionicity-prestart", daemon=True)
+    _STARTING.append(thread)
+    thread.start()
+
+
+def _wait_for_prestart() -> None:
+    while _STARTING:
+        _STARTING.pop().join()
 
 
 def take_prestarted(count: int) -> list[ProcessPoolExecutor] | None:
     """The prestarted workers if there are ``count`` of them (else none)."""
+    _wait_for_prestart()
     if len(_PRESTARTED) != count:
         discard_prestarted()
         return None
@@ -64,6 +84,7 @@ def take_prestarted(count: int) -> list[ProcessPoolExecutor] | None:
 
 def discard_prestarted() -> None:
     """Stop prestarted workers nobody took (the run failed, or needed none)."""
+    _wait_for_prestart()
     workers = list(_PRESTARTED)
     _PRESTARTED.clear()
     for worker in workers:
