@@ -231,6 +231,8 @@ def formula_caches() -> list:
         ("scorer.ions", "_decompose"),
         ("scorer.ions", "_assign_monatomic_cached"),
         ("scorer.lattice", "_compute"),
+        ("scorer.melting", "melting_terms"),
+        ("scorer.fajans", "_analysed"),
     ):
         function = getattr(importlib.import_module(module_name), attribute, None)
         if function is not None and hasattr(function, "cache_clear"):

@@ -39,7 +39,7 @@ from __future__ import annotations
 
 import csv
 import math
-from functools import cache
+from functools import cache, lru_cache
 
 from scorer.character import contact_pairs, weighted_mean
 from scorer.model import Column, Decomposition, Ion
@@ -506,10 +506,16 @@ def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
     Never raises; odd input gives NaN/None and a note.
     """
     try:
-        values, notes, _ = _analyse(dec)
+        values, notes, _ = _analysed(dec)
     except Exception as exc:  # a descriptor must never stop the batch
         return _empty_values(), [f"Fajans values not computed: {type(exc).__name__}: {exc}"]
-    return values, notes
+    return dict(values), list(notes)
+
+
+@lru_cache(maxsize=1024)
+def _analysed(dec: Decomposition):
+    # the record and the melting trend both ask for the same compound's values
+    return _analyse(dec)
 
 
 def explain(dec: Decomposition) -> list[str]:

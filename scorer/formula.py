@@ -71,6 +71,7 @@ _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5O
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
 _WATER = "_water"
+_WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
 _ORGANOMETALLIC_GROUPS = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
 
 
@@ -519,7 +520,43 @@ def parse_formula(text: str) -> Composition:
 def _parse_normalised(cleaned: str) -> Composition:
     """Parse text already mapped onto the plain alphabet: spellings that differ
     only in Unicode, separators or spaces share this cache."""
+    hydrate = _as_hydrate(cleaned)
+    if hydrate is not None:
+        return hydrate
     return _parse_cleaned(cleaned, cleaned, [])
+
+
+def _as_hydrate(cleaned: str) -> Composition | None:
+    """A salt followed only by lattice water (``CuSO4*5H2O``) read as the
+    cached salt plus its water, so that the hydrates of one salt parse it
+    once; the same Composition the full reading gives (a test checks this).
+    None when the text is anything else, or the salt part alone reads
+    differently (a charge, a note, only H and O)."""
+    if not cleaned.endswith("H2O"):
+        return None
+    parts = _split_components(cleaned)
+    if len(parts) < 2 or not parts[0]:
+        return None
+    water = 0.0
+    for part in parts[1:]:
+        m = _WATER_PART.fullmatch(part)
+        if m is None:
+            return None
+        count = float(m.group(1) or 1.0)
+        if not 0 < count <= MAX_COUNT:
+            return None
+        water += count
+    try:
+        salt = _parse_normalised(parts[0])
+    except FormulaError:
+        return None
+    if salt.charge or salt.notes or all(symbol in ("H", "O") for symbol, _ in salt.counts):
+        return None
+    water += salt.hydrate_water
+    total_atoms = sum(n for _, n in salt.counts) + 3 * water
+    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
+        return None
+    return dataclasses.replace(salt, text=cleaned, hydrate_water=water)
 
 
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:

@@ -232,3 +232,58 @@ def test_formula_token_soup_never_raises_and_is_quick(text):
 @given(st.one_of(st.none(), st.floats(), st.integers(), st.binary(max_size=50), st.booleans()))
 def test_non_text_cells_never_raise(cell):
     _check_record(cell, score_formula(cell))
+
+
+# --------------------------------------------------------------------------- hydrate shortcut
+
+_SALT_PARTS = st.one_of(
+    st.builds(salt_text, st.sampled_from(CATIONS), st.sampled_from(ANIONS)),
+    st.sampled_from(["CaCO3(H2O)6", "(H2O)2", "H2O", "Fe0.95O", "NH4+", "Fe3+", "2NaCl", "[C4mim][BF4]",
+                     "KAl(SO4)2", "Na2CO3.H2O2", "Xx2O", "Cu(NH3)4SO4", "CO(NH2)2", "Fe(CO)5", "CH3OH"]),
+)
+_WATER_TEXT = st.sampled_from(["H2O", "0.5H2O", "1H2O", "2H2O", "12H2O", "0H2O", "1.5H2O", "99999H2O", "H2O2", "NH3"])
+
+
+def _full_reading(cleaned):
+    from scorer import formula
+
+    try:
+        return formula._parse_cleaned(cleaned, cleaned, [])
+    except formula.FormulaError as exc:
+        return str(exc)
+
+
+def _shortcut_reading(cleaned):
+    from scorer import formula
+
+    formula._parse_normalised.cache_clear()
+    try:
+        return formula._parse_normalised(cleaned)
+    except formula.FormulaError as exc:
+        return str(exc)
+
+
+def _fields(reading):
+    if isinstance(reading, str):
+        return reading
+    return (reading.text, reading.counts, reading.hydrate_water, reading.charge, reading.ion_hints,
+            reading.neutral_adducts, reading.structure_hint, reading.notes)
+
+
+@DETERMINISTIC
+@given(_SALT_PARTS, st.lists(_WATER_TEXT, min_size=1, max_size=3), st.sampled_from(["*", ".", "+"]))
+def test_hydrates_read_through_the_cached_salt_read_as_in_full(salt, waters, separator):
+    # The parser reads "salt*nH2O" as the cached salt plus water; that must be
+    # exactly the composition the full grammar gives, errors included.
+    cleaned = separator.join([salt] + waters)
+    assert _fields(_shortcut_reading(cleaned)) == _fields(_full_reading(cleaned))
+
+
+def test_hydrate_shortcut_matches_the_full_reading_on_the_benchmark_corpus():
+    from scorer.formula import _normalise_text
+
+    from pipelines.bench import realistic_formulas
+
+    for text in realistic_formulas(3000, seed=2):
+        cleaned = _normalise_text(text)
+        assert _fields(_shortcut_reading(cleaned)) == _fields(_full_reading(cleaned)), text
