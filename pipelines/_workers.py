@@ -15,7 +15,7 @@ import os
 import signal
 from concurrent.futures import ProcessPoolExecutor
 
-__all__ = ["default_workers", "new_workers", "prestart", "take_prestarted", "discard_prestarted", "ready"]
+__all__ = ["default_workers", "new_workers", "prestart", "take_prestarted", "discard_prestarted", "stop_workers", "ready"]
 
 _PRESTARTED: list[ProcessPoolExecutor] = []
 _STARTING: list = []
@@ -68,7 +68,8 @@ def prestart(count: int) -> None:
 
 def _wait_for_prestart() -> None:
     while _STARTING:
-        _STARTING.pop().join()
+        _STARTING[-1].join()
+        _STARTING.pop()
 
 
 def take_prestarted(count: int) -> list[ProcessPoolExecutor] | None:
@@ -87,8 +88,20 @@ def discard_prestarted() -> None:
     _wait_for_prestart()
     workers = list(_PRESTARTED)
     _PRESTARTED.clear()
+    stop_workers(workers, cancel=True)
+
+
+def stop_workers(workers: list[ProcessPoolExecutor], cancel: bool = False) -> None:
+    """Shut executors down; ``cancel`` (after an error or Ctrl-C) stops their
+    processes at once rather than letting them finish their task."""
+    if cancel:
+        # a worker still starting up when the parent exits would print a
+        # traceback about its vanished semaphores; stop them first
+        for worker in workers:
+            for process in list((getattr(worker, "_processes", None) or {}).values()):
+                process.terminate()
     for worker in workers:
-        worker.shutdown(wait=False, cancel_futures=True)
+        worker.shutdown(wait=True, cancel_futures=True)
 
 
 def ready() -> None:

@@ -31,7 +31,7 @@ import pyarrow.compute as pc
 from scorer.columns import column_names, output_columns
 
 from pipelines._pool import score_values
-from pipelines._workers import default_workers, new_workers, ready, take_prestarted
+from pipelines._workers import default_workers, new_workers, ready, stop_workers, take_prestarted
 from pipelines.io import InputError, TableWriter, open_reader
 
 __all__ = [
@@ -321,14 +321,7 @@ class BatchScorer:
         pools, self._pools = self._pools, []
         self._chunks.clear()
         self._in_flight.clear()
-        if cancel:
-            # a worker still starting up when the parent exits would print a
-            # traceback about its vanished semaphores; stop them first
-            for pool in pools:
-                for process in list((getattr(pool, "_processes", None) or {}).values()):
-                    process.terminate()
-        for pool in pools:
-            pool.shutdown(wait=True, cancel_futures=True)
+        stop_workers(pools, cancel=cancel)
 
     def _start_pools(self) -> list[ProcessPoolExecutor]:
         if not self._pools:
@@ -765,8 +758,6 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"
     scorer = BatchScorer(config.workers)
-    if _worth_a_pool(reader):
-        scorer.start()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:
@@ -778,7 +769,9 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
         progress.update(summary.rows)
 
     try:
-        # Read ahead: while the pool scores the new formulas of later
+        if _worth_a_pool(reader):
+            scorer.start()
+        # Read ahead: while the workers score the new formulas of later
         # batches, earlier ones are taken from the cache and written.
         for batch in _slices(reader.batches, config.batch_rows):
             waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))

@@ -170,13 +170,30 @@ def _prestart_workers(args) -> None:
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
-    _prestart_workers(args)
     try:
+        _prestart_workers(args)
         return _dispatch(args)
+    except KeyboardInterrupt:  # outside the command itself (workers starting, imports)
+        return _interrupted(args)
     finally:
-        from pipelines._workers import discard_prestarted
+        _stop_prestarted_workers()
 
+
+def _stop_prestarted_workers() -> None:
+    from pipelines._workers import discard_prestarted
+
+    try:
         discard_prestarted()
+    except KeyboardInterrupt:  # a second Ctrl-C: leave now
+        pass
+
+
+def _interrupted(args) -> int:
+    if getattr(args, "output", None) == "-":
+        print("ionicity: interrupted; the table on stdout is incomplete", file=sys.stderr)
+    else:
+        print("ionicity: interrupted; no output was written", file=sys.stderr)
+    return 130
 
 
 def _dispatch(args) -> int:
@@ -196,11 +213,7 @@ def _dispatch(args) -> int:
         print(f"ionicity: error: {exc}", file=sys.stderr)
         return EXIT_USAGE
     except KeyboardInterrupt:
-        if getattr(args, "output", None) == "-":
-            print("ionicity: interrupted; the table on stdout is incomplete", file=sys.stderr)
-        else:
-            print("ionicity: interrupted; no output was written", file=sys.stderr)
-        return 130
+        return _interrupted(args)
     except BrokenPipeError:
         return EXIT_OK
     except Exception as exc:  # a bug: say so in one line unless --verbose

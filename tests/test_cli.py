@@ -230,6 +230,27 @@ def test_interrupted_run_leaves_no_output_and_a_rerun_succeeds(big_csv, tmp_path
         assert sum(1 for _ in f) == 300_001
 
 
+@pytest.mark.slow
+@pytest.mark.parametrize("delay", [0.3, 0.6])
+def test_ctrl_c_while_the_workers_start_is_clean(big_csv, tmp_path, delay):
+    # a large input starts its worker processes in the background at once;
+    # Ctrl-C in that window must end as any other interruption
+    out = tmp_path / "out.csv"
+    process = subprocess.Popen(
+        [sys.executable, "-m", "pipelines", "score", str(big_csv), "-o", str(out)],
+        env=_env(), cwd=ROOT, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
+        preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL),
+    )
+    time.sleep(delay)
+    process.send_signal(signal.SIGINT)
+    code = process.wait(timeout=60)
+    stderr = process.stderr.read().decode()
+    assert code == 130, stderr
+    assert "Traceback" not in stderr
+    assert not out.exists()
+    assert [n for n in os.listdir(tmp_path) if n.startswith(".ionicity-")] == []
+
+
 # --------------------------------------------------------------------------- start-up
 
 
