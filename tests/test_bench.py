@@ -1,0 +1,42 @@
+"""The benchmark's output contract: ``python -m pipelines.bench`` prints the
+figures the scale issue asks for, one ``name: value`` per line. (No science
+here; the figures themselves are measured, not asserted.)"""
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parents[1]
+
+
+@pytest.mark.slow
+def test_bench_prints_every_figure_as_name_value(tmp_path):
+    env = dict(os.environ)
+    env["PYTHONPATH"] = str(ROOT) + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
+    result = subprocess.run(
+        [sys.executable, "-m", "pipelines.bench", "--rows", "3000", "--distinct", "300", "--repeat", "2",
+         "--baseline-rows", "40", "--workdir", str(tmp_path)],
+        capture_output=True, text=True, env=env, cwd=ROOT, timeout=300,
+    )
+    assert result.returncode == 0, result.stderr
+    figures = dict(line.split(": ", 1) for line in result.stdout.splitlines())
+    for name in ("ratio_vs_io_floor", "speedup_vs_per_row", "distinct_per_second", "peak_rss_mib"):
+        assert float(figures[name]) > 0, name
+    assert len(figures["score_seconds_each"].split(", ")) == 2
+    assert figures["rows"] == "3000" and figures["distinct"] == "300"
+
+
+def test_bench_table_holds_every_distinct_formula(tmp_path):
+    import pyarrow.parquet as pq
+
+    from pipelines.bench import write_table
+
+    path = tmp_path / "t.parquet"
+    write_table(str(path), 5000, 700, seed=3)
+    table = pq.read_table(path)
+    assert table.num_rows == 5000
+    assert len(set(table.column("formula").to_pylist())) == 700
