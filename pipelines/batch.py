@@ -174,12 +174,15 @@ class FormulaCache:
         columns = output_columns()
         self._text = [c.dtype == "string" for c in columns]
         self._arrays: list[pa.Array] = [
-            pa.DictionaryArray.from_arrays(pa.array([], pa.int32()), pa.array([], pa.string())) if text
-            else pa.array([], _ARROW_TYPES[c.dtype])
+            pa.DictionaryArray.from_arrays(pa.nulls(0, pa.int32()), pa.nulls(0, pa.string())) if text
+            else pa.nulls(0, _ARROW_TYPES[c.dtype])
             for c, text in zip(columns, self._text)
         ]
         self._pending: list[tuple] = []
-        self._keys = pa.array([], pa.string())
+        # empty arrays made without converting Python values: pyarrow imports
+        # pandas on its first such conversion, which need not delay the
+        # first batch (a large run converts later, while the workers score)
+        self._keys = pa.nulls(0, pa.string())
         self._pending_keys: list = []
         # per row, the token of the last scorer that counted it (first_seen)
         self._marks = np.zeros(0, dtype=np.int64)
