@@ -97,8 +97,9 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     the spelling, computed once per anhydrous composition: the hydrates and
     the spellings of one salt share it.
 
-    Returns (values, warnings, gaps, formula_normalized without water, the
-    values laid out as a row in column order).
+    Returns (values, warnings, (value_notes, value_notes of a hydrate),
+    formula_normalized without water, the values laid out as a row in
+    column order).
     """
     comp = Composition(
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
@@ -124,7 +125,19 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     row = list(empty)
     for name, value in values.items():
         row[position[name]] = value
-    return values, tuple(warnings), tuple(gaps), normalized_formula(comp, dec), tuple(row)
+    notes = "; ".join(dict.fromkeys(gaps))
+    hydrate_notes = notes
+    if dec.substance_class in _IONIC_CLASSES:
+        hydrate_notes = "; ".join(dict.fromkeys((_HYDRATE_NOTE, *gaps)))
+    return values, tuple(warnings), (notes, hydrate_notes), normalized_formula(comp, dec), tuple(row)
+
+
+# the same words for every hydrate: how much water is in hydrate_water, and
+# one text per salt keeps value_notes a small dictionary in the output
+_HYDRATE_NOTE = (
+    "descriptors are for the anhydrous salt (its lattice water, counted in hydrate_water, is not modelled;"
+    " a hydrate usually melts or loses its water far lower)"
+)
 
 
 @lru_cache(maxsize=None)
@@ -149,18 +162,13 @@ def _composition_row(comp: Composition) -> tuple:
     row = list(base)
     notes = [RowWarning(n) for n in comp.notes] + list(warnings)
     water = comp.hydrate_water
-    if water and values["substance_class"] in _IONIC_CLASSES:
-        gaps = (
-            f"descriptors are for the anhydrous salt ({format_count(water)} H2O of lattice water"
-            " per formula unit is not modelled; a hydrate usually melts or loses its water far lower)",
-        ) + gaps
     row[position["formula_normalized"]] = formula + _water_suffix(water)
     row[position["hydrate_water"]] = float(water)
     row[position["molar_mass_g_mol"]] = molar_mass_g_mol(comp.total_counts)
     error = values["substance_class"] == "unknown"
     row[position["status"]] = "error" if error else ("warning" if notes else "ok")
     row[position["message"]] = "; ".join(dict.fromkeys(notes))
-    row[position["value_notes"]] = "; ".join(dict.fromkeys(gaps))
+    row[position["value_notes"]] = gaps[1] if water else gaps[0]
     return tuple(row)
 
 
