@@ -357,8 +357,8 @@ class BatchScorer:
         """(worker, chunk) pairs: each text to the worker of its salt part,
         in chunks small enough that results flow back while others run."""
         groups: list[list] = [[] for _ in range(self.workers)]
-        for text in sorted(texts, key=_locality_key):
-            groups[zlib.crc32(_locality_key(text)[0].encode("utf-8", "surrogatepass")) % self.workers].append(text)
+        for salt, text in sorted(map(_locality_key, texts)):
+            groups[zlib.crc32(salt.encode("utf-8", "surrogatepass")) % self.workers].append(text)
         size = max(_MIN_CHUNK, math.ceil(len(texts) / (self.workers * _CHUNKS_PER_WORKER)))
         return [(worker, group[i:i + size]) for worker, group in enumerate(groups) for i in range(0, len(group), size)]
 
