@@ -46,7 +46,7 @@ from __future__ import annotations
 
 import csv
 import math
-from functools import cache
+from functools import cache, lru_cache
 from importlib import resources
 
 from scorer.model import Ion, format_charge
@@ -117,6 +117,7 @@ def _ion_name(symbol: str, charge: int) -> str:
     return f"{symbol}({format_charge(int(charge))})"
 
 
+@lru_cache(maxsize=4096)
 def shannon_radius_pm(
     symbol: str,
     charge: int,
@@ -223,6 +224,7 @@ def shannon_radius_pm(
     return float(entry.ionic_radius_pm), text
 
 
+@lru_cache(maxsize=4096)
 def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[float, str]:
     """Radius of any ion, with where it came from.
 
