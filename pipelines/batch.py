@@ -198,7 +198,7 @@ class FormulaCache:
         """Store records; ``keep`` (a list or an Arrow array) holds formulas
         that must survive eviction."""
         if len(self.index) + len(formulas) > self.max_entries:
-            self._evict(len(formulas), set(keep.to_pylist() if isinstance(keep, pa.Array) else keep))
+            self._evict(len(formulas), set(keep.to_pylist() if isinstance(keep, pa.Array) else keep) | {None})
         base = len(self.index)
         for offset, text in enumerate(formulas):
             self.index[text] = base + offset
@@ -413,17 +413,20 @@ class BatchScorer:
         submitted. A few new formulas are scored here and now; many go to
         the worker pool, so that the caller can read and write other batches
         meanwhile."""
-        missing = pc.is_null(pc.index_in(formulas, value_set=self.cache.keys(), skip_nulls=False))
+        # each text is hashed once, here; the cache is then searched for the
+        # batch's distinct formulas only
+        encoded = pc.dictionary_encode(formulas)
+        distinct, indices = encoded.dictionary, encoded.indices
+        if indices.null_count and None not in self.cache.index:
+            self._store([None], score_values([None]), keep=distinct)
+        missing = pc.is_null(pc.index_in(distinct, value_set=self.cache.keys()))
         if pc.any(missing).as_py():
-            new = [f for f in pc.unique(formulas.filter(missing)).to_pylist() if f not in self._in_flight]
-            texts = [f for f in new if f is not None]
-            if len(texts) < len(new):
-                self._store([None], score_values([None]), keep=formulas)
+            texts = [f for f in distinct.filter(missing).to_pylist() if f not in self._in_flight]
             if texts and not self._use_pool(len(texts)):
-                self._store(texts, score_values(texts), keep=formulas)
+                self._store(texts, score_values(texts), keep=distinct)
             elif texts:
-                self._send(texts, formulas)
-        return Ticket(formulas, self._sequence)
+                self._send(texts, distinct)
+        return Ticket(formulas, distinct, indices, self._sequence)
 
     def _send(self, texts: list, keep: pa.Array) -> None:
         try:
@@ -454,28 +457,33 @@ class BatchScorer:
                 self._fall_back()
                 values = score_values(chunk)
             self._in_flight.difference_update(chunk)
-            self._store(chunk, values, keep=ticket.formulas)
-        keys = self.cache.keys()
-        rows = pc.index_in(ticket.formulas, value_set=keys, skip_nulls=False)
-        if rows.null_count:
+            self._store(chunk, values, keep=ticket.distinct)
+        found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
+        if found.null_count:
             # evicted from a full cache while the batch waited: score again
-            missing = pc.unique(ticket.formulas.filter(pc.is_null(rows))).to_pylist()
-            texts = [f for f in missing if f is not None]
-            values = self._score_new(texts) if texts else []
-            if len(texts) < len(missing):
-                texts.append(None)
-                values += score_values([None])
-            self._store(texts, values, keep=ticket.formulas)
-            rows = pc.index_in(ticket.formulas, value_set=self.cache.keys(), skip_nulls=False)
-        self._note_seen(self.cache.first_seen(rows, self._token))
+            texts = ticket.distinct.filter(pc.is_null(found)).to_pylist()
+            self._store(texts, self._score_new(texts), keep=ticket.distinct)
+            found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
+        rows = found.take(ticket.indices)
+        if ticket.indices.null_count:
+            if None not in self.cache.index:
+                self._store([None], score_values([None]), keep=ticket.distinct)
+                found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
+                rows = found.take(ticket.indices)
+            rows = pc.fill_null(rows, self.cache.index[None])
+        self._note_seen(self.cache.first_seen(found, self._token))
         return rows
 
 
 @dataclass(frozen=True)
 class Ticket:
-    """A batch's formulas handed to :meth:`BatchScorer.submit`."""
+    """A batch's formulas handed to :meth:`BatchScorer.submit`: the column,
+    its distinct non-null values and each row's index into them (null for
+    an empty cell)."""
 
     formulas: pa.Array
+    distinct: pa.Array
+    indices: pa.Array
     last_chunk: int
 
 
@@ -592,9 +600,8 @@ def score_batch(
     rows = scorer.rows_of(ticket)
     columns = list(batch.columns) + [a.take(rows) for a in scorer.cache.arrays()]
     if model is not None:
-        encoded = pc.dictionary_encode(ticket.formulas)
-        distinct = encoded.dictionary.to_pylist()
-        indices = encoded.indices
+        distinct = ticket.distinct.to_pylist()
+        indices = ticket.indices
         if indices.null_count:
             distinct.append(None)
             indices = pc.fill_null(indices, len(distinct) - 1)

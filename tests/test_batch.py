@@ -257,3 +257,25 @@ def test_a_million_rows(tmp_path):
     assert result.num_rows == 1_000_000 == summary.rows
     assert digests(result, source.column_names) == digests(source, source.column_names)
     assert summary.distinct_formulas == 2000
+
+
+def test_batches_read_ahead_survive_a_full_cache():
+    # Batches are submitted several at a time before the first is collected;
+    # when the bounded cache evicts an earlier batch's formulas meanwhile,
+    # collecting that batch scores them again: every row still gets the
+    # record score_formula gives it.
+    texts = realistic_formulas(400, seed=9)
+    batches = [pa.array(texts[i:i + 80] + [None, texts[i]]) for i in range(0, 400, 80)]
+    scorer = BatchScorer(1, cache=FormulaCache(max_entries=100))
+    tickets = [scorer.submit(batch) for batch in batches]
+    status_at = column_names().index("status")
+    mass_at = column_names().index("molar_mass_g_mol")
+    for batch, ticket in zip(batches, tickets):
+        rows = scorer.rows_of(ticket)
+        arrays = scorer.cache.arrays()
+        got = list(zip(arrays[status_at].take(rows).to_pylist(), arrays[mass_at].take(rows).to_pylist()))
+        expected = [(score_formula(t)["status"], score_formula(t)["molar_mass_g_mol"]) for t in batch.to_pylist()]
+        expected = [(s, None if m != m else m) for s, m in expected]
+        assert got == expected
+    assert len(scorer.cache) <= 100
+    assert scorer.distinct_formulas == 400
