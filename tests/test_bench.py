@@ -1,6 +1,9 @@
 """The benchmark's output contract: ``python -m pipelines.bench`` prints the
-figures the scale issue asks for, one ``name: value`` per line. (No science
-here; the figures themselves are measured, not asserted.)"""
+figures the scale issue asks for, one ``name: value`` per line.
+
+No reference values, so no source to cite: these tests check no science, only
+that the benchmark runs and reports; its figures are measured, not asserted.
+"""
 from __future__ import annotations
 
 import os
