@@ -426,7 +426,7 @@ class BatchScorer:
                 self._store(texts, score_values(texts), keep=distinct)
             elif texts:
                 self._send(texts, distinct)
-        return Ticket(formulas, distinct, indices, self._sequence)
+        return Ticket(distinct, indices, self._sequence)
 
     def _send(self, texts: list, keep: pa.Array) -> None:
         try:
@@ -477,11 +477,10 @@ class BatchScorer:
 
 @dataclass(frozen=True)
 class Ticket:
-    """A batch's formulas handed to :meth:`BatchScorer.submit`: the column,
-    its distinct non-null values and each row's index into them (null for
-    an empty cell)."""
+    """A batch's formulas handed to :meth:`BatchScorer.submit`: their
+    distinct non-null values and each row's index into them (null for an
+    empty cell)."""
 
-    formulas: pa.Array
     distinct: pa.Array
     indices: pa.Array
     last_chunk: int

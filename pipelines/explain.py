@@ -31,7 +31,7 @@ def explain_formula(text: str) -> str:
     try:
         comp = parse_formula(text)
     except FormulaError as exc:
-        return "\n".join(lines + [f"status: error", f"message: {exc}"])
+        return "\n".join(lines + ["status: error", f"message: {exc}"])
     dec = decompose(comp)
     record = score_composition(comp)
     lines.append(f"status: {record['status']}")

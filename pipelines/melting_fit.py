@@ -40,7 +40,6 @@ measured data and the safety data sheet before heating anything.
 """
 from __future__ import annotations
 
-import argparse
 import csv
 import json
 import math

@@ -674,7 +674,7 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         if remaining:
             found, cut_short = _search(remaining, -given_charge)
             readings.extend((penalty, given + terms) for penalty, terms in found)
-            if cut_short and f"search cut short" not in " ".join(notes):
+            if cut_short and "search cut short" not in " ".join(notes):
                 notes.append(
                     f"the ion search was cut short after {_MAX_SEARCH_NODES} steps; a better reading may exist"
                 )

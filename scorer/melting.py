@@ -90,7 +90,7 @@ from importlib import resources
 
 import numpy as np
 
-from scorer.model import Column, Decomposition, Ion, RowWarning
+from scorer.model import Column, Decomposition, Ion
 
 __all__ = [
     "COLUMNS",

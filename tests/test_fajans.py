@@ -9,7 +9,7 @@ import pytest
 
 from scorer import fajans as F
 from scorer.ion_library import get_ion, monatomic_ion
-from scorer.model import Decomposition, IonTerm
+from scorer.model import Decomposition
 
 from _builders import salt
 

@@ -11,7 +11,7 @@ import pytest
 
 from scorer import hsab as H
 from scorer.ion_library import get_ion, monatomic_ion
-from scorer.model import Decomposition, IonTerm
+from scorer.model import Decomposition
 
 from _builders import salt
 
