@@ -53,12 +53,11 @@ def prestart(count: int) -> None:
     discard_prestarted()
 
     def start() -> None:
-        workers = new_workers(count)
-        _PRESTARTED[:] = workers
         try:
-            for worker in workers:
+            _PRESTARTED[:] = new_workers(count)
+            for worker in _PRESTARTED:
                 worker.submit(ready)
-        except Exception:  # noqa: BLE001 - the scorer starts its own workers then
+        except Exception:  # noqa: BLE001 - the scorer starts (or falls back from) its own workers then
             pass
 
     thread = threading.Thread(target=start, name="ionicity-prestart", daemon=True)
