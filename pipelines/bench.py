@@ -10,7 +10,7 @@ the D present, the rest drawn uniformly), then measures in one run:
 * ``score_seconds``: ``python -m pipelines score IN -o OUT --quiet``, end to
   end in a fresh process (start-up included, as for the floor);
 
-  both run ``--repeat`` times (default 3), alternating, and the medians are
+  both run ``--repeat`` times (default 5), alternating, and the medians are
   the figures (each run is printed too);
 * ``per_row_seconds``: what a hand-written pandas ``apply`` costs: read with
   pandas, ``df[formula].apply(score_row)`` where ``score_row`` first clears
@@ -308,8 +308,8 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--distinct", type=int, default=20_000, help="distinct formulas among them (default: 20,000)")
     parser.add_argument("--format", choices=("parquet", "csv"), default="parquet", help="table format (default: parquet)")
     parser.add_argument("--workers", type=int, help="--workers passed to ionicity score (default: every core)")
-    parser.add_argument("--repeat", type=int, default=3,
-                        help="runs of the floor and of score, alternating; medians are reported (default: 3)")
+    parser.add_argument("--repeat", type=int, default=5,
+                        help="runs of the floor and of score, alternating; medians are reported (default: 5)")
     parser.add_argument("--baseline-rows", type=int, default=2000,
                         help="rows of the random sample the per-row baseline is timed on (default: 2000)")
     parser.add_argument("--memory-scaling", action="store_true",
