@@ -229,6 +229,7 @@ def formula_caches() -> list:
     for module_name, attribute in (
         ("scorer.record", "_score_text"),
         ("scorer.record", "_anhydrous_scores"),
+        ("scorer.record", "_unrounded_mass"),
         ("scorer.formula", "parse_formula"),
         ("scorer.formula", "_parse_normalised"),
         ("scorer.formula", "_component"),

@@ -30,7 +30,6 @@ from __future__ import annotations
 import math
 import re
 import unicodedata
-import dataclasses
 from dataclasses import dataclass, field
 from functools import lru_cache
 
@@ -134,6 +133,15 @@ class Composition:
 
     def as_dict(self) -> dict[str, float]:
         return dict(self.counts)
+
+    def respelled(self, text: str, *, hydrate_water: float | None = None, notes: tuple[str, ...] | None = None):
+        """This composition with another text (and lattice water, notes):
+        ``dataclasses.replace`` without its field-by-field introspection,
+        which the parser's hot path cannot afford."""
+        return Composition(
+            text, self.counts, self.hydrate_water if hydrate_water is None else hydrate_water, self.charge,
+            self.ion_hints, self.neutral_adducts, self.structure_hint, self.notes if notes is None else notes,
+        )
 
     @property
     def hill(self) -> str:
@@ -513,7 +521,7 @@ def parse_formula(text: str) -> Composition:
         raise FormulaError(message) from None
     if not notes and not parsed.notes and parsed.text == text:
         return parsed
-    return dataclasses.replace(parsed, text=text, notes=tuple(notes) + parsed.notes)
+    return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
 
 
 @lru_cache(maxsize=65536)
@@ -556,7 +564,7 @@ def _as_hydrate(cleaned: str) -> Composition | None:
     total_atoms = sum(n for _, n in salt.counts) + 3 * water
     if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
         return None
-    return dataclasses.replace(salt, text=cleaned, hydrate_water=water)
+    return salt.respelled(cleaned, hydrate_water=water)
 
 
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:

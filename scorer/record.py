@@ -29,7 +29,14 @@ def molar_mass_g_mol(counts: dict[str, float]) -> float:
     """
     # standard atomic weights carry at most 5-6 significant figures; rounding
     # drops float noise such as 58.43976928000001 from the table
-    return round(float(sum(get_element(s).atomic_weight * n for s, n in counts.items())), 4)
+    return round(_unrounded_mass(tuple(counts.items())), 4)
+
+
+@lru_cache(maxsize=65536)
+def _unrounded_mass(counts: tuple[tuple[str, float], ...]) -> float:
+    """Sum of standard atomic weights times counts, cached per composition
+    (a hydrate adds its water to its salt's sum)."""
+    return float(sum(get_element(s).atomic_weight * n for s, n in counts))
 
 
 def _ion_text(term: IonTerm, bracket_polyatomic: bool) -> str:
@@ -125,6 +132,9 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     row = list(empty)
     for name, value in values.items():
         row[position[name]] = value
+    error = dec.substance_class == "unknown"
+    row[position["status"]] = "error" if error else ("warning" if warnings else "ok")
+    row[position["message"]] = "; ".join(dict.fromkeys(warnings))
     notes = "; ".join(dict.fromkeys(gaps))
     hydrate_notes = notes
     if dec.substance_class in _IONIC_CLASSES:
@@ -160,16 +170,22 @@ def _composition_row(comp: Composition) -> tuple:
     )
     position = _layout()[1]
     row = list(base)
-    notes = [RowWarning(n) for n in comp.notes] + list(warnings)
     water = comp.hydrate_water
     row[position["formula_normalized"]] = formula + _water_suffix(water)
     row[position["hydrate_water"]] = float(water)
-    row[position["molar_mass_g_mol"]] = molar_mass_g_mol(comp.total_counts)
-    error = values["substance_class"] == "unknown"
-    row[position["status"]] = "error" if error else ("warning" if notes else "ok")
-    row[position["message"]] = "; ".join(dict.fromkeys(notes))
+    # per formula unit with its lattice water
+    row[position["molar_mass_g_mol"]] = round(_unrounded_mass(comp.counts) + water * _unrounded_mass(_WATER), 4)
+    if comp.notes:  # a spelling-specific warning (an ignored annotation, an ambiguous charge)
+        notes = [RowWarning(n) for n in comp.notes] + list(warnings)
+        error = values["substance_class"] == "unknown"
+        row[position["status"]] = "error" if error else ("warning" if notes else "ok")
+        row[position["message"]] = "; ".join(dict.fromkeys(notes))
     row[position["value_notes"]] = gaps[1] if water else gaps[0]
     return tuple(row)
+
+
+_WATER = (("H", 2.0), ("O", 1.0))
+
 
 
 def _error_row(message: str) -> tuple:
