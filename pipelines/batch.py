@@ -147,10 +147,66 @@ class Summary:
         )
 
 
+# Arrays of Python values are built here without pa.array: on its first
+# conversion pyarrow imports pandas (some 0.3 s of CPU), which a run of the
+# command line never needs otherwise.
+_StringBuilder = getattr(pa.lib, "StringBuilder", None)
+
+
+def _validity(valid: np.ndarray) -> tuple:
+    """(validity buffer or None, null count) of a boolean mask."""
+    nulls = len(valid) - int(np.count_nonzero(valid))
+    if not nulls:
+        return None, 0
+    return pa.py_buffer(np.packbits(valid, bitorder="little")), nulls
+
+
 def _float_array(values) -> pa.Array:
-    # a NaN score becomes a null cell, as for text columns (v != v only for
-    # NaN; from_pandas=True would do it too but imports pandas)
-    return pa.array([None if v is None or v != v else v for v in values], type=pa.float64())
+    """float64 array of floats or None; a NaN score becomes a null cell, as
+    for text columns."""
+    data = np.array(values, dtype=np.float64)  # None -> NaN
+    bitmap, nulls = _validity(~np.isnan(data))
+    return pa.Array.from_buffers(pa.float64(), len(data), [bitmap, pa.py_buffer(data)], null_count=nulls)
+
+
+def _int_array(values) -> pa.Array:
+    """int64 array of a sequence of ints (no nulls)."""
+    data = np.ascontiguousarray(values, dtype=np.int64)
+    return pa.Array.from_buffers(pa.int64(), len(data), [None, pa.py_buffer(data)], null_count=0)
+
+
+def _bool_array(values) -> pa.Array:
+    """bool array of True, False or None."""
+    valid = np.fromiter((v is not None for v in values), dtype=bool, count=len(values))
+    data = np.fromiter((bool(v) for v in values), dtype=bool, count=len(values))
+    bitmap, nulls = _validity(valid)
+    bits = pa.py_buffer(np.packbits(data, bitorder="little"))
+    return pa.Array.from_buffers(pa.bool_(), len(values), [bitmap, bits], null_count=nulls)
+
+
+def _string_array(values) -> pa.Array:
+    """string array of str or None."""
+    if _StringBuilder is None:
+        return pa.array(values, type=pa.string())
+    builder = _StringBuilder()
+    builder.append_values(values)
+    return builder.finish()
+
+
+def _int_numpy(array: pa.Array) -> np.ndarray:
+    """A view of an integer array without nulls (``to_numpy`` imports pandas)."""
+    width = array.type.bit_width // 8
+    return np.frombuffer(array.buffers()[1], dtype=f"<i{width}", count=len(array), offset=array.offset * width)
+
+
+def _values_array(values, type: pa.DataType) -> pa.Array:
+    if type == pa.float64():
+        return _float_array(values)
+    if type == pa.bool_():
+        return _bool_array(values)
+    if type == pa.string():
+        return _string_array(values)
+    return pa.array(values, type=type)
 
 
 class FormulaCache:
@@ -209,7 +265,7 @@ class FormulaCache:
         """The cached formulas in row order (a string array; null is the
         empty-cell record), for ``pyarrow.compute.index_in``."""
         if self._pending_keys:
-            self._keys = pa.concat_arrays([self._keys, pa.array(self._pending_keys, type=pa.string())])
+            self._keys = pa.concat_arrays([self._keys, _string_array(self._pending_keys)])
             self._marks = np.concatenate([self._marks, np.zeros(len(self._pending_keys), dtype=np.int64)])
             self._pending_keys = []
         return self._keys
@@ -219,12 +275,12 @@ class FormulaCache:
         marks them. A scorer counts the distinct formulas of its run this
         way without hashing every row's text again."""
         keys = self.keys()
-        distinct = pc.unique(rows).to_numpy(zero_copy_only=False)
+        distinct = _int_numpy(pc.unique(rows))
         fresh = distinct[self._marks[distinct] != token]
         if not len(fresh):
             return []
         self._marks[fresh] = token
-        return keys.take(pa.array(fresh)).to_pylist()
+        return keys.take(_int_array(fresh)).to_pylist()
 
     def arrays(self) -> list[pa.Array]:
         """One array per generated column, one row per cached formula; text
@@ -234,14 +290,13 @@ class FormulaCache:
             self._pending = []
             self._arrays = [
                 self._append_text(old, values) if text
-                else pa.concat_arrays([old, _float_array(values) if old.type == pa.float64()
-                                       else pa.array(values, type=old.type)])
+                else pa.concat_arrays([old, _values_array(values, old.type)])
                 for old, text, values in zip(self._arrays, self._text, by_column)
             ]
         return self._arrays
 
     def _append_text(self, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
-        texts = pa.array(values, type=pa.string())
+        texts = _string_array(values)
         dictionary = old.dictionary
         unseen = pc.unique(texts.filter(pc.is_null(pc.index_in(texts, value_set=dictionary)))).drop_null()
         if len(unseen):
@@ -260,10 +315,10 @@ class FormulaCache:
         others = [f for f in self.index if f not in keep]
         kept += others[max(len(others) - max(budget - len(kept), 0), 0):]
         kept.sort(key=self.index.__getitem__)
-        rows = pa.array([self.index[f] for f in kept], type=pa.int64())
+        rows = _int_array([self.index[f] for f in kept])
         self.keys()
-        self._keys = pa.array(kept, type=pa.string())
-        self._marks = self._marks[rows.to_numpy()]
+        self._keys = _string_array(kept)
+        self._marks = self._marks[_int_numpy(rows)]
         self._arrays = []
         for k, array in enumerate(arrays):
             array = array.take(rows)
@@ -470,7 +525,7 @@ class BatchScorer:
                 self._store([None], score_values([None]), keep=ticket.distinct)
                 found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
                 rows = found.take(ticket.indices)
-            rows = pc.fill_null(rows, self.cache.index[None])
+            rows = pc.fill_null(rows, _int_array([self.cache.index[None]]).cast(rows.type)[0])
         self._note_seen(self.cache.first_seen(found, self._token))
         return rows
 

@@ -279,3 +279,40 @@ def test_batches_read_ahead_survive_a_full_cache():
         assert got == expected
     assert len(scorer.cache) <= 100
     assert scorer.distinct_formulas == 400
+
+
+@pytest.mark.parametrize("values, arrow_type", [
+    ([1.5, None, float("nan"), -0.0, 2e300] * 7, pa.float64()),
+    ([1.0, 2.0], pa.float64()),
+    ([True, None, False] * 5, pa.bool_()),
+    ([False, True], pa.bool_()),
+    (["α", None, "", "NaCl", "x" * 400] * 3, pa.string()),
+])
+def test_cache_arrays_match_pyarrow_conversion(values, arrow_type):
+    # The cache builds its arrays without pa.array (which imports pandas);
+    # pyarrow's own conversion, with NaN read as null, is the reference.
+    from pipelines.batch import _values_array
+
+    expected = pa.array([None if v is None or v != v else v for v in values], type=arrow_type)
+    got = _values_array(values, arrow_type)
+    got.validate(full=True)
+    assert got.equals(expected)
+    assert got.null_count == expected.null_count
+
+
+def test_a_run_does_not_import_pandas(tmp_path):
+    # pandas costs some 0.3 s of CPU to import; a command-line run never needs it
+    import subprocess
+    import sys
+
+    src = tmp_path / "in.parquet"
+    pq.write_table(mixed_table(300), src)
+    code = (
+        "import sys\n"
+        "from pipelines.cli import main\n"
+        f"code = main(['score', {str(src)!r}, '-o', {str(tmp_path / 'out.parquet')!r}, '--quiet', '--workers', '1'])\n"
+        "print(code, 'pandas' in sys.modules)\n"
+    )
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True,
+                         cwd=os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+    assert out.stdout.split() == ["0", "False"]
