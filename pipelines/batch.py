@@ -470,13 +470,17 @@ class BatchScorer:
         meanwhile."""
         # each text is hashed once, here; the cache is then searched for the
         # batch's distinct formulas only
-        encoded = pc.dictionary_encode(formulas)
-        distinct, indices = encoded.dictionary, encoded.indices
+        if pa.types.is_dictionary(formulas.type):
+            distinct, indices = _used_entries(formulas)
+        else:
+            encoded = pc.dictionary_encode(formulas)
+            distinct, indices = encoded.dictionary, encoded.indices
         if indices.null_count and None not in self.cache.index:
             self._store([None], score_values([None]), keep=distinct)
         missing = pc.is_null(pc.index_in(distinct, value_set=self.cache.keys()))
         if pc.any(missing).as_py():
-            texts = [f for f in distinct.filter(missing).to_pylist() if f not in self._in_flight]
+            # (dict.fromkeys: a dictionary read from a file is not checked for repeats)
+            texts = [f for f in dict.fromkeys(distinct.filter(missing).to_pylist()) if f not in self._in_flight]
             if texts and not self._use_pool(len(texts)):
                 self._store(texts, score_values(texts), keep=distinct)
             elif texts:
@@ -542,11 +546,25 @@ class Ticket:
 
 
 def formula_array(batch: pa.RecordBatch, formula_col: str) -> pa.Array:
-    """The formula column of a batch as a string array."""
+    """The formula column of a batch as a string array, or as a dictionary
+    array of strings when it was read that way."""
     formulas = batch.column(batch.schema.get_field_index(formula_col))
+    if pa.types.is_dictionary(formulas.type) and pa.types.is_string(formulas.type.value_type):
+        return formulas
     if not pa.types.is_string(formulas.type):
         formulas = pc.cast(formulas, pa.string())
     return formulas
+
+
+def _used_entries(formulas: pa.DictionaryArray) -> tuple[pa.Array, pa.Array]:
+    """(distinct, indices) of a dictionary array, keeping only the entries
+    its rows use: a batch read from Parquet carries its row group's whole
+    dictionary, and a formula none of its rows holds is not due yet."""
+    indices = formulas.indices
+    used = pc.unique(indices).drop_null()
+    if len(used) == len(formulas.dictionary):
+        return formulas.dictionary, indices
+    return formulas.dictionary.take(used), pc.index_in(indices, value_set=used)
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
@@ -652,7 +670,12 @@ def score_batch(
     if ticket is None:
         ticket = scorer.submit(formula_array(batch, formula_col))
     rows = scorer.rows_of(ticket)
-    columns = list(batch.columns) + [a.take(rows) for a in scorer.cache.arrays()]
+    columns = [
+        # a column read dictionary-encoded (the formulas, from Parquet) goes
+        # out with its input type
+        c.dictionary_decode() if pa.types.is_dictionary(c.type) and not pa.types.is_dictionary(f.type) else c
+        for c, f in zip(batch.columns, schema)
+    ] + [a.take(rows) for a in scorer.cache.arrays()]
     if model is not None:
         distinct = ticket.distinct.to_pylist()
         indices = ticket.indices
@@ -811,6 +834,9 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     started = time.perf_counter()
     model = load_model_applier(config)
     reader, formula_col, schema = prepare(config)
+    # the formulas' distinct values straight from the Parquet dictionary
+    # pages: hashing every row's text cost more than a fifth of this process's time
+    reader.read_dictionary = (formula_col,)
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
     # Parquet min/max statistics for the input and the numeric columns only:
     # on generated text (free text, or a few labels found in every row group)

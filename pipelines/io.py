@@ -180,6 +180,11 @@ class TableReader:
     total_rows: int | None = None
     fraction_done: Callable[[], float | None] = field(default=lambda: None)
     paths: tuple[str, ...] = ()
+    #: string columns a Parquet input hands over dictionary-encoded as they
+    #: are stored (``dictionary<int32, string>`` in the batches), so that
+    #: their distinct values are known without hashing every row; set before
+    #: the first batch is taken. Other formats ignore it.
+    read_dictionary: tuple[str, ...] = ()
 
 
 class _CountingStream(io.RawIOBase):
@@ -364,16 +369,26 @@ def _read_parquet(path: str, batch_rows: int) -> TableReader:
 
     def batches() -> Iterator[pa.RecordBatch]:
         try:
+            names = [n for n in reader.read_dictionary if n in schema.names and schema.field(n).type == pa.string()]
+            batch_schema = schema
+            if names:
+                for i, f in enumerate(files):
+                    f.close()
+                    files[i] = pq.ParquetFile(paths[i], read_dictionary=names)
+                for n in names:
+                    at = schema.get_field_index(n)
+                    batch_schema = batch_schema.set(at, schema.field(n).with_type(pa.dictionary(pa.int32(), pa.string())))
             for f in files:
                 for batch in f.iter_batches(batch_size=batch_rows):
-                    yield pa.RecordBatch.from_arrays(batch.columns, schema=schema)
+                    yield pa.RecordBatch.from_arrays(batch.columns, schema=batch_schema)
         except (pa.ArrowInvalid, OSError) as exc:
             raise InputError(f"cannot read {path!r} as Parquet: {_first_line(exc)}") from None
         finally:
             for f in files:
                 f.close()
 
-    return TableReader(schema, batches(), "parquet", path, total_rows=total, paths=tuple(paths))
+    reader = TableReader(schema, batches(), "parquet", path, total_rows=total, paths=tuple(paths))
+    return reader
 
 
 def open_reader(path: str, batch_rows: int = 65536) -> TableReader:

@@ -91,7 +91,10 @@ def test_rows_order_and_input_columns_survive(tmp_path, fmt):
             column_types={n: pa.string() for n in names}, strings_can_be_null=False))
     assert result.num_rows == table.num_rows == summary.rows
     assert digests(result, table.column_names) == digests(table, table.column_names)
-    expected = [score_formula(f)["status"] for f in table.column("formula").to_pylist()]
+    assert result.schema.field("formula").type == table.schema.field("formula").type
+    texts = table.column("formula").to_pylist()
+    assert summary.distinct_formulas == len({f for f in texts if f is not None and f.strip()})
+    expected = [score_formula(f)["status"] for f in texts]
     assert result.column("status").to_pylist() == expected
     assert summary.ok + summary.warning + summary.error == summary.rows
 
@@ -109,6 +112,26 @@ def test_values_match_score_formula(tmp_path):
                 assert value is None, (text, column.name)  # NaN is written as a null cell
             else:
                 assert value == want, (text, column.name)
+
+
+def test_a_dictionary_column_scores_only_the_entries_its_rows_use(monkeypatch):
+    # A Parquet batch read dictionary-encoded carries its row group's whole
+    # dictionary; entries no row of the batch holds wait for their own batch.
+    calls = []
+    real = pool_module.score_values
+    monkeypatch.setattr("pipelines.batch.score_values", lambda texts: calls.extend(texts) or real(texts))
+    dictionary = pa.array(["NaCl", "KCl", "MgO", "CaF2"])
+    column = pa.DictionaryArray.from_arrays(pa.array([1, None, 1, 3], pa.int32()), dictionary)
+    batch = pa.record_batch({"formula": column})
+    schema = output_schema(pa.schema([pa.field("formula", pa.string())]))
+    scorer = BatchScorer(1, cache=FormulaCache())
+    out = score_batch(batch, "formula", schema, scorer)
+    assert sorted(c for c in calls if c is not None) == ["CaF2", "KCl"]
+    assert out.column(0).to_pylist() == ["KCl", None, "KCl", "CaF2"]
+    assert out.column(0).type == pa.string()
+    assert out.column(out.schema.get_field_index("formula_normalized")).to_pylist() == [
+        score_formula(f)["formula_normalized"] for f in ["KCl", None, "KCl", "CaF2"]]
+    assert scorer.distinct_formulas == 2
 
 
 def test_each_distinct_formula_is_scored_once(monkeypatch):
