@@ -406,6 +406,31 @@ def open_reader(path: str, batch_rows: int = 65536) -> TableReader:
 # --------------------------------------------------------------------------- writing
 
 
+def _share_dictionaries(batches: list[pa.RecordBatch]) -> list[pa.RecordBatch]:
+    """The batches of one row group, each dictionary column given the last
+    batch's dictionary where the earlier one is a prefix of it (a dictionary
+    that only grew, as a scorer's cache does): the same codes then mean the
+    same values, and the Parquet writer encodes the column chunk against one
+    dictionary instead of decoding and hashing every row again."""
+    if len(batches) < 2:
+        return batches
+    last = batches[-1]
+    kinds = [pa.types.is_dictionary(f.type) for f in last.schema]
+    if not any(kinds):
+        return batches
+    out = []
+    for batch in batches[:-1]:
+        columns = list(batch.columns)
+        for i, column in enumerate(columns):
+            if not kinds[i]:
+                continue
+            old, new = column.dictionary, last.column(i).dictionary
+            if len(old) <= len(new) and new.slice(0, len(old)).equals(old):
+                columns[i] = pa.DictionaryArray.from_arrays(column.indices, new)
+        out.append(pa.RecordBatch.from_arrays(columns, schema=batch.schema))
+    return out + [last]
+
+
 class TableWriter:
     """Writes batches to a temporary file beside ``path``; :meth:`commit`
     renames it into place, :meth:`abort` removes it. ``-`` writes CSV to
@@ -511,7 +536,7 @@ class TableWriter:
 
     def _flush(self) -> None:
         if self._gathered:
-            table = pa.Table.from_batches(self._gathered, schema=self.schema)
+            table = pa.Table.from_batches(_share_dictionaries(self._gathered), schema=self.schema)
             self._gathered, self._gathered_rows = [], 0
             self._writer.write_table(table, row_group_size=max(table.num_rows, 1))
 

@@ -219,3 +219,31 @@ def test_stale_partials_of_dead_processes_are_removed(tmp_path):
     removed = clean_stale_partials(str(tmp_path))
     assert removed == [stale]
     assert os.path.exists(mine) and os.path.exists(other_host) and os.path.exists(unrelated)
+
+
+def test_a_grown_dictionary_is_shared_across_a_row_group(tmp_path):
+    # A scorer's cache only appends to its dictionaries, so an earlier
+    # batch's dictionary is a prefix of a later one's; the writer then gives
+    # the row group one dictionary. A dictionary that is not a prefix (here
+    # reordered) is left as it is. Either way every cell reads back unchanged.
+    kind = pa.dictionary(pa.int32(), pa.string())
+    schema = pa.schema([pa.field("label", kind)])
+    grown = pa.array(["ok", "warning", "error"])
+    batches = [
+        pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([0, 0, None], pa.int32()), grown.slice(0, 1))], schema=schema),
+        pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([1, 0], pa.int32()), pa.array(["warning", "ok"]))], schema=schema),
+        pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([2, 1], pa.int32()), grown)], schema=schema),
+    ]
+    from pipelines.io import _share_dictionaries
+
+    shared = _share_dictionaries(batches)
+    assert shared[0].column(0).dictionary.equals(grown)
+    assert shared[1].column(0).dictionary.to_pylist() == ["warning", "ok"]
+    for before, after in zip(batches, shared):
+        assert after.column(0).to_pylist() == before.column(0).to_pylist()
+    out = tmp_path / "out.parquet"
+    writer = TableWriter(str(out), schema, row_group_rows=100)
+    for batch in batches:
+        writer.write(batch)
+    writer.commit()
+    assert pq.read_table(out).column("label").to_pylist() == [v for b in batches for v in b.column(0).to_pylist()]
