@@ -31,6 +31,7 @@ def test_bench_prints_every_figure_as_name_value(tmp_path):
         assert float(figures[name]) > 0, name
     assert len(figures["score_seconds_each"].split(", ")) == 2
     assert figures["rows"] == "3000" and figures["distinct"] == "300"
+    assert figures["bytecode_compiled"] == "yes"
 
 
 def test_bench_table_holds_every_distinct_formula(tmp_path):
