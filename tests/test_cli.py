@@ -284,3 +284,43 @@ def test_ten_rows_cost_at_most_twice_importing_pandas_and_pyarrow(tmp_path):
     reference = _best_of([sys.executable, "-c", "import pandas, pyarrow"])
     scoring = _best_of([sys.executable, "-m", "pipelines", "score", str(src), "-o", "-", "--quiet"])
     assert scoring <= 2 * reference, (scoring, reference)
+
+
+def _pool_used_by_a_run(tmp_path, env_extra: dict) -> str:
+    src = tmp_path / "in.csv"
+    src.write_text("formula\nNaCl\nKCl\n")
+    code = (
+        "import sys, pyarrow as pa\n"
+        "from pipelines.cli import main\n"
+        f"code = main(['score', {str(src)!r}, '-o', {str(tmp_path / 'out.csv')!r}, '--quiet', '--overwrite'])\n"
+        "print(code, pa.default_memory_pool().backend_name)\n"
+    )
+    env = dict(_env(), **env_extra)
+    if env_extra.get("ARROW_DEFAULT_MEMORY_POOL") is None:
+        env.pop("ARROW_DEFAULT_MEMORY_POOL", None)
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env, cwd=ROOT, check=True)
+    return out.stdout.split()
+
+
+def test_the_command_line_scores_with_jemalloc_unless_told_otherwise(tmp_path):
+    import pyarrow as pa
+
+    try:
+        pa.jemalloc_memory_pool()
+    except NotImplementedError:
+        pytest.skip("this pyarrow has no jemalloc pool")
+    assert _pool_used_by_a_run(tmp_path, {}) == ["0", "jemalloc"]
+    # the user's choice stands
+    assert _pool_used_by_a_run(tmp_path, {"ARROW_DEFAULT_MEMORY_POOL": "system"}) == ["0", "system"]
+
+
+def test_the_python_api_leaves_the_memory_pool_alone(tmp_path):
+    import pyarrow as pa
+
+    from pipelines.batch import score_file
+
+    before = pa.default_memory_pool().backend_name
+    src = tmp_path / "in.csv"
+    src.write_text("formula\nNaCl\n")
+    score_file(str(src), str(tmp_path / "out.csv"), quiet=True)
+    assert pa.default_memory_pool().backend_name == before
