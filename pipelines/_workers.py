@@ -107,6 +107,15 @@ def ready() -> None:
     """A task that does nothing: submitting one to a worker starts it."""
 
 
+def one_blas_thread() -> None:
+    """Ask numpy's BLAS for one thread in this process (unless the user set
+    the count): each worker scores one formula at a time, and a thread pool
+    per worker would only spin beside it on the cores the other workers
+    need. Has effect only before numpy is first imported."""
+    for name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+        os.environ.setdefault(name, "1")
+
+
 def worker_init(parent_pid: int | None = None) -> None:
     """Run once in each worker: ignore Ctrl-C (it reaches the whole process
     group; the parent decides what to do), exit when the parent is gone, and
@@ -114,6 +123,7 @@ def worker_init(parent_pid: int | None = None) -> None:
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     if parent_pid is not None:
         _exit_with(parent_pid)
+    one_blas_thread()
     from pipelines._pool import warm_up
 
     warm_up()

@@ -617,8 +617,7 @@ def _structure_terms(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -
     r0 = r_c + r_a
     volume = math.nan
     if not math.isnan(r0):
-        cell_volume = abs(float(np.linalg.det(np.asarray(structure.lattice))))
-        volume = cell_volume / details.formula_units * (r0 / 100.0 / details.r_mean_first_shell) ** 3 * 1e-3
+        volume = _cell_volume(assignment.structure_type) / details.formula_units * (r0 / 100.0 / details.r_mean_first_shell) ** 3 * 1e-3
     n = math.nan
     n_text = "Born exponents by configuration are defined for monatomic ions only"
     if cation.element is not None and anion.element is not None:
@@ -636,6 +635,13 @@ def _structure_terms(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -
         born_exponent_text=n_text,
         volume_nm3=volume,
     )
+
+
+@lru_cache(maxsize=None)
+def _cell_volume(structure_type: str) -> float:
+    """Volume of a prototype's cell, in its own length unit cubed (computed
+    once per prototype, not once per salt)."""
+    return abs(float(np.linalg.det(np.asarray(prototype_structure(structure_type).lattice))))
 
 
 def formula_unit_volume_nm3(dec: Decomposition) -> tuple[float, str]:
