@@ -68,6 +68,8 @@ __all__ = [
     "madelung_constant",
     "madelung_details",
     "ewald_energy_per_cell",
+    "ewald_details",
+    "prototype_snapshot",
 ]
 
 CONVENTIONS = ("common_factor", "charge_product", "reduced")
@@ -352,7 +354,16 @@ def madelung_details(structure: CrystalStructure | str) -> MadelungResult:
     madelung_constant : the constant alone, in one convention.
     """
     if isinstance(structure, str):
+        snapshot = prototype_snapshot().get(_canonical_prototype_name(structure))
+        if snapshot is not None:
+            return snapshot
         structure = prototype_structure(structure)
+    return ewald_details(structure)
+
+
+def ewald_details(structure: CrystalStructure) -> MadelungResult:
+    """:func:`madelung_details` computed now by the Ewald sum, never read
+    from the prototype snapshot (which this function builds and checks)."""
     energy = ewald_energy_per_cell(structure)
     r0, r_shell = _cation_anion_distances(structure)
     z_units = _formula_units(structure.species)
@@ -603,6 +614,30 @@ _ALIASES = {
     "zincblende": "zinc-blende",
     "antifluorite": "anti-fluorite",
 }
+
+
+PROTOTYPE_SNAPSHOT_FILE = "madelung_prototypes.csv"
+_SNAPSHOT_FIELDS = (
+    "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",
+    "common_factor", "charge_product", "ionic_strength",
+)
+
+
+@lru_cache(maxsize=1)
+def prototype_snapshot() -> dict[str, MadelungResult]:
+    """The Ewald results of the built-in prototypes, as
+    ``scorer/data/build_madelung.py`` wrote them: every scoring process needs
+    them, and summing them again in each took about 0.1 s (corundum most).
+    ``tests/test_madelung.py`` sums them afresh and compares."""
+    import csv
+    from importlib import resources
+
+    text = resources.files("scorer.data").joinpath(PROTOTYPE_SNAPSHOT_FILE).read_text(encoding="utf-8")
+    out = {}
+    for row in csv.DictReader(text.splitlines()):
+        values = {f: (int(row[f]) if f == "formula_units" else float(row[f])) for f in _SNAPSHOT_FIELDS}
+        out[row["prototype"]] = MadelungResult(**values)
+    return out
 
 
 def _canonical_prototype_name(name: str) -> str | None:

@@ -182,3 +182,22 @@ def test_charge_product_undefined_for_several_cation_charges():
 def test_lists_and_arrays_are_accepted():
     s = CrystalStructure("CsCl from lists", np.eye(3) * 4.123, ["Cs", "Cl"], [[0, 0, 0], [0.5, 0.5, 0.5]], np.array([1, -1]))
     assert madelung_constant(s) == pytest.approx(1.76267, rel=1e-5)
+
+
+def test_prototype_snapshot_is_a_fresh_ewald_sum():
+    # The snapshot only saves every process the sums; it must be what the
+    # Ewald code gives now (the published values above check that code).
+    from scorer.data.build_madelung import OUT, build, differences
+
+    assert differences(build(), OUT.read_text(encoding="utf-8")) == []
+
+
+def test_prototype_names_read_the_snapshot_and_structures_are_summed():
+    from scorer.madelung import ewald_details, prototype_snapshot
+
+    snapshot = prototype_snapshot()
+    assert set(snapshot) == set(PROTOTYPES)
+    assert madelung_details("halite") == snapshot["rock-salt"]
+    summed = madelung_details(prototype_structure("corundum"))
+    assert summed == ewald_details(prototype_structure("corundum"))
+    assert summed.total == pytest.approx(snapshot["corundum"].total, rel=1e-12)
