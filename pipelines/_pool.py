@@ -39,13 +39,13 @@ def _failed_record(text, exc: Exception) -> dict:
 _WARM = []
 
 
-def warm_up() -> None:
-    """Load the scorer's data tables and compute the Madelung constant of
-    every prototype now, rather than inside the first tasks; once per
-    process (the forkserver does it once for all workers, see
-    :mod:`pipelines._warm`)."""
+def warm_up() -> bool:
+    """Load the scorer's data tables and the Madelung constants of every
+    prototype now, rather than inside the first tasks; once per process (the
+    forkserver does it once for all workers, see :mod:`pipelines._warm`).
+    Returns whether this call did the work."""
     if _WARM:
-        return
+        return False
     from scorer.madelung import PROTOTYPES, madelung_details
 
     for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl"):
@@ -53,3 +53,4 @@ def warm_up() -> None:
     for name in PROTOTYPES:
         madelung_details(name)
     _WARM.append(True)
+    return True

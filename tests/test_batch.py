@@ -339,3 +339,17 @@ def test_a_run_does_not_import_pandas(tmp_path):
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True,
                          cwd=os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
     assert out.stdout.split() == ["0", "False"]
+
+
+def test_workers_start_warm_with_one_blas_thread_and_a_settled_collector():
+    import gc
+
+    from pipelines._workers import new_workers, stop_workers
+
+    workers = new_workers(1)
+    try:
+        assert workers[0].submit(gc.get_threshold).result(timeout=120) == (10_000, 50, 50)
+        assert workers[0].submit(gc.get_freeze_count).result(timeout=120) > 0
+        assert workers[0].submit(os.getenv, "OPENBLAS_NUM_THREADS").result(timeout=120) is not None
+    finally:
+        stop_workers(workers)
