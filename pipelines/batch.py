@@ -196,6 +196,8 @@ def _string_array(values) -> pa.Array:
 def _int_numpy(array: pa.Array) -> np.ndarray:
     """A view of an integer array without nulls (``to_numpy`` imports pandas)."""
     width = array.type.bit_width // 8
+    if not len(array):
+        return np.zeros(0, dtype=f"<i{width}")
     return np.frombuffer(array.buffers()[1], dtype=f"<i{width}", count=len(array), offset=array.offset * width)
 
 

@@ -353,3 +353,14 @@ def test_workers_start_warm_with_one_blas_thread_and_a_settled_collector():
         assert workers[0].submit(os.getenv, "OPENBLAS_NUM_THREADS").result(timeout=120) is not None
     finally:
         stop_workers(workers)
+
+
+def test_an_empty_batch_scores_to_an_empty_batch():
+    schema = output_schema(pa.schema([pa.field("formula", pa.string())]))
+    scorer = BatchScorer(1, cache=FormulaCache())
+    plain = pa.record_batch({"formula": pa.array([], pa.string())})
+    encoded = pa.record_batch({"formula": pa.DictionaryArray.from_arrays(pa.array([], pa.int32()), pa.array(["NaCl"]))})
+    for batch in (plain, encoded):
+        out = score_batch(batch, "formula", schema, scorer)
+        assert out.num_rows == 0 and out.schema == schema
+    assert scorer.distinct_formulas == 0
