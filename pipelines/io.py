@@ -370,17 +370,14 @@ def _read_parquet(path: str, batch_rows: int) -> TableReader:
     def batches() -> Iterator[pa.RecordBatch]:
         try:
             names = [n for n in reader.read_dictionary if n in schema.names and schema.field(n).type == pa.string()]
-            batch_schema = schema
-            if names:
-                for i, f in enumerate(files):
-                    f.close()
-                    files[i] = pq.ParquetFile(paths[i], read_dictionary=names)
-                for n in names:
-                    at = schema.get_field_index(n)
-                    batch_schema = batch_schema.set(at, schema.field(n).with_type(pa.dictionary(pa.int32(), pa.string())))
-            for f in files:
-                for batch in f.iter_batches(batch_size=batch_rows):
-                    yield pa.RecordBatch.from_arrays(batch.columns, schema=batch_schema)
+            dictionary_schema = schema
+            for n in names:
+                at = schema.get_field_index(n)
+                dictionary_schema = dictionary_schema.set(at, schema.field(n).with_type(pa.dictionary(pa.int32(), pa.string())))
+            for i in range(len(files)):
+                for batch in _part_batches(files, i, paths[i], names, batch_rows):
+                    encoded = names and pa.types.is_dictionary(batch.schema.field(names[0]).type)
+                    yield pa.RecordBatch.from_arrays(batch.columns, schema=dictionary_schema if encoded else schema)
         except (pa.ArrowInvalid, OSError) as exc:
             raise InputError(f"cannot read {path!r} as Parquet: {_first_line(exc)}") from None
         finally:
@@ -389,6 +386,31 @@ def _read_parquet(path: str, batch_rows: int) -> TableReader:
 
     reader = TableReader(schema, batches(), "parquet", path, total_rows=total, paths=tuple(paths))
     return reader
+
+
+def _part_batches(files: list, i: int, path: str, names: list[str], batch_rows: int) -> Iterator[pa.RecordBatch]:
+    """Batches of Parquet part ``i``, the columns ``names`` dictionary-encoded
+    as stored when that is cheap. It is not when the part's values are
+    mostly distinct: the writer then gave up its dictionary part-way, the
+    reader rebuilds one that grows with every batch, and each batch carries
+    a copy of it. A first batch whose dictionary outnumbers its rows shows
+    that, and the part is read again plainly (``files[i]`` is replaced)."""
+    if not names:
+        yield from files[i].iter_batches(batch_size=batch_rows)
+        return
+    files[i].close()
+    files[i] = pq.ParquetFile(path, read_dictionary=names)
+    batches = files[i].iter_batches(batch_size=batch_rows)
+    first = next(batches, None)
+    if first is None:
+        return
+    if any(len(first.column(n).dictionary) > first.num_rows for n in names):
+        files[i].close()
+        files[i] = pq.ParquetFile(path)
+        yield from files[i].iter_batches(batch_size=batch_rows)
+        return
+    yield first
+    yield from batches
 
 
 def open_reader(path: str, batch_rows: int = 65536) -> TableReader:

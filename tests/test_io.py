@@ -247,3 +247,22 @@ def test_a_grown_dictionary_is_shared_across_a_row_group(tmp_path):
         writer.write(batch)
     writer.commit()
     assert pq.read_table(out).column("label").to_pylist() == [v for b in batches for v in b.column(0).to_pylist()]
+
+
+def test_parquet_formulas_come_dictionary_encoded_unless_mostly_distinct(tmp_path):
+    # Few distinct values: the stored dictionary is handed over as it is.
+    # Mostly distinct ones (the writer gave up its dictionary part-way): the
+    # part is read plainly. The values are the file's either way.
+    few = tmp_path / "few.parquet"
+    many = tmp_path / "many.parquet"
+    repeated = [f"Na{i % 7}Cl" for i in range(5000)]
+    distinct = [f"Na{i}Cl" for i in range(5000)]
+    pq.write_table(pa.table({"formula": repeated}), few)
+    pq.write_table(pa.table({"formula": distinct}), many, dictionary_pagesize_limit=2000)
+    for path, values, kind in ((few, repeated, pa.types.is_dictionary), (many, distinct, pa.types.is_string)):
+        reader = open_reader(str(path), 1000)
+        reader.read_dictionary = ("formula",)
+        batches = list(reader.batches)
+        assert all(kind(b.schema.field("formula").type) for b in batches)
+        got = [v for b in batches for v in b.column(0).cast(pa.string()).to_pylist()]
+        assert got == values
