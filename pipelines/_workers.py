@@ -96,9 +96,23 @@ def stop_workers(workers: list[ProcessPoolExecutor], cancel: bool = False) -> No
     if cancel:
         # a worker still starting up when the parent exits would print a
         # traceback about its vanished semaphores; stop them first
+        processes = [p for worker in workers for p in list((getattr(worker, "_processes", None) or {}).values())]
+        for process in processes:
+            process.terminate()
+        for process in processes:
+            process.join(timeout=10)
         for worker in workers:
-            for process in list((getattr(worker, "_processes", None) or {}).values()):
-                process.terminate()
+            # A worker stopped while sending its results leaves half a message
+            # in the pipe, and the executor's reader thread then waits for the
+            # rest for good: this process holds the pipe's write end too.
+            # Closing it turns the wait into end-of-file (a broken pool), so
+            # shutdown below can join that thread.
+            writer = getattr(getattr(worker, "_result_queue", None), "_writer", None)
+            if writer is not None and not any(p.is_alive() for p in processes):
+                try:
+                    writer.close()
+                except OSError:
+                    pass
     for worker in workers:
         worker.shutdown(wait=True, cancel_futures=True)
 

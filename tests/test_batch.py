@@ -364,3 +364,23 @@ def test_an_empty_batch_scores_to_an_empty_batch():
         out = score_batch(batch, "formula", schema, scorer)
         assert out.num_rows == 0 and out.schema == schema
     assert scorer.distinct_formulas == 0
+
+
+def test_stopping_workers_that_left_half_a_result_does_not_hang():
+    # A worker stopped (Ctrl-C, a closed stdout) while sending its results
+    # leaves half a message in the result pipe; the executor's reader thread
+    # must not wait for the rest for good. Half a message is written here by hand.
+    import struct
+    import threading
+
+    from pipelines._workers import new_workers, stop_workers
+
+    workers = new_workers(1)
+    workers[0].submit(int).result(timeout=120)
+    writer = workers[0]._result_queue._writer
+    os.write(writer.fileno(), struct.pack("!i", 1000) + b"x" * 10)  # says 1000 bytes, sends 10
+    done = threading.Event()
+    threading.Thread(target=lambda: (stop_workers(workers, cancel=True), done.set()), daemon=True).start()
+    if not done.wait(60):
+        writer.close()  # let the process end, then fail
+        pytest.fail("stop_workers(cancel=True) hung on a half-sent result")

@@ -324,3 +324,23 @@ def test_the_python_api_leaves_the_memory_pool_alone(tmp_path):
     src.write_text("formula\nNaCl\n")
     score_file(str(src), str(tmp_path / "out.csv"), quiet=True)
     assert pa.default_memory_pool().backend_name == before
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("attempt", range(3))
+def test_a_reader_that_stops_early_ends_the_run_cleanly(big_csv, attempt):
+    # `ionicity score big.csv | head`: once the reader closes the pipe, the run
+    # stops its workers and ends without a traceback (once, it hung here).
+    process = subprocess.Popen(
+        [sys.executable, "-m", "pipelines", "score", str(big_csv), "--quiet", "--batch-rows", "20000"],
+        env=_env(), cwd=ROOT, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
+    )
+    assert process.stdout.readline().startswith(b'"sample_id",')
+    process.stdout.close()
+    try:
+        stderr = process.communicate(timeout=120)[1]
+    except subprocess.TimeoutExpired:
+        process.kill()
+        pytest.fail("the run did not end after its reader went away")
+    assert process.returncode == 0
+    assert b"Traceback" not in stderr
