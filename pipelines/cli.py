@@ -94,7 +94,7 @@ def _choose_memory_pool() -> None:
     the 2-core development machine the default pool (mimalloc, which asks for
     transparent huge pages) spent much of its time zeroing freshly faulted
     pages; with jemalloc the benchmark run was faster in 13 of 14 paired runs
-    and its peak memory fell from about 400 to 280 MiB (DEVELOPERS.md,
+    and its peak memory fell from about 410 to 310 MiB (DEVELOPERS.md,
     "Benchmarks"). Only the command line does this: the Python API leaves the
     caller's process alone."""
     if os.environ.get("ARROW_DEFAULT_MEMORY_POOL"):

@@ -617,7 +617,8 @@ def _structure_terms(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -
     r0 = r_c + r_a
     volume = math.nan
     if not math.isnan(r0):
-        volume = _cell_volume(assignment.structure_type) / details.formula_units * (r0 / 100.0 / details.r_mean_first_shell) ** 3 * 1e-3
+        scale = r0 / 100.0 / details.r_mean_first_shell
+        volume = _cell_volume(assignment.structure_type) / details.formula_units * scale**3 * 1e-3
     n = math.nan
     n_text = "Born exponents by configuration are defined for monatomic ions only"
     if cation.element is not None and anion.element is not None:
