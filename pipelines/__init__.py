@@ -14,11 +14,11 @@ import importlib
 __all__ = ["ScoreConfig", "Summary", "InputError", "score_file", "score_table"]
 
 _HOMES = {
-    "ScoreConfig": "pipelines.batch",
-    "Summary": "pipelines.batch",
-    "score_file": "pipelines.batch",
-    "score_table": "pipelines.batch",
-    "InputError": "pipelines.io",
+    "ScoreConfig": "ionicity.pipelines.batch",
+    "Summary": "ionicity.pipelines.batch",
+    "score_file": "ionicity.pipelines.batch",
+    "score_table": "ionicity.pipelines.batch",
+    "InputError": "ionicity.pipelines.io",
 }
 
 

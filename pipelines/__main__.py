@@ -1,4 +1,4 @@
-from pipelines.cli import entry_point
+from ionicity.pipelines.cli import entry_point
 
 if __name__ == "__main__":
     entry_point()

@@ -5,8 +5,8 @@ worker process only carries the scorer. A task is one list of formulas
 """
 from __future__ import annotations
 
-from scorer.columns import column_names
-from scorer.record import score_formula, score_row
+from ionicity.scorer.columns import column_names
+from ionicity.scorer.record import score_formula, score_row
 
 __all__ = ["score_values", "warm_up"]
 
@@ -25,7 +25,7 @@ def score_values(texts: list) -> list[tuple]:
 
 
 def _failed_record(text, exc: Exception) -> dict:
-    from scorer.record import empty_record
+    from ionicity.scorer.record import empty_record
 
     record = empty_record()
     record["status"] = "error"
@@ -46,7 +46,7 @@ def warm_up() -> bool:
     Returns whether this call did the work."""
     if _WARM:
         return False
-    from scorer.madelung import PROTOTYPES, madelung_details
+    from ionicity.scorer.madelung import PROTOTYPES, madelung_details
 
     for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl"):
         score_formula(text)

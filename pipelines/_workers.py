@@ -37,7 +37,7 @@ def new_workers(count: int) -> list[ProcessPoolExecutor]:
     methods = multiprocessing.get_all_start_methods()
     context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
     if context.get_start_method() == "forkserver":
-        context.set_forkserver_preload(["pipelines._warm"])
+        context.set_forkserver_preload(["ionicity.pipelines._warm"])
     return [
         ProcessPoolExecutor(max_workers=1, mp_context=context, initializer=worker_init, initargs=(os.getpid(),))
         for _ in range(count)
@@ -151,7 +151,7 @@ def worker_init(parent_pid: int | None = None) -> None:
     if parent_pid is not None:
         _exit_with(parent_pid)
     one_blas_thread()
-    from pipelines._pool import warm_up
+    from ionicity.pipelines._pool import warm_up
 
     if not warm_up():
         return  # forked from the warm forkserver: settled there

@@ -28,11 +28,11 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from scorer.columns import column_names, output_columns
+from ionicity.scorer.columns import column_names, output_columns
 
-from pipelines._pool import score_values
-from pipelines._workers import default_workers, new_workers, ready, stop_workers, take_prestarted
-from pipelines.io import InputError, TableWriter, open_reader
+from ionicity.pipelines._pool import score_values
+from ionicity.pipelines._workers import default_workers, new_workers, ready, stop_workers, take_prestarted
+from ionicity.pipelines.io import InputError, TableWriter, open_reader
 
 __all__ = [
     "ScoreConfig",
@@ -599,7 +599,7 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
 def _generated_columns(with_model: bool) -> tuple:
     if not with_model:
         return output_columns()
-    from scorer.melting import MODEL_COLUMNS
+    from ionicity.scorer.melting import MODEL_COLUMNS
 
     return output_columns() + tuple(MODEL_COLUMNS)
 
@@ -619,7 +619,7 @@ class ModelApplier:
     message of rows outside the model's training domain."""
 
     def __init__(self, model):
-        from scorer.melting import MODEL_COLUMNS, MODEL_FEATURES
+        from ionicity.scorer.melting import MODEL_COLUMNS, MODEL_FEATURES
 
         self.model = model
         self.names = [c.name for c in MODEL_COLUMNS]
@@ -630,7 +630,7 @@ class ModelApplier:
 
     def columns(self, distinct: list, cache_rows: pa.Array, cache: FormulaCache) -> tuple[list[pa.Array], pa.Array, pa.Array]:
         """(model arrays, status, message) for ``distinct``, one row each."""
-        from pipelines.melting_fit import apply_model_to_records
+        from ionicity.pipelines.melting_fit import apply_model_to_records
 
         new = [i for i, f in enumerate(distinct) if f not in self.done]
         if new:
@@ -761,11 +761,11 @@ def _data_versions() -> dict:
     import hashlib
     from importlib import resources
 
-    from scorer.elements import snapshot_info
+    from ionicity.scorer.elements import snapshot_info
 
     info = snapshot_info()
     tables = {}
-    for entry in sorted(resources.files("scorer.data").iterdir(), key=lambda e: e.name):
+    for entry in sorted(resources.files("ionicity.scorer.data").iterdir(), key=lambda e: e.name):
         if entry.name.endswith((".csv", ".json")):
             tables[entry.name] = "sha256:" + hashlib.sha256(entry.read_bytes()).hexdigest()[:16]
     return {
@@ -781,7 +781,7 @@ def provenance_metadata(config: ScoreConfig, formula_col: str) -> dict[str, str]
     """Parquet key-value metadata: ionicity version, data snapshot versions
     (the element snapshot's mendeleev version and a digest of every packaged
     table) and the options of the run."""
-    from scorer import __version__
+    from ionicity.scorer import __version__
 
     options = {k: v for k, v in asdict(config).items() if k not in ("output", "quiet", "overwrite")}
     options["formula_col"] = formula_col
@@ -808,9 +808,9 @@ def load_model_applier(config: ScoreConfig) -> ModelApplier | None:
     """The ``--mp-model`` file, checked and loaded; InputError when unusable."""
     if config.mp_model is None:
         return None
-    from scorer.melting import ModelFormatError
+    from ionicity.scorer.melting import ModelFormatError
 
-    from pipelines.melting_fit import load_model
+    from ionicity.pipelines.melting_fit import load_model
 
     try:
         return ModelApplier(load_model(config.mp_model))
@@ -830,7 +830,7 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
         config = ScoreConfig(input=config, output=output if output is not None else "-", **options)
     config.validate()
     if config.engine == "dask":
-        from pipelines.dask_engine import score_file_dask
+        from ionicity.pipelines.dask_engine import score_file_dask
 
         return score_file_dask(config)
     started = time.perf_counter()

@@ -1,13 +1,13 @@
 """Benchmark: ionicity ``score`` against the I/O floor and a per-row baseline.
 
-``python -m pipelines.bench --rows N --distinct D`` generates a synthetic
+``python -m ionicity.pipelines.bench --rows N --distinct D`` generates a synthetic
 table of N rows holding D distinct realistic formulas (salts, hydrates in
 several spellings, double salts, ionic liquids and a few typos, every one of
 the D present, the rest drawn uniformly), then measures in one run:
 
 * ``io_floor_seconds``: a fresh Python process that reads the table with
   pyarrow and writes it back in the same format, nothing else;
-* ``score_seconds``: ``python -m pipelines score IN -o OUT --quiet``, end to
+* ``score_seconds``: ``python -m ionicity score IN -o OUT --quiet``, end to
   end in a fresh process (start-up included, as for the floor);
 
   both run ``--repeat`` times (default 5), alternating, and the medians are
@@ -213,7 +213,7 @@ def measure_floor(path: str, workdir: str) -> tuple[float, float]:
 
 def measure_score(path: str, workdir: str, workers: int | None = None) -> tuple[float, float]:
     out = os.path.join(workdir, "scored" + os.path.splitext(path)[1])
-    argv = [sys.executable, "-m", "pipelines", "score", path, "-o", out, "--quiet", "--overwrite"]
+    argv = [sys.executable, "-m", "ionicity", "score", path, "-o", out, "--quiet", "--overwrite"]
     if workers:
         argv += ["--workers", str(workers)]
     return _run(argv, env=_env())
@@ -227,17 +227,17 @@ def formula_caches() -> list:
 
     found = []
     for module_name, attribute in (
-        ("scorer.record", "_score_text"),
-        ("scorer.record", "_anhydrous_scores"),
-        ("scorer.record", "_unrounded_mass"),
-        ("scorer.formula", "parse_formula"),
-        ("scorer.formula", "_parse_normalised"),
-        ("scorer.formula", "_component"),
-        ("scorer.ions", "_decompose"),
-        ("scorer.ions", "_assign_monatomic_cached"),
-        ("scorer.lattice", "_compute"),
-        ("scorer.melting", "melting_terms"),
-        ("scorer.fajans", "_analysed"),
+        ("ionicity.scorer.record", "_score_text"),
+        ("ionicity.scorer.record", "_anhydrous_scores"),
+        ("ionicity.scorer.record", "_unrounded_mass"),
+        ("ionicity.scorer.formula", "parse_formula"),
+        ("ionicity.scorer.formula", "_parse_normalised"),
+        ("ionicity.scorer.formula", "_component"),
+        ("ionicity.scorer.ions", "_decompose"),
+        ("ionicity.scorer.ions", "_assign_monatomic_cached"),
+        ("ionicity.scorer.lattice", "_compute"),
+        ("ionicity.scorer.melting", "melting_terms"),
+        ("ionicity.scorer.fajans", "_analysed"),
     ):
         function = getattr(importlib.import_module(module_name), attribute, None)
         if function is not None and hasattr(function, "cache_clear"):
@@ -252,7 +252,7 @@ def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> t
     import pyarrow.parquet as pq
     import pyarrow.csv as pacsv
 
-    from scorer.record import score_formula
+    from ionicity.scorer.record import score_formula
 
     table = pq.read_table(path, columns=["formula"]) if path.endswith(".parquet") else pacsv.read_csv(
         path, convert_options=pacsv.ConvertOptions(include_columns=["formula"], column_types={"formula": "string"}))
@@ -277,7 +277,7 @@ def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> t
 
 def calibrate(sizes=(32, 64, 128, 256, 512, 1024, 2048), workers: int | None = None) -> list[tuple[int, float, float]]:
     """Seconds to score ``n`` fresh distinct formulas in-process and in a warm pool."""
-    from pipelines.batch import BatchScorer, FormulaCache
+    from ionicity.pipelines.batch import BatchScorer, FormulaCache
 
     pool_formulas = realistic_formulas(sum(sizes) * 2, seed=3)
     results = []
@@ -315,7 +315,7 @@ def _print(name: str, value) -> None:
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = argparse.ArgumentParser(prog="python -m pipelines.bench", description=__doc__.split("\n\n")[0])
+    parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.bench", description=__doc__.split("\n\n")[0])
     parser.add_argument("--rows", type=int, default=1_000_000, help="rows of the synthetic table (default: 10^6)")
     parser.add_argument("--distinct", type=int, default=20_000, help="distinct formulas among them (default: 20,000)")
     parser.add_argument("--format", choices=("parquet", "csv"), default="parquet", help="table format (default: parquet)")

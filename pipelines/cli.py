@@ -80,7 +80,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
-    from pipelines.melting_cli import add_fit_melting_parser
+    from ionicity.pipelines.melting_cli import add_fit_melting_parser
 
     add_fit_melting_parser(sub)
     return parser
@@ -108,7 +108,7 @@ def _choose_memory_pool() -> None:
 
 
 def _run_score(args) -> int:
-    from pipelines.batch import ScoreConfig, score_file
+    from ionicity.pipelines.batch import ScoreConfig, score_file
 
     if args.engine == "local":
         _choose_memory_pool()
@@ -129,7 +129,7 @@ def _run_score(args) -> int:
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:
-        from pipelines.melting_cli import CAUTION
+        from ionicity.pipelines.melting_cli import CAUTION
 
         print(CAUTION, file=sys.stderr)
     if not args.quiet:
@@ -140,14 +140,14 @@ def _run_score(args) -> int:
 
 
 def _run_explain(args) -> int:
-    from pipelines.explain import explain_formula
+    from ionicity.pipelines.explain import explain_formula
 
     print(explain_formula(args.formula))
     return EXIT_OK
 
 
 def _run_columns(args) -> int:
-    from pipelines.explain import columns_table
+    from ionicity.pipelines.explain import columns_table
 
     print(columns_table(args.format))
     return EXIT_OK
@@ -183,7 +183,7 @@ def _prestart_workers(args) -> None:
     except (OSError, ValueError, TypeError):
         large = False
     if large:
-        from pipelines._workers import default_workers, prestart
+        from ionicity.pipelines._workers import default_workers, prestart
 
         workers = args.workers or default_workers()
         if workers >= 2:
@@ -203,7 +203,7 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _stop_prestarted_workers() -> None:
-    from pipelines._workers import discard_prestarted
+    from ionicity.pipelines._workers import discard_prestarted
 
     try:
         discard_prestarted()
@@ -220,7 +220,7 @@ def _interrupted(args) -> int:
 
 
 def _dispatch(args) -> int:
-    from pipelines.io import InputError
+    from ionicity.pipelines.io import InputError
 
     try:
         if args.command == "score":
@@ -228,7 +228,7 @@ def _dispatch(args) -> int:
         if args.command == "explain":
             return _run_explain(args)
         if args.command == "fit-melting":
-            from pipelines.melting_fit import run_fit_melting
+            from ionicity.pipelines.melting_fit import run_fit_melting
 
             return run_fit_melting(args)
         return _run_columns(args)

@@ -22,8 +22,8 @@ import time
 
 import pyarrow as pa
 
-from pipelines.batch import ScoreConfig, Summary, load_model_applier, prepare, provenance_metadata, score_batch
-from pipelines.io import InputError, _remove, check_output_path, clean_stale_partials, partial_path
+from ionicity.pipelines.batch import ScoreConfig, Summary, load_model_applier, prepare, provenance_metadata, score_batch
+from ionicity.pipelines.io import InputError, _remove, check_output_path, clean_stale_partials, partial_path
 
 __all__ = ["score_file_dask", "score_partition"]
 
@@ -66,7 +66,7 @@ def _warm_up_plugin():
         name = "ionicity-warm-up"
 
         def setup(self, worker):
-            from pipelines._pool import warm_up
+            from ionicity.pipelines._pool import warm_up
 
             warm_up()
 
@@ -140,7 +140,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                 except (OSError, TimeoutError) as exc:
                     raise InputError(f"cannot reach the Dask scheduler at {config.scheduler!r}: {exc}") from None
             else:
-                from pipelines._workers import default_workers
+                from ionicity.pipelines._workers import default_workers
 
                 cluster = distributed.LocalCluster(
                     n_workers=config.workers or default_workers(), threads_per_worker=1, processes=True,

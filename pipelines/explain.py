@@ -3,10 +3,10 @@ from __future__ import annotations
 
 import math
 
-from scorer.columns import descriptor_modules, output_columns
-from scorer.formula import FormulaError, parse_formula
-from scorer.ions import decompose
-from scorer.record import score_composition
+from ionicity.scorer.columns import descriptor_modules, output_columns
+from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.record import score_parsed
 
 __all__ = ["explain_formula", "columns_table"]
 
@@ -33,7 +33,7 @@ def explain_formula(text: str) -> str:
     except FormulaError as exc:
         return "\n".join(lines + ["status: error", f"message: {exc}"])
     dec = decompose(comp)
-    record = score_composition(comp)
+    record = score_parsed(comp)
     lines.append(f"status: {record['status']}")
     if record["message"]:
         lines.append(f"message: {record['message']}")
@@ -107,7 +107,7 @@ def _main(argv: list[str] | None = None) -> int:
     import argparse
     from pathlib import Path
 
-    parser = argparse.ArgumentParser(prog="python -m pipelines.explain")
+    parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.explain")
     parser.add_argument("--update-readme", action="store_true", help="rewrite the column table in README.md")
     parser.add_argument("--readme", default=str(Path(__file__).resolve().parent.parent / "README.md"))
     args = parser.parse_args(argv)

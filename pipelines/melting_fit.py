@@ -52,9 +52,9 @@ from pathlib import Path
 
 import numpy as np
 
-from scorer import melting
+from ionicity.scorer import melting
 
-from pipelines.melting_cli import _OUTPUTS, CAUTION, EXTRA_HINT, TOLERANCE_K, add_fit_melting_parser  # noqa: F401
+from ionicity.pipelines.melting_cli import _OUTPUTS, CAUTION, EXTRA_HINT, TOLERANCE_K, add_fit_melting_parser  # noqa: F401
 
 __all__ = [
     "MissingExtraError",
@@ -186,7 +186,7 @@ def _fold(text: str) -> str:
 
 
 def _element_stems(symbol: str) -> tuple[str, ...]:
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     name = _fold(get_element(symbol).name)
     stems = {name}
@@ -324,7 +324,7 @@ def _ratio(composition) -> tuple:
 
 def _formula_in_name(name: str):
     """The element ratio of a formula written in brackets in a name (``neodymium sulfide (Nd2S3)``), or None."""
-    from scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.formula import FormulaError, parse_formula
 
     for token in _BRACKETED_FORMULA.findall(name or ""):
         try:
@@ -338,13 +338,13 @@ def _formula_in_name(name: str):
 
 
 def _is_metal(symbol: str) -> bool:
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     return get_element(symbol).is_metal
 
 
 def _main_states(symbol: str) -> tuple:
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     return tuple(int(s) for s in get_element(symbol).oxidation_states_main)
 
@@ -500,8 +500,8 @@ def build_open_training_set(
     values, table_names, version = _chemicals_tables(tuple(sources))
     from chemicals.identifiers import search_chemical
 
-    from scorer.formula import FormulaError, parse_formula
-    from scorer.ions import decompose
+    from ionicity.scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.ions import decompose
 
     wanted = set(cas_numbers) if cas_numbers is not None else None
     decisions: list[dict] = []
@@ -538,7 +538,7 @@ def build_open_training_set(
         if math.isnan(value):
             decisions.append({**entry, "kept": False, "reason": how})
             continue
-        from scorer.record import normalized_formula
+        from ionicity.scorer.record import normalized_formula
 
         key = normalized_formula(comp, dec)
         candidates.setdefault(key, []).append({**entry, "mp_K": value, "how": how, "dec": dec})
@@ -608,10 +608,10 @@ def read_user_table(path, *, formula_col: str = "formula", mp_col: str | None = 
     """
     import pandas as pd
 
-    from pipelines.io import InputError
-    from scorer.formula import FormulaError, parse_formula
-    from scorer.ions import decompose
-    from scorer.record import normalized_formula
+    from ionicity.pipelines.io import InputError
+    from ionicity.scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.ions import decompose
+    from ionicity.scorer.record import normalized_formula
 
     path = Path(path)
     try:
@@ -703,9 +703,9 @@ def combine_training_sets(*sets: TrainingSet) -> TrainingSet:
 
 def score_for_melting(formula: str) -> dict:
     """``scorer.score_formula`` plus the melting columns when the registry does not list them yet."""
-    from scorer import score_formula
-    from scorer.formula import parse_formula
-    from scorer.ions import decompose
+    from ionicity.scorer import score_formula
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.ions import decompose
 
     record = score_formula(formula)
     if "mp_trend_index" not in record:
@@ -1256,7 +1256,7 @@ def summary_text(report: FitReport) -> str:
 
 def fit_melting(config: FitConfig) -> FitReport:
     """Run ``fit-melting``: build the data, cross-validate, fit, write every output; the Python API of the CLI."""
-    from pipelines.io import InputError
+    from ionicity.pipelines.io import InputError
 
     say = (lambda text: None) if config.quiet else (lambda text: print(f"ionicity fit-melting: {text}", file=sys.stderr))
     out = Path(config.output_dir)
@@ -1296,7 +1296,7 @@ def fit_melting(config: FitConfig) -> FitReport:
 
 def run_fit_melting(args) -> int:
     """The ``fit-melting`` command: 0 done, 2 missing extra or bad input, 3 internal error."""
-    from pipelines.io import InputError
+    from ionicity.pipelines.io import InputError
 
     config = _config_from_args(args)
     try:

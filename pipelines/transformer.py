@@ -35,8 +35,8 @@ __all__ = ["FormulaDescriptors", "numeric_descriptor_columns"]
 
 def numeric_descriptor_columns() -> tuple[str, ...]:
     """Every numeric (``float64`` or ``bool``) generated column, melting columns included."""
-    from scorer import melting
-    from scorer.columns import output_columns
+    from ionicity.scorer import melting
+    from ionicity.scorer.columns import output_columns
 
     columns = list(output_columns())
     names = {c.name for c in columns}
@@ -93,7 +93,7 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
     # ---------------------------------------------------------------- options
     def _resolve_columns(self) -> list[str]:
-        from scorer import melting
+        from ionicity.scorer import melting
 
         numeric = numeric_descriptor_columns()
         if isinstance(self.columns, str):
@@ -184,7 +184,7 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
             float64; NaN where a value does not apply.
         """
         check_is_fitted(self, "columns_")
-        from scorer import melting
+        from ionicity.scorer import melting
 
         formulas = self._formulas(X, fitting=False)
         derived = set(melting.MODEL_FEATURES) - set(numeric_descriptor_columns())
@@ -210,8 +210,8 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
 
 def _row_values(cell, columns: list[str], needs_derived: bool) -> np.ndarray:
-    from pipelines.melting_fit import score_for_melting
-    from scorer import melting
+    from ionicity.pipelines.melting_fit import score_for_melting
+    from ionicity.scorer import melting
 
     if cell is None or (isinstance(cell, float) and math.isnan(cell)):
         return np.full(len(columns), np.nan)

@@ -2,10 +2,10 @@
 
 Pure and importable alone: no file I/O beyond its packaged data, no pandas.
 """
-from scorer.formula import Composition, FormulaError, parse_formula
-from scorer.madelung import madelung_constant
-from scorer.record import score_formula
+from ionicity.scorer.formula import ParsedFormula, FormulaError, parse_formula
+from ionicity.scorer.madelung import madelung_constant
+from ionicity.scorer.record import score_formula
 
-__all__ = ["Composition", "FormulaError", "madelung_constant", "parse_formula", "score_formula", "__version__"]
+__all__ = ["ParsedFormula", "FormulaError", "madelung_constant", "parse_formula", "score_formula", "__version__"]
 
 __version__ = "0.1.0"

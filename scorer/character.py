@@ -57,7 +57,7 @@ from __future__ import annotations
 
 import math
 
-from scorer.model import Column, Decomposition, Ion, IonTerm
+from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm
 
 __all__ = [
     "COLUMNS",
@@ -298,7 +298,7 @@ def pauling_electronegativity(symbol: str) -> float:
     >>> pauling_electronegativity("Cl")
     3.16
     """
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     try:
         return float(get_element(symbol).electronegativity_pauling)
@@ -315,7 +315,7 @@ _NITRILE_FAMILIES = ("cyano-complex", "cyano-anion")
 
 
 def _is_metal(symbol: str) -> bool:
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     try:
         return get_element(symbol).is_metal

@@ -11,7 +11,7 @@ from __future__ import annotations
 import importlib
 from functools import cache
 
-from scorer.model import Column
+from ionicity.scorer.model import Column
 
 __all__ = ["Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules"]
 
@@ -62,7 +62,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("scorer.character", "scorer.fajans", "scorer.hsab", "scorer.lattice", "scorer.melting")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
 
 
 @cache

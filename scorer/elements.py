@@ -1,7 +1,7 @@
 """Element properties from the packaged mendeleev snapshot.
 
 The data come from ``scorer/data/elements.json``, written by
-``python -m scorer.data.build_elements`` from mendeleev (see
+``python -m ionicity.scorer.data.build_elements`` from mendeleev (see
 ``scorer/data/README.md`` for its upstream sources and the choices made).
 This module never imports mendeleev: the snapshot is read with
 :mod:`importlib.resources` on first use, once per process, and every
@@ -49,7 +49,7 @@ __all__ = [
     "snapshot_info",
 ]
 
-_SNAPSHOT_PACKAGE = "scorer"
+_SNAPSHOT_PACKAGE = "ionicity.scorer"
 _SNAPSHOT_FILE = ("data", "elements.json")
 
 _METAL_SERIES = frozenset(

@@ -41,8 +41,8 @@ import csv
 import math
 from functools import cache, lru_cache
 
-from scorer.character import contact_pairs, weighted_mean
-from scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.model import Column, Decomposition, Ion
 
 __all__ = [
     "COLUMNS",
@@ -321,7 +321,7 @@ def outer_shell(ion: Ion) -> tuple[str, str]:
         return _CLUSTER_SHELLS[ion.ion_id], "Hg2(2+): each Hg keeps 5d10 and shares its 6s electron in the Hg-Hg bond"
     if ion.element is None:
         return "molecular", "polyatomic ion: no single-atom electron shell"
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     try:
         z_nuclear = get_element(ion.element).atomic_number
@@ -347,7 +347,7 @@ def ion_polarisabilities() -> dict[str, dict]:
     """ion_id -> row of ``scorer/data/ion_polarisabilities.csv`` (read once)."""
     from importlib import resources
 
-    text = resources.files("scorer.data").joinpath("ion_polarisabilities.csv").read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath("ion_polarisabilities.csv").read_text(encoding="utf-8")
     table = {}
     for row in csv.DictReader(text.splitlines()):
         table[row["ion_id"]] = dict(
@@ -391,7 +391,7 @@ def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
 
 def _radius(ion: Ion) -> tuple[float, str]:
     """Radius from scorer.radii; where it has none (H-, As3-, Si4-), the sphere of the ion's volume."""
-    from scorer.radii import ion_radius_pm, sphere_radius_pm
+    from ionicity.scorer.radii import ion_radius_pm, sphere_radius_pm
 
     try:
         radius, why = ion_radius_pm(ion)
@@ -408,7 +408,7 @@ def _radius(ion: Ion) -> tuple[float, str]:
 
 
 def _anion_volume_nm3(ion: Ion) -> tuple[float, str]:
-    from scorer.radii import atomic_volumes_A3, ion_volume_nm3
+    from ionicity.scorer.radii import atomic_volumes_A3, ion_volume_nm3
 
     volume_nm3, vwhy = ion_volume_nm3(ion)
     if (volume_nm3 is None or math.isnan(volume_nm3)) and len(ion.composition) == 1:

@@ -1,4 +1,4 @@
-"""Formula grammar: text as people type it -> one immutable :class:`Composition`.
+"""Formula grammar: text as people type it -> one immutable :class:`ParsedFormula`.
 
 Accepted, in any combination:
 
@@ -34,7 +34,7 @@ from dataclasses import dataclass, field
 from functools import lru_cache
 
 __all__ = [
-    "Composition",
+    "ParsedFormula",
     "FormulaError",
     "parse_formula",
     "hill_formula",
@@ -102,7 +102,7 @@ def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> st
 
 
 @dataclass(frozen=True)
-class Composition:
+class ParsedFormula:
     """An immutable parsed formula.
 
     ``counts`` is the flat element count of one formula unit without its
@@ -138,7 +138,7 @@ class Composition:
         """This composition with another text (and lattice water, notes):
         ``dataclasses.replace`` without its field-by-field introspection,
         which the parser's hot path cannot afford."""
-        return Composition(
+        return ParsedFormula(
             text, self.counts, self.hydrate_water if hydrate_water is None else hydrate_water, self.charge,
             self.ion_hints, self.neutral_adducts, self.structure_hint, self.notes if notes is None else notes,
         )
@@ -158,7 +158,7 @@ class Composition:
 
     @property
     def canonical(self) -> str:
-        from scorer.model import format_charge
+        from ionicity.scorer.model import format_charge
 
         text = self.hill
         if self.charge:
@@ -212,7 +212,7 @@ def _split_charge(text: str) -> tuple[str, int, str | None]:
     """Take a written charge off the end: (body, charge, note)."""
     pair = re.fullmatch(r"\[([^\[\]]+)\]\+?\[([^\[\]]+)\]-", text)
     if pair:
-        from scorer import ion_library
+        from ionicity.scorer import ion_library
 
         cation, anion = (ion_library.find_alias(g) for g in pair.groups())
         if cation is not None and anion is not None and cation.charge > 0 > anion.charge:
@@ -263,7 +263,7 @@ def _split_charge(text: str) -> tuple[str, int, str | None]:
 
 
 def _names_known_ion(body: str, charge: int) -> bool:
-    from scorer import ion_library
+    from ionicity.scorer import ion_library
 
     try:
         counts, _ = _parse_component(body, allow_ion_refs=False)
@@ -336,7 +336,7 @@ class _Parser:
         return value
 
     def sequence(self, depth: int, closer: str | None) -> dict[str, float]:
-        from scorer.elements import is_element_symbol
+        from ionicity.scorer.elements import is_element_symbol
 
         counts: dict[str, float] = {}
         text = self.text
@@ -398,7 +398,7 @@ class _Parser:
 
     def abbreviation_group(self) -> bool:
         """``(OAc)2``: a bracket holding an abbreviation that is not a formula."""
-        from scorer import ion_library
+        from ionicity.scorer import ion_library
 
         closer = _OPEN[self.text[self.pos]]
         end = self.text.find(closer, self.pos)
@@ -406,7 +406,7 @@ class _Parser:
 
     def abbreviation_tail(self) -> bool:
         """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""
-        from scorer import ion_library
+        from ionicity.scorer import ion_library
 
         ion = ion_library.find_abbreviation(self.text[self.pos:])
         if ion is None:
@@ -417,7 +417,7 @@ class _Parser:
 
     def ion_reference(self) -> bool | None:
         """``[C4mim]``, ``(OAc)``: a bracket whose content names a library ion."""
-        from scorer import ion_library
+        from ionicity.scorer import ion_library
 
         end = self.text.find(_OPEN[self.text[self.pos]], self.pos)
         if end < 0:
@@ -457,8 +457,8 @@ def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[st
 
 
 @lru_cache(maxsize=65536)
-def parse_formula(text: str) -> Composition:
-    """Parse formula text into a :class:`Composition`.
+def parse_formula(text: str) -> ParsedFormula:
+    """Parse formula text into a :class:`ParsedFormula`.
 
     Parameters
     ----------
@@ -468,7 +468,7 @@ def parse_formula(text: str) -> Composition:
 
     Returns
     -------
-    Composition
+    ParsedFormula
 
     Raises
     ------
@@ -525,7 +525,7 @@ def parse_formula(text: str) -> Composition:
 
 
 @lru_cache(maxsize=65536)
-def _parse_normalised(cleaned: str) -> Composition:
+def _parse_normalised(cleaned: str) -> ParsedFormula:
     """Parse text already mapped onto the plain alphabet: spellings that differ
     only in Unicode, separators or spaces share this cache."""
     hydrate = _as_hydrate(cleaned)
@@ -534,10 +534,10 @@ def _parse_normalised(cleaned: str) -> Composition:
     return _parse_cleaned(cleaned, cleaned, [])
 
 
-def _as_hydrate(cleaned: str) -> Composition | None:
+def _as_hydrate(cleaned: str) -> ParsedFormula | None:
     """A salt followed only by lattice water (``CuSO4*5H2O``) read as the
     cached salt plus its water, so that the hydrates of one salt parse it
-    once; the same Composition the full reading gives (a test checks this).
+    once; the same ParsedFormula the full reading gives (a test checks this).
     None when the text is anything else, or the salt part alone reads
     differently (a charge, a note, only H and O)."""
     if not cleaned.endswith("H2O"):
@@ -567,7 +567,7 @@ def _as_hydrate(cleaned: str) -> Composition | None:
     return salt.respelled(cleaned, hydrate_water=water)
 
 
-def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
+def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     body, charge, charge_note = _split_charge(cleaned)
     if not body:
         raise FormulaError(f"no formula before the charge in {text!r}")
@@ -602,7 +602,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
             name = _NEUTRAL_ADDUCTS[key]
             adducts[name] = adducts.get(name, 0.0) + multiplier
         for ion_id, n in ion_refs:
-            from scorer import ion_library
+            from ionicity.scorer import ion_library
 
             hints[ion_id] = hints.get(ion_id, 0.0) + n * multiplier
             for symbol, k in ion_library.get_ion(ion_id).composition:
@@ -624,7 +624,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> Composition:
         hint = "organometallic"
     elif "(NH2)" in cleaned:
         hint = "amide"
-    return Composition(
+    return ParsedFormula(
         text=text,
         counts=ordered,
         hydrate_water=water,
@@ -646,7 +646,7 @@ def _shorthand_with_spaces(text: str) -> str:
     words = text.split()
     if len(words) != 2 or any(ch in text for ch in "[]"):
         return text
-    from scorer import ion_library
+    from ionicity.scorer import ion_library
 
     first = ion_library.find_alias(words[0])
     if first is None or first.charge <= 0 or not first.organic:
@@ -657,7 +657,7 @@ def _shorthand_with_spaces(text: str) -> str:
 
 def _suggest(cleaned: str) -> str | None:
     """A corrected spelling for a mis-cased symbol ("NaCL" -> "NaCl")."""
-    from scorer.elements import is_element_symbol
+    from ionicity.scorer.elements import is_element_symbol
 
     for i in range(len(cleaned) - 1):
         pair = cleaned[i:i + 2]

@@ -52,8 +52,8 @@ import csv
 import math
 from functools import cache
 
-from scorer.character import contact_pairs, weighted_mean
-from scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.model import Column, Decomposition, Ion
 
 __all__ = [
     "COLUMNS",
@@ -219,7 +219,7 @@ def hsab_pairing_label(score: float) -> str | None:
 def _read(name: str) -> list[dict[str, str]]:
     from importlib import resources
 
-    text = resources.files("scorer.data").joinpath(name).read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath(name).read_text(encoding="utf-8")
     return list(csv.DictReader(text.splitlines()))
 
 
@@ -271,7 +271,7 @@ def cation_hardness_eV(ion: Ion) -> tuple[float, str]:
     """
     if ion.element is None:
         return math.nan, "polyatomic cation: no ionization energies to apply (I - A)/2"
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     z = int(ion.charge)
     if z <= 0:
@@ -299,7 +299,7 @@ def anion_hardness_eV(ion: Ion) -> tuple[float, str]:
     7.01
     """
     if ion.element is not None:
-        from scorer.elements import get_element
+        from ionicity.scorer.elements import get_element
 
         try:
             element = get_element(ion.element)

@@ -11,7 +11,7 @@ import csv
 from functools import cache
 from importlib import resources
 
-from scorer.model import Ion, format_charge
+from ionicity.scorer.model import Ion, format_charge
 
 __all__ = [
     "ion_library",
@@ -39,14 +39,14 @@ def _parse_oxidation_states(text: str) -> tuple[tuple[str, float], ...]:
 
 @cache
 def _load() -> tuple[tuple[Ion, ...], dict[str, Ion], dict[str, Ion], dict[str, Ion], dict[tuple, list[Ion]]]:
-    from scorer.formula import _hill_order, _parse_component
+    from ionicity.scorer.formula import _hill_order, _parse_component
 
     ions: list[Ion] = []
     by_id: dict[str, Ion] = {}
     alias_exact: dict[str, Ion] = {}
     alias_folded: dict[str, Ion] = {}
     by_composition: dict[tuple, list[Ion]] = {}
-    text = resources.files("scorer.data").joinpath(ION_LIBRARY_FILE).read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath(ION_LIBRARY_FILE).read_text(encoding="utf-8")
     for row in csv.DictReader(text.splitlines()):
         counts, _ = _parse_component(row["formula"], allow_ion_refs=False)
         composition = tuple((s, counts[s]) for s in _hill_order(counts))
@@ -86,7 +86,7 @@ def monatomic_ion(symbol: str, charge: int) -> Ion:
     >>> monatomic_ion("Fe", 3).ion_id
     'Fe(3+)'
     """
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     element = get_element(symbol)
     return Ion(
@@ -118,7 +118,7 @@ def get_ion(ion_id: str) -> Ion:
     if label and charge_text and charge_text[-1] in "+-":
         digits = charge_text[:-1] or "1"
         if digits.isdigit():
-            from scorer.elements import is_element_symbol
+            from ionicity.scorer.elements import is_element_symbol
 
             if is_element_symbol(label):
                 return monatomic_ion(label, int(digits) * (1 if charge_text[-1] == "+" else -1))
@@ -136,7 +136,7 @@ def same_label_ions(ion: Ion) -> list[Ion]:
 def _abbreviations() -> dict[str, Ion]:
     """Aliases that are not formulas of their ion (``OAc``, ``NTf2``, ``OTf``):
     where one appears inside a formula it names the ion."""
-    from scorer.formula import FormulaError, _parse_component
+    from ionicity.scorer.formula import FormulaError, _parse_component
 
     _, _, exact, _, _ = _load()
     out = {}
@@ -171,7 +171,7 @@ def find_alias(text: str, exact_case: bool = False) -> Ion | None:
 
 def ions_by_composition(counts: dict[str, float], charge: int) -> list[Ion]:
     """Library ions with exactly this composition and charge."""
-    from scorer.formula import _hill_order
+    from ionicity.scorer.formula import _hill_order
 
     key = (tuple((s, float(counts[s])) for s in _hill_order(counts)), int(charge))
     return list(_load()[4].get(key, ()))
@@ -185,7 +185,7 @@ def is_known_ion(counts: dict[str, float], charge: int) -> bool:
     if len(counts) == 1:
         ((symbol, n),) = counts.items()
         if n == 1:
-            from scorer.elements import get_element
+            from ionicity.scorer.elements import get_element
 
             element = get_element(symbol)
             if charge in element.oxidation_states_main or charge in element.oxidation_states_extra:

@@ -74,10 +74,10 @@ import dataclasses
 import itertools
 from functools import lru_cache
 
-from scorer.elements import get_element
-from scorer.formula import Composition, format_count
-from scorer.ion_library import get_ion, ion_library, ions_by_composition, monatomic_ion, same_label_ions
-from scorer.model import Decomposition, Ion, IonTerm
+from ionicity.scorer.elements import get_element
+from ionicity.scorer.formula import ParsedFormula, format_count
+from ionicity.scorer.ion_library import get_ion, ion_library, ions_by_composition, monatomic_ion, same_label_ions
+from ionicity.scorer.model import Decomposition, Ion, IonTerm
 
 __all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
 
@@ -559,7 +559,7 @@ def _reading_text(cations, anions) -> str:
     return format_ion_terms(list(cations) + list(anions))
 
 
-def _nonionic(comp: Composition, counts: dict[str, float], notes: list[str], water: float, neutral) -> Decomposition:
+def _nonionic(comp: ParsedFormula, counts: dict[str, float], notes: list[str], water: float, neutral) -> Decomposition:
     symbols = set(counts)
     states = formal_oxidation_states(counts, comp.charge)
     if all(_is_metal(s) for s in symbols):
@@ -588,12 +588,12 @@ def _nonionic(comp: Composition, counts: dict[str, float], notes: list[str], wat
     )
 
 
-def decompose(comp: Composition) -> Decomposition:
+def decompose(comp: ParsedFormula) -> Decomposition:
     """Find the ions, oxidation states and substance class of a composition.
 
     Parameters
     ----------
-    comp : Composition
+    comp : ParsedFormula
         From :func:`scorer.formula.parse_formula`.
 
     Returns
@@ -618,7 +618,7 @@ def decompose(comp: Composition) -> Decomposition:
     return anhydrous
 
 
-def decompose_anhydrous(comp: Composition) -> Decomposition:
+def decompose_anhydrous(comp: ParsedFormula) -> Decomposition:
     """:func:`decompose` of the formula without its lattice water: the hydrates
     of one salt share this result (and the solver's work)."""
     return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
@@ -626,7 +626,7 @@ def decompose_anhydrous(comp: Composition) -> Decomposition:
 
 @lru_cache(maxsize=65536)
 def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
-    comp = Composition(
+    comp = ParsedFormula(
         text="", counts=counts_key, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
     )
@@ -768,7 +768,7 @@ def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[Ion
     return "ionic_salt"
 
 
-def _lone_ion(comp: Composition, counts: dict[str, float], notes: list[str]) -> Decomposition:
+def _lone_ion(comp: ParsedFormula, counts: dict[str, float], notes: list[str]) -> Decomposition:
     charge = comp.charge
     candidates = ions_by_composition(counts, charge)
     ion = candidates[0] if candidates else None

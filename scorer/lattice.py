@@ -37,9 +37,9 @@ from importlib import resources
 
 import numpy as np
 
-from scorer.madelung import madelung_details, prototype_structure
-from scorer.model import Column, Decomposition, Ion, IonTerm, RowWarning
-from scorer.radii import ion_radius_pm, ion_volume_nm3, shannon_radius_pm
+from ionicity.scorer.madelung import madelung_details, prototype_structure
+from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm, RowWarning
+from ionicity.scorer.radii import ion_radius_pm, ion_volume_nm3, shannon_radius_pm
 
 __all__ = [
     "COLUMNS",
@@ -445,7 +445,7 @@ def born_haber_lattice_energy_kJ_mol(
 
 
 def _read_csv(name: str) -> list[dict[str, str]]:
-    text = resources.files("scorer.data").joinpath(name).read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath(name).read_text(encoding="utf-8")
     return list(csv.DictReader(text.splitlines()))
 
 
@@ -485,7 +485,7 @@ def born_exponent(symbol: str, charge: int) -> tuple[float, str]:
     >>> born_exponent("Fe", 2)[0]
     9.0
     """
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     try:
         element = get_element(symbol)
@@ -505,7 +505,7 @@ def born_exponent(symbol: str, charge: int) -> tuple[float, str]:
 
 
 def _charge_text(charge: int) -> str:
-    from scorer.model import format_charge
+    from ionicity.scorer.model import format_charge
 
     return format_charge(int(charge))
 

@@ -632,7 +632,7 @@ def prototype_snapshot() -> dict[str, MadelungResult]:
     import csv
     from importlib import resources
 
-    text = resources.files("scorer.data").joinpath(PROTOTYPE_SNAPSHOT_FILE).read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath(PROTOTYPE_SNAPSHOT_FILE).read_text(encoding="utf-8")
     out = {}
     for row in csv.DictReader(text.splitlines()):
         values = {f: (int(row[f]) if f == "formula_units" else float(row[f])) for f in _SNAPSHOT_FIELDS}

@@ -90,7 +90,7 @@ from importlib import resources
 
 import numpy as np
 
-from scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.model import Column, Decomposition, Ion
 
 __all__ = [
     "COLUMNS",
@@ -357,7 +357,7 @@ def melting_class_from_index(index) -> str | None:
 
 @cache
 def _shape_table() -> dict[str, tuple[float, float, bool, str]]:
-    text = resources.files("scorer.data").joinpath("ion_shape.csv").read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath("ion_shape.csv").read_text(encoding="utf-8")
     table = {}
     for row in csv.DictReader(text.splitlines()):
         table[row["ion_id"]] = (
@@ -422,7 +422,7 @@ class MeltingTerms:
 
 
 def _contact_chi(dec: Decomposition) -> float:
-    from scorer.character import contact_atom, contact_pairs, pauling_electronegativity, weighted_mean
+    from ionicity.scorer.character import contact_atom, contact_pairs, pauling_electronegativity, weighted_mean
 
     values = []
     for cation, anion, weight in contact_pairs(dec):
@@ -445,7 +445,7 @@ def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     """
     if not dec.is_ionic:
         return None
-    from scorer import fajans, lattice
+    from ionicity.scorer import fajans, lattice
 
     notes: list[str] = []
     lat, _ = lattice.describe(dec)
@@ -715,7 +715,7 @@ def _parse_terms(text) -> list[tuple[str, int, float]]:
 
 
 def _is_monatomic_label(label: str) -> bool:
-    from scorer.elements import is_element_symbol
+    from ionicity.scorer.elements import is_element_symbol
 
     return is_element_symbol(label)
 
@@ -840,7 +840,7 @@ def model_from_dict(document) -> MeltingModel:
     >>> model_from_dict({"format": "something-else"})
     Traceback (most recent call last):
     ...
-    scorer.melting.ModelFormatError: not an ionicity melting model: 'format' is 'something-else', expected 'ionicity-melting-model'
+    ionicity.scorer.melting.ModelFormatError: not an ionicity melting model: 'format' is 'something-else', expected 'ionicity-melting-model'
     """
     _need(isinstance(document, dict), "a melting model must be a JSON object")
     fmt = document.get("format")

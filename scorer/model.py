@@ -1,6 +1,6 @@
 """The compound model shared by every scoring module.
 
-A formula is parsed into a :class:`scorer.formula.Composition`; the ion solver
+A formula is parsed into a :class:`scorer.formula.ParsedFormula`; the ion solver
 (:mod:`scorer.ions`) turns it into a :class:`Decomposition`, and each
 descriptor module (character, fajans, hsab, lattice, melting) reads a
 ``Decomposition`` and returns plain values for its columns.

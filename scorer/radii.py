@@ -49,7 +49,7 @@ import math
 from functools import cache, lru_cache
 from importlib import resources
 
-from scorer.model import Ion, format_charge
+from ionicity.scorer.model import Ion, format_charge
 
 __all__ = [
     "shannon_radius_pm",
@@ -91,7 +91,7 @@ def sphere_radius_pm(volume_nm3):
 
 
 def _read_csv(name: str) -> list[dict[str, str]]:
-    text = resources.files("scorer.data").joinpath(name).read_text(encoding="utf-8")
+    text = resources.files("ionicity.scorer.data").joinpath(name).read_text(encoding="utf-8")
     return [row for row in csv.DictReader(line for line in text.splitlines() if not line.startswith("#"))]
 
 
@@ -175,7 +175,7 @@ def shannon_radius_pm(
         if isinstance(coordination_number, bool) or not float(coordination_number).is_integer() or coordination_number < 1:
             raise ValueError(f"coordination_number must be a positive integer or None, got {coordination_number!r}")
         coordination_number = int(coordination_number)
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     try:
         element = get_element(symbol)

@@ -4,15 +4,15 @@ from __future__ import annotations
 import math
 from functools import lru_cache
 
-from scorer.columns import descriptor_modules, output_columns
-from scorer.elements import get_element
-from scorer.formula import Composition, FormulaError, format_count, parse_formula
-from scorer.ions import decompose_anhydrous, format_ion_terms, format_oxidation_states
-from scorer.model import Decomposition, IonTerm, RowWarning
+from ionicity.scorer.columns import descriptor_modules, output_columns
+from ionicity.scorer.elements import get_element
+from ionicity.scorer.formula import ParsedFormula, FormulaError, format_count, parse_formula
+from ionicity.scorer.ions import decompose_anhydrous, format_ion_terms, format_oxidation_states
+from ionicity.scorer.model import Decomposition, IonTerm, RowWarning
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
-__all__ = ["score_formula", "score_row", "score_composition", "normalized_formula", "molar_mass_g_mol", "empty_record"]
+__all__ = ["score_formula", "score_row", "score_parsed", "normalized_formula", "molar_mass_g_mol", "empty_record"]
 
 
 def empty_record() -> dict:
@@ -52,7 +52,7 @@ def _ion_text(term: IonTerm, bracket_polyatomic: bool) -> str:
     return label + count
 
 
-def normalized_formula(comp: Composition, dec: Decomposition) -> str:
+def normalized_formula(comp: ParsedFormula, dec: Decomposition) -> str:
     """One canonical string per compound.
 
     Ionic entries are written from their ions, cations then anions
@@ -61,7 +61,7 @@ def normalized_formula(comp: Composition, dec: Decomposition) -> str:
     Hill formula. Lattice water follows as ``·nH2O``.
     """
     if dec.substance_class == "ion" and len(dec.cations + dec.anions) == 1:
-        from scorer.model import format_charge
+        from ionicity.scorer.model import format_charge
 
         ion = (dec.cations + dec.anions)[0].ion
         return f"{ion.label}^{format_charge(ion.charge)}"
@@ -108,7 +108,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     formula_normalized without water, the values laid out as a row in
     column order).
     """
-    comp = Composition(
+    comp = ParsedFormula(
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
     )
@@ -159,12 +159,12 @@ def _layout() -> tuple[tuple[str, ...], dict[str, int], tuple]:
     return names, {n: i for i, n in enumerate(names)}, empty
 
 
-def score_composition(comp: Composition) -> dict:
+def score_parsed(comp: ParsedFormula) -> dict:
     """Score a parsed composition; see :func:`score_formula`."""
-    return dict(zip(_layout()[0], _composition_row(comp)))
+    return dict(zip(_layout()[0], _parsed_row(comp)))
 
 
-def _composition_row(comp: Composition) -> tuple:
+def _parsed_row(comp: ParsedFormula) -> tuple:
     values, warnings, gaps, formula, base = _anhydrous_scores(
         comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
     )
@@ -202,7 +202,7 @@ def _score_text(text: str) -> tuple:
         comp = parse_formula(text)
     except FormulaError as exc:
         return _error_row(str(exc))
-    return _composition_row(comp)
+    return _parsed_row(comp)
 
 
 def score_row(text) -> tuple:

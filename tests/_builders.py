@@ -3,8 +3,8 @@ from __future__ import annotations
 
 import re
 
-from scorer.ion_library import get_ion, monatomic_ion
-from scorer.model import Decomposition, IonTerm
+from ionicity.scorer.ion_library import get_ion, monatomic_ion
+from ionicity.scorer.model import Decomposition, IonTerm
 
 
 def salt(cations, anions) -> Decomposition:

@@ -1,4 +1,4 @@
-"""pipelines.batch: the local engine.
+"""ionicity.pipelines.batch: the local engine.
 
 Invariants checked against the input itself (an external reference for
 "nothing changed"): every input column hashes the same before and after, row
@@ -17,8 +17,8 @@ import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 import pytest
 
-import pipelines._pool as pool_module
-from pipelines.batch import (
+import ionicity.pipelines._pool as pool_module
+from ionicity.pipelines.batch import (
     BatchScorer,
     FormulaCache,
     ScoreConfig,
@@ -27,10 +27,10 @@ from pipelines.batch import (
     score_file,
     score_table,
 )
-from pipelines.bench import realistic_formulas, write_table
-from pipelines.io import InputError
-from scorer.columns import column_names, output_columns
-from scorer.record import score_formula
+from ionicity.pipelines.bench import realistic_formulas, write_table
+from ionicity.pipelines.io import InputError
+from ionicity.scorer.columns import column_names, output_columns
+from ionicity.scorer.record import score_formula
 
 FORMULAS = ["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3", "Xx2O", "", "  ", "Na₂SO₄", "NaCl"]
 
@@ -119,7 +119,7 @@ def test_a_dictionary_column_scores_only_the_entries_its_rows_use(monkeypatch):
     # dictionary; entries no row of the batch holds wait for their own batch.
     calls = []
     real = pool_module.score_values
-    monkeypatch.setattr("pipelines.batch.score_values", lambda texts: calls.extend(texts) or real(texts))
+    monkeypatch.setattr("ionicity.pipelines.batch.score_values", lambda texts: calls.extend(texts) or real(texts))
     dictionary = pa.array(["NaCl", "KCl", "MgO", "CaF2"])
     column = pa.DictionaryArray.from_arrays(pa.array([1, None, 1, 3], pa.int32()), dictionary)
     batch = pa.record_batch({"formula": column})
@@ -142,7 +142,7 @@ def test_each_distinct_formula_is_scored_once(monkeypatch):
         calls.extend(texts)
         return real(texts)
 
-    monkeypatch.setattr("pipelines.batch.score_values", counting)
+    monkeypatch.setattr("ionicity.pipelines.batch.score_values", counting)
     table = pa.table({"formula": ["NaCl", "KCl", "NaCl", None, "KCl", "MgO"] * 50})
     schema = output_schema(table.schema)
     scorer = BatchScorer(1, cache=FormulaCache())
@@ -184,7 +184,7 @@ def test_a_scorer_bug_marks_the_row_and_the_run_goes_on(monkeypatch):
         return real(text)
 
     monkeypatch.setattr(pool_module, "score_row", flaky)
-    monkeypatch.setattr("pipelines.batch._PROCESS_CACHE", FormulaCache())
+    monkeypatch.setattr("ionicity.pipelines.batch._PROCESS_CACHE", FormulaCache())
     out = score_table(pd.DataFrame({"formula": ["NaCl", "KCl"]}), workers=1)
     assert out["status"].tolist() == ["ok", "error"]
     assert "internal error" in out["message"][1] and "boom" in out["message"][1]
@@ -218,7 +218,7 @@ def test_parquet_provenance(tmp_path):
     src.write_text("Formula\nNaCl\n")
     score_file(ScoreConfig(input=str(src), output=str(tmp_path / "out.parquet"), quiet=True, workers=1))
     meta = pq.read_schema(tmp_path / "out.parquet").metadata
-    from scorer import __version__
+    from ionicity.scorer import __version__
 
     assert meta[b"ionicity.version"].decode() == __version__
     data = json.loads(meta[b"ionicity.data_versions"])
@@ -314,7 +314,7 @@ def test_batches_read_ahead_survive_a_full_cache():
 def test_cache_arrays_match_pyarrow_conversion(values, arrow_type):
     # The cache builds its arrays without pa.array (which imports pandas);
     # pyarrow's own conversion, with NaN read as null, is the reference.
-    from pipelines.batch import _values_array
+    from ionicity.pipelines.batch import _values_array
 
     expected = pa.array([None if v is None or v != v else v for v in values], type=arrow_type)
     got = _values_array(values, arrow_type)
@@ -332,7 +332,7 @@ def test_a_run_does_not_import_pandas(tmp_path):
     pq.write_table(mixed_table(300), src)
     code = (
         "import sys\n"
-        "from pipelines.cli import main\n"
+        "from ionicity.pipelines.cli import main\n"
         f"code = main(['score', {str(src)!r}, '-o', {str(tmp_path / 'out.parquet')!r}, '--quiet', '--workers', '1'])\n"
         "print(code, 'pandas' in sys.modules)\n"
     )
@@ -344,7 +344,7 @@ def test_a_run_does_not_import_pandas(tmp_path):
 def test_workers_start_warm_with_one_blas_thread_and_a_settled_collector():
     import gc
 
-    from pipelines._workers import new_workers, stop_workers
+    from ionicity.pipelines._workers import new_workers, stop_workers
 
     workers = new_workers(1)
     try:
@@ -373,7 +373,7 @@ def test_stopping_workers_that_left_half_a_result_does_not_hang():
     import struct
     import threading
 
-    from pipelines._workers import new_workers, stop_workers
+    from ionicity.pipelines._workers import new_workers, stop_workers
 
     workers = new_workers(1)
     workers[0].submit(int).result(timeout=120)

@@ -1,4 +1,4 @@
-"""The benchmark's output contract: ``python -m pipelines.bench`` prints the
+"""The benchmark's output contract: ``python -m ionicity.pipelines.bench`` prints the
 figures the scale issue asks for, one ``name: value`` per line.
 
 No reference values, so no source to cite: these tests check no science, only
@@ -21,7 +21,7 @@ def test_bench_prints_every_figure_as_name_value(tmp_path):
     env = dict(os.environ)
     env["PYTHONPATH"] = str(ROOT) + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
     result = subprocess.run(
-        [sys.executable, "-m", "pipelines.bench", "--rows", "3000", "--distinct", "300", "--repeat", "2",
+        [sys.executable, "-m", "ionicity.pipelines.bench", "--rows", "3000", "--distinct", "300", "--repeat", "2",
          "--baseline-rows", "40", "--workdir", str(tmp_path)],
         capture_output=True, text=True, env=env, cwd=ROOT, timeout=300,
     )
@@ -37,7 +37,7 @@ def test_bench_prints_every_figure_as_name_value(tmp_path):
 def test_bench_table_holds_every_distinct_formula(tmp_path):
     import pyarrow.parquet as pq
 
-    from pipelines.bench import write_table
+    from ionicity.pipelines.bench import write_table
 
     path = tmp_path / "t.parquet"
     write_table(str(path), 5000, 700, seed=3)

@@ -18,8 +18,8 @@ from pathlib import Path
 import pyarrow.parquet as pq
 import pytest
 
-from pipelines.batch import Progress
-from pipelines.cli import main
+from ionicity.pipelines.batch import Progress
+from ionicity.pipelines.cli import main
 
 ROOT = Path(__file__).resolve().parents[1]
 
@@ -32,7 +32,7 @@ def _env():
 
 def run_cli(*args, stdin: bytes | None = None, timeout: float = 120):
     return subprocess.run(
-        [sys.executable, "-m", "pipelines", *args], input=stdin, capture_output=True, env=_env(),
+        [sys.executable, "-m", "ionicity", *args], input=stdin, capture_output=True, env=_env(),
         timeout=timeout, cwd=ROOT,
     )
 
@@ -138,7 +138,7 @@ def test_progress_line_shows_rows_rate_and_time_left():
 
 @pytest.fixture(scope="module")
 def big_csv(tmp_path_factory):
-    from pipelines.bench import write_table
+    from ionicity.pipelines.bench import write_table
 
     path = tmp_path_factory.mktemp("big") / "big.csv"
     # slow enough to interrupt: many distinct formulas, each scored once
@@ -148,7 +148,7 @@ def big_csv(tmp_path_factory):
 
 def _start_and_wait_for_partial(src: Path, out: Path) -> subprocess.Popen:
     process = subprocess.Popen(
-        [sys.executable, "-m", "pipelines", "score", str(src), "-o", str(out), "--batch-rows", "20000"],
+        [sys.executable, "-m", "ionicity", "score", str(src), "-o", str(out), "--batch-rows", "20000"],
         env=_env(), cwd=ROOT, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
         # a shell without job control starts background commands with SIGINT
         # ignored, and Python then installs no Ctrl-C handler: undo that here
@@ -237,7 +237,7 @@ def test_ctrl_c_while_the_workers_start_is_clean(big_csv, tmp_path, delay):
     # Ctrl-C in that window must end as any other interruption
     out = tmp_path / "out.csv"
     process = subprocess.Popen(
-        [sys.executable, "-m", "pipelines", "score", str(big_csv), "-o", str(out)],
+        [sys.executable, "-m", "ionicity", "score", str(big_csv), "-o", str(out)],
         env=_env(), cwd=ROOT, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
         preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL),
     )
@@ -258,7 +258,7 @@ def test_scoring_a_small_csv_does_not_import_dask_or_mendeleev(small_csv):
     # pandas is not listed: pyarrow (26) imports it on its first conversion of
     # Python values (pa.array, pa.scalar), which every run needs
     code = (
-        "import sys; from pipelines.cli import main; "
+        "import sys; from ionicity.pipelines.cli import main; "
         f"rc = main(['score', {str(small_csv)!r}, '-o', '-', '--quiet']); "
         "heavy = [m for m in ('dask', 'distributed', 'mendeleev', 'sklearn', 'matplotlib') if m in sys.modules]; "
         "print(rc, heavy, file=sys.stderr)"
@@ -282,7 +282,7 @@ def test_ten_rows_cost_at_most_twice_importing_pandas_and_pyarrow(tmp_path):
     src.write_text("formula\n" + "\n".join(["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3",
                                                "Xx2O", "CaCO3", "MgO", "Na2SO4·10H2O", "LiF"]) + "\n")
     reference = _best_of([sys.executable, "-c", "import pandas, pyarrow"])
-    scoring = _best_of([sys.executable, "-m", "pipelines", "score", str(src), "-o", "-", "--quiet"])
+    scoring = _best_of([sys.executable, "-m", "ionicity", "score", str(src), "-o", "-", "--quiet"])
     assert scoring <= 2 * reference, (scoring, reference)
 
 
@@ -291,7 +291,7 @@ def _pool_used_by_a_run(tmp_path, env_extra: dict) -> str:
     src.write_text("formula\nNaCl\nKCl\n")
     code = (
         "import sys, pyarrow as pa\n"
-        "from pipelines.cli import main\n"
+        "from ionicity.pipelines.cli import main\n"
         f"code = main(['score', {str(src)!r}, '-o', {str(tmp_path / 'out.csv')!r}, '--quiet', '--overwrite'])\n"
         "print(code, pa.default_memory_pool().backend_name)\n"
     )
@@ -317,7 +317,7 @@ def test_the_command_line_scores_with_jemalloc_unless_told_otherwise(tmp_path):
 def test_the_python_api_leaves_the_memory_pool_alone(tmp_path):
     import pyarrow as pa
 
-    from pipelines.batch import score_file
+    from ionicity.pipelines.batch import score_file
 
     before = pa.default_memory_pool().backend_name
     src = tmp_path / "in.csv"
@@ -332,7 +332,7 @@ def test_a_reader_that_stops_early_ends_the_run_cleanly(big_csv, attempt):
     # `ionicity score big.csv | head`: once the reader closes the pipe, the run
     # stops its workers and ends without a traceback (once, it hung here).
     process = subprocess.Popen(
-        [sys.executable, "-m", "pipelines", "score", str(big_csv), "--quiet", "--batch-rows", "20000"],
+        [sys.executable, "-m", "ionicity", "score", str(big_csv), "--quiet", "--batch-rows", "20000"],
         env=_env(), cwd=ROOT, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
     )
     assert process.stdout.readline().startswith(b'"sample_id",')

@@ -1,4 +1,4 @@
-"""pipelines.dask_engine: the same per-batch function on a two-worker Dask
+"""ionicity.pipelines.dask_engine: the same per-batch function on a two-worker Dask
 cluster must give exactly the local engine's table (the reference here is
 the local engine's own output, checked against scorer.record in
 test_batch.py). No scientific reference values: a property of our own code.
@@ -21,9 +21,9 @@ else:
     pytest.importorskip("dask.dataframe")
     distributed = pytest.importorskip("distributed")
 
-from pipelines.batch import ScoreConfig, score_file  # noqa: E402
-from pipelines.cli import main  # noqa: E402
-from pipelines.io import InputError  # noqa: E402
+from ionicity.pipelines.batch import ScoreConfig, score_file  # noqa: E402
+from ionicity.pipelines.cli import main  # noqa: E402
+from ionicity.pipelines.io import InputError  # noqa: E402
 
 FORMULAS = ["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3", "Xx2O", "", "Na₂SO₄", "ÅÅ", "MgO", None]
 
@@ -134,7 +134,7 @@ def test_stdin_is_refused(capsys):
 
 
 def test_unreachable_scheduler_is_a_usage_error(parts, tmp_path, capsys, monkeypatch):
-    monkeypatch.setattr("pipelines.dask_engine._CONNECT_TIMEOUT", "2s")
+    monkeypatch.setattr("ionicity.pipelines.dask_engine._CONNECT_TIMEOUT", "2s")
     code = main(["score", str(parts), "-o", str(tmp_path / "o.parquet"), "--engine", "dask",
                  "--scheduler", "tcp://127.0.0.1:9", "--quiet"])
     assert code == 2 and "scheduler" in capsys.readouterr().err

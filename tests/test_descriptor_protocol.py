@@ -9,9 +9,9 @@ import math
 
 import pytest
 
-from scorer.columns import DESCRIPTOR_MODULES, descriptor_modules
-from scorer.ion_library import ion_library, monatomic_ion
-from scorer.model import Decomposition, IonTerm
+from ionicity.scorer.columns import DESCRIPTOR_MODULES, descriptor_modules
+from ionicity.scorer.ion_library import ion_library, monatomic_ion
+from ionicity.scorer.model import Decomposition, IonTerm
 
 
 def _library_salts():

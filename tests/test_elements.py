@@ -9,8 +9,8 @@ from pathlib import Path
 
 import pytest
 
-from scorer import elements as E
-from scorer.data import build_elements
+from ionicity.scorer import elements as E
+from ionicity.scorer.data import build_elements
 
 REPO_ROOT = Path(__file__).resolve().parents[1]
 SNAPSHOT = REPO_ROOT / "scorer" / "data" / "elements.json"
@@ -37,7 +37,7 @@ def test_snapshot_matches_installed_mendeleev():
     committed_text = SNAPSHOT.read_text(encoding="utf-8")
     # Dict comparison first: pytest prints a readable diff of what changed.
     assert fresh == json.loads(committed_text), (
-        "elements.json is stale; run python -m scorer.data.build_elements"
+        "elements.json is stale; run python -m ionicity.scorer.data.build_elements"
     )
     assert build_elements.render_snapshot(fresh) == committed_text
 
@@ -272,7 +272,7 @@ def test_element_symbols_in_order_of_z():
 
 def test_import_does_not_load_mendeleev():
     code = (
-        "import scorer.elements, sys; scorer.elements.get_element('Na'); "
+        "import ionicity.scorer.elements, sys; ionicity.scorer.elements.get_element('Na'); "
         "assert 'mendeleev' not in sys.modules, 'mendeleev imported'; "
         "assert 'pandas' not in sys.modules, 'pandas imported'"
     )
@@ -284,7 +284,7 @@ def test_import_does_not_load_mendeleev():
 
 def test_import_does_not_load_the_snapshot():
     code = (
-        "import scorer.elements as E, sys; "
+        "import ionicity.scorer.elements as E, sys; "
         "assert E._snapshot.cache_info().currsize == 0, 'loaded at import'"
     )
     result = subprocess.run(

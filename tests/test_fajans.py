@@ -7,9 +7,9 @@ import time
 
 import pytest
 
-from scorer import fajans as F
-from scorer.ion_library import get_ion, monatomic_ion
-from scorer.model import Decomposition
+from ionicity.scorer import fajans as F
+from ionicity.scorer.ion_library import get_ion, monatomic_ion
+from ionicity.scorer.model import Decomposition
 
 from _builders import salt
 

@@ -22,8 +22,8 @@ from pathlib import Path
 
 import pytest
 
-import scorer
-from scorer import FormulaError, parse_formula, score_formula
+from ionicity import scorer
+from ionicity.scorer import FormulaError, parse_formula, score_formula
 
 from _builders import periodictable_spelling
 
@@ -171,7 +171,7 @@ def test_formula_error_is_a_value_error():
 
 
 def test_public_names():
-    assert {"parse_formula", "score_formula", "Composition", "FormulaError"} <= set(scorer.__all__)
+    assert {"parse_formula", "score_formula", "ParsedFormula", "FormulaError"} <= set(scorer.__all__)
 
 
 def test_bracketed_water_alone_is_water():
@@ -268,7 +268,7 @@ HOSTILE = [
 
 def _clear_caches():
     """Forget earlier results, so that the time measured is the work itself."""
-    from scorer import formula, ions, record
+    from ionicity.scorer import formula, ions, record
 
     for fn in (getattr(record, "_score_text", None), formula.parse_formula, ions.decompose):
         if hasattr(fn, "cache_clear"):

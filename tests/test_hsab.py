@@ -9,9 +9,9 @@ from pathlib import Path
 
 import pytest
 
-from scorer import hsab as H
-from scorer.ion_library import get_ion, monatomic_ion
-from scorer.model import Decomposition
+from ionicity.scorer import hsab as H
+from ionicity.scorer.ion_library import get_ion, monatomic_ion
+from ionicity.scorer.model import Decomposition
 
 from _builders import salt
 

@@ -1,4 +1,4 @@
-"""pipelines.io: streaming readers, the temp-then-rename writer, stale partials.
+"""ionicity.pipelines.io: streaming readers, the temp-then-rename writer, stale partials.
 
 The reference for what a CSV cell holds is RFC 4180 (Shafranovich, "Common
 Format and MIME Type for Comma-Separated Values (CSV) Files", IETF, 2005):
@@ -18,7 +18,7 @@ import pyarrow as pa
 import pyarrow.parquet as pq
 import pytest
 
-from pipelines.io import (
+from ionicity.pipelines.io import (
     InputError,
     TableWriter,
     clean_stale_partials,
@@ -234,7 +234,7 @@ def test_a_grown_dictionary_is_shared_across_a_row_group(tmp_path):
         pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([1, 0], pa.int32()), pa.array(["warning", "ok"]))], schema=schema),
         pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([2, 1], pa.int32()), grown)], schema=schema),
     ]
-    from pipelines.io import _share_dictionaries
+    from ionicity.pipelines.io import _share_dictionaries
 
     shared = _share_dictionaries(batches)
     assert shared[0].column(0).dictionary.equals(grown)

@@ -21,7 +21,7 @@ from pathlib import Path
 
 import pytest
 
-from scorer import parse_formula, score_formula
+from ionicity.scorer import parse_formula, score_formula
 
 CASES_FILE = Path(__file__).resolve().parent / "data" / "formula_cases.csv"
 IONIC_CLASSES = {"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"}

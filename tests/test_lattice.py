@@ -17,8 +17,8 @@ import time
 import numpy as np
 import pytest
 
-from scorer import lattice, madelung, radii
-from scorer.lattice import (
+from ionicity.scorer import lattice, madelung, radii
+from ionicity.scorer.lattice import (
     COLUMNS,
     KAPUSTINSKII_CONSTANT_KJ_NM_MOL,
     assign_structure_type,
@@ -31,9 +31,9 @@ from scorer.lattice import (
     glasser_kapustinskii_lattice_energy_kJ_mol,
     kapustinskii_lattice_energy_kJ_mol,
 )
-from scorer.model import Decomposition, Ion, IonTerm, RowWarning
+from ionicity.scorer.model import Decomposition, Ion, IonTerm, RowWarning
 
-ions = pytest.importorskip("scorer.ions")
+ions = pytest.importorskip("ionicity.scorer.ions")
 
 
 def salt(cations, anions, water=0.0, cls="ionic_salt") -> Decomposition:
@@ -179,7 +179,7 @@ EV_KJ_MOL = 96.485332
 
 
 def test_born_haber_cycle_reproduces_handbook_values():
-    from scorer.elements import get_element
+    from ionicity.scorer.elements import get_element
 
     for name, formation in FORMATION.items():
         cations, anions, expected = EXPERIMENTAL[name]

@@ -6,7 +6,7 @@ import math
 import numpy as np
 import pytest
 
-from scorer.madelung import (
+from ionicity.scorer.madelung import (
     CONVENTIONS,
     PROTOTYPES,
     CrystalStructure,
@@ -187,13 +187,13 @@ def test_lists_and_arrays_are_accepted():
 def test_prototype_snapshot_is_a_fresh_ewald_sum():
     # The snapshot only saves every process the sums; it must be what the
     # Ewald code gives now (the published values above check that code).
-    from scorer.data.build_madelung import OUT, build, differences
+    from ionicity.scorer.data.build_madelung import OUT, build, differences
 
     assert differences(build(), OUT.read_text(encoding="utf-8")) == []
 
 
 def test_prototype_names_read_the_snapshot_and_structures_are_summed():
-    from scorer.madelung import ewald_details, prototype_snapshot
+    from ionicity.scorer.madelung import ewald_details, prototype_snapshot
 
     snapshot = prototype_snapshot()
     assert set(snapshot) == set(PROTOTYPES)

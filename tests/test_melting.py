@@ -8,10 +8,10 @@ import time
 import numpy as np
 import pytest
 
-from scorer import melting
-from scorer.formula import parse_formula
-from scorer.ions import decompose
-from scorer.model import Decomposition
+from ionicity.scorer import melting
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.model import Decomposition
 
 
 def _describe(formula: str):
@@ -153,7 +153,7 @@ def test_trend_index_moves_the_way_its_physics_says():
 
 
 def test_ion_shape_table_has_a_source_on_every_row_and_covers_the_organic_ions():
-    from scorer.ion_library import ion_library
+    from ionicity.scorer.ion_library import ion_library
 
     table = melting._shape_table()
     assert len(table) == 72
@@ -167,7 +167,7 @@ def test_ion_shape_table_has_a_source_on_every_row_and_covers_the_organic_ions()
 
 
 def test_ion_shape_counts_torsions_by_the_rule():
-    from scorer.ion_library import get_ion
+    from ionicity.scorer.ion_library import get_ion
 
     # tau = SP3 + 0.5 SP2 + 0.5 RING - 1 (Dannenfelser & Yalkowsky 1996, from memory):
     # [C4mim]: three CH2 + one ring -> 2.5; [N1111]: the N alone -> 0, sigma 12 (Td)

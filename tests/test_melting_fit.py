@@ -12,10 +12,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from pipelines import melting_fit as mf
-from scorer import melting
-from scorer.formula import parse_formula
-from scorer.ions import decompose
+from ionicity.pipelines import melting_fit as mf
+from ionicity.scorer import melting
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
 
 FIXTURE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "wikidata_salts.csv"
 
@@ -163,7 +163,7 @@ def test_user_table_is_screened_and_logged(tmp_path):
 
 
 def test_user_table_needs_its_columns(tmp_path):
-    from pipelines.io import InputError
+    from ionicity.pipelines.io import InputError
 
     path = tmp_path / "bad.csv"
     path.write_text("compound,T\nNaCl,1074\n", encoding="utf-8")
@@ -306,7 +306,7 @@ def test_fit_refuses_to_overwrite(fitted, capsys):
 def test_saved_model_loads_and_applies(fitted):
     _, out = fitted
     model = mf.load_model(out / "melting_model.json")
-    from scorer import score_formula
+    from ionicity.scorer import score_formula
 
     records = [mf.score_for_melting(f) for f in ("NaCl", "MgO", "CCl4", "[C4mim][NTf2]")]
     applied = mf.apply_model_to_records(records, model)
@@ -387,7 +387,7 @@ def test_scoring_does_not_import_the_extra():
     import sys
 
     code = ("import sys; sys.modules['chemicals'] = None; sys.modules['matplotlib'] = None;"
-            "from scorer import melting; from scorer.formula import parse_formula; from scorer.ions import decompose;"
+            "from ionicity.scorer import melting; from ionicity.scorer.formula import parse_formula; from ionicity.scorer.ions import decompose;"
             "print(melting.describe(decompose(parse_formula('NaCl')))[0]['melting_class'])")
     result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                             cwd=Path(__file__).resolve().parents[1], timeout=120)
@@ -426,7 +426,7 @@ def test_trend_index_ranks_the_open_training_set():
 
 @needs_extra
 def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsys):
-    from pipelines.cli import main
+    from ionicity.pipelines.cli import main
 
     _, out = fitted
     source = tmp_path / "in.csv"
@@ -450,7 +450,7 @@ def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsy
 
 @needs_extra
 def test_score_refuses_a_model_that_is_not_ours(tmp_path, capsys):
-    from pipelines.cli import main
+    from ionicity.pipelines.cli import main
 
     source = tmp_path / "in.csv"
     source.write_text("formula\nNaCl\n", encoding="utf-8")

@@ -21,7 +21,7 @@ from pathlib import Path
 
 import pytest
 
-from scorer import score_formula
+from ionicity.scorer import score_formula
 
 from _builders import formula_piece as _piece
 from _builders import periodictable_spelling

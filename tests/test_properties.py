@@ -26,7 +26,7 @@ from pathlib import Path
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from scorer import parse_formula, score_formula
+from ionicity.scorer import parse_formula, score_formula
 
 from _builders import formula_piece as _piece
 
@@ -245,7 +245,7 @@ _WATER_TEXT = st.sampled_from(["H2O", "0.5H2O", "1H2O", "2H2O", "12H2O", "0H2O",
 
 
 def _full_reading(cleaned):
-    from scorer import formula
+    from ionicity.scorer import formula
 
     try:
         return formula._parse_cleaned(cleaned, cleaned, [])
@@ -254,7 +254,7 @@ def _full_reading(cleaned):
 
 
 def _shortcut_reading(cleaned):
-    from scorer import formula
+    from ionicity.scorer import formula
 
     formula._parse_normalised.cache_clear()
     try:
@@ -280,9 +280,9 @@ def test_hydrates_read_through_the_cached_salt_read_as_in_full(salt, waters, sep
 
 
 def test_hydrate_shortcut_matches_the_full_reading_on_the_benchmark_corpus():
-    from scorer.formula import _normalise_text
+    from ionicity.scorer.formula import _normalise_text
 
-    from pipelines.bench import realistic_formulas
+    from ionicity.pipelines.bench import realistic_formulas
 
     for text in realistic_formulas(3000, seed=2):
         cleaned = _normalise_text(text)

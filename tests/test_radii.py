@@ -5,8 +5,8 @@ import math
 
 import pytest
 
-from scorer.model import Ion
-from scorer.radii import (
+from ionicity.scorer.model import Ion
+from ionicity.scorer.radii import (
     atomic_volumes_A3,
     ion_radius_pm,
     ion_volume_nm3,
@@ -142,6 +142,6 @@ def test_tables_have_rows_and_sources(table, minimum):
 
 
 def test_table_ion_ids_are_library_ions():
-    ions = pytest.importorskip("scorer.ions")
+    ions = pytest.importorskip("ionicity.scorer.ions")
     for ion_id in list(thermochemical_radii()) + list(tabulated_ion_volumes()):
         assert ions.get_ion(ion_id).ion_id == ion_id

@@ -4,14 +4,14 @@ No scientific reference values here: these check a property of our own docs.
 """
 from pathlib import Path
 
-from pipelines.explain import readme_with_columns
+from ionicity.pipelines.explain import readme_with_columns
 
 ROOT = Path(__file__).resolve().parent.parent
 
 
 def test_readme_column_table_matches_registry():
     text = (ROOT / "README.md").read_text(encoding="utf-8")
-    assert text == readme_with_columns(text), "run: python -m pipelines.explain --update-readme"
+    assert text == readme_with_columns(text), "run: python -m ionicity.pipelines.explain --update-readme"
 
 
 def test_readme_opens_with_job_and_two_setup_commands():

@@ -15,8 +15,8 @@ from sklearn.impute import SimpleImputer  # noqa: E402
 from sklearn.linear_model import LinearRegression  # noqa: E402
 from sklearn.pipeline import make_pipeline  # noqa: E402
 
-from pipelines.transformer import FormulaDescriptors, numeric_descriptor_columns  # noqa: E402
-from scorer import melting, score_formula  # noqa: E402
+from ionicity.pipelines.transformer import FormulaDescriptors, numeric_descriptor_columns  # noqa: E402
+from ionicity.scorer import melting, score_formula  # noqa: E402
 
 
 def test_numeric_columns_include_the_melting_index_and_no_text():

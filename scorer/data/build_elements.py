@@ -1,7 +1,7 @@
 """Build ``scorer/data/elements.json`` from the installed mendeleev.
 
-Run ``python -m scorer.data.build_elements`` to rewrite the snapshot, or
-``python -m scorer.data.build_elements --check`` to compare it with a fresh
+Run ``python -m ionicity.scorer.data.build_elements`` to rewrite the snapshot, or
+``python -m ionicity.scorer.data.build_elements --check`` to compare it with a fresh
 build (exit status 1 when they differ).
 
 This is the only place in ``scorer`` that imports mendeleev: importing it
@@ -369,7 +369,7 @@ def snapshot_path() -> Path:
 
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(
-        prog="python -m scorer.data.build_elements",
+        prog="python -m ionicity.scorer.data.build_elements",
         description="Rebuild scorer/data/elements.json from the installed mendeleev.",
     )
     parser.add_argument(
@@ -386,7 +386,7 @@ def main(argv: list[str] | None = None) -> int:
             print(f"{path} is up to date", file=sys.stderr)
             return 0
         print(
-            f"{path} differs from a fresh build; run python -m scorer.data.build_elements",
+            f"{path} differs from a fresh build; run python -m ionicity.scorer.data.build_elements",
             file=sys.stderr,
         )
         return 1

@@ -1,8 +1,8 @@
 """Build ``scorer/data/madelung_prototypes.csv``: the Ewald sums of the
 built-in structure prototypes (:data:`scorer.madelung.PROTOTYPES`).
 
-Run ``python -m scorer.data.build_madelung`` to rewrite the snapshot, or
-``python -m scorer.data.build_madelung --check`` to compare it with a fresh
+Run ``python -m ionicity.scorer.data.build_madelung`` to rewrite the snapshot, or
+``python -m ionicity.scorer.data.build_madelung --check`` to compare it with a fresh
 computation (exit status 1 when they differ beyond 1e-12 relative).
 
 The values are this project's own computation
@@ -19,7 +19,7 @@ import math
 import sys
 from pathlib import Path
 
-from scorer.madelung import PROTOTYPE_SNAPSHOT_FILE, PROTOTYPES, _SNAPSHOT_FIELDS, ewald_details, prototype_structure
+from ionicity.scorer.madelung import PROTOTYPE_SNAPSHOT_FILE, PROTOTYPES, _SNAPSHOT_FIELDS, ewald_details, prototype_structure
 
 OUT = Path(__file__).with_name(PROTOTYPE_SNAPSHOT_FILE)
 SOURCE = "Ewald sum by scorer.madelung.ewald_details (this project); geometry as in scorer.madelung.prototype_structure"

@@ -1,0 +1,61 @@
+"""ionicity: score tables of ionic compounds.
+
+The documented Python API. The science lives in :mod:`ionicity.scorer` (pure,
+importable alone); files, engines and the command line in
+:mod:`ionicity.pipelines`. In the repository they are the folders
+``scorer/`` and ``pipelines/``, installed under this package so that they
+never collide with a user's own ``scorer`` or ``pipelines``.
+
+>>> import ionicity
+>>> ionicity.score_formula("NaCl")["status"]
+'ok'
+
+Names from :mod:`ionicity.pipelines` load on first use, so that
+``import ionicity`` does not pay for pandas and pyarrow until a table is
+scored (pyarrow alone costs about 0.2 s).
+"""
+from __future__ import annotations
+
+import importlib
+
+from ionicity.scorer import FormulaError, ParsedFormula, madelung_constant, parse_formula, score_formula
+
+__all__ = [
+    "FormulaDescriptors",
+    "FormulaError",
+    "InputError",
+    "ParsedFormula",
+    "ScoreConfig",
+    "Summary",
+    "explain",
+    "madelung_constant",
+    "parse_formula",
+    "score_file",
+    "score_formula",
+    "score_table",
+    "__version__",
+]
+
+__version__ = "0.1.0"
+
+_LAZY = {
+    "FormulaDescriptors": "ionicity.pipelines.transformer",
+    "InputError": "ionicity.pipelines.io",
+    "ScoreConfig": "ionicity.pipelines.batch",
+    "Summary": "ionicity.pipelines.batch",
+    "explain": ("ionicity.pipelines.explain", "explain_formula"),
+    "score_file": "ionicity.pipelines.batch",
+    "score_table": "ionicity.pipelines.batch",
+}
+
+
+def __getattr__(name: str):
+    if name in _LAZY:
+        home = _LAZY[name]
+        module, attribute = home if isinstance(home, tuple) else (home, name)
+        return getattr(importlib.import_module(module), attribute)
+    raise AttributeError(f"module 'ionicity' has no attribute {name!r}")
+
+
+def __dir__():
+    return sorted(set(globals()) | set(__all__))
