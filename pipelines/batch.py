@@ -599,7 +599,7 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
 def _generated_columns(with_model: bool) -> tuple:
     if not with_model:
         return output_columns()
-    from ionicity.scorer.melting import MODEL_COLUMNS
+    from ionicity.scorer.melting_model import MODEL_COLUMNS
 
     return output_columns() + tuple(MODEL_COLUMNS)
 
@@ -619,7 +619,7 @@ class ModelApplier:
     message of rows outside the model's training domain."""
 
     def __init__(self, model):
-        from ionicity.scorer.melting import MODEL_COLUMNS, MODEL_FEATURES
+        from ionicity.scorer.melting_model import MODEL_COLUMNS, MODEL_FEATURES
 
         self.model = model
         self.names = [c.name for c in MODEL_COLUMNS]
@@ -808,7 +808,7 @@ def load_model_applier(config: ScoreConfig) -> ModelApplier | None:
     """The ``--mp-model`` file, checked and loaded; InputError when unusable."""
     if config.mp_model is None:
         return None
-    from ionicity.scorer.melting import ModelFormatError
+    from ionicity.scorer.melting_model import ModelFormatError
 
     from ionicity.pipelines.melting_fit import load_model
 

@@ -18,7 +18,7 @@ What it does
    alone (:func:`read_user_table`).
 3. **The regression** is a scikit-learn pipeline (histogram gradient boosting
    on log melting point) over numeric output columns of ionicity
-   (:data:`scorer.melting.MODEL_FEATURES`). It is cross-validated with
+   (:data:`scorer.melting_model.MODEL_FEATURES`). It is cross-validated with
    :class:`sklearn.model_selection.GroupKFold`, once grouped by anion family
    and once by cation element so near-duplicates (NaCl/NaBr, the K and Rb
    salts of one anion) never sit on both sides of a split, and compared with two
@@ -30,7 +30,7 @@ What it does
    Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116).
    Their coverage is checked on the held-out folds.
 5. **The model file** is JSON: the trees as arrays of plain numbers, checked
-   against a fixed schema on load (:func:`scorer.melting.model_from_dict`).
+   against a fixed schema on load (:func:`scorer.melting_model.model_from_dict`).
    No pickle or joblib file is ever written or read, so loading a model
    cannot run code.
 
@@ -52,7 +52,7 @@ from pathlib import Path
 
 import numpy as np
 
-from ionicity.scorer import melting
+from ionicity.scorer import melting, melting_model
 
 from ionicity.pipelines.melting_cli import _OUTPUTS, CAUTION, EXTRA_HINT, TOLERANCE_K, add_fit_melting_parser  # noqa: F401
 
@@ -231,8 +231,8 @@ def name_agrees_with_ions(name: str, dec) -> tuple[bool, str]:
 
     Examples
     --------
-    >>> from scorer.formula import parse_formula
-    >>> from scorer.ions import decompose
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
     >>> name_agrees_with_ions("sodium sulphate", decompose(parse_formula("Na2SO4")))
     (True, '')
     >>> name_agrees_with_ions("benzoxonium chloride", decompose(parse_formula("NaCl")))
@@ -272,8 +272,8 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
 
     Examples
     --------
-    >>> from scorer.formula import parse_formula
-    >>> from scorer.ions import decompose
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
     >>> screen_salt(decompose(parse_formula("CuSO4.5H2O")), "copper sulfate pentahydrate")
     (False, 'hydrate')
     """
@@ -358,8 +358,8 @@ def anion_family(dec) -> str:
     nitrate split out of ``oxoanion`` because they are common. The main anion
     is the one carrying most negative charge.
 
-    >>> from scorer.formula import parse_formula
-    >>> from scorer.ions import decompose
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
     >>> anion_family(decompose(parse_formula("K2SO4"))), anion_family(decompose(parse_formula("CaF2")))
     ('sulfate', 'halide')
     """
@@ -717,9 +717,9 @@ def score_for_melting(formula: str) -> dict:
 
 
 def feature_matrix(rows) -> tuple[np.ndarray, list[dict]]:
-    """:data:`scorer.melting.MODEL_FEATURES` for training rows, and their scored records."""
+    """:data:`scorer.melting_model.MODEL_FEATURES` for training rows, and their scored records."""
     records = [score_for_melting(row["formula_normalized"]) for row in rows]
-    x = np.vstack([melting.model_features_from_record(r) for r in records]) if records else np.empty((0, len(melting.MODEL_FEATURES)))
+    x = np.vstack([melting_model.model_features_from_record(r) for r in records]) if records else np.empty((0, len(melting_model.MODEL_FEATURES)))
     return x, records
 
 
@@ -753,14 +753,14 @@ def make_melting_pipeline(seed: int = 0, features=None):
     seed : int, default=0
     features : sequence of str, optional
         Names of the input columns, in order (default
-        :data:`scorer.melting.MODEL_FEATURES`); the trend index, when present,
+        :data:`scorer.melting_model.MODEL_FEATURES`); the trend index, when present,
         gets a monotonic (increasing) constraint.
     """
     from sklearn.compose import TransformedTargetRegressor
     from sklearn.ensemble import HistGradientBoostingRegressor
     from sklearn.pipeline import Pipeline
 
-    names = list(melting.MODEL_FEATURES if features is None else features)
+    names = list(melting_model.MODEL_FEATURES if features is None else features)
     # the melting point may only rise with the trend index (its physics says so);
     # small trees and a floor on leaf size because groups of similar salts are few
     monotonic = [1 if name == "mp_trend_index" else 0 for name in names]
@@ -777,7 +777,7 @@ def _fit_pipeline(x: np.ndarray, y_K: np.ndarray, seed: int):
     used = np.array([j for j in range(x.shape[1]) if np.isfinite(x[:, j]).any()], dtype=int)
     if len(used) == 0:
         raise ValueError("no feature holds a value in the training rows")
-    names = [melting.MODEL_FEATURES[j] for j in used]
+    names = [melting_model.MODEL_FEATURES[j] for j in used]
     pipe = make_melting_pipeline(seed, names).fit(x[:, used], y_K)
     return pipe, used
 
@@ -1017,11 +1017,11 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     lo, hi = _finite_minmax(x[:, used])
     metrics = {"cross_validation": cv, "trend_index": trend_index_report(rows, records)}
     document = {
-        "format": melting.MODEL_FORMAT,
-        "format_version": melting.MODEL_FORMAT_VERSION,
+        "format": melting_model.MODEL_FORMAT,
+        "format_version": melting_model.MODEL_FORMAT_VERSION,
         "model_type": "gradient_boosted_trees",
         "target": "ln_mp_K",
-        "features": [melting.MODEL_FEATURES[j] for j in used],
+        "features": [melting_model.MODEL_FEATURES[j] for j in used],
         "baseline": baseline,
         "trees": trees,
         "interval": {"method": "split conformal on absolute ln residuals", "coverage": coverage,
@@ -1036,7 +1036,7 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         "metrics": metrics,
         "caution": CAUTION,
     }
-    melting.model_from_dict(json.loads(json.dumps(document)))  # what we write must load
+    melting_model.model_from_dict(json.loads(json.dumps(document)))  # what we write must load
     return FitReport(model=document, metrics=metrics, rows=rows, records=records, oof_predictions_K=oof)
 
 
@@ -1045,42 +1045,42 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
 
 def save_model(document: dict, path) -> None:
     """Write a model document as JSON (atomically: a temporary file, then a rename)."""
-    melting.model_from_dict(document)
+    melting_model.model_from_dict(document)
     path = Path(path)
     tmp = path.with_name(path.name + ".tmp")
     tmp.write_text(json.dumps(document, allow_nan=False, separators=(",", ":")), encoding="utf-8")
     os.replace(tmp, path)
 
 
-def load_model(path) -> melting.MeltingModel:
+def load_model(path) -> melting_model.MeltingModel:
     """Read and check a model file written by :func:`save_model`.
 
-    Only JSON is read, and only the layout :func:`scorer.melting.model_from_dict`
+    Only JSON is read, and only the layout :func:`scorer.melting_model.model_from_dict`
     expects is accepted: a pickle, a joblib file or any other document is
-    refused with :class:`scorer.melting.ModelFormatError` (a ``ValueError``)
+    refused with :class:`scorer.melting_model.ModelFormatError` (a ``ValueError``)
     whose message says why. Nothing in the file is executed.
     """
     path = Path(path)
     try:
         size = path.stat().st_size
         if size > _MAX_MODEL_BYTES:
-            raise melting.ModelFormatError(f"{path}: {size} bytes is too large for a melting model")
+            raise melting_model.ModelFormatError(f"{path}: {size} bytes is too large for a melting model")
         raw = path.read_bytes()
     except OSError as exc:
-        raise melting.ModelFormatError(f"cannot read the melting model {path}: {exc}") from exc
+        raise melting_model.ModelFormatError(f"cannot read the melting model {path}: {exc}") from exc
     if raw[:1] == b"\x80" or raw[:4] == b"PK\x03\x04":
-        raise melting.ModelFormatError(
+        raise melting_model.ModelFormatError(
             f"{path} looks like a pickle/joblib file; ionicity loads only the JSON models that"
             " 'ionicity fit-melting' writes, since unpickling can run arbitrary code"
         )
     try:
         document = json.loads(raw.decode("utf-8"))
     except (UnicodeDecodeError, json.JSONDecodeError) as exc:
-        raise melting.ModelFormatError(f"{path} is not a JSON melting model: {exc}") from exc
+        raise melting_model.ModelFormatError(f"{path} is not a JSON melting model: {exc}") from exc
     try:
-        return melting.model_from_dict(document)
-    except melting.ModelFormatError as exc:
-        raise melting.ModelFormatError(f"{path}: {exc}") from exc
+        return melting_model.model_from_dict(document)
+    except melting_model.ModelFormatError as exc:
+        raise melting_model.ModelFormatError(f"{path}: {exc}") from exc
 
 
 # ------------------------------------------------------ applying to records
@@ -1088,7 +1088,7 @@ def load_model(path) -> melting.MeltingModel:
 _DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
 
 
-def apply_model_to_records(records, model: melting.MeltingModel) -> list[dict]:
+def apply_model_to_records(records, model: melting_model.MeltingModel) -> list[dict]:
     """Add ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K`` to scored records.
 
     The hook for ``ionicity score --mp-model``: call it on the records of the
@@ -1101,7 +1101,7 @@ def apply_model_to_records(records, model: melting.MeltingModel) -> list[dict]:
     ----------
     records : sequence of dict
         Records of :func:`scorer.score_formula` (they need the melting columns).
-    model : scorer.melting.MeltingModel
+    model : scorer.melting_model.MeltingModel
         From :func:`load_model`.
 
     Returns
@@ -1112,8 +1112,8 @@ def apply_model_to_records(records, model: melting.MeltingModel) -> list[dict]:
     records = [dict(r) for r in records]
     if not records:
         return records
-    x = np.vstack([melting.model_features_from_record(r) for r in records])
-    pred, low, high = melting.predict_melting_K(model, x)
+    x = np.vstack([melting_model.model_features_from_record(r) for r in records])
+    pred, low, high = melting_model.predict_melting_K(model, x)
     for record, row, p, lo, hi in zip(records, x, pred, low, high):
         ionic = math.isfinite(p) and record.get("status") != "error" and math.isfinite(_float(record.get("mp_trend_index")))
         record["mp_predicted_K"] = round(float(p), 1) if ionic else math.nan
@@ -1121,7 +1121,7 @@ def apply_model_to_records(records, model: melting.MeltingModel) -> list[dict]:
         record["mp_interval_high_K"] = round(float(hi), 1) if ionic else math.nan
         if not ionic:
             continue
-        reasons = melting.outside_training_domain(model, row, record.get("substance_class"))
+        reasons = melting_model.outside_training_domain(model, row, record.get("substance_class"))
         if reasons:
             note = _DOMAIN_NOTE.format("; ".join(reasons))
             record["message"] = "; ".join(m for m in (record.get("message") or "", note) if m)
@@ -1130,11 +1130,11 @@ def apply_model_to_records(records, model: melting.MeltingModel) -> list[dict]:
     return records
 
 
-def apply_model_to_frame(frame, model: melting.MeltingModel, *, prefix: str = ""):
+def apply_model_to_frame(frame, model: melting_model.MeltingModel, *, prefix: str = ""):
     """:func:`apply_model_to_records` for a scored pandas DataFrame (columns may carry ``prefix``)."""
     import pandas as pd
 
-    names = [c.name for c in melting.MODEL_COLUMNS]
+    names = [c.name for c in melting_model.MODEL_COLUMNS]
     plain = frame.rename(columns={prefix + c: c for c in frame.columns.str.removeprefix(prefix)}) if prefix else frame
     records = apply_model_to_records(plain.to_dict("records"), model)
     out = frame.copy()

@@ -1,7 +1,7 @@
 """ionicity's descriptors as a scikit-learn transformer: formulas in, numeric columns out.
 
 >>> import numpy as np
->>> from pipelines.transformer import FormulaDescriptors
+>>> from ionicity.pipelines.transformer import FormulaDescriptors
 >>> t = FormulaDescriptors(columns=["lattice_energy_vbt_kJ_mol", "mp_trend_index"]).fit(np.array(["NaCl", "MgO"]))
 >>> t.get_feature_names_out().tolist()
 ['lattice_energy_vbt_kJ_mol', 'mp_trend_index']
@@ -34,14 +34,10 @@ __all__ = ["FormulaDescriptors", "numeric_descriptor_columns"]
 
 
 def numeric_descriptor_columns() -> tuple[str, ...]:
-    """Every numeric (``float64`` or ``bool``) generated column, melting columns included."""
-    from ionicity.scorer import melting
+    """Every numeric (``float64``, ``int64`` or ``bool``) generated column, the melting trend included."""
     from ionicity.scorer.columns import output_columns
 
-    columns = list(output_columns())
-    names = {c.name for c in columns}
-    columns += [c for c in melting.COLUMNS if c.name not in names]
-    return tuple(c.name for c in columns if c.dtype in ("float64", "bool", "int64"))
+    return tuple(c.name for c in output_columns() if c.dtype in ("float64", "bool", "int64"))
 
 
 class FormulaDescriptors(TransformerMixin, BaseEstimator):
@@ -62,7 +58,7 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
     columns : {"numeric", "model"} or list of str, default="numeric"
         ``"numeric"``: every numeric generated column
         (:func:`numeric_descriptor_columns`); ``"model"``: the features of the
-        melting regression (:data:`scorer.melting.MODEL_FEATURES`, which adds
+        melting regression (:data:`scorer.melting_model.MODEL_FEATURES`, which adds
         ion counts and charges); or a list of names from either.
 
     Attributes
@@ -84,7 +80,7 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
     >>> FormulaDescriptors(columns=["no_such_column"]).fit(np.array(["NaCl"]))
     Traceback (most recent call last):
     ...
-    ValueError: unknown descriptor columns ['no_such_column']; see pipelines.transformer.numeric_descriptor_columns() and scorer.melting.MODEL_FEATURES
+    ValueError: unknown descriptor columns ['no_such_column']; see pipelines.transformer.numeric_descriptor_columns() and scorer.melting_model.MODEL_FEATURES
     """
 
     def __init__(self, formula_column=None, columns="numeric"):
@@ -93,24 +89,24 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
     # ---------------------------------------------------------------- options
     def _resolve_columns(self) -> list[str]:
-        from ionicity.scorer import melting
+        from ionicity.scorer import melting_model
 
         numeric = numeric_descriptor_columns()
         if isinstance(self.columns, str):
             if self.columns == "numeric":
                 return list(numeric)
             if self.columns == "model":
-                return list(melting.MODEL_FEATURES)
+                return list(melting_model.MODEL_FEATURES)
             raise ValueError(f"columns={self.columns!r} is not allowed; use 'numeric', 'model' or a list of column names")
         names = list(self.columns)
         if not names or not all(isinstance(n, str) for n in names):
             raise ValueError("columns must be 'numeric', 'model' or a non-empty list of column names")
-        allowed = set(numeric) | set(melting.MODEL_FEATURES)
+        allowed = set(numeric) | set(melting_model.MODEL_FEATURES)
         unknown = [n for n in names if n not in allowed]
         if unknown:
             raise ValueError(
                 f"unknown descriptor columns {unknown}; see pipelines.transformer.numeric_descriptor_columns()"
-                " and scorer.melting.MODEL_FEATURES"
+                " and scorer.melting_model.MODEL_FEATURES"
             )
         return names
 
@@ -184,10 +180,10 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
             float64; NaN where a value does not apply.
         """
         check_is_fitted(self, "columns_")
-        from ionicity.scorer import melting
+        from ionicity.scorer import melting_model
 
         formulas = self._formulas(X, fitting=False)
-        derived = set(melting.MODEL_FEATURES) - set(numeric_descriptor_columns())
+        derived = set(melting_model.MODEL_FEATURES) - set(numeric_descriptor_columns())
         needs_derived = any(c in derived for c in self.columns_)
         cache: dict = {}
         out = np.full((len(formulas), len(self.columns_)), np.nan)
@@ -211,14 +207,14 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
 def _row_values(cell, columns: list[str], needs_derived: bool) -> np.ndarray:
     from ionicity.pipelines.melting_fit import score_for_melting
-    from ionicity.scorer import melting
+    from ionicity.scorer import melting_model
 
     if cell is None or (isinstance(cell, float) and math.isnan(cell)):
         return np.full(len(columns), np.nan)
     record = score_for_melting(cell if isinstance(cell, str) else str(cell))
     derived = {}
     if needs_derived:
-        derived = dict(zip(melting.MODEL_FEATURES, melting.model_features_from_record(record).tolist()))
+        derived = dict(zip(melting_model.MODEL_FEATURES, melting_model.model_features_from_record(record).tolist()))
     values = []
     for name in columns:
         value = derived[name] if name in derived else record.get(name)

@@ -339,7 +339,7 @@ def contact_atom(ion: Ion) -> tuple[str | None, str]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> so4 = Ion("SO4(2-)", "SO4", -2, (("S", 1), ("O", 4)), "oxoanion")
     >>> contact_atom(so4)[0]
     'O'
@@ -392,7 +392,7 @@ def contact_pairs(dec: Decomposition) -> list[tuple[IonTerm, IonTerm, float]]:
 
     Examples
     --------
-    >>> from scorer.model import Ion, IonTerm, Decomposition
+    >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
     >>> k = IonTerm(Ion("K(+)", "K", 1, (("K", 1),), "monatomic", element="K"), 1)
     >>> al = IonTerm(Ion("Al(3+)", "Al", 3, (("Al", 1),), "monatomic", element="Al"), 1)
     >>> so4 = IonTerm(Ion("SO4(2-)", "SO4", -2, (("S", 1), ("O", 4)), "oxoanion"), 2)
@@ -550,7 +550,7 @@ def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
 
     Examples
     --------
-    >>> from scorer.model import Ion, IonTerm, Decomposition
+    >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
     >>> na = Ion("Na(+)", "Na", 1, (("Na", 1),), "monatomic", element="Na")
     >>> cl = Ion("Cl(-)", "Cl", -1, (("Cl", 1),), "monatomic", element="Cl")
     >>> values, notes = describe(Decomposition(cations=(IonTerm(na, 1),), anions=(IonTerm(cl, 1),)))

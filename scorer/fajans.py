@@ -309,7 +309,7 @@ def outer_shell(ion: Ion) -> tuple[str, str]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> outer_shell(Ion("Ag(+)", "Ag", 1, (("Ag", 1),), "monatomic", element="Ag"))[0]
     '18'
     >>> outer_shell(Ion("Pb(2+)", "Pb", 2, (("Pb", 1),), "monatomic", element="Pb"))[0]
@@ -369,7 +369,7 @@ def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> anion_polarisability_A3(Ion("Cl(-)", "Cl", -1, (("Cl", 1),), "monatomic", element="Cl"))[0]
     2.96
     """

@@ -248,7 +248,7 @@ def hsab_class(ion: Ion) -> tuple[str | None, str]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> hsab_class(Ion("Ag(+)", "Ag", 1, (("Ag", 1),), "monatomic", element="Ag"))[0]
     'soft'
     """
@@ -265,7 +265,7 @@ def cation_hardness_eV(ion: Ion) -> tuple[float, str]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> round(cation_hardness_eV(Ion("Al(3+)", "Al", 3, (("Al", 1),), "monatomic", element="Al"))[0], 2)
     45.77
     """
@@ -294,7 +294,7 @@ def anion_hardness_eV(ion: Ion) -> tuple[float, str]:
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> round(anion_hardness_eV(Ion("F(-)", "F", -1, (("F", 1),), "monatomic", element="F"))[0], 2)
     7.01
     """
@@ -394,7 +394,7 @@ def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
 
     Examples
     --------
-    >>> from scorer.model import Ion, IonTerm, Decomposition
+    >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
     >>> ag = Ion("Ag(+)", "Ag", 1, (("Ag", 1),), "monatomic", element="Ag")
     >>> f = Ion("F(-)", "F", -1, (("F", 1),), "monatomic", element="F")
     >>> values, notes = describe(Decomposition(cations=(IonTerm(ag, 1),), anions=(IonTerm(f, 1),)))

@@ -605,7 +605,7 @@ def decompose(comp: ParsedFormula) -> Decomposition:
 
     Examples
     --------
-    >>> from scorer.formula import parse_formula
+    >>> from ionicity.scorer.formula import parse_formula
     >>> d = decompose(parse_formula("Fe3O4"))
     >>> format_ion_terms(d.cations), format_ion_terms(d.anions)
     ('Fe(2+)*1;Fe(3+)*2', 'O(2-)*4')

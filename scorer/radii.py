@@ -242,7 +242,7 @@ def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[flo
 
     Examples
     --------
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> no3 = Ion("NO3(-)", "NO3", -1, (("N", 1), ("O", 3)), "oxoanion")
     >>> ion_radius_pm(no3)[0]
     179.0
@@ -281,7 +281,7 @@ def ion_volume_nm3(ion: Ion) -> tuple[float, str]:
     and is estimated from Hofmann's atomic volumes (C 13.87, H 5.08, N 11.8
     angstrom^3): 10 C + 19 H + 2 N = 258.82 angstrom^3.
 
-    >>> from scorer.model import Ion
+    >>> from ionicity.scorer.model import Ion
     >>> cl = Ion("Cl(-)", "Cl", -1, (("Cl", 1),), "monatomic", element="Cl")
     >>> ion_volume_nm3(cl)[0]
     0.047

@@ -8,7 +8,7 @@ import time
 import numpy as np
 import pytest
 
-from ionicity.scorer import melting
+from ionicity.scorer import melting, melting_model
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.model import Decomposition
@@ -182,9 +182,9 @@ def test_ion_shape_counts_torsions_by_the_rule():
 def test_columns_are_declared_once_with_units_and_sources():
     names = [c.name for c in melting.COLUMNS]
     assert names == ["mp_trend_index", "melting_class"]
-    for column in melting.COLUMNS + melting.MODEL_COLUMNS:
+    for column in melting.COLUMNS + melting_model.MODEL_COLUMNS:
         assert column.source and column.method and column.description
-    assert [c.name for c in melting.MODEL_COLUMNS] == ["mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"]
+    assert [c.name for c in melting_model.MODEL_COLUMNS] == ["mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"]
 
 
 def test_describe_returns_every_column():
@@ -252,8 +252,8 @@ def test_describe_is_fast_once_the_tables_are_loaded():
 def _tiny_model_document(features=("mp_trend_index",)) -> dict:
     # one stump: trend index <= 3.0 -> ln 600 K, else ln 1500 K; NaN goes left
     return {
-        "format": melting.MODEL_FORMAT,
-        "format_version": melting.MODEL_FORMAT_VERSION,
+        "format": melting_model.MODEL_FORMAT,
+        "format_version": melting_model.MODEL_FORMAT_VERSION,
         "model_type": "gradient_boosted_trees",
         "target": "ln_mp_K",
         "features": list(features),
@@ -269,31 +269,31 @@ def _tiny_model_document(features=("mp_trend_index",)) -> dict:
 
 
 def _features(**named) -> np.ndarray:
-    x = np.full(len(melting.MODEL_FEATURES), np.nan)
+    x = np.full(len(melting_model.MODEL_FEATURES), np.nan)
     for name, value in named.items():
-        x[melting.MODEL_FEATURES.index(name)] = value
-    x[melting.MODEL_FEATURES.index("ions_per_formula_unit")] = 2.0
+        x[melting_model.MODEL_FEATURES.index(name)] = value
+    x[melting_model.MODEL_FEATURES.index("ions_per_formula_unit")] = 2.0
     return x
 
 
 def test_predictor_walks_the_tree_and_adds_the_interval():
-    model = melting.model_from_dict(_tiny_model_document())
+    model = melting_model.model_from_dict(_tiny_model_document())
     x = np.vstack([_features(mp_trend_index=2.5), _features(mp_trend_index=3.2), _features()])
-    pred, low, high = melting.predict_melting_K(model, x)
+    pred, low, high = melting_model.predict_melting_K(model, x)
     assert pred == pytest.approx([600.0, 1500.0, 600.0])  # NaN follows missing_left
     assert low == pytest.approx(pred * math.exp(-0.2)) and high == pytest.approx(pred * math.exp(0.2))
 
 
 def test_predictor_gives_nan_for_rows_without_ions():
-    model = melting.model_from_dict(_tiny_model_document())
-    pred, _, _ = melting.predict_melting_K(model, np.full((1, len(melting.MODEL_FEATURES)), np.nan))
+    model = melting_model.model_from_dict(_tiny_model_document())
+    pred, _, _ = melting_model.predict_melting_K(model, np.full((1, len(melting_model.MODEL_FEATURES)), np.nan))
     assert math.isnan(pred[0])
 
 
 def test_domain_check_names_the_feature_outside():
-    model = melting.model_from_dict(_tiny_model_document())
-    assert melting.outside_training_domain(model, _features(mp_trend_index=3.0), "ionic_salt") == []
-    reasons = melting.outside_training_domain(model, _features(mp_trend_index=5.0), "ionic_liquid_pair")
+    model = melting_model.model_from_dict(_tiny_model_document())
+    assert melting_model.outside_training_domain(model, _features(mp_trend_index=3.0), "ionic_salt") == []
+    reasons = melting_model.outside_training_domain(model, _features(mp_trend_index=5.0), "ionic_liquid_pair")
     assert any("mp_trend_index" in r for r in reasons) and any("ionic_liquid_pair" in r for r in reasons)
 
 
@@ -315,16 +315,16 @@ def test_domain_check_names_the_feature_outside():
 def test_model_documents_other_than_the_expected_type_are_refused(change, message):
     document = copy.deepcopy(_tiny_model_document())
     change(document)
-    with pytest.raises(melting.ModelFormatError, match=message):
-        melting.model_from_dict(document)
+    with pytest.raises(melting_model.ModelFormatError, match=message):
+        melting_model.model_from_dict(document)
 
 
 def test_model_features_from_record_reads_the_ion_columns():
     record = {"cations": "[C4mim](+)*1", "anions": "[NTf2](-)*1", "mp_trend_index": 2.1,
               "cation_pseudo_noble_gas": True}
-    named = dict(zip(melting.MODEL_FEATURES, melting.model_features_from_record(record).tolist()))
+    named = dict(zip(melting_model.MODEL_FEATURES, melting_model.model_features_from_record(record).tolist()))
     assert named["organic_ion_fraction"] == 1.0 and named["polyatomic_anion_fraction"] == 1.0
     assert named["cation_pseudo_noble_gas"] == 1.0 and named["mp_trend_index"] == 2.1
     assert math.isnan(named["lattice_energy_vbt_kJ_mol"])
-    empty = melting.model_features_from_record({})
+    empty = melting_model.model_features_from_record({})
     assert np.isnan(empty).all()

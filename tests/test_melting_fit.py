@@ -13,7 +13,7 @@ import pandas as pd
 import pytest
 
 from ionicity.pipelines import melting_fit as mf
-from ionicity.scorer import melting
+from ionicity.scorer import melting, melting_model
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
@@ -211,7 +211,7 @@ def test_grouped_cv_on_synthetic_data_beats_the_baselines_and_covers(fast_pipeli
     # an independent truth: ln T = 5 + 1.2 * x0 + noise, grouped in 8 families
     rng = np.random.default_rng(1)
     n = 240
-    x = np.full((n, len(melting.MODEL_FEATURES)), np.nan)
+    x = np.full((n, len(melting_model.MODEL_FEATURES)), np.nan)
     x[:, 0] = rng.uniform(0, 1.5, n)
     x[:, 1] = rng.uniform(300, 3000, n)
     y = np.exp(5 + 1.2 * x[:, 0] + rng.normal(0, 0.05, n))
@@ -233,21 +233,21 @@ def test_grouped_cv_needs_two_groups():
 @needs_sklearn
 def test_exported_trees_predict_like_scikit_learn(fast_pipeline):
     rng = np.random.default_rng(0)
-    x = rng.normal(size=(300, len(melting.MODEL_FEATURES)))
+    x = rng.normal(size=(300, len(melting_model.MODEL_FEATURES)))
     x[rng.random(x.shape) < 0.1] = np.nan  # missing values take the learned side
     y = np.exp(6 + 0.3 * np.nan_to_num(x[:, 0]) - 0.2 * np.nan_to_num(x[:, 3]))
     pipe = mf.make_melting_pipeline(0).fit(x, y)
     baseline, trees = mf._trees_to_json(pipe.named_steps["regressor"].regressor_)
     document = {
-        "format": melting.MODEL_FORMAT, "format_version": 1, "model_type": "gradient_boosted_trees",
-        "target": "ln_mp_K", "features": list(melting.MODEL_FEATURES), "baseline": baseline, "trees": trees,
+        "format": melting_model.MODEL_FORMAT, "format_version": 1, "model_type": "gradient_boosted_trees",
+        "target": "ln_mp_K", "features": list(melting_model.MODEL_FEATURES), "baseline": baseline, "trees": trees,
         "interval": {"coverage": 0.9, "log_halfwidth": 0.1},
         "domain": {"feature_min": [0.0] * x.shape[1], "feature_max": [1.0] * x.shape[1]},
     }
-    model = melting.model_from_dict(json.loads(json.dumps(document)))
+    model = melting_model.model_from_dict(json.loads(json.dumps(document)))
     x_test = x[:50].copy()
     x_test[:, -5] = 2.0  # derived features present so rows count as salts
-    ours, _, _ = melting.predict_melting_K(model, x_test)
+    ours, _, _ = melting_model.predict_melting_K(model, x_test)
     assert np.allclose(ours, pipe.predict(x_test), rtol=1e-9)
 
 
@@ -334,8 +334,8 @@ def test_apply_model_to_frame_keeps_rows_and_order(fitted):
 
 def test_loading_a_pickle_is_refused_with_a_clear_error(tmp_path):
     path = tmp_path / "model.pkl"
-    path.write_bytes(pickle.dumps({"format": melting.MODEL_FORMAT}))
-    with pytest.raises(melting.ModelFormatError, match="pickle"):
+    path.write_bytes(pickle.dumps({"format": melting_model.MODEL_FORMAT}))
+    with pytest.raises(melting_model.ModelFormatError, match="pickle"):
         mf.load_model(path)
 
 
@@ -347,12 +347,12 @@ def test_loading_a_pickle_is_refused_with_a_clear_error(tmp_path):
 def test_loading_other_files_is_refused(tmp_path, content, message):
     path = tmp_path / "model.json"
     path.write_bytes(content)
-    with pytest.raises(melting.ModelFormatError, match=message):
+    with pytest.raises(melting_model.ModelFormatError, match=message):
         mf.load_model(path)
 
 
 def test_loading_a_missing_file_says_so(tmp_path):
-    with pytest.raises(melting.ModelFormatError, match="cannot read"):
+    with pytest.raises(melting_model.ModelFormatError, match="cannot read"):
         mf.load_model(tmp_path / "nope.json")
 
 
@@ -363,7 +363,7 @@ def test_a_tampered_model_is_refused(fitted, tmp_path):
     document["model_type"] = "pickle"
     path = tmp_path / "tampered.json"
     path.write_text(json.dumps(document))
-    with pytest.raises(melting.ModelFormatError, match="model_type 'pickle' is not accepted"):
+    with pytest.raises(melting_model.ModelFormatError, match="model_type 'pickle' is not accepted"):
         mf.load_model(path)
 
 

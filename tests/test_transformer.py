@@ -16,7 +16,7 @@ from sklearn.linear_model import LinearRegression  # noqa: E402
 from sklearn.pipeline import make_pipeline  # noqa: E402
 
 from ionicity.pipelines.transformer import FormulaDescriptors, numeric_descriptor_columns  # noqa: E402
-from ionicity.scorer import melting, score_formula  # noqa: E402
+from ionicity.scorer import melting_model, score_formula  # noqa: E402
 
 
 def test_numeric_columns_include_the_melting_index_and_no_text():
@@ -54,7 +54,7 @@ def test_equivalent_spellings_give_equal_rows():
 def test_model_columns_include_the_derived_counts():
     t = FormulaDescriptors(columns="model").fit(["Al2(SO4)3"])
     named = dict(zip(t.get_feature_names_out(), t.transform(["Al2(SO4)3"])[0]))
-    assert list(t.get_feature_names_out()) == list(melting.MODEL_FEATURES)
+    assert list(t.get_feature_names_out()) == list(melting_model.MODEL_FEATURES)
     assert named["ions_per_formula_unit"] == 5.0 and named["max_cation_charge"] == 3.0
 
 

@@ -1,0 +1,386 @@
+"""Applying a fitted melting-point model: its file layout, its features and its prediction.
+
+``ionicity fit-melting`` (the trainer, :mod:`pipelines.melting_fit`) fits
+gradient-boosted trees on :data:`MODEL_FEATURES` and writes them as JSON:
+every tree as arrays of plain numbers. :func:`model_from_dict` checks such a
+document against the expected layout and refuses anything else;
+:func:`predict_melting_K` walks the trees in numpy and adds the split-conformal
+interval. No pickle is involved, so a model file cannot run code. Scoring
+imports this module, never the trainer.
+
+Predicted melting points are estimates for screening, not for process safety:
+decomposition, hydration and pressure are not modelled. Check measured data
+and the safety data sheet before heating anything.
+"""
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+
+import numpy as np
+
+from ionicity.scorer.melting import CAUTION
+from ionicity.scorer.model import Column
+
+__all__ = [
+    "MODEL_COLUMNS",
+    "MODEL_FEATURES",
+    "MeltingModel",
+    "ModelFormatError",
+    "model_features_from_record",
+    "model_from_dict",
+    "predict_melting_K",
+    "outside_training_domain",
+]
+
+MODEL_COLUMNS: tuple[Column, ...] = (
+    Column(
+        "mp_predicted_K", "float64", "K",
+        "melting point predicted by the model given with --mp-model (ionicity fit-melting); " + CAUTION,
+        "gradient-boosted trees on log melting point over ionicity's own columns (MODEL_FEATURES)",
+        "the model file's training data; see its metadata",
+    ),
+    Column(
+        "mp_interval_low_K", "float64", "K",
+        "lower end of the split-conformal prediction interval (coverage in the model file, 90 % by default)",
+        "prediction / exp(q), q the conformal quantile of absolute log residuals on calibration rows",
+        "Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116",
+    ),
+    Column(
+        "mp_interval_high_K", "float64", "K",
+        "upper end of the split-conformal prediction interval",
+        "prediction * exp(q)",
+        "Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116",
+    ),
+)
+
+
+# ------------------------------------------------------- applying a fitted model
+
+# Numeric output columns the regression reads, and a few counts derived from
+# the cations/anions columns; every one is a column of the scored record or a
+# function of one, so a model applies to any scored table.
+_RECORD_FEATURES = (
+    "mp_trend_index",
+    "lattice_energy_vbt_kJ_mol",
+    "lattice_energy_kapustinskii_kJ_mol",
+    "delta_chi_pauling",
+    "ionic_character_pauling_pct",
+    "mean_chi_pauling",
+    "cation_polarising_power_e_per_A2",
+    "cation_polarising_power_max_e_per_A2",
+    "anion_polarisability_A3",
+    "fajans_contact_index",
+    "cation_pseudo_noble_gas",
+    "hsab_pairing_score",
+    "cation_hardness_eV",
+    "anion_hardness_eV",
+    "molar_mass_g_mol",
+)
+_DERIVED_FEATURES = (
+    "ions_per_formula_unit",
+    "max_cation_charge",
+    "max_anion_charge",
+    "polyatomic_anion_fraction",
+    "organic_ion_fraction",
+)
+MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES
+
+MODEL_FORMAT = "ionicity-melting-model"
+MODEL_FORMAT_VERSION = 1
+MODEL_TYPES = ("gradient_boosted_trees",)
+_TOP_KEYS = frozenset({
+    "format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain",
+    "training", "metrics", "caution",
+})
+_REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
+_TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
+_MAX_TREES = 5000
+_MAX_NODES = 100_000
+_TERM = re.compile(r"^(.*)\((\d*)([+-])\)\*([0-9.eE+-]+)$")
+
+
+def _parse_terms(text) -> list[tuple[str, int, float]]:
+    """(ion id, signed charge, count) from a ``cations``/``anions`` cell."""
+    out = []
+    if not isinstance(text, str) or not text:
+        return out
+    for part in text.split(";"):
+        match = _TERM.match(part.strip())
+        if not match:
+            continue
+        label, magnitude, sign, count = match.groups()
+        charge = int(magnitude or 1) * (1 if sign == "+" else -1)
+        out.append((label, charge, float(count)))
+    return out
+
+
+def _is_monatomic_label(label: str) -> bool:
+    from ionicity.scorer.elements import is_element_symbol
+
+    return is_element_symbol(label)
+
+
+def model_features_from_record(record: dict) -> np.ndarray:
+    """The :data:`MODEL_FEATURES` vector of one scored record (NaN where missing).
+
+    Parameters
+    ----------
+    record : dict
+        A record of :func:`scorer.score_formula` (or a table row with the same columns).
+
+    Returns
+    -------
+    ndarray of shape (len(MODEL_FEATURES),)
+
+    Examples
+    --------
+    >>> x = model_features_from_record({"cations": "Al(3+)*2", "anions": "SO4(2-)*3", "molar_mass_g_mol": 342.1})
+    >>> named = dict(zip(MODEL_FEATURES, x.tolist()))
+    >>> named["ions_per_formula_unit"], named["max_cation_charge"], named["polyatomic_anion_fraction"]
+    (5.0, 3.0, 1.0)
+    """
+    values = []
+    for name in _RECORD_FEATURES:
+        value = record.get(name)
+        try:
+            value = float(value) if value is not None else math.nan
+        except (TypeError, ValueError):
+            value = math.nan
+        values.append(value)
+    cations = _parse_terms(record.get("cations"))
+    anions = _parse_terms(record.get("anions"))
+    if cations and anions:
+        nu = sum(n for _, _, n in cations + anions)
+        total_anions = sum(n for _, _, n in anions)
+        poly = sum(n for label, _, n in anions if not _is_monatomic_label(label)) / total_anions
+        organic = sum(n for label, _, n in cations + anions if label.startswith("[")) / nu
+        values += [nu, float(max(q for _, q, _ in cations)), float(max(-q for _, q, _ in anions)), poly, organic]
+    else:
+        values += [math.nan] * len(_DERIVED_FEATURES)
+    return np.array(values, dtype=float)
+
+
+class ModelFormatError(ValueError):
+    """A melting-model document that is not one :func:`model_from_dict` accepts."""
+
+
+@dataclass(frozen=True)
+class MeltingModel:
+    """A fitted melting-point model, as plain arrays (see :func:`model_from_dict`)."""
+
+    features: tuple[str, ...]
+    baseline: float
+    trees: tuple[tuple[np.ndarray, ...], ...]  # (feature, threshold, left, right, missing_left, leaf, value)
+    interval_log_halfwidth: float
+    interval_coverage: float
+    feature_min: np.ndarray
+    feature_max: np.ndarray
+    substance_classes: tuple[str, ...]
+    document: dict
+
+    @property
+    def feature_indices(self) -> np.ndarray:
+        position = {name: i for i, name in enumerate(MODEL_FEATURES)}
+        return np.array([position[name] for name in self.features], dtype=int)
+
+
+def _need(condition: bool, message: str) -> None:
+    if not condition:
+        raise ModelFormatError(message)
+
+
+def _number_list(value, name: str, *, integer: bool = False, length: int | None = None) -> np.ndarray:
+    _need(isinstance(value, list), f"'{name}' must be a list of numbers")
+    _need(length is None or len(value) == length, f"'{name}' must have {length} entries, not {len(value)}")
+    for item in value:
+        _need(isinstance(item, (int, float)) and not isinstance(item, bool),
+              f"'{name}' must hold only numbers (found {type(item).__name__})")
+        _need(math.isfinite(item), f"'{name}' must hold only finite numbers")
+        _need(not integer or float(item) == int(item), f"'{name}' must hold only whole numbers")
+    return np.array(value, dtype=np.int64 if integer else float)
+
+
+def _plain_json(value, depth: int = 0) -> bool:
+    if depth > 6:
+        return False
+    if value is None or isinstance(value, (bool, int, float, str)):
+        return True
+    if isinstance(value, list):
+        return all(_plain_json(v, depth + 1) for v in value)
+    if isinstance(value, dict):
+        return all(isinstance(k, str) and _plain_json(v, depth + 1) for k, v in value.items())
+    return False
+
+
+def model_from_dict(document) -> MeltingModel:
+    """Check a parsed model document against the expected schema and build the model.
+
+    Anything but the expected layout is refused with :class:`ModelFormatError`:
+    an unknown ``format`` or ``model_type``, unknown keys, a feature ionicity
+    does not compute, non-numeric or non-finite arrays, child indices that do
+    not point forward inside the tree (so a tree cannot loop). The document is
+    plain JSON data; nothing in it is executed.
+
+    Parameters
+    ----------
+    document : dict
+        ``json.load`` of a file written by ``ionicity fit-melting``.
+
+    Returns
+    -------
+    MeltingModel
+
+    Raises
+    ------
+    ModelFormatError
+        With a message that names the offending part.
+
+    Examples
+    --------
+    >>> model_from_dict({"format": "something-else"})
+    Traceback (most recent call last):
+    ...
+    ionicity.scorer.melting_model.ModelFormatError: not an ionicity melting model: 'format' is 'something-else', expected 'ionicity-melting-model'
+    """
+    _need(isinstance(document, dict), "a melting model must be a JSON object")
+    fmt = document.get("format")
+    _need(fmt == MODEL_FORMAT, f"not an ionicity melting model: 'format' is {fmt!r}, expected {MODEL_FORMAT!r}")
+    _need(document.get("format_version") == MODEL_FORMAT_VERSION,
+          f"unsupported format_version {document.get('format_version')!r}; this ionicity reads {MODEL_FORMAT_VERSION}")
+    model_type = document.get("model_type")
+    _need(model_type in MODEL_TYPES, f"model_type {model_type!r} is not accepted; allowed: {', '.join(MODEL_TYPES)}")
+    unknown = sorted(set(document) - _TOP_KEYS)
+    _need(not unknown, f"unexpected keys in the model: {unknown}")
+    missing = sorted(_REQUIRED_KEYS - set(document))
+    _need(not missing, f"missing keys in the model: {missing}")
+    _need(document["target"] == "ln_mp_K", f"target {document['target']!r} is not accepted; allowed: ln_mp_K")
+    features = document["features"]
+    _need(isinstance(features, list) and features and all(isinstance(f, str) for f in features),
+          "'features' must be a non-empty list of column names")
+    strange = [f for f in features if f not in MODEL_FEATURES]
+    _need(not strange, f"features ionicity does not compute: {strange}; allowed: {', '.join(MODEL_FEATURES)}")
+    _need(len(set(features)) == len(features), "'features' lists a column twice")
+    baseline = document["baseline"]
+    _need(isinstance(baseline, (int, float)) and not isinstance(baseline, bool) and math.isfinite(baseline),
+          "'baseline' must be a finite number")
+    trees_in = document["trees"]
+    _need(isinstance(trees_in, list) and 0 < len(trees_in) <= _MAX_TREES, f"'trees' must be a list of 1 to {_MAX_TREES} trees")
+    trees = []
+    n_features = len(features)
+    for k, tree in enumerate(trees_in):
+        _need(isinstance(tree, dict) and set(tree) == _TREE_KEYS,
+              f"tree {k} must have exactly the keys {sorted(_TREE_KEYS)}")
+        n = len(tree["value"]) if isinstance(tree["value"], list) else 0
+        _need(0 < n <= _MAX_NODES, f"tree {k}: between 1 and {_MAX_NODES} nodes expected")
+        feature = _number_list(tree["feature"], f"trees[{k}].feature", integer=True, length=n)
+        threshold = _number_list(tree["threshold"], f"trees[{k}].threshold", length=n)
+        left = _number_list(tree["left"], f"trees[{k}].left", integer=True, length=n)
+        right = _number_list(tree["right"], f"trees[{k}].right", integer=True, length=n)
+        missing_left = _number_list(tree["missing_left"], f"trees[{k}].missing_left", integer=True, length=n)
+        leaf = _number_list(tree["leaf"], f"trees[{k}].leaf", integer=True, length=n)
+        value = _number_list(tree["value"], f"trees[{k}].value", length=n)
+        inner = leaf == 0
+        nodes = np.arange(n)
+        _need(bool(np.all(np.isin(leaf, (0, 1))) and np.all(np.isin(missing_left, (0, 1)))),
+              f"tree {k}: 'leaf' and 'missing_left' must be 0 or 1")
+        _need(bool(np.all((feature[inner] >= 0) & (feature[inner] < n_features))),
+              f"tree {k}: a split names a feature outside 0..{n_features - 1}")
+        _need(bool(np.all((left[inner] > nodes[inner]) & (left[inner] < n) & (right[inner] > nodes[inner]) & (right[inner] < n))),
+              f"tree {k}: child indices must point forward inside the tree")
+        trees.append((feature, threshold, left, right, missing_left.astype(bool), leaf.astype(bool), value))
+    interval = document["interval"]
+    _need(isinstance(interval, dict), "'interval' must be an object")
+    halfwidth = interval.get("log_halfwidth")
+    coverage = interval.get("coverage", 0.9)
+    _need(isinstance(halfwidth, (int, float)) and not isinstance(halfwidth, bool) and math.isfinite(halfwidth)
+          and halfwidth >= 0, "'interval.log_halfwidth' must be a finite number >= 0")
+    _need(isinstance(coverage, (int, float)) and 0 < coverage < 1, "'interval.coverage' must lie between 0 and 1")
+    domain = document["domain"]
+    _need(isinstance(domain, dict), "'domain' must be an object")
+    fmin = _number_list(domain.get("feature_min"), "domain.feature_min", length=n_features)
+    fmax = _number_list(domain.get("feature_max"), "domain.feature_max", length=n_features)
+    classes = domain.get("substance_classes", [])
+    _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),
+          "'domain.substance_classes' must be a list of strings")
+    for key in ("training", "metrics"):
+        _need(_plain_json(document.get(key, {})), f"'{key}' must hold plain JSON values only")
+    return MeltingModel(
+        features=tuple(features),
+        baseline=float(baseline),
+        trees=tuple(trees),
+        interval_log_halfwidth=float(halfwidth),
+        interval_coverage=float(coverage),
+        feature_min=fmin,
+        feature_max=fmax,
+        substance_classes=tuple(classes),
+        document=document,
+    )
+
+
+def model_to_dict(model: MeltingModel) -> dict:
+    """The JSON document of a model (the inverse of :func:`model_from_dict`)."""
+    return model.document
+
+
+def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
+    """Sum of tree outputs plus baseline for rows of ``x`` (columns in ``model.features`` order)."""
+    n = x.shape[0]
+    total = np.full(n, model.baseline, dtype=float)
+    rows = np.arange(n)
+    for feature, threshold, left, right, missing_left, leaf, value in model.trees:
+        node = np.zeros(n, dtype=np.int64)
+        # children point forward, so depth <= node count; the loop ends
+        for _ in range(len(value)):
+            active = ~leaf[node]
+            if not active.any():
+                break
+            f = feature[node]
+            v = x[rows, np.where(active, f, 0)]
+            go_left = np.where(np.isnan(v), missing_left[node], v <= threshold[node])
+            node = np.where(active, np.where(go_left, left[node], right[node]), node)
+        total += value[node]
+    return total
+
+
+def predict_melting_K(model: MeltingModel, features) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Predicted melting point and its conformal interval, in K.
+
+    Parameters
+    ----------
+    model : MeltingModel
+    features : array-like of shape (n_samples, len(MODEL_FEATURES))
+        Rows of :func:`model_features_from_record`.
+
+    Returns
+    -------
+    (prediction, low, high) : three ndarrays of shape (n_samples,)
+        NaN where the row has no ions at all (every derived feature NaN).
+    """
+    x_all = np.atleast_2d(np.asarray(features, dtype=float))
+    x = x_all[:, model.feature_indices]
+    ln_pred = _predict_ln(model, x)
+    unusable = np.all(np.isnan(x_all[:, len(_RECORD_FEATURES):]), axis=1)
+    ln_pred[unusable] = np.nan
+    q = model.interval_log_halfwidth
+    return np.exp(ln_pred), np.exp(ln_pred - q), np.exp(ln_pred + q)
+
+
+def outside_training_domain(model: MeltingModel, features, substance_class: str | None = None) -> list[str]:
+    """Why one row lies outside the model's training domain (empty when inside).
+
+    A feature beyond the training range by more than 10 % of that range, or a
+    substance class the training set did not hold, counts as outside.
+    """
+    x = np.asarray(features, dtype=float)[model.feature_indices]
+    reasons = []
+    span = np.maximum(model.feature_max - model.feature_min, 1e-12)
+    for name, value, lo, hi, width in zip(model.features, x, model.feature_min, model.feature_max, span):
+        if math.isnan(value):
+            continue
+        if value < lo - 0.1 * width or value > hi + 0.1 * width:
+            reasons.append(f"{name} = {value:.3g} outside the training range {lo:.3g} to {hi:.3g}")
+    if substance_class and model.substance_classes and substance_class not in model.substance_classes:
+        reasons.append(f"substance class {substance_class} not in the training set")
+    return reasons
