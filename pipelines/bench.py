@@ -219,32 +219,6 @@ def measure_score(path: str, workdir: str, workers: int | None = None) -> tuple[
     return _run(argv, env=_env())
 
 
-def formula_caches() -> list:
-    """The scorer's caches keyed by formula text, parsed composition or
-    decomposition: what an uncached per-row function must not reuse. Caches
-    of data tables (loaded once per process by any user) are left alone."""
-    import importlib
-
-    found = []
-    for module_name, attribute in (
-        ("ionicity.scorer.record", "_score_text"),
-        ("ionicity.scorer.record", "_anhydrous_scores"),
-        ("ionicity.scorer.record", "_unrounded_mass"),
-        ("ionicity.scorer.formula", "parse_formula"),
-        ("ionicity.scorer.formula", "_parse_normalised"),
-        ("ionicity.scorer.formula", "_component"),
-        ("ionicity.scorer.ions", "_decompose"),
-        ("ionicity.scorer.ions", "_assign_monatomic_cached"),
-        ("ionicity.scorer.lattice", "_compute"),
-        ("ionicity.scorer.melting", "melting_terms"),
-        ("ionicity.scorer.fajans", "_analysed"),
-    ):
-        function = getattr(importlib.import_module(module_name), attribute, None)
-        if function is not None and hasattr(function, "cache_clear"):
-            found.append((f"{module_name}.{attribute}", function))
-    return found
-
-
 def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> tuple[float, int, list[str]]:
     """Seconds per row of an uncached pandas apply, on a random sample."""
     import numpy as np
@@ -252,6 +226,7 @@ def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> t
     import pyarrow.parquet as pq
     import pyarrow.csv as pacsv
 
+    from ionicity.scorer.caching import clear_all, registered
     from ionicity.scorer.record import score_formula
 
     table = pq.read_table(path, columns=["formula"]) if path.endswith(".parquet") else pacsv.read_csv(
@@ -259,20 +234,18 @@ def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> t
     rng = np.random.default_rng(seed)
     sample = table.take(rng.choice(table.num_rows, size=min(sample_rows, table.num_rows), replace=False))
     frame = sample.to_pandas()
-    caches = formula_caches()
+    score_formula("NaCl")  # data tables load once, as in any user's session
 
     def score_row(text):
-        for _, function in caches:
-            function.cache_clear()
+        clear_all()  # every per-input cache of the scorer (scorer.caching)
         return score_formula(text)
 
-    score_formula("NaCl")  # data tables load once, as in any user's session
     started = time.perf_counter()
     records = frame["formula"].apply(score_row)
     scored = pd.concat([frame, pd.DataFrame(list(records), index=frame.index)], axis=1)
     seconds = time.perf_counter() - started
     assert len(scored) == len(frame)
-    return seconds / len(frame), len(frame), [name for name, _ in caches]
+    return seconds / len(frame), len(frame), registered()
 
 
 def calibrate(sizes=(32, 64, 128, 256, 512, 1024, 2048), workers: int | None = None) -> list[tuple[int, float, float]]:

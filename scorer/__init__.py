@@ -2,7 +2,7 @@
 
 Pure and importable alone: no file I/O beyond its packaged data, no pandas.
 """
-from ionicity.scorer.formula import ParsedFormula, FormulaError, parse_formula
+from ionicity.scorer.formula import FormulaError, ParsedFormula, parse_formula
 from ionicity.scorer.madelung import madelung_constant
 from ionicity.scorer.record import score_formula
 

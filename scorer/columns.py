@@ -9,8 +9,8 @@ and is listed in :data:`DESCRIPTOR_MODULES`.
 from __future__ import annotations
 
 import importlib
-from functools import cache
 
+from ionicity.scorer.caching import once
 from ionicity.scorer.model import Column
 
 __all__ = ["Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules"]
@@ -65,12 +65,12 @@ BASE_COLUMNS: tuple[Column, ...] = (
 DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
 
 
-@cache
+@once
 def descriptor_modules() -> tuple:
     return tuple(importlib.import_module(name) for name in DESCRIPTOR_MODULES)
 
 
-@cache
+@once
 def output_columns() -> tuple[Column, ...]:
     """Every generated column, in output order; names are unique."""
     columns = list(BASE_COLUMNS)
@@ -83,6 +83,6 @@ def output_columns() -> tuple[Column, ...]:
     return tuple(columns)
 
 
-@cache
+@once
 def column_names() -> tuple[str, ...]:
     return tuple(c.name for c in output_columns())

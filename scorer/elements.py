@@ -34,11 +34,12 @@ Examples
 from __future__ import annotations
 
 import copy
-import functools
 import json
 import math
 import numbers
 from dataclasses import dataclass
+
+from ionicity.scorer.caching import once
 
 __all__ = [
     "ShannonRadius",
@@ -208,7 +209,7 @@ def _element(entry: dict) -> Element:
     )
 
 
-@functools.cache
+@once
 def _snapshot() -> tuple[dict, dict[str, Element], tuple[str, ...]]:
     # Imported here: importlib.resources pulls in tempfile, zipfile and more,
     # which a plain ``import scorer.elements`` should not pay for.

@@ -39,8 +39,8 @@ from __future__ import annotations
 
 import csv
 import math
-from functools import cache, lru_cache
 
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.character import contact_pairs, weighted_mean
 from ionicity.scorer.model import Column, Decomposition, Ion
 
@@ -342,7 +342,7 @@ def outer_shell(ion: Ion) -> tuple[str, str]:
 # ------------------------------------------------------------------ data
 
 
-@cache
+@once
 def ion_polarisabilities() -> dict[str, dict]:
     """ion_id -> row of ``scorer/data/ion_polarisabilities.csv`` (read once)."""
     from importlib import resources
@@ -512,7 +512,7 @@ def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
     return dict(values), list(notes)
 
 
-@lru_cache(maxsize=1024)
+@per_input(maxsize=1024)
 def _analysed(dec: Decomposition):
     # the record and the melting trend both ask for the same compound's values
     return _analyse(dec)

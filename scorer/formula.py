@@ -31,7 +31,8 @@ import math
 import re
 import unicodedata
 from dataclasses import dataclass, field
-from functools import lru_cache
+
+from ionicity.scorer.caching import per_input
 
 __all__ = [
     "ParsedFormula",
@@ -448,7 +449,7 @@ def _parse_component(text: str, allow_ion_refs: bool = True) -> tuple[dict[str, 
     return counts, parser
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[str, float], ...]]:
     """(element counts, ion references) of one adduct component, cached: the
     salt part of every hydrate and spelling of a salt is read once."""
@@ -456,7 +457,7 @@ def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[st
     return tuple(counts.items()), tuple(parser.ion_refs)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def parse_formula(text: str) -> ParsedFormula:
     """Parse formula text into a :class:`ParsedFormula`.
 
@@ -524,7 +525,7 @@ def parse_formula(text: str) -> ParsedFormula:
     return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _parse_normalised(cleaned: str) -> ParsedFormula:
     """Parse text already mapped onto the plain alphabet: spellings that differ
     only in Unicode, separators or spaces share this cache."""

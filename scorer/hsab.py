@@ -50,8 +50,8 @@ from __future__ import annotations
 
 import csv
 import math
-from functools import cache
 
+from ionicity.scorer.caching import once
 from ionicity.scorer.character import contact_pairs, weighted_mean
 from ionicity.scorer.model import Column, Decomposition, Ion
 
@@ -223,13 +223,13 @@ def _read(name: str) -> list[dict[str, str]]:
     return list(csv.DictReader(text.splitlines()))
 
 
-@cache
+@once
 def hsab_table() -> dict[str, dict[str, str]]:
     """ion_id -> row of ``scorer/data/hsab_classes.csv`` (hsab_class, role, source, note), read once."""
     return {row["ion_id"]: row for row in _read("hsab_classes.csv")}
 
 
-@cache
+@once
 def radical_hardness_table() -> dict[str, dict]:
     """anion ion_id -> parent radical with its I and A in eV, from ``scorer/data/radical_hardness.csv``."""
     return {

@@ -8,9 +8,9 @@ The CSV has one row per ion with a ``source`` on every row; see
 from __future__ import annotations
 
 import csv
-from functools import cache
 from importlib import resources
 
+from ionicity.scorer.caching import once
 from ionicity.scorer.model import Ion, format_charge
 
 __all__ = [
@@ -37,7 +37,7 @@ def _parse_oxidation_states(text: str) -> tuple[tuple[str, float], ...]:
     return tuple(pairs)
 
 
-@cache
+@once
 def _load() -> tuple[tuple[Ion, ...], dict[str, Ion], dict[str, Ion], dict[str, Ion], dict[tuple, list[Ion]]]:
     from ionicity.scorer.formula import _hill_order, _parse_component
 
@@ -79,7 +79,7 @@ def ion_library() -> tuple[Ion, ...]:
     return _load()[0]
 
 
-@cache
+@once
 def monatomic_ion(symbol: str, charge: int) -> Ion:
     """A monatomic ion such as ``Na(+)`` or ``Fe(3+)``.
 
@@ -132,7 +132,7 @@ def same_label_ions(ion: Ion) -> list[Ion]:
     return variants
 
 
-@cache
+@once
 def _abbreviations() -> dict[str, Ion]:
     """Aliases that are not formulas of their ion (``OAc``, ``NTf2``, ``OTf``):
     where one appears inside a formula it names the ion."""

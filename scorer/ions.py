@@ -72,11 +72,17 @@ from __future__ import annotations
 
 import dataclasses
 import itertools
-from functools import lru_cache
 
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import ParsedFormula, format_count
-from ionicity.scorer.ion_library import get_ion, ion_library, ions_by_composition, monatomic_ion, same_label_ions
+from ionicity.scorer.ion_library import (
+    get_ion,
+    ion_library,
+    ions_by_composition,
+    monatomic_ion,
+    same_label_ions,
+)
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 
 __all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
@@ -178,7 +184,7 @@ _COMMON_STATES = {
 }
 
 
-@lru_cache(maxsize=None)
+@once
 def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     """Non-zero oxidation states with their penalty (main 0, extra 2)."""
     element = get_element(symbol)
@@ -194,7 +200,7 @@ def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     return tuple(sorted(seen.items()))
 
 
-@lru_cache(maxsize=4096)
+@per_input(maxsize=4096)
 def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
     metal = _is_metal(symbol)
@@ -225,7 +231,7 @@ def _monatomic_options(symbol: str, count: float):
     return tuple(options)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float):
     """The best charge-balanced monatomic assignments with penalty <= cap.
 
@@ -386,7 +392,7 @@ def _ion_penalty(ion: Ion) -> float:
     return 0.0
 
 
-@lru_cache(maxsize=1)
+@per_input(maxsize=1)
 def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
     return tuple(
         (ion, frozenset(symbol for symbol, _ in ion.composition))
@@ -395,7 +401,7 @@ def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
     )
 
 
-@lru_cache(maxsize=4096)
+@per_input(maxsize=4096)
 def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     """Polyatomic library ions made only of the elements ``present``."""
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
@@ -624,7 +630,7 @@ def decompose_anhydrous(comp: ParsedFormula) -> Decomposition:
     return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
     comp = ParsedFormula(
         text="", counts=counts_key, charge=charge, ion_hints=ion_hints,
@@ -729,7 +735,7 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
     )
 
 
-@lru_cache(maxsize=1)
+@per_input(maxsize=1)
 def _library_rank() -> dict[str, int]:
     return {ion.ion_id: i for i, ion in enumerate(ion_library())}
 

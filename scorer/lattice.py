@@ -32,11 +32,10 @@ from __future__ import annotations
 import csv
 import math
 from dataclasses import dataclass
-from functools import cache, lru_cache
 from importlib import resources
 
 import numpy as np
-
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.madelung import madelung_details, prototype_structure
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm, RowWarning
 from ionicity.scorer.radii import ion_radius_pm, ion_volume_nm3, shannon_radius_pm
@@ -449,7 +448,7 @@ def _read_csv(name: str) -> list[dict[str, str]]:
     return list(csv.DictReader(text.splitlines()))
 
 
-@cache
+@once
 def structure_prototypes() -> dict[tuple[str, str], tuple[str, str]]:
     """(cation_id, anion_id) -> (structure_type, source), read once."""
     return {
@@ -458,7 +457,7 @@ def structure_prototypes() -> dict[tuple[str, str], tuple[str, str]]:
     }
 
 
-@cache
+@once
 def _born_exponent_table() -> dict[int, tuple[str, int, str]]:
     return {
         int(row["electrons"]): (row["configuration"], int(row["born_exponent"]), row["source"])
@@ -469,7 +468,7 @@ def _born_exponent_table() -> dict[int, tuple[str, int, str]]:
 _NOBLE_CORES = (2, 10, 18, 36, 54)
 
 
-@lru_cache(maxsize=1024)
+@per_input(maxsize=1024)
 def born_exponent(symbol: str, charge: int) -> tuple[float, str]:
     """Pauling's Born exponent of a monatomic ion, with the reason.
 
@@ -546,7 +545,7 @@ def _charges_fit_prototype(cation: Ion, anion: Ion, structure_type: str) -> bool
     return abs(cation.charge * qa - (-anion.charge) * qc) < 1e-9
 
 
-@lru_cache(maxsize=4096)
+@per_input(maxsize=4096)
 def assign_structure_type(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -> StructureAssignment:
     """Structure type of the binary salt (cation)n_cation (anion)n_anion.
 
@@ -638,7 +637,7 @@ def _structure_terms(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -
     )
 
 
-@lru_cache(maxsize=None)
+@once
 def _cell_volume(structure_type: str) -> float:
     """Volume of a prototype's cell, in its own length unit cubed (computed
     once per prototype, not once per salt)."""
@@ -660,7 +659,7 @@ def formula_unit_volume_nm3(dec: Decomposition) -> tuple[float, str]:
     return _formula_unit_volume(dec.cations, dec.anions)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _formula_unit_volume(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...]) -> tuple[float, str]:
     if len(cations) == 1 and len(anions) == 1 and cations[0].ion.element and anions[0].ion.element:
         terms = _structure_terms(cations[0].ion, anions[0].ion, cations[0].count, anions[0].count)
@@ -721,7 +720,7 @@ def _nan_values() -> dict:
     }
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_water: float) -> _Result:
     values = _nan_values()
     notes: list[str] = []

@@ -54,9 +54,10 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from functools import lru_cache, reduce
+from functools import reduce
 
 import numpy as np
+from ionicity.scorer.caching import once, per_input
 
 __all__ = [
     "CrystalStructure",
@@ -334,7 +335,7 @@ def _common_factor(charges: tuple[float, ...]) -> float:
     return float(reduce(math.gcd, rounded))
 
 
-@lru_cache(maxsize=256)
+@per_input(maxsize=256)
 def madelung_details(structure: CrystalStructure | str) -> MadelungResult:
     """Ewald-sum a structure and return every form of its Madelung constant.
 
@@ -573,7 +574,7 @@ _BUILDERS = {
 PROTOTYPES: tuple[str, ...] = tuple(_BUILDERS)
 
 
-@lru_cache(maxsize=None)
+@once
 def prototype_structure(name: str) -> CrystalStructure:
     """A built-in structure prototype by name.
 
@@ -623,7 +624,7 @@ _SNAPSHOT_FIELDS = (
 )
 
 
-@lru_cache(maxsize=1)
+@per_input(maxsize=1)
 def prototype_snapshot() -> dict[str, MadelungResult]:
     """The Ewald results of the built-in prototypes, as
     ``scorer/data/build_madelung.py`` wrote them: every scoring process needs

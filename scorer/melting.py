@@ -76,11 +76,10 @@ from __future__ import annotations
 import csv
 import math
 from dataclasses import dataclass
-from functools import cache, lru_cache
 from importlib import resources
 
 import numpy as np
-
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.model import Column, Decomposition, Ion
 
 __all__ = [
@@ -337,7 +336,7 @@ def melting_class_from_index(index) -> str | None:
 # --------------------------------------------------------------------- inputs
 
 
-@cache
+@once
 def _shape_table() -> dict[str, tuple[float, float, bool, str]]:
     text = resources.files("ionicity.scorer.data").joinpath("ion_shape.csv").read_text(encoding="utf-8")
     table = {}
@@ -404,7 +403,12 @@ class MeltingTerms:
 
 
 def _contact_chi(dec: Decomposition) -> float:
-    from ionicity.scorer.character import contact_atom, contact_pairs, pauling_electronegativity, weighted_mean
+    from ionicity.scorer.character import (
+        contact_atom,
+        contact_pairs,
+        pauling_electronegativity,
+        weighted_mean,
+    )
 
     values = []
     for cation, anion, weight in contact_pairs(dec):
@@ -416,7 +420,7 @@ def _contact_chi(dec: Decomposition) -> float:
     return weighted_mean(values)
 
 
-@lru_cache(maxsize=16384)
+@per_input(maxsize=16384)
 def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     """Gather the index inputs of an ionic decomposition; None when it is not ionic.
 

@@ -19,7 +19,6 @@ import re
 from dataclasses import dataclass
 
 import numpy as np
-
 from ionicity.scorer.melting import CAUTION
 from ionicity.scorer.model import Column
 

@@ -46,9 +46,9 @@ from __future__ import annotations
 
 import csv
 import math
-from functools import cache, lru_cache
 from importlib import resources
 
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.model import Ion, format_charge
 
 __all__ = [
@@ -95,19 +95,19 @@ def _read_csv(name: str) -> list[dict[str, str]]:
     return [row for row in csv.DictReader(line for line in text.splitlines() if not line.startswith("#"))]
 
 
-@cache
+@once
 def thermochemical_radii() -> dict[str, tuple[float, str]]:
     """ion_id -> (thermochemical radius in pm, source), read once."""
     return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in _read_csv("thermochemical_radii.csv")}
 
 
-@cache
+@once
 def tabulated_ion_volumes() -> dict[str, tuple[float, str]]:
     """ion_id -> (ion volume in nm^3, source), read once."""
     return {row["ion_id"]: (float(row["volume_nm3"]), row["source"]) for row in _read_csv("ion_volumes.csv")}
 
 
-@cache
+@once
 def atomic_volumes_A3() -> dict[str, tuple[float, str]]:
     """element symbol -> (Hofmann's mean atomic volume in angstrom^3, source), read once."""
     return {row["symbol"]: (float(row["volume_A3"]), row["source"]) for row in _read_csv("atomic_volumes.csv")}
@@ -117,7 +117,7 @@ def _ion_name(symbol: str, charge: int) -> str:
     return f"{symbol}({format_charge(int(charge))})"
 
 
-@lru_cache(maxsize=4096)
+@per_input(maxsize=4096)
 def shannon_radius_pm(
     symbol: str,
     charge: int,
@@ -224,7 +224,7 @@ def shannon_radius_pm(
     return float(entry.ionic_radius_pm), text
 
 
-@lru_cache(maxsize=4096)
+@per_input(maxsize=4096)
 def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[float, str]:
     """Radius of any ion, with where it came from.
 

@@ -2,13 +2,23 @@
 from __future__ import annotations
 
 import math
-from functools import lru_cache
 
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptor_modules, output_columns
 from ionicity.scorer.elements import get_element
-from ionicity.scorer.formula import ParsedFormula, FormulaError, format_count, parse_formula
-from ionicity.scorer.ions import decompose_anhydrous, format_ion_terms, format_oxidation_states
+from ionicity.scorer.formula import (
+    FormulaError,
+    ParsedFormula,
+    format_count,
+    parse_formula,
+)
+from ionicity.scorer.ions import (
+    decompose_anhydrous,
+    format_ion_terms,
+    format_oxidation_states,
+)
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning
+from ionicity.scorer.verdict import finalise
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
@@ -32,7 +42,7 @@ def molar_mass_g_mol(counts: dict[str, float]) -> float:
     return round(_unrounded_mass(tuple(counts.items())), 4)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _unrounded_mass(counts: tuple[tuple[str, float], ...]) -> float:
     """Sum of standard atomic weights times counts, cached per composition
     (a hydrate adds its water to its salt's sum)."""
@@ -98,7 +108,7 @@ def _water_suffix(water: float) -> str:
     return "·" + ("" if count == "1" else count) + "H2O"
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint):
     """Everything a record holds that does not depend on lattice water or on
     the spelling, computed once per anhydrous composition: the hydrates and
@@ -132,14 +142,21 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     row = list(empty)
     for name, value in values.items():
         row[position[name]] = value
-    error = dec.substance_class == "unknown"
-    row[position["status"]] = "error" if error else ("warning" if warnings else "ok")
-    row[position["message"]] = "; ".join(dict.fromkeys(warnings))
-    notes = "; ".join(dict.fromkeys(gaps))
-    hydrate_notes = notes
+    verdict = _verdict(dec.substance_class, warnings, gaps)
+    row[position["status"]] = verdict.status
+    row[position["message"]] = verdict.message
+    hydrate_notes = verdict.value_notes
     if dec.substance_class in _IONIC_CLASSES:
-        hydrate_notes = "; ".join(dict.fromkeys((_HYDRATE_NOTE, *gaps)))
-    return values, tuple(warnings), (notes, hydrate_notes), normalized_formula(comp, dec), tuple(row)
+        hydrate_notes = finalise(gaps=(_HYDRATE_NOTE, *gaps)).value_notes
+    return values, tuple(warnings), (verdict.value_notes, hydrate_notes), normalized_formula(comp, dec), tuple(row)
+
+
+def _verdict(substance_class: str, warnings: list[str], gaps: list[str]):
+    # a formula no ions, molecule, network or metal could be found for is an
+    # error; the solver's notes say why
+    if substance_class == "unknown":
+        return finalise(error=warnings[0] if warnings else "", warnings=warnings[1:], gaps=gaps)
+    return finalise(warnings=warnings, gaps=gaps)
 
 
 # the same words for every hydrate: how much water is in hydrate_water, and
@@ -150,7 +167,7 @@ _HYDRATE_NOTE = (
 )
 
 
-@lru_cache(maxsize=None)
+@once
 def _layout() -> tuple[tuple[str, ...], dict[str, int], tuple]:
     """Column names, their positions and the empty row (NaN / None)."""
     columns = output_columns()
@@ -176,10 +193,9 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     # per formula unit with its lattice water
     row[position["molar_mass_g_mol"]] = round(_unrounded_mass(comp.counts) + water * _unrounded_mass(_WATER), 4)
     if comp.notes:  # a spelling-specific warning (an ignored annotation, an ambiguous charge)
-        notes = [RowWarning(n) for n in comp.notes] + list(warnings)
-        error = values["substance_class"] == "unknown"
-        row[position["status"]] = "error" if error else ("warning" if notes else "ok")
-        row[position["message"]] = "; ".join(dict.fromkeys(notes))
+        verdict = _verdict(values["substance_class"], [*comp.notes, *warnings], [])
+        row[position["status"]] = verdict.status
+        row[position["message"]] = verdict.message
     row[position["value_notes"]] = gaps[1] if water else gaps[0]
     return tuple(row)
 
@@ -191,12 +207,13 @@ _WATER = (("H", 2.0), ("O", 1.0))
 def _error_row(message: str) -> tuple:
     _, position, empty = _layout()
     row = list(empty)
-    row[position["status"]] = "error"
-    row[position["message"]] = message
+    verdict = finalise(error=message)
+    row[position["status"]] = verdict.status
+    row[position["message"]] = verdict.message
     return tuple(row)
 
 
-@lru_cache(maxsize=65536)
+@per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
     try:
         comp = parse_formula(text)

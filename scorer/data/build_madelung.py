@@ -19,7 +19,13 @@ import math
 import sys
 from pathlib import Path
 
-from ionicity.scorer.madelung import PROTOTYPE_SNAPSHOT_FILE, PROTOTYPES, _SNAPSHOT_FIELDS, ewald_details, prototype_structure
+from ionicity.scorer.madelung import (
+    _SNAPSHOT_FIELDS,
+    PROTOTYPE_SNAPSHOT_FILE,
+    PROTOTYPES,
+    ewald_details,
+    prototype_structure,
+)
 
 OUT = Path(__file__).with_name(PROTOTYPE_SNAPSHOT_FILE)
 SOURCE = "Ewald sum by scorer.madelung.ewald_details (this project); geometry as in scorer.madelung.prototype_structure"
