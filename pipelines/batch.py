@@ -29,6 +29,8 @@ import pyarrow as pa
 import pyarrow.compute as pc
 
 from ionicity.scorer.columns import column_names, output_columns
+from ionicity.scorer.melting_model import MODEL_COLUMNS, predict_for_formulas
+from ionicity.scorer.verdict import Verdict, with_warnings
 
 from ionicity.pipelines._pool import score_values
 from ionicity.pipelines._workers import default_workers, new_workers, ready, stop_workers, take_prestarted
@@ -599,7 +601,6 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
 def _generated_columns(with_model: bool) -> tuple:
     if not with_model:
         return output_columns()
-    from ionicity.scorer.melting_model import MODEL_COLUMNS
 
     return output_columns() + tuple(MODEL_COLUMNS)
 
@@ -615,36 +616,33 @@ def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = 
 
 class ModelApplier:
     """Applies a fitted melting model to the distinct formulas of each batch,
-    once per formula: the three ``mp_*_K`` columns, and the status and
-    message of rows outside the model's training domain."""
+    once per formula: the three ``mp_*_K`` columns, and the verdict of rows
+    outside the model's training domain (:func:`scorer.verdict.with_warnings`)."""
 
     def __init__(self, model):
-        from ionicity.scorer.melting_model import MODEL_COLUMNS, MODEL_FEATURES
-
         self.model = model
-        self.names = [c.name for c in MODEL_COLUMNS]
-        self.needs = ("status", "message", "substance_class", "cations", "anions") + tuple(
-            f for f in MODEL_FEATURES if f in column_names()
-        )
         self.done: dict = {}
 
     def columns(self, distinct: list, cache_rows: pa.Array, cache: FormulaCache) -> tuple[list[pa.Array], pa.Array, pa.Array]:
         """(model arrays, status, message) for ``distinct``, one row each."""
-        from ionicity.pipelines.melting_fit import apply_model_to_records
-
         new = [i for i, f in enumerate(distinct) if f not in self.done]
         if new:
             positions = column_names()
             arrays = cache.arrays()
-            picked = {name: arrays[positions.index(name)].take(pa.array([cache_rows[i].as_py() for i in new], type=pa.int64())).to_pylist()
-                      for name in self.needs}
-            records = [{name: picked[name][k] for name in self.needs} for k in range(len(new))]
-            for i, record in zip(new, apply_model_to_records(records, self.model)):
-                self.done[distinct[i]] = tuple(record.get(n) for n in self.names) + (record["status"], record["message"])
+            rows = pa.array([cache_rows[i].as_py() for i in new], type=pa.int64())
+            status = arrays[positions.index("status")].take(rows).to_pylist()
+            message = arrays[positions.index("message")].take(rows).to_pylist()
+            value_notes = arrays[positions.index("value_notes")].take(rows).to_pylist()
+            predictions = predict_for_formulas(self.model, [distinct[i] for i in new])
+            for k, (i, prediction) in enumerate(zip(new, predictions)):
+                verdict = Verdict(status[k], message[k], value_notes[k])
+                if prediction.domain_warnings:
+                    verdict = with_warnings(verdict, prediction.domain_warnings)
+                self.done[distinct[i]] = prediction.values() + (verdict.status, verdict.message)
         rows = [self.done[f] for f in distinct]
         model_arrays = [
-            pa.array([None if r[k] is None or r[k] != r[k] else float(r[k]) for r in rows], type=pa.float64())
-            for k in range(len(self.names))
+            pa.array([None if r[k] != r[k] else float(r[k]) for r in rows], type=pa.float64())
+            for k in range(len(MODEL_COLUMNS))
         ]
         status = pc.dictionary_encode(pa.array([r[-2] for r in rows], type=pa.string()))
         message = pc.dictionary_encode(pa.array([r[-1] for r in rows], type=pa.string()))
@@ -810,7 +808,7 @@ def load_model_applier(config: ScoreConfig) -> ModelApplier | None:
         return None
     from ionicity.scorer.melting_model import ModelFormatError
 
-    from ionicity.pipelines.melting_fit import load_model
+    from ionicity.pipelines.melting_model_file import load_model
 
     try:
         return ModelApplier(load_model(config.mp_model))

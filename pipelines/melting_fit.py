@@ -52,6 +52,7 @@ from pathlib import Path
 
 import numpy as np
 
+from ionicity.pipelines.melting_model_file import save_model
 from ionicity.scorer import melting, melting_model
 
 from ionicity.pipelines.melting_cli import _OUTPUTS, CAUTION, EXTRA_HINT, TOLERANCE_K, add_fit_melting_parser  # noqa: F401
@@ -72,10 +73,6 @@ __all__ = [
     "feature_matrix",
     "grouped_cross_validation",
     "fit_melting_model",
-    "save_model",
-    "load_model",
-    "apply_model_to_records",
-    "apply_model_to_frame",
     "parity_plot",
     "add_fit_melting_parser",
     "run_fit_melting",
@@ -85,7 +82,6 @@ __all__ = [
 # Sources of the chemicals package used as measurements; JOBACK is a
 # group-contribution estimate for organics and is never used as a target.
 MEASURED_SOURCES = ("CRC_INORG", "CRC_ORG", "WEBBOOK", "WIKIDATA", "COMMON_CHEMISTRY", "OPEN_NTBKM")
-_MAX_MODEL_BYTES = 50_000_000
 
 
 class MissingExtraError(RuntimeError):
@@ -1038,112 +1034,6 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     }
     melting_model.model_from_dict(json.loads(json.dumps(document)))  # what we write must load
     return FitReport(model=document, metrics=metrics, rows=rows, records=records, oof_predictions_K=oof)
-
-
-# ------------------------------------------------------------ model file I/O
-
-
-def save_model(document: dict, path) -> None:
-    """Write a model document as JSON (atomically: a temporary file, then a rename)."""
-    melting_model.model_from_dict(document)
-    path = Path(path)
-    tmp = path.with_name(path.name + ".tmp")
-    tmp.write_text(json.dumps(document, allow_nan=False, separators=(",", ":")), encoding="utf-8")
-    os.replace(tmp, path)
-
-
-def load_model(path) -> melting_model.MeltingModel:
-    """Read and check a model file written by :func:`save_model`.
-
-    Only JSON is read, and only the layout :func:`scorer.melting_model.model_from_dict`
-    expects is accepted: a pickle, a joblib file or any other document is
-    refused with :class:`scorer.melting_model.ModelFormatError` (a ``ValueError``)
-    whose message says why. Nothing in the file is executed.
-    """
-    path = Path(path)
-    try:
-        size = path.stat().st_size
-        if size > _MAX_MODEL_BYTES:
-            raise melting_model.ModelFormatError(f"{path}: {size} bytes is too large for a melting model")
-        raw = path.read_bytes()
-    except OSError as exc:
-        raise melting_model.ModelFormatError(f"cannot read the melting model {path}: {exc}") from exc
-    if raw[:1] == b"\x80" or raw[:4] == b"PK\x03\x04":
-        raise melting_model.ModelFormatError(
-            f"{path} looks like a pickle/joblib file; ionicity loads only the JSON models that"
-            " 'ionicity fit-melting' writes, since unpickling can run arbitrary code"
-        )
-    try:
-        document = json.loads(raw.decode("utf-8"))
-    except (UnicodeDecodeError, json.JSONDecodeError) as exc:
-        raise melting_model.ModelFormatError(f"{path} is not a JSON melting model: {exc}") from exc
-    try:
-        return melting_model.model_from_dict(document)
-    except melting_model.ModelFormatError as exc:
-        raise melting_model.ModelFormatError(f"{path}: {exc}") from exc
-
-
-# ------------------------------------------------------ applying to records
-
-_DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
-
-
-def apply_model_to_records(records, model: melting_model.MeltingModel) -> list[dict]:
-    """Add ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K`` to scored records.
-
-    The hook for ``ionicity score --mp-model``: call it on the records of the
-    distinct formulas of a batch (before they are mapped back onto rows).
-    Rows outside the training domain keep their prediction but get status
-    ``warning`` and a message saying which feature lies outside; rows without
-    ions get NaN.
-
-    Parameters
-    ----------
-    records : sequence of dict
-        Records of :func:`scorer.score_formula` (they need the melting columns).
-    model : scorer.melting_model.MeltingModel
-        From :func:`load_model`.
-
-    Returns
-    -------
-    list of dict
-        New records (the inputs are not modified).
-    """
-    records = [dict(r) for r in records]
-    if not records:
-        return records
-    x = np.vstack([melting_model.model_features_from_record(r) for r in records])
-    pred, low, high = melting_model.predict_melting_K(model, x)
-    for record, row, p, lo, hi in zip(records, x, pred, low, high):
-        ionic = math.isfinite(p) and record.get("status") != "error" and math.isfinite(_float(record.get("mp_trend_index")))
-        record["mp_predicted_K"] = round(float(p), 1) if ionic else math.nan
-        record["mp_interval_low_K"] = round(float(lo), 1) if ionic else math.nan
-        record["mp_interval_high_K"] = round(float(hi), 1) if ionic else math.nan
-        if not ionic:
-            continue
-        reasons = melting_model.outside_training_domain(model, row, record.get("substance_class"))
-        if reasons:
-            note = _DOMAIN_NOTE.format("; ".join(reasons))
-            record["message"] = "; ".join(m for m in (record.get("message") or "", note) if m)
-            if record.get("status") == "ok":
-                record["status"] = "warning"
-    return records
-
-
-def apply_model_to_frame(frame, model: melting_model.MeltingModel, *, prefix: str = ""):
-    """:func:`apply_model_to_records` for a scored pandas DataFrame (columns may carry ``prefix``)."""
-    import pandas as pd
-
-    names = [c.name for c in melting_model.MODEL_COLUMNS]
-    plain = frame.rename(columns={prefix + c: c for c in frame.columns.str.removeprefix(prefix)}) if prefix else frame
-    records = apply_model_to_records(plain.to_dict("records"), model)
-    out = frame.copy()
-    for name in names + ["status", "message"]:
-        values = [r.get(name) for r in records]
-        if name in ("status", "message") and prefix + name not in out.columns:
-            continue
-        out[prefix + name] = pd.Series(values, index=frame.index)
-    return out
 
 
 # ------------------------------------------------------------------ the plot

@@ -21,6 +21,8 @@ from dataclasses import dataclass
 import numpy as np
 from ionicity.scorer.melting import CAUTION
 from ionicity.scorer.model import Column
+from ionicity.scorer.record import score_formula
+from ionicity.scorer.verdict import Verdict, with_warnings
 
 __all__ = [
     "MODEL_COLUMNS",
@@ -31,6 +33,9 @@ __all__ = [
     "model_from_dict",
     "predict_melting_K",
     "outside_training_domain",
+    "apply_model_to_records",
+    "ModelPrediction",
+    "predict_for_formulas",
 ]
 
 MODEL_COLUMNS: tuple[Column, ...] = (
@@ -383,3 +388,101 @@ def outside_training_domain(model: MeltingModel, features, substance_class: str 
     if substance_class and model.substance_classes and substance_class not in model.substance_classes:
         reasons.append(f"substance class {substance_class} not in the training set")
     return reasons
+
+
+# ------------------------------------------------------- applying to records
+
+def _float(value) -> float:
+    try:
+        return float(value) if value is not None else math.nan
+    except (TypeError, ValueError):
+        return math.nan
+
+
+_DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
+
+
+def _predictions(records, model: MeltingModel) -> list[ModelPrediction]:
+    if not records:
+        return []
+    x = np.vstack([model_features_from_record(r) for r in records])
+    pred, low, high = predict_melting_K(model, x)
+    out = []
+    for record, row, p, lo, hi in zip(records, x, pred, low, high):
+        ionic = math.isfinite(p) and record.get("status") != "error" and math.isfinite(_float(record.get("mp_trend_index")))
+        if not ionic:
+            out.append(ModelPrediction(math.nan, math.nan, math.nan))
+            continue
+        reasons = outside_training_domain(model, row, record.get("substance_class"))
+        out.append(ModelPrediction(
+            round(float(p), 1), round(float(lo), 1), round(float(hi), 1),
+            (_DOMAIN_NOTE.format("; ".join(reasons)),) if reasons else (),
+        ))
+    return out
+
+
+@dataclass(frozen=True)
+class ModelPrediction:
+    """A fitted model's answer for one compound: :data:`MODEL_COLUMNS` values, and
+    why the compound lies outside the model's training domain (empty when inside)."""
+
+    mp_predicted_K: float
+    mp_interval_low_K: float
+    mp_interval_high_K: float
+    domain_warnings: tuple[str, ...] = ()
+
+    def values(self) -> tuple[float, float, float]:
+        """The :data:`MODEL_COLUMNS` values, in their order."""
+        return (self.mp_predicted_K, self.mp_interval_low_K, self.mp_interval_high_K)
+
+
+def predict_for_formulas(model: MeltingModel, formulas) -> list[ModelPrediction]:
+    """The model applied to formulas as typed, one :class:`ModelPrediction` each.
+
+    What every engine calls for ``--mp-model``; the engine turns
+    ``domain_warnings`` into the row's verdict with
+    :func:`scorer.verdict.with_warnings`. Rows the model does not apply to
+    (no ions, an error) get NaN.
+
+    Parameters
+    ----------
+    model : MeltingModel
+    formulas : sequence of str or None
+        Formula texts (None for an empty cell).
+
+    Returns
+    -------
+    list of ModelPrediction
+    """
+    return _predictions([score_formula(f) for f in formulas], model)
+
+
+def apply_model_to_records(records, model: MeltingModel) -> list[dict]:
+    """Scored records with ``mp_predicted_K``, ``mp_interval_low_K`` and
+    ``mp_interval_high_K`` added (the inputs are not modified).
+
+    Rows outside the training domain keep their prediction but get status
+    ``warning`` and a message saying which feature lies outside
+    (:func:`scorer.verdict.with_warnings`); rows without ions get NaN.
+
+    Parameters
+    ----------
+    records : sequence of dict
+        Records of :func:`scorer.score_formula` (they need the melting columns).
+    model : MeltingModel
+
+    Returns
+    -------
+    list of dict
+    """
+    records = [dict(r) for r in records]
+    for record, prediction in zip(records, _predictions(records, model)):
+        record.update(zip((c.name for c in MODEL_COLUMNS), prediction.values()))
+        if not prediction.domain_warnings:
+            continue
+        verdict = with_warnings(
+            Verdict(record.get("status"), record.get("message") or "", record.get("value_notes") or ""),
+            prediction.domain_warnings,
+        )
+        record["status"], record["message"] = verdict.status, verdict.message
+    return records

@@ -13,7 +13,8 @@ import pandas as pd
 import pytest
 
 from ionicity.pipelines import melting_fit as mf
-from ionicity.scorer import melting, melting_model
+from ionicity.pipelines.melting_model_file import apply_model_to_frame, load_model
+from ionicity.scorer import melting_model
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
@@ -305,11 +306,11 @@ def test_fit_refuses_to_overwrite(fitted, capsys):
 @needs_extra
 def test_saved_model_loads_and_applies(fitted):
     _, out = fitted
-    model = mf.load_model(out / "melting_model.json")
+    model = load_model(out / "melting_model.json")
     from ionicity.scorer import score_formula
 
     records = [mf.score_for_melting(f) for f in ("NaCl", "MgO", "CCl4", "[C4mim][NTf2]")]
-    applied = mf.apply_model_to_records(records, model)
+    applied = melting_model.apply_model_to_records(records, model)
     nacl, mgo, ccl4, il = applied
     assert 300 < nacl["mp_predicted_K"] < 3000
     assert nacl["mp_interval_low_K"] < nacl["mp_predicted_K"] < nacl["mp_interval_high_K"]
@@ -324,10 +325,10 @@ def test_saved_model_loads_and_applies(fitted):
 @needs_extra
 def test_apply_model_to_frame_keeps_rows_and_order(fitted):
     _, out = fitted
-    model = mf.load_model(out / "melting_model.json")
+    model = load_model(out / "melting_model.json")
     records = [mf.score_for_melting(f) for f in ("KCl", "Xx", "KCl")]
     frame = pd.DataFrame(records)
-    result = mf.apply_model_to_frame(frame, model)
+    result = apply_model_to_frame(frame, model)
     assert len(result) == 3 and result["mp_predicted_K"].iloc[0] == result["mp_predicted_K"].iloc[2]
     assert math.isnan(result["mp_predicted_K"].iloc[1])
 
@@ -336,7 +337,7 @@ def test_loading_a_pickle_is_refused_with_a_clear_error(tmp_path):
     path = tmp_path / "model.pkl"
     path.write_bytes(pickle.dumps({"format": melting_model.MODEL_FORMAT}))
     with pytest.raises(melting_model.ModelFormatError, match="pickle"):
-        mf.load_model(path)
+        load_model(path)
 
 
 @pytest.mark.parametrize("content, message", [
@@ -348,12 +349,12 @@ def test_loading_other_files_is_refused(tmp_path, content, message):
     path = tmp_path / "model.json"
     path.write_bytes(content)
     with pytest.raises(melting_model.ModelFormatError, match=message):
-        mf.load_model(path)
+        load_model(path)
 
 
 def test_loading_a_missing_file_says_so(tmp_path):
     with pytest.raises(melting_model.ModelFormatError, match="cannot read"):
-        mf.load_model(tmp_path / "nope.json")
+        load_model(tmp_path / "nope.json")
 
 
 @needs_extra
@@ -364,7 +365,7 @@ def test_a_tampered_model_is_refused(fitted, tmp_path):
     path = tmp_path / "tampered.json"
     path.write_text(json.dumps(document))
     with pytest.raises(melting_model.ModelFormatError, match="model_type 'pickle' is not accepted"):
-        mf.load_model(path)
+        load_model(path)
 
 
 # --------------------------------------------------------- without the extra
