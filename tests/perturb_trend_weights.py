@@ -35,7 +35,8 @@ key, factor = sys.argv[1], float(sys.argv[2])
 if key:
     melting.TREND_WEIGHTS[key] = melting.TREND_WEIGHTS[key] * factor
 import pytest
-sys.exit(pytest.main(["-x", "-q", "-p", "no:cacheprovider", "-rf", *sys.argv[3:]]))
+# known misses (strict xfails) fail when the index gets better, so they cannot catch a wrong weight
+sys.exit(pytest.main(["-x", "-q", "-p", "no:cacheprovider", "-rf", "-k", "not known_miss", *sys.argv[3:]]))
 """
 
 
