@@ -219,11 +219,11 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
             # identifier formulas that lost their counts (BaOZr for BaZrO3, AgMoO
             # for Ag2MoO4) resolve only through a +1 state of a metal that has none
             return False, f"uncommon oxidation state {ion.ion_id}: formula likely incomplete, or not a simple salt"
+        if ion.family in _EXCLUDED_FAMILIES and ion.ion_id not in _METAL_OXOCATIONS:
+            return False, f"molecular oxocation {ion.ion_id}"
     written = _formula_in_name(name)
     if written is not None and written != _ratio(dec.composition):
         return False, "the name gives another formula in brackets"
-        if ion.family in _EXCLUDED_FAMILIES and ion.ion_id not in _METAL_OXOCATIONS:
-            return False, f"molecular oxocation {ion.ion_id}"
     for term in dec.anions:
         ion = term.ion
         if ion.monatomic and ion.element not in _SALT_ANION_ELEMENTS:

@@ -122,6 +122,9 @@ def test_screen_keeps_a_plain_salt():
     ("BaOZr", "barium zirconate", "uncommon oxidation state Ba(+)"),
     # the name writes the real formula in brackets
     ("NdS", "neodymium sulfide (Nd2S3)", "another formula"),
+    # nitrosyl and nitryl halides are molecules (NOCl boils at -6 C; CRC Handbook, from memory)
+    ("NOCl", "nitrosyl chloride", "molecular oxocation NO(+)"),
+    ("NO2F", "nitryl fluoride", "molecular oxocation NO2(+)"),
 ])
 def test_screen_catches_broken_identifier_formulas(formula, name, reason):
     kept, why = melting_screen.screen_salt(_dec(formula), name)
