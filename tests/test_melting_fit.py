@@ -1,4 +1,4 @@
-"""Tests for pipelines.melting_fit: training-set rules, grouped CV, conformal intervals, model files, the hooks."""
+"""Tests for pipelines.melting_fit and melting_model_file: grouped CV, conformal intervals, model files, the hooks."""
 from __future__ import annotations
 
 import argparse
@@ -12,13 +12,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from ionicity.pipelines import melting_data, melting_screen
 from ionicity.pipelines import melting_fit as mf
 from ionicity.pipelines.melting_cli import add_fit_melting_parser
 from ionicity.pipelines.melting_model_file import apply_model_to_frame, load_model
 from ionicity.scorer import melting_model
-from ionicity.scorer.formula import parse_formula
-from ionicity.scorer.ions import decompose
 
 FIXTURE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "wikidata_salts.csv"
 
@@ -28,10 +25,6 @@ needs_extra = pytest.mark.skipif(
     any(importlib.util.find_spec(m) is None for m in ("sklearn", "matplotlib", "chemicals")),
     reason="the 'melting' extra is not installed",
 )
-
-
-def _dec(formula: str):
-    return decompose(parse_formula(formula))
 
 
 @pytest.fixture
@@ -45,161 +38,6 @@ def fast_pipeline(monkeypatch):
         return pipe
 
     monkeypatch.setattr(mf, "make_melting_pipeline", quick)
-
-
-# ------------------------------------------------------------------ consensus
-
-
-def test_consensus_keeps_agreeing_sources_and_the_majority():
-    assert melting_screen.consensus_melting_point_K({"a": 1074.0, "b": 1074.2, "c": 1073.0})[0] == 1074.0
-    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1010.0, "c": 1400.0})
-    assert value == 1005.0 and how.startswith("consensus (2 of 3")
-
-
-def test_consensus_drops_disagreement_and_records_why():
-    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1100.0})
-    assert math.isnan(value) and how.startswith("disagree")
-    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1100.0, "c": 1300.0, "d": 1500.0})
-    assert math.isnan(value)
-
-
-def test_consensus_edge_cases():
-    assert melting_screen.consensus_melting_point_K({}) == (math.nan, "no value") or math.isnan(melting_screen.consensus_melting_point_K({})[0])
-    assert melting_screen.consensus_melting_point_K({"a": 500.0, "b": float("nan")})[1].startswith("single")
-    # exactly the tolerance apart still agrees; the tolerance is a parameter
-    assert melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1020.0})[1].startswith("agree")
-    assert math.isnan(melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1020.0}, tolerance_K=5.0)[0])
-
-
-# -------------------------------------------------------------- name and screen
-
-
-@pytest.mark.parametrize("name, formula", [
-    ("sodium sulphate", "Na2SO4"),
-    ("ferric chloride", "FeCl3"),
-    ("iron(III) chloride", "FeCl3"),
-    ("caesium iodide", "CsI"),
-    ("aluminium oxide", "Al2O3"),
-    ("barium titanate", "BaTiO3"),
-    ("1-ethyl-3-methylimidazolium tetrafluoroborate", "[C2mim][BF4]"),
-    ("tetrabutylammonium bromide", "[N4444]Br"),
-])
-def test_names_that_agree_with_the_formula(name, formula):
-    assert melting_screen.name_agrees_with_ions(name, _dec(formula)) == (True, "")
-
-
-@pytest.mark.parametrize("name, formula", [
-    ("potassium chloride", "NaCl"),
-    ("sodium nitrate", "NaNO2"),
-    ("1,2-dimethylpyridinium iodide", "[C2py]I"),  # an isomer: the formula cannot tell
-    ("", "NaCl"),
-])
-def test_names_that_do_not_agree(name, formula):
-    assert melting_screen.name_agrees_with_ions(name, _dec(formula))[0] is False
-
-
-@pytest.mark.parametrize("formula, name, reason", [
-    ("CuSO4.5H2O", "copper sulfate pentahydrate", "hydrate"),
-    ("NaCl", "sodium chloride hydrate", "hydrate"),
-    ("HCl", "hydrochloric acid", "not a salt"),
-    ("SiO2", "silica", "not a salt"),
-    ("Fe0.95O", "wustite", "fractional"),
-    ("Al4C3", "aluminium carbide", "not a salt"),
-])
-def test_screen_refuses_what_is_not_an_anhydrous_simple_salt(formula, name, reason):
-    kept, why = melting_screen.screen_salt(_dec(formula), name)
-    assert not kept and reason in why
-
-
-def test_screen_keeps_a_plain_salt():
-    assert melting_screen.screen_salt(_dec("K2SO4"), "potassium sulfate") == (True, "")
-    assert melting_screen.screen_salt(_dec("CuCl"), "cuprous chloride") == (True, "")  # Cu+ is common
-    assert melting_screen.screen_salt(_dec("Nd2S3"), "neodymium sulfide (Nd2S3)") == (True, "")
-
-
-@pytest.mark.parametrize("formula, name, reason", [
-    # identifier formulas that lost their counts read only through odd +1 states
-    ("BaOZr", "barium zirconate", "uncommon oxidation state Ba(+)"),
-    # the name writes the real formula in brackets
-    ("NdS", "neodymium sulfide (Nd2S3)", "another formula"),
-    # nitrosyl and nitryl halides are molecules (NOCl boils at -6 C; CRC Handbook, from memory)
-    ("NOCl", "nitrosyl chloride", "molecular oxocation NO(+)"),
-    ("NO2F", "nitryl fluoride", "molecular oxocation NO2(+)"),
-])
-def test_screen_catches_broken_identifier_formulas(formula, name, reason):
-    kept, why = melting_screen.screen_salt(_dec(formula), name)
-    assert not kept and reason in why
-
-
-def test_groups_for_cross_validation():
-    assert melting_screen.anion_family(_dec("NaCl")) == "halide"
-    assert melting_screen.anion_family(_dec("MgO")) == "oxide"
-    assert melting_screen.anion_family(_dec("ZnS")) == "chalcogenide"
-    assert melting_screen.anion_family(_dec("KNO3")) == "nitrate"
-    assert melting_screen.anion_family(_dec("[C2mim][BF4]")) == "halo-complex"
-    assert melting_screen.cation_element(_dec("Fe2(SO4)3")) == "Fe"
-    assert melting_screen.cation_element(_dec("(NH4)2SO4")) == "NH4"
-    assert melting_screen.cation_element(_dec("[C4mim]Cl")) == "organic"
-
-
-# ---------------------------------------------------------------- user tables
-
-
-def test_user_table_is_screened_and_logged(tmp_path):
-    path = tmp_path / "mine.csv"
-    path.write_text(
-        "formula,mp_K\n"
-        "NaCl,1074\n"          # CRC Handbook, from memory
-        "NaCl,1075\n"          # a duplicate that agrees
-        "KCl,771\n"            # 771 C typed as K: still in range, kept as given
-        "KBr,734 C\n"          # not a number
-        "CsCl,-5\n"            # out of range
-        "CuSO4.5H2O,383\n"     # hydrate
-        "SiO2,1986\n"          # not a salt
-        "Qq2O,900\n",          # unreadable formula
-        encoding="utf-8",
-    )
-    data = melting_data.read_user_table(path)
-    kept = {r["formula_normalized"]: r["mp_K"] for r in data.rows}
-    assert kept == {"NaCl": 1074.5, "KCl": 771.0}
-    reasons = " | ".join(d["reason"] for d in data.decisions)
-    for word in ("not a number", "outside 1-5000 K", "hydrate", "not a salt", "formula not parsed", "duplicate"):
-        assert word in reasons
-    assert len(data.decisions) == 8
-
-
-def test_user_table_needs_its_columns(tmp_path):
-    from ionicity.pipelines.io import InputError
-
-    path = tmp_path / "bad.csv"
-    path.write_text("compound,T\nNaCl,1074\n", encoding="utf-8")
-    with pytest.raises(InputError, match="no column 'formula'"):
-        melting_data.read_user_table(path)
-    with pytest.raises(InputError, match="no melting-point column"):
-        melting_data.read_user_table(path, formula_col="compound")
-    assert melting_data.read_user_table(path, formula_col="compound", mp_col="T").rows[0]["mp_K"] == 1074.0
-
-
-def test_combining_lets_the_user_value_win(tmp_path):
-    open_set = melting_data.TrainingSet(rows=[{"formula": "ClNa", "formula_normalized": "NaCl", "mp_K": 1070.0,
-                                     "origin": "chemicals", "anion_family": "halide", "cation_element": "Na"}],
-                              decisions=[])
-    path = tmp_path / "mine.csv"
-    path.write_text("formula,mp_K\nNaCl,1074\n", encoding="utf-8")
-    both = melting_data.combine_training_sets(open_set, melting_data.read_user_table(path))
-    assert [r["mp_K"] for r in both.rows] == [1074.0]
-    assert any("replaced by user table" in d["reason"] for d in both.decisions)
-
-
-# ----------------------------------------------------------- the fixture data
-
-
-def test_fixture_has_provenance_on_every_row():
-    frame = pd.read_csv(FIXTURE)
-    assert len(frame) == 140  # datasets/melting/README.md gives the same count
-    assert frame["source"].str.startswith("Wikidata (CC0 1.0)").all()
-    assert frame["mp_K"].between(1, 5000).all()
-    assert frame["formula_normalized"].is_unique
 
 
 # ------------------------------------------------------------- CV and conformal
@@ -410,35 +248,6 @@ def test_scoring_does_not_import_the_extra():
     assert result.stdout.strip() == "molten_salt"
 
 
-# ------------------------------------------------------- the open training set
-
-
-@needs_extra
-def test_open_builder_on_a_few_cas_numbers():
-    # NaCl, KCl, Na2SO4 and [C2mim][BF4] are salts; CuSO4.5H2O is a hydrate; water is no salt
-    cas = ["7647-14-5", "7447-40-7", "7757-82-6", "143314-16-3", "7758-99-8", "7732-18-5"]
-    data = melting_data.build_open_training_set(cas_numbers=cas)
-    kept = {r["formula_normalized"]: r for r in data.rows}
-    assert {"NaCl", "KCl", "Na2SO4"} <= set(kept)
-    # NaCl 1074 K (CRC Handbook, from memory): the consensus of the package's sources is close
-    assert kept["NaCl"]["mp_K"] == pytest.approx(1074, abs=5)
-    assert all(r["origin"].startswith("chemicals") for r in data.rows)
-    logged = {d["cas"] for d in data.decisions}
-    assert set(cas) <= logged  # every CAS number looked at has a decision
-    assert not any(d["kept"] for d in data.decisions if d["cas"] in ("7758-99-8", "7732-18-5"))
-
-
-@needs_extra
-@pytest.mark.slow
-def test_trend_index_ranks_the_open_training_set():
-    # the issue's bar: Spearman rho >= 0.75 against the set fit-melting builds
-    data = melting_data.build_open_training_set()
-    _, records = mf.feature_matrix(data.rows)
-    report = mf.trend_index_report(data.rows, records)
-    assert report["overall"]["n"] > 400
-    assert report["overall"]["spearman_rho"] >= 0.75
-
-
 @needs_extra
 def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsys):
     from ionicity.pipelines.cli import main
@@ -450,8 +259,6 @@ def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsy
     code = main(["score", str(source), "-o", str(target), "--mp-model", str(out / "melting_model.json")])
     assert code == 0
     assert "safety data sheet" in capsys.readouterr().err
-    import pandas as pd
-
     table = pd.read_csv(target, dtype=str, keep_default_na=False)
     assert table["label"].tolist() == ["a", "b", "c", "d", "e"]
     for name in ("mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"):
