@@ -11,8 +11,8 @@ licence, so the set is rebuilt on each run and written only into the user's
 output folder. :func:`read_user_table` reads a user's own table the same way;
 :func:`combine_training_sets` joins sets, the later one winning.
 
-``chemicals`` and pandas are imported where they are used: the module
-imports without the extra, so the command can name what to install.
+``chemicals`` is imported where it is used: the module imports without the
+extra, so the command can name what to install.
 """
 from __future__ import annotations
 
@@ -22,6 +22,8 @@ import re
 import time
 from dataclasses import dataclass, field
 from pathlib import Path
+
+import pandas as pd
 
 from ionicity.pipelines.io import InputError
 from ionicity.pipelines.melting_cli import TOLERANCE_K, require_extra
@@ -258,8 +260,6 @@ def read_user_table(path, *, formula_col: str = "formula", mp_col: str | None = 
     pipelines.io.InputError
         The file cannot be read or lacks the columns.
     """
-    import pandas as pd
-
     path = Path(path)
     try:
         if path.suffix.lower() == ".parquet":
