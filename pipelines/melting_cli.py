@@ -1,11 +1,16 @@
-"""The ``fit-melting`` command's arguments, kept apart from
-:mod:`pipelines.melting_fit` so that building the command line imports
-nothing heavy (``ionicity score`` starts its workers right after parsing)."""
+"""The ``fit-melting`` command's arguments and the check for its optional extra.
+
+Kept apart from the trainer (:mod:`pipelines.melting_fit`,
+:mod:`pipelines.melting_data`, :mod:`pipelines.melting_plot`) so that
+building the command line imports nothing heavy (``ionicity score`` starts
+its workers right after parsing).
+"""
 from __future__ import annotations
 
 import argparse
+import importlib
 
-__all__ = ["add_fit_melting_parser", "CAUTION", "EXTRA_HINT", "TOLERANCE_K"]
+__all__ = ["add_fit_melting_parser", "CAUTION", "EXTRA_HINT", "TOLERANCE_K", "MissingExtraError", "require_extra"]
 
 EXTRA_HINT = "pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)"
 CAUTION = (
@@ -16,6 +21,26 @@ CAUTION = (
 # sources further apart than this disagree
 TOLERANCE_K = 20.0
 _OUTPUTS = ("melting_model.json", "training_set.csv", "decisions.csv", "report.json", "parity.png")
+
+
+class MissingExtraError(RuntimeError):
+    """The optional ``melting`` extra is not installed."""
+
+
+def require_extra(module: str):
+    """Import ``module`` of the ``melting`` extra, or raise :class:`MissingExtraError` saying what to install.
+
+    >>> require_extra("no_such_package_here")
+    Traceback (most recent call last):
+    ...
+    ionicity.pipelines.melting_cli.MissingExtraError: 'no_such_package_here' is needed for fit-melting and is not installed: pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)
+    """
+    try:
+        return importlib.import_module(module)
+    except ImportError as exc:
+        raise MissingExtraError(
+            f"'{module}' is needed for fit-melting and is not installed: {EXTRA_HINT}"
+        ) from exc
 
 
 def add_fit_melting_parser(subparsers) -> argparse.ArgumentParser:

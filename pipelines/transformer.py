@@ -30,13 +30,14 @@ import numpy as np
 from sklearn.base import BaseEstimator, TransformerMixin
 from sklearn.utils.validation import check_is_fitted
 
+from ionicity.scorer import melting_model
+from ionicity.scorer.columns import output_columns
+
 __all__ = ["FormulaDescriptors", "numeric_descriptor_columns"]
 
 
 def numeric_descriptor_columns() -> tuple[str, ...]:
     """Every numeric (``float64``, ``int64`` or ``bool``) generated column, the melting trend included."""
-    from ionicity.scorer.columns import output_columns
-
     return tuple(c.name for c in output_columns() if c.dtype in ("float64", "bool", "int64"))
 
 
@@ -89,8 +90,6 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
     # ---------------------------------------------------------------- options
     def _resolve_columns(self) -> list[str]:
-        from ionicity.scorer import melting_model
-
         numeric = numeric_descriptor_columns()
         if isinstance(self.columns, str):
             if self.columns == "numeric":
@@ -180,8 +179,6 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
             float64; NaN where a value does not apply.
         """
         check_is_fitted(self, "columns_")
-        from ionicity.scorer import melting_model
-
         formulas = self._formulas(X, fitting=False)
         derived = set(melting_model.MODEL_FEATURES) - set(numeric_descriptor_columns())
         needs_derived = any(c in derived for c in self.columns_)
@@ -206,15 +203,11 @@ class FormulaDescriptors(TransformerMixin, BaseEstimator):
 
 
 def _row_values(cell, columns: list[str], needs_derived: bool) -> np.ndarray:
-    from ionicity.pipelines.melting_fit import score_for_melting
-    from ionicity.scorer import melting_model
-
     if cell is None or (isinstance(cell, float) and math.isnan(cell)):
         return np.full(len(columns), np.nan)
-    record = score_for_melting(cell if isinstance(cell, str) else str(cell))
-    derived = {}
-    if needs_derived:
-        derived = dict(zip(melting_model.MODEL_FEATURES, melting_model.model_features_from_record(record).tolist()))
+    # the melting model's own feature function, so transformer and model agree
+    record, features = melting_model.features_for_formula(cell if isinstance(cell, str) else str(cell))
+    derived = dict(zip(melting_model.MODEL_FEATURES, features.tolist())) if needs_derived else {}
     values = []
     for name in columns:
         value = derived[name] if name in derived else record.get(name)

@@ -15,12 +15,14 @@ and the safety data sheet before heating anything.
 from __future__ import annotations
 
 import math
-import re
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.melting import CAUTION
-from ionicity.scorer.model import Column
+from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.model import Column, Decomposition
 from ionicity.scorer.record import score_formula
 from ionicity.scorer.verdict import Verdict, with_warnings
 
@@ -29,7 +31,9 @@ __all__ = [
     "MODEL_FEATURES",
     "MeltingModel",
     "ModelFormatError",
-    "model_features_from_record",
+    "derived_ion_features",
+    "model_features",
+    "features_for_formula",
     "model_from_dict",
     "predict_melting_K",
     "outside_training_domain",
@@ -62,9 +66,9 @@ MODEL_COLUMNS: tuple[Column, ...] = (
 
 # ------------------------------------------------------- applying a fitted model
 
-# Numeric output columns the regression reads, and a few counts derived from
-# the cations/anions columns; every one is a column of the scored record or a
-# function of one, so a model applies to any scored table.
+# Numeric output columns the regression reads (_RECORD_FEATURES), and counts
+# and charges of the ions (_DERIVED_FEATURES, from the decomposition); both
+# follow from the formula alone, so a model applies to any formula ionicity reads.
 _RECORD_FEATURES = (
     "mp_trend_index",
     "lattice_energy_vbt_kJ_mol",
@@ -102,68 +106,135 @@ _REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", 
 _TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
 _MAX_TREES = 5000
 _MAX_NODES = 100_000
-_TERM = re.compile(r"^(.*)\((\d*)([+-])\)\*([0-9.eE+-]+)$")
 
 
-def _parse_terms(text) -> list[tuple[str, int, float]]:
-    """(ion id, signed charge, count) from a ``cations``/``anions`` cell."""
-    out = []
-    if not isinstance(text, str) or not text:
-        return out
-    for part in text.split(";"):
-        match = _TERM.match(part.strip())
-        if not match:
-            continue
-        label, magnitude, sign, count = match.groups()
-        charge = int(magnitude or 1) * (1 if sign == "+" else -1)
-        out.append((label, charge, float(count)))
-    return out
+def derived_ion_features(dec: Decomposition | None) -> tuple[float, ...]:
+    """The :data:`_DERIVED_FEATURES` of one compound, read from its decomposition.
 
-
-def _is_monatomic_label(label: str) -> bool:
-    from ionicity.scorer.elements import is_element_symbol
-
-    return is_element_symbol(label)
-
-
-def model_features_from_record(record: dict) -> np.ndarray:
-    """The :data:`MODEL_FEATURES` vector of one scored record (NaN where missing).
+    ``ions_per_formula_unit`` (nu, the sum of ion counts), ``max_cation_charge``
+    and ``max_anion_charge`` (magnitudes), ``polyatomic_anion_fraction`` (count
+    share of anions of more than one atom) and ``organic_ion_fraction`` (count
+    share of ions written as bracketed abbreviations, ``[C4mim]``, ``[NTf2]``:
+    the ions of ionic liquids; carboxylates, which the ion library also marks
+    organic, do not count, as in every model fitted so far). Definitions
+    fixed here; all NaN when the compound has no cation or no anion.
 
     Parameters
     ----------
-    record : dict
-        A record of :func:`scorer.score_formula` (or a table row with the same columns).
+    dec : Decomposition or None
+        :func:`scorer.ions.decompose` of the parsed formula; None when the
+        formula could not be read.
+
+    Returns
+    -------
+    tuple of float
+        One value per name in ``_DERIVED_FEATURES``.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> derived_ion_features(decompose(parse_formula("Al2(SO4)3")))
+    (5.0, 3.0, 2.0, 1.0, 0.0)
+    >>> derived_ion_features(decompose(parse_formula("[C4mim]Cl")))
+    (2.0, 1.0, 1.0, 0.0, 0.5)
+    """
+    if dec is None or not dec.cations or not dec.anions:
+        return (math.nan,) * len(_DERIVED_FEATURES)
+    terms = dec.cations + dec.anions
+    nu = float(sum(t.count for t in terms))
+    anion_total = sum(t.count for t in dec.anions)
+    polyatomic = sum(t.count for t in dec.anions if t.ion.atom_count > 1) / anion_total
+    organic = sum(t.count for t in terms if t.ion.label.startswith("[")) / nu
+    return (
+        nu,
+        float(max(t.ion.charge for t in dec.cations)),
+        float(max(-t.ion.charge for t in dec.anions)),
+        float(polyatomic),
+        float(organic),
+    )
+
+
+def model_features(dec: Decomposition | None, record: Mapping) -> np.ndarray:
+    """The :data:`MODEL_FEATURES` vector of one compound (NaN where missing).
+
+    The one feature function of the melting model: the trainer
+    (:mod:`pipelines.melting_fit`), the scikit-learn transformer
+    (:mod:`pipelines.transformer`) and prediction (:func:`predict_for_formulas`)
+    all call it. Record features are the scored record's numeric values;
+    derived features come from the decomposition (:func:`derived_ion_features`),
+    never from the record's text columns.
+
+    Parameters
+    ----------
+    dec : Decomposition or None
+        The compound's decomposition (None: the formula could not be read).
+    record : mapping
+        Its scored record (:func:`scorer.score_formula`); only the numeric
+        columns named in ``_RECORD_FEATURES`` are read.
 
     Returns
     -------
     ndarray of shape (len(MODEL_FEATURES),)
 
+    See Also
+    --------
+    features_for_formula : record, decomposition and features from a formula text.
+
     Examples
     --------
-    >>> x = model_features_from_record({"cations": "Al(3+)*2", "anions": "SO4(2-)*3", "molar_mass_g_mol": 342.1})
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> x = model_features(decompose(parse_formula("Al2(SO4)3")), {"molar_mass_g_mol": 342.1})
     >>> named = dict(zip(MODEL_FEATURES, x.tolist()))
-    >>> named["ions_per_formula_unit"], named["max_cation_charge"], named["polyatomic_anion_fraction"]
-    (5.0, 3.0, 1.0)
+    >>> named["ions_per_formula_unit"], named["max_cation_charge"], named["molar_mass_g_mol"]
+    (5.0, 3.0, 342.1)
     """
-    values = []
-    for name in _RECORD_FEATURES:
-        value = record.get(name)
-        try:
-            value = float(value) if value is not None else math.nan
-        except (TypeError, ValueError):
-            value = math.nan
-        values.append(value)
-    cations = _parse_terms(record.get("cations"))
-    anions = _parse_terms(record.get("anions"))
-    if cations and anions:
-        nu = sum(n for _, _, n in cations + anions)
-        total_anions = sum(n for _, _, n in anions)
-        poly = sum(n for label, _, n in anions if not _is_monatomic_label(label)) / total_anions
-        organic = sum(n for label, _, n in cations + anions if label.startswith("[")) / nu
-        values += [nu, float(max(q for _, q, _ in cations)), float(max(-q for _, q, _ in anions)), poly, organic]
-    else:
-        values += [math.nan] * len(_DERIVED_FEATURES)
+    values = [_float(record.get(name)) for name in _RECORD_FEATURES]
+    values += derived_ion_features(dec)
     return np.array(values, dtype=float)
+
+
+def _decomposition_of(text) -> Decomposition | None:
+    """The decomposition of a formula cell as scoring reads it (None when unreadable)."""
+    if isinstance(text, (bytes, bytearray)):
+        try:
+            text = bytes(text).decode("utf-8")
+        except UnicodeDecodeError:
+            return None
+    elif text is None or (isinstance(text, float) and math.isnan(text)):
+        return None
+    elif not isinstance(text, str):
+        text = str(text)
+    try:
+        return decompose(parse_formula(text))
+    except FormulaError:
+        return None
+
+
+def features_for_formula(text) -> tuple[dict, np.ndarray]:
+    """A formula's scored record and its :data:`MODEL_FEATURES` vector (:func:`model_features`).
+
+    Parameters
+    ----------
+    text : str or None
+        A formula as typed.
+
+    Returns
+    -------
+    (dict, ndarray of shape (len(MODEL_FEATURES),))
+        The record of :func:`scorer.score_formula` and the features; the
+        derived features are NaN for a record with status ``error``.
+
+    Examples
+    --------
+    >>> record, x = features_for_formula("NaCl")
+    >>> record["status"], float(x[MODEL_FEATURES.index("ions_per_formula_unit")])
+    ('ok', 2.0)
+    """
+    record = score_formula(text)
+    dec = None if record.get("status") == "error" else _decomposition_of(text)
+    return record, model_features(dec, record)
 
 
 class ModelFormatError(ValueError):
@@ -355,7 +426,7 @@ def predict_melting_K(model: MeltingModel, features) -> tuple[np.ndarray, np.nda
     ----------
     model : MeltingModel
     features : array-like of shape (n_samples, len(MODEL_FEATURES))
-        Rows of :func:`model_features_from_record`.
+        Rows of :func:`model_features`.
 
     Returns
     -------
@@ -402,10 +473,10 @@ def _float(value) -> float:
 _DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
 
 
-def _predictions(records, model: MeltingModel) -> list[ModelPrediction]:
+def _predictions(records, x: np.ndarray, model: MeltingModel) -> list[ModelPrediction]:
+    """One prediction per scored record, from its row of :func:`model_features` in ``x``."""
     if not records:
         return []
-    x = np.vstack([model_features_from_record(r) for r in records])
     pred, low, high = predict_melting_K(model, x)
     out = []
     for record, row, p, lo, hi in zip(records, x, pred, low, high):
@@ -454,12 +525,15 @@ def predict_for_formulas(model: MeltingModel, formulas) -> list[ModelPrediction]
     -------
     list of ModelPrediction
     """
-    return _predictions([score_formula(f) for f in formulas], model)
+    scored = [features_for_formula(f) for f in formulas]
+    if not scored:
+        return []
+    return _predictions([r for r, _ in scored], np.vstack([x for _, x in scored]), model)
 
 
-def apply_model_to_records(records, model: MeltingModel) -> list[dict]:
-    """Scored records with ``mp_predicted_K``, ``mp_interval_low_K`` and
-    ``mp_interval_high_K`` added (the inputs are not modified).
+def apply_model_to_records(formulas, model: MeltingModel) -> list[dict]:
+    """Score formulas and add ``mp_predicted_K``, ``mp_interval_low_K`` and
+    ``mp_interval_high_K`` to each record.
 
     Rows outside the training domain keep their prediction but get status
     ``warning`` and a message saying which feature lies outside
@@ -467,16 +541,21 @@ def apply_model_to_records(records, model: MeltingModel) -> list[dict]:
 
     Parameters
     ----------
-    records : sequence of dict
-        Records of :func:`scorer.score_formula` (they need the melting columns).
+    formulas : sequence of str or None
+        Formula texts.
     model : MeltingModel
 
     Returns
     -------
     list of dict
+        The records of :func:`scorer.score_formula` with the model's columns.
+
+    See Also
+    --------
+    predict_for_formulas : the predictions alone, as the engines take them.
     """
-    records = [dict(r) for r in records]
-    for record, prediction in zip(records, _predictions(records, model)):
+    records = [dict(score_formula(f)) for f in formulas]
+    for record, prediction in zip(records, predict_for_formulas(model, formulas)):
         record.update(zip((c.name for c in MODEL_COLUMNS), prediction.values()))
         if not prediction.domain_warnings:
             continue

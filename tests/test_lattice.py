@@ -128,12 +128,26 @@ def _estimate(method: str, name: str) -> float:
     return values[method]
 
 
+# The Born-Mayer and Born-Lande sums need a structure type with a Madelung
+# constant, which salts of polyatomic anions do not get: there, and only
+# there, the method gives NaN; Pauling's Born exponents are given per noble-gas
+# configuration of a monatomic ion, so Born-Lande has none for NH4+. A NaN
+# anywhere else is a regression, not a skip.
+NOT_APPLICABLE = {
+    (method, name)
+    for method in ("lattice_energy_born_mayer_kJ_mol", "lattice_energy_born_lande_kJ_mol")
+    for name in ("NaNO3", "KNO3", "CaCO3", "MgCO3", "KClO4")
+} | {("lattice_energy_born_lande_kJ_mol", "NH4Cl")}
+
+
 @pytest.mark.parametrize("method, name", list(_cases()))
 def test_estimate_against_born_haber_value(method, name):
     value = _estimate(method, name)
     expected = EXPERIMENTAL[name][2]
-    if math.isnan(value):
-        pytest.skip(f"{method} does not apply to {name}")
+    if (method, name) in NOT_APPLICABLE:
+        assert math.isnan(value), f"{method} now applies to {name}: move it out of NOT_APPLICABLE"
+        return
+    assert not math.isnan(value), f"{method} gives NaN for {name}, where it applies"
     assert value == pytest.approx(expected, rel=TOLERANCE[method])
 
 

@@ -3,7 +3,6 @@ from __future__ import annotations
 
 import copy
 import math
-import time
 
 import numpy as np
 import pytest
@@ -27,53 +26,143 @@ def _class(formula: str):
 
 
 # ---------------------------------------------------------------- classes
+#
+# Calibration and validation are kept apart (see tests/test_trend_weights.py for
+# the sets): the inorganic weights of TREND_WEIGHTS were fitted by least squares on
+# the inorganic salts of the open training set (chemicals 1.5.2); the organic-ion
+# weights were set by hand so that [C2mim][BF4], [C4mim][PF6] and [C4mim][NTf2]
+# fall below 100 C. A check on those compounds is calibration (the weights still
+# do what they were set for), never validation.
 
-# Ionic liquids with measured melting points below 100 C. Every value is recalled
-# from the cited paper (from memory), in K.
-KNOWN_IONIC_LIQUIDS = [
+# Calibration: the three ionic liquids the organic weights were set on. Values
+# recalled from the cited paper (from memory), in K.
+CALIBRATION_IONIC_LIQUIDS = [
     # Holbrey & Seddon, J. Chem. Soc., Dalton Trans. 1999, 2133 (from memory): 15 C
     ("[C2mim][BF4]", 288),
     # Huddleston et al., Green Chem. 2001, 3, 156 (from memory): about 10 C
     ("[C4mim][PF6]", 283),
     # Tokuda et al., J. Phys. Chem. B 2005, 109, 6103 (from memory): about -3 C
     ("[C4mim][NTf2]", 270),
-    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -15 C
-    ("[C2mim][NTf2]", 258),
-    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -9 C
-    ("[C2mim][OTf]", 264),
-    # MacFarlane et al., J. Phys. Chem. B 1999, 103, 4164 (from memory): -18 C
-    ("[C4mpyr][NTf2]", 255),
-    # MacFarlane et al., Chem. Commun. 2001, 1430 (from memory): -21 C
-    ("[C2mim][dca]", 252),
-    # Huddleston et al., Green Chem. 2001, 3, 156 (from memory): about 65 C
-    ("[C4mim]Cl", 338),
 ]
 
 
-@pytest.mark.parametrize("formula, mp_K", KNOWN_IONIC_LIQUIDS)
-def test_known_ionic_liquids_are_classed_ionic_liquid(formula, mp_K):
+@pytest.mark.parametrize("formula, mp_K", CALIBRATION_IONIC_LIQUIDS)
+def test_calibration_ionic_liquids_stay_below_100_C(formula, mp_K):
     assert mp_K < 373.15  # the check's own premise: the trade's definition
     assert _class(formula) == "ionic_liquid"
 
 
-# Melting points from the CRC Handbook of Chemistry and Physics, 'Physical constants
-# of inorganic compounds' (from memory), in K; all far above 100 C.
-NOT_IONIC_LIQUIDS = [
+# Validation: organic salts no weight was fitted or set on (the least-squares fit
+# used inorganic salts only), each classed by its measured melting point, in K.
+# Known misses stay in the list as strict expected failures (test id ending in
+# "known_miss"), so the validation figure is honest and an improvement shows up as
+# an unexpected pass; tests/perturb_trend_weights.py leaves them out, since they
+# fail when the index gets better, not worse.
+_MISS = "known miss of the index"
+VALIDATION_ORGANIC_SALTS = [
+    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -15 C
+    ("[C2mim][NTf2]", 258, None),
+    # Bonhote et al., Inorg. Chem. 1996, 35, 1168 (from memory): -9 C
+    ("[C2mim][OTf]", 264, None),
+    # MacFarlane et al., J. Phys. Chem. B 1999, 103, 4164 (from memory): -18 C
+    ("[C4mpyr][NTf2]", 255, None),
+    # MacFarlane et al., Chem. Commun. 2001, 1430 (from memory): -21 C
+    ("[C2mim][dca]", 252, None),
+    # MacFarlane et al., Green Chem. 2002, 4, 444 (from memory): about -55 C
+    ("[C4mpyr][dca]", 218, None),
+    # Huddleston et al., Green Chem. 2001, 3, 156 (from memory): about 65 C
+    ("[C4mim]Cl", 338, None),
+    # Fuller, Carlin, De Long & Haworth, J. Chem. Soc., Chem. Commun. 1994, 299 (from memory): about 60 C
+    ("[C2mim][PF6]", 333, None),
+    # Wilkes, Levisky, Wilson & Hussey, Inorg. Chem. 1982, 21, 1263 (from memory): 87 C
+    ("[C2mim]Cl", 360, f"{_MISS}: trend 419 K"),
+    # Walden, Bull. Acad. Imp. Sci. St.-Petersbourg 1914, 405 (from memory): 12 C
+    ("[EtNH3]NO3", 285, f"{_MISS}: trend 441 K"),
+    # CRC Handbook, 'Physical constants of organic compounds' (from memory): 103 C
+    ("[N4444]Br", 376, None),
+    # CRC Handbook, 'Physical constants of organic compounds' (from memory): 146 C
+    ("[N4444]I", 419, None),
+    # tetrabutylphosphonium bromide, supplier data sheets (from memory): 100-103 C
+    ("[P4444]Br", 375, None),
+    # CRC Handbook, 'Physical constants of organic compounds' (from memory): 232 C
+    ("[MeNH3]Cl", 505, None),
+    # CRC Handbook, 'Physical constants of organic compounds' (from memory): 108 C
+    ("[EtNH3]Cl", 382, None),
+    # CRC Handbook, 'Physical constants of organic compounds' (from memory): 261 C
+    ("[Et3NH]Cl", 534, None),
+    # supplier data sheets (from memory): about 160 C
+    ("[N4444][BF4]", 431, f"{_MISS}: trend 338 K"),
+    # supplier data sheets (from memory): about 245 C
+    ("[N4444][PF6]", 519, f"{_MISS}: trend 336 K"),
+    # supplier data sheets (from memory): about 132 C
+    ("[C4py]Cl", 405, f"{_MISS}: trend 318 K"),
+]
+
+
+def _validation_params():
+    for formula, mp_K, miss in VALIDATION_ORGANIC_SALTS:
+        marks = [pytest.mark.xfail(strict=True, reason=miss)] if miss else []
+        yield pytest.param(formula, mp_K, marks=marks, id=f"{formula}-known_miss" if miss else formula)
+
+
+@pytest.mark.parametrize("formula, mp_K", list(_validation_params()))
+def test_validation_organic_salts_are_classed_by_their_measured_melting_point(formula, mp_K):
+    assert (_class(formula) == "ionic_liquid") == (mp_K < 373.15)
+
+
+# Calibration: inorganic salts of the open training set the inorganic weights were
+# fitted on. CRC Handbook, 'Physical constants of inorganic compounds' (from memory), in K.
+CALIBRATION_SALTS = [
     ("LiF", 1121), ("NaCl", 1074), ("KCl", 1044), ("KBr", 1007), ("CsI", 894), ("LiCl", 883),
-    ("MgO", 3098), ("CaO", 2886), ("Al2O3", 2345), ("Na2O", 1405), ("ZrO2", 2988),
+    ("MgO", 3098), ("CaO", 2886), ("Al2O3", 2345), ("Na2O", 1405),
     ("Na2SO4", 1157), ("K2SO4", 1342), ("MgSO4", 1397), ("CaSO4", 1733), ("BaSO4", 1853),
 ]
 
 
-@pytest.mark.parametrize("formula, mp_K", NOT_IONIC_LIQUIDS)
-def test_alkali_halides_oxides_sulfates_are_not_ionic_liquids(formula, mp_K):
+@pytest.mark.parametrize("formula, mp_K", CALIBRATION_SALTS)
+def test_calibration_halides_oxides_sulfates_are_molten_salts_or_refractory(formula, mp_K):
+    assert mp_K > 573.15
     assert _class(formula) in ("molten_salt", "refractory")
 
 
-@pytest.mark.parametrize("formula", ["MgO", "CaO", "ZrO2"])
-def test_refractory_oxides(formula):
-    # MgO 3098 K, CaO 2886 K, ZrO2 2988 K: above the 1500 C of ISO 836 (CRC Handbook, from memory)
+@pytest.mark.parametrize("formula", ["MgO", "CaO"])
+def test_calibration_refractory_oxides(formula):
+    # MgO 3098 K, CaO 2886 K: above the 1500 C of ISO 836 (CRC Handbook, from memory)
     assert _class(formula) == "refractory"
+
+
+# Validation: inorganic salts that are not in the set fit-melting builds from
+# chemicals 1.5.2 (the fitting set), CRC Handbook, 'Physical constants of inorganic
+# compounds' (from memory), in K.
+VALIDATION_SALTS = [
+    ("MgF2", 1536), ("BaF2", 1641), ("CdF2", 1383), ("CuBr", 765), ("Li2O", 1711), ("SrO", 2804),
+    ("ZrO2", 2988), ("Y2O3", 2712), ("La2O3", 2578), ("TiO2", 2116), ("LiOH", 735), ("NaOH", 596),
+    ("KOH", 679), ("CsOH", 615), ("KBF4", 843), ("Na3PO4", 1856),
+]
+
+
+def _ranks(values) -> np.ndarray:
+    return np.argsort(np.argsort(values)).astype(float)
+
+
+def test_validation_index_ranks_salts_outside_the_fitting_set():
+    # the bar of the melting issue: Spearman rho >= 0.75 against measured melting points
+    measured = np.array([mp for _, mp in VALIDATION_SALTS], dtype=float)
+    index = np.array([_index(f) for f, _ in VALIDATION_SALTS])
+    rho = np.corrcoef(_ranks(measured), _ranks(index))[0, 1]
+    assert rho >= 0.75
+
+
+def test_validation_typical_scatter_is_a_factor_of_1_5():
+    # the documented typical scatter (module docstring of scorer.melting): median
+    # |log10(trend / measured)| within log10(1.5) on salts outside the fitting set
+    errors = [abs(_index(f) - math.log10(mp)) for f, mp in VALIDATION_SALTS]
+    assert float(np.median(errors)) <= math.log10(1.5)
+
+
+def test_validation_zirconia_is_refractory():
+    # ZrO2 2988 K (CRC Handbook, from memory); not in the fitting set
+    assert _class("ZrO2") == "refractory"
 
 
 def test_class_thresholds_follow_the_documented_temperatures():
@@ -90,27 +179,43 @@ def test_class_thresholds_follow_the_documented_temperatures():
 
 # ------------------------------------------------------------------- ranks
 
-# Pairs (higher, lower) by measured melting point, CRC Handbook (from memory), in K.
-RANKED_PAIRS = [
+# Calibration: pairs (higher, lower) of fitting-set salts by measured melting point,
+# CRC Handbook (from memory), in K.
+CALIBRATION_RANKED_PAIRS = [
     ("MgO", "NaCl"),           # 3098 > 1074: doubly charged ions
     ("CaF2", "CaCl2"),         # 1691 > 1045: smaller anion
     ("NaCl", "AgCl"),          # 1074 > 728: Fajans' third rule (Ag+ is d10)
     ("KCl", "ZnCl2"),          # 1044 > 563: covalent, chain-forming ZnCl2
     ("NaCl", "NaNO3"),         # 1074 > 580: a molecular anion melts lower
     ("K2SO4", "KNO3"),         # 1342 > 607
-    ("NaCl", "[C2mim]Cl"),     # 1074 > 360 (Wilkes et al., Inorg. Chem. 1982, 21, 1263, from memory)
-    ("[C2mim][BF4]", "[C4mim][BF4]"),  # 288 > about 200 (glass former): longer chain, more flexible
     ("CaO", "Na2O"),           # 2886 > 1405
+    # [C2mim][BF4] set an organic weight: 288 > about 200 (glass former; Holbrey &
+    # Seddon 1999, from memory): longer chain, more flexible
+    ("[C2mim][BF4]", "[C4mim][BF4]"),
+]
+
+# Validation: pairs with a compound outside every calibration set.
+VALIDATION_RANKED_PAIRS = [
+    ("NaCl", "[C2mim]Cl"),     # 1074 > 360 (Wilkes et al., Inorg. Chem. 1982, 21, 1263, from memory)
+    ("NaF", "NaOH"),           # 1269 > 596 (CRC Handbook, from memory): F- and OH- of one size, OH- rotates
+    ("KF", "KOH"),             # 1131 > 679 (CRC Handbook, from memory): as NaF/NaOH
+    ("[N2222]Br", "[N4444]Br"),  # 558 (decomposes) > 376 (CRC Handbook, from memory): longer chains
+    ("[C2mpyr][NTf2]", "[C4mpyr][NTf2]"),  # 359 > 255 (MacFarlane et al. 1999, from memory)
 ]
 
 
-@pytest.mark.parametrize("higher, lower", RANKED_PAIRS)
-def test_index_ranks_measured_pairs(higher, lower):
+@pytest.mark.parametrize("higher, lower", CALIBRATION_RANKED_PAIRS)
+def test_calibration_index_ranks_measured_pairs(higher, lower):
     assert _index(higher) > _index(lower)
 
 
-def test_index_reads_on_a_log_kelvin_scale_near_nacl():
-    # not a prediction, but the scale is anchored so that simple salts land within
+@pytest.mark.parametrize("higher, lower", VALIDATION_RANKED_PAIRS)
+def test_validation_index_ranks_measured_pairs(higher, lower):
+    assert _index(higher) > _index(lower)
+
+
+def test_calibration_index_reads_on_a_log_kelvin_scale_near_nacl():
+    # calibration (NaCl is in the fitting set). Not a prediction, but the scale is anchored so that simple salts land within
     # a factor of 1.5 of their melting point: NaCl 1074 K (CRC Handbook, from memory)
     assert 1074 / 1.5 < melting.trend_temperature_K(_index("NaCl")) < 1074 * 1.5
 
@@ -235,15 +340,14 @@ def test_explain_names_the_method_and_the_inputs():
     assert melting.explain(decompose(parse_formula("HCl")))[0].startswith("melting trend: not estimated")
 
 
-def test_describe_is_fast_once_the_tables_are_loaded():
+def test_describe_gives_the_same_values_after_its_cache_is_cleared():
+    # the per-decomposition cache must not change a value (timings live in the benchmark)
     decs = [decompose(parse_formula(f)) for f in ("NaCl", "MgO", "K2SO4", "[C4mim][NTf2]", "Fe2(SO4)3")]
-    for d in decs:
-        melting.describe(d)
+    first = [melting.describe(d) for d in decs]
     melting.melting_terms.cache_clear()
-    start = time.perf_counter()
-    for d in decs:
-        melting.describe(d)
-    assert (time.perf_counter() - start) / len(decs) < 0.005
+    again = [melting.describe(d) for d in decs]
+    assert again == first
+    assert all(math.isfinite(values["mp_trend_index"]) for values, _ in first)
 
 
 # ------------------------------------------------------ model schema and predictor
@@ -319,12 +423,45 @@ def test_model_documents_other_than_the_expected_type_are_refused(change, messag
         melting_model.model_from_dict(document)
 
 
-def test_model_features_from_record_reads_the_ion_columns():
-    record = {"cations": "[C4mim](+)*1", "anions": "[NTf2](-)*1", "mp_trend_index": 2.1,
-              "cation_pseudo_noble_gas": True}
-    named = dict(zip(melting_model.MODEL_FEATURES, melting_model.model_features_from_record(record).tolist()))
-    assert named["organic_ion_fraction"] == 1.0 and named["polyatomic_anion_fraction"] == 1.0
-    assert named["cation_pseudo_noble_gas"] == 1.0 and named["mp_trend_index"] == 2.1
+# The derived features, counted by hand from each formula (an independent reading):
+# Al2(SO4)3 is 2 Al3+ and 3 SO4(2-); [C4mim][NTf2] two bracketed organic ions;
+# NaH a hydride, one atom; CaC2O4 (oxalate) an organic anion written without brackets.
+DERIVED_CASES = [
+    ("Al2(SO4)3", (5.0, 3.0, 2.0, 1.0, 0.0)),
+    ("[C4mim][NTf2]", (2.0, 1.0, 1.0, 1.0, 1.0)),
+    ("[C4mim]Cl", (2.0, 1.0, 1.0, 0.0, 0.5)),
+    ("NaH", (2.0, 1.0, 1.0, 0.0, 0.0)),
+    ("Ca3(PO4)2", (5.0, 2.0, 3.0, 1.0, 0.0)),
+    ("K2O", (3.0, 1.0, 2.0, 0.0, 0.0)),
+]
+
+
+@pytest.mark.parametrize("formula, expected", DERIVED_CASES)
+def test_derived_features_count_the_ions_of_the_decomposition(formula, expected):
+    assert melting_model.derived_ion_features(decompose(parse_formula(formula))) == expected
+
+
+def test_model_features_take_record_values_and_the_decomposition():
+    dec = decompose(parse_formula("[C4mim][NTf2]"))
+    record = {"mp_trend_index": 2.1, "cation_pseudo_noble_gas": True, "cations": "Na(+)*7", "anions": "Cl(-)*7"}
+    named = dict(zip(melting_model.MODEL_FEATURES, melting_model.model_features(dec, record).tolist()))
+    assert named["mp_trend_index"] == 2.1 and named["cation_pseudo_noble_gas"] == 1.0
     assert math.isnan(named["lattice_energy_vbt_kJ_mol"])
-    empty = melting_model.model_features_from_record({})
-    assert np.isnan(empty).all()
+    # the ions come from the decomposition, whatever text the record carries
+    assert named["ions_per_formula_unit"] == 2.0 and named["organic_ion_fraction"] == 1.0
+    assert np.isnan(melting_model.model_features(None, {})).all()
+    assert np.isnan(melting_model.model_features(decompose(parse_formula("CCl4")), {})).all()
+
+
+def test_features_are_equal_for_equivalent_spellings():
+    # invariance: one compound, two spellings
+    _, a = melting_model.features_for_formula("CaCO3·6H2O")
+    _, b = melting_model.features_for_formula("CaCO3(H2O)6")
+    assert np.array_equal(a, b, equal_nan=True)
+    assert a[melting_model.MODEL_FEATURES.index("ions_per_formula_unit")] == 2.0
+
+
+def test_features_of_unreadable_cells_are_nan():
+    for cell in ("Xx2O", "", None, b"\xff"):
+        record, x = melting_model.features_for_formula(cell)
+        assert record["status"] == "error" and np.isnan(x).all()

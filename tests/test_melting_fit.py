@@ -1,4 +1,4 @@
-"""Tests for pipelines.melting_fit: training-set rules, grouped CV, conformal intervals, model files, the hooks."""
+"""Tests for pipelines.melting_fit and melting_model_file: grouped CV, conformal intervals, model files, the hooks."""
 from __future__ import annotations
 
 import argparse
@@ -13,10 +13,9 @@ import pandas as pd
 import pytest
 
 from ionicity.pipelines import melting_fit as mf
+from ionicity.pipelines.melting_cli import add_fit_melting_parser
 from ionicity.pipelines.melting_model_file import apply_model_to_frame, load_model
 from ionicity.scorer import melting_model
-from ionicity.scorer.formula import parse_formula
-from ionicity.scorer.ions import decompose
 
 FIXTURE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "wikidata_salts.csv"
 
@@ -26,10 +25,6 @@ needs_extra = pytest.mark.skipif(
     any(importlib.util.find_spec(m) is None for m in ("sklearn", "matplotlib", "chemicals")),
     reason="the 'melting' extra is not installed",
 )
-
-
-def _dec(formula: str):
-    return decompose(parse_formula(formula))
 
 
 @pytest.fixture
@@ -43,158 +38,6 @@ def fast_pipeline(monkeypatch):
         return pipe
 
     monkeypatch.setattr(mf, "make_melting_pipeline", quick)
-
-
-# ------------------------------------------------------------------ consensus
-
-
-def test_consensus_keeps_agreeing_sources_and_the_majority():
-    assert mf.consensus_melting_point_K({"a": 1074.0, "b": 1074.2, "c": 1073.0})[0] == 1074.0
-    value, how = mf.consensus_melting_point_K({"a": 1000.0, "b": 1010.0, "c": 1400.0})
-    assert value == 1005.0 and how.startswith("consensus (2 of 3")
-
-
-def test_consensus_drops_disagreement_and_records_why():
-    value, how = mf.consensus_melting_point_K({"a": 1000.0, "b": 1100.0})
-    assert math.isnan(value) and how.startswith("disagree")
-    value, how = mf.consensus_melting_point_K({"a": 1000.0, "b": 1100.0, "c": 1300.0, "d": 1500.0})
-    assert math.isnan(value)
-
-
-def test_consensus_edge_cases():
-    assert mf.consensus_melting_point_K({}) == (math.nan, "no value") or math.isnan(mf.consensus_melting_point_K({})[0])
-    assert mf.consensus_melting_point_K({"a": 500.0, "b": float("nan")})[1].startswith("single")
-    # exactly the tolerance apart still agrees; the tolerance is a parameter
-    assert mf.consensus_melting_point_K({"a": 1000.0, "b": 1020.0})[1].startswith("agree")
-    assert math.isnan(mf.consensus_melting_point_K({"a": 1000.0, "b": 1020.0}, tolerance_K=5.0)[0])
-
-
-# -------------------------------------------------------------- name and screen
-
-
-@pytest.mark.parametrize("name, formula", [
-    ("sodium sulphate", "Na2SO4"),
-    ("ferric chloride", "FeCl3"),
-    ("iron(III) chloride", "FeCl3"),
-    ("caesium iodide", "CsI"),
-    ("aluminium oxide", "Al2O3"),
-    ("barium titanate", "BaTiO3"),
-    ("1-ethyl-3-methylimidazolium tetrafluoroborate", "[C2mim][BF4]"),
-    ("tetrabutylammonium bromide", "[N4444]Br"),
-])
-def test_names_that_agree_with_the_formula(name, formula):
-    assert mf.name_agrees_with_ions(name, _dec(formula)) == (True, "")
-
-
-@pytest.mark.parametrize("name, formula", [
-    ("potassium chloride", "NaCl"),
-    ("sodium nitrate", "NaNO2"),
-    ("1,2-dimethylpyridinium iodide", "[C2py]I"),  # an isomer: the formula cannot tell
-    ("", "NaCl"),
-])
-def test_names_that_do_not_agree(name, formula):
-    assert mf.name_agrees_with_ions(name, _dec(formula))[0] is False
-
-
-@pytest.mark.parametrize("formula, name, reason", [
-    ("CuSO4.5H2O", "copper sulfate pentahydrate", "hydrate"),
-    ("NaCl", "sodium chloride hydrate", "hydrate"),
-    ("HCl", "hydrochloric acid", "not a salt"),
-    ("SiO2", "silica", "not a salt"),
-    ("Fe0.95O", "wustite", "fractional"),
-    ("Al4C3", "aluminium carbide", "not a salt"),
-])
-def test_screen_refuses_what_is_not_an_anhydrous_simple_salt(formula, name, reason):
-    kept, why = mf.screen_salt(_dec(formula), name)
-    assert not kept and reason in why
-
-
-def test_screen_keeps_a_plain_salt():
-    assert mf.screen_salt(_dec("K2SO4"), "potassium sulfate") == (True, "")
-    assert mf.screen_salt(_dec("CuCl"), "cuprous chloride") == (True, "")  # Cu+ is common
-    assert mf.screen_salt(_dec("Nd2S3"), "neodymium sulfide (Nd2S3)") == (True, "")
-
-
-@pytest.mark.parametrize("formula, name, reason", [
-    # identifier formulas that lost their counts read only through odd +1 states
-    ("BaOZr", "barium zirconate", "uncommon oxidation state Ba(+)"),
-    # the name writes the real formula in brackets
-    ("NdS", "neodymium sulfide (Nd2S3)", "another formula"),
-])
-def test_screen_catches_broken_identifier_formulas(formula, name, reason):
-    kept, why = mf.screen_salt(_dec(formula), name)
-    assert not kept and reason in why
-
-
-def test_groups_for_cross_validation():
-    assert mf.anion_family(_dec("NaCl")) == "halide"
-    assert mf.anion_family(_dec("MgO")) == "oxide"
-    assert mf.anion_family(_dec("ZnS")) == "chalcogenide"
-    assert mf.anion_family(_dec("KNO3")) == "nitrate"
-    assert mf.anion_family(_dec("[C2mim][BF4]")) == "halo-complex"
-    assert mf.cation_element(_dec("Fe2(SO4)3")) == "Fe"
-    assert mf.cation_element(_dec("(NH4)2SO4")) == "NH4"
-    assert mf.cation_element(_dec("[C4mim]Cl")) == "organic"
-
-
-# ---------------------------------------------------------------- user tables
-
-
-def test_user_table_is_screened_and_logged(tmp_path):
-    path = tmp_path / "mine.csv"
-    path.write_text(
-        "formula,mp_K\n"
-        "NaCl,1074\n"          # CRC Handbook, from memory
-        "NaCl,1075\n"          # a duplicate that agrees
-        "KCl,771\n"            # 771 C typed as K: still in range, kept as given
-        "KBr,734 C\n"          # not a number
-        "CsCl,-5\n"            # out of range
-        "CuSO4.5H2O,383\n"     # hydrate
-        "SiO2,1986\n"          # not a salt
-        "Qq2O,900\n",          # unreadable formula
-        encoding="utf-8",
-    )
-    data = mf.read_user_table(path)
-    kept = {r["formula_normalized"]: r["mp_K"] for r in data.rows}
-    assert kept == {"NaCl": 1074.5, "KCl": 771.0}
-    reasons = " | ".join(d["reason"] for d in data.decisions)
-    for word in ("not a number", "outside 1-5000 K", "hydrate", "not a salt", "formula not parsed", "duplicate"):
-        assert word in reasons
-    assert len(data.decisions) == 8
-
-
-def test_user_table_needs_its_columns(tmp_path):
-    from ionicity.pipelines.io import InputError
-
-    path = tmp_path / "bad.csv"
-    path.write_text("compound,T\nNaCl,1074\n", encoding="utf-8")
-    with pytest.raises(InputError, match="no column 'formula'"):
-        mf.read_user_table(path)
-    with pytest.raises(InputError, match="no melting-point column"):
-        mf.read_user_table(path, formula_col="compound")
-    assert mf.read_user_table(path, formula_col="compound", mp_col="T").rows[0]["mp_K"] == 1074.0
-
-
-def test_combining_lets_the_user_value_win(tmp_path):
-    open_set = mf.TrainingSet(rows=[{"formula": "ClNa", "formula_normalized": "NaCl", "mp_K": 1070.0,
-                                     "origin": "chemicals", "anion_family": "halide", "cation_element": "Na"}],
-                              decisions=[])
-    path = tmp_path / "mine.csv"
-    path.write_text("formula,mp_K\nNaCl,1074\n", encoding="utf-8")
-    both = mf.combine_training_sets(open_set, mf.read_user_table(path))
-    assert [r["mp_K"] for r in both.rows] == [1074.0]
-    assert any("replaced by user table" in d["reason"] for d in both.decisions)
-
-
-# ----------------------------------------------------------- the fixture data
-
-
-def test_fixture_has_provenance_on_every_row():
-    frame = pd.read_csv(FIXTURE)
-    assert len(frame) == 140  # datasets/melting/README.md gives the same count
-    assert frame["source"].str.startswith("Wikidata (CC0 1.0)").all()
-    assert frame["mp_K"].between(1, 5000).all()
-    assert frame["formula_normalized"].is_unique
 
 
 # ------------------------------------------------------------- CV and conformal
@@ -269,7 +112,7 @@ def fitted(tmp_path_factory):
     mf.make_melting_pipeline = quick
     try:
         parser = argparse.ArgumentParser()
-        mf.add_fit_melting_parser(parser.add_subparsers(dest="command"))
+        add_fit_melting_parser(parser.add_subparsers(dest="command"))
         args = parser.parse_args(["fit-melting", "-o", str(out), "--no-open-data", "--table", str(FIXTURE), "--quiet"])
         code = mf.run_fit_melting(args)
     finally:
@@ -297,7 +140,7 @@ def test_fit_writes_every_output(fitted, capsys):
 def test_fit_refuses_to_overwrite(fitted, capsys):
     _, out = fitted
     parser = argparse.ArgumentParser()
-    mf.add_fit_melting_parser(parser.add_subparsers(dest="command"))
+    add_fit_melting_parser(parser.add_subparsers(dest="command"))
     args = parser.parse_args(["fit-melting", "-o", str(out), "--no-open-data", "--table", str(FIXTURE), "--quiet"])
     assert mf.run_fit_melting(args) == 2
     assert "--overwrite" in capsys.readouterr().err
@@ -309,8 +152,8 @@ def test_saved_model_loads_and_applies(fitted):
     model = load_model(out / "melting_model.json")
     from ionicity.scorer import score_formula
 
-    records = [mf.score_for_melting(f) for f in ("NaCl", "MgO", "CCl4", "[C4mim][NTf2]")]
-    applied = melting_model.apply_model_to_records(records, model)
+    formulas = ("NaCl", "MgO", "CCl4", "[C4mim][NTf2]")
+    applied = melting_model.apply_model_to_records(formulas, model)
     nacl, mgo, ccl4, il = applied
     assert 300 < nacl["mp_predicted_K"] < 3000
     assert nacl["mp_interval_low_K"] < nacl["mp_predicted_K"] < nacl["mp_interval_high_K"]
@@ -318,7 +161,7 @@ def test_saved_model_loads_and_applies(fitted):
     assert math.isnan(ccl4["mp_predicted_K"])  # molecular: no prediction
     # no ionic liquid in the fixture: outside the training domain, so a warning
     assert il["status"] == "warning" and "outside the training domain" in il["message"]
-    assert records[0] is not applied[0] and "mp_predicted_K" not in records[0]  # inputs untouched
+    assert "mp_predicted_K" not in score_formula("NaCl")  # the cached record is untouched
     assert set(score_formula("NaCl")) <= set(nacl)
 
 
@@ -326,11 +169,20 @@ def test_saved_model_loads_and_applies(fitted):
 def test_apply_model_to_frame_keeps_rows_and_order(fitted):
     _, out = fitted
     model = load_model(out / "melting_model.json")
-    records = [mf.score_for_melting(f) for f in ("KCl", "Xx", "KCl")]
-    frame = pd.DataFrame(records)
+    from ionicity.scorer import score_formula
+
+    formulas = ["KCl", "Xx", "KCl", "[C4mim][NTf2]"]
+    frame = pd.DataFrame([{"formula": f, **score_formula(f)} for f in formulas], index=[10, 11, 12, 13])
     result = apply_model_to_frame(frame, model)
-    assert len(result) == 3 and result["mp_predicted_K"].iloc[0] == result["mp_predicted_K"].iloc[2]
+    assert len(result) == 4 and list(result.index) == [10, 11, 12, 13]
+    assert result["mp_predicted_K"].iloc[0] == result["mp_predicted_K"].iloc[2]
     assert math.isnan(result["mp_predicted_K"].iloc[1])
+    # the same values and verdict as the records API
+    il = melting_model.apply_model_to_records(["[C4mim][NTf2]"], model)[0]
+    assert result["mp_predicted_K"].iloc[3] == il["mp_predicted_K"]
+    assert result["status"].iloc[3] == il["status"] == "warning"
+    with pytest.raises(ValueError, match="no column 'formula_text'"):
+        apply_model_to_frame(frame, model, formula_column="formula_text")
 
 
 def test_loading_a_pickle_is_refused_with_a_clear_error(tmp_path):
@@ -376,7 +228,7 @@ def test_fit_melting_says_what_to_install_without_the_extra(monkeypatch, tmp_pat
 
     monkeypatch.setitem(sys.modules, "chemicals", None)  # import chemicals now raises ImportError
     parser = argparse.ArgumentParser()
-    mf.add_fit_melting_parser(parser.add_subparsers(dest="command"))
+    add_fit_melting_parser(parser.add_subparsers(dest="command"))
     args = parser.parse_args(["fit-melting", "-o", str(tmp_path / "out"), "--quiet"])
     assert mf.run_fit_melting(args) == 2
     err = capsys.readouterr().err
@@ -396,35 +248,6 @@ def test_scoring_does_not_import_the_extra():
     assert result.stdout.strip() == "molten_salt"
 
 
-# ------------------------------------------------------- the open training set
-
-
-@needs_extra
-def test_open_builder_on_a_few_cas_numbers():
-    # NaCl, KCl, Na2SO4 and [C2mim][BF4] are salts; CuSO4.5H2O is a hydrate; water is no salt
-    cas = ["7647-14-5", "7447-40-7", "7757-82-6", "143314-16-3", "7758-99-8", "7732-18-5"]
-    data = mf.build_open_training_set(cas_numbers=cas)
-    kept = {r["formula_normalized"]: r for r in data.rows}
-    assert {"NaCl", "KCl", "Na2SO4"} <= set(kept)
-    # NaCl 1074 K (CRC Handbook, from memory): the consensus of the package's sources is close
-    assert kept["NaCl"]["mp_K"] == pytest.approx(1074, abs=5)
-    assert all(r["origin"].startswith("chemicals") for r in data.rows)
-    logged = {d["cas"] for d in data.decisions}
-    assert set(cas) <= logged  # every CAS number looked at has a decision
-    assert not any(d["kept"] for d in data.decisions if d["cas"] in ("7758-99-8", "7732-18-5"))
-
-
-@needs_extra
-@pytest.mark.slow
-def test_trend_index_ranks_the_open_training_set():
-    # the issue's bar: Spearman rho >= 0.75 against the set fit-melting builds
-    data = mf.build_open_training_set()
-    _, records = mf.feature_matrix(data.rows)
-    report = mf.trend_index_report(data.rows, records)
-    assert report["overall"]["n"] > 400
-    assert report["overall"]["spearman_rho"] >= 0.75
-
-
 @needs_extra
 def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsys):
     from ionicity.pipelines.cli import main
@@ -436,8 +259,6 @@ def test_score_with_mp_model_adds_the_prediction_columns(fitted, tmp_path, capsy
     code = main(["score", str(source), "-o", str(target), "--mp-model", str(out / "melting_model.json")])
     assert code == 0
     assert "safety data sheet" in capsys.readouterr().err
-    import pandas as pd
-
     table = pd.read_csv(target, dtype=str, keep_default_na=False)
     assert table["label"].tolist() == ["a", "b", "c", "d", "e"]
     for name in ("mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"):

@@ -23,7 +23,7 @@ COLUMNS = ("formula", "formula_normalized", "mp_K", "cas", "name", "anion_family
 
 def build_text() -> str:
     sys.path.insert(0, str(HERE.parents[1]))
-    from ionicity.pipelines.melting_fit import build_open_training_set
+    from ionicity.pipelines.melting_data import build_open_training_set
 
     data = build_open_training_set(sources=("WIKIDATA",))
     source = f"Wikidata (CC0 1.0) via the WIKIDATA melting-point table of {data.info['chemicals_version'].join(('chemicals ', ''))}"

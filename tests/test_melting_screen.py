@@ -1,0 +1,109 @@
+"""Tests for pipelines.melting_screen: the consensus of sources, the name check, the salt screen, the CV groups."""
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from ionicity.pipelines import melting_screen
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
+
+
+def _dec(formula: str):
+    return decompose(parse_formula(formula))
+
+
+# ------------------------------------------------------------------ consensus
+
+
+def test_consensus_keeps_agreeing_sources_and_the_majority():
+    assert melting_screen.consensus_melting_point_K({"a": 1074.0, "b": 1074.2, "c": 1073.0})[0] == 1074.0
+    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1010.0, "c": 1400.0})
+    assert value == 1005.0 and how.startswith("consensus (2 of 3")
+
+
+def test_consensus_drops_disagreement_and_records_why():
+    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1100.0})
+    assert math.isnan(value) and how.startswith("disagree")
+    value, how = melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1100.0, "c": 1300.0, "d": 1500.0})
+    assert math.isnan(value)
+
+
+def test_consensus_edge_cases():
+    assert melting_screen.consensus_melting_point_K({}) == (math.nan, "no value") or math.isnan(melting_screen.consensus_melting_point_K({})[0])
+    assert melting_screen.consensus_melting_point_K({"a": 500.0, "b": float("nan")})[1].startswith("single")
+    # exactly the tolerance apart still agrees; the tolerance is a parameter
+    assert melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1020.0})[1].startswith("agree")
+    assert math.isnan(melting_screen.consensus_melting_point_K({"a": 1000.0, "b": 1020.0}, tolerance_K=5.0)[0])
+
+
+# -------------------------------------------------------------- name and screen
+
+
+@pytest.mark.parametrize("name, formula", [
+    ("sodium sulphate", "Na2SO4"),
+    ("ferric chloride", "FeCl3"),
+    ("iron(III) chloride", "FeCl3"),
+    ("caesium iodide", "CsI"),
+    ("aluminium oxide", "Al2O3"),
+    ("barium titanate", "BaTiO3"),
+    ("1-ethyl-3-methylimidazolium tetrafluoroborate", "[C2mim][BF4]"),
+    ("tetrabutylammonium bromide", "[N4444]Br"),
+])
+def test_names_that_agree_with_the_formula(name, formula):
+    assert melting_screen.name_agrees_with_ions(name, _dec(formula)) == (True, "")
+
+
+@pytest.mark.parametrize("name, formula", [
+    ("potassium chloride", "NaCl"),
+    ("sodium nitrate", "NaNO2"),
+    ("1,2-dimethylpyridinium iodide", "[C2py]I"),  # an isomer: the formula cannot tell
+    ("", "NaCl"),
+])
+def test_names_that_do_not_agree(name, formula):
+    assert melting_screen.name_agrees_with_ions(name, _dec(formula))[0] is False
+
+
+@pytest.mark.parametrize("formula, name, reason", [
+    ("CuSO4.5H2O", "copper sulfate pentahydrate", "hydrate"),
+    ("NaCl", "sodium chloride hydrate", "hydrate"),
+    ("HCl", "hydrochloric acid", "not a salt"),
+    ("SiO2", "silica", "not a salt"),
+    ("Fe0.95O", "wustite", "fractional"),
+    ("Al4C3", "aluminium carbide", "not a salt"),
+])
+def test_screen_refuses_what_is_not_an_anhydrous_simple_salt(formula, name, reason):
+    kept, why = melting_screen.screen_salt(_dec(formula), name)
+    assert not kept and reason in why
+
+
+def test_screen_keeps_a_plain_salt():
+    assert melting_screen.screen_salt(_dec("K2SO4"), "potassium sulfate") == (True, "")
+    assert melting_screen.screen_salt(_dec("CuCl"), "cuprous chloride") == (True, "")  # Cu+ is common
+    assert melting_screen.screen_salt(_dec("Nd2S3"), "neodymium sulfide (Nd2S3)") == (True, "")
+
+
+@pytest.mark.parametrize("formula, name, reason", [
+    # identifier formulas that lost their counts read only through odd +1 states
+    ("BaOZr", "barium zirconate", "uncommon oxidation state Ba(+)"),
+    # the name writes the real formula in brackets
+    ("NdS", "neodymium sulfide (Nd2S3)", "another formula"),
+    # nitrosyl and nitryl halides are molecules (NOCl boils at -6 C; CRC Handbook, from memory)
+    ("NOCl", "nitrosyl chloride", "molecular oxocation NO(+)"),
+    ("NO2F", "nitryl fluoride", "molecular oxocation NO2(+)"),
+])
+def test_screen_catches_broken_identifier_formulas(formula, name, reason):
+    kept, why = melting_screen.screen_salt(_dec(formula), name)
+    assert not kept and reason in why
+
+
+def test_groups_for_cross_validation():
+    assert melting_screen.anion_family(_dec("NaCl")) == "halide"
+    assert melting_screen.anion_family(_dec("MgO")) == "oxide"
+    assert melting_screen.anion_family(_dec("ZnS")) == "chalcogenide"
+    assert melting_screen.anion_family(_dec("KNO3")) == "nitrate"
+    assert melting_screen.anion_family(_dec("[C2mim][BF4]")) == "halo-complex"
+    assert melting_screen.cation_element(_dec("Fe2(SO4)3")) == "Fe"
+    assert melting_screen.cation_element(_dec("(NH4)2SO4")) == "NH4"
+    assert melting_screen.cation_element(_dec("[C4mim]Cl")) == "organic"
