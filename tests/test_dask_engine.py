@@ -21,9 +21,10 @@ else:
     pytest.importorskip("dask.dataframe")
     distributed = pytest.importorskip("distributed")
 
-from ionicity.pipelines.batch import ScoreConfig, score_file  # noqa: E402
+from ionicity.pipelines.config import ScoreConfig  # noqa: E402
 from ionicity.pipelines.cli import main  # noqa: E402
-from ionicity.pipelines.io import InputError  # noqa: E402
+from ionicity.pipelines.errors import InputError  # noqa: E402
+from ionicity.pipelines.run import score_file  # noqa: E402
 
 FORMULAS = ["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3", "Xx2O", "", "Na₂SO₄", "ÅÅ", "MgO", None]
 
