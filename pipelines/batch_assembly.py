@@ -33,10 +33,12 @@ def score_batch(
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
-    ``schema`` is :func:`output_schema` of the batch's schema (it names the
-    generated columns, prefix included). ``ticket`` is what
-    :meth:`BatchScorer.submit` returned for this batch, when its formulas
-    were sent for scoring ahead of time.
+    ``schema`` is :func:`ionicity.pipelines.schema.output_schema` of the
+    batch's schema (it names the generated columns, prefix included).
+    ``scorer`` is the run's :class:`~ionicity.pipelines.scheduler.BatchScorer`,
+    or a cache to score into (in-process), or ``None`` for a cache of this
+    batch alone. ``ticket`` is what :meth:`BatchScorer.submit` returned for
+    this batch, when its formulas were sent for scoring ahead of time.
     """
     if not isinstance(scorer, BatchScorer):
         # no scorer: one for this batch alone (a cache, when given, is kept)

@@ -296,7 +296,8 @@ def main(argv: list[str] | None = None) -> int:
                         help="rows of the random sample the per-row baseline is timed on (default: 2000)")
     parser.add_argument("--memory-scaling", action="store_true",
                         help="score N and 10 N rows and print both peak RSS figures and their ratio")
-    parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring")
+    parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring, to set PARALLEL_MIN_NEW"
+                             " in pipelines/scheduler.py")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
     args = parser.parse_args(argv)

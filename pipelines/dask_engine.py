@@ -13,9 +13,9 @@ engine. Each worker loads the scorer's data tables once, when it joins
 of the run it handles; the plugin, and with it the cache, is removed when
 the run ends.
 
-Dask and distributed are imported only when this engine runs (about 0.9 s,
-``python -X importtime``), so the local engine never pays for them; install
-them with ``pip install ionicity[dask]``.
+Dask and distributed are imported only when this engine runs (0.9 to 1.8 s,
+``python -X importtime``, on the shared machine), so the local engine never
+pays for them; install them with ``pip install ionicity[dask]``.
 """
 from __future__ import annotations
 
@@ -47,7 +47,7 @@ def _worker_cache() -> FormulaCache:
     outside a worker of a run, a cache for this partition alone."""
     try:
         # loaded already inside a Dask task; at module level it would cost
-        # every local run about 0.9 s (python -X importtime)
+        # every local run 0.9 to 1.8 s (python -X importtime)
         from distributed import get_worker
 
         plugin = get_worker().plugins.get(_PLUGIN)
@@ -74,7 +74,7 @@ def _partition_stats(frame, formula_col: str, status_name: str):
     """Status counts and the 64-bit hashes of the distinct non-empty formulas of
     one scored partition, as a small frame (no shuffle needed to combine them)."""
     # runs in a Dask worker, where pandas is loaded already; importing it with
-    # this module would cost every local run about 0.23 s (python -X importtime)
+    # this module would cost every local run 0.23 to 0.38 s (python -X importtime)
     import pandas as pd
 
     counts = frame[status_name].value_counts()
@@ -105,7 +105,7 @@ def _warm_up_plugin(distributed):
 
 
 def _import_dask():
-    # about 0.9 s (python -X importtime): only when this engine runs
+    # 0.9 to 1.8 s (python -X importtime): only when this engine runs
     try:
         import dask
         import dask.dataframe as dd

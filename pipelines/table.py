@@ -31,6 +31,8 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
     --------
     ionicity.pipelines.score_file : the same columns, streamed from file to file.
 
+    Examples
+    --------
     >>> import pandas as pd
     >>> out = score_table(pd.DataFrame({"formula": ["NaCl", "Xx2O", "NaCl"]}))
     >>> out["status"].tolist()
