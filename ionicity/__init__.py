@@ -40,12 +40,12 @@ __version__ = "0.1.0"
 
 _LAZY = {
     "FormulaDescriptors": "ionicity.pipelines.transformer",
-    "InputError": "ionicity.pipelines.io",
-    "ScoreConfig": "ionicity.pipelines.batch",
-    "Summary": "ionicity.pipelines.batch",
+    "InputError": "ionicity.pipelines.errors",
+    "ScoreConfig": "ionicity.pipelines.config",
+    "Summary": "ionicity.pipelines.config",
     "explain": ("ionicity.pipelines.explain", "explain_formula"),
-    "score_file": "ionicity.pipelines.batch",
-    "score_table": "ionicity.pipelines.batch",
+    "score_file": "ionicity.pipelines.run",
+    "score_table": "ionicity.pipelines.table",
 }
 
 

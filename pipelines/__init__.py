@@ -2,9 +2,9 @@
 
 ``score_table`` scores a pandas DataFrame; ``score_file`` streams a CSV, TSV
 or Parquet file (or a folder of Parquet parts) into another. Both add the
-columns of ``scorer.columns.output_columns()``.
+columns of ``ionicity.scorer.columns.output_columns()``.
 
-Names are imported on first use, so ``import pipelines`` (and each worker
+Names are imported on first use, so ``import ionicity.pipelines`` (and each worker
 process) does not pay for pyarrow until it is needed.
 """
 from __future__ import annotations
@@ -14,11 +14,11 @@ import importlib
 __all__ = ["ScoreConfig", "Summary", "InputError", "score_file", "score_table"]
 
 _HOMES = {
-    "ScoreConfig": "ionicity.pipelines.batch",
-    "Summary": "ionicity.pipelines.batch",
-    "score_file": "ionicity.pipelines.batch",
-    "score_table": "ionicity.pipelines.batch",
-    "InputError": "ionicity.pipelines.io",
+    "ScoreConfig": "ionicity.pipelines.config",
+    "Summary": "ionicity.pipelines.config",
+    "score_file": "ionicity.pipelines.run",
+    "score_table": "ionicity.pipelines.table",
+    "InputError": "ionicity.pipelines.errors",
 }
 
 

@@ -28,11 +28,12 @@ resident set of the score process or any of its workers, from ``wait4``).
 ``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
 D) and prints both peak RSS figures and their ratio. ``--calibrate`` times
 in-process against pooled scoring of fresh distinct formulas, to set
-:data:`pipelines.batch.PARALLEL_MIN_NEW`.
+:data:`ionicity.pipelines.scheduler.PARALLEL_MIN_NEW`.
 """
 from __future__ import annotations
 
 import argparse
+import compileall
 import os
 import random
 import statistics
@@ -41,6 +42,17 @@ import sys
 import tempfile
 import time
 from math import gcd
+
+import numpy as np
+import pandas as pd
+import pyarrow as pa
+import pyarrow.csv as pacsv
+import pyarrow.parquet as pq
+
+from ionicity.pipelines.formula_cache import FormulaCache
+from ionicity.pipelines.scheduler import BatchScorer
+from ionicity.scorer.caching import clear_all, registered
+from ionicity.scorer.record import score_formula
 
 __all__ = ["realistic_formulas", "write_table", "main"]
 
@@ -138,10 +150,6 @@ def write_table(path: str, rows: int, distinct: int, seed: int = 7, chunk_rows: 
     (.parquet, .csv or .tsv): ``sample_id`` (int64), ``formula`` (every one of
     ``distinct`` formulas at least once), ``lot`` (text with Unicode, some
     empty) and ``mass_g`` (float64, some null)."""
-    import numpy as np
-    import pyarrow as pa
-    import pyarrow.csv as pacsv
-    import pyarrow.parquet as pq
 
     if distinct > rows:
         raise ValueError("--distinct cannot exceed --rows")
@@ -221,13 +229,6 @@ def measure_score(path: str, workdir: str, workers: int | None = None) -> tuple[
 
 def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> tuple[float, int, list[str]]:
     """Seconds per row of an uncached pandas apply, on a random sample."""
-    import numpy as np
-    import pandas as pd
-    import pyarrow.parquet as pq
-    import pyarrow.csv as pacsv
-
-    from ionicity.scorer.caching import clear_all, registered
-    from ionicity.scorer.record import score_formula
 
     table = pq.read_table(path, columns=["formula"]) if path.endswith(".parquet") else pacsv.read_csv(
         path, convert_options=pacsv.ConvertOptions(include_columns=["formula"], column_types={"formula": "string"}))
@@ -250,8 +251,6 @@ def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> t
 
 def calibrate(sizes=(32, 64, 128, 256, 512, 1024, 2048), workers: int | None = None) -> list[tuple[int, float, float]]:
     """Seconds to score ``n`` fresh distinct formulas in-process and in a warm pool."""
-    from ionicity.pipelines.batch import BatchScorer, FormulaCache
-
     pool_formulas = realistic_formulas(sum(sizes) * 2, seed=3)
     results = []
     with BatchScorer(workers, cache=FormulaCache(), parallel_min_new=1) as pooled:
@@ -275,8 +274,6 @@ def byte_compile() -> bool:
     installed package. Run from a source checkout where bytecode is not
     written (``PYTHONDONTWRITEBYTECODE``), every measured process would
     otherwise compile them again, which no installed copy does."""
-    import compileall
-
     root = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
     return all(compileall.compile_dir(os.path.join(root, package), quiet=1) for package in ("scorer", "pipelines"))
 
@@ -299,7 +296,8 @@ def main(argv: list[str] | None = None) -> int:
                         help="rows of the random sample the per-row baseline is timed on (default: 2000)")
     parser.add_argument("--memory-scaling", action="store_true",
                         help="score N and 10 N rows and print both peak RSS figures and their ratio")
-    parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring")
+    parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring, to set PARALLEL_MIN_NEW"
+                             " in pipelines/scheduler.py")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
     args = parser.parse_args(argv)

@@ -12,7 +12,15 @@ from __future__ import annotations
 
 import argparse
 import os
+import signal
 import sys
+import threading
+
+from ionicity.pipelines.config import ScoreConfig
+from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.explain import columns_table, explain_formula
+from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
+from ionicity.pipelines.pool import default_workers, discard_prestarted, leave_process, prestart
 
 EXIT_OK = 0
 EXIT_STRICT_ERRORS = 1
@@ -80,8 +88,6 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
-    from ionicity.pipelines.melting_cli import add_fit_melting_parser
-
     add_fit_melting_parser(sub)
     return parser
 
@@ -99,6 +105,7 @@ def _choose_memory_pool() -> None:
     caller's process alone."""
     if os.environ.get("ARROW_DEFAULT_MEMORY_POOL"):
         return
+    # loaded by the engine's import in _run_score already (pyarrow alone: about 60 ms, python -X importtime)
     import pyarrow as pa
 
     try:
@@ -108,7 +115,8 @@ def _choose_memory_pool() -> None:
 
 
 def _run_score(args) -> int:
-    from ionicity.pipelines.batch import ScoreConfig, score_file
+    # the engine and pyarrow cost about 0.17 s (python -X importtime): the prestart must not wait for them
+    from ionicity.pipelines.run import score_file
 
     if args.engine == "local":
         _choose_memory_pool()
@@ -129,8 +137,6 @@ def _run_score(args) -> int:
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:
-        from ionicity.pipelines.melting_cli import CAUTION
-
         print(CAUTION, file=sys.stderr)
     if not args.quiet:
         print(summary, file=sys.stderr)
@@ -140,24 +146,17 @@ def _run_score(args) -> int:
 
 
 def _run_explain(args) -> int:
-    from ionicity.pipelines.explain import explain_formula
-
     print(explain_formula(args.formula))
     return EXIT_OK
 
 
 def _run_columns(args) -> int:
-    from ionicity.pipelines.explain import columns_table
-
     print(columns_table(args.format))
     return EXIT_OK
 
 
 def _interrupt_on_sigterm() -> None:
     """Turn SIGTERM into KeyboardInterrupt so a terminated run cleans up as Ctrl-C does."""
-    import signal
-    import threading
-
     if threading.current_thread() is not threading.main_thread():
         return
 
@@ -183,8 +182,6 @@ def _prestart_workers(args) -> None:
     except (OSError, ValueError, TypeError):
         large = False
     if large:
-        from ionicity.pipelines._workers import default_workers, prestart
-
         workers = args.workers or default_workers()
         if workers >= 2:
             prestart(workers)
@@ -203,8 +200,6 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _stop_prestarted_workers() -> None:
-    from ionicity.pipelines._workers import discard_prestarted
-
     try:
         discard_prestarted()
     except KeyboardInterrupt:  # a second Ctrl-C: leave now
@@ -220,14 +215,13 @@ def _interrupted(args) -> int:
 
 
 def _dispatch(args) -> int:
-    from ionicity.pipelines.io import InputError
-
     try:
         if args.command == "score":
             return _run_score(args)
         if args.command == "explain":
             return _run_explain(args)
         if args.command == "fit-melting":
+            # about 12 ms (python -X importtime) that a scoring run need not pay
             from ionicity.pipelines.melting_fit import run_fit_melting
 
             return run_fit_melting(args)
@@ -248,13 +242,5 @@ def _dispatch(args) -> int:
 
 def entry_point() -> None:
     _interrupt_on_sigterm()
-    code = main()
-    try:
-        sys.stdout.flush()
-        sys.stderr.flush()
-    except (OSError, ValueError):
-        sys.exit(code)
-    # The output is written, synced and closed, and the workers have stopped:
-    # leave without the interpreter's teardown, which frees a large run's
-    # objects one by one (about 0.1 s) and has nothing left to save.
-    os._exit(code)
+    # the output is written, synced and closed, and the workers have stopped
+    leave_process(main())

@@ -16,11 +16,13 @@ import codecs
 import glob
 import io
 import os
+import queue
 import re
 import secrets
 import shutil
 import socket
 import sys
+import threading
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Callable, Iterator
@@ -28,6 +30,8 @@ from typing import Callable, Iterator
 import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
+
+from ionicity.pipelines.errors import InputError
 
 __all__ = [
     "InputError",
@@ -51,10 +55,6 @@ _HEADER_BLOCK = 1 << 18
 _PARTIAL_PREFIX = ".ionicity-"
 _PARTIAL_SUFFIX = ".partial"
 _PARTIAL_RE = re.compile(r"^\.ionicity-(\d+)@([A-Za-z0-9-]+)\.[0-9a-f]{8}\.partial$")
-
-
-class InputError(ValueError):
-    """Unusable input or options; the message is one line meant for a person."""
 
 
 def format_of(path: str) -> str:
@@ -515,9 +515,6 @@ class TableWriter:
             self.abort()
             raise
         if background:
-            import queue
-            import threading
-
             self._queue = queue.Queue(maxsize=4)
             self._thread = threading.Thread(target=self._drain, name="ionicity-writer", daemon=True)
             self._thread.start()

@@ -1,4 +1,5 @@
-"""ionicity.pipelines.batch: the local engine.
+"""The local engine: ionicity.pipelines.scheduler, formula_cache, batch_assembly,
+local_engine, table, config and pool.
 
 Invariants checked against the input itself (an external reference for
 "nothing changed"): every input column hashes the same before and after, row
@@ -17,18 +18,18 @@ import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 import pytest
 
-import ionicity.pipelines._pool as pool_module
-from ionicity.pipelines.batch import (
-    BatchScorer,
-    FormulaCache,
-    ScoreConfig,
-    output_schema,
-    score_batch,
-    score_file,
-    score_table,
-)
+import ionicity.pipelines.pool as pool_module
+from ionicity.pipelines.arrow_columns import values_array
+from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.bench import realistic_formulas, write_table
-from ionicity.pipelines.io import InputError
+from ionicity.pipelines.config import ScoreConfig
+from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.formula_cache import FormulaCache
+from ionicity.pipelines.pool import WorkerPool
+from ionicity.pipelines.run import score_file
+from ionicity.pipelines.scheduler import BatchScorer
+from ionicity.pipelines.schema import output_schema
+from ionicity.pipelines.table import score_table
 from ionicity.scorer.columns import column_names, output_columns
 from ionicity.scorer.record import score_formula
 
@@ -119,7 +120,7 @@ def test_a_dictionary_column_scores_only_the_entries_its_rows_use(monkeypatch):
     # dictionary; entries no row of the batch holds wait for their own batch.
     calls = []
     real = pool_module.score_values
-    monkeypatch.setattr("ionicity.pipelines.batch.score_values", lambda texts: calls.extend(texts) or real(texts))
+    monkeypatch.setattr("ionicity.pipelines.scheduler.score_values", lambda texts: calls.extend(texts) or real(texts))
     dictionary = pa.array(["NaCl", "KCl", "MgO", "CaF2"])
     column = pa.DictionaryArray.from_arrays(pa.array([1, None, 1, 3], pa.int32()), dictionary)
     batch = pa.record_batch({"formula": column})
@@ -142,7 +143,7 @@ def test_each_distinct_formula_is_scored_once(monkeypatch):
         calls.extend(texts)
         return real(texts)
 
-    monkeypatch.setattr("ionicity.pipelines.batch.score_values", counting)
+    monkeypatch.setattr("ionicity.pipelines.scheduler.score_values", counting)
     table = pa.table({"formula": ["NaCl", "KCl", "NaCl", None, "KCl", "MgO"] * 50})
     schema = output_schema(table.schema)
     scorer = BatchScorer(1, cache=FormulaCache())
@@ -184,7 +185,6 @@ def test_a_scorer_bug_marks_the_row_and_the_run_goes_on(monkeypatch):
         return real(text)
 
     monkeypatch.setattr(pool_module, "score_row", flaky)
-    monkeypatch.setattr("ionicity.pipelines.batch._PROCESS_CACHE", FormulaCache())
     out = score_table(pd.DataFrame({"formula": ["NaCl", "KCl"]}), workers=1)
     assert out["status"].tolist() == ["ok", "error"]
     assert "internal error" in out["message"][1] and "boom" in out["message"][1]
@@ -314,10 +314,8 @@ def test_batches_read_ahead_survive_a_full_cache():
 def test_cache_arrays_match_pyarrow_conversion(values, arrow_type):
     # The cache builds its arrays without pa.array (which imports pandas);
     # pyarrow's own conversion, with NaN read as null, is the reference.
-    from ionicity.pipelines.batch import _values_array
-
     expected = pa.array([None if v is None or v != v else v for v in values], type=arrow_type)
-    got = _values_array(values, arrow_type)
+    got = values_array(values, arrow_type)
     got.validate(full=True)
     assert got.equals(expected)
     assert got.null_count == expected.null_count
@@ -344,15 +342,10 @@ def test_a_run_does_not_import_pandas(tmp_path):
 def test_workers_start_warm_with_one_blas_thread_and_a_settled_collector():
     import gc
 
-    from ionicity.pipelines._workers import new_workers, stop_workers
-
-    workers = new_workers(1)
-    try:
-        assert workers[0].submit(gc.get_threshold).result(timeout=120) == (10_000, 50, 50)
-        assert workers[0].submit(gc.get_freeze_count).result(timeout=120) > 0
-        assert workers[0].submit(os.getenv, "OPENBLAS_NUM_THREADS").result(timeout=120) is not None
-    finally:
-        stop_workers(workers)
+    with WorkerPool(1) as workers:
+        assert workers.submit(0, gc.get_threshold).result(timeout=120) == (10_000, 50, 50)
+        assert workers.submit(0, gc.get_freeze_count).result(timeout=120) > 0
+        assert workers.submit(0, os.getenv, "OPENBLAS_NUM_THREADS").result(timeout=120) is not None
 
 
 def test_an_empty_batch_scores_to_an_empty_batch():
@@ -373,14 +366,139 @@ def test_stopping_workers_that_left_half_a_result_does_not_hang():
     import struct
     import threading
 
-    from ionicity.pipelines._workers import new_workers, stop_workers
-
-    workers = new_workers(1)
-    workers[0].submit(int).result(timeout=120)
-    writer = workers[0]._result_queue._writer
+    workers = WorkerPool(1)
+    workers.submit(0, int).result(timeout=120)
+    processes, writer = pool_module._executor_internals(workers._executors[0])
+    # on this CPython the shim finds the private parts it needs
+    assert len(processes) == 1 and processes[0].is_alive() and writer is not None
     os.write(writer.fileno(), struct.pack("!i", 1000) + b"x" * 10)  # says 1000 bytes, sends 10
     done = threading.Event()
-    threading.Thread(target=lambda: (stop_workers(workers, cancel=True), done.set()), daemon=True).start()
+    threading.Thread(target=lambda: (workers.stop(cancel=True), done.set()), daemon=True).start()
     if not done.wait(60):
         writer.close()  # let the process end, then fail
-        pytest.fail("stop_workers(cancel=True) hung on a half-sent result")
+        pytest.fail("WorkerPool.stop(cancel=True) hung on a half-sent result")
+
+
+class _ExecutorWithoutPrivates:
+    """An executor as a Python without CPython's private attributes would
+    have it: only the public ``shutdown``."""
+
+    def __init__(self):
+        self.shutdowns = []
+
+    def shutdown(self, wait=True, cancel_futures=False):
+        self.shutdowns.append((wait, cancel_futures))
+
+
+def test_the_private_attribute_shim_falls_back_when_they_are_missing():
+    executor = _ExecutorWithoutPrivates()
+    assert pool_module._executor_internals(executor) == ([], None)
+    # half-built internals (no processes yet, a queue without a writer)
+    executor._processes = None
+    executor._result_queue = object()
+    assert pool_module._executor_internals(executor) == ([], None)
+    pool_module._stop_executors([executor], cancel=True)
+    assert executor.shutdowns == [(True, True)]
+
+
+# --------------------------------------------------------------------------- a run owns its cache
+
+
+def _module_level_caches() -> list[str]:
+    import sys
+
+    found = []
+    for name, module in list(sys.modules.items()):
+        if name.startswith("ionicity") and module is not None:
+            for attribute, value in vars(module).items():
+                if isinstance(value, (FormulaCache, BatchScorer)):
+                    found.append(f"{name}.{attribute}")
+    return found
+
+
+@pytest.fixture
+def tracked_caches(monkeypatch):
+    """Weak references to every FormulaCache the engine makes while the test runs."""
+    import weakref
+
+    made = []
+
+    class Tracked(FormulaCache):
+        def __init__(self, *args, **kwargs):
+            super().__init__(*args, **kwargs)
+            made.append(weakref.ref(self))
+
+    monkeypatch.setattr("ionicity.pipelines.scheduler.FormulaCache", Tracked)
+    return made
+
+
+@pytest.mark.parametrize("api", ["score_file", "score_table"])
+def test_a_run_owns_its_cache_and_drops_it_when_it_returns(tmp_path, tracked_caches, api):
+    import gc
+
+    if api == "score_file":
+        src = tmp_path / "in.csv"
+        src.write_text("formula\nNaCl\nKCl\nNaCl\n")
+        score_file(str(src), str(tmp_path / "out.parquet"), quiet=True, workers=1)
+    else:
+        score_table(pd.DataFrame({"formula": ["NaCl", "KCl", "NaCl"]}))
+    gc.collect()
+    assert len(tracked_caches) == 1  # the run made its own cache...
+    assert tracked_caches[0]() is None  # ...and nothing keeps it after the run
+    assert _module_level_caches() == []
+
+
+def test_two_runs_do_not_share_scores(tmp_path, tracked_caches):
+    src = tmp_path / "in.csv"
+    src.write_text("formula\nNaCl\n")
+    first = score_file(str(src), str(tmp_path / "a.csv"), quiet=True, workers=1)
+    second = score_file(str(src), str(tmp_path / "b.csv"), quiet=True, workers=1)
+    assert len(tracked_caches) == 2 and first.distinct_formulas == second.distinct_formulas == 1
+
+
+# --------------------------------------------------------------------------- one verdict policy
+
+
+def test_failed_rows_are_named_by_the_verdict_policy_in_every_api(tmp_path, monkeypatch):
+    # Change the policy's suffix: files and DataFrames must both follow it,
+    # so neither engine keeps a copy of its own.
+    monkeypatch.setattr("ionicity.scorer.verdict.row_name_suffix", lambda name: f" [named {name}]")
+    src = tmp_path / "in.csv"
+    src.write_text("formula,name\nXx2O,bottle 7\nNaCl,bottle 8\n")
+    score_file(str(src), str(tmp_path / "out.parquet"), name_col="name", quiet=True, workers=1)
+    from_file = pq.read_table(tmp_path / "out.parquet").column("message").to_pylist()
+    frame = score_table(pd.DataFrame({"formula": ["Xx2O", "NaCl"], "name": ["bottle 7", "bottle 8"]}),
+                        name_col="name")
+    assert from_file[0].endswith(" [named bottle 7]") and "named" not in (from_file[1] or "")
+    assert frame["message"].tolist() == from_file
+
+
+# --------------------------------------------------------------------------- options
+
+
+@pytest.mark.parametrize("options, message", [
+    ({"engine": "spark"}, "--engine must be one of local, dask, not 'spark'"),
+    ({"workers": 0}, "--workers must be a whole number of at least 1 (or none given, for every core), not 0"),
+    ({"workers": 2.5}, "--workers must be a whole number of at least 1 (or none given, for every core), not 2.5"),
+    ({"workers": True}, "--workers must be a whole number of at least 1 (or none given, for every core), not True"),
+    ({"batch_rows": "100"}, "--batch-rows must be a positive whole number, not '100'"),
+    ({"batch_rows": -5}, "--batch-rows must be a positive whole number, not -5"),
+    ({"prefix": None}, "--prefix must be text (may be empty), not None"),
+    ({"formula_col": 3}, "--formula-col must be a column name, not 3"),
+    ({"scheduler": "tcp://x:1"}, "--scheduler 'tcp://x:1' needs --engine dask (the engine is 'local')"),
+])
+def test_config_validation_names_the_bad_value_and_what_is_allowed(options, message):
+    with pytest.raises(InputError) as caught:
+        ScoreConfig(input="a.csv", output="b.csv", **options).validate()
+    assert str(caught.value) == message
+
+
+def test_every_constraint_accepts_the_defaults_and_names_an_existing_option():
+    from dataclasses import fields
+
+    from ionicity.pipelines.config import CONSTRAINTS
+
+    config = ScoreConfig(input="a.csv", output="b.csv")
+    config.validate()
+    assert set(CONSTRAINTS) <= {f.name for f in fields(config)}
+    ScoreConfig(input="-", output="-", workers=3, batch_rows=1, engine="dask", scheduler="tcp://x:1").validate()

@@ -44,3 +44,13 @@ def test_bench_table_holds_every_distinct_formula(tmp_path):
     table = pq.read_table(path)
     assert table.num_rows == 5000
     assert len(set(table.column("formula").to_pylist())) == 700
+
+
+@pytest.mark.parametrize("module", ["ionicity.pipelines.bench", "pipelines.bench"])
+def test_the_bench_runs_under_both_names(module):
+    # `python -m pipelines.bench` from the repository root, as DEVELOPERS.md
+    # shows, and the installed name
+    result = subprocess.run([sys.executable, "-m", module, "--help"], capture_output=True, text=True, cwd=ROOT,
+                            timeout=120)
+    assert result.returncode == 0, result.stderr
+    assert "--calibrate" in result.stdout

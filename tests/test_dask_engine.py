@@ -21,9 +21,10 @@ else:
     pytest.importorskip("dask.dataframe")
     distributed = pytest.importorskip("distributed")
 
-from ionicity.pipelines.batch import ScoreConfig, score_file  # noqa: E402
+from ionicity.pipelines.config import ScoreConfig  # noqa: E402
 from ionicity.pipelines.cli import main  # noqa: E402
-from ionicity.pipelines.io import InputError  # noqa: E402
+from ionicity.pipelines.errors import InputError  # noqa: E402
+from ionicity.pipelines.run import score_file  # noqa: E402
 
 FORMULAS = ["NaCl", "KCl", "CuSO4·5H2O", "[C4mim][BF4]", "Fe2(SO4)3", "Xx2O", "", "Na₂SO₄", "ÅÅ", "MgO", None]
 
@@ -139,3 +140,26 @@ def test_unreachable_scheduler_is_a_usage_error(parts, tmp_path, capsys, monkeyp
                  "--scheduler", "tcp://127.0.0.1:9", "--quiet"])
     assert code == 2 and "scheduler" in capsys.readouterr().err
     assert sorted(os.listdir(tmp_path)) == ["parts"]
+
+
+def test_a_run_on_a_running_scheduler_leaves_no_cache_on_its_workers(parts, tmp_path, cluster):
+    # the workers outlive the run: the plugin that holds the run's cache of
+    # scored formulas on each of them must go when the run ends
+    score_file(ScoreConfig(input=str(parts), output=str(tmp_path / "o.parquet"), engine="dask",
+                           scheduler=cluster.scheduler_address, quiet=True))
+    with distributed.Client(cluster) as client:
+        plugins = client.run(lambda dask_worker: sorted(dask_worker.plugins))
+    assert len(plugins) == 2
+    assert all("ionicity-warm-up" not in names for names in plugins.values())
+
+
+def test_a_partition_outside_a_worker_gets_a_cache_of_its_own():
+    import pandas as pd
+
+    from ionicity.pipelines.dask_engine import score_partition
+    from ionicity.pipelines.schema import output_schema
+
+    input_schema = pa.schema([pa.field("formula", pa.string())])
+    frame = pd.DataFrame({"formula": ["NaCl", None, "NaCl"]})
+    out = score_partition(frame, "formula", None, input_schema, output_schema(input_schema))
+    assert out["status"].tolist() == ["ok", "error", "ok"]

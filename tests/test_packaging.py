@@ -60,3 +60,34 @@ def test_the_documented_api_is_importable_from_the_top():
         assert callable(getattr(ionicity, name))
     assert ionicity.parse_formula("CaCO3.6H2O") == ionicity.parse_formula("CaCO3(H2O)6")
     assert "NaCl" in ionicity.explain("NaCl")
+
+
+def _imported_pipelines_modules(path: Path) -> set[str]:
+    import ast
+
+    found = set()
+    for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+        if isinstance(node, ast.ImportFrom) and node.module and node.module.startswith("ionicity.pipelines."):
+            found.add(node.module.split(".")[2])
+        elif isinstance(node, ast.Import):
+            found.update(a.name.split(".")[2] for a in node.names if a.name.startswith("ionicity.pipelines."))
+    return found
+
+
+def test_pipelines_has_no_import_circles():
+    # every import, module-level or not: a circle hidden in a function is still a circle
+    graph = {p.stem: _imported_pipelines_modules(p) for p in (ROOT / "pipelines").glob("*.py")}
+    assert "run" in graph and "dask_engine" in graph["run"]  # the graph was read
+
+    def circle_from(start, node, path):
+        for nxt in sorted(graph.get(node, ())):
+            if nxt == start:
+                return path + [nxt]
+            if nxt not in path:
+                found = circle_from(start, nxt, path + [nxt])
+                if found:
+                    return found
+        return None
+
+    circles = [c for c in (circle_from(m, m, [m]) for m in sorted(graph)) if c]
+    assert circles == []

@@ -1,0 +1,97 @@
+"""One scored batch: the input columns, then the generated ones in row order
+(:func:`score_batch`).
+
+The generated columns are taken from the run's cache with one ``take`` per
+column; the melting model's step, when a model is applied, replaces
+``status`` and ``message``; failed rows are labelled with their name from
+``--name-col`` by the one verdict policy, :mod:`ionicity.scorer.verdict`.
+The local engine and every Dask partition call :func:`score_batch`.
+"""
+from __future__ import annotations
+
+import pyarrow as pa
+import pyarrow.compute as pc
+
+from ionicity.pipelines.arrow_columns import string_array
+from ionicity.pipelines.formula_cache import FormulaCache
+from ionicity.pipelines.model_step import ModelApplier
+from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
+from ionicity.scorer.columns import column_names
+from ionicity.scorer.verdict import Verdict, with_row_name
+
+__all__ = ["score_batch", "label_failed_rows"]
+
+
+def score_batch(
+    batch: pa.RecordBatch,
+    formula_col: str,
+    schema: pa.Schema,
+    scorer: BatchScorer | FormulaCache | None = None,
+    name_col: str | None = None,
+    model: ModelApplier | None = None,
+    ticket: Ticket | None = None,
+) -> pa.RecordBatch:
+    """Append the generated columns to one batch, in row order.
+
+    ``schema`` is :func:`ionicity.pipelines.schema.output_schema` of the
+    batch's schema (it names the generated columns, prefix included).
+    ``scorer`` is the run's :class:`~ionicity.pipelines.scheduler.BatchScorer`,
+    or a cache to score into (in-process), or ``None`` for a cache of this
+    batch alone. ``ticket`` is what :meth:`BatchScorer.submit` returned for
+    this batch, when its formulas were sent for scoring ahead of time.
+    """
+    if not isinstance(scorer, BatchScorer):
+        # no scorer: one for this batch alone (a cache, when given, is kept)
+        scorer = BatchScorer(1, cache=scorer)
+    if ticket is None:
+        ticket = scorer.submit(formula_array(batch, formula_col))
+    rows = scorer.rows_of(ticket)
+    columns = [
+        # a column read dictionary-encoded (the formulas, from Parquet) goes
+        # out with its input type
+        c.dictionary_decode() if pa.types.is_dictionary(c.type) and not pa.types.is_dictionary(f.type) else c
+        for c, f in zip(batch.columns, schema)
+    ] + [a.take(rows) for a in scorer.cache.arrays()]
+    if model is not None:
+        distinct = ticket.distinct.to_pylist()
+        indices = ticket.indices
+        if indices.null_count:
+            distinct.append(None)
+            indices = pc.fill_null(indices, len(distinct) - 1)
+        cache_rows = pa.array(scorer.cache.ids(distinct), type=pa.int64())
+        model_arrays, status, message = model.columns(distinct, cache_rows, scorer.cache)
+        first = len(batch.columns)
+        names = column_names()
+        columns[first + names.index("status")] = status.take(indices)
+        columns[first + names.index("message")] = message.take(indices)
+        columns += [a.take(indices) for a in model_arrays]
+    if name_col is not None:
+        first = len(batch.columns)
+        names = column_names()
+        status_at, message_at = first + names.index("status"), first + names.index("message")
+        row_names = batch.column(batch.schema.get_field_index(name_col))
+        columns[message_at] = label_failed_rows(columns[status_at], columns[message_at], row_names)
+    return pa.RecordBatch.from_arrays(columns, schema=schema)
+
+
+def label_failed_rows(status: pa.Array, message: pa.Array, row_names: pa.Array) -> pa.DictionaryArray:
+    """The ``message`` column with each failed row's name appended
+    (:func:`ionicity.scorer.verdict.with_row_name`); rows that did not fail,
+    or have no name, keep their message. Returned dictionary-encoded, as
+    every generated text column is written."""
+    if pa.types.is_dictionary(status.type):
+        status = status.dictionary_decode()
+    if pa.types.is_dictionary(message.type):
+        message = message.dictionary_decode()
+    if not pa.types.is_string(row_names.type):
+        row_names = pc.cast(row_names, pa.string())
+    row_names = pc.fill_null(row_names, "")
+    failed = pc.and_(pc.equal(status, "error"), pc.not_equal(row_names, ""))
+    rows = pc.indices_nonzero(failed)
+    if len(rows):
+        labelled = [
+            with_row_name(Verdict("error", text, ""), name).message
+            for text, name in zip(message.take(rows).to_pylist(), row_names.take(rows).to_pylist())
+        ]
+        message = pc.replace_with_mask(message, failed, string_array(labelled))
+    return pc.dictionary_encode(message)

@@ -1,0 +1,139 @@
+"""The options of one scoring run (:class:`ScoreConfig`) and what the run did
+(:class:`Summary`).
+
+Every option's allowed values are declared once, in :data:`CONSTRAINTS`, and
+checked in one place (:meth:`ScoreConfig.validate`): a bad value raises
+:class:`~ionicity.pipelines.errors.InputError` whose message names the
+option, the value given and what is allowed. The command line builds a
+``ScoreConfig`` from its arguments; :func:`ionicity.pipelines.score_file`
+takes one (or builds it from keyword arguments).
+
+Light on purpose (no pyarrow): the command line imports it at start-up.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, fields
+from typing import Any, Callable
+
+from ionicity.pipelines.errors import InputError
+
+__all__ = ["ScoreConfig", "Summary", "Constraint", "CONSTRAINTS", "ENGINES"]
+
+ENGINES = ("local", "dask")
+
+
+def _whole_number(value: Any) -> bool:
+    return isinstance(value, int) and not isinstance(value, bool)
+
+
+def _text_or_none(value: Any) -> bool:
+    return value is None or isinstance(value, str)
+
+
+@dataclass(frozen=True)
+class Constraint:
+    """What one option accepts: ``check(value)`` is true for an allowed value;
+    ``allowed`` says so in words, for the error message."""
+
+    flag: str
+    check: Callable[[Any], bool]
+    allowed: str
+
+
+CONSTRAINTS: dict[str, Constraint] = {
+    "input": Constraint("INPUT", lambda v: isinstance(v, str) and v != "", "a path, or - for standard input"),
+    "output": Constraint("--output", lambda v: isinstance(v, str) and v != "", "a path, or - for standard output"),
+    "formula_col": Constraint("--formula-col", _text_or_none, "a column name"),
+    "name_col": Constraint("--name-col", _text_or_none, "a column name"),
+    "prefix": Constraint("--prefix", lambda v: isinstance(v, str), "text (may be empty)"),
+    "batch_rows": Constraint("--batch-rows", lambda v: _whole_number(v) and v >= 1, "a positive whole number"),
+    "engine": Constraint("--engine", lambda v: v in ENGINES, "one of " + ", ".join(ENGINES)),
+    "workers": Constraint("--workers", lambda v: v is None or (_whole_number(v) and v >= 1),
+                          "a whole number of at least 1 (or none given, for every core)"),
+    "scheduler": Constraint("--scheduler", _text_or_none, "an address such as tcp://10.0.0.5:8786"),
+    "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
+}
+
+
+@dataclass
+class ScoreConfig:
+    """Options of one scoring run; the CLI builds one from its arguments.
+
+    Parameters
+    ----------
+    input, output : str
+        Paths (``-`` for CSV on stdin / stdout). The output format follows
+        the output's extension; the Dask engine writes a folder of Parquet
+        parts.
+    formula_col, name_col : str or None
+        Column holding the formulas (default: the one named ``formula`` in any
+        case) and an optional column quoted in the message of failed rows.
+    prefix : str, default=""
+        Prefix for every generated column name.
+    batch_rows : int, default=65536
+        Rows per batch, at least 1.
+    engine : {"local", "dask"}, default="local"
+    workers : int or None, default=None
+        Processes scoring distinct formulas (local engine) or Dask workers of
+        the local cluster, at least 1; ``None`` means every core.
+    scheduler : str or None
+        Address of a running Dask scheduler (``engine="dask"`` only).
+    mp_model : str or None
+        A melting-point model written by ``ionicity fit-melting``; adds
+        ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K``.
+
+    See Also
+    --------
+    CONSTRAINTS : the allowed values of each option, checked by :meth:`validate`.
+
+    Examples
+    --------
+    >>> ScoreConfig(input="in.csv", output="out.csv", workers=0).validate()
+    Traceback (most recent call last):
+    ...
+    ionicity.pipelines.errors.InputError: --workers must be a whole number of at least 1 (or none given, for every core), not 0
+    """
+
+    input: str
+    output: str
+    formula_col: str | None = None
+    name_col: str | None = None
+    prefix: str = ""
+    overwrite: bool = False
+    strict: bool = False
+    quiet: bool = False
+    batch_rows: int = 65536
+    engine: str = "local"
+    workers: int | None = None
+    scheduler: str | None = None
+    mp_model: str | None = None
+
+    def validate(self) -> None:
+        """Raise :class:`InputError` for the first option outside its
+        :data:`CONSTRAINTS`, or for options that cannot work together."""
+        for option in fields(self):
+            constraint = CONSTRAINTS.get(option.name)
+            value = getattr(self, option.name)
+            if constraint is not None and not constraint.check(value):
+                raise InputError(f"{constraint.flag} must be {constraint.allowed}, not {value!r}")
+        if self.scheduler is not None and self.engine != "dask":
+            raise InputError(f"--scheduler {self.scheduler!r} needs --engine dask (the engine is {self.engine!r})")
+
+
+@dataclass
+class Summary:
+    """What a run did; ``str()`` is the one-line summary printed at the end."""
+
+    rows: int = 0
+    ok: int = 0
+    warning: int = 0
+    error: int = 0
+    distinct_formulas: int = 0
+    seconds: float = 0.0
+    output: str = ""
+
+    def __str__(self) -> str:
+        return (
+            f"rows: {self.rows}, ok: {self.ok}, warning: {self.warning}, error: {self.error},"
+            f" distinct formulas: {self.distinct_formulas}, seconds: {self.seconds:.2f}"
+        )

@@ -1,0 +1,138 @@
+"""The scores of the formulas a run has met, as Arrow columns (:class:`FormulaCache`).
+
+A cache belongs to one run: :func:`ionicity.pipelines.score_file` and
+:func:`ionicity.pipelines.score_table` each make one (through their
+:class:`~ionicity.pipelines.scheduler.BatchScorer`) and drop it when they
+return, so a library caller keeps no scores after the call. Within the run,
+each distinct formula is scored once and every batch takes its rows from here.
+"""
+from __future__ import annotations
+
+import numpy as np
+import pyarrow as pa
+import pyarrow.compute as pc
+
+from ionicity.pipelines.arrow_columns import ARROW_TYPES, int_array, int_numpy, string_array, values_array
+from ionicity.scorer.columns import output_columns
+
+__all__ = ["FormulaCache"]
+
+
+class FormulaCache:
+    """Scores of the formulas already seen in this run, kept as one Arrow
+    array per generated column (row ``index[formula]``), so a batch's
+    columns are one ``take`` away, whatever its size.
+
+    Text columns are held dictionary-encoded (:data:`TEXT_TYPE`: each
+    distinct text once, an ``int32`` code per entry), so taking them for a
+    batch copies 4-byte codes instead of the texts: ``value_notes`` alone
+    averages some 350 characters a row. ``None`` is the key of the
+    empty-cell record. Bounded so that a table of ever-new formulas keeps
+    flat memory: when full, the oldest quarter of the entries not needed by
+    the current batch is dropped, and the dictionaries are rebuilt from what
+    is kept.
+    """
+
+    def __init__(self, max_entries: int = 200_000):
+        self.max_entries = max_entries
+        self.index: dict = {}
+        columns = output_columns()
+        self._text = [c.dtype == "string" for c in columns]
+        self._arrays: list[pa.Array] = [
+            pa.DictionaryArray.from_arrays(pa.nulls(0, pa.int32()), pa.nulls(0, pa.string())) if text
+            else pa.nulls(0, ARROW_TYPES[c.dtype])
+            for c, text in zip(columns, self._text)
+        ]
+        self._pending: list[tuple] = []
+        # empty arrays made without converting Python values: pyarrow imports
+        # pandas on its first such conversion, which need not delay the
+        # first batch (a large run converts later, while the workers score)
+        self._keys = pa.nulls(0, pa.string())
+        self._pending_keys: list = []
+        # per row, the token of the last scorer that counted it (first_seen)
+        self._marks = np.zeros(0, dtype=np.int64)
+
+    def __len__(self) -> int:
+        return len(self.index)
+
+    def missing(self, formulas) -> list:
+        index = self.index
+        return [f for f in formulas if f not in index]
+
+    def add(self, formulas: list, values: list[tuple], keep=()) -> None:
+        """Store records; ``keep`` (a list or an Arrow array) holds formulas
+        that must survive eviction."""
+        if len(self.index) + len(formulas) > self.max_entries:
+            self._evict(len(formulas), set(keep.to_pylist() if isinstance(keep, pa.Array) else keep) | {None})
+        base = len(self.index)
+        for offset, text in enumerate(formulas):
+            self.index[text] = base + offset
+        self._pending.extend(values)
+        self._pending_keys.extend(formulas)
+
+    def keys(self) -> pa.Array:
+        """The cached formulas in row order (a string array; null is the
+        empty-cell record), for ``pyarrow.compute.index_in``."""
+        if self._pending_keys:
+            self._keys = pa.concat_arrays([self._keys, string_array(self._pending_keys)])
+            self._marks = np.concatenate([self._marks, np.zeros(len(self._pending_keys), dtype=np.int64)])
+            self._pending_keys = []
+        return self._keys
+
+    def first_seen(self, rows: pa.Array, token: int) -> list:
+        """The formulas at cache ``rows`` not yet marked with ``token``;
+        marks them. A scorer counts the distinct formulas of its run this
+        way without hashing every row's text again."""
+        keys = self.keys()
+        distinct = int_numpy(pc.unique(rows))
+        fresh = distinct[self._marks[distinct] != token]
+        if not len(fresh):
+            return []
+        self._marks[fresh] = token
+        return keys.take(int_array(fresh)).to_pylist()
+
+    def arrays(self) -> list[pa.Array]:
+        """One array per generated column, one row per cached formula; text
+        columns as ``DictionaryArray``."""
+        if self._pending:
+            by_column = list(zip(*self._pending))
+            self._pending = []
+            self._arrays = [
+                self._append_text(old, values) if text
+                else pa.concat_arrays([old, values_array(values, old.type)])
+                for old, text, values in zip(self._arrays, self._text, by_column)
+            ]
+        return self._arrays
+
+    def _append_text(self, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
+        texts = string_array(values)
+        dictionary = old.dictionary
+        unseen = pc.unique(texts.filter(pc.is_null(pc.index_in(texts, value_set=dictionary)))).drop_null()
+        if len(unseen):
+            dictionary = pa.concat_arrays([dictionary, unseen])
+        codes = pc.index_in(texts, value_set=dictionary)  # null stays null
+        return pa.DictionaryArray.from_arrays(pa.concat_arrays([old.indices, codes]), dictionary, safe=False)
+
+    def ids(self, formulas) -> list[int]:
+        index = self.index
+        return [index[f] for f in formulas]
+
+    def _evict(self, incoming: int, keep: set) -> None:
+        arrays = self.arrays()
+        budget = max(min(len(self.index) * 3 // 4, self.max_entries - incoming), 0)
+        kept = [f for f in self.index if f in keep]
+        others = [f for f in self.index if f not in keep]
+        kept += others[max(len(others) - max(budget - len(kept), 0), 0):]
+        kept.sort(key=self.index.__getitem__)
+        rows = int_array([self.index[f] for f in kept])
+        self.keys()
+        self._keys = string_array(kept)
+        self._marks = self._marks[int_numpy(rows)]
+        self._arrays = []
+        for k, array in enumerate(arrays):
+            array = array.take(rows)
+            if self._text[k]:
+                # drop the texts no kept entry uses, so the dictionaries stay bounded too
+                array = pc.dictionary_encode(array.dictionary_decode())
+            self._arrays.append(array)
+        self.index = {f: i for i, f in enumerate(kept)}

@@ -1,0 +1,140 @@
+"""The local engine's file driver: :func:`score_file_local` streams one input
+file into one output file on this machine.
+
+Per slice of the input: hand its formula column to the run's
+:class:`~ionicity.pipelines.scheduler.BatchScorer` (new formulas go to the
+workers at once), and, in input order, write every slice whose formulas are
+in (:func:`~ionicity.pipelines.batch_assembly.score_batch`, then the writer
+thread of :class:`~ionicity.pipelines.io.TableWriter`). The first rows come
+in small slices, doubling up to ``--batch-rows``, so that results flow while
+the workers start; up to :data:`_READ_AHEAD_BATCHES` slices are read ahead of
+the one being written. :func:`prepare` (open the input, check the options
+against it) is shared with the Dask engine.
+"""
+from __future__ import annotations
+
+import os
+import time
+from collections import deque
+
+import pyarrow as pa
+import pyarrow.compute as pc
+
+from ionicity.pipelines.batch_assembly import score_batch
+from ionicity.pipelines.config import ScoreConfig, Summary
+from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.io import TableWriter, open_reader
+from ionicity.pipelines.model_step import load_model_applier
+from ionicity.pipelines.progress import Progress
+from ionicity.pipelines.provenance import provenance_metadata
+from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_array
+from ionicity.pipelines.schema import check_name_column, find_formula_column, output_schema
+
+__all__ = ["score_file_local", "prepare", "count_status"]
+
+# batches read and sent for scoring before the oldest is written
+_READ_AHEAD_BATCHES = 8
+_FIRST_SLICE_ROWS = 4096
+
+
+def prepare(config: ScoreConfig):
+    """Open the input and check the options against it: returns the reader,
+    the formula column and the output schema. Raises :class:`InputError`."""
+    config.validate()
+    reader = open_reader(config.input, config.batch_rows)
+    names = reader.schema.names
+    formula_col = find_formula_column(names, config.formula_col)
+    check_name_column(names, config.name_col)
+    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
+
+
+def score_file_local(config: ScoreConfig) -> Summary:
+    """Score ``config.input`` into ``config.output`` on this machine, batch
+    by batch; see the module docstring. Raises :class:`InputError` for
+    unusable input or options; nothing is written at the output path then.
+    The run's scorer, its cache and its workers go when it returns.
+    """
+    started = time.perf_counter()
+    model = load_model_applier(config)
+    reader, formula_col, schema = prepare(config)
+    # the formulas' distinct values straight from the Parquet dictionary
+    # pages: hashing every row's text cost more than a fifth of this process's time
+    reader.read_dictionary = (formula_col,)
+    metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
+    # Parquet min/max statistics for the input and the numeric columns only:
+    # on generated text (free text, or a few labels found in every row group)
+    # no reader could skip a row group by them, and they cost a fifth of the write
+    statistics = [f.name for f in schema if not pa.types.is_dictionary(f.type)]
+    writer = TableWriter(config.output, schema, overwrite=config.overwrite, metadata=metadata, inputs=reader.paths,
+                         background=True, statistics=statistics)
+    summary = Summary(output=config.output)
+    progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
+    status_name = config.prefix + "status"
+    scorer = BatchScorer(config.workers)
+    waiting: deque = deque()  # (batch, ticket): submitted, not written yet
+
+    def finish() -> None:
+        batch, ticket = waiting.popleft()
+        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket)
+        writer.write(scored)
+        summary.rows += batch.num_rows
+        count_status(summary, scored, status_name)
+        progress.update(summary.rows)
+
+    try:
+        if _worth_a_pool(reader):
+            scorer.start()
+        # Read ahead: while the workers score the new formulas of later
+        # batches, earlier ones are taken from the cache and written.
+        for batch in _slices(reader.batches, config.batch_rows):
+            waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))
+            while waiting and (len(waiting) > _READ_AHEAD_BATCHES or scorer.ready(waiting[0][1])):
+                finish()
+        while waiting:
+            finish()
+        if summary.rows == 0:
+            raise InputError(f"input {config.input!r} has a header but no data rows")
+        writer.commit()
+    except BaseException:
+        writer.abort()
+        scorer.close(cancel=True)
+        raise
+    finally:
+        progress.close()
+    scorer.close()
+    summary.distinct_formulas = scorer.distinct_formulas
+    summary.seconds = time.perf_counter() - started
+    return summary
+
+
+def _slices(batches, batch_rows: int):
+    """The input's first rows in small slices, doubling up to ``batch_rows``:
+    the first results are ready (and written) while the workers score the
+    rest."""
+    size = min(_FIRST_SLICE_ROWS, batch_rows)
+    for batch in batches:
+        offset = 0
+        while offset < batch.num_rows:
+            n = min(size, batch.num_rows - offset)
+            yield batch.slice(offset, n) if n < batch.num_rows else batch
+            offset += n
+            size = min(size * 2, batch_rows)
+
+
+def _worth_a_pool(reader) -> bool:
+    """Whether the input is large enough that starting the worker pool
+    before the first batch arrives is worth it (it usually is needed then)."""
+    if reader.total_rows is not None:
+        return reader.total_rows >= 16 * PARALLEL_MIN_NEW
+    try:
+        return os.path.getsize(reader.source) >= 1 << 18
+    except (OSError, TypeError, ValueError):
+        return False
+
+
+def count_status(summary: Summary, batch: pa.RecordBatch, status_name: str) -> None:
+    """Add a scored batch's rows per status to ``summary``."""
+    counts = pc.value_counts(batch.column(batch.schema.get_field_index(status_name))).to_pylist()
+    for item in counts:
+        if item["values"] in ("ok", "warning", "error"):
+            setattr(summary, item["values"], getattr(summary, item["values"]) + item["counts"])
