@@ -10,15 +10,14 @@ never collide with a user's own ``scorer`` or ``pipelines``.
 >>> ionicity.score_formula("NaCl")["status"]
 'ok'
 
-Names from :mod:`ionicity.pipelines` load on first use, so that
-``import ionicity`` does not pay for pandas and pyarrow until a table is
-scored (pyarrow alone costs about 0.2 s).
+Every name loads on first use: ``import ionicity`` imports neither numpy
+nor pyarrow, so that a worker process can set numpy's thread variables
+before numpy loads (:mod:`ionicity.pipelines._warm`) and a command-line run
+pays for pyarrow (about 0.2 s) only when it reads a table.
 """
 from __future__ import annotations
 
 import importlib
-
-from ionicity.scorer import FormulaError, ParsedFormula, madelung_constant, parse_formula, score_formula
 
 __all__ = [
     "FormulaDescriptors",
@@ -39,6 +38,11 @@ __all__ = [
 __version__ = "0.1.0"
 
 _LAZY = {
+    "FormulaError": "ionicity.scorer.formula",
+    "ParsedFormula": "ionicity.scorer.formula",
+    "madelung_constant": "ionicity.scorer.madelung",
+    "parse_formula": "ionicity.scorer.formula",
+    "score_formula": "ionicity.scorer.record",
     "FormulaDescriptors": "ionicity.pipelines.transformer",
     "InputError": "ionicity.pipelines.errors",
     "ScoreConfig": "ionicity.pipelines.config",

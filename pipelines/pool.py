@@ -13,8 +13,8 @@ What follows is this module's alone; each trick carries its measured gain.
   imported :mod:`ionicity.pipelines._warm`: the data tables load and the
   scorer warms once, and every worker starts warm, sharing those pages,
   instead of each paying for it in its first tasks.
-* In that forkserver (and in a worker started otherwise) numpy's BLAS is
-  asked for one thread, and the garbage collector freezes what the warm-up
+* In that forkserver numpy's BLAS is asked for one thread before numpy
+  loads (in :mod:`ionicity.pipelines._warm`), and the garbage collector freezes what the warm-up
   built and collects young objects less often: with the default thresholds
   it walked the growing caches again and again, about a tenth of the
   scoring time (measured with ``gc.callbacks``).
@@ -120,14 +120,6 @@ def warm_up() -> bool:
     return True
 
 
-def _one_blas_thread() -> None:
-    # Each worker scores one formula at a time; a BLAS thread pool per worker
-    # would only spin beside it on the cores the other workers need. The
-    # user's own setting stands. (numpy reads these when it loads.)
-    for name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
-        os.environ.setdefault(name, "1")
-
-
 def _settle_gc() -> None:
     # What the warm-up built moves to the collector's permanent generation,
     # and young objects are collected less often: with the default thresholds
@@ -140,8 +132,8 @@ def _settle_gc() -> None:
 
 def warm_forkserver() -> None:
     """What the forkserver does once for all the workers it forks
-    (:mod:`ionicity.pipelines._warm` calls it)."""
-    _one_blas_thread()
+    (:mod:`ionicity.pipelines._warm` calls it, after asking numpy's BLAS for
+    one thread)."""
     warm_up()
     _settle_gc()  # inherited by every worker forked from here
 
@@ -153,7 +145,6 @@ def _worker_init(parent_pid: int | None = None) -> None:
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     if parent_pid is not None:
         _exit_with(parent_pid)
-    _one_blas_thread()
     if warm_up():
         _settle_gc()
 

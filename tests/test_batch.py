@@ -11,14 +11,15 @@ from __future__ import annotations
 import hashlib
 import json
 import os
+import subprocess
+import sys
 
+import ionicity.pipelines.pool as pool_module
 import pandas as pd
 import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 import pytest
-
-import ionicity.pipelines.pool as pool_module
 from ionicity.pipelines.arrow_columns import values_array
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.bench import realistic_formulas, write_table
@@ -346,6 +347,20 @@ def test_workers_start_warm_with_one_blas_thread_and_a_settled_collector():
         assert workers.submit(0, gc.get_threshold).result(timeout=120) == (10_000, 50, 50)
         assert workers.submit(0, gc.get_freeze_count).result(timeout=120) > 0
         assert workers.submit(0, os.getenv, "OPENBLAS_NUM_THREADS").result(timeout=120) is not None
+        # numpy reads the variable when it loads: the pool it built must have one thread
+        threadpoolctl = pytest.importorskip("threadpoolctl")
+        pools = workers.submit(0, threadpoolctl.threadpool_info).result(timeout=120)
+        blas = [p for p in pools if p.get("user_api") == "blas"]
+        if os.environ.get("OPENBLAS_NUM_THREADS") is None and blas:
+            assert {p["num_threads"] for p in blas} == {1}, blas
+
+
+def test_importing_the_package_loads_neither_numpy_nor_pyarrow():
+    # a worker's forkserver sets numpy's thread variables after these imports
+    # and before numpy loads (pipelines/_warm.py)
+    code = "import sys, ionicity, ionicity.pipelines; print(sorted({'numpy', 'pyarrow'} & set(sys.modules)))"
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout.strip() == "[]"
 
 
 def test_an_empty_batch_scores_to_an_empty_batch():
