@@ -46,6 +46,7 @@ __all__ = [
     "Element",
     "get_element",
     "is_element_symbol",
+    "is_metal",
     "element_symbols",
     "snapshot_info",
 ]
@@ -270,6 +271,17 @@ def is_element_symbol(text: str) -> bool:
     (True, False, False)
     """
     return isinstance(text, str) and text in _snapshot()[1]
+
+
+def is_metal(symbol: str) -> bool:
+    """Whether ``symbol`` is a metal by mendeleev's series (:attr:`Element.is_metal`);
+    False for anything that is not an element symbol. The one metal test of the scorer.
+
+    >>> is_metal("Na"), is_metal("Si"), is_metal("Xx")
+    (True, False, False)
+    """
+    element = _snapshot()[1].get(symbol) if isinstance(symbol, str) else None
+    return element is not None and element.is_metal
 
 
 def element_symbols() -> tuple[str, ...]:

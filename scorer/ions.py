@@ -74,7 +74,7 @@ import dataclasses
 import itertools
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.elements import get_element
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
     get_ion,
@@ -170,10 +170,6 @@ def format_oxidation_states(states) -> str:
     return ";".join(parts)
 
 
-def _is_metal(symbol: str) -> bool:
-    return get_element(symbol).is_metal
-
-
 # States that mendeleev lists only as "extra" but that are common in salts
 # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory):
 # Cu(I) in CuCl and Cu2O, Mn(III) in Mn2O3 and Mn3O4, Ti(III), V(III)/V(IV),
@@ -203,7 +199,7 @@ def _states(symbol: str) -> tuple[tuple[int, float], ...]:
 @per_input(maxsize=4096)
 def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
-    metal = _is_metal(symbol)
+    metal = is_metal(symbol)
     options = []
     states = _states(symbol)
     most_negative = min((s for s, _ in states if s < 0), default=None)
@@ -522,7 +518,7 @@ def _organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float],
     """Formal states of a homoleptic carbonyl (neutral CO: metal 0, C +2, O -2)
     or metallocene (two C5H5(-): metal +2, C -1.2, H +1); IUPAC Red Book
     2005, IR-10 (organometallic compounds)."""
-    metals = [s for s in counts if _is_metal(s)]
+    metals = [s for s in counts if is_metal(s)]
     if len(metals) != 1:
         return ()
     metal = metals[0]
@@ -568,7 +564,7 @@ def _reading_text(cations, anions) -> str:
 def _nonionic(comp: ParsedFormula, counts: dict[str, float], notes: list[str], water: float, neutral) -> Decomposition:
     symbols = set(counts)
     states = formal_oxidation_states(counts, comp.charge)
-    if all(_is_metal(s) for s in symbols):
+    if all(is_metal(s) for s in symbols):
         cls = "metallic"
         states = tuple((s, 0.0) for s in counts)
     elif len(symbols) == 1:
@@ -578,7 +574,7 @@ def _nonionic(comp: ParsedFormula, counts: dict[str, float], notes: list[str], w
         cls = "base"
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}):
         cls = "covalent_network"
-    elif any(_is_metal(s) for s in symbols):
+    elif any(is_metal(s) for s in symbols):
         cls = "unknown"
         states = ()
         notes.append("no charge-balanced set of ions found: check the formula (counts, charges, a missing element)")
@@ -649,12 +645,12 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         return _lone_ion(comp, counts, notes)
 
     symbols = set(counts)
-    if len(symbols) == 1 or all(_is_metal(s) for s in symbols):
+    if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return _nonionic(comp, counts, notes, water, neutral)
-    if comp.structure_hint == "amide" and not any(_is_metal(s) for s in symbols):
+    if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
         return _nonionic(comp, counts, notes, water, neutral)
-    if comp.structure_hint == "organometallic" and any(_is_metal(s) for s in symbols):
+    if comp.structure_hint == "organometallic" and any(is_metal(s) for s in symbols):
         # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
@@ -751,7 +747,7 @@ def _has_both_signs(terms) -> bool:
 
 
 def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
-    has_metal = any(_is_metal(s) for s in counts)
+    has_metal = any(is_metal(s) for s in counts)
     cation_ions = [t.ion for t in cations]
     if any(ion.organic for ion in cation_ions):
         return "ionic_liquid_pair"
@@ -764,7 +760,7 @@ def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[Ion
         return "unknown"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
-    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and _is_metal(ion.element)]
+    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]
     if metal_states and len(cation_ions) == 1 and all(t.ion.monatomic for t in anions):
         anion_elements = {t.ion.element for t in anions}
         if max(metal_states) >= 4 and anion_elements <= _HALOGENS:

@@ -58,6 +58,7 @@ from functools import reduce
 
 import numpy as np
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.tables import table
 
 __all__ = [
     "CrystalStructure",
@@ -624,18 +625,14 @@ _SNAPSHOT_FIELDS = (
 )
 
 
-@per_input(maxsize=1)
+@once
 def prototype_snapshot() -> dict[str, MadelungResult]:
     """The Ewald results of the built-in prototypes, as
     ``scorer/data/build_madelung.py`` wrote them: every scoring process needs
     them, and summing them again in each took about 0.1 s (corundum most).
     ``tests/test_madelung.py`` sums them afresh and compares."""
-    import csv
-    from importlib import resources
-
-    text = resources.files("ionicity.scorer.data").joinpath(PROTOTYPE_SNAPSHOT_FILE).read_text(encoding="utf-8")
     out = {}
-    for row in csv.DictReader(text.splitlines()):
+    for row in table(PROTOTYPE_SNAPSHOT_FILE):
         values = {f: (int(row[f]) if f == "formula_units" else float(row[f])) for f in _SNAPSHOT_FIELDS}
         out[row["prototype"]] = MadelungResult(**values)
     return out

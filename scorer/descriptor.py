@@ -1,0 +1,165 @@
+"""The descriptor-module protocol, written once.
+
+A descriptor module (:mod:`scorer.character`, :mod:`scorer.fajans`,
+:mod:`scorer.hsab`, :mod:`scorer.lattice`, :mod:`scorer.melting`) declares
+
+* ``COLUMNS``: its output columns (:class:`scorer.model.Column`);
+* a small frozen dataclass derived from :class:`Result`, with one field per
+  column, named as the column, plus the ``notes`` and ``steps`` every result
+  has;
+* ``analyse(dec) -> that Result``, made with :func:`protocol`.
+
+Everything else is a view of the result, provided here and nowhere else:
+:meth:`Descriptor.values` (the output columns), :meth:`Descriptor.describe`
+(values and notes, what a record needs) and :meth:`Descriptor.explain`
+(the lines of ``ionicity explain``). :func:`protocol` adds the two guarantees
+every module needs: a result is computed once per :class:`Decomposition`
+(``scorer.caching.per_input``), and ``analyse`` never raises: an exception
+becomes an empty result whose note names it, so one odd compound never stops
+a batch.
+
+A module that needs another's values asks for its result object and reads
+its typed fields (:mod:`scorer.melting` reads the lattice energies from
+``lattice.analyse(dec)``), never a column out of a dict.
+
+>>> from dataclasses import dataclass
+>>> from ionicity.scorer.model import Column
+>>> @dataclass(frozen=True, kw_only=True)
+... class Size(Result):
+...     atom_count: float = float("nan")
+>>> @protocol(title="Size:", columns=(Column("atom_count", "float64", "", "", "", ""),), result=Size,
+...           failure="size not computed")
+... def analyse(dec):
+...     return Size(atom_count=float(sum(n for _, n in dec.composition)), steps=("summed the composition",))
+>>> analyse.describe(Decomposition(composition=(("Na", 1.0), ("Cl", 1.0))))
+({'atom_count': 2.0}, [])
+>>> analyse.describe(None)
+({'atom_count': nan}, ["size not computed: AttributeError: 'NoneType' object has no attribute 'composition'"])
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, fields
+from typing import Callable
+
+from ionicity.scorer.caching import per_input
+from ionicity.scorer.model import Column, Decomposition
+
+__all__ = ["Result", "Descriptor", "protocol", "empty_value", "fmt"]
+
+
+@dataclass(frozen=True, kw_only=True)
+class Result:
+    """What every descriptor result carries besides its column values.
+
+    ``notes`` are the row's notes (a :class:`scorer.model.RowWarning` turns the
+    status into ``warning``; a plain ``str`` goes to ``value_notes``);
+    ``steps`` are the lines of ``ionicity explain``: each value with its
+    inputs and equation.
+    """
+
+    notes: tuple[str, ...] = ()
+    steps: tuple[str, ...] = ()
+
+
+def empty_value(column: Column):
+    """The value of a column that could not be given: NaN for numbers, None otherwise."""
+    return math.nan if column.dtype == "float64" else None
+
+
+def fmt(value, digits: int = 2, style: str = "f") -> str:
+    """A number for an explain line; ``nan`` for a missing one.
+
+    >>> fmt(2.2345), fmt(float("nan")), fmt(None), fmt(0.13123, 3, "g")
+    ('2.23', 'nan', 'nan', '0.131')
+    """
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return "nan"
+    return f"{value:.{digits}{style}}"
+
+
+class Descriptor:
+    """One descriptor module's ``analyse``, with the views every module shares.
+
+    Call it like the function it wraps: ``analyse(dec)`` returns the module's
+    result, cached per decomposition, and never raises.
+    """
+
+    def __init__(
+        self,
+        analyse: Callable[[Decomposition], Result],
+        *,
+        title: str,
+        columns: tuple[Column, ...],
+        result: type[Result],
+        failure: str,
+        maxsize: int = 65536,
+    ):
+        names = {f.name for f in fields(result)}
+        missing = [c.name for c in columns if c.name not in names]
+        if missing:
+            raise TypeError(f"{result.__name__} has no field for the columns {missing}")
+        self.title = title
+        self.columns = tuple(columns)
+        self.result_type = result
+        self.failure = failure
+        self._names = tuple(c.name for c in columns)
+        self._cached = per_input(maxsize=maxsize)(analyse)
+        self.__wrapped__ = analyse
+        self.__doc__ = analyse.__doc__
+        self.__name__ = analyse.__name__
+        self.__qualname__ = analyse.__qualname__
+        self.__module__ = analyse.__module__
+
+    def __call__(self, dec: Decomposition) -> Result:
+        try:
+            return self._cached(dec)
+        except Exception as exc:  # noqa: BLE001 - the one place of the protocol's never-raise promise
+            text = f"{self.failure}: {type(exc).__name__}: {exc}"
+            return self.result_type(notes=(text,), steps=(text,))
+
+    def cache_clear(self) -> None:
+        self._cached.cache_clear()
+
+    def values(self, result: Result) -> dict[str, object]:
+        """The output columns of ``result``, in ``COLUMNS`` order."""
+        return {name: getattr(result, name) for name in self._names}
+
+    def describe(self, dec: Decomposition) -> tuple[dict[str, object], list[str]]:
+        """Values for every column and the notes for the row; never raises."""
+        result = self(dec)
+        return self.values(result), list(result.notes)
+
+    def explain(self, dec: Decomposition) -> list[str]:
+        """Lines for ``ionicity explain``: the title (if any), each step, then
+        the notes that no step already says."""
+        result = self(dec)
+        # without a title the steps stand at the left margin
+        indent = "  " if self.title else ""
+        lines = [self.title] if self.title else []
+        lines += [indent + step for step in result.steps]
+        lines += ["  note: " + note for note in result.notes if note not in result.steps]
+        return lines
+
+
+def protocol(*, title: str, columns: tuple[Column, ...], result: type[Result], failure: str, maxsize: int = 65536):
+    """Decorator: make a module's ``analyse`` a :class:`Descriptor`.
+
+    Parameters
+    ----------
+    title : str
+        First line of the module's ``ionicity explain`` block.
+    columns : tuple of Column
+        The module's ``COLUMNS``; each must be a field of ``result``.
+    result : type
+        The module's frozen :class:`Result` subclass.
+    failure : str
+        Start of the note written when ``analyse`` raises.
+    maxsize : int, default=65536
+        Size of the per-decomposition cache.
+    """
+
+    def wrap(analyse):
+        return Descriptor(analyse, title=title, columns=columns, result=result, failure=failure, maxsize=maxsize)
+
+    return wrap
