@@ -56,10 +56,9 @@ common practice, chosen for this project on the Pauling scale; see
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
-from ionicity.scorer.descriptor import Result, fmt, protocol
+from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm
 
@@ -419,16 +418,9 @@ def weighted_mean(values: list[tuple[float, float]]) -> float:
 # ------------------------------------------------------------------ per compound
 
 
-@dataclass(frozen=True, kw_only=True)
-class BondCharacter(Result):
-    """The bond-character values of one compound (fields named as the columns)."""
-
-    delta_chi_pauling: float = math.nan
-    ionic_character_pauling_pct: float = math.nan
-    ionic_character_hannay_smyth_pct: float = math.nan
-    ionic_character_pauling_min_pct: float = math.nan
-    mean_chi_pauling: float = math.nan
-    bond_type: str | None = None
+BondCharacter = result_class(
+    "BondCharacter", COLUMNS, "The bond-character values of one compound (fields named as the columns).",
+)
 
 
 def _pair_rows(dec: Decomposition) -> list[dict]:

@@ -4,9 +4,9 @@ A descriptor module (:mod:`scorer.character`, :mod:`scorer.fajans`,
 :mod:`scorer.hsab`, :mod:`scorer.lattice`, :mod:`scorer.melting`) declares
 
 * ``COLUMNS``: its output columns (:class:`scorer.model.Column`);
-* a small frozen dataclass derived from :class:`Result`, with one field per
-  column, named as the column, plus the ``notes`` and ``steps`` every result
-  has;
+* its result: a small frozen dataclass derived from :class:`Result`, made
+  from ``COLUMNS`` by :func:`result_class` (one field per column, named as the
+  column), plus the ``notes`` and ``steps`` every result has;
 * ``analyse(dec) -> that Result``, made with :func:`protocol`.
 
 Everything else is a view of the result, provided here and nowhere else:
@@ -22,13 +22,10 @@ A module that needs another's values asks for its result object and reads
 its typed fields (:mod:`scorer.melting` reads the lattice energies from
 ``lattice.analyse(dec)``), never a column out of a dict.
 
->>> from dataclasses import dataclass
 >>> from ionicity.scorer.model import Column
->>> @dataclass(frozen=True, kw_only=True)
-... class Size(Result):
-...     atom_count: float = float("nan")
->>> @protocol(title="Size:", columns=(Column("atom_count", "float64", "", "", "", ""),), result=Size,
-...           failure="size not computed")
+>>> COLUMNS = (Column("atom_count", "float64", "", "", "", ""),)
+>>> Size = result_class("Size", COLUMNS, "How many atoms a formula unit holds.")
+>>> @protocol(title="Size:", columns=COLUMNS, result=Size, failure="size not computed")
 ... def analyse(dec):
 ...     return Size(atom_count=float(sum(n for _, n in dec.composition)), steps=("summed the composition",))
 >>> analyse.describe(Decomposition(composition=(("Na", 1.0), ("Cl", 1.0))))
@@ -39,13 +36,13 @@ its typed fields (:mod:`scorer.melting` reads the lattice energies from
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, fields
+from dataclasses import dataclass, field, fields, make_dataclass
 from typing import Callable
 
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.model import Column, Decomposition
 
-__all__ = ["Result", "Descriptor", "protocol", "empty_value", "fmt"]
+__all__ = ["Result", "result_class", "Descriptor", "protocol", "empty_value", "fmt"]
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -65,6 +62,28 @@ class Result:
 def empty_value(column: Column):
     """The value of a column that could not be given: NaN for numbers, None otherwise."""
     return math.nan if column.dtype == "float64" else None
+
+
+_PYTHON_TYPES = {"float64": "float", "string": "str | None", "bool": "bool | None", "int64": "int | None"}
+
+
+def result_class(name: str, columns: tuple[Column, ...], doc: str, extra: tuple = ()) -> type[Result]:
+    """A module's frozen :class:`Result` subclass: one field per column, named
+    as the column, empty by default (:func:`empty_value`), so the column
+    declaration is the one place a value's name and type are written.
+
+    ``extra`` adds ``(name, type, default)`` fields that are not columns (the
+    inputs another module reads, such as the melting terms).
+
+    >>> Size = result_class("Size", (Column("atom_count", "float64", "", "", "", ""),), "A size.")
+    >>> Size(atom_count=2.0).atom_count, Size().atom_count, Size().notes
+    (2.0, nan, ())
+    """
+    specs = [(c.name, _PYTHON_TYPES[c.dtype], field(default=empty_value(c))) for c in columns]
+    specs += [(n, t, field(default=d)) for n, t, d in extra]
+    cls = make_dataclass(name, specs, bases=(Result,), frozen=True, kw_only=True)
+    cls.__doc__ = doc
+    return cls
 
 
 def fmt(value, digits: int = 2, style: str = "f") -> str:

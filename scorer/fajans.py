@@ -39,12 +39,11 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.character import contact_pairs, weighted_mean
 from ionicity.scorer.caching import once
-from ionicity.scorer.descriptor import Result, fmt, protocol
+from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.radii import atomic_volumes_A3, ion_radius_pm, ion_volume_nm3, sphere_radius_pm
@@ -430,18 +429,9 @@ def _anion_volume_nm3(ion: Ion) -> tuple[float, str]:
 # ------------------------------------------------------------------ per compound
 
 
-@dataclass(frozen=True, kw_only=True)
-class FajansValues(Result):
-    """Fajans' measures of one compound (fields named as the columns)."""
-
-    cation_polarising_power_e_per_A2: float = math.nan
-    cation_polarising_power_max_e_per_A2: float = math.nan
-    anion_polarisability_A3: float = math.nan
-    anion_polarisability_max_A3: float = math.nan
-    anion_polarisability_basis: str | None = None
-    cation_pseudo_noble_gas: bool | None = None
-    fajans_contact_index: float = math.nan
-    covalency_risk: str | None = None
+FajansValues = result_class(
+    "FajansValues", COLUMNS, "Fajans' measures of one compound (fields named as the columns).",
+)
 
 
 def _g(value) -> str:

@@ -50,12 +50,11 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.caching import once
 from ionicity.scorer.character import contact_pairs, weighted_mean
-from ionicity.scorer.descriptor import Result, fmt, protocol
+from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.tables import table
@@ -330,16 +329,9 @@ def _side_class(classes: list[str | None]) -> str | None:
     return known.pop() if len(known) == 1 else "mixed"
 
 
-@dataclass(frozen=True, kw_only=True)
-class HsabValues(Result):
-    """Pearson's classes and hardnesses of one compound (fields named as the columns)."""
-
-    cation_hsab_class: str | None = None
-    anion_hsab_class: str | None = None
-    cation_hardness_eV: float = math.nan
-    anion_hardness_eV: float = math.nan
-    hsab_pairing: str | None = None
-    hsab_pairing_score: float = math.nan
+HsabValues = result_class(
+    "HsabValues", COLUMNS, "Pearson's classes and hardnesses of one compound (fields named as the columns).",
+)
 
 
 def _missing(value) -> bool:

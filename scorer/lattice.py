@@ -34,12 +34,11 @@ is the descriptor module of the lattice-energy columns.
 """
 from __future__ import annotations
 
-import dataclasses
 import math
 from dataclasses import dataclass
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.descriptor import Result, protocol
+from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.lattice_energy import (
     BORN_MAYER_RHO_PM,
@@ -294,16 +293,9 @@ def _mean_radius(terms) -> tuple[float, list[str]]:
     return acc / total_count, texts
 
 
-@dataclass(frozen=True, kw_only=True)
-class LatticeEnergies(Result):
-    """The lattice energies of one compound (fields named as the columns)."""
-
-    lattice_energy_kapustinskii_kJ_mol: float = math.nan
-    lattice_energy_vbt_kJ_mol: float = math.nan
-    lattice_energy_born_mayer_kJ_mol: float = math.nan
-    lattice_energy_born_lande_kJ_mol: float = math.nan
-    structure_type: str | None = None
-    structure_type_origin: str | None = None
+LatticeEnergies = result_class(
+    "LatticeEnergies", COLUMNS, "The lattice energies of one compound (fields named as the columns).",
+)
 
 
 # Each equation's text, written once for the explain lines, from the constants the equations use.

@@ -79,7 +79,7 @@ import numpy as np
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.caution import CAUTION
-from ionicity.scorer.descriptor import Result, fmt, protocol
+from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.tables import table
 
@@ -504,13 +504,9 @@ COLUMNS: tuple[Column, ...] = (
 
 
 
-@dataclass(frozen=True, kw_only=True)
-class MeltingTrend(Result):
-    """The melting trend of one compound (fields named as the columns) and the terms behind it."""
-
-    mp_trend_index: float = math.nan
-    melting_class: str | None = None
-    terms: MeltingTerms | None = None
+MeltingTrend = result_class(
+    "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.", extra=(("terms", "MeltingTerms | None", None),),
+)
 
 
 def _why_not(dec: Decomposition) -> str | None:
