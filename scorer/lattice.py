@@ -55,7 +55,8 @@ from ionicity.scorer.lattice_energy import (
     glasser_kapustinskii_lattice_energy_kJ_mol,
     kapustinskii_lattice_energy_kJ_mol,
 )
-from ionicity.scorer.madelung import madelung_details, prototype_structure
+from ionicity.scorer.crystal import prototype_structure
+from ionicity.scorer.madelung import madelung_details
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm, RowWarning, format_charge
 from ionicity.scorer.radii import ion_radius_pm, ion_volume_nm3
 from ionicity.scorer.structure_type import (

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.madelung import prototype_structure
+from ionicity.scorer.crystal import prototype_structure
 from ionicity.scorer.model import Ion
 from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
