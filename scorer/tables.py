@@ -60,7 +60,7 @@ TABLES: dict[str, TableSpec] = {
             "scorer.hsab",
         ),
         TableSpec(
-            "born_exponents.csv", ("configuration", "electrons", "born_exponent", "source"), "scorer.lattice_energy"
+            "born_exponents.csv", ("configuration", "electrons", "born_exponent", "source"), "scorer.lattice"
         ),
         TableSpec(
             "structure_prototypes.csv", ("cation_id", "anion_id", "structure_type", "source"), "scorer.structure_type"
