@@ -482,8 +482,8 @@ def _ionic(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
             f"pair {r['cation']} / {r['anion']} (weight {r['weight']:.3g}): contact atoms"
             f" {r['c_atom']} ({r['c_why']}; chi {fmt(r['chi_c'])}) and {r['a_atom']} ({r['a_why']};"
             f" chi {fmt(r['chi_a'])}); dchi = |{fmt(r['chi_a'])} - {fmt(r['chi_c'])}| = {fmt(r['delta'])};"
-            f" Pauling {PAULING_EQUATION} = {fmt(r['pauling'], 1)} %;"
-            f" Hannay-Smyth {HANNAY_SMYTH_EQUATION} = {fmt(r['hannay_smyth'], 1)} %"
+            f" Pauling {PAULING_EQUATION} = {fmt(r['pauling'], '.1f')} %;"
+            f" Hannay-Smyth {HANNAY_SMYTH_EQUATION} = {fmt(r['hannay_smyth'], '.1f')} %"
         )
     if len(rows) > 1:
         steps.append("several ions: pair values averaged with the weights shown (product of stoichiometric fractions)")
@@ -516,7 +516,7 @@ def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
     steps = [
         f"no ions ({dec.substance_class}): composition {_composition_text(rows)}; dchi = max - min ="
         f" {fmt(hi[2])} ({hi[0]}) - {fmt(lo[2])} ({lo[0]}) = {fmt(delta)}; mean chi ="
-        f" {_MEAN_CHI_COMPOSITION} = {fmt(mean, 3)}"
+        f" {_MEAN_CHI_COMPOSITION} = {fmt(mean, '.3f')}"
     ]
     notes = []
     symbols = [s for s, _, _ in rows]
@@ -539,9 +539,21 @@ def _composition_text(rows) -> str:
     return " ".join(f"{s}{n:g}(chi {fmt(chi)})" for s, n, chi in rows)
 
 
+def _summary(found: BondCharacter) -> list[str]:
+    return [
+        f"delta_chi_pauling = {fmt(found.delta_chi_pauling)}",
+        f"ionic_character_pauling_pct = {fmt(found.ionic_character_pauling_pct, '.1f')} [{PAULING_EQUATION}; Pauling 1960]",
+        f"ionic_character_hannay_smyth_pct = {fmt(found.ionic_character_hannay_smyth_pct, '.1f')}"
+        f" [{HANNAY_SMYTH_EQUATION}, capped at 100; Hannay & Smyth 1946]",
+        f"ionic_character_pauling_min_pct = {fmt(found.ionic_character_pauling_min_pct, '.1f')} [least ionic pair]",
+        f"mean_chi_pauling = {fmt(found.mean_chi_pauling, '.3f')}; bond_type = {found.bond_type}"
+        f" [van Arkel-Ketelaar triangle: {_BOND_TYPE_RULE}; common practice]",
+    ]
+
+
 @protocol(
     title="Bond character (Pauling electronegativities, CRC Handbook via mendeleev):",
-    columns=COLUMNS, result=BondCharacter, failure="bond character not computed",
+    columns=COLUMNS, result=BondCharacter, failure="bond character not computed", summary=_summary,
 )
 def analyse(dec: Decomposition) -> BondCharacter:
     """The bond-character values of one compound, with notes and explain steps.
@@ -559,16 +571,6 @@ def analyse(dec: Decomposition) -> BondCharacter:
     (2.23, 71.2, 'ionic')
     """
     values, notes, steps = (_ionic if dec.is_ionic else _without_ions)(dec)
-    found = BondCharacter(**values)
-    steps += [
-        f"delta_chi_pauling = {fmt(found.delta_chi_pauling)}",
-        f"ionic_character_pauling_pct = {fmt(found.ionic_character_pauling_pct, 1)} [{PAULING_EQUATION}; Pauling 1960]",
-        f"ionic_character_hannay_smyth_pct = {fmt(found.ionic_character_hannay_smyth_pct, 1)}"
-        f" [{HANNAY_SMYTH_EQUATION}, capped at 100; Hannay & Smyth 1946]",
-        f"ionic_character_pauling_min_pct = {fmt(found.ionic_character_pauling_min_pct, 1)} [least ionic pair]",
-        f"mean_chi_pauling = {fmt(found.mean_chi_pauling, 3)}; bond_type = {found.bond_type}"
-        f" [van Arkel-Ketelaar triangle: {_BOND_TYPE_RULE}; common practice]",
-    ]
     return BondCharacter(**values, notes=tuple(notes), steps=tuple(steps))
 
 

@@ -7,7 +7,8 @@ A descriptor module (:mod:`scorer.character`, :mod:`scorer.fajans`,
 * its result: a small frozen dataclass derived from :class:`Result`, made
   from ``COLUMNS`` by :func:`result_class` (one field per column, named as the
   column), plus the ``notes`` and ``steps`` every result has;
-* ``analyse(dec) -> that Result``, made with :func:`protocol`.
+* ``analyse(dec) -> that Result``, made with :func:`protocol`, and
+  optionally a ``summary(result)`` of explain lines written from the values.
 
 Everything else is a view of the result, provided here and nowhere else:
 :meth:`Descriptor.values` (the output columns), :meth:`Descriptor.describe`
@@ -36,6 +37,7 @@ its typed fields (:mod:`scorer.melting` reads the lattice energies from
 from __future__ import annotations
 
 import math
+import operator
 from dataclasses import dataclass, field, fields, make_dataclass
 from typing import Callable
 
@@ -86,15 +88,16 @@ def result_class(name: str, columns: tuple[Column, ...], doc: str, extra: tuple 
     return cls
 
 
-def fmt(value, digits: int = 2, style: str = "f") -> str:
-    """A number for an explain line; ``nan`` for a missing one.
+def fmt(value, spec: str = ".2f") -> str:
+    """A number for an explain line, formatted by ``spec``; ``nan`` for a missing one.
 
-    >>> fmt(2.2345), fmt(float("nan")), fmt(None), fmt(0.13123, 3, "g")
+    >>> fmt(2.2345), fmt(float("nan")), fmt(None), fmt(0.13123, ".3g")
     ('2.23', 'nan', 'nan', '0.131')
     """
-    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+    # value != value is NaN's own test, without a call: this runs for every new salt
+    if value is None or value != value:
         return "nan"
-    return f"{value:.{digits}{style}}"
+    return format(value, spec)
 
 
 class Descriptor:
@@ -112,6 +115,7 @@ class Descriptor:
         columns: tuple[Column, ...],
         result: type[Result],
         failure: str,
+        summary: Callable[[Result], list[str]] | None = None,
         maxsize: int = 65536,
     ):
         names = {f.name for f in fields(result)}
@@ -122,7 +126,12 @@ class Descriptor:
         self.columns = tuple(columns)
         self.result_type = result
         self.failure = failure
+        self._summary = summary
         self._names = tuple(c.name for c in columns)
+        # one C-level getter for every column: this runs once per new salt and module
+        self._getter = operator.attrgetter(*self._names) if len(self._names) > 1 else (
+            lambda result, _get=operator.attrgetter(self._names[0]): (_get(result),)
+        )
         self._cached = per_input(maxsize=maxsize)(analyse)
         self.__wrapped__ = analyse
         self.__doc__ = analyse.__doc__
@@ -142,7 +151,7 @@ class Descriptor:
 
     def values(self, result: Result) -> dict[str, object]:
         """The output columns of ``result``, in ``COLUMNS`` order."""
-        return {name: getattr(result, name) for name in self._names}
+        return dict(zip(self._names, self._getter(result)))
 
     def describe(self, dec: Decomposition) -> tuple[dict[str, object], list[str]]:
         """Values for every column and the notes for the row; never raises."""
@@ -150,18 +159,28 @@ class Descriptor:
         return self.values(result), list(result.notes)
 
     def explain(self, dec: Decomposition) -> list[str]:
-        """Lines for ``ionicity explain``: the title (if any), each step, then
-        the notes that no step already says."""
+        """Lines for ``ionicity explain``: the title (if any), each step, the
+        summary of the values, then the notes that no step already says."""
         result = self(dec)
         # without a title the steps stand at the left margin
         indent = "  " if self.title else ""
         lines = [self.title] if self.title else []
         lines += [indent + step for step in result.steps]
+        if self._summary is not None:
+            lines += [indent + line for line in self._summary(result)]
         lines += ["  note: " + note for note in result.notes if note not in result.steps]
         return lines
 
 
-def protocol(*, title: str, columns: tuple[Column, ...], result: type[Result], failure: str, maxsize: int = 65536):
+def protocol(
+    *,
+    title: str,
+    columns: tuple[Column, ...],
+    result: type[Result],
+    failure: str,
+    summary: Callable[[Result], list[str]] | None = None,
+    maxsize: int = 65536,
+):
     """Decorator: make a module's ``analyse`` a :class:`Descriptor`.
 
     Parameters
@@ -174,11 +193,18 @@ def protocol(*, title: str, columns: tuple[Column, ...], result: type[Result], f
         The module's frozen :class:`Result` subclass.
     failure : str
         Start of the note written when ``analyse`` raises.
+    summary : callable, optional
+        ``summary(result) -> lines``: explain lines written from the result's
+        values alone. Formatted only when a person asks (``ionicity explain``),
+        not for every salt scored; ``steps`` keep what needs the intermediate
+        inputs (per ion, per pair).
     maxsize : int, default=65536
         Size of the per-decomposition cache.
     """
 
     def wrap(analyse):
-        return Descriptor(analyse, title=title, columns=columns, result=result, failure=failure, maxsize=maxsize)
+        return Descriptor(
+            analyse, title=title, columns=columns, result=result, failure=failure, summary=summary, maxsize=maxsize
+        )
 
     return wrap

@@ -37,7 +37,6 @@ worst pair, since one covalent contact is enough to change a salt's behaviour.
 """
 from __future__ import annotations
 
-import dataclasses
 import math
 
 import numpy as np
@@ -434,13 +433,22 @@ FajansValues = result_class(
 )
 
 
-def _g(value) -> str:
-    return fmt(value, 3, "g")
+def _summary(found: FajansValues) -> list[str]:
+    return [
+        f"cation_polarising_power_e_per_A2 = {fmt(found.cation_polarising_power_e_per_A2, '.3g')}"
+        f" (max {fmt(found.cation_polarising_power_max_e_per_A2, '.3g')}) [count-weighted mean over cations]",
+        f"anion_polarisability_A3 = {fmt(found.anion_polarisability_A3, '.3g')}"
+        f" (max {fmt(found.anion_polarisability_max_A3, '.3g')}; basis {found.anion_polarisability_basis})"
+        " [count-weighted mean over anions]",
+        f"cation_pseudo_noble_gas = {found.cation_pseudo_noble_gas} [18 or 18+2 electron cation present]",
+        f"fajans_contact_index = {fmt(found.fajans_contact_index, '.3g')} [{_INDEX_EQUATION}, pair-weighted mean]",
+        f"covalency_risk = {found.covalency_risk} [{_RISK_RULE}; worst pair]",
+    ]
 
 
 @protocol(
     title="Fajans' rules (polarising power |z|/r^2, Shannon radii; polarisabilities of Tessman, Kahn & Shockley 1953):",
-    columns=COLUMNS, result=FajansValues, failure="Fajans values not computed",
+    columns=COLUMNS, result=FajansValues, failure="Fajans values not computed", summary=_summary,
 )
 def analyse(dec: Decomposition) -> FajansValues:
     """Fajans' measures of one compound, with notes and explain steps.
@@ -463,8 +471,8 @@ def analyse(dec: Decomposition) -> FajansValues:
         if math.isnan(power):
             notes.append(f"no radius for {ion.ion_id} ({rwhy}): its polarising power is left out")
         steps.append(
-            f"cation {ion.ion_id} x{term.count:g}: r = {_g(radius)} pm [{rwhy}]; polarising power {_POWER_EQUATION} ="
-            f" {abs(ion.charge)}/({_g(radius)}/100)^2 = {_g(power)} e/A^2; outer shell {shell} ({swhy})"
+            f"cation {ion.ion_id} x{term.count:g}: r = {fmt(radius, '.3g')} pm [{rwhy}]; polarising power {_POWER_EQUATION} ="
+            f" {abs(ion.charge)}/({fmt(radius, '.3g')}/100)^2 = {fmt(power, '.3g')} e/A^2; outer shell {shell} ({swhy})"
         )
     anions = {}
     for term in dec.anions:
@@ -474,7 +482,7 @@ def analyse(dec: Decomposition) -> FajansValues:
         anions[ion.ion_id] = dict(ion=ion, count=term.count, alpha=alpha, estimate=estimate, radius=radius, rwhy=rwhy)
         if math.isnan(alpha):
             notes.append(f"no polarisability for {ion.ion_id}: {awhy}")
-        steps.append(f"anion {ion.ion_id} x{term.count:g}: alpha = {_g(alpha)} A^3 [{awhy}]; r = {_g(radius)} pm [{rwhy}]")
+        steps.append(f"anion {ion.ion_id} x{term.count:g}: alpha = {fmt(alpha, '.3g')} A^3 [{awhy}]; r = {fmt(radius, '.3g')} pm [{rwhy}]")
 
     powers = [c["power"] for c in cations.values() if not math.isnan(c["power"])]
     alphas = [a["alpha"] for a in anions.values() if not math.isnan(a["alpha"])]
@@ -491,9 +499,9 @@ def analyse(dec: Decomposition) -> FajansValues:
         if risk is not None:
             risks.append(risk)
         steps.append(
-            f"pair {cation.ion.ion_id} / {anion.ion.ion_id} (weight {weight:.3g}): d = {_g(c['radius'])} + {_g(a['radius'])}"
-            f" = {_g(distance)} pm; index {_INDEX_EQUATION} = {_g(a['alpha'])}*{abs(cation.ion.charge)}/({_g(distance)}/100)^3"
-            f" = {_g(index)}; 18/18+2 cation: {flag}; risk {risk}"
+            f"pair {cation.ion.ion_id} / {anion.ion.ion_id} (weight {weight:.3g}): d = {fmt(c['radius'], '.3g')} + {fmt(a['radius'], '.3g')}"
+            f" = {fmt(distance, '.3g')} pm; index {_INDEX_EQUATION} = {fmt(a['alpha'], '.3g')}*{abs(cation.ion.charge)}/({fmt(distance, '.3g')}/100)^3"
+            f" = {fmt(index, '.3g')}; 18/18+2 cation: {flag}; risk {risk}"
         )
     if not risks:
         notes.append("fajans_contact_index and covalency_risk not assessed: no cation-anion pair has both radii and an anion polarisability")
@@ -507,18 +515,9 @@ def analyse(dec: Decomposition) -> FajansValues:
         fajans_contact_index=weighted_mean(index_terms),
         covalency_risk=max(risks, key=COVALENCY_RISK_LEVELS.index) if risks else None,
         notes=tuple(notes),
+        steps=tuple(steps),
     )
-    steps += [
-        f"cation_polarising_power_e_per_A2 = {_g(found.cation_polarising_power_e_per_A2)}"
-        f" (max {_g(found.cation_polarising_power_max_e_per_A2)}) [count-weighted mean over cations]",
-        f"anion_polarisability_A3 = {_g(found.anion_polarisability_A3)}"
-        f" (max {_g(found.anion_polarisability_max_A3)}; basis {found.anion_polarisability_basis})"
-        " [count-weighted mean over anions]",
-        f"cation_pseudo_noble_gas = {found.cation_pseudo_noble_gas} [18 or 18+2 electron cation present]",
-        f"fajans_contact_index = {_g(found.fajans_contact_index)} [{_INDEX_EQUATION}, pair-weighted mean]",
-        f"covalency_risk = {found.covalency_risk} [{_RISK_RULE}; worst pair]",
-    ]
-    return dataclasses.replace(found, steps=tuple(steps))
+    return found
 
 
 describe = analyse.describe

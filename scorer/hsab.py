@@ -48,7 +48,6 @@ pairs whose both classes are known; the worst pair is shown by ``explain``.
 """
 from __future__ import annotations
 
-import dataclasses
 import math
 
 import numpy as np
@@ -334,13 +333,20 @@ HsabValues = result_class(
 )
 
 
-def _missing(value) -> bool:
-    return value is None or (isinstance(value, float) and math.isnan(value))
+def _summary(found: HsabValues) -> list[str]:
+    return [
+        f"cation_hsab_class = {found.cation_hsab_class}; anion_hsab_class = {found.anion_hsab_class}",
+        f"cation_hardness_eV = {fmt(found.cation_hardness_eV)}; anion_hardness_eV ="
+        f" {fmt(found.anion_hardness_eV)} [count-weighted means]",
+        f"hsab_pairing_score = {fmt(found.hsab_pairing_score)} [{_SOFTNESS_TEXT};"
+        f" pair score {_SCORE_EQUATION}; pair-weighted mean]",
+        f"hsab_pairing = {found.hsab_pairing} [{_PAIRING_RULE}]",
+    ]
 
 
 @protocol(
     title="Hard and soft acids and bases (Pearson's lists; hardness (I - A)/2, Parr & Pearson 1983):",
-    columns=COLUMNS, result=HsabValues, failure="HSAB values not computed",
+    columns=COLUMNS, result=HsabValues, failure="HSAB values not computed", summary=_summary,
 )
 def analyse(dec: Decomposition) -> HsabValues:
     """Pearson's classes and hardnesses of one compound, with notes and explain steps.
@@ -372,9 +378,10 @@ def analyse(dec: Decomposition) -> HsabValues:
             info[ion.ion_id] = cls
             classes.append(cls)
             etas.append((eta, term.count))
-            missing = [what for what, v in (("class", cls), ("hardness", eta)) if _missing(v)]
+            # None or NaN (v != v): no class or no hardness
+            missing = [what for what, v in (("class", cls), ("hardness", eta)) if v is None or v != v]
             if missing:
-                reasons = "; ".join(dict.fromkeys(w for w, v in ((cwhy, cls), (ewhy, eta)) if _missing(v)))
+                reasons = "; ".join(dict.fromkeys(w for w, v in ((cwhy, cls), (ewhy, eta)) if v is None or v != v))
                 notes.append(f"no HSAB {' or '.join(missing)} for {ion.ion_id}: {reasons}")
             steps.append(f"{side} {ion.ion_id} x{term.count:g}: class {cls} [{cwhy}]; hardness {fmt(eta)} eV [{ewhy}]")
         values[f"{side}_hsab_class"] = _side_class(classes)
@@ -392,20 +399,13 @@ def analyse(dec: Decomposition) -> HsabValues:
             f" weight {weight:.3g}: score {_SCORE_EQUATION} = {fmt(score)}"
         )
     score = weighted_mean(scores)
-    found = HsabValues(**values, hsab_pairing_score=score, hsab_pairing=hsab_pairing_label(score))
     if math.isnan(score):
         notes.append("hsab_pairing not assessed: no cation-anion pair has both classes in Pearson's lists")
     if worst is not None and len(scores) > 1:
         steps.append(f"worst pair: {worst[1]} / {worst[2]}, score {worst[0]:.2f}")
-    steps += [
-        f"cation_hsab_class = {found.cation_hsab_class}; anion_hsab_class = {found.anion_hsab_class}",
-        f"cation_hardness_eV = {fmt(found.cation_hardness_eV)}; anion_hardness_eV ="
-        f" {fmt(found.anion_hardness_eV)} [count-weighted means]",
-        f"hsab_pairing_score = {fmt(found.hsab_pairing_score)} [{_SOFTNESS_TEXT};"
-        f" pair score {_SCORE_EQUATION}; pair-weighted mean]",
-        f"hsab_pairing = {found.hsab_pairing} [{_PAIRING_RULE}]",
-    ]
-    return dataclasses.replace(found, notes=tuple(notes), steps=tuple(steps))
+    return HsabValues(
+        **values, hsab_pairing_score=score, hsab_pairing=hsab_pairing_label(score), notes=tuple(notes), steps=tuple(steps)
+    )
 
 
 describe = analyse.describe

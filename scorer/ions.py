@@ -127,6 +127,7 @@ def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     return tuple((state, _PENALTY_EXTRA_STATE if extra else 0.0) for state, extra in listed_states(symbol))
 
 
+@per_input(maxsize=4096)
 def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
     metal = is_metal(symbol)

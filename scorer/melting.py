@@ -526,7 +526,7 @@ _HYDRATE = (
 
 
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
-          maxsize=16384)
+          summary=lambda result: _summary(result), maxsize=16384)
 def analyse(dec: Decomposition) -> MeltingTrend:
     """``mp_trend_index`` and ``melting_class`` for one compound, with notes and explain steps.
 
@@ -564,8 +564,13 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         melting_class=melting_class_from_index(index),
         terms=terms,
         notes=tuple(notes),
-        steps=_steps(terms, index),
     )
+
+
+def _summary(result: MeltingTrend) -> tuple[str, ...]:
+    if result.terms is None or result.mp_trend_index != result.mp_trend_index:
+        return ()
+    return _steps(result.terms, result.terms.index())
 
 
 def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
@@ -573,7 +578,7 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
     u = terms.lattice_energy_per_ion_kJ_mol
     kappa = 0.0 if not math.isfinite(terms.contact_index) else terms.contact_index
     return (
-        f"mp_trend_index = {fmt(index, 3)} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
+        f"mp_trend_index = {fmt(index, '.3f')} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
         " typical scatter a factor 1.5)",
         f"melting_class = {melting_class_from_index(index)} (thresholds on the trend temperature:"
         + ", ".join(f" {name} < {upper:g} K" for name, upper, _ in MELTING_CLASSES[:-1]) + ")",
