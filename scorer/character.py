@@ -58,7 +58,7 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from ionicity.scorer.descriptor import fmt, protocol, result_class
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm
 
@@ -539,21 +539,20 @@ def _composition_text(rows) -> str:
     return " ".join(f"{s}{n:g}(chi {fmt(chi)})" for s, n, chi in rows)
 
 
-def _summary(found: BondCharacter) -> list[str]:
-    return [
-        f"delta_chi_pauling = {fmt(found.delta_chi_pauling)}",
-        f"ionic_character_pauling_pct = {fmt(found.ionic_character_pauling_pct, '.1f')} [{PAULING_EQUATION}; Pauling 1960]",
-        f"ionic_character_hannay_smyth_pct = {fmt(found.ionic_character_hannay_smyth_pct, '.1f')}"
-        f" [{HANNAY_SMYTH_EQUATION}, capped at 100; Hannay & Smyth 1946]",
-        f"ionic_character_pauling_min_pct = {fmt(found.ionic_character_pauling_min_pct, '.1f')} [least ionic pair]",
-        f"mean_chi_pauling = {fmt(found.mean_chi_pauling, '.3f')}; bond_type = {found.bond_type}"
-        f" [van Arkel-Ketelaar triangle: {_BOND_TYPE_RULE}; common practice]",
-    ]
+_EXPLAINED = {
+    "delta_chi_pauling": (".2f", ""),
+    "ionic_character_pauling_pct": (".1f", f"{PAULING_EQUATION}; Pauling 1960"),
+    "ionic_character_hannay_smyth_pct": (".1f", f"{HANNAY_SMYTH_EQUATION}, capped at 100; Hannay & Smyth 1946"),
+    "ionic_character_pauling_min_pct": (".1f", "least ionic pair"),
+    "mean_chi_pauling": (".3f", ""),
+    "bond_type": ("", f"van Arkel-Ketelaar triangle: {_BOND_TYPE_RULE}; common practice"),
+}
 
 
 @protocol(
     title="Bond character (Pauling electronegativities, CRC Handbook via mendeleev):",
-    columns=COLUMNS, result=BondCharacter, failure="bond character not computed", summary=_summary,
+    columns=COLUMNS, result=BondCharacter, failure="bond character not computed",
+    summary=value_lines(_EXPLAINED),
 )
 def analyse(dec: Decomposition) -> BondCharacter:
     """The bond-character values of one compound, with notes and explain steps.

@@ -44,7 +44,7 @@ from typing import Callable
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.model import Column, Decomposition
 
-__all__ = ["Result", "result_class", "Descriptor", "protocol", "empty_value", "fmt"]
+__all__ = ["Result", "result_class", "Descriptor", "protocol", "value_lines", "empty_value", "fmt"]
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -105,6 +105,26 @@ class Descriptor:
 
     Call it like the function it wraps: ``analyse(dec)`` returns the module's
     result, cached per decomposition, and never raises.
+
+    Parameters
+    ----------
+    analyse : callable
+        ``analyse(dec) -> result``, the module's own work.
+    title : str
+        First line of the module's ``ionicity explain`` block ("" for none).
+    columns : tuple of Column
+        The module's ``COLUMNS``; each must be a field of ``result``.
+    result : type
+        The module's frozen :class:`Result` subclass (:func:`result_class`).
+    failure : str
+        Start of the note written when ``analyse`` raises.
+    summary : callable, optional
+        ``summary(result) -> lines``: explain lines written from the result's
+        values alone (:func:`value_lines`). Formatted only when a person asks
+        (``ionicity explain``), not for every salt scored; ``steps`` keep what
+        needs the intermediate inputs (per ion, per pair).
+    maxsize : int, default=65536
+        Size of the per-decomposition cache.
     """
 
     def __init__(
@@ -172,39 +192,34 @@ class Descriptor:
         return lines
 
 
-def protocol(
-    *,
-    title: str,
-    columns: tuple[Column, ...],
-    result: type[Result],
-    failure: str,
-    summary: Callable[[Result], list[str]] | None = None,
-    maxsize: int = 65536,
-):
-    """Decorator: make a module's ``analyse`` a :class:`Descriptor`.
-
-    Parameters
-    ----------
-    title : str
-        First line of the module's ``ionicity explain`` block.
-    columns : tuple of Column
-        The module's ``COLUMNS``; each must be a field of ``result``.
-    result : type
-        The module's frozen :class:`Result` subclass.
-    failure : str
-        Start of the note written when ``analyse`` raises.
-    summary : callable, optional
-        ``summary(result) -> lines``: explain lines written from the result's
-        values alone. Formatted only when a person asks (``ionicity explain``),
-        not for every salt scored; ``steps`` keep what needs the intermediate
-        inputs (per ion, per pair).
-    maxsize : int, default=65536
-        Size of the per-decomposition cache.
-    """
+def protocol(**options):
+    """Decorator: make a module's ``analyse`` a :class:`Descriptor`; the
+    keyword options are those of :class:`Descriptor`."""
 
     def wrap(analyse):
-        return Descriptor(
-            analyse, title=title, columns=columns, result=result, failure=failure, summary=summary, maxsize=maxsize
-        )
+        return Descriptor(analyse, **options)
 
     return wrap
+
+
+def value_lines(annotations: dict[str, tuple[str, str]]) -> Callable[[Result], list[str]]:
+    """A ``summary`` for :class:`Descriptor`: one explain line per column,
+    ``name = value [how]``.
+
+    ``annotations`` maps a column name to (format spec for :func:`fmt`, or ""
+    to print the value as it is; how the value was formed, or "").
+
+    >>> Size = result_class("Size", (Column("atom_count", "float64", "", "", "", ""),), "A size.")
+    >>> value_lines({"atom_count": (".1f", "sum of counts")})(Size(atom_count=2.0))
+    ['atom_count = 2.0 [sum of counts]']
+    """
+
+    def summary(result: Result) -> list[str]:
+        lines = []
+        for name, (spec, how) in annotations.items():
+            value = getattr(result, name)
+            line = f"{name} = {fmt(value, spec) if spec else value}"
+            lines.append(f"{line} [{how}]" if how else line)
+        return lines
+
+    return summary

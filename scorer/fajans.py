@@ -42,7 +42,7 @@ import math
 import numpy as np
 from ionicity.scorer.character import contact_pairs, weighted_mean
 from ionicity.scorer.caching import once
-from ionicity.scorer.descriptor import fmt, protocol, result_class
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.radii import atomic_volumes_A3, ion_radius_pm, ion_volume_nm3, sphere_radius_pm
@@ -433,22 +433,22 @@ FajansValues = result_class(
 )
 
 
-def _summary(found: FajansValues) -> list[str]:
-    return [
-        f"cation_polarising_power_e_per_A2 = {fmt(found.cation_polarising_power_e_per_A2, '.3g')}"
-        f" (max {fmt(found.cation_polarising_power_max_e_per_A2, '.3g')}) [count-weighted mean over cations]",
-        f"anion_polarisability_A3 = {fmt(found.anion_polarisability_A3, '.3g')}"
-        f" (max {fmt(found.anion_polarisability_max_A3, '.3g')}; basis {found.anion_polarisability_basis})"
-        " [count-weighted mean over anions]",
-        f"cation_pseudo_noble_gas = {found.cation_pseudo_noble_gas} [18 or 18+2 electron cation present]",
-        f"fajans_contact_index = {fmt(found.fajans_contact_index, '.3g')} [{_INDEX_EQUATION}, pair-weighted mean]",
-        f"covalency_risk = {found.covalency_risk} [{_RISK_RULE}; worst pair]",
-    ]
+_EXPLAINED = {
+    "cation_polarising_power_e_per_A2": (".3g", "count-weighted mean over cations"),
+    "cation_polarising_power_max_e_per_A2": (".3g", "max over cations"),
+    "anion_polarisability_A3": (".3g", "count-weighted mean over anions"),
+    "anion_polarisability_max_A3": (".3g", "max over anions"),
+    "anion_polarisability_basis": ("", ""),
+    "cation_pseudo_noble_gas": ("", "18 or 18+2 electron cation present"),
+    "fajans_contact_index": (".3g", f"{_INDEX_EQUATION}, pair-weighted mean"),
+    "covalency_risk": ("", f"{_RISK_RULE}; worst pair"),
+}
 
 
 @protocol(
-    title="Fajans' rules (polarising power |z|/r^2, Shannon radii; polarisabilities of Tessman, Kahn & Shockley 1953):",
-    columns=COLUMNS, result=FajansValues, failure="Fajans values not computed", summary=_summary,
+    title=f"Fajans' rules (polarising power {_POWER_EQUATION}, Shannon radii; polarisabilities of Tessman, Kahn & Shockley 1953):",
+    columns=COLUMNS, result=FajansValues, failure="Fajans values not computed",
+    summary=value_lines(_EXPLAINED),
 )
 def analyse(dec: Decomposition) -> FajansValues:
     """Fajans' measures of one compound, with notes and explain steps.

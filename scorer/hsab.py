@@ -53,7 +53,7 @@ import math
 import numpy as np
 from ionicity.scorer.caching import once
 from ionicity.scorer.character import contact_pairs, weighted_mean
-from ionicity.scorer.descriptor import fmt, protocol, result_class
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.tables import table
@@ -333,20 +333,20 @@ HsabValues = result_class(
 )
 
 
-def _summary(found: HsabValues) -> list[str]:
-    return [
-        f"cation_hsab_class = {found.cation_hsab_class}; anion_hsab_class = {found.anion_hsab_class}",
-        f"cation_hardness_eV = {fmt(found.cation_hardness_eV)}; anion_hardness_eV ="
-        f" {fmt(found.anion_hardness_eV)} [count-weighted means]",
-        f"hsab_pairing_score = {fmt(found.hsab_pairing_score)} [{_SOFTNESS_TEXT};"
-        f" pair score {_SCORE_EQUATION}; pair-weighted mean]",
-        f"hsab_pairing = {found.hsab_pairing} [{_PAIRING_RULE}]",
-    ]
+_EXPLAINED = {
+    "cation_hsab_class": ("", ""),
+    "anion_hsab_class": ("", ""),
+    "cation_hardness_eV": (".2f", "count-weighted mean"),
+    "anion_hardness_eV": (".2f", "count-weighted mean"),
+    "hsab_pairing_score": (".2f", f"{_SOFTNESS_TEXT}; pair score {_SCORE_EQUATION}; pair-weighted mean"),
+    "hsab_pairing": ("", _PAIRING_RULE),
+}
 
 
 @protocol(
     title="Hard and soft acids and bases (Pearson's lists; hardness (I - A)/2, Parr & Pearson 1983):",
-    columns=COLUMNS, result=HsabValues, failure="HSAB values not computed", summary=_summary,
+    columns=COLUMNS, result=HsabValues, failure="HSAB values not computed",
+    summary=value_lines(_EXPLAINED),
 )
 def analyse(dec: Decomposition) -> HsabValues:
     """Pearson's classes and hardnesses of one compound, with notes and explain steps.

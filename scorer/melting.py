@@ -525,8 +525,40 @@ _HYDRATE = (
 )
 
 
+def _summary(result: MeltingTrend) -> tuple[str, ...]:
+    if result.terms is None or result.mp_trend_index != result.mp_trend_index:
+        return ()
+    return _steps(result.terms, result.terms.index())
+
+
+def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
+    w = TREND_WEIGHTS
+    u = terms.lattice_energy_per_ion_kJ_mol
+    kappa = 0.0 if not math.isfinite(terms.contact_index) else terms.contact_index
+    return (
+        f"mp_trend_index = {fmt(index, '.3f')} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
+        " typical scatter a factor 1.5)",
+        f"melting_class = {melting_class_from_index(index)} (thresholds on the trend temperature:"
+        + ", ".join(f" {name} < {upper:g} K" for name, upper, _ in MELTING_CLASSES[:-1]) + ")",
+        "  T = (10**I_ion * nu*s0 + T_PE*w_s*S_pack) / (nu*s0 + w_s*S_flex), I = log10 T (melting_trend_index)",
+        f"  cohesion: {w['cohesion_exponent']} * log10(u / {w['reference_energy_per_ion_kJ_mol']:g}) with"
+        f" u = {terms.lattice_energy_kJ_mol:.0f} kJ/mol / {terms.ions_per_formula_unit:g} ions = {u:.0f} kJ/mol"
+        f" ({terms.lattice_energy_basis})",
+        f"  covalency: -{w['contact_chi']} * (contact chi {terms.contact_chi_pauling:.3f} - {w['reference_contact_chi']})"
+        f", -{w['contact_index']} * Fajans contact index {kappa:.3f}"
+        f", -{w['pseudo_noble_gas']} * 18/18+2-electron cation ({'yes' if terms.pseudo_noble_gas else 'no'})",
+        f"  entropy: -{w['polyatomic_anion']} * polyatomic-anion share {terms.polyatomic_anion_fraction:.2f}"
+        f", -{w['ions_per_formula_unit']} * log10(nu/2), nu = {terms.ions_per_formula_unit:g}",
+        f"  organic ions: S_flex = {terms.flexibility_entropy_J_mol_K:.1f} J/(mol K), S_pack ="
+        f" {terms.chain_packing_entropy_J_mol_K:.1f} J/(mol K) (Dannenfelser-Yalkowsky, w_s = {w['flexibility']},"
+        f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
+        f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions {terms.delocalised_fraction:.2f}",
+        "  caution: " + CAUTION,
+    )
+
+
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
-          summary=lambda result: _summary(result), maxsize=16384)
+          summary=_summary, maxsize=16384)
 def analyse(dec: Decomposition) -> MeltingTrend:
     """``mp_trend_index`` and ``melting_class`` for one compound, with notes and explain steps.
 
@@ -564,38 +596,6 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         melting_class=melting_class_from_index(index),
         terms=terms,
         notes=tuple(notes),
-    )
-
-
-def _summary(result: MeltingTrend) -> tuple[str, ...]:
-    if result.terms is None or result.mp_trend_index != result.mp_trend_index:
-        return ()
-    return _steps(result.terms, result.terms.index())
-
-
-def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
-    w = TREND_WEIGHTS
-    u = terms.lattice_energy_per_ion_kJ_mol
-    kappa = 0.0 if not math.isfinite(terms.contact_index) else terms.contact_index
-    return (
-        f"mp_trend_index = {fmt(index, '.3f')} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
-        " typical scatter a factor 1.5)",
-        f"melting_class = {melting_class_from_index(index)} (thresholds on the trend temperature:"
-        + ", ".join(f" {name} < {upper:g} K" for name, upper, _ in MELTING_CLASSES[:-1]) + ")",
-        "  T = (10**I_ion * nu*s0 + T_PE*w_s*S_pack) / (nu*s0 + w_s*S_flex), I = log10 T (melting_trend_index)",
-        f"  cohesion: {w['cohesion_exponent']} * log10(u / {w['reference_energy_per_ion_kJ_mol']:g}) with"
-        f" u = {terms.lattice_energy_kJ_mol:.0f} kJ/mol / {terms.ions_per_formula_unit:g} ions = {u:.0f} kJ/mol"
-        f" ({terms.lattice_energy_basis})",
-        f"  covalency: -{w['contact_chi']} * (contact chi {terms.contact_chi_pauling:.3f} - {w['reference_contact_chi']})"
-        f", -{w['contact_index']} * Fajans contact index {kappa:.3f}"
-        f", -{w['pseudo_noble_gas']} * 18/18+2-electron cation ({'yes' if terms.pseudo_noble_gas else 'no'})",
-        f"  entropy: -{w['polyatomic_anion']} * polyatomic-anion share {terms.polyatomic_anion_fraction:.2f}"
-        f", -{w['ions_per_formula_unit']} * log10(nu/2), nu = {terms.ions_per_formula_unit:g}",
-        f"  organic ions: S_flex = {terms.flexibility_entropy_J_mol_K:.1f} J/(mol K), S_pack ="
-        f" {terms.chain_packing_entropy_J_mol_K:.1f} J/(mol K) (Dannenfelser-Yalkowsky, w_s = {w['flexibility']},"
-        f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
-        f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions {terms.delocalised_fraction:.2f}",
-        "  caution: " + CAUTION,
     )
 
 
