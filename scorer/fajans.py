@@ -396,10 +396,7 @@ def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
 
 def _radius(ion: Ion) -> tuple[float, str]:
     """Radius from scorer.radii; where it has none (H-, As3-, Si4-), the sphere of the ion's volume."""
-    try:
-        radius, why = ion_radius_pm(ion)
-    except Exception as exc:  # a radius lookup must not stop the row
-        return math.nan, f"no radius: {type(exc).__name__}: {exc}"
+    radius, why = ion_radius_pm(ion)
     if radius is not None and not math.isnan(radius) and radius > 0:
         return float(radius), why
     if ion.charge > 0:

@@ -514,8 +514,6 @@ def _why_not(dec: Decomposition) -> str | None:
         return None  # covalent, metallic, elements: the index does not apply, no note needed
     if dec.substance_class == "acid":
         return "melting trend: not estimated for an acid (a molecular substance, not an ionic crystal)"
-    if dec.substance_class == "ion":
-        return "melting trend: a lone ion has no melting point"
     return None
 
 
@@ -582,10 +580,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     notes = list(terms.notes)
     if not math.isfinite(terms.lattice_energy_kJ_mol):
         return MeltingTrend(notes=(*notes, _NO_LATTICE_ENERGY), steps=(_NO_LATTICE_ENERGY,), terms=terms)
+    # finite here: a finite lattice energy over a positive ion count, the other terms finite or defaulted
     index = terms.index()
-    if not math.isfinite(index):
-        text = "melting trend: the index could not be formed from these inputs"
-        return MeltingTrend(notes=(*notes, text), steps=(text,), terms=terms)
     if dec.hydrate_water:
         notes.append(_HYDRATE)
     for t in dec.cations + dec.anions:
