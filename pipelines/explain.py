@@ -3,17 +3,13 @@ from __future__ import annotations
 
 import math
 
+from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import descriptor_modules, output_columns
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.record import score_parsed
 
 __all__ = ["explain_formula", "columns_table"]
-
-CAUTION = (
-    "Screening estimates, not safety data: check the safety data sheet, local codes and a qualified"
-    " person before storing, mixing, heating or wetting any chemical."
-)
 
 
 def _value_text(value) -> str:
@@ -56,7 +52,7 @@ def explain_formula(text: str) -> str:
         for line in module.explain(dec):
             lines.append(f"    {line}")
     lines.append("")
-    lines.append(CAUTION)
+    lines.append(caution_sentence())
     return "\n".join(lines)
 
 

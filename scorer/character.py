@@ -57,6 +57,9 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm
 
 __all__ = [
@@ -64,6 +67,8 @@ __all__ = [
     "BOND_TYPES",
     "IONIC_DELTA_CHI",
     "POLAR_DELTA_CHI",
+    "BondCharacter",
+    "analyse",
     "describe",
     "explain",
     "contact_atom",
@@ -98,6 +103,18 @@ _SOURCE_VAK = (
     "van Arkel, Molecules and Crystals, 1941 (Dutch ed.); Ketelaar, Chemical Constitution, 1947; "
     "Jensen, J. Chem. Educ. 1995, 72, 395; boundaries common practice"
 )
+# Each equation's text, written once: the column declarations and the explain
+# lines both quote it.
+PAULING_EQUATION = "100*(1 - exp(-dchi^2/4))"
+HANNAY_SMYTH_EQUATION = "16*|dchi| + 3.5*dchi^2"
+_MEAN_CHI_CONTACT = "(chi_cation_contact + chi_anion_contact)/2"
+_MEAN_CHI_COMPOSITION = "sum(n_i*chi_i)/sum(n_i)"
+_BOND_TYPE_RULE = (
+    f"ionic if dchi >= {IONIC_DELTA_CHI} and mean - dchi/2 < {IONIC_MAX_LOW_CHI};"
+    f" else if dchi >= {POLAR_DELTA_CHI}: ionic_covalent when mean + dchi/2 >= {NONMETAL_MIN_HIGH_CHI},"
+    f" otherwise metallic_ionic; else by mean: < {METALLIC_MAX_MEAN_CHI} metallic,"
+    f" < {COVALENT_MIN_MEAN_CHI} covalent_metallic, otherwise covalent"
+)
 _AGG_PAIRS = (
     "several ions: mean over cation-anion pairs weighted by the product of each ion's stoichiometric "
     "fraction on its own side; no ions: from the composition (see method)"
@@ -115,24 +132,24 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         "ionic_character_pauling_pct", "float64", "%",
         "Pauling's amount of ionic character of the contact bond",
-        "100*(1 - exp(-dchi^2/4)) per pair", _SOURCE_PAULING, _AGG_PAIRS,
+        f"{PAULING_EQUATION} per pair", _SOURCE_PAULING, _AGG_PAIRS,
     ),
     Column(
         "ionic_character_hannay_smyth_pct", "float64", "%",
         "Hannay-Smyth ionic character of the contact bond, capped at 100",
-        "16*|dchi| + 3.5*dchi^2 per pair", _SOURCE_HS, _AGG_PAIRS,
+        f"{HANNAY_SMYTH_EQUATION} per pair", _SOURCE_HS, _AGG_PAIRS,
     ),
     Column(
         "ionic_character_pauling_min_pct", "float64", "%",
         "Pauling ionic character of the least ionic cation-anion pair (equals the mean for one pair)",
-        "min over pairs of 100*(1 - exp(-dchi^2/4))", _SOURCE_PAULING,
+        f"min over pairs of {PAULING_EQUATION}", _SOURCE_PAULING,
         "extreme pair: the minimum over cation-anion pairs; without ions as ionic_character_pauling_pct",
     ),
     Column(
         "mean_chi_pauling", "float64", "Pauling units",
         "x coordinate of the van Arkel-Ketelaar triangle: mean electronegativity of the contact pair"
         " (salts) or composition-weighted mean (no ions)",
-        "(chi_cation_contact + chi_anion_contact)/2; without ions sum(n_i*chi_i)/sum(n_i)",
+        f"{_MEAN_CHI_CONTACT}; without ions {_MEAN_CHI_COMPOSITION}",
         _SOURCE_VAK, _AGG_PAIRS,
     ),
     Column(
@@ -140,9 +157,7 @@ COLUMNS: tuple[Column, ...] = (
         "region of the van Arkel-Ketelaar triangle: ionic, ionic_covalent (polar covalent),"
         " covalent, covalent_metallic (metalloid, semiconductor), metallic, metallic_ionic"
         " (Zintl-like, polar intermetallic)",
-        "from (mean_chi_pauling, delta_chi_pauling): ionic if dchi >= 1.7 and mean - dchi/2 < 2.0;"
-        " else if dchi >= 0.5: ionic_covalent when mean + dchi/2 >= 2.15, otherwise metallic_ionic;"
-        " else by mean: < 1.95 metallic, < 2.2 covalent_metallic, otherwise covalent",
+        f"from (mean_chi_pauling, delta_chi_pauling): {_BOND_TYPE_RULE}",
         _SOURCE_VAK, "several ions: classified from the pair-weighted coordinates",
     ),
 )
@@ -179,8 +194,6 @@ def pauling_ionic_character_pct(delta_chi):
     >>> round(pauling_ionic_character_pct(1.0), 1), round(pauling_ionic_character_pct(2.0), 1)
     (22.1, 63.2)
     """
-    import numpy as np
-
     d = np.asarray(delta_chi, dtype=float)
     value = 100.0 * (1.0 - np.exp(-(d * d) / 4.0))
     return float(value) if value.ndim == 0 else value
@@ -215,8 +228,6 @@ def hannay_smyth_ionic_character_pct(delta_chi):
     >>> round(hannay_smyth_ionic_character_pct(1.9), 1)
     43.0
     """
-    import numpy as np
-
     d = np.abs(np.asarray(delta_chi, dtype=float))
     value = np.minimum(16.0 * d + 3.5 * d * d, 100.0)
     return float(value) if value.ndim == 0 else value
@@ -298,8 +309,6 @@ def pauling_electronegativity(symbol: str) -> float:
     >>> pauling_electronegativity("Cl")
     3.16
     """
-    from ionicity.scorer.elements import get_element
-
     try:
         return float(get_element(symbol).electronegativity_pauling)
     except KeyError:
@@ -312,15 +321,6 @@ _HALOGENS = ("F", "Cl", "Br", "I", "At")
 # fulminate bind through C; thiocyanate, selenocyanate and cyanate through N.
 _PSEUDOHALIDE_CONTACT = {"CN": "C", "CNO": "C", "SCN": "N", "SeCN": "N", "OCN": "N"}
 _NITRILE_FAMILIES = ("cyano-complex", "cyano-anion")
-
-
-def _is_metal(symbol: str) -> bool:
-    from ionicity.scorer.elements import get_element
-
-    try:
-        return get_element(symbol).is_metal
-    except KeyError:
-        return False
 
 
 def contact_atom(ion: Ion) -> tuple[str | None, str]:
@@ -372,7 +372,7 @@ def contact_atom(ion: Ion) -> tuple[str | None, str]:
             return None, "no element of the anion has a Pauling electronegativity"
         candidates = [s for s in known if s != "H"] or known
         return max(candidates, key=lambda s: chi[s]), "most electronegative non-H atom of the anion"
-    metals = [s for s in elements if _is_metal(s)]
+    metals = [s for s in elements if is_metal(s)]
     if metals and ion.family != "ammine-complex":
         known_metals = [s for s in metals if not math.isnan(chi[s])] or metals
         best = min(known_metals, key=lambda s: chi[s] if not math.isnan(chi[s]) else 9.0)
@@ -415,11 +415,12 @@ def weighted_mean(values: list[tuple[float, float]]) -> float:
     return sum(v * w for v, w in usable) / total
 
 
-def _fmt(value: float, digits: int = 2) -> str:
-    return "nan" if value is None or math.isnan(value) else f"{value:.{digits}f}"
-
-
 # ------------------------------------------------------------------ per compound
+
+
+BondCharacter = result_class(
+    "BondCharacter", COLUMNS, "The bond-character values of one compound (fields named as the columns).",
+)
 
 
 def _pair_rows(dec: Decomposition) -> list[dict]:
@@ -452,63 +453,57 @@ def _composition_chis(dec: Decomposition) -> tuple[list[tuple[str, float, float]
     return rows, missing
 
 
-def _empty_values() -> dict[str, object]:
-    return {c.name: (None if c.dtype == "string" else math.nan) for c in COLUMNS}
-
-
-def _analyse(dec: Decomposition) -> tuple[dict[str, object], list[str], list[str]]:
-    values = _empty_values()
+def _ionic(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
+    values: dict = {}
     notes: list[str] = []
-    lines: list[str] = []
-    if dec.is_ionic:
-        rows = _pair_rows(dec)
-        bad = [r for r in rows if math.isnan(r["delta"])]
-        for r in bad:
+    steps: list[str] = []
+    rows = _pair_rows(dec)
+    for r in rows:
+        if math.isnan(r["delta"]):
             which = [a for a, chi in ((r["c_atom"], r["chi_c"]), (r["a_atom"], r["chi_a"])) if math.isnan(chi)]
             notes.append(
                 f"no Pauling electronegativity for {', '.join(str(w) for w in which) or 'a contact atom'}"
                 f" ({r['cation']} with {r['anion']}): bond-character values left out for that pair"
             )
-        good = [r for r in rows if not math.isnan(r["delta"])]
-        if good:
-            delta = weighted_mean([(r["delta"], r["weight"]) for r in good])
-            mean = weighted_mean([(r["mean"], r["weight"]) for r in good])
-            values.update(
-                delta_chi_pauling=delta,
-                ionic_character_pauling_pct=weighted_mean([(r["pauling"], r["weight"]) for r in good]),
-                ionic_character_hannay_smyth_pct=weighted_mean([(r["hannay_smyth"], r["weight"]) for r in good]),
-                ionic_character_pauling_min_pct=min(r["pauling"] for r in good),
-                mean_chi_pauling=mean,
-                bond_type=van_arkel_ketelaar_bond_type(mean, delta),
-            )
-        for r in rows:
-            lines.append(
-                f"pair {r['cation']} / {r['anion']} (weight {r['weight']:.3g}): contact atoms"
-                f" {r['c_atom']} ({r['c_why']}; chi {_fmt(r['chi_c'])}) and {r['a_atom']} ({r['a_why']};"
-                f" chi {_fmt(r['chi_a'])}); dchi = |{_fmt(r['chi_a'])} - {_fmt(r['chi_c'])}| = {_fmt(r['delta'])};"
-                f" Pauling 100*(1 - exp(-dchi^2/4)) = {_fmt(r['pauling'], 1)} %;"
-                f" Hannay-Smyth 16*dchi + 3.5*dchi^2 = {_fmt(r['hannay_smyth'], 1)} %"
-            )
-        if len(rows) > 1:
-            lines.append("several ions: pair values averaged with the weights shown (product of stoichiometric fractions)")
-        return values, notes, lines
+    good = [r for r in rows if not math.isnan(r["delta"])]
+    if good:
+        delta = weighted_mean([(r["delta"], r["weight"]) for r in good])
+        mean = weighted_mean([(r["mean"], r["weight"]) for r in good])
+        values.update(
+            delta_chi_pauling=delta,
+            ionic_character_pauling_pct=weighted_mean([(r["pauling"], r["weight"]) for r in good]),
+            ionic_character_hannay_smyth_pct=weighted_mean([(r["hannay_smyth"], r["weight"]) for r in good]),
+            ionic_character_pauling_min_pct=min(r["pauling"] for r in good),
+            mean_chi_pauling=mean,
+            bond_type=van_arkel_ketelaar_bond_type(mean, delta),
+        )
+    for r in rows:
+        steps.append(
+            f"pair {r['cation']} / {r['anion']} (weight {r['weight']:.3g}): contact atoms"
+            f" {r['c_atom']} ({r['c_why']}; chi {fmt(r['chi_c'])}) and {r['a_atom']} ({r['a_why']};"
+            f" chi {fmt(r['chi_a'])}); dchi = |{fmt(r['chi_a'])} - {fmt(r['chi_c'])}| = {fmt(r['delta'])};"
+            f" Pauling {PAULING_EQUATION} = {fmt(r['pauling'], '.1f')} %;"
+            f" Hannay-Smyth {HANNAY_SMYTH_EQUATION} = {fmt(r['hannay_smyth'], '.1f')} %"
+        )
+    if len(rows) > 1:
+        steps.append("several ions: pair values averaged with the weights shown (product of stoichiometric fractions)")
+    return values, notes, steps
 
+
+def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
     rows, missing = _composition_chis(dec)
     if not rows:
-        notes.append("no composition: bond-character values not computed")
-        return values, notes, lines
+        return {}, ["no composition: bond-character values not computed"], []
     if missing:
-        notes.append(
-            f"no Pauling electronegativity for {', '.join(missing)}: bond-character values not computed"
-        )
-        lines.append(f"composition {_composition_text(rows)}; missing Pauling electronegativity for {', '.join(missing)}")
-        return values, notes, lines
+        return {}, [f"no Pauling electronegativity for {', '.join(missing)}: bond-character values not computed"], [
+            f"composition {_composition_text(rows)}; missing Pauling electronegativity for {', '.join(missing)}"
+        ]
     chis = [chi for _, _, chi in rows]
     total = sum(n for _, n, _ in rows)
     mean = sum(n * chi for _, n, chi in rows) / total
     delta = max(chis) - min(chis)
     bond_type = van_arkel_ketelaar_bond_type(mean, delta)
-    values.update(
+    values = dict(
         delta_chi_pauling=delta,
         ionic_character_pauling_pct=pauling_ionic_character_pct(delta),
         ionic_character_hannay_smyth_pct=hannay_smyth_ionic_character_pct(delta),
@@ -518,13 +513,14 @@ def _analyse(dec: Decomposition) -> tuple[dict[str, object], list[str], list[str
     )
     hi = max(rows, key=lambda r: r[2])
     lo = min(rows, key=lambda r: r[2])
-    lines.append(
+    steps = [
         f"no ions ({dec.substance_class}): composition {_composition_text(rows)}; dchi = max - min ="
-        f" {_fmt(hi[2])} ({hi[0]}) - {_fmt(lo[2])} ({lo[0]}) = {_fmt(delta)}; mean chi ="
-        f" sum(n*chi)/sum(n) = {_fmt(mean, 3)}"
-    )
+        f" {fmt(hi[2])} ({hi[0]}) - {fmt(lo[2])} ({lo[0]}) = {fmt(delta)}; mean chi ="
+        f" {_MEAN_CHI_COMPOSITION} = {fmt(mean, '.3f')}"
+    ]
+    notes = []
     symbols = [s for s, _, _ in rows]
-    metal_flags = [_is_metal(s) for s in symbols]
+    metal_flags = [is_metal(s) for s in symbols]
     if all(metal_flags) and bond_type not in ("metallic", "metallic_ionic"):
         high = [s for s in symbols if pauling_electronegativity(s) >= METALLIC_MAX_MEAN_CHI]
         notes.append(
@@ -536,54 +532,46 @@ def _analyse(dec: Decomposition) -> tuple[dict[str, object], list[str], list[str
             f"bond_type metallic: Pauling's scale puts {', '.join(symbols)} among the metals"
             " although no element here is a metal"
         )
-    return values, notes, lines
+    return values, notes, steps
 
 
 def _composition_text(rows) -> str:
-    return " ".join(f"{s}{n:g}(chi {_fmt(chi)})" for s, n, chi in rows)
+    return " ".join(f"{s}{n:g}(chi {fmt(chi)})" for s, n, chi in rows)
 
 
-def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
-    """Values for every column of :data:`COLUMNS`, and notes for the row.
+_EXPLAINED = {
+    "delta_chi_pauling": (".2f", ""),
+    "ionic_character_pauling_pct": (".1f", f"{PAULING_EQUATION}; Pauling 1960"),
+    "ionic_character_hannay_smyth_pct": (".1f", f"{HANNAY_SMYTH_EQUATION}, capped at 100; Hannay & Smyth 1946"),
+    "ionic_character_pauling_min_pct": (".1f", "least ionic pair"),
+    "mean_chi_pauling": (".3f", ""),
+    "bond_type": ("", f"van Arkel-Ketelaar triangle: {_BOND_TYPE_RULE}; common practice"),
+}
 
-    Never raises: odd input gives NaN/None values and a note saying why.
+
+@protocol(
+    title="Bond character (Pauling electronegativities, CRC Handbook via mendeleev):",
+    columns=COLUMNS, result=BondCharacter, failure="bond character not computed",
+    summary=value_lines(_EXPLAINED),
+)
+def analyse(dec: Decomposition) -> BondCharacter:
+    """The bond-character values of one compound, with notes and explain steps.
+
+    Never raises (see :mod:`scorer.descriptor`): odd input gives NaN/None
+    values and a note saying why.
 
     Examples
     --------
     >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
     >>> na = Ion("Na(+)", "Na", 1, (("Na", 1),), "monatomic", element="Na")
     >>> cl = Ion("Cl(-)", "Cl", -1, (("Cl", 1),), "monatomic", element="Cl")
-    >>> values, notes = describe(Decomposition(cations=(IonTerm(na, 1),), anions=(IonTerm(cl, 1),)))
-    >>> round(values["delta_chi_pauling"], 2), round(values["ionic_character_pauling_pct"], 1), values["bond_type"]
+    >>> r = analyse(Decomposition(cations=(IonTerm(na, 1),), anions=(IonTerm(cl, 1),)))
+    >>> round(r.delta_chi_pauling, 2), round(r.ionic_character_pauling_pct, 1), r.bond_type
     (2.23, 71.2, 'ionic')
     """
-    try:
-        values, notes, _ = _analyse(dec)
-    except Exception as exc:  # a descriptor must never stop the batch
-        return _empty_values(), [f"bond character not computed: {type(exc).__name__}: {exc}"]
-    return values, notes
+    values, notes, steps = (_ionic if dec.is_ionic else _without_ions)(dec)
+    return BondCharacter(**values, notes=tuple(notes), steps=tuple(steps))
 
 
-def explain(dec: Decomposition) -> list[str]:
-    """Lines for ``ionicity explain``: each value with its inputs and equation."""
-    try:
-        values, notes, lines = _analyse(dec)
-    except Exception as exc:
-        return [f"bond character not computed: {type(exc).__name__}: {exc}"]
-    out = ["Bond character (Pauling electronegativities, CRC Handbook via mendeleev):"]
-    out += ["  " + line for line in lines]
-    mean, delta = values["mean_chi_pauling"], values["delta_chi_pauling"]
-    out += [
-        f"  delta_chi_pauling = {_fmt(delta)}",
-        f"  ionic_character_pauling_pct = {_fmt(values['ionic_character_pauling_pct'], 1)}"
-        " [100*(1 - exp(-dchi^2/4)); Pauling 1960]",
-        f"  ionic_character_hannay_smyth_pct = {_fmt(values['ionic_character_hannay_smyth_pct'], 1)}"
-        " [16*|dchi| + 3.5*dchi^2, capped at 100; Hannay & Smyth 1946]",
-        f"  ionic_character_pauling_min_pct = {_fmt(values['ionic_character_pauling_min_pct'], 1)} [least ionic pair]",
-        f"  mean_chi_pauling = {_fmt(mean, 3)}; bond_type = {values['bond_type']} [van Arkel-Ketelaar triangle:"
-        f" ionic if dchi >= {IONIC_DELTA_CHI} and mean - dchi/2 < {IONIC_MAX_LOW_CHI}; polar band dchi >= {POLAR_DELTA_CHI}"
-        f" split at mean + dchi/2 = {NONMETAL_MIN_HIGH_CHI}; base split at mean {METALLIC_MAX_MEAN_CHI} and"
-        f" {COVALENT_MIN_MEAN_CHI}; common practice]",
-    ]
-    out += ["  note: " + n for n in notes]
-    return out
+describe = analyse.describe
+explain = analyse.explain

@@ -13,7 +13,9 @@ import importlib
 from ionicity.scorer.caching import once
 from ionicity.scorer.model import Column
 
-__all__ = ["Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules"]
+__all__ = [
+    "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules", "descriptors",
+]
 
 _PARSER = "scorer.formula grammar"
 _SOLVER = "scorer.ions charge-balance solver"
@@ -71,11 +73,17 @@ def descriptor_modules() -> tuple:
 
 
 @once
+def descriptors() -> tuple:
+    """Each descriptor module's ``analyse`` (a :class:`scorer.descriptor.Descriptor`), in column order."""
+    return tuple(module.analyse for module in descriptor_modules())
+
+
+@once
 def output_columns() -> tuple[Column, ...]:
     """Every generated column, in output order; names are unique."""
     columns = list(BASE_COLUMNS)
-    for module in descriptor_modules():
-        columns.extend(module.COLUMNS)
+    for descriptor in descriptors():
+        columns.extend(descriptor.columns)
     names = [c.name for c in columns]
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:

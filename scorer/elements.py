@@ -40,18 +40,19 @@ import numbers
 from dataclasses import dataclass
 
 from ionicity.scorer.caching import once
+from ionicity.scorer.tables import data_bytes
 
 __all__ = [
     "ShannonRadius",
     "Element",
     "get_element",
     "is_element_symbol",
+    "is_metal",
     "element_symbols",
     "snapshot_info",
 ]
 
-_SNAPSHOT_PACKAGE = "ionicity.scorer"
-_SNAPSHOT_FILE = ("data", "elements.json")
+_SNAPSHOT_FILE = "elements.json"
 
 _METAL_SERIES = frozenset(
     {
@@ -211,12 +212,7 @@ def _element(entry: dict) -> Element:
 
 @once
 def _snapshot() -> tuple[dict, dict[str, Element], tuple[str, ...]]:
-    # Imported here: importlib.resources pulls in tempfile, zipfile and more,
-    # which a plain ``import scorer.elements`` should not pay for.
-    from importlib import resources
-
-    resource = resources.files(_SNAPSHOT_PACKAGE).joinpath(*_SNAPSHOT_FILE)
-    raw = json.loads(resource.read_bytes())
+    raw = json.loads(data_bytes(_SNAPSHOT_FILE))
     elements = [_element(entry) for entry in raw["elements"]]
     elements.sort(key=lambda e: e.atomic_number)
     by_symbol = {e.symbol: e for e in elements}
@@ -270,6 +266,17 @@ def is_element_symbol(text: str) -> bool:
     (True, False, False)
     """
     return isinstance(text, str) and text in _snapshot()[1]
+
+
+def is_metal(symbol: str) -> bool:
+    """Whether ``symbol`` is a metal by mendeleev's series (:attr:`Element.is_metal`);
+    False for anything that is not an element symbol. The one metal test of the scorer.
+
+    >>> is_metal("Na"), is_metal("Si"), is_metal("Xx")
+    (True, False, False)
+    """
+    element = _snapshot()[1].get(symbol) if isinstance(symbol, str) else None
+    return element is not None and element.is_metal
 
 
 def element_symbols() -> tuple[str, ...]:

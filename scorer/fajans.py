@@ -37,16 +37,22 @@ worst pair, since one covalent contact is enough to change a salt's behaviour.
 """
 from __future__ import annotations
 
-import csv
 import math
 
-from ionicity.scorer.caching import once, per_input
+import numpy as np
 from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.caching import once
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
+from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.radii import atomic_volumes_A3, ion_radius_pm, ion_volume_nm3, sphere_radius_pm
+from ionicity.scorer.tables import table
 
 __all__ = [
     "COLUMNS",
     "COVALENCY_RISK_LEVELS",
+    "FajansValues",
+    "analyse",
     "describe",
     "explain",
     "fajans_polarising_power_e_per_A2",
@@ -77,18 +83,29 @@ _EIGHTEEN_PLUS_TWO_ELECTRONS = (30, 48, 80)  # ... plus ns2
 # so each atom keeps a d10 s2 shell (Greenwood & Earnshaw 1997, ch. 29, from memory).
 _CLUSTER_SHELLS = {"Hg2(2+)": "18+2"}
 
+_PSEUDO_NOBLE_GAS_SHELLS = ("18", "18+2")
+
+# Each equation's text, written once: the column declarations and the explain
+# lines both quote it.
+_POWER_EQUATION = "|z| / r^2"
+_INDEX_EQUATION = "alpha / d^3 * |z|"
+_RISK_RULE = (
+    f"level from fajans_contact_index (< {MODERATE_INDEX} low, < {HIGH_INDEX} moderate, else high),"
+    " raised one level for an 18 or 18+2 electron cation"
+)
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "cation_polarising_power_e_per_A2", "float64", "e/angstrom^2",
         "Fajans polarising power of the cation: charge over radius squared",
-        "|z| / r^2 with r the Shannon ionic radius (CN VI when listed, else nearest; high spin when both"
+        f"{_POWER_EQUATION} with r the Shannon ionic radius (CN VI when listed, else nearest; high spin when both"
         " listed) or, for polyatomic and organic cations, the thermochemical or volume-sphere radius",
         f"{_SOURCE_FAJANS}; {_SOURCE_SHANNON}",
         "several cations: mean weighted by count per formula unit",
     ),
     Column(
         "cation_polarising_power_max_e_per_A2", "float64", "e/angstrom^2",
-        "polarising power of the most polarising cation", "max over cations of |z| / r^2",
+        "polarising power of the most polarising cation", f"max over cations of {_POWER_EQUATION}",
         f"{_SOURCE_FAJANS}; {_SOURCE_SHANNON}", "extreme: maximum over cations",
     ),
     Column(
@@ -121,7 +138,7 @@ COLUMNS: tuple[Column, ...] = (
         "fajans_contact_index", "float64", "",
         "dipole induced in the anion by the cation's field at the contact, as a fraction of"
         " (one electron x contact distance): alpha_anion * |z_cation| / d^3",
-        "alpha / d^3 * |z| with d = r_cation + r_anion (angstrom); from mu = alpha * E, E = z e / d^2"
+        f"{_INDEX_EQUATION} with d = r_cation + r_anion (angstrom); from mu = alpha * E, E = z e / d^2"
         " (Gaussian units); the combination is defined here",
         f"{_SOURCE_TKS}; {_SOURCE_SHANNON}",
         "several ions: mean over cation-anion pairs weighted by the product of stoichiometric fractions",
@@ -129,8 +146,7 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         "covalency_risk", "string", "",
         "low, moderate or high: how far Fajans' rules pull the salt towards covalent bonding",
-        f"level from fajans_contact_index (< {MODERATE_INDEX} low, < {HIGH_INDEX} moderate, else high),"
-        " raised one level for an 18 or 18+2 electron cation; thresholds defined here",
+        f"{_RISK_RULE}; thresholds defined here",
         f"{_SOURCE_FAJANS}; thresholds common practice",
         "extreme: the worst cation-anion pair",
     ),
@@ -170,8 +186,6 @@ def fajans_polarising_power_e_per_A2(charge, radius_pm):
     >>> round(fajans_polarising_power_e_per_A2(1, 102.0), 3), round(fajans_polarising_power_e_per_A2(3, 53.5), 2)
     (0.961, 10.48)
     """
-    import numpy as np
-
     r = np.asarray(radius_pm, dtype=float) / 100.0
     value = np.abs(np.asarray(charge, dtype=float)) / (r * r)
     return float(value) if value.ndim == 0 else value
@@ -217,8 +231,6 @@ def fajans_contact_index(polarisability_A3, cation_charge, contact_distance_pm):
     >>> round(fajans_contact_index(2.96, 1, 283.0), 3)
     0.131
     """
-    import numpy as np
-
     d = np.asarray(contact_distance_pm, dtype=float) / 100.0
     value = np.asarray(polarisability_A3, dtype=float) * np.abs(np.asarray(cation_charge, dtype=float)) / d**3
     return float(value) if value.ndim == 0 else value
@@ -257,8 +269,6 @@ def lorentz_lorenz_polarisability_A3(volume_A3, refractive_index):
     >>> round(lorentz_lorenz_polarisability_A3(44.86, 1.544), 2)
     3.38
     """
-    import numpy as np
-
     n2 = np.asarray(refractive_index, dtype=float) ** 2
     value = 3.0 / (4.0 * np.pi) * np.asarray(volume_A3, dtype=float) * (n2 - 1.0) / (n2 + 2.0)
     return float(value) if value.ndim == 0 else value
@@ -321,8 +331,6 @@ def outer_shell(ion: Ion) -> tuple[str, str]:
         return _CLUSTER_SHELLS[ion.ion_id], "Hg2(2+): each Hg keeps 5d10 and shares its 6s electron in the Hg-Hg bond"
     if ion.element is None:
         return "molecular", "polyatomic ion: no single-atom electron shell"
-    from ionicity.scorer.elements import get_element
-
     try:
         z_nuclear = get_element(ion.element).atomic_number
     except KeyError:
@@ -345,19 +353,16 @@ def outer_shell(ion: Ion) -> tuple[str, str]:
 @once
 def ion_polarisabilities() -> dict[str, dict]:
     """ion_id -> row of ``scorer/data/ion_polarisabilities.csv`` (read once)."""
-    from importlib import resources
-
-    text = resources.files("ionicity.scorer.data").joinpath("ion_polarisabilities.csv").read_text(encoding="utf-8")
-    table = {}
-    for row in csv.DictReader(text.splitlines()):
-        table[row["ion_id"]] = dict(
+    by_id = {}
+    for row in table("ion_polarisabilities.csv"):
+        by_id[row["ion_id"]] = dict(
             polarisability_A3=float(row["polarisability_A3"]),
             range_low_A3=float(row["range_low_A3"]) if row["range_low_A3"] else math.nan,
             range_high_A3=float(row["range_high_A3"]) if row["range_high_A3"] else math.nan,
             source=row["source"],
             note=row["note"],
         )
-    return table
+    return by_id
 
 
 def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
@@ -391,12 +396,7 @@ def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
 
 def _radius(ion: Ion) -> tuple[float, str]:
     """Radius from scorer.radii; where it has none (H-, As3-, Si4-), the sphere of the ion's volume."""
-    from ionicity.scorer.radii import ion_radius_pm, sphere_radius_pm
-
-    try:
-        radius, why = ion_radius_pm(ion)
-    except Exception as exc:  # a radius lookup must not stop the row
-        return math.nan, f"no radius: {type(exc).__name__}: {exc}"
+    radius, why = ion_radius_pm(ion)
     if radius is not None and not math.isnan(radius) and radius > 0:
         return float(radius), why
     if ion.charge > 0:
@@ -408,8 +408,6 @@ def _radius(ion: Ion) -> tuple[float, str]:
 
 
 def _anion_volume_nm3(ion: Ion) -> tuple[float, str]:
-    from ionicity.scorer.radii import atomic_volumes_A3, ion_volume_nm3
-
     volume_nm3, vwhy = ion_volume_nm3(ion)
     if (volume_nm3 is None or math.isnan(volume_nm3)) and len(ion.composition) == 1:
         # Shannon lists no radius for H-, As3-, Sb3-, Si4-: fall back on the
@@ -427,21 +425,38 @@ def _anion_volume_nm3(ion: Ion) -> tuple[float, str]:
 # ------------------------------------------------------------------ per compound
 
 
-def _fmt(value, digits: int = 3) -> str:
-    return "nan" if value is None or (isinstance(value, float) and math.isnan(value)) else f"{value:.{digits}g}"
+FajansValues = result_class(
+    "FajansValues", COLUMNS, "Fajans' measures of one compound (fields named as the columns).",
+)
 
 
-def _empty_values() -> dict[str, object]:
-    return {c.name: (None if c.dtype in ("string", "bool") else math.nan) for c in COLUMNS}
+_EXPLAINED = {
+    "cation_polarising_power_e_per_A2": (".3g", "count-weighted mean over cations"),
+    "cation_polarising_power_max_e_per_A2": (".3g", "max over cations"),
+    "anion_polarisability_A3": (".3g", "count-weighted mean over anions"),
+    "anion_polarisability_max_A3": (".3g", "max over anions"),
+    "anion_polarisability_basis": ("", ""),
+    "cation_pseudo_noble_gas": ("", "18 or 18+2 electron cation present"),
+    "fajans_contact_index": (".3g", f"{_INDEX_EQUATION}, pair-weighted mean"),
+    "covalency_risk": ("", f"{_RISK_RULE}; worst pair"),
+}
 
 
-def _analyse(dec: Decomposition):
-    values = _empty_values()
+@protocol(
+    title=f"Fajans' rules (polarising power {_POWER_EQUATION}, Shannon radii; polarisabilities of Tessman, Kahn & Shockley 1953):",
+    columns=COLUMNS, result=FajansValues, failure="Fajans values not computed",
+    summary=value_lines(_EXPLAINED),
+)
+def analyse(dec: Decomposition) -> FajansValues:
+    """Fajans' measures of one compound, with notes and explain steps.
+
+    Never raises (see :mod:`scorer.descriptor`); odd input gives NaN/None and a note.
+    """
     notes: list[str] = []
-    lines: list[str] = []
+    steps: list[str] = []
     if not dec.is_ionic:
-        lines.append(f"no ions ({dec.substance_class}): Fajans' rules apply to cation-anion contacts; values left empty")
-        return values, notes, lines
+        steps.append(f"no ions ({dec.substance_class}): Fajans' rules apply to cation-anion contacts; values left empty")
+        return FajansValues(steps=tuple(steps))
 
     cations = {}
     for term in dec.cations:
@@ -452,9 +467,9 @@ def _analyse(dec: Decomposition):
         cations[ion.ion_id] = dict(ion=ion, count=term.count, radius=radius, rwhy=rwhy, power=power, shell=shell, swhy=swhy)
         if math.isnan(power):
             notes.append(f"no radius for {ion.ion_id} ({rwhy}): its polarising power is left out")
-        lines.append(
-            f"cation {ion.ion_id} x{term.count:g}: r = {_fmt(radius)} pm [{rwhy}]; polarising power |z|/r^2 ="
-            f" {abs(ion.charge)}/({_fmt(radius)}/100)^2 = {_fmt(power)} e/A^2; outer shell {shell} ({swhy})"
+        steps.append(
+            f"cation {ion.ion_id} x{term.count:g}: r = {fmt(radius, '.3g')} pm [{rwhy}]; polarising power {_POWER_EQUATION} ="
+            f" {abs(ion.charge)}/({fmt(radius, '.3g')}/100)^2 = {fmt(power, '.3g')} e/A^2; outer shell {shell} ({swhy})"
         )
     anions = {}
     for term in dec.anions:
@@ -464,78 +479,43 @@ def _analyse(dec: Decomposition):
         anions[ion.ion_id] = dict(ion=ion, count=term.count, alpha=alpha, estimate=estimate, radius=radius, rwhy=rwhy)
         if math.isnan(alpha):
             notes.append(f"no polarisability for {ion.ion_id}: {awhy}")
-        lines.append(f"anion {ion.ion_id} x{term.count:g}: alpha = {_fmt(alpha)} A^3 [{awhy}]; r = {_fmt(radius)} pm [{rwhy}]")
+        steps.append(f"anion {ion.ion_id} x{term.count:g}: alpha = {fmt(alpha, '.3g')} A^3 [{awhy}]; r = {fmt(radius, '.3g')} pm [{rwhy}]")
 
-    values["cation_polarising_power_e_per_A2"] = weighted_mean([(c["power"], c["count"]) for c in cations.values()])
     powers = [c["power"] for c in cations.values() if not math.isnan(c["power"])]
-    values["cation_polarising_power_max_e_per_A2"] = max(powers) if powers else math.nan
-    values["anion_polarisability_A3"] = weighted_mean([(a["alpha"], a["count"]) for a in anions.values()])
     alphas = [a["alpha"] for a in anions.values() if not math.isnan(a["alpha"])]
-    values["anion_polarisability_max_A3"] = max(alphas) if alphas else math.nan
     bases = {("volume_estimate" if a["estimate"] else "table") for a in anions.values() if not math.isnan(a["alpha"])}
-    values["anion_polarisability_basis"] = (bases.pop() if len(bases) == 1 else "mixed") if bases else None
-    flags = [c["shell"] in ("18", "18+2") for c in cations.values()]
-    values["cation_pseudo_noble_gas"] = any(flags)
 
     index_terms, risks = [], []
     for cation, anion, weight in contact_pairs(dec):
         c, a = cations[cation.ion.ion_id], anions[anion.ion.ion_id]
         distance = c["radius"] + a["radius"]
         index = fajans_contact_index(a["alpha"], cation.ion.charge, distance) if not math.isnan(distance) else math.nan
-        flag = c["shell"] in ("18", "18+2")
+        flag = c["shell"] in _PSEUDO_NOBLE_GAS_SHELLS
         risk = covalency_risk_level(index, flag)
         index_terms.append((index, weight))
         if risk is not None:
             risks.append(risk)
-        lines.append(
-            f"pair {cation.ion.ion_id} / {anion.ion.ion_id} (weight {weight:.3g}): d = {_fmt(c['radius'])} + {_fmt(a['radius'])}"
-            f" = {_fmt(distance)} pm; index alpha*|z|/d^3 = {_fmt(a['alpha'])}*{abs(cation.ion.charge)}/({_fmt(distance)}/100)^3"
-            f" = {_fmt(index)}; 18/18+2 cation: {flag}; risk {risk}"
+        steps.append(
+            f"pair {cation.ion.ion_id} / {anion.ion.ion_id} (weight {weight:.3g}): d = {fmt(c['radius'], '.3g')} + {fmt(a['radius'], '.3g')}"
+            f" = {fmt(distance, '.3g')} pm; index {_INDEX_EQUATION} = {fmt(a['alpha'], '.3g')}*{abs(cation.ion.charge)}/({fmt(distance, '.3g')}/100)^3"
+            f" = {fmt(index, '.3g')}; 18/18+2 cation: {flag}; risk {risk}"
         )
-    values["fajans_contact_index"] = weighted_mean(index_terms)
-    if risks:
-        values["covalency_risk"] = max(risks, key=COVALENCY_RISK_LEVELS.index)
-    else:
+    if not risks:
         notes.append("fajans_contact_index and covalency_risk not assessed: no cation-anion pair has both radii and an anion polarisability")
-    return values, notes, lines
+    found = FajansValues(
+        cation_polarising_power_e_per_A2=weighted_mean([(c["power"], c["count"]) for c in cations.values()]),
+        cation_polarising_power_max_e_per_A2=max(powers) if powers else math.nan,
+        anion_polarisability_A3=weighted_mean([(a["alpha"], a["count"]) for a in anions.values()]),
+        anion_polarisability_max_A3=max(alphas) if alphas else math.nan,
+        anion_polarisability_basis=(bases.pop() if len(bases) == 1 else "mixed") if bases else None,
+        cation_pseudo_noble_gas=any(c["shell"] in _PSEUDO_NOBLE_GAS_SHELLS for c in cations.values()),
+        fajans_contact_index=weighted_mean(index_terms),
+        covalency_risk=max(risks, key=COVALENCY_RISK_LEVELS.index) if risks else None,
+        notes=tuple(notes),
+        steps=tuple(steps),
+    )
+    return found
 
 
-def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
-    """Values for every column of :data:`COLUMNS`, and notes for the row.
-
-    Never raises; odd input gives NaN/None and a note.
-    """
-    try:
-        values, notes, _ = _analysed(dec)
-    except Exception as exc:  # a descriptor must never stop the batch
-        return _empty_values(), [f"Fajans values not computed: {type(exc).__name__}: {exc}"]
-    return dict(values), list(notes)
-
-
-@per_input(maxsize=1024)
-def _analysed(dec: Decomposition):
-    # the record and the melting trend both ask for the same compound's values
-    return _analyse(dec)
-
-
-def explain(dec: Decomposition) -> list[str]:
-    """Lines for ``ionicity explain``: each value with its inputs and equation."""
-    try:
-        values, notes, lines = _analyse(dec)
-    except Exception as exc:
-        return [f"Fajans values not computed: {type(exc).__name__}: {exc}"]
-    out = ["Fajans' rules (polarising power |z|/r^2, Shannon radii; polarisabilities of Tessman, Kahn & Shockley 1953):"]
-    out += ["  " + line for line in lines]
-    out += [
-        f"  cation_polarising_power_e_per_A2 = {_fmt(values['cation_polarising_power_e_per_A2'])}"
-        f" (max {_fmt(values['cation_polarising_power_max_e_per_A2'])}) [count-weighted mean over cations]",
-        f"  anion_polarisability_A3 = {_fmt(values['anion_polarisability_A3'])}"
-        f" (max {_fmt(values['anion_polarisability_max_A3'])}; basis {values['anion_polarisability_basis']})"
-        " [count-weighted mean over anions]",
-        f"  cation_pseudo_noble_gas = {values['cation_pseudo_noble_gas']} [18 or 18+2 electron cation present]",
-        f"  fajans_contact_index = {_fmt(values['fajans_contact_index'])} [alpha*|z|/d^3, pair-weighted mean]",
-        f"  covalency_risk = {values['covalency_risk']} [index < {MODERATE_INDEX} low, < {HIGH_INDEX} moderate, else high;"
-        " +1 level for an 18/18+2 cation; worst pair]",
-    ]
-    out += ["  note: " + n for n in notes]
-    return out
+describe = analyse.describe
+explain = analyse.explain

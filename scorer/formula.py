@@ -32,7 +32,25 @@ import re
 import unicodedata
 from dataclasses import dataclass, field
 
+from ionicity.scorer import ion_library
 from ionicity.scorer.caching import per_input
+from ionicity.scorer.elements import is_element_symbol
+from ionicity.scorer.grammar import (
+    CLOSE_BRACKETS as _CLOSE,
+    MAX_COUNT,
+    MAX_FORMULA_LENGTH,
+    MAX_NESTING_DEPTH,
+    MAX_TOTAL_ATOMS,
+    NUMBER as _NUMBER,
+    OPEN_BRACKETS as _OPEN,
+    WATER as _WATER,
+    FormulaError,
+    format_count,
+    hill_formula,
+    hill_order,
+    parse_element_groups,
+)
+from ionicity.scorer.model import format_charge
 
 __all__ = [
     "ParsedFormula",
@@ -46,60 +64,19 @@ __all__ = [
     "MAX_TOTAL_ATOMS",
 ]
 
-MAX_FORMULA_LENGTH = 200
-MAX_NESTING_DEPTH = 6
-MAX_COUNT = 10_000
-MAX_TOTAL_ATOMS = 100_000
-
-
-class FormulaError(ValueError):
-    """A formula that the grammar does not accept; the message says why."""
-
-
 _SUBSCRIPTS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
 _SUPERSCRIPT_CHARS = "⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻"
 _SUPERSCRIPTS = str.maketrans(_SUPERSCRIPT_CHARS, "0123456789+-")
 _DOT_SEPARATORS = "·•∙⋅・･×"
 _MINUS_SIGNS = "−–—‐‑"
-_OPEN = {"(": ")", "[": "]", "{": "}"}
-_CLOSE = {v: k for k, v in _OPEN.items()}
-_NUMBER = re.compile(r"\d+(?:\.\d+)?")
 _SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
 # adduct and not as the decimal count "2.2".
 _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
-_WATER = "_water"
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
 _ORGANOMETALLIC_GROUPS = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
-
-
-def format_count(value: float) -> str:
-    """Write a count the way formulas do: integers bare, decimals trimmed.
-
-    >>> [format_count(v) for v in (1, 2.0, 0.5, 0.95, 1/3)]
-    ['1', '2', '0.5', '0.95', '0.333333']
-    """
-    if abs(value - round(value)) < 1e-9:
-        return str(int(round(value)))
-    return f"{value:.6f}".rstrip("0").rstrip(".")
-
-
-def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:
-    """Hill order (carbon, hydrogen, then alphabetical; all alphabetical
-    without carbon), counts of one omitted.
-
-    >>> hill_formula({"O": 4, "S": 1, "Cu": 1})
-    'CuO4S'
-    >>> hill_formula({"O": 1, "H": 6, "C": 2})
-    'C2H6O'
-    """
-    items = dict(counts)
-    order = sorted(items)
-    if "C" in items:
-        order = ["C"] + (["H"] if "H" in items else []) + [s for s in order if s not in ("C", "H")]
-    return "".join(s + ("" if abs(items[s] - 1) < 1e-9 else format_count(items[s])) for s in order)
 
 
 @dataclass(frozen=True)
@@ -159,8 +136,6 @@ class ParsedFormula:
 
     @property
     def canonical(self) -> str:
-        from ionicity.scorer.model import format_charge
-
         text = self.hill
         if self.charge:
             text += "^" + format_charge(self.charge)
@@ -213,8 +188,6 @@ def _split_charge(text: str) -> tuple[str, int, str | None]:
     """Take a written charge off the end: (body, charge, note)."""
     pair = re.fullmatch(r"\[([^\[\]]+)\]\+?\[([^\[\]]+)\]-", text)
     if pair:
-        from ionicity.scorer import ion_library
-
         cation, anion = (ion_library.find_alias(g) for g in pair.groups())
         if cation is not None and anion is not None and cation.charge > 0 > anion.charge:
             return text, 0, None  # "[C4mim]+[BF4]-": the signs restate each ion's charge
@@ -264,10 +237,8 @@ def _split_charge(text: str) -> tuple[str, int, str | None]:
 
 
 def _names_known_ion(body: str, charge: int) -> bool:
-    from ionicity.scorer import ion_library
-
     try:
-        counts, _ = _parse_component(body, allow_ion_refs=False)
+        counts, _ = parse_element_groups(body)
     except FormulaError:
         return False
     return ion_library.is_known_ion(counts, charge)
@@ -310,150 +281,11 @@ def _split_components(text: str) -> list[str]:
     return parts
 
 
-class _Parser:
-    """Recursive descent over one adduct component."""
-
-    def __init__(self, text: str, allow_ion_refs: bool):
-        self.text = text
-        self.pos = 0
-        self.allow_ion_refs = allow_ion_refs
-        self.ion_refs: list[tuple[str, float]] = []
-
-    def error(self, what: str) -> FormulaError:
-        return FormulaError(f"{what} at position {self.pos + 1} of {self.text!r}")
-
-    def number(self) -> float | None:
-        m = _NUMBER.match(self.text, self.pos)
-        if not m:
-            return None
-        self.pos = m.end()
-        value = float(m.group())
-        if value <= 0:
-            raise self.error(f"count {m.group()!r} must be positive")
-        if value > MAX_COUNT:
-            raise FormulaError(
-                f"count {m.group()} in {self.text!r} is larger than {MAX_COUNT}; formulas are written per formula unit"
-            )
-        return value
-
-    def sequence(self, depth: int, closer: str | None) -> dict[str, float]:
-        from ionicity.scorer.elements import is_element_symbol
-
-        counts: dict[str, float] = {}
-        text = self.text
-        while self.pos < len(text):
-            ch = text[self.pos]
-            if closer is not None and ch == closer:
-                return counts
-            if ch in _CLOSE:
-                raise self.error(f"unbalanced {ch!r}: no matching {_CLOSE[ch]!r} before it")
-            if ch in _OPEN:
-                if depth + 1 > MAX_NESTING_DEPTH:
-                    raise self.error(f"brackets nested deeper than {MAX_NESTING_DEPTH}")
-                if depth == 0 and self.allow_ion_refs and (ch == "[" or self.abbreviation_group()):
-                    ref = self.ion_reference()
-                    if ref is not None:
-                        continue
-                opened_at = self.pos
-                self.pos += 1
-                inner = self.sequence(depth + 1, _OPEN[ch])
-                if self.pos >= len(text):
-                    self.pos = opened_at
-                    raise self.error(f"unbalanced {ch!r}: no closing {_OPEN[ch]!r}")
-                if not inner:
-                    raise self.error("empty brackets")
-                self.pos += 1
-                multiplier = self.number() or 1.0
-                if inner == {"H": 2.0, "O": 1.0}:
-                    # (H2O)n, also inside a complex ([Co(H2O)6]Cl2), is water:
-                    # carried as a pseudo-element so outer counts multiply it
-                    inner = {_WATER: 1.0}
-                for symbol, n in inner.items():
-                    counts[symbol] = counts.get(symbol, 0.0) + n * multiplier
-                continue
-            if "A" <= ch <= "Z" and depth == 0 and self.pos > 0 and self.allow_ion_refs and self.abbreviation_tail():
-                continue
-            if "A" <= ch <= "Z":
-                two = text[self.pos:self.pos + 2]
-                if len(two) == 2 and two[1].islower() and is_element_symbol(two):
-                    symbol = two
-                elif is_element_symbol(ch):
-                    symbol = ch
-                else:
-                    m = re.match(r"[A-Z][a-z]*", text[self.pos:])
-                    raise self.error(f"unknown element {m.group()!r}")
-                self.pos += len(symbol)
-                n = self.number() or 1.0
-                counts[symbol] = counts.get(symbol, 0.0) + n
-                continue
-            if ch.isdigit():
-                raise self.error(f"a count {ch!r} with nothing before it to count")
-            if "a" <= ch <= "z":
-                raise self.error(f"unexpected {ch!r}: element symbols start with a capital letter")
-            if ch in "+-^":
-                raise self.error(f"unexpected {ch!r}: a charge goes at the end, e.g. SO4^2-")
-            raise self.error(f"unexpected character {ch!r}")
-        if closer is not None:
-            raise FormulaError(f"unbalanced {_CLOSE[closer]!r}: no closing {closer!r} in {self.text!r}")
-        return counts
-
-    def abbreviation_group(self) -> bool:
-        """``(OAc)2``: a bracket holding an abbreviation that is not a formula."""
-        from ionicity.scorer import ion_library
-
-        closer = _OPEN[self.text[self.pos]]
-        end = self.text.find(closer, self.pos)
-        return end > 0 and ion_library.find_abbreviation(self.text[self.pos + 1:end]) is not None
-
-    def abbreviation_tail(self) -> bool:
-        """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""
-        from ionicity.scorer import ion_library
-
-        ion = ion_library.find_abbreviation(self.text[self.pos:])
-        if ion is None:
-            return False
-        self.ion_refs.append((ion.ion_id, 1.0))
-        self.pos = len(self.text)
-        return True
-
-    def ion_reference(self) -> bool | None:
-        """``[C4mim]``, ``(OAc)``: a bracket whose content names a library ion."""
-        from ionicity.scorer import ion_library
-
-        end = self.text.find(_OPEN[self.text[self.pos]], self.pos)
-        if end < 0:
-            return None
-        content = self.text[self.pos + 1:end]
-        ion = ion_library.find_alias(content)
-        if ion is None:
-            return None
-        self.pos = end + 1
-        count = self.number() or 1.0
-        # an explicit sign after the bracket ("[C4mim]+[BF4]-") restates the charge
-        if self.pos < len(self.text) and self.text[self.pos] in "+-":
-            if (self.text[self.pos] == "+") == (ion.charge > 0):
-                self.pos += 1
-        self.ion_refs.append((ion.ion_id, count))
-        rest = self.text[self.pos:]
-        if rest and not rest.startswith("["):
-            tail = ion_library.find_alias(rest.rstrip("+-"), exact_case=True)
-            if tail is not None:
-                self.ion_refs.append((tail.ion_id, 1.0))
-                self.pos = len(self.text)
-        return True
-
-
-def _parse_component(text: str, allow_ion_refs: bool = True) -> tuple[dict[str, float], _Parser]:
-    parser = _Parser(text, allow_ion_refs)
-    counts = parser.sequence(0, None)
-    return counts, parser
-
-
 @per_input(maxsize=65536)
 def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[str, float], ...]]:
     """(element counts, ion references) of one adduct component, cached: the
     salt part of every hydrate and spelling of a salt is read once."""
-    counts, parser = _parse_component(text)
+    counts, parser = parse_element_groups(text, ion_library)
     return tuple(counts.items()), tuple(parser.ion_refs)
 
 
@@ -603,8 +435,6 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             name = _NEUTRAL_ADDUCTS[key]
             adducts[name] = adducts.get(name, 0.0) + multiplier
         for ion_id, n in ion_refs:
-            from ionicity.scorer import ion_library
-
             hints[ion_id] = hints.get(ion_id, 0.0) + n * multiplier
             for symbol, k in ion_library.get_ion(ion_id).composition:
                 totals[symbol] = totals.get(symbol, 0.0) + k * n * multiplier
@@ -619,7 +449,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     total_atoms = sum(totals.values()) + 3 * water
     if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
         raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
-    ordered = tuple((s, totals[s]) for s in _hill_order(totals))
+    ordered = tuple((s, totals[s]) for s in hill_order(totals))
     hint = ""
     if _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
@@ -647,8 +477,6 @@ def _shorthand_with_spaces(text: str) -> str:
     words = text.split()
     if len(words) != 2 or any(ch in text for ch in "[]"):
         return text
-    from ionicity.scorer import ion_library
-
     first = ion_library.find_alias(words[0])
     if first is None or first.charge <= 0 or not first.organic:
         return text
@@ -658,8 +486,6 @@ def _shorthand_with_spaces(text: str) -> str:
 
 def _suggest(cleaned: str) -> str | None:
     """A corrected spelling for a mis-cased symbol ("NaCL" -> "NaCl")."""
-    from ionicity.scorer.elements import is_element_symbol
-
     for i in range(len(cleaned) - 1):
         pair = cleaned[i:i + 2]
         if pair.isupper() and pair.isalpha() and is_element_symbol(pair[0] + pair[1].lower()):
@@ -670,10 +496,3 @@ def _suggest(cleaned: str) -> str | None:
                 continue
             return candidate
     return None
-
-
-def _hill_order(counts: dict[str, float]) -> list[str]:
-    order = sorted(counts)
-    if "C" in counts:
-        order = ["C"] + (["H"] if "H" in counts else []) + [s for s in order if s not in ("C", "H")]
-    return order

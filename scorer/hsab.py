@@ -48,17 +48,21 @@ pairs whose both classes are known; the worst pair is shown by ``explain``.
 """
 from __future__ import annotations
 
-import csv
 import math
 
+import numpy as np
 from ionicity.scorer.caching import once
 from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
+from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.tables import table
 
 __all__ = [
     "COLUMNS",
     "HSAB_CLASSES",
-    "PAIRINGS",
+    "HsabValues",
+    "analyse",
     "describe",
     "explain",
     "parr_pearson_hardness_eV",
@@ -72,10 +76,15 @@ __all__ = [
 ]
 
 HSAB_CLASSES = ("hard", "borderline", "soft")
-PAIRINGS = ("matched", "borderline", "mismatched")
 _SOFTNESS = {"hard": 0.0, "borderline": 0.5, "soft": 1.0}
 MATCHED_MIN_SCORE = 0.75
 MISMATCHED_MAX_SCORE = 0.25
+
+# Each equation's text, written once: the column declarations and the explain
+# lines both quote it.
+_SCORE_EQUATION = "1 - |s_acid - s_base|"
+_SOFTNESS_TEXT = "softness s = 0 (hard), 0.5 (borderline), 1 (soft)"
+_PAIRING_RULE = f">= {MATCHED_MIN_SCORE} matched, <= {MISMATCHED_MAX_SCORE} mismatched, else borderline"
 
 _SOURCE_CLASSES = "Pearson, J. Chem. Educ. 1968, 45, 581, Tables 1-2; Pearson, J. Am. Chem. Soc. 1963, 85, 3533"
 _SOURCE_HARDNESS = "Parr & Pearson, J. Am. Chem. Soc. 1983, 105, 7512; ionization energies NIST ASD via mendeleev"
@@ -114,15 +123,14 @@ COLUMNS: tuple[Column, ...] = (
         "hsab_pairing", "string", "",
         "matched, borderline or mismatched: whether the cation and anion follow Pearson's"
         " 'hard with hard, soft with soft'",
-        f"from hsab_pairing_score: >= {MATCHED_MIN_SCORE} matched, <= {MISMATCHED_MAX_SCORE} mismatched,"
-        " else borderline", f"{_SOURCE_CLASSES}; thresholds defined here",
+        f"from hsab_pairing_score: {_PAIRING_RULE}", f"{_SOURCE_CLASSES}; thresholds defined here",
         "from the pair-weighted score",
     ),
     Column(
         "hsab_pairing_score", "float64", "",
         "1 for a hard-hard, soft-soft or borderline-borderline pair, 0.5 with one borderline side,"
         " 0 for hard-soft",
-        "1 - |s_acid - s_base| with softness s = 0 (hard), 0.5 (borderline), 1 (soft)",
+        f"{_SCORE_EQUATION} with {_SOFTNESS_TEXT}",
         f"{_SOURCE_CLASSES}; score defined here",
         "several ions: mean over classified cation-anion pairs weighted by the product of stoichiometric fractions",
     ),
@@ -162,8 +170,6 @@ def parr_pearson_hardness_eV(ionization_energy_eV, electron_affinity_eV):
     >>> round(parr_pearson_hardness_eV(47.29, 5.14), 2)
     21.07
     """
-    import numpy as np
-
     value = (np.asarray(ionization_energy_eV, dtype=float) - np.asarray(electron_affinity_eV, dtype=float)) / 2.0
     return float(value) if value.ndim == 0 else value
 
@@ -216,17 +222,10 @@ def hsab_pairing_label(score: float) -> str | None:
 # ------------------------------------------------------------------ data
 
 
-def _read(name: str) -> list[dict[str, str]]:
-    from importlib import resources
-
-    text = resources.files("ionicity.scorer.data").joinpath(name).read_text(encoding="utf-8")
-    return list(csv.DictReader(text.splitlines()))
-
-
 @once
 def hsab_table() -> dict[str, dict[str, str]]:
     """ion_id -> row of ``scorer/data/hsab_classes.csv`` (hsab_class, role, source, note), read once."""
-    return {row["ion_id"]: row for row in _read("hsab_classes.csv")}
+    return {row["ion_id"]: row for row in table("hsab_classes.csv")}
 
 
 @once
@@ -239,7 +238,7 @@ def radical_hardness_table() -> dict[str, dict]:
             electron_affinity_eV=float(row["electron_affinity_eV"]),
             source=row["source"],
         )
-        for row in _read("radical_hardness.csv")
+        for row in table("radical_hardness.csv")
     }
 
 
@@ -271,8 +270,6 @@ def cation_hardness_eV(ion: Ion) -> tuple[float, str]:
     """
     if ion.element is None:
         return math.nan, "polyatomic cation: no ionization energies to apply (I - A)/2"
-    from ionicity.scorer.elements import get_element
-
     z = int(ion.charge)
     if z <= 0:
         return math.nan, "not a cation"
@@ -299,8 +296,6 @@ def anion_hardness_eV(ion: Ion) -> tuple[float, str]:
     7.01
     """
     if ion.element is not None:
-        from ionicity.scorer.elements import get_element
-
         try:
             element = get_element(ion.element)
         except KeyError as exc:
@@ -333,21 +328,46 @@ def _side_class(classes: list[str | None]) -> str | None:
     return known.pop() if len(known) == 1 else "mixed"
 
 
-def _fmt(value, digits: int = 2) -> str:
-    return "nan" if value is None or math.isnan(value) else f"{value:.{digits}f}"
+HsabValues = result_class(
+    "HsabValues", COLUMNS, "Pearson's classes and hardnesses of one compound (fields named as the columns).",
+)
 
 
-def _empty_values() -> dict[str, object]:
-    return {c.name: (None if c.dtype == "string" else math.nan) for c in COLUMNS}
+_EXPLAINED = {
+    "cation_hsab_class": ("", ""),
+    "anion_hsab_class": ("", ""),
+    "cation_hardness_eV": (".2f", "count-weighted mean"),
+    "anion_hardness_eV": (".2f", "count-weighted mean"),
+    "hsab_pairing_score": (".2f", f"{_SOFTNESS_TEXT}; pair score {_SCORE_EQUATION}; pair-weighted mean"),
+    "hsab_pairing": ("", _PAIRING_RULE),
+}
 
 
-def _analyse(dec: Decomposition):
-    values = _empty_values()
+@protocol(
+    title="Hard and soft acids and bases (Pearson's lists; hardness (I - A)/2, Parr & Pearson 1983):",
+    columns=COLUMNS, result=HsabValues, failure="HSAB values not computed",
+    summary=value_lines(_EXPLAINED),
+)
+def analyse(dec: Decomposition) -> HsabValues:
+    """Pearson's classes and hardnesses of one compound, with notes and explain steps.
+
+    Never raises (see :mod:`scorer.descriptor`); odd input gives NaN/None and a note.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
+    >>> ag = Ion("Ag(+)", "Ag", 1, (("Ag", 1),), "monatomic", element="Ag")
+    >>> f = Ion("F(-)", "F", -1, (("F", 1),), "monatomic", element="F")
+    >>> r = analyse(Decomposition(cations=(IonTerm(ag, 1),), anions=(IonTerm(f, 1),)))
+    >>> r.cation_hsab_class, r.anion_hsab_class, r.hsab_pairing
+    ('soft', 'hard', 'mismatched')
+    """
     notes: list[str] = []
-    lines: list[str] = []
+    steps: list[str] = []
     if not dec.is_ionic:
-        lines.append(f"no ions ({dec.substance_class}): HSAB pairing applies to cation-anion pairs; values left empty")
-        return values, notes, lines
+        steps.append(f"no ions ({dec.substance_class}): HSAB pairing applies to cation-anion pairs; values left empty")
+        return HsabValues(steps=tuple(steps))
+    values: dict = {}
     info = {}
     for side, terms, hardness in (("cation", dec.cations, cation_hardness_eV), ("anion", dec.anions, anion_hardness_eV)):
         classes, etas = [], []
@@ -358,11 +378,12 @@ def _analyse(dec: Decomposition):
             info[ion.ion_id] = cls
             classes.append(cls)
             etas.append((eta, term.count))
-            missing = [what for what, v in (("class", cls), ("hardness", eta)) if v is None or (isinstance(v, float) and math.isnan(v))]
+            # None or NaN (v != v): no class or no hardness
+            missing = [what for what, v in (("class", cls), ("hardness", eta)) if v is None or v != v]
             if missing:
-                reasons = "; ".join(dict.fromkeys(w for w, v in ((cwhy, cls), (ewhy, eta)) if v is None or (isinstance(v, float) and math.isnan(v))))
+                reasons = "; ".join(dict.fromkeys(w for w, v in ((cwhy, cls), (ewhy, eta)) if v is None or v != v))
                 notes.append(f"no HSAB {' or '.join(missing)} for {ion.ion_id}: {reasons}")
-            lines.append(f"{side} {ion.ion_id} x{term.count:g}: class {cls} [{cwhy}]; hardness {_fmt(eta)} eV [{ewhy}]")
+            steps.append(f"{side} {ion.ion_id} x{term.count:g}: class {cls} [{cwhy}]; hardness {fmt(eta)} eV [{ewhy}]")
         values[f"{side}_hsab_class"] = _side_class(classes)
         values[f"{side}_hardness_eV"] = weighted_mean(etas)
     scores = []
@@ -373,56 +394,19 @@ def _analyse(dec: Decomposition):
             scores.append((score, weight))
             if worst is None or score < worst[0]:
                 worst = (score, cation.ion.ion_id, anion.ion.ion_id)
-        lines.append(
+        steps.append(
             f"pair {cation.ion.ion_id} ({info[cation.ion.ion_id]}) / {anion.ion.ion_id} ({info[anion.ion.ion_id]}),"
-            f" weight {weight:.3g}: score 1 - |s_acid - s_base| = {_fmt(score)}"
+            f" weight {weight:.3g}: score {_SCORE_EQUATION} = {fmt(score)}"
         )
     score = weighted_mean(scores)
-    values["hsab_pairing_score"] = score
-    values["hsab_pairing"] = hsab_pairing_label(score)
     if math.isnan(score):
         notes.append("hsab_pairing not assessed: no cation-anion pair has both classes in Pearson's lists")
     if worst is not None and len(scores) > 1:
-        lines.append(f"worst pair: {worst[1]} / {worst[2]}, score {worst[0]:.2f}")
-    return values, notes, lines
+        steps.append(f"worst pair: {worst[1]} / {worst[2]}, score {worst[0]:.2f}")
+    return HsabValues(
+        **values, hsab_pairing_score=score, hsab_pairing=hsab_pairing_label(score), notes=tuple(notes), steps=tuple(steps)
+    )
 
 
-def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
-    """Values for every column of :data:`COLUMNS`, and notes for the row.
-
-    Never raises; odd input gives NaN/None and a note.
-
-    Examples
-    --------
-    >>> from ionicity.scorer.model import Ion, IonTerm, Decomposition
-    >>> ag = Ion("Ag(+)", "Ag", 1, (("Ag", 1),), "monatomic", element="Ag")
-    >>> f = Ion("F(-)", "F", -1, (("F", 1),), "monatomic", element="F")
-    >>> values, notes = describe(Decomposition(cations=(IonTerm(ag, 1),), anions=(IonTerm(f, 1),)))
-    >>> values["cation_hsab_class"], values["anion_hsab_class"], values["hsab_pairing"]
-    ('soft', 'hard', 'mismatched')
-    """
-    try:
-        values, notes, _ = _analyse(dec)
-    except Exception as exc:  # a descriptor must never stop the batch
-        return _empty_values(), [f"HSAB values not computed: {type(exc).__name__}: {exc}"]
-    return values, notes
-
-
-def explain(dec: Decomposition) -> list[str]:
-    """Lines for ``ionicity explain``: each value with its inputs and equation."""
-    try:
-        values, notes, lines = _analyse(dec)
-    except Exception as exc:
-        return [f"HSAB values not computed: {type(exc).__name__}: {exc}"]
-    out = ["Hard and soft acids and bases (Pearson's lists; hardness (I - A)/2, Parr & Pearson 1983):"]
-    out += ["  " + line for line in lines]
-    out += [
-        f"  cation_hsab_class = {values['cation_hsab_class']}; anion_hsab_class = {values['anion_hsab_class']}",
-        f"  cation_hardness_eV = {_fmt(values['cation_hardness_eV'])}; anion_hardness_eV ="
-        f" {_fmt(values['anion_hardness_eV'])} [count-weighted means]",
-        f"  hsab_pairing_score = {_fmt(values['hsab_pairing_score'])} [softness hard 0, borderline 0.5, soft 1;"
-        " pair score 1 - |s_acid - s_base|; pair-weighted mean]",
-        f"  hsab_pairing = {values['hsab_pairing']} [>= {MATCHED_MIN_SCORE} matched, <= {MISMATCHED_MAX_SCORE} mismatched]",
-    ]
-    out += ["  note: " + n for n in notes]
-    return out
+describe = analyse.describe
+explain = analyse.explain

@@ -7,11 +7,11 @@ The CSV has one row per ion with a ``source`` on every row; see
 """
 from __future__ import annotations
 
-import csv
-from importlib import resources
-
 from ionicity.scorer.caching import once
+from ionicity.scorer.elements import get_element, is_element_symbol
+from ionicity.scorer.grammar import FormulaError, hill_order, parse_element_groups
 from ionicity.scorer.model import Ion, format_charge
+from ionicity.scorer.tables import table
 
 __all__ = [
     "ion_library",
@@ -39,17 +39,14 @@ def _parse_oxidation_states(text: str) -> tuple[tuple[str, float], ...]:
 
 @once
 def _load() -> tuple[tuple[Ion, ...], dict[str, Ion], dict[str, Ion], dict[str, Ion], dict[tuple, list[Ion]]]:
-    from ionicity.scorer.formula import _hill_order, _parse_component
-
     ions: list[Ion] = []
     by_id: dict[str, Ion] = {}
     alias_exact: dict[str, Ion] = {}
     alias_folded: dict[str, Ion] = {}
     by_composition: dict[tuple, list[Ion]] = {}
-    text = resources.files("ionicity.scorer.data").joinpath(ION_LIBRARY_FILE).read_text(encoding="utf-8")
-    for row in csv.DictReader(text.splitlines()):
-        counts, _ = _parse_component(row["formula"], allow_ion_refs=False)
-        composition = tuple((s, counts[s]) for s in _hill_order(counts))
+    for row in table(ION_LIBRARY_FILE):
+        counts, _ = parse_element_groups(row["formula"])
+        composition = tuple((s, counts[s]) for s in hill_order(counts))
         ion = Ion(
             ion_id=row["ion_id"],
             label=row["label"],
@@ -86,8 +83,6 @@ def monatomic_ion(symbol: str, charge: int) -> Ion:
     >>> monatomic_ion("Fe", 3).ion_id
     'Fe(3+)'
     """
-    from ionicity.scorer.elements import get_element
-
     element = get_element(symbol)
     return Ion(
         ion_id=f"{symbol}({format_charge(charge)})",
@@ -118,8 +113,6 @@ def get_ion(ion_id: str) -> Ion:
     if label and charge_text and charge_text[-1] in "+-":
         digits = charge_text[:-1] or "1"
         if digits.isdigit():
-            from ionicity.scorer.elements import is_element_symbol
-
             if is_element_symbol(label):
                 return monatomic_ion(label, int(digits) * (1 if charge_text[-1] == "+" else -1))
     raise KeyError(f"unknown ion {ion_id!r}; ids look like 'SO4(2-)', 'Fe(3+)' or '[C4mim](+)'")
@@ -136,15 +129,13 @@ def same_label_ions(ion: Ion) -> list[Ion]:
 def _abbreviations() -> dict[str, Ion]:
     """Aliases that are not formulas of their ion (``OAc``, ``NTf2``, ``OTf``):
     where one appears inside a formula it names the ion."""
-    from ionicity.scorer.formula import FormulaError, _parse_component
-
     _, _, exact, _, _ = _load()
     out = {}
     for name, ion in exact.items():
         if name.startswith("[") or not name[:1].isupper():
             continue
         try:
-            counts, _ = _parse_component(name, allow_ion_refs=False)
+            counts, _ = parse_element_groups(name)
         except FormulaError:
             out[name] = ion
             continue
@@ -171,9 +162,7 @@ def find_alias(text: str, exact_case: bool = False) -> Ion | None:
 
 def ions_by_composition(counts: dict[str, float], charge: int) -> list[Ion]:
     """Library ions with exactly this composition and charge."""
-    from ionicity.scorer.formula import _hill_order
-
-    key = (tuple((s, float(counts[s])) for s in _hill_order(counts)), int(charge))
+    key = (tuple((s, float(counts[s])) for s in hill_order(counts)), int(charge))
     return list(_load()[4].get(key, ()))
 
 
@@ -185,8 +174,6 @@ def is_known_ion(counts: dict[str, float], charge: int) -> bool:
     if len(counts) == 1:
         ((symbol, n),) = counts.items()
         if n == 1:
-            from ionicity.scorer.elements import get_element
-
             element = get_element(symbol)
             if charge in element.oxidation_states_main or charge in element.oxidation_states_extra:
                 return True

@@ -37,36 +37,10 @@ each distinct ion species                              0.1
 
 A best penalty of 5 or more means no sensible ionic reading: the entry is
 then classed covalent (or unknown) and its formal oxidation states are found
-by electronegativity instead (:func:`formal_oxidation_states`).
+by electronegativity instead (:func:`scorer.substance.formal_oxidation_states`).
 
-``substance_class`` values
---------------------------
-``ionic_salt``
-    charge-balanced ions with an inorganic (or metal) cation.
-``ionic_liquid_pair``
-    an organic cation (imidazolium, pyrrolidinium, ammonium, phosphonium...)
-    with any anion; whether it melts below 100 C is the melting columns' job.
-``acid``
-    no metal; H+ with a single inorganic or carboxylate anion (HCl, H2SO4,
-    CH3COOH).
-``base``
-    a hydroxide (every anion OH-) or ammonia/hydrazine.
-``covalent_molecular``
-    non-metal molecules (CCl4, glucose); high-valent metal halides and oxides
-    that are molecular (TiCl4, SnCl4: metal at +4 or more with only halide
-    anions; Mn2O7, OsO4: metal at +7 or more with only oxide; common
-    practice); organometallics written with CO or C5H5 ligands.
-``covalent_network``
-    extended covalent solids of B, C, Si, Ge with N, O, C (SiO2, SiC, BN,
-    diamond; common practice).
-``metallic``
-    elemental metals, alloys and intermetallics (every element a metal).
-``element``
-    a non-metallic element (O2, S8, P4, a noble gas).
-``ion``
-    a lone ion written with its charge (``SO4^2-``).
-``unknown``
-    none of these could be established; the message says why.
+What kind of substance a reading is (``substance_class``) and the formal
+oxidation states of entries without ions are decided in :mod:`scorer.substance`.
 """
 from __future__ import annotations
 
@@ -74,7 +48,7 @@ import dataclasses
 import itertools
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.elements import get_element
+from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
     get_ion,
@@ -84,30 +58,19 @@ from ionicity.scorer.ion_library import (
     same_label_ions,
 )
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
-
-__all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states", "SUBSTANCE_CLASSES"]
-
-SUBSTANCE_CLASSES = (
-    "ionic_salt",
-    "ionic_liquid_pair",
-    "acid",
-    "base",
-    "covalent_molecular",
-    "covalent_network",
-    "metallic",
-    "element",
-    "ion",
-    "unknown",
+from ionicity.scorer.substance import (
+    classify,
+    formal_oxidation_states,
+    format_oxidation_states,
+    listed_states,
+    nonionic_decomposition,
+    organometallic_states,
+    oxidation_states_of,
 )
 
-_HALOGENS = frozenset({"F", "Cl", "Br", "I", "At"})
-_NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
-_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O"})
+__all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
+
 _RARE_ANION_FAMILIES = frozenset({"chalcogenide-polyatomic", "carbide"})
-_ACID_ANION_FAMILIES = frozenset({
-    "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
-    "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
-})
 _PENALTY_EXTRA_STATE = 2.0
 _PENALTY_NONMETAL_CATION = 5.0
 _PENALTY_PROTON = 1.5
@@ -142,9 +105,7 @@ _PENALTY_SPECIES = 0.1
 _PENALTY_FRACTIONAL_SPLIT = 1.0
 # a bare cation of charge 5 or more is a formal device (U6+ + 2 O2- in uranyl nitrate)
 _PENALTY_HIGH_CATION = 1.0
-# binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
-_ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
 # hydronium only where nothing else fits: H3PO4 is 3 H+ + PO4(3-), not H3O+ + PO3-
 _ION_PENALTIES = {"H3O(+)": 2.0}
 # oxocations (NO2+, UO2 2+, VO 2+) only where nothing else fits: HNO3 is H+ + NO3-
@@ -160,50 +121,16 @@ def format_ion_terms(terms) -> str:
     return ";".join(str(t) for t in terms)
 
 
-def format_oxidation_states(states) -> str:
-    """``Fe:+3;S:+6;O:-2``; averages of mixed or fractional states to 3 decimals."""
-    parts = []
-    for symbol, value in states:
-        text = format_count(round(abs(value), 3))
-        sign = "+" if value > 0 else ("-" if value < 0 else "")
-        parts.append(f"{symbol}:{sign}{text}")
-    return ";".join(parts)
-
-
-def _is_metal(symbol: str) -> bool:
-    return get_element(symbol).is_metal
-
-
-# States that mendeleev lists only as "extra" but that are common in salts
-# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory):
-# Cu(I) in CuCl and Cu2O, Mn(III) in Mn2O3 and Mn3O4, Ti(III), V(III)/V(IV),
-# Cr(II), Au(I), U(IV) in UO2, Os(VIII) and Ru(VIII) in the tetroxides, Re(VII).
-_COMMON_STATES = {
-    "Cu": (1,), "Mn": (3,), "Ti": (2, 3), "V": (2, 3, 4), "Cr": (2,), "Au": (1,), "U": (4,),
-    "Os": (8,), "Ru": (8,), "Re": (7,), "Sm": (2,), "Yb": (2,),
-}
-
-
 @once
 def _states(symbol: str) -> tuple[tuple[int, float], ...]:
     """Non-zero oxidation states with their penalty (main 0, extra 2)."""
-    element = get_element(symbol)
-    seen = {}
-    for s in _COMMON_STATES.get(symbol, ()):
-        seen[s] = 0.0
-    for s in element.oxidation_states_main:
-        if s != 0:
-            seen.setdefault(int(s), 0.0)
-    for s in element.oxidation_states_extra:
-        if s != 0:
-            seen.setdefault(int(s), _PENALTY_EXTRA_STATE)
-    return tuple(sorted(seen.items()))
+    return tuple((state, _PENALTY_EXTRA_STATE if extra else 0.0) for state, extra in listed_states(symbol))
 
 
 @per_input(maxsize=4096)
 def _monatomic_options(symbol: str, count: float):
     """(kind, payload, penalty) options for one leftover element."""
-    metal = _is_metal(symbol)
+    metal = is_metal(symbol)
     options = []
     states = _states(symbol)
     most_negative = min((s for s, _ in states if s < 0), default=None)
@@ -463,89 +390,6 @@ def _search(remaining: dict[str, float], needed: float):
     return readings, nodes > _MAX_SEARCH_NODES
 
 
-def _electronegativity(symbol: str) -> float:
-    value = get_element(symbol).electronegativity_pauling
-    return value if value == value else 1.0
-
-
-_DEFAULT_STATES = {"F": -1, "O": -2, "H": 1, "Cl": -1, "Br": -1, "I": -1, "N": -3, "S": -2, "Se": -2, "P": -3}
-
-
-def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tuple[tuple[str, float], ...]:
-    """Formal oxidation states of a covalent formula by electronegativity.
-
-    Every element but one takes its usual state (F -1, O -2, H +1, halogens
-    -1, N -3, S -2 ...; the most electronegative element its most negative
-    listed state); the least electronegative element whose resulting state
-    lies within its listed range takes the balance, possibly fractional
-    (common practice).
-
-    >>> dict(formal_oxidation_states({"C": 1, "Cl": 4}))
-    {'C': 4.0, 'Cl': -1.0}
-    >>> dict(formal_oxidation_states({"H": 2, "O": 2}))
-    {'H': 1.0, 'O': -1.0}
-    """
-    symbols = list(counts)
-    if len(symbols) == 1:
-        ((symbol, n),) = counts.items()
-        return ((symbol, charge / n),)
-    by_chi = sorted(symbols, key=_electronegativity)
-    most = by_chi[-1]
-
-    def default(symbol: str) -> float:
-        if symbol == "H" and symbol == most:
-            return -1.0
-        if symbol in _DEFAULT_STATES and (symbol != "H" or _electronegativity(most) > 2.2):
-            state = _DEFAULT_STATES[symbol]
-            if state < 0 and symbol != most and _electronegativity(symbol) < _electronegativity(most) - 1.0:
-                state = -state if symbol != "N" else 3
-            return float(state)
-        states = [s for s, _ in _states(symbol)] or [0]
-        return float(min(states) if symbol == most else max(states))
-
-    # an element without a usual state (C in organics, Si in SiC) balances first
-    balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
-    for balancer in balancers:
-        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
-        value = (charge - rest) / counts[balancer]
-        states = [s for s, _ in _states(balancer)] or [0]
-        if min(states) - _TOL <= value <= max(states) + _TOL:
-            break
-    else:
-        balancer = balancers[0]
-        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
-        value = (charge - rest) / counts[balancer]
-    return tuple((s, round(value if s == balancer else default(s), 6)) for s in symbols)
-
-
-def _organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
-    """Formal states of a homoleptic carbonyl (neutral CO: metal 0, C +2, O -2)
-    or metallocene (two C5H5(-): metal +2, C -1.2, H +1); IUPAC Red Book
-    2005, IR-10 (organometallic compounds)."""
-    metals = [s for s in counts if _is_metal(s)]
-    if len(metals) != 1:
-        return ()
-    metal = metals[0]
-    rest = {s: n for s, n in counts.items() if s != metal}
-    if set(rest) == {"C", "O"} and abs(rest["C"] - rest["O"]) < _TOL:
-        return ((metal, 0.0), ("C", 2.0), ("O", -2.0))
-    if set(rest) == {"C", "H"} and abs(rest["C"] - 10 * counts[metal]) < _TOL and abs(rest["H"] - rest["C"]) < _TOL:
-        return ((metal, 2.0), ("C", -1.2), ("H", 1.0))
-    return ()
-
-
-def _oxidation_states_of(terms: list[IonTerm]) -> tuple[tuple[str, float], ...]:
-    totals: dict[str, float] = {}
-    weights: dict[str, float] = {}
-    for term in terms:
-        ion = term.ion
-        for symbol, state in ion.oxidation_states:
-            k = dict(ion.composition).get(symbol, 1.0) * term.count
-            totals[symbol] = totals.get(symbol, 0.0) + state * k
-            weights[symbol] = weights.get(symbol, 0.0) + k
-    return tuple((s, round(totals[s] / weights[s], 6)) for s in totals)
-
-
 def _merge(terms: list[tuple[Ion, float]]) -> tuple[list[IonTerm], list[IonTerm]]:
     merged: dict[str, list] = {}
     for ion, n in terms:
@@ -563,35 +407,6 @@ def _merge(terms: list[tuple[Ion, float]]) -> tuple[list[IonTerm], list[IonTerm]
 
 def _reading_text(cations, anions) -> str:
     return format_ion_terms(list(cations) + list(anions))
-
-
-def _nonionic(comp: ParsedFormula, counts: dict[str, float], notes: list[str], water: float, neutral) -> Decomposition:
-    symbols = set(counts)
-    states = formal_oxidation_states(counts, comp.charge)
-    if all(_is_metal(s) for s in symbols):
-        cls = "metallic"
-        states = tuple((s, 0.0) for s in counts)
-    elif len(symbols) == 1:
-        cls = "covalent_network" if symbols <= _NETWORK_FORMERS else "element"
-        states = tuple((s, 0.0) for s in counts)
-    elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
-        cls = "base"
-    elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}):
-        cls = "covalent_network"
-    elif any(_is_metal(s) for s in symbols):
-        cls = "unknown"
-        states = ()
-        notes.append("no charge-balanced set of ions found: check the formula (counts, charges, a missing element)")
-    else:
-        cls = "covalent_molecular"
-    return Decomposition(
-        composition=tuple(counts.items()),
-        hydrate_water=water,
-        neutral_parts=neutral,
-        oxidation_states=states,
-        substance_class=cls,
-        notes=tuple(notes),
-    )
 
 
 def decompose(comp: ParsedFormula) -> Decomposition:
@@ -649,18 +464,18 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         return _lone_ion(comp, counts, notes)
 
     symbols = set(counts)
-    if len(symbols) == 1 or all(_is_metal(s) for s in symbols):
-        return _nonionic(comp, counts, notes, water, neutral)
-    if comp.structure_hint == "amide" and not any(_is_metal(s) for s in symbols):
+    if len(symbols) == 1 or all(is_metal(s) for s in symbols):
+        return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
-        return _nonionic(comp, counts, notes, water, neutral)
-    if comp.structure_hint == "organometallic" and any(_is_metal(s) for s in symbols):
+        return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if comp.structure_hint == "organometallic" and any(is_metal(s) for s in symbols):
         # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
             substance_class="covalent_molecular",
-            oxidation_states=_organometallic_states(counts),
-            notes=() if _organometallic_states(counts) else (
+            oxidation_states=organometallic_states(counts),
+            notes=() if organometallic_states(counts) else (
                 "organometallic with ligands other than CO or C5H5: formal oxidation states not assigned",),
         )
 
@@ -694,11 +509,11 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
     if not readings:
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
-        return _nonionic(comp, counts, notes, water, neutral)
+        return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
 
     best_penalty = min(p for p, _ in readings)
     if best_penalty >= _IONIC_THRESHOLD:
-        return _nonionic(comp, counts, notes, water, neutral)
+        return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
 
     seen: dict[str, tuple] = {}
     for penalty, terms in sorted(readings, key=lambda r: (round(r[0], 9), _library_order(r[1]), _reading_text(*_merge(r[1])))):
@@ -711,12 +526,12 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
     if alternatives:
         notes.append("ambiguous: equally plausible readings " + " | ".join((text,) + alternatives))
 
-    states = _oxidation_states_of(cations + anions)
-    cls = _classify(counts, cations, anions)
+    states = oxidation_states_of(cations + anions)
+    cls = classify(counts, cations, anions)
     if cls == "unknown":
         # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-:
         # not an acid, so read it as the molecule it is
-        return _nonionic(comp, counts, [], water, neutral)
+        return nonionic_decomposition(comp.charge, counts, [], water, neutral)
     if cls == "covalent_molecular":
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
@@ -748,30 +563,6 @@ def _library_order(terms) -> tuple[int, ...]:
 
 def _has_both_signs(terms) -> bool:
     return any(ion.charge > 0 for ion, _ in terms) and any(ion.charge < 0 for ion, _ in terms)
-
-
-def _classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
-    has_metal = any(_is_metal(s) for s in counts)
-    cation_ions = [t.ion for t in cations]
-    if any(ion.organic for ion in cation_ions):
-        return "ionic_liquid_pair"
-    if not has_metal and all(ion.element == "H" for ion in cation_ions):
-        anion = anions[0].ion if len(anions) == 1 and anions[0].count == 1 else None
-        if anion is not None and anion.family in _ACID_ANION_FAMILIES and (
-            not anion.monatomic or anion.element in _ACID_FORMING_ELEMENTS
-        ):
-            return "acid"
-        return "unknown"
-    if all(t.ion.ion_id == "OH(-)" for t in anions):
-        return "base"
-    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and _is_metal(ion.element)]
-    if metal_states and len(cation_ions) == 1 and all(t.ion.monatomic for t in anions):
-        anion_elements = {t.ion.element for t in anions}
-        if max(metal_states) >= 4 and anion_elements <= _HALOGENS:
-            return "covalent_molecular"
-        if max(metal_states) >= 7 and anion_elements == {"O"}:
-            return "covalent_molecular"  # Mn2O7, OsO4, RuO4
-    return "ionic_salt"
 
 
 def _lone_ion(comp: ParsedFormula, counts: dict[str, float], notes: list[str]) -> Decomposition:

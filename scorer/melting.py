@@ -67,26 +67,30 @@ class                  trend range          origin of the threshold
 
 Applying a fitted model lives in :mod:`scorer.melting_model`.
 
-Predicted melting points and classes are estimates for screening, not for
-process safety: decomposition, hydration and pressure are not modelled.
-Check measured data and the safety data sheet before heating anything.
+The trend and the class are :data:`CAUTION` (from :mod:`scorer.caution`,
+the one caution text, quoted in both columns' descriptions).
 """
 from __future__ import annotations
 
-import csv
 import math
 from dataclasses import dataclass
-from importlib import resources
 
 import numpy as np
+from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.caution import CAUTION
+from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.model import Column, Decomposition, Ion
+from ionicity.scorer.tables import table
 
 __all__ = [
     "COLUMNS",
     "MELTING_CLASSES",
     "TREND_WEIGHTS",
     "CAUTION",
+    "MeltingTrend",
+    "MeltingTerms",
+    "analyse",
     "describe",
     "explain",
     "melting_trend_index",
@@ -96,11 +100,6 @@ __all__ = [
     "ion_shape",
     "melting_terms",
 ]
-
-CAUTION = (
-    "estimates for screening, not for process safety: decomposition, hydration and pressure are not"
-    " modelled; check measured data and the safety data sheet before heating anything"
-)
 
 GAS_CONSTANT_J_MOL_K = 8.314462618
 
@@ -338,16 +337,16 @@ def melting_class_from_index(index) -> str | None:
 
 @once
 def _shape_table() -> dict[str, tuple[float, float, bool, str]]:
-    text = resources.files("ionicity.scorer.data").joinpath("ion_shape.csv").read_text(encoding="utf-8")
-    table = {}
-    for row in csv.DictReader(text.splitlines()):
-        table[row["ion_id"]] = (
+    """ion_id -> (tau, sigma, charge delocalised, source) from ``scorer/data/ion_shape.csv``."""
+    shapes = {}
+    for row in table("ion_shape.csv"):
+        shapes[row["ion_id"]] = (
             float(row["torsions_tau"]),
             float(row["symmetry_number"]),
             row["charge_delocalised"].strip().lower() == "true",
             row["source"],
         )
-    return table
+    return shapes
 
 
 def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
@@ -363,9 +362,9 @@ def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
     >>> ion_shape(get_ion("[C4mim](+)"))[:3]
     (2.5, 1.0, True)
     """
-    table = _shape_table()
-    if ion.ion_id in table:
-        tau, sigma, deloc, _ = table[ion.ion_id]
+    shapes = _shape_table()
+    if ion.ion_id in shapes:
+        tau, sigma, deloc, _ = shapes[ion.ion_id]
         return tau, sigma, deloc, "scorer/data/ion_shape.csv"
     if ion.organic:
         heavy = sum(n for s, n in ion.composition if s in ("C", "N", "O", "S", "P"))
@@ -402,24 +401,6 @@ class MeltingTerms:
         )
 
 
-def _contact_chi(dec: Decomposition) -> float:
-    from ionicity.scorer.character import (
-        contact_atom,
-        contact_pairs,
-        pauling_electronegativity,
-        weighted_mean,
-    )
-
-    values = []
-    for cation, anion, weight in contact_pairs(dec):
-        c_atom, _ = contact_atom(cation.ion)
-        a_atom, _ = contact_atom(anion.ion)
-        if c_atom is None or a_atom is None:
-            continue
-        values.append(((pauling_electronegativity(c_atom) + pauling_electronegativity(a_atom)) / 2.0, weight))
-    return weighted_mean(values)
-
-
 @per_input(maxsize=16384)
 def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     """Gather the index inputs of an ionic decomposition; None when it is not ionic.
@@ -431,24 +412,30 @@ def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     """
     if not dec.is_ionic:
         return None
-    from ionicity.scorer import fajans, lattice
+    return _gather_terms(dec, lattice.analyse(dec), fajans.analyse(dec), character.analyse(dec))
 
+
+def _gather_terms(
+    dec: Decomposition,
+    energies: lattice.LatticeEnergies,
+    polarisation: fajans.FajansValues,
+    bond: character.BondCharacter,
+) -> MeltingTerms:
     notes: list[str] = []
-    lat, _ = lattice.describe(dec)
-    energy = lat.get("lattice_energy_vbt_kJ_mol", math.nan)
+    energy = energies.lattice_energy_vbt_kJ_mol
     basis = "Glasser-Jenkins volume-based lattice energy"
-    if energy is None or not math.isfinite(energy):
-        energy = lat.get("lattice_energy_kapustinskii_kJ_mol", math.nan)
+    if not math.isfinite(energy):
+        energy = energies.lattice_energy_kapustinskii_kJ_mol
         basis = "Kapustinskii lattice energy (no formula-unit volume for the volume-based one)"
-    if energy is None or not math.isfinite(energy):
+    if not math.isfinite(energy):
         energy, basis = math.nan, "none"
-    faj, _ = fajans.describe(dec)
-    contact_index = faj.get("fajans_contact_index", math.nan)
-    if contact_index is None or not math.isfinite(contact_index):
+    contact_index = polarisation.fajans_contact_index
+    if not math.isfinite(contact_index):
         contact_index = math.nan
         notes.append("melting trend: no Fajans contact index, its covalency term left out")
-    png = bool(faj.get("cation_pseudo_noble_gas") or False)
-    chi = _contact_chi(dec)
+    png = bool(polarisation.cation_pseudo_noble_gas)
+    # the x of van Arkel-Ketelaar: the pair-weighted mean electronegativity of the contact atoms
+    chi = bond.mean_chi_pauling
     if not math.isfinite(chi):
         notes.append("melting trend: no Pauling electronegativity for a contact atom, covalency term at the reference")
         chi = TREND_WEIGHTS["reference_contact_chi"]
@@ -517,8 +504,9 @@ COLUMNS: tuple[Column, ...] = (
 
 
 
-def _nan_values() -> dict[str, object]:
-    return {"mp_trend_index": math.nan, "melting_class": None}
+MeltingTrend = result_class(
+    "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.", extra=(("terms", "MeltingTerms | None", None),),
+)
 
 
 def _why_not(dec: Decomposition) -> str | None:
@@ -526,76 +514,27 @@ def _why_not(dec: Decomposition) -> str | None:
         return None  # covalent, metallic, elements: the index does not apply, no note needed
     if dec.substance_class == "acid":
         return "melting trend: not estimated for an acid (a molecular substance, not an ionic crystal)"
-    if dec.substance_class == "ion":
-        return "melting trend: a lone ion has no melting point"
     return None
 
 
-def describe(dec: Decomposition) -> tuple[dict[str, object], list[str]]:
-    """``mp_trend_index`` and ``melting_class`` for one compound, and notes.
-
-    Never raises: odd input gives NaN/None and a note.
-
-    Examples
-    --------
-    >>> from ionicity.scorer.formula import parse_formula
-    >>> from ionicity.scorer.ions import decompose
-    >>> values, notes = describe(decompose(parse_formula("[C2mim][BF4]")))
-    >>> values["melting_class"]
-    'ionic_liquid'
-    >>> describe(decompose(parse_formula("MgO")))[0]["melting_class"]
-    'refractory'
-    """
-    try:
-        values = _nan_values()
-        reason = _why_not(dec)
-        if reason is not None:
-            return values, [reason]
-        terms = melting_terms(dec)
-        if terms is None:
-            return values, []
-        notes = list(terms.notes)
-        if not math.isfinite(terms.lattice_energy_kJ_mol):
-            return values, notes + ["melting trend: no lattice energy for this salt (see the lattice-energy notes)"]
-        index = terms.index()
-        if not math.isfinite(index):
-            return values, notes + ["melting trend: the index could not be formed from these inputs"]
-        values["mp_trend_index"] = round(float(index), 4)
-        values["melting_class"] = melting_class_from_index(index)
-        if dec.hydrate_water:
-            notes.append("melting trend of the anhydrous salt: a hydrate melts in its own water of crystallisation,"
-                         " usually far lower")
-        for t in dec.cations + dec.anions:
-            if t.ion.organic and t.ion.ion_id not in _shape_table():
-                notes.append(f"melting trend: flexibility of {t.ion.ion_id} estimated from its composition")
-        return values, notes
-    except Exception as exc:  # noqa: BLE001 - the protocol promises no exceptions
-        return _nan_values(), [f"melting trend not computed: {type(exc).__name__}: {exc}"]
+_NO_LATTICE_ENERGY = "melting trend: no lattice energy for this salt (see the lattice-energy notes)"
+_HYDRATE = (
+    "melting trend of the anhydrous salt: a hydrate melts in its own water of crystallisation, usually far lower"
+)
 
 
-def _fmt(value: float, digits: int = 3) -> str:
-    return "nan" if value is None or not math.isfinite(value) else f"{value:.{digits}f}"
+def _summary(result: MeltingTrend) -> tuple[str, ...]:
+    if result.terms is None or result.mp_trend_index != result.mp_trend_index:
+        return ()
+    return _steps(result.terms, result.terms.index())
 
 
-def explain(dec: Decomposition) -> list[str]:
-    """Lines for ``ionicity explain``: the index, its class and every term with its input."""
-    reason = _why_not(dec)
-    if reason is not None:
-        return [reason]
-    try:
-        terms = melting_terms(dec)
-    except Exception as exc:  # noqa: BLE001
-        return [f"melting trend not computed: {type(exc).__name__}: {exc}"]
-    if terms is None:
-        return ["melting trend: not an ionic compound"]
-    if not math.isfinite(terms.lattice_energy_kJ_mol):
-        return ["melting trend: no lattice energy for this salt (see the lattice-energy notes)"]
+def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
     w = TREND_WEIGHTS
-    index = terms.index()
     u = terms.lattice_energy_per_ion_kJ_mol
     kappa = 0.0 if not math.isfinite(terms.contact_index) else terms.contact_index
-    lines = [
-        f"mp_trend_index = {_fmt(index)} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
+    return (
+        f"mp_trend_index = {fmt(index, '.3f')} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
         " typical scatter a factor 1.5)",
         f"melting_class = {melting_class_from_index(index)} (thresholds on the trend temperature:"
         + ", ".join(f" {name} < {upper:g} K" for name, upper, _ in MELTING_CLASSES[:-1]) + ")",
@@ -613,8 +552,48 @@ def explain(dec: Decomposition) -> list[str]:
         f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
         f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions {terms.delocalised_fraction:.2f}",
         "  caution: " + CAUTION,
-    ]
-    lines += [f"  note: {n}" for n in terms.notes]
+    )
+
+
+@protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
+          summary=_summary, maxsize=16384)
+def analyse(dec: Decomposition) -> MeltingTrend:
+    """``mp_trend_index`` and ``melting_class`` for one compound, with notes and explain steps.
+
+    Never raises (see :mod:`scorer.descriptor`): odd input gives NaN/None and a note.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> analyse(decompose(parse_formula("[C2mim][BF4]"))).melting_class
+    'ionic_liquid'
+    >>> analyse(decompose(parse_formula("MgO"))).melting_class
+    'refractory'
+    """
+    reason = _why_not(dec)
+    if reason is not None:
+        return MeltingTrend(notes=(reason,), steps=(reason,))
+    terms = melting_terms(dec)
+    if terms is None:
+        return MeltingTrend(steps=("melting trend: not an ionic compound",))
+    notes = list(terms.notes)
+    if not math.isfinite(terms.lattice_energy_kJ_mol):
+        return MeltingTrend(notes=(*notes, _NO_LATTICE_ENERGY), steps=(_NO_LATTICE_ENERGY,), terms=terms)
+    # finite here: a finite lattice energy over a positive ion count, the other terms finite or defaulted
+    index = terms.index()
     if dec.hydrate_water:
-        lines.append("  note: index of the anhydrous salt; a hydrate melts in its own water, usually far lower")
-    return lines
+        notes.append(_HYDRATE)
+    for t in dec.cations + dec.anions:
+        if t.ion.organic and t.ion.ion_id not in _shape_table():
+            notes.append(f"melting trend: flexibility of {t.ion.ion_id} estimated from its composition")
+    return MeltingTrend(
+        mp_trend_index=round(float(index), 4),
+        melting_class=melting_class_from_index(index),
+        terms=terms,
+        notes=tuple(notes),
+    )
+
+
+describe = analyse.describe
+explain = analyse.explain

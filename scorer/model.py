@@ -8,6 +8,7 @@ descriptor module (character, fajans, hsab, lattice, melting) reads a
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import cached_property
 
 __all__ = ["Column", "Ion", "IonTerm", "Decomposition", "RowWarning", "format_charge"]
 
@@ -99,6 +100,23 @@ class Decomposition:
     @property
     def is_ionic(self) -> bool:
         return bool(self.cations) and bool(self.anions)
+
+    def __hash__(self) -> int:
+        return self._hash
+
+    @cached_property
+    def _hash(self) -> int:
+        # every descriptor's cache looks the decomposition up: hash its fields once, not once per module
+        return hash((
+            self.composition, self.cations, self.anions, self.neutral_parts, self.hydrate_water,
+            self.oxidation_states, self.substance_class, self.alternatives, self.notes,
+        ))
+
+    def __getstate__(self) -> dict:
+        # string hashes differ between processes: a pickled copy hashes itself again
+        state = dict(self.__dict__)
+        state.pop("_hash", None)
+        return state
 
 
 @dataclass(frozen=True)

@@ -44,12 +44,12 @@ Examples
 """
 from __future__ import annotations
 
-import csv
 import math
-from importlib import resources
 
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Ion, format_charge
+from ionicity.scorer.tables import table
 
 __all__ = [
     "shannon_radius_pm",
@@ -90,27 +90,22 @@ def sphere_radius_pm(volume_nm3):
     return (3.0 * volume_nm3 / (4.0 * math.pi)) ** (1.0 / 3.0) * 1e3
 
 
-def _read_csv(name: str) -> list[dict[str, str]]:
-    text = resources.files("ionicity.scorer.data").joinpath(name).read_text(encoding="utf-8")
-    return [row for row in csv.DictReader(line for line in text.splitlines() if not line.startswith("#"))]
-
-
 @once
 def thermochemical_radii() -> dict[str, tuple[float, str]]:
     """ion_id -> (thermochemical radius in pm, source), read once."""
-    return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in _read_csv("thermochemical_radii.csv")}
+    return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("thermochemical_radii.csv")}
 
 
 @once
 def tabulated_ion_volumes() -> dict[str, tuple[float, str]]:
     """ion_id -> (ion volume in nm^3, source), read once."""
-    return {row["ion_id"]: (float(row["volume_nm3"]), row["source"]) for row in _read_csv("ion_volumes.csv")}
+    return {row["ion_id"]: (float(row["volume_nm3"]), row["source"]) for row in table("ion_volumes.csv")}
 
 
 @once
 def atomic_volumes_A3() -> dict[str, tuple[float, str]]:
     """element symbol -> (Hofmann's mean atomic volume in angstrom^3, source), read once."""
-    return {row["symbol"]: (float(row["volume_A3"]), row["source"]) for row in _read_csv("atomic_volumes.csv")}
+    return {row["symbol"]: (float(row["volume_A3"]), row["source"]) for row in table("atomic_volumes.csv")}
 
 
 def _ion_name(symbol: str, charge: int) -> str:
@@ -175,8 +170,6 @@ def shannon_radius_pm(
         if isinstance(coordination_number, bool) or not float(coordination_number).is_integer() or coordination_number < 1:
             raise ValueError(f"coordination_number must be a positive integer or None, got {coordination_number!r}")
         coordination_number = int(coordination_number)
-    from ionicity.scorer.elements import get_element
-
     try:
         element = get_element(symbol)
     except KeyError as exc:

@@ -4,7 +4,7 @@ from __future__ import annotations
 import math
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.columns import descriptor_modules, output_columns
+from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import (
     FormulaError,
@@ -17,7 +17,7 @@ from ionicity.scorer.ions import (
     format_ion_terms,
     format_oxidation_states,
 )
-from ionicity.scorer.model import Decomposition, IonTerm, RowWarning
+from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.verdict import finalise
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
@@ -71,8 +71,6 @@ def normalized_formula(comp: ParsedFormula, dec: Decomposition) -> str:
     Hill formula. Lattice water follows as ``·nH2O``.
     """
     if dec.substance_class == "ion" and len(dec.cations + dec.anions) == 1:
-        from ionicity.scorer.model import format_charge
-
         ion = (dec.cations + dec.anions)[0].ion
         return f"{ion.label}^{format_charge(ion.charge)}"
     if not dec.is_ionic or comp.charge != 0:
@@ -133,10 +131,10 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     gaps: list[str] = []
     if dec.substance_class not in _IONIC_CLASSES:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
-    for module in descriptor_modules():
-        module_values, module_notes = module.describe(dec)
-        values.update(module_values)
-        for note in module_notes:
+    for descriptor in descriptors():
+        result = descriptor(dec)
+        values.update(descriptor.values(result))
+        for note in result.notes:
             (warnings if isinstance(note, RowWarning) else gaps).append(note)
     _, position, empty = _layout()
     row = list(empty)

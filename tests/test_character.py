@@ -3,7 +3,6 @@ Hannay-Smyth ionic character, contact atoms, the van Arkel-Ketelaar map."""
 from __future__ import annotations
 
 import math
-import time
 
 import pytest
 
@@ -258,13 +257,6 @@ def test_describe_never_raises_and_notes_every_gap(dec):
 def test_explain_names_inputs_and_equation():
     text = "\n".join(C.explain(salt([(("Ba", 2), 1)], [("SO4(2-)", 1)])))
     assert "contact atoms Ba" in text and "oxygen-bearing anion" in text
-    assert "100*(1 - exp(-dchi^2/4))" in text and "16*dchi + 3.5*dchi^2" in text
-
-
-def test_describe_is_fast():
-    dec = salt([(("K", 1), 1), (("Al", 3), 1)], [("SO4(2-)", 2)])
-    C.describe(dec)
-    start = time.perf_counter()
-    for _ in range(200):
-        C.describe(dec)
-    assert (time.perf_counter() - start) / 200 < 2e-3
+    assert C.PAULING_EQUATION in text and C.HANNAY_SMYTH_EQUATION in text
+    # the equation text is written once: the column declaration quotes the same words
+    assert C.PAULING_EQUATION in next(c.method for c in C.COLUMNS if c.name == "ionic_character_pauling_pct")

@@ -1,0 +1,244 @@
+"""The element grammar: one formula component -> element counts.
+
+A hand-written recursive descent over element symbols, counts and nested
+brackets; nothing is evaluated, and length, depth and counts are bounded
+(``MAX_*``). It knows elements only; the ion names a formula may contain
+(``[C4mim]``, ``OAc``) are resolved by the object passed as ``ions`` (the
+ion library), so that the ion library can itself use this grammar to read
+the formulas of its ions. :mod:`scorer.formula` builds the whole formula
+(adducts, hydrates, charges, shorthand) on top of it.
+
+Also here, because both the formula and the ion library need them: the
+Hill order and the way counts are written.
+"""
+from __future__ import annotations
+
+import re
+from typing import Protocol
+
+from ionicity.scorer.elements import is_element_symbol
+
+__all__ = [
+    "FormulaError",
+    "ElementParser",
+    "IonNames",
+    "parse_element_groups",
+    "hill_order",
+    "hill_formula",
+    "format_count",
+    "WATER",
+    "OPEN_BRACKETS",
+    "CLOSE_BRACKETS",
+    "NUMBER",
+    "MAX_FORMULA_LENGTH",
+    "MAX_NESTING_DEPTH",
+    "MAX_COUNT",
+    "MAX_TOTAL_ATOMS",
+]
+
+MAX_FORMULA_LENGTH = 200
+MAX_NESTING_DEPTH = 6
+MAX_COUNT = 10_000
+MAX_TOTAL_ATOMS = 100_000
+
+
+class FormulaError(ValueError):
+    """A formula that the grammar does not accept; the message says why."""
+
+
+OPEN_BRACKETS = {"(": ")", "[": "]", "{": "}"}
+CLOSE_BRACKETS = {v: k for k, v in OPEN_BRACKETS.items()}
+NUMBER = re.compile(r"\d+(?:\.\d+)?")
+# (H2O)n inside a component, also in a complex ([Co(H2O)6]Cl2), is water:
+# carried as a pseudo-element so that outer counts multiply it
+WATER = "_water"
+_OPEN, _CLOSE, _NUMBER = OPEN_BRACKETS, CLOSE_BRACKETS, NUMBER
+
+
+class IonNames(Protocol):
+    """What the grammar asks of an ion library."""
+
+    def find_alias(self, text: str, exact_case: bool = False): ...
+
+    def find_abbreviation(self, text: str): ...
+
+
+def hill_order(counts) -> list[str]:
+    """Element symbols in Hill order: carbon, hydrogen, then alphabetical;
+    all alphabetical without carbon. The one Hill-order rule of the scorer.
+
+    >>> hill_order({"O": 4, "S": 1, "Cu": 1}), hill_order({"O": 1, "H": 6, "C": 2})
+    (['Cu', 'O', 'S'], ['C', 'H', 'O'])
+    """
+    order = sorted(counts)
+    if "C" in counts:
+        order = ["C"] + (["H"] if "H" in counts else []) + [s for s in order if s not in ("C", "H")]
+    return order
+
+
+def format_count(value: float) -> str:
+    """Write a count the way formulas do: integers bare, decimals trimmed.
+
+    >>> [format_count(v) for v in (1, 2.0, 0.5, 0.95, 1/3)]
+    ['1', '2', '0.5', '0.95', '0.333333']
+    """
+    if abs(value - round(value)) < 1e-9:
+        return str(int(round(value)))
+    return f"{value:.6f}".rstrip("0").rstrip(".")
+
+
+def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:
+    """Hill order (carbon, hydrogen, then alphabetical; all alphabetical
+    without carbon), counts of one omitted.
+
+    >>> hill_formula({"O": 4, "S": 1, "Cu": 1})
+    'CuO4S'
+    >>> hill_formula({"O": 1, "H": 6, "C": 2})
+    'C2H6O'
+    """
+    items = dict(counts)
+    return "".join(s + ("" if abs(items[s] - 1) < 1e-9 else format_count(items[s])) for s in hill_order(items))
+
+
+class ElementParser:
+    """Recursive descent over one adduct component.
+
+    ``ions`` resolves the ion names a formula may hold (``[C4mim]``, ``OAc``):
+    an object with ``find_alias(text, exact_case=False)`` and
+    ``find_abbreviation(text)`` returning an ion or None (the ion library);
+    None reads element symbols only.
+    """
+
+    def __init__(self, text: str, ions: IonNames | None = None):
+        self.text = text
+        self.pos = 0
+        self.ions = ions
+        self.allow_ion_refs = ions is not None
+        self.ion_refs: list[tuple[str, float]] = []
+
+    def error(self, what: str) -> FormulaError:
+        return FormulaError(f"{what} at position {self.pos + 1} of {self.text!r}")
+
+    def number(self) -> float | None:
+        m = _NUMBER.match(self.text, self.pos)
+        if not m:
+            return None
+        self.pos = m.end()
+        value = float(m.group())
+        if value <= 0:
+            raise self.error(f"count {m.group()!r} must be positive")
+        if value > MAX_COUNT:
+            raise FormulaError(
+                f"count {m.group()} in {self.text!r} is larger than {MAX_COUNT}; formulas are written per formula unit"
+            )
+        return value
+
+    def sequence(self, depth: int, closer: str | None) -> dict[str, float]:
+        counts: dict[str, float] = {}
+        text = self.text
+        while self.pos < len(text):
+            ch = text[self.pos]
+            if closer is not None and ch == closer:
+                return counts
+            if ch in _CLOSE:
+                raise self.error(f"unbalanced {ch!r}: no matching {_CLOSE[ch]!r} before it")
+            if ch in _OPEN:
+                if depth + 1 > MAX_NESTING_DEPTH:
+                    raise self.error(f"brackets nested deeper than {MAX_NESTING_DEPTH}")
+                if depth == 0 and self.allow_ion_refs and (ch == "[" or self.abbreviation_group()):
+                    ref = self.ion_reference()
+                    if ref is not None:
+                        continue
+                opened_at = self.pos
+                self.pos += 1
+                inner = self.sequence(depth + 1, _OPEN[ch])
+                if self.pos >= len(text):
+                    self.pos = opened_at
+                    raise self.error(f"unbalanced {ch!r}: no closing {_OPEN[ch]!r}")
+                if not inner:
+                    raise self.error("empty brackets")
+                self.pos += 1
+                multiplier = self.number() or 1.0
+                if inner == {"H": 2.0, "O": 1.0}:
+                    # (H2O)n, also inside a complex ([Co(H2O)6]Cl2), is water:
+                    # carried as a pseudo-element so outer counts multiply it
+                    inner = {WATER: 1.0}
+                for symbol, n in inner.items():
+                    counts[symbol] = counts.get(symbol, 0.0) + n * multiplier
+                continue
+            if "A" <= ch <= "Z" and depth == 0 and self.pos > 0 and self.allow_ion_refs and self.abbreviation_tail():
+                continue
+            if "A" <= ch <= "Z":
+                two = text[self.pos:self.pos + 2]
+                if len(two) == 2 and two[1].islower() and is_element_symbol(two):
+                    symbol = two
+                elif is_element_symbol(ch):
+                    symbol = ch
+                else:
+                    m = re.match(r"[A-Z][a-z]*", text[self.pos:])
+                    raise self.error(f"unknown element {m.group()!r}")
+                self.pos += len(symbol)
+                n = self.number() or 1.0
+                counts[symbol] = counts.get(symbol, 0.0) + n
+                continue
+            if ch.isdigit():
+                raise self.error(f"a count {ch!r} with nothing before it to count")
+            if "a" <= ch <= "z":
+                raise self.error(f"unexpected {ch!r}: element symbols start with a capital letter")
+            if ch in "+-^":
+                raise self.error(f"unexpected {ch!r}: a charge goes at the end, e.g. SO4^2-")
+            raise self.error(f"unexpected character {ch!r}")
+        if closer is not None:
+            raise FormulaError(f"unbalanced {_CLOSE[closer]!r}: no closing {closer!r} in {self.text!r}")
+        return counts
+
+    def abbreviation_group(self) -> bool:
+        """``(OAc)2``: a bracket holding an abbreviation that is not a formula."""
+        closer = _OPEN[self.text[self.pos]]
+        end = self.text.find(closer, self.pos)
+        return end > 0 and self.ions.find_abbreviation(self.text[self.pos + 1:end]) is not None
+
+    def abbreviation_tail(self) -> bool:
+        """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""
+        ion = self.ions.find_abbreviation(self.text[self.pos:])
+        if ion is None:
+            return False
+        self.ion_refs.append((ion.ion_id, 1.0))
+        self.pos = len(self.text)
+        return True
+
+    def ion_reference(self) -> bool | None:
+        """``[C4mim]``, ``(OAc)``: a bracket whose content names a library ion."""
+        end = self.text.find(_OPEN[self.text[self.pos]], self.pos)
+        if end < 0:
+            return None
+        content = self.text[self.pos + 1:end]
+        ion = self.ions.find_alias(content)
+        if ion is None:
+            return None
+        self.pos = end + 1
+        count = self.number() or 1.0
+        # an explicit sign after the bracket ("[C4mim]+[BF4]-") restates the charge
+        if self.pos < len(self.text) and self.text[self.pos] in "+-":
+            if (self.text[self.pos] == "+") == (ion.charge > 0):
+                self.pos += 1
+        self.ion_refs.append((ion.ion_id, count))
+        rest = self.text[self.pos:]
+        if rest and not rest.startswith("["):
+            tail = self.ions.find_alias(rest.rstrip("+-"), exact_case=True)
+            if tail is not None:
+                self.ion_refs.append((tail.ion_id, 1.0))
+                self.pos = len(self.text)
+        return True
+
+
+def parse_element_groups(text: str, ions: IonNames | None = None) -> tuple[dict[str, float], ElementParser]:
+    """Element counts of one adduct component (no dots, no charge), and the
+    parser, whose ``ion_refs`` lists the ions named through ``ions``.
+
+    >>> parse_element_groups("K4[Fe(CN)6]")[0]
+    {'K': 4.0, 'Fe': 1.0, 'C': 6.0, 'N': 6.0}
+    """
+    parser = ElementParser(text, ions)
+    counts = parser.sequence(0, None)
+    return counts, parser

@@ -1,0 +1,247 @@
+"""What kind of substance a reading is, and formal oxidation states.
+
+The ion solver (:mod:`scorer.ions`) finds charge-balanced ions; this module
+says what the result is (:func:`classify`, :func:`nonionic_decomposition`)
+and gives the oxidation states: from the ions of a reading
+(:func:`oxidation_states_of`), by electronegativity for entries without ions
+(:func:`formal_oxidation_states`) and for carbonyls and metallocenes
+(:func:`organometallic_states`).
+
+``substance_class`` values
+--------------------------
+``ionic_salt``
+    charge-balanced ions with an inorganic (or metal) cation.
+``ionic_liquid_pair``
+    an organic cation (imidazolium, pyrrolidinium, ammonium, phosphonium...)
+    with any anion; whether it melts below 100 C is the melting columns' job.
+``acid``
+    no metal; H+ with a single inorganic or carboxylate anion (HCl, H2SO4,
+    CH3COOH).
+``base``
+    a hydroxide (every anion OH-) or ammonia/hydrazine.
+``covalent_molecular``
+    non-metal molecules (CCl4, glucose); high-valent metal halides and oxides
+    that are molecular (TiCl4, SnCl4: metal at +4 or more with only halide
+    anions; Mn2O7, OsO4: metal at +7 or more with only oxide; common
+    practice); organometallics written with CO or C5H5 ligands.
+``covalent_network``
+    extended covalent solids of B, C, Si, Ge with N, O, C (SiO2, SiC, BN,
+    diamond; common practice).
+``metallic``
+    elemental metals, alloys and intermetallics (every element a metal).
+``element``
+    a non-metallic element (O2, S8, P4, a noble gas).
+``ion``
+    a lone ion written with its charge (``SO4^2-``).
+``unknown``
+    none of these could be established; the message says why.
+"""
+from __future__ import annotations
+
+from ionicity.scorer.caching import once
+from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.grammar import format_count
+from ionicity.scorer.model import Decomposition, IonTerm
+
+__all__ = [
+    "classify",
+    "nonionic_decomposition",
+    "listed_states",
+    "formal_oxidation_states",
+    "organometallic_states",
+    "oxidation_states_of",
+    "format_oxidation_states",
+]
+
+_TOL = 1e-6
+_HALOGENS = frozenset({"F", "Cl", "Br", "I", "At"})
+_NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
+_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O"})
+_ACID_ANION_FAMILIES = frozenset({
+    "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
+    "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
+})
+# binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
+_ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
+
+
+# States that mendeleev lists only as "extra" but that are common in salts
+# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory):
+# Cu(I) in CuCl and Cu2O, Mn(III) in Mn2O3 and Mn3O4, Ti(III), V(III)/V(IV),
+# Cr(II), Au(I), U(IV) in UO2, Os(VIII) and Ru(VIII) in the tetroxides, Re(VII).
+_COMMON_STATES = {
+    "Cu": (1,), "Mn": (3,), "Ti": (2, 3), "V": (2, 3, 4), "Cr": (2,), "Au": (1,), "U": (4,),
+    "Os": (8,), "Ru": (8,), "Re": (7,), "Sm": (2,), "Yb": (2,),
+}
+
+
+@once
+def listed_states(symbol: str) -> tuple[tuple[int, bool], ...]:
+    """Non-zero oxidation states of an element, ascending, each with whether
+    it is only an "extra" state (mendeleev's extended list, less common).
+
+    >>> listed_states("Na"), listed_states("Cu")[1:3]
+    (((-1, True), (1, False)), ((1, False), (2, False)))
+    """
+    element = get_element(symbol)
+    seen: dict[int, bool] = {}
+    for s in _COMMON_STATES.get(symbol, ()):
+        seen[s] = False
+    for s in element.oxidation_states_main:
+        if s != 0:
+            seen.setdefault(int(s), False)
+    for s in element.oxidation_states_extra:
+        if s != 0:
+            seen.setdefault(int(s), True)
+    return tuple(sorted(seen.items()))
+
+
+def format_oxidation_states(states) -> str:
+    """``Fe:+3;S:+6;O:-2``; averages of mixed or fractional states to 3 decimals."""
+    parts = []
+    for symbol, value in states:
+        text = format_count(round(abs(value), 3))
+        sign = "+" if value > 0 else ("-" if value < 0 else "")
+        parts.append(f"{symbol}:{sign}{text}")
+    return ";".join(parts)
+
+
+def _electronegativity(symbol: str) -> float:
+    value = get_element(symbol).electronegativity_pauling
+    return value if value == value else 1.0
+
+
+_DEFAULT_STATES = {"F": -1, "O": -2, "H": 1, "Cl": -1, "Br": -1, "I": -1, "N": -3, "S": -2, "Se": -2, "P": -3}
+
+
+def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tuple[tuple[str, float], ...]:
+    """Formal oxidation states of a covalent formula by electronegativity.
+
+    Every element but one takes its usual state (F -1, O -2, H +1, halogens
+    -1, N -3, S -2 ...; the most electronegative element its most negative
+    listed state); the least electronegative element whose resulting state
+    lies within its listed range takes the balance, possibly fractional
+    (common practice).
+
+    >>> dict(formal_oxidation_states({"C": 1, "Cl": 4}))
+    {'C': 4.0, 'Cl': -1.0}
+    >>> dict(formal_oxidation_states({"H": 2, "O": 2}))
+    {'H': 1.0, 'O': -1.0}
+    """
+    symbols = list(counts)
+    if len(symbols) == 1:
+        ((symbol, n),) = counts.items()
+        return ((symbol, charge / n),)
+    by_chi = sorted(symbols, key=_electronegativity)
+    most = by_chi[-1]
+
+    def default(symbol: str) -> float:
+        if symbol == "H" and symbol == most:
+            return -1.0
+        if symbol in _DEFAULT_STATES and (symbol != "H" or _electronegativity(most) > 2.2):
+            state = _DEFAULT_STATES[symbol]
+            if state < 0 and symbol != most and _electronegativity(symbol) < _electronegativity(most) - 1.0:
+                state = -state if symbol != "N" else 3
+            return float(state)
+        states = [s for s, _ in listed_states(symbol)] or [0]
+        return float(min(states) if symbol == most else max(states))
+
+    # an element without a usual state (C in organics, Si in SiC) balances first
+    balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
+    for balancer in balancers:
+        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+        states = [s for s, _ in listed_states(balancer)] or [0]
+        if min(states) - _TOL <= value <= max(states) + _TOL:
+            break
+    else:
+        balancer = balancers[0]
+        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+    return tuple((s, round(value if s == balancer else default(s), 6)) for s in symbols)
+
+
+def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
+    """Formal states of a homoleptic carbonyl (neutral CO: metal 0, C +2, O -2)
+    or metallocene (two C5H5(-): metal +2, C -1.2, H +1); IUPAC Red Book
+    2005, IR-10 (organometallic compounds)."""
+    metals = [s for s in counts if is_metal(s)]
+    if len(metals) != 1:
+        return ()
+    metal = metals[0]
+    rest = {s: n for s, n in counts.items() if s != metal}
+    if set(rest) == {"C", "O"} and abs(rest["C"] - rest["O"]) < _TOL:
+        return ((metal, 0.0), ("C", 2.0), ("O", -2.0))
+    if set(rest) == {"C", "H"} and abs(rest["C"] - 10 * counts[metal]) < _TOL and abs(rest["H"] - rest["C"]) < _TOL:
+        return ((metal, 2.0), ("C", -1.2), ("H", 1.0))
+    return ()
+
+
+def oxidation_states_of(terms: list[IonTerm]) -> tuple[tuple[str, float], ...]:
+    totals: dict[str, float] = {}
+    weights: dict[str, float] = {}
+    for term in terms:
+        ion = term.ion
+        for symbol, state in ion.oxidation_states:
+            k = dict(ion.composition).get(symbol, 1.0) * term.count
+            totals[symbol] = totals.get(symbol, 0.0) + state * k
+            weights[symbol] = weights.get(symbol, 0.0) + k
+    return tuple((s, round(totals[s] / weights[s], 6)) for s in totals)
+
+
+def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
+    has_metal = any(is_metal(s) for s in counts)
+    cation_ions = [t.ion for t in cations]
+    if any(ion.organic for ion in cation_ions):
+        return "ionic_liquid_pair"
+    if not has_metal and all(ion.element == "H" for ion in cation_ions):
+        anion = anions[0].ion if len(anions) == 1 and anions[0].count == 1 else None
+        if anion is not None and anion.family in _ACID_ANION_FAMILIES and (
+            not anion.monatomic or anion.element in _ACID_FORMING_ELEMENTS
+        ):
+            return "acid"
+        return "unknown"
+    if all(t.ion.ion_id == "OH(-)" for t in anions):
+        return "base"
+    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]
+    if metal_states and len(cation_ions) == 1 and all(t.ion.monatomic for t in anions):
+        anion_elements = {t.ion.element for t in anions}
+        if max(metal_states) >= 4 and anion_elements <= _HALOGENS:
+            return "covalent_molecular"
+        if max(metal_states) >= 7 and anion_elements == {"O"}:
+            return "covalent_molecular"  # Mn2O7, OsO4, RuO4
+    return "ionic_salt"
+
+
+def nonionic_decomposition(
+    charge: float, counts: dict[str, float], notes: list[str], water: float, neutral: tuple[str, ...]
+) -> Decomposition:
+    """The decomposition of an entry read without ions: metallic, element,
+    base (ammonia, hydrazine), covalent network or molecule, or unknown (a
+    metal no ions balance), with formal oxidation states."""
+    symbols = set(counts)
+    states = formal_oxidation_states(counts, charge)
+    if all(is_metal(s) for s in symbols):
+        cls = "metallic"
+        states = tuple((s, 0.0) for s in counts)
+    elif len(symbols) == 1:
+        cls = "covalent_network" if symbols <= _NETWORK_FORMERS else "element"
+        states = tuple((s, 0.0) for s in counts)
+    elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
+        cls = "base"
+    elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}):
+        cls = "covalent_network"
+    elif any(is_metal(s) for s in symbols):
+        cls = "unknown"
+        states = ()
+        notes.append("no charge-balanced set of ions found: check the formula (counts, charges, a missing element)")
+    else:
+        cls = "covalent_molecular"
+    return Decomposition(
+        composition=tuple(counts.items()),
+        hydrate_water=water,
+        neutral_parts=neutral,
+        oxidation_states=states,
+        substance_class=cls,
+        notes=tuple(notes),
+    )
