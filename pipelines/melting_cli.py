@@ -10,14 +10,12 @@ from __future__ import annotations
 import argparse
 import importlib
 
+from ionicity.scorer.caution import CAUTION as _CAUTION  # imports nothing: this module stays light
+
 __all__ = ["add_fit_melting_parser", "CAUTION", "EXTRA_HINT", "TOLERANCE_K", "MissingExtraError", "require_extra"]
 
 EXTRA_HINT = "pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)"
-CAUTION = (
-    "Predicted melting points are estimates for screening, not for process safety: decomposition,"
-    " hydration and pressure are not modelled. Check measured data and the safety data sheet before"
-    " heating anything."
-)
+CAUTION = "Predicted melting points are " + _CAUTION + "."
 # sources further apart than this disagree
 TOLERANCE_K = 20.0
 _OUTPUTS = ("melting_model.json", "training_set.csv", "decisions.csv", "report.json", "parity.png")

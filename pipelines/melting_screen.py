@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from ionicity.pipelines.melting_cli import TOLERANCE_K
-from ionicity.scorer.elements import get_element
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
 
 __all__ = [
@@ -212,7 +212,7 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
             return False, f"fractional ion count ({term}): a mixed-valence or non-stoichiometric reading"
     for term in dec.cations:
         ion = term.ion
-        if ion.monatomic and not _is_metal(ion.element):
+        if ion.monatomic and not is_metal(ion.element):
             return False, f"non-metal cation {ion.ion_id}"
         if ion.monatomic and ion.charge == 1 and 1 not in _main_states(ion.element) \
                 and ion.element not in _MONOVALENT_OK:
@@ -259,10 +259,6 @@ def _formula_in_name(name: str):
     return None
 
 
-def _is_metal(symbol: str) -> bool:
-    return get_element(symbol).is_metal
-
-
 def _main_states(symbol: str) -> tuple:
     return tuple(int(s) for s in get_element(symbol).oxidation_states_main)
 
@@ -305,5 +301,5 @@ def cation_element(dec) -> str:
         return main.element
     if main.organic:
         return "organic"
-    metals = [s for s, _ in main.composition if _is_metal(s)]
+    metals = [s for s, _ in main.composition if is_metal(s)]
     return metals[0] if metals else main.label

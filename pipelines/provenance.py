@@ -6,24 +6,20 @@ write the same.
 """
 from __future__ import annotations
 
-import hashlib
 import json
 from dataclasses import asdict
-from importlib import resources
 
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.scorer import __version__
 from ionicity.scorer.elements import snapshot_info
+from ionicity.scorer.tables import digests
 
 __all__ = ["provenance_metadata"]
 
 
 def _data_versions() -> dict:
     info = snapshot_info()
-    tables = {}
-    for entry in sorted(resources.files("ionicity.scorer.data").iterdir(), key=lambda e: e.name):
-        if entry.name.endswith((".csv", ".json")):
-            tables[entry.name] = "sha256:" + hashlib.sha256(entry.read_bytes()).hexdigest()[:16]
+    tables = {name: "sha256:" + digest[:16] for name, digest in sorted(digests().items())}
     return {
         "elements_snapshot": {
             "mendeleev_version": info.get("mendeleev_version"),
