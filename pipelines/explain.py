@@ -1,7 +1,11 @@
 """Text for people: ``ionicity explain`` and ``ionicity columns``."""
 from __future__ import annotations
 
+import argparse
+import csv
+import io
 import math
+from pathlib import Path
 
 from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import descriptor_modules, output_columns
@@ -60,9 +64,6 @@ def columns_table(fmt: str = "text") -> str:
     """Every generated column with its type, unit, method and source."""
     columns = output_columns()
     if fmt == "csv":
-        import csv
-        import io
-
         buffer = io.StringIO()
         writer = csv.writer(buffer, lineterminator="\n")
         writer.writerow(["name", "type", "unit", "description", "method", "source", "aggregation"])
@@ -100,9 +101,6 @@ def readme_with_columns(text: str) -> str:
 
 
 def _main(argv: list[str] | None = None) -> int:
-    import argparse
-    from pathlib import Path
-
     parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.explain")
     parser.add_argument("--update-readme", action="store_true", help="rewrite the column table in README.md")
     parser.add_argument("--readme", default=str(Path(__file__).resolve().parent.parent / "README.md"))

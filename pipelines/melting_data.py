@@ -93,7 +93,7 @@ def _cas_text(value) -> str:
 def _chemicals_tables(sources=MEASURED_SOURCES):
     """Melting points per CAS number and source, and the package version, from ``chemicals``."""
     chemicals = require_extra("chemicals")
-    from chemicals import phase_change
+    from chemicals import phase_change  # optional extra, checked by require_extra just above
 
     phase_change._load_phase_change_constants()  # the package loads its tables lazily too
     tables = phase_change.Tm_sources
@@ -157,7 +157,7 @@ def build_open_training_set(
     """
     say = progress or (lambda text: None)
     values, table_names, version = _chemicals_tables(tuple(sources))
-    from chemicals.identifiers import search_chemical
+    from chemicals.identifiers import search_chemical  # optional extra, checked in _chemicals_tables
 
     wanted = set(cas_numbers) if cas_numbers is not None else None
     decisions: list[dict] = []

@@ -122,6 +122,8 @@ def make_melting_pipeline(seed: int = 0, features=None):
         :data:`scorer.melting_model.MODEL_FEATURES`); the trend index, when present,
         gets a monotonic (increasing) constraint.
     """
+    # optional extra (melting): imported where used, so that without it fit-melting
+    # ends with an install hint (require_extra), not a traceback
     from sklearn.compose import TransformedTargetRegressor
     from sklearn.ensemble import HistGradientBoostingRegressor
     from sklearn.pipeline import Pipeline
@@ -159,7 +161,7 @@ def _conformal_halfwidth(residuals: np.ndarray, coverage: float) -> float:
 
 
 def _metrics(y_true: np.ndarray, y_pred: np.ndarray) -> dict:
-    from scipy.stats import spearmanr
+    from scipy.stats import spearmanr  # optional extra (melting), as above
 
     ok = np.isfinite(y_pred) & np.isfinite(y_true)
     t, p = y_true[ok], y_pred[ok]
@@ -217,6 +219,8 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         ``interval_coverage`` and ``interval_mean_width_K``; ``folds``;
         ``oof_predictions_K`` (list).
     """
+    # optional extra (melting): imported where used, so that without it fit-melting
+    # ends with an install hint (require_extra), not a traceback
     from sklearn.linear_model import LinearRegression
     from sklearn.model_selection import GroupKFold
 
@@ -292,7 +296,7 @@ def _finite_minmax(x: np.ndarray) -> tuple[list[float], list[float]]:
 
 def trend_index_report(rows, records) -> dict:
     """Spearman rho of ``mp_trend_index`` against measured melting points, overall and per anion family."""
-    from scipy.stats import spearmanr
+    from scipy.stats import spearmanr  # optional extra (melting), as above
 
     index = np.array([_float(r.get("mp_trend_index")) for r in records])
     y = np.array([row["mp_K"] for row in rows])

@@ -19,7 +19,7 @@ def parity_plot(y_true_K, y_pred_K, path, *, families=None, title: str = "") -> 
     """Measured against predicted melting points, log axes, saved as PNG."""
     matplotlib = require_extra("matplotlib")
     matplotlib.use("Agg")
-    import matplotlib.pyplot as plt
+    import matplotlib.pyplot as plt  # optional extra, checked by require_extra just above
 
     y_true_K = np.asarray(y_true_K, dtype=float)
     y_pred_K = np.asarray(y_pred_K, dtype=float)
