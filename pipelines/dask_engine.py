@@ -23,6 +23,7 @@ pays for them; install them with ``pip install ionicity[dask]``.
 """
 from __future__ import annotations
 
+import glob
 import os
 import time
 
@@ -131,7 +132,8 @@ def _import_dask():
 
 def _read_frame(dd, reader, config: ScoreConfig):
     if reader.fmt == "parquet":
-        return dd.read_parquet(list(reader.paths), index=False, dtype_backend="pyarrow")
+        # reader.paths are files as found; Dask would glob them again, reading data1.parquet for data[1].parquet
+        return dd.read_parquet([glob.escape(p) for p in reader.paths], index=False, dtype_backend="pyarrow")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
     first = next(reader.batches, None)
     if first is not None:
