@@ -8,12 +8,13 @@ this way: such a table is refused; convert it to Parquet or use the local
 engine). Output: a folder of Parquet parts ``part-000000.parquet`` ... in
 input order, written into a temporary folder beside the output and renamed
 into place when complete, carrying the same provenance metadata as the local
-engine, and a marker file (``_ionicity_dataset``, :data:`~ionicity.pipelines.io.DATASET_MARKER`):
-``--overwrite`` replaces only a folder that carries it. The old folder is
-first renamed aside, then the new one into place, then the old one deleted,
-so one of them is at the path at every instant; a run killed in between
-leaves the old one aside, and the next run puts it back. Each worker loads the scorer's data tables once, when it joins
-(a worker plugin), and keeps a cache of scored formulas for the partitions
+engine, and a marker file (``_ionicity_dataset``,
+:data:`~ionicity.pipelines.io.DATASET_MARKER`): ``--overwrite`` replaces
+only a folder that carries it. The old folder is first renamed aside, then
+the new one into place, then the old one deleted, so one of them is at the
+path at every instant; a run killed in between leaves the old one aside, and
+the next run puts it back. Each worker loads the scorer's data tables once,
+when it joins (a worker plugin), and keeps a cache of scored formulas for the partitions
 of the run it handles; the plugin, and with it the cache, is removed when
 the run ends.
 
@@ -223,7 +224,8 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         with open(os.path.join(tmp, DATASET_MARKER), "w", encoding="utf-8") as marker:
             marker.write("a dataset folder written by ionicity score --engine dask;"
                          " --overwrite replaces only folders holding this file\n")
-        tmp = _swap_into_place(tmp, config.output, config.overwrite)
+        _swap_into_place(tmp, config.output, config.overwrite)
+        tmp = None
     except Exception as exc:
         mapped = _user_error(exc)
         if mapped is not None:
@@ -245,28 +247,29 @@ def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:
     """Rename the finished dataset folder ``tmp`` to ``output``: over an old
     dataset of ours only with ``overwrite`` (old aside, new in, old deleted,
     so one of them is at ``output`` at every instant). Whatever else is found
-    at ``output`` by now stays, and the result is kept beside it. Returns
-    None: nothing is left at ``tmp``."""
+    at ``output`` by now stays, and the result is kept beside it
+    (:class:`InputError` saying where). Nothing is left at ``tmp``."""
     if not os.path.lexists(output):
         try:
             # fails if a file or a non-empty folder appeared since the check
             os.rename(tmp, output)
-            return None
+            return
         except OSError:
-            raise keep_beside(tmp, output, "appeared while this run was writing it") from None
+            raise keep_beside(tmp, output, "appeared while this run was writing it and was left as it is") from None
     if not overwrite:
-        raise keep_beside(tmp, output, "appeared while this run was writing it (pass --overwrite to replace it)")
+        raise keep_beside(tmp, output, "appeared while this run was writing it and was left as it is"
+                                       " (pass --overwrite to replace it)")
     if not is_ionicity_dataset(output):
-        raise keep_beside(tmp, output, f"was replaced during the run by something without {DATASET_MARKER}")
+        raise keep_beside(tmp, output, f"was replaced during the run by something without {DATASET_MARKER},"
+                                       " which was left as it is")
     backup = backup_path(output)
     os.rename(output, backup)
     try:
         os.rename(tmp, output)
     except OSError:
         os.rename(backup, output)
-        raise keep_beside(tmp, output, "appeared while this run was replacing it") from None
+        raise keep_beside(tmp, output, "appeared while this run was replacing it and was left as it is") from None
     _remove(backup)
-    return None
 
 
 def _drop_plugin(client) -> None:

@@ -49,7 +49,10 @@ __all__ = [
     "FORMATS",
     "partial_path",
     "clean_stale_partials",
+    "check_output_path",
     "kept_path",
+    "keep_beside",
+    "backup_path",
     "DATASET_MARKER",
     "is_ionicity_dataset",
 ]
@@ -191,7 +194,7 @@ def keep_beside(tmp: str, path: str, reason: str) -> InputError:
     return the error that says where it is (one line)."""
     kept = kept_path(path)
     os.rename(tmp, kept)  # a fresh random name: nothing there to replace
-    return InputError(f"output {path!r} {reason}; it was left as it is, and this run's result is in {kept!r}")
+    return InputError(f"output {path!r} {reason}; this run's result is in {kept!r}")
 
 
 def _remove(path: str | None) -> None:
@@ -665,13 +668,15 @@ class TableWriter:
         tmp, self._tmp = self._tmp, None
         if self.overwrite:
             if os.path.lexists(self.path) and not stat.S_ISREG(os.lstat(self.path).st_mode):
-                raise keep_beside(tmp, self.path, "was replaced during the run by something that is not a regular file")
+                raise keep_beside(tmp, self.path, "was replaced during the run by something that is not a regular"
+                                                  " file, which was left as it is")
             os.replace(tmp, self.path)
             return
         try:
             os.link(tmp, self.path)
         except FileExistsError:
-            raise keep_beside(tmp, self.path, "appeared while this run was writing it (pass --overwrite to replace it)") from None
+            raise keep_beside(tmp, self.path, "appeared while this run was writing it and was left as it is"
+                                              " (pass --overwrite to replace it)") from None
         except OSError as exc:
             raise keep_beside(tmp, self.path, f"was not created: this file system has no hard links ({exc.strerror}),"
                               " which ionicity needs to create a file without replacing one that appeared meanwhile;"
