@@ -58,13 +58,16 @@ def build_parser() -> argparse.ArgumentParser:
 
     score = sub.add_parser("score", help="score a CSV, TSV or Parquet table", epilog=_EPILOG,
                            formatter_class=argparse.RawDescriptionHelpFormatter)
-    score.add_argument("input", metavar="INPUT", help="input table (.csv, .tsv, .parquet, a folder or glob of Parquet parts, or - for CSV on stdin)")
+    score.add_argument("input", metavar="INPUT", help="input table (.csv, .tsv, .parquet, a folder or glob of Parquet parts, or - for CSV on"
+                            " stdin); a path that exists is read as written, and *, ? and [ make a glob only when"
+                            " it does not")
     score.add_argument("-o", "--output", default="-", help="output table; its extension sets the format (default: CSV on stdout)")
     score.add_argument("--formula-col", metavar="COL", help="column holding the formulas (default: the column named 'formula', any case)")
     score.add_argument("--name-col", metavar="COL", help="column naming each row; quoted in the message of rows that fail")
     score.add_argument("--prefix", default="", metavar="TEXT", help="prefix for every generated column name")
     score.add_argument("--strict", action="store_true", help="exit 1 when any row has status error")
-    score.add_argument("--overwrite", action="store_true", help="replace an existing output file")
+    score.add_argument("--overwrite", action="store_true", help="replace an existing output: a regular file, or (--engine dask) a folder an earlier"
+                            " run wrote; never a symlink, device or other folder")
     score.add_argument("--quiet", action="store_true", help="no progress and no summary on stderr")
     score.add_argument("--batch-rows", type=int, default=65536, metavar="N", help="rows per batch (default: 65536)")
     score.add_argument("--engine", choices=("local", "dask"), default="local",

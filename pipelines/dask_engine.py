@@ -8,8 +8,13 @@ this way: such a table is refused; convert it to Parquet or use the local
 engine). Output: a folder of Parquet parts ``part-000000.parquet`` ... in
 input order, written into a temporary folder beside the output and renamed
 into place when complete, carrying the same provenance metadata as the local
-engine. Each worker loads the scorer's data tables once, when it joins
-(a worker plugin), and keeps a cache of scored formulas for the partitions
+engine, and a marker file (``_ionicity_dataset``,
+:data:`~ionicity.pipelines.io.DATASET_MARKER`): ``--overwrite`` replaces
+only a folder that carries it. The old folder is first renamed aside, then
+the new one into place, then the old one deleted, so one of them is at the
+path at every instant; a run killed in between leaves the old one aside, and
+the next run puts it back. Each worker loads the scorer's data tables once,
+when it joins (a worker plugin), and keeps a cache of scored formulas for the partitions
 of the run it handles; the plugin, and with it the cache, is removed when
 the run ends.
 
@@ -19,6 +24,7 @@ pays for them; install them with ``pip install ionicity[dask]``.
 """
 from __future__ import annotations
 
+import glob
 import os
 import time
 
@@ -29,7 +35,16 @@ from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.formula_cache import FormulaCache
-from ionicity.pipelines.io import _remove, check_output_path, clean_stale_partials, partial_path
+from ionicity.pipelines.io import (
+    DATASET_MARKER,
+    _remove,
+    backup_path,
+    check_output_path,
+    clean_stale_partials,
+    is_ionicity_dataset,
+    keep_beside,
+    partial_path,
+)
 from ionicity.pipelines.local_engine import prepare
 from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.pool import default_workers, warm_up
@@ -118,7 +133,8 @@ def _import_dask():
 
 def _read_frame(dd, reader, config: ScoreConfig):
     if reader.fmt == "parquet":
-        return dd.read_parquet(list(reader.paths), index=False, dtype_backend="pyarrow")
+        # reader.paths are files as found; Dask would glob them again, reading data1.parquet for data[1].parquet
+        return dd.read_parquet([glob.escape(p) for p in reader.paths], index=False, dtype_backend="pyarrow")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
     first = next(reader.batches, None)
     if first is not None:
@@ -155,8 +171,10 @@ def score_file_dask(config: ScoreConfig) -> Summary:
     reader, formula_col, schema = prepare(config)
     dask, dd, distributed = _import_dask()
     inputs = reader.paths or (config.input,)
-    directory = check_output_path(config.output, config.overwrite, inputs, dataset=True)
-    clean_stale_partials(directory)
+    # first settle what killed runs left: a dataset they moved aside goes back to its path
+    clean_stale_partials(os.path.dirname(os.path.abspath(config.output)))
+    check_output_path(config.output, config.overwrite, inputs, dataset=True)
+    directory = os.path.dirname(os.path.abspath(config.output))
     metadata = provenance_metadata(config, formula_col)
     status_name = config.prefix + "status"
     input_schema = reader.schema
@@ -203,13 +221,10 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         if summary.rows == 0:
             raise InputError(f"input {config.input!r} has a header but no data rows")
         summary.distinct_formulas = int(stats.loc[stats["kind"] == "formula", "value"].nunique())
-        if os.path.exists(config.output):
-            old = partial_path(directory)
-            os.replace(config.output, old)
-            os.replace(tmp, config.output)
-            _remove(old)
-        else:
-            os.replace(tmp, config.output)
+        with open(os.path.join(tmp, DATASET_MARKER), "w", encoding="utf-8") as marker:
+            marker.write("a dataset folder written by ionicity score --engine dask;"
+                         " --overwrite replaces only folders holding this file\n")
+        _swap_into_place(tmp, config.output, config.overwrite)
         tmp = None
     except Exception as exc:
         mapped = _user_error(exc)
@@ -226,6 +241,35 @@ def score_file_dask(config: ScoreConfig) -> Summary:
             cluster.close()
     summary.seconds = time.perf_counter() - started
     return summary
+
+
+def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:
+    """Rename the finished dataset folder ``tmp`` to ``output``: over an old
+    dataset of ours only with ``overwrite`` (old aside, new in, old deleted,
+    so one of them is at ``output`` at every instant). Whatever else is found
+    at ``output`` by now stays, and the result is kept beside it
+    (:class:`InputError` saying where). Nothing is left at ``tmp``."""
+    if not os.path.lexists(output):
+        try:
+            # fails if a file or a non-empty folder appeared since the check
+            os.rename(tmp, output)
+            return
+        except OSError:
+            raise keep_beside(tmp, output, "appeared while this run was writing it and was left as it is") from None
+    if not overwrite:
+        raise keep_beside(tmp, output, "appeared while this run was writing it and was left as it is"
+                                       " (pass --overwrite to replace it)")
+    if not is_ionicity_dataset(output):
+        raise keep_beside(tmp, output, f"was replaced during the run by something without {DATASET_MARKER},"
+                                       " which was left as it is")
+    backup = backup_path(output)
+    os.rename(output, backup)
+    try:
+        os.rename(tmp, output)
+    except OSError:
+        os.rename(backup, output)
+        raise keep_beside(tmp, output, "appeared while this run was replacing it and was left as it is") from None
+    _remove(backup)
 
 
 def _drop_plugin(client) -> None:

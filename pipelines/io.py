@@ -9,6 +9,12 @@ Temporary outputs are named ``.ionicity-PID@HOST.TOKEN.partial`` and sit
 beside the output. An interrupted run removes its own (Ctrl-C, SIGTERM); one
 that was killed outright cannot, so every later run first removes the
 partials of this host whose process is gone (:func:`clean_stale_partials`).
+
+What is at the output path is never replaced unless ``--overwrite`` asked
+for it: without it the result is hard-linked into place (which fails if the
+path appeared meanwhile; the result is then kept beside it, :func:`kept_path`),
+and with it only a regular file, or a dataset folder carrying
+:data:`DATASET_MARKER`, is replaced.
 """
 from __future__ import annotations
 
@@ -21,6 +27,7 @@ import re
 import secrets
 import shutil
 import socket
+import stat
 import sys
 import threading
 from dataclasses import dataclass, field
@@ -42,6 +49,12 @@ __all__ = [
     "FORMATS",
     "partial_path",
     "clean_stale_partials",
+    "check_output_path",
+    "kept_path",
+    "keep_beside",
+    "backup_path",
+    "DATASET_MARKER",
+    "is_ionicity_dataset",
 ]
 
 FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet"}
@@ -55,6 +68,11 @@ _HEADER_BLOCK = 1 << 18
 _PARTIAL_PREFIX = ".ionicity-"
 _PARTIAL_SUFFIX = ".partial"
 _PARTIAL_RE = re.compile(r"^\.ionicity-(\d+)@([A-Za-z0-9-]+)\.[0-9a-f]{8}\.partial$")
+# an old dataset folder moved aside while the new one is renamed into place
+_BACKUP_RE = re.compile(r"^\.(.+)\.ionicity-(\d+)@([A-Za-z0-9-]+)\.backup$")
+#: the file ionicity writes into every dataset folder it creates; --overwrite
+#: replaces only a folder that carries it
+DATASET_MARKER = "_ionicity_dataset"
 
 
 def format_of(path: str) -> str:
@@ -104,7 +122,10 @@ def clean_stale_partials(directory: str) -> list[str]:
 
     Only names of our own pattern whose process id is no longer running here
     are removed, so a run in progress (on this host or, on a shared disk,
-    another one) is never touched. Returns the paths removed.
+    another one) is never touched. A dataset folder that a killed run had
+    moved aside to replace it (:func:`backup_path`) is renamed back when
+    nothing took its place, and removed only when the new dataset was already
+    in place. Returns the paths removed.
     """
     if os.name != "posix":
         return []
@@ -115,6 +136,10 @@ def clean_stale_partials(directory: str) -> list[str]:
     except OSError:
         return []
     for name in names:
+        backup = _BACKUP_RE.match(name)
+        if backup and backup.group(3) == host and not _pid_alive(int(backup.group(2))):
+            _settle_backup(os.path.join(directory, name), os.path.join(directory, backup.group(1)))
+            continue
         match = _PARTIAL_RE.match(name)
         if not match or match.group(2) != host or _pid_alive(int(match.group(1))):
             continue
@@ -130,6 +155,48 @@ def clean_stale_partials(directory: str) -> list[str]:
     return removed
 
 
+def backup_path(path: str) -> str:
+    """Where the dataset folder ``path`` waits while its replacement moves in."""
+    directory, base = os.path.split(os.path.abspath(path))
+    return os.path.join(directory, f".{base}.ionicity-{os.getpid()}@{_host_tag()}.backup")
+
+
+def is_ionicity_dataset(path: str) -> bool:
+    """Whether ``path`` is a real folder (no symlink) holding :data:`DATASET_MARKER`."""
+    try:
+        return stat.S_ISDIR(os.lstat(path).st_mode) and stat.S_ISREG(os.lstat(os.path.join(path, DATASET_MARKER)).st_mode)
+    except OSError:
+        return False
+
+
+def _settle_backup(backup: str, output: str) -> None:
+    """A killed run's moved-aside dataset: back into place if the path is
+    free, removed if the run's new dataset got there, else left alone."""
+    try:
+        if not os.path.lexists(output):
+            if is_ionicity_dataset(backup):
+                os.rename(backup, output)
+        elif is_ionicity_dataset(output):
+            shutil.rmtree(backup)
+    except OSError:  # another run got there first
+        pass
+
+
+def kept_path(path: str) -> str:
+    """A fresh name beside ``path`` (``out.new-1a2b3c4d.parquet``) for a
+    result that could not take ``path`` without replacing what is there."""
+    stem, suffix = os.path.splitext(path)
+    return f"{stem}.new-{secrets.token_hex(4)}{suffix}"
+
+
+def keep_beside(tmp: str, path: str, reason: str) -> InputError:
+    """Move the finished result ``tmp`` to :func:`kept_path` of ``path`` and
+    return the error that says where it is (one line)."""
+    kept = kept_path(path)
+    os.rename(tmp, kept)  # a fresh random name: nothing there to replace
+    return InputError(f"output {path!r} {reason}; this run's result is in {kept!r}")
+
+
 def _remove(path: str | None) -> None:
     if path is None:
         return
@@ -143,19 +210,26 @@ def _remove(path: str | None) -> None:
 
 
 def check_output_path(path: str, overwrite: bool, inputs: tuple[str, ...] = (), dataset: bool = False) -> str:
-    """Refuse outputs that would replace the input or an existing file without
-    ``overwrite``; returns the output's folder. ``dataset`` outputs are
-    folders of Parquet parts."""
+    """Refuse outputs that would replace the input, an existing path without
+    ``overwrite``, or with it anything but a regular file (``dataset``: a
+    folder of Parquet parts carrying :data:`DATASET_MARKER`); returns the
+    output's folder. A dangling symlink counts as existing."""
     if os.path.isdir(path) and not dataset:
         raise InputError(f"output {path!r} is a directory; give a file name ending .csv, .tsv or .parquet")
-    if os.path.exists(path) and not overwrite:
+    if os.path.lexists(path) and not overwrite:
         raise InputError(f"output {path!r} exists; pass --overwrite to replace it")
-    if os.path.exists(path):
+    if os.path.lexists(path):
         target = os.path.realpath(path)
         for source in inputs:
             real = os.path.realpath(source)
             if source != "-" and (real == target or real.startswith(target + os.sep)):
                 raise InputError(f"output {path!r} is (or holds) the input; choose another output path")
+        if dataset and not is_ionicity_dataset(path):
+            raise InputError(f"output {path!r} is not a dataset folder written by ionicity (it has no"
+                             f" {DATASET_MARKER} file), so --overwrite will not replace it; remove it or choose another path")
+        if not dataset and not stat.S_ISREG(os.lstat(path).st_mode):
+            raise InputError(f"output {path!r} is not a regular file (a symlink, device or the like), so --overwrite"
+                             " will not replace it; remove it or choose another path")
     directory = os.path.dirname(os.path.abspath(path))
     if not os.path.isdir(directory):
         raise InputError(f"output folder {directory!r} does not exist")
@@ -343,12 +417,13 @@ def _parquet_paths(path: str) -> list[str]:
             if os.path.isfile(p) and p.lower().endswith((".parquet", ".pq"))
             and not os.path.basename(p).startswith((".", "_"))
         )
+    elif os.path.exists(path):
+        # a path is literal: data[1].parquet is that file, never a pattern matching data1.parquet
+        paths = [path]
     elif any(ch in path for ch in "*?["):
         paths = sorted(p for p in glob.glob(path, recursive=True) if os.path.isfile(p))
     else:
-        if not os.path.exists(path):
-            raise InputError(f"input file {path!r} does not exist")
-        paths = [path]
+        raise InputError(f"input file {path!r} does not exist")
     if not paths:
         raise InputError(f"no Parquet files found at {path!r}")
     return paths
@@ -417,7 +492,8 @@ def open_reader(path: str, batch_rows: int = 65536) -> TableReader:
     """Open an input table for batch reading; raises :class:`InputError`.
 
     ``path`` is a ``.csv``, ``.tsv`` or ``.parquet`` file, a folder or glob of
-    Parquet parts, or ``-`` for CSV on standard input.
+    Parquet parts, or ``-`` for CSV on standard input. A path that exists is
+    read as written; ``*``, ``?`` and ``[`` make a pattern only when it does not.
     """
     fmt = format_of(path)
     if fmt == "parquet":
@@ -488,9 +564,11 @@ class TableWriter:
         self._gathered_rows = 0
         self._thread = None
         self._error: BaseException | None = None
+        self.overwrite = overwrite
         if path != "-":
+            # first settle what killed runs left: a dataset they moved aside goes back to its path
+            clean_stale_partials(os.path.dirname(os.path.abspath(path)))
             directory = check_output_path(path, overwrite, inputs)
-            clean_stale_partials(directory)
             self._tmp = partial_path(directory)
             # os.open honours the umask, unlike mkstemp's 0600
             fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
@@ -578,10 +656,32 @@ class TableWriter:
             else:
                 os.fsync(self._file.fileno())
                 self._file.close()
-            os.replace(self._tmp, self.path)
-            self._tmp = None
+            self._move_into_place()
         else:
             sys.stdout.flush()
+
+    def _move_into_place(self) -> None:
+        """Rename the finished file to the output path; without ``overwrite``
+        only if nothing is there by now (a hard link cannot replace), else
+        only over a regular file. A result that cannot go there is kept
+        beside it and the error names both."""
+        tmp, self._tmp = self._tmp, None
+        if self.overwrite:
+            if os.path.lexists(self.path) and not stat.S_ISREG(os.lstat(self.path).st_mode):
+                raise keep_beside(tmp, self.path, "was replaced during the run by something that is not a regular"
+                                                  " file, which was left as it is")
+            os.replace(tmp, self.path)
+            return
+        try:
+            os.link(tmp, self.path)
+        except FileExistsError:
+            raise keep_beside(tmp, self.path, "appeared while this run was writing it and was left as it is"
+                                              " (pass --overwrite to replace it)") from None
+        except OSError as exc:
+            raise keep_beside(tmp, self.path, f"was not created: this file system has no hard links ({exc.strerror}),"
+                              " which ionicity needs to create a file without replacing one that appeared meanwhile;"
+                              " rename the result yourself, or pass --overwrite") from None
+        os.unlink(tmp)
 
     def abort(self) -> None:
         try:

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import json
 import os
+import stat
 from pathlib import Path
 
 from ionicity.scorer import melting_model
@@ -37,10 +38,17 @@ def load_model(path) -> melting_model.MeltingModel:
     """
     path = Path(path)
     try:
-        size = path.stat().st_size
-        if size > _MAX_MODEL_BYTES:
-            raise melting_model.ModelFormatError(f"{path}: {size} bytes is too large for a melting model")
-        raw = path.read_bytes()
+        # non-blocking, so that a FIFO cannot hold the run; fstat on the open
+        # file, so that what is checked is what is read
+        fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0))
+        with os.fdopen(fd, "rb") as stream:
+            if not stat.S_ISREG(os.fstat(stream.fileno()).st_mode):
+                raise melting_model.ModelFormatError(
+                    f"{path} is not a regular file (a folder, device or pipe); give the JSON file 'ionicity fit-melting' wrote")
+            # st_size can be wrong (procfs, a file still growing): read one byte past the limit instead
+            raw = stream.read(_MAX_MODEL_BYTES + 1)
+        if len(raw) > _MAX_MODEL_BYTES:
+            raise melting_model.ModelFormatError(f"{path}: more than {_MAX_MODEL_BYTES} bytes is too large for a melting model")
     except OSError as exc:
         raise melting_model.ModelFormatError(f"cannot read the melting model {path}: {exc}") from exc
     if raw[:1] == b"\x80" or raw[:4] == b"PK\x03\x04":

@@ -72,7 +72,7 @@ def test_parquet_parts_on_two_workers_match_the_local_engine(parts, tmp_path, cl
     out = tmp_path / "dask.parquet"
     summary = score_file(ScoreConfig(input=str(parts), output=str(out), engine="dask",
                                      scheduler=cluster.scheduler_address, quiet=True))
-    assert out.is_dir() and sorted(os.listdir(out))[0] == "part-000000.parquet"
+    assert out.is_dir() and sorted(os.listdir(out))[:2] == ["_ionicity_dataset", "part-000000.parquet"]
     result = pq.read_table(out)
     assert result.schema.equals(local.schema, check_metadata=False)
     # text columns are dictionary-encoded; each engine builds its own
@@ -110,6 +110,17 @@ def test_overwrite_replaces_a_previous_dataset(parts, tmp_path, cluster):
     score_file(config)
     assert pq.read_table(out).num_rows == 2500
     assert [n for n in os.listdir(tmp_path) if n.startswith(".ionicity-")] == []
+
+
+def test_attack_an_existing_path_with_glob_characters_is_read_as_written(tmp_path, cluster):
+    # attack 3 on the dask engine: Dask globbed the input paths again, so
+    # 'data[1].parquet' was read as data1.parquet
+    pq.write_table(pa.table({"formula": ["NaCl"]}), tmp_path / "data[1].parquet")
+    pq.write_table(pa.table({"formula": ["KCl", "MgO"]}), tmp_path / "data1.parquet")
+    out = tmp_path / "out.parquet"
+    score_file(ScoreConfig(input=str(tmp_path / "data[1].parquet"), output=str(out), engine="dask",
+                           scheduler=cluster.scheduler_address, quiet=True))
+    assert pq.read_table(out).column("formula").to_pylist() == ["NaCl"]
 
 
 @pytest.mark.parametrize(
