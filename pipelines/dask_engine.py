@@ -9,7 +9,7 @@ engine). Output: a folder of Parquet parts ``part-000000.parquet`` ... in
 input order, written into a temporary folder beside the output and renamed
 into place when complete, carrying the same provenance metadata as the local
 engine, and a marker file (``_ionicity_dataset``,
-:data:`~ionicity.pipelines.io.DATASET_MARKER`): ``--overwrite`` replaces
+:data:`~ionicity.pipelines.output_paths.DATASET_MARKER`): ``--overwrite`` replaces
 only a folder that carries it. The old folder is first renamed aside, then
 the new one into place, then the old one deleted, so one of them is at the
 path at every instant; a run killed in between leaves the old one aside, and
@@ -35,7 +35,7 @@ from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.formula_cache import FormulaCache
-from ionicity.pipelines.io import (
+from ionicity.pipelines.output_paths import (
     DATASET_MARKER,
     _remove,
     backup_path,

@@ -25,13 +25,12 @@ from ionicity.pipelines import io as ionicity_io
 from ionicity.pipelines import local_engine
 from ionicity.pipelines.cli import main
 from ionicity.pipelines.errors import InputError
-from ionicity.pipelines.io import (
+from ionicity.pipelines.io import TableWriter, open_reader
+from ionicity.pipelines.output_paths import (
     DATASET_MARKER,
-    TableWriter,
     backup_path,
     clean_stale_partials,
     is_ionicity_dataset,
-    open_reader,
 )
 
 SCHEMA = pa.schema([("formula", pa.string())])

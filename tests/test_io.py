@@ -19,13 +19,8 @@ import pyarrow.parquet as pq
 import pytest
 
 from ionicity.pipelines.errors import InputError
-from ionicity.pipelines.io import (
-    TableWriter,
-    clean_stale_partials,
-    format_of,
-    open_reader,
-    partial_path,
-)
+from ionicity.pipelines.io import TableWriter, format_of, open_reader
+from ionicity.pipelines.output_paths import clean_stale_partials, partial_path
 
 
 def _read_all(path, batch_rows=65536):
