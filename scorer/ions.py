@@ -319,7 +319,7 @@ def _ion_penalty(ion: Ion) -> float:
     return 0.0
 
 
-@per_input(maxsize=1)
+@once
 def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
     return tuple(
         (ion, frozenset(symbol for symbol, _ in ion.composition))
@@ -550,7 +550,7 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
     )
 
 
-@per_input(maxsize=1)
+@once
 def _library_rank() -> dict[str, int]:
     return {ion.ion_id: i for i, ion in enumerate(ion_library())}
 
