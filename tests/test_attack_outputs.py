@@ -1,7 +1,8 @@
 """Attacks on the command line's paths: what ionicity may replace, read or open.
 
 Each test names the attack case it answers (from the attack on the command
-line). No scientific reference values: properties of our own file handling.
+line). No scientific reference values: properties of our own file handling,
+whose expectations (never replace unasked, swap atomically) are common practice.
 
 1. an output that appears during a run, two runs on one output, a dangling
    symlink at the output path, --overwrite aimed at a symlink or a folder;
