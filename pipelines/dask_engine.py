@@ -30,11 +30,12 @@ import time
 
 import pyarrow as pa
 import pyarrow.compute as pc
-
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.formula_cache import FormulaCache
+from ionicity.pipelines.local_engine import prepare
+from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.output_paths import (
     DATASET_MARKER,
     _remove,
@@ -45,10 +46,9 @@ from ionicity.pipelines.output_paths import (
     keep_beside,
     partial_path,
 )
-from ionicity.pipelines.local_engine import prepare
-from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
+from ionicity.scorer.verdict import STATUSES
 
 __all__ = ["score_file_dask", "score_partition"]
 
@@ -215,7 +215,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
             _, stats = dask.compute(write, stats)
         summary = Summary(output=config.output)
         for kind, key, value in stats.itertuples(index=False):
-            if kind == "status" and key in ("ok", "warning", "error"):
+            if kind == "status" and key in STATUSES:
                 setattr(summary, key, getattr(summary, key) + int(value))
         summary.rows = summary.ok + summary.warning + summary.error
         if summary.rows == 0:

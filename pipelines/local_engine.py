@@ -19,7 +19,6 @@ from collections import deque
 
 import pyarrow as pa
 import pyarrow.compute as pc
-
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
@@ -28,7 +27,12 @@ from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.progress import Progress
 from ionicity.pipelines.provenance import provenance_metadata
 from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_array
-from ionicity.pipelines.schema import check_name_column, find_formula_column, output_schema
+from ionicity.pipelines.schema import (
+    check_name_column,
+    find_formula_column,
+    output_schema,
+)
+from ionicity.scorer.verdict import STATUSES
 
 __all__ = ["score_file_local", "prepare", "count_status"]
 
@@ -136,5 +140,5 @@ def count_status(summary: Summary, batch: pa.RecordBatch, status_name: str) -> N
     """Add a scored batch's rows per status to ``summary``."""
     counts = pc.value_counts(batch.column(batch.schema.get_field_index(status_name))).to_pylist()
     for item in counts:
-        if item["values"] in ("ok", "warning", "error"):
+        if item["values"] in STATUSES:
             setattr(summary, item["values"], getattr(summary, item["values"]) + item["counts"])
