@@ -12,6 +12,7 @@ Light on purpose (no pyarrow): the command line imports it at start-up.
 """
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, fields
 from typing import Any, Callable
 
@@ -28,6 +29,19 @@ def _whole_number(value: Any) -> bool:
 
 def _text_or_none(value: Any) -> bool:
     return value is None or isinstance(value, str)
+
+
+# [scheme://]host:port, host a name, an IPv4 address or a bracketed IPv6 one
+_SCHEDULER_ADDRESS = re.compile(
+    r"(?:(?:tcp|tls|ucx|ws|wss)://)?(?:\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+):(\d{1,5})"
+)
+
+
+def _scheduler_address(value: Any) -> bool:
+    if value is None:
+        return True
+    match = _SCHEDULER_ADDRESS.fullmatch(value) if isinstance(value, str) else None
+    return bool(match) and 1 <= int(match.group(1)) <= 65535
 
 
 @dataclass(frozen=True)
@@ -50,7 +64,8 @@ CONSTRAINTS: dict[str, Constraint] = {
     "engine": Constraint("--engine", lambda v: v in ENGINES, "one of " + ", ".join(ENGINES)),
     "workers": Constraint("--workers", lambda v: v is None or (_whole_number(v) and v >= 1),
                           "a whole number of at least 1 (or none given, for every core)"),
-    "scheduler": Constraint("--scheduler", _text_or_none, "an address such as tcp://10.0.0.5:8786"),
+    "scheduler": Constraint("--scheduler", _scheduler_address,
+                            "an address [tcp|tls|ucx|ws|wss://]HOST:PORT such as tcp://10.0.0.5:8786"),
     "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
 }
 

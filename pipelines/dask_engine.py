@@ -53,7 +53,15 @@ from ionicity.scorer.verdict import STATUSES
 __all__ = ["score_file_dask", "score_partition"]
 
 _CSV_BLOCK = "64MB"
+# a scheduler on this machine answers at once; one across a network may be slow
 _CONNECT_TIMEOUT = "20s"
+_LOOPBACK_CONNECT_TIMEOUT = "5s"
+_LOOPBACK_HOSTS = ("127.", "localhost", "[::1]")
+
+
+def _connect_timeout(address: str) -> str:
+    host = address.split("://", 1)[-1]
+    return _LOOPBACK_CONNECT_TIMEOUT if host.startswith(_LOOPBACK_HOSTS) else _CONNECT_TIMEOUT
 _PLUGIN = "ionicity-warm-up"
 
 
@@ -185,7 +193,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         with dask.config.set({"logging.distributed": "error", "distributed.admin.system-monitor.gil.enabled": False}):
             if config.scheduler:
                 try:
-                    client = distributed.Client(config.scheduler, timeout=_CONNECT_TIMEOUT)
+                    client = distributed.Client(config.scheduler, timeout=_connect_timeout(config.scheduler))
                 except (OSError, TimeoutError) as exc:
                     raise InputError(f"cannot reach the Dask scheduler at {config.scheduler!r}: {exc}") from None
             else:

@@ -385,8 +385,9 @@ def leave_process(code: int) -> None:
     synced and closed, and its workers have stopped. Where the standard
     streams cannot be flushed, exit the ordinary way."""
     try:
-        sys.stdout.flush()
-        sys.stderr.flush()
+        for stream in (sys.stdout, sys.stderr):
+            if stream is not None:
+                stream.flush()
     except (OSError, ValueError):
         sys.exit(code)
     os._exit(code)

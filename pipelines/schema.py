@@ -16,7 +16,7 @@ from ionicity.pipelines.errors import InputError
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.melting_model import MODEL_COLUMNS
 
-__all__ = ["find_formula_column", "check_name_column", "generated_columns", "generated_names", "output_schema"]
+__all__ = ["find_formula_column", "check_formula_type", "check_name_column", "generated_columns", "generated_names", "output_schema"]
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
@@ -33,6 +33,21 @@ def find_formula_column(names: list[str], requested: str | None) -> str:
     raise InputError(
         "no column named 'formula'; choose one with --formula-col. Columns found: " + ", ".join(map(repr, names))
     )
+
+
+def check_formula_type(schema: pa.Schema, formula_col: str) -> None:
+    """Raise :class:`InputError` when the formula column holds values that
+    are not text: lists, structs and maps have no formula to read. Text,
+    bytes (a cell that is not UTF-8 becomes that row's error), numbers and
+    empty columns are read cell by cell."""
+    kind = schema.field(formula_col).type
+    if pa.types.is_dictionary(kind):
+        kind = kind.value_type
+    if pa.types.is_nested(kind):
+        raise InputError(
+            f"column {formula_col!r} holds {kind} values; the formula column must hold text"
+            " (choose another with --formula-col)"
+        )
 
 
 def check_name_column(names: list[str], name_col: str | None, option: str = "--name-col") -> None:
