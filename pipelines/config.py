@@ -31,6 +31,9 @@ def _text_or_none(value: Any) -> bool:
     return value is None or isinstance(value, str)
 
 
+# a cell a spreadsheet opens as a formula starts with one of these
+_FORMULA_STARTS = ("=", "+", "-", "@")
+
 # [scheme://]host:port, host a name, an IPv4 address or a bracketed IPv6 one
 _SCHEDULER_ADDRESS = re.compile(
     r"(?:(?:tcp|tls|ucx|ws|wss)://)?(?:\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+):(\d{1,5})"
@@ -59,7 +62,9 @@ CONSTRAINTS: dict[str, Constraint] = {
     "output": Constraint("--output", lambda v: isinstance(v, str) and v != "", "a path, or - for standard output"),
     "formula_col": Constraint("--formula-col", _text_or_none, "a column name"),
     "name_col": Constraint("--name-col", _text_or_none, "a column name"),
-    "prefix": Constraint("--prefix", lambda v: isinstance(v, str), "text (may be empty)"),
+    "prefix": Constraint("--prefix", lambda v: isinstance(v, str) and not v.startswith(_FORMULA_STARTS) and v.isprintable(),
+                         "printable text (may be empty) not starting with =, +, - or @, which a spreadsheet would"
+                         " run as a formula in the header"),
     "batch_rows": Constraint("--batch-rows", lambda v: _whole_number(v) and v >= 1, "a positive whole number"),
     "engine": Constraint("--engine", lambda v: v in ENGINES, "one of " + ", ".join(ENGINES)),
     "workers": Constraint("--workers", lambda v: v is None or (_whole_number(v) and v >= 1),

@@ -114,3 +114,23 @@ def test_a_formula_column_of_nested_values_is_exit_2(tmp_path, capsys, values):
 def test_an_output_folder_nothing_can_be_written_in_is_exit_2(small_csv, capsys):
     assert main(["score", str(small_csv), "-o", "/proc/self/out.csv"]) == 2
     _one_line_error(capsys.readouterr().err)
+
+
+# ------------------------------------------------------------------ names of columns
+
+
+def test_an_input_with_a_repeated_column_name_is_refused(tmp_path, capsys):
+    path = tmp_path / "twice.parquet"
+    pq.write_table(pa.Table.from_arrays([pa.array(["NaCl"]), pa.array(["x"])], names=["formula", "formula"]), path)
+    assert main(["score", str(path), "-o", str(tmp_path / "out.csv")]) == 2
+    assert "more than one column named 'formula'" in _one_line_error(capsys.readouterr().err)
+
+
+@pytest.mark.parametrize("name", ["STATUS", "Message", "Formula_Normalized"])
+def test_a_generated_name_clashing_in_another_case_is_refused_with_the_prefix_hint(tmp_path, capsys, name):
+    path = tmp_path / "case.parquet"
+    pq.write_table(pa.table({"formula": ["NaCl"], name: ["x"]}), path)
+    assert main(["score", str(path), "-o", str(tmp_path / "out.csv")]) == 2
+    line = _one_line_error(capsys.readouterr().err)
+    assert repr(name) in line and "--prefix" in line
+    assert main(["score", str(path), "-o", str(tmp_path / "out.csv"), "--prefix", "ion_"]) == 0
