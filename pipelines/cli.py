@@ -79,6 +79,9 @@ def build_parser() -> argparse.ArgumentParser:
                             " default: every core")
     score.add_argument("--scheduler", metavar="ADDRESS",
                        help="address of a running Dask scheduler, e.g. tcp://10.0.0.5:8786 (with --engine dask)")
+    score.add_argument("--partition-rows", type=int, metavar="N",
+                       help="with --engine dask: rows per partition, one task each (default: 100,000); Parquet row"
+                            " groups larger than N are cut into row ranges")
     score.add_argument("--mp-model", metavar="PATH",
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
@@ -138,6 +141,7 @@ def _run_score(args) -> int:
         workers=args.workers,
         scheduler=args.scheduler,
         mp_model=args.mp_model,
+        partition_rows=args.partition_rows,
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:

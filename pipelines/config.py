@@ -72,6 +72,8 @@ CONSTRAINTS: dict[str, Constraint] = {
     "scheduler": Constraint("--scheduler", _scheduler_address,
                             "an address [tcp|tls|ucx|ws|wss://]HOST:PORT such as tcp://10.0.0.5:8786"),
     "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
+    "partition_rows": Constraint("--partition-rows", lambda v: v is None or (_whole_number(v) and v >= 1),
+                                 "a positive whole number (or none given, for the default)"),
 }
 
 
@@ -101,6 +103,9 @@ class ScoreConfig:
     mp_model : str or None
         A melting-point model written by ``ionicity fit-melting``; adds
         ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K``.
+    partition_rows : int or None
+        ``engine="dask"``: rows per partition (one task each); default
+        :data:`ionicity.pipelines.dask_partitions.DEFAULT_PARTITION_ROWS`.
 
     See Also
     --------
@@ -127,6 +132,7 @@ class ScoreConfig:
     workers: int | None = None
     scheduler: str | None = None
     mp_model: str | None = None
+    partition_rows: int | None = None
 
     def validate(self) -> None:
         """Raise :class:`InputError` for the first option outside its
@@ -136,6 +142,8 @@ class ScoreConfig:
             value = getattr(self, option.name)
             if constraint is not None and not constraint.check(value):
                 raise InputError(f"{constraint.flag} must be {constraint.allowed}, not {value!r}")
+        if self.partition_rows is not None and self.engine != "dask":
+            raise InputError(f"--partition-rows needs --engine dask (the engine is {self.engine!r})")
         if self.scheduler is not None and self.engine != "dask":
             raise InputError(f"--scheduler {self.scheduler!r} needs --engine dask (the engine is {self.engine!r})")
 
@@ -151,9 +159,11 @@ class Summary:
     distinct_formulas: int = 0
     seconds: float = 0.0
     output: str = ""
+    partitions: int = 0  # --engine dask: the tasks the table was cut into
 
     def __str__(self) -> str:
+        partitions = f", partitions: {self.partitions}" if self.partitions else ""
         return (
             f"rows: {self.rows}, ok: {self.ok}, warning: {self.warning}, error: {self.error},"
-            f" distinct formulas: {self.distinct_formulas}, seconds: {self.seconds:.2f}"
+            f" distinct formulas: {self.distinct_formulas}{partitions}, seconds: {self.seconds:.2f}"
         )
