@@ -18,6 +18,7 @@ median. The shared first pass of distinct formulas
 from __future__ import annotations
 
 import os
+import signal
 import socket
 import statistics
 import subprocess
@@ -101,8 +102,12 @@ def run_dask_bench(table: str, workdir: str, repeat: int, env: dict, partition_r
     base = [sys.executable, "-m", "ionicity", "score", table, "--quiet", "--overwrite"]
     local_argv = base + ["-o", os.path.join(workdir, "local_out.parquet")]
     extra = ["--partition-rows", str(partition_rows)] if partition_rows else []
-    clusters = {workers: Cluster(workers, env) for workers in (1, 2)}
+    # a terminated benchmark still stops the clusters it started (finally below)
+    signal.signal(signal.SIGTERM, lambda signum, frame: sys.exit(128 + signum))
+    clusters = {}
     try:
+        for workers in (1, 2):
+            clusters[workers] = Cluster(workers, env)
         for cluster in clusters.values():  # untimed: each worker's first task loads the scorer
             _time_run(base + ["-o", out, "--engine", "dask", "--scheduler", cluster.address, *extra], env)
         times: dict[str, list[float]] = {}
