@@ -97,6 +97,10 @@ def _salt(cation: tuple[str, int], anion: tuple[str, int]) -> str:
     return _group(c, qa // g) + _group(a, qc // g)
 
 
+def _double_cation_salt(first: tuple[str, int], second: tuple[str, int], anion: tuple[str, int]) -> str:
+    return _group(first[0], 1) + _group(second[0], 1) + _group(anion[0], (first[1] + second[1]) // anion[1])
+
+
 def realistic_formulas(distinct: int, seed: int = 7) -> list[str]:
     """``distinct`` different formula texts as an inventory would hold them.
 
@@ -132,7 +136,15 @@ def realistic_formulas(distinct: int, seed: int = 7) -> list[str]:
             if text not in seen:
                 seen.add(text)
                 chosen.append(text)
-    for pool in (hydrates, salts, ils, doubles):
+    # tables of more distinct formulas than the pools above hold (a Dask
+    # benchmark wants 2 x 10^5) go on to salts of two cations and their hydrates
+    mixed = [_double_cation_salt(c1, c2, a) for i, c1 in enumerate(_CATIONS) for c2 in _CATIONS[i + 1:]
+             for a in _ANIONS if c1[0] != c2[0] and (c1[1] + c2[1]) % a[1] == 0]
+    mixed_hydrates = [f"{m}{sep}{'' if w == '1' else w}H2O" for m in mixed for w in _WATERS for sep in _SEPARATORS]
+    extra = random.Random(seed + 1)  # its own stream: the tables of fewer formulas stay as they were
+    extra.shuffle(mixed)
+    extra.shuffle(mixed_hydrates)
+    for pool in (hydrates, salts, ils, doubles, mixed, mixed_hydrates):
         for text in pool:
             if len(chosen) >= distinct:
                 break
@@ -298,6 +310,9 @@ def main(argv: list[str] | None = None) -> int:
                         help="score N and 10 N rows and print both peak RSS figures and their ratio")
     parser.add_argument("--calibrate", action="store_true", help="time in-process against pooled scoring, to set PARALLEL_MIN_NEW"
                              " in pipelines/scheduler.py")
+    parser.add_argument("--engine", choices=("local", "dask"), default="local",
+                        help="dask: time the local engine, Dask on one worker and on two (pipelines/bench_dask.py)")
+    parser.add_argument("--partition-rows", type=int, help="with --engine dask: --partition-rows for the Dask runs")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
     args = parser.parse_args(argv)
@@ -319,6 +334,17 @@ def main(argv: list[str] | None = None) -> int:
         _print("format", args.format)
         _print("cpu_count", os.cpu_count())
         _print("bytecode_compiled", "yes" if byte_compile() else "no")
+        if args.engine == "dask":
+            # imports distributed when asked for only
+            from ionicity.pipelines.bench_dask import run_dask_bench
+
+            sizes = (args.rows, args.rows * 10) if args.memory_scaling else (args.rows,)
+            for rows in sizes:
+                write_table(table, rows, args.distinct, args.seed)
+                _print("table_rows", rows)
+                run_dask_bench(table, workdir, args.repeat, _env(), args.partition_rows, _print)
+                os.remove(table)
+            return 0
         if args.memory_scaling:
             figures = []
             for rows in (args.rows, args.rows * 10):

@@ -11,6 +11,7 @@ Exit codes (one place, also in ``--help``):
 from __future__ import annotations
 
 import argparse
+import errno
 import os
 import signal
 import sys
@@ -78,6 +79,9 @@ def build_parser() -> argparse.ArgumentParser:
                             " default: every core")
     score.add_argument("--scheduler", metavar="ADDRESS",
                        help="address of a running Dask scheduler, e.g. tcp://10.0.0.5:8786 (with --engine dask)")
+    score.add_argument("--partition-rows", type=int, metavar="N",
+                       help="with --engine dask: rows per partition, one task each (default: 100,000); Parquet row"
+                            " groups larger than N are cut into row ranges")
     score.add_argument("--mp-model", metavar="PATH",
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
@@ -137,6 +141,7 @@ def _run_score(args) -> int:
         workers=args.workers,
         scheduler=args.scheduler,
         mp_model=args.mp_model,
+        partition_rows=args.partition_rows,
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:
@@ -193,6 +198,9 @@ def _prestart_workers(args) -> None:
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
+    if _stdout_closed(args):
+        print("ionicity: error: standard output is closed; give an output file with -o", file=sys.stderr)
+        return EXIT_USAGE
     try:
         _prestart_workers(args)
         return _dispatch(args)
@@ -236,6 +244,9 @@ def _dispatch(args) -> int:
         return _interrupted(args)
     except BrokenPipeError:
         return EXIT_OK
+    except OSError as exc:  # the machine, not ionicity: a full disk, a read-only or vanished folder, a device
+        print(f"ionicity: error: {_os_problem(exc)}", file=sys.stderr)
+        return EXIT_USAGE
     except Exception as exc:  # a bug: say so in one line unless --verbose
         if args.verbose:
             raise
@@ -243,7 +254,28 @@ def _dispatch(args) -> int:
         return EXIT_INTERNAL
 
 
+def _os_problem(exc: OSError) -> str:
+    """One line for an operating-system error: what failed and on which path."""
+    what = exc.strerror or str(exc) or type(exc).__name__
+    if exc.errno == errno.ENOSPC:
+        what += " (free some space, or write the output elsewhere with -o)"
+    if exc.filename is not None:
+        return f"{what}: {os.fsdecode(exc.filename)!r}"
+    return what
+
+
+def _stdout_closed(args) -> bool:
+    """Python sets a standard stream to None when its descriptor was closed at
+    start-up; a table or text for standard output then has nowhere to go."""
+    if sys.stdout is not None:
+        return False
+    sys.stdout = open(os.devnull, "w")
+    return args.command != "score" or args.output == "-"
+
+
 def entry_point() -> None:
+    if sys.stderr is None:  # closed at start-up: messages go nowhere, the exit code still tells
+        sys.stderr = open(os.devnull, "w")
     _interrupt_on_sigterm()
     # the output is written, synced and closed, and the workers have stopped
     leave_process(main())

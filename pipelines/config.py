@@ -12,6 +12,7 @@ Light on purpose (no pyarrow): the command line imports it at start-up.
 """
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, fields
 from typing import Any, Callable
 
@@ -30,6 +31,22 @@ def _text_or_none(value: Any) -> bool:
     return value is None or isinstance(value, str)
 
 
+# a cell a spreadsheet opens as a formula starts with one of these
+_FORMULA_STARTS = ("=", "+", "-", "@")
+
+# [scheme://]host:port, host a name, an IPv4 address or a bracketed IPv6 one
+_SCHEDULER_ADDRESS = re.compile(
+    r"(?:(?:tcp|tls|ucx|ws|wss)://)?(?:\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+):(\d{1,5})"
+)
+
+
+def _scheduler_address(value: Any) -> bool:
+    if value is None:
+        return True
+    match = _SCHEDULER_ADDRESS.fullmatch(value) if isinstance(value, str) else None
+    return bool(match) and 1 <= int(match.group(1)) <= 65535
+
+
 @dataclass(frozen=True)
 class Constraint:
     """What one option accepts: ``check(value)`` is true for an allowed value;
@@ -45,13 +62,18 @@ CONSTRAINTS: dict[str, Constraint] = {
     "output": Constraint("--output", lambda v: isinstance(v, str) and v != "", "a path, or - for standard output"),
     "formula_col": Constraint("--formula-col", _text_or_none, "a column name"),
     "name_col": Constraint("--name-col", _text_or_none, "a column name"),
-    "prefix": Constraint("--prefix", lambda v: isinstance(v, str), "text (may be empty)"),
+    "prefix": Constraint("--prefix", lambda v: isinstance(v, str) and not v.startswith(_FORMULA_STARTS) and v.isprintable(),
+                         "printable text (may be empty) not starting with =, +, - or @, which a spreadsheet would"
+                         " run as a formula in the header"),
     "batch_rows": Constraint("--batch-rows", lambda v: _whole_number(v) and v >= 1, "a positive whole number"),
     "engine": Constraint("--engine", lambda v: v in ENGINES, "one of " + ", ".join(ENGINES)),
     "workers": Constraint("--workers", lambda v: v is None or (_whole_number(v) and v >= 1),
                           "a whole number of at least 1 (or none given, for every core)"),
-    "scheduler": Constraint("--scheduler", _text_or_none, "an address such as tcp://10.0.0.5:8786"),
+    "scheduler": Constraint("--scheduler", _scheduler_address,
+                            "an address [tcp|tls|ucx|ws|wss://]HOST:PORT such as tcp://10.0.0.5:8786"),
     "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
+    "partition_rows": Constraint("--partition-rows", lambda v: v is None or (_whole_number(v) and v >= 1),
+                                 "a positive whole number (or none given, for the default)"),
 }
 
 
@@ -81,6 +103,9 @@ class ScoreConfig:
     mp_model : str or None
         A melting-point model written by ``ionicity fit-melting``; adds
         ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K``.
+    partition_rows : int or None
+        ``engine="dask"``: rows per partition (one task each); default
+        :data:`ionicity.pipelines.dask_partitions.DEFAULT_PARTITION_ROWS`.
 
     See Also
     --------
@@ -107,6 +132,7 @@ class ScoreConfig:
     workers: int | None = None
     scheduler: str | None = None
     mp_model: str | None = None
+    partition_rows: int | None = None
 
     def validate(self) -> None:
         """Raise :class:`InputError` for the first option outside its
@@ -116,6 +142,8 @@ class ScoreConfig:
             value = getattr(self, option.name)
             if constraint is not None and not constraint.check(value):
                 raise InputError(f"{constraint.flag} must be {constraint.allowed}, not {value!r}")
+        if self.partition_rows is not None and self.engine != "dask":
+            raise InputError(f"--partition-rows needs --engine dask (the engine is {self.engine!r})")
         if self.scheduler is not None and self.engine != "dask":
             raise InputError(f"--scheduler {self.scheduler!r} needs --engine dask (the engine is {self.engine!r})")
 
@@ -131,9 +159,11 @@ class Summary:
     distinct_formulas: int = 0
     seconds: float = 0.0
     output: str = ""
+    partitions: int = 0  # --engine dask: the tasks the table was cut into
 
     def __str__(self) -> str:
+        partitions = f", partitions: {self.partitions}" if self.partitions else ""
         return (
             f"rows: {self.rows}, ok: {self.ok}, warning: {self.warning}, error: {self.error},"
-            f" distinct formulas: {self.distinct_formulas}, seconds: {self.seconds:.2f}"
+            f" distinct formulas: {self.distinct_formulas}{partitions}, seconds: {self.seconds:.2f}"
         )

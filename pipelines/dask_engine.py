@@ -24,14 +24,27 @@ pays for them; install them with ``pip install ionicity[dask]``.
 """
 from __future__ import annotations
 
-import glob
 import os
 import time
 
+import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
-from ionicity.pipelines.batch_assembly import score_batch
+import pyarrow.parquet as pq
+
 from ionicity.pipelines.config import ScoreConfig, Summary
+from ionicity.pipelines.dask_partitions import (
+    DEFAULT_PARTITION_ROWS,
+    Piece,
+    csv_block_bytes,
+    distinct_chunks,
+    parquet_pieces,
+    part_name,
+    piece_formulas,
+    score_distinct,
+    score_piece,
+    share_distinct,
+)
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.local_engine import prepare
@@ -48,13 +61,22 @@ from ionicity.pipelines.output_paths import (
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
-from ionicity.scorer.verdict import STATUSES
 
-__all__ = ["score_file_dask", "score_partition"]
+__all__ = ["score_file_dask"]
 
-_CSV_BLOCK = "64MB"
+# a scheduler on this machine answers at once; one across a network may be slow
 _CONNECT_TIMEOUT = "20s"
+_LOOPBACK_CONNECT_TIMEOUT = "5s"
+_LOOPBACK_HOSTS = ("127.", "localhost", "[::1]")
+
+
+def _connect_timeout(address: str) -> str:
+    host = address.split("://", 1)[-1]
+    return _LOOPBACK_CONNECT_TIMEOUT if host.startswith(_LOOPBACK_HOSTS) else _CONNECT_TIMEOUT
 _PLUGIN = "ionicity-warm-up"
+# benchmark knob: "always" or "never" overrides the choice of the shared
+# first pass (pipelines/bench_dask.py measures both ways)
+SHARE_ENV = "IONICITY_DASK_SHARED"
 
 
 def _worker_cache() -> FormulaCache:
@@ -70,35 +92,6 @@ def _worker_cache() -> FormulaCache:
         plugin = None
     cache = getattr(plugin, "cache", None)
     return cache if cache is not None else FormulaCache()
-
-
-def score_partition(frame, formula_col: str, name_col: str | None, input_schema: pa.Schema, schema: pa.Schema,
-                    model=None):
-    """Score one pandas partition with :func:`ionicity.pipelines.batch_assembly.score_batch`;
-    returns a pandas frame of ``schema``'s columns, rows in order."""
-    table = pa.Table.from_pandas(frame, schema=input_schema, preserve_index=False)
-    batches = table.to_batches() or [pa.RecordBatch.from_pylist([], schema=input_schema)]
-    cache = _worker_cache()
-    scored = [score_batch(b, formula_col, schema, cache, name_col=name_col, model=model) for b in batches]
-    out = pa.Table.from_batches(scored, schema=schema).to_pandas()
-    out.index = frame.index
-    return out
-
-
-def _partition_stats(frame, formula_col: str, status_name: str):
-    """Status counts and the 64-bit hashes of the distinct non-empty formulas of
-    one scored partition, as a small frame (no shuffle needed to combine them)."""
-    # runs in a Dask worker, where pandas is loaded already; importing it with
-    # this module would cost every local run 0.23 to 0.38 s (python -X importtime)
-    import pandas as pd
-
-    counts = frame[status_name].value_counts()
-    formulas = frame[formula_col].dropna().astype(str)
-    formulas = pd.Series(formulas[formulas.str.strip() != ""].unique(), dtype=object)
-    hashes = pd.util.hash_pandas_object(formulas, index=False).to_numpy()
-    rows = [("status", str(k), int(v)) for k, v in counts.items()]
-    rows += [("formula", "", int(h)) for h in hashes]
-    return pd.DataFrame(rows, columns=["kind", "key", "value"]).astype({"kind": object, "key": object, "value": "uint64"})
 
 
 def _warm_up_plugin(distributed):
@@ -131,10 +124,8 @@ def _import_dask():
     return dask, dd, distributed
 
 
-def _read_frame(dd, reader, config: ScoreConfig):
-    if reader.fmt == "parquet":
-        # reader.paths are files as found; Dask would glob them again, reading data1.parquet for data[1].parquet
-        return dd.read_parquet([glob.escape(p) for p in reader.paths], index=False, dtype_backend="pyarrow")
+def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
+    """A CSV or TSV input as a dask.dataframe of blocks of about ``partition_rows`` rows."""
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
     first = next(reader.batches, None)
     if first is not None:
@@ -151,7 +142,7 @@ def _read_frame(dd, reader, config: ScoreConfig):
         dtype=str,
         keep_default_na=False,
         na_filter=False,
-        blocksize=_CSV_BLOCK,
+        blocksize=csv_block_bytes(reader.source, partition_rows),
         encoding="utf-8",
         skip_blank_lines=len(reader.schema) > 1,  # as the local reader does
     )
@@ -159,8 +150,9 @@ def _read_frame(dd, reader, config: ScoreConfig):
 
 def score_file_dask(config: ScoreConfig) -> Summary:
     """Score ``config.input`` into a Parquet dataset folder ``config.output``
-    with dask.dataframe; see the module docstring. Raises :class:`InputError`
-    for unusable input or options; nothing is left at the output path then.
+    on a Dask cluster, one task per partition; see the module docstring.
+    Raises :class:`InputError` for unusable input or options; nothing is
+    left at the output path then.
     """
     started = time.perf_counter()
     if config.output == "-" or config.output.lower().endswith((".csv", ".tsv", ".tab", ".txt")):
@@ -175,17 +167,19 @@ def score_file_dask(config: ScoreConfig) -> Summary:
     clean_stale_partials(os.path.dirname(os.path.abspath(config.output)))
     check_output_path(config.output, config.overwrite, inputs, dataset=True)
     directory = os.path.dirname(os.path.abspath(config.output))
-    metadata = provenance_metadata(config, formula_col)
-    status_name = config.prefix + "status"
-    input_schema = reader.schema
+    partition_rows = config.partition_rows or DEFAULT_PARTITION_ROWS
     tmp = partial_path(directory)
     cluster = client = None
     try:
-        frame = _read_frame(dd, reader, config)
+        if reader.fmt == "parquet":
+            sources = parquet_pieces(list(reader.paths), partition_rows)
+        else:
+            sources = _read_frame(dd, reader, config, partition_rows).to_delayed()
+        os.mkdir(tmp)
         with dask.config.set({"logging.distributed": "error", "distributed.admin.system-monitor.gil.enabled": False}):
             if config.scheduler:
                 try:
-                    client = distributed.Client(config.scheduler, timeout=_CONNECT_TIMEOUT)
+                    client = distributed.Client(config.scheduler, timeout=_connect_timeout(config.scheduler))
                 except (OSError, TimeoutError) as exc:
                     raise InputError(f"cannot reach the Dask scheduler at {config.scheduler!r}: {exc}") from None
             else:
@@ -195,32 +189,13 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                 )
                 client = distributed.Client(cluster)
             client.register_plugin(_warm_up_plugin(distributed), name=_PLUGIN)
-            meta = schema.empty_table().to_pandas()
-            scored = frame.map_partitions(
-                score_partition, formula_col, config.name_col, input_schema, schema, model, meta=meta,
-                enforce_metadata=False,
-            )
-            write = scored.to_parquet(
-                tmp,
-                engine="pyarrow",
-                schema=schema,
-                write_index=False,
-                write_metadata_file=False,
-                custom_metadata=metadata,
-                name_function=lambda i: f"part-{i:06d}.parquet",
-                compute=False,
-            )
-            stats_meta = {"kind": object, "key": object, "value": "uint64"}
-            stats = scored.map_partitions(_partition_stats, formula_col, status_name, meta=stats_meta)
-            _, stats = dask.compute(write, stats)
-        summary = Summary(output=config.output)
-        for kind, key, value in stats.itertuples(index=False):
-            if kind == "status" and key in STATUSES:
-                setattr(summary, key, getattr(summary, key) + int(value))
-        summary.rows = summary.ok + summary.warning + summary.error
+            run = _Run(client, reader.schema, formula_col, config, schema, model, tmp,
+                       provenance_metadata(config, formula_col))
+            summary = run.score(sources)
         if summary.rows == 0:
             raise InputError(f"input {config.input!r} has a header but no data rows")
-        summary.distinct_formulas = int(stats.loc[stats["kind"] == "formula", "value"].nunique())
+        if not sources:  # an empty Parquet file: one empty part, as the local engine writes one empty table
+            pq.write_table(schema.empty_table().replace_schema_metadata(run.metadata), os.path.join(tmp, part_name(0)))
         with open(os.path.join(tmp, DATASET_MARKER), "w", encoding="utf-8") as marker:
             marker.write("a dataset folder written by ionicity score --engine dask;"
                          " --overwrite replaces only folders holding this file\n")
@@ -239,8 +214,79 @@ def score_file_dask(config: ScoreConfig) -> Summary:
             client.close()
         if cluster is not None:
             cluster.close()
+    summary.output = config.output
     summary.seconds = time.perf_counter() - started
     return summary
+
+
+class _Run:
+    """The tasks of one run on a connected client."""
+
+    def __init__(self, client, table_schema, formula_col, config, schema, model, folder, metadata):
+        self.client = client
+        self.table_schema = table_schema
+        self.formula_col = formula_col
+        self.config = config
+        self.schema = schema
+        self.model = model
+        self.folder = folder
+        self.metadata = metadata
+
+    def _workers(self) -> int:
+        return max(len(self.client.scheduler_info().get("workers", {})), 1)
+
+    def score(self, sources: list) -> Summary:
+        client = self.client
+        shared = None
+        distinct = None
+        if sources and isinstance(sources[0], Piece):
+            found = client.gather(client.map(piece_formulas, sources, schema=self.table_schema,
+                                             formula_col=self.formula_col, pure=False))
+            everything = pc.unique(pa.concat_arrays(found)) if found else pa.array([], pa.string())
+            distinct = len(everything.drop_null())
+            distinct -= int(pc.sum(pc.equal(pc.utf8_trim_whitespace(everything.drop_null()), "")).as_py() or 0)
+            workers = self._workers()
+            mode = os.environ.get(SHARE_ENV, "auto")
+            if mode == "always" or (mode == "auto" and share_distinct([len(f) for f in found], len(everything), workers)):
+                chunks = distinct_chunks(everything, workers)
+                shared = client.map(score_distinct, chunks, pure=False)
+        common = dict(
+            table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
+            schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
+            count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
+        )
+        if sources and isinstance(sources[0], Piece):
+            futures = client.map(_score_on_worker, range(len(sources)), sources, pure=False, **common)
+        else:
+            futures = client.compute([dask_delayed(_score_on_worker)(i, frame, **common) for i, frame in enumerate(sources)])
+        results = client.gather(futures)
+        summary = Summary(partitions=len(sources))
+        hashes = []
+        for counts, partition_hashes in results:
+            for status, n in counts.items():
+                setattr(summary, status, getattr(summary, status) + n)
+            if partition_hashes is not None:
+                hashes.append(partition_hashes)
+        summary.rows = summary.ok + summary.warning + summary.error
+        summary.distinct_formulas = distinct if distinct is not None else len(np.unique(np.concatenate(hashes))) if hashes else 0
+        return summary
+
+
+def dask_delayed(function):
+    # loaded already when a run gets here (the engine imported dask)
+    import dask
+
+    return dask.delayed(function, pure=False)
+
+
+def _score_on_worker(number, source, *, table_schema, formula_col, name_col, schema, model, folder, metadata,
+                     count_distinct, status_name, shared):
+    cache = _worker_cache()
+    if shared is not None and not getattr(cache, "adopted_shared", False):
+        cache.adopt(shared)
+        cache.adopted_shared = True
+    return score_piece(number, source, table_schema, formula_col, name_col, schema, model, folder, metadata, cache,
+                       count_distinct, status_name)
 
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:

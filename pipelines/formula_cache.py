@@ -70,6 +70,29 @@ class FormulaCache:
         self._pending.extend(values)
         self._pending_keys.extend(formulas)
 
+    def adopt(self, scored: list[tuple[pa.Array, list[pa.Array]]]) -> None:
+        """Take formulas scored elsewhere: ``(keys(), arrays())`` of other
+        caches, whose formulas are new here and distinct from each other (the
+        Dask engine's shared first pass). Room is made so that none is evicted."""
+        keys = [k for k, _ in scored]
+        incoming = sum(len(k) for k in keys)
+        self.max_entries = max(self.max_entries, len(self.index) + incoming + 65536)
+        arrays = self.arrays()
+        self.keys()
+        base = len(self.index)
+        index = self.index
+        for offset, text in enumerate(text for k in keys for text in k.to_pylist()):
+            index[text] = base + offset
+        self._keys = pa.concat_arrays([self._keys, *[k.cast(pa.string()) for k in keys]])
+        self._marks = np.concatenate([self._marks, np.zeros(incoming, dtype=np.int64)])
+        self._arrays = []
+        for position, (old, text) in enumerate(zip(arrays, self._text)):
+            parts = [old, *[columns[position] for _, columns in scored]]
+            if text:  # one dictionary for all: unify, then concatenate the codes
+                self._arrays.append(pa.chunked_array(parts).unify_dictionaries().combine_chunks())
+            else:
+                self._arrays.append(pa.concat_arrays(parts))
+
     def keys(self) -> pa.Array:
         """The cached formulas in row order (a string array; null is the
         empty-cell record), for ``pyarrow.compute.index_in``."""

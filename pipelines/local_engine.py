@@ -28,6 +28,7 @@ from ionicity.pipelines.progress import Progress
 from ionicity.pipelines.provenance import provenance_metadata
 from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_array
 from ionicity.pipelines.schema import (
+    check_formula_type,
     check_name_column,
     find_formula_column,
     output_schema,
@@ -48,6 +49,7 @@ def prepare(config: ScoreConfig):
     reader = open_reader(config.input, config.batch_rows)
     names = reader.schema.names
     formula_col = find_formula_column(names, config.formula_col)
+    check_formula_type(reader.schema, formula_col)
     check_name_column(names, config.name_col)
     return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
 

@@ -26,7 +26,9 @@ What follows is this module's alone; each trick carries its measured gain.
 * Teardown: a cancelled pool terminates its processes and closes the write
   end of their result pipe (through :func:`_executor_internals`, the one
   place that reads CPython-private executor attributes), so that stopping
-  never hangs on half a message; each worker exits when its parent is gone.
+  never hangs on half a message; each worker exits when its parent is gone
+  (it watches a pipe whose only write end the parent holds, so a killed
+  parent is noticed at once, even while it waits unreaped as a zombie).
 * :func:`leave_process`: the command line leaves with ``os._exit`` once its
   output is synced and renamed and the workers have stopped, skipping an
   interpreter teardown that frees a large run's objects one by one (about
@@ -138,20 +140,38 @@ def warm_forkserver() -> None:
     _settle_gc()  # inherited by every worker forked from here
 
 
-def _worker_init(parent_pid: int | None = None) -> None:
+def _worker_init(parent_pid: int | None = None, lifeline=None) -> None:
     # Once in each worker: ignore Ctrl-C (it reaches the whole process group;
     # the parent decides), exit when the parent is gone, and warm up unless
     # forked from the warm forkserver.
     signal.signal(signal.SIGINT, signal.SIG_IGN)
-    if parent_pid is not None:
+    if lifeline is not None:
+        _exit_at_end_of(lifeline)
+    elif parent_pid is not None:
         _exit_with(parent_pid)
     if warm_up():
         _settle_gc()
 
 
-def _exit_with(parent_pid: int) -> None:
+def _exit_at_end_of(lifeline) -> None:
     # A parent killed outright (SIGKILL, out of memory) cannot stop its
-    # workers, and a worker holds its own task pipe open, so it would wait forever.
+    # workers, and a worker holds its own task pipe open, so it would wait
+    # forever. The parent alone holds the write end of the lifeline; the
+    # kernel closes it when the parent dies, reaped or not (a parent whose
+    # own parent never waits for it stays a zombie, which os.kill(pid, 0)
+    # still finds), and the read below returns at once.
+    def watch():
+        try:
+            while True:
+                lifeline.recv_bytes()
+        except (EOFError, OSError):
+            os._exit(0)
+
+    threading.Thread(target=watch, name="ionicity-parent-watch", daemon=True).start()
+
+
+def _exit_with(parent_pid: int) -> None:
+    # Where no lifeline could be made: poll for the parent's pid.
     def watch():
         while True:
             time.sleep(0.5)
@@ -163,6 +183,22 @@ def _exit_with(parent_pid: int) -> None:
                 pass
 
     threading.Thread(target=watch, name="ionicity-parent-watch", daemon=True).start()
+
+
+_LIFELINE: list = []
+
+
+def _lifeline(context):
+    """The read end of this process's lifeline pipe (made once; the write end
+    stays in this process only and is never written to). ``None`` where a
+    pipe cannot be made."""
+    if not _LIFELINE:
+        try:
+            read_end, write_end = context.Pipe(duplex=False)
+        except OSError:
+            return None
+        _LIFELINE.extend((read_end, write_end))
+    return _LIFELINE[0]
 
 
 # ----------------------------------------------------------------------------- executors
@@ -184,7 +220,9 @@ def _new_executors(count: int) -> list[ProcessPoolExecutor]:
     if context.get_start_method() == "forkserver":
         context.set_forkserver_preload([_FORKSERVER_PRELOAD])
     return [
-        ProcessPoolExecutor(max_workers=1, mp_context=context, initializer=_worker_init, initargs=(os.getpid(),))
+        ProcessPoolExecutor(
+            max_workers=1, mp_context=context, initializer=_worker_init, initargs=(os.getpid(), _lifeline(context))
+        )
         for _ in range(count)
     ]
 
@@ -347,8 +385,9 @@ def leave_process(code: int) -> None:
     synced and closed, and its workers have stopped. Where the standard
     streams cannot be flushed, exit the ordinary way."""
     try:
-        sys.stdout.flush()
-        sys.stderr.flush()
+        for stream in (sys.stdout, sys.stderr):
+            if stream is not None:
+                stream.flush()
     except (OSError, ValueError):
         sys.exit(code)
     os._exit(code)

@@ -16,11 +16,13 @@ from ionicity.pipelines.errors import InputError
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.melting_model import MODEL_COLUMNS
 
-__all__ = ["find_formula_column", "check_name_column", "generated_columns", "generated_names", "output_schema"]
+__all__ = ["find_formula_column", "check_formula_type", "check_name_column", "check_unique_names", "generated_columns", "generated_names", "output_schema"]
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
-    """The formula column: ``requested``, else the one named ``formula`` in any case."""
+    """The formula column: ``requested``, else the one named ``formula`` in any
+    case. Column names must be unique (:func:`check_unique_names`)."""
+    check_unique_names(names)
     if requested is not None:
         if requested not in names:
             raise InputError(f"no column {requested!r} in the input; columns found: {', '.join(map(repr, names))}")
@@ -35,19 +37,47 @@ def find_formula_column(names: list[str], requested: str | None) -> str:
     )
 
 
+def check_formula_type(schema: pa.Schema, formula_col: str) -> None:
+    """Raise :class:`InputError` when the formula column holds values that
+    are not text: lists, structs and maps have no formula to read. Text,
+    bytes (a cell that is not UTF-8 becomes that row's error), numbers and
+    empty columns are read cell by cell."""
+    kind = schema.field(formula_col).type
+    if pa.types.is_dictionary(kind):
+        kind = kind.value_type
+    if pa.types.is_nested(kind):
+        raise InputError(
+            f"column {formula_col!r} holds {kind} values; the formula column must hold text"
+            " (choose another with --formula-col)"
+        )
+
+
 def check_name_column(names: list[str], name_col: str | None, option: str = "--name-col") -> None:
     """Raise :class:`InputError` when ``name_col`` is given but not among ``names``."""
     if name_col is not None and name_col not in names:
         raise InputError(f"no column {name_col!r} for {option}; columns found: {', '.join(map(repr, names))}")
 
 
+def check_unique_names(input_names: list[str]) -> None:
+    """Raise :class:`InputError` when the input repeats a column name (Parquet
+    allows it; no output table could say which is which)."""
+    seen: set[str] = set()
+    repeated = sorted({n for n in input_names if n in seen or seen.add(n)})
+    if repeated:
+        raise InputError(f"the input has more than one column named {', '.join(map(repr, repeated))}; rename them first")
+
+
 def generated_names(input_names: list[str], prefix: str, with_model: bool = False) -> list[str]:
-    """Generated column names (with ``prefix``); a clash with an input column is an error."""
+    """Generated column names (with ``prefix``); a clash with an input column
+    is an error, in any case (``STATUS`` clashes with ``status``: spreadsheets,
+    SQL and pandas' case-insensitive lookups cannot tell them apart)."""
     names = [prefix + c.name for c in generated_columns(with_model)]
-    clashes = [n for n in names if n in input_names]
+    taken = {n.casefold(): n for n in input_names}
+    clashes = [f"{n} (input {taken[n.casefold()]!r})" if taken[n.casefold()] != n else n
+               for n in names if n.casefold() in taken]
     if clashes:
         raise InputError(
-            f"generated column(s) {clashes} clash with input columns; pass --prefix TEXT (e.g. --prefix ion_)"
+            f"generated column(s) {', '.join(clashes)} clash with input columns; pass --prefix TEXT (e.g. --prefix ion_)"
         )
     return names
 

@@ -498,7 +498,10 @@ def test_failed_rows_are_named_by_the_verdict_policy_in_every_api(tmp_path, monk
     ({"workers": True}, "--workers must be a whole number of at least 1 (or none given, for every core), not True"),
     ({"batch_rows": "100"}, "--batch-rows must be a positive whole number, not '100'"),
     ({"batch_rows": -5}, "--batch-rows must be a positive whole number, not -5"),
-    ({"prefix": None}, "--prefix must be text (may be empty), not None"),
+    ({"prefix": None}, "--prefix must be printable text (may be empty) not starting with =, +, - or @, which a"
+                       " spreadsheet would run as a formula in the header, not None"),
+    ({"prefix": "=cmd|x"}, "--prefix must be printable text (may be empty) not starting with =, +, - or @, which a"
+                           " spreadsheet would run as a formula in the header, not '=cmd|x'"),
     ({"formula_col": 3}, "--formula-col must be a column name, not 3"),
     ({"scheduler": "tcp://x:1"}, "--scheduler 'tcp://x:1' needs --engine dask (the engine is 'local')"),
 ])

@@ -164,13 +164,143 @@ def test_a_run_on_a_running_scheduler_leaves_no_cache_on_its_workers(parts, tmp_
     assert all("ionicity-warm-up" not in names for names in plugins.values())
 
 
-def test_a_partition_outside_a_worker_gets_a_cache_of_its_own():
+def test_a_partition_outside_a_worker_gets_a_cache_of_its_own(tmp_path):
     import pandas as pd
 
-    from ionicity.pipelines.dask_engine import score_partition
+    from ionicity.pipelines.dask_engine import _score_on_worker
     from ionicity.pipelines.schema import output_schema
 
     input_schema = pa.schema([pa.field("formula", pa.string())])
     frame = pd.DataFrame({"formula": ["NaCl", None, "NaCl"]})
-    out = score_partition(frame, "formula", None, input_schema, output_schema(input_schema))
-    assert out["status"].tolist() == ["ok", "error", "ok"]
+    counts, hashes = _score_on_worker(
+        3, frame, table_schema=input_schema, formula_col="formula", name_col=None,
+        schema=output_schema(input_schema), model=None, folder=str(tmp_path), metadata={}, count_distinct=True,
+        status_name="status", shared=None,
+    )
+    assert counts == {"ok": 2, "warning": 0, "error": 1} and len(hashes) == 1
+    assert pq.read_table(tmp_path / "part-000003.parquet").column("status").to_pylist() == ["ok", "error", "ok"]
+
+
+# --------------------------------------------------------------------------- partitions
+
+
+@pytest.mark.parametrize("row_groups, partition_rows, expected_parts", [
+    (1, 1000, 5),    # one row group of 4,500 rows cut into row ranges
+    (8, 1000, 8),    # eight row groups of 563 rows or fewer: one part each
+    (8, 300, 16),    # and each of them cut in two
+    (1, None, 1),    # the default (100,000 rows) keeps a small table whole
+])
+def test_a_table_is_cut_into_partitions_by_row_group_and_row_range(tmp_path, cluster, row_groups, partition_rows,
+                                                                   expected_parts):
+    src = tmp_path / "in.parquet"
+    table = _table(4500)
+    pq.write_table(table, src, row_group_size=-(-4500 // row_groups))
+    assert pq.ParquetFile(src).metadata.num_row_groups == row_groups
+    local = _local(src, tmp_path / "local.parquet")
+    out = tmp_path / "out.parquet"
+    summary = score_file(ScoreConfig(input=str(src), output=str(out), engine="dask", quiet=True,
+                                     scheduler=cluster.scheduler_address, partition_rows=partition_rows))
+    parts = sorted(n for n in os.listdir(out) if n.startswith("part-"))
+    assert parts == [f"part-{i:06d}.parquet" for i in range(expected_parts)]
+    assert summary.partitions == expected_parts and f"partitions: {expected_parts}" in str(summary)
+    # parts in input order, each with the provenance metadata
+    assert _decoded(pq.read_table(out)).equals(_decoded(local))
+    assert all(b"ionicity.options" in pq.read_schema(out / p).metadata for p in parts)
+
+
+def test_formulas_recurring_across_partitions_are_scored_once_for_the_cluster(tmp_path, cluster):
+    from ionicity.pipelines.dask_partitions import parquet_pieces, share_distinct
+
+    src = tmp_path / "in.parquet"
+    rows = 6000
+    pq.write_table(pa.table({"formula": [["NaCl", "KBr", "MgO", "CaF2", "Xx", "CuSO4·5H2O", None][i % 7]
+                                          for i in range(rows)]}), src)
+    pieces = parquet_pieces([str(src)], 500)
+    assert len(pieces) == 12 and share_distinct([6] * 12, 6, workers=2)  # the shared first pass is taken
+    local = _local(src, tmp_path / "local.parquet")
+    out = tmp_path / "out.parquet"
+    summary = score_file(ScoreConfig(input=str(src), output=str(out), engine="dask", quiet=True,
+                                     scheduler=cluster.scheduler_address, partition_rows=500))
+    assert _decoded(pq.read_table(out)).equals(_decoded(local))
+    assert summary.distinct_formulas == 6 and summary.partitions == 12
+
+
+def test_share_distinct_is_chosen_only_where_formulas_recur_on_several_workers():
+    from ionicity.pipelines.dask_partitions import share_distinct
+
+    assert not share_distinct([100, 100], 200, workers=2)      # every formula in one partition only
+    assert not share_distinct([100] * 10, 100, workers=1)      # one worker: its own cache is the whole cluster's
+    assert share_distinct([100] * 10, 100, workers=2)
+
+
+def test_partition_rows_needs_the_dask_engine_and_a_positive_number():
+    with pytest.raises(InputError, match="--partition-rows needs --engine dask"):
+        ScoreConfig(input="a.parquet", output="b.parquet", partition_rows=10).validate()
+    with pytest.raises(InputError, match="--partition-rows must be a positive whole number"):
+        ScoreConfig(input="a.parquet", output="b.parquet", engine="dask", partition_rows=0).validate()
+
+
+# --------------------------------------------------------------------------- a real cluster
+
+
+def _free_port() -> int:
+    import socket
+
+    with socket.socket() as s:
+        s.bind(("127.0.0.1", 0))
+        return s.getsockname()[1]
+
+
+@pytest.mark.slow
+def test_a_real_scheduler_and_two_worker_processes_give_the_local_engines_table(tmp_path):
+    # what a cluster user runs: `dask scheduler` and `dask worker` as their own
+    # processes, ionicity pointed at the scheduler's address
+    import subprocess
+    import sys
+    import time
+
+    port = _free_port()
+    address = f"tcp://127.0.0.1:{port}"
+    common = ["--no-dashboard"]
+    processes = []
+    try:
+        processes.append(subprocess.Popen(
+            [sys.executable, "-m", "distributed.cli.dask_scheduler", "--host", "127.0.0.1", "--port", str(port), *common],
+            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL))
+        for _ in range(2):
+            processes.append(subprocess.Popen(
+                [sys.executable, "-m", "distributed.cli.dask_worker", address, "--nthreads", "1", "--nworkers", "1",
+                 "--host", "127.0.0.1", *common],
+                stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL))
+        deadline = time.monotonic() + 120  # a liveness bound for slow machines, not a speed check
+        workers = 0
+        while time.monotonic() < deadline and workers < 2:
+            try:
+                with distributed.Client(address, timeout="5s") as client:
+                    workers = len(client.scheduler_info()["workers"])
+            except (OSError, TimeoutError):
+                pass
+            if workers < 2:
+                time.sleep(0.5)
+        assert workers == 2, "the scheduler and two workers did not come up"
+        src = tmp_path / "in.parquet"
+        pq.write_table(_table(5000), src, row_group_size=1000)
+        local = _local(src, tmp_path / "local.parquet")
+        out = tmp_path / "out.parquet"
+        code = main(["score", str(src), "-o", str(out), "--engine", "dask", "--scheduler", address,
+                     "--partition-rows", "700", "--quiet"])
+        assert code == 0
+        result = _decoded(pq.read_table(out))
+        expected = _decoded(local)
+        assert result.column_names == expected.column_names
+        for name in expected.column_names:  # cell by cell, column by column
+            assert result.column(name).to_pylist() == expected.column(name).to_pylist(), name
+    finally:
+        for process in processes:
+            process.terminate()
+        for process in processes:
+            try:
+                process.wait(timeout=30)
+            except subprocess.TimeoutExpired:
+                process.kill()
+                process.wait()

@@ -1,0 +1,190 @@
+"""How the Dask engine cuts a table into partitions, and what each partition
+task does: read its rows, score them, write its own part.
+
+A partition is a :class:`Piece`: for Parquet, a row range of one row group
+of one file (a row group larger than ``partition_rows`` is cut into row
+ranges); for CSV, a block of lines that Dask's CSV reader hands over as a
+pandas frame. Each task writes ``part-NNNNNN.parquet`` (its piece's number,
+so the parts are in input order) straight into the run's temporary folder
+and returns only its counts, so no scored data passes through the client
+or the scheduler.
+
+Two ways to score the distinct formulas (chosen by
+:func:`share_distinct`, measured in DEVELOPERS.md "Dask engine"):
+
+* each worker keeps a cache of the formulas its partitions met (the worker
+  plugin's); a formula that recurs in partitions on both workers is scored
+  on both;
+* *shared*: a first pass reads only the formula column of every piece and
+  collects the distinct formulas of the whole table; they are scored once,
+  in chunks spread over the workers, and every worker loads all chunks into
+  its cache before its first partition. This pays when formulas recur across
+  partitions on several workers (a table with many distinct formulas spread
+  over many partitions): the work is then split between workers instead of
+  repeated on each.
+
+Runs in Dask workers: no module-level Dask import (the local engine imports
+this module's neighbours and must not pay for Dask).
+"""
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass
+
+import numpy as np
+import pyarrow as pa
+import pyarrow.compute as pc
+import pyarrow.parquet as pq
+
+from ionicity.pipelines.batch_assembly import score_batch
+from ionicity.pipelines.formula_cache import FormulaCache
+from ionicity.pipelines.pool import score_values
+from ionicity.scorer.verdict import STATUSES
+
+__all__ = [
+    "DEFAULT_PARTITION_ROWS",
+    "Piece",
+    "parquet_pieces",
+    "csv_block_bytes",
+    "distinct_chunks",
+    "piece_formulas",
+    "score_distinct",
+    "share_distinct",
+    "score_piece",
+    "part_name",
+]
+
+# rows per partition: a few hundred milliseconds of scoring per task (Dask's
+# own overhead is about a millisecond a task), and a partition's memory a
+# few tens of MB whatever the table's size
+DEFAULT_PARTITION_ROWS = 100_000
+_BATCH_ROWS = 65536
+# chunks of the distinct formulas per worker in the shared first pass: enough
+# to balance the workers, few enough that each chunk's transfer is worth it
+_CHUNKS_PER_WORKER = 4
+_MIN_CHUNK = 2000
+
+
+@dataclass(frozen=True)
+class Piece:
+    """Rows ``start`` to ``start + rows`` of row group ``row_group`` of Parquet file ``path``."""
+
+    path: str
+    row_group: int
+    start: int
+    rows: int
+
+
+def parquet_pieces(paths: list[str], partition_rows: int) -> list[Piece]:
+    """The pieces of Parquet files, in input order, each at most ``partition_rows`` rows."""
+    pieces = []
+    for path in paths:
+        metadata = pq.ParquetFile(path).metadata
+        for group in range(metadata.num_row_groups):
+            rows = metadata.row_group(group).num_rows
+            for start in range(0, rows, partition_rows):
+                pieces.append(Piece(path, group, start, min(partition_rows, rows - start)))
+    return pieces
+
+
+def csv_block_bytes(path: str, partition_rows: int, sample_bytes: int = 1 << 20) -> int:
+    """A CSV block size that holds about ``partition_rows`` rows, from the
+    line lengths of the file's first ``sample_bytes``; at least 1 MB."""
+    with open(path, "rb") as f:
+        sample = f.read(sample_bytes)
+    lines = max(sample.count(b"\n"), 1)
+    return max(int(len(sample) / lines * partition_rows), 1 << 20)
+
+
+def part_name(number: int) -> str:
+    return f"part-{number:06d}.parquet"
+
+
+def _read_piece(piece: Piece, schema: pa.Schema, columns: list[str] | None = None) -> pa.Table:
+    with pq.ParquetFile(piece.path) as f:
+        table = f.read_row_group(piece.row_group, columns=columns)
+    table = table.slice(piece.start, piece.rows)
+    if columns is None:
+        table = table.replace_schema_metadata(None)
+        if not table.schema.equals(schema):
+            table = table.cast(schema)
+    return table
+
+
+def piece_formulas(piece: Piece, schema: pa.Schema, formula_col: str) -> pa.Array:
+    """The distinct formulas of one piece (first pass of the shared mode), as text."""
+    column = _read_piece(piece, schema, [formula_col]).column(0)
+    if not pa.types.is_string(column.type):
+        column = pc.cast(column, pa.string())
+    return pc.unique(column.combine_chunks())
+
+
+def share_distinct(per_piece: list[int], distinct: int, workers: int) -> bool:
+    """Whether scoring the table's distinct formulas once, shared, beats a
+    cache per worker: with several workers, when a formula is met in more
+    than 1.5 pieces on average (it would then be scored on several workers)."""
+    return workers >= 2 and len(per_piece) >= 2 and sum(per_piece) >= 1.5 * max(distinct, 1)
+
+
+def distinct_chunks(formulas: pa.Array, workers: int) -> list[pa.Array]:
+    """The distinct formulas cut into about ``_CHUNKS_PER_WORKER`` chunks a worker."""
+    size = max(-(-len(formulas) // max(workers * _CHUNKS_PER_WORKER, 1)), _MIN_CHUNK)
+    return [formulas.slice(i, size) for i in range(0, len(formulas), size)]
+
+
+def score_distinct(formulas: pa.Array) -> tuple[pa.Array, list[pa.Array]]:
+    """Score a chunk of distinct formulas: (formulas, one array per generated
+    column), ready for :meth:`FormulaCache.adopt`."""
+    texts = formulas.to_pylist()
+    cache = FormulaCache(max_entries=len(texts) + 1)
+    cache.add(texts, score_values(texts))
+    return cache.keys(), cache.arrays()
+
+
+def _status_counts(status: pa.Array) -> dict[str, int]:
+    if pa.types.is_dictionary(status.type):
+        status = status.dictionary_decode()
+    counts = pc.value_counts(status)
+    return {v.as_py(): c.as_py() for v, c in zip(counts.field("values"), counts.field("counts"))
+            if v.as_py() in STATUSES}
+
+
+def _formula_hashes(column: pa.Array) -> np.ndarray:
+    # a stable 64-bit hash of each distinct non-empty formula (Python's own
+    # hash differs between worker processes); pandas is loaded in a Dask worker
+    import pandas as pd
+
+    if pa.types.is_dictionary(column.type):
+        column = column.dictionary_decode()
+    if not pa.types.is_string(column.type):
+        column = pc.cast(column, pa.string())
+    distinct = pc.unique(column).drop_null()
+    distinct = distinct.filter(pc.not_equal(pc.utf8_trim_whitespace(distinct), ""))
+    return pd.util.hash_array(np.asarray(distinct.to_pylist(), dtype=object))
+
+
+def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, name_col: str | None,
+                schema: pa.Schema, model, folder: str, metadata: dict, cache: FormulaCache,
+                count_distinct: bool, status_name: str) -> tuple[dict[str, int], np.ndarray | None]:
+    """Score one partition into ``folder/part-NNNNNN.parquet``.
+
+    ``source`` is a :class:`Piece` (Parquet) or a pandas frame (a CSV block).
+    Returns the status counts and, when ``count_distinct``, the hashes of the
+    partition's distinct formulas (for the run's distinct count)."""
+    if isinstance(source, Piece):
+        table = _read_piece(source, table_schema)
+    else:
+        table = pa.Table.from_pandas(source, schema=table_schema, preserve_index=False)
+    out_schema = schema.with_metadata(metadata) if metadata else schema
+    counts = dict.fromkeys(STATUSES, 0)
+    status_at = schema.get_field_index(status_name)
+    path = os.path.join(folder, part_name(number))
+    with pq.ParquetWriter(path, out_schema, write_statistics=True) as writer:
+        batches = table.to_batches(max_chunksize=_BATCH_ROWS) or [pa.RecordBatch.from_pylist([], schema=table_schema)]
+        for batch in batches:
+            scored = score_batch(batch, formula_col, schema, cache, name_col=name_col, model=model)
+            writer.write_batch(scored)
+            for status, n in _status_counts(scored.column(status_at)).items():
+                counts[status] += n
+    hashes = _formula_hashes(table.column(formula_col).combine_chunks()) if count_distinct else None
+    return counts, hashes
