@@ -84,7 +84,10 @@ class Decomposition:
     they could be assigned. ``hydrate_water`` counts lattice water per formula
     unit, kept apart from the ions. ``alternatives`` lists other assignments
     that were equally plausible (written like the ``cations``/``anions``
-    columns) and ``notes`` the warnings for the row.
+    columns) and ``notes`` the warnings for the row. ``ionic_model`` says
+    whether the ionic model applies (``applies``, ``strained`` or
+    ``not_applicable``, decided in :mod:`scorer.applicability`) and
+    ``ionic_model_reasons`` why.
     """
 
     composition: tuple[tuple[str, float], ...] = ()
@@ -96,6 +99,10 @@ class Decomposition:
     substance_class: str = "unknown"
     alternatives: tuple[str, ...] = ()
     notes: tuple[str, ...] = field(default=())
+    # does the ionic model apply (scorer.applicability): "applies", "strained"
+    # or "not_applicable"; the reasons are the explain lines of that decision
+    ionic_model: str = "not_applicable"
+    ionic_model_reasons: tuple[str, ...] = ()
 
     @property
     def is_ionic(self) -> bool:
@@ -110,6 +117,7 @@ class Decomposition:
         return hash((
             self.composition, self.cations, self.anions, self.neutral_parts, self.hydrate_water,
             self.oxidation_states, self.substance_class, self.alternatives, self.notes,
+            self.ionic_model, self.ionic_model_reasons,
         ))
 
     def __getstate__(self) -> dict:

@@ -129,7 +129,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     }
     warnings = list(dec.notes)
     gaps: list[str] = []
-    if dec.substance_class not in _IONIC_CLASSES:
+    if dec.substance_class not in _IONIC_CLASSES and not dec.is_ionic:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
     for descriptor in descriptors():
         result = descriptor(dec)
@@ -144,7 +144,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message
     hydrate_notes = verdict.value_notes
-    if dec.substance_class in _IONIC_CLASSES:
+    if dec.substance_class in _IONIC_CLASSES or dec.is_ionic:
         hydrate_notes = finalise(gaps=(_HYDRATE_NOTE, *gaps)).value_notes
     return values, tuple(warnings), (verdict.value_notes, hydrate_notes), normalized_formula(comp, dec), tuple(row)
 

@@ -201,6 +201,13 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         ):
             return "acid"
         return "unknown"
+    if not has_metal and "C" in counts and "H" in counts and any(
+        ion.family == "oxocation" or (ion.monatomic and ion.element != "H") for ion in cation_ions
+    ):
+        # an organic molecule read as NO(+) or NO2(+) with an organic anion
+        # (nitrobenzene C6H5NO2): carbon with hydrogen and no salt-forming
+        # cation is a molecule; "unknown" sends it to the molecular reading
+        return "unknown"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
     metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]
