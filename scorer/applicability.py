@@ -96,7 +96,9 @@ STRAINED_MIN_IONICITY = 0.6
 # aqueous standard potentials carry over to solids only roughly (our choice)
 REDOX_MARGIN_V = 0.2
 # classes whose formal ions are dropped where the model does not apply
-_IONLESS_CLASSES = frozenset({"covalent_molecular", "chain_layer_solid", "semiconductor", "intermetallic"})
+_IONLESS_CLASSES = frozenset({
+    "covalent_molecular", "chain_layer_solid", "covalent_network", "semiconductor", "intermetallic",
+})
 # elements that combine with metals into borides, silicides, germanides
 # read without anions (Fe2B, FeSi, MoSi2) or as Zintl phases (KGe, Mg2Si)
 METAL_RICH_PARTNERS = frozenset({"B", "Si", "Ge"})
@@ -346,9 +348,11 @@ def _assess_salt(dec: Decomposition) -> tuple[str, str, list[str]]:
     charge = _bare_cation_charge(dec)
     anion_elements = {t.ion.element for t in dec.anions}
     if charge >= 5 and anion_elements == {"O"} and all(t.ion.monatomic for t in dec.anions) and len(dec.cations) == 1:
-        return "chain_layer_solid", "not_applicable", [
+        # the layered and chain oxides (V2O5, MoO3, CrO3) are rows of the family table
+        return "covalent_network", "not_applicable", [
             f"a bare {dec.cations[0].ion.ion_id} would need ionisation energies no oxide lattice returns: the"
-            " oxide is built of polar covalent M-O bonds in chains or layers (Greenwood & Earnshaw, 2nd ed., 1997)"
+            " oxide is a framework of polar covalent M-O bonds (WO3 and Nb2O5: corner-sharing MO6 octahedra;"
+            " Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 12; from memory)"
         ]
     bond = character.analyse(dec)
     risk = fajans.analyse(dec).covalency_risk
@@ -368,7 +372,14 @@ def _assess_salt(dec: Decomposition) -> tuple[str, str, list[str]]:
             return "ionic_salt", "strained", [where + ": polar covalent region with high polarisation"]
         return "ionic_salt", "applies", [where + ": polar region, polarisation not high"]
     if bond.bond_type == "metallic_ionic":
-        return "zintl_phase", "not_applicable", [where + ": metallic-ionic region (Zintl-like, polar intermetallic)"]
+        groups = {get_element(t.ion.element).group for t in dec.anions if t.ion.monatomic}
+        if groups and all(g is not None and 13 <= g <= 15 for g in groups) and len(groups) == len(dec.anions):
+            return "zintl_phase", "not_applicable", [
+                where + ": metallic-ionic region with a group 13-15 anion (Zintl-like, polar intermetallic)"
+            ]
+        # chalcogenides and halides of the alkali metals (K2Te) stay salts: the
+        # triangle's metallic-ionic band reflects the heavy anion's low chi
+        return "ionic_salt", "applies", [where + ": metallic-ionic band, but a chalcogenide or halide anion"]
     if bond.bond_type is None:
         return "ionic_salt", "applies", ["no electronegativity at the contact: ionic reading kept"]
     return "ionic_salt", "strained", [where + ": outside the ionic and polar regions"]
@@ -443,16 +454,21 @@ def _in_order(states, previous):
 ApplicabilityValues = result_class("ApplicabilityValues", COLUMNS, "Whether the ionic model applies.")
 
 
-@protocol(title="Ionic model:", columns=COLUMNS, result=ApplicabilityValues, failure="ionic model not assessed")
+@protocol(title="Ionic model:", columns=COLUMNS, result=ApplicabilityValues, failure="ionic model not computed")
 def analyse(dec: Decomposition) -> ApplicabilityValues:
     """The ``ionic_model`` column with its reasons as explain steps; a strained
     compound gets a value note (the values are given, with this caveat)."""
+    model, reasons = dec.ionic_model, tuple(dec.ionic_model_reasons)
+    if not reasons:
+        # a decomposition built by hand, not by the solver: decide here
+        _, model, assessed = _assess(dec)
+        reasons = tuple(assessed)
     notes: tuple[str, ...] = ()
-    if dec.ionic_model == "strained":
-        notes = ("ionic model strained (" + "; ".join(dec.ionic_model_reasons)
+    if model == "strained":
+        notes = ("ionic model strained (" + "; ".join(reasons)
                  + "): ionic values are estimates for a partly covalent solid",)
-    steps = tuple(dec.ionic_model_reasons) + (f"ionic_model = {dec.ionic_model} ({dec.substance_class})",)
-    return ApplicabilityValues(ionic_model=dec.ionic_model, notes=notes, steps=steps)
+    steps = reasons + (f"ionic_model = {model} ({dec.substance_class})",)
+    return ApplicabilityValues(ionic_model=model, notes=notes, steps=steps)
 
 
 describe = analyse.describe

@@ -100,8 +100,9 @@ class Decomposition:
     alternatives: tuple[str, ...] = ()
     notes: tuple[str, ...] = field(default=())
     # does the ionic model apply (scorer.applicability): "applies", "strained"
-    # or "not_applicable"; the reasons are the explain lines of that decision
-    ionic_model: str = "not_applicable"
+    # or "not_applicable"; the reasons are the explain lines of that decision.
+    # The solver always decides; a Decomposition built by hand is taken as ionic.
+    ionic_model: str = "applies"
     ionic_model_reasons: tuple[str, ...] = ()
 
     @property
