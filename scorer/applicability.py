@@ -83,7 +83,7 @@ from ionicity.scorer.tables import table
 __all__ = [
     "COLUMNS", "GROUP", "IONIC_MODELS", "PHILLIPS_CRITICAL_IONICITY", "STRAINED_MIN_IONICITY",
     "REDOX_MARGIN_V", "analyse", "describe", "explain", "settle", "metal_rich_reading",
-    "redox_conflicts", "structural_family", "phillips_ionicity", "reduced_key",
+    "redox_conflicts", "structural_family", "phillips_ionicity", "reduced_key", "family_decided",
 ]
 
 GROUP = "character"
@@ -214,6 +214,18 @@ def redox_conflicts(cations, anions) -> tuple[str, ...]:
         couples = oxidants.get(c.ion.ion_id)
         if not couples:
             continue
+        # a reducing cation beside an oxidising one (Ti(3+) with Fe(3+): ilmenite
+        # FeTiO3 is Fe(2+) Ti(4+)) cannot coexist either
+        for other in cations:
+            if other.ion.ion_id in reductants and other.ion.element != c.ion.element:
+                e_other, other_couple = reductants[other.ion.ion_id]
+                e_cation, cation_couple = couples.get("") or (math.nan, "")
+                if e_cation - e_other > REDOX_MARGIN_V:
+                    out.append(
+                        f"{c.ion.ion_id} oxidises {other.ion.ion_id}: E0({cation_couple}) = {e_cation:g} V exceeds"
+                        f" E0({other_couple}) = {e_other:g} V by more than {REDOX_MARGIN_V:g} V"
+                        " (standard potentials, scorer/data/redox_potentials.csv)"
+                    )
         for a in anions:
             if a.ion.ion_id not in reductants:
                 continue
@@ -321,14 +333,38 @@ def _bare_cation_charge(dec: Decomposition) -> int:
     return max((t.ion.charge for t in dec.cations if t.ion.monatomic), default=0)
 
 
-def _assess_salt(dec: Decomposition) -> tuple[str, str, list[str]]:
+_FAMILY_REASON = "known structure: "
+
+
+def family_decided(dec: Decomposition) -> bool:
+    """Whether the structural-family table made ``dec`` molecular or a chain or
+    layer solid (whose hydrates are salts of the aqua ion instead)."""
+    return dec.substance_class in ("covalent_molecular", "chain_layer_solid") and any(
+        r.startswith(_FAMILY_REASON) for r in dec.ionic_model_reasons
+    )
+
+
+def _assess_salt(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[str]]:
     """(substance_class, ionic_model, reasons) of an ionic-salt reading."""
-    counts = _counts(dec)
-    family = structural_family(counts)
-    if family is not None:
+    family = structural_family(_counts(dec))
+    if family is None:
+        return _criteria(dec)
+    if not hydrated:
         return family["substance_class"], family["ionic_model"], [
-            f"known structure: {family['structure']} ({family['source']})"
+            f"{_FAMILY_REASON}{family['structure']} ({family['source']})"
         ]
+    cls, model, reasons = _criteria(dec)
+    return cls, model, [
+        f"a hydrate: the anhydrous solid is {family['substance_class'].replace('_', ' ')} ({family['structure']});"
+        " its hydrates are salts of the aqua ion, such as [Al(H2O)6]Cl3 (Greenwood & Earnshaw, 2nd ed., 1997;"
+        " from memory)",
+        *reasons,
+    ]
+
+
+def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
+    """The general criteria of an ionic-salt reading, after the family table."""
+    counts = _counts(dec)
     f_i, source = _phillips().get(reduced_key(counts), (math.nan, ""))
     if not math.isnan(f_i):
         if f_i >= PHILLIPS_CRITICAL_IONICITY:
@@ -385,10 +421,10 @@ def _assess_salt(dec: Decomposition) -> tuple[str, str, list[str]]:
     return "ionic_salt", "strained", [where + ": outside the ionic and polar regions"]
 
 
-def _assess(dec: Decomposition) -> tuple[str, str, list[str]]:
+def _assess(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[str]]:
     cls = dec.substance_class
     if cls == "ionic_salt":
-        return _assess_salt(dec)
+        return _assess_salt(dec, hydrated)
     if cls == "ionic_liquid_pair":
         return cls, "applies", ["organic cation with an anion: an ionic liquid or organic salt"]
     if cls == "base" and any(t.ion.monatomic and is_metal(t.ion.element) for t in dec.cations):
@@ -412,10 +448,12 @@ def _assess(dec: Decomposition) -> tuple[str, str, list[str]]:
     return cls, "not_applicable", [why]
 
 
-def settle(dec: Decomposition) -> Decomposition:
+def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
     """The decomposition with its ``ionic_model``, its reasons and, where the
     criteria say so, its substance class; ions dropped where the compound
-    has none (see the module docstring).
+    has none (see the module docstring). ``hydrated``: the formula carries
+    lattice water, so a molecular anhydrous solid of the family table is read
+    as the salt of the aqua ion its hydrate is.
 
     >>> from ionicity.scorer.formula import parse_formula
     >>> from ionicity.scorer.ions import decompose
@@ -427,7 +465,7 @@ def settle(dec: Decomposition) -> Decomposition:
         dec.substance_class == "metallic" and dec.ionic_model_reasons
     ):
         return dec  # decided by metal_rich_reading
-    cls, model, reasons = _assess(dec)
+    cls, model, reasons = _assess(dec, hydrated)
     # reasons given while reading (a redox conflict resolved) come first
     reasons = list(dec.ionic_model_reasons) + reasons
     changes: dict = dict(substance_class=cls, ionic_model=model, ionic_model_reasons=tuple(reasons))

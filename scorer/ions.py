@@ -57,7 +57,7 @@ from ionicity.scorer.ion_library import (
     monatomic_ion,
     same_label_ions,
 )
-from ionicity.scorer.applicability import metal_rich_reading, redox_conflicts, settle
+from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.substance import (
     classify,
@@ -456,23 +456,32 @@ def decompose(comp: ParsedFormula) -> Decomposition:
     >>> format_oxidation_states(d.oxidation_states)
     'Fe:+2.667;O:-2'
     """
-    anhydrous = decompose_anhydrous(comp)
+    anhydrous = decompose_anhydrous(comp, hydrated=bool(comp.hydrate_water))
     if comp.hydrate_water:
         return dataclasses.replace(anhydrous, hydrate_water=comp.hydrate_water)
     return anhydrous
 
 
-def decompose_anhydrous(comp: ParsedFormula) -> Decomposition:
+def decompose_anhydrous(comp: ParsedFormula, hydrated: bool = False) -> Decomposition:
     """:func:`decompose` of the formula without its lattice water: the hydrates
-    of one salt share this result (and the solver's work)."""
-    return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
+    of one salt share this result (and the solver's work).
+
+    ``hydrated`` says the formula carries lattice water: where the anhydrous
+    solid is molecular or a chain or layer solid by the structural-family table
+    (AlCl3), its hydrate is a salt of the aqua ion ([Al(H2O)6]Cl3) and is read
+    again without the table; every other hydrate shares the anhydrous result.
+    """
+    dry = _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
+    if hydrated and family_decided(dry):
+        return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, True)
+    return dry
 
 
 @per_input(maxsize=65536)
-def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
+def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, hydrated=False) -> Decomposition:
     # whether the ionic model applies (and the classes it implies) is decided
     # once per anhydrous composition, after the reading
-    return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint))
+    return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
 def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
@@ -616,6 +625,12 @@ def _best(readings):
             break
         cations, anions = _merge(terms)
         seen.setdefault(_reading_text(cations, anions), (cations, anions))
+    if len(seen) > 1:
+        # of equally plausible readings, one whose ions cannot coexist is no
+        # alternative (FeTiO3: Fe(3+) beside Ti(3+)); redox checked only on ties
+        compatible = {t: ca for t, ca in seen.items() if not redox_conflicts(*ca)}
+        if compatible:
+            seen = compatible
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
 

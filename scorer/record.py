@@ -3,6 +3,7 @@ from __future__ import annotations
 
 import math
 
+from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element
@@ -107,7 +108,7 @@ def _water_suffix(water: float) -> str:
 
 
 @per_input(maxsize=65536)
-def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint):
+def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint, hydrated=False):
     """Everything a record holds that does not depend on lattice water or on
     the spelling, computed once per anhydrous composition: the hydrates and
     the spellings of one salt share it.
@@ -120,7 +121,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
     )
-    dec = decompose_anhydrous(comp)
+    dec = decompose_anhydrous(comp, hydrated)
     values: dict = {
         "substance_class": dec.substance_class,
         "cations": format_ion_terms(dec.cations),
@@ -180,8 +181,11 @@ def score_parsed(comp: ParsedFormula) -> dict:
 
 
 def _parsed_row(comp: ParsedFormula) -> tuple:
+    # the hydrate of a molecular halide is a salt of the aqua ion ([Al(H2O)6]Cl3):
+    # only those few hydrates are scored apart from their anhydrous compound
+    hydrated = bool(comp.hydrate_water) and family_decided(decompose_anhydrous(comp))
     values, warnings, gaps, formula, base = _anhydrous_scores(
-        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
+        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, hydrated
     )
     position = _layout()[1]
     row = list(base)

@@ -275,3 +275,17 @@ def test_explain_shows_the_decision_and_its_reasons():
     text = explain_formula("GaAs")
     assert "ionic_model = not_applicable" in text
     assert "Phillips" in text
+
+
+@pytest.mark.parametrize("formula", ["AlCl3·6H2O", "BeCl2·4H2O"])
+def test_hydrates_of_molecular_halides_are_aqua_ion_salts(formula):
+    # G&E ch. 5 and 7: [Al(H2O)6]Cl3 and [Be(H2O)4]Cl2 are salts, unlike AlCl3 and BeCl2
+    r = score_formula(formula)
+    assert r["substance_class"] == "ionic_salt"
+    assert r["cations"] and r["anions"]
+
+
+def test_ilmenite_is_not_ambiguous_once_redox_is_checked():
+    # Fe(3+) would oxidise Ti(3+) (Bard: Fe3+/Fe2+ 0.77 V, TiO2+/Ti3+ 0.1 V): FeTiO3 is Fe(2+) Ti(4+) (G&E ch. 21)
+    r = score_formula("FeTiO3")
+    assert "ambiguous" not in (r["message"] or "")

@@ -29,7 +29,7 @@ ROWS = {
     "madelung_prototypes.csv": 8,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
-    "redox_potentials.csv": 17,
+    "redox_potentials.csv": 20,
 }
 
 
