@@ -29,6 +29,7 @@ ROWS = {
     "madelung_prototypes.csv": 8,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
+    "fallback_radii.csv": 2,
     "redox_potentials.csv": 20,
 }
 
