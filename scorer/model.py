@@ -102,8 +102,11 @@ class Decomposition:
     # does the ionic model apply (scorer.applicability): "applies", "strained"
     # or "not_applicable"; the reasons are the explain lines of that decision.
     # The solver always decides; a Decomposition built by hand is taken as ionic.
-    ionic_model: str = "applies"
-    ionic_model_reasons: tuple[str, ...] = ()
+    # Neither takes part in equality or the hash: the decision is a function of
+    # the other fields, and the character and Fajans results the decision reads
+    # (cached per decomposition) are then found again by the descriptors.
+    ionic_model: str = field(default="applies", compare=False)
+    ionic_model_reasons: tuple[str, ...] = field(default=(), compare=False)
 
     @property
     def is_ionic(self) -> bool:
@@ -118,7 +121,6 @@ class Decomposition:
         return hash((
             self.composition, self.cations, self.anions, self.neutral_parts, self.hydrate_water,
             self.oxidation_states, self.substance_class, self.alternatives, self.notes,
-            self.ionic_model, self.ionic_model_reasons,
         ))
 
     def __getstate__(self) -> dict:

@@ -22,6 +22,7 @@ from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_cha
 from ionicity.scorer.verdict import finalise
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
+_MOLECULAR_OR_LAYER = frozenset({"covalent_molecular", "chain_layer_solid"})
 
 __all__ = ["score_formula", "score_row", "score_parsed", "normalized_formula", "molar_mass_g_mol", "empty_record"]
 
@@ -181,12 +182,16 @@ def score_parsed(comp: ParsedFormula) -> dict:
 
 
 def _parsed_row(comp: ParsedFormula) -> tuple:
+    values, warnings, gaps, formula, base = _anhydrous_scores(
+        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
+    )
     # the hydrate of a molecular halide is a salt of the aqua ion ([Al(H2O)6]Cl3):
     # only those few hydrates are scored apart from their anhydrous compound
-    hydrated = bool(comp.hydrate_water) and family_decided(decompose_anhydrous(comp))
-    values, warnings, gaps, formula, base = _anhydrous_scores(
-        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, hydrated
-    )
+    if (comp.hydrate_water and values["substance_class"] in _MOLECULAR_OR_LAYER
+            and family_decided(decompose_anhydrous(comp))):
+        values, warnings, gaps, formula, base = _anhydrous_scores(
+            comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, True
+        )
     position = _layout()[1]
     row = list(base)
     water = comp.hydrate_water
