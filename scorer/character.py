@@ -570,7 +570,50 @@ def analyse(dec: Decomposition) -> BondCharacter:
     (2.23, 71.2, 'ionic')
     """
     values, notes, steps = (_ionic if dec.is_ionic else _without_ions)(dec)
+    _class_bond_type(dec, values, notes, steps)
     return BondCharacter(**values, notes=tuple(notes), steps=tuple(steps))
+
+
+# Allen's configuration energies (eV) in Pauling-like units: Allen, J. Am.
+# Chem. Soc. 1989, 111, 9003 (factor 0.169; from memory)
+ALLEN_EV_TO_PAULING = 0.169
+_METAL_RICH_CLASSES = frozenset({"metallic", "intermetallic", "zintl_phase"})
+
+
+def _class_bond_type(dec: Decomposition, values: dict, notes: list[str], steps: list[str]) -> None:
+    """Keep the bond type on the side of the triangle the substance class puts
+    the compound: the Pauling scale places Si (1.90) among the metals and Au
+    (2.54) among the non-metals, so without this Si and InSb read "metallic"
+    and Cu3Au "ionic_covalent".
+
+    * semiconductor: a point in the metallic region moves to covalent_metallic
+      (the triangle's metalloid and semiconductor band);
+    * metals, intermetallics and Zintl phases stay on the metallic edge:
+      metallic below a difference of 0.5 in Allen electronegativity (which
+      puts gold beside copper), metallic_ionic from 0.5 up; Pauling values
+      where Allen's are missing (Tl, lanthanides).
+    """
+    bond_type = values.get("bond_type")
+    if bond_type is None:
+        return
+    cls = dec.substance_class
+    if cls == "semiconductor" and bond_type == "metallic":
+        values["bond_type"] = "covalent_metallic"
+        steps.append("bond_type covalent_metallic: a semiconductor, which the Pauling scale puts among the metals")
+        notes[:] = [n for n in notes if not n.startswith("bond_type metallic")]
+    elif cls in _METAL_RICH_CLASSES and len(dec.composition) > 1 and bond_type not in ("metallic", "metallic_ionic"):
+        chis = []
+        for symbol, _ in dec.composition:
+            allen = get_element(symbol).electronegativity_allen
+            chis.append(allen * ALLEN_EV_TO_PAULING if allen == allen else pauling_electronegativity(symbol))
+        spread = max(chis) - min(chis)
+        values["bond_type"] = "metallic" if spread < POLAR_DELTA_CHI else "metallic_ionic"
+        steps.append(
+            f"bond_type {values['bond_type']}: a {cls.replace('_', ' ')} stays on the metallic edge of the triangle;"
+            f" Allen electronegativity difference {spread:.2f} (x {ALLEN_EV_TO_PAULING} per eV; Allen 1989)"
+            f" {'<' if spread < POLAR_DELTA_CHI else '>='} {POLAR_DELTA_CHI}"
+        )
+        notes[:] = [n for n in notes if not n.startswith("bond_type ")]
 
 
 describe = analyse.describe

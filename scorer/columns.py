@@ -36,8 +36,9 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
     Column(
         "substance_class", "string", "",
-        "ionic_salt, ionic_liquid_pair, acid, base, covalent_molecular, covalent_network, metallic,"
-        " element, ion or unknown (definitions in scorer.ions)",
+        "ionic_salt, ionic_liquid_pair, acid, base, covalent_molecular, chain_layer_solid, covalent_network,"
+        " semiconductor, intermetallic, zintl_phase, metallic, element, ion or unknown (definitions in"
+        " scorer.substance)",
         _SOLVER, "common practice",
     ),
     Column(
@@ -64,7 +65,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.applicability", "ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
 
 
 @once

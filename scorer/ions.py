@@ -57,6 +57,7 @@ from ionicity.scorer.ion_library import (
     monatomic_ion,
     same_label_ions,
 )
+from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.substance import (
     classify,
@@ -74,6 +75,11 @@ _RARE_ANION_FAMILIES = frozenset({"chalcogenide-polyatomic", "carbide"})
 _PENALTY_EXTRA_STATE = 2.0
 _PENALTY_NONMETAL_CATION = 5.0
 _PENALTY_PROTON = 1.5
+# metalloid cations of the inert pair that form salts with oxoanions and oxides
+# (Sb2(SO4)3, Sb2O3, Te(SO4)2, TeO2; Greenwood & Earnshaw, Chemistry of the
+# Elements, 2nd ed., 1997, ch. 13 and 16): cheaper than SbO(+) (2), dearer than a metal
+_PBLOCK_CATIONS = frozenset({("Sb", 3), ("Te", 4)})
+_PENALTY_PBLOCK_CATION = 1.0
 _PENALTY_MIXED_VALENCE = 1.0
 _PENALTY_RARE_ANION = 1.5
 _PENALTY_UNCOMMON_ION = 0.5
@@ -95,6 +101,10 @@ _UNCOMMON_IONS = frozenset({
 # monatomic reading (spinels ZnFe2O4, LiMn2O4) is the usual description
 _FORMULA_UNIT_OXOANIONS = frozenset({
     "SbO4(3-)", "SbO3(-)", "MnO4(3-)", "CrO2(-)", "ZnO2(2-)",
+    # spinels MgAl2O4, ZnAl2O4, CaAl2O4 and LiAlO2 are oxide-ion lattices with
+    # Al(3+) in octahedral or tetrahedral holes, no discrete AlO2 units
+    # (Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 13; from memory)
+    "AlO2(-)",
 })
 _PENALTY_FORMULA_UNIT_OXOANION = 1.5
 # actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)
@@ -102,6 +112,8 @@ _ACTINYL_IONS = frozenset({"UO2(2+)", "UO2(+)", "NpO2(2+)", "NpO2(+)", "PuO2(2+)
 # acid anions that keep a proton: H2S reads 2 H+ + S2-, oxalic acid 2 H+ + C2O4(2-)
 _HYDROGEN_ANIONS = frozenset({"HS(-)", "HSe(-)", "HC2O4(-)"})
 _PENALTY_SPECIES = 0.1
+# how much less plausible a redox-compatible reading may be than the incompatible one
+_REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 _PENALTY_FRACTIONAL_SPLIT = 1.0
 # a bare cation of charge 5 or more is a formal device (U6+ + 2 O2- in uranyl nitrate)
 _PENALTY_HIGH_CATION = 1.0
@@ -144,7 +156,12 @@ def _monatomic_options(symbol: str, count: float):
         if state >= 5:
             penalty += _PENALTY_HIGH_CATION
         if state > 0 and not metal:
-            penalty += _PENALTY_PROTON if symbol == "H" else _PENALTY_NONMETAL_CATION
+            if symbol == "H":
+                penalty += _PENALTY_PROTON
+            elif (symbol, state) in _PBLOCK_CATIONS:
+                penalty += _PENALTY_PBLOCK_CATION
+            else:
+                penalty += _PENALTY_NONMETAL_CATION
         if symbol == "Hg" and state == 1:
             penalty += 1.0
         options.append(("single", state, penalty))
@@ -159,7 +176,7 @@ def _monatomic_options(symbol: str, count: float):
 
 
 @per_input(maxsize=65536)
-def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float):
+def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float, excluded=frozenset()):
     """The best charge-balanced monatomic assignments with penalty <= cap.
 
     "Best" counts each species as the caller does (penalty plus
@@ -175,6 +192,12 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
     if not symbols:
         return ((0.0, ()),) if abs(needed) < _TOL else ()
     per_symbol = [_monatomic_options(s, counts[s]) for s in symbols]
+    if excluded:
+        # states ruled out by redox (Tl(3+) beside I(-)): see scorer.applicability.redox_conflicts
+        per_symbol = [
+            tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
+            for s, options in zip(symbols, per_symbol)
+        ]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
     stoichiometric = all(abs(n - round(n)) < _TOL for _, n in remaining)
@@ -272,10 +295,10 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best[0] + _TOL)
 
 
-def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf")):
+def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf"), excluded=frozenset()):
     """Charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)])."""
     key = tuple(sorted((s, round(n, 9)) for s, n in remaining.items() if n > _TOL))
-    return _assign_monatomic_cached(key, round(needed, 9), cap)
+    return _assign_monatomic_cached(key, round(needed, 9), cap, excluded)
 
 
 def _fits(composition, remaining: dict[str, float]) -> int:
@@ -334,7 +357,7 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
 
 
-def _search(remaining: dict[str, float], needed: float):
+def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
@@ -366,7 +389,7 @@ def _search(remaining: dict[str, float], needed: float):
             return
         if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
             cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
-            for penalty, singles in _assign_monatomic(left, needed - charge, round(cap, 9)):
+            for penalty, singles in _assign_monatomic(left, needed - charge, round(cap, 9), excluded):
                 terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
                 total = penalty + cost + _PENALTY_SPECIES * len(terms)
                 if total <= best[0] + _TOL:
@@ -433,20 +456,35 @@ def decompose(comp: ParsedFormula) -> Decomposition:
     >>> format_oxidation_states(d.oxidation_states)
     'Fe:+2.667;O:-2'
     """
-    anhydrous = decompose_anhydrous(comp)
+    anhydrous = decompose_anhydrous(comp, hydrated=bool(comp.hydrate_water))
     if comp.hydrate_water:
         return dataclasses.replace(anhydrous, hydrate_water=comp.hydrate_water)
     return anhydrous
 
 
-def decompose_anhydrous(comp: ParsedFormula) -> Decomposition:
+def decompose_anhydrous(comp: ParsedFormula, hydrated: bool = False) -> Decomposition:
     """:func:`decompose` of the formula without its lattice water: the hydrates
-    of one salt share this result (and the solver's work)."""
-    return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
+    of one salt share this result (and the solver's work).
+
+    ``hydrated`` says the formula carries lattice water: where the anhydrous
+    solid is molecular or a chain or layer solid by the structural-family table
+    (AlCl3), its hydrate is a salt of the aqua ion ([Al(H2O)6]Cl3) and is read
+    again without the table; every other hydrate shares the anhydrous result.
+    """
+    dry = _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
+    if hydrated and family_decided(dry):
+        return _decompose(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, True)
+    return dry
 
 
 @per_input(maxsize=65536)
-def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
+def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, hydrated=False) -> Decomposition:
+    # whether the ionic model applies (and the classes it implies) is decided
+    # once per anhydrous composition, after the reading
+    return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
+
+
+def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
     comp = ParsedFormula(
         text="", counts=counts_key, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
@@ -464,6 +502,11 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         return _lone_ion(comp, counts, notes)
 
     symbols = set(counts)
+    if not comp.ion_hints:
+        # metals with metals, B, Si or Ge: Zintl phases and intermetallics, not salts
+        metal_rich = metal_rich_reading(counts, water, neutral)
+        if metal_rich is not None:
+            return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols):
@@ -488,49 +531,48 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         hinted.append([(variant, n) for variant in same_label_ions(ion)])
         remaining = _subtract(remaining, ion.composition, n)
 
-    readings = []
-    for given in itertools.product(*hinted):
-        given = list(given)
-        given_charge = sum(ion.charge * n for ion, n in given)
-        if remaining:
-            found, cut_short = _search(remaining, -given_charge)
-            readings.extend((penalty, given + terms) for penalty, terms in found)
-            if cut_short and "search cut short" not in " ".join(notes):
-                notes.append(
-                    f"the ion search was cut short after {_MAX_SEARCH_NODES} steps; a better reading may exist"
-                )
-        elif abs(given_charge) < _TOL:
-            readings.append((0.0, given))
+    readings = _readings(remaining, hinted, notes)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
-
-    readings = [r for r in readings if _has_both_signs(r[1])]
     if not readings:
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-
-    best_penalty = min(p for p, _ in readings)
-    if best_penalty >= _IONIC_THRESHOLD:
+    chosen = _best(readings)
+    if chosen is None:
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    cations, anions, alternatives, _ = chosen
 
-    seen: dict[str, tuple] = {}
-    for penalty, terms in sorted(readings, key=lambda r: (round(r[0], 9), _library_order(r[1]), _reading_text(*_merge(r[1])))):
-        if penalty > best_penalty + _TOL:
-            break
-        cations, anions = _merge(terms)
-        seen.setdefault(_reading_text(cations, anions), (cations, anions))
-    (text, (cations, anions)), *others = seen.items()
-    alternatives = tuple(t for t, _ in others)
+    reasons: tuple[str, ...] = ()
+    conflicts = redox_conflicts(cations, anions)
+    if conflicts:
+        # a cation that oxidises its anion: look for the reading without it
+        # (TlI3 is Tl(+) with I3(-)); if none balances, keep the reading and warn
+        # a state at or above an oxidising one oxidises too (Cu(3+) beside I(-))
+        excluded = frozenset(
+            (t.ion.element, state)
+            for t in cations if t.ion.monatomic and any(c.startswith(t.ion.ion_id + " ") for c in conflicts)
+            for state, _ in _states(t.ion.element) if state >= t.ion.charge
+        )
+        compatible = _best(_readings(remaining, hinted, [], excluded)) if excluded else None
+        # only a reading of common states and ions will do (TlI3 = Tl(+) I3(-)),
+        # not an odd state invented to balance (Fe(+) with I3(-) for FeI3)
+        if (compatible is not None and compatible[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA
+                and not redox_conflicts(compatible[0], compatible[1])):
+            reasons = tuple(c + ": read without it" for c in conflicts)
+            cations, anions, alternatives, _ = compatible
+        else:
+            notes.extend(c + "; no compatible reading balances the formula (check it)" for c in conflicts)
     if alternatives:
-        notes.append("ambiguous: equally plausible readings " + " | ".join((text,) + alternatives))
+        notes.append("ambiguous: equally plausible readings " + " | ".join(
+            (_reading_text(cations, anions),) + alternatives))
 
     states = oxidation_states_of(cations + anions)
     cls = classify(counts, cations, anions)
     if cls == "unknown":
-        # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-:
-        # not an acid, so read it as the molecule it is
+        # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-,
+        # nitrobenzene as NO+ with phenoxide: not a salt, so read it as the molecule it is
         return nonionic_decomposition(comp.charge, counts, [], water, neutral)
     if cls == "covalent_molecular":
         return Decomposition(
@@ -547,7 +589,50 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -
         substance_class=cls,
         alternatives=alternatives,
         notes=tuple(notes),
+        ionic_model_reasons=reasons,
     )
+
+
+def _readings(remaining, hinted, notes: list[str], excluded=frozenset()):
+    """Every best charge-balanced reading, the written ions included."""
+    readings = []
+    for given in itertools.product(*hinted):
+        given = list(given)
+        given_charge = sum(ion.charge * n for ion, n in given)
+        if remaining:
+            found, cut_short = _search(remaining, -given_charge, excluded)
+            readings.extend((penalty, given + terms) for penalty, terms in found)
+            if cut_short and "search cut short" not in " ".join(notes):
+                notes.append(
+                    f"the ion search was cut short after {_MAX_SEARCH_NODES} steps; a better reading may exist"
+                )
+        elif abs(given_charge) < _TOL:
+            readings.append((0.0, given))
+    return [r for r in readings if _has_both_signs(r[1])]
+
+
+def _best(readings):
+    """(cations, anions, alternatives, penalty) of the most plausible reading; None when
+    no reading is plausible enough to be ionic."""
+    if not readings:
+        return None
+    best_penalty = min(p for p, _ in readings)
+    if best_penalty >= _IONIC_THRESHOLD:
+        return None
+    seen: dict[str, tuple] = {}
+    for penalty, terms in sorted(readings, key=lambda r: (round(r[0], 9), _library_order(r[1]), _reading_text(*_merge(r[1])))):
+        if penalty > best_penalty + _TOL:
+            break
+        cations, anions = _merge(terms)
+        seen.setdefault(_reading_text(cations, anions), (cations, anions))
+    if len(seen) > 1:
+        # of equally plausible readings, one whose ions cannot coexist is no
+        # alternative (FeTiO3: Fe(3+) beside Ti(3+)); redox checked only on ties
+        compatible = {t: ca for t, ca in seen.items() if not redox_conflicts(*ca)}
+        if compatible:
+            seen = compatible
+    (_, (cations, anions)), *others = seen.items()
+    return cations, anions, tuple(t for t, _ in others), best_penalty
 
 
 @once

@@ -413,6 +413,11 @@ def analyse(dec: Decomposition) -> LatticeEnergies:
         return LatticeEnergies(steps=("lattice energies: not an ionic compound",))
     if dec.substance_class == "acid":
         return LatticeEnergies(notes=(_NOT_FOR_ACIDS,), steps=(_NOT_FOR_ACIDS,))
+    if dec.ionic_model == "not_applicable":
+        # scorer.applicability: a Zintl phase keeps its formal ions, not a point-ion lattice
+        why = (f"lattice energies and structure type: the ionic model does not apply to a"
+               f" {dec.substance_class.replace('_', ' ')} (see ionic_model)")
+        return LatticeEnergies(notes=(why,), steps=(why,))
     return _compute(tuple(dec.cations), tuple(dec.anions), float(dec.hydrate_water or 0.0))
 
 

@@ -84,7 +84,10 @@ class Decomposition:
     they could be assigned. ``hydrate_water`` counts lattice water per formula
     unit, kept apart from the ions. ``alternatives`` lists other assignments
     that were equally plausible (written like the ``cations``/``anions``
-    columns) and ``notes`` the warnings for the row.
+    columns) and ``notes`` the warnings for the row. ``ionic_model`` says
+    whether the ionic model applies (``applies``, ``strained`` or
+    ``not_applicable``, decided in :mod:`scorer.applicability`) and
+    ``ionic_model_reasons`` why.
     """
 
     composition: tuple[tuple[str, float], ...] = ()
@@ -96,6 +99,14 @@ class Decomposition:
     substance_class: str = "unknown"
     alternatives: tuple[str, ...] = ()
     notes: tuple[str, ...] = field(default=())
+    # does the ionic model apply (scorer.applicability): "applies", "strained"
+    # or "not_applicable"; the reasons are the explain lines of that decision.
+    # The solver always decides; a Decomposition built by hand is taken as ionic.
+    # Neither takes part in equality or the hash: the decision is a function of
+    # the other fields, and the character and Fajans results the decision reads
+    # (cached per decomposition) are then found again by the descriptors.
+    ionic_model: str = field(default="applies", compare=False)
+    ionic_model_reasons: tuple[str, ...] = field(default=(), compare=False)
 
     @property
     def is_ionic(self) -> bool:

@@ -3,6 +3,7 @@ from __future__ import annotations
 
 import math
 
+from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element
@@ -21,6 +22,7 @@ from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_cha
 from ionicity.scorer.verdict import finalise
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
+_MOLECULAR_OR_LAYER = frozenset({"covalent_molecular", "chain_layer_solid"})
 
 __all__ = ["score_formula", "score_row", "score_parsed", "normalized_formula", "molar_mass_g_mol", "empty_record"]
 
@@ -107,7 +109,7 @@ def _water_suffix(water: float) -> str:
 
 
 @per_input(maxsize=65536)
-def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint):
+def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint, hydrated=False):
     """Everything a record holds that does not depend on lattice water or on
     the spelling, computed once per anhydrous composition: the hydrates and
     the spellings of one salt share it.
@@ -120,7 +122,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
     )
-    dec = decompose_anhydrous(comp)
+    dec = decompose_anhydrous(comp, hydrated)
     values: dict = {
         "substance_class": dec.substance_class,
         "cations": format_ion_terms(dec.cations),
@@ -129,7 +131,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     }
     warnings = list(dec.notes)
     gaps: list[str] = []
-    if dec.substance_class not in _IONIC_CLASSES:
+    if dec.substance_class not in _IONIC_CLASSES and not dec.is_ionic:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
     for descriptor in descriptors():
         result = descriptor(dec)
@@ -144,7 +146,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message
     hydrate_notes = verdict.value_notes
-    if dec.substance_class in _IONIC_CLASSES:
+    if dec.substance_class in _IONIC_CLASSES or dec.is_ionic:
         hydrate_notes = finalise(gaps=(_HYDRATE_NOTE, *gaps)).value_notes
     return values, tuple(warnings), (verdict.value_notes, hydrate_notes), normalized_formula(comp, dec), tuple(row)
 
@@ -183,6 +185,13 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     values, warnings, gaps, formula, base = _anhydrous_scores(
         comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
     )
+    # the hydrate of a molecular halide is a salt of the aqua ion ([Al(H2O)6]Cl3):
+    # only those few hydrates are scored apart from their anhydrous compound
+    if (comp.hydrate_water and values["substance_class"] in _MOLECULAR_OR_LAYER
+            and family_decided(decompose_anhydrous(comp))):
+        values, warnings, gaps, formula, base = _anhydrous_scores(
+            comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, True
+        )
     position = _layout()[1]
     row = list(base)
     water = comp.hydrate_water

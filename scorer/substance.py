@@ -20,15 +20,35 @@ and gives the oxidation states: from the ions of a reading
 ``base``
     a hydroxide (every anion OH-) or ammonia/hydrazine.
 ``covalent_molecular``
-    non-metal molecules (CCl4, glucose); high-valent metal halides and oxides
+    non-metal molecules (CCl4, glucose, nitrobenzene); molecular metal
+    halides and oxyhalides of the structural-family table (AlCl3/Al2Cl6,
+    AlBr3, AlI3, GaCl3, HgX2, BiCl3, SbX3, VOCl3, CrO2Cl2); high-valent metal halides and oxides
     that are molecular (TiCl4, SnCl4: metal at +4 or more with only halide
     anions; Mn2O7, OsO4: metal at +7 or more with only oxide; common
     practice); organometallics written with CO or C5H5 ligands.
+``chain_layer_solid``
+    polymeric chains or layers held by polar covalent bonds (CrO3, BeCl2,
+    MoO3, V2O5; ZnCl2, CdCl2 and CdI2 keep their ions with the ionic model
+    ``strained``); decided in :mod:`scorer.applicability`.
 ``covalent_network``
     extended covalent solids of B, C, Si, Ge with N, O, C (SiO2, SiC, BN,
-    diamond; common practice).
+    diamond; common practice); frameworks of a bare cation of charge 5 or
+    more with oxide (WO3, Nb2O5; :mod:`scorer.applicability`).
+``semiconductor``
+    tetrahedral polar-covalent AB compounds and elements below Phillips'
+    critical ionicity 0.785 (Si, Ge, GaAs, InP, InSb, GaN, AlN, CdTe, ZnS);
+    decided in :mod:`scorer.applicability`.
+``intermetallic``
+    compounds of two or more metals, or of metals with B, Si, Ge, in
+    whole-number ratio, where no Zintl reading applies (Cu3Au, Ni3Al, Fe2B,
+    MgB2); no ions.
+``zintl_phase``
+    s-block metals with a p-block element (or gold) that takes their valence
+    electrons: NaTl = Na(+) Tl(-), KGe, Mg2Si, CsAu = Cs(+) Au(-); formal
+    ions kept, the ionic model not applied.
 ``metallic``
-    elemental metals, alloys and intermetallics (every element a metal).
+    elemental metals and metallic solid solutions (every element a metal, no
+    compound reading: Cu0.7Zn0.3).
 ``element``
     a non-metallic element (O2, S8, P4, a noble gas).
 ``ion``
@@ -200,6 +220,13 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
             not anion.monatomic or anion.element in _ACID_FORMING_ELEMENTS
         ):
             return "acid"
+        return "unknown"
+    if not has_metal and "C" in counts and "H" in counts and any(
+        ion.family == "oxocation" or (ion.monatomic and ion.element != "H") for ion in cation_ions
+    ):
+        # an organic molecule read as NO(+) or NO2(+) with an organic anion
+        # (nitrobenzene C6H5NO2): carbon with hydrogen and no salt-forming
+        # cation is a molecule; "unknown" sends it to the molecular reading
         return "unknown"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"

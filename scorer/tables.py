@@ -71,6 +71,17 @@ TABLES: dict[str, TableSpec] = {
             "scorer.melting",
         ),
         TableSpec(
+            "structural_families.csv", ("formula", "substance_class", "ionic_model", "structure", "source"),
+            "scorer.applicability",
+        ),
+        TableSpec("fallback_radii.csv", ("ion_id", "radius_pm", "source"), "scorer.fajans"),
+        TableSpec("phillips_ionicity.csv", ("formula", "ionicity_fi", "coordination", "source"), "scorer.applicability"),
+        TableSpec(
+            "redox_potentials.csv",
+            ("couple", "ion_id", "role", "product", "partner_anion_id", "E0_V", "source"),
+            "scorer.applicability",
+        ),
+        TableSpec(
             "madelung_prototypes.csv",
             ("prototype", "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",
              "common_factor", "charge_product", "ionic_strength", "source"),

@@ -27,6 +27,10 @@ ROWS = {
     "structure_prototypes.csv": 93,
     "ion_shape.csv": 72,
     "madelung_prototypes.csv": 8,
+    "structural_families.csv": 25,
+    "phillips_ionicity.csv": 43,
+    "fallback_radii.csv": 2,
+    "redox_potentials.csv": 20,
 }
 
 

@@ -1,0 +1,513 @@
+"""Does the ionic model apply? One decision per compound, with its reasons.
+
+Every value of :mod:`scorer.lattice` (structure type, Born-Lande, Born-Mayer,
+Kapustinskii, volume-based lattice energies) treats the compound as point
+ions. That is a good description of NaCl and MgO, a usable one of AgI, CuCl
+and ZnS, and a wrong one of AlCl3 (a molecular dimer), CrO3 (chains), GaAs (a
+covalent semiconductor) or NaTl (a Zintl phase). :func:`settle` decides,
+after the ion solver (:mod:`scorer.ions`) has found a reading, which of three
+it is:
+
+``applies``
+    the ionic model is a fair description; ionic values are given.
+``strained``
+    the bonding is polar but partly covalent; ionic values are still useful
+    and are given, with a value note saying so (AgI, CuCl, ZnS, CdI2).
+``not_applicable``
+    the compound is molecular, a chain or layer solid, a covalent
+    semiconductor, an intermetallic or a Zintl phase; the ionic-only values
+    stay empty with a value note saying why.
+
+The criteria, in the order they are tried (the first that decides wins):
+
+1. **Known structural families** (``scorer/data/structural_families.csv``,
+   a source per row): molecular halides (Al2Cl6, Ga2Cl6, HgCl2, BiCl3...),
+   oxyhalides, chain and layer solids (CrO3, BeCl2, ZnCl2, CdI2), MgB2.
+2. **Phillips ionicity** of tetrahedral AB octet compounds
+   (``scorer/data/phillips_ionicity.csv``; J. C. Phillips, Rev. Mod. Phys.
+   1970, 42, 317): at f_i >= 0.785 (Phillips' critical ionicity) the compound
+   takes six-fold coordination and the ionic model applies; below it the
+   compound is tetrahedral and covalent. Group IV, III-V and II-VI
+   non-oxides are ``semiconductor``; the ionic values are ``strained`` for
+   f_i >= 0.6 (II-VI, I-VII: common practice, the point where Phillips'
+   cohesive energies of the tetrahedral compounds turn from bond-like to
+   ion-like) and ``not_applicable`` below (III-V, group IV).
+3. **Oxidation state against electronegativity**: a bare cation of charge
+   5 or more with oxide only (CrO3, MoO3, V2O5) would need ionisation
+   energies no lattice pays back: a chain or layer solid, model not
+   applicable; a bare cation of charge 4 is ``strained`` (TiO2, SnO2;
+   common practice, Greenwood & Earnshaw, Chemistry of the Elements, 2nd
+   ed., 1997, ch. 21).
+4. **van Arkel-Ketelaar triangle** at the cation-anion contact
+   (:func:`scorer.character.van_arkel_ketelaar_bond_type`, Pauling scale;
+   region boundaries as documented there: Pauling's 1.7 line, the rest common
+   practice) together with **Fajans' rules**
+   (:func:`scorer.fajans.covalency_risk_level`): the ionic region applies;
+   the polar-covalent region applies unless the Fajans covalency risk is high
+   (then strained); the metallic-ionic region is a Zintl phase.
+
+Ions are dropped from the reading (the oxidation states stay) where the model
+does not apply and the compound is molecular, a chain or layer solid, a
+semiconductor or an intermetallic; Zintl phases keep their formal ions (NaTl
+is Na(+) Tl(-)).
+
+Two further decisions live here because they are about which ions can exist,
+not how they are found:
+
+* :func:`metal_rich_reading`: metals with each other or with B, Si, Ge
+  (borides, silicides, germanides, alloys). The Zintl-Klemm concept (Zintl,
+  Angew. Chem. 1939, 52, 1; Nesper, Angew. Chem. Int. Ed. 1991, 30, 789)
+  applies where s-block metals give their valence electrons to one p-block
+  element or to gold (NaTl, KGe, Mg2Si, CsAu: Jansen, Chem. Soc. Rev. 2008,
+  37, 1826); anything else is an intermetallic without ions.
+* :func:`redox_conflicts`: a cation that oxidises its anion (Tl(3+) with
+  I(-), Fe(3+) with I(-), Cu(2+) with I(-)) from standard reduction
+  potentials (``scorer/data/redox_potentials.csv``); the solver then looks
+  for a compatible reading (TlI3 = Tl(+) I3(-)) and otherwise warns.
+"""
+from __future__ import annotations
+
+import dataclasses
+import math
+import re
+
+from ionicity.scorer import character, fajans
+from ionicity.scorer.caching import once
+from ionicity.scorer.descriptor import protocol, result_class
+from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.ion_library import monatomic_ion
+from ionicity.scorer.model import Column, Decomposition, IonTerm
+from ionicity.scorer.substance import formal_oxidation_states
+from ionicity.scorer.tables import table
+
+__all__ = [
+    "COLUMNS", "GROUP", "IONIC_MODELS", "PHILLIPS_CRITICAL_IONICITY", "STRAINED_MIN_IONICITY",
+    "REDOX_MARGIN_V", "analyse", "describe", "explain", "settle", "metal_rich_reading",
+    "redox_conflicts", "structural_family", "phillips_ionicity", "reduced_key", "family_decided",
+]
+
+GROUP = "character"
+IONIC_MODELS = ("applies", "strained", "not_applicable")
+# Phillips, Rev. Mod. Phys. 1970, 42, 317: four-fold below, six-fold above
+PHILLIPS_CRITICAL_IONICITY = 0.785
+# common practice: II-VI and I-VII tetrahedral compounds keep useful ionic values
+STRAINED_MIN_IONICITY = 0.6
+# a cation must out-oxidise its anion by this much to count as incompatible:
+# aqueous standard potentials carry over to solids only roughly (our choice)
+REDOX_MARGIN_V = 0.2
+# classes whose formal ions are dropped where the model does not apply
+_IONLESS_CLASSES = frozenset({
+    "covalent_molecular", "chain_layer_solid", "covalent_network", "semiconductor", "intermetallic",
+})
+# elements that combine with metals into borides, silicides, germanides
+# read without anions (Fe2B, FeSi, MoSi2) or as Zintl phases (KGe, Mg2Si)
+METAL_RICH_PARTNERS = frozenset({"B", "Si", "Ge"})
+_ZINTL_ANION_BLOCK = "p"
+_SOURCE_CRITERIA = (
+    "structural families (scorer/data/structural_families.csv); Phillips, Rev. Mod. Phys. 1970, 42, 317;"
+    " van Arkel 1941 / Ketelaar 1947 triangle; Fajans 1923; Zintl 1939"
+)
+
+COLUMNS: tuple[Column, ...] = (
+    Column(
+        "ionic_model", "string", "",
+        "does the ionic (point-charge) model apply: applies; strained (polar, partly covalent: ionic values"
+        " given with a note); not_applicable (molecular, chain or layer solid, covalent semiconductor,"
+        " intermetallic, Zintl phase: ionic-only values left empty)",
+        "scorer.applicability.settle: known structural families, Phillips ionicity (critical 0.785),"
+        " oxidation state, van Arkel-Ketelaar triangle with Fajans' rules",
+        _SOURCE_CRITERIA,
+    ),
+)
+
+
+# --- tables -----------------------------------------------------------------------
+
+_TERM = re.compile(r"([A-Z][a-z]?)(\d*)")
+
+
+def reduced_key(counts) -> tuple[tuple[str, float], ...]:
+    """A composition divided by the greatest common divisor of its counts,
+    sorted by symbol: Al2Cl6 and AlCl3 share one key.
+
+    >>> reduced_key({"Al": 2, "Cl": 6})
+    (('Al', 1.0), ('Cl', 3.0))
+    """
+    items = sorted((s, float(n)) for s, n in dict(counts).items())
+    if any(n != int(n) for _, n in items):
+        return tuple(items)
+    divisor = 0
+    for _, n in items:
+        divisor = math.gcd(divisor, int(n))
+    divisor = divisor or 1
+    return tuple((s, n / divisor) for s, n in items)
+
+
+def _key_of_text(formula: str):
+    counts: dict[str, float] = {}
+    for symbol, n in _TERM.findall(formula):
+        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
+    return reduced_key(counts)
+
+
+@once
+def _families() -> dict:
+    return {_key_of_text(r["formula"]): r for r in table("structural_families.csv")}
+
+
+@once
+def _phillips() -> dict:
+    return {_key_of_text(r["formula"]): (float(r["ionicity_fi"]), r["source"]) for r in table("phillips_ionicity.csv")}
+
+
+@once
+def _redox() -> tuple[dict, dict]:
+    oxidants: dict = {}
+    reductants: dict = {}
+    for r in table("redox_potentials.csv"):
+        if r["role"] == "oxidant":
+            oxidants.setdefault(r["ion_id"], {})[r["partner_anion_id"]] = (float(r["E0_V"]), r["couple"])
+        else:
+            reductants[r["ion_id"]] = (float(r["E0_V"]), r["couple"])
+    return oxidants, reductants
+
+
+def structural_family(counts) -> dict | None:
+    """The row of ``structural_families.csv`` for a composition, or None.
+
+    >>> structural_family({"Al": 2, "Cl": 6})["substance_class"]
+    'covalent_molecular'
+    """
+    return _families().get(reduced_key(counts))
+
+
+def phillips_ionicity(counts) -> float:
+    """Phillips' spectroscopic ionicity f_i of an AB compound, NaN where the
+    table (Phillips, Rev. Mod. Phys. 1970, 42, 317) has none.
+
+    >>> phillips_ionicity({"Ga": 1, "As": 1}), phillips_ionicity({"Na": 1, "Cl": 1})
+    (0.31, 0.935)
+    """
+    return _phillips().get(reduced_key(counts), (math.nan, ""))[0]
+
+
+# --- redox ------------------------------------------------------------------------
+
+
+def redox_conflicts(cations, anions) -> tuple[str, ...]:
+    """Cation-anion pairs that cannot coexist: the cation's reduction potential
+    exceeds the anion's oxidation potential by more than :data:`REDOX_MARGIN_V`.
+
+    Applied to halide anions only: solid chalcogenides (CuS, SnS2, Fe2S3) are
+    held together by covalency that aqueous potentials do not describe.
+
+    Returns one text per conflicting pair, empty when every pair is compatible.
+
+    >>> from ionicity.scorer.ion_library import monatomic_ion
+    >>> tl, i = monatomic_ion("Tl", 3), monatomic_ion("I", -1)
+    >>> redox_conflicts((IonTerm(tl, 1),), (IonTerm(i, 3),))[0][:42]
+    'Tl(3+) oxidises I(-): E0(Tl3+/Tl+) = 1.252'
+    """
+    oxidants, reductants = _redox()
+    out = []
+    for c in cations:
+        couples = oxidants.get(c.ion.ion_id)
+        if not couples:
+            continue
+        # a reducing cation beside an oxidising one (Ti(3+) with Fe(3+): ilmenite
+        # FeTiO3 is Fe(2+) Ti(4+)) cannot coexist either
+        for other in cations:
+            if other.ion.ion_id in reductants and other.ion.element != c.ion.element:
+                e_other, other_couple = reductants[other.ion.ion_id]
+                e_cation, cation_couple = couples.get("") or (math.nan, "")
+                if e_cation - e_other > REDOX_MARGIN_V:
+                    out.append(
+                        f"{c.ion.ion_id} oxidises {other.ion.ion_id}: E0({cation_couple}) = {e_cation:g} V exceeds"
+                        f" E0({other_couple}) = {e_other:g} V by more than {REDOX_MARGIN_V:g} V"
+                        " (standard potentials, scorer/data/redox_potentials.csv)"
+                    )
+        for a in anions:
+            if a.ion.ion_id not in reductants:
+                continue
+            e_anion, anion_couple = reductants[a.ion.ion_id]
+            e_cation, cation_couple = couples.get(a.ion.ion_id) or couples.get("") or (math.nan, "")
+            if e_cation - e_anion > REDOX_MARGIN_V:
+                out.append(
+                    f"{c.ion.ion_id} oxidises {a.ion.ion_id}: E0({cation_couple}) = {e_cation:g} V exceeds"
+                    f" E0({anion_couple}) = {e_anion:g} V by more than {REDOX_MARGIN_V:g} V"
+                    " (standard potentials, scorer/data/redox_potentials.csv)"
+                )
+    return tuple(out)
+
+
+# --- metals with metals, borides, silicides ----------------------------------------
+
+
+def _group_valence(symbol: str) -> int | None:
+    element = get_element(symbol)
+    if element.block == "s" and symbol not in ("H", "He"):
+        return int(element.group)
+    return None
+
+
+def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tuple = ()) -> Decomposition | None:
+    """The reading of metals with each other or with B, Si, Ge; None for
+    other compositions (which the ion solver reads).
+
+    * A structural family of the table decides first (MgB2 is a metal).
+    * Zintl phase: s-block metals and one p-block element (or gold) that
+      takes all their valence electrons as an integer charge between -1 and
+      -4 (-1 for gold): NaTl = Na(+) Tl(-), KGe = K(+) Ge(-), Mg2Si =
+      2 Mg(2+) Si(4-), CsAu = Cs(+) Au(-).
+    * Otherwise, with two or more elements in whole-number ratio, an
+      intermetallic (Cu3Au, Fe2B, FeSi); non-integer counts are a metallic
+      solid solution. Neither has ions; oxidation states are 0.
+
+    >>> d = metal_rich_reading({"Na": 1.0, "Tl": 1.0})
+    >>> d.substance_class, [t.ion.ion_id for t in d.cations + d.anions]
+    ('zintl_phase', ['Na(+)', 'Tl(-)'])
+    >>> metal_rich_reading({"Fe": 2.0, "B": 1.0}).substance_class
+    'intermetallic'
+    """
+    symbols = set(counts)
+    if len(symbols) < 2 or not any(is_metal(s) for s in symbols):
+        return None
+    if not all(is_metal(s) or s in METAL_RICH_PARTNERS for s in symbols):
+        return None
+    base = dict(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral)
+    family = structural_family(counts)
+    if family is not None:
+        return Decomposition(
+            **base, oxidation_states=tuple((s, 0.0) for s in counts), substance_class=family["substance_class"],
+            ionic_model=family["ionic_model"],
+            ionic_model_reasons=(f"known structure: {family['structure']} ({family['source']})",),
+        )
+    donors = {s: _group_valence(s) for s in symbols}
+    acceptors = [s for s, v in donors.items() if v is None]
+    if len(acceptors) == 1 and len(symbols) >= 2:
+        b = acceptors[0]
+        element = get_element(b)
+        electrons = sum(donors[s] * counts[s] for s in symbols if s != b)
+        charge = -electrons / counts[b]
+        fits = abs(charge - round(charge)) < 1e-9 and (
+            (b == "Au" and round(charge) == -1) or (element.block == _ZINTL_ANION_BLOCK and -4 <= round(charge) <= -1)
+        )
+        if fits:
+            q = int(round(charge))
+            cations = tuple(IonTerm(monatomic_ion(s, donors[s]), counts[s]) for s in counts if s != b)
+            anions = (IonTerm(monatomic_ion(b, q), counts[b]),)
+            return Decomposition(
+                **base, cations=cations, anions=anions,
+                oxidation_states=tuple((s, float(donors[s]) if s != b else float(q)) for s in counts),
+                substance_class="zintl_phase", ionic_model="not_applicable",
+                ionic_model_reasons=(
+                    f"Zintl-Klemm: the s-block metals give their valence electrons to {b}, which takes"
+                    f" {-q} per atom ({b}({-q if q < -1 else ''}-) is isoelectronic with group"
+                    f" {element.group - q if element.group and element.group <= 18 else '?'} elements and bonds"
+                    " covalently to its own kind); a polar intermetallic, not a point-ion crystal"
+                    " (Zintl 1939; Nesper, Angew. Chem. Int. Ed. 1991, 30, 789; Jansen, Chem. Soc. Rev. 2008, 37, 1826"
+                    " for aurides)",
+                ),
+            )
+    whole = all(abs(n - round(n)) < 1e-9 for n in counts.values())
+    cls = "intermetallic" if whole else "metallic"
+    reason = (
+        "metals (with B, Si or Ge) in whole-number ratio and no Zintl reading: an intermetallic compound"
+        " held by metallic bonding, without ions"
+        if whole else "metals in non-integer ratio: a metallic solid solution, without ions"
+    )
+    return Decomposition(
+        **base, oxidation_states=tuple((s, 0.0) for s in counts), substance_class=cls,
+        ionic_model="not_applicable", ionic_model_reasons=(reason,),
+    )
+
+
+# --- the decision -----------------------------------------------------------------
+
+
+def _counts(dec: Decomposition) -> dict[str, float]:
+    return dict(dec.composition)
+
+
+def _bare_cation_charge(dec: Decomposition) -> int:
+    return max((t.ion.charge for t in dec.cations if t.ion.monatomic), default=0)
+
+
+_FAMILY_REASON = "known structure: "
+
+
+def family_decided(dec: Decomposition) -> bool:
+    """Whether the structural-family table made ``dec`` molecular or a chain or
+    layer solid (whose hydrates are salts of the aqua ion instead)."""
+    return dec.substance_class in ("covalent_molecular", "chain_layer_solid") and any(
+        r.startswith(_FAMILY_REASON) for r in dec.ionic_model_reasons
+    )
+
+
+def _assess_salt(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[str]]:
+    """(substance_class, ionic_model, reasons) of an ionic-salt reading."""
+    family = structural_family(_counts(dec))
+    if family is None:
+        return _criteria(dec)
+    if not hydrated:
+        return family["substance_class"], family["ionic_model"], [
+            f"{_FAMILY_REASON}{family['structure']} ({family['source']})"
+        ]
+    cls, model, reasons = _criteria(dec)
+    return cls, model, [
+        f"a hydrate: the anhydrous solid is {family['substance_class'].replace('_', ' ')} ({family['structure']});"
+        " its hydrates are salts of the aqua ion, such as [Al(H2O)6]Cl3 (Greenwood & Earnshaw, 2nd ed., 1997;"
+        " from memory)",
+        *reasons,
+    ]
+
+
+def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
+    """The general criteria of an ionic-salt reading, after the family table."""
+    counts = _counts(dec)
+    f_i, source = _phillips().get(reduced_key(counts), (math.nan, ""))
+    if not math.isnan(f_i):
+        if f_i >= PHILLIPS_CRITICAL_IONICITY:
+            return "ionic_salt", "applies", [
+                f"Phillips ionicity f_i = {f_i:g} >= {PHILLIPS_CRITICAL_IONICITY} (critical): six-fold"
+                f" coordination, ionic ({source})"
+            ]
+        anion = dec.anions[0].ion.element if len(dec.anions) == 1 else None
+        group_i_vii = any(get_element(t.ion.element).group == 11 for t in dec.cations if t.ion.element)
+        cls = "ionic_salt" if group_i_vii or anion == "O" else "semiconductor"
+        model = "strained" if f_i >= STRAINED_MIN_IONICITY else "not_applicable"
+        return cls, model, [
+            f"Phillips ionicity f_i = {f_i:g} < {PHILLIPS_CRITICAL_IONICITY} (critical): tetrahedral, covalent"
+            f" sp3 bonds ({source}); ionic values {'strained' if model == 'strained' else 'not meaningful'}"
+            f" (f_i {'>=' if model == 'strained' else '<'} {STRAINED_MIN_IONICITY}, common practice)"
+        ]
+    charge = _bare_cation_charge(dec)
+    anion_elements = {t.ion.element for t in dec.anions}
+    if charge >= 5 and anion_elements == {"O"} and all(t.ion.monatomic for t in dec.anions) and len(dec.cations) == 1:
+        # the layered and chain oxides (V2O5, MoO3, CrO3) are rows of the family table
+        return "covalent_network", "not_applicable", [
+            f"a bare {dec.cations[0].ion.ion_id} would need ionisation energies no oxide lattice returns: the"
+            " oxide is a framework of polar covalent M-O bonds (WO3 and Nb2O5: corner-sharing MO6 octahedra;"
+            " Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 12; from memory)"
+        ]
+    bond = character.analyse(dec)
+    risk = fajans.analyse(dec).covalency_risk
+    where = (
+        f"van Arkel-Ketelaar triangle at the contact: dchi = {bond.delta_chi_pauling:.2f}, mean chi ="
+        f" {bond.mean_chi_pauling:.2f} -> {bond.bond_type}; Fajans covalency risk {risk}"
+    )
+    if charge == 4:
+        return "ionic_salt", "strained", [
+            f"a bare 4+ cation ({', '.join(t.ion.ion_id for t in dec.cations if t.ion.charge == 4)}) polarises its"
+            " neighbours strongly: considerable covalency (common practice)", where,
+        ]
+    if bond.bond_type == "ionic":
+        return "ionic_salt", "applies", [where + ": ionic region"]
+    if bond.bond_type == "ionic_covalent":
+        if risk == "high":
+            return "ionic_salt", "strained", [where + ": polar covalent region with high polarisation"]
+        return "ionic_salt", "applies", [where + ": polar region, polarisation not high"]
+    if bond.bond_type == "metallic_ionic":
+        groups = {get_element(t.ion.element).group for t in dec.anions if t.ion.monatomic}
+        if groups and all(g is not None and 13 <= g <= 15 for g in groups) and len(groups) == len(dec.anions):
+            return "zintl_phase", "not_applicable", [
+                where + ": metallic-ionic region with a group 13-15 anion (Zintl-like, polar intermetallic)"
+            ]
+        # chalcogenides and halides of the alkali metals (K2Te) stay salts: the
+        # triangle's metallic-ionic band reflects the heavy anion's low chi
+        return "ionic_salt", "applies", [where + ": metallic-ionic band, but a chalcogenide or halide anion"]
+    if bond.bond_type is None:
+        return "ionic_salt", "applies", ["no electronegativity at the contact: ionic reading kept"]
+    return "ionic_salt", "strained", [where + ": outside the ionic and polar regions"]
+
+
+def _assess(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[str]]:
+    cls = dec.substance_class
+    if cls == "ionic_salt":
+        return _assess_salt(dec, hydrated)
+    if cls == "ionic_liquid_pair":
+        return cls, "applies", ["organic cation with an anion: an ionic liquid or organic salt"]
+    if cls == "base" and any(t.ion.monatomic and is_metal(t.ion.element) for t in dec.cations):
+        return cls, "applies", ["a metal hydroxide: cations and OH(-) ions"]
+    if cls == "ion":
+        return cls, "not_applicable", ["a lone ion: there is no lattice"]
+    if cls == "semiconductor" or (cls == "covalent_network" and len(dec.composition) == 1
+                                  and dec.composition[0][0] in ("Si", "Ge")):
+        return "semiconductor", "not_applicable", [
+            f"Phillips ionicity f_i = 0 (an element: covalent sp3 bonds; Phillips, Rev. Mod. Phys. 1970, 42, 317)"
+        ]
+    why = {
+        "acid": "an acid: a molecular substance, not an ionic crystal",
+        "base": "no metal cation: a molecular base",
+        "covalent_molecular": "a covalent molecule",
+        "covalent_network": "a covalent network",
+        "metallic": "a metal",
+        "element": "an element",
+        "unknown": "no reading was found",
+    }.get(cls, cls.replace("_", " "))
+    return cls, "not_applicable", [why]
+
+
+def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
+    """The decomposition with its ``ionic_model``, its reasons and, where the
+    criteria say so, its substance class; ions dropped where the compound
+    has none (see the module docstring). ``hydrated``: the formula carries
+    lattice water, so a molecular anhydrous solid of the family table is read
+    as the salt of the aqua ion its hydrate is.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [(decompose(parse_formula(f)).substance_class, decompose(parse_formula(f)).ionic_model)
+    ...  for f in ("NaCl", "AgI", "GaAs", "Al2Cl6")]
+    [('ionic_salt', 'applies'), ('ionic_salt', 'strained'), ('semiconductor', 'not_applicable'), ('covalent_molecular', 'not_applicable')]
+    """
+    if dec.substance_class in ("zintl_phase", "intermetallic") or (
+        dec.substance_class == "metallic" and dec.ionic_model_reasons
+    ):
+        return dec  # decided by metal_rich_reading
+    cls, model, reasons = _assess(dec, hydrated)
+    # reasons given while reading (a redox conflict resolved) come first
+    reasons = list(dec.ionic_model_reasons) + reasons
+    changes: dict = dict(substance_class=cls, ionic_model=model, ionic_model_reasons=tuple(reasons))
+    if model == "not_applicable" and cls in _IONLESS_CLASSES and dec.is_ionic:
+        counts = _counts(dec)
+        changes.update(
+            cations=(), anions=(), alternatives=(),
+            oxidation_states=_in_order(formal_oxidation_states(counts), dec.oxidation_states)
+            if len(counts) > 1 else dec.oxidation_states,
+        )
+        reasons.append("formal ions dropped; oxidation states by electronegativity")
+        changes["ionic_model_reasons"] = tuple(reasons)
+    return dataclasses.replace(dec, **changes)
+
+
+def _in_order(states, previous):
+    """``states`` in the element order of ``previous`` (cations first, as the ions were)."""
+    order = {symbol: i for i, (symbol, _) in enumerate(previous)}
+    return tuple(sorted(states, key=lambda item: order.get(item[0], len(order))))
+
+
+# --- the descriptor ---------------------------------------------------------------
+
+ApplicabilityValues = result_class("ApplicabilityValues", COLUMNS, "Whether the ionic model applies.")
+
+
+@protocol(title="Ionic model:", columns=COLUMNS, result=ApplicabilityValues, failure="ionic model not computed")
+def analyse(dec: Decomposition) -> ApplicabilityValues:
+    """The ``ionic_model`` column with its reasons as explain steps; a strained
+    compound gets a value note (the values are given, with this caveat)."""
+    model, reasons = dec.ionic_model, tuple(dec.ionic_model_reasons)
+    if not reasons:
+        # a decomposition built by hand, not by the solver: decide here
+        _, model, assessed = _assess(dec)
+        reasons = tuple(assessed)
+    notes: tuple[str, ...] = ()
+    if model == "strained":
+        notes = ("ionic model strained (" + "; ".join(reasons)
+                 + "): ionic values are estimates for a partly covalent solid",)
+    steps = reasons + (f"ionic_model = {model} ({dec.substance_class})",)
+    return ApplicabilityValues(ionic_model=model, notes=notes, steps=steps)
+
+
+describe = analyse.describe
+explain = analyse.explain
