@@ -71,6 +71,7 @@ from ionicity.scorer.structure_type import (
     structure_prototypes,
 )
 from ionicity.scorer.tables import table
+from ionicity.scorer.thermochemistry import CYCLE_METHOD, cycle_lattice_energy_kJ_mol
 
 __all__ = [
     "COLUMNS",
@@ -104,11 +105,11 @@ _SOURCE_VBT = "Jenkins, Roobottom, Passmore, Glasser, Inorg. Chem. 1999, 38, 360
 _SOURCE_BMH = "Mayer, J. Chem. Phys. 1933, 1, 270; Tosi & Fumi, J. Phys. Chem. Solids 1964, 25, 45"
 
 BEST_METHOD_RULE = (
-    "first that applies: Born-Mayer-Huggins (alkali halides: Mayer's C and D, measured distance);"
-    " Kapustinskii as published (Goldschmidt and thermochemical radii); Glasser-Jenkins VBT;"
-    " chosen on the calibration salts of tests/data/lattice_reference.csv, where Kapustinskii had the smallest"
-    " median error outside the alkali halides (Born-Mayer with measured distances next); a guessed structure"
-    " never feeds it"
+    "first that applies: the thermochemical cycle (Ag, Cu(I), Tl(I) halides with tabulated enthalpies);"
+    " Born-Mayer-Huggins (alkali halides: Mayer's C and D, measured distance); Kapustinskii as published"
+    " (Goldschmidt and thermochemical radii); Glasser-Jenkins VBT. Chosen on the calibration salts of"
+    " tests/data/lattice_reference.csv, where Kapustinskii had the smallest median error outside the alkali"
+    " halides (Born-Mayer with measured distances next); a guessed structure never feeds it"
 )
 
 COLUMNS: tuple[Column, ...] = (
@@ -147,6 +148,12 @@ COLUMNS: tuple[Column, ...] = (
         "born_mayer_huggins_lattice_energy_kJ_mol", _SOURCE_BMH,
     ),
     Column(
+        "lattice_energy_cycle_kJ_mol", "float64", "kJ/mol",
+        "lattice potential energy from the " + CYCLE_METHOD + "; silver, copper(I) and thallium(I) halides,"
+        " whose covalency the point-charge estimates miss (a cycle, not a model)",
+        "cycle_lattice_energy_kJ_mol", "Wagman et al., J. Phys. Chem. Ref. Data 1982, 11, suppl. 2; Born 1919; Haber 1919",
+    ),
+    Column(
         "lattice_energy_best_kJ_mol", "float64", "kJ/mol",
         "the lattice potential energy of the method named in lattice_energy_best_method, chosen per compound: "
         + BEST_METHOD_RULE,
@@ -154,7 +161,8 @@ COLUMNS: tuple[Column, ...] = (
     ),
     Column(
         "lattice_energy_best_method", "string", "",
-        "which method lattice_energy_best_kJ_mol comes from: born_mayer_huggins, kapustinskii or vbt;"
+        "which method lattice_energy_best_kJ_mol comes from: thermochemical_cycle, born_mayer_huggins,"
+        " kapustinskii or vbt;"
         " empty when none",
         "BEST_METHOD_RULE", "this project",
     ),
@@ -423,6 +431,7 @@ _BMH_TEXT = (
 def _best(values: dict, terms: _StructureTerms) -> tuple[str, float]:
     """The best estimate by :data:`BEST_METHOD_RULE` (which method, value)."""
     for key, name in (
+        ("lattice_energy_cycle_kJ_mol", "thermochemical_cycle"),
         ("lattice_energy_born_mayer_huggins_kJ_mol", "born_mayer_huggins"),
         ("lattice_energy_kapustinskii_kJ_mol", "kapustinskii"),
         ("lattice_energy_vbt_kJ_mol", "vbt"),
@@ -534,6 +543,16 @@ def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_
             lines.append(
                 f"Born-Mayer-Huggins: {_BMH_TEXT}; {prefix}, C = {c6:g}e-60 erg cm^6, D = {d8:g}e-76 erg cm^8"
                 f" (Mayer 1933) -> {u_bmh:.0f} kJ/mol"
+            )
+
+    if binary:
+        u_cycle, cycle_text = cycle_lattice_energy_kJ_mol(cations[0].ion, anions[0].ion, cations[0].count, anions[0].count)
+        if not math.isnan(u_cycle):
+            values["lattice_energy_cycle_kJ_mol"] = u_cycle
+            lines.append(f"thermochemical cycle: {cycle_text}")
+            notes.append(
+                "the point-charge estimates (Kapustinskii, VBT, Born) miss this salt's covalency and run 12-27 % low"
+                " for the Ag, Cu(I) and Tl(I) halides; lattice_energy_best_kJ_mol is its thermochemical cycle"
             )
 
     best_method, best = _best(values, terms)

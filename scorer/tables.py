@@ -68,6 +68,14 @@ TABLES: dict[str, TableSpec] = {
              "nn_distance_pm", "source"),
             "scorer.structure_type",
         ),
+        TableSpec(
+            "formation_enthalpies.csv",
+            ("cation_id", "anion_id", "compound", "enthalpy_of_formation_kJ_mol", "source"),
+            "scorer.thermochemistry",
+        ),
+        TableSpec(
+            "atomisation_enthalpies.csv", ("symbol", "atomisation_enthalpy_kJ_mol", "source"), "scorer.thermochemistry"
+        ),
         TableSpec("goldschmidt_radii.csv", ("ion_id", "radius_pm", "source"), "scorer.radii"),
         TableSpec(
             "dispersion_coefficients.csv",

@@ -29,6 +29,8 @@ ROWS = {
     "madelung_prototypes.csv": 16,
     "goldschmidt_radii.csv": 41,
     "dispersion_coefficients.csv": 20,
+    "formation_enthalpies.csv": 11,
+    "atomisation_enthalpies.csv": 7,
 }
 
 
