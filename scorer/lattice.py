@@ -559,7 +559,10 @@ def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_
     if best_method:
         values["lattice_energy_best_kJ_mol"] = best
         values["lattice_energy_best_method"] = best_method
-        lines.append(f"best estimate: {best_method} = {best:.0f} kJ/mol ({BEST_METHOD_RULE})")
+        lines.append(
+            f"best estimate: {best_method} = {best:.0f} kJ/mol (the first that applies of thermochemical cycle,"
+            " Born-Mayer-Huggins, Kapustinskii, VBT; ionicity columns gives the rule)"
+        )
     return LatticeEnergies(**values, notes=tuple(notes), steps=tuple(lines))
 
 
