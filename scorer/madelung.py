@@ -255,9 +255,10 @@ def _cation_anion_distances(structure: CrystalStructure) -> tuple[float, float]:
     shortest = float(per_cation[:, 0].min())
     shell = structure.cation_coordination
     if shell is None:
-        # Without a stated coordination, the first shell is every anion within
-        # 20 % of the shortest distance (common practice for distorted polyhedra).
-        shell_means = [row[row <= 1.2 * shortest].mean() for row in per_cation]
+        # Without a stated coordination, a cation's first shell is every anion
+        # within 20 % of its own shortest distance (common practice for distorted
+        # polyhedra; per cation, so the large A site of a perovskite keeps its 12).
+        shell_means = [row[row <= 1.2 * row[0]].mean() for row in per_cation]
     else:
         shell_means = per_cation[:, :shell].mean(axis=1)
     return shortest, float(np.mean(shell_means))

@@ -54,6 +54,8 @@ from ionicity.scorer.tables import table
 __all__ = [
     "shannon_radius_pm",
     "ion_radius_pm",
+    "kapustinskii_radius_pm",
+    "goldschmidt_radii",
     "ion_volume_nm3",
     "sphere_volume_nm3",
     "sphere_radius_pm",
@@ -94,6 +96,12 @@ def sphere_radius_pm(volume_nm3):
 def thermochemical_radii() -> dict[str, tuple[float, str]]:
     """ion_id -> (thermochemical radius in pm, source), read once."""
     return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("thermochemical_radii.csv")}
+
+
+@once
+def goldschmidt_radii() -> dict[str, tuple[float, str]]:
+    """ion_id -> (Goldschmidt's ionic radius in pm, source), read once."""
+    return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("goldschmidt_radii.csv")}
 
 
 @once
@@ -240,9 +248,14 @@ def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[flo
     >>> ion_radius_pm(no3)[0]
     179.0
     """
-    if ion.element is not None:
-        return shannon_radius_pm(ion.element, ion.charge, coordination_number)
     table = thermochemical_radii()
+    if ion.element is not None:
+        radius, why = shannon_radius_pm(ion.element, ion.charge, coordination_number)
+        if math.isnan(radius) and ion.ion_id in table:
+            # Shannon lists no hydride radius; the thermochemical table does.
+            radius, source = table[ion.ion_id]
+            return radius, f"thermochemical radius of {ion.ion_id}: {source}"
+        return radius, why
     if ion.ion_id in table:
         radius, source = table[ion.ion_id]
         return radius, f"thermochemical radius of {ion.ion_id}: {source}"
@@ -253,6 +266,32 @@ def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[flo
     if math.isnan(volume):
         return math.nan, f"no thermochemical radius for {ion.ion_id} and no volume ({why})"
     return float(sphere_radius_pm(volume)), f"radius of a sphere of the ion's volume {volume:.4f} nm^3 ({why}); {ion.ion_id} has no tabulated thermochemical radius"
+
+
+@per_input(maxsize=4096)
+def kapustinskii_radius_pm(ion: Ion) -> tuple[float, str]:
+    """The radius Kapustinskii's equation takes, with where it came from.
+
+    Kapustinskii (Q. Rev. Chem. Soc. 1956, 10, 283) used Goldschmidt's radii
+    for monatomic ions (``scorer/data/goldschmidt_radii.csv``) and
+    thermochemical radii for polyatomic ones. A monatomic ion Goldschmidt did
+    not list takes :func:`ion_radius_pm` (Shannon CN VI), which the text says.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.model import Ion
+    >>> na = Ion("Na(+)", "Na", 1, (("Na", 1),), "monatomic", element="Na")
+    >>> kapustinskii_radius_pm(na)[0]
+    98.0
+    """
+    table = goldschmidt_radii()
+    if ion.ion_id in table:
+        radius, _ = table[ion.ion_id]
+        return radius, f"Goldschmidt radius of {ion.ion_id} (Kapustinskii's choice)"
+    radius, why = ion_radius_pm(ion)
+    if ion.element is not None and not math.isnan(radius):
+        why += f"; Goldschmidt lists no {ion.ion_id}"
+    return radius, why
 
 
 def ion_volume_nm3(ion: Ion) -> tuple[float, str]:
@@ -287,7 +326,7 @@ def ion_volume_nm3(ion: Ion) -> tuple[float, str]:
         volume, source = table[ion.ion_id]
         return volume, f"tabulated volume of {ion.ion_id}: {source}"
     if ion.element is not None:
-        radius, why = shannon_radius_pm(ion.element, ion.charge)
+        radius, why = ion_radius_pm(ion)
         if math.isnan(radius):
             return math.nan, why
         return float(sphere_volume_nm3(radius)), f"sphere of the {why}"

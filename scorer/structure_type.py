@@ -1,11 +1,13 @@
-"""Structure types of binary salts: the known prototype of a salt, else
-Pauling's radius-ratio guess, and the prototype's cell scaled to a salt.
+"""Structure types of salts: the measured structure of a compound, else
+Pauling's radius-ratio guess for a binary salt, and the measured cell.
 
-Known types come from ``scorer/data/structure_prototypes.csv``
-(``origin = "known"``); a salt not listed gets the radius-ratio rule on
-Shannon CN VI radii (``"guessed"``, which the lattice module turns into a
-warning); anything else has none (``"none"``). The prototypes themselves
-(geometry, Ewald sums) are :mod:`scorer.madelung`'s.
+Measured structures come from ``scorer/data/structure_prototypes.csv``: per
+compound its structure type, lattice parameters and the cation-anion
+first-shell distance, each row with its source (``origin = "measured"``).
+A binary salt not listed gets the radius-ratio rule on Shannon CN VI radii
+(``"guessed"``: a value note, and the best-estimate column does not use it);
+anything else has none (``"none"``). The prototypes themselves (geometry,
+Ewald sums) are :mod:`scorer.crystal`'s and :mod:`scorer.madelung`'s.
 """
 from __future__ import annotations
 
@@ -14,36 +16,93 @@ from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.crystal import prototype_structure
+from ionicity.scorer.crystal import prototype_structure, with_cell
+from ionicity.scorer.madelung import madelung_details
 from ionicity.scorer.model import Ion
 from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
 
 __all__ = [
+    "MeasuredStructure",
     "StructureAssignment",
     "structure_prototypes",
+    "measured_structure",
     "assign_structure_type",
     "charges_fit_prototype",
     "cell_volume",
+    "measured_cell_volume_A3",
 ]
 
 
+@dataclass(frozen=True)
+class MeasuredStructure:
+    """One row of the measured-structure table (lengths in pm)."""
+
+    compound: str
+    structure_type: str
+    a_pm: float
+    b_pm: float | None
+    c_pm: float | None
+    beta_deg: float | None
+    nn_distance_pm: float
+    source: str
+
+    @property
+    def volume_per_formula_unit_nm3(self) -> float:
+        """Cell volume from the lattice parameters over the prototype's formula units per cell."""
+        return measured_cell_volume_A3(self) / madelung_details(self.structure_type).formula_units * 1e-3
+
+
+def _ids(text: str) -> tuple[str, ...]:
+    return tuple(sorted(part for part in text.split(";") if part))
+
+
+def _optional(text: str) -> float | None:
+    return float(text) if text else None
+
+
 @once
-def structure_prototypes() -> dict[tuple[str, str], tuple[str, str]]:
-    """(cation_id, anion_id) -> (structure_type, source), read once."""
-    return {
-        (row["cation_id"], row["anion_id"]): (row["structure_type"], row["source"])
-        for row in table("structure_prototypes.csv")
-    }
+def structure_prototypes() -> dict[tuple[tuple[str, ...], tuple[str, ...]], MeasuredStructure]:
+    """(cation ids, anion ids) -> measured structure, read once.
+
+    Ion ids are sorted tuples (``("Al(3+)", "Mg(2+)")`` for spinel MgAl2O4).
+    """
+    out = {}
+    for row in table("structure_prototypes.csv"):
+        out[(_ids(row["cation_id"]), _ids(row["anion_id"]))] = MeasuredStructure(
+            compound=row["compound"],
+            structure_type=row["structure_type"],
+            a_pm=float(row["a_pm"]),
+            b_pm=_optional(row["b_pm"]),
+            c_pm=_optional(row["c_pm"]),
+            beta_deg=_optional(row["beta_deg"]),
+            nn_distance_pm=float(row["nn_distance_pm"]),
+            source=row["source"],
+        )
+    return out
+
+
+def measured_structure(cation_ids, anion_ids) -> MeasuredStructure | None:
+    """The measured structure of the salt of these ions, or None."""
+    return structure_prototypes().get((tuple(sorted(cation_ids)), tuple(sorted(anion_ids))))
+
+
+def measured_cell_volume_A3(row: MeasuredStructure) -> float:
+    """Volume of the measured cell in angstrom^3 (lattice parameters in pm)."""
+    def angstrom(x):
+        return None if x is None else x / 100.0
+    cell = with_cell(row.structure_type, row.a_pm / 100.0, angstrom(row.b_pm), angstrom(row.c_pm), row.beta_deg)
+    return abs(float(np.linalg.det(np.asarray(cell.lattice))))
 
 
 @dataclass(frozen=True)
 class StructureAssignment:
-    """The structure type of a binary salt and how it was found."""
+    """The structure type of a salt and how it was found."""
 
     structure_type: str | None
-    origin: str  # "known", "guessed" or "none"
+    origin: str  # "measured", "guessed" or "none"
     note: str
+    measured: MeasuredStructure | None = None
 
 
 # Pauling's limiting radius ratios (common practice): the lower bound of each
@@ -64,6 +123,7 @@ def _reduced_ratio(n_cation: float, n_anion: float) -> tuple[int, int] | None:
 
 
 def charges_fit_prototype(cation: Ion, anion: Ion, structure_type: str) -> bool:
+    """Whether a binary salt's charges are the prototype's, scaled as a whole."""
     s = prototype_structure(structure_type)
     qc = max(s.charges)
     qa = -min(s.charges)
@@ -74,25 +134,27 @@ def charges_fit_prototype(cation: Ion, anion: Ion, structure_type: str) -> bool:
 def assign_structure_type(cation: Ion, anion: Ion, n_cation: float, n_anion: float) -> StructureAssignment:
     """Structure type of the binary salt (cation)n_cation (anion)n_anion.
 
-    Known prototypes first (``scorer/data/structure_prototypes.csv``), then
+    Measured structures first (``scorer/data/structure_prototypes.csv``), then
     Pauling's radius-ratio rule on Shannon CN VI radii (common practice):
     for MX, r+/r- >= 0.732 caesium chloride, >= 0.414 rock salt, >= 0.225
     zinc blende; for MX2 >= 0.732 fluorite, >= 0.414 rutile; M2X anti-fluorite
     when r+/r- >= 0.225; M2X3 corundum when >= 0.414. Anything else: none.
     """
-    known = structure_prototypes().get((cation.ion_id, anion.ion_id))
+    known = measured_structure((cation.ion_id,), (anion.ion_id,))
     if known is not None:
-        structure_type, source = known
-        return StructureAssignment(structure_type, "known", f"structure type {structure_type}: {source}")
+        return StructureAssignment(
+            known.structure_type, "measured",
+            f"structure type {known.structure_type} (measured, {known.compound}): {known.source}", known,
+        )
     ratio = _reduced_ratio(n_cation, n_anion)
     if ratio not in _RADIUS_RATIO_RULES:
-        return StructureAssignment(None, "none", "no known structure type and no radius-ratio rule for this formula type")
+        return StructureAssignment(None, "none", "no measured structure and no radius-ratio rule for this formula type")
     if cation.element is None or anion.element is None:
-        return StructureAssignment(None, "none", "no known structure type; the radius-ratio rule needs monatomic ions")
+        return StructureAssignment(None, "none", "no measured structure; the radius-ratio rule needs monatomic ions")
     r_cation, _ = shannon_radius_pm(cation.element, cation.charge, 6)
     r_anion, _ = shannon_radius_pm(anion.element, anion.charge, 6)
     if math.isnan(r_cation) or math.isnan(r_anion):
-        return StructureAssignment(None, "none", "no known structure type and no Shannon radius for the radius ratio")
+        return StructureAssignment(None, "none", "no measured structure and no Shannon radius for the radius ratio")
     rho = r_cation / r_anion
     for lower, structure_type in _RADIUS_RATIO_RULES[ratio]:
         if rho >= lower and charges_fit_prototype(cation, anion, structure_type):
@@ -100,12 +162,11 @@ def assign_structure_type(cation: Ion, anion: Ion, n_cation: float, n_anion: flo
                 structure_type,
                 "guessed",
                 f"structure type {structure_type} guessed from the radius ratio r+/r- = {rho:.3f} "
-                "(Shannon CN VI radii; Pauling's limiting ratios, common practice): not a known structure",
+                "(Shannon CN VI radii; Pauling's limiting ratios, common practice): not a measured structure",
             )
     return StructureAssignment(
         None, "none", f"radius ratio r+/r- = {rho:.3f} fits none of the built-in prototypes for this formula type"
     )
-
 
 
 @once

@@ -63,7 +63,24 @@ TABLES: dict[str, TableSpec] = {
             "born_exponents.csv", ("configuration", "electrons", "born_exponent", "source"), "scorer.lattice"
         ),
         TableSpec(
-            "structure_prototypes.csv", ("cation_id", "anion_id", "structure_type", "source"), "scorer.structure_type"
+            "structure_prototypes.csv",
+            ("cation_id", "anion_id", "compound", "structure_type", "a_pm", "b_pm", "c_pm", "beta_deg",
+             "nn_distance_pm", "source"),
+            "scorer.structure_type",
+        ),
+        TableSpec(
+            "formation_enthalpies.csv",
+            ("cation_id", "anion_id", "compound", "enthalpy_of_formation_kJ_mol", "source"),
+            "scorer.thermochemistry",
+        ),
+        TableSpec(
+            "atomisation_enthalpies.csv", ("symbol", "atomisation_enthalpy_kJ_mol", "source"), "scorer.thermochemistry"
+        ),
+        TableSpec("goldschmidt_radii.csv", ("ion_id", "radius_pm", "source"), "scorer.radii"),
+        TableSpec(
+            "dispersion_coefficients.csv",
+            ("cation_id", "anion_id", "c_1e60_erg_cm6", "d_1e76_erg_cm8", "source"),
+            "scorer.lattice",
         ),
         TableSpec(
             "ion_shape.csv",

@@ -17,20 +17,24 @@ DATA = Path(resources.files("ionicity.scorer.data"))
 # Row counts as scorer/data/README.md states them (a table that grows must say so there too).
 ROWS = {
     "ions.csv": 237,
-    "thermochemical_radii.csv": 24,
+    "thermochemical_radii.csv": 25,
     "ion_volumes.csv": 23,
     "atomic_volumes.csv": 80,
     "ion_polarisabilities.csv": 24,
     "hsab_classes.csv": 108,
     "radical_hardness.csv": 4,
     "born_exponents.csv": 8,
-    "structure_prototypes.csv": 93,
+    "structure_prototypes.csv": 130,
     "ion_shape.csv": 72,
-    "madelung_prototypes.csv": 8,
+    "madelung_prototypes.csv": 16,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
     "fallback_radii.csv": 2,
     "redox_potentials.csv": 20,
+    "goldschmidt_radii.csv": 41,
+    "dispersion_coefficients.csv": 20,
+    "formation_enthalpies.csv": 11,
+    "atomisation_enthalpies.csv": 7,
 }
 
 

@@ -1,0 +1,114 @@
+"""Lattice energies against Born-Haber values: tests/data/lattice_reference.csv.
+
+Every row has a source (CRC Handbook "Lattice energies", Jenkins & Roobottom, Table 1, U_POT,
+from memory; spinel from Glasser & Jenkins 2000, from memory) and a set:
+
+* calibration (``set = calibration``): the Li, K and Cs halides, on which the Born-Mayer-Huggins
+  repulsion range BMH_RHO_PM was set, and the salts on which the best-method rule was chosen
+  (MgO, CaO, CaF2, BaF2, Li2O, Al2O3, NaNO3, CaCO3, AgF, CuBr, TlBr);
+* validation (``set = validation``): everything else, checked only. The figures in README.md are
+  validation figures.
+"""
+from __future__ import annotations
+
+import csv
+import math
+import statistics
+from pathlib import Path
+
+import pytest
+
+from ionicity.scorer.ions import get_ion
+from ionicity.scorer.lattice import describe
+from ionicity.scorer.model import Decomposition, IonTerm
+
+REFERENCE = Path(__file__).with_name("data") / "lattice_reference.csv"
+ROWS = list(csv.DictReader(REFERENCE.open(encoding="utf-8")))
+ALKALI_HALIDE = {"Li", "Na", "K", "Rb", "Cs"}, {"F", "Cl", "Br", "I"}
+
+
+def _terms(text):
+    return tuple(IonTerm(get_ion(p.split("*")[0]), float(p.split("*")[1])) for p in text.split(";"))
+
+
+def _values(row):
+    dec = Decomposition(cations=_terms(row["cations"]), anions=_terms(row["anions"]), substance_class="ionic_salt")
+    return describe(dec)[0]
+
+
+def _error_pct(row, column):
+    value = _values(row)[column]
+    return abs(value - float(row["u_kJ_mol"])) / float(row["u_kJ_mol"]) * 100.0
+
+
+def _is_alkali_halide(row):
+    metal = row["cations"].split("(")[0]
+    halogen = row["anions"].split("(")[0]
+    return metal in ALKALI_HALIDE[0] and halogen in ALKALI_HALIDE[1]
+
+
+def test_reference_table_is_split_and_sourced():
+    assert len(ROWS) == 74
+    assert {r["set"] for r in ROWS} == {"calibration", "validation"}
+    assert all(r["source"].strip() for r in ROWS)
+    assert sum(r["set"] == "validation" for r in ROWS) == 51
+
+
+def test_validation_alkali_halides_best_method_median_within_two_percent():
+    # Done-when of issue 12: median |error| of the best method at most 2 % (Na and Rb halides:
+    # validation; the Li, K and Cs halides set the repulsion range).
+    errors = [_error_pct(r, "lattice_energy_best_kJ_mol") for r in ROWS if _is_alkali_halide(r) and r["set"] == "validation"]
+    assert len(errors) == 8
+    assert statistics.median(errors) <= 2.0
+    assert all(_values(r)["lattice_energy_best_method"] == "born_mayer_huggins" for r in ROWS if _is_alkali_halide(r))
+
+
+def test_calibration_alkali_halides_are_the_ones_the_range_was_set_on():
+    errors = [_error_pct(r, "lattice_energy_best_kJ_mol") for r in ROWS if _is_alkali_halide(r) and r["set"] == "calibration"]
+    assert len(errors) == 12
+    assert statistics.median(errors) <= 1.0
+
+
+def test_validation_share_within_five_percent():
+    # Measured: 40 of the 51 validation salts (78 %) within 5 %; 33 of the 44 whose best value is a
+    # model, not the thermochemical cycle (75 %). Issue 12 asks 80 %: not met. The misses are
+    # Cu2O, Ag2O, PbO, PbCl2, CdO, CdCl2, CdI2, ZnS, ZnO and the alkali oxides Na2O, K2O (Kapustinskii
+    # high), salts of polarisable cations that no point-charge model describes well.
+    validation = [r for r in ROWS if r["set"] == "validation"]
+    within = [_error_pct(r, "lattice_energy_best_kJ_mol") <= 5.0 for r in validation]
+    assert sum(within) / len(within) >= 0.75
+    models = [r for r in validation if _values(r)["lattice_energy_best_method"] != "thermochemical_cycle"]
+    within_models = [_error_pct(r, "lattice_energy_best_kJ_mol") <= 5.0 for r in models]
+    assert len(models) == 44 and sum(within_models) / len(within_models) >= 0.72
+
+
+@pytest.mark.parametrize("name", ["AgCl", "AgBr", "CuCl", "AgI", "CuI", "TlCl", "TlI"])
+def test_coinage_and_thallium_halides_by_their_cycle(name):
+    # Issue 12: within 8 % for AgCl, AgBr, CuCl. The best value is the thermochemical cycle (NBS 1982
+    # enthalpies), which agrees with the CRC cycle values by construction: a data check, not a model
+    # check. The point-charge columns stay 12-27 % low, which the row's note says.
+    row = next(r for r in ROWS if r["compound"] == name)
+    values, notes = describe(
+        Decomposition(cations=_terms(row["cations"]), anions=_terms(row["anions"]), substance_class="ionic_salt")
+    )
+    assert values["lattice_energy_best_method"] == "thermochemical_cycle"
+    assert _error_pct(row, "lattice_energy_best_kJ_mol") <= 1.0
+    for column in ("lattice_energy_kapustinskii_kJ_mol", "lattice_energy_born_mayer_kJ_mol"):
+        assert values[column] < 0.9 * float(row["u_kJ_mol"]), column
+    assert any("covalency" in n for n in notes)
+
+
+def test_oxides_born_mayer_with_measured_distances():
+    # Validation 2:2 oxides of the rock-salt type: Born-Mayer with the measured distance within 4 %.
+    for name in ("SrO", "BaO", "MnO", "FeO", "CoO", "NiO"):
+        row = next(r for r in ROWS if r["compound"] == name)
+        assert _error_pct(row, "lattice_energy_born_mayer_kJ_mol") <= 4.0, name
+
+
+def test_hydrides_get_values():
+    # Issue 12: LiH, NaH, CaH2 had no lattice value at all.
+    for name in ("LiH", "NaH", "KH", "CaH2"):
+        row = next(r for r in ROWS if r["compound"] == name)
+        values = _values(row)
+        assert math.isfinite(values["lattice_energy_best_kJ_mol"]), name
+        assert _error_pct(row, "lattice_energy_kapustinskii_kJ_mol") <= 5.0, name
