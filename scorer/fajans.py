@@ -394,22 +394,14 @@ def anion_polarisability_A3(ion: Ion) -> tuple[float, str, bool]:
     ), True
 
 
-@once
-def _fallback_radii() -> dict[str, tuple[float, str]]:
-    return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("fallback_radii.csv")}
-
-
 def _radius(ion: Ion) -> tuple[float, str]:
-    """Radius from scorer.radii; where it has none, a cation of
-    ``fallback_radii.csv`` (Sn(2+): Ahrens 1952) or, for an anion (H-, As3-,
-    Si4-), the sphere of the ion's volume."""
+    """Radius from scorer.radii (which falls back to ``fallback_radii.csv``
+    for cations Shannon lacks, Sn(2+)); where it has none, for an anion (H-,
+    As3-, Si4-), the sphere of the ion's volume."""
     radius, why = ion_radius_pm(ion)
     if radius is not None and not math.isnan(radius) and radius > 0:
         return float(radius), why
     if ion.charge > 0:
-        if ion.ion_id in _fallback_radii():
-            value, source = _fallback_radii()[ion.ion_id]
-            return value, f"{ion.ion_id}: {value:g} pm, fallback radius ({source})"
         return math.nan, why
     volume_nm3, vwhy = _anion_volume_nm3(ion)
     if math.isnan(volume_nm3):

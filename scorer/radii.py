@@ -99,6 +99,13 @@ def thermochemical_radii() -> dict[str, tuple[float, str]]:
 
 
 @once
+def fallback_radii() -> dict[str, tuple[float, str]]:
+    """Radii of cations Shannon (1976) does not list, from older tables
+    (``scorer/data/fallback_radii.csv``, a source per row)."""
+    return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("fallback_radii.csv")}
+
+
+@once
 def goldschmidt_radii() -> dict[str, tuple[float, str]]:
     """ion_id -> (Goldschmidt's ionic radius in pm, source), read once."""
     return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("goldschmidt_radii.csv")}
@@ -255,6 +262,10 @@ def ion_radius_pm(ion: Ion, coordination_number: int | None = None) -> tuple[flo
             # Shannon lists no hydride radius; the thermochemical table does.
             radius, source = table[ion.ion_id]
             return radius, f"thermochemical radius of {ion.ion_id}: {source}"
+        if math.isnan(radius) and ion.ion_id in fallback_radii():
+            # Shannon lists no Sn(2+): an older table's value, said in the reason
+            radius, source = fallback_radii()[ion.ion_id]
+            return radius, f"{ion.ion_id}: {radius:g} pm, fallback radius ({source})"
         return radius, why
     if ion.ion_id in table:
         radius, source = table[ion.ion_id]

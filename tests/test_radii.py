@@ -145,3 +145,18 @@ def test_table_ion_ids_are_library_ions():
     ions = pytest.importorskip("ionicity.scorer.ions")
     for ion_id in list(thermochemical_radii()) + list(tabulated_ion_volumes()):
         assert ions.get_ion(ion_id).ion_id == ion_id
+
+
+def test_a_cation_shannon_does_not_list_takes_the_fallback_table_with_its_source_named():
+    # Shannon (Acta Cryst. 1976, A32, 751) lists no Sn(2+); the fallback table
+    # gives Ahrens' radius (Geochim. Cosmochim. Acta 1952, 2, 155; from memory)
+    from ionicity.scorer.model import Ion
+    from ionicity.scorer.radii import ion_radius_pm
+    from ionicity.scorer.record import score_formula
+
+    sn = Ion("Sn(2+)", "Sn", 2, (("Sn", 1),), "monatomic", element="Sn")
+    radius, why = ion_radius_pm(sn)
+    assert radius == 93.0 and "fallback radius" in why and "Ahrens" in why
+    # so that no value silently disappears for tin(II) salts
+    for formula in ("SnCl2", "SnSO4", "SnF2"):
+        assert score_formula(formula)["lattice_energy_kapustinskii_kJ_mol"] > 0
