@@ -31,8 +31,10 @@ BASE_COLUMNS: tuple[Column, ...] = (
     Column(
         "formula_normalized", "string", "",
         "the parsed formula written canonically: ions in order (cations, then anions) for ionic entries,"
-        " Hill order otherwise; lattice water as ·nH2O; a lone ion's charge as ^2-",
-        _PARSER, "Hill, J. Am. Chem. Soc. 1900, 22, 478 (Hill order); IUPAC Red Book 2005, IR-4 (ion order)",
+        " otherwise IUPAC order without carbon (electropositive element first: TiCl4, SiO2, SF6) and Hill order"
+        " for carbon compounds (CCl4, C6H12O6); lattice water as ·nH2O; a lone ion's charge as ^2-",
+        _PARSER, "Hill, J. Am. Chem. Soc. 1900, 22, 478 (Hill order); IUPAC Red Book 2005, IR-4 (ion order),"
+        " IR-4.4.2.1 and Table VI (element sequence)",
     ),
     Column(
         "substance_class", "string", "",
