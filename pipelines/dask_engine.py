@@ -20,7 +20,7 @@ the run ends.
 
 Dask and distributed are imported only when this engine runs (0.9 to 1.8 s,
 ``python -X importtime``, on the shared machine), so the local engine never
-pays for them; install them with ``pip install ionicity[dask]``.
+pays for them; install them with ``pip install "ionicity[dask]"`` (from a clone: ``pip install -e ".[dask]"``).
 """
 from __future__ import annotations
 
@@ -32,7 +32,7 @@ import pyarrow as pa
 import pyarrow.compute as pc
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
-from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.errors import InputError, install_hint
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.local_engine import prepare
 from ionicity.pipelines.model_step import load_model_applier
@@ -127,7 +127,7 @@ def _import_dask():
         import distributed
         import distributed.diagnostics.plugin  # noqa: F401 - for WorkerPlugin
     except ImportError:
-        raise InputError("--engine dask needs dask and distributed: pip install 'ionicity[dask]'") from None
+        raise InputError("--engine dask needs dask and distributed: " + install_hint("dask", "dask distributed")) from None
     return dask, dd, distributed
 
 
