@@ -12,8 +12,9 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import ARROW_TYPES, int_array, int_numpy, string_array, values_array
+from ionicity.pipelines.arrow_columns import ARROW_TYPES, float_array, int_array, int_numpy, string_array, values_array
 from ionicity.scorer.columns import output_columns
+from ionicity.scorer.precision import round_significant_array
 
 __all__ = ["FormulaCache"]
 
@@ -44,6 +45,9 @@ class FormulaCache:
             for c, text in zip(columns, self._text)
         ]
         self._pending: list[tuple] = []
+        #: per column, the significant digits its float values are rounded to
+        #: as they enter the cache (``set_output_digits``); None keeps every digit
+        self._digits: list = [None] * len(columns)
         # empty arrays made without converting Python values: pyarrow imports
         # pandas on its first such conversion, which need not delay the
         # first batch (a large run converts later, while the workers score)
@@ -51,6 +55,12 @@ class FormulaCache:
         self._pending_keys: list = []
         # per row, the token of the last scorer that counted it (first_seen)
         self._marks = np.zeros(0, dtype=np.int64)
+
+    def set_output_digits(self) -> None:
+        """Round each float column to its declared ``Column.digits`` from now
+        on (output files; rounding the cache costs once per distinct formula,
+        not once per row). Call before the first record is added."""
+        self._digits = [c.digits if c.dtype == "float64" else None for c in output_columns()]
 
     def __len__(self) -> int:
         return len(self.index)
@@ -99,8 +109,9 @@ class FormulaCache:
             self._pending = []
             self._arrays = [
                 self._append_text(old, values) if text
-                else pa.concat_arrays([old, values_array(values, old.type)])
-                for old, text, values in zip(self._arrays, self._text, by_column)
+                else pa.concat_arrays([old, values_array(values, old.type) if digits is None
+                                       else float_array(round_significant_array(values, digits))])
+                for old, text, values, digits in zip(self._arrays, self._text, by_column, self._digits)
             ]
         return self._arrays
 

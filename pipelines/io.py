@@ -1,9 +1,14 @@
-"""Streaming table I/O: read CSV, TSV or Parquet in row batches; write batch by
-batch to a temporary file that is renamed into place only when complete.
+"""Streaming table I/O: read CSV, TSV, Parquet or ``.xlsx`` in row batches;
+write batch by batch to a temporary file that is renamed into place only when
+complete.
 
 Input cells pass through unchanged: CSV and TSV columns are read as text
-(nothing is inferred, so ``007`` stays ``007`` and an empty cell stays
-empty), Parquet columns keep their types.
+(so ``007`` stays ``007`` and an empty cell stays empty), Parquet columns
+keep their types. The reader also infers, from the first rows, which text
+columns hold numbers or booleans (``TableReader.column_types``); an engine
+writing a typed output applies them (:mod:`ionicity.pipelines.column_types`).
+A CSV's delimiter (comma, semicolon or tab) is found from its header line
+unless given; ``encoding`` reads Latin-1 and Windows-1252 text.
 
 Where outputs go, what they may replace and what is kept beside them:
 :mod:`ionicity.pipelines.output_paths`.
@@ -26,6 +31,7 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity.pipelines.column_types import infer_types
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
 
@@ -38,7 +44,11 @@ __all__ = [
     "FORMATS",
 ]
 
-FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet"}
+FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet",
+           ".xlsx": "xlsx"}
+#: --encoding: the codec names accepted (Python's spelling after codecs.lookup)
+ENCODINGS = {"utf-8": "utf-8", "iso8859-1": "latin-1", "cp1252": "cp1252"}
+
 _BLOCK_SIZE = 1 << 22
 # the header is read from this much of the input before the streaming reader
 # starts, so that stdin can be replayed and bad encodings caught before any
@@ -62,7 +72,7 @@ def format_of(path: str) -> str:
         return FORMATS[suffix]
     if any(ch in path for ch in "*?["):
         return "parquet"
-    raise InputError(f"cannot tell the format of {path!r} from its extension; use .csv, .tsv or .parquet")
+    raise InputError(f"cannot tell the format of {path!r} from its extension; use .csv, .tsv, .parquet or .xlsx")
 
 
 # --------------------------------------------------------------------------- reading
@@ -88,6 +98,11 @@ class TableReader:
     #: their distinct values are known without hashing every row; set before
     #: the first batch is taken. Other formats ignore it.
     read_dictionary: tuple[str, ...] = ()
+    #: text columns whose first rows all hold numbers or booleans, with that
+    #: type (CSV, TSV and .xlsx inputs; :func:`~ionicity.pipelines.column_types.infer_types`)
+    column_types: dict = field(default_factory=dict)
+    #: the CSV delimiter used (found or given)
+    delimiter: str = ","
 
 
 class _CountingStream(io.RawIOBase):
@@ -137,14 +152,76 @@ def _read_head(raw) -> bytes:
     return b"".join(chunks)
 
 
-def _encoding_problem(head: bytes, complete: bool) -> str | None:
-    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)) or b"\x00" in head[:4096]:
-        return "looks like UTF-16 or binary, not UTF-8 text; re-save it as UTF-8 CSV"
+_ENCODING_HINT = {
+    "utf-8": "pass --encoding latin-1 (or --encoding cp1252 for Windows files), or re-save it as UTF-8",
+    "cp1252": "pass --encoding latin-1, or re-save it as UTF-8",
+    "latin-1": "re-save it as UTF-8",
+}
+
+
+def check_encoding(encoding: str | None) -> str:
+    """The codec for ``--encoding`` (``None`` is UTF-8); :class:`InputError` for others.
+
+    >>> check_encoding("Latin1"), check_encoding("windows-1252"), check_encoding(None)
+    ('latin-1', 'cp1252', 'utf-8')
+    """
+    if encoding is None:
+        return "utf-8"
     try:
-        codecs.getincrementaldecoder("utf-8")().decode(head, final=complete)
+        name = codecs.lookup(encoding).name
+    except LookupError:
+        name = None
+    if name not in ENCODINGS:
+        raise InputError(f"--encoding must be one of utf-8, latin-1, cp1252, not {encoding!r}")
+    return ENCODINGS[name]
+
+
+def _encoding_problem(head: bytes, complete: bool, encoding: str = "utf-8") -> str | None:
+    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)) or b"\x00" in head[:4096]:
+        return "looks like UTF-16 or binary, not text; re-save it as UTF-8 CSV"
+    try:
+        codecs.getincrementaldecoder(encoding)().decode(head, final=complete)
     except UnicodeDecodeError as exc:
-        return f"is not valid UTF-8 text (byte {exc.start + 1}); re-save it as UTF-8"
+        return f"is not valid {_SPELLED[encoding]} text (byte {exc.start + 1}); {_ENCODING_HINT[encoding]}"
     return None
+
+
+_SPELLED = {"utf-8": "UTF-8", "latin-1": "Latin-1", "cp1252": "Windows-1252"}
+
+
+def check_delimiter(sep: str | None) -> str | None:
+    """The delimiter of ``--sep`` (``tab`` or ``\\t`` for a tab); ``None`` finds it.
+
+    >>> check_delimiter(";"), check_delimiter("tab"), check_delimiter(None)
+    (';', '\t', None)
+    """
+    if sep is None:
+        return None
+    sep = {"tab": "\t", "\\t": "\t", "comma": ",", "semicolon": ";"}.get(sep.lower(), sep)
+    if len(sep) != 1 or sep in "\"\r\n" or sep.isalnum():
+        raise InputError(f"--sep must be one character such as , ; | or tab, not {sep!r}")
+    return sep
+
+
+def sniff_delimiter(head: str, default: str) -> str:
+    """The delimiter of a CSV: whichever of comma, semicolon and tab occurs
+    most often outside quotes in its header line; ``default`` when none does.
+
+    >>> sniff_delimiter('name;formula;"a,b"\\nx;NaCl;1', ","), sniff_delimiter("formula\\nNaCl", ",")
+    (';', ',')
+    """
+    counts = dict.fromkeys(",;\t", 0)
+    quoted = False
+    for ch in head:
+        if ch == '"':
+            quoted = not quoted
+        elif not quoted:
+            if ch in "\r\n":
+                break
+            if ch in counts:
+                counts[ch] += 1
+    best = max(counts, key=lambda c: (counts[c], c == default))
+    return best if counts[best] else default
 
 
 def _first_line(exc: BaseException) -> str:
@@ -152,8 +229,7 @@ def _first_line(exc: BaseException) -> str:
     return text.splitlines()[0] if text else type(exc).__name__
 
 
-def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
-    kind = "TSV" if delimiter == "\t" else "CSV"
+def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str = "utf-8") -> TableReader:
     if path == "-":
         raw = sys.stdin.buffer
         total_bytes = None
@@ -173,18 +249,33 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
     complete = len(head) < _HEAD_BYTES
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
-    problem = _encoding_problem(head, complete)
+    problem = _encoding_problem(head, complete, encoding)
     if problem:
         raise InputError(f"input {label} {problem}")
+    if delimiter is None:
+        delimiter = sniff_delimiter(head[:_HEADER_BLOCK].decode(encoding, errors="replace"), ",")
+    kind = "TSV" if delimiter == "\t" else "CSV"
     parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
+    # Arrow transcodes any other encoding to UTF-8 as it reads
+    read_encoding = {} if encoding == "utf-8" else {"encoding": encoding}
     try:
         header_reader = pacsv.open_csv(
             io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK),
+            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
             parse_options=parse_options,
-            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False),
+            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False,
+                                                 quoted_strings_can_be_null=False),
         )
         names = header_reader.schema.names
+        text_options = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
+                                            quoted_strings_can_be_null=False)
+        sample = pacsv.open_csv(
+            io.BytesIO(head),
+            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
+            parse_options=parse_options, convert_options=text_options,
+        ).read_next_batch()
+    except StopIteration:
+        sample = None
     except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
         raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
     if len(set(names)) != len(names):
@@ -199,7 +290,7 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
     try:
         reader = pacsv.open_csv(
             stream,
-            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE),
+            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE, **read_encoding),
             parse_options=parse_options,
             convert_options=pacsv.ConvertOptions(
                 column_types={n: pa.string() for n in names},
@@ -221,8 +312,8 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
                     yield batch.slice(start, batch_rows)
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
             text = _first_line(exc)
-            if "UTF8" in text or "utf8" in text or "utf-8" in text:
-                raise InputError(f"input {label} is not valid UTF-8 text; re-save it as UTF-8") from None
+            if "UTF8" in text or "utf8" in text or "utf-8" in text or "codec" in text:
+                raise InputError(f"input {label} is not valid {_SPELLED[encoding]} text; {_ENCODING_HINT[encoding]}") from None
             raise InputError(f"cannot read {label} as {kind}: {text}") from None
         finally:
             if path != "-":
@@ -235,7 +326,9 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
 
     return TableReader(
         reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
-        fraction_done=fraction_done, paths=(path,),
+        fraction_done=fraction_done, paths=(path,), delimiter=delimiter,
+        # standard input cannot be read again should a later row not fit: it stays text
+        column_types=infer_types(sample) if path != "-" else {},
     )
 
 
@@ -317,17 +410,29 @@ def _part_batches(files: list, i: int, path: str, names: list[str], batch_rows: 
     yield from batches
 
 
-def open_reader(path: str, batch_rows: int = 65536) -> TableReader:
+def open_reader(path: str, batch_rows: int = 65536, sep: str | None = None, encoding: str | None = None,
+                sheet: str | int | None = None) -> TableReader:
     """Open an input table for batch reading; raises :class:`InputError`.
 
-    ``path`` is a ``.csv``, ``.tsv`` or ``.parquet`` file, a folder or glob of
-    Parquet parts, or ``-`` for CSV on standard input. A path that exists is
-    read as written; ``*``, ``?`` and ``[`` make a pattern only when it does not.
+    ``path`` is a ``.csv``, ``.tsv``, ``.parquet`` or ``.xlsx`` file, a folder
+    or glob of Parquet parts, or ``-`` for CSV on standard input. A path that
+    exists is read as written; ``*``, ``?`` and ``[`` make a pattern only when
+    it does not. ``sep`` is a CSV's delimiter (found from the header line when
+    ``None``: comma, semicolon or tab), ``encoding`` its text encoding
+    (``utf-8``, ``latin-1`` or ``cp1252``), ``sheet`` the sheet of an
+    ``.xlsx`` file (a name, or a number from 1; default the first).
     """
     fmt = format_of(path)
     if fmt == "parquet":
         return _read_parquet(path, batch_rows)
-    return _read_csv(path, "\t" if fmt == "tsv" else ",", batch_rows)
+    if fmt == "xlsx":
+        # openpyxl is an optional extra, imported only for .xlsx files
+        from ionicity.pipelines.xlsx_io import read_xlsx
+
+        return read_xlsx(path, batch_rows, sheet)
+    # a .tsv is tab-separated by its name; a .csv (or standard input) is sniffed
+    delimiter = check_delimiter(sep) or ("\t" if fmt == "tsv" else None)
+    return _read_csv(path, delimiter, batch_rows, check_encoding(encoding))
 
 
 # --------------------------------------------------------------------------- writing
@@ -405,6 +510,9 @@ class TableWriter:
                 # a native file: Arrow writes it without taking the GIL
                 os.close(fd)
                 self._file = sink = pa.OSFile(self._tmp, mode="wb")
+            elif self.fmt == "xlsx":
+                os.close(fd)  # openpyxl saves the workbook by path at the end
+                sink = None
             else:
                 self._file = sink = os.fdopen(fd, "wb")
         else:
@@ -415,6 +523,13 @@ class TableWriter:
         try:
             if self.fmt == "parquet":
                 self._writer = pq.ParquetWriter(sink, schema, write_statistics=True if statistics is None else statistics)
+            elif self.fmt == "xlsx":
+                if self._tmp is None:
+                    raise InputError("an .xlsx workbook cannot be written to standard output; give -o a file name")
+                # openpyxl is an optional extra, imported only for .xlsx output
+                from ionicity.pipelines.xlsx_io import XlsxSink
+
+                self._writer = XlsxSink(self._tmp, schema)
             else:
                 delimiter = "\t" if self.fmt == "tsv" else ","
                 self._writer = pacsv.CSVWriter(sink, schema, write_options=pacsv.WriteOptions(delimiter=delimiter))
@@ -474,15 +589,16 @@ class TableWriter:
             self._flush()
         self._writer.close()
         if self._tmp is not None:
-            self._file.flush()
-            if isinstance(self._file, pa.NativeFile):
-                self._file.close()
+            if self._file is None or isinstance(self._file, pa.NativeFile):
+                if self._file is not None:
+                    self._file.close()
                 fd = os.open(self._tmp, os.O_RDONLY)
                 try:
                     os.fsync(fd)
                 finally:
                     os.close(fd)
             else:
+                self._file.flush()
                 os.fsync(self._file.fileno())
                 self._file.close()
             self._move_into_place()

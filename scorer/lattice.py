@@ -94,6 +94,9 @@ __all__ = [
 _SOURCE_KAP = "Kapustinskii, Q. Rev. Chem. Soc. 1956, 10, 283; Glasser, Inorg. Chem. 1995, 34, 4935"
 _SOURCE_VBT = "Jenkins, Roobottom, Passmore, Glasser, Inorg. Chem. 1999, 38, 3609; Glasser & Jenkins, J. Am. Chem. Soc. 2000, 122, 632"
 
+#: the --columns group of this module's COLUMNS
+GROUP = "lattice"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "lattice_energy_kapustinskii_kJ_mol", "float64", "kJ/mol",
