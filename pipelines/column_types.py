@@ -11,8 +11,8 @@ starts the run again with that column kept as text, so no row is lost, and
 says so in the run's summary.
 
 Forms accepted (the same test for the sample and for every later batch):
-integers without leading zeros or a plus sign (``007`` and ``+5`` stay
-text: they are codes more often than numbers); decimals with a point and
+numbers without leading zeros or a plus sign (``007`` and ``+5`` stay
+text: they are codes more often than numbers): integers, and decimals with a point and
 an optional exponent (``2.5``, ``.5``, ``1e-3``; not ``1,5``, ``nan`` or
 ``inf``); ``true`` / ``false`` in any case.
 """
@@ -27,7 +27,7 @@ __all__ = ["infer_types", "ColumnTyper", "TypeFallback", "FORMS"]
 FORMS: dict[str, tuple[pa.DataType, str]] = {
     "bool": (pa.bool_(), r"^(?i:true|false)$"),
     "int64": (pa.int64(), r"^-?(0|[1-9][0-9]{0,17})$"),
-    "float64": (pa.float64(), r"^-?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][-+]?[0-9]+)?$"),
+    "float64": (pa.float64(), r"^-?((0|[1-9][0-9]*)(\.[0-9]*)?|\.[0-9]+)([eE][-+]?[0-9]+)?$"),
 }
 _PATTERN = {str(t): pattern for t, pattern in FORMS.values()}
 

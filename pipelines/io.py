@@ -15,7 +15,6 @@ Where outputs go, what they may replace and what is kept beside them:
 """
 from __future__ import annotations
 
-import codecs
 import glob
 import io
 import os
@@ -33,6 +32,7 @@ import pyarrow.parquet as pq
 
 from ionicity.pipelines.column_types import infer_types
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
 from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
 
 __all__ = [
@@ -46,8 +46,6 @@ __all__ = [
 
 FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet",
            ".xlsx": "xlsx"}
-#: --encoding: the codec names accepted (Python's spelling after codecs.lookup)
-ENCODINGS = {"utf-8": "utf-8", "iso8859-1": "latin-1", "cp1252": "cp1252"}
 
 _BLOCK_SIZE = 1 << 22
 # the header is read from this much of the input before the streaming reader
@@ -152,78 +150,6 @@ def _read_head(raw) -> bytes:
     return b"".join(chunks)
 
 
-_ENCODING_HINT = {
-    "utf-8": "pass --encoding latin-1 (or --encoding cp1252 for Windows files), or re-save it as UTF-8",
-    "cp1252": "pass --encoding latin-1, or re-save it as UTF-8",
-    "latin-1": "re-save it as UTF-8",
-}
-
-
-def check_encoding(encoding: str | None) -> str:
-    """The codec for ``--encoding`` (``None`` is UTF-8); :class:`InputError` for others.
-
-    >>> check_encoding("Latin1"), check_encoding("windows-1252"), check_encoding(None)
-    ('latin-1', 'cp1252', 'utf-8')
-    """
-    if encoding is None:
-        return "utf-8"
-    try:
-        name = codecs.lookup(encoding).name
-    except LookupError:
-        name = None
-    if name not in ENCODINGS:
-        raise InputError(f"--encoding must be one of utf-8, latin-1, cp1252, not {encoding!r}")
-    return ENCODINGS[name]
-
-
-def _encoding_problem(head: bytes, complete: bool, encoding: str = "utf-8") -> str | None:
-    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)) or b"\x00" in head[:4096]:
-        return "looks like UTF-16 or binary, not text; re-save it as UTF-8 CSV"
-    try:
-        codecs.getincrementaldecoder(encoding)().decode(head, final=complete)
-    except UnicodeDecodeError as exc:
-        return f"is not valid {_SPELLED[encoding]} text (byte {exc.start + 1}); {_ENCODING_HINT[encoding]}"
-    return None
-
-
-_SPELLED = {"utf-8": "UTF-8", "latin-1": "Latin-1", "cp1252": "Windows-1252"}
-
-
-def check_delimiter(sep: str | None) -> str | None:
-    """The delimiter of ``--sep`` (``tab`` or ``\\t`` for a tab); ``None`` finds it.
-
-    >>> check_delimiter(";"), check_delimiter("tab"), check_delimiter(None)
-    (';', '\t', None)
-    """
-    if sep is None:
-        return None
-    sep = {"tab": "\t", "\\t": "\t", "comma": ",", "semicolon": ";"}.get(sep.lower(), sep)
-    if len(sep) != 1 or sep in "\"\r\n" or sep.isalnum():
-        raise InputError(f"--sep must be one character such as , ; | or tab, not {sep!r}")
-    return sep
-
-
-def sniff_delimiter(head: str, default: str) -> str:
-    """The delimiter of a CSV: whichever of comma, semicolon and tab occurs
-    most often outside quotes in its header line; ``default`` when none does.
-
-    >>> sniff_delimiter('name;formula;"a,b"\\nx;NaCl;1', ","), sniff_delimiter("formula\\nNaCl", ",")
-    (';', ',')
-    """
-    counts = dict.fromkeys(",;\t", 0)
-    quoted = False
-    for ch in head:
-        if ch == '"':
-            quoted = not quoted
-        elif not quoted:
-            if ch in "\r\n":
-                break
-            if ch in counts:
-                counts[ch] += 1
-    best = max(counts, key=lambda c: (counts[c], c == default))
-    return best if counts[best] else default
-
-
 def _first_line(exc: BaseException) -> str:
     text = str(exc).strip()
     return text.splitlines()[0] if text else type(exc).__name__
@@ -249,7 +175,7 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     complete = len(head) < _HEAD_BYTES
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
-    problem = _encoding_problem(head, complete, encoding)
+    problem = encoding_problem(head, complete, encoding)
     if problem:
         raise InputError(f"input {label} {problem}")
     if delimiter is None:
@@ -313,7 +239,7 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
             text = _first_line(exc)
             if "UTF8" in text or "utf8" in text or "utf-8" in text or "codec" in text:
-                raise InputError(f"input {label} is not valid {_SPELLED[encoding]} text; {_ENCODING_HINT[encoding]}") from None
+                raise InputError(f"input {label} is not valid {SPELLED[encoding]} text; {ENCODING_HINT[encoding]}") from None
             raise InputError(f"cannot read {label} as {kind}: {text}") from None
         finally:
             if path != "-":
