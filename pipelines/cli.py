@@ -92,6 +92,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns = sub.add_parser("columns", help="every output column with its type, unit, method and source")
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
     columns.add_argument("--groups", action="store_true", help="list the column groups that --columns takes")
+    columns.add_argument("--notes", action="store_true", help="list the short codes written in value_notes")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     add_fit_melting_parser(sub)
@@ -158,7 +159,7 @@ def _run_explain(args) -> int:
 
 
 def _run_columns(args) -> int:
-    print(columns_table(args.format, groups=args.groups))
+    print(columns_table(args.format, groups=args.groups, notes=args.notes))
     return EXIT_OK
 
 

@@ -48,6 +48,8 @@ from ionicity.pipelines.output_paths import (
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
+from ionicity.pipelines.schema import chosen_columns
+from ionicity.pipelines.text_dialect import check_encoding
 from ionicity.scorer.verdict import STATUSES
 
 __all__ = ["score_file_dask", "score_partition"]
@@ -73,13 +75,14 @@ def _worker_cache() -> FormulaCache:
 
 
 def score_partition(frame, formula_col: str, name_col: str | None, input_schema: pa.Schema, schema: pa.Schema,
-                    model=None):
+                    model=None, chosen=None):
     """Score one pandas partition with :func:`ionicity.pipelines.batch_assembly.score_batch`;
     returns a pandas frame of ``schema``'s columns, rows in order."""
     table = pa.Table.from_pandas(frame, schema=input_schema, preserve_index=False)
     batches = table.to_batches() or [pa.RecordBatch.from_pylist([], schema=input_schema)]
     cache = _worker_cache()
-    scored = [score_batch(b, formula_col, schema, cache, name_col=name_col, model=model) for b in batches]
+    scored = [score_batch(b, formula_col, schema, cache, name_col=name_col, model=model, chosen=chosen)
+              for b in batches]
     out = pa.Table.from_batches(scored, schema=schema).to_pandas()
     out.index = frame.index
     return out
@@ -101,7 +104,7 @@ def _partition_stats(frame, formula_col: str, status_name: str):
     return pd.DataFrame(rows, columns=["kind", "key", "value"]).astype({"kind": object, "key": object, "value": "uint64"})
 
 
-def _warm_up_plugin(distributed):
+def _warm_up_plugin(distributed, full_precision: bool = False):
     class WarmUp(distributed.diagnostics.plugin.WorkerPlugin):
         """Load the scorer's data tables once per worker, before any task, and
         keep the run's cache of scored formulas on that worker until the run
@@ -112,6 +115,9 @@ def _warm_up_plugin(distributed):
         def setup(self, worker):
             warm_up()
             self.cache = FormulaCache()
+            if not full_precision:
+                self.cache.set_output_digits()
+                self.cache.set_short_notes()
 
         def teardown(self, worker):
             self.cache = None
@@ -135,6 +141,8 @@ def _read_frame(dd, reader, config: ScoreConfig):
     if reader.fmt == "parquet":
         # reader.paths are files as found; Dask would glob them again, reading data1.parquet for data[1].parquet
         return dd.read_parquet([glob.escape(p) for p in reader.paths], index=False, dtype_backend="pyarrow")
+    if reader.fmt == "xlsx":
+        raise InputError("--engine dask reads CSV, TSV or Parquet; score an .xlsx file with --engine local")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
     first = next(reader.batches, None)
     if first is not None:
@@ -147,12 +155,12 @@ def _read_frame(dd, reader, config: ScoreConfig):
                     )
     return dd.read_csv(
         reader.source,
-        sep="\t" if reader.fmt == "tsv" else ",",
+        sep=reader.delimiter,
         dtype=str,
         keep_default_na=False,
         na_filter=False,
         blocksize=_CSV_BLOCK,
-        encoding="utf-8",
+        encoding=check_encoding(config.encoding),
         skip_blank_lines=len(reader.schema) > 1,  # as the local reader does
     )
 
@@ -194,10 +202,11 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                     dashboard_address=":0",
                 )
                 client = distributed.Client(cluster)
-            client.register_plugin(_warm_up_plugin(distributed), name=_PLUGIN)
+            client.register_plugin(_warm_up_plugin(distributed, config.full_precision), name=_PLUGIN)
             meta = schema.empty_table().to_pandas()
             scored = frame.map_partitions(
-                score_partition, formula_col, config.name_col, input_schema, schema, model, meta=meta,
+                score_partition, formula_col, config.name_col, input_schema, schema, model,
+                chosen_columns(config.columns, config.mp_model is not None), meta=meta,
                 enforce_metadata=False,
             )
             write = scored.to_parquet(

@@ -11,6 +11,7 @@ from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import column_groups, descriptor_modules, output_columns
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
+from ionicity.scorer.note_codes import notes_table
 from ionicity.scorer.record import score_parsed
 
 __all__ = ["explain_formula", "columns_table"]
@@ -64,10 +65,23 @@ def _type_text(c) -> str:
     return f"{c.dtype}, {c.digits} significant digits" if c.digits else c.dtype
 
 
-def columns_table(fmt: str = "text", groups: bool = False) -> str:
+def columns_table(fmt: str = "text", groups: bool = False, notes: bool = False) -> str:
     """Every generated column with its type (and, for floats, the significant
     digits written), unit, group, method and source; with ``groups``, the
-    groups ``--columns`` takes and their columns instead."""
+    groups ``--columns`` takes and their columns instead; with ``notes``, the
+    short codes of ``value_notes`` and what each means."""
+    if notes:
+        listing = notes_table()
+        if fmt == "csv":
+            buffer = io.StringIO()
+            writer = csv.writer(buffer, lineterminator="\n")
+            writer.writerow(["code", "meaning"])
+            writer.writerows(listing)
+            return buffer.getvalue().rstrip("\n")
+        if fmt == "markdown":
+            return "\n".join(["| code | meaning |", "| --- | --- |"] + [f"| `{c}` | {m} |" for c, m in listing])
+        return "\n".join(f"{c}: {m}" for c, m in listing) + (
+            "\n(CODE(ION) names the ion concerned; a note without a code is written in full)")
     group_of = {name: g for g, names in column_groups().items() for name in names}
     if groups:
         listing = [(g, ", ".join(names)) for g, names in column_groups().items()]

@@ -14,6 +14,7 @@ import pyarrow.compute as pc
 
 from ionicity.pipelines.arrow_columns import ARROW_TYPES, float_array, int_array, int_numpy, string_array, values_array
 from ionicity.scorer.columns import output_columns
+from ionicity.scorer.note_codes import short_notes
 from ionicity.scorer.precision import round_significant_array
 
 __all__ = ["FormulaCache"]
@@ -48,6 +49,8 @@ class FormulaCache:
         #: per column, the significant digits its float values are rounded to
         #: as they enter the cache (``set_output_digits``); None keeps every digit
         self._digits: list = [None] * len(columns)
+        self._notes_at: int | None = None
+        self._notes_memo: dict = {}
         # empty arrays made without converting Python values: pyarrow imports
         # pandas on its first such conversion, which need not delay the
         # first batch (a large run converts later, while the workers score)
@@ -61,6 +64,21 @@ class FormulaCache:
         on (output files; rounding the cache costs once per distinct formula,
         not once per row). Call before the first record is added."""
         self._digits = [c.digits if c.dtype == "float64" else None for c in output_columns()]
+
+    def set_short_notes(self) -> None:
+        """Write ``value_notes`` with the registered short codes
+        (:func:`ionicity.scorer.note_codes.short_notes`) from now on, once
+        per distinct text. Call before the first record is added."""
+        self._notes_at = [c.name for c in output_columns()].index("value_notes")
+
+    def _short(self, values) -> list:
+        memo = self._notes_memo
+        out = []
+        for text in values:
+            if text not in memo:
+                memo[text] = short_notes(text)
+            out.append(memo[text])
+        return out
 
     def __len__(self) -> int:
         return len(self.index)
@@ -107,6 +125,8 @@ class FormulaCache:
         if self._pending:
             by_column = list(zip(*self._pending))
             self._pending = []
+            if self._notes_at is not None:
+                by_column[self._notes_at] = self._short(by_column[self._notes_at])
             self._arrays = [
                 self._append_text(old, values) if text
                 else pa.concat_arrays([old, values_array(values, old.type) if digits is None

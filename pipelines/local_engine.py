@@ -122,6 +122,7 @@ def _score_once(config: ScoreConfig, text_columns: set) -> Summary:
     scorer = BatchScorer(config.workers)
     if not config.full_precision:
         scorer.cache.set_output_digits()
+        scorer.cache.set_short_notes()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:

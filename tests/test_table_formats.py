@@ -219,3 +219,33 @@ def test_formula_order(text, expected):
 def test_install_hint_works_from_a_clone_and_from_the_index():
     hint = install_hint("dask", "dask distributed")
     assert 'pip install "ionicity[dask]"' in hint and 'pip install -e ".[dask]"' in hint
+
+
+def test_value_notes_are_short_codes_in_output_files_and_long_with_full_precision(tmp_path, capsys):
+    from ionicity.scorer.note_codes import NOTE_CODES, short_notes
+
+    long_text = score_formula("Na2SO4")["value_notes"]
+    assert "no HSAB hardness for SO4(2-)" in long_text  # the API keeps the long text
+    dest, _ = _score(tmp_path, b"formula\nNa2SO4\n", "out.csv")
+    cell = next(csv.DictReader(dest.open()))["value_notes"]
+    assert cell == short_notes(long_text) and "hsab_no_IA(SO4(2-))" in cell and len(cell) < len(long_text) / 2
+    dest, _ = _score(tmp_path, b"formula\nNa2SO4\n", "full.csv", full_precision=True)
+    assert next(csv.DictReader(dest.open()))["value_notes"] == long_text
+    # a note no entry knows passes through unchanged, its neighbours coded
+    assert short_notes("something new; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion)") == (
+        "something new; born_not_binary")
+    codes = [c for c, _, _ in NOTE_CODES]
+    assert len(codes) == len(set(codes))
+    assert main(["columns", "--notes"]) == 0
+    listing = capsys.readouterr().out
+    assert all(c in listing for c in codes)
+
+
+def test_demo_value_notes_are_short():
+    from ionicity.scorer.note_codes import short_notes
+
+    rows = list(csv.DictReader(open("datasets/demo/inventory.csv", encoding="utf-8")))
+    notes = [score_formula(r["formula"])["value_notes"] or "" for r in rows]
+    before = sum(map(len, notes))
+    after = sum(len(short_notes(n)) for n in notes)
+    assert after < before / 3
