@@ -352,10 +352,11 @@ def open_reader(path: str, batch_rows: int = 65536, sep: str | None = None, enco
     if fmt == "parquet":
         return _read_parquet(path, batch_rows)
     if fmt == "xlsx":
-        # openpyxl is an optional extra, imported only for .xlsx files
+        # openpyxl (about 80 ms, python -X importtime) is an optional extra: only .xlsx input loads it
         from ionicity.pipelines.xlsx_io import read_xlsx
 
-        return read_xlsx(path, batch_rows, sheet)
+        schema, batches, column_types = read_xlsx(path, batch_rows, sheet)
+        return TableReader(schema, batches, "xlsx", path, paths=(path,), column_types=column_types)
     # a .tsv is tab-separated by its name; a .csv (or standard input) is sniffed
     delimiter = check_delimiter(sep) or ("\t" if fmt == "tsv" else None)
     return _read_csv(path, delimiter, batch_rows, check_encoding(encoding))
@@ -452,7 +453,7 @@ class TableWriter:
             elif self.fmt == "xlsx":
                 if self._tmp is None:
                     raise InputError("an .xlsx workbook cannot be written to standard output; give -o a file name")
-                # openpyxl is an optional extra, imported only for .xlsx output
+                # openpyxl (about 80 ms, python -X importtime) is an optional extra: only .xlsx output loads it
                 from ionicity.pipelines.xlsx_io import XlsxSink
 
                 self._writer = XlsxSink(self._tmp, schema)

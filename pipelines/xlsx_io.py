@@ -67,10 +67,9 @@ def _sheet(workbook, path: str, sheet):
 
 
 def read_xlsx(path: str, batch_rows: int, sheet=None):
-    """A :class:`~ionicity.pipelines.io.TableReader` over one sheet of ``path``."""
-    # io imports this module lazily, only for .xlsx input, so no import circle
-    from ionicity.pipelines.io import TableReader
-
+    """One sheet of ``path``: its text schema, its batches and the inferred
+    column types (what :func:`ionicity.pipelines.io.open_reader` makes a
+    ``TableReader`` of)."""
     openpyxl = require_openpyxl()
     try:
         workbook = openpyxl.load_workbook(path, read_only=True, data_only=True)
@@ -126,8 +125,7 @@ def read_xlsx(path: str, batch_rows: int, sheet=None):
         finally:
             workbook.close()
 
-    return TableReader(schema, all_batches(), "xlsx", path, paths=(path,),
-                       column_types=infer_types(first.slice(0, 4096) if first is not None else None))
+    return schema, all_batches(), infer_types(first.slice(0, 4096) if first is not None else None)
 
 
 class XlsxSink:

@@ -55,14 +55,13 @@ def digits_for(name: str) -> int:
 
 def round_significant(value: float, digits: int) -> float:
     """``value`` to ``digits`` significant digits, as the nearest float to
-    the decimal it stands for (so it prints without noise).
+    the decimal it stands for (so it prints without noise); the same
+    arithmetic as :func:`round_significant_array`, which output files use.
 
     >>> round_significant(2.3400000000000003, 3), round_significant(49.959149999999994, 4), round_significant(123456.0, 3)
     (2.34, 49.96, 123000.0)
     """
-    if value == 0 or not math.isfinite(value):
-        return value
-    return round(value, digits - 1 - math.floor(math.log10(abs(value))))
+    return float(round_significant_array(np.array([value]), digits)[0])
 
 
 def round_significant_array(values: np.ndarray, digits: int) -> np.ndarray:

@@ -20,6 +20,7 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity.scorer.note_codes import short_notes
 from ionicity.scorer.precision import round_significant_array
 import pytest
 from ionicity.pipelines.arrow_columns import values_array
@@ -117,6 +118,9 @@ def test_values_match_score_formula(tmp_path):
             elif column.dtype == "float64":
                 # output files carry each column's significant digits (scorer.precision)
                 assert value == round_significant_array([want], column.digits)[0], (text, column.name)
+            elif column.name == "value_notes":
+                # and the notes' short codes (scorer.note_codes)
+                assert value == short_notes(want), text
             else:
                 assert value == want, (text, column.name)
 
