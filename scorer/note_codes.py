@@ -12,6 +12,8 @@ from __future__ import annotations
 
 import re
 
+from ionicity.scorer.caching import once
+
 __all__ = ["NOTE_CODES", "short_notes", "notes_table"]
 
 #: (code, the note's text as a regular expression, what it means). ``{ion}``
@@ -102,7 +104,10 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
 _ION = r"(?P<ion>\S+?\([0-9]*[+-]\))"
 
 
-def _compile():
+@once
+def _compiled():
+    """The patterns, compiled on first use (not at import: the command line
+    imports this module at start-up)."""
     compiled = []
     for code, pattern, _ in NOTE_CODES:
         # a whole note: after the start of the cell or a "; ", up to a ";" or the end
@@ -110,8 +115,6 @@ def _compile():
         compiled.append((code, regex))
     return compiled
 
-
-_COMPILED = _compile()
 
 
 def _code(code: str):
@@ -133,7 +136,7 @@ def short_notes(text: str | None) -> str | None:
     """
     if not text:
         return text
-    for code, regex in _COMPILED:
+    for code, regex in _compiled():
         text = regex.sub(_code(code), text)
     return text
 
