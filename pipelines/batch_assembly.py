@@ -17,6 +17,7 @@ from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
 from ionicity.scorer.columns import column_names
+from ionicity.scorer.melting_model import MODEL_COLUMNS
 from ionicity.scorer.verdict import Verdict, with_row_name
 
 __all__ = ["score_batch", "label_failed_rows"]
@@ -30,6 +31,7 @@ def score_batch(
     name_col: str | None = None,
     model: ModelApplier | None = None,
     ticket: Ticket | None = None,
+    chosen: tuple[str, ...] | None = None,
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
@@ -39,6 +41,8 @@ def score_batch(
     or a cache to score into (in-process), or ``None`` for a cache of this
     batch alone. ``ticket`` is what :meth:`BatchScorer.submit` returned for
     this batch, when its formulas were sent for scoring ahead of time.
+    ``chosen`` names the generated columns to keep (``--columns``; None: all):
+    only those are taken from the cache.
     """
     if not isinstance(scorer, BatchScorer):
         # no scorer: one for this batch alone (a cache, when given, is kept)
@@ -46,12 +50,13 @@ def score_batch(
     if ticket is None:
         ticket = scorer.submit(formula_array(batch, formula_col))
     rows = scorer.rows_of(ticket)
-    columns = [
-        # a column read dictionary-encoded (the formulas, from Parquet) goes
-        # out with its input type
-        c.dictionary_decode() if pa.types.is_dictionary(c.type) and not pa.types.is_dictionary(f.type) else c
-        for c, f in zip(batch.columns, schema)
-    ] + [a.take(rows) for a in scorer.cache.arrays()]
+    names = column_names()
+    every = list(names) + ([c.name for c in MODEL_COLUMNS] if model is not None else [])
+    keep = range(len(every)) if chosen is None else [every.index(n) for n in chosen]
+    status_at, message_at = names.index("status"), names.index("message")
+    cached = scorer.cache.arrays()
+    # only the columns written are taken (with --columns, most of the rows' cost)
+    generated = {k: cached[k].take(rows) for k in keep if k < len(names)}
     if model is not None:
         distinct = ticket.distinct.to_pylist()
         indices = ticket.indices
@@ -60,17 +65,20 @@ def score_batch(
             indices = pc.fill_null(indices, len(distinct) - 1)
         cache_rows = pa.array(scorer.cache.ids(distinct), type=pa.int64())
         model_arrays, status, message = model.columns(distinct, cache_rows, scorer.cache)
-        first = len(batch.columns)
-        names = column_names()
-        columns[first + names.index("status")] = status.take(indices)
-        columns[first + names.index("message")] = message.take(indices)
-        columns += [a.take(indices) for a in model_arrays]
+        generated[status_at] = status.take(indices)
+        generated[message_at] = message.take(indices)
+        for k, array in enumerate(model_arrays):
+            if len(names) + k in keep:
+                generated[len(names) + k] = array.take(indices)
     if name_col is not None:
-        first = len(batch.columns)
-        names = column_names()
-        status_at, message_at = first + names.index("status"), first + names.index("message")
         row_names = batch.column(batch.schema.get_field_index(name_col))
-        columns[message_at] = label_failed_rows(columns[status_at], columns[message_at], row_names)
+        generated[message_at] = label_failed_rows(generated[status_at], generated[message_at], row_names)
+    columns = [
+        # a column read dictionary-encoded (the formulas, from Parquet) goes
+        # out with its input type
+        c.dictionary_decode() if pa.types.is_dictionary(c.type) and not pa.types.is_dictionary(f.type) else c
+        for c, f in zip(batch.columns, schema)
+    ] + [generated[k] for k in keep]
     return pa.RecordBatch.from_arrays(columns, schema=schema)
 
 

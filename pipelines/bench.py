@@ -231,11 +231,13 @@ def measure_floor(path: str, workdir: str) -> tuple[float, float]:
     return _run([sys.executable, "-c", _FLOOR_CODE, path, out], env=_env())
 
 
-def measure_score(path: str, workdir: str, workers: int | None = None) -> tuple[float, float]:
+def measure_score(path: str, workdir: str, workers: int | None = None, columns: str | None = None) -> tuple[float, float]:
     out = os.path.join(workdir, "scored" + os.path.splitext(path)[1])
     argv = [sys.executable, "-m", "ionicity", "score", path, "-o", out, "--quiet", "--overwrite"]
     if workers:
         argv += ["--workers", str(workers)]
+    if columns:
+        argv += ["--columns", columns]
     return _run(argv, env=_env())
 
 
@@ -315,6 +317,9 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--partition-rows", type=int, help="with --engine dask: --partition-rows for the Dask runs")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
+    parser.add_argument("--columns", metavar="LIST",
+                        help="also time 'ionicity score --columns LIST' (alternating with all columns) and print"
+                             " score_columns_seconds and columns_vs_all_ratio")
     args = parser.parse_args(argv)
     if args.rows < 1 or args.distinct < 1 or args.distinct > args.rows:
         parser.error("need 1 <= --distinct <= --rows")
@@ -359,10 +364,12 @@ def main(argv: list[str] | None = None) -> int:
         write_table(table, args.rows, args.distinct, args.seed)
         # floor and score alternate, --repeat times each: on a shared machine
         # one pair can be off by a third; the medians are the figures
-        floors, scores = [], []
+        floors, scores, chosen = [], [], []
         for _ in range(args.repeat):
             floors.append(measure_floor(table, workdir))
             scores.append(measure_score(table, workdir, args.workers))
+            if args.columns:
+                chosen.append(measure_score(table, workdir, args.workers, args.columns))
         floor = statistics.median(f for f, _ in floors)
         seconds = statistics.median(s for s, _ in scores)
         floor_rss = max(r for _, r in floors)
@@ -381,6 +388,12 @@ def main(argv: list[str] | None = None) -> int:
         _print("ratio_vs_io_floor", seconds / floor)
         _print("speedup_vs_per_row", baseline / seconds)
         _print("distinct_per_second", args.distinct / seconds)
+        if chosen:
+            chosen_seconds = statistics.median(c for c, _ in chosen)
+            _print("score_columns", args.columns)
+            _print("score_columns_seconds_each", ", ".join(f"{c:.3f}" for c, _ in chosen))
+            _print("score_columns_seconds", chosen_seconds)
+            _print("columns_vs_all_ratio", chosen_seconds / seconds)
         _print("io_floor_peak_rss_mib", floor_rss)
         _print("peak_rss_mib", rss)
     return 0

@@ -20,6 +20,7 @@ import threading
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.explain import columns_table, explain_formula
+from ionicity.pipelines.table_options import add_table_options, table_options
 from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
 from ionicity.pipelines.pool import default_workers, discard_prestarted, leave_process, prestart
 
@@ -59,7 +60,7 @@ def build_parser() -> argparse.ArgumentParser:
 
     score = sub.add_parser("score", help="score a CSV, TSV or Parquet table", epilog=_EPILOG,
                            formatter_class=argparse.RawDescriptionHelpFormatter)
-    score.add_argument("input", metavar="INPUT", help="input table (.csv, .tsv, .parquet, a folder or glob of Parquet parts, or - for CSV on"
+    score.add_argument("input", metavar="INPUT", help="input table (.csv, .tsv, .parquet, .xlsx, a folder or glob of Parquet parts, or - for CSV on"
                             " stdin); a path that exists is read as written, and *, ? and [ make a glob only when"
                             " it does not")
     score.add_argument("-o", "--output", default="-", help="output table; its extension sets the format (default: CSV on stdout)")
@@ -85,6 +86,7 @@ def build_parser() -> argparse.ArgumentParser:
     score.add_argument("--mp-model", metavar="PATH",
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
+    add_table_options(score)
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -93,6 +95,8 @@ def build_parser() -> argparse.ArgumentParser:
 
     columns = sub.add_parser("columns", help="every output column with its type, unit, method and source")
     columns.add_argument("--format", choices=("text", "markdown", "csv"), default="text")
+    columns.add_argument("--groups", action="store_true", help="list the column groups that --columns takes")
+    columns.add_argument("--notes", action="store_true", help="list the short codes written in value_notes")
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     add_fit_melting_parser(sub)
@@ -142,6 +146,7 @@ def _run_score(args) -> int:
         scheduler=args.scheduler,
         mp_model=args.mp_model,
         partition_rows=args.partition_rows,
+        **table_options(args),
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:
@@ -159,7 +164,7 @@ def _run_explain(args) -> int:
 
 
 def _run_columns(args) -> int:
-    print(columns_table(args.format))
+    print(columns_table(args.format, groups=args.groups, notes=args.notes))
     return EXIT_OK
 
 

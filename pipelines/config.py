@@ -13,7 +13,7 @@ Light on purpose (no pyarrow): the command line imports it at start-up.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, fields
+from dataclasses import dataclass, field, fields
 from typing import Any, Callable
 
 from ionicity.pipelines.errors import InputError
@@ -74,6 +74,13 @@ CONSTRAINTS: dict[str, Constraint] = {
     "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
     "partition_rows": Constraint("--partition-rows", lambda v: v is None or (_whole_number(v) and v >= 1),
                                  "a positive whole number (or none given, for the default)"),
+    "sep": Constraint("--sep", _text_or_none, "one character such as , ; | or tab"),
+    "encoding": Constraint("--encoding", _text_or_none, "one of utf-8, latin-1, cp1252"),
+    "sheet": Constraint("--sheet", lambda v: v is None or isinstance(v, (str, int)) and not isinstance(v, bool),
+                        "a sheet name or a number from 1"),
+    "columns": Constraint("--columns", lambda v: v is None or (isinstance(v, (list, tuple)) and len(v) > 0
+                                                               and all(isinstance(x, str) for x in v)),
+                          "a non-empty list of column names and groups"),
 }
 
 
@@ -106,6 +113,19 @@ class ScoreConfig:
     partition_rows : int or None
         ``engine="dask"``: rows per partition (one task each); default
         :data:`ionicity.pipelines.dask_partitions.DEFAULT_PARTITION_ROWS`.
+    sep, encoding : str or None
+        A CSV's delimiter (default: found from the header line) and text
+        encoding (``utf-8``, ``latin-1`` or ``cp1252``; default UTF-8).
+    sheet : str or int or None
+        The sheet of an ``.xlsx`` input: a name, or a number from 1.
+    keep_text : bool, default=False
+        Keep every CSV or ``.xlsx`` input column as text in a Parquet or
+        ``.xlsx`` output (default: numbers and booleans get their type).
+    columns : list of str or None
+        Generated columns and groups to write (``ionicity columns`` lists
+        them); ``status`` and ``message`` always. None: all.
+    full_precision : bool, default=False
+        Write floats with every digit instead of each column's ``digits``.
 
     See Also
     --------
@@ -133,6 +153,12 @@ class ScoreConfig:
     scheduler: str | None = None
     mp_model: str | None = None
     partition_rows: int | None = None
+    sep: str | None = None
+    encoding: str | None = None
+    sheet: str | int | None = None
+    keep_text: bool = False
+    columns: list | tuple | None = None
+    full_precision: bool = False
 
     def validate(self) -> None:
         """Raise :class:`InputError` for the first option outside its
@@ -160,10 +186,12 @@ class Summary:
     seconds: float = 0.0
     output: str = ""
     partitions: int = 0  # --engine dask: the tasks the table was cut into
+    #: what the run decided for the user to know (a column kept as text, say)
+    notes: list = field(default_factory=list)
 
     def __str__(self) -> str:
         partitions = f", partitions: {self.partitions}" if self.partitions else ""
         return (
             f"rows: {self.rows}, ok: {self.ok}, warning: {self.warning}, error: {self.error},"
             f" distinct formulas: {self.distinct_formulas}{partitions}, seconds: {self.seconds:.2f}"
-        )
+        ) + "".join(f"\nnote: {n}" for n in self.notes)

@@ -20,7 +20,7 @@ the run ends.
 
 Dask and distributed are imported only when this engine runs (0.9 to 1.8 s,
 ``python -X importtime``, on the shared machine), so the local engine never
-pays for them; install them with ``pip install ionicity[dask]``.
+pays for them; install them with ``pip install "ionicity[dask]"`` (from a clone: ``pip install -e ".[dask]"``).
 """
 from __future__ import annotations
 
@@ -45,7 +45,7 @@ from ionicity.pipelines.dask_partitions import (
     score_piece,
     share_distinct,
 )
-from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.errors import InputError, install_hint
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.local_engine import prepare
 from ionicity.pipelines.model_step import load_model_applier
@@ -61,6 +61,8 @@ from ionicity.pipelines.output_paths import (
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
+from ionicity.pipelines.schema import chosen_columns
+from ionicity.pipelines.text_dialect import check_encoding
 
 __all__ = ["score_file_dask"]
 
@@ -94,7 +96,7 @@ def _worker_cache() -> FormulaCache:
     return cache if cache is not None else FormulaCache()
 
 
-def _warm_up_plugin(distributed):
+def _warm_up_plugin(distributed, full_precision: bool = False):
     class WarmUp(distributed.diagnostics.plugin.WorkerPlugin):
         """Load the scorer's data tables once per worker, before any task, and
         keep the run's cache of scored formulas on that worker until the run
@@ -105,6 +107,9 @@ def _warm_up_plugin(distributed):
         def setup(self, worker):
             warm_up()
             self.cache = FormulaCache()
+            if not full_precision:
+                self.cache.set_output_digits()
+                self.cache.set_short_notes()
 
         def teardown(self, worker):
             self.cache = None
@@ -120,12 +125,14 @@ def _import_dask():
         import distributed
         import distributed.diagnostics.plugin  # noqa: F401 - for WorkerPlugin
     except ImportError:
-        raise InputError("--engine dask needs dask and distributed: pip install 'ionicity[dask]'") from None
+        raise InputError("--engine dask needs dask and distributed: " + install_hint("dask", "dask distributed")) from None
     return dask, dd, distributed
 
 
 def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
     """A CSV or TSV input as a dask.dataframe of blocks of about ``partition_rows`` rows."""
+    if reader.fmt == "xlsx":
+        raise InputError("--engine dask reads CSV, TSV or Parquet; score an .xlsx file with --engine local")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
     first = next(reader.batches, None)
     if first is not None:
@@ -138,12 +145,12 @@ def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
                     )
     return dd.read_csv(
         reader.source,
-        sep="\t" if reader.fmt == "tsv" else ",",
+        sep=reader.delimiter,
         dtype=str,
         keep_default_na=False,
         na_filter=False,
         blocksize=csv_block_bytes(reader.source, partition_rows),
-        encoding="utf-8",
+        encoding=check_encoding(config.encoding),
         skip_blank_lines=len(reader.schema) > 1,  # as the local reader does
     )
 
@@ -188,7 +195,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                     dashboard_address=":0",
                 )
                 client = distributed.Client(cluster)
-            client.register_plugin(_warm_up_plugin(distributed), name=_PLUGIN)
+            client.register_plugin(_warm_up_plugin(distributed, config.full_precision), name=_PLUGIN)
             run = _Run(client, reader.schema, formula_col, config, schema, model, tmp,
                        provenance_metadata(config, formula_col))
             summary = run.score(sources)
@@ -249,11 +256,12 @@ class _Run:
             mode = os.environ.get(SHARE_ENV, "auto")
             if mode == "always" or (mode == "auto" and share_distinct([len(f) for f in found], len(everything), workers)):
                 chunks = distinct_chunks(everything, workers)
-                shared = client.map(score_distinct, chunks, pure=False)
+                shared = client.map(score_distinct, chunks, full_precision=self.config.full_precision, pure=False)
         common = dict(
             table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
             schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
             count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
+            chosen=chosen_columns(self.config.columns, self.config.mp_model is not None),
         )
         if sources and isinstance(sources[0], Piece):
             futures = client.map(_score_on_worker, range(len(sources)), sources, pure=False, **common)
@@ -280,13 +288,13 @@ def dask_delayed(function):
 
 
 def _score_on_worker(number, source, *, table_schema, formula_col, name_col, schema, model, folder, metadata,
-                     count_distinct, status_name, shared):
+                     count_distinct, status_name, shared, chosen=None):
     cache = _worker_cache()
     if shared is not None and not getattr(cache, "adopted_shared", False):
         cache.adopt(shared)
         cache.adopted_shared = True
     return score_piece(number, source, table_schema, formula_col, name_col, schema, model, folder, metadata, cache,
-                       count_distinct, status_name)
+                       count_distinct, status_name, chosen)
 
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:

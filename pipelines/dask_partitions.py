@@ -132,11 +132,15 @@ def distinct_chunks(formulas: pa.Array, workers: int) -> list[pa.Array]:
     return [formulas.slice(i, size) for i in range(0, len(formulas), size)]
 
 
-def score_distinct(formulas: pa.Array) -> tuple[pa.Array, list[pa.Array]]:
+def score_distinct(formulas: pa.Array, full_precision: bool = False) -> tuple[pa.Array, list[pa.Array]]:
     """Score a chunk of distinct formulas: (formulas, one array per generated
-    column), ready for :meth:`FormulaCache.adopt`."""
+    column, rounded and noted as the workers' caches are), ready for
+    :meth:`FormulaCache.adopt`."""
     texts = formulas.to_pylist()
     cache = FormulaCache(max_entries=len(texts) + 1)
+    if not full_precision:
+        cache.set_output_digits()
+        cache.set_short_notes()
     cache.add(texts, score_values(texts))
     return cache.keys(), cache.arrays()
 
@@ -165,7 +169,7 @@ def _formula_hashes(column: pa.Array) -> np.ndarray:
 
 def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, name_col: str | None,
                 schema: pa.Schema, model, folder: str, metadata: dict, cache: FormulaCache,
-                count_distinct: bool, status_name: str) -> tuple[dict[str, int], np.ndarray | None]:
+                count_distinct: bool, status_name: str, chosen=None) -> tuple[dict[str, int], np.ndarray | None]:
     """Score one partition into ``folder/part-NNNNNN.parquet``.
 
     ``source`` is a :class:`Piece` (Parquet) or a pandas frame (a CSV block).
@@ -182,7 +186,7 @@ def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, 
     with pq.ParquetWriter(path, out_schema, write_statistics=True) as writer:
         batches = table.to_batches(max_chunksize=_BATCH_ROWS) or [pa.RecordBatch.from_pylist([], schema=table_schema)]
         for batch in batches:
-            scored = score_batch(batch, formula_col, schema, cache, name_col=name_col, model=model)
+            scored = score_batch(batch, formula_col, schema, cache, name_col=name_col, model=model, chosen=chosen)
             writer.write_batch(scored)
             for status, n in _status_counts(scored.column(status_at)).items():
                 counts[status] += n

@@ -8,9 +8,10 @@ import math
 from pathlib import Path
 
 from ionicity.scorer.caution import caution_sentence
-from ionicity.scorer.columns import descriptor_modules, output_columns
+from ionicity.scorer.columns import column_groups, descriptor_modules, output_columns
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
+from ionicity.scorer.note_codes import notes_table
 from ionicity.scorer.record import score_parsed
 
 __all__ = ["explain_formula", "columns_table"]
@@ -60,25 +61,59 @@ def explain_formula(text: str) -> str:
     return "\n".join(lines)
 
 
-def columns_table(fmt: str = "text") -> str:
-    """Every generated column with its type, unit, method and source."""
+def _type_text(c) -> str:
+    return f"{c.dtype}, {c.digits} significant digits" if c.digits else c.dtype
+
+
+def columns_table(fmt: str = "text", groups: bool = False, notes: bool = False) -> str:
+    """Every generated column with its type (and, for floats, the significant
+    digits written), unit, group, method and source; with ``groups``, the
+    groups ``--columns`` takes and their columns instead; with ``notes``, the
+    short codes of ``value_notes`` and what each means."""
+    if notes:
+        listing = notes_table()
+        if fmt == "csv":
+            buffer = io.StringIO()
+            writer = csv.writer(buffer, lineterminator="\n")
+            writer.writerow(["code", "meaning"])
+            writer.writerows(listing)
+            return buffer.getvalue().rstrip("\n")
+        if fmt == "markdown":
+            return "\n".join(["| code | meaning |", "| --- | --- |"] + [f"| `{c}` | {m} |" for c, m in listing])
+        return "\n".join(f"{c}: {m}" for c, m in listing) + (
+            "\n(CODE(ION) names the ion concerned; a note without a code is written in full)")
+    group_of = {name: g for g, names in column_groups().items() for name in names}
+    if groups:
+        listing = [(g, ", ".join(names)) for g, names in column_groups().items()]
+        if fmt == "csv":
+            buffer = io.StringIO()
+            writer = csv.writer(buffer, lineterminator="\n")
+            writer.writerow(["group", "columns"])
+            writer.writerows(listing)
+            return buffer.getvalue().rstrip("\n")
+        if fmt == "markdown":
+            return "\n".join(["| group | columns |", "| --- | --- |"] + [f"| `{g}` | {names} |" for g, names in listing])
+        return "\n".join(f"{g}: {names}" for g, names in listing) + (
+            "\n(status and message are always written; --columns takes groups and column names)")
     columns = output_columns()
     if fmt == "csv":
         buffer = io.StringIO()
         writer = csv.writer(buffer, lineterminator="\n")
-        writer.writerow(["name", "type", "unit", "description", "method", "source", "aggregation"])
+        writer.writerow(["name", "type", "unit", "description", "method", "source", "aggregation", "group", "digits"])
         for c in columns:
-            writer.writerow([c.name, c.dtype, c.unit, c.description, c.method, c.source, c.aggregation])
+            writer.writerow([c.name, c.dtype, c.unit, c.description, c.method, c.source, c.aggregation,
+                             group_of.get(c.name, ""), c.digits or ""])
         return buffer.getvalue().rstrip("\n")
     if fmt == "markdown":
         rows = ["| column | type | unit | meaning | method and source |", "| --- | --- | --- | --- | --- |"]
         for c in columns:
             method = "; ".join(x for x in (c.method, c.source, c.aggregation) if x)
-            rows.append(f"| `{c.name}` | {c.dtype} | {c.unit} | {c.description} | {method} |".replace("\n", " "))
+            rows.append(f"| `{c.name}` | {_type_text(c)} | {c.unit} | {c.description} | {method} |".replace("\n", " "))
         return "\n".join(rows)
     blocks = []
     for c in columns:
-        block = [f"{c.name}  ({c.dtype}{', ' + c.unit if c.unit else ''})", f"    {c.description}"]
+        block = [f"{c.name}  ({_type_text(c)}{', ' + c.unit if c.unit else ''}; group {group_of.get(c.name, '')})",
+                 f"    {c.description}"]
         if c.method:
             block.append(f"    method: {c.method}")
         if c.source:

@@ -12,8 +12,10 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import ARROW_TYPES, int_array, int_numpy, string_array, values_array
+from ionicity.pipelines.arrow_columns import ARROW_TYPES, float_array, int_array, int_numpy, string_array, values_array
 from ionicity.scorer.columns import output_columns
+from ionicity.scorer.note_codes import short_notes
+from ionicity.scorer.precision import round_significant_array
 
 __all__ = ["FormulaCache"]
 
@@ -44,6 +46,11 @@ class FormulaCache:
             for c, text in zip(columns, self._text)
         ]
         self._pending: list[tuple] = []
+        #: per column, the significant digits its float values are rounded to
+        #: as they enter the cache (``set_output_digits``); None keeps every digit
+        self._digits: list = [None] * len(columns)
+        self._notes_at: int | None = None
+        self._notes_memo: dict = {}
         # empty arrays made without converting Python values: pyarrow imports
         # pandas on its first such conversion, which need not delay the
         # first batch (a large run converts later, while the workers score)
@@ -51,6 +58,27 @@ class FormulaCache:
         self._pending_keys: list = []
         # per row, the token of the last scorer that counted it (first_seen)
         self._marks = np.zeros(0, dtype=np.int64)
+
+    def set_output_digits(self) -> None:
+        """Round each float column to its declared ``Column.digits`` from now
+        on (output files; rounding the cache costs once per distinct formula,
+        not once per row). Call before the first record is added."""
+        self._digits = [c.digits if c.dtype == "float64" else None for c in output_columns()]
+
+    def set_short_notes(self) -> None:
+        """Write ``value_notes`` with the registered short codes
+        (:func:`ionicity.scorer.note_codes.short_notes`) from now on, once
+        per distinct text. Call before the first record is added."""
+        self._notes_at = [c.name for c in output_columns()].index("value_notes")
+
+    def _short(self, values) -> list:
+        memo = self._notes_memo
+        out = []
+        for text in values:
+            if text not in memo:
+                memo[text] = short_notes(text)
+            out.append(memo[text])
+        return out
 
     def __len__(self) -> int:
         return len(self.index)
@@ -120,10 +148,13 @@ class FormulaCache:
         if self._pending:
             by_column = list(zip(*self._pending))
             self._pending = []
+            if self._notes_at is not None:
+                by_column[self._notes_at] = self._short(by_column[self._notes_at])
             self._arrays = [
                 self._append_text(old, values) if text
-                else pa.concat_arrays([old, values_array(values, old.type)])
-                for old, text, values in zip(self._arrays, self._text, by_column)
+                else pa.concat_arrays([old, values_array(values, old.type) if digits is None
+                                       else float_array(round_significant_array(values, digits))])
+                for old, text, values, digits in zip(self._arrays, self._text, by_column, self._digits)
             ]
         return self._arrays
 

@@ -1,16 +1,20 @@
-"""Streaming table I/O: read CSV, TSV or Parquet in row batches; write batch by
-batch to a temporary file that is renamed into place only when complete.
+"""Streaming table I/O: read CSV, TSV, Parquet or ``.xlsx`` in row batches;
+write batch by batch to a temporary file that is renamed into place only when
+complete.
 
 Input cells pass through unchanged: CSV and TSV columns are read as text
-(nothing is inferred, so ``007`` stays ``007`` and an empty cell stays
-empty), Parquet columns keep their types.
+(so ``007`` stays ``007`` and an empty cell stays empty), Parquet columns
+keep their types. The reader also infers, from the first rows, which text
+columns hold numbers or booleans (``TableReader.column_types``); an engine
+writing a typed output applies them (:mod:`ionicity.pipelines.column_types`).
+A CSV's delimiter (comma, semicolon or tab) is found from its header line
+unless given; ``encoding`` reads Latin-1 and Windows-1252 text.
 
 Where outputs go, what they may replace and what is kept beside them:
 :mod:`ionicity.pipelines.output_paths`.
 """
 from __future__ import annotations
 
-import codecs
 import glob
 import io
 import os
@@ -26,7 +30,9 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity.pipelines.column_types import infer_types
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
 from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
 
 __all__ = [
@@ -38,7 +44,9 @@ __all__ = [
     "FORMATS",
 ]
 
-FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet"}
+FORMATS = {".csv": "csv", ".tsv": "tsv", ".tab": "tsv", ".txt": "tsv", ".parquet": "parquet", ".pq": "parquet",
+           ".xlsx": "xlsx"}
+
 _BLOCK_SIZE = 1 << 22
 # the header is read from this much of the input before the streaming reader
 # starts, so that stdin can be replayed and bad encodings caught before any
@@ -62,7 +70,7 @@ def format_of(path: str) -> str:
         return FORMATS[suffix]
     if any(ch in path for ch in "*?["):
         return "parquet"
-    raise InputError(f"cannot tell the format of {path!r} from its extension; use .csv, .tsv or .parquet")
+    raise InputError(f"cannot tell the format of {path!r} from its extension; use .csv, .tsv, .parquet or .xlsx")
 
 
 # --------------------------------------------------------------------------- reading
@@ -88,6 +96,11 @@ class TableReader:
     #: their distinct values are known without hashing every row; set before
     #: the first batch is taken. Other formats ignore it.
     read_dictionary: tuple[str, ...] = ()
+    #: text columns whose first rows all hold numbers or booleans, with that
+    #: type (CSV, TSV and .xlsx inputs; :func:`~ionicity.pipelines.column_types.infer_types`)
+    column_types: dict = field(default_factory=dict)
+    #: the CSV delimiter used (found or given)
+    delimiter: str = ","
 
 
 class _CountingStream(io.RawIOBase):
@@ -137,23 +150,12 @@ def _read_head(raw) -> bytes:
     return b"".join(chunks)
 
 
-def _encoding_problem(head: bytes, complete: bool) -> str | None:
-    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)) or b"\x00" in head[:4096]:
-        return "looks like UTF-16 or binary, not UTF-8 text; re-save it as UTF-8 CSV"
-    try:
-        codecs.getincrementaldecoder("utf-8")().decode(head, final=complete)
-    except UnicodeDecodeError as exc:
-        return f"is not valid UTF-8 text (byte {exc.start + 1}); re-save it as UTF-8"
-    return None
-
-
 def _first_line(exc: BaseException) -> str:
     text = str(exc).strip()
     return text.splitlines()[0] if text else type(exc).__name__
 
 
-def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
-    kind = "TSV" if delimiter == "\t" else "CSV"
+def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str = "utf-8") -> TableReader:
     if path == "-":
         raw = sys.stdin.buffer
         total_bytes = None
@@ -173,18 +175,33 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
     complete = len(head) < _HEAD_BYTES
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
-    problem = _encoding_problem(head, complete)
+    problem = encoding_problem(head, complete, encoding)
     if problem:
         raise InputError(f"input {label} {problem}")
+    if delimiter is None:
+        delimiter = sniff_delimiter(head[:_HEADER_BLOCK].decode(encoding, errors="replace"), ",")
+    kind = "TSV" if delimiter == "\t" else "CSV"
     parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
+    # Arrow transcodes any other encoding to UTF-8 as it reads
+    read_encoding = {} if encoding == "utf-8" else {"encoding": encoding}
     try:
         header_reader = pacsv.open_csv(
             io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK),
+            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
             parse_options=parse_options,
-            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False),
+            convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False,
+                                                 quoted_strings_can_be_null=False),
         )
         names = header_reader.schema.names
+        text_options = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
+                                            quoted_strings_can_be_null=False)
+        sample = pacsv.open_csv(
+            io.BytesIO(head),
+            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
+            parse_options=parse_options, convert_options=text_options,
+        ).read_next_batch()
+    except StopIteration:
+        sample = None
     except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
         raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
     if len(set(names)) != len(names):
@@ -199,7 +216,7 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
     try:
         reader = pacsv.open_csv(
             stream,
-            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE),
+            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE, **read_encoding),
             parse_options=parse_options,
             convert_options=pacsv.ConvertOptions(
                 column_types={n: pa.string() for n in names},
@@ -221,8 +238,8 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
                     yield batch.slice(start, batch_rows)
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
             text = _first_line(exc)
-            if "UTF8" in text or "utf8" in text or "utf-8" in text:
-                raise InputError(f"input {label} is not valid UTF-8 text; re-save it as UTF-8") from None
+            if "UTF8" in text or "utf8" in text or "utf-8" in text or "codec" in text:
+                raise InputError(f"input {label} is not valid {SPELLED[encoding]} text; {ENCODING_HINT[encoding]}") from None
             raise InputError(f"cannot read {label} as {kind}: {text}") from None
         finally:
             if path != "-":
@@ -235,7 +252,9 @@ def _read_csv(path: str, delimiter: str, batch_rows: int) -> TableReader:
 
     return TableReader(
         reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
-        fraction_done=fraction_done, paths=(path,),
+        fraction_done=fraction_done, paths=(path,), delimiter=delimiter,
+        # standard input cannot be read again should a later row not fit: it stays text
+        column_types=infer_types(sample) if path != "-" else {},
     )
 
 
@@ -317,17 +336,30 @@ def _part_batches(files: list, i: int, path: str, names: list[str], batch_rows: 
     yield from batches
 
 
-def open_reader(path: str, batch_rows: int = 65536) -> TableReader:
+def open_reader(path: str, batch_rows: int = 65536, sep: str | None = None, encoding: str | None = None,
+                sheet: str | int | None = None) -> TableReader:
     """Open an input table for batch reading; raises :class:`InputError`.
 
-    ``path`` is a ``.csv``, ``.tsv`` or ``.parquet`` file, a folder or glob of
-    Parquet parts, or ``-`` for CSV on standard input. A path that exists is
-    read as written; ``*``, ``?`` and ``[`` make a pattern only when it does not.
+    ``path`` is a ``.csv``, ``.tsv``, ``.parquet`` or ``.xlsx`` file, a folder
+    or glob of Parquet parts, or ``-`` for CSV on standard input. A path that
+    exists is read as written; ``*``, ``?`` and ``[`` make a pattern only when
+    it does not. ``sep`` is a CSV's delimiter (found from the header line when
+    ``None``: comma, semicolon or tab), ``encoding`` its text encoding
+    (``utf-8``, ``latin-1`` or ``cp1252``), ``sheet`` the sheet of an
+    ``.xlsx`` file (a name, or a number from 1; default the first).
     """
     fmt = format_of(path)
     if fmt == "parquet":
         return _read_parquet(path, batch_rows)
-    return _read_csv(path, "\t" if fmt == "tsv" else ",", batch_rows)
+    if fmt == "xlsx":
+        # openpyxl (about 80 ms, python -X importtime) is an optional extra: only .xlsx input loads it
+        from ionicity.pipelines.xlsx_io import read_xlsx
+
+        schema, batches, column_types = read_xlsx(path, batch_rows, sheet)
+        return TableReader(schema, batches, "xlsx", path, paths=(path,), column_types=column_types)
+    # a .tsv is tab-separated by its name; a .csv (or standard input) is sniffed
+    delimiter = check_delimiter(sep) or ("\t" if fmt == "tsv" else None)
+    return _read_csv(path, delimiter, batch_rows, check_encoding(encoding))
 
 
 # --------------------------------------------------------------------------- writing
@@ -405,6 +437,9 @@ class TableWriter:
                 # a native file: Arrow writes it without taking the GIL
                 os.close(fd)
                 self._file = sink = pa.OSFile(self._tmp, mode="wb")
+            elif self.fmt == "xlsx":
+                os.close(fd)  # openpyxl saves the workbook by path at the end
+                sink = None
             else:
                 self._file = sink = os.fdopen(fd, "wb")
         else:
@@ -415,6 +450,13 @@ class TableWriter:
         try:
             if self.fmt == "parquet":
                 self._writer = pq.ParquetWriter(sink, schema, write_statistics=True if statistics is None else statistics)
+            elif self.fmt == "xlsx":
+                if self._tmp is None:
+                    raise InputError("an .xlsx workbook cannot be written to standard output; give -o a file name")
+                # openpyxl (about 80 ms, python -X importtime) is an optional extra: only .xlsx output loads it
+                from ionicity.pipelines.xlsx_io import XlsxSink
+
+                self._writer = XlsxSink(self._tmp, schema)
             else:
                 delimiter = "\t" if self.fmt == "tsv" else ","
                 self._writer = pacsv.CSVWriter(sink, schema, write_options=pacsv.WriteOptions(delimiter=delimiter))
@@ -474,15 +516,16 @@ class TableWriter:
             self._flush()
         self._writer.close()
         if self._tmp is not None:
-            self._file.flush()
-            if isinstance(self._file, pa.NativeFile):
-                self._file.close()
+            if self._file is None or isinstance(self._file, pa.NativeFile):
+                if self._file is not None:
+                    self._file.close()
                 fd = os.open(self._tmp, os.O_RDONLY)
                 try:
                     os.fsync(fd)
                 finally:
                     os.close(fd)
             else:
+                self._file.flush()
                 os.fsync(self._file.fileno())
                 self._file.close()
             self._move_into_place()

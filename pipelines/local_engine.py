@@ -22,7 +22,8 @@ import pyarrow.compute as pc
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
-from ionicity.pipelines.io import TableWriter, open_reader
+from ionicity.pipelines.column_types import ColumnTyper, TypeFallback
+from ionicity.pipelines.io import TableWriter, format_of, open_reader
 from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.progress import Progress
 from ionicity.pipelines.provenance import provenance_metadata
@@ -30,12 +31,17 @@ from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_
 from ionicity.pipelines.schema import (
     check_formula_type,
     check_name_column,
+    chosen_columns,
     find_formula_column,
     output_schema,
 )
 from ionicity.scorer.verdict import STATUSES
 
-__all__ = ["score_file_local", "prepare", "count_status"]
+# rows of one Excel sheet (Excel specifications and limits); the .xlsx writer
+# checks the same figure as rows arrive
+MAX_XLSX_ROWS = 1_048_576
+
+__all__ = ["score_file_local", "prepare", "count_status", "input_typer"]
 
 # batches read and sent for scoring before the oldest is written
 _READ_AHEAD_BATCHES = 8
@@ -46,12 +52,26 @@ def prepare(config: ScoreConfig):
     """Open the input and check the options against it: returns the reader,
     the formula column and the output schema. Raises :class:`InputError`."""
     config.validate()
-    reader = open_reader(config.input, config.batch_rows)
+    reader = open_reader(config.input, config.batch_rows, sep=config.sep, encoding=config.encoding, sheet=config.sheet)
     names = reader.schema.names
     formula_col = find_formula_column(names, config.formula_col)
     check_formula_type(reader.schema, formula_col)
     check_name_column(names, config.name_col)
-    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
+    chosen = chosen_columns(config.columns, config.mp_model is not None)
+    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None,
+                                              chosen=chosen)
+
+
+def input_typer(config: ScoreConfig, reader, formula_col: str, text_columns=frozenset()) -> ColumnTyper:
+    """The typing of a text input's columns for this run: the reader's
+    inferred types for a Parquet or .xlsx output, without ``--keep-text``;
+    the formula and name columns and ``text_columns`` stay text. A CSV or TSV
+    output keeps every cell as it was read."""
+    typed_output = config.output != "-" and format_of(config.output) in ("parquet", "xlsx")
+    if config.keep_text or not typed_output:
+        return ColumnTyper(reader.schema, {})
+    keep = {formula_col, config.name_col, *text_columns}
+    return ColumnTyper(reader.schema, {n: t for n, t in reader.column_types.items() if n not in keep})
 
 
 def score_file_local(config: ScoreConfig) -> Summary:
@@ -59,10 +79,35 @@ def score_file_local(config: ScoreConfig) -> Summary:
     by batch; see the module docstring. Raises :class:`InputError` for
     unusable input or options; nothing is written at the output path then.
     The run's scorer, its cache and its workers go when it returns.
+
+    A text input's column whose later rows do not fit the type inferred from
+    its first rows is kept as text: the run starts again so (no row is lost,
+    the output's schema is one), and the summary says which column.
     """
     started = time.perf_counter()
+    text_columns: set[str] = set()
+    notes: list[str] = []
+    while True:
+        try:
+            summary = _score_once(config, text_columns)
+        except TypeFallback as fallback:
+            text_columns.add(fallback.column)
+            notes.append(fallback.note)
+            continue
+        summary.notes = notes + summary.notes
+        summary.seconds = time.perf_counter() - started
+        return summary
+
+
+def _score_once(config: ScoreConfig, text_columns: set) -> Summary:
     model = load_model_applier(config)
-    reader, formula_col, schema = prepare(config)
+    reader, formula_col, _ = prepare(config)
+    typer = input_typer(config, reader, formula_col, text_columns)
+    chosen = chosen_columns(config.columns, config.mp_model is not None)
+    schema = output_schema(typer.schema, config.prefix, with_model=config.mp_model is not None, chosen=chosen)
+    if config.output != "-" and format_of(config.output) == "xlsx" and (reader.total_rows or 0) >= MAX_XLSX_ROWS:
+        raise InputError(f"an .xlsx sheet holds at most {MAX_XLSX_ROWS:,} rows including the header, and"
+                         f" {config.input!r} has {reader.total_rows:,}; write .csv or .parquet instead")
     # the formulas' distinct values straight from the Parquet dictionary
     # pages: hashing every row's text cost more than a fifth of this process's time
     reader.read_dictionary = (formula_col,)
@@ -77,11 +122,15 @@ def score_file_local(config: ScoreConfig) -> Summary:
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"
     scorer = BatchScorer(config.workers)
+    if not config.full_precision:
+        scorer.cache.set_output_digits()
+        scorer.cache.set_short_notes()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:
         batch, ticket = waiting.popleft()
-        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket)
+        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket,
+                             chosen=chosen)
         writer.write(scored)
         summary.rows += batch.num_rows
         count_status(summary, scored, status_name)
@@ -93,6 +142,7 @@ def score_file_local(config: ScoreConfig) -> Summary:
         # Read ahead: while the workers score the new formulas of later
         # batches, earlier ones are taken from the cache and written.
         for batch in _slices(reader.batches, config.batch_rows):
+            batch = typer.convert(batch)
             waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))
             while waiting and (len(waiting) > _READ_AHEAD_BATCHES or scorer.ready(waiting[0][1])):
                 finish()
@@ -109,7 +159,6 @@ def score_file_local(config: ScoreConfig) -> Summary:
         progress.close()
     scorer.close()
     summary.distinct_formulas = scorer.distinct_formulas
-    summary.seconds = time.perf_counter() - started
     return summary
 
 

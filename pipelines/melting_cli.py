@@ -10,11 +10,12 @@ from __future__ import annotations
 import argparse
 import importlib
 
+from ionicity.pipelines.errors import install_hint
 from ionicity.scorer.caution import CAUTION as _CAUTION  # imports nothing: this module stays light
 
 __all__ = ["add_fit_melting_parser", "CAUTION", "EXTRA_HINT", "TOLERANCE_K", "MissingExtraError", "require_extra"]
 
-EXTRA_HINT = "pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)"
+EXTRA_HINT = install_hint("melting", "chemicals matplotlib")
 CAUTION = "Predicted melting points are " + _CAUTION + "."
 # sources further apart than this disagree
 TOLERANCE_K = 20.0
@@ -31,7 +32,7 @@ def require_extra(module: str):
     >>> require_extra("no_such_package_here")
     Traceback (most recent call last):
     ...
-    ionicity.pipelines.melting_cli.MissingExtraError: 'no_such_package_here' is needed for fit-melting and is not installed: pip install 'ionicity[melting]'  (or: pip install chemicals matplotlib)
+    ionicity.pipelines.melting_cli.MissingExtraError: 'no_such_package_here' is needed for fit-melting and is not installed: pip install "ionicity[melting]" (from a clone: pip install -e ".[melting]"; or: pip install chemicals matplotlib)
     """
     try:
         return importlib.import_module(module)

@@ -13,10 +13,12 @@ import pyarrow as pa
 
 from ionicity.pipelines.arrow_columns import OUTPUT_TYPES
 from ionicity.pipelines.errors import InputError
-from ionicity.scorer.columns import output_columns
+from ionicity.scorer.columns import column_groups, output_columns
+from ionicity.scorer.melting_model import GROUP as MODEL_GROUP
 from ionicity.scorer.melting_model import MODEL_COLUMNS
 
-__all__ = ["find_formula_column", "check_formula_type", "check_name_column", "check_unique_names", "generated_columns", "generated_names", "output_schema"]
+__all__ = ["find_formula_column", "check_formula_type", "check_name_column", "check_unique_names",
+           "generated_columns", "generated_names", "output_schema", "chosen_columns"]
 
 
 def find_formula_column(names: list[str], requested: str | None) -> str:
@@ -67,11 +69,35 @@ def check_unique_names(input_names: list[str]) -> None:
         raise InputError(f"the input has more than one column named {', '.join(map(repr, repeated))}; rename them first")
 
 
-def generated_names(input_names: list[str], prefix: str, with_model: bool = False) -> list[str]:
+def chosen_columns(requested, with_model: bool = False) -> tuple[str, ...] | None:
+    """The generated column names ``--columns`` asks for (names and groups,
+    :func:`ionicity.scorer.columns.column_groups`), in output order, with
+    ``status`` and ``message`` always; None for every column. An unknown
+    name is an :class:`InputError` listing the groups.
+    """
+    if requested is None:
+        return None
+    groups = {g: list(names) for g, names in column_groups().items()}
+    if with_model:
+        groups.setdefault(MODEL_GROUP, []).extend(c.name for c in MODEL_COLUMNS)
+    every = [c.name for c in generated_columns(with_model)]
+    wanted = {"status", "message"}
+    for item in requested:
+        if item in groups:
+            wanted.update(groups[item])
+        elif item in every:
+            wanted.add(item)
+        else:
+            raise InputError(f"--columns: {item!r} is neither a column nor a group; groups: {', '.join(groups)}"
+                             " (the columns: ionicity columns)")
+    return tuple(n for n in every if n in wanted)
+
+
+def generated_names(input_names: list[str], prefix: str, with_model: bool = False, chosen=None) -> list[str]:
     """Generated column names (with ``prefix``); a clash with an input column
     is an error, in any case (``STATUS`` clashes with ``status``: spreadsheets,
     SQL and pandas' case-insensitive lookups cannot tell them apart)."""
-    names = [prefix + c.name for c in generated_columns(with_model)]
+    names = [prefix + c.name for c in generated_columns(with_model, chosen)]
     taken = {n.casefold(): n for n in input_names}
     clashes = [f"{n} (input {taken[n.casefold()]!r})" if taken[n.casefold()] != n else n
                for n in names if n.casefold() in taken]
@@ -82,18 +108,20 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
     return names
 
 
-def generated_columns(with_model: bool = False) -> tuple:
+def generated_columns(with_model: bool = False, chosen=None) -> tuple:
     """The declared columns a run adds: the scorer's, then the melting
-    model's when a model is applied."""
-    if not with_model:
-        return output_columns()
-    return output_columns() + tuple(MODEL_COLUMNS)
+    model's when a model is applied; only the ``chosen`` names when given."""
+    columns = output_columns() if not with_model else output_columns() + tuple(MODEL_COLUMNS)
+    if chosen is None:
+        return columns
+    return tuple(c for c in columns if c.name in chosen)
 
 
-def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False) -> pa.Schema:
+def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False, chosen=None) -> pa.Schema:
     """Input fields, unchanged, followed by the generated columns (and the
-    melting-model columns when a model is applied)."""
-    columns = generated_columns(with_model)
-    names = generated_names(input_schema.names, prefix, with_model)
+    melting-model columns when a model is applied; only the ``chosen`` ones
+    when given)."""
+    columns = generated_columns(with_model, chosen)
+    names = generated_names(input_schema.names, prefix, with_model, chosen)
     fields = list(input_schema) + [pa.field(name, OUTPUT_TYPES[c.dtype]) for name, c in zip(names, columns)]
     return pa.schema(fields)

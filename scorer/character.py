@@ -120,6 +120,9 @@ _AGG_PAIRS = (
     "fraction on its own side; no ions: from the composition (see method)"
 )
 
+#: the --columns group of this module's COLUMNS
+GROUP = "character"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "delta_chi_pauling", "float64", "Pauling units",

@@ -8,13 +8,16 @@ and is listed in :data:`DESCRIPTOR_MODULES`.
 """
 from __future__ import annotations
 
+import dataclasses
 import importlib
 
 from ionicity.scorer.caching import once
 from ionicity.scorer.model import Column
+from ionicity.scorer.precision import digits_for
 
 __all__ = [
     "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules", "descriptors",
+    "column_groups", "GROUP",
 ]
 
 _PARSER = "scorer.formula grammar"
@@ -31,8 +34,10 @@ BASE_COLUMNS: tuple[Column, ...] = (
     Column(
         "formula_normalized", "string", "",
         "the parsed formula written canonically: ions in order (cations, then anions) for ionic entries,"
-        " Hill order otherwise; lattice water as ·nH2O; a lone ion's charge as ^2-",
-        _PARSER, "Hill, J. Am. Chem. Soc. 1900, 22, 478 (Hill order); IUPAC Red Book 2005, IR-4 (ion order)",
+        " otherwise IUPAC order without carbon (electropositive element first: TiCl4, SiO2, SF6) and Hill order"
+        " for carbon compounds (CCl4, C6H12O6); lattice water as ·nH2O; a lone ion's charge as ^2-",
+        _PARSER, "Hill, J. Am. Chem. Soc. 1900, 22, 478 (Hill order); IUPAC Red Book 2005, IR-4 (ion order),"
+        " IR-4.4.2.1 and Table VI (element sequence)",
     ),
     Column(
         "substance_class", "string", "",
@@ -89,7 +94,29 @@ def output_columns() -> tuple[Column, ...]:
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:
         raise RuntimeError(f"output columns declared twice: {sorted(duplicates)}")
-    return tuple(columns)
+    return tuple(_with_digits(c) for c in columns)
+
+
+def _with_digits(column: Column) -> Column:
+    """A float column's significant digits from :mod:`scorer.precision` when it declares none."""
+    if column.dtype != "float64" or column.digits is not None:
+        return column
+    return dataclasses.replace(column, digits=digits_for(column.name))
+
+
+#: the group of :data:`BASE_COLUMNS` for ``--columns``; each descriptor module names its own ``GROUP``
+GROUP = "composition"
+
+
+@once
+def column_groups() -> dict[str, tuple[str, ...]]:
+    """Group name -> its column names, in output order: ``composition`` for
+    :data:`BASE_COLUMNS`, then each descriptor module's ``GROUP``."""
+    groups: dict[str, list[str]] = {GROUP: [c.name for c in BASE_COLUMNS]}
+    for module in descriptor_modules():
+        groups.setdefault(getattr(module, "GROUP", module.__name__.rsplit(".", 1)[-1]), []).extend(
+            c.name for c in module.analyse.columns)
+    return {g: tuple(names) for g, names in groups.items()}
 
 
 @once

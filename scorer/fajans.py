@@ -94,6 +94,9 @@ _RISK_RULE = (
     " raised one level for an 18 or 18+2 electron cation"
 )
 
+#: the --columns group of this module's COLUMNS
+GROUP = "fajans"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "cation_polarising_power_e_per_A2", "float64", "e/angstrom^2",

@@ -25,6 +25,9 @@ __all__ = [
     "parse_element_groups",
     "hill_order",
     "hill_formula",
+    "iupac_order",
+    "iupac_formula",
+    "IUPAC_ELEMENT_SEQUENCE",
     "format_count",
     "WATER",
     "OPEN_BRACKETS",
@@ -74,6 +77,47 @@ def hill_order(counts) -> list[str]:
     if "C" in counts:
         order = ["C"] + (["H"] if "H" in counts else []) + [s for s in order if s not in ("C", "H")]
     return order
+
+
+# The element sequence of IUPAC Red Book 2005 (Nomenclature of Inorganic
+# Chemistry), Table VI, used by IR-4.4.2.1 to order the constituents of
+# binary-type formulae: an element earlier in the sequence (more
+# electropositive) is cited first. Written from memory of the table's arrow
+# (noble gases, then groups 1 and 2, the f-block, groups 3 to 13 each read
+# upwards, then C, the pnictogens, H, the chalcogens and the halogens, F last);
+# oxygen stands between the halogens and fluorine (Cl2O, OF2); the elements
+# named after 2005 take their groups' places.
+IUPAC_ELEMENT_SEQUENCE: tuple[str, ...] = tuple("""
+Og Rn Xe Kr Ar Ne He Fr Cs Rb K Na Li Ra Ba Sr Ca Mg Be
+Lr No Md Fm Es Cf Bk Cm Am Pu Np U Pa Th Ac Lu Yb Tm Er Ho Dy Tb Gd Eu Sm Pm Nd Pr Ce La Y Sc
+Rf Hf Zr Ti Db Ta Nb V Sg W Mo Cr Bh Re Tc Mn Hs Os Ru Fe Mt Ir Rh Co Ds Pt Pd Ni Rg Au Ag Cu
+Cn Hg Cd Zn Nh Tl In Ga Al B Fl Pb Sn Ge Si C Mc Bi Sb As P N H Lv Po Te Se S Ts At I Br Cl O F
+""".split())
+_IUPAC_RANK = {symbol: i for i, symbol in enumerate(IUPAC_ELEMENT_SEQUENCE)}
+
+
+def iupac_order(counts) -> list[str]:
+    """Element symbols for an inorganic formula: electropositive first, by
+    the element sequence of IUPAC Red Book 2005, Table VI (IR-4.4.2.1).
+
+    >>> iupac_order({"Cl": 4, "Ti": 1}), iupac_order({"F": 6, "S": 1}), iupac_order({"H": 3, "N": 1})
+    (['Ti', 'Cl'], ['S', 'F'], ['N', 'H'])
+    """
+    return sorted(counts, key=lambda s: (_IUPAC_RANK.get(s, len(_IUPAC_RANK)), s))
+
+
+def iupac_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:
+    """A formula in the order of :func:`iupac_order` for compounds without
+    carbon, in Hill order (:func:`hill_formula`) for carbon compounds, counts
+    of one omitted.
+
+    >>> iupac_formula({"Cl": 4, "Ti": 1}), iupac_formula({"O": 2, "Si": 1}), iupac_formula({"C": 1, "Cl": 4})
+    ('TiCl4', 'SiO2', 'CCl4')
+    """
+    items = dict(counts)
+    if "C" in items:
+        return hill_formula(items)
+    return "".join(s + ("" if abs(items[s] - 1) < 1e-9 else format_count(items[s])) for s in iupac_order(items))
 
 
 def format_count(value: float) -> str:

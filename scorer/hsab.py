@@ -93,6 +93,9 @@ _SOURCE_ANION = (
     " mendeleev"
 )
 
+#: the --columns group of this module's COLUMNS
+GROUP = "hsab"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "cation_hsab_class", "string", "",

@@ -112,6 +112,9 @@ BEST_METHOD_RULE = (
     " halides (Born-Mayer with measured distances next); a guessed structure never feeds it"
 )
 
+#: the --columns group of this module's COLUMNS
+GROUP = "lattice"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "lattice_energy_kapustinskii_kJ_mol", "float64", "kJ/mol",

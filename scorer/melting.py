@@ -488,6 +488,9 @@ _SOURCE_INDEX = (
     " weights fitted to open melting points (chemicals 1.5.2) and rounded"
 )
 
+#: the --columns group of this module's COLUMNS
+GROUP = "melting"
+
 COLUMNS: tuple[Column, ...] = (
     Column(
         "mp_trend_index", "float64", "dimensionless (log10 K scale)",

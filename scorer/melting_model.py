@@ -42,6 +42,9 @@ __all__ = [
     "predict_for_formulas",
 ]
 
+#: the --columns group of MODEL_COLUMNS (added with --mp-model)
+GROUP = "melting"
+
 MODEL_COLUMNS: tuple[Column, ...] = (
     Column(
         "mp_predicted_K", "float64", "K",

@@ -140,7 +140,9 @@ class Column:
 
     ``dtype`` is one of ``"string"``, ``"float64"``, ``"int64"``, ``"bool"``.
     ``aggregation`` says how several cations or anions are combined (empty
-    where the column is per compound).
+    where the column is per compound). ``digits``: for a float column, the
+    significant digits its method supports, to which output files round it
+    (``None``: the registry's table in :mod:`scorer.precision` decides).
     """
 
     name: str
@@ -150,6 +152,7 @@ class Column:
     method: str
     source: str
     aggregation: str = ""
+    digits: int | None = None
 
 
 class RowWarning(str):

@@ -6,7 +6,7 @@ import math
 from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
-from ionicity.scorer.elements import get_element
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import (
     FormulaError,
     ParsedFormula,
@@ -18,6 +18,7 @@ from ionicity.scorer.ions import (
     format_ion_terms,
     format_oxidation_states,
 )
+from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.verdict import finalise
 
@@ -69,16 +70,18 @@ def normalized_formula(comp: ParsedFormula, dec: Decomposition) -> str:
 
     Ionic entries are written from their ions, cations then anions
     (``Fe2(SO4)3``, ``(NH4)2SO4``, ``K4[Fe(CN)6]``, ``[C4mim][BF4]``); a metal
-    present in two oxidation states, covalent and metallic entries use the
-    Hill formula. Lattice water follows as ``·nH2O``.
+    present in two oxidation states, covalent and metallic entries are written
+    in IUPAC order without carbon (``TiCl4``, ``SiO2``; Red Book 2005,
+    IR-4.4.2.1, Table VI) and in Hill order with it (``CCl4``, ``C6H12O6``).
+    Lattice water follows as ``·nH2O``.
     """
     if dec.substance_class == "ion" and len(dec.cations + dec.anions) == 1:
         ion = (dec.cations + dec.anions)[0].ion
         return f"{ion.label}^{format_charge(ion.charge)}"
     if not dec.is_ionic or comp.charge != 0:
-        return comp.canonical
+        return _inorganic_order(comp)
     if dec.substance_class == "acid" and any(t.ion.organic for t in dec.anions):
-        return comp.canonical
+        return _inorganic_order(comp)
     # a metal in two oxidation states is written once (Fe3O4, Pb3O4)
     merged: dict[str, IonTerm] = {}
     for term in dec.cations + dec.anions:
@@ -94,6 +97,17 @@ def normalized_formula(comp: ParsedFormula, dec: Decomposition) -> str:
         water = format_count(dec.hydrate_water)
         text += "·" + ("" if water == "1" else water) + "H2O"
     return text
+
+
+def _inorganic_order(comp: ParsedFormula) -> str:
+    """``comp.canonical`` (Hill order) with the element part written in
+    IUPAC order instead when there is no carbon (:func:`iupac_formula`):
+    ``TiCl4``, ``SiO2``, ``SF6``, ``Cl2O7``; carbon compounds keep Hill
+    order, and formulas of metals alone their alphabetical one."""
+    # alloys and intermetallics keep their alphabetical order (Cu3Au, not AuCu3)
+    if "C" in comp.as_dict() or all(is_metal(s) for s in comp.elements):
+        return comp.canonical
+    return iupac_formula(comp.counts) + comp.canonical[len(comp.hill):]
 
 
 def _adduct_text(part: str) -> str:

@@ -19,6 +19,9 @@ import pandas as pd
 import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
+
+from ionicity.scorer.note_codes import short_notes
+from ionicity.scorer.precision import round_significant_array
 import pytest
 from ionicity.pipelines.arrow_columns import values_array
 from ionicity.pipelines.batch_assembly import score_batch
@@ -112,6 +115,12 @@ def test_values_match_score_formula(tmp_path):
             value, want = row[column.name], expected[column.name]
             if column.dtype == "float64" and (want is None or want != want):
                 assert value is None, (text, column.name)  # NaN is written as a null cell
+            elif column.dtype == "float64":
+                # output files carry each column's significant digits (scorer.precision)
+                assert value == round_significant_array([want], column.digits)[0], (text, column.name)
+            elif column.name == "value_notes":
+                # and the notes' short codes (scorer.note_codes)
+                assert value == short_notes(want), text
             else:
                 assert value == want, (text, column.name)
 

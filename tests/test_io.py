@@ -34,8 +34,9 @@ def test_format_of():
     assert format_of("a.parquet") == "parquet"
     assert format_of("-") == "csv"
     assert format_of("parts/*.parquet") == "parquet"
+    assert format_of("a.xlsx") == "xlsx"
     with pytest.raises(InputError, match="extension"):
-        format_of("a.xlsx")
+        format_of("a.ods")
 
 
 def test_csv_cells_pass_through_as_text(tmp_path):

@@ -232,7 +232,7 @@ def test_fit_melting_says_what_to_install_without_the_extra(monkeypatch, tmp_pat
     args = parser.parse_args(["fit-melting", "-o", str(tmp_path / "out"), "--quiet"])
     assert mf.run_fit_melting(args) == 2
     err = capsys.readouterr().err
-    assert "pip install 'ionicity[melting]'" in err and "chemicals" in err
+    assert 'pip install "ionicity[melting]"' in err and 'pip install -e ".[melting]"' in err and "chemicals" in err
 
 
 def test_scoring_does_not_import_the_extra():

@@ -85,7 +85,8 @@ def test_inside_a_users_pipeline():
 def test_clone_and_params_follow_the_sklearn_contract():
     t = FormulaDescriptors(formula_column=0, columns=["mp_trend_index"])
     c = clone(t)
-    assert c.get_params() == {"formula_column": 0, "columns": ["mp_trend_index"]}
+    assert c.get_params() == {"formula_column": 0, "columns": ["mp_trend_index"], "on_error": "nan",
+                              "validity_column": False, "one_hot": ()}
     out = c.fit_transform(np.array([["NaCl", "x"], ["MgO", "y"]], dtype=object))
     assert out.shape == (2, 1)
 

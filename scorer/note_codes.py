@@ -1,0 +1,146 @@
+"""Short codes for the notes of ``value_notes`` in output files.
+
+A ``value_notes`` cell joins a row's notes with ``; `` and can run to
+hundreds of characters. Output files write each registered note as a short
+code (with the ion it names in brackets: ``hsab_no_IA(SO4(2-))``), explained
+once by ``ionicity columns --notes``; ``ionicity explain`` and the Python API
+keep the long text. A note no entry matches is written unchanged, so a new
+or reworded note is never lost, only left long: register it here (one line)
+to shorten it. The descriptor modules' wording is not touched.
+"""
+from __future__ import annotations
+
+import re
+
+from ionicity.scorer.caching import once
+
+__all__ = ["NOTE_CODES", "short_notes", "notes_table"]
+
+#: (code, the note's text as a regular expression, what it means). ``{ion}``
+#: in a pattern (or a group named ``ion``) captures the ion or figure it
+#: names, written in brackets after the code.
+NOTE_CODES: tuple[tuple[str, str, str], ...] = (
+    ("hydrate_anhydrous",
+     r"descriptors are for the anhydrous salt \(its lattice water, counted in hydrate_water, is not modelled;"
+     r" a hydrate usually melts or loses its water far lower\)",
+     "descriptors are for the anhydrous salt; lattice water is counted in hydrate_water but not modelled,"
+     " and a hydrate usually melts or loses its water far lower"),
+    ("not_ionic", r"[a-z_ ]+: ion-based values do not apply",
+     "no ions (see substance_class): the ion-based values do not apply"),
+    # the combined notes first: a shorter entry would otherwise take their first part
+    ("hsab_unlisted_no_IA",
+     r"no HSAB class or hardness for {ion}: ion not in Pearson's lists; no I and A tabulated here for its parent"
+     r" radical",
+     "no HSAB class or hardness for the ion: not in Pearson's lists, and no ionization energy and electron affinity"
+     " tabulated for its parent radical"),
+    ("hsab_unlisted_polyatomic_cation",
+     r"no HSAB class or hardness for {ion}: ion not in Pearson's lists; polyatomic cation: no ionization energies"
+     r" to apply \(I - A\)/2",
+     "no HSAB class or hardness for the polyatomic cation: not in Pearson's lists, and no ionization energies to"
+     " apply (I - A)/2"),
+    ("hsab_organic_unlisted_no_IA",
+     r"no HSAB class or hardness for {ion}: organic ion not in Pearson's lists; no I and A tabulated here for its"
+     r" parent radical",
+     "no HSAB class or hardness for the organic ion: not in Pearson's lists, and no ionization energy and electron"
+     " affinity tabulated for its parent radical"),
+    ("hsab_organic_unlisted_polyatomic_cation",
+     r"no HSAB class or hardness for {ion}: organic ion not in Pearson's lists; polyatomic cation: no ionization"
+     r" energies to apply \(I - A\)/2",
+     "no HSAB class or hardness for the organic polyatomic cation: not in Pearson's lists, and no ionization"
+     " energies to apply (I - A)/2"),
+    ("hsab_no_IA", r"no HSAB hardness for {ion}: no I and A tabulated here for its parent radical",
+     "no HSAB hardness for the ion: no ionization energy and electron affinity tabulated for its parent radical"),
+    ("hsab_unlisted", r"no HSAB class or hardness for {ion}: ion not in Pearson's lists",
+     "no HSAB class or hardness for the ion: it is not in Pearson's lists"),
+    ("hsab_class_unlisted", r"no HSAB class for {ion}: ion not in Pearson's lists",
+     "no HSAB class for the ion: it is not in Pearson's lists"),
+    ("hsab_organic_unlisted", r"no HSAB class or hardness for {ion}: organic ion not in Pearson's lists",
+     "no HSAB class or hardness for the organic ion: it is not in Pearson's lists"),
+    ("hsab_polyatomic_cation", r"no HSAB hardness for {ion}: polyatomic cation: no ionization energies to apply \(I - A\)/2",
+     "no HSAB hardness for the polyatomic cation: no ionization energies to apply (I - A)/2"),
+    ("hsab_pairing_unassessed", r"hsab_pairing not assessed: no cation-anion pair has both classes in Pearson's lists",
+     "hsab_pairing not assessed: no cation-anion pair has both classes in Pearson's lists"),
+    ("fajans_unassessed",
+     r"fajans_contact_index and covalency_risk not assessed: no cation-anion pair has both radii and an anion"
+     r" polarisability",
+     "fajans_contact_index and covalency_risk not assessed: no cation-anion pair has both radii and an anion"
+     " polarisability"),
+    ("fajans_no_radius",
+     r"no radius for {ion} \(Shannon \(1976\) lists no \(positive\) ionic radius for [^)\s]+(?:\([^)]*\))?\):"
+     r" its polarising power is left out",
+     "no Shannon (1976) radius for the ion: its polarising power is left out"),
+    ("kapustinskii_no_radius", r"Kapustinskii: Shannon \(1976\) lists no \(positive\) ionic radius for {ion}",
+     "Kapustinskii not computed: Shannon (1976) lists no (positive) ionic radius for the ion"),
+    ("vbt_no_volume", r"VBT: no formula-unit volume \(Shannon \(1976\) lists no \(positive\) ionic radius for {ion}\)",
+     "VBT not computed: no formula-unit volume, as Shannon (1976) lists no (positive) ionic radius for the ion"),
+    ("born_polyatomic", r"Born-Lande/Born-Mayer: no known structure type; the radius-ratio rule needs monatomic ions",
+     "Born-Lande/Born-Mayer not computed: no known structure type, and the radius-ratio rule needs monatomic ions"),
+    ("born_no_structure",
+     r"Born-Lande/Born-Mayer: no known structure type and no radius-ratio rule for this formula type",
+     "Born-Lande/Born-Mayer not computed: no known structure type and no radius-ratio rule for this formula type"),
+    ("born_no_radius_ratio",
+     r"Born-Lande/Born-Mayer: no known structure type and no Shannon radius for the radius ratio",
+     "Born-Lande/Born-Mayer not computed: no known structure type and no Shannon radius for the radius ratio"),
+    ("born_not_binary", r"Born-Lande/Born-Mayer: need a binary salt \(one cation and one anion\)",
+     "Born-Lande/Born-Mayer not computed: they need a binary salt (one cation and one anion)"),
+    ("hsab_proton", r"no HSAB hardness for H\(\+\): H\+ has no electrons: its hardness is infinite \(Parr & Pearson 1983\)",
+     "no HSAB hardness for H+: it has no electrons, so its hardness is infinite (Parr & Pearson 1983)"),
+    ("lattice_acid", r"lattice energies: not estimated for an acid \(a molecular substance, not an ionic crystal\)",
+     "lattice energies not estimated for an acid: a molecular substance, not an ionic crystal"),
+    ("melting_acid", r"melting trend: not estimated for an acid \(a molecular substance, not an ionic crystal\)",
+     "melting trend not estimated for an acid: a molecular substance, not an ionic crystal"),
+    ("born_ratio_unmatched",
+     r"Born-Lande/Born-Mayer: radius ratio r\+/r- = (?P<ion>[0-9.]+) fits none of the built-in prototypes for this"
+     r" formula type",
+     "Born-Lande/Born-Mayer not computed: the radius ratio r+/r- (in brackets) fits none of the built-in prototypes"
+     " for this formula type"),
+    ("melting_no_lattice_energy", r"melting trend: no lattice energy for this salt \(see the lattice-energy notes\)",
+     "melting trend not computed: no lattice energy for this salt (see the lattice-energy notes)"),
+    ("melting_no_fajans_term", r"melting trend: no Fajans contact index, its covalency term left out",
+     "melting trend without its covalency term: no Fajans contact index"),
+)
+
+# an ion as the notes write it: SO4(2-), [C4mim](+), Fe(3+), Cu(NH3)4(2+)
+_ION = r"(?P<ion>\S+?\([0-9]*[+-]\))"
+
+
+@once
+def _compiled():
+    """The patterns, compiled on first use (not at import: the command line
+    imports this module at start-up)."""
+    compiled = []
+    for code, pattern, _ in NOTE_CODES:
+        # a whole note: after the start of the cell or a "; ", up to a ";" or the end
+        regex = re.compile(r"(?:^|(?<=; ))" + pattern.replace("{ion}", _ION) + r"(?=;|$)")
+        compiled.append((code, regex))
+    return compiled
+
+
+
+def _code(code: str):
+    def replace(match: re.Match) -> str:
+        ion = match.groupdict().get("ion")
+        return f"{code}({ion})" if ion else code
+    return replace
+
+
+def short_notes(text: str | None) -> str | None:
+    """A ``value_notes`` cell with each registered note replaced by its code;
+    notes no entry matches stay as written.
+
+    >>> short_notes("no HSAB hardness for SO4(2-): no I and A tabulated here for its parent radical;"
+    ...             " a new note; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion)")
+    'hsab_no_IA(SO4(2-)); a new note; born_not_binary'
+    >>> short_notes("covalent molecular: ion-based values do not apply")
+    'not_ionic'
+    """
+    if not text:
+        return text
+    for code, regex in _compiled():
+        text = regex.sub(_code(code), text)
+    return text
+
+
+def notes_table() -> list[tuple[str, str]]:
+    """(code, meaning) of every registered note, for ``ionicity columns --notes``."""
+    return [(code, meaning) for code, _, meaning in NOTE_CODES]
