@@ -232,7 +232,7 @@ def test_value_notes_are_short_codes_in_output_files_and_long_with_full_precisio
     dest, _ = _score(tmp_path, b"formula\nNa2SO4\n", "full.csv", full_precision=True)
     assert next(csv.DictReader(dest.open()))["value_notes"] == long_text
     # a note no entry knows passes through unchanged, its neighbours coded
-    assert short_notes("something new; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion)") == (
+    assert short_notes("something new; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion) or a measured structure") == (
         "something new; born_not_binary")
     codes = [c for c, _, _ in NOTE_CODES]
     assert len(codes) == len(set(codes))
