@@ -74,18 +74,22 @@ the one caution text, quoted in both columns' descriptions).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from ionicity.scorer import character, fajans, lattice
+from ionicity.scorer import melting_routes as routes
+from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.descriptor import fmt, protocol, result_class
+from ionicity.scorer.ion_library import get_ion
 from ionicity.scorer.model import Column, Decomposition, Ion
 from ionicity.scorer.tables import table
 
 __all__ = [
     "COLUMNS",
+    "MELTING_CLASS_BANDS",
     "MELTING_CLASSES",
     "TREND_WEIGHTS",
     "CAUTION",
@@ -140,6 +144,16 @@ TREND_WEIGHTS: dict[str, float] = {
     "chain_melting_K": 414.6,  # polyethylene, the long-chain limit (Wunderlich 1980, from memory)
     "packing_free_torsions": 4.5,  # tau of a hexyl chain: longer chains pack
     "delocalised": 0.30,
+    # nitrides and other monatomic anions of charge -3 or below: the volume-based energy
+    # of a small triply charged anion overstates the cohesion that melting breaks (Li3N 1086 K);
+    # least-squares on the calibration part of the open training set (pipelines.melting_weights)
+    "trivalent_anion": 0.14,
+    # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol): least squares on the
+    # calibration rows of datasets/melting/molecular_compounds.csv (pipelines.melting_weights),
+    # rounded; validation on that file's validation rows (the compounds named in the issue)
+    "molecular_contact_kJ_mol": 1.1,
+    "molecular_polarisability_kJ_mol_A3": 0.61,
+    "molecular_bridge_kJ_mol": 7.1,
 }
 
 
@@ -198,6 +212,7 @@ def melting_trend_index(
     flexibility_entropy_J_mol_K=0.0,
     chain_packing_entropy_J_mol_K=0.0,
     delocalised_fraction=0.0,
+    trivalent_anion_fraction=0.0,
     *,
     weights=None,
 ):
@@ -209,7 +224,7 @@ def melting_trend_index(
 
         I_\mathrm{ion} = c_0 + a \log_{10}(u/u_\mathrm{ref})
             - w_\chi (\bar\chi - \bar\chi_\mathrm{ref}) - w_f f - w_p p
-            - w_a f_\mathrm{poly} - w_\nu \log_{10}(\nu/2) - w_d f_\mathrm{deloc}
+            - w_a f_\mathrm{poly} - w_\nu \log_{10}(\nu/2) - w_d f_\mathrm{deloc} - w_3 f_3
 
     then the organic ions' entropy and chain packing, as ``T = dH / dS`` with
     the ionic part carrying ``dS_ion = nu s0`` and ``dH_ion = 10**I_ion dS_ion``:
@@ -251,7 +266,11 @@ def melting_trend_index(
     chain_packing_entropy_J_mol_K : float or array-like, default=0.0
         ``S_pack`` [J/(mol K)].
     delocalised_fraction : float or array-like, default=0.0
-        Count share of ions with a resonance-delocalised charge, 0 to 1.
+        Count share of ions with a resonance-delocalised charge, 0 to 1;
+        an anion counted only beside organic cations (a small hard cation
+        such as Li+ binds to the anion's donor atoms: LiTFSI melts at 507 K).
+    trivalent_anion_fraction : float or array-like, default=0.0
+        Count share of monatomic anions of charge -3 or below (nitrides), weight ``w_3``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -295,6 +314,7 @@ def melting_trend_index(
             - w["polyatomic_anion"] * poly
             - w["ions_per_formula_unit"] * np.log10(nu / 2.0)
             - w["delocalised"] * deloc
+            - w["trivalent_anion"] * np.asarray(trivalent_anion_fraction, dtype=float)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part
@@ -397,6 +417,7 @@ class MeltingTerms:
     chain_packing_entropy_J_mol_K: float
     delocalised_fraction: float
     organic: bool
+    trivalent_anion_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -408,6 +429,7 @@ class MeltingTerms:
             self.lattice_energy_per_ion_kJ_mol, self.contact_chi_pauling, self.contact_index,
             self.pseudo_noble_gas, self.polyatomic_anion_fraction, self.ions_per_formula_unit,
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
+            self.trivalent_anion_fraction,
         )
 
 
@@ -422,7 +444,38 @@ def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     """
     if not dec.is_ionic:
         return None
-    return _gather_terms(dec, lattice.analyse(dec), fajans.analyse(dec), character.analyse(dec))
+    energies = lattice.analyse(dec)
+    analogue_note = None
+    if not (math.isfinite(energies.lattice_energy_vbt_kJ_mol) or math.isfinite(energies.lattice_energy_kapustinskii_kJ_mol)):
+        analogue = _radius_analogue(dec)
+        if analogue is not None:
+            energies, analogue_note = lattice.analyse(analogue[0]), analogue[1]
+    terms = _gather_terms(dec, energies, fajans.analyse(dec), character.analyse(dec))
+    if analogue_note:
+        terms = replace(terms, lattice_energy_basis=terms.lattice_energy_basis + "; " + analogue_note,
+                        notes=(*terms.notes, "melting trend: " + analogue_note))
+    return terms
+
+
+# Cations with no Shannon radius, and the cation of the same group and charge whose
+# radius stands in for theirs in the lattice energy (both ns2 lone-pair ions; Sn2+ is
+# not in Shannon's table, Acta Cryst. 1976, A32, 751, from memory; Pb2+ is, 119 pm)
+RADIUS_ANALOGUES: dict[str, str] = {"Sn(2+)": "Pb(2+)"}
+
+
+def _radius_analogue(dec: Decomposition) -> tuple[Decomposition, str] | None:
+    """The decomposition with each cation of :data:`RADIUS_ANALOGUES` replaced by its stand-in."""
+    swapped, used = [], []
+    for t in dec.cations:
+        stand_in = RADIUS_ANALOGUES.get(t.ion.ion_id)
+        if stand_in is None:
+            swapped.append(t)
+            continue
+        swapped.append(replace(t, ion=get_ion(stand_in)))
+        used.append(f"{t.ion.ion_id} has no Shannon radius: lattice energy with the radius of {stand_in}")
+    if not used:
+        return None
+    return replace(dec, cations=tuple(swapped)), "; ".join(used)
 
 
 def _gather_terms(
@@ -462,7 +515,9 @@ def _gather_terms(
         if t.ion.organic or t.ion.ion_id in _shape_table():
             flex += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(tau, sigma)
             pack += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(max(tau - free, 0.0))
-        if delocalised:
+        # a delocalised anion beside a small hard inorganic cation still binds it through its donor atoms
+        anion_with_hard_cation = t in dec.anions and not all(c.ion.organic for c in dec.cations)
+        if delocalised and not anion_with_hard_cation:
             deloc += t.count
     return MeltingTerms(
         lattice_energy_kJ_mol=float(energy),
@@ -476,6 +531,9 @@ def _gather_terms(
         chain_packing_entropy_J_mol_K=float(pack),
         delocalised_fraction=float(deloc / nu) if nu else 0.0,
         organic=any(t.ion.organic for t in terms),
+        trivalent_anion_fraction=(
+            sum(t.count for t in dec.anions if t.ion.monatomic and t.ion.charge <= -3) / anion_total
+            if anion_total else 0.0),
         notes=tuple(notes),
     )
 
@@ -483,48 +541,55 @@ def _gather_terms(
 # ------------------------------------------------------------ module protocol
 
 _SOURCE_INDEX = (
-    "defined here (scorer.melting.melting_trend_index): lattice energy per ion (Glasser-Jenkins VBT or"
-    " Kapustinskii), Fajans covalency, Dannenfelser & Yalkowsky, Ind. Eng. Chem. Res. 1996, 35, 1483 (flexibility);"
-    " weights fitted to open melting points (chemicals 1.5.2) and rounded"
+    "defined here (scorer.melting.melting_trend_index, scorer.melting_routes): salts: lattice energy per ion"
+    " (Glasser-Jenkins VBT or Kapustinskii), Fajans covalency, Dannenfelser & Yalkowsky, Ind. Eng. Chem. Res."
+    " 1996, 35, 1483 (flexibility); molecules: T = dH/dS, Walden's rule with Dannenfelser-Yalkowsky symmetry;"
+    " networks and metals: element melting points (CRC Handbook via chemicals); weights fitted to open melting"
+    " points (chemicals 1.5.2) and rounded"
+)
+_BANDS_TEXT = ", ".join(
+    f"{name} ({lo:g}-{hi:g} K)" if math.isfinite(hi) else f"{name} (from {lo:g} K)"
+    for name, lo, hi, _ in MELTING_CLASS_BANDS
 )
 
 COLUMNS: tuple[Column, ...] = (
     Column(
         "mp_trend_index", "float64", "dimensionless (log10 K scale)",
-        "melting trend index: higher means a higher expected melting point; reads as log10 of a trend"
-        " temperature in K (a step of 0.1 is about 26 %), a ranking aid with a typical scatter of a factor 1.5,"
-        " not a prediction; anhydrous salt; "
+        "melting trend index for every compound, one scale: higher means a higher expected melting point;"
+        " reads as log10 of a trend temperature in K (a step of 0.1 is about 26 %), a ranking aid with a typical"
+        " scatter of a factor 1.5, not a prediction; anhydrous compound; "
         + CAUTION,
-        "melting_trend_index: lattice energy per ion, contact electronegativity, Fajans contact index,"
-        " 18/18+2-electron cation, polyatomic-anion share, ions per formula unit, organic-ion flexibility"
-        " and symmetry (Dannenfelser-Yalkowsky), chain packing, charge delocalisation",
+        "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
+        " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
+        " formula unit, nitride share, organic-ion flexibility and symmetry, chain packing, charge"
+        " delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids the mean of both;"
+        " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
-        "several ions: lattice energy of the whole formula unit over its ion count; contact terms averaged over"
-        " cation-anion pairs weighted by the product of stoichiometric fractions; entropy terms summed over ions",
+        "salts: lattice energy of the whole formula unit over its ion count; contact terms averaged over"
+        " cation-anion pairs weighted by the product of stoichiometric fractions; entropy terms summed over ions;"
+        " molecules: sums over peripheral atoms; networks and metals: atom-fraction mean",
     ),
     Column(
         "melting_class", "string", "",
-        "ionic_liquid (trend below 100 C, the trade's definition), low_melting_salt (100-300 C), molten_salt"
-        " (300-1500 C) or refractory (1500 C and above); from mp_trend_index, so as rough as it; " + CAUTION,
-        "melting_class_from_index: thresholds on 10**mp_trend_index in K",
+        "band of the trend temperature; salts keep the trade's names, other compounds names of their own: "
+        + _BANDS_TEXT + "; from mp_trend_index, so as rough as it; " + CAUTION,
+        "melting_class_for: bands of MELTING_CLASS_BANDS on 10**mp_trend_index in K",
         "ionic liquid: Wasserscheid & Welton, Ionic Liquids in Synthesis, 2008 (from memory); refractory: ISO 836"
-        " (from memory); low-melting and molten-salt bounds common practice",
+        " (from memory); other bounds common practice",
+    ),
+    Column(
+        "mp_route", "string", "",
+        "which route gave mp_trend_index: salt, molecular, chain_layer or element_mixture (empty: none applies)",
+        "ROUTE_OF_CLASS on substance_class",
+        "defined here (scorer.melting_routes)",
     ),
 )
 
 
-
 MeltingTrend = result_class(
-    "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.", extra=(("terms", "MeltingTerms | None", None),),
+    "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.",
+    extra=(("terms", "MeltingTerms | None", None), ("route_steps", "tuple", ())),
 )
-
-
-def _why_not(dec: Decomposition) -> str | None:
-    if not dec.is_ionic:
-        return None  # covalent, metallic, elements: the index does not apply, no note needed
-    if dec.substance_class == "acid":
-        return "melting trend: not estimated for an acid (a molecular substance, not an ionic crystal)"
-    return None
 
 
 _NO_LATTICE_ENERGY = "melting trend: no lattice energy for this salt (see the lattice-energy notes)"
@@ -534,9 +599,15 @@ _HYDRATE = (
 
 
 def _summary(result: MeltingTrend) -> tuple[str, ...]:
-    if result.terms is None or result.mp_trend_index != result.mp_trend_index:
+    if result.mp_trend_index != result.mp_trend_index:
         return ()
-    return _steps(result.terms, result.terms.index())
+    head = (
+        f"mp_route = {result.mp_route}; mp_trend_index = {fmt(result.mp_trend_index, '.3f')} (trend temperature"
+        f" {trend_temperature_K(result.mp_trend_index):.0f} K; a ranking aid, typical scatter a factor 1.5)",
+        f"melting_class = {result.melting_class} (bands: {_BANDS_TEXT})",
+    )
+    salt = _steps(result.terms, result.terms.index()) if result.terms is not None else ()
+    return (*head, *salt, *result.route_steps, "  caution: " + CAUTION)
 
 
 def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
@@ -544,11 +615,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
     u = terms.lattice_energy_per_ion_kJ_mol
     kappa = 0.0 if not math.isfinite(terms.contact_index) else terms.contact_index
     return (
-        f"mp_trend_index = {fmt(index, '.3f')} (trend temperature {trend_temperature_K(index):.0f} K; a ranking aid,"
-        " typical scatter a factor 1.5)",
-        f"melting_class = {melting_class_from_index(index)} (thresholds on the trend temperature:"
-        + ", ".join(f" {name} < {upper:g} K" for name, upper, _ in MELTING_CLASSES[:-1]) + ")",
-        "  T = (10**I_ion * nu*s0 + T_PE*w_s*S_pack) / (nu*s0 + w_s*S_flex), I = log10 T (melting_trend_index)",
+        f"  salt: I = {fmt(index, '.3f')}; T = (10**I_ion * nu*s0 + T_PE*w_s*S_pack) / (nu*s0 + w_s*S_flex),"
+        " I = log10 T (melting_trend_index)",
         f"  cohesion: {w['cohesion_exponent']} * log10(u / {w['reference_energy_per_ion_kJ_mol']:g}) with"
         f" u = {terms.lattice_energy_kJ_mol:.0f} kJ/mol / {terms.ions_per_formula_unit:g} ions = {u:.0f} kJ/mol"
         f" ({terms.lattice_energy_basis})",
@@ -557,18 +625,53 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f", -{w['pseudo_noble_gas']} * 18/18+2-electron cation ({'yes' if terms.pseudo_noble_gas else 'no'})",
         f"  entropy: -{w['polyatomic_anion']} * polyatomic-anion share {terms.polyatomic_anion_fraction:.2f}"
         f", -{w['ions_per_formula_unit']} * log10(nu/2), nu = {terms.ions_per_formula_unit:g}",
+        f"  nitrides: -{w['trivalent_anion']} * share of monatomic anions of charge -3 or below"
+        f" {terms.trivalent_anion_fraction:.2f}",
         f"  organic ions: S_flex = {terms.flexibility_entropy_J_mol_K:.1f} J/(mol K), S_pack ="
         f" {terms.chain_packing_entropy_J_mol_K:.1f} J/(mol K) (Dannenfelser-Yalkowsky, w_s = {w['flexibility']},"
         f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
-        f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions {terms.delocalised_fraction:.2f}",
-        "  caution: " + CAUTION,
+        f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions with organic counter-ions"
+        f" {terms.delocalised_fraction:.2f}",
     )
+
+
+def _salt(dec: Decomposition) -> tuple[float, MeltingTerms | None, list[str]]:
+    terms = melting_terms(dec)
+    if terms is None:
+        return math.nan, None, []
+    notes = list(terms.notes)
+    if not math.isfinite(terms.lattice_energy_kJ_mol):
+        return math.nan, terms, [*notes, _NO_LATTICE_ENERGY]
+    for t in dec.cations + dec.anions:
+        if t.ion.organic and t.ion.ion_id not in _shape_table():
+            notes.append(f"melting trend: flexibility of {t.ion.ion_id} estimated from its composition")
+    return float(terms.index()), terms, notes
+
+
+def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
+    m = routes.molecular_terms(dec)
+    if m is None:
+        return math.nan, ()
+    w = TREND_WEIGHTS
+    entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
+    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, w)
+    temperature = routes.molecular_melting_K(cohesion, entropy)
+    steps = (
+        f"  molecular: T = dH_m / dS_m = {cohesion:.1f} kJ/mol / {entropy:.1f} J/(mol K) = {temperature:.0f} K",
+        f"  entropy: 56.5 - R ln sigma + R ln 2.435**tau (Walden; Dannenfelser & Yalkowsky 1996), sigma ="
+        f" {m.symmetry_number:g}, tau = {m.torsions_tau:g} ({m.basis})",
+        f"  cohesion: sum over {len(m.ligand_polarisabilities_A3)} peripheral atoms of ({w['molecular_contact_kJ_mol']}"
+        f" + {w['molecular_polarisability_kJ_mol_A3']} * alpha/A3), alphas"
+        f" {', '.join(f'{a:.2f}' for a in m.ligand_polarisabilities_A3)}; + {w['molecular_bridge_kJ_mol']} kJ/mol"
+        f" * {m.open_sites} open coordination site(s) bridged in the crystal",
+    )
+    return math.log10(temperature) if temperature > 0 else math.nan, steps
 
 
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
           summary=_summary, maxsize=16384)
 def analyse(dec: Decomposition) -> MeltingTrend:
-    """``mp_trend_index`` and ``melting_class`` for one compound, with notes and explain steps.
+    """``mp_trend_index``, ``melting_class`` and ``mp_route`` for one compound, with notes and explain steps.
 
     Never raises (see :mod:`scorer.descriptor`): odd input gives NaN/None and a note.
 
@@ -580,27 +683,50 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     'ionic_liquid'
     >>> analyse(decompose(parse_formula("MgO"))).melting_class
     'refractory'
+    >>> r = analyse(decompose(parse_formula("TiCl4")))
+    >>> r.mp_route, r.melting_class
+    ('molecular', 'liquid_at_room_temperature')
     """
-    reason = _why_not(dec)
-    if reason is not None:
-        return MeltingTrend(notes=(reason,), steps=(reason,))
-    terms = melting_terms(dec)
-    if terms is None:
-        return MeltingTrend(steps=("melting trend: not an ionic compound",))
-    notes = list(terms.notes)
-    if not math.isfinite(terms.lattice_energy_kJ_mol):
-        return MeltingTrend(notes=(*notes, _NO_LATTICE_ENERGY), steps=(_NO_LATTICE_ENERGY,), terms=terms)
-    # finite here: a finite lattice energy over a positive ion count, the other terms finite or defaulted
-    index = terms.index()
+    route = routes.ROUTE_OF_CLASS.get(dec.substance_class)
+    if route == "salt" and not dec.is_ionic:
+        route = None
+    terms, notes, steps = None, [], ()
+    index = math.nan
+    if route == "salt":
+        index, terms, notes = _salt(dec)
+    elif route == "molecular":
+        index, steps = _molecular(dec)
+    elif route == "chain_layer":
+        molecular, steps = _molecular(dec)
+        salt, terms, notes = _salt(dec) if dec.is_ionic else (math.nan, None, [])
+        if math.isfinite(salt) and math.isfinite(molecular):
+            index = routes.chain_layer_index(salt, molecular)
+            steps = (f"  chain/layer solid: I = mean of the salt index {salt:.3f} and the molecular index"
+                     f" {molecular:.3f} (chain_layer_index)", *steps)
+        else:
+            index = molecular
+            steps = ("  chain/layer solid without an ionic reading: the molecular index alone", *steps)
+    elif route == "element_mixture":
+        temperature, how = routes.element_mixture_melting_K(dec.composition)
+        index = math.log10(temperature) if temperature > 0 else math.nan
+        steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"
+                 f" (solid at 25 C; CRC Handbook via chemicals) = {temperature:.0f} K, {how}",)
+        if not math.isfinite(index):
+            notes.append("melting trend: " + how)
+    else:
+        reason = "melting trend: no route for substance class " + str(dec.substance_class)
+        return MeltingTrend(steps=(reason,))
+    if not math.isfinite(index):
+        return MeltingTrend(notes=tuple(notes), steps=tuple(notes) or ("melting trend: not computed",),
+                            terms=terms, mp_route=route)
     if dec.hydrate_water:
         notes.append(_HYDRATE)
-    for t in dec.cations + dec.anions:
-        if t.ion.organic and t.ion.ion_id not in _shape_table():
-            notes.append(f"melting trend: flexibility of {t.ion.ion_id} estimated from its composition")
     return MeltingTrend(
         mp_trend_index=round(float(index), 4),
-        melting_class=melting_class_from_index(index),
+        melting_class=melting_class_for(trend_temperature_K(index), salt=route == "salt"),
+        mp_route=route,
         terms=terms,
+        route_steps=steps,
         notes=tuple(notes),
     )
 

@@ -70,6 +70,7 @@ TABLES: dict[str, TableSpec] = {
             ("ion_id", "torsions_tau", "symmetry_number", "charge_delocalised", "source"),
             "scorer.melting",
         ),
+        TableSpec("element_melting_points.csv", ("symbol", "mp_K", "source"), "scorer.melting_routes"),
         TableSpec(
             "madelung_prototypes.csv",
             ("prototype", "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",

@@ -286,7 +286,7 @@ def test_ion_shape_counts_torsions_by_the_rule():
 
 def test_columns_are_declared_once_with_units_and_sources():
     names = [c.name for c in melting.COLUMNS]
-    assert names == ["mp_trend_index", "melting_class"]
+    assert names == ["mp_trend_index", "melting_class", "mp_route"]
     for column in melting.COLUMNS + melting_model.MODEL_COLUMNS:
         assert column.source and column.method and column.description
     assert [c.name for c in melting_model.MODEL_COLUMNS] == ["mp_predicted_K", "mp_interval_low_K", "mp_interval_high_K"]
@@ -299,17 +299,19 @@ def test_describe_returns_every_column():
     assert notes == []
 
 
-@pytest.mark.parametrize("formula", ["SiO2", "CCl4", "Fe", "O2"])
-def test_non_ionic_entries_get_empty_values_without_a_note(formula):
-    values, notes = _describe(formula)
+@pytest.mark.parametrize("formula, route", [("SiO2", "element_mixture"), ("CCl4", "molecular"), ("Fe", "element_mixture"),
+                                            ("HCl", "molecular")])
+def test_every_kind_of_compound_gets_an_index_and_its_route(formula, route):
+    # one scale for all (issue 13): networks, metals and molecules are no longer left empty
+    values, _ = _describe(formula)
+    assert math.isfinite(values["mp_trend_index"]) and values["mp_route"] == route
+    assert values["melting_class"] not in ("ionic_liquid", "low_melting_salt", "molten_salt")
+
+
+def test_an_element_with_no_solid_form_at_room_temperature_gets_no_index_and_a_reason():
+    values, notes = _describe("O2")
     assert math.isnan(values["mp_trend_index"]) and values["melting_class"] is None
-    assert notes == []
-
-
-def test_acids_get_empty_values_and_a_reason():
-    values, notes = _describe("HCl")
-    assert math.isnan(values["mp_trend_index"])
-    assert any("acid" in n for n in notes)
+    assert any("solid at 25 C" in n for n in notes)
 
 
 def test_hydrates_are_scored_as_the_anhydrous_salt_with_a_note():
@@ -337,7 +339,9 @@ def test_explain_names_the_method_and_the_inputs():
     text = "\n".join(lines)
     assert "mp_trend_index" in text and "melting_class = ionic_liquid" in text
     assert "Dannenfelser-Yalkowsky" in text and "kJ/mol" in text and "safety data sheet" in text
-    assert melting.explain(decompose(parse_formula("HCl")))[0].startswith("melting trend: not estimated")
+    assert "mp_route = salt" in text
+    molecular = "\n".join(melting.explain(decompose(parse_formula("TiCl4"))))
+    assert "mp_route = molecular" in molecular and "Walden" in molecular and "sigma = 12" in molecular
 
 
 def test_describe_gives_the_same_values_after_its_cache_is_cleared():

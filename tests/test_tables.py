@@ -27,6 +27,7 @@ ROWS = {
     "structure_prototypes.csv": 93,
     "ion_shape.csv": 72,
     "madelung_prototypes.csv": 8,
+    "element_melting_points.csv": 79,
 }
 
 
