@@ -11,11 +11,11 @@ Two named sets, each with its source in the repository:
   ``ionicity fit-melting`` builds from ``chemicals``
   (:func:`pipelines.melting_data.build_open_training_set`) whose formula is
   not in that file; its figures are the ones the README quotes.
-* **organic salts**: the organic salts of the open training set, split by
-  :func:`calibration_split` (SHA-1 of the normalised formula: 70 %
-  calibration, 30 % validation), and ``datasets/melting/ionic_liquids.csv``
-  (split by its ``set`` column). The organic weights are fitted on the
-  calibration rows by Nelder-Mead, the inorganic ones held.
+* **organic salts**: calibration is the ``calibration`` rows of
+  ``datasets/melting/ionic_liquids.csv`` (published values, a source per
+  row); the organic weights are fitted on them by Nelder-Mead, the inorganic
+  ones held. Validation is its ``validation`` rows and every organic salt of
+  the open training set not listed in that file.
 * **molecules**: ``datasets/melting/molecular_compounds.csv`` names its rows
   ``calibration`` or ``validation``; melting points are read at run time with
   ``chemicals.phase_change.Tm``. The three weights of the molecular route are
@@ -29,7 +29,6 @@ from __future__ import annotations
 
 import argparse
 import csv
-import hashlib
 import math
 import sys
 from dataclasses import replace
@@ -40,6 +39,7 @@ from ionicity.scorer import melting
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
+from ionicity.scorer.record import normalized_formula
 
 MOLECULAR_SET = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "molecular_compounds.csv"
 CALIBRATION_SALTS = MOLECULAR_SET.with_name("wikidata_salts.csv")
@@ -55,16 +55,6 @@ SALT_FEATURES = (
     ("high_charge_cation", lambda t: -t.cation_charge_above_3),
     ("framework_oxoanion", lambda t: t.framework_oxoanion_fraction),
 )
-
-
-def calibration_split(formula: str) -> str:
-    """``calibration`` or ``validation`` for a normalised formula: fixed, 70/30, by its SHA-1.
-
-    >>> calibration_split("NaCl"), calibration_split("MgO")
-    ('calibration', 'validation')
-    """
-    digest = int(hashlib.sha1(formula.encode("utf-8")).hexdigest(), 16)
-    return "calibration" if digest % 10 < 7 else "validation"
 
 
 def _figures(predicted_K, measured_K, salt=True) -> dict:
@@ -115,13 +105,18 @@ ORGANIC_WEIGHTS = ("flexibility", "delocalised", "protic")
 def organic_rows(training_rows):
     """(split, terms, measured K, formula) of salts with an organic cation or a bracketed ion.
 
-    From the open training set (split by :func:`calibration_split`) and
-    ``datasets/melting/ionic_liquids.csv`` (split as its ``set`` column says).
+    ``datasets/melting/ionic_liquids.csv`` split as its ``set`` column says; the
+    open training set's organic salts not in that file are validation.
     """
     out = []
-    sources = [(calibration_split(r["formula_normalized"]), r["formula_normalized"], float(r["mp_K"])) for r in training_rows]
     with open(IONIC_LIQUID_SET, newline="", encoding="utf-8") as handle:
-        sources += [(r["set"], r["formula"], float(r["mp_K"])) for r in csv.DictReader(handle)]
+        sources = [(r["set"], r["formula"], float(r["mp_K"])) for r in csv.DictReader(handle)]
+    listed = set()
+    for _, formula, _ in sources:
+        comp = parse_formula(formula)
+        listed.add(normalized_formula(comp, decompose(comp)))
+    sources += [("validation", r["formula_normalized"], float(r["mp_K"])) for r in training_rows
+                if r["formula_normalized"] not in listed]
     for split, formula, mp in sources:
         dec = decompose(parse_formula(formula))
         if not dec.is_ionic or not (any(t.ion.organic for t in dec.cations)
