@@ -503,6 +503,12 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index = math.log10(temperature) if temperature > 0 else math.nan
         steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"
                  f" (solid at 25 C; CRC Handbook via chemicals) = {temperature:.0f} K, {how}",)
+        salt = _salt(dec)[0] if dec.is_ionic else math.nan
+        if math.isfinite(salt) and not salt <= index:
+            # a polar network (GaN, AlN) holds at least as well as its ionic reading
+            steps = (*steps, f"  the ionic reading is higher, {trend_temperature_K(salt):.0f} K: it is taken"
+                     " (a polar network holds at least as well as its ionic lattice)")
+            index = salt
         if not math.isfinite(index):
             notes.append("melting trend: " + how)
     else:

@@ -18,7 +18,9 @@ mean something:
 * ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
   ``intermetallic``, ``zintl_phase``, ``element``): the stated rule of
   :func:`element_mixture_melting_K`, the atom-fraction weighted mean of the
-  melting points of the elements that are solids at room temperature.
+  melting points of the elements that are solids at room temperature, or the
+  salt index where the compound has an ionic reading and that is higher
+  (polar networks such as GaN and AlN).
 
 Melting classes (:data:`MELTING_CLASS_BANDS`) share the same temperature
 bands; salts keep the trade's names (``ionic_liquid`` is a salt melting below
