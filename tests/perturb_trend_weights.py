@@ -25,7 +25,10 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[1]
 # the tests that check the index and its weights; the rest of the suite never
 # reads TREND_WEIGHTS except through these modules' functions
-MELTING_TESTS = ("tests/test_melting.py", "tests/test_trend_weights.py")
+MELTING_TESTS = (
+    "tests/test_melting.py", "tests/test_trend_weights.py", "tests/test_melting_routes.py",
+    "tests/test_trend_weights_routes.py",
+)
 FACTORS = (1.5, 0.5)
 
 _CHILD = """
