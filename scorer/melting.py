@@ -350,8 +350,8 @@ _SOURCE_INDEX = (
     "defined here (scorer.melting.melting_trend_index, scorer.melting_routes): salts: lattice energy per ion"
     " (Glasser-Jenkins VBT or Kapustinskii), Fajans covalency, Dannenfelser & Yalkowsky, Ind. Eng. Chem. Res."
     " 1996, 35, 1483 (flexibility); molecules: T = dH/dS, Walden's rule with Dannenfelser-Yalkowsky symmetry;"
-    " networks and metals: element melting points (CRC Handbook via chemicals); weights fitted to open melting"
-    " points (chemicals 1.5.2) and rounded"
+    " networks and metals: element melting points (CRC Handbook via chemicals); weights fitted on named"
+    " calibration sets (pipelines.melting_weights) and rounded"
 )
 _BANDS_TEXT = ", ".join(
     f"{name} ({lo:g}-{hi:g} K)" if math.isfinite(hi) else f"{name} (from {lo:g} K)"
