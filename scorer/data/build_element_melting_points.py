@@ -22,6 +22,7 @@ NOT_SOLID = {"P", "H", "He", "N", "O", "F", "Ne", "Cl", "Ar", "Br", "Kr", "I", "
 
 
 def build() -> str:
+    # chemicals is the optional melting extra, needed only to rebuild (about 1 s to import, measured)
     import chemicals
     from chemicals.elements import periodic_table
     from chemicals.phase_change import Tm
