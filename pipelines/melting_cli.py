@@ -68,6 +68,8 @@ def add_fit_melting_parser(subparsers) -> argparse.ArgumentParser:
     parser.add_argument("--formula-col", default="formula", metavar="COL", help="formula column of --table (default: formula)")
     parser.add_argument("--mp-col", metavar="COL", help="melting-point column of --table, in K (default: mp_K, melting_point_K or tm_K)")
     parser.add_argument("--no-open-data", action="store_true", help="use only --table, not the chemicals package")
+    parser.add_argument("--no-ionic-liquids", action="store_true",
+                        help="leave out the published ionic-liquid melting points of datasets/melting/ionic_liquids.csv")
     parser.add_argument("--tolerance-K", type=float, default=TOLERANCE_K, metavar="K",
                         help=f"sources further apart than this disagree (default: {TOLERANCE_K:g})")
     parser.add_argument("--folds", type=int, default=5, metavar="N", help="grouped cross-validation folds (default: 5)")

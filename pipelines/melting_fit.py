@@ -58,7 +58,10 @@ from ionicity.pipelines.melting_cli import (
 from ionicity.pipelines.melting_data import build_open_training_set, combine_training_sets, read_user_table
 from ionicity.pipelines.melting_model_file import save_model
 from ionicity.pipelines.melting_plot import parity_plot
+from ionicity.pipelines.melting_screen import cation_family
 from ionicity.scorer import melting_model
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
 
 __all__ = [
     "FitConfig",
@@ -74,16 +77,31 @@ __all__ = [
 ]
 
 
+# grouped cross-validation schemes: the families of the main anion, the main cation's
+# element, and the cation family (organic cations by their ion family: imidazolium,
+# pyrrolidinium, ammonium-protic...), which holds out whole ionic-liquid families
+CV_SCHEMES = ("anion_family", "cation_element", "cation_family")
+# published ionic-liquid melting points, a source per row (datasets/melting/README.md); in a
+# source checkout only, so an installed package trains without them (and says so)
+IONIC_LIQUID_TABLE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "ionic_liquids.csv"
+
+
 # ------------------------------------------------------------------- features
 
 
-def feature_matrix(rows) -> tuple[np.ndarray, list[dict]]:
+def feature_matrix(rows, progress=None) -> tuple[np.ndarray, list[dict]]:
     """:data:`scorer.melting_model.MODEL_FEATURES` for training rows, and their scored records.
 
     Each row's ``formula_normalized`` goes through
     :func:`scorer.melting_model.features_for_formula`, the features prediction uses.
+    ``progress`` (a callable) hears about every 200 rows.
     """
-    scored = [melting_model.features_for_formula(row["formula_normalized"]) for row in rows]
+    say = progress or (lambda text: None)
+    scored = []
+    for i, row in enumerate(rows):
+        if i and i % 200 == 0:
+            say(f"  scored {i}/{len(rows)} training rows")
+        scored.append(melting_model.features_for_formula(row["formula_normalized"]))
     if not scored:
         return np.empty((0, len(melting_model.MODEL_FEATURES))), []
     return np.vstack([x for _, x in scored]), [record for record, _ in scored]
@@ -185,8 +203,20 @@ def _split_calibration(n: int, fraction: float, rng: np.random.Generator) -> tup
     return np.sort(order[n_cal:]), np.sort(order[:n_cal])
 
 
+def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: float) -> tuple[float, dict]:
+    """Pooled and per-group (Mondrian) split-conformal half-widths; a group with fewer
+    than 10 calibration rows takes the pooled one."""
+    pooled = _conformal_halfwidth(log_residuals, coverage)
+    per_group = {}
+    for g in melting_model.INTERVAL_GROUPS:
+        mine = log_residuals[labels == g]
+        per_group[g] = _conformal_halfwidth(mine, coverage) if len(mine) >= 10 else pooled
+    return pooled, per_group
+
+
 def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, coverage: float = 0.9,
-                             calibration_fraction: float = 0.25, seed: int = 0) -> dict:
+                             calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
+                             progress=None) -> dict:
     """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
 
     In every fold the training part is split once more: the model is fitted
@@ -210,14 +240,20 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         Target coverage of the intervals.
     calibration_fraction : float, default=0.25
     seed : int, default=0
+    interval_groups : array-like of shape (n_samples,), optional
+        :func:`scorer.melting_model.interval_group` per row: the intervals are
+        Mondrian (a half-width per group) and coverage is counted per group.
+    progress : callable, optional
+        Hears about every fold.
 
     Returns
     -------
     dict
         ``model``, ``baseline_mean``, ``baseline_lattice_energy``: MAE, RMSE,
         R^2, Spearman rho over the out-of-fold predictions;
-        ``interval_coverage`` and ``interval_mean_width_K``; ``folds``;
-        ``oof_predictions_K`` (list).
+        ``interval_coverage`` and ``interval_mean_width_K``, overall and
+        ``per_group`` (coverage, width, rows, and the model's figures on the
+        group's held-out rows); ``folds``; ``oof_predictions_K`` (list).
     """
     # optional extra (melting): imported where used, so that without it fit-melting
     # ends with an install hint (require_extra), not a traceback
@@ -229,21 +265,26 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     splits = min(folds, n_groups)
     if splits < 2:
         raise ValueError(f"grouped cross-validation needs at least 2 groups, found {n_groups}")
+    say = progress or (lambda text: None)
+    labels = np.asarray(interval_groups if interval_groups is not None else ["other"] * len(y_K))
     rng = np.random.default_rng(seed)
     oof = np.full(len(y_K), np.nan)
     oof_mean = np.full(len(y_K), np.nan)
     oof_lin = np.full(len(y_K), np.nan)
     inside = np.zeros(len(y_K), dtype=bool)
     width = np.full(len(y_K), np.nan)
-    for train, test in GroupKFold(n_splits=splits).split(x, y_K, groups):
+    for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
+        say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
         proper, calib = _split_calibration(len(train), calibration_fraction, rng)
         proper, calib = train[proper], train[calib]
         pipe, used = _fit_pipeline(x[proper], y_K[proper], seed)
-        q = _conformal_halfwidth(np.log(y_K[calib]) - np.log(pipe.predict(x[calib][:, used])), coverage)
+        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(x[calib][:, used])),
+                                         labels[calib], coverage)
+        q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
         pred = pipe.predict(x[test][:, used])
         oof[test] = pred
         inside[test] = np.abs(np.log(y_K[test]) - np.log(pred)) <= q
-        width[test] = pred * (math.exp(q) - math.exp(-q))
+        width[test] = pred * (np.exp(q) - np.exp(-q))
         oof_mean[test] = float(np.mean(y_K[train]))
         ok = np.isfinite(lattice_energy[train])
         line = LinearRegression().fit(lattice_energy[train][ok].reshape(-1, 1), y_K[train][ok])
@@ -258,6 +299,13 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         "interval_coverage": round(float(np.mean(inside)), 3),
         "interval_target": coverage,
         "interval_mean_width_K": round(float(np.nanmean(width)), 1),
+        "per_group": {
+            g: {"rows": int(np.sum(labels == g)),
+                "interval_coverage": round(float(np.mean(inside[labels == g])), 3),
+                "interval_mean_width_K": round(float(np.nanmean(width[labels == g])), 1),
+                "model": _metrics(y_K[labels == g], oof[labels == g])}
+            for g in melting_model.INTERVAL_GROUPS if np.any(labels == g)
+        },
         "oof_predictions_K": [round(float(v), 2) for v in oof],
     }
 
@@ -361,7 +409,8 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         raise ValueError(f"folds must be at least 2, not {folds}")
     require_extra("sklearn")
     say = progress or (lambda text: None)
-    x, records = feature_matrix(rows)
+    say(f"scoring {len(rows)} training rows")
+    x, records = feature_matrix(rows, progress=say)
     usable = [i for i, r in enumerate(records) if math.isfinite(_float(r.get("mp_trend_index")))]
     rows = [rows[i] for i in usable]
     records = [records[i] for i in usable]
@@ -370,18 +419,24 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         raise ValueError(f"only {len(rows)} training rows have a lattice energy; at least 20 are needed")
     y = np.array([row["mp_K"] for row in rows], dtype=float)
     lattice = _lattice_energy(records)
-    say(f"cross-validating on {len(rows)} salts")
+    labels = np.array([melting_model.interval_group(r.get("substance_class")) for r in records])
+    for row in rows:
+        row.setdefault("cation_family", cation_family(decompose(parse_formula(row["formula_normalized"]))))
     cv = {}
-    for scheme in ("anion_family", "cation_element"):
+    for scheme in CV_SCHEMES:
+        say(f"cross-validating on {len(rows)} salts, grouped by {scheme.replace('_', ' ')}")
         groups = [row[scheme] for row in rows]
         cv[scheme] = grouped_cross_validation(x, y, groups, lattice, folds=folds, coverage=coverage,
-                                              calibration_fraction=calibration_fraction, seed=seed)
+                                              calibration_fraction=calibration_fraction, seed=seed,
+                                              interval_groups=labels, progress=say)
     oof = cv["anion_family"].pop("oof_predictions_K")
-    cv["cation_element"].pop("oof_predictions_K")
+    for scheme in CV_SCHEMES[1:]:
+        cv[scheme].pop("oof_predictions_K")
+    say("fitting the final model")
     rng = np.random.default_rng(seed)
     proper, calib = _split_calibration(len(rows), calibration_fraction, rng)
     pipe, used = _fit_pipeline(x[proper], y[proper], seed)
-    q = _conformal_halfwidth(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used])), coverage)
+    q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used])), labels[calib], coverage)
     hgb = pipe.named_steps["regressor"].regressor_
     baseline, trees = _trees_to_json(hgb)
     lo, hi = _finite_minmax(x[:, used])
@@ -394,9 +449,11 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         "features": [melting_model.MODEL_FEATURES[j] for j in used],
         "baseline": baseline,
         "trees": trees,
-        "interval": {"method": "split conformal on absolute ln residuals", "coverage": coverage,
-                     "log_halfwidth": q, "calibration_rows": int(len(calib))},
+        "interval": {"method": "split conformal on absolute ln residuals, a half-width per group (Mondrian)",
+                     "coverage": coverage, "log_halfwidth": q, "group_log_halfwidths": per_group,
+                     "calibration_rows": int(len(calib))},
         "domain": {"feature_min": lo, "feature_max": hi,
+                   "target_min_K": float(np.min(y)), "target_max_K": float(np.max(y)),
                    "substance_classes": sorted({r.get("substance_class") or "" for r in records} - {""})},
         "training": {
             "rows": len(rows), "fitted_rows": int(len(proper)), "seed": seed,
@@ -428,6 +485,7 @@ class FitConfig:
     seed: int = 0
     overwrite: bool = False
     quiet: bool = False
+    ionic_liquids: bool = True
 
 
 
@@ -437,6 +495,7 @@ def _config_from_args(args) -> FitConfig:
         output_dir=args.output_dir, table=args.table, formula_col=args.formula_col, mp_col=args.mp_col,
         open_data=not args.no_open_data, tolerance_K=args.tolerance_K, folds=args.folds, coverage=args.coverage,
         seed=args.seed, overwrite=args.overwrite, quiet=args.quiet,
+        ionic_liquids=not getattr(args, "no_ionic_liquids", False),
     )
 
 
@@ -461,14 +520,18 @@ def summary_text(report: FitReport) -> str:
                          f"  Spearman {m.get('spearman_rho')}  (n={m.get('n')})")
         lines.append(f"  {int(result['interval_target'] * 100)} % conformal intervals: held-out coverage"
                      f" {result['interval_coverage']:.3f}, mean width {result['interval_mean_width_K']} K")
+        for group, entry in result.get("per_group", {}).items():
+            lines.append(f"    {group:<14} rows {entry['rows']}: coverage {entry['interval_coverage']:.3f}, mean width"
+                         f" {entry['interval_mean_width_K']} K, model MAE {entry['model'].get('mae_K')} K")
     trend = report.metrics["trend_index"]
     lines.append(f"mp_trend_index alone: Spearman {trend['overall']['spearman_rho']} (n={trend['overall']['n']})")
     for family, entry in trend["per_anion_family"].items():
         if "spearman_rho" in entry:
             lines.append(f"  {family:<24} Spearman {entry['spearman_rho']:+.3f}  (n={entry['n']})")
     ionic_liquids = sum(1 for r in report.records if r.get("substance_class") == "ionic_liquid_pair")
-    lines.append(f"organic-cation salts in the training set: {ionic_liquids} (open data hold few ionic liquids;"
-                 " for them the trend index and melting_class carry more weight than the regression)")
+    held_out = cv.get("cation_family", {}).get("per_group", {}).get("ionic_liquid", {}).get("model", {})
+    lines.append(f"ionic liquids (organic-cation salts) in the training set: {ionic_liquids}; held out by cation"
+                 f" family: MAE {held_out.get('mae_K')} K (n={held_out.get('n')})")
     lines.append("caution: " + CAUTION)
     return "\n".join(lines)
 
@@ -489,6 +552,12 @@ def fit_melting(config: FitConfig) -> FitReport:
     sets = []
     if config.open_data:
         sets.append(build_open_training_set(tolerance_K=config.tolerance_K, progress=say))
+    if config.ionic_liquids:
+        if IONIC_LIQUID_TABLE.is_file():
+            say(f"adding the published ionic-liquid melting points of {IONIC_LIQUID_TABLE.name}")
+            sets.append(read_user_table(IONIC_LIQUID_TABLE, formula_col="formula", mp_col="mp_K"))
+        else:
+            say(f"no {IONIC_LIQUID_TABLE} (not a source checkout): training without it")
     if config.table:
         sets.append(read_user_table(config.table, formula_col=config.formula_col, mp_col=config.mp_col))
     data = combine_training_sets(*sets)

@@ -303,3 +303,20 @@ def cation_element(dec) -> str:
         return "organic"
     metals = [s for s, _ in main.composition if is_metal(s)]
     return metals[0] if metals else main.label
+
+
+def cation_family(dec) -> str:
+    """The main cation's family for grouping: an organic cation's ion family, else its element.
+
+    Cross-validation grouped by it holds out whole ionic-liquid families
+    (imidazolium, pyrrolidinium, ammonium-protic...) at once.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> cation_family(decompose(parse_formula("[C4mim][BF4]"))), cation_family(decompose(parse_formula("NaCl")))
+    ('imidazolium', 'Na')
+    """
+    if not dec.cations:
+        return "none"
+    main = max(dec.cations, key=lambda t: (abs(t.ion.charge) * t.count, t.ion.ion_id)).ion
+    return main.family if main.organic else cation_element(dec)

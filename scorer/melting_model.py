@@ -2,7 +2,8 @@
 
 ``ionicity fit-melting`` (the trainer, :mod:`pipelines.melting_fit`) fits
 gradient-boosted trees on :data:`MODEL_FEATURES` and writes them as JSON:
-every tree as arrays of plain numbers. :func:`model_from_dict` checks such a
+every tree as arrays of plain numbers. :func:`model_from_dict` (in
+:mod:`scorer.melting_model_format`, re-exported here) checks such a
 document against the expected layout and refuses anything else;
 :func:`predict_melting_K` walks the trees in numpy and adds the split-conformal
 interval. No pickle is involved, so a model file cannot run code. Scoring
@@ -20,6 +21,19 @@ from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.melting import CAUTION
+from ionicity.scorer.melting_model_format import (
+    _DERIVED_FEATURES,
+    _RECORD_FEATURES,
+    INTERVAL_GROUPS,
+    MODEL_FEATURES,
+    MODEL_FORMAT,
+    MODEL_FORMAT_VERSION,
+    MeltingModel,
+    ModelFormatError,
+    model_from_dict,
+    model_to_dict,
+)
+from ionicity.scorer.melting_routes import ROUTE_OF_CLASS, melting_class_for
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.model import Column, Decomposition
@@ -40,6 +54,9 @@ __all__ = [
     "apply_model_to_records",
     "ModelPrediction",
     "predict_for_formulas",
+    "INTERVAL_GROUPS",
+    "interval_group",
+    "class_disagreement",
 ]
 
 #: the --columns group of MODEL_COLUMNS (added with --mp-model)
@@ -67,48 +84,13 @@ MODEL_COLUMNS: tuple[Column, ...] = (
 )
 
 
-# ------------------------------------------------------- applying a fitted model
+def interval_group(substance_class: str | None) -> str:
+    """The conformal group of a compound: ``ionic_liquid`` for an organic-cation salt, else ``other``.
 
-# Numeric output columns the regression reads (_RECORD_FEATURES), and counts
-# and charges of the ions (_DERIVED_FEATURES, from the decomposition); both
-# follow from the formula alone, so a model applies to any formula ionicity reads.
-_RECORD_FEATURES = (
-    "mp_trend_index",
-    "lattice_energy_vbt_kJ_mol",
-    "lattice_energy_kapustinskii_kJ_mol",
-    "delta_chi_pauling",
-    "ionic_character_pauling_pct",
-    "mean_chi_pauling",
-    "cation_polarising_power_e_per_A2",
-    "cation_polarising_power_max_e_per_A2",
-    "anion_polarisability_A3",
-    "fajans_contact_index",
-    "cation_pseudo_noble_gas",
-    "hsab_pairing_score",
-    "cation_hardness_eV",
-    "anion_hardness_eV",
-    "molar_mass_g_mol",
-)
-_DERIVED_FEATURES = (
-    "ions_per_formula_unit",
-    "max_cation_charge",
-    "max_anion_charge",
-    "polyatomic_anion_fraction",
-    "organic_ion_fraction",
-)
-MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES
-
-MODEL_FORMAT = "ionicity-melting-model"
-MODEL_FORMAT_VERSION = 1
-MODEL_TYPES = ("gradient_boosted_trees",)
-_TOP_KEYS = frozenset({
-    "format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain",
-    "training", "metrics", "caution",
-})
-_REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
-_TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
-_MAX_TREES = 5000
-_MAX_NODES = 100_000
+    >>> interval_group("ionic_liquid_pair"), interval_group("ionic_salt")
+    ('ionic_liquid', 'other')
+    """
+    return "ionic_liquid" if substance_class == "ionic_liquid_pair" else "other"
 
 
 def derived_ion_features(dec: Decomposition | None) -> tuple[float, ...]:
@@ -240,168 +222,6 @@ def features_for_formula(text) -> tuple[dict, np.ndarray]:
     return record, model_features(dec, record)
 
 
-class ModelFormatError(ValueError):
-    """A melting-model document that is not one :func:`model_from_dict` accepts."""
-
-
-@dataclass(frozen=True)
-class MeltingModel:
-    """A fitted melting-point model, as plain arrays (see :func:`model_from_dict`)."""
-
-    features: tuple[str, ...]
-    baseline: float
-    trees: tuple[tuple[np.ndarray, ...], ...]  # (feature, threshold, left, right, missing_left, leaf, value)
-    interval_log_halfwidth: float
-    interval_coverage: float
-    feature_min: np.ndarray
-    feature_max: np.ndarray
-    substance_classes: tuple[str, ...]
-    document: dict
-
-    @property
-    def feature_indices(self) -> np.ndarray:
-        position = {name: i for i, name in enumerate(MODEL_FEATURES)}
-        return np.array([position[name] for name in self.features], dtype=int)
-
-
-def _need(condition: bool, message: str) -> None:
-    if not condition:
-        raise ModelFormatError(message)
-
-
-def _number_list(value, name: str, *, integer: bool = False, length: int | None = None) -> np.ndarray:
-    _need(isinstance(value, list), f"'{name}' must be a list of numbers")
-    _need(length is None or len(value) == length, f"'{name}' must have {length} entries, not {len(value)}")
-    for item in value:
-        _need(isinstance(item, (int, float)) and not isinstance(item, bool),
-              f"'{name}' must hold only numbers (found {type(item).__name__})")
-        _need(math.isfinite(item), f"'{name}' must hold only finite numbers")
-        _need(not integer or float(item) == int(item), f"'{name}' must hold only whole numbers")
-    return np.array(value, dtype=np.int64 if integer else float)
-
-
-def _plain_json(value, depth: int = 0) -> bool:
-    if depth > 6:
-        return False
-    if value is None or isinstance(value, (bool, int, float, str)):
-        return True
-    if isinstance(value, list):
-        return all(_plain_json(v, depth + 1) for v in value)
-    if isinstance(value, dict):
-        return all(isinstance(k, str) and _plain_json(v, depth + 1) for k, v in value.items())
-    return False
-
-
-def model_from_dict(document) -> MeltingModel:
-    """Check a parsed model document against the expected schema and build the model.
-
-    Anything but the expected layout is refused with :class:`ModelFormatError`:
-    an unknown ``format`` or ``model_type``, unknown keys, a feature ionicity
-    does not compute, non-numeric or non-finite arrays, child indices that do
-    not point forward inside the tree (so a tree cannot loop). The document is
-    plain JSON data; nothing in it is executed.
-
-    Parameters
-    ----------
-    document : dict
-        ``json.load`` of a file written by ``ionicity fit-melting``.
-
-    Returns
-    -------
-    MeltingModel
-
-    Raises
-    ------
-    ModelFormatError
-        With a message that names the offending part.
-
-    Examples
-    --------
-    >>> model_from_dict({"format": "something-else"})
-    Traceback (most recent call last):
-    ...
-    ionicity.scorer.melting_model.ModelFormatError: not an ionicity melting model: 'format' is 'something-else', expected 'ionicity-melting-model'
-    """
-    _need(isinstance(document, dict), "a melting model must be a JSON object")
-    fmt = document.get("format")
-    _need(fmt == MODEL_FORMAT, f"not an ionicity melting model: 'format' is {fmt!r}, expected {MODEL_FORMAT!r}")
-    _need(document.get("format_version") == MODEL_FORMAT_VERSION,
-          f"unsupported format_version {document.get('format_version')!r}; this ionicity reads {MODEL_FORMAT_VERSION}")
-    model_type = document.get("model_type")
-    _need(model_type in MODEL_TYPES, f"model_type {model_type!r} is not accepted; allowed: {', '.join(MODEL_TYPES)}")
-    unknown = sorted(set(document) - _TOP_KEYS)
-    _need(not unknown, f"unexpected keys in the model: {unknown}")
-    missing = sorted(_REQUIRED_KEYS - set(document))
-    _need(not missing, f"missing keys in the model: {missing}")
-    _need(document["target"] == "ln_mp_K", f"target {document['target']!r} is not accepted; allowed: ln_mp_K")
-    features = document["features"]
-    _need(isinstance(features, list) and features and all(isinstance(f, str) for f in features),
-          "'features' must be a non-empty list of column names")
-    strange = [f for f in features if f not in MODEL_FEATURES]
-    _need(not strange, f"features ionicity does not compute: {strange}; allowed: {', '.join(MODEL_FEATURES)}")
-    _need(len(set(features)) == len(features), "'features' lists a column twice")
-    baseline = document["baseline"]
-    _need(isinstance(baseline, (int, float)) and not isinstance(baseline, bool) and math.isfinite(baseline),
-          "'baseline' must be a finite number")
-    trees_in = document["trees"]
-    _need(isinstance(trees_in, list) and 0 < len(trees_in) <= _MAX_TREES, f"'trees' must be a list of 1 to {_MAX_TREES} trees")
-    trees = []
-    n_features = len(features)
-    for k, tree in enumerate(trees_in):
-        _need(isinstance(tree, dict) and set(tree) == _TREE_KEYS,
-              f"tree {k} must have exactly the keys {sorted(_TREE_KEYS)}")
-        n = len(tree["value"]) if isinstance(tree["value"], list) else 0
-        _need(0 < n <= _MAX_NODES, f"tree {k}: between 1 and {_MAX_NODES} nodes expected")
-        feature = _number_list(tree["feature"], f"trees[{k}].feature", integer=True, length=n)
-        threshold = _number_list(tree["threshold"], f"trees[{k}].threshold", length=n)
-        left = _number_list(tree["left"], f"trees[{k}].left", integer=True, length=n)
-        right = _number_list(tree["right"], f"trees[{k}].right", integer=True, length=n)
-        missing_left = _number_list(tree["missing_left"], f"trees[{k}].missing_left", integer=True, length=n)
-        leaf = _number_list(tree["leaf"], f"trees[{k}].leaf", integer=True, length=n)
-        value = _number_list(tree["value"], f"trees[{k}].value", length=n)
-        inner = leaf == 0
-        nodes = np.arange(n)
-        _need(bool(np.all(np.isin(leaf, (0, 1))) and np.all(np.isin(missing_left, (0, 1)))),
-              f"tree {k}: 'leaf' and 'missing_left' must be 0 or 1")
-        _need(bool(np.all((feature[inner] >= 0) & (feature[inner] < n_features))),
-              f"tree {k}: a split names a feature outside 0..{n_features - 1}")
-        _need(bool(np.all((left[inner] > nodes[inner]) & (left[inner] < n) & (right[inner] > nodes[inner]) & (right[inner] < n))),
-              f"tree {k}: child indices must point forward inside the tree")
-        trees.append((feature, threshold, left, right, missing_left.astype(bool), leaf.astype(bool), value))
-    interval = document["interval"]
-    _need(isinstance(interval, dict), "'interval' must be an object")
-    halfwidth = interval.get("log_halfwidth")
-    coverage = interval.get("coverage", 0.9)
-    _need(isinstance(halfwidth, (int, float)) and not isinstance(halfwidth, bool) and math.isfinite(halfwidth)
-          and halfwidth >= 0, "'interval.log_halfwidth' must be a finite number >= 0")
-    _need(isinstance(coverage, (int, float)) and 0 < coverage < 1, "'interval.coverage' must lie between 0 and 1")
-    domain = document["domain"]
-    _need(isinstance(domain, dict), "'domain' must be an object")
-    fmin = _number_list(domain.get("feature_min"), "domain.feature_min", length=n_features)
-    fmax = _number_list(domain.get("feature_max"), "domain.feature_max", length=n_features)
-    classes = domain.get("substance_classes", [])
-    _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),
-          "'domain.substance_classes' must be a list of strings")
-    for key in ("training", "metrics"):
-        _need(_plain_json(document.get(key, {})), f"'{key}' must hold plain JSON values only")
-    return MeltingModel(
-        features=tuple(features),
-        baseline=float(baseline),
-        trees=tuple(trees),
-        interval_log_halfwidth=float(halfwidth),
-        interval_coverage=float(coverage),
-        feature_min=fmin,
-        feature_max=fmax,
-        substance_classes=tuple(classes),
-        document=document,
-    )
-
-
-def model_to_dict(model: MeltingModel) -> dict:
-    """The JSON document of a model (the inverse of :func:`model_from_dict`)."""
-    return model.document
-
-
 def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
     """Sum of tree outputs plus baseline for rows of ``x`` (columns in ``model.features`` order)."""
     n = x.shape[0]
@@ -422,7 +242,7 @@ def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
     return total
 
 
-def predict_melting_K(model: MeltingModel, features) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def predict_melting_K(model: MeltingModel, features, groups=None) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Predicted melting point and its conformal interval, in K.
 
     Parameters
@@ -430,6 +250,9 @@ def predict_melting_K(model: MeltingModel, features) -> tuple[np.ndarray, np.nda
     model : MeltingModel
     features : array-like of shape (n_samples, len(MODEL_FEATURES))
         Rows of :func:`model_features`.
+    groups : sequence of str, optional
+        :func:`interval_group` of each row; a model with a half-width per group
+        (Mondrian split-conformal) uses the row's own, else the pooled one.
 
     Returns
     -------
@@ -441,26 +264,56 @@ def predict_melting_K(model: MeltingModel, features) -> tuple[np.ndarray, np.nda
     ln_pred = _predict_ln(model, x)
     unusable = np.all(np.isnan(x_all[:, len(_RECORD_FEATURES):]), axis=1)
     ln_pred[unusable] = np.nan
-    q = model.interval_log_halfwidth
+    per_group = dict(model.group_log_halfwidths)
+    q = np.full(len(ln_pred), model.interval_log_halfwidth)
+    if groups is not None and per_group:
+        q = np.array([per_group.get(g, model.interval_log_halfwidth) for g in groups], dtype=float)
     return np.exp(ln_pred), np.exp(ln_pred - q), np.exp(ln_pred + q)
 
 
-def outside_training_domain(model: MeltingModel, features, substance_class: str | None = None) -> list[str]:
+def outside_training_domain(model: MeltingModel, features, substance_class: str | None = None,
+                            predicted_K: float = math.nan) -> list[str]:
     """Why one row lies outside the model's training domain (empty when inside).
 
-    A feature beyond the training range by more than 10 % of that range, or a
-    substance class the training set did not hold, counts as outside.
+    Exactly three checks, each named in its reason:
+
+    1. every feature the model uses, against the smallest and largest value
+       of that feature among the training rows (``domain.feature_min`` and
+       ``feature_max``): a value below the minimum or above the maximum is
+       outside, with no tolerance; a missing value (NaN) is not checked;
+    2. the substance class, against the classes of the training rows;
+    3. the predicted melting point, against the lowest and highest measured
+       melting point of the training rows (``domain.target_min_K`` and
+       ``target_max_K``, in model files that have them): trees cannot predict
+       outside the range they were fitted on, so a prediction at either end
+       may be capped.
+
+    >>> doc = {"format": MODEL_FORMAT, "format_version": 1, "model_type": "gradient_boosted_trees",
+    ...        "target": "ln_mp_K", "features": ["mp_trend_index"], "baseline": 6.0,
+    ...        "trees": [{"feature": [0], "threshold": [0.0], "left": [0], "right": [0], "missing_left": [0],
+    ...                   "leaf": [1], "value": [0.0]}],
+    ...        "interval": {"log_halfwidth": 0.2}, "domain": {"feature_min": [2.3], "feature_max": [3.4],
+    ...        "target_min_K": 200.0, "target_max_K": 3000.0}}
+    >>> x = np.full(len(MODEL_FEATURES), np.nan); x[0] = 2.29
+    >>> outside_training_domain(model_from_dict(doc), x, None, 150.0)
+    ['mp_trend_index = 2.29 below the training minimum 2.3', 'predicted 150 K below the lowest training melting point 200 K']
     """
     x = np.asarray(features, dtype=float)[model.feature_indices]
     reasons = []
-    span = np.maximum(model.feature_max - model.feature_min, 1e-12)
-    for name, value, lo, hi, width in zip(model.features, x, model.feature_min, model.feature_max, span):
+    for name, value, lo, hi in zip(model.features, x, model.feature_min, model.feature_max):
         if math.isnan(value):
             continue
-        if value < lo - 0.1 * width or value > hi + 0.1 * width:
-            reasons.append(f"{name} = {value:.3g} outside the training range {lo:.3g} to {hi:.3g}")
+        if value < lo:
+            reasons.append(f"{name} = {value:.4g} below the training minimum {lo:.4g}")
+        elif value > hi:
+            reasons.append(f"{name} = {value:.4g} above the training maximum {hi:.4g}")
     if substance_class and model.substance_classes and substance_class not in model.substance_classes:
         reasons.append(f"substance class {substance_class} not in the training set")
+    if math.isfinite(predicted_K):
+        if predicted_K < model.target_min_K:
+            reasons.append(f"predicted {predicted_K:.0f} K below the lowest training melting point {model.target_min_K:.0f} K")
+        elif predicted_K > model.target_max_K:
+            reasons.append(f"predicted {predicted_K:.0f} K above the highest training melting point {model.target_max_K:.0f} K")
     return reasons
 
 
@@ -474,31 +327,60 @@ def _float(value) -> float:
 
 
 _DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
+_DISAGREE_NOTE = (
+    "mp model: melting_class {index_class} (trend index) disagrees with the model, whose {predicted:.0f} K"
+    " falls in {model_class}"
+)
+
+
+def class_disagreement(record: Mapping, predicted_K: float) -> str | None:
+    """The note for a row whose ``melting_class`` contradicts the model's predicted temperature, else None.
+
+    The model's class is the band of :data:`scorer.melting.MELTING_CLASS_BANDS` the
+    prediction falls in (salt names for salts), so a class and a prediction never
+    stand side by side unremarked.
+
+    >>> class_disagreement({"melting_class": "ionic_liquid", "mp_route": "salt"}, 409.0)
+    'mp model: melting_class ionic_liquid (trend index) disagrees with the model, whose 409 K falls in low_melting_salt'
+    >>> class_disagreement({"melting_class": "ionic_liquid", "mp_route": "salt"}, 300.0) is None
+    True
+    """
+    index_class = record.get("melting_class")
+    if not index_class or not math.isfinite(predicted_K):
+        return None
+    salt = (record.get("mp_route") or ROUTE_OF_CLASS.get(record.get("substance_class") or "")) == "salt"
+    model_class = melting_class_for(predicted_K, salt)
+    if model_class == index_class:
+        return None
+    return _DISAGREE_NOTE.format(index_class=index_class, predicted=predicted_K, model_class=model_class)
 
 
 def _predictions(records, x: np.ndarray, model: MeltingModel) -> list[ModelPrediction]:
     """One prediction per scored record, from its row of :func:`model_features` in ``x``."""
     if not records:
         return []
-    pred, low, high = predict_melting_K(model, x)
+    groups = [interval_group(r.get("substance_class")) for r in records]
+    pred, low, high = predict_melting_K(model, x, groups)
     out = []
     for record, row, p, lo, hi in zip(records, x, pred, low, high):
         ionic = math.isfinite(p) and record.get("status") != "error" and math.isfinite(_float(record.get("mp_trend_index")))
         if not ionic:
             out.append(ModelPrediction(math.nan, math.nan, math.nan))
             continue
-        reasons = outside_training_domain(model, row, record.get("substance_class"))
-        out.append(ModelPrediction(
-            round(float(p), 1), round(float(lo), 1), round(float(hi), 1),
-            (_DOMAIN_NOTE.format("; ".join(reasons)),) if reasons else (),
-        ))
+        reasons = outside_training_domain(model, row, record.get("substance_class"), float(p))
+        warnings = [_DOMAIN_NOTE.format("; ".join(reasons))] if reasons else []
+        disagreement = class_disagreement(record, round(float(p), 1))
+        if disagreement:
+            warnings.append(disagreement)
+        out.append(ModelPrediction(round(float(p), 1), round(float(lo), 1), round(float(hi), 1), tuple(warnings)))
     return out
 
 
 @dataclass(frozen=True)
 class ModelPrediction:
-    """A fitted model's answer for one compound: :data:`MODEL_COLUMNS` values, and
-    why the compound lies outside the model's training domain (empty when inside)."""
+    """A fitted model's answer for one compound: :data:`MODEL_COLUMNS` values, and the
+    row's warnings: why it lies outside the training domain, and whether its
+    ``melting_class`` disagrees with the prediction (empty when neither)."""
 
     mp_predicted_K: float
     mp_interval_low_K: float

@@ -87,6 +87,7 @@ TABLES: dict[str, TableSpec] = {
             ("ion_id", "torsions_tau", "symmetry_number", "charge_delocalised", "source"),
             "scorer.melting",
         ),
+        TableSpec("element_melting_points.csv", ("symbol", "mp_K", "source"), "scorer.melting_routes"),
         TableSpec(
             "structural_families.csv", ("formula", "substance_class", "ionic_model", "structure", "source"),
             "scorer.applicability",

@@ -1,8 +1,9 @@
 """Which test catches a wrong weight of the melting trend index?
 
 Changes each weight of :data:`ionicity.scorer.melting.TREND_WEIGHTS` by +50 % and
-by -50 % of its value, one at a time, each in a fresh process, and runs the
-melting tests there (``pytest -x -q -p no:cacheprovider``). A change that leaves
+by -50 % of its value, one at a time, and runs the melting tests with it
+(``pytest -x -q -p no:cacheprovider``); a few child processes share the cases,
+emptying every per-input cache between two. A change that leaves
 every test green means no test can tell that weight from a wrong one.
 
 usage: python tests/perturb_trend_weights.py [--jobs N] [--tests PATH ...]
@@ -16,6 +17,7 @@ Run from anywhere; it runs pytest in the repository root.
 from __future__ import annotations
 
 import argparse
+import json
 import os
 import subprocess
 import sys
@@ -25,18 +27,34 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[1]
 # the tests that check the index and its weights; the rest of the suite never
 # reads TREND_WEIGHTS except through these modules' functions
-MELTING_TESTS = ("tests/test_melting.py", "tests/test_trend_weights.py")
+MELTING_TESTS = (
+    "tests/test_melting.py", "tests/test_trend_weights.py", "tests/test_melting_routes.py",
+    "tests/test_trend_weights_routes.py",
+)
 FACTORS = (1.5, 0.5)
 
+# One child process runs many cases: importing ionicity, scipy and chemicals costs
+# seconds, a melting test run about as much. Between cases every per-input cache is
+# emptied (scorer.caching.clear_all), so each case scores afresh with its weights.
 _CHILD = """
-import sys
+import io, json, sys, contextlib
 from ionicity.scorer import melting
-key, factor = sys.argv[1], float(sys.argv[2])
-if key:
-    melting.TREND_WEIGHTS[key] = melting.TREND_WEIGHTS[key] * factor
+from ionicity.scorer.caching import clear_all
 import pytest
-# known misses (strict xfails) fail when the index gets better, so they cannot catch a wrong weight
-sys.exit(pytest.main(["-x", "-q", "-p", "no:cacheprovider", "-rf", "-k", "not known_miss", *sys.argv[3:]]))
+cases, tests = json.loads(sys.argv[1]), sys.argv[2:]
+original = dict(melting.TREND_WEIGHTS)
+for key, factor in cases:
+    melting.TREND_WEIGHTS.clear()
+    melting.TREND_WEIGHTS.update(original)
+    if key:
+        melting.TREND_WEIGHTS[key] = original[key] * factor
+    clear_all()
+    out = io.StringIO()
+    with contextlib.redirect_stdout(out):
+        # known misses (strict xfails) fail when the index gets better, so they cannot catch a wrong weight
+        code = pytest.main(["-x", "-q", "-p", "no:cacheprovider", "-rf", "-k", "not known_miss", *tests])
+    failed = [line.split()[1] for line in out.getvalue().splitlines() if line.startswith("FAILED ")]
+    print("CASE " + json.dumps([key, factor, int(code), failed[0] if failed else ""]), flush=True)
 """
 
 
@@ -47,14 +65,24 @@ def weight_names() -> list[str]:
     return out.stdout.split()
 
 
+def run_cases(cases, tests) -> dict:
+    """{(key, factor): (pytest exit code, first failing test or '')} for cases run in one child process."""
+    result = subprocess.run([sys.executable, "-c", _CHILD, json.dumps(cases), *tests],
+                            capture_output=True, text=True, cwd=ROOT)
+    found = {}
+    for line in result.stdout.splitlines():
+        if line.startswith("CASE "):
+            key, factor, code, first = json.loads(line[5:])
+            found[(key, factor)] = (code, first)
+    for key, factor in cases:
+        if (key, factor) not in found:
+            found[(key, factor)] = (99, f"child failed: {result.stdout[-300:]}{result.stderr[-300:]}")
+    return found
+
+
 def run_once(key: str, factor: float, tests) -> tuple[int, str]:
     """(pytest exit code, first failing test or '') with one weight scaled by ``factor``."""
-    result = subprocess.run([sys.executable, "-c", _CHILD, key, str(factor), *tests],
-                            capture_output=True, text=True, cwd=ROOT)
-    failed = [line.split()[1] for line in result.stdout.splitlines() if line.startswith("FAILED ")]
-    if result.returncode not in (0, 1):
-        return result.returncode, f"pytest exit {result.returncode}: {result.stdout[-300:]}{result.stderr[-300:]}"
-    return result.returncode, (failed[0] if failed else "")
+    return run_cases([[key, factor]], tests)[(key, factor)]
 
 
 def _label(factor: float) -> str:
@@ -72,10 +100,13 @@ def main(argv=None) -> int:
         print(f"the tests fail with the weights unchanged ({first}); fix them first", file=sys.stderr)
         return 2
     keys = weight_names()
-    cases = [(key, factor) for key in keys for factor in FACTORS]
-    with ThreadPoolExecutor(max_workers=max(1, args.jobs)) as pool:
-        results = list(pool.map(lambda case: run_once(*case, args.tests), cases))
-    caught = {case: result for case, result in zip(cases, results)}
+    cases = [[key, factor] for key in keys for factor in FACTORS]
+    jobs = max(1, args.jobs)
+    shares = [cases[i::jobs] for i in range(jobs)]
+    caught = {}
+    with ThreadPoolExecutor(max_workers=jobs) as pool:
+        for found in pool.map(lambda share: run_cases(share, args.tests), shares):
+            caught.update(found)
     width = max(len(k) for k in keys)
     print(f"{'weight':<{width}}  {'+50 %':<60}  -50 %")
     missed = []

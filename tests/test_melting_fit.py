@@ -98,10 +98,8 @@ def test_exported_trees_predict_like_scikit_learn(fast_pipeline):
 # -------------------------------------------------------- fit, save, load, apply
 
 
-@pytest.fixture(scope="module")
-def fitted(tmp_path_factory):
-    """fit-melting on the CC0 fixture alone, through the CLI hook, with fewer boosting rounds."""
-    out = tmp_path_factory.mktemp("fit")
+def _fit(out, *extra):
+    """fit-melting on the CC0 fixture, through the CLI hook, with fewer boosting rounds."""
     real = mf.make_melting_pipeline
 
     def quick(seed=0, features=None):
@@ -113,11 +111,24 @@ def fitted(tmp_path_factory):
     try:
         parser = argparse.ArgumentParser()
         add_fit_melting_parser(parser.add_subparsers(dest="command"))
-        args = parser.parse_args(["fit-melting", "-o", str(out), "--no-open-data", "--table", str(FIXTURE), "--quiet"])
+        args = parser.parse_args(["fit-melting", "-o", str(out), "--no-open-data", "--table", str(FIXTURE), "--quiet",
+                                  *extra])
         code = mf.run_fit_melting(args)
     finally:
         mf.make_melting_pipeline = real
     return code, out
+
+
+@pytest.fixture(scope="module")
+def fitted(tmp_path_factory):
+    """The CC0 fixture alone (no ionic liquid)."""
+    return _fit(tmp_path_factory.mktemp("fit"), "--no-ionic-liquids")
+
+
+@pytest.fixture(scope="module")
+def fitted_with_ionic_liquids(tmp_path_factory):
+    """The CC0 fixture and datasets/melting/ionic_liquids.csv (the default)."""
+    return _fit(tmp_path_factory.mktemp("fit_il"))
 
 
 @needs_extra
@@ -282,3 +293,48 @@ def test_score_refuses_a_model_that_is_not_ours(tmp_path, capsys):
     assert code == 2
     assert "melting model" in capsys.readouterr().err
     assert not (tmp_path / "out.csv").exists()
+
+
+@needs_extra
+def test_ionic_liquids_train_and_get_their_own_intervals(fitted_with_ionic_liquids):
+    code, out = fitted_with_ionic_liquids
+    assert code == 0
+    report = json.loads((out / "report.json").read_text())
+    cv = report["metrics"]["cross_validation"]
+    # held out by cation family, the ionic liquids are reported apart, with their own coverage
+    per_group = cv["cation_family"]["per_group"]
+    assert set(per_group) == {"ionic_liquid", "other"}
+    assert per_group["ionic_liquid"]["rows"] >= 20
+    assert 0.0 <= per_group["ionic_liquid"]["interval_coverage"] <= 1.0
+    document = json.loads((out / "melting_model.json").read_text())
+    assert set(document["interval"]["group_log_halfwidths"]) == {"ionic_liquid", "other"}
+    assert document["domain"]["target_min_K"] < 260  # [C4mpyr][dca] 218 K is a training row
+    model = load_model(out / "melting_model.json")
+    # able to predict below 300 K: the imidazolium [NTf2] salt of the table's validation rows
+    il = melting_model.apply_model_to_records(["[C2mim][NTf2]"], model)[0]
+    assert il["mp_predicted_K"] < 330  # measured 257 K (Bonhote et al. 1996, from memory)
+
+
+@needs_extra
+def test_class_and_prediction_never_disagree_silently(fitted_with_ionic_liquids):
+    _, out = fitted_with_ionic_liquids
+    model = load_model(out / "melting_model.json")
+    formulas = ["NaCl", "MgO", "KNO3", "[C2mim]Cl", "[C4mim][PF6]", "[N4444][PF6]", "LiCl", "ZnCl2", "Li[NTf2]"]
+    for record in melting_model.apply_model_to_records(formulas, model):
+        band = melting_model.melting_class_for(record["mp_predicted_K"], salt=True)
+        if band != record["melting_class"]:
+            assert record["status"] == "warning" and "disagrees with the model" in record["message"], record
+
+
+@needs_extra
+def test_domain_check_names_rows_below_the_training_range(fitted):
+    _, out = fitted
+    model = load_model(out / "melting_model.json")
+    i = model.features.index("mp_trend_index")
+    low = model.feature_min[i]
+    x = melting_model.features_for_formula("NaCl")[1].copy()
+    x[melting_model.MODEL_FEATURES.index("mp_trend_index")] = low - 1e-6  # just below: no tolerance
+    reasons = melting_model.outside_training_domain(model, x)
+    assert any(r.startswith("mp_trend_index") and "below the training minimum" in r for r in reasons)
+    x[melting_model.MODEL_FEATURES.index("mp_trend_index")] = low
+    assert not any(r.startswith("mp_trend_index") for r in melting_model.outside_training_domain(model, x))

@@ -35,6 +35,7 @@ ROWS = {
     "dispersion_coefficients.csv": 20,
     "formation_enthalpies.csv": 11,
     "atomisation_enthalpies.csv": 7,
+    "element_melting_points.csv": 79,
 }
 
 

@@ -2,10 +2,9 @@
 
 The script changes each weight of ``scorer.melting.TREND_WEIGHTS`` by +50 % and by
 -50 %, one at a time, and lists the changes that leave every melting test green.
-Four changes are not caught today, and no referenced test can honestly catch them
-(see ``KNOWN_UNCAUGHT``): the measured melting points at hand do not fix those
-hand-set organic-ion weights to within a factor of 1.5, and some favour the
-changed value. They are listed here like strict expected failures: a new
+One change is not caught today, and no referenced test can honestly catch it
+(see ``KNOWN_UNCAUGHT``): the measured melting points at hand do not fix that
+hand-set weight to within a factor of 1.5. They are listed here like strict expected failures: a new
 uncaught change fails this test, and so does one that a new test starts to
 catch (then remove it from the list).
 """
@@ -20,18 +19,10 @@ import pytest
 SCRIPT = Path(__file__).resolve().parent / "perturb_trend_weights.py"
 
 KNOWN_UNCAUGHT = {
-    # the Dannenfelser-Yalkowsky entropy share, set by hand: the measured chain-length
-    # series pull both ways (pyrrolidinium [NTf2] salts fall faster with chain length
-    # than the index, MacFarlane et al. 1999; imidazolium chlorides and [PF6] salts
-    # slower, Wilkes 1982, Huddleston 2001; all from memory)
-    ("flexibility", "+50 %"): "no measured series fixes it",
-    ("flexibility", "-50 %"): "no measured series fixes it",
     # 6.75 torsions (an octyl chain) puts the [Cnmim][PF6] minimum at octyl, which the
-    # glass-forming hexyl and octyl salts cannot tell from hexyl (Holbrey & Seddon 1999)
+    # glass-forming hexyl and octyl salts cannot tell from hexyl (Holbrey & Seddon 1999);
+    # set by hand, not fitted
     ("packing_free_torsions", "+50 %"): "hexyl and octyl both glass formers",
-    # a larger delocalisation weight brings [C2mim]Cl (360 K, Wilkes 1982) below 100 C,
-    # where it belongs, while [C4mpyr]/[C4mim][NTf2] (255/270 K) ask for a smaller one
-    ("delocalised", "+50 %"): "measured pairs favour both directions",
 }
 
 

@@ -1,0 +1,244 @@
+"""Fit and check the weights of the melting trend index, calibration apart from validation.
+
+usage: python -m ionicity.pipelines.melting_weights [--training CSV]
+
+Two named sets, each with its source in the repository:
+
+* **inorganic salts**: calibration is ``datasets/melting/wikidata_salts.csv``
+  (CC0, in the repository); the inorganic weights of
+  ``scorer.melting.TREND_WEIGHTS`` are a least-squares fit of log10 T_m on
+  it. Validation is every salt of the open training set that
+  ``ionicity fit-melting`` builds from ``chemicals``
+  (:func:`pipelines.melting_data.build_open_training_set`) whose formula is
+  not in that file; its figures are the ones the README quotes.
+* **organic salts**: calibration is the ``calibration`` rows of
+  ``datasets/melting/ionic_liquids.csv`` (published values, a source per
+  row); the organic weights are fitted on them by Nelder-Mead, the inorganic
+  ones held. Validation is its ``validation`` rows and every organic salt of
+  the open training set not listed in that file.
+* **molecules**: ``datasets/melting/molecular_compounds.csv`` names its rows
+  ``calibration`` or ``validation``; melting points are read at run time with
+  ``chemicals.phase_change.Tm``. The three weights of the molecular route are
+  a least-squares fit of dH_m on the calibration rows.
+
+Prints the fitted weights and, per set, Spearman's rho, the share within a
+factor 1.5 and the class accuracy (on MELTING_CLASS_BANDS). Progress goes to
+stderr. Needs the ``melting`` extra (chemicals, scipy).
+"""
+from __future__ import annotations
+
+import argparse
+import csv
+import math
+import sys
+from dataclasses import replace
+from pathlib import Path
+
+import numpy as np
+from ionicity.scorer import melting
+from ionicity.scorer import melting_routes as routes
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.record import normalized_formula
+
+MOLECULAR_SET = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "molecular_compounds.csv"
+CALIBRATION_SALTS = MOLECULAR_SET.with_name("wikidata_salts.csv")
+# name in TREND_WEIGHTS -> feature of MeltingTerms, with the sign the index gives it
+SALT_FEATURES = (
+    ("cohesion_exponent", lambda t: math.log10(t.lattice_energy_per_ion_kJ_mol / 381.0)),
+    ("contact_chi", lambda t: -(t.contact_chi_pauling - 2.0)),
+    ("contact_index", lambda t: -(t.contact_index if math.isfinite(t.contact_index) else 0.0)),
+    ("pseudo_noble_gas", lambda t: -float(t.pseudo_noble_gas)),
+    ("polyatomic_anion", lambda t: -t.polyatomic_anion_fraction),
+    ("ions_per_formula_unit", lambda t: -math.log10(t.ions_per_formula_unit / 2.0)),
+    ("trivalent_anion", lambda t: -t.trivalent_anion_fraction),
+    ("high_charge_cation", lambda t: -t.cation_charge_above_3),
+    ("framework_oxoanion", lambda t: t.framework_oxoanion_fraction),
+)
+
+
+def _figures(predicted_K, measured_K, salt=True) -> dict:
+    from scipy.stats import spearmanr  # melting extra: only the fit needs it
+
+    p, m = np.asarray(predicted_K, float), np.asarray(measured_K, float)
+    classes_right = [routes.melting_class_for(a, salt) == routes.melting_class_for(b, salt) for a, b in zip(p, m)]
+    return {
+        "n": int(len(p)),
+        "spearman": round(float(spearmanr(p, m).correlation), 3),
+        "within_factor_1_5": round(float(np.mean(np.abs(np.log(p / m)) < math.log(1.5))), 3),
+        "class_accuracy": round(float(np.mean(classes_right)), 3),
+    }
+
+
+def salt_rows(training_rows):
+    """(split, terms, measured K, formula) of the inorganic salts with a trend index.
+
+    Rows of ``wikidata_salts.csv`` are calibration, every other row validation.
+    """
+    with open(CALIBRATION_SALTS, newline="", encoding="utf-8") as handle:
+        fixture = list(csv.DictReader(handle))
+    known = {row["formula_normalized"] for row in fixture}
+    out = []
+    for row in [*fixture, *(r for r in training_rows if r["formula_normalized"] not in known)]:
+        dec = decompose(parse_formula(row["formula_normalized"]))
+        terms = melting.melting_terms(dec)
+        if terms is None or terms.organic or not math.isfinite(terms.lattice_energy_kJ_mol):
+            continue
+        split = "calibration" if row["formula_normalized"] in known and row in fixture else "validation"
+        out.append((split, terms, float(row["mp_K"]), row["formula_normalized"]))
+    return out
+
+
+def fit_salt_weights(rows) -> dict[str, float]:
+    """Least squares of log10 T_m on the calibration rows: the intercept and the SALT_FEATURES weights."""
+    cal = [r for r in rows if r[0] == "calibration"]
+    x = np.array([[1.0, *(f(t) for _, f in SALT_FEATURES)] for _, t, _, _ in cal])
+    y = np.log10([mp for _, _, mp, _ in cal])
+    w, *_ = np.linalg.lstsq(x, y, rcond=None)
+    return {"intercept": float(w[0]), **{k: float(c) for (k, _), c in zip(SALT_FEATURES, w[1:])}}
+
+
+IONIC_LIQUID_SET = MOLECULAR_SET.with_name("ionic_liquids.csv")
+ORGANIC_WEIGHTS = ("flexibility", "delocalised", "protic")
+
+
+def organic_rows(training_rows):
+    """(split, terms, measured K, formula) of salts with an organic cation or a bracketed ion.
+
+    ``datasets/melting/ionic_liquids.csv`` split as its ``set`` column says; the
+    open training set's organic salts not in that file are validation.
+    """
+    out = []
+    with open(IONIC_LIQUID_SET, newline="", encoding="utf-8") as handle:
+        sources = [(r["set"], r["formula"], float(r["mp_K"])) for r in csv.DictReader(handle)]
+    listed = set()
+    for _, formula, _ in sources:
+        comp = parse_formula(formula)
+        listed.add(normalized_formula(comp, decompose(comp)))
+    sources += [("validation", r["formula_normalized"], float(r["mp_K"])) for r in training_rows
+                if r["formula_normalized"] not in listed]
+    for split, formula, mp in sources:
+        dec = decompose(parse_formula(formula))
+        if not dec.is_ionic or not (any(t.ion.organic for t in dec.cations)
+                                    or any(t.ion.label.startswith("[") for t in dec.cations + dec.anions)):
+            continue
+        terms = melting.melting_terms(dec)
+        if terms is not None and math.isfinite(terms.lattice_energy_kJ_mol):
+            out.append((split, terms, mp, formula))
+    return out
+
+
+def _index_with(terms, weights) -> float:
+    return melting.melting_trend_index(
+        terms.lattice_energy_per_ion_kJ_mol, terms.contact_chi_pauling, terms.contact_index, terms.pseudo_noble_gas,
+        terms.polyatomic_anion_fraction, terms.ions_per_formula_unit, terms.flexibility_entropy_J_mol_K,
+        terms.chain_packing_entropy_J_mol_K, terms.delocalised_fraction, terms.trivalent_anion_fraction,
+        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction, weights=weights)
+
+
+def fit_organic_weights(rows) -> dict[str, float]:
+    """Nelder-Mead on the squared log10 error of the calibration rows, inorganic weights held."""
+    from scipy.optimize import minimize  # melting extra
+
+    cal = [r for r in rows if r[0] == "calibration"]
+    y = np.log10([mp for _, _, mp, _ in cal])
+
+    def loss(w):
+        weights = dict(zip(ORGANIC_WEIGHTS, np.abs(w)))
+        return float(np.mean((np.array([_index_with(t, weights) for _, t, _, _ in cal]) - y) ** 2))
+
+    start = [melting.TREND_WEIGHTS[k] or 0.1 for k in ORGANIC_WEIGHTS]
+    result = minimize(loss, start, method="Nelder-Mead", options={"maxiter": 2000, "xatol": 1e-3, "fatol": 1e-7})
+    return dict(zip(ORGANIC_WEIGHTS, map(float, np.abs(result.x))))
+
+
+def molecular_rows():
+    """(split, formula, terms, measured K) of datasets/melting/molecular_compounds.csv (chemicals Tm at run time)."""
+    from chemicals.phase_change import Tm  # melting extra
+
+    out = []
+    with open(MOLECULAR_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"])
+            if value is None:
+                continue
+            terms = routes.molecular_terms(decompose(parse_formula(row["formula"])))
+            out.append((row["set"], row["formula"], terms, float(value)))
+    return out
+
+
+def fit_molecular_weights(rows) -> dict[str, float]:
+    """Least squares of dH_m = T_m dS_m (relative errors) on the calibration rows."""
+    a, b = [], []
+    for split, _, m, t in rows:
+        if split != "calibration":
+            continue
+        ds = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
+        dh = t * ds / 1000.0
+        a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3), m.open_sites]) / dh)
+        b.append(1.0)
+    w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
+    return dict(zip(("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol"),
+                    map(float, w)))
+
+
+def as_molecular(formula: str):
+    """The decomposition of a formula read as a molecular compound (no ions, class covalent_molecular)."""
+    return replace(decompose(parse_formula(formula)), cations=(), anions=(), substance_class="covalent_molecular")
+
+
+def evaluate(salts, molecules, organics=None) -> dict:
+    """Figures per set and split with the weights now in TREND_WEIGHTS, and over all validation rows."""
+    out = {}
+    pooled_p, pooled_m = [], []
+    for split in ("calibration", "validation"):
+        rows = [r for r in salts if r[0] == split]
+        predicted = []
+        if rows:
+            out[f"salts_{split}"] = _figures([10 ** t.index() for _, t, _, _ in rows], [mp for _, _, mp, _ in rows])
+        organic = [r for r in (organics or ()) if r[0] == split]
+        if organic:
+            predicted = [10 ** t.index() for _, t, _, _ in organic]
+            measured = [mp for _, _, mp, _ in organic]
+            out[f"organic_salts_{split}"] = {**_figures(predicted, measured),
+                                              "mae_K": round(float(np.mean(np.abs(np.subtract(predicted, measured)))), 1)}
+        mols = [r for r in molecules if r[0] == split]
+        if mols:
+            # the set is molecular by definition: read every row down the molecular route, whatever
+            # class the ion solver gives it today (AlCl3 and HgX2 are covalent_molecular after issue 12)
+            predicted = [10 ** melting.describe(as_molecular(f))[0]["mp_trend_index"] for _, f, _, _ in mols]
+            out[f"molecules_{split}"] = _figures(predicted, [t for *_, t in mols], salt=False)
+        if split == "validation":
+            pooled_p += [10 ** t.index() for _, t, _, _ in rows + organic] + (predicted if mols else [])
+            pooled_m += [mp for _, _, mp, _ in rows + organic] + [t for *_, t in mols]
+    if pooled_p:
+        out["all_validation"] = {k: v for k, v in _figures(pooled_p, pooled_m).items() if k != "class_accuracy"}
+    return out
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+    parser.add_argument("--training", help="a training_set.csv written by fit-melting (default: build it now)")
+    args = parser.parse_args(argv)
+    if args.training:
+        with open(args.training, newline="", encoding="utf-8") as handle:
+            training = list(csv.DictReader(handle))
+    else:
+        from ionicity.pipelines.melting_data import build_open_training_set
+
+        training = build_open_training_set(progress=lambda text: print(text, file=sys.stderr, flush=True)).rows
+    print("scoring the salts", file=sys.stderr, flush=True)
+    salts = salt_rows(training)
+    print("reading the molecular set", file=sys.stderr, flush=True)
+    molecules = molecular_rows()
+    print("salt weights (fit on calibration):", {k: round(v, 3) for k, v in fit_salt_weights(salts).items()})
+    organics = organic_rows(training)
+    print("organic weights (fit on calibration):", {k: round(v, 3) for k, v in fit_organic_weights(organics).items()})
+    print("molecular weights (fit on calibration):", {k: round(v, 3) for k, v in fit_molecular_weights(molecules).items()})
+    for name, figures in evaluate(salts, molecules, organics).items():
+        print(name, figures)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,298 @@
+"""Equations and weights of the salt melting trend index (read through :mod:`scorer.melting`).
+
+:data:`TREND_WEIGHTS` (every weight, with the set it was fitted on),
+:func:`melting_trend_index` (the salt index), the Dannenfelser-Yalkowsky
+flexibility entropy and the salt thresholds. Kept apart from the gathering of
+inputs and the descriptor protocol in :mod:`scorer.melting`, which re-exports
+these names; the routes for other compounds are in :mod:`scorer.melting_routes`.
+"""
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+__all__ = [
+    "GAS_CONSTANT_J_MOL_K",
+    "MELTING_CLASSES",
+    "TREND_WEIGHTS",
+    "dannenfelser_yalkowsky_flexibility_entropy_J_mol_K",
+    "melting_trend_index",
+    "trend_temperature_K",
+    "melting_class_from_index",
+]
+
+GAS_CONSTANT_J_MOL_K = 8.314462618
+
+# (name, upper bound in K, origin); the last class is open-ended.
+MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
+    ("ionic_liquid", 373.15, "melts below 100 C, the trade's definition (Wasserscheid & Welton 2008, from memory)"),
+    ("low_melting_salt", 573.15, "100-300 C (common practice)"),
+    ("molten_salt", 1773.15, "300-1500 C, the usual molten-salt range (common practice)"),
+    ("refractory", math.inf, "1500 C and above, ISO 836 refractoriness (from memory)"),
+)
+
+# Weights of the terms of melting_trend_index; every one fitted on a named calibration
+# set and checked on another (python -m ionicity.pipelines.melting_weights prints both):
+# * inorganic terms (intercept ... framework_oxoanion): least squares of log10 T_m on
+#   datasets/melting/wikidata_salts.csv (CC0, 130 salts with an index), rounded;
+#   validation: the open training set of fit-melting minus those formulas.
+# * organic terms (flexibility, delocalised, protic): Nelder-Mead on the calibration rows
+#   of datasets/melting/ionic_liquids.csv; validation: its validation rows and the
+#   organic salts of the open training set. packing_free_torsions is set by hand (the
+#   hexyl chain), entropy_per_ion_J_mol_K and chain_melting_K are physical scales,
+#   checked against fusion entropies of the alkali halides and polyethylene.
+# * molecular route (molecular_*): least squares of dH_m on the calibration rows of
+#   datasets/melting/molecular_compounds.csv; validation on its validation rows.
+# tests/perturb_trend_weights.py lists which +-50 % changes no test catches.
+TREND_WEIGHTS: dict[str, float] = {
+    "intercept": 2.99,  # log10 K at the reference energy and chi with no other term
+    "reference_energy_per_ion_kJ_mol": 381.0,  # NaCl: volume-based 762 kJ/mol over 2 ions
+    "reference_contact_chi": 2.0,  # the fit's centring value (NaCl: (0.93 + 3.16) / 2 = 2.045)
+    "cohesion_exponent": 0.70,
+    "contact_chi": 0.17,
+    "contact_index": 0.27,
+    "pseudo_noble_gas": 0.12,
+    "polyatomic_anion": 0.125,
+    "ions_per_formula_unit": 0.18,
+    "entropy_per_ion_J_mol_K": 12.5,  # NaCl: dS_fus 26 J/(mol K) over 2 ions (CRC Handbook, from memory)
+    "flexibility": 0.12,
+    "chain_melting_K": 414.6,  # polyethylene, the long-chain limit (Wunderlich 1980, from memory)
+    "packing_free_torsions": 4.5,  # tau of a hexyl chain: longer chains pack
+    "delocalised": 0.15,
+    # nitrides: the volume-based energy of a small triply charged anion overstates the
+    # cohesion that melting breaks (Li3N 1086 K)
+    "trivalent_anion": 0.21,
+    "high_charge_cation": 0.10,
+    "framework_oxoanion": 0.39,
+    "protic": 0.19,
+    # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
+    "molecular_contact_kJ_mol": 1.1,
+    "molecular_polarisability_kJ_mol_A3": 0.61,
+    "molecular_bridge_kJ_mol": 7.1,
+}
+
+
+# ------------------------------------------------------------------ equations
+
+
+def dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(torsions_tau, symmetry_number=1.0):
+    """Conformational and symmetry part of the entropy of fusion of one molecule or ion.
+
+    ``dS = R ln Phi - R ln sigma`` with the flexibility number
+    ``Phi = 2.435**tau``: the molecule-specific part of Dannenfelser and
+    Yalkowsky's entropy of melting, ``dS_m = 56.5 - R ln sigma + R ln Phi``
+    J/(mol K), without the constant 56.5 (the positional part, which this
+    module counts per ion instead).
+
+    Parameters
+    ----------
+    torsions_tau : float or array-like
+        ``tau = SP3 + 0.5 SP2 + 0.5 RING - 1`` (at least 0): non-terminal,
+        non-ring sp3 and sp2 heavy atoms and ring systems.
+    symmetry_number : float or array-like, default=1.0
+        Rotational symmetry number ``sigma`` (>= 1).
+
+    Returns
+    -------
+    float or ndarray
+        Entropy in J/(mol K).
+
+    References
+    ----------
+    R. M. Dannenfelser and S. H. Yalkowsky, Ind. Eng. Chem. Res. 1996, 35,
+    1483-1486, doi:10.1021/ie940581z (from memory).
+
+    Examples
+    --------
+    n-butyl on an imidazolium ring (tau = 3 + 0.5 - 1 = 2.5), sigma = 1:
+
+    >>> round(dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(2.5), 1)
+    18.5
+    >>> round(dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(0.0, 12), 1)
+    -20.7
+    """
+    tau = np.asarray(torsions_tau, dtype=float)
+    sigma = np.asarray(symmetry_number, dtype=float)
+    value = GAS_CONSTANT_J_MOL_K * (np.maximum(tau, 0.0) * math.log(2.435) - np.log(np.maximum(sigma, 1.0)))
+    return float(value) if value.ndim == 0 else value
+
+
+def melting_trend_index(
+    lattice_energy_per_ion_kJ_mol,
+    contact_chi_pauling,
+    contact_index,
+    pseudo_noble_gas,
+    polyatomic_anion_fraction,
+    ions_per_formula_unit,
+    flexibility_entropy_J_mol_K=0.0,
+    chain_packing_entropy_J_mol_K=0.0,
+    delocalised_fraction=0.0,
+    trivalent_anion_fraction=0.0,
+    cation_charge_above_3=0.0,
+    framework_oxoanion_fraction=0.0,
+    protic_fraction=0.0,
+    *,
+    weights=None,
+):
+    r"""The melting trend index: log10 of a trend temperature in K (dimensionless).
+
+    Ionic part, a sum of logarithmic terms:
+
+    .. math::
+
+        I_\mathrm{ion} = c_0 + a \log_{10}(u/u_\mathrm{ref})
+            - w_\chi (\bar\chi - \bar\chi_\mathrm{ref}) - w_f f - w_p p
+            - w_a f_\mathrm{poly} - w_\nu \log_{10}(\nu/2) - w_d f_\mathrm{deloc} - w_3 f_3
+            - w_z (z_\mathrm{max} - 3)_+ + w_\mathrm{fw} f_\mathrm{fw}
+
+    then the organic ions' entropy and chain packing, as ``T = dH / dS`` with
+    the ionic part carrying ``dS_ion = nu s0`` and ``dH_ion = 10**I_ion dS_ion``:
+
+    .. math::
+
+        T = \frac{10^{I_\mathrm{ion}} \nu s_0 + T_\mathrm{PE}\, w_s S_\mathrm{pack}}
+                 {\nu s_0 + w_s S_\mathrm{flex}}, \qquad I = \log_{10} T
+
+    ``u`` lattice energy per ion, ``chi`` mean Pauling electronegativity of the
+    atoms in contact, ``f`` Fajans contact index, ``p`` 1 for an 18 or 18+2
+    electron cation, ``f_poly`` the share of anions that are polyatomic,
+    ``nu`` ions per formula unit, ``f_deloc`` the share of ions whose charge
+    is delocalised, ``s0`` the entropy of fusion per ion of a simple salt,
+    ``S_flex`` the Dannenfelser-Yalkowsky conformational entropy of the organic
+    ions per formula unit (:func:`dannenfelser_yalkowsky_flexibility_entropy_J_mol_K`)
+    and ``S_pack`` the part of it from torsions beyond the sixth carbon of a
+    chain, which pack like polyethylene and bring their own heat of fusion:
+    long-chain salts (soaps) tend to the polyethylene melting point
+    ``T_PE = 414.6 K`` (Wunderlich, Macromolecular Physics vol. 3, 1980; from
+    memory) instead of melting ever lower. Weights: :data:`TREND_WEIGHTS`.
+
+    Parameters
+    ----------
+    lattice_energy_per_ion_kJ_mol : float or array-like
+        Lattice potential energy over ions per formula unit [kJ/mol].
+    contact_chi_pauling : float or array-like
+        Mean Pauling electronegativity of the cation-anion contact atoms.
+    contact_index : float or array-like
+        Fajans contact index (dimensionless); NaN counts as 0.
+    pseudo_noble_gas : bool or array-like
+        An 18 or 18+2 electron cation is present.
+    polyatomic_anion_fraction : float or array-like
+        Count share of polyatomic anions, 0 to 1.
+    ions_per_formula_unit : float or array-like
+        ``nu``.
+    flexibility_entropy_J_mol_K : float or array-like, default=0.0
+        ``S_flex``: sum over organic ions of count times their flexibility entropy [J/(mol K)].
+    chain_packing_entropy_J_mol_K : float or array-like, default=0.0
+        ``S_pack`` [J/(mol K)].
+    delocalised_fraction : float or array-like, default=0.0
+        Count share of ions with a resonance-delocalised charge, 0 to 1;
+        an anion counted only beside organic cations (a small hard cation
+        such as Li+ binds to the anion's donor atoms: LiTFSI melts at 507 K).
+    trivalent_anion_fraction : float or array-like, default=0.0
+        Count share of monatomic anions of charge -3 or below (nitrides), weight ``w_3``.
+    cation_charge_above_3 : float or array-like, default=0.0
+        ``max(z_max - 3, 0)`` for the highest cation charge: Ti4+, Cr6+ and
+        the like form molecules, chains or layers, not ionic lattices (weight ``w_z``).
+    protic_fraction : float or array-like, default=0.0
+        Count share of ions that are protic ammonium cations (family
+        ``ammonium-protic``: [EtNH3]+): proton transfer is incomplete and the
+        N-H...anion hydrogen bonds leave a liquid of ion pairs (weight ``w_H``).
+    framework_oxoanion_fraction : float or array-like, default=0.0
+        Count share of oxoanions of network formers with at most three oxygens
+        per central atom (AlO2-, BO2-, PO3-, SiO3 2-): chains and frameworks in
+        the solid, not rotating molecular ions, so they melt like oxides (``+ w_f``).
+    weights : dict, optional
+        Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
+
+    Returns
+    -------
+    float or ndarray
+        The index; ``10**I`` is the trend temperature in K.
+
+    Notes
+    -----
+    The intercept and the inorganic weights come from the least-squares fit
+    described in the module docstring, not from one reference salt: NaCl
+    (u = 381 kJ/mol per ion from its volume-based 762 kJ/mol, contact chi
+    2.045, contact index 0.131) lands at 2.947, a trend temperature of 885 K,
+    against 1074 K measured (CRC Handbook, from memory).
+
+    Examples
+    --------
+    >>> round(melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2), 3)
+    2.947
+    >>> round(float(10 ** melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2)))
+    885
+    """
+    w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
+    u = np.asarray(lattice_energy_per_ion_kJ_mol, dtype=float)
+    chi = np.asarray(contact_chi_pauling, dtype=float)
+    kappa = np.nan_to_num(np.asarray(contact_index, dtype=float), nan=0.0)
+    png = np.asarray(pseudo_noble_gas, dtype=float)
+    poly = np.asarray(polyatomic_anion_fraction, dtype=float)
+    nu = np.asarray(ions_per_formula_unit, dtype=float)
+    flex = np.asarray(flexibility_entropy_J_mol_K, dtype=float)
+    pack = np.asarray(chain_packing_entropy_J_mol_K, dtype=float)
+    deloc = np.asarray(delocalised_fraction, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ionic = (
+            w["intercept"]
+            + w["cohesion_exponent"] * np.log10(u / w["reference_energy_per_ion_kJ_mol"])
+            - w["contact_chi"] * (chi - w["reference_contact_chi"])
+            - w["contact_index"] * kappa
+            - w["pseudo_noble_gas"] * png
+            - w["polyatomic_anion"] * poly
+            - w["ions_per_formula_unit"] * np.log10(nu / 2.0)
+            - w["delocalised"] * deloc
+            - w["trivalent_anion"] * np.asarray(trivalent_anion_fraction, dtype=float)
+            - w["high_charge_cation"] * np.asarray(cation_charge_above_3, dtype=float)
+            + w["framework_oxoanion"] * np.asarray(framework_oxoanion_fraction, dtype=float)
+            - w["protic"] * np.asarray(protic_fraction, dtype=float)
+        )
+        s_ion = nu * w["entropy_per_ion_J_mol_K"]
+        # symmetric rigid ions may lower the entropy, but never below half the ionic part
+        s_total = np.maximum(s_ion + w["flexibility"] * flex, 0.5 * s_ion)
+        h_total = np.power(10.0, ionic) * s_ion + w["chain_melting_K"] * w["flexibility"] * pack
+        value = np.log10(h_total / s_total)
+    return float(value) if value.ndim == 0 else value
+
+
+def trend_temperature_K(index):
+    """``10**index``: the index read back on the kelvin scale (for classes and people).
+
+    >>> round(trend_temperature_K(3.0))
+    1000
+    """
+    value = np.power(10.0, np.asarray(index, dtype=float))
+    return float(value) if value.ndim == 0 else value
+
+
+def melting_class_from_index(index) -> str | None:
+    """The salt melting class of a trend index (thresholds in :data:`MELTING_CLASSES`).
+
+    Salts only; :func:`scorer.melting_routes.melting_class_for` covers every compound.
+
+    Parameters
+    ----------
+    index : float
+        :func:`melting_trend_index`.
+
+    Returns
+    -------
+    str or None
+        ``ionic_liquid``, ``low_melting_salt``, ``molten_salt`` or
+        ``refractory``; None for NaN.
+
+    Examples
+    --------
+    >>> [melting_class_from_index(x) for x in (2.4, 2.6, 3.0, 3.4, float("nan"))]
+    ['ionic_liquid', 'low_melting_salt', 'molten_salt', 'refractory', None]
+    """
+    if index is None or math.isnan(float(index)):
+        return None
+    temperature = trend_temperature_K(float(index))
+    for name, upper, _ in MELTING_CLASSES:
+        if temperature < upper:
+            return name
+    return MELTING_CLASSES[-1][0]

@@ -1,0 +1,246 @@
+"""The layout of a melting-model file: the features a model may name, and the checked reader.
+
+:func:`model_from_dict` checks a parsed JSON document against the expected
+layout and refuses anything else (no pickle: a model file cannot run code);
+:class:`MeltingModel` holds it as plain arrays. Applying a model is in
+:mod:`scorer.melting_model`, which re-exports these names.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+__all__ = [
+    "MODEL_FEATURES",
+    "MODEL_FORMAT",
+    "MODEL_FORMAT_VERSION",
+    "INTERVAL_GROUPS",
+    "MeltingModel",
+    "ModelFormatError",
+    "model_from_dict",
+    "model_to_dict",
+]
+
+
+# Numeric output columns the regression reads (_RECORD_FEATURES), and counts
+# and charges of the ions (_DERIVED_FEATURES, from the decomposition); both
+# follow from the formula alone, so a model applies to any formula ionicity reads.
+_RECORD_FEATURES = (
+    "mp_trend_index",
+    "lattice_energy_vbt_kJ_mol",
+    "lattice_energy_kapustinskii_kJ_mol",
+    "delta_chi_pauling",
+    "ionic_character_pauling_pct",
+    "mean_chi_pauling",
+    "cation_polarising_power_e_per_A2",
+    "cation_polarising_power_max_e_per_A2",
+    "anion_polarisability_A3",
+    "fajans_contact_index",
+    "cation_pseudo_noble_gas",
+    "hsab_pairing_score",
+    "cation_hardness_eV",
+    "anion_hardness_eV",
+    "molar_mass_g_mol",
+)
+_DERIVED_FEATURES = (
+    "ions_per_formula_unit",
+    "max_cation_charge",
+    "max_anion_charge",
+    "polyatomic_anion_fraction",
+    "organic_ion_fraction",
+)
+MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES
+
+MODEL_FORMAT = "ionicity-melting-model"
+MODEL_FORMAT_VERSION = 1
+MODEL_TYPES = ("gradient_boosted_trees",)
+_TOP_KEYS = frozenset({
+    "format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain",
+    "training", "metrics", "caution",
+})
+_REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
+_TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
+_MAX_TREES = 5000
+_MAX_NODES = 100_000
+
+INTERVAL_GROUPS = ("ionic_liquid", "other")
+
+
+class ModelFormatError(ValueError):
+    """A melting-model document that is not one :func:`model_from_dict` accepts."""
+
+
+@dataclass(frozen=True)
+class MeltingModel:
+    """A fitted melting-point model, as plain arrays (see :func:`model_from_dict`)."""
+
+    features: tuple[str, ...]
+    baseline: float
+    trees: tuple[tuple[np.ndarray, ...], ...]  # (feature, threshold, left, right, missing_left, leaf, value)
+    interval_log_halfwidth: float
+    interval_coverage: float
+    feature_min: np.ndarray
+    feature_max: np.ndarray
+    substance_classes: tuple[str, ...]
+    document: dict
+    # Mondrian split-conformal: a half-width per interval group (INTERVAL_GROUPS), when the file has them
+    group_log_halfwidths: tuple[tuple[str, float], ...] = ()
+    target_min_K: float = math.nan
+    target_max_K: float = math.nan
+
+    @property
+    def feature_indices(self) -> np.ndarray:
+        position = {name: i for i, name in enumerate(MODEL_FEATURES)}
+        return np.array([position[name] for name in self.features], dtype=int)
+
+
+def _need(condition: bool, message: str) -> None:
+    if not condition:
+        raise ModelFormatError(message)
+
+
+def _number_list(value, name: str, *, integer: bool = False, length: int | None = None) -> np.ndarray:
+    _need(isinstance(value, list), f"'{name}' must be a list of numbers")
+    _need(length is None or len(value) == length, f"'{name}' must have {length} entries, not {len(value)}")
+    for item in value:
+        _need(isinstance(item, (int, float)) and not isinstance(item, bool),
+              f"'{name}' must hold only numbers (found {type(item).__name__})")
+        _need(math.isfinite(item), f"'{name}' must hold only finite numbers")
+        _need(not integer or float(item) == int(item), f"'{name}' must hold only whole numbers")
+    return np.array(value, dtype=np.int64 if integer else float)
+
+
+def _plain_json(value, depth: int = 0) -> bool:
+    if depth > 6:
+        return False
+    if value is None or isinstance(value, (bool, int, float, str)):
+        return True
+    if isinstance(value, list):
+        return all(_plain_json(v, depth + 1) for v in value)
+    if isinstance(value, dict):
+        return all(isinstance(k, str) and _plain_json(v, depth + 1) for k, v in value.items())
+    return False
+
+
+def model_from_dict(document) -> MeltingModel:
+    """Check a parsed model document against the expected schema and build the model.
+
+    Anything but the expected layout is refused with :class:`ModelFormatError`:
+    an unknown ``format`` or ``model_type``, unknown keys, a feature ionicity
+    does not compute, non-numeric or non-finite arrays, child indices that do
+    not point forward inside the tree (so a tree cannot loop). The document is
+    plain JSON data; nothing in it is executed.
+
+    Parameters
+    ----------
+    document : dict
+        ``json.load`` of a file written by ``ionicity fit-melting``.
+
+    Returns
+    -------
+    MeltingModel
+
+    Raises
+    ------
+    ModelFormatError
+        With a message that names the offending part.
+
+    Examples
+    --------
+    >>> model_from_dict({"format": "something-else"})
+    Traceback (most recent call last):
+    ...
+    ionicity.scorer.melting_model_format.ModelFormatError: not an ionicity melting model: 'format' is 'something-else', expected 'ionicity-melting-model'
+    """
+    _need(isinstance(document, dict), "a melting model must be a JSON object")
+    fmt = document.get("format")
+    _need(fmt == MODEL_FORMAT, f"not an ionicity melting model: 'format' is {fmt!r}, expected {MODEL_FORMAT!r}")
+    _need(document.get("format_version") == MODEL_FORMAT_VERSION,
+          f"unsupported format_version {document.get('format_version')!r}; this ionicity reads {MODEL_FORMAT_VERSION}")
+    model_type = document.get("model_type")
+    _need(model_type in MODEL_TYPES, f"model_type {model_type!r} is not accepted; allowed: {', '.join(MODEL_TYPES)}")
+    unknown = sorted(set(document) - _TOP_KEYS)
+    _need(not unknown, f"unexpected keys in the model: {unknown}")
+    missing = sorted(_REQUIRED_KEYS - set(document))
+    _need(not missing, f"missing keys in the model: {missing}")
+    _need(document["target"] == "ln_mp_K", f"target {document['target']!r} is not accepted; allowed: ln_mp_K")
+    features = document["features"]
+    _need(isinstance(features, list) and features and all(isinstance(f, str) for f in features),
+          "'features' must be a non-empty list of column names")
+    strange = [f for f in features if f not in MODEL_FEATURES]
+    _need(not strange, f"features ionicity does not compute: {strange}; allowed: {', '.join(MODEL_FEATURES)}")
+    _need(len(set(features)) == len(features), "'features' lists a column twice")
+    baseline = document["baseline"]
+    _need(isinstance(baseline, (int, float)) and not isinstance(baseline, bool) and math.isfinite(baseline),
+          "'baseline' must be a finite number")
+    trees_in = document["trees"]
+    _need(isinstance(trees_in, list) and 0 < len(trees_in) <= _MAX_TREES, f"'trees' must be a list of 1 to {_MAX_TREES} trees")
+    trees = []
+    n_features = len(features)
+    for k, tree in enumerate(trees_in):
+        _need(isinstance(tree, dict) and set(tree) == _TREE_KEYS,
+              f"tree {k} must have exactly the keys {sorted(_TREE_KEYS)}")
+        n = len(tree["value"]) if isinstance(tree["value"], list) else 0
+        _need(0 < n <= _MAX_NODES, f"tree {k}: between 1 and {_MAX_NODES} nodes expected")
+        feature = _number_list(tree["feature"], f"trees[{k}].feature", integer=True, length=n)
+        threshold = _number_list(tree["threshold"], f"trees[{k}].threshold", length=n)
+        left = _number_list(tree["left"], f"trees[{k}].left", integer=True, length=n)
+        right = _number_list(tree["right"], f"trees[{k}].right", integer=True, length=n)
+        missing_left = _number_list(tree["missing_left"], f"trees[{k}].missing_left", integer=True, length=n)
+        leaf = _number_list(tree["leaf"], f"trees[{k}].leaf", integer=True, length=n)
+        value = _number_list(tree["value"], f"trees[{k}].value", length=n)
+        inner = leaf == 0
+        nodes = np.arange(n)
+        _need(bool(np.all(np.isin(leaf, (0, 1))) and np.all(np.isin(missing_left, (0, 1)))),
+              f"tree {k}: 'leaf' and 'missing_left' must be 0 or 1")
+        _need(bool(np.all((feature[inner] >= 0) & (feature[inner] < n_features))),
+              f"tree {k}: a split names a feature outside 0..{n_features - 1}")
+        _need(bool(np.all((left[inner] > nodes[inner]) & (left[inner] < n) & (right[inner] > nodes[inner]) & (right[inner] < n))),
+              f"tree {k}: child indices must point forward inside the tree")
+        trees.append((feature, threshold, left, right, missing_left.astype(bool), leaf.astype(bool), value))
+    interval = document["interval"]
+    _need(isinstance(interval, dict), "'interval' must be an object")
+    halfwidth = interval.get("log_halfwidth")
+    coverage = interval.get("coverage", 0.9)
+    _need(isinstance(halfwidth, (int, float)) and not isinstance(halfwidth, bool) and math.isfinite(halfwidth)
+          and halfwidth >= 0, "'interval.log_halfwidth' must be a finite number >= 0")
+    _need(isinstance(coverage, (int, float)) and 0 < coverage < 1, "'interval.coverage' must lie between 0 and 1")
+    domain = document["domain"]
+    _need(isinstance(domain, dict), "'domain' must be an object")
+    fmin = _number_list(domain.get("feature_min"), "domain.feature_min", length=n_features)
+    fmax = _number_list(domain.get("feature_max"), "domain.feature_max", length=n_features)
+    groups = interval.get("group_log_halfwidths", {})
+    _need(isinstance(groups, dict) and all(
+        g in INTERVAL_GROUPS and isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v) and v >= 0
+        for g, v in groups.items()),
+        f"'interval.group_log_halfwidths' must map {', '.join(INTERVAL_GROUPS)} to finite numbers >= 0")
+    target = [domain.get("target_min_K", math.nan), domain.get("target_max_K", math.nan)]
+    for key, value in zip(("target_min_K", "target_max_K"), target):
+        _need(key not in domain or (isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)),
+              f"'domain.{key}' must be a finite number")
+    classes = domain.get("substance_classes", [])
+    _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),
+          "'domain.substance_classes' must be a list of strings")
+    for key in ("training", "metrics"):
+        _need(_plain_json(document.get(key, {})), f"'{key}' must hold plain JSON values only")
+    return MeltingModel(
+        features=tuple(features),
+        baseline=float(baseline),
+        trees=tuple(trees),
+        interval_log_halfwidth=float(halfwidth),
+        interval_coverage=float(coverage),
+        feature_min=fmin,
+        feature_max=fmax,
+        substance_classes=tuple(classes),
+        document=document,
+        group_log_halfwidths=tuple(sorted((g, float(v)) for g, v in groups.items())),
+        target_min_K=float(target[0]),
+        target_max_K=float(target[1]),
+    )
+
+
+def model_to_dict(model: MeltingModel) -> dict:
+    """The JSON document of a model (the inverse of :func:`model_from_dict`)."""
+    return model.document

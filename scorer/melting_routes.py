@@ -1,0 +1,327 @@
+"""Melting routes for compounds that are not salts, and the melting classes of every route.
+
+:mod:`scorer.melting` sends each compound down one route by its
+``substance_class`` (:data:`ROUTE_OF_CLASS`) and puts every result on one
+scale, ``log10`` of a trend temperature in K, so that rankings across kinds
+mean something:
+
+* ``salt``: the ionic index of :mod:`scorer.melting`;
+* ``molecular`` (``covalent_molecular``, ``acid``): ``T_m = dH_m / dS_m`` for
+  a molecular crystal (:func:`molecular_melting_K`), with the entropy of
+  melting from Walden's rule corrected for rotational symmetry and
+  flexibility as Dannenfelser and Yalkowsky do
+  (:func:`walden_dannenfelser_yalkowsky_entropy_J_mol_K`) and the heat of
+  melting from a cohesion term of the molecule's size and polarisability
+  (:func:`molecular_cohesion_kJ_mol`);
+* ``chain_layer`` (``chain_layer_solid``): between the two, the geometric
+  mean of the salt and molecular temperatures (:func:`chain_layer_index`);
+* ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
+  ``intermetallic``, ``zintl_phase``, ``element``): the stated rule of
+  :func:`element_mixture_melting_K`, the atom-fraction weighted mean of the
+  melting points of the elements that are solids at room temperature, or the
+  salt index where the compound has an ionic reading and that is higher
+  (polar networks such as GaN and AlN).
+
+Melting classes (:data:`MELTING_CLASS_BANDS`) share the same temperature
+bands; salts keep the trade's names (``ionic_liquid`` is a salt melting below
+100 C), other compounds get names of their own, so that a molecular liquid is
+never called an ionic liquid.
+"""
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass
+from math import factorial
+
+from ionicity.scorer.caching import once
+from ionicity.scorer.elements import get_element
+from ionicity.scorer.model import Decomposition
+from ionicity.scorer.radii import shannon_radius_pm
+from ionicity.scorer.tables import table
+
+__all__ = [
+    "MELTING_CLASS_BANDS",
+    "ROUTE_OF_CLASS",
+    "SALT_CLASSES",
+    "melting_class_for",
+    "walden_dannenfelser_yalkowsky_entropy_J_mol_K",
+    "molecular_cohesion_kJ_mol",
+    "molecular_melting_K",
+    "MolecularTerms",
+    "molecular_terms",
+    "element_mixture_melting_K",
+    "chain_layer_index",
+]
+
+GAS_CONSTANT_J_MOL_K = 8.314462618
+BOHR3_TO_A3 = 0.148184711  # (0.529177 A)**3
+WALDEN_ENTROPY_J_MOL_K = 56.5  # Dannenfelser & Yalkowsky's constant (Walden's rule, 13 e.u.)
+
+# (class_name, lower_K, upper_K, description): every melting_class value. The
+# bands are the same for salts and for other compounds; bands nest (the two
+# lowest non-salt bands split the salt band below 100 C at 25 C).
+MELTING_CLASS_BANDS: tuple[tuple[str, float, float, str], ...] = (
+    ("ionic_liquid", 0.0, 373.15, "salt melting below 100 C, the trade's definition (Wasserscheid & Welton,"
+     " Ionic Liquids in Synthesis, 2008; from memory)"),
+    ("low_melting_salt", 373.15, 573.15, "salt melting at 100-300 C (common practice)"),
+    ("molten_salt", 573.15, 1773.15, "salt melting at 300-1500 C, the usual molten-salt range (common practice)"),
+    ("liquid_at_room_temperature", 0.0, 298.15, "not a salt: liquid (or gas) at 25 C"),
+    ("melts_below_100C", 298.15, 373.15, "not a salt: solid at 25 C, melting below 100 C"),
+    ("low_melting_solid", 373.15, 573.15, "not a salt: melting at 100-300 C"),
+    ("high_melting_solid", 573.15, 1773.15, "not a salt: melting at 300-1500 C"),
+    ("refractory", 1773.15, math.inf, "any compound melting at 1500 C or above, ISO 836 refractoriness (from memory)"),
+)
+
+SALT_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "base"})
+
+# substance_class -> route; class names from the agreed list (docs: contracts of issue 12)
+ROUTE_OF_CLASS: dict[str, str] = {
+    "ionic_salt": "salt",
+    "ionic_liquid_pair": "salt",
+    "base": "salt",
+    "covalent_molecular": "molecular",
+    "acid": "molecular",
+    "chain_layer_solid": "chain_layer",
+    "covalent_network": "element_mixture",
+    "semiconductor": "element_mixture",
+    "metallic": "element_mixture",
+    "intermetallic": "element_mixture",
+    "zintl_phase": "element_mixture",
+    "element": "element_mixture",
+}
+
+_SALT_BANDS = ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")
+_OTHER_BANDS = ("liquid_at_room_temperature", "melts_below_100C", "low_melting_solid", "high_melting_solid", "refractory")
+
+
+def melting_class_for(temperature_K: float, salt: bool) -> str | None:
+    """The melting class of a trend temperature (bands in :data:`MELTING_CLASS_BANDS`).
+
+    >>> melting_class_for(250.0, salt=True), melting_class_for(250.0, salt=False)
+    ('ionic_liquid', 'liquid_at_room_temperature')
+    >>> melting_class_for(2400.0, salt=False), melting_class_for(float("nan"), salt=True)
+    ('refractory', None)
+    """
+    if temperature_K is None or not math.isfinite(temperature_K):
+        return None
+    bands = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
+    for name in _SALT_BANDS if salt else _OTHER_BANDS:
+        lo, hi = bands[name]
+        if lo <= temperature_K < hi:
+            return name
+    return "refractory"
+
+
+# ------------------------------------------------------------------ equations
+
+
+def walden_dannenfelser_yalkowsky_entropy_J_mol_K(symmetry_number=1.0, torsions_tau=0.0):
+    """Entropy of melting of a molecular crystal, Walden's rule with Dannenfelser and Yalkowsky's terms.
+
+    ``dS_m = 56.5 - R ln sigma + R ln Phi`` J/(mol K), ``Phi = 2.435**tau``.
+
+    Parameters
+    ----------
+    symmetry_number : float
+        Rotational symmetry number ``sigma`` (>= 1).
+    torsions_tau : float
+        Torsional angles ``tau`` (>= 0).
+
+    Returns
+    -------
+    float
+        J/(mol K).
+
+    References
+    ----------
+    R. M. Dannenfelser and S. H. Yalkowsky, Ind. Eng. Chem. Res. 1996, 35,
+    1483-1486 (from memory): naphthalene (sigma 4, tau 0) 56.5 - R ln 4 = 45.0 J/(mol K).
+
+    Examples
+    --------
+    >>> round(walden_dannenfelser_yalkowsky_entropy_J_mol_K(4, 0), 1)
+    45.0
+    >>> round(walden_dannenfelser_yalkowsky_entropy_J_mol_K(1, 0), 1)
+    56.5
+    """
+    sigma = max(float(symmetry_number), 1.0)
+    tau = max(float(torsions_tau), 0.0)
+    return WALDEN_ENTROPY_J_MOL_K - GAS_CONSTANT_J_MOL_K * math.log(sigma) + GAS_CONSTANT_J_MOL_K * tau * math.log(2.435)
+
+
+def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, weights: Mapping[str, float]):
+    """Heat of melting of a molecular crystal from the size and polarisability of its molecule [kJ/mol].
+
+    ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open``: each
+    peripheral atom L touches the neighbouring molecules and adds a contact
+    share growing with its polarisability ``alpha_L`` (London dispersion);
+    ``n_open`` counts coordination sites the central atom leaves open
+    (its radius-ratio coordination number less its ligands and lone pairs), each of which a
+    halide or oxide of a neighbour bridges in the crystal (AlCl3 layers,
+    (NbCl5)2, (TaF5)4, HgCl2 2+4 coordination). Defined here; the weights
+    ``h_0``, ``h_alpha``, ``h_bridge`` are fitted (see ``TREND_WEIGHTS``).
+
+    Examples
+    --------
+    >>> w = {"molecular_contact_kJ_mol": 1.0, "molecular_polarisability_kJ_mol_A3": 1.0, "molecular_bridge_kJ_mol": 8.0}
+    >>> molecular_cohesion_kJ_mol([2.0, 2.0], 1, w)
+    14.0
+    """
+    total = sum(weights["molecular_contact_kJ_mol"] + weights["molecular_polarisability_kJ_mol_A3"] * a
+                for a in ligand_polarisabilities_A3)
+    return total + weights["molecular_bridge_kJ_mol"] * max(open_sites, 0)
+
+
+def molecular_melting_K(cohesion_kJ_mol: float, entropy_J_mol_K: float) -> float:
+    """``T_m = dH_m / dS_m`` in K.
+
+    >>> round(molecular_melting_K(9.0, 35.8))
+    251
+    """
+    return 1000.0 * cohesion_kJ_mol / entropy_J_mol_K
+
+
+def chain_layer_index(salt_index: float, molecular_index: float) -> float:
+    """A chain or layer solid sits between its salt and molecular readings: the mean of the two indices.
+
+    >>> chain_layer_index(3.0, 2.4)
+    2.7
+    """
+    return 0.5 * (salt_index + molecular_index)
+
+
+# --------------------------------------------------------- molecular geometry
+
+# Rotational symmetry numbers of a central atom with n equal ligands and L
+# stereochemically active lone pairs (VSEPR shapes; point groups common practice).
+_SIGMA = {
+    (1, 0): 1, (2, 0): 2, (2, 1): 2, (2, 2): 2, (2, 3): 2, (3, 0): 6, (3, 1): 3, (3, 2): 2,
+    (4, 0): 12, (4, 1): 2, (4, 2): 8, (5, 0): 6, (5, 1): 4, (6, 0): 24, (6, 1): 3, (7, 0): 10,
+}
+_LIGAND_CHARGE = {"F": -1, "Cl": -1, "Br": -1, "I": -1, "O": -2, "S": -2, "Se": -2, "H": -1}
+
+
+@dataclass(frozen=True)
+class MolecularTerms:
+    """The inputs of the molecular route for one compound, with how they were read."""
+
+    centre: str
+    ligands: tuple[tuple[str, float], ...]
+    symmetry_number: float
+    torsions_tau: float
+    open_sites: int
+    ligand_polarisabilities_A3: tuple[float, ...]
+    basis: str
+
+
+def _polarisability_A3(symbol: str) -> float:
+    value = get_element(symbol).dipole_polarizability_bohr3 * BOHR3_TO_A3
+    return value if math.isfinite(value) else 0.0
+
+
+def _radius_ratio_coordination(centre: str, state: int, ligands) -> int:
+    """Coordination number a cation of this size takes among these ligands (radius-ratio rule, Pauling 1929)."""
+    r_cat, _ = shannon_radius_pm(centre, state, 6)
+    total = sum(n for _, n in ligands)
+    r_an = 0.0
+    for symbol, n in ligands:
+        r, _ = shannon_radius_pm(symbol, _LIGAND_CHARGE.get(symbol, -1), 6)
+        r_an += n * (r if math.isfinite(r) else 140.0)
+    r_an /= total
+    if not math.isfinite(r_cat) or r_an <= 0:
+        return 0
+    ratio = r_cat / r_an
+    return 8 if ratio >= 0.732 else 6 if ratio >= 0.414 else 4 if ratio >= 0.225 else 3
+
+
+def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
+    """Read a molecule off its composition: centre, ligands, symmetry, torsions, open sites.
+
+    The centre is the least electronegative atom when it occurs once per
+    (reduced) formula unit; the rest are its ligands. ``sigma`` follows the
+    VSEPR shape of the centre (lone pairs from its valence electrons less its
+    oxidation state, none for d- and f-block centres); with mixed ligands it is
+    divided by the number of ways to place them (VOCl3: 12 / 4 = 3). Without
+    one centre (organic molecules, chains of like atoms) sigma is 1 and
+    ``tau`` counts carbon atoms beyond the second (a rough chain), both said
+    in ``basis``. None when the composition is empty.
+    """
+    comp = [(s, n) for s, n in dec.composition if n > 0]
+    if not comp:
+        return None
+    counts = [n for _, n in comp]
+    if all(float(n).is_integer() for n in counts):
+        g = 0
+        for n in counts:
+            g = math.gcd(g, int(n))
+        comp = [(s, n / g) for s, n in comp]
+    chi = {s: get_element(s).electronegativity_pauling for s, _ in comp}
+    chi = {s: (v if v == v else 1.5) for s, v in chi.items()}
+    centre, n_centre = min(comp, key=lambda sn: (chi[sn[0]], sn[0]))
+    ligands = tuple((s, n) for s, n in comp if s != centre)
+    n_lig = sum(n for _, n in ligands)
+    alphas = tuple(a for s, n in ligands for a in [_polarisability_A3(s)] * int(round(n)))
+    if n_centre != 1 or not ligands or not float(n_lig).is_integer() or "C" in dict(comp) and centre != "C":
+        carbons = dict(comp).get("C", 0.0)
+        all_alphas = tuple(a for s, n in comp for a in [_polarisability_A3(s)] * int(round(n)))
+        return MolecularTerms(centre, ligands, 1.0, max(carbons - 2.0, 0.0), 0, all_alphas,
+                              "no single central atom: sigma 1, tau from the carbon count (rough)")
+    state = -sum(_LIGAND_CHARGE.get(s, -1) * n for s, n in ligands)
+    element = get_element(centre)
+    if element.block in ("d", "f") or element.group is None:
+        lone_pairs = 0
+    else:
+        valence = element.group if element.group <= 2 else element.group - 10
+        lone_pairs = max(int(valence - state) // 2, 0)
+    n = int(n_lig)
+    sigma = float(_SIGMA.get((n, lone_pairs), 1))
+    if len(ligands) > 1:
+        arrangements = factorial(n)
+        for _, k in ligands:
+            arrangements //= factorial(int(k))
+        sigma = max(sigma / arrangements, 1.0)
+    cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
+    open_sites = max(cn - n - lone_pairs, 0)
+    return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
+                          f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
+                          f" radius-ratio coordination {cn or 'unknown'}")
+
+
+# ------------------------------------------------------ networks and metals
+
+
+@once
+def _element_melting_points() -> dict[str, tuple[float, str]]:
+    return {row["symbol"]: (float(row["mp_K"]), row["source"]) for row in table("element_melting_points.csv")}
+
+
+def element_mixture_melting_K(composition) -> tuple[float, str]:
+    """The stated rule for networks and metals: atom-fraction mean of the elements' melting points.
+
+    Only elements solid at 25 C count (``scorer/data/element_melting_points.csv``);
+    gaseous and liquid elements (H, N, O, halogens, noble gases, Hg) drop out of
+    the mean, so SiO2 reads as silicon (1687 K). A rule of mixtures, a rough
+    guide: polar networks (SiO2, AlN, GaAs) melt higher than it says.
+
+    Returns
+    -------
+    (float, str)
+        Temperature in K (NaN when no element counts) and which elements counted.
+
+    Examples
+    --------
+    >>> round(element_mixture_melting_K((("Au", 1.0), ("Cu", 3.0)))[0])
+    1353
+    """
+    table_ = _element_melting_points()
+    total = weight = 0.0
+    used = []
+    for symbol, n in composition:
+        if symbol in table_:
+            total += n * table_[symbol][0]
+            weight += n
+            used.append(symbol)
+    if weight == 0:
+        return math.nan, "no element of the formula is a solid at 25 C with a tabulated melting point"
+    return total / weight, "mean over " + ", ".join(used)
