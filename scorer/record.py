@@ -18,7 +18,10 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
+from ionicity.scorer.slips import find_slip
+from ionicity.scorer.solutions import split_solution
 from ionicity.scorer.verdict import finalise
+from ionicity.scorer.audit_rows import audited_row, slipped_row
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
@@ -194,6 +197,9 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
         verdict = _verdict(values["substance_class"], [*comp.notes, *warnings], [])
         row[position["status"]] = verdict.status
         row[position["message"]] = verdict.message
+    if row[position["status"]] == "error":
+        # a failed row carries no half-read formula, mass or score
+        return _error_row(row[position["message"]])
     row[position["value_notes"]] = gaps[1] if water else gaps[0]
     return tuple(row)
 
@@ -213,6 +219,26 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    solution = split_solution(text)
+    if solution is not None:
+        return audited_row(_checked_row(solution.solute), solution, _layout()[1])
+    return _checked_row(text)
+
+
+def _checked_row(text: str) -> tuple:
+    """The row of ``text``, or of the formula it most plausibly meant where
+    it holds a typing slip (:mod:`scorer.slips`)."""
+    slip = find_slip(text)
+    if slip is None:
+        return _plain_row(text)
+    if not slip.suggested:
+        row = _plain_row(text) if slip.kind == "leading_zero" else _error_row(slip.message)
+    else:
+        row = _plain_row(slip.suggested)
+    return slipped_row(row, slip, _layout()[1])
+
+
+def _plain_row(text: str) -> tuple:
     try:
         comp = parse_formula(text)
     except FormulaError as exc:
