@@ -13,9 +13,11 @@ import pyarrow as pa
 import pyarrow.compute as pc
 
 from ionicity.pipelines.arrow_columns import string_array
+from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
+from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.verdict import Verdict, with_row_name
 
@@ -30,6 +32,7 @@ def score_batch(
     name_col: str | None = None,
     model: ModelApplier | None = None,
     ticket: Ticket | None = None,
+    first_rows: FirstRows | None = None,
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
@@ -39,6 +42,8 @@ def score_batch(
     or a cache to score into (in-process), or ``None`` for a cache of this
     batch alone. ``ticket`` is what :meth:`BatchScorer.submit` returned for
     this batch, when its formulas were sent for scoring ahead of time.
+    ``first_rows`` is the run's :class:`~ionicity.pipelines.duplicates.FirstRows`,
+    given batches in input order; without it ``first_row_same_compound`` stays empty.
     """
     if not isinstance(scorer, BatchScorer):
         # no scorer: one for this batch alone (a cache, when given, is kept)
@@ -65,6 +70,10 @@ def score_batch(
         columns[first + names.index("status")] = status.take(indices)
         columns[first + names.index("message")] = message.take(indices)
         columns += [a.take(indices) for a in model_arrays]
+    if first_rows is not None:
+        first = len(batch.columns)
+        names = column_names()
+        columns[first + names.index(FIRST_ROW_COLUMN)] = first_rows.column(columns[first + names.index("formula_normalized")])
     if name_col is not None:
         first = len(batch.columns)
         names = column_names()

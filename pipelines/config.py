@@ -52,6 +52,7 @@ CONSTRAINTS: dict[str, Constraint] = {
                           "a whole number of at least 1 (or none given, for every core)"),
     "scheduler": Constraint("--scheduler", _text_or_none, "an address such as tcp://10.0.0.5:8786"),
     "mp_model": Constraint("--mp-model", _text_or_none, "the path of a model file"),
+    "summary": Constraint("--summary", _text_or_none, "the path of a .json file"),
 }
 
 
@@ -81,6 +82,8 @@ class ScoreConfig:
     mp_model : str or None
         A melting-point model written by ``ionicity fit-melting``; adds
         ``mp_predicted_K``, ``mp_interval_low_K`` and ``mp_interval_high_K``.
+    summary : str or None
+        A ``.json`` path for the audit summary (:mod:`ionicity.pipelines.audit_summary`).
 
     See Also
     --------
@@ -107,6 +110,7 @@ class ScoreConfig:
     workers: int | None = None
     scheduler: str | None = None
     mp_model: str | None = None
+    summary: str | None = None
 
     def validate(self) -> None:
         """Raise :class:`InputError` for the first option outside its

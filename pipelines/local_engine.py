@@ -20,6 +20,7 @@ from collections import deque
 import pyarrow as pa
 import pyarrow.compute as pc
 from ionicity.pipelines.batch_assembly import score_batch
+from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.io import TableWriter, open_reader
@@ -52,11 +53,13 @@ def prepare(config: ScoreConfig):
     return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
 
 
-def score_file_local(config: ScoreConfig) -> Summary:
+def score_file_local(config: ScoreConfig, tally=None) -> Summary:
     """Score ``config.input`` into ``config.output`` on this machine, batch
     by batch; see the module docstring. Raises :class:`InputError` for
     unusable input or options; nothing is written at the output path then.
     The run's scorer, its cache and its workers go when it returns.
+    ``tally`` (an :class:`~ionicity.pipelines.audit_summary.AuditTally`), when
+    given, counts every scored batch for ``--summary``.
     """
     started = time.perf_counter()
     model = load_model_applier(config)
@@ -75,12 +78,16 @@ def score_file_local(config: ScoreConfig) -> Summary:
     progress = Progress(not config.quiet, reader.total_rows, reader.fraction_done)
     status_name = config.prefix + "status"
     scorer = BatchScorer(config.workers)
+    first_rows = FirstRows()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:
         batch, ticket = waiting.popleft()
-        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket)
+        scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket,
+                             first_rows=first_rows)
         writer.write(scored)
+        if tally is not None:
+            tally.add(scored)
         summary.rows += batch.num_rows
         count_status(summary, scored, status_name)
         progress.update(summary.rows)

@@ -48,7 +48,7 @@ from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose_anhydrous
 
-__all__ = ["Slip", "SLIP_KINDS", "MARGIN", "find_slip", "reading_penalty"]
+__all__ = ["Slip", "SLIP_KINDS", "MARGIN", "find_slip", "reading_penalty", "slip_kind_of"]
 
 # what each kind of slip is called in messages and in the audit summary
 SLIP_KINDS: dict[str, str] = {
@@ -256,7 +256,7 @@ def find_slip(text: str) -> Slip | None:
     penalty, _, kind, best, evidence = min(candidates)
     if math.isinf(penalty):
         if kind == "leading_zero" and evidence and not math.isinf(written):
-            return Slip(kind, "", f"possible typing slip in {text!r}: {SLIP_KINDS[kind]}; no better reading found")
+            return Slip(kind, "", f"typing slip? {text!r} has {SLIP_KINDS[kind]}; no better reading found")
         return None
     if not (penalty < written - MARGIN or (evidence and penalty < written) or (kind == "leading_zero" and evidence)):
         return None
@@ -275,7 +275,22 @@ def _unknown_abbreviation(text: str) -> Slip | None:
         if _ION_CODE.fullmatch(content):
             return Slip(
                 "unknown_abbreviation", "",
-                f"{m.group()!r} in {text!r} looks like an ion abbreviation that the ion library"
-                " (scorer/data/ions.csv) does not know, not a formula; write the ion's formula or add it to the library",
+                f"{m.group()!r} in {text!r}: {SLIP_KINDS['unknown_abbreviation']} (scorer/data/ions.csv),"
+                " not read as a formula; write the ion's formula or add the ion to the library",
             )
+    return None
+
+
+def slip_kind_of(message: str | None) -> str | None:
+    """The slip kind a row's ``message`` names, or None (how the audit
+    summary counts slips without a column of its own).
+
+    >>> slip_kind_of(find_slip("NaCI").message)
+    'I_for_l'
+    """
+    if not message:
+        return None
+    for kind, description in SLIP_KINDS.items():
+        if description in message:
+            return kind
     return None
