@@ -18,6 +18,7 @@ from collections import Counter
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from ionicity.pipelines.arrow_columns import string_array
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.schema import find_formula_column
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
@@ -100,7 +101,7 @@ class AuditTally:
                     kinds[item["values"]] = kind
                     self.counts["slip_kind"][kind] += item["counts"]
             if kinds:
-                slipped = pc.is_in(message, value_set=pa.array(list(kinds), pa.string()))
+                slipped = pc.is_in(message, value_set=string_array(list(kinds)))
         name_check = self._column(batch, "name_check")
         if name_check is not None:
             self.has_name_check = True
@@ -122,7 +123,7 @@ class AuditTally:
         if slipped is not None:
             self._examples(batch, "slip", slipped, message)
         if name_check is not None:
-            self._examples(batch, "name_check", pc.is_in(name_check, value_set=pa.array(_NAME_CHECK_ATTENTION)), message)
+            self._examples(batch, "name_check", pc.is_in(name_check, value_set=string_array(list(_NAME_CHECK_ATTENTION))), message)
         if first is not None:
             self._examples(batch, "duplicate", pc.is_valid(first), message)
         self.rows += batch.num_rows

@@ -17,6 +17,8 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from ionicity.pipelines.arrow_columns import int_array, int_array_with_mask
+
 __all__ = ["FirstRows"]
 
 
@@ -79,10 +81,10 @@ class FirstRows:
             positions = np.flatnonzero(new)[at]
             row_numbers = self.rows_seen + positions + 1
             self._first[new_codes] = row_numbers
-            texts = formulas.dictionary.take(pa.array(new_codes)).to_pylist()
+            texts = formulas.dictionary.take(int_array(new_codes)).to_pylist()
             self._by_formula.update(zip(texts, row_numbers.tolist()))
             first = self._first[safe]
         own = self.rows_seen + np.arange(1, n + 1, dtype=np.int64)
         mask = ~valid | (first == own)
         self.rows_seen += n
-        return pa.array(first, type=pa.int64(), mask=mask)
+        return int_array_with_mask(first, mask)

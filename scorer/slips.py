@@ -77,6 +77,11 @@ _CLASS_PENALTY = {
     "element": 0.5, "covalent_molecular": 1.0, "covalent_network": 1.0, "ion": 1.5,
 }
 _MAX_PROPOSALS = 256
+# elements written with a count as the molecules they form (common practice)
+_ELEMENT_MOLECULES = frozenset({
+    ("H", 2.0), ("N", 2.0), ("O", 2.0), ("O", 3.0), ("F", 2.0), ("Cl", 2.0), ("Br", 2.0), ("I", 2.0),
+    ("P", 4.0), ("As", 4.0), ("S", 8.0), ("Se", 8.0), ("C", 60.0), ("C", 70.0),
+})
 _ZERO = re.compile(r"(?<![.\d])0(?!\.)|(?<=\d)0")
 _LETTER_RUN = re.compile(r"[A-Za-z]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
@@ -109,9 +114,8 @@ def reading_penalty(text: str) -> float:
     >>> reading_penalty("Xx")
     inf
     """
-    try:
-        comp = parse_formula(text)
-    except FormulaError:
+    comp = _parsed(text)
+    if comp is None:
         return math.inf
     dec = decompose_anhydrous(comp)
     if dec.substance_class == "unknown":
@@ -119,6 +123,14 @@ def reading_penalty(text: str) -> float:
     penalty = _CLASS_PENALTY.get(dec.substance_class, 2.0)
     penalty += len(dec.notes) + len(comp.notes)
     penalty += 0.5 * len(comp.counts)
+    for term in dec.cations + dec.anions:
+        element = term.ion.element
+        if element and term.ion.charge not in get_element(element).oxidation_states_main:
+            penalty += 2.0  # Fe(7+) beside a carbide: the solver's last resort
+        if element == "C":
+            penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
+    if len(comp.counts) == 1 and comp.counts[0][1] != 1 and comp.counts[0] not in _ELEMENT_MOLECULES:
+        penalty += 2.0  # Na20, Cl4: an element written with a count no molecule of it has
     has_carbon = any(s == "C" for s, _ in comp.counts)
     for symbol, count in comp.counts:
         if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
@@ -126,6 +138,44 @@ def reading_penalty(text: str) -> float:
         if count > 100 or (count > 24 and not has_carbon):
             penalty += 4.0
     return penalty
+
+
+def _balanced(text: str) -> bool:
+    depth = 0
+    for ch in text:
+        if ch in "([{":
+            depth += 1
+        elif ch in ")]}":
+            depth -= 1
+            if depth < 0:
+                return False
+    return depth == 0
+
+
+def _count_owner(text: str, i: int) -> str:
+    """The element symbol whose count holds the digit at ``i`` ("" after a bracket or a dot)."""
+    while i > 0 and text[i - 1].isdigit():
+        i -= 1
+    m = re.search(r"[A-Z][a-z]?$", text[:i])
+    return m.group() if m and m.group() in _symbols_folded().values() else ""
+
+
+@per_input(maxsize=65536)
+def _parsed(text: str):
+    """``parse_formula(text)``, or None where it raises (the parser caches
+    only what it reads, so a failure is remembered here)."""
+    try:
+        return parse_formula(text)
+    except FormulaError:
+        return None
+
+
+def _absurd_count(text: str) -> bool:
+    comp = _parsed(text)
+    if comp is None:
+        return True
+    has_carbon = any(s == "C" for s, _ in comp.counts)
+    return any(n > 100 or (n > 24 and not has_carbon) for _, n in comp.counts)
 
 
 @once
@@ -212,10 +262,27 @@ def find_slip(text: str) -> Slip | None:
     Returns
     -------
     Slip or None
+        Two slips in one text (``Kl03``: l for I, then 0 for O) are found
+        in two rounds; the kind is the first one's.
     """
+    slip = _find_one(text)
+    if slip is None or not slip.suggested:
+        return slip
+    second = _find_one(slip.suggested)
+    if second is None or not second.suggested:
+        return slip
+    best = second.suggested
+    kinds = f"{SLIP_KINDS[slip.kind]}; {SLIP_KINDS[second.kind]}"
+    return Slip(slip.kind, best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
+
+
+def _find_one(text: str) -> Slip | None:
+    """One round of :func:`find_slip`: the best proposal of any kind."""
     if not isinstance(text, str) or not text or len(text) > 200:
         return None
     stripped = "".join(text.split())
+    if not _balanced(stripped):
+        return None  # no slip of these kinds unbalances brackets: the grammar's error stands
     abbreviation = _unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
@@ -228,15 +295,21 @@ def find_slip(text: str) -> Slip | None:
                 candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
 
     zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
-    if zeros:
-        leading = any(not stripped[i - 1].isdigit() for i in zeros)
+    leading = any(not stripped[i - 1].isdigit() for i in zeros)
+    # a 0 inside a count (Fe203, Na20) may be a slip where the count is absurd or
+    # belongs to an element other than C and H (C10H8 is naphthalene)
+    if zeros and (leading or _absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
         consider("leading_zero" if leading else "zero_for_O", _replacements(stripped, zeros, _zero_options), leading)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
-        consider("I_for_l", _replacements(stripped, capital_i, _ell_options), False)
+        # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many
+        evidence = any(stripped[i - 1] == "C" for i in capital_i)
+        consider("I_for_l", _replacements(stripped, capital_i, _ell_options), evidence)
     ones = [i for i, ch in enumerate(stripped) if ch == "1" and _ell_options(stripped, i)]
     if ones:
-        consider("one_for_l", _replacements(stripped, ones, _ell_options), False)
+        # a count of 1 written out (HC1) is itself unusual; C12 in C12H22O11 is not
+        evidence = any(not stripped[i + 1:i + 2].isdigit() and stripped[i + 1:i + 2] != "." for i in ones)
+        consider("one_for_l", _replacements(stripped, ones, _ell_options), evidence)
     small_l = [i for i, ch in enumerate(stripped) if ch == "l" and not _ell_options(stripped, i)]
     if small_l:
         consider("l_for_I", _replacements(stripped, small_l, _capital_i_options), False)
@@ -249,8 +322,12 @@ def find_slip(text: str) -> Slip | None:
     letters = "".join(ch for ch in stripped if ch.isalpha())
     all_caps = len(letters) > 1 and letters.isupper()
     all_lower = letters.islower()
-    if all_caps or all_lower or math.isinf(written):
-        consider("letter_case", _case_proposals(stripped), all_lower or math.isinf(written))
+    # mixed-case text that the grammar reads (BaSi2, Cu5Si) is as written even
+    # where the solver finds no ions: only text that does not parse, or is all
+    # capitals or all lower case, is re-cased
+    unreadable = _parsed(text) is None
+    if all_caps or all_lower or unreadable:
+        consider("letter_case", _case_proposals(stripped), all_lower or unreadable)
     if not candidates:
         return None
     penalty, _, kind, best, evidence = min(candidates)
