@@ -17,7 +17,7 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import int_array, int_array_with_mask
+from ionicity.pipelines.arrow_columns import int_array, int_array_with_mask, int_numpy
 
 __all__ = ["FirstRows"]
 
@@ -71,8 +71,14 @@ class FirstRows:
             formulas = pc.dictionary_encode(formulas)
         n = len(formulas)
         self._align(formulas.dictionary)
-        codes = pc.fill_null(formulas.indices, -1).to_numpy(zero_copy_only=False).astype(np.int64, copy=False)
-        valid = codes >= 0
+        indices = formulas.indices
+        codes = int_numpy(indices).astype(np.int64)  # to_numpy and fill_null with a scalar import pandas
+        if indices.null_count:
+            validity = np.unpackbits(np.frombuffer(indices.buffers()[0], dtype=np.uint8), bitorder="little")
+            valid = validity[indices.offset:indices.offset + n].astype(bool)
+            codes[~valid] = -1
+        else:
+            valid = np.ones(n, dtype=bool)
         safe = np.where(valid, codes, 0)
         first = self._first[safe] if len(self._first) else np.zeros(n, dtype=np.int64)
         new = valid & (first == 0)

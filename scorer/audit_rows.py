@@ -1,13 +1,38 @@
-"""A scored row changed by what the audit found in its text: a typing slip
-(:func:`slipped_row`) or a solution's concentration (:func:`audited_row`).
-Kept out of :mod:`scorer.record` so the record's own path stays one hook."""
+"""The audit of one text before it is scored: a solution's concentration
+(:mod:`scorer.solutions`) and a typing slip (:mod:`scorer.slips`) decide which
+text is scored and change the row (:func:`audited_row`). Kept out of
+:mod:`scorer.record` so that the record's own path stays one hook; the
+record passes its scoring functions in (no import circle)."""
 from __future__ import annotations
 
-from ionicity.scorer.slips import Slip
-from ionicity.scorer.solutions import Solution, solution_note
+from typing import Callable
+
+from ionicity.scorer.slips import Slip, find_slip
+from ionicity.scorer.solutions import Solution, solution_note, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
-__all__ = ["slipped_row", "audited_row"]
+__all__ = ["slipped_row", "solution_row", "audited_row"]
+
+
+def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
+                position: dict[str, int]) -> tuple:
+    """The row of ``text``: ``plain_row`` of its solute and of the formula it
+    most plausibly meant, with the audit columns and messages set.
+
+    ``plain_row(text)`` scores a text as written; ``error_row(message)`` is
+    the row of a failure; ``position`` maps column names to places in a row.
+    """
+    solution = split_solution(text)
+    if solution is not None:
+        return solution_row(audited_row(solution.solute, plain_row, error_row, position), solution, position)
+    slip = find_slip(text)
+    if slip is None:
+        return plain_row(text)
+    if slip.suggested:
+        row = plain_row(slip.suggested)
+    else:
+        row = plain_row(text) if slip.kind == "leading_zero" else error_row(slip.message)
+    return slipped_row(row, slip, position)
 
 
 def slipped_row(row: tuple, slip: Slip, position: dict[str, int]) -> tuple:
@@ -26,7 +51,7 @@ def slipped_row(row: tuple, slip: Slip, position: dict[str, int]) -> tuple:
     return tuple(row)
 
 
-def audited_row(row: tuple, solution: Solution, position: dict[str, int]) -> tuple:
+def solution_row(row: tuple, solution: Solution, position: dict[str, int]) -> tuple:
     """``row`` (the solute's) with the concentration as written and the
     solution's note (and, for an acid or a base, the caution)."""
     row = list(row)

@@ -3,6 +3,7 @@ from __future__ import annotations
 
 import math
 
+from ionicity.scorer.audit_rows import audited_row
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element
@@ -18,10 +19,7 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
-from ionicity.scorer.slips import find_slip
-from ionicity.scorer.solutions import split_solution
 from ionicity.scorer.verdict import finalise
-from ionicity.scorer.audit_rows import audited_row, slipped_row
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 
@@ -219,23 +217,8 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
-    solution = split_solution(text)
-    if solution is not None:
-        return audited_row(_checked_row(solution.solute), solution, _layout()[1])
-    return _checked_row(text)
-
-
-def _checked_row(text: str) -> tuple:
-    """The row of ``text``, or of the formula it most plausibly meant where
-    it holds a typing slip (:mod:`scorer.slips`)."""
-    slip = find_slip(text)
-    if slip is None:
-        return _plain_row(text)
-    if not slip.suggested:
-        row = _plain_row(text) if slip.kind == "leading_zero" else _error_row(slip.message)
-    else:
-        row = _plain_row(slip.suggested)
-    return slipped_row(row, slip, _layout()[1])
+    # the audit (a solution's concentration, a typing slip) decides which text is scored
+    return audited_row(text, _plain_row, _error_row, _layout()[1])
 
 
 def _plain_row(text: str) -> tuple:
