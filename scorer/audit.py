@@ -2,7 +2,7 @@
 
 ``formula_suggested`` (a typing slip's corrected formula, :mod:`scorer.slips`)
 and ``concentration_as_written`` (a solution's concentration,
-:mod:`scorer.solutions`) are set per distinct text by :mod:`scorer.record`;
+:mod:`scorer.solutions`) are set per distinct text by :mod:`scorer.audit_rows`;
 ``first_row_same_compound`` depends on the row's place in the table and is
 filled by the engines (:mod:`ionicity.pipelines.duplicates`): empty from
 :func:`scorer.record.score_formula`.

@@ -46,6 +46,7 @@ from ionicity.scorer import ion_library
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous
 
 __all__ = ["Slip", "SLIP_KINDS", "MARGIN", "find_slip", "reading_penalty", "slip_kind_of"]
@@ -77,6 +78,10 @@ _CLASS_PENALTY = {
     "element": 0.5, "covalent_molecular": 1.0, "covalent_network": 1.0, "ion": 1.5,
 }
 _MAX_PROPOSALS = 256
+# proposals of one kind read by the ion solver at most (in2(co3)3 has dozens of re-casings)
+_SOLVED_PROPOSALS = 8
+# the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
+_BEST_PENALTY = 0.5
 # elements written with a count as the molecules they form (common practice)
 _ELEMENT_MOLECULES = frozenset({
     ("H", 2.0), ("N", 2.0), ("O", 2.0), ("O", 3.0), ("F", 2.0), ("Cl", 2.0), ("Br", 2.0), ("I", 2.0),
@@ -86,6 +91,8 @@ _ZERO = re.compile(r"(?<![.\d])0(?!\.)|(?<=\d)0")
 _LETTER_RUN = re.compile(r"[A-Za-z]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
+# a character that some kind of slip below could have typed (a superset: each kind checks more)
+_MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|\d{2,}H2O$")
 _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
 # a single element letter with three or more digits: the numeric code of a
 # quaternary ammonium or phosphonium ion (N2224, P66614), not a count
@@ -114,15 +121,15 @@ def reading_penalty(text: str) -> float:
     >>> reading_penalty("Xx")
     inf
     """
+    penalty = _parsed_penalty(text)
+    if math.isinf(penalty):
+        return penalty
     comp = _parsed(text)
-    if comp is None:
-        return math.inf
     dec = decompose_anhydrous(comp)
     if dec.substance_class == "unknown":
         return math.inf
-    penalty = _CLASS_PENALTY.get(dec.substance_class, 2.0)
+    penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
     penalty += len(dec.notes) + len(comp.notes)
-    penalty += 0.5 * len(comp.counts)
     for term in dec.cations + dec.anions:
         element = term.ion.element
         if element and term.ion.charge not in get_element(element).oxidation_states_main:
@@ -131,6 +138,17 @@ def reading_penalty(text: str) -> float:
             penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
     if len(comp.counts) == 1 and comp.counts[0][1] != 1 and comp.counts[0] not in _ELEMENT_MOLECULES:
         penalty += 2.0  # Na20, Cl4: an element written with a count no molecule of it has
+    return penalty
+
+
+@per_input(maxsize=65536)
+def _parsed_penalty(text: str) -> float:
+    """The part of :func:`reading_penalty` that needs no solver: rare elements,
+    absurd counts, 0.5 per element (``inf`` when the text does not parse)."""
+    comp = _parsed(text)
+    if comp is None:
+        return math.inf
+    penalty = 0.5 * len(comp.counts)
     has_carbon = any(s == "C" for s, _ in comp.counts)
     for symbol, count in comp.counts:
         if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
@@ -138,6 +156,14 @@ def reading_penalty(text: str) -> float:
         if count > 100 or (count > 24 and not has_carbon):
             penalty += 4.0
     return penalty
+
+
+def _reads_as_elements(content: str) -> bool:
+    try:
+        parse_element_groups(content)
+    except FormulaError:
+        return False
+    return True
 
 
 def _balanced(text: str) -> bool:
@@ -286,50 +312,67 @@ def _find_one(text: str) -> Slip | None:
     abbreviation = _unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
-    written = reading_penalty(text)
+    letters = "".join(ch for ch in stripped if ch.isalpha())
+    all_caps = len(letters) > 1 and letters.isupper()
+    all_lower = letters.islower()
+    if not (all_caps or all_lower or _MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
+        return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
+    written_box: list[float] = []
 
-    def consider(kind: str, proposals, evidence: bool) -> None:
-        for proposal in dict.fromkeys(proposals):
-            if proposal != stripped:
-                candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
+    def written_penalty() -> float:
+        if not written_box:
+            written_box.append(reading_penalty(text))
+        return written_box[0]
+
+    def consider(kind: str, make_proposals, evidence: bool) -> None:
+        # without evidence a proposal must beat the written reading by MARGIN, and none
+        # reads better than _BEST_PENALTY: a text that reads well (KNO3, CO) costs no proposals
+        if not evidence and written_penalty() - MARGIN <= _BEST_PENALTY:
+            return
+        # the solver's work is the cost: proposals in order of the penalty they get
+        # before it (a lower bound), solved until none left can beat the best
+        proposals = sorted((p for p in dict.fromkeys(make_proposals()) if p != stripped), key=_parsed_penalty)
+        for proposal in proposals[:_SOLVED_PROPOSALS]:
+            best = min((c[0] for c in candidates), default=math.inf)
+            if _parsed_penalty(proposal) >= best:
+                break
+            candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
 
     zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
     leading = any(not stripped[i - 1].isdigit() for i in zeros)
     # a 0 inside a count (Fe203, Na20) may be a slip where the count is absurd or
     # belongs to an element other than C and H (C10H8 is naphthalene)
     if zeros and (leading or _absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
-        consider("leading_zero" if leading else "zero_for_O", _replacements(stripped, zeros, _zero_options), leading)
+        consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options), leading)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
         # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many
         evidence = any(stripped[i - 1] == "C" for i in capital_i)
-        consider("I_for_l", _replacements(stripped, capital_i, _ell_options), evidence)
+        consider("I_for_l", lambda: _replacements(stripped, capital_i, _ell_options), evidence)
     ones = [i for i, ch in enumerate(stripped) if ch == "1" and _ell_options(stripped, i)]
     if ones:
         # a count of 1 written out (HC1) is itself unusual; C12 in C12H22O11 is not
         evidence = any(not stripped[i + 1:i + 2].isdigit() and stripped[i + 1:i + 2] != "." for i in ones)
-        consider("one_for_l", _replacements(stripped, ones, _ell_options), evidence)
+        consider("one_for_l", lambda: _replacements(stripped, ones, _ell_options), evidence)
     small_l = [i for i, ch in enumerate(stripped) if ch == "l" and not _ell_options(stripped, i)]
     if small_l:
-        consider("l_for_I", _replacements(stripped, small_l, _capital_i_options), False)
+        consider("l_for_I", lambda: _replacements(stripped, small_l, _capital_i_options), False)
     water = _RUN_INTO_WATER.search(stripped)
     if water:
         digits = water.group(1)
-        consider("hydrate_dot_missing", [
+        consider("hydrate_dot_missing", lambda: [
             stripped[:water.start()] + digits[:k] + "·" + digits[k:] + "H2O" for k in range(1, len(digits))
         ], False)
-    letters = "".join(ch for ch in stripped if ch.isalpha())
-    all_caps = len(letters) > 1 and letters.isupper()
-    all_lower = letters.islower()
     # mixed-case text that the grammar reads (BaSi2, Cu5Si) is as written even
     # where the solver finds no ions: only text that does not parse, or is all
     # capitals or all lower case, is re-cased
     unreadable = _parsed(text) is None
     if all_caps or all_lower or unreadable:
-        consider("letter_case", _case_proposals(stripped), all_lower or unreadable)
+        consider("letter_case", lambda: _case_proposals(stripped), all_lower or unreadable)
     if not candidates:
-        return None
+        return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
+    written = written_penalty()
     penalty, _, kind, best, evidence = min(candidates)
     if math.isinf(penalty):
         if kind == "leading_zero" and evidence and not math.isinf(written):
@@ -349,7 +392,7 @@ def _unknown_abbreviation(text: str) -> Slip | None:
         content = m.group(1)
         if ion_library.find_alias(content) is not None:
             continue
-        if _ION_CODE.fullmatch(content):
+        if _ION_CODE.fullmatch(content) or not _reads_as_elements(content):
             return Slip(
                 "unknown_abbreviation", "",
                 f"{m.group()!r} in {text!r}: {SLIP_KINDS['unknown_abbreviation']} (scorer/data/ions.csv),"

@@ -84,10 +84,13 @@ def test_valid_formulas_are_not_flagged(text):
     assert slip_kind_of(record["message"]) is None
 
 
-def test_an_unknown_bracketed_abbreviation_is_an_error_that_says_so():
-    record = score_formula("[N2224][TFSI]")
+@pytest.mark.parametrize("text,bracket", [("[N2224][TFSI]", "[N2224]"), ("[P44412]Br", "[P44412]"),
+                                          ("[C4mpyrr][NTf2]", "[C4mpyrr]")])
+def test_an_unknown_bracketed_abbreviation_is_an_error_that_says_so(text, bracket):
+    record = score_formula(text)
     assert record["status"] == "error"
-    assert "[N2224]" in record["message"] and "ion library" in record["message"]
+    assert bracket in record["message"] and "ion library" in record["message"]
+    assert slip_kind_of(record["message"]) == "unknown_abbreviation"
     assert record["formula_normalized"] is None and math.isnan(record["molar_mass_g_mol"])
     # a known one, any case, is read through the library
     assert score_formula("[BMIM][PF6]")["formula_normalized"] == "[C4mim][PF6]"
