@@ -31,13 +31,16 @@ __all__ = ["Solution", "split_solution", "solution_note", "CORROSIVE_CLASSES"]
 # substance classes whose solutions are corrosive (common practice)
 CORROSIVE_CLASSES = frozenset({"acid", "base"})
 
-_NUMBER = r"\d+(?:[.,]\d+)?"
+# a value or a range (95-98 %)
+_NUMBER = r"\d+(?:[.,]\d+)?(?:\s*[-–]\s*\d+(?:[.,]\d+)?)?"
 _PERCENT = re.compile(rf"(?P<value>{_NUMBER})\s*%\s*(?P<basis>\(?\s*(?:w/w|w/v|v/v|wt|vol|m/m)\s*\.?\)?)?", re.I)
 # molar units as people write them; N (normality) kept as written
 _MOLAR = re.compile(
     rf"(?P<value>{_NUMBER})\s*(?P<unit>mol\s*/\s*[lL]|mol\s*[lL]-1|mol\s*dm-3|mmol\s*/\s*[lL]|mM|M|N)(?![A-Za-z])"
 )
-_GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial)", re.I)
+_GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial|sat(?:\.|urated)?)", re.I)
+# a concentration written in brackets at the end: "HCl (37%)"
+_BRACKETED_TAIL = re.compile(r"\s*\(\s*([^()]*?)\s*\)\s*$")
 _STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b", re.I)
 _TAIL_BEFORE = re.compile(r"[\s,;]+$")
 
@@ -68,6 +71,9 @@ def split_solution(text: str) -> Solution | None:
     if not isinstance(text, str) or len(text) > 200:
         return None
     body = _STATE.sub(" ", text).strip()
+    tail = _BRACKETED_TAIL.search(body)
+    if tail and any(p.fullmatch(tail.group(1)) for p in (_PERCENT, _MOLAR, _GRADE)):
+        body = body[:tail.start()] + " " + tail.group(1)
     for pattern in (_PERCENT, _MOLAR, _GRADE):
         # the concentration is the last thing written, after a space
         for m in pattern.finditer(body):
@@ -83,12 +89,15 @@ def split_solution(text: str) -> Solution | None:
 def _as_written(pattern, m: re.Match) -> str:
     if pattern is _PERCENT:
         basis = (m.group("basis") or "").strip(" ()").lower()
-        return f"{m.group('value')} %" + (f" {basis}" if basis else "")
+        value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
+        return f"{value} %" + (f" {basis}" if basis else "")
     if pattern is _MOLAR:
         unit = re.sub(r"\s+", "", m.group("unit"))
-        return f"{m.group('value')} {unit}"
+        value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
+        return f"{value} {unit}"
     word = m.group("word").lower()
-    return {"concentrated": "conc.", "conc": "conc.", "dilute": "dil.", "dil": "dil."}.get(word, word)
+    return {"concentrated": "conc.", "conc": "conc.", "dilute": "dil.", "dil": "dil.", "saturated": "sat.",
+            "sat": "sat."}.get(word, word)
 
 
 def solution_note(solution: Solution, substance_class: str) -> str:

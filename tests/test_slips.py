@@ -147,6 +147,10 @@ def test_false_positives_on_the_chemicals_inorganic_table():
     ("NaCl 0.9 % w/v", "NaCl", "0.9 % w/v"),
     ("CH3COOH glacial", "CH3COOH", "glacial"),
     ("H2O2 30% (w/w)", "H2O2", "30 % w/w"),
+    ("HCl (37%)", "HCl", "37 %"),
+    ("H2SO4 95-98%", "H2SO4", "95-98 %"),
+    ("Ca(OH)2 sat.", "Ca(OH)2", "sat."),
+    ("hcl 37%", "hcl", "37 %"),  # and the solute's slip is found too
 ])
 def test_a_solution_scores_its_solute(text, solute, concentration):
     assert split_solution(text).solute == solute
