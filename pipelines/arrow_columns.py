@@ -56,6 +56,20 @@ def int_array(values) -> pa.Array:
     return pa.Array.from_buffers(pa.int64(), len(data), [None, pa.py_buffer(data)], null_count=0)
 
 
+def nullable_int_array(values) -> pa.Array:
+    """int64 array of ints or None."""
+    valid = np.fromiter((v is not None for v in values), dtype=bool, count=len(values))
+    data = np.fromiter((v or 0 for v in values), dtype=np.int64, count=len(values))
+    return int_array_with_mask(data, ~valid)
+
+
+def int_array_with_mask(data: np.ndarray, null: np.ndarray) -> pa.Array:
+    """int64 array of ``data`` with nulls where ``null`` is true."""
+    data = np.ascontiguousarray(data, dtype=np.int64)
+    bitmap, nulls = _validity(~null)
+    return pa.Array.from_buffers(pa.int64(), len(data), [bitmap, pa.py_buffer(data)], null_count=nulls)
+
+
 def bool_array(values) -> pa.Array:
     """bool array of True, False or None."""
     valid = np.fromiter((v is not None for v in values), dtype=bool, count=len(values))
@@ -90,4 +104,6 @@ def values_array(values, type: pa.DataType) -> pa.Array:
         return bool_array(values)
     if type == pa.string():
         return string_array(values)
+    if type == pa.int64():
+        return nullable_int_array(values)
     return pa.array(values, type=type)

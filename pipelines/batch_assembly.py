@@ -13,9 +13,11 @@ import pyarrow as pa
 import pyarrow.compute as pc
 
 from ionicity.pipelines.arrow_columns import string_array
+from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
+from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.melting_model import MODEL_COLUMNS
 from ionicity.scorer.verdict import Verdict, with_row_name
@@ -32,6 +34,7 @@ def score_batch(
     model: ModelApplier | None = None,
     ticket: Ticket | None = None,
     chosen: tuple[str, ...] | None = None,
+    first_rows: FirstRows | None = None,
 ) -> pa.RecordBatch:
     """Append the generated columns to one batch, in row order.
 
@@ -43,6 +46,8 @@ def score_batch(
     this batch, when its formulas were sent for scoring ahead of time.
     ``chosen`` names the generated columns to keep (``--columns``; None: all):
     only those are taken from the cache.
+    ``first_rows`` is the run's :class:`~ionicity.pipelines.duplicates.FirstRows`,
+    given batches in input order; without it ``first_row_same_compound`` stays empty.
     """
     if not isinstance(scorer, BatchScorer):
         # no scorer: one for this batch alone (a cache, when given, is kept)
@@ -70,6 +75,9 @@ def score_batch(
         for k, array in enumerate(model_arrays):
             if len(names) + k in keep:
                 generated[len(names) + k] = array.take(indices)
+    if first_rows is not None and names.index(FIRST_ROW_COLUMN) in keep:
+        # the first row of each compound, known as batches stream past in input order
+        generated[names.index(FIRST_ROW_COLUMN)] = first_rows.column(cached[names.index("formula_normalized")].take(rows))
     if name_col is not None:
         row_names = batch.column(batch.schema.get_field_index(name_col))
         generated[message_at] = label_failed_rows(generated[status_at], generated[message_at], row_names)

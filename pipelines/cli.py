@@ -87,6 +87,8 @@ def build_parser() -> argparse.ArgumentParser:
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
     add_table_options(score)
+    score.add_argument("--summary", metavar="FILE.json",
+                       help="also write the audit summary (counts by status, class, slip, duplicates; rows to check) as JSON")
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -147,6 +149,7 @@ def _run_score(args) -> int:
         mp_model=args.mp_model,
         partition_rows=args.partition_rows,
         **table_options(args),
+        summary=args.summary,
     )
     summary = score_file(config)
     if args.mp_model and not args.quiet:

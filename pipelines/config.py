@@ -81,6 +81,7 @@ CONSTRAINTS: dict[str, Constraint] = {
     "columns": Constraint("--columns", lambda v: v is None or (isinstance(v, (list, tuple)) and len(v) > 0
                                                                and all(isinstance(x, str) for x in v)),
                           "a non-empty list of column names and groups"),
+    "summary": Constraint("--summary", _text_or_none, "the path of a .json file"),
 }
 
 
@@ -126,6 +127,8 @@ class ScoreConfig:
         them); ``status`` and ``message`` always. None: all.
     full_precision : bool, default=False
         Write floats with every digit instead of each column's ``digits``.
+    summary : str or None
+        A ``.json`` path for the audit summary (:mod:`ionicity.pipelines.audit_summary`).
 
     See Also
     --------
@@ -159,6 +162,7 @@ class ScoreConfig:
     keep_text: bool = False
     columns: list | tuple | None = None
     full_precision: bool = False
+    summary: str | None = None
 
     def validate(self) -> None:
         """Raise :class:`InputError` for the first option outside its

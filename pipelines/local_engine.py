@@ -20,6 +20,7 @@ from collections import deque
 import pyarrow as pa
 import pyarrow.compute as pc
 from ionicity.pipelines.batch_assembly import score_batch
+from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.column_types import ColumnTyper, TypeFallback
@@ -74,7 +75,7 @@ def input_typer(config: ScoreConfig, reader, formula_col: str, text_columns=froz
     return ColumnTyper(reader.schema, {n: t for n, t in reader.column_types.items() if n not in keep})
 
 
-def score_file_local(config: ScoreConfig) -> Summary:
+def score_file_local(config: ScoreConfig, tally=None) -> Summary:
     """Score ``config.input`` into ``config.output`` on this machine, batch
     by batch; see the module docstring. Raises :class:`InputError` for
     unusable input or options; nothing is written at the output path then.
@@ -83,6 +84,8 @@ def score_file_local(config: ScoreConfig) -> Summary:
     A text input's column whose later rows do not fit the type inferred from
     its first rows is kept as text: the run starts again so (no row is lost,
     the output's schema is one), and the summary says which column.
+    ``tally`` (an :class:`~ionicity.pipelines.audit_summary.AuditTally`), when
+    given, counts every scored batch for ``--summary``.
     """
     started = time.perf_counter()
     text_columns: set[str] = set()
@@ -125,13 +128,16 @@ def _score_once(config: ScoreConfig, text_columns: set) -> Summary:
     if not config.full_precision:
         scorer.cache.set_output_digits()
         scorer.cache.set_short_notes()
+    first_rows = FirstRows()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:
         batch, ticket = waiting.popleft()
         scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket,
-                             chosen=chosen)
+                             chosen=chosen, first_rows=first_rows)
         writer.write(scored)
+        if tally is not None:
+            tally.add(scored)
         summary.rows += batch.num_rows
         count_status(summary, scored, status_name)
         progress.update(summary.rows)

@@ -8,6 +8,7 @@ Neither engine imports this module, so there is no import circle.
 """
 from __future__ import annotations
 
+from ionicity.pipelines.audit_summary import AuditTally, check_summary_path
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.dask_engine import score_file_dask
 from ionicity.pipelines.local_engine import score_file_local
@@ -31,6 +32,14 @@ def score_file(config: ScoreConfig | str, output: str | None = None, **options) 
     if not isinstance(config, ScoreConfig):
         config = ScoreConfig(input=config, output=output if output is not None else "-", **options)
     config.validate()
+    if config.summary is None:
+        return score_file_dask(config) if config.engine == "dask" else score_file_local(config)
+    check_summary_path(config.summary, config.output, config.overwrite)
+    tally = AuditTally(config.formula_col or "", config.prefix, config.name_col)
     if config.engine == "dask":
-        return score_file_dask(config)
-    return score_file_local(config)
+        summary = score_file_dask(config)
+        tally.add_table_file(config.output)
+    else:
+        summary = score_file_local(config, tally=tally)
+    tally.write(config.summary)
+    return summary

@@ -9,9 +9,12 @@ from __future__ import annotations
 
 import numpy as np
 import pandas as pd
+import pyarrow as pa
 
+from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import check_name_column, find_formula_column, generated_names
+from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.verdict import Verdict, with_row_name
 
@@ -57,6 +60,9 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
         else:
             values = np.asarray(array.to_pylist(), dtype="object")
         result[name] = values[codes] if len(codes) else values[:0]
+    # the first row of each compound, by position (1-based), as in files
+    normalized = pa.array(result[prefix + "formula_normalized"].to_numpy(dtype="object"), type=pa.string(), from_pandas=True)
+    result[prefix + FIRST_ROW_COLUMN] = FirstRows().column(normalized).to_pandas(integer_object_nulls=False).astype("Int64")
     if name_col is not None:
         row_names = df[name_col].astype("object").where(df[name_col].notna(), "").astype(str).to_numpy()
         status = result[prefix + "status"].to_numpy()

@@ -32,6 +32,7 @@ from sklearn.base import BaseEstimator, TransformerMixin
 from sklearn.utils.validation import check_is_fitted
 
 from ionicity.scorer import melting_model
+from ionicity.scorer.audit import COLUMNS as AUDIT_COLUMNS
 from ionicity.scorer.columns import output_columns
 
 __all__ = ["FormulaDescriptors", "numeric_descriptor_columns", "categorical_descriptor_columns", "CATEGORIES"]
@@ -64,8 +65,10 @@ def categorical_descriptor_columns() -> dict[str, tuple[str, ...]]:
 
 
 def numeric_descriptor_columns() -> tuple[str, ...]:
-    """Every numeric (``float64``, ``int64`` or ``bool``) generated column, the melting trend included."""
-    return tuple(c.name for c in output_columns() if c.dtype in ("float64", "bool", "int64"))
+    """Every numeric (``float64``, ``int64`` or ``bool``) generated column, the melting trend included;
+    not the audit's row numbers (``first_row_same_compound`` says where a row is, not what it holds)."""
+    audit = {c.name for c in AUDIT_COLUMNS}
+    return tuple(c.name for c in output_columns() if c.dtype in ("float64", "bool", "int64") and c.name not in audit)
 
 
 class FormulaDescriptors(TransformerMixin, BaseEstimator):

@@ -16,8 +16,8 @@ from ionicity.scorer.model import Column
 from ionicity.scorer.precision import digits_for
 
 __all__ = [
-    "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules", "descriptors",
-    "column_groups", "GROUP",
+    "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "RECORD_COLUMN_MODULES", "output_columns", "column_names",
+    "descriptor_modules", "descriptors", "column_groups", "GROUP",
 ]
 
 _PARSER = "scorer.formula grammar"
@@ -71,6 +71,8 @@ BASE_COLUMNS: tuple[Column, ...] = (
 )
 
 DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.applicability", "ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+# modules whose COLUMNS the record sets itself (not from a Decomposition); after the descriptors'
+RECORD_COLUMN_MODULES: tuple[str, ...] = ("ionicity.scorer.audit",)
 
 
 @once
@@ -90,6 +92,8 @@ def output_columns() -> tuple[Column, ...]:
     columns = list(BASE_COLUMNS)
     for descriptor in descriptors():
         columns.extend(descriptor.columns)
+    for name in RECORD_COLUMN_MODULES:
+        columns.extend(importlib.import_module(name).COLUMNS)
     names = [c.name for c in columns]
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:
@@ -111,11 +115,15 @@ GROUP = "composition"
 @once
 def column_groups() -> dict[str, tuple[str, ...]]:
     """Group name -> its column names, in output order: ``composition`` for
-    :data:`BASE_COLUMNS`, then each descriptor module's ``GROUP``."""
+    :data:`BASE_COLUMNS`, then each descriptor module's ``GROUP``, then each
+    of :data:`RECORD_COLUMN_MODULES`' ``GROUP``."""
     groups: dict[str, list[str]] = {GROUP: [c.name for c in BASE_COLUMNS]}
     for module in descriptor_modules():
         groups.setdefault(getattr(module, "GROUP", module.__name__.rsplit(".", 1)[-1]), []).extend(
             c.name for c in module.analyse.columns)
+    for name in RECORD_COLUMN_MODULES:
+        module = importlib.import_module(name)
+        groups.setdefault(getattr(module, "GROUP", name.rsplit(".", 1)[-1]), []).extend(c.name for c in module.COLUMNS)
     return {g: tuple(names) for g, names in groups.items()}
 
 

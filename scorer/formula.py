@@ -70,6 +70,8 @@ _SUPERSCRIPTS = str.maketrans(_SUPERSCRIPT_CHARS, "0123456789+-")
 _DOT_SEPARATORS = "·•∙⋅・･×"
 _MINUS_SIGNS = "−–—‐‑"
 _SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])")
+# "MgSO4 7H2O": a space typed for the hydrate dot before a counted water at the end
+_SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*H2O\s*$)")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
 # adduct and not as the decimal count "2.2".
 _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
@@ -147,7 +149,7 @@ class ParsedFormula:
 
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
-    text = _SPACED_TIMES.sub("*", text)
+    text = _SPACED_WATER.sub("*", _SPACED_TIMES.sub("*", text))
     if text.isascii():
         # no superscripts, subscripts, dots, dashes or compatibility forms
         return "".join(text.split())

@@ -4,6 +4,7 @@ from __future__ import annotations
 import math
 
 from ionicity.scorer.applicability import family_decided
+from ionicity.scorer.audit_rows import audited_row
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element, is_metal
@@ -217,6 +218,9 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
         verdict = _verdict(values["substance_class"], [*comp.notes, *warnings], [])
         row[position["status"]] = verdict.status
         row[position["message"]] = verdict.message
+    if row[position["status"]] == "error":
+        # a failed row carries no half-read formula, mass or score
+        return _error_row(row[position["message"]])
     row[position["value_notes"]] = gaps[1] if water else gaps[0]
     return tuple(row)
 
@@ -236,6 +240,11 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    # the audit (a solution's concentration, a typing slip) decides which text is scored
+    return audited_row(text, _plain_row, _error_row, _layout()[1])
+
+
+def _plain_row(text: str) -> tuple:
     try:
         comp = parse_formula(text)
     except FormulaError as exc:

@@ -240,6 +240,8 @@ NESTED_50 = "(" * 50 + "H" + ")" * 50
 
 HOSTILE = [
     # (label, cell, fragments of which the message must contain at least one)
+    # ("nacl", "NaCL" and "H0O" were errors here; they are typing slips now, rows
+    # with status warning and a suggested formula: tests/test_slips.py)
     ("unknown element", "Xx2O", ["'Xx'"]),
     ("unclosed round bracket", "Ca(OH2", ["unbalanced"]),
     ("unopened round bracket", "CaOH)2", ["unbalanced"]),
@@ -257,14 +259,11 @@ HOSTILE = [
     ("control characters", "\x00\x01\x02\xff\ufffd", ["unexpected character"]),
     ("a number", "42", ["42"]),
     ("an integer", 42, ["42"]),
-    ("all lower case", "nacl", ["capital"]),
-    ("zero count", "H0O", ["positive"]),
     ("charge only", "^2-", ["no formula"]),
     ("too many atoms", "(H9999)9999", ["limit"]),
     ("emoji", "NaCl\U0001f642", ["unexpected character"]),
     ("trailing separator", "CuSO4·5H2O·", ["nothing after"]),
     ("Stock name", "Fe(III)Cl3", ["Stock"]),
-    ("mis-cased symbol", "NaCL", ["NaCl"]),
     ("empty brackets", "()", ["empty brackets"]),
 ]
 

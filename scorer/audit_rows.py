@@ -1,0 +1,62 @@
+"""The audit of one text before it is scored: a solution's concentration
+(:mod:`scorer.solutions`) and a typing slip (:mod:`scorer.slips`) decide which
+text is scored and change the row (:func:`audited_row`). Kept out of
+:mod:`scorer.record` so that the record's own path stays one hook; the
+record passes its scoring functions in (no import circle)."""
+from __future__ import annotations
+
+from typing import Callable
+
+from ionicity.scorer.slips import Slip, find_slip
+from ionicity.scorer.solutions import Solution, solution_note, split_solution
+from ionicity.scorer.verdict import Verdict, joined, with_warnings
+
+__all__ = ["slipped_row", "solution_row", "audited_row"]
+
+
+def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
+                position: dict[str, int]) -> tuple:
+    """The row of ``text``: ``plain_row`` of its solute and of the formula it
+    most plausibly meant, with the audit columns and messages set.
+
+    ``plain_row(text)`` scores a text as written; ``error_row(message)`` is
+    the row of a failure; ``position`` maps column names to places in a row.
+    """
+    solution = split_solution(text)
+    if solution is not None:
+        return solution_row(audited_row(solution.solute, plain_row, error_row, position), solution, position)
+    slip = find_slip(text)
+    if slip is None:
+        return plain_row(text)
+    if slip.suggested:
+        row = plain_row(slip.suggested)
+    else:
+        row = plain_row(text) if slip.kind == "leading_zero" else error_row(slip.message)
+    return slipped_row(row, slip, position)
+
+
+def slipped_row(row: tuple, slip: Slip, position: dict[str, int]) -> tuple:
+    """``row`` (the suggested formula's, or an error) with the slip named in
+    its message and the suggestion in ``formula_suggested``: never ``ok``."""
+    row = list(row)
+    verdict = Verdict(row[position["status"]], row[position["message"]] or "", row[position["value_notes"]] or "")
+    if verdict.status == "error":
+        message = joined([slip.message, verdict.message]) if slip.suggested else verdict.message or slip.message
+        row[position["message"]] = message
+        return tuple(row)
+    verdict = with_warnings(Verdict(verdict.status, "", verdict.value_notes), [slip.message, verdict.message])
+    row[position["status"]] = verdict.status
+    row[position["message"]] = verdict.message
+    row[position["formula_suggested"]] = slip.suggested or None
+    return tuple(row)
+
+
+def solution_row(row: tuple, solution: Solution, position: dict[str, int]) -> tuple:
+    """``row`` (the solute's) with the concentration as written and the
+    solution's note (and, for an acid or a base, the caution)."""
+    row = list(row)
+    row[position["concentration_as_written"]] = solution.concentration
+    if row[position["status"]] != "error":
+        note = solution_note(solution, row[position["substance_class"]] or "")
+        row[position["value_notes"]] = joined([note, row[position["value_notes"]] or ""])
+    return tuple(row)

@@ -1,0 +1,416 @@
+"""Typing slips in formula text: a reading people did not mean, and the one they did.
+
+People typing an inventory make the same few slips: the digit ``0`` for the
+letter O (``KN03``, ``Fe203``), ``1``, ``I`` and ``l`` swapped (``NaCI``,
+``CaC12``, ``Kl``), the wrong case (``CUSO4``, ``nacl``), or an ionic-liquid
+abbreviation the ion library does not know pasted in brackets
+(``[N2224][TFSI]``, which the grammar would read as nitrogen times 2224).
+Many of these still parse, as another compound (``KN03`` is KN3, potassium
+azide), so a slip is found by *plausibility*, not by the grammar alone:
+
+1. each kind of slip proposes corrected spellings of the text (every ``0``
+   that could be an O, every ``I``/``1`` that could be an ``l``, every
+   re-casing of the letters into element symbols);
+2. the written text and each proposal are read by the parser and the
+   charge-balance solver (:func:`scorer.ions.decompose_anhydrous`) and given
+   a penalty (:func:`reading_penalty`: no charge-balanced reading, solver
+   warnings, rare elements, absurd counts, covalent or metallic rather than
+   a salt, number of elements);
+3. a proposal is a slip's correction when it reads clearly better than what
+   was written (by :data:`MARGIN`), or, where the text itself is evidence
+   (a count starting with ``0``; text all in capitals or all in lower case),
+   when it reads at all and better.
+
+Valid element strings are therefore not flagged merely because another
+reading exists: ``CO``, ``HF``, ``NO``, ``Co``, ``Hf``, ``No``, ``Cs``,
+``Sn`` and ``COCl2`` read well as written, and no proposal beats them by the
+margin. The check runs once per distinct text (:mod:`scorer.record` caches
+the row) and only proposes where the text has a character that can be a slip.
+
+>>> find_slip("KN03").suggested, find_slip("KN03").kind
+('KNO3', 'leading_zero')
+>>> find_slip("NaCI").suggested
+'NaCl'
+>>> find_slip("CUSO4").suggested
+'CuSO4'
+>>> find_slip("CO") is None and find_slip("Hf") is None
+True
+"""
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+
+from ionicity.scorer import ion_library
+from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.elements import element_symbols, get_element
+from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.grammar import parse_element_groups
+from ionicity.scorer.ions import decompose_anhydrous
+
+__all__ = ["Slip", "SLIP_KINDS", "MARGIN", "find_slip", "reading_penalty", "slip_kind_of"]
+
+# what each kind of slip is called in messages and in the audit summary
+SLIP_KINDS: dict[str, str] = {
+    "leading_zero": "a count starting with 0 (the digit 0 typed for the letter O)",
+    "zero_for_O": "the digit 0 typed for the letter O",
+    "I_for_l": "a capital I typed for a lower-case l",
+    "one_for_l": "the digit 1 typed for a lower-case l",
+    "l_for_I": "a lower-case l typed for a capital I",
+    "letter_case": "element symbols in the wrong case",
+    "hydrate_dot_missing": "the hydrate dot left out before the water",
+    "unknown_abbreviation": "a bracketed ion abbreviation the ion library does not know",
+}
+
+# how much better (in penalty points of reading_penalty) a proposal must read
+# than the text as written when the text itself gives no evidence of a slip;
+# set by hand so that COCl2 (phosgene) stays against CoCl2 and CO against Co
+# (common practice: those pairs are both real compounds)
+MARGIN = 2.0
+
+# elements an inventory line almost never holds: noble gases, Tc, Pm, and
+# everything after Bi (a reading that needs one is a worse reading)
+_RARE_FROM_Z = 84
+_RARE = frozenset({"He", "Ne", "Ar", "Kr", "Xe", "Tc", "Pm"})
+_CLASS_PENALTY = {
+    "ionic_salt": 0.0, "acid": 0.0, "base": 0.0, "ionic_liquid_pair": 0.0,
+    "element": 0.5, "covalent_molecular": 1.0, "covalent_network": 1.0, "ion": 1.5,
+}
+_MAX_PROPOSALS = 256
+# proposals of one kind read by the ion solver at most (in2(co3)3 has dozens of re-casings)
+_SOLVED_PROPOSALS = 8
+# the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
+_BEST_PENALTY = 0.5
+# elements written with a count as the molecules they form (common practice)
+_ELEMENT_MOLECULES = frozenset({
+    ("H", 2.0), ("N", 2.0), ("O", 2.0), ("O", 3.0), ("F", 2.0), ("Cl", 2.0), ("Br", 2.0), ("I", 2.0),
+    ("P", 4.0), ("As", 4.0), ("S", 8.0), ("Se", 8.0), ("C", 60.0), ("C", 70.0),
+})
+_ZERO = re.compile(r"(?<![.\d])0(?!\.)|(?<=\d)0")
+_LETTER_RUN = re.compile(r"[A-Za-z]+")
+# digits run straight into a counted water at the end: "MgSO47H2O"
+_RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
+# a character that some kind of slip below could have typed (a superset: each kind checks more)
+_MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|\d{2,}H2O$")
+_BRACKETED = re.compile(r"\[([^\[\]]+)\]")
+# a single element letter with three or more digits: the numeric code of a
+# quaternary ammonium or phosphonium ion (N2224, P66614), not a count
+_ION_CODE = re.compile(r"[A-Z]\d{3,}[A-Za-z0-9]*")
+
+
+@dataclass(frozen=True)
+class Slip:
+    """A slip found in one text: its ``kind`` (a key of :data:`SLIP_KINDS`),
+    the corrected spelling (``suggested``; empty when no reading is known)
+    and the sentence for the row's message."""
+
+    kind: str
+    suggested: str
+    message: str
+
+
+@per_input(maxsize=65536)
+def reading_penalty(text: str) -> float:
+    """How implausible the reading of ``text`` is (lower is better; ``inf``
+    when it does not parse or has no charge-balanced, molecular or metallic
+    reading). Common practice, set by hand; see the module docstring.
+
+    >>> reading_penalty("NaCl") < reading_penalty("NaC")
+    True
+    >>> reading_penalty("Xx")
+    inf
+    """
+    penalty = _parsed_penalty(text)
+    if math.isinf(penalty):
+        return penalty
+    comp = _parsed(text)
+    dec = decompose_anhydrous(comp)
+    if dec.substance_class == "unknown":
+        return math.inf
+    penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
+    penalty += len(dec.notes) + len(comp.notes)
+    for term in dec.cations + dec.anions:
+        element = term.ion.element
+        if element and term.ion.charge not in get_element(element).oxidation_states_main:
+            penalty += 2.0  # Fe(7+) beside a carbide: the solver's last resort
+        if element == "C":
+            penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
+    if len(comp.counts) == 1 and comp.counts[0][1] != 1 and comp.counts[0] not in _ELEMENT_MOLECULES:
+        penalty += 2.0  # Na20, Cl4: an element written with a count no molecule of it has
+    return penalty
+
+
+@per_input(maxsize=65536)
+def _parsed_penalty(text: str) -> float:
+    """The part of :func:`reading_penalty` that needs no solver: rare elements,
+    absurd counts, 0.5 per element (``inf`` when the text does not parse)."""
+    comp = _parsed(text)
+    if comp is None:
+        return math.inf
+    penalty = 0.5 * len(comp.counts)
+    has_carbon = any(s == "C" for s, _ in comp.counts)
+    for symbol, count in comp.counts:
+        if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
+            penalty += 3.0
+        if count > 100 or (count > 24 and not has_carbon):
+            penalty += 4.0
+    return penalty
+
+
+def _reads_as_elements(content: str) -> bool:
+    try:
+        parse_element_groups(content)
+    except FormulaError:
+        return False
+    return True
+
+
+def _balanced(text: str) -> bool:
+    depth = 0
+    for ch in text:
+        if ch in "([{":
+            depth += 1
+        elif ch in ")]}":
+            depth -= 1
+            if depth < 0:
+                return False
+    return depth == 0
+
+
+def _count_owner(text: str, i: int) -> str:
+    """The element symbol whose count holds the digit at ``i`` ("" after a bracket or a dot)."""
+    while i > 0 and text[i - 1].isdigit():
+        i -= 1
+    m = re.search(r"[A-Z][a-z]?$", text[:i])
+    return m.group() if m and m.group() in _symbols_folded().values() else ""
+
+
+@per_input(maxsize=65536)
+def _parsed(text: str):
+    """``parse_formula(text)``, or None where it raises (the parser caches
+    only what it reads, so a failure is remembered here)."""
+    try:
+        return parse_formula(text)
+    except FormulaError:
+        return None
+
+
+def _absurd_count(text: str) -> bool:
+    comp = _parsed(text)
+    if comp is None:
+        return True
+    has_carbon = any(s == "C" for s, _ in comp.counts)
+    return any(n > 100 or (n > 24 and not has_carbon) for _, n in comp.counts)
+
+
+@once
+def _symbols_folded() -> dict[str, str]:
+    return {s.casefold(): s for s in element_symbols()}
+
+
+def _recasings(run: str) -> list[str]:
+    """Every way to write the letters of ``run`` as element symbols."""
+    folded = _symbols_folded()
+    out: list[str] = []
+
+    def walk(i: int, parts: list[str]) -> None:
+        if len(out) >= _MAX_PROPOSALS:
+            return
+        if i == len(run):
+            out.append("".join(parts))
+            return
+        for width in (1, 2):
+            symbol = folded.get(run[i:i + width].casefold()) if i + width <= len(run) else None
+            if symbol:
+                walk(i + width, parts + [symbol])
+
+    walk(0, [])
+    return out
+
+
+def _case_proposals(text: str) -> list[str]:
+    runs = list(_LETTER_RUN.finditer(text))
+    proposals = [""]
+    last = 0
+    for m in runs:
+        options = _recasings(m.group())
+        if not options:
+            return []
+        proposals = [p + text[last:m.start()] + o for p in proposals for o in options][:_MAX_PROPOSALS]
+        last = m.end()
+    return [p + text[last:] for p in proposals if p + text[last:] != text]
+
+
+def _replacements(text: str, positions: list[int], options) -> list[str]:
+    """Each position replaced alone, and all of them at once, by each option
+    that ``options(text, position)`` allows there."""
+    proposals: list[str] = []
+    for i in positions:
+        for new in options(text, i):
+            proposals.append(text[:i] + new + text[i + 1:])
+    if len(positions) > 1:
+        chars = list(text)
+        for i in positions:
+            allowed = options(text, i)
+            if allowed:
+                chars[i] = allowed[0]
+        proposals.append("".join(chars))
+    return proposals
+
+
+def _zero_options(text: str, i: int) -> list[str]:
+    out = ["O"]
+    before = text[i - 1] if i else ""
+    if before.isupper() and before + "o" in _symbols_folded().values():
+        out.append("o")  # C0 -> Co, N0 -> No
+    return out
+
+
+def _ell_options(text: str, i: int) -> list[str]:
+    before = text[i - 1] if i else ""
+    return ["l"] if before.isupper() and before + "l" in _symbols_folded().values() else []
+
+
+def _capital_i_options(text: str, i: int) -> list[str]:
+    return ["I"]
+
+
+@per_input(maxsize=65536)
+def find_slip(text: str) -> Slip | None:
+    """The typing slip in ``text``, or None when it reads as written.
+
+    Parameters
+    ----------
+    text : str
+        Formula text as typed.
+
+    Returns
+    -------
+    Slip or None
+        Two slips in one text (``Kl03``: l for I, then 0 for O) are found
+        in two rounds; the kind is the first one's.
+    """
+    slip = _find_one(text)
+    if slip is None or not slip.suggested:
+        return slip
+    second = _find_one(slip.suggested)
+    if second is None or not second.suggested:
+        return slip
+    best = second.suggested
+    kinds = f"{SLIP_KINDS[slip.kind]}; {SLIP_KINDS[second.kind]}"
+    return Slip(slip.kind, best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
+
+
+def _find_one(text: str) -> Slip | None:
+    """One round of :func:`find_slip`: the best proposal of any kind."""
+    if not isinstance(text, str) or not text or len(text) > 200:
+        return None
+    stripped = "".join(text.split())
+    if not _balanced(stripped):
+        return None  # no slip of these kinds unbalances brackets: the grammar's error stands
+    abbreviation = _unknown_abbreviation(stripped)
+    if abbreviation is not None:
+        return abbreviation
+    letters = "".join(ch for ch in stripped if ch.isalpha())
+    all_caps = len(letters) > 1 and letters.isupper()
+    all_lower = letters.islower()
+    if not (all_caps or all_lower or _MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
+        return None  # the common case, in one regular-expression scan
+    candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
+    written_box: list[float] = []
+
+    def written_penalty() -> float:
+        if not written_box:
+            written_box.append(reading_penalty(text))
+        return written_box[0]
+
+    def consider(kind: str, make_proposals, evidence: bool) -> None:
+        # without evidence a proposal must beat the written reading by MARGIN, and none
+        # reads better than _BEST_PENALTY: a text that reads well (KNO3, CO) costs no proposals
+        if not evidence and written_penalty() - MARGIN <= _BEST_PENALTY:
+            return
+        # the solver's work is the cost: proposals in order of the penalty they get
+        # before it (a lower bound), solved until none left can beat the best
+        proposals = sorted((p for p in dict.fromkeys(make_proposals()) if p != stripped), key=_parsed_penalty)
+        for proposal in proposals[:_SOLVED_PROPOSALS]:
+            best = min((c[0] for c in candidates), default=math.inf)
+            if _parsed_penalty(proposal) >= best:
+                break
+            candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
+
+    zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
+    leading = any(not stripped[i - 1].isdigit() for i in zeros)
+    # a 0 inside a count (Fe203, Na20) may be a slip where the count is absurd or
+    # belongs to an element other than C and H (C10H8 is naphthalene)
+    if zeros and (leading or _absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
+        consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options), leading)
+    capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
+    if capital_i:
+        # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many
+        evidence = any(stripped[i - 1] == "C" for i in capital_i)
+        consider("I_for_l", lambda: _replacements(stripped, capital_i, _ell_options), evidence)
+    ones = [i for i, ch in enumerate(stripped) if ch == "1" and _ell_options(stripped, i)]
+    if ones:
+        # a count of 1 written out (HC1) is itself unusual; C12 in C12H22O11 is not
+        evidence = any(not stripped[i + 1:i + 2].isdigit() and stripped[i + 1:i + 2] != "." for i in ones)
+        consider("one_for_l", lambda: _replacements(stripped, ones, _ell_options), evidence)
+    small_l = [i for i, ch in enumerate(stripped) if ch == "l" and not _ell_options(stripped, i)]
+    if small_l:
+        consider("l_for_I", lambda: _replacements(stripped, small_l, _capital_i_options), False)
+    water = _RUN_INTO_WATER.search(stripped)
+    if water:
+        digits = water.group(1)
+        consider("hydrate_dot_missing", lambda: [
+            stripped[:water.start()] + digits[:k] + "·" + digits[k:] + "H2O" for k in range(1, len(digits))
+        ], False)
+    # mixed-case text that the grammar reads (BaSi2, Cu5Si) is as written even
+    # where the solver finds no ions: only text that does not parse, or is all
+    # capitals or all lower case, is re-cased
+    unreadable = _parsed(text) is None
+    if all_caps or all_lower or unreadable:
+        consider("letter_case", lambda: _case_proposals(stripped), all_lower or unreadable)
+    if not candidates:
+        return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
+    written = written_penalty()
+    penalty, _, kind, best, evidence = min(candidates)
+    if math.isinf(penalty):
+        if kind == "leading_zero" and evidence and not math.isinf(written):
+            return Slip(kind, "", f"typing slip? {text!r} has {SLIP_KINDS[kind]}; no better reading found")
+        return None
+    if not (penalty < written - MARGIN or (evidence and penalty < written) or (kind == "leading_zero" and evidence)):
+        return None
+    others = [c[3] for c in sorted(candidates) if c[3] != best and c[0] <= penalty + 1.0][:2]
+    also = f" (also possible: {', '.join(others)})" if others else ""
+    return Slip(kind, best, f"typing slip? {text!r} looks like {best}{also}: {SLIP_KINDS[kind]}; values are for {best}")
+
+
+def _unknown_abbreviation(text: str) -> Slip | None:
+    """A bracketed ion code the library does not know (``[N2224]``): an error
+    rather than a reading of nitrogen times 2224."""
+    for m in _BRACKETED.finditer(text):
+        content = m.group(1)
+        if ion_library.find_alias(content) is not None:
+            continue
+        if _ION_CODE.fullmatch(content) or not _reads_as_elements(content):
+            return Slip(
+                "unknown_abbreviation", "",
+                f"{m.group()!r} in {text!r}: {SLIP_KINDS['unknown_abbreviation']} (scorer/data/ions.csv),"
+                " not read as a formula; write the ion's formula or add the ion to the library",
+            )
+    return None
+
+
+def slip_kind_of(message: str | None) -> str | None:
+    """The slip kind a row's ``message`` names, or None (how the audit
+    summary counts slips without a column of its own).
+
+    >>> slip_kind_of(find_slip("NaCI").message)
+    'I_for_l'
+    """
+    if not message:
+        return None
+    for kind, description in SLIP_KINDS.items():
+        if description in message:
+            return kind
+    return None

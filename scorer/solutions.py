@@ -1,0 +1,116 @@
+"""Solutions and grades written after a formula: ``HCl 37%``, ``NaOH 1 M``,
+``H2SO4 conc.``, ``NH3 (aq) 25%``, ``HNO3 65 % w/w``, ``KOH 0.1 mol/L``.
+
+:func:`split_solution` takes the concentration (or grade word) off the end of
+the text, as written with its unit, and leaves the solute's formula, which is
+scored as a compound. The values of such a row are those of the pure solute,
+not of the solution; the row's ``value_notes`` says so, and for a solution of
+an acid or a base quotes the one caution text (:mod:`scorer.caution`) with a
+pointer to the safety data sheet.
+
+>>> split_solution("HCl 37%")
+Solution(solute='HCl', concentration='37 %')
+>>> split_solution("NH3 (aq) 25%")
+Solution(solute='NH3', concentration='25 %')
+>>> split_solution("KOH 0.1 mol/L")
+Solution(solute='KOH', concentration='0.1 mol/L')
+>>> split_solution("H2SO4 conc.")
+Solution(solute='H2SO4', concentration='conc.')
+>>> split_solution("NaCl") is None
+True
+"""
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+
+from ionicity.scorer.caution import CAUTION
+
+__all__ = ["Solution", "split_solution", "solution_note", "CORROSIVE_CLASSES"]
+
+# substance classes whose solutions are corrosive (common practice)
+CORROSIVE_CLASSES = frozenset({"acid", "base"})
+
+# a value or a range (95-98 %)
+_NUMBER = r"\d+(?:[.,]\d+)?(?:\s*[-–]\s*\d+(?:[.,]\d+)?)?"
+_PERCENT = re.compile(rf"(?P<value>{_NUMBER})\s*%\s*(?P<basis>\(?\s*(?:w/w|w/v|v/v|wt|vol|m/m)\s*\.?\)?)?", re.I)
+# molar units as people write them; N (normality) kept as written
+_MOLAR = re.compile(
+    rf"(?P<value>{_NUMBER})\s*(?P<unit>mol\s*/\s*[lL]|mol\s*[lL]-1|mol\s*dm-3|mmol\s*/\s*[lL]|mM|M|N)(?![A-Za-z])"
+)
+_GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial|sat(?:\.|urated)?)", re.I)
+# a concentration written in brackets at the end: "HCl (37%)"
+_BRACKETED_TAIL = re.compile(r"\s*\(\s*([^()]*?)\s*\)\s*$")
+_STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b", re.I)
+_TAIL_BEFORE = re.compile(r"[\s,;]+$")
+
+
+@dataclass(frozen=True)
+class Solution:
+    """A solute's formula and its concentration as written (``37 %``)."""
+
+    solute: str
+    concentration: str
+
+
+def split_solution(text: str) -> Solution | None:
+    """The solute and the concentration written after it, or None when the
+    text names no concentration or grade.
+
+    Parameters
+    ----------
+    text : str
+        Formula text as typed.
+
+    Returns
+    -------
+    Solution or None
+        ``concentration`` as written, spaced canonically: ``37 %``,
+        ``65 % w/w``, ``1 M``, ``0.1 mol/L``, ``conc.``.
+    """
+    if not isinstance(text, str) or len(text) > 200:
+        return None
+    body = _STATE.sub(" ", text).strip()
+    tail = _BRACKETED_TAIL.search(body)
+    if tail and any(p.fullmatch(tail.group(1)) for p in (_PERCENT, _MOLAR, _GRADE)):
+        body = body[:tail.start()] + " " + tail.group(1)
+    for pattern in (_PERCENT, _MOLAR, _GRADE):
+        # the concentration is the last thing written, after a space
+        for m in pattern.finditer(body):
+            if m.end() != len(body) or m.start() == 0 or not body[m.start() - 1].isspace():
+                continue
+            solute = _TAIL_BEFORE.sub("", body[:m.start()])
+            if not solute or not solute[0].isalpha() and solute[0] not in "([":
+                return None
+            return Solution(solute, _as_written(pattern, m))
+    return None
+
+
+def _as_written(pattern, m: re.Match) -> str:
+    if pattern is _PERCENT:
+        basis = (m.group("basis") or "").strip(" ()").lower()
+        value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
+        return f"{value} %" + (f" {basis}" if basis else "")
+    if pattern is _MOLAR:
+        unit = re.sub(r"\s+", "", m.group("unit"))
+        value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
+        return f"{value} {unit}"
+    word = m.group("word").lower()
+    return {"concentrated": "conc.", "conc": "conc.", "dilute": "dil.", "dil": "dil.", "saturated": "sat.",
+            "sat": "sat."}.get(word, word)
+
+
+def solution_note(solution: Solution, substance_class: str) -> str:
+    """What the row's ``value_notes`` says about a solution: the values are
+    the pure solute's, and, for an acid or a base, the caution.
+
+    >>> solution_note(Solution("NaCl", "1 M"), "ionic_salt")
+    'a solution (1 M): the values are for the pure solute, not for the solution'
+    """
+    note = f"a solution ({solution.concentration}): the values are for the pure solute, not for the solution"
+    if substance_class in CORROSIVE_CLASSES:
+        note += (
+            f"; a solution of an {substance_class} is corrosive: read the safety data sheet before handling,"
+            f" diluting or mixing it ({CAUTION})"
+        )
+    return note

@@ -1,0 +1,172 @@
+"""Typing slips (scorer/slips.py) and solutions (scorer/solutions.py).
+
+The slips below are of the kinds the audit looks for, but chosen apart from
+the examples the module's docstring and the issue name (held-out style: other
+salts, other positions of the slip). The intended formulas are common
+laboratory chemicals (from memory); each corrected row's molar mass is checked
+against the ``molmass`` package (Gohlke, molmass, standard atomic weights),
+an outside reference, not against our own sum.
+"""
+from __future__ import annotations
+
+import csv
+import math
+import os
+import re
+from pathlib import Path
+
+import molmass
+import pytest
+
+from ionicity.scorer.record import score_formula
+from ionicity.scorer.slips import SLIP_KINDS, find_slip, slip_kind_of
+from ionicity.scorer.solutions import split_solution
+
+DATA = Path(__file__).parent / "data"
+
+# (typed, intended formula, slip kind); intended formulas from memory
+SLIPS = [
+    ("Na2C03", "Na2CO3", "leading_zero"),
+    ("KMn04", "KMnO4", "leading_zero"),
+    ("Mg(N03)2", "Mg(NO3)2", "leading_zero"),
+    ("CaS04", "CaSO4", "leading_zero"),
+    ("Al2O3", None, None),  # control: written right
+    ("Cr203", "Cr2O3", "zero_for_O"),
+    ("Na2S205", "Na2S2O5", "zero_for_O"),
+    ("KCI", "KCl", "I_for_l"),
+    ("BaCI2", "BaCl2", "I_for_l"),
+    ("AI(OH)3", "Al(OH)3", "I_for_l"),
+    ("MgC12", "MgCl2", "one_for_l"),
+    ("KC1", "KCl", "one_for_l"),
+    ("Nal", "NaI", "l_for_I"),
+    ("Agl", "AgI", "l_for_I"),
+    ("KBR", "KBr", "letter_case"),
+    ("MGSO4", "MgSO4", "letter_case"),
+    ("AGNO3", "AgNO3", "letter_case"),
+    ("kcl", "KCl", "letter_case"),
+    ("cacl2", "CaCl2", "letter_case"),
+    ("na2so4", "Na2SO4", "letter_case"),
+    ("NaBr", None, None),  # control
+    ("FeSO47H2O", "FeSO4·7H2O", "hydrate_dot_missing"),
+    ("BaCl22H2O", "BaCl2·2H2O", "hydrate_dot_missing"),
+]
+
+
+@pytest.mark.parametrize("typed,intended,kind", SLIPS, ids=[s[0] for s in SLIPS])
+def test_a_slip_is_a_warning_with_the_intended_formula(typed, intended, kind):
+    record = score_formula(typed)
+    if intended is None:
+        assert record["status"] == "ok" and record["formula_suggested"] is None
+        return
+    assert record["status"] == "warning", record["message"]
+    assert record["formula_suggested"] == intended
+    assert slip_kind_of(record["message"]) == kind
+    assert SLIP_KINDS[kind] in record["message"]
+    # the values are the intended compound's: molar mass from molmass (outside reference)
+    # (tolerance: molmass and our snapshot round some standard atomic weights
+    # differently, e.g. S 32.065 against 32.06, 0.012 g/mol on Na2S2O5)
+    reference = molmass.Formula(intended.replace("·", ".")).mass
+    assert record["molar_mass_g_mol"] == pytest.approx(reference, abs=0.02)
+
+
+@pytest.mark.parametrize("typed", ["KN03", "NaN03", "H2S04", "CUSO4", "NaCI", "nacl", "naoh", "zncl2", "NaCL", "H0O"])
+def test_the_slips_of_the_issue_are_never_ok(typed):
+    record = score_formula(typed)
+    assert record["status"] == "warning", record["message"]
+    assert slip_kind_of(record["message"]) is not None
+
+
+@pytest.mark.parametrize("text", ["CO", "Co", "HF", "Hf", "NO", "No", "Cs", "Sn", "COCl2", "CI4", "KI", "CS2",
+                                  "C10H8", "Na2SO4·10H2O", "NI3", "SnCl2", "PbI2", "BaSi2", "Cu5Si", "TlI"])
+def test_valid_formulas_are_not_flagged(text):
+    record = score_formula(text)
+    assert record["formula_suggested"] is None
+    assert slip_kind_of(record["message"]) is None
+
+
+@pytest.mark.parametrize("text,bracket", [("[N2224][TFSI]", "[N2224]"), ("[P44412]Br", "[P44412]"),
+                                          ("[C4mpyrr][NTf2]", "[C4mpyrr]")])
+def test_an_unknown_bracketed_abbreviation_is_an_error_that_says_so(text, bracket):
+    record = score_formula(text)
+    assert record["status"] == "error"
+    assert bracket in record["message"] and "ion library" in record["message"]
+    assert slip_kind_of(record["message"]) == "unknown_abbreviation"
+    assert record["formula_normalized"] is None and math.isnan(record["molar_mass_g_mol"])
+    # a known one, any case, is read through the library
+    assert score_formula("[BMIM][PF6]")["formula_normalized"] == "[C4mim][PF6]"
+
+
+@pytest.mark.parametrize("text,water", [("MgSO4 7H2O", 7), ("CuSO4 5 H2O", 5), ("CaSO4 0.5H2O", 0.5)])
+def test_a_space_before_counted_water_reads_as_a_hydrate(text, water):
+    record = score_formula(text)
+    assert record["status"] == "ok" and record["hydrate_water"] == water
+    salt = text.split()[0]
+    reference = molmass.Formula(salt).mass + water * molmass.Formula("H2O").mass  # molmass (outside reference)
+    assert record["molar_mass_g_mol"] == pytest.approx(reference, abs=0.02)
+
+
+def test_a_failed_row_carries_no_half_read_formula():
+    # five thousand solver steps and no ionic reading: an error with nothing else filled in
+    record = score_formula("MgSO4 7H2O 7H2O")
+    if record["status"] == "error":
+        assert record["formula_normalized"] is None and math.isnan(record["molar_mass_g_mol"])
+    record = score_formula("CNa")  # parses, no charge-balanced reading
+    assert record["status"] == "error"
+    assert record["formula_normalized"] is None and math.isnan(record["molar_mass_g_mol"])
+
+
+def test_no_reference_case_is_flagged():
+    # every formula of the reference cases is written right (sources in the file)
+    with open(DATA / "formula_cases.csv", encoding="utf-8") as handle:
+        texts = [row["formula"] for row in csv.DictReader(handle)]
+    flagged = [t for t in texts if find_slip(t) is not None]
+    assert flagged == []
+
+
+def test_false_positives_on_the_chemicals_inorganic_table():
+    # validation set: the formulas of the chemicals package's inorganic identifier
+    # table (Bell, chemicals, "Inorganic db.tsv"), none of which was used to set
+    # the penalties; at most 1 % may be flagged (measured 1 of 590 when written: BKO)
+    chemicals = pytest.importorskip("chemicals")
+    path = Path(os.path.dirname(chemicals.__file__)) / "Identifiers" / "Inorganic db.tsv"
+    with open(path, encoding="utf-8") as handle:
+        formulas = {line.split("\t")[2] for line in handle if line.count("\t") > 2}
+    formulas = {f for f in formulas if re.fullmatch(r"[A-Za-z0-9()]+", f)}
+    flagged = [f for f in formulas if find_slip(f) is not None]
+    assert len(flagged) <= 0.01 * len(formulas), flagged
+
+
+@pytest.mark.parametrize("text,solute,concentration", [
+    ("HCl 37%", "HCl", "37 %"),
+    ("NaOH 1 M", "NaOH", "1 M"),
+    ("H2SO4 conc.", "H2SO4", "conc."),
+    ("NH3 (aq) 25%", "NH3", "25 %"),
+    ("HNO3 65 % w/w", "HNO3", "65 % w/w"),
+    ("KOH 0.1 mol/L", "KOH", "0.1 mol/L"),
+    ("H3PO4 85%", "H3PO4", "85 %"),
+    ("NaCl 0.9 % w/v", "NaCl", "0.9 % w/v"),
+    ("CH3COOH glacial", "CH3COOH", "glacial"),
+    ("H2O2 30% (w/w)", "H2O2", "30 % w/w"),
+    ("HCl (37%)", "HCl", "37 %"),
+    ("H2SO4 95-98%", "H2SO4", "95-98 %"),
+    ("Ca(OH)2 sat.", "Ca(OH)2", "sat."),
+    ("hcl 37%", "hcl", "37 %"),  # and the solute's slip is found too
+])
+def test_a_solution_scores_its_solute(text, solute, concentration):
+    assert split_solution(text).solute == solute
+    record = score_formula(text)
+    assert record["concentration_as_written"] == concentration
+    assert record["status"] != "error", record["message"]
+    assert record["formula_normalized"] == score_formula(solute)["formula_normalized"]
+
+
+def test_an_acid_solution_defers_to_the_safety_data_sheet():
+    notes = score_formula("HCl 37%")["value_notes"]
+    assert "safety data sheet" in notes
+    assert "safety data sheet" not in (score_formula("NaCl 1 M")["value_notes"] or "")
+
+
+@pytest.mark.parametrize("text", ["NaCl", "CuSO4·5H2O", "Fe0.95O", "2CaSO4·H2O", "[C4mim][BF4]", "SO4^2-"])
+def test_plain_formulas_are_not_solutions(text):
+    assert split_solution(text) is None
+    assert score_formula(text)["concentration_as_written"] is None
