@@ -70,6 +70,8 @@ TABLES: dict[str, TableSpec] = {
             ("ion_id", "torsions_tau", "symmetry_number", "charge_delocalised", "source"),
             "scorer.melting",
         ),
+        TableSpec("name_words.csv", ("kind", "word", "value", "charge", "number", "source"), "scorer.name_vocabulary"),
+        TableSpec("trivial_names.csv", ("name", "formula", "source"), "scorer.name_reader"),
         TableSpec(
             "madelung_prototypes.csv",
             ("prototype", "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",
