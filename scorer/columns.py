@@ -64,7 +64,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting", "ionicity.scorer.systematic_name")
 
 
 @once

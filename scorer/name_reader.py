@@ -50,11 +50,12 @@ from fractions import Fraction
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ion_library import ions_by_composition
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, Word, compact, tokenise
 from ionicity.scorer.tables import table
 
-__all__ = ["read_name", "NameReading", "read_name_parts"]
+__all__ = ["read_name", "NameReading", "read_name_parts", "parse_as_name"]
 
 
 @dataclass
@@ -106,6 +107,25 @@ def read_name(name) -> str | None:
         return None if reading is None else _formula(reading)
     except (ValueError, ZeroDivisionError, KeyError, OverflowError):
         return None
+
+
+def parse_as_name(text: str):
+    """A formula cell that holds a name (``choline chloride``) parsed as the
+    formula the name means, with a note that becomes the row's warning; ``None``
+    when the text is not a name either.
+
+    >>> parse_as_name("sodium chloride").notes
+    ("the formula cell holds a name: 'sodium chloride' read as NaCl",)
+    """
+    formula = read_name(text)
+    if formula is None:
+        return None
+    try:
+        parsed = parse_formula(formula)
+    except FormulaError:
+        return None
+    note = f"the formula cell holds a name: {' '.join(text.split())!r} read as {formula}"
+    return parsed.respelled(text, notes=(*parsed.notes, note))
 
 
 def read_name_parts(name: str) -> NameReading | None:
@@ -428,17 +448,20 @@ def _balance(cation_charges: list[int], anion_charges: list[int]) -> list[int] |
 
 
 def _text(parts: list[tuple[_Part, float]], water: float | None) -> str:
+    """Formula text from parts and counts: polyatomic ions in brackets only
+    where a count follows (``Fe2(SO4)3``), complexes in square brackets, and
+    every ion bracketed beside an ionic-liquid label (``[C4mim][BF4]``)."""
+    shorthand = any(p.text.startswith("[") and "(" not in p.text for p, _ in parts)
     text = ""
     for part, count in parts:
         number = _n(count)
-        if number and part.polyatomic and not part.text.startswith("["):
-            text += f"({part.text}){number}"
-        elif number and part.text.startswith("["):
-            text += part.text + number
-        else:
-            text += (f"({part.text})" if part.polyatomic and not part.text.startswith("[") else part.text) + number
-    if water is None:
-        return text
+        body = part.text
+        if part.polyatomic and not body.startswith("["):
+            if shorthand:
+                body = f"[{body}]"
+            elif number:
+                body = f"({body})"
+        text += body + number
     if water:
         text += "·" + ("" if water == 1 else f"{water:g}") + "H2O"
     return text
