@@ -31,11 +31,11 @@ a name it cannot read gives ``None``.
 >>> read_name("iron(III) sulfate")
 'Fe2(SO4)3'
 >>> read_name("Copper(II) sulphate pentahydrate")
-'Cu(SO4)·5H2O'
+'CuSO4·5H2O'
 >>> read_name("mercurous chloride"), read_name("dinitrogen pentoxide")
-('(Hg2)Cl2', 'N2O5')
+('Hg2Cl2', 'N2O5')
 >>> read_name("potassium hexacyanidoferrate(III)"), read_name("sodium bicarbonate")
-('K3[Fe(CN)6]', 'Na(HCO3)')
+('K3[Fe(CN)6]', 'NaHCO3')
 >>> read_name("1-butyl-3-methylimidazolium tetrafluoroborate")
 '[C4mim][BF4]'
 >>> read_name("Epsom salt"), read_name("no such thing") is None
