@@ -3,8 +3,10 @@
 
 The generated columns are taken from the run's cache with one ``take`` per
 column; the melting model's step, when a model is applied, replaces
-``status`` and ``message``; failed rows are labelled with their name from
-``--name-col`` by the one verdict policy, :mod:`ionicity.scorer.verdict`.
+``status`` and ``message``; with ``--name-col``, each row's name is checked
+against its formula (:mod:`ionicity.pipelines.name_step`: ``name_formula``,
+``name_check``, a mismatch made a warning) and failed rows are labelled with
+their name, by the one verdict policy, :mod:`ionicity.scorer.verdict`.
 The local engine and every Dask partition call :func:`score_batch`.
 """
 from __future__ import annotations
@@ -15,6 +17,7 @@ import pyarrow.compute as pc
 from ionicity.pipelines.arrow_columns import string_array
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
+from ionicity.pipelines.name_step import name_columns
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.verdict import Verdict, with_row_name
@@ -70,6 +73,12 @@ def score_batch(
         names = column_names()
         status_at, message_at = first + names.index("status"), first + names.index("message")
         row_names = batch.column(batch.schema.get_field_index(name_col))
+        # names against formulas (name_formula, name_check; a mismatch is a warning), then failed rows labelled
+        checked = name_columns(batch.column(batch.schema.get_field_index(formula_col)), row_names,
+                               columns[status_at], columns[message_at],
+                               columns[first + names.index("formula_normalized")])
+        columns[status_at], columns[message_at] = checked[2], checked[3]
+        columns += [checked[0], checked[1]]
         columns[message_at] = label_failed_rows(columns[status_at], columns[message_at], row_names)
     return pa.RecordBatch.from_arrays(columns, schema=schema)
 

@@ -49,7 +49,8 @@ def prepare(config: ScoreConfig):
     names = reader.schema.names
     formula_col = find_formula_column(names, config.formula_col)
     check_name_column(names, config.name_col)
-    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None)
+    return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None,
+                                              with_names=config.name_col is not None)
 
 
 def score_file_local(config: ScoreConfig) -> Summary:

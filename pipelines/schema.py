@@ -15,6 +15,7 @@ from ionicity.pipelines.arrow_columns import OUTPUT_TYPES
 from ionicity.pipelines.errors import InputError
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.melting_model import MODEL_COLUMNS
+from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
 
 __all__ = ["find_formula_column", "check_name_column", "generated_columns", "generated_names", "output_schema"]
 
@@ -41,9 +42,9 @@ def check_name_column(names: list[str], name_col: str | None, option: str = "--n
         raise InputError(f"no column {name_col!r} for {option}; columns found: {', '.join(map(repr, names))}")
 
 
-def generated_names(input_names: list[str], prefix: str, with_model: bool = False) -> list[str]:
+def generated_names(input_names: list[str], prefix: str, with_model: bool = False, with_names: bool = False) -> list[str]:
     """Generated column names (with ``prefix``); a clash with an input column is an error."""
-    names = [prefix + c.name for c in generated_columns(with_model)]
+    names = [prefix + c.name for c in generated_columns(with_model, with_names)]
     clashes = [n for n in names if n in input_names]
     if clashes:
         raise InputError(
@@ -52,18 +53,24 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
     return names
 
 
-def generated_columns(with_model: bool = False) -> tuple:
+def generated_columns(with_model: bool = False, with_names: bool = False) -> tuple:
     """The declared columns a run adds: the scorer's, then the melting
-    model's when a model is applied."""
-    if not with_model:
-        return output_columns()
-    return output_columns() + tuple(MODEL_COLUMNS)
+    model's when a model is applied, then the name check's
+    (``name_formula``, ``name_check``) when a name column is given."""
+    columns = output_columns()
+    if with_model:
+        columns = columns + tuple(MODEL_COLUMNS)
+    if with_names:
+        columns = columns + tuple(NAME_COLUMNS)
+    return columns
 
 
-def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False) -> pa.Schema:
+def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False,
+                  with_names: bool = False) -> pa.Schema:
     """Input fields, unchanged, followed by the generated columns (and the
-    melting-model columns when a model is applied)."""
-    columns = generated_columns(with_model)
-    names = generated_names(input_schema.names, prefix, with_model)
+    melting-model columns when a model is applied, and the name check's
+    when a name column is given)."""
+    columns = generated_columns(with_model, with_names)
+    names = generated_names(input_schema.names, prefix, with_model, with_names)
     fields = list(input_schema) + [pa.field(name, OUTPUT_TYPES[c.dtype]) for name, c in zip(names, columns)]
     return pa.schema(fields)

@@ -33,7 +33,7 @@ from ionicity.scorer.caching import per_input
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose_anhydrous
 from ionicity.scorer.model import Column
-from ionicity.scorer.name_reader import read_name
+from ionicity.scorer.name_reader import parse_as_name, read_name
 from ionicity.scorer.record import _water_suffix, normalized_formula
 
 __all__ = ["GROUP", "COLUMNS", "NAME_CHECKS", "CheckResult", "check_name", "name_formula"]
@@ -141,11 +141,13 @@ def check_name(formula, name, formula_normalized: str | None = None) -> CheckRes
         try:
             row = parse_formula(formula)
         except FormulaError:
-            row = None
+            row = parse_as_name(formula)  # a name in the formula cell is scored as what it means
     if row is not None and _total(row) == _total(named):
         return CheckResult(formula_normalized or name_formula(name), "match", None)
     written = name_formula(name) or text
     if row is not None and _anhydrous(row) == _anhydrous(named):
         return CheckResult(written, "hydrate_differs", None)
-    shown = formula_normalized or (formula if isinstance(formula, str) else "")
-    return CheckResult(written, "mismatch", f"the name {name.strip()!r} means {written}, not {shown}")
+    warning = f"the name {name.strip()!r} means {written}"
+    if row is not None:
+        warning += f", not {formula_normalized or formula}"
+    return CheckResult(written, "mismatch", warning)

@@ -103,6 +103,13 @@ def read_name(name) -> str | None:
         trivial = _trivial().get(key)
         if trivial:
             return trivial
+        salt, water = _split_hydrate_word(name)
+        if water is not None:
+            # the salt part alone: every hydrate of one salt shares its reading
+            anhydrous = read_name(salt)
+            if anhydrous is None or "·" in anhydrous:
+                return None
+            return anhydrous + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
         reading = read_name_parts(name)
         return None if reading is None else _formula(reading)
     except (ValueError, ZeroDivisionError, KeyError, OverflowError):
@@ -126,6 +133,24 @@ def parse_as_name(text: str):
         return None
     note = f"the formula cell holds a name: {' '.join(text.split())!r} read as {formula}"
     return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+_LAST_WORD = re.compile(r"^(?P<salt>.*\S)\s+(?P<word>[a-z0-9.\-]*hydrate|anhydrous)\s*$", re.I)
+
+
+def _split_hydrate_word(name: str) -> tuple[str, float | None]:
+    """``copper(II) sulfate pentahydrate`` -> (``copper(II) sulfate``, 5.0);
+    (name, None) when the last word is no hydrate word of known count."""
+    match = _LAST_WORD.match(name.strip())
+    if not match:
+        return name, None
+    word = compact(match.group("word"))
+    if word == "anhydrous":
+        return match.group("salt"), 0.0
+    words = tokenise(word)
+    if not words or words[-1].kind != "hydrate" or len(words) != 2 or words[0].kind not in ("multiplier", "number"):
+        return name, None
+    return match.group("salt"), words[0].number
 
 
 def read_name_parts(name: str) -> NameReading | None:

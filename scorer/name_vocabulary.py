@@ -175,6 +175,13 @@ def vocabulary() -> tuple[dict[str, Word], int]:
     return merged, max(len(k) for k in words)
 
 
+@once
+def _prefixes() -> frozenset[str]:
+    """Every prefix of every word: the cut stops extending a word as soon as
+    no word starts so (a few lookups per position instead of one per length)."""
+    return frozenset(k[:j] for k in vocabulary()[0] for j in range(1, len(k) + 1))
+
+
 # spellings of the same ligand or group that names use interchangeably: the
 # Red Book 2005 -ido ligand endings and the older -o ones (IR-9.2.2.3), the
 # -ane-/-yl- forms of sulfonyl groups and azanide/imide
@@ -214,7 +221,8 @@ def tokenise(name: str) -> tuple[Word, ...] | None:
     key = compact(name)
     if not key or len(key) > MAX_NAME_LENGTH:
         return None
-    words, longest = vocabulary()
+    words, _ = vocabulary()
+    prefixes = _prefixes()
     n = len(key)
     best: list[tuple[int, tuple[Word, ...]] | None] = [None] * (n + 1)
     best[0] = (0, ())
@@ -223,10 +231,12 @@ def tokenise(name: str) -> tuple[Word, ...] | None:
             continue
         cost, path = best[i]
         options: list[tuple[int, Word]] = []
-        for j in range(min(n, i + longest), i, -1):
+        j = i + 1
+        while j <= n and key[i:j] in prefixes:
             word = words.get(key[i:j])
             if word is not None:
                 options.append((j, word))
+            j += 1
         for stem, value in _ELIDED.items():
             j = i + len(stem)
             if key.startswith(stem, i) and j < n and key[j] in "aeiou":
