@@ -9,6 +9,7 @@ from pathlib import Path
 
 from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import descriptor_modules, output_columns
+from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.record import score_parsed
@@ -61,8 +62,9 @@ def explain_formula(text: str) -> str:
 
 
 def columns_table(fmt: str = "text") -> str:
-    """Every generated column with its type, unit, method and source."""
-    columns = output_columns()
+    """Every generated column with its type, unit, method and source (the
+    name check's two columns last: they are written only with a name column)."""
+    columns = output_columns() + NAME_COLUMNS
     if fmt == "csv":
         buffer = io.StringIO()
         writer = csv.writer(buffer, lineterminator="\n")

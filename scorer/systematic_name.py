@@ -156,6 +156,15 @@ def _group(terms: tuple[IonTerm, ...], counted: bool) -> list[str] | None:
     return sorted(names, key=lambda n: n.lstrip("0123456789-,").lower())
 
 
+def _ion_composition(dec: Decomposition) -> tuple:
+    """Element counts of the formula unit summed from its ions."""
+    counts: dict[str, float] = {}
+    for term in dec.cations + dec.anions:
+        for symbol, n in term.ion.composition:
+            counts[symbol] = counts.get(symbol, 0.0) + n * term.count
+    return tuple(counts.items())
+
+
 def _same(name: str, composition) -> bool:
     text = read_name(name)
     if text is None:
@@ -184,27 +193,34 @@ def _acid_name(dec: Decomposition) -> str | None:
     return f"{stem}{end} acid"
 
 
-@protocol(title="", columns=COLUMNS, result=SystematicName, failure="systematic name not given")
+_NO_NAME = "systematic_name: no generated name reads back as this formula"
+
+
+@protocol(title="Systematic name (IUPAC Red Book 2005, IR-5 compositional names):", columns=COLUMNS,
+          result=SystematicName, failure="systematic name not computed")
 def analyse(dec: Decomposition) -> SystematicName:
     """The generated name of an ionic compound (see the module docstring)."""
     if dec.substance_class not in _IONIC or not (dec.cations or dec.anions):
-        return SystematicName()
+        return SystematicName(steps=("not generated: not an ionic compound",))
     if dec.substance_class == "acid" and all(t.ion.label == "H" for t in dec.cations):
         name = _acid_name(dec)
-        return SystematicName(systematic_name=name if name and _same(name, dec.composition) else None)
+        if name and _same(name, _ion_composition(dec)):
+            return SystematicName(systematic_name=name, steps=(f"{name} (classical acid name, read back)",))
+        return SystematicName(notes=(_NO_NAME,), steps=(_NO_NAME,))
     if not dec.cations or not dec.anions:
         if len(dec.cations + dec.anions) == 1:
-            return SystematicName(systematic_name=ion_name((dec.cations + dec.anions)[0].ion))
-        return SystematicName()
+            name = ion_name((dec.cations + dec.anions)[0].ion)
+            return SystematicName(systematic_name=name, steps=(f"{name} (the ion's name)",))
+        return SystematicName(notes=(_NO_NAME,), steps=(_NO_NAME,))
     for counted in (False, True):
         cations, anions = _group(dec.cations, counted), _group(dec.anions, counted)
         if cations is None or anions is None:
-            return SystematicName()
+            return SystematicName(notes=(_NO_NAME,), steps=(_NO_NAME,))
         name = " ".join(cations + anions)
-        if _same(name, dec.composition):
-            return SystematicName(systematic_name=name)
-    # no name that reads back: the column stays empty (value_notes unchanged, as before this column)
-    return SystematicName()
+        if _same(name, _ion_composition(dec)):
+            how = "counts by multiplicative prefixes" if counted else "counts by charge balance"
+            return SystematicName(systematic_name=name, steps=(f"{name} (cations, then anions; {how}; read back)",))
+    return SystematicName(notes=(_NO_NAME,), steps=(_NO_NAME,))
 
 
 describe = analyse.describe

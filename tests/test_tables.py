@@ -27,6 +27,8 @@ ROWS = {
     "structure_prototypes.csv": 93,
     "ion_shape.csv": 72,
     "madelung_prototypes.csv": 8,
+    "name_words.csv": 234,
+    "trivial_names.csv": 108,
 }
 
 
