@@ -17,7 +17,7 @@ import pyarrow.compute as pc
 from ionicity.pipelines.arrow_columns import string_array
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
-from ionicity.pipelines.name_step import name_columns
+from ionicity.pipelines.name_step import name_step_for
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.verdict import Verdict, with_row_name
@@ -74,9 +74,8 @@ def score_batch(
         status_at, message_at = first + names.index("status"), first + names.index("message")
         row_names = batch.column(batch.schema.get_field_index(name_col))
         # names against formulas (name_formula, name_check; a mismatch is a warning), then failed rows labelled
-        checked = name_columns(batch.column(batch.schema.get_field_index(formula_col)), row_names,
-                               columns[status_at], columns[message_at],
-                               columns[first + names.index("formula_normalized")])
+        checked = name_step_for(scorer.cache).columns(
+            columns[first + names.index("formula_normalized")], row_names, columns[status_at], columns[message_at])
         columns[status_at], columns[message_at] = checked[2], checked[3]
         columns += [checked[0], checked[1]]
         columns[message_at] = label_failed_rows(columns[status_at], columns[message_at], row_names)

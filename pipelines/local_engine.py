@@ -64,7 +64,7 @@ def score_file_local(config: ScoreConfig) -> Summary:
     reader, formula_col, schema = prepare(config)
     # the formulas' distinct values straight from the Parquet dictionary
     # pages: hashing every row's text cost more than a fifth of this process's time
-    reader.read_dictionary = (formula_col,)
+    reader.read_dictionary = (formula_col,) + ((config.name_col,) if config.name_col else ())
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
     # Parquet min/max statistics for the input and the numeric columns only:
     # on generated text (free text, or a few labels found in every row group)

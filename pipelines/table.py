@@ -12,7 +12,7 @@ import pandas as pd
 
 import pyarrow as pa
 
-from ionicity.pipelines.name_step import NAME_COLUMNS, name_columns
+from ionicity.pipelines.name_step import NAME_COLUMNS, NameStep
 from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import check_name_column, find_formula_column, generated_names
 from ionicity.scorer.columns import output_columns
@@ -62,9 +62,9 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
         result[name] = values[codes] if len(codes) else values[:0]
     if name_col is not None:
         # names against formulas, per distinct pair (pipelines.name_step), as in files
-        checked = name_columns(
-            _text_array(formulas), _text_array(df[name_col]),
-            *(_text_array(result[prefix + c]) for c in ("status", "message", "formula_normalized")),
+        checked = NameStep().columns(
+            _text_array(result[prefix + "formula_normalized"]), _text_array(df[name_col]),
+            _text_array(result[prefix + "status"]), _text_array(result[prefix + "message"]),
         )
         result[prefix + "status"] = np.asarray(checked[2].to_pylist(), dtype="object")
         result[prefix + "message"] = np.asarray(checked[3].to_pylist(), dtype="object")

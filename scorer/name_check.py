@@ -20,23 +20,24 @@ written, so outputs without names stay as they were.
 
 >>> check_name("KCl", "sodium chloride")
 CheckResult(name_formula='NaCl', name_check='mismatch', warning="the name 'sodium chloride' means NaCl, not KCl")
->>> check_name("CuSO4", "copper(II) sulfate pentahydrate").name_check
-'hydrate_differs'
->>> check_name("K3Fe(CN)6", "potassium hexacyanoferrate(III)")[:2]
+>>> check_name("CuSO4", "copper(II) sulfate pentahydrate")[:2]
+('CuSO4·5H2O', 'hydrate_differs')
+>>> check_name("K3[Fe(CN)6]", "potassium hexacyanoferrate(III)")[:2]
 ('K3[Fe(CN)6]', 'match')
 """
 from __future__ import annotations
 
+import re
 from typing import NamedTuple
 
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose_anhydrous
 from ionicity.scorer.model import Column
-from ionicity.scorer.name_reader import parse_as_name, read_name
+from ionicity.scorer.name_reader import read_name
 from ionicity.scorer.record import _water_suffix, normalized_formula
 
-__all__ = ["GROUP", "COLUMNS", "NAME_CHECKS", "CheckResult", "check_name", "name_formula"]
+__all__ = ["GROUP", "COLUMNS", "NAME_CHECKS", "CheckResult", "check_name", "name_formula", "split_water"]
 
 GROUP = "audit"
 
@@ -74,16 +75,39 @@ class CheckResult(NamedTuple):
     warning: str | None
 
 
-def _total(parsed) -> tuple[tuple[tuple[str, float], ...], int]:
-    return tuple(sorted((s, round(n, 6)) for s, n in parsed.total_counts.items())), parsed.charge
+_WATER_SUFFIX = re.compile(r"·(\d+(?:\.\d+)?)?H2O$")
 
 
-def _anhydrous(parsed) -> tuple:
-    counts = dict(parsed.total_counts)
-    water = parsed.hydrate_water
-    counts["H"] = counts.get("H", 0.0) - 2 * water
-    counts["O"] = counts.get("O", 0.0) - water
-    return tuple(sorted((s, round(n, 6)) for s, n in counts.items() if abs(n) > 1e-9)), parsed.charge
+def split_water(formula: str) -> tuple[str, float]:
+    """A formula written as the scorer writes it (or as the name reader does)
+    split into its anhydrous part and its lattice water.
+
+    >>> split_water("CuSO4·5H2O"), split_water("NaCl"), split_water("CaSO4·0.5H2O")
+    (('CuSO4', 5.0), ('NaCl', 0.0), ('CaSO4', 0.5))
+    """
+    match = _WATER_SUFFIX.search(formula)
+    if not match:
+        return formula, 0.0
+    return formula[: match.start()], float(match.group(1) or 1)
+
+
+@per_input(maxsize=65536)
+def _composition(anhydrous: str) -> tuple | None:
+    """Element counts and charge of an anhydrous formula text, ``None`` if it
+    does not parse; cached, so each salt is parsed once for all its hydrates."""
+    try:
+        parsed = parse_formula(anhydrous)
+    except FormulaError:
+        return None
+    counts = {s: round(n, 6) for s, n in parsed.total_counts.items()}
+    return tuple(sorted(counts.items())), parsed.charge
+
+
+def _with_water(composition: tuple, water: float) -> tuple:
+    counts = dict(composition[0])
+    counts["H"] = round(counts.get("H", 0.0) + 2 * water, 6)
+    counts["O"] = round(counts.get("O", 0.0) + water, 6)
+    return tuple(sorted(counts.items())), composition[1]
 
 
 @per_input(maxsize=65536)
@@ -110,44 +134,46 @@ def name_formula(name: str) -> str | None:
 
 
 @per_input(maxsize=131072)
-def check_name(formula, name, formula_normalized: str | None = None) -> CheckResult:
-    """Compare a row's formula text with its name.
+def check_name(formula_normalized, name) -> CheckResult:
+    """Compare a row's formula, as the scorer wrote it, with its name.
 
     Parameters
     ----------
-    formula : str
-        The row's formula as written.
+    formula_normalized : str or None
+        The row's ``formula_normalized`` (``None`` for a row that could not
+        be scored).
     name : str
         The row's name; empty or ``None`` gives an empty result.
-    formula_normalized : str, optional
-        The row's ``formula_normalized`` (used as the name's formula when
-        the two agree, saving a second solve).
 
     Returns
     -------
     CheckResult
+        Lattice water is compared apart from the salt, and a formula whose
+        water sits inside a complex (``[Fe(H2O)6]Cl3``) matches its hydrate
+        spelling (``FeCl3·6H2O``).
     """
     if not isinstance(name, str) or not name.strip():
         return CheckResult(None, None, None)
     text = read_name(name)
     if text is None:
         return CheckResult(None, "name_unread", None)
-    try:
-        named = parse_formula(text)
-    except FormulaError:
+    named_salt, named_water = split_water(text)
+    named = _composition(named_salt)
+    if named is None:
         return CheckResult(None, "name_unread", None)
-    row = None
-    if isinstance(formula, str):
-        try:
-            row = parse_formula(formula)
-        except FormulaError:
-            row = parse_as_name(formula)  # a name in the formula cell is scored as what it means
-    if row is not None and _total(row) == _total(named):
-        return CheckResult(formula_normalized or name_formula(name), "match", None)
+    row = row_salt = None
+    if isinstance(formula_normalized, str) and formula_normalized:
+        row_salt, row_water = split_water(formula_normalized)
+        row = _composition(row_salt)
+    if row is not None:
+        if row == named and row_water == named_water:
+            return CheckResult(formula_normalized, "match", None)
+        if _with_water(row, row_water) == _with_water(named, named_water):
+            return CheckResult(formula_normalized, "match", None)
+        if row == named:
+            return CheckResult(row_salt + _water_suffix(named_water), "hydrate_differs", None)
     written = name_formula(name) or text
-    if row is not None and _anhydrous(row) == _anhydrous(named):
-        return CheckResult(written, "hydrate_differs", None)
     warning = f"the name {name.strip()!r} means {written}"
     if row is not None:
-        warning += f", not {formula_normalized or formula}"
+        warning += f", not {formula_normalized}"
     return CheckResult(written, "mismatch", warning)

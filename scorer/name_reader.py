@@ -82,7 +82,7 @@ class NameReading:
 
 
 _HYDRATE_WATER = re.compile(r"\s*[\u2014\u2013\-]\s*water\s*\(\s*1\s*/\s*(\d+(?:\.\d+)?)\s*\)\s*$", re.I)
-_ACID = re.compile(r"^(?P<stem>.+?)\s*(?P<end>ic|ous)\s+acid$")
+_ACID = re.compile(r"^(?P<stem>.+?)(?P<end>ic|ous)acid$")
 
 
 @once
@@ -90,29 +90,40 @@ def _trivial() -> dict[str, str]:
     return {compact(row["name"]): row["formula"] for row in table("trivial_names.csv")}
 
 
-@per_input(maxsize=16384)
 def read_name(name) -> str | None:
     """The formula text ``name`` means, or ``None`` when it cannot be read.
 
-    Case-insensitive; extra spaces and hyphens do not matter. Never raises.
+    Case-insensitive; extra spaces and hyphens do not matter (the reading is
+    cached per compact key, so ``SODIUM CHLORIDE`` costs a lookup once
+    ``sodium chloride`` was read). Never raises.
     """
+    if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
+        return None
+    match = _HYDRATE_WATER.search(name)
+    if match:
+        # the Red Book's "copper(II) sulfate—water (1/5)"
+        salt = _read_key(compact(name[: match.start()]))
+        water = float(match.group(1))
+        return None if salt is None or "·" in salt else salt + "·" + ("" if water == 1 else f"{water:g}") + "H2O"
+    return _read_key(compact(name))
+
+
+@per_input(maxsize=32768)
+def _read_key(key: str) -> str | None:
     try:
-        if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
-            return None
-        key = compact(name)
         trivial = _trivial().get(key)
         if trivial:
             return trivial
-        salt, water = _split_hydrate_word(name)
+        salt, water = _split_hydrate_word(key)
         if water is not None:
             # the salt part alone: every hydrate of one salt shares its reading
-            anhydrous = read_name(salt)
+            anhydrous = _read_key(salt) if salt else None
             if anhydrous is None or "·" in anhydrous:
                 return None
             return anhydrous + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
-        reading = read_name_parts(name)
+        reading = read_name_parts(key)
         return None if reading is None else _formula(reading)
-    except (ValueError, ZeroDivisionError, KeyError, OverflowError):
+    except (ValueError, ZeroDivisionError, KeyError, OverflowError, IndexError):
         return None
 
 
@@ -135,16 +146,16 @@ def parse_as_name(text: str):
     return parsed.respelled(text, notes=(*parsed.notes, note))
 
 
-_LAST_WORD = re.compile(r"^(?P<salt>.*\S)\s+(?P<word>[a-z0-9.\-]*hydrate|anhydrous)\s*$", re.I)
+_LAST_WORD = re.compile(r"^(?P<salt>.*?)(?P<word>(?:[a-z]+|\d+(?:\.\d+)?)hydrate|anhydrous)$")
 
 
 def _split_hydrate_word(name: str) -> tuple[str, float | None]:
-    """``copper(II) sulfate pentahydrate`` -> (``copper(II) sulfate``, 5.0);
-    (name, None) when the last word is no hydrate word of known count."""
-    match = _LAST_WORD.match(name.strip())
+    """A compact key ``copper(ii)sulfatepentahydrate`` -> (``copper(ii)sulfate``,
+    5.0); (key, None) when it does not end in a hydrate word of known count."""
+    match = _LAST_WORD.match(name)
     if not match:
         return name, None
-    word = compact(match.group("word"))
+    word = match.group("word")
     if word == "anhydrous":
         return match.group("salt"), 0.0
     words = tokenise(word)
@@ -155,13 +166,8 @@ def _split_hydrate_word(name: str) -> tuple[str, float | None]:
 
 def read_name_parts(name: str) -> NameReading | None:
     """The cations, anions and water a name states, or ``None``."""
-    text = " ".join(name.split())
-    water: float | None = 0.0
-    match = _HYDRATE_WATER.search(text)
-    if match:
-        water = float(match.group(1))
-        text = text[: match.start()]
-    anion_text = _acid_anion(text.casefold())
+    text = compact(name)
+    anion_text = _acid_anion(text)
     words = tokenise(anion_text or text)
     if not words:
         return None
@@ -172,8 +178,6 @@ def read_name_parts(name: str) -> NameReading | None:
         if reading.cations or len(reading.anions) != 1:
             return None
         reading.cations.append(_Part("H", 1, element="H"))
-    if match:
-        reading.water = water
     return reading
 
 
