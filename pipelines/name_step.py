@@ -23,7 +23,7 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import int_numpy, string_array
+from ionicity.pipelines.arrow_columns import int_array, int_numpy, string_array
 from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS, check_name
 
 __all__ = ["NAME_COLUMNS", "NameStep", "name_step_for"]
@@ -40,20 +40,21 @@ def name_step_for(owner) -> "NameStep":
     return step
 
 
-def _codes(array) -> tuple[np.ndarray, list]:
-    """Dictionary codes and the dictionary's values; nulls read as ""."""
+def _codes(array) -> tuple[np.ndarray, pa.Array]:
+    """Dictionary codes and the dictionary (a string array whose last value
+    is "", the code of null cells)."""
     if isinstance(array, pa.ChunkedArray):
         array = array.combine_chunks()
     if not pa.types.is_dictionary(array.type):
         if not pa.types.is_string(array.type) and not pa.types.is_large_string(array.type):
             array = pc.cast(array, pa.string())
         array = pc.dictionary_encode(array)
-    values = array.dictionary.to_pylist()
-    indices = array.indices
-    if indices.null_count:
-        indices = pc.fill_null(indices, len(values))
-        values.append(None)
-    return int_numpy(indices).astype(np.int64), values
+    dictionary = array.dictionary
+    if not pa.types.is_string(dictionary.type):
+        dictionary = pc.cast(dictionary, pa.string())
+    indices = pc.fill_null(array.indices, len(dictionary)) if array.indices.null_count else array.indices
+    dictionary = pa.concat_arrays([pc.fill_null(dictionary, ""), string_array([""])])
+    return int_numpy(indices).astype(np.int64), dictionary
 
 
 def _plain(array):
@@ -62,25 +63,39 @@ def _plain(array):
     return array.dictionary_decode() if pa.types.is_dictionary(array.type) else array
 
 
+class _Numbering:
+    """Run-wide numbers of text values, looked up a whole dictionary at a time
+    (``pyarrow.compute.index_in``); only values never seen cost Python work."""
+
+    def __init__(self):
+        self.values: list[str] = []
+        self._known = string_array([])
+        self._numbers: dict[str, int] = {}
+
+    def ids(self, dictionary: pa.Array) -> np.ndarray:
+        found = pc.index_in(dictionary, value_set=self._known)
+        if found.null_count:
+            for value in pc.filter(dictionary, pc.is_null(found)).to_pylist():
+                if value not in self._numbers:
+                    self._numbers[value] = len(self.values)
+                    self.values.append(value)
+            self._known = string_array(self.values)
+            found = pc.index_in(dictionary, value_set=self._known)
+        return int_numpy(found).astype(np.int64)
+
+
 class NameStep:
     """The name check of one run (see the module docstring)."""
 
     def __init__(self):
-        self._formula_ids: dict = {}
-        self._name_ids: dict = {}
+        self._formula_ids = _Numbering()
+        self._name_ids = _Numbering()
         self._keys = np.zeros(0, dtype=np.int64)  # sorted pair keys
         self._slots = np.zeros(0, dtype=np.int64)  # result slot of each key
         self._formula: list = []
         self._check: list = []
         self._warning: list = []
         self._arrays: tuple | None = None
-
-    def _ids(self, values: list, table: dict) -> np.ndarray:
-        ids = np.empty(len(values), dtype=np.int64)
-        for i, value in enumerate(values):
-            key = value or ""
-            ids[i] = table.setdefault(key, len(table))
-        return ids
 
     def columns(self, normalized, names, status, message) -> tuple[pa.Array, pa.Array, pa.Array, pa.Array]:
         """``name_formula``, ``name_check``, ``status`` and ``message`` of one
@@ -89,16 +104,18 @@ class NameStep:
         column is written)."""
         formula_codes, formula_values = _codes(normalized)
         name_codes, name_values = _codes(names)
-        keys = (self._ids(formula_values, self._formula_ids)[formula_codes] << 32) | \
-            self._ids(name_values, self._name_ids)[name_codes]
-        pairs, first, inverse = np.unique(keys, return_index=True, return_inverse=True)
+        keys = (self._formula_ids.ids(formula_values)[formula_codes] << 32) | self._name_ids.ids(name_values)[name_codes]
+        # the batch's distinct pairs by Arrow's hash kernel (a sort of every row's key cost more)
+        encoded = pc.dictionary_encode(int_array(keys))
+        pairs = int_numpy(encoded.dictionary)
         at = np.searchsorted(self._keys, pairs)
-        known = (at < len(self._keys)) & (self._keys[np.minimum(at, max(len(self._keys) - 1, 0))] == pairs) \
-            if len(self._keys) else np.zeros(len(pairs), dtype=bool)
+        known = np.zeros(len(pairs), dtype=bool)
+        inside = at < len(self._keys)
+        known[inside] = self._keys[at[inside]] == pairs[inside]
         if not known.all():
-            self._add(pairs[~known], first[~known], formula_codes, formula_values, name_codes, name_values)
+            self._add(pairs[~known])
             at = np.searchsorted(self._keys, pairs)
-        slots = pa.array(self._slots[at][inverse.reshape(-1)], type=pa.int64())
+        slots = int_array(self._slots[at]).take(encoded.indices)
         formula_array, check_array, warning_array = self._result_arrays()
         warning = warning_array.take(slots)
         flagged = pc.is_valid(warning)
@@ -112,10 +129,11 @@ class NameStep:
         return (formula_array.take(slots), check_array.take(slots), pc.dictionary_encode(status),
                 pc.dictionary_encode(message))
 
-    def _add(self, pairs, rows, formula_codes, formula_values, name_codes, name_values) -> None:
+    def _add(self, pairs: np.ndarray) -> None:
         base = len(self._formula)
-        for row in rows.tolist():
-            result = check_name(formula_values[formula_codes[row]], name_values[name_codes[row]])
+        formulas, names = self._formula_ids.values, self._name_ids.values
+        for pair in pairs.tolist():
+            result = check_name(formulas[pair >> 32] or None, names[pair & 0xFFFFFFFF])
             self._formula.append(result.name_formula)
             self._check.append(result.name_check)
             self._warning.append(result.warning)

@@ -146,22 +146,33 @@ def parse_as_name(text: str):
     return parsed.respelled(text, notes=(*parsed.notes, note))
 
 
-_LAST_WORD = re.compile(r"^(?P<salt>.*?)(?P<word>(?:[a-z]+|\d+(?:\.\d+)?)hydrate|anhydrous)$")
+_COUNT_BEFORE_HYDRATE = re.compile(r"(\d+(?:\.\d+)?)$")
 
 
-def _split_hydrate_word(name: str) -> tuple[str, float | None]:
+@once
+def _hydrate_prefixes() -> tuple[tuple[str, float], ...]:
+    """Multiplicative prefixes a hydrate word may start with, longest first
+    (``tetradeca`` before ``deca``); the ``bis``/``tris`` forms never do."""
+    rows = [(compact(r["word"]), float(r["number"])) for r in table("name_words.csv")
+            if r["kind"] == "multiplier" and not r["word"].endswith(("is", "kis"))]
+    return tuple(sorted(rows, key=lambda item: -len(item[0])))
+
+
+def _split_hydrate_word(key: str) -> tuple[str, float | None]:
     """A compact key ``copper(ii)sulfatepentahydrate`` -> (``copper(ii)sulfate``,
     5.0); (key, None) when it does not end in a hydrate word of known count."""
-    match = _LAST_WORD.match(name)
-    if not match:
-        return name, None
-    word = match.group("word")
-    if word == "anhydrous":
-        return match.group("salt"), 0.0
-    words = tokenise(word)
-    if not words or words[-1].kind != "hydrate" or len(words) != 2 or words[0].kind not in ("multiplier", "number"):
-        return name, None
-    return match.group("salt"), words[0].number
+    if key.endswith("anhydrous"):
+        return key[: -len("anhydrous")], 0.0
+    if not key.endswith("hydrate"):
+        return key, None
+    body = key[: -len("hydrate")]
+    number = _COUNT_BEFORE_HYDRATE.search(body)
+    if number:
+        return body[: number.start()], float(number.group(1))
+    for prefix, value in _hydrate_prefixes():
+        if body.endswith(prefix):
+            return body[: -len(prefix)], value
+    return key, None
 
 
 def read_name_parts(name: str) -> NameReading | None:
