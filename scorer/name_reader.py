@@ -79,6 +79,7 @@ class NameReading:
     cations: list = field(default_factory=list)
     anions: list = field(default_factory=list)
     water: float | None = 0.0
+    molecule: _Part | None = None  # a neutral coordination entity named alone
 
 
 _HYDRATE_WATER = re.compile(r"\s*[\u2014\u2013\-]\s*water\s*\(\s*1\s*/\s*(\d+(?:\.\d+)?)\s*\)\s*$", re.I)
@@ -99,13 +100,106 @@ def read_name(name) -> str | None:
     """
     if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
         return None
+    try:
+        return _read_text(name)
+    except Exception:  # a name must never stop a batch: what cannot be read is unread
+        return None
+
+
+def _read_text(name: str) -> str | None:
+    name = _CAS_QUALIFIERS.sub("", name)
+    name = _CAS_HYDRATE.sub(lambda m: f" {m.group(1)}-hydrate", name)
+    inverted = _CAS_SALT.match(name.strip())
+    if inverted:
+        return _inverted_salt(inverted)
+    stated = _stated_formula(name)
+    if stated is not None:
+        return stated
     match = _HYDRATE_WATER.search(name)
     if match:
         # the Red Book's "copper(II) sulfate—water (1/5)"
         salt = _read_key(compact(name[: match.start()]))
         water = float(match.group(1))
         return None if salt is None or "·" in salt else salt + "·" + ("" if water == 1 else f"{water:g}") + "H2O"
-    return _read_key(compact(name))
+    return _read_key(compact(name)) or _as_formula(name)
+
+
+# CAS index additions that say nothing about composition: editions "(8CI,9CI)",
+# stereo descriptors "(T-4)-", "(OC-6-11)-"
+_CAS_QUALIFIERS = re.compile(r",?\s*\((?:\d+CI,?\s*)+\)|,?\s*\((?:T|OC|SP|TB|SPY|TBPY)-[\d-]+\)-?")
+# "hydrate (1:6)": one formula unit to six water
+_CAS_HYDRATE = re.compile(r",?\s*hydrate\s*\(1:(\d+(?:\.\d+)?)\)", re.I)
+# a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate"
+_STATED = re.compile(r"\(([A-Z][A-Za-z0-9().]*)\)")
+# the CAS index's inverted names: "nitric acid, manganese(2+) salt, tetrahydrate",
+# "sulfuric acid, europium(3+) salt (3:2)" (acid to metal)
+_CAS_SALT = re.compile(
+    r"^(?P<acid>[a-z ]+? acid)(?:\s*\([^)]*\))?,\s*(?P<metal>[^,]+?)\s+salt"
+    r"(?:\s*\((?P<a>\d+):(?P<b>\d+)\))?(?P<rest>.*)$", re.I)
+
+
+def _stated_formula(name: str) -> str | None:
+    """The formula a name states in brackets (a CAS index habit), with the
+    lattice water of the hydrate word after it; ``None`` if there is none.
+    Stock numerals (``(III)``) are not formulas."""
+    for match in _STATED.finditer(name):
+        text = match.group(1)
+        if re.fullmatch(r"[IVX]+", text) or not (re.search(r"\d", text) or len(re.findall(r"[A-Z]", text)) > 1):
+            continue
+        try:
+            parse_formula(text)
+        except FormulaError:
+            continue
+        rest = compact(name[: match.start()] + " " + name[match.end():])
+        _, water = _split_hydrate_word(rest)
+        if water is None and rest.endswith("hydrate"):
+            return None  # a hydrate of unknown water
+        return text + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
+    return None
+
+
+def _inverted_salt(match) -> str | None:
+    """``selenious acid, cadmium salt (1:1)`` read as ``cadmium selenite``; a
+    stated acid-to-metal ratio must be that of the neutral salt."""
+    anion = _acid_anion(compact(match.group("acid")))
+    if anion is None:
+        return None
+    rest = match.group("rest").strip(" ,")
+    text = read_name(f"{match.group('metal')} {anion} {rest}")
+    if text is None or not match.group("a"):
+        return text
+    # "sulfuric acid, sodium salt (3:2)": three acid molecules to two metal ions; the
+    # acid hydrogen the metal does not replace stays (Na2H4(SO4)3)
+    reading = read_name_parts(compact(f"{match.group('metal')} {anion}"))
+    if reading is None or len(reading.cations) != 1 or len(reading.anions) != 1:
+        return None
+    cation, acid_anion = reading.cations[0], reading.anions[0]
+    charge = cation.charge or (_usual_charge(cation.element) if cation.element else None)
+    if not charge or not acid_anion.charge:
+        return None
+    acids, metals = int(match.group("a")), int(match.group("b"))
+    hydrogen = acids * -acid_anion.charge - metals * charge
+    if hydrogen < 0:
+        return None
+    if hydrogen:
+        acid_anion = _Part("H" + _n(hydrogen / acids) + acid_anion.text, 0, polyatomic=True) \
+            if hydrogen % acids == 0 else acid_anion
+        if hydrogen % acids:
+            parts = [(cation, metals), (_Part("H", 1, element="H"), hydrogen), (acid_anion, acids)]
+            return _text(parts, _split_hydrate_word(compact(rest))[1] or 0.0)
+    return _text([(cation, metals), (acid_anion, acids)], _split_hydrate_word(compact(rest))[1] or 0.0)
+
+
+def _as_formula(name: str) -> str | None:
+    """A formula typed where a name was expected (``K2S5``): read as itself."""
+    text = name.strip()
+    if " " in text or not re.search(r"\d|[A-Z].*[A-Z]", text):
+        return None
+    try:
+        parse_formula(text)
+    except FormulaError:
+        return None
+    return text
 
 
 @per_input(maxsize=32768)
@@ -204,6 +298,8 @@ def _acid_anion(text: str) -> str | None:
         return stem[5:] + "ide"
     if stem.endswith(("sulfur", "sulphur", "phosphor")):
         stem = stem[:-2]
+    elif end == "ous" and stem.endswith("i"):
+        stem = stem[:-1]  # selenious -> selenite
     return stem + ("ite" if end == "ous" else "ate")
 
 
@@ -235,6 +331,12 @@ class _Reader:
             self.i += 1
             if not self._word(word):
                 return None
+        if self.ligands and not self.mults and len(self.reading.cations) == 1 and not self.reading.anions \
+                and self.reading.cations[0].element and self.reading.cations[0].charge is None:
+            # the CAS index's "vanadium, trifluorooxo-": the central atom first, a neutral molecule
+            central = self.reading.cations.pop().element
+            self.i = len(self.words)
+            return self.reading if self._complex(central, anionic=False, neutral=True) else None
         if self.mults or self.ligands or self.hydrogens:
             return None
         return self.reading
@@ -355,10 +457,11 @@ class _Reader:
                           split=split))
         return True
 
-    def _complex(self, central: str, anionic: bool) -> bool:
+    def _complex(self, central: str, anionic: bool, neutral: bool = False) -> bool:
         """A coordination entity: the ligands read so far around ``central``
         (Red Book 2005, IR-9.2): its charge from the oxidation number or the
-        charge after the name."""
+        charge after the name; a name that is nothing but the entity, with
+        neither, is a neutral molecule (``dichloridodioxidochromium``)."""
         count = self.take_mult()
         nxt = self.peek()
         oxidation = charge = None
@@ -369,6 +472,11 @@ class _Reader:
             charge = nxt.charge
             self.i += 1
         ligand_charge = sum(c * n for _, c, n in self.ligands)
+        if charge is None and oxidation is None and not anionic and not self.reading.cations \
+                and self.i >= len(self.words):
+            neutral = True
+        if neutral and charge is None and oxidation is None:
+            charge = 0
         if charge is None:
             if oxidation is None:
                 oxidation = _usual_charge(central)
@@ -380,6 +488,9 @@ class _Reader:
         self.ligands = []
         text = f"[{central}{inner}]"
         part = _Part(text, charge, count, polyatomic=True)
+        if charge == 0:
+            self.reading.molecule = part
+            return not self.reading.cations and not self.reading.anions
         if charge < 0 or anionic:
             self._anion(part)
         else:
@@ -434,6 +545,9 @@ def _formula(reading: NameReading) -> str | None:
     """Formula text from the parts: literal counts where the name gives any
     prefix, else the counts of charge balance."""
     cations, anions = reading.cations, reading.anions
+    if reading.molecule is not None:
+        return None if cations or anions else reading.molecule.text.strip("[]") + (
+            "·" + ("" if reading.water == 1 else f"{reading.water:g}") + "H2O" if reading.water else "")
     if not cations and not anions:
         return None
     if not anions:
@@ -445,6 +559,7 @@ def _formula(reading: NameReading) -> str | None:
     literal = any(p.count is not None for p in cations + anions)
     if literal or _covalent(cations) and any(p.count for p in anions):
         counts = [p.count or 1 for p in cations + anions]
+        _acid_hydrogen(cations, anions, counts)
         return _text(list(zip(cations + anions, counts)), reading.water)
     for part in cations:
         if part.charge is None:
@@ -459,6 +574,21 @@ def _formula(reading: NameReading) -> str | None:
     if counts is None:
         return None
     return _text(list(zip(cations + anions, counts)), reading.water)
+
+
+def _acid_hydrogen(cations: list[_Part], anions: list[_Part], counts: list) -> None:
+    """The trade's ``disodium phosphate`` (Na2HPO4) and ``monosodium
+    phosphate`` (NaH2PO4): prefixes that leave one oxoanion short of positive
+    charge mean the acid salt, its hydrogen unnamed (common practice)."""
+    if len(anions) != 1 or counts[-1] != 1 or not anions[0].polyatomic or "O" not in anions[0].text:
+        return
+    charges = [p.charge if p.charge is not None else _usual_charge(p.element) if p.element else None for p in cations]
+    if any(c is None for c in charges) or anions[0].charge is None or not _covalent(cations) is False:
+        return
+    net = sum(c * n for c, n in zip(charges, counts)) + anions[0].charge
+    if net < 0 and anions[0].text[0] != "[":
+        anion = anions[0]
+        anions[0] = _Part(f"H{_n(-net)}{anion.text}", 0, anion.count, polyatomic=True)
 
 
 def _balance(cation_charges: list[int], anion_charges: list[int]) -> list[int] | None:

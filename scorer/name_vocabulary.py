@@ -141,16 +141,11 @@ def vocabulary() -> tuple[dict[str, Word], int]:
         names = _library_names(ion)
         for name in names:
             key = compact(name)
-            split = None
-            for mult, value in multipliers.items():
-                rest = key[len(mult):]
-                if key.startswith(mult) and rest in anion_elements and value == int(value):
-                    split = (value, anion_elements[rest])
-            add(key, Word(key, "ion", ion.label, ion.charge, ion=ion, split=split))
             bare = re.sub(r"\((\d+[pm]|[ivx]+)\)$", "", key)
-            for variant in {bare, *_spellings(key), *_spellings(bare)} - {key}:
-                if variant not in words:
-                    add(variant, Word(variant, "ion", ion.label, ion.charge, ion=ion, split=split))
+            for variant in {key, bare, *_spellings(key), *_spellings(bare)}:
+                if variant == key or variant not in words:
+                    add(variant, Word(variant, "ion", ion.label, ion.charge, ion=ion,
+                                      split=_split(variant, multipliers, anion_elements)))
     for ion in ion_library():
         # trade aliases (bmim, choline, acetate) and the bracket labels of organic ions
         row_aliases = [a for a in _ALIASES().get(ion.ion_id, ()) if len(a) >= 4 or (len(a) == 3 and a.isalpha())]
@@ -198,6 +193,16 @@ def _spellings(key: str) -> set[str]:
     for a, b in _SWAPS:
         out |= {k.replace(a, b) for k in out} | {k.replace(b, a) for k in out if a not in k}
     return out
+
+
+def _split(key: str, multipliers: dict, anion_elements: dict) -> tuple | None:
+    """(count, element anion word) when an ion name is also a multiplier and
+    an element anion name (``disulfide``, ``dioxide``), else ``None``."""
+    for mult, value in multipliers.items():
+        rest = key[len(mult):]
+        if key.startswith(mult) and rest in anion_elements and value == int(value):
+            return value, anion_elements[rest]
+    return None
 
 
 @once
