@@ -25,6 +25,12 @@ It prints ``name: value`` lines, among them ``ratio_vs_io_floor``
 ``distinct_per_second`` (D / score seconds) and ``peak_rss_mib`` (the largest
 resident set of the score process or any of its workers, from ``wait4``).
 
+``--name-col`` adds a ``label`` column of names (each formula's generated
+``systematic_name`` in two spellings, 3 % of them on the wrong formula) and
+times ``score --name-col label`` alternating with the runs without it:
+``name_col_ratio_vs_score`` is the median of the pairs' ratios (with
+``--memory-scaling``, both sizes are scored with the names).
+
 ``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
 D) and prints both peak RSS figures and their ratio. ``--calibrate`` times
 in-process against pooled scoring of fresh distinct formulas, to set
