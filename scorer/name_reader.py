@@ -283,6 +283,9 @@ def read_name_parts(name: str) -> NameReading | None:
         if reading.cations or len(reading.anions) != 1:
             return None
         reading.cations.append(_Part("H", 1, element="H"))
+    elif not reading.cations and len(reading.anions) == 1 and text.startswith("hydrogen"):
+        # "hydrogen peroxide", "hydrogen sulfide": an anion name read with its hydrogen is the neutral acid
+        reading.cations.append(_Part("H", 1, element="H"))
     return reading
 
 

@@ -122,7 +122,16 @@ def vocabulary() -> tuple[dict[str, Word], int]:
             entries.append(word)
 
     for symbol in element_symbols():
-        add(compact(get_element(symbol).name), Word(compact(get_element(symbol).name), "element", symbol))
+        name = compact(get_element(symbol).name)
+        add(name, Word(name, "element", symbol))
+    metal_ate_rows = [compact(r["word"]) for r in table("name_words.csv") if r["kind"] == "metal_ate"]
+    for symbol in element_symbols():
+        # the -ate name of a central atom in a complex anion (Red Book 2005, IR-9.2.2.3):
+        # cerium -> cerate, iridium -> iridate; irregular ones (ferrate, cuprate) are rows of name_words.csv
+        name = compact(get_element(symbol).name)
+        stem = re.sub(r"(ium|um)$", "", name)
+        if stem != name and stem + "ate" not in metal_ate_rows:
+            add(stem + "ate", Word(stem + "ate", "metal_ate", symbol))
     rows = table("name_words.csv")
     multipliers = {}
     for row in rows:
@@ -188,10 +197,13 @@ _SWAPS = (
 
 
 def _spellings(key: str) -> set[str]:
-    """Other spellings of a compact ion name (each swap one way or the other)."""
+    """Other spellings of a compact ion name (each swap one way or the other,
+    and without the brackets of a substituent: ``trihexyltetradecylphosphonium``)."""
     out = {key}
     for a, b in _SWAPS:
         out |= {k.replace(a, b) for k in out} | {k.replace(b, a) for k in out if a not in k}
+    if not re.search(r"\((\d+[pm]|[ivx]+)\)$", key):
+        out |= {k.replace("(", "").replace(")", "") for k in out}
     return out
 
 
