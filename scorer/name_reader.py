@@ -46,7 +46,6 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass, field
-from fractions import Fraction
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_metal
@@ -130,7 +129,7 @@ _CAS_QUALIFIERS = re.compile(r",?\s*\((?:\d+CI,?\s*)+\)|,?\s*\((?:T|OC|SP|TB|SPY
 # "hydrate (1:6)": one formula unit to six water
 _CAS_HYDRATE = re.compile(r",?\s*hydrate\s*\(1:(\d+(?:\.\d+)?)\)", re.I)
 # a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate"
-_STATED = re.compile(r"\(([A-Z][A-Za-z0-9().]*)\)")
+_STATED = re.compile(r"(?<=\s)\(([A-Z][A-Za-z0-9().]*)\)")
 # the CAS index's inverted names: "nitric acid, manganese(2+) salt, tetrahydrate",
 # "sulfuric acid, europium(3+) salt (3:2)" (acid to metal)
 _CAS_SALT = re.compile(
@@ -142,6 +141,8 @@ def _stated_formula(name: str) -> str | None:
     """The formula a name states in brackets (a CAS index habit), with the
     lattice water of the hydrate word after it; ``None`` if there is none.
     Stock numerals (``(III)``) are not formulas."""
+    if not re.search(r"[a-z]{3}", _STATED.sub("", name)):
+        return None  # a formula, not a name that states one
     for match in _STATED.finditer(name):
         text = match.group(1)
         if re.fullmatch(r"[IVX]+", text) or not (re.search(r"\d", text) or len(re.findall(r"[A-Z]", text)) > 1):
@@ -221,6 +222,9 @@ def _read_key(key: str) -> str | None:
         return None
 
 
+_WORDLIKE = re.compile(r"[a-z]{3}|[A-Z]{4}")
+
+
 def parse_as_name(text: str):
     """A formula cell that holds a name (``choline chloride``) parsed as the
     formula the name means, with a note that becomes the row's warning; ``None``
@@ -229,6 +233,8 @@ def parse_as_name(text: str):
     >>> parse_as_name("sodium chloride").notes
     ("the formula cell holds a name: 'sodium chloride' read as NaCl",)
     """
+    if not isinstance(text, str) or not _WORDLIKE.search(text):
+        return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
     formula = read_name(text)
     if formula is None:
         return None
@@ -601,23 +607,21 @@ def _balance(cation_charges: list[int], anion_charges: list[int]) -> list[int] |
     (NH4)2Fe(SO4)2, a Tutton's salt)."""
     if any(c <= 0 for c in cation_charges) or any(a >= 0 for a in anion_charges):
         return None
-    cations = [Fraction(1)] * len(cation_charges)
+    # integer counts throughout (fractions.Fraction would import decimal at start-up)
+    cations = [1] * len(cation_charges)
     if len(cation_charges) > 1 and len(anion_charges) == 1:
         total = sum(cation_charges)
         if total % -anion_charges[0] and any(c == 1 for c in cation_charges):
-            cations = [Fraction(2 if c == 1 else 1) for c in cation_charges]
-    positive = sum(c * n for c, n in zip(cation_charges, cations))
+            cations = [2 if c == 1 else 1 for c in cation_charges]
     if len(anion_charges) == 1:
-        anions = [positive / -anion_charges[0]]
-    elif len(cation_charges) == 1:
+        positive = sum(c * n for c, n in zip(cation_charges, cations))
+        scale = -anion_charges[0] // math.gcd(positive, -anion_charges[0])
+        return [n * scale for n in cations] + [positive * scale // -anion_charges[0]]
+    if len(cation_charges) == 1:
         negative = sum(-a for a in anion_charges)
-        anions = [Fraction(1)] * len(anion_charges)
-        cations = [Fraction(negative, cation_charges[0])]
-    else:
-        return None
-    values = cations + anions
-    scale = math.lcm(*(v.denominator for v in values))
-    return [int(v * scale) for v in values]
+        scale = cation_charges[0] // math.gcd(negative, cation_charges[0])
+        return [negative * scale // cation_charges[0]] + [scale] * len(anion_charges)
+    return None
 
 
 def _text(parts: list[tuple[_Part, float]], water: float | None) -> str:

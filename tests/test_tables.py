@@ -27,7 +27,7 @@ ROWS = {
     "structure_prototypes.csv": 93,
     "ion_shape.csv": 72,
     "madelung_prototypes.csv": 8,
-    "name_words.csv": 234,
+    "name_words.csv": 241,
     "trivial_names.csv": 108,
 }
 
