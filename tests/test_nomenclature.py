@@ -252,3 +252,29 @@ def test_validation_names_of_the_chemicals_identifier_table():
           f"({agreed / counted:.1%}); {unread} unread, {len(misses) - unread} read otherwise")
     assert counted >= 150
     assert agreed / counted >= 0.90, misses
+
+
+# --- the columns in files -------------------------------------------------------------------
+
+
+def test_name_columns_in_a_scored_file_and_none_without_a_name_column(tmp_path):
+    import pyarrow.parquet as pq
+
+    from ionicity.pipelines.run import score_file
+
+    source = tmp_path / "stock.csv"
+    source.write_text(
+        "id,formula,label\n1,KCl,sodium chloride\n2,CuSO4.5H2O,copper(II) sulfate pentahydrate\n"
+        "3,CuSO4,blue vitriol\n4,NaCl,Reagent X-17\n5,choline chloride,\n", encoding="utf-8")
+    named = tmp_path / "named.parquet"
+    score_file(str(source), str(named), name_col="label", workers=1, quiet=True)
+    table = pq.read_table(named).to_pydict()
+    assert [str(v) if v is not None else None for v in table["name_check"]] == \
+        ["mismatch", "match", "hydrate_differs", "name_unread", None]
+    assert table["status"][0] == "warning" and "means NaCl, not KCl" in table["message"][0]
+    assert table["status"][1] == "ok" and table["name_formula"][1] == "CuSO4·5H2O"
+    assert table["systematic_name"][1] == "copper(II) sulfate pentahydrate"
+    plain = tmp_path / "plain.parquet"
+    score_file(str(source), str(plain), workers=1, quiet=True)
+    names = pq.read_table(plain).schema.names
+    assert "name_formula" not in names and "name_check" not in names and "systematic_name" in names
