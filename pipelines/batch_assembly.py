@@ -3,8 +3,10 @@
 
 The generated columns are taken from the run's cache with one ``take`` per
 column; the melting model's step, when a model is applied, replaces
-``status`` and ``message``; failed rows are labelled with their name from
-``--name-col`` by the one verdict policy, :mod:`ionicity.scorer.verdict`.
+``status`` and ``message``; with ``--name-col``, each row's name is checked
+against its formula (:mod:`ionicity.pipelines.name_step`: ``name_formula``,
+``name_check``, a mismatch made a warning) and failed rows are labelled with
+their name, by the one verdict policy, :mod:`ionicity.scorer.verdict`.
 The local engine and every Dask partition call :func:`score_batch`.
 """
 from __future__ import annotations
@@ -16,6 +18,7 @@ from ionicity.pipelines.arrow_columns import string_array
 from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
+from ionicity.pipelines.name_step import name_step_for
 from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
@@ -80,13 +83,20 @@ def score_batch(
         generated[names.index(FIRST_ROW_COLUMN)] = first_rows.column(cached[names.index("formula_normalized")].take(rows))
     if name_col is not None:
         row_names = batch.column(batch.schema.get_field_index(name_col))
+        # names against formulas (name_formula, name_check; a mismatch is a warning), then failed rows labelled
+        checked = name_step_for(scorer.cache).columns(
+            cached[names.index("formula_normalized")].take(rows), row_names, generated[status_at], generated[message_at])
+        generated[status_at], generated[message_at] = checked[2], checked[3]
+        name_columns = [checked[0], checked[1]]
         generated[message_at] = label_failed_rows(generated[status_at], generated[message_at], row_names)
+    else:
+        name_columns = []
     columns = [
         # a column read dictionary-encoded (the formulas, from Parquet) goes
         # out with its input type
         c.dictionary_decode() if pa.types.is_dictionary(c.type) and not pa.types.is_dictionary(f.type) else c
         for c, f in zip(batch.columns, schema)
-    ] + [generated[k] for k in keep]
+    ] + [generated[k] for k in keep] + name_columns
     return pa.RecordBatch.from_arrays(columns, schema=schema)
 
 

@@ -25,6 +25,12 @@ It prints ``name: value`` lines, among them ``ratio_vs_io_floor``
 ``distinct_per_second`` (D / score seconds) and ``peak_rss_mib`` (the largest
 resident set of the score process or any of its workers, from ``wait4``).
 
+``--name-col`` adds a ``label`` column of names (each formula's generated
+``systematic_name`` in two spellings, 3 % of them on the wrong formula) and
+times ``score --name-col label`` alternating with the runs without it:
+``name_col_ratio_vs_score`` is the median of the pairs' ratios (with
+``--memory-scaling``, both sizes are scored with the names).
+
 ``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
 D) and prints both peak RSS figures and their ratio. ``--calibrate`` times
 in-process against pooled scoring of fresh distinct formulas, to set
@@ -157,15 +163,32 @@ def realistic_formulas(distinct: int, seed: int = 7) -> list[str]:
     return chosen[:distinct]
 
 
-def write_table(path: str, rows: int, distinct: int, seed: int = 7, chunk_rows: int = 1_000_000) -> None:
+def inventory_names(formulas: list[str], seed: int = 7) -> tuple[list[str], list[str]]:
+    """Two name spellings per formula, as labels of an inventory: the
+    generated systematic name (or "unlabelled sample" where there is none)
+    and the same name in capitals; 3 % of the formulas carry the name of
+    another formula (a label on the wrong bottle)."""
+    rng = random.Random(seed)
+    names = [score_formula(f)["systematic_name"] or "unlabelled sample" for f in formulas]
+    wrong = rng.sample(range(len(formulas)), k=len(formulas) * 3 // 100)
+    for i in wrong:
+        names[i] = names[(i + 1) % len(names)]
+    return names, [n.upper() for n in names]
+
+
+def write_table(path: str, rows: int, distinct: int, seed: int = 7, chunk_rows: int = 1_000_000,
+                names: bool = False) -> None:
     """Write an invented inventory table of ``rows`` rows to ``path``
     (.parquet, .csv or .tsv): ``sample_id`` (int64), ``formula`` (every one of
     ``distinct`` formulas at least once), ``lot`` (text with Unicode, some
-    empty) and ``mass_g`` (float64, some null)."""
+    empty) and ``mass_g`` (float64, some null); with ``names``, a ``label``
+    column too (:func:`inventory_names`, one of two spellings per row)."""
 
     if distinct > rows:
         raise ValueError("--distinct cannot exceed --rows")
-    formulas = pa.array(realistic_formulas(distinct, seed))
+    texts = realistic_formulas(distinct, seed)
+    formulas = pa.array(texts)
+    labels = pa.array([n for pair in zip(*inventory_names(texts, seed)) for n in pair]) if names else None
     rng = np.random.default_rng(seed)
     picks = rng.integers(0, distinct, size=rows, dtype=np.int32)
     picks[rng.choice(rows, size=distinct, replace=False)] = np.arange(distinct, dtype=np.int32)
@@ -182,6 +205,9 @@ def write_table(path: str, rows: int, distinct: int, seed: int = 7, chunk_rows: 
                 "lot": lots.take(pa.array(rng.integers(0, len(lots), size=n))),
                 "mass_g": pa.array(np.round(mass, 3), mask=rng.random(n) < 0.05),
             })
+            if labels is not None:
+                spelling = rng.integers(0, 2, size=n, dtype=np.int32)
+                table = table.append_column("label", labels.take(pa.array(picks[start:start + n] * 2 + spelling)))
             if writer is None:
                 if fmt == ".parquet":
                     writer = pq.ParquetWriter(path, table.schema)
@@ -231,13 +257,16 @@ def measure_floor(path: str, workdir: str) -> tuple[float, float]:
     return _run([sys.executable, "-c", _FLOOR_CODE, path, out], env=_env())
 
 
-def measure_score(path: str, workdir: str, workers: int | None = None, columns: str | None = None) -> tuple[float, float]:
+def measure_score(path: str, workdir: str, workers: int | None = None, columns: str | None = None,
+                  name_col: str | None = None) -> tuple[float, float]:
     out = os.path.join(workdir, "scored" + os.path.splitext(path)[1])
     argv = [sys.executable, "-m", "ionicity", "score", path, "-o", out, "--quiet", "--overwrite"]
     if workers:
         argv += ["--workers", str(workers)]
     if columns:
         argv += ["--columns", columns]
+    if name_col:
+        argv += ["--name-col", name_col]
     return _run(argv, env=_env())
 
 
@@ -315,6 +344,9 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--engine", choices=("local", "dask"), default="local",
                         help="dask: time the local engine, Dask on one worker and on two (pipelines/bench_dask.py)")
     parser.add_argument("--partition-rows", type=int, help="with --engine dask: --partition-rows for the Dask runs")
+    parser.add_argument("--name-col", action="store_true",
+                        help="add a label column of names (two spellings per formula, 3 %% on the wrong formula) and"
+                             " time score with --name-col label too, alternating with the runs without it")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
     parser.add_argument("--columns", metavar="LIST",
@@ -353,23 +385,30 @@ def main(argv: list[str] | None = None) -> int:
         if args.memory_scaling:
             figures = []
             for rows in (args.rows, args.rows * 10):
-                write_table(table, rows, args.distinct, args.seed)
-                seconds, rss = measure_score(table, workdir, args.workers)
+                write_table(table, rows, args.distinct, args.seed, names=args.name_col)
+                seconds, rss = measure_score(table, workdir, args.workers, "label" if args.name_col else None)
                 _print(f"score_seconds_{rows}_rows", seconds)
                 _print(f"peak_rss_mib_{rows}_rows", rss)
                 figures.append(rss)
                 os.remove(table)
             _print("peak_rss_ratio_10x_rows", figures[1] / figures[0])
             return 0
-        write_table(table, args.rows, args.distinct, args.seed)
+        write_table(table, args.rows, args.distinct, args.seed, names=args.name_col)
         # floor and score alternate, --repeat times each: on a shared machine
         # one pair can be off by a third; the medians are the figures
-        floors, scores, chosen = [], [], []
+        floors, scores, chosen, named = [], [], [], []
         for _ in range(args.repeat):
             floors.append(measure_floor(table, workdir))
             scores.append(measure_score(table, workdir, args.workers))
             if args.columns:
                 chosen.append(measure_score(table, workdir, args.workers, args.columns))
+            if args.name_col:
+                named.append(measure_score(table, workdir, args.workers, name_col="label"))
+        if args.name_col:
+            _print("name_col_score_seconds_each", ", ".join(f"{s:.3f}" for s, _ in named))
+            _print("name_col_score_seconds", statistics.median(s for s, _ in named))
+            _print("name_col_ratio_vs_score", statistics.median(n / s for (n, _), (s, _) in zip(named, scores)))
+            _print("name_col_peak_rss_mib", max(r for _, r in named))
         floor = statistics.median(f for f, _ in floors)
         seconds = statistics.median(s for s, _ in scores)
         floor_rss = max(r for _, r in floors)

@@ -9,6 +9,7 @@ from pathlib import Path
 
 from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import column_groups, descriptor_modules, output_columns
+from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.note_codes import notes_table
@@ -95,7 +96,8 @@ def columns_table(fmt: str = "text", groups: bool = False, notes: bool = False) 
             return "\n".join(["| group | columns |", "| --- | --- |"] + [f"| `{g}` | {names} |" for g, names in listing])
         return "\n".join(f"{g}: {names}" for g, names in listing) + (
             "\n(status and message are always written; --columns takes groups and column names)")
-    columns = output_columns()
+    # the name check's two columns last: they are written only with a name column
+    columns = output_columns() + NAME_COLUMNS
     if fmt == "csv":
         buffer = io.StringIO()
         writer = csv.writer(buffer, lineterminator="\n")

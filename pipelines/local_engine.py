@@ -60,7 +60,7 @@ def prepare(config: ScoreConfig):
     check_name_column(names, config.name_col)
     chosen = chosen_columns(config.columns, config.mp_model is not None)
     return reader, formula_col, output_schema(reader.schema, config.prefix, with_model=config.mp_model is not None,
-                                              chosen=chosen)
+                                              chosen=chosen, with_names=config.name_col is not None)
 
 
 def input_typer(config: ScoreConfig, reader, formula_col: str, text_columns=frozenset()) -> ColumnTyper:
@@ -113,7 +113,7 @@ def _score_once(config: ScoreConfig, text_columns: set) -> Summary:
                          f" {config.input!r} has {reader.total_rows:,}; write .csv or .parquet instead")
     # the formulas' distinct values straight from the Parquet dictionary
     # pages: hashing every row's text cost more than a fifth of this process's time
-    reader.read_dictionary = (formula_col,)
+    reader.read_dictionary = (formula_col,) + ((config.name_col,) if config.name_col else ())
     metadata = provenance_metadata(config, formula_col) if config.output != "-" and config.output.lower().endswith((".parquet", ".pq")) else None
     # Parquet min/max statistics for the input and the numeric columns only:
     # on generated text (free text, or a few labels found in every row group)

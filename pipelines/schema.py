@@ -16,6 +16,7 @@ from ionicity.pipelines.errors import InputError
 from ionicity.scorer.columns import column_groups, output_columns
 from ionicity.scorer.melting_model import GROUP as MODEL_GROUP
 from ionicity.scorer.melting_model import MODEL_COLUMNS
+from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
 
 __all__ = ["find_formula_column", "check_formula_type", "check_name_column", "check_unique_names",
            "generated_columns", "generated_names", "output_schema", "chosen_columns"]
@@ -93,11 +94,12 @@ def chosen_columns(requested, with_model: bool = False) -> tuple[str, ...] | Non
     return tuple(n for n in every if n in wanted)
 
 
-def generated_names(input_names: list[str], prefix: str, with_model: bool = False, chosen=None) -> list[str]:
+def generated_names(input_names: list[str], prefix: str, with_model: bool = False, chosen=None,
+                    with_names: bool = False) -> list[str]:
     """Generated column names (with ``prefix``); a clash with an input column
     is an error, in any case (``STATUS`` clashes with ``status``: spreadsheets,
     SQL and pandas' case-insensitive lookups cannot tell them apart)."""
-    names = [prefix + c.name for c in generated_columns(with_model, chosen)]
+    names = [prefix + c.name for c in generated_columns(with_model, chosen, with_names)]
     taken = {n.casefold(): n for n in input_names}
     clashes = [f"{n} (input {taken[n.casefold()]!r})" if taken[n.casefold()] != n else n
                for n in names if n.casefold() in taken]
@@ -108,20 +110,25 @@ def generated_names(input_names: list[str], prefix: str, with_model: bool = Fals
     return names
 
 
-def generated_columns(with_model: bool = False, chosen=None) -> tuple:
+def generated_columns(with_model: bool = False, chosen=None, with_names: bool = False) -> tuple:
     """The declared columns a run adds: the scorer's, then the melting
-    model's when a model is applied; only the ``chosen`` names when given."""
+    model's when a model is applied (only the ``chosen`` ones when given),
+    then the name check's (``name_formula``, ``name_check``) when a name
+    column is given: with ``--name-col`` they are always written."""
     columns = output_columns() if not with_model else output_columns() + tuple(MODEL_COLUMNS)
-    if chosen is None:
-        return columns
-    return tuple(c for c in columns if c.name in chosen)
+    if chosen is not None:
+        columns = tuple(c for c in columns if c.name in chosen)
+    if with_names:
+        columns = columns + tuple(NAME_COLUMNS)
+    return columns
 
 
-def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False, chosen=None) -> pa.Schema:
+def output_schema(input_schema: pa.Schema, prefix: str = "", with_model: bool = False, chosen=None,
+                  with_names: bool = False) -> pa.Schema:
     """Input fields, unchanged, followed by the generated columns (and the
     melting-model columns when a model is applied; only the ``chosen`` ones
-    when given)."""
-    columns = generated_columns(with_model, chosen)
-    names = generated_names(input_schema.names, prefix, with_model, chosen)
+    when given; the name check's when a name column is given)."""
+    columns = generated_columns(with_model, chosen, with_names)
+    names = generated_names(input_schema.names, prefix, with_model, chosen, with_names)
     fields = list(input_schema) + [pa.field(name, OUTPUT_TYPES[c.dtype]) for name, c in zip(names, columns)]
     return pa.schema(fields)

@@ -12,6 +12,7 @@ import pandas as pd
 import pyarrow as pa
 
 from ionicity.pipelines.duplicates import FirstRows
+from ionicity.pipelines.name_step import NAME_COLUMNS, NameStep
 from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import check_name_column, find_formula_column, generated_names
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
@@ -44,7 +45,7 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
     names = [str(c) for c in df.columns]
     formula_col = find_formula_column(names, formula_col)
     check_name_column(names, name_col, option="name_col")
-    out_names = generated_names(names, prefix)
+    out_names = generated_names(names, prefix, with_names=name_col is not None)
     formulas = df[formula_col]
     codes, uniques = pd.factorize(formulas, use_na_sentinel=True)
     texts = [u if isinstance(u, str) else str(u) for u in uniques]
@@ -64,6 +65,15 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
     normalized = pa.array(result[prefix + "formula_normalized"].to_numpy(dtype="object"), type=pa.string(), from_pandas=True)
     result[prefix + FIRST_ROW_COLUMN] = FirstRows().column(normalized).to_pandas(integer_object_nulls=False).astype("Int64")
     if name_col is not None:
+        # names against formulas, per distinct pair (pipelines.name_step), as in files
+        checked = NameStep().columns(
+            _text_array(result[prefix + "formula_normalized"]), _text_array(df[name_col]),
+            _text_array(result[prefix + "status"]), _text_array(result[prefix + "message"]),
+        )
+        result[prefix + "status"] = np.asarray(checked[2].to_pylist(), dtype="object")
+        result[prefix + "message"] = np.asarray(checked[3].to_pylist(), dtype="object")
+        for column, array in zip(NAME_COLUMNS, checked[:2]):
+            result[prefix + column.name] = np.asarray(array.to_pylist(), dtype="object")
         row_names = df[name_col].astype("object").where(df[name_col].notna(), "").astype(str).to_numpy()
         status = result[prefix + "status"].to_numpy()
         messages = result[prefix + "message"].to_numpy(dtype="object").copy()
@@ -72,3 +82,9 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
             messages[i] = with_row_name(Verdict(status[i], messages[i], notes[i]), row_names[i]).message
         result[prefix + "message"] = messages
     return result
+
+
+def _text_array(series) -> pa.Array:
+    """A column as Arrow text: strings kept, missing cells null, other values as their text."""
+    return pa.array([v if isinstance(v, str) else None if v is None or v != v else str(v) for v in series.tolist()],
+                    type=pa.string())

@@ -70,7 +70,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.applicability", "ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.applicability", "ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting", "ionicity.scorer.systematic_name")
 # modules whose COLUMNS the record sets itself (not from a Decomposition); after the descriptors'
 RECORD_COLUMN_MODULES: tuple[str, ...] = ("ionicity.scorer.audit",)
 

@@ -21,6 +21,8 @@ from ionicity.scorer.ions import (
 )
 from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
+from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import finalise
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
@@ -211,6 +213,8 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     row = list(base)
     water = comp.hydrate_water
     row[position["formula_normalized"]] = formula + _water_suffix(water)
+    if water and row[position["systematic_name"]]:
+        row[position["systematic_name"]] += " " + hydrate_words(water)
     row[position["hydrate_water"]] = float(water)
     # per formula unit with its lattice water
     row[position["molar_mass_g_mol"]] = round(_unrounded_mass(comp.counts) + water * _unrounded_mass(_WATER), 4)
@@ -248,7 +252,9 @@ def _plain_row(text: str) -> tuple:
     try:
         comp = parse_formula(text)
     except FormulaError as exc:
-        return _error_row(str(exc))
+        comp = parse_as_name(text)  # a name typed in the formula column ("choline chloride")
+        if comp is None:
+            return _error_row(str(exc))
     return _parsed_row(comp)
 
 

@@ -99,6 +99,8 @@ TABLES: dict[str, TableSpec] = {
             ("couple", "ion_id", "role", "product", "partner_anion_id", "E0_V", "source"),
             "scorer.applicability",
         ),
+        TableSpec("name_words.csv", ("kind", "word", "value", "charge", "number", "source"), "scorer.name_vocabulary"),
+        TableSpec("trivial_names.csv", ("name", "formula", "source"), "scorer.name_reader"),
         TableSpec(
             "madelung_prototypes.csv",
             ("prototype", "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",

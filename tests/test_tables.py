@@ -36,6 +36,8 @@ ROWS = {
     "formation_enthalpies.csv": 11,
     "atomisation_enthalpies.csv": 7,
     "element_melting_points.csv": 79,
+    "name_words.csv": 241,
+    "trivial_names.csv": 108,
 }
 
 

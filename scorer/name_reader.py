@@ -1,0 +1,285 @@
+"""Read a compound's name and return the formula it means: :func:`read_name`.
+
+The name is cut into known words (:mod:`scorer.name_vocabulary`), then read
+by a small grammar of IUPAC compositional nomenclature (IUPAC Red Book 2005,
+IR-5) with the older names still on labels:
+
+* cations, then anions: ``sodium chloride``; several cations of a double
+  salt (``potassium aluminium sulfate``, ``ammonium iron(II) sulfate``);
+* oxidation numbers and charges: ``iron(III) chloride`` (Stock),
+  ``iron(3+)``, ``hexacyanidoferrate(3-)`` (Ewens-Bassett); classical
+  ``-ous``/``-ic`` names (``ferric``, ``cuprous``, ``mercurous`` = Hg2(2+));
+* multiplicative prefixes read literally (``dinitrogen pentoxide``,
+  ``disodium hydrogenphosphate``, ``calcium bis(dihydrogenphosphate)``);
+  without them the counts follow from charge balance;
+* acid salts: ``hydrogen``/``dihydrogen`` before an anion and the ``bi-``
+  of the trade (``sodium bicarbonate``, ``potassium bisulfate``);
+* every ion name of the ion library (oxoanions, thio-, peroxide, azide,
+  amide, ionic-liquid ions...), and coordination entities built from ligand
+  names and the central atom (``hexaamminecobalt(III)``,
+  ``tetrachloridoplatinate(II)``, ``tris(ethylenediamine)cobalt(III)``);
+* hydrate words (``hemihydrate``, ``pentahydrate``, ``sesquihydrate``,
+  ``5-hydrate``, ``anhydrous``) and the Red Book's ``—water (1/5)``;
+* acids by the classical names (``perchloric acid``, ``nitrous acid``,
+  ``hydrobromic acid``), and a table of trivial names with their sources
+  (``scorer/data/trivial_names.csv``: ``baking soda``, ``calomel``...).
+
+The result is formula text the scorer parses; :mod:`scorer.name_check`
+normalises it as every formula is normalised. :func:`read_name` never raises:
+a name it cannot read gives ``None``.
+
+>>> read_name("iron(III) sulfate")
+'Fe2(SO4)3'
+>>> read_name("Copper(II) sulphate pentahydrate")
+'CuSO4·5H2O'
+>>> read_name("mercurous chloride"), read_name("dinitrogen pentoxide")
+('Hg2Cl2', 'N2O5')
+>>> read_name("potassium hexacyanidoferrate(III)"), read_name("sodium bicarbonate")
+('K3[Fe(CN)6]', 'NaHCO3')
+>>> read_name("1-butyl-3-methylimidazolium tetrafluoroborate")
+'[C4mim][BF4]'
+>>> read_name("Epsom salt"), read_name("no such thing") is None
+('MgSO4·7H2O', True)
+"""
+from __future__ import annotations
+
+import re
+
+from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.name_grammar import NameReading, Part, Reader, count_text, formula_text, parts_text, usual_charge
+from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
+from ionicity.scorer.tables import table
+
+__all__ = ["read_name", "NameReading", "read_name_parts", "parse_as_name"]
+
+
+_HYDRATE_WATER = re.compile(r"\s*[\u2014\u2013\-]\s*water\s*\(\s*1\s*/\s*(\d+(?:\.\d+)?)\s*\)\s*$", re.I)
+_ACID = re.compile(r"^(?P<stem>.+?)(?P<end>ic|ous)acid$")
+
+
+@once
+def _trivial() -> dict[str, str]:
+    return {compact(row["name"]): row["formula"] for row in table("trivial_names.csv")}
+
+
+def read_name(name) -> str | None:
+    """The formula text ``name`` means, or ``None`` when it cannot be read.
+
+    Case-insensitive; extra spaces and hyphens do not matter (the reading is
+    cached per compact key, so ``SODIUM CHLORIDE`` costs a lookup once
+    ``sodium chloride`` was read). Never raises.
+    """
+    if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
+        return None
+    try:
+        return _read_text(name)
+    except Exception:  # a name must never stop a batch: what cannot be read is unread
+        return None
+
+
+def _read_text(name: str) -> str | None:
+    name = _CAS_QUALIFIERS.sub("", name)
+    name = _CAS_HYDRATE.sub(lambda m: f" {m.group(1)}-hydrate", name)
+    inverted = _CAS_SALT.match(name.strip())
+    if inverted:
+        return _inverted_salt(inverted)
+    stated = _stated_formula(name)
+    if stated is not None:
+        return stated
+    match = _HYDRATE_WATER.search(name)
+    if match:
+        # the Red Book's "copper(II) sulfate—water (1/5)"
+        salt = _read_key(compact(name[: match.start()]))
+        water = float(match.group(1))
+        return None if salt is None or "·" in salt else salt + "·" + ("" if water == 1 else f"{water:g}") + "H2O"
+    return _read_key(compact(name)) or _as_formula(name)
+
+
+# CAS index additions that say nothing about composition: editions "(8CI,9CI)",
+# stereo descriptors "(T-4)-", "(OC-6-11)-"
+_CAS_QUALIFIERS = re.compile(r",?\s*\((?:\d+CI,?\s*)+\)|,?\s*\((?:T|OC|SP|TB|SPY|TBPY)-[\d-]+\)-?")
+# "hydrate (1:6)": one formula unit to six water
+_CAS_HYDRATE = re.compile(r",?\s*hydrate\s*\(1:(\d+(?:\.\d+)?)\)", re.I)
+# a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate"
+_STATED = re.compile(r"(?<=\s)\(([A-Z][A-Za-z0-9().]*)\)")
+# the CAS index's inverted names: "nitric acid, manganese(2+) salt, tetrahydrate",
+# "sulfuric acid, europium(3+) salt (3:2)" (acid to metal)
+_CAS_SALT = re.compile(
+    r"^(?P<acid>[a-z ]+? acid)(?:\s*\([^)]*\))?,\s*(?P<metal>[^,]+?)\s+salt"
+    r"(?:\s*\((?P<a>\d+):(?P<b>\d+)\))?(?P<rest>.*)$", re.I)
+
+
+def _stated_formula(name: str) -> str | None:
+    """The formula a name states in brackets (a CAS index habit), with the
+    lattice water of the hydrate word after it; ``None`` if there is none.
+    Stock numerals (``(III)``) are not formulas."""
+    if not re.search(r"[a-z]{3}", _STATED.sub("", name)):
+        return None  # a formula, not a name that states one
+    for match in _STATED.finditer(name):
+        text = match.group(1)
+        if re.fullmatch(r"[IVX]+", text) or not (re.search(r"\d", text) or len(re.findall(r"[A-Z]", text)) > 1):
+            continue
+        try:
+            parse_formula(text)
+        except FormulaError:
+            continue
+        rest = compact(name[: match.start()] + " " + name[match.end():])
+        _, water = _split_hydrate_word(rest)
+        if water is None and rest.endswith("hydrate"):
+            return None  # a hydrate of unknown water
+        return text + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
+    return None
+
+
+def _inverted_salt(match) -> str | None:
+    """``selenious acid, cadmium salt (1:1)`` read as ``cadmium selenite``; a
+    stated acid-to-metal ratio must be that of the neutral salt."""
+    anion = _acid_anion(compact(match.group("acid")))
+    if anion is None:
+        return None
+    rest = match.group("rest").strip(" ,")
+    text = read_name(f"{match.group('metal')} {anion} {rest}")
+    if text is None or not match.group("a"):
+        return text
+    # "sulfuric acid, sodium salt (3:2)": three acid molecules to two metal ions; the
+    # acid hydrogen the metal does not replace stays (Na2H4(SO4)3)
+    reading = read_name_parts(compact(f"{match.group('metal')} {anion}"))
+    if reading is None or len(reading.cations) != 1 or len(reading.anions) != 1:
+        return None
+    cation, acid_anion = reading.cations[0], reading.anions[0]
+    charge = cation.charge or (usual_charge(cation.element) if cation.element else None)
+    if not charge or not acid_anion.charge:
+        return None
+    acids, metals = int(match.group("a")), int(match.group("b"))
+    hydrogen = acids * -acid_anion.charge - metals * charge
+    if hydrogen < 0:
+        return None
+    if hydrogen:
+        acid_anion = Part("H" + count_text(hydrogen / acids) + acid_anion.text, 0, polyatomic=True) \
+            if hydrogen % acids == 0 else acid_anion
+        if hydrogen % acids:
+            parts = [(cation, metals), (Part("H", 1, element="H"), hydrogen), (acid_anion, acids)]
+            return parts_text(parts, _split_hydrate_word(compact(rest))[1] or 0.0)
+    return parts_text([(cation, metals), (acid_anion, acids)], _split_hydrate_word(compact(rest))[1] or 0.0)
+
+
+def _as_formula(name: str) -> str | None:
+    """A formula typed where a name was expected (``K2S5``): read as itself."""
+    text = name.strip()
+    if " " in text or not re.search(r"\d|[A-Z].*[A-Z]", text):
+        return None
+    try:
+        parse_formula(text)
+    except FormulaError:
+        return None
+    return text
+
+
+@per_input(maxsize=32768)
+def _read_key(key: str) -> str | None:
+    try:
+        trivial = _trivial().get(key)
+        if trivial:
+            return trivial
+        salt, water = _split_hydrate_word(key)
+        if water is not None:
+            # the salt part alone: every hydrate of one salt shares its reading
+            anhydrous = _read_key(salt) if salt else None
+            if anhydrous is None or "·" in anhydrous:
+                return None
+            return anhydrous + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
+        reading = read_name_parts(key)
+        return None if reading is None else formula_text(reading)
+    except (ValueError, ZeroDivisionError, KeyError, OverflowError, IndexError):
+        return None
+
+
+_WORDLIKE = re.compile(r"[a-z]{3}|[A-Z]{4}")
+
+
+def parse_as_name(text: str):
+    """A formula cell that holds a name (``choline chloride``) parsed as the
+    formula the name means, with a note that becomes the row's warning; ``None``
+    when the text is not a name either.
+
+    >>> parse_as_name("sodium chloride").notes
+    ("the formula cell holds a name: 'sodium chloride' read as NaCl",)
+    """
+    if not isinstance(text, str) or not _WORDLIKE.search(text):
+        return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
+    formula = read_name(text)
+    if formula is None:
+        return None
+    try:
+        parsed = parse_formula(formula)
+    except FormulaError:
+        return None
+    note = f"the formula cell holds a name: {' '.join(text.split())!r} read as {formula}"
+    return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+_COUNT_BEFORE_HYDRATE = re.compile(r"(\d+(?:\.\d+)?)$")
+
+
+@once
+def _hydrate_prefixes() -> tuple[tuple[str, float], ...]:
+    """Multiplicative prefixes a hydrate word may start with, longest first
+    (``tetradeca`` before ``deca``); the ``bis``/``tris`` forms never do."""
+    rows = [(compact(r["word"]), float(r["number"])) for r in table("name_words.csv")
+            if r["kind"] == "multiplier" and not r["word"].endswith(("is", "kis"))]
+    return tuple(sorted(rows, key=lambda item: -len(item[0])))
+
+
+def _split_hydrate_word(key: str) -> tuple[str, float | None]:
+    """A compact key ``copper(ii)sulfatepentahydrate`` -> (``copper(ii)sulfate``,
+    5.0); (key, None) when it does not end in a hydrate word of known count."""
+    if key.endswith("anhydrous"):
+        return key[: -len("anhydrous")], 0.0
+    if not key.endswith("hydrate"):
+        return key, None
+    body = key[: -len("hydrate")]
+    number = _COUNT_BEFORE_HYDRATE.search(body)
+    if number:
+        return body[: number.start()], float(number.group(1))
+    for prefix, value in _hydrate_prefixes():
+        if body.endswith(prefix):
+            return body[: -len(prefix)], value
+    return key, None
+
+
+def read_name_parts(name: str) -> NameReading | None:
+    """The cations, anions and water a name states, or ``None``."""
+    text = compact(name)
+    anion_text = _acid_anion(text)
+    words = tokenise(anion_text or text)
+    if not words:
+        return None
+    reading = Reader(list(words)).read()
+    if reading is None:
+        return None
+    if anion_text is not None:
+        if reading.cations or len(reading.anions) != 1:
+            return None
+        reading.cations.append(Part("H", 1, element="H"))
+    elif not reading.cations and len(reading.anions) == 1 and text.startswith("hydrogen"):
+        # "hydrogen peroxide", "hydrogen sulfide": an anion name read with its hydrogen is the neutral acid
+        reading.cations.append(Part("H", 1, element="H"))
+    return reading
+
+
+def _acid_anion(text: str) -> str | None:
+    """The anion of a classical acid name: ``perchloric acid`` ->
+    ``perchlorate``, ``nitrous acid`` -> ``nitrite``, ``hydrobromic acid`` ->
+    ``bromide`` (Red Book 2005, IR-8.3); ``None`` for other names."""
+    match = _ACID.match(text)
+    if not match:
+        return None
+    stem, end = match.group("stem"), match.group("end")
+    if end == "ic" and stem.startswith("hydro") and len(stem) > 5:
+        return stem[5:] + "ide"
+    if stem.endswith(("sulfur", "sulphur", "phosphor")):
+        stem = stem[:-2]
+    elif end == "ous" and stem.endswith("i"):
+        stem = stem[:-1]  # selenious -> selenite
+    return stem + ("ite" if end == "ous" else "ate")
