@@ -92,22 +92,25 @@ def score_file_local(config: ScoreConfig, tally=None) -> Summary:
     notes: list[str] = []
     while True:
         try:
-            summary = _score_once(config, text_columns)
+            summary = _score_once(config, text_columns, tally)
         except TypeFallback as fallback:
             text_columns.add(fallback.column)
             notes.append(fallback.note)
+            if tally is not None:  # the run starts again: so do its counts
+                tally.__init__(tally.formula_col, tally.prefix, tally.name_col, tally.id_col, tally.examples)
             continue
         summary.notes = notes + summary.notes
         summary.seconds = time.perf_counter() - started
         return summary
 
 
-def _score_once(config: ScoreConfig, text_columns: set) -> Summary:
+def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
     model = load_model_applier(config)
     reader, formula_col, _ = prepare(config)
     typer = input_typer(config, reader, formula_col, text_columns)
     chosen = chosen_columns(config.columns, config.mp_model is not None)
-    schema = output_schema(typer.schema, config.prefix, with_model=config.mp_model is not None, chosen=chosen)
+    schema = output_schema(typer.schema, config.prefix, with_model=config.mp_model is not None, chosen=chosen,
+                           with_names=config.name_col is not None)
     if config.output != "-" and format_of(config.output) == "xlsx" and (reader.total_rows or 0) >= MAX_XLSX_ROWS:
         raise InputError(f"an .xlsx sheet holds at most {MAX_XLSX_ROWS:,} rows including the header, and"
                          f" {config.input!r} has {reader.total_rows:,}; write .csv or .parquet instead")

@@ -58,6 +58,8 @@ def test_summary_json(tmp_path, capsys):
     assert report["duplicates"]["rows_repeating_a_compound"] == 1
     assert report["needs_attention"]["error"][0] == {
         "row": 4, "formula": "Xx", "name": "mystery", "message": "unknown element 'Xx' at position 1 of 'Xx' (row named 'mystery')",
+        # with --name-col the name is read against the formula too (scorer.name_check)
+        "name_check": "name_unread",
     }
     assert report["needs_attention"]["duplicate"][0]["first_row_same_compound"] == 2
     # an existing summary is not replaced without --overwrite: exit 2, one line
