@@ -20,6 +20,7 @@ from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.explain import columns_table, explain_formula
 from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
+from ionicity.pipelines.report_cli import add_report_option, add_report_parser, check_report_option, report_after_score, run_report
 from ionicity.pipelines.pool import default_workers, discard_prestarted, leave_process, prestart
 
 EXIT_OK = 0
@@ -81,6 +82,7 @@ def build_parser() -> argparse.ArgumentParser:
     score.add_argument("--mp-model", metavar="PATH",
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
+    add_report_option(score)
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -92,6 +94,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     add_fit_melting_parser(sub)
+    add_report_parser(sub)
     return parser
 
 
@@ -121,6 +124,7 @@ def _run_score(args) -> int:
     # the engine and pyarrow cost about 0.17 s (python -X importtime): the prestart must not wait for them
     from ionicity.pipelines.run import score_file
 
+    check_report_option(args)
     if args.engine == "local":
         _choose_memory_pool()
     config = ScoreConfig(
@@ -143,6 +147,7 @@ def _run_score(args) -> int:
         print(CAUTION, file=sys.stderr)
     if not args.quiet:
         print(summary, file=sys.stderr)
+    report_after_score(args, summary)
     if args.strict and summary.error:
         return EXIT_STRICT_ERRORS
     return EXIT_OK
@@ -221,6 +226,8 @@ def _dispatch(args) -> int:
     try:
         if args.command == "score":
             return _run_score(args)
+        if args.command == "report":
+            return run_report(args)
         if args.command == "explain":
             return _run_explain(args)
         if args.command == "fit-melting":
