@@ -75,8 +75,10 @@ class Bins:
     def index(self, values: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Bin numbers of the finite values inside the range, and that mask."""
         inside = np.isfinite(values) & (values >= self.lo) & (values < self.hi)
-        idx = ((values[inside] - self.lo) * (self.n / (self.hi - self.lo))).astype(np.int64)
-        return np.minimum(idx, self.n - 1), inside
+        # searchsorted on the edges, not (v - lo) / width: Pauling values such as 1.65 sit on the edges, and
+        # the division would put some in the bin below (numpy.histogram's convention is kept)
+        idx = np.searchsorted(self.edges(), values[inside], side="right") - 1
+        return np.clip(idx, 0, self.n - 1), inside
 
 
 # Bins of the figures. Electronegativities on the Pauling scale run from 0.79 (Cs) to 3.98 (F).
@@ -422,7 +424,8 @@ class _Aggregator:
         keys = self.rng.random(n)
         cc, cv = class_codes
         classes = np.array([cv[i] if i >= 0 else "" for i in range(-1, len(cv))], dtype=object)[cc + 1]
-        new = {"x": x, "y": y, "trend": trend, "lattice": lattice, "substance_class": classes}
+        new = {"x": x, "y": y, "trend": trend, "lattice": lattice, "substance_class": classes,
+               "row": np.arange(start + 1, start + n + 1)}
         if self.d.sample:
             keys = np.concatenate([self.keys, keys])
             new = {k: np.concatenate([self.d.sample[k], v]) for k, v in new.items()}

@@ -142,8 +142,7 @@ def bond_map(data: ReportData) -> str:
         code[i, j] = regions.index(van_arkel_ketelaar_bond_type(X[i, j], Y[i, j]))
     from matplotlib.colors import ListedColormap
 
-    tints = ListedColormap([_REGION_TINTS[r] for r in regions])
-    tints.set_bad((1, 1, 1, 0))
+    tints = ListedColormap([_REGION_TINTS[r] for r in regions]).with_extremes(bad=(1, 1, 1, 0))
     # an image, not a mesh: 44,000 vector cells would make the page megabytes long
     ax.imshow(np.ma.masked_invalid(code), cmap=tints, vmin=-0.5, vmax=len(regions) - 0.5, origin="lower",
               extent=(gx[0], gx[-1], gy[0], gy[-1]), aspect="auto", interpolation="nearest", zorder=0)

@@ -103,8 +103,8 @@ def _figure(svg: str, caption: str) -> str:
 
 
 def _where(data: ReportData, condition: str) -> str:
-    return (f"The full list: every row of <code>{_e(data.source)}</code> where {condition} (filter that column in a"
-            " spreadsheet, or in pandas)." )
+    return (f"<p>The full list: every row of <code>{_e(data.source)}</code> where {condition} (filter that column in a"
+            " spreadsheet, or in pandas).</p>")
 
 
 def _first_rows_table(data: ReportData, kind: str, detail: str, extra: str | None = None) -> str:
@@ -220,7 +220,7 @@ def _melting(data: ReportData, figs: dict) -> str:
         if len(low) > 60:
             out.append(f"<p>The first 60 of {len(low):,} listed.</p>")
         out.append(_where(data, "<code>melting_class</code> is " + " or ".join(f"<code>{_e(c)}</code>" for c in below)))
-    out.append("<h3>Melting classes</h3>" + _bands_table())
+    out.append('<h3 id="melting-figures">Melting classes</h3>' + _bands_table())
     out.append(_figure(figs["melting"], "Method: <code>mp_trend_index</code> is the melting trend index of"
                        " <code>scorer.melting</code> (log10 of a trend temperature in K, built from lattice energy,"
                        " ion count and the flexibility of organic ions); <code>melting_class</code> cuts it at the"
