@@ -8,8 +8,10 @@ report is written.
 from __future__ import annotations
 
 import argparse
-import importlib.util
 import sys
+
+from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.report_extra import INSTALL_HINT, matplotlib_missing
 
 __all__ = ["add_report_parser", "add_report_option", "check_report_option", "run_report", "report_after_score"]
 
@@ -50,15 +52,11 @@ def run_report(args) -> int:
 
 def check_report_option(args) -> None:
     """Refuse ``--report`` before scoring when it cannot be honoured."""
-    from ionicity.pipelines.errors import InputError
-
     if getattr(args, "report", None) and args.output == "-":
         raise InputError("--report needs the scored table in a file: give -o OUTPUT as well")
     if getattr(args, "report", None) and not args.report.lower().endswith((".html", ".htm")):
         raise InputError(f"--report {args.report!r} must end in .html or .htm")
-    if getattr(args, "report", None) and importlib.util.find_spec("matplotlib") is None:
-        from ionicity.pipelines.report_figures import INSTALL_HINT
-
+    if getattr(args, "report", None) and matplotlib_missing():
         raise InputError(f"--report draws its figures with matplotlib, which is not installed: {INSTALL_HINT}")
 
 

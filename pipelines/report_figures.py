@@ -18,15 +18,13 @@ import re
 
 import numpy as np
 
-from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.report_extra import require_matplotlib
 from ionicity.pipelines.report import (
     CHI_DELTA_BINS, CHI_MEAN_BINS, LATTICE_LOG_BINS, LIQUIDUS_BINS, TREND_BINS, ReportData, melting_bands,
 )
 from ionicity.scorer.character import van_arkel_ketelaar_bond_type
 
-__all__ = ["PALETTE", "MARKERS", "CLASS_GROUPS", "group_of", "require_matplotlib", "figures", "INSTALL_HINT"]
-
-INSTALL_HINT = 'pip install -e ".[report]" in a clone of ionicity (or: pip install "matplotlib>=3.7")'
+__all__ = ["PALETTE", "MARKERS", "CLASS_GROUPS", "group_of", "figures"]
 
 #: substance-class group -> colour (chosen for this page; see the module docstring for the check)
 PALETTE = {
@@ -77,19 +75,18 @@ def group_of(substance_class) -> str:
     return CLASS_GROUPS.get(substance_class, "other")
 
 
-def require_matplotlib():
-    """matplotlib, or an :class:`InputError` (exit 2) saying how to install it."""
-    try:
-        import matplotlib  # optional extra "report" (and "melting"); about 0.1 s, only when a report is drawn
-    except ImportError:
-        raise InputError(f"the report draws its figures with matplotlib, which is not installed: {INSTALL_HINT}") from None
-    return matplotlib
-
-
-def _figure(width=7.2, height=4.6):
+def _mpl():
+    """The matplotlib pieces the figures use. matplotlib is the optional report extra: imported only when a
+    figure is drawn (about 0.3 s, python -X importtime), after :func:`require_matplotlib` has checked it."""
+    from matplotlib import colors, ticker
     from matplotlib.backends.backend_svg import FigureCanvasSVG
     from matplotlib.figure import Figure
 
+    return colors, ticker, FigureCanvasSVG, Figure
+
+
+def _figure(width=7.2, height=4.6):
+    _, _, FigureCanvasSVG, Figure = _mpl()
     fig = Figure(figsize=(width, height))
     FigureCanvasSVG(fig)
     return fig
@@ -105,9 +102,7 @@ def _svg(fig) -> str:
 
 
 def _ramp():
-    from matplotlib.colors import LinearSegmentedColormap
-
-    return LinearSegmentedColormap.from_list("ionicity_density", _RAMP)
+    return _mpl()[0].LinearSegmentedColormap.from_list("ionicity_density", _RAMP)
 
 
 def _sample_note(data: ReportData, shown: int) -> str:
@@ -144,9 +139,7 @@ def bond_map(data: ReportData) -> str:
     code = np.full(X.shape, np.nan)
     for i, j in zip(*np.nonzero(inside)):
         code[i, j] = regions.index(van_arkel_ketelaar_bond_type(X[i, j], Y[i, j]))
-    from matplotlib.colors import ListedColormap
-
-    tints = ListedColormap([_REGION_TINTS[r] for r in regions]).with_extremes(bad=(1, 1, 1, 0))
+    tints = _mpl()[0].ListedColormap([_REGION_TINTS[r] for r in regions]).with_extremes(bad=(1, 1, 1, 0))
     # an image, not a mesh: 44,000 vector cells would make the page megabytes long
     ax.imshow(np.ma.masked_invalid(code), cmap=tints, vmin=-0.5, vmax=len(regions) - 0.5, origin="lower",
               extent=(gx[0], gx[-1], gy[0], gy[-1]), aspect="auto", interpolation="nearest", zorder=0)
@@ -159,10 +152,8 @@ def bond_map(data: ReportData) -> str:
     s = data.sample
     shown = int(np.sum(np.isfinite(s.get("x", np.empty(0))) & np.isfinite(s.get("y", np.empty(0)))))
     if data.rows > len(s.get("x", ())) and data.bond_map.sum():
-        from matplotlib.colors import LogNorm
-
         hist = np.where(data.bond_map > 0, data.bond_map, np.nan).T
-        mesh = ax.imshow(hist, cmap=_ramp(), norm=LogNorm(), alpha=0.75, zorder=2, origin="lower", aspect="auto",
+        mesh = ax.imshow(hist, cmap=_ramp(), norm=_mpl()[0].LogNorm(), alpha=0.75, zorder=2, origin="lower", aspect="auto",
                          extent=(CHI_MEAN_BINS.lo, CHI_MEAN_BINS.hi, CHI_DELTA_BINS.lo, CHI_DELTA_BINS.hi),
                          interpolation="nearest")
         # inside the empty top-right corner of the triangle, clear of the legend beside the axes
@@ -225,11 +216,9 @@ def lattice_vs_trend(data: ReportData) -> str:
     s = data.sample
     finite = np.isfinite(s.get("trend", np.empty(0))) & (s.get("lattice", np.empty(0)) > 0) if s else np.empty(0, bool)
     if data.rows > len(s.get("trend", ())) and data.lattice_trend.sum():
-        from matplotlib.colors import LogNorm
-
         hist = np.where(data.lattice_trend > 0, data.lattice_trend, np.nan).T
         # a mesh (not an image) because the y axis is logarithmic; 100 x 60 cells
-        mesh = ax.pcolormesh(TREND_BINS.edges(), 10 ** LATTICE_LOG_BINS.edges(), hist, cmap=_ramp(), norm=LogNorm(),
+        mesh = ax.pcolormesh(TREND_BINS.edges(), 10 ** LATTICE_LOG_BINS.edges(), hist, cmap=_ramp(), norm=_mpl()[0].LogNorm(),
                              alpha=0.8, zorder=1, rasterized=True)
         bar = fig.colorbar(mesh, cax=ax.inset_axes([0.9, 0.06, 0.025, 0.4]), format="{x:,.0f}")
         bar.minorticks_off()
@@ -240,12 +229,11 @@ def lattice_vs_trend(data: ReportData) -> str:
     ax.set_yscale("log")
     ax.set_xlim(TREND_BINS.lo, TREND_BINS.hi)
     ax.set_ylim(10 ** LATTICE_LOG_BINS.lo, 10 ** LATTICE_LOG_BINS.hi)
-    from matplotlib.ticker import FixedLocator, NullLocator
-
+    ticker = _mpl()[1]
     # plain numbers, not 10^n: the exponent labels go through mathtext, a third of the drawing time (cProfile)
     ticks = [100, 300, 1000, 3000, 10000, 30000, 100000]
-    ax.yaxis.set_major_locator(FixedLocator(ticks))
-    ax.yaxis.set_minor_locator(NullLocator())
+    ax.yaxis.set_major_locator(ticker.FixedLocator(ticks))
+    ax.yaxis.set_minor_locator(ticker.NullLocator())
     ax.set_yticks(ticks, [f"{t:,}" for t in ticks])
     ax.set_xlabel("mp_trend_index (dimensionless: log10 of the trend temperature in K)")
     ax.set_ylabel("lattice energy, volume-based (kJ/mol, log scale)")

@@ -15,7 +15,8 @@ from datetime import datetime, timezone
 
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.output_paths import check_output_path
-from ionicity.pipelines.report_figures import figures, require_matplotlib
+from ionicity.pipelines.report_extra import require_matplotlib
+from ionicity.pipelines.report_figures import figures
 from ionicity.pipelines.report import (
     HUNDRED_C_K, ReportData, aggregate, classes_melting_below, melting_bands,
 )
