@@ -33,14 +33,10 @@ __all__ = ["main"]
 
 _READ_CODE = """
 import sys, time
-from ionicity.pipelines.report import _batches, _schema_names, used_columns, _NUMERIC, format_of
-path = sys.argv[1]
-names = _schema_names(path, "parquet")
-cols = used_columns(names)
-read = list(dict.fromkeys([*cols.values(), "sample_id"]))
-text = {c for c in read if c not in {cols.get(r) for r in _NUMERIC}}
+from ionicity.pipelines.report import _batches, plan
 t = time.perf_counter()
-rows = sum(b.num_rows for b in _batches(path, "parquet", read, 65536, text))
+data, read, text = plan(sys.argv[1])
+rows = sum(b.num_rows for b in _batches(sys.argv[1], data.fmt, read, 65536, text))
 print(time.perf_counter() - t, rows)
 """
 

@@ -39,7 +39,7 @@ from ionicity.scorer.verdict import STATUSES
 
 __all__ = [
     "SAMPLE_ROWS", "FIRST_ROWS", "ROLES", "OPTIONAL_ROLES", "Bins", "ReportData",
-    "melting_bands", "classes_melting_below", "aggregate", "reason_of", "used_columns",
+    "melting_bands", "classes_melting_below", "plan", "aggregate", "reason_of", "used_columns",
 ]
 
 #: rows kept for the scatter plots (a uniform random sample when the table is larger)
@@ -468,15 +468,11 @@ class _Aggregator:
         self.keys, self.d.sample = keys, new
 
 
-def aggregate(path: str, *, id_col: str | None = None, name_col: str | None = None, prefix: str | None = None,
-              batch_rows: int = 65536, sample_rows: int = SAMPLE_ROWS, seed: int = 18) -> ReportData:
-    """Read a scored table (CSV, TSV, Parquet or Parquet parts) once, in
-    batches of the columns used, into a :class:`ReportData`.
-
-    Raises :class:`InputError` when the file cannot be read or is not a
-    table written by ``ionicity score`` (its status column is missing).
-    """
-    began = time.perf_counter()
+def plan(path: str, *, id_col: str | None = None, name_col: str | None = None,
+         prefix: str | None = None) -> tuple[ReportData, list[str], set[str]]:
+    """An empty :class:`ReportData` for ``path`` (columns found, metadata),
+    the columns to read and which of them are text; raises :class:`InputError`
+    when the file is not a table written by ``ionicity score``."""
     fmt = format_of(path)
     names = _schema_names(path, fmt)
     meta = _metadata(path, fmt)
@@ -497,10 +493,23 @@ def aggregate(path: str, *, id_col: str | None = None, name_col: str | None = No
     data.file_modified = max(os.path.getmtime(p) for p in files)
     read = list(dict.fromkeys([*columns.values(), *(c for c in (id_col, name_col, formula_col) if c)]))
     text = {c for c in read if c not in {columns.get(r) for r in _NUMERIC}}
+    return data, read, text
+
+
+def aggregate(path: str, *, id_col: str | None = None, name_col: str | None = None, prefix: str | None = None,
+              batch_rows: int = 65536, sample_rows: int = SAMPLE_ROWS, seed: int = 18) -> ReportData:
+    """Read a scored table (CSV, TSV, Parquet or Parquet parts) once, in
+    batches of the columns used (:func:`plan`), into a :class:`ReportData`.
+
+    Raises :class:`InputError` when the file cannot be read or is not a
+    table written by ``ionicity score`` (its status column is missing).
+    """
+    began = time.perf_counter()
+    data, read, text = plan(path, id_col=id_col, name_col=name_col, prefix=prefix)
     agg = _Aggregator(data, sample_rows, seed)
     start = 0
     try:
-        for batch in _batches(path, fmt, read, batch_rows, text):
+        for batch in _batches(path, data.fmt, read, batch_rows, text):
             agg.add(batch, start)
             start += batch.num_rows
     except (pa.ArrowInvalid, OSError, UnicodeDecodeError) as exc:

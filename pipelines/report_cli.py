@@ -8,6 +8,7 @@ report is written.
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 
 from ionicity.pipelines.errors import InputError
@@ -56,6 +57,8 @@ def check_report_option(args) -> None:
         raise InputError("--report needs the scored table in a file: give -o OUTPUT as well")
     if getattr(args, "report", None) and not args.report.lower().endswith((".html", ".htm")):
         raise InputError(f"--report {args.report!r} must end in .html or .htm")
+    if getattr(args, "report", None) and os.path.lexists(args.report) and not args.overwrite:
+        raise InputError(f"--report {args.report!r} exists; pass --overwrite to replace it")
     if getattr(args, "report", None) and matplotlib_missing():
         raise InputError(f"--report draws its figures with matplotlib, which is not installed: {INSTALL_HINT}")
 

@@ -168,7 +168,8 @@ def bond_map(data: ReportData) -> str:
     ax.set_xlabel("mean electronegativity of the contact pair, mean_chi_pauling (Pauling units)")
     ax.set_ylabel("electronegativity difference, delta_chi_pauling (Pauling units)")
     ax.set_title("Bond-type map (van Arkel-Ketelaar triangle)")
-    ax.legend(fontsize=7, loc="upper left", bbox_to_anchor=(1.01, 1.0), title="substance class", title_fontsize=7)
+    if ax.get_legend_handles_labels()[0]:  # a table whose every row failed has nothing to place
+        ax.legend(fontsize=7, loc="upper left", bbox_to_anchor=(1.01, 1.0), title="substance class", title_fontsize=7)
     ax.text(0.0, -0.13, _sample_note(data, shown), transform=ax.transAxes, ha="left", va="top", fontsize=7)
     return _svg(fig)
 
@@ -205,7 +206,8 @@ def melting_distribution(data: ReportData) -> str:
     celsius = [c for c in (-200, -100, 0, 100, 300, 1000, 3000, 9000) if TREND_BINS.lo <= np.log10(c + 273.15) <= TREND_BINS.hi]
     top.set_xticks(celsius, [f"{c:,}" for c in celsius])
     top.set_xlabel("trend temperature (C)", fontsize=8)
-    ax.legend(fontsize=7, loc="upper left")
+    if ax.get_legend_handles_labels()[0]:
+        ax.legend(fontsize=7, loc="upper left")
     return _svg(fig)
 
 

@@ -244,3 +244,21 @@ def test_palette_stays_distinct_under_simulated_colour_vision_deficiency():
     for cvd, floor in ((None, 20.0), ("protanomaly", 10.0), ("deuteranomaly", 10.0), ("tritanomaly", 10.0)):
         worst = min(distance(PALETTE[a], PALETTE[b], cvd) for a, b in itertools.combinations(PALETTE, 2))
         assert worst >= floor, (cvd, worst)
+
+
+def test_melting_bands_follow_the_scorer_once_it_exports_them(monkeypatch):
+    from ionicity.scorer import melting
+
+    bands = (("ionic_liquid", 0.0, 373.15, "below 100 C"), ("warm_salt", 373.15, 400.0, "invented for this test"),
+             ("hot_salt", 400.0, float("inf"), "invented for this test"))
+    monkeypatch.setattr(melting, "MELTING_CLASS_BANDS", bands, raising=False)
+    assert melting_bands() == bands
+    assert classes_melting_below(400.0) == ("ionic_liquid", "warm_salt")
+
+
+def test_score_refuses_an_existing_report_before_scoring(tmp_path):
+    page = tmp_path / "page.html"
+    page.write_text("kept", encoding="utf-8")
+    done = _cli("score", str(DEMO), "-o", str(tmp_path / "o.parquet"), "--report", str(page))
+    assert done.returncode == 2 and "exists" in done.stderr
+    assert not (tmp_path / "o.parquet").exists() and page.read_text(encoding="utf-8") == "kept"
