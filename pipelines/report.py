@@ -283,19 +283,23 @@ def _floats(arr: pa.Array) -> np.ndarray:
     return values if valid is None else np.where(valid, values, np.nan)
 
 
-def _codes(arr: pa.Array) -> tuple[np.ndarray, list]:
-    """Integer codes (-1 for null or empty) and the values they stand for."""
+def _codes(arr: pa.Array, values: bool = True) -> tuple[np.ndarray, list | None]:
+    """Integer codes (-1 for null or empty) and the values they stand for
+    (``values=False``: codes only, for a column of many distinct texts)."""
     if not pa.types.is_dictionary(arr.type):
         arr = pc.dictionary_encode(arr)
-    values = arr.dictionary.to_pylist()
     codes = int_numpy(arr.indices).astype(np.int64)
     valid = _valid(arr.indices)
     if valid is not None:
         codes[~valid] = -1
-    empty = [i for i, v in enumerate(values) if v in ("", None)]
-    if empty:
-        codes[np.isin(codes, empty)] = -1
-    return codes, values
+    lengths = pc.utf8_length(arr.dictionary)
+    empty = int_numpy(lengths) == 0
+    valid = _valid(lengths)
+    if valid is not None:
+        empty |= ~valid
+    if empty.any():
+        codes[empty[np.maximum(codes, 0)] & (codes >= 0)] = -1
+    return codes, (arr.dictionary.to_pylist() if values else None)
 
 
 def _count_into(counter: Counter, codes: np.ndarray, values: list, mask: np.ndarray | None = None) -> None:
@@ -358,15 +362,18 @@ class _Aggregator:
                 if role in d.counts:
                     _count_into(d.counts[role], *codes[role])
         status_codes, status_values = codes["status"]
+        message = None
         for status in ("error", "warning"):
             if status not in status_values:
                 continue
             mask = status_codes == status_values.index(status)
             if mask.any():
-                mcodes, mvalues = _codes(col["message"])
-                counts = np.bincount(mcodes[mask & (mcodes >= 0)], minlength=len(mvalues))
+                if message is None:  # codes once per batch; the texts only of the messages counted
+                    message = col["message"] if pa.types.is_dictionary(col["message"].type) else pc.dictionary_encode(col["message"])
+                    mcodes, _ = _codes(message, values=False)
+                counts = np.bincount(mcodes[mask & (mcodes >= 0)], minlength=len(message.dictionary))
                 for i in np.flatnonzero(counts):
-                    _add_capped(d.reasons[status], reason_of(mvalues[i]), int(counts[i]))
+                    _add_capped(d.reasons[status], reason_of(message.dictionary[int(i)].as_py()), int(counts[i]))
                 self._first(status, batch, start, mask, "message")
         if "formula_suggested" in col:
             sc, sv = _codes(col["formula_suggested"])
@@ -383,18 +390,42 @@ class _Aggregator:
                 mask &= _codes(dup)[0] >= 0
             self._first("duplicate", batch, start, mask, "first_row_same_compound")
         self._hsab(codes)
-        x = _floats(col["mean_chi_pauling"])
-        y = _floats(col["delta_chi_pauling"])
-        self._bond_map(x, y)
-        trend = _floats(col["mp_trend_index"])
-        lattice = _floats(col["lattice_energy_vbt_kJ_mol"])
-        self._melting(trend, lattice, codes["melting_class"], batch, start)
+        # the numeric columns are binned once per distinct formula text of the batch, weighted by its rows:
+        # the scorer scores each distinct text once, so its rows carry the same values (DEVELOPERS.md)
+        rep, pos, weight = self._representatives(batch)
+        x = _floats(col["mean_chi_pauling"].take(int_array(rep)))
+        y = _floats(col["delta_chi_pauling"].take(int_array(rep)))
+        self._bond_map(x, y, weight)
+        trend = _floats(col["mp_trend_index"].take(int_array(rep)))
+        lattice = _floats(col["lattice_energy_vbt_kJ_mol"].take(int_array(rep)))
+        self._melting(trend, lattice, weight, rep, codes["melting_class"], batch, start)
         if "liquidus_estimate_K" in col:
             liq = _floats(col["liquidus_estimate_K"])
             idx, _ = LIQUIDUS_BINS.index(liq)
             d.liquidus += np.bincount(idx, minlength=LIQUIDUS_BINS.n)
             self._first("mixture", batch, start, np.isfinite(liq), "liquidus_estimate_K", "mixture_components")
-        self._sample(n, start, x, y, trend, lattice, codes["substance_class"])
+        self._sample(n, start, x[pos], y[pos], trend[pos], lattice[pos], codes["substance_class"])
+
+    def _representatives(self, batch: pa.RecordBatch) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """One row of each distinct formula text in the batch, each row's
+        position among them, and each one's number of rows. Without a
+        formula column every row stands for itself."""
+        n = batch.num_rows
+        if self.d.formula_col is None:
+            every = np.arange(n)
+            return every, every, np.ones(n, np.int64)
+        fc, _ = _codes(batch.column(self.d.formula_col), values=False)
+        k = int(fc.max()) + 2 if n else 1
+        fc = np.where(fc < 0, k - 1, fc)  # empty and null cells: one group of their own
+        weight = np.bincount(fc, minlength=k)
+        present = np.flatnonzero(weight)
+        # any row of a formula stands for it (all carry the same values), so the row written last by this
+        # fancy assignment will do: no sort needed
+        any_row = np.zeros(k, np.int64)
+        any_row[fc] = np.arange(n)
+        slot = np.zeros(k, np.int64)
+        slot[present] = np.arange(len(present))
+        return any_row[present], slot[fc], weight[present]
 
     def _hsab(self, codes) -> None:
         if "cation_hsab_class" not in codes or "anion_hsab_class" not in codes:
@@ -405,18 +436,22 @@ class _Aggregator:
         for k in np.flatnonzero(pair):
             self.d.hsab_pairs[(av[k // len(bv)], bv[k % len(bv)])] += int(pair[k])
 
-    def _bond_map(self, x, y) -> None:
+    def _bond_map(self, x, y, weight) -> None:
         both = CHI_MEAN_BINS.index(x)[1] & CHI_DELTA_BINS.index(y)[1]
         flat = CHI_MEAN_BINS.index(x[both])[0] * CHI_DELTA_BINS.n + CHI_DELTA_BINS.index(y[both])[0]
-        self.d.bond_map += np.bincount(flat, minlength=CHI_MEAN_BINS.n * CHI_DELTA_BINS.n).reshape(self.d.bond_map.shape)
+        counts = np.bincount(flat, weights=weight[both], minlength=CHI_MEAN_BINS.n * CHI_DELTA_BINS.n)
+        self.d.bond_map += counts.astype(np.int64).reshape(self.d.bond_map.shape)
 
-    def _melting(self, trend, lattice, melting_codes, batch, start) -> None:
+    def _melting(self, trend, lattice, weight, rep, melting_codes, batch, start) -> None:
+        """Histograms from the batch's representative rows (``trend``, ``lattice``, ``weight`` and the
+        melting class at ``rep``); the compounds below 100 C from every row."""
         d = self.d
         mc, mv = melting_codes
         idx, inside = TREND_BINS.index(trend)
-        classes = mc[inside]
-        by_class = np.bincount((classes * TREND_BINS.n + idx)[classes >= 0],
-                               minlength=len(mv) * TREND_BINS.n).reshape(len(mv), TREND_BINS.n)
+        classes = mc[rep][inside]
+        keep = classes >= 0
+        by_class = np.bincount((classes * TREND_BINS.n + idx)[keep], weights=weight[inside][keep],
+                               minlength=len(mv) * TREND_BINS.n).astype(np.int64).reshape(len(mv), TREND_BINS.n)
         for i, name in enumerate(mv):
             if name not in (None, "") and by_class[i].any():
                 d.trend_by_class.setdefault(name, np.zeros(TREND_BINS.n, np.int64))
@@ -427,7 +462,9 @@ class _Aggregator:
         t, inside_t = TREND_BINS.index(trend[both])
         l, inside_l = LATTICE_LOG_BINS.index(loglat[both][inside_t])
         flat = t[inside_l] * LATTICE_LOG_BINS.n + l
-        d.lattice_trend += np.bincount(flat, minlength=TREND_BINS.n * LATTICE_LOG_BINS.n).reshape(d.lattice_trend.shape)
+        w = weight[both][inside_t][inside_l]
+        d.lattice_trend += np.bincount(flat, weights=w, minlength=TREND_BINS.n * LATTICE_LOG_BINS.n).astype(
+            np.int64).reshape(d.lattice_trend.shape)
         low = [i for i, v in enumerate(mv) if v in self.below]
         if not low:
             return
