@@ -277,11 +277,13 @@ def liquidus(data: ReportData) -> str:
     edges = LIQUIDUS_BINS.edges()
     ax.bar(edges[:-1], data.liquidus, width=np.diff(edges), align="edge", color=PALETTE["ionic salt"],
            edgecolor="white", linewidth=0.3)
-    ax.axvline(373.15, color="#4d4d4d", ls="--", lw=0.8)
-    ax.text(373.15, 1.0, " 100 C", transform=ax.get_xaxis_transform(), fontsize=7, va="top")
     nonzero = np.flatnonzero(data.liquidus)
     if len(nonzero):
         ax.set_xlim(edges[max(nonzero[0] - 2, 0)], edges[min(nonzero[-1] + 3, len(edges) - 1)])
+    lo, hi = ax.get_xlim()
+    if lo < 373.15 < hi:  # a label outside the axes would stretch the tight bounding box
+        ax.axvline(373.15, color="#4d4d4d", ls="--", lw=0.8)
+        ax.text(373.15, 1.0, " 100 C", transform=ax.get_xaxis_transform(), fontsize=7, va="top")
     ax.set_xlabel("liquidus_estimate_K (K)")
     ax.set_ylabel("rows")
     ax.set_title("Liquidus estimates of the mixtures (binned by 25 K)")
