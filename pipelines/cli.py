@@ -22,6 +22,7 @@ from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.explain import columns_table, explain_formula
 from ionicity.pipelines.table_options import add_table_options, table_options
 from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
+from ionicity.pipelines.report_cli import add_report_option, add_report_parser, check_report_option, report_after_score, run_report
 from ionicity.pipelines.pool import default_workers, discard_prestarted, leave_process, prestart
 
 EXIT_OK = 0
@@ -89,6 +90,7 @@ def build_parser() -> argparse.ArgumentParser:
     add_table_options(score)
     score.add_argument("--summary", metavar="FILE.json",
                        help="also write the audit summary (counts by status, class, slip, duplicates; rows to check) as JSON")
+    add_report_option(score)
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -102,6 +104,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     add_fit_melting_parser(sub)
+    add_report_parser(sub)
     return parser
 
 
@@ -131,6 +134,7 @@ def _run_score(args) -> int:
     # the engine and pyarrow cost about 0.17 s (python -X importtime): the prestart must not wait for them
     from ionicity.pipelines.run import score_file
 
+    check_report_option(args)
     if args.engine == "local":
         _choose_memory_pool()
     config = ScoreConfig(
@@ -156,6 +160,7 @@ def _run_score(args) -> int:
         print(CAUTION, file=sys.stderr)
     if not args.quiet:
         print(summary, file=sys.stderr)
+    report_after_score(args, summary)
     if args.strict and summary.error:
         return EXIT_STRICT_ERRORS
     return EXIT_OK
@@ -237,6 +242,8 @@ def _dispatch(args) -> int:
     try:
         if args.command == "score":
             return _run_score(args)
+        if args.command == "report":
+            return run_report(args)
         if args.command == "explain":
             return _run_explain(args)
         if args.command == "fit-melting":
