@@ -11,6 +11,7 @@ from __future__ import annotations
 import importlib
 
 from ionicity.scorer.caching import once
+from ionicity.scorer.mixture_rules import with_mixture_rule
 from ionicity.scorer.model import Column
 
 __all__ = [
@@ -64,7 +65,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting", "ionicity.scorer.mixture")
 
 
 @once
@@ -88,7 +89,7 @@ def output_columns() -> tuple[Column, ...]:
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:
         raise RuntimeError(f"output columns declared twice: {sorted(duplicates)}")
-    return tuple(columns)
+    return tuple(with_mixture_rule(c) for c in columns)
 
 
 @once

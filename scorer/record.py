@@ -17,6 +17,7 @@ from ionicity.scorer.ions import (
     format_ion_terms,
     format_oxidation_states,
 )
+from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.verdict import finalise
 
@@ -213,6 +214,9 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    mixture = mixture_row(text, score_row)
+    if mixture is not None:
+        return mixture
     try:
         comp = parse_formula(text)
     except FormulaError as exc:
