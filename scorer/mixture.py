@@ -14,8 +14,9 @@ then one record for the mixture, with ``substance_class`` ``mixture``:
 * ``liquidus_estimate_K`` from :mod:`scorer.liquidus`, with the components'
   melting points and enthalpies of fusion from ``scorer/data/fusion.csv``.
 
-For a compound (every other cell) the module's columns are empty: its
-``analyse`` is the descriptor protocol's, with nothing to compute.
+For a compound (every other cell) these columns are empty: the module is
+listed in ``scorer.columns.RECORD_COLUMN_MODULES`` (columns the record fills),
+not among the descriptor modules, which compute per compound.
 
 >>> from ionicity.scorer.record import score_formula
 >>> r = score_formula("LiCl-KCl (58.8-41.2 mol%)")
@@ -32,20 +33,19 @@ from dataclasses import dataclass
 from ionicity.scorer.caching import clear_all, once, per_input
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.columns import output_columns
-from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.mixture_rules import mixture_rule
-from ionicity.scorer.model import Column, Decomposition
+from ionicity.scorer.model import Column
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
 from ionicity.scorer.verdict import finalise
 
 __all__ = [
-    "GROUP", "COLUMNS", "analyse", "Mixture", "read_mixture", "mixture_row", "set_user_blends",
+    "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends",
     "melt_component", "published_eutectics", "published_liquidus_errors", "compound_note", "fusion_rows",
 ]
 
@@ -80,18 +80,6 @@ COLUMNS: tuple[Column, ...] = (
         "for a mixture: how liquidus_estimate_K was formed, and the component whose solid sets it", "", "",
     ),
 )
-
-Values = result_class("Values", COLUMNS, "A compound's mixture columns: empty (a compound is not a mixture).")
-
-
-@protocol(title="", columns=COLUMNS, result=Values, failure="mixture columns not computed")
-def analyse(dec: Decomposition) -> Values:
-    """A compound has no mixture values; mixtures are scored by :func:`mixture_row`."""
-    return Values()
-
-
-describe = analyse.describe
-explain = analyse.explain
 
 _MOLECULAR_NOTE = "neutral molecule: ion-based values do not apply"
 

@@ -27,6 +27,10 @@ ROWS = {
     "structure_prototypes.csv": 93,
     "ion_shape.csv": 72,
     "madelung_prototypes.csv": 8,
+    "fusion.csv": 38,
+    "blends.csv": 10,
+    "eutectics.csv": 20,
+    "compound_systems.csv": 11,
 }
 
 
