@@ -18,6 +18,7 @@ import threading
 
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.eutectic_cli import add_eutectic_parser, run_eutectic
 from ionicity.pipelines.explain import columns_table, explain_formula
 from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
 from ionicity.pipelines.pool import default_workers, discard_prestarted, leave_process, prestart
@@ -92,6 +93,7 @@ def build_parser() -> argparse.ArgumentParser:
     columns.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     add_fit_melting_parser(sub)
+    add_eutectic_parser(sub)
     return parser
 
 
@@ -223,6 +225,8 @@ def _dispatch(args) -> int:
             return _run_score(args)
         if args.command == "explain":
             return _run_explain(args)
+        if args.command == "eutectic":
+            return run_eutectic(args)
         if args.command == "fit-melting":
             # about 12 ms (python -X importtime) that a scoring run need not pay
             from ionicity.pipelines.melting_fit import run_fit_melting

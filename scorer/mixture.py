@@ -46,7 +46,7 @@ from ionicity.scorer.verdict import finalise
 
 __all__ = [
     "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends",
-    "melt_component", "published_eutectics", "published_liquidus_errors", "compound_note", "fusion_rows",
+    "melt_component", "system_components", "published_point", "published_eutectics", "published_liquidus_errors", "compound_note", "fusion_rows",
 ]
 
 GROUP = "mixture"
@@ -257,6 +257,45 @@ def _melt(component: _Component) -> MeltComponent | None:
     formula = row["formula"] if row["kind"] == "ionic" else ""
     return melt_component(formula, component.name, float(row["melting_point_K"]),
                           float(row["enthalpy_fusion_kJ_mol"]) * 1000.0)
+
+
+def system_components(texts, score_row) -> tuple[MeltComponent, ...]:
+    """The liquidus components of a system named by formulas or fusion.csv names.
+
+    Raises
+    ------
+    ValueError
+        Naming the text that is not a component with fusion data.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.record import score_row
+    >>> [c.name for c in system_components(["LiCl", "KCl"], score_row)]
+    ['LiCl', 'KCl']
+    """
+    melts = []
+    for text in texts:
+        component = _resolve(text, score_row)
+        position = _layout()[1]
+        if component.record[position["status"]] == "error":
+            raise ValueError(f"{text!r} cannot be scored as a compound: {component.record[position['message']]}")
+        melt = _melt(component)
+        if melt is None:
+            known = sorted({r["component"] for r in table("fusion.csv")})
+            raise ValueError(
+                f"no melting point and enthalpy of fusion for {text!r} in scorer/data/fusion.csv;"
+                f" known: {', '.join(known)}"
+            )
+        melts.append(melt)
+    names = [m.name for m in melts]
+    if len(set(names)) != len(names):
+        raise ValueError(f"a component is named twice: {', '.join(texts)}")
+    return tuple(melts)
+
+
+def published_point(names) -> dict | None:
+    """The published liquidus point of a system in scorer/data/eutectics.csv, in ``names`` order."""
+    return _published(tuple(names))
 
 
 # ---------------------------------------------------------------- the record
