@@ -16,6 +16,7 @@ import signal
 import sys
 import threading
 
+from ionicity.pipelines.aliases import load_aliases
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.eutectic_cli import add_eutectic_parser, run_eutectic
@@ -82,6 +83,9 @@ def build_parser() -> argparse.ArgumentParser:
     score.add_argument("--mp-model", metavar="PATH",
                        help="a melting-point model written by 'ionicity fit-melting': adds mp_predicted_K and its"
                             " 90%% interval (screening estimates, not safety data)")
+    score.add_argument("--aliases", metavar="FILE.csv",
+                       help="your own blend names for mixtures: a CSV with columns name, mixture (e.g. 'LiCl-KCl"
+                            " (58.8-41.2 mol%%)') and optionally source")
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -123,6 +127,8 @@ def _run_score(args) -> int:
     # the engine and pyarrow cost about 0.17 s (python -X importtime): the prestart must not wait for them
     from ionicity.pipelines.run import score_file
 
+    if args.aliases:
+        load_aliases(args.aliases)
     if args.engine == "local":
         _choose_memory_pool()
     config = ScoreConfig(
@@ -180,7 +186,8 @@ _PRESTART_BYTES = 1 << 20
 
 
 def _prestart_workers(args) -> None:
-    if args.command != "score" or args.engine != "local" or args.workers == 1:
+    if args.command != "score" or args.engine != "local" or args.workers == 1 or args.aliases:
+        # with --aliases the workers start after the names are loaded (pipelines/aliases.py)
         return
     try:
         large = os.path.isfile(args.input) and os.path.getsize(args.input) >= _PRESTART_BYTES

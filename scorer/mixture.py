@@ -448,7 +448,8 @@ def _liquidus(mixture: Mixture) -> tuple[float, str, list[str]]:
                               " liquidus not estimated"]
     result = liquidus_K(tuple(melts), mixture.fractions)
     rules = sorted({pair_lambda_J_mol(a, b)[1] for i, a in enumerate(melts) for b in melts[i + 1:]})
-    method = f"{result.method} ({', '.join(rules)}); primary phase {result.primary_phase}"
+    rules_text = f" ({', '.join(rules)})" if all(m.ionic for m in melts) else ""
+    method = f"{result.method}{rules_text}; primary phase {result.primary_phase}"
     note = compound_note(names)
     if note:
         notes.append(note)

@@ -11,7 +11,7 @@ Kept apart from :mod:`scorer.mixture`, which imports the registry: this
 module imports nothing of the scorer but the column model.
 
 >>> with_mixture_rule(Column("molar_mass_g_mol", "float64", "", "", "sum of weights", "")).method
-'sum of weights; mixture: mole-fraction average of the components'
+'sum of weights; mixture: mole-fraction average over the components that have a value (a neutral molecule has no ion-based values)'
 >>> with_mixture_rule(Column("structure_type", "string", "", "", "", "")).method
 'mixture: empty (a mixture is not one crystal; see each component in ionicity explain)'
 """
@@ -25,7 +25,7 @@ __all__ = ["MIXTURE_RULES", "RULE_TEXT", "mixture_rule", "with_mixture_rule"]
 
 # rule -> the words appended to a column's method
 RULE_TEXT: dict[str, str] = {
-    "mean": "mole-fraction average of the components",
+    "mean": "mole-fraction average over the components that have a value (a neutral molecule has no ion-based values)",
     "min": "minimum over the components",
     "max": "maximum over the components",
     "shared": "the components' shared value, or mixed",
