@@ -11,7 +11,7 @@ import re
 
 import pytest
 
-from ionicity.pipelines import eutectic
+from ionicity.pipelines import eutectic_cli as eutectic
 from ionicity.pipelines.aliases import ENVIRONMENT_VARIABLE
 from ionicity.pipelines.cli import main
 from ionicity.pipelines.melting_cli import MissingExtraError
