@@ -43,6 +43,7 @@ _TRAILING = re.compile(
 _LEADING_AMOUNT = re.compile(rf"^\s*(?P<amount>{_NUMBER})\s*(?=[A-Za-z(\[])")
 _DOTS = "·•∙⋅*"
 _QUICK = frozenset("-–—:+·•∙⋅* ")
+_JOINERS = frozenset("-–—:+ ")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
 
 
@@ -62,7 +63,6 @@ class MixtureText:
     amounts: tuple[float, ...] = ()
     basis: str = "mol"
     notes: tuple[str, ...] = ()
-    blend: str = ""
 
 
 def blend_key(name: str) -> str:
@@ -112,14 +112,14 @@ def _basis(word: str | None) -> str:
     return "wt" if word.lower() in ("wt", "mass", "w/w") else "mol"
 
 
-def _proportions(text: str) -> tuple[str, tuple[float, ...], str, bool]:
-    """(body, amounts, basis, basis written) with a trailing proportion taken off."""
+def _proportions(text: str) -> tuple[str, tuple[float, ...], str]:
+    """(body, amounts, basis) with a trailing proportion taken off."""
     for pattern in (_BRACKETED, _TRAILING):
         m = pattern.search(text)
         if m and m.start() > 0:
             numbers = tuple(float(n) for n in re.findall(_NUMBER, m.group("numbers")))
-            return text[: m.start()].strip(), numbers, _basis(m.group("basis")), m.group("basis") is not None
-    return text.strip(), (), "mol", False
+            return text[: m.start()].strip(), numbers, _basis(m.group("basis"))
+    return text.strip(), (), "mol"
 
 
 def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...]]:
@@ -173,7 +173,9 @@ def read_mixture_text(text: str) -> MixtureText | None:
     """
     if _QUICK.isdisjoint(text):
         return None
-    body, amounts, basis, basis_written = _proportions(text)
+    if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
+        return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
+    body, amounts, basis = _proportions(text)
     notes: list[str] = []
     joined_by = ""
     if "+" in body and len(_split_top(body, "+")) > 1 and not body.rstrip().endswith("+"):
@@ -221,6 +223,4 @@ def read_mixture_text(text: str) -> MixtureText | None:
             f"{text!r} was read as a mixture of {' and '.join(names)} in the amounts written (also possible:"
             " one non-stoichiometric compound or solid solution); write 'A + B' for a mixture"
         )
-    if basis_written is False and amounts and abs(sum(amounts) - 100) < 0.5 and not leading:
-        basis = "mol"
     return MixtureText(tuple(names), tuple(amounts), basis, tuple(notes))
