@@ -17,8 +17,10 @@ import signal
 import sys
 import threading
 
+from ionicity.pipelines.aliases import load_aliases
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.eutectic_cli import add_eutectic_parser, run_eutectic
 from ionicity.pipelines.explain import columns_table, explain_formula
 from ionicity.pipelines.table_options import add_table_options, table_options
 from ionicity.pipelines.melting_cli import CAUTION, add_fit_melting_parser
@@ -91,6 +93,9 @@ def build_parser() -> argparse.ArgumentParser:
     score.add_argument("--summary", metavar="FILE.json",
                        help="also write the audit summary (counts by status, class, slip, duplicates; rows to check) as JSON")
     add_report_option(score)
+    score.add_argument("--aliases", metavar="FILE.csv",
+                       help="your own blend names for mixtures: a CSV with columns name, mixture (e.g. 'LiCl-KCl"
+                            " (58.8-41.2 mol%%)') and optionally source")
     score.add_argument("--verbose", action="store_true", help=argparse.SUPPRESS)
 
     explain = sub.add_parser("explain", help="every score of one compound, with the method and numbers behind it")
@@ -105,6 +110,7 @@ def build_parser() -> argparse.ArgumentParser:
 
     add_fit_melting_parser(sub)
     add_report_parser(sub)
+    add_eutectic_parser(sub)
     return parser
 
 
@@ -135,6 +141,8 @@ def _run_score(args) -> int:
     from ionicity.pipelines.run import score_file
 
     check_report_option(args)
+    if args.aliases:
+        load_aliases(args.aliases)
     if args.engine == "local":
         _choose_memory_pool()
     config = ScoreConfig(
@@ -196,7 +204,8 @@ _PRESTART_BYTES = 1 << 20
 
 
 def _prestart_workers(args) -> None:
-    if args.command != "score" or args.engine != "local" or args.workers == 1:
+    if args.command != "score" or args.engine != "local" or args.workers == 1 or args.aliases:
+        # with --aliases the workers start after the names are loaded (pipelines/aliases.py)
         return
     try:
         large = os.path.isfile(args.input) and os.path.getsize(args.input) >= _PRESTART_BYTES
@@ -246,6 +255,8 @@ def _dispatch(args) -> int:
             return run_report(args)
         if args.command == "explain":
             return _run_explain(args)
+        if args.command == "eutectic":
+            return run_eutectic(args)
         if args.command == "fit-melting":
             # about 12 ms (python -X importtime) that a scoring run need not pay
             from ionicity.pipelines.melting_fit import run_fit_melting

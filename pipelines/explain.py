@@ -7,6 +7,7 @@ import io
 import math
 from pathlib import Path
 
+from ionicity.pipelines.mixture_explain import explain_mixture
 from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.columns import column_groups, descriptor_modules, output_columns
 from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
@@ -28,6 +29,9 @@ def _value_text(value) -> str:
 
 def explain_formula(text: str) -> str:
     """Every score of one compound with the method and the inputs behind it."""
+    mixture = explain_mixture(text, explain_formula)
+    if mixture is not None:
+        return mixture
     shown = text if len(text) <= 80 else f"{text[:80]}... ({len(text)} characters)"
     lines = [f"formula: {shown}"]
     try:

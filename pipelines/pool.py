@@ -48,6 +48,7 @@ import time
 from concurrent.futures import CancelledError, Future, ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 
+from ionicity.pipelines.aliases import load_aliases_from_environment
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.madelung import PROTOTYPES, madelung_details
 from ionicity.scorer.record import empty_record, score_formula, score_row
@@ -114,6 +115,7 @@ def warm_up() -> bool:
     Returns whether this call did the work."""
     if _WARM:
         return False
+    load_aliases_from_environment()  # a user's --aliases, before anything is cached
     for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl"):
         score_formula(text)
     for name in PROTOTYPES:

@@ -12,6 +12,7 @@ import dataclasses
 import importlib
 
 from ionicity.scorer.caching import once
+from ionicity.scorer.mixture_rules import with_mixture_rule
 from ionicity.scorer.model import Column
 from ionicity.scorer.precision import digits_for
 
@@ -42,7 +43,7 @@ BASE_COLUMNS: tuple[Column, ...] = (
     Column(
         "substance_class", "string", "",
         "ionic_salt, ionic_liquid_pair, acid, base, covalent_molecular, chain_layer_solid, covalent_network,"
-        " semiconductor, intermetallic, zintl_phase, metallic, element, ion or unknown (definitions in"
+        " semiconductor, intermetallic, zintl_phase, metallic, element, ion, mixture or unknown (definitions in"
         " scorer.substance)",
         _SOLVER, "common practice",
     ),
@@ -71,8 +72,10 @@ BASE_COLUMNS: tuple[Column, ...] = (
 )
 
 DESCRIPTOR_MODULES: tuple[str, ...] = ("ionicity.scorer.applicability", "ionicity.scorer.character", "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.melting", "ionicity.scorer.systematic_name")
-# modules whose COLUMNS the record sets itself (not from a Decomposition); after the descriptors'
-RECORD_COLUMN_MODULES: tuple[str, ...] = ("ionicity.scorer.audit",)
+# modules whose COLUMNS the record fills itself, not a descriptor's analyse(dec):
+# the audit's (slips, solutions, duplicates) and the mixture columns (empty for
+# every compound); after the descriptors'
+RECORD_COLUMN_MODULES: tuple[str, ...] = ("ionicity.scorer.audit", "ionicity.scorer.mixture")
 
 
 @once
@@ -98,7 +101,7 @@ def output_columns() -> tuple[Column, ...]:
     duplicates = {n for n in names if names.count(n) > 1}
     if duplicates:
         raise RuntimeError(f"output columns declared twice: {sorted(duplicates)}")
-    return tuple(_with_digits(c) for c in columns)
+    return tuple(_with_digits(with_mixture_rule(c)) for c in columns)
 
 
 def _with_digits(column: Column) -> Column:

@@ -20,6 +20,7 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.grammar import iupac_formula
+from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
 from ionicity.scorer.systematic_name import hydrate_words
@@ -244,6 +245,9 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    mixture = mixture_row(text, score_row)
+    if mixture is not None:
+        return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
     return audited_row(text, _plain_row, _error_row, _layout()[1])
 

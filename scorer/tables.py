@@ -107,6 +107,14 @@ TABLES: dict[str, TableSpec] = {
              "common_factor", "charge_product", "ionic_strength", "source"),
             "scorer.madelung",
         ),
+        TableSpec(
+            "fusion.csv",
+            ("component", "formula", "names", "kind", "melting_point_K", "enthalpy_fusion_kJ_mol", "cas", "source"),
+            "scorer.mixture",
+        ),
+        TableSpec("blends.csv", ("name", "mixture", "source"), "scorer.mixture"),
+        TableSpec("eutectics.csv", ("system", "mole_fractions", "liquidus_K", "set", "kind", "source"), "scorer.mixture"),
+        TableSpec("compound_systems.csv", ("component_a", "component_b", "compounds", "source"), "scorer.mixture"),
     )
 }
 

@@ -38,6 +38,10 @@ ROWS = {
     "element_melting_points.csv": 79,
     "name_words.csv": 241,
     "trivial_names.csv": 108,
+    "fusion.csv": 38,
+    "blends.csv": 10,
+    "eutectics.csv": 20,
+    "compound_systems.csv": 11,
 }
 
 

@@ -1,0 +1,523 @@
+"""Mixtures in the formula column: one row for a blend, scored from its components.
+
+A cell written as a mixture (:mod:`scorer.mixture_notation`: ``LiCl-KCl
+(58.8-41.2 mol%)``, ``ChCl:urea 1:2``, ``0.588 LiCl + 0.412 KCl``, or a blend
+name such as ``FLiNaK`` from ``scorer/data/blends.csv`` or a user's
+``--aliases`` file) is scored here: each component as the compound it is,
+then one record for the mixture, with ``substance_class`` ``mixture``:
+
+* ``mixture_components`` and ``mixture_mole_fractions`` (weight percent
+  converted with the components' molar masses);
+* each other column formed from the components by its rule
+  (:mod:`scorer.mixture_rules`: a mole-fraction average where that means
+  something, empty where it does not);
+* ``liquidus_estimate_K`` from :mod:`scorer.liquidus`, with the components'
+  melting points and enthalpies of fusion from ``scorer/data/fusion.csv``.
+
+For a compound (every other cell) these columns are empty: the module is
+listed in ``scorer.columns.RECORD_COLUMN_MODULES`` (columns the record fills),
+not among the descriptor modules, which compute per compound.
+
+>>> from ionicity.scorer.record import score_formula
+>>> r = score_formula("LiCl-KCl (58.8-41.2 mol%)")
+>>> r["substance_class"], r["mixture_components"], r["mixture_mole_fractions"]
+('mixture', 'LiCl;KCl', '0.588;0.412')
+>>> score_formula("NaCl")["mixture_components"] is None
+True
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ionicity.scorer.caching import clear_all, once, per_input
+from ionicity.scorer.caution import CAUTION
+from ionicity.scorer.columns import output_columns
+from ionicity.scorer.elements import get_element
+from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
+from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
+from ionicity.scorer.mixture_rules import mixture_rule
+from ionicity.scorer.model import Column
+from ionicity.scorer.radii import ion_radius_pm
+from ionicity.scorer.tables import table
+from ionicity.scorer.verdict import finalise
+
+__all__ = [
+    "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends",
+    "melt_component", "system_components", "published_point", "published_eutectics", "published_liquidus_errors", "compound_note", "fusion_rows",
+]
+
+GROUP = "mixture"
+
+_LIQUIDUS_SOURCE = (
+    "Schroeder 1893 / van Laar 1903 (ideal liquidus); Temkin, Acta Physicochim. URSS 20 (1945) 411 (ion fractions);"
+    " Hersh and Kleppa, J. Chem. Phys. 42 (1965) 1309 (size-mismatch interaction); fusion data scorer/data/fusion.csv"
+)
+
+COLUMNS: tuple[Column, ...] = (
+    Column(
+        "mixture_components", "string", "",
+        "for a mixture: its components, written as formulas (or the fusion table's names), joined by ';'",
+        "scorer.mixture_notation", "scorer/data/blends.csv for blend names (sources per row)",
+    ),
+    Column(
+        "mixture_mole_fractions", "string", "mol/mol",
+        "for a mixture: each component's mole fraction (formula units), in mixture_components order, joined by ';';"
+        " weight percent converted with the components' molar masses",
+        "amount n_i = w_i / M_i, x_i = n_i / sum n", "IUPAC Green Book (amount fraction)",
+    ),
+    Column(
+        "liquidus_estimate_K", "float64", "K",
+        "for a mixture: estimated liquidus temperature at its composition (above it, all liquid); " + CAUTION,
+        "Schroeder-van Laar branch of each component, ln a_i = -(dHfus_i/R)(1/T - 1/Tm_i), the highest;"
+        " a_i by Temkin ion fractions plus a regular-solution lambda for ionic melts, mole fractions otherwise",
+        _LIQUIDUS_SOURCE,
+    ),
+    Column(
+        "liquidus_method", "string", "",
+        "for a mixture: how liquidus_estimate_K was formed, and the component whose solid sets it", "", "",
+    ),
+)
+
+_MOLECULAR_NOTE = "neutral molecule: ion-based values do not apply"
+
+
+# ---------------------------------------------------------------- the tables
+
+@once
+def fusion_rows() -> dict[str, dict]:
+    """fusion.csv rows by every name they answer to (case and spacing ignored)."""
+    rows: dict[str, dict] = {}
+    for row in table("fusion.csv"):
+        keys = {row["component"], row["formula"], *(n for n in row["names"].split(";") if n)}
+        for key in keys:
+            rows[blend_key(key)] = row
+    return rows
+
+
+@once
+def _fusion_by_normalized(score_row) -> dict[str, dict]:
+    """Ionic fusion.csv rows by the scorer's normalised formula of their component."""
+    position = _layout()[1]["formula_normalized"]
+    return {score_row(row["formula"])[position]: row for row in table("fusion.csv") if row["kind"] == "ionic"}
+
+
+_USER_BLENDS: dict[str, tuple[str, str]] = {}
+
+
+def set_user_blends(rows) -> None:
+    """Blend names of a user's ``--aliases`` file: ``(name, mixture, source)`` rows.
+
+    They take precedence over ``scorer/data/blends.csv``. The pipelines read
+    and check the file (``pipelines/aliases.py``); scoring caches are
+    cleared, since a name may now mean another mixture.
+    """
+    _USER_BLENDS.clear()
+    for name, mixture, source in rows:
+        _USER_BLENDS[blend_key(name)] = (mixture, source)
+    clear_all("per_input")
+
+
+@once
+def _blends() -> dict[str, tuple[str, str]]:
+    return {blend_key(r["name"]): (r["mixture"], r["source"]) for r in table("blends.csv")}
+
+
+def _blend(text: str) -> tuple[str, str, str] | None:
+    key = blend_key(text)
+    found = _USER_BLENDS.get(key) or _blends().get(key)
+    if found is None:
+        return None
+    return text.strip(), found[0], found[1]
+
+
+@once
+def published_eutectics() -> tuple[dict, ...]:
+    """The test set of published eutectics (scorer/data/eutectics.csv), typed."""
+    rows = []
+    for row in table("eutectics.csv"):
+        rows.append({
+            "components": tuple(row["system"].split("-")),
+            "fractions": tuple(float(v) for v in row["mole_fractions"].split(";")),
+            "liquidus_K": float(row["liquidus_K"]),
+            "set": row["set"], "kind": row["kind"], "source": row["source"],
+        })
+    return tuple(rows)
+
+
+def _published(names: tuple[str, ...]) -> dict | None:
+    for row in published_eutectics():
+        if sorted(row["components"]) == sorted(names):
+            order = [row["components"].index(n) for n in names]
+            return {**row, "components": names, "fractions": tuple(row["fractions"][i] for i in order)}
+    return None
+
+
+def published_liquidus_errors(omega=None, k=None) -> tuple[dict, ...]:
+    """The estimate against every published point of scorer/data/eutectics.csv.
+
+    Each entry: ``system``, ``set`` (calibration or validation), ``fractions``,
+    ``published_K``, ``estimate_K``, ``ideal_K`` (Temkin or molecular ideal
+    line, no lambda) and ``error_pct`` (absolute, in % of the published
+    kelvin). ``omega`` and ``k`` replace the calibrated coefficients (the
+    calibration scan, ``tests/calibrate_liquidus.py``).
+    """
+    rows = []
+    for row in published_eutectics():
+        melts = []
+        for name in row["components"]:
+            fusion = fusion_rows()[blend_key(name)]
+            formula = fusion["formula"] if fusion["kind"] == "ionic" else ""
+            melts.append(melt_component(formula, name, float(fusion["melting_point_K"]),
+                                        float(fusion["enthalpy_fusion_kJ_mol"]) * 1000.0))
+        melts = tuple(melts)
+        n = len(melts)
+        lambdas = {(j, m): pair_lambda_J_mol(melts[j], melts[m], omega, k)[0] for j in range(n) for m in range(j + 1, n)}
+        estimate = liquidus_K(melts, row["fractions"], lambdas).temperature_K
+        ideal = liquidus_K(melts, row["fractions"], {}).temperature_K
+        published = row["liquidus_K"]
+        rows.append({
+            "system": "-".join(row["components"]), "set": row["set"], "kind": row["kind"], "fractions": row["fractions"],
+            "published_K": published, "estimate_K": estimate, "ideal_K": ideal,
+            "error_pct": 100.0 * abs(estimate - published) / published,
+            "ideal_error_pct": 100.0 * abs(ideal - published) / published,
+        })
+    return tuple(rows)
+
+
+def compound_note(names: tuple[str, ...]) -> str:
+    """The value note of a system known to form compounds or complexes ("" if none)."""
+    found = []
+    for row in table("compound_systems.csv"):
+        if row["component_a"] in names and row["component_b"] in names:
+            found.append(f"{row['component_a']}-{row['component_b']} forms {row['compounds']} ({row['source']})")
+    if not found:
+        return ""
+    return "; ".join(found) + ": the liquidus near such compounds is not modelled (regular-solution estimate)"
+
+
+# ---------------------------------------------------------------- components
+
+@dataclass(frozen=True)
+class _Component:
+    name: str            # as shown in mixture_components
+    record: tuple        # its own row (score_row), or a molecular row
+    molar_mass_g_mol: float
+    fusion: dict | None  # its fusion.csv row
+    formula: str
+
+
+def _resolve(text: str, score_row) -> _Component:
+    """One component as written -> its name, own scores and fusion data."""
+    names, position, empty, _ = _layout()
+    row = fusion_rows().get(blend_key(text))
+    if row is not None and row["kind"] == "molecular":
+        comp = parse_formula(row["formula"])
+        mass = round(sum(get_element(s).atomic_weight * n for s, n in comp.counts), 4)
+        values = list(empty)
+        verdict = finalise(gaps=[_MOLECULAR_NOTE])
+        for name, value in (("status", verdict.status), ("message", ""), ("value_notes", verdict.value_notes),
+                            ("formula_normalized", row["formula"]), ("substance_class", "covalent_molecular"),
+                            ("hydrate_water", 0.0), ("molar_mass_g_mol", mass)):
+            values[position[name]] = value
+        return _Component(row["component"], tuple(values), mass, row, row["formula"])
+    formula = row["formula"] if row is not None else text
+    record = score_row(formula)
+    normalized = record[position["formula_normalized"]] or formula
+    if row is None:
+        row = _fusion_by_normalized(score_row).get(normalized)
+    return _Component(normalized, record, record[position["molar_mass_g_mol"]], row, formula)
+
+
+@per_input(maxsize=1024)
+def melt_component(formula: str, name: str, melting_point_K: float, enthalpy_fusion_J_mol: float) -> MeltComponent:
+    """A component for :mod:`scorer.liquidus`: fusion data and its ions (Shannon VI radii)."""
+    try:
+        dec = decompose(parse_formula(formula))
+    except FormulaError:
+        return MeltComponent(name, melting_point_K, enthalpy_fusion_J_mol)
+    if not dec.is_ionic or not dec.cations or not dec.anions:
+        return MeltComponent(name, melting_point_K, enthalpy_fusion_J_mol)
+
+    def ions(terms):
+        return tuple(
+            MeltIon(t.ion.ion_id, float(t.count), t.ion.charge, ion_radius_pm(t.ion, 6 if t.ion.monatomic else None)[0])
+            for t in terms
+        )
+
+    return MeltComponent(name, melting_point_K, enthalpy_fusion_J_mol, ions(dec.cations), ions(dec.anions))
+
+
+def _melt(component: _Component) -> MeltComponent | None:
+    row = component.fusion
+    if row is None:
+        return None
+    formula = row["formula"] if row["kind"] == "ionic" else ""
+    return melt_component(formula, component.name, float(row["melting_point_K"]),
+                          float(row["enthalpy_fusion_kJ_mol"]) * 1000.0)
+
+
+def system_components(texts, score_row) -> tuple[MeltComponent, ...]:
+    """The liquidus components of a system named by formulas or fusion.csv names.
+
+    Raises
+    ------
+    ValueError
+        Naming the text that is not a component with fusion data.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.record import score_row
+    >>> [c.name for c in system_components(["LiCl", "KCl"], score_row)]
+    ['LiCl', 'KCl']
+    """
+    melts = []
+    for text in texts:
+        component = _resolve(text, score_row)
+        position = _layout()[1]
+        if component.record[position["status"]] == "error":
+            raise ValueError(f"{text!r} cannot be scored as a compound: {component.record[position['message']]}")
+        melt = _melt(component)
+        if melt is None:
+            known = sorted({r["component"] for r in table("fusion.csv")})
+            raise ValueError(
+                f"no melting point and enthalpy of fusion for {text!r} in scorer/data/fusion.csv;"
+                f" known: {', '.join(known)}"
+            )
+        melts.append(melt)
+    names = [m.name for m in melts]
+    if len(set(names)) != len(names):
+        raise ValueError(f"a component is named twice: {', '.join(texts)}")
+    return tuple(melts)
+
+
+def published_point(names) -> dict | None:
+    """The published liquidus point of a system in scorer/data/eutectics.csv, in ``names`` order."""
+    return _published(tuple(names))
+
+
+# ---------------------------------------------------------------- the record
+
+@dataclass(frozen=True)
+class Mixture:
+    """A mixture as read: components, mole fractions, and what was noticed."""
+
+    components: tuple[_Component, ...]
+    fractions: tuple[float, ...]
+    warnings: tuple[str, ...]
+    notes: tuple[str, ...]
+    blend: str = ""
+
+
+def _fractions(text: MixtureText, components, warnings: list, notes: list) -> tuple[float, ...]:
+    names = tuple(c.name for c in components)
+    if not text.amounts:
+        published = _published(names)
+        if published is not None:
+            warnings.append(
+                "no proportions given: took the composition of the published liquidus point of scorer/data/eutectics.csv"
+                f" ({'-'.join(f'{100 * x:.1f}' for x in published['fractions'])} mol%; {published['source']})"
+            )
+            return published["fractions"]
+        warnings.append("no proportions given: equal moles assumed; write them as e.g. (50-50 mol%) or 1:1")
+        return tuple(1.0 / len(names) for _ in names)
+    amounts = text.amounts
+    if text.basis == "wt":
+        masses = [c.molar_mass_g_mol for c in components]
+        if any(not (m and m == m) for m in masses):
+            raise MixtureNotationError("weight proportions need every component's molar mass")
+        amounts = tuple(w / m for w, m in zip(amounts, masses))
+        notes.append("weight proportions converted to mole fractions with the components' molar masses")
+    total = sum(amounts)
+    return tuple(a / total for a in amounts)
+
+
+def _reads_as_compound(text: str) -> bool:
+    try:
+        parse_formula(text)
+    except FormulaError:
+        return False
+    return True
+
+
+def read_mixture(text: str, score_row) -> Mixture | str | None:
+    """The mixture a cell describes, an error message, or None for a compound.
+
+    ``score_row`` scores one component (:func:`scorer.record.score_row`;
+    passed in, since the record module calls this one).
+    """
+    blend = _blend(text) if not text[:1].isdigit() else None
+    notes: list[str] = []
+    if blend is not None:
+        shown, written, source = blend
+        notes.append(f"{shown} read as {written} ({source})")
+        text_to_read = written
+    else:
+        text_to_read = text
+    try:
+        mixture_text = read_mixture_text(text_to_read)
+    except MixtureNotationError as exc:
+        return str(exc)
+    if mixture_text is None:
+        return None if blend is None else f"the blend {blend[0]!r} is defined as {blend[1]!r}, which is not mixture notation"
+    components = []
+    for part in mixture_text.parts:
+        if fusion_rows().get(blend_key(part)) is None:
+            try:
+                comp = parse_formula(part)
+            except FormulaError as exc:
+                if blend is None and ":" not in text_to_read and not mixture_text.amounts and _reads_as_compound(text):
+                    return None  # a dash or plus inside a compound's own notation
+                return f"component {part!r} of the mixture: {exc}"
+            if comp.charge != 0:
+                return None if blend is None else f"component {part!r} of the blend {blend[0]!r} is an ion"
+        components.append(_resolve(part, score_row))
+    warnings = list(mixture_text.notes)
+    position = _layout()[1]
+    for component in components:
+        status = component.record[position["status"]]
+        if status == "error":
+            return f"component {component.name!r} of the mixture: {component.record[position['message']]}"
+        if status == "warning":
+            warnings.append(f"{component.name}: {component.record[position['message']]}")
+    if len({c.name for c in components}) != len(components):
+        return f"a component is named twice in {text!r}"
+    try:
+        fractions = _fractions(mixture_text, components, warnings, notes)
+    except MixtureNotationError as exc:
+        return str(exc)
+    return Mixture(tuple(components), fractions, tuple(warnings), tuple(notes), blend[0] if blend else "")
+
+
+@once
+def _layout():
+    columns = output_columns()
+    names = tuple(c.name for c in columns)
+    empty = tuple(math.nan if c.dtype == "float64" else None for c in columns)
+    return names, {n: i for i, n in enumerate(names)}, empty, columns
+
+
+def _combine(rule: str, values, fractions, dtype: str):
+    present = [(v, x) for v, x in zip(values, fractions) if v is not None and not (isinstance(v, float) and math.isnan(v))]
+    if rule == "mean":
+        weight = sum(x for _, x in present)
+        return sum(v * x for v, x in present) / weight if present and weight > 0 else math.nan
+    if rule == "min":
+        return min((v for v, _ in present), default=math.nan)
+    if rule == "max":
+        return max((v for v, _ in present), default=math.nan)
+    if rule == "any":
+        return any(bool(v) for v, _ in present) if present else None
+    if rule == "shared":
+        distinct = {v for v, _ in present}
+        if not distinct:
+            return None
+        return distinct.pop() if len(distinct) == 1 else "mixed"
+    return math.nan if dtype == "float64" else None
+
+
+def _ions_text(values, fractions) -> str | None:
+    totals: dict[str, float] = {}
+    for text, x in zip(values, fractions):
+        for term in (text or "").split(";"):
+            if not term:
+                continue
+            ion, _, count = term.partition("*")
+            totals[ion] = totals.get(ion, 0.0) + float(count or 1) * x
+    return ";".join(f"{ion}*{n:.4g}" for ion, n in totals.items()) or None
+
+
+def _states_text(values) -> str | None:
+    seen: dict[str, None] = {}
+    for text in values:
+        for term in (text or "").split(";"):
+            if term:
+                seen.setdefault(term, None)
+    return ";".join(seen) or None
+
+
+def _liquidus(mixture: Mixture) -> tuple[float, str, list[str]]:
+    names = tuple(c.name for c in mixture.components)
+    notes: list[str] = []
+    melts = [_melt(c) for c in mixture.components]
+    missing = [c.name for c, m in zip(mixture.components, melts) if m is None]
+    if missing:
+        return math.nan, "", [f"no melting point and enthalpy of fusion for {', '.join(missing)} in scorer/data/fusion.csv:"
+                              " liquidus not estimated"]
+    result = liquidus_K(tuple(melts), mixture.fractions)
+    rules = sorted({pair_lambda_J_mol(a, b)[1] for i, a in enumerate(melts) for b in melts[i + 1:]})
+    rules_text = f" ({', '.join(rules)})" if all(m.ionic for m in melts) else ""
+    method = f"{result.method}{rules_text}; primary phase {result.primary_phase}"
+    note = compound_note(names)
+    if note:
+        notes.append(note)
+    if not all(m.ionic for m in melts):
+        published = _published(names)
+        text = "deep eutectic or molecular mixture: the ideal line is the reference; measured eutectics lie below it"
+        if published is not None:
+            depression = result.temperature_K - published["liquidus_K"]
+            text += (f"; published eutectic {published['liquidus_K']:.0f} K ({published['source']}),"
+                     f" {depression:.0f} K below the ideal line")
+        notes.append(text)
+    return result.temperature_K, method, notes
+
+
+def _record(mixture: Mixture) -> tuple:
+    names, position, empty, columns = _layout()
+    row = list(empty)
+    records = [c.record for c in mixture.components]
+    x = mixture.fractions
+    for column in columns:
+        rule = mixture_rule(column.name)
+        if rule == "own":
+            continue
+        values = [r[position[column.name]] for r in records]
+        if rule == "ions":
+            row[position[column.name]] = _ions_text(values, x)
+        elif rule == "states":
+            row[position[column.name]] = _states_text(values)
+        else:
+            row[position[column.name]] = _combine(rule, values, x, column.dtype)
+    component_names = tuple(c.name for c in mixture.components)
+    row[position["substance_class"]] = "mixture"
+    row[position["formula_normalized"]] = (
+        "-".join(component_names) + " (" + "-".join(f"{100 * f:.4g}" for f in x) + " mol%)"
+    )
+    row[position["mixture_components"]] = ";".join(component_names)
+    row[position["mixture_mole_fractions"]] = ";".join(f"{f:.4g}" for f in x)
+    liquidus, method, liquidus_notes = _liquidus(mixture)
+    row[position["liquidus_estimate_K"]] = round(liquidus, 1) if liquidus == liquidus else math.nan
+    row[position["liquidus_method"]] = method or None
+    gaps = [*mixture.notes, "a mixture: each column formed from its components as its method says"
+            " (lattice energies, structure type and melting trend per component: ionicity explain)", *liquidus_notes]
+    for component in mixture.components:
+        if component.fusion is not None and component.fusion["kind"] == "molecular":
+            gaps.append(f"{component.name}: {_MOLECULAR_NOTE}")
+    verdict = finalise(warnings=mixture.warnings, gaps=gaps)
+    row[position["status"]] = verdict.status
+    row[position["message"]] = verdict.message
+    row[position["value_notes"]] = verdict.value_notes
+    return tuple(row)
+
+
+def mixture_row(text: str, score_row) -> tuple | None:
+    """The output row of a cell written as a mixture, or None for a compound.
+
+    Called by :func:`scorer.record.score_row` before the compound is parsed,
+    once per distinct text (that function's cache). A mixture that cannot be
+    read gives an error row saying why; the row is never dropped.
+    """
+    found = read_mixture(text, score_row)
+    if found is None:
+        return None
+    if isinstance(found, str):
+        _, position, empty, _ = _layout()
+        row = list(empty)
+        verdict = finalise(error=found)
+        row[position["status"]] = verdict.status
+        row[position["message"]] = verdict.message
+        row[position["substance_class"]] = "mixture"
+        return tuple(row)
+    return _record(found)

@@ -1,0 +1,226 @@
+"""Mixture notation: text in the formula column -> the components and their proportions.
+
+Accepted (components are formulas, or names of ``scorer/data/fusion.csv``
+such as ``ChCl`` and ``urea``; blend names of ``scorer/data/blends.csv`` and
+of a user's ``--aliases`` file stand for a whole mixture):
+
+* components joined by ``-``, an en dash ``–``, ``:`` or ``+`` (spaced or
+  not): ``LiCl-KCl``, ``NaNO3–KNO3``, ``ChCl:urea``, ``LiCl + KCl``;
+* proportions after them: ``58.8:41.2``, ``(46.5-11.5-42 mol%)``,
+  ``60:40 wt%``, a molar ratio ``1:2``;
+* leading amounts: ``0.588 LiCl + 0.412 KCl``, ``0.588LiCl·0.412KCl`` (a dot
+  joins a mixture only when every part has a decimal amount, so
+  ``CuSO4·5H2O`` and the alum ``K2SO4·Al2(SO4)3·24H2O`` stay compounds).
+
+Readings that could be either a mixture or one compound are taken as a
+mixture with a warning that says so (``KNO3+NaNO3``: the double salt is
+written ``KNa(NO3)2``). Text with none of these separators is not looked at
+further, so ordinary formulas pay one character scan.
+
+>>> m = read_mixture_text("LiCl-KCl (58.8-41.2 mol%)")
+>>> m.parts, m.amounts, m.basis
+(('LiCl', 'KCl'), (58.8, 41.2), 'mol')
+>>> read_mixture_text("CuSO4·5H2O") is None
+True
+"""
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+
+__all__ = ["MixtureText", "MixtureNotationError", "read_mixture_text", "blend_key"]
+
+_NUMBER = r"\d+(?:\.\d+)?"
+_BASIS = r"(?:\s*(?P<basis>mol|wt|mass|w/w|mol/mol)?\s*(?:%|percent|pct)?)"
+# proportions in brackets at the end: "(46.5-11.5-42 mol%)", "(1:2)"
+_BRACKETED = re.compile(
+    rf"\s*\(\s*(?P<numbers>{_NUMBER}(?:\s*[-–:/]\s*{_NUMBER})+){_BASIS}\s*\)\s*$", re.IGNORECASE
+)
+# proportions after a space at the end: "58.8:41.2", "60:40 wt%", "1:2"
+_TRAILING = re.compile(
+    rf"\s+(?P<numbers>{_NUMBER}(?:\s*[-–:/]\s*{_NUMBER})+){_BASIS}\s*$", re.IGNORECASE
+)
+_LEADING_AMOUNT = re.compile(rf"^\s*(?P<amount>{_NUMBER})\s*(?=[A-Za-z(\[])")
+_DOTS = "·•∙⋅*"
+_QUICK = frozenset("-–—:+·•∙⋅* ")
+_JOINERS = frozenset("-–—:+ ")
+_ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
+
+
+class MixtureNotationError(ValueError):
+    """Text that is clearly a mixture but cannot be read (the message says why)."""
+
+
+@dataclass(frozen=True)
+class MixtureText:
+    """What the notation says: component texts, amounts as written and their basis.
+
+    ``amounts`` is empty when no proportion was given; ``basis`` is ``"mol"``
+    or ``"wt"``; ``notes`` are the ambiguity warnings of this spelling.
+    """
+
+    parts: tuple[str, ...]
+    amounts: tuple[float, ...] = ()
+    basis: str = "mol"
+    notes: tuple[str, ...] = ()
+
+
+def blend_key(name: str) -> str:
+    """How a blend name is looked up: case and spacing ignored.
+
+    >>> blend_key("  Solar   SALT ")
+    'solar salt'
+    """
+    return " ".join(name.lower().split())
+
+
+def _split_top(text: str, separators: str) -> list[str]:
+    """Split at any of ``separators`` outside brackets."""
+    parts, depth, start = [], 0, 0
+    for i, ch in enumerate(text):
+        if ch in "([{":
+            depth += 1
+        elif ch in ")]}":
+            depth -= 1
+        elif depth == 0 and ch in separators:
+            parts.append(text[start:i])
+            start = i + 1
+    parts.append(text[start:])
+    return parts
+
+
+def _dash_split(text: str) -> list[str]:
+    """Split at dashes that join two formulas (a dash at the end, or after ^, is a charge)."""
+    parts, depth, start = [], 0, 0
+    for i, ch in enumerate(text):
+        if ch in "([{":
+            depth += 1
+        elif ch in ")]}":
+            depth -= 1
+        elif depth == 0 and ch in "-–—" and 0 < i < len(text) - 1:
+            before, after = text[i - 1], text[i + 1]
+            if before not in "^+-" and (after.isalpha() or after in "([ " or after.isdigit()):
+                parts.append(text[start:i])
+                start = i + 1
+    parts.append(text[start:])
+    return parts
+
+
+def _basis(word: str | None) -> str:
+    if word is None:
+        return "mol"
+    return "wt" if word.lower() in ("wt", "mass", "w/w") else "mol"
+
+
+def _proportions(text: str) -> tuple[str, tuple[float, ...], str]:
+    """(body, amounts, basis) with a trailing proportion taken off."""
+    for pattern in (_BRACKETED, _TRAILING):
+        m = pattern.search(text)
+        if m and m.start() > 0:
+            numbers = tuple(float(n) for n in re.findall(_NUMBER, m.group("numbers")))
+            return text[: m.start()].strip(), numbers, _basis(m.group("basis"))
+    return text.strip(), (), "mol"
+
+
+def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...]]:
+    names, amounts = [], []
+    for part in parts:
+        m = _LEADING_AMOUNT.match(part)
+        if m:
+            amounts.append(float(m.group("amount")))
+            names.append(part[m.end():].strip())
+        else:
+            names.append(part.strip())
+    if amounts and len(amounts) != len(parts):
+        raise MixtureNotationError(
+            f"amounts given for {len(amounts)} of {len(parts)} components in {' + '.join(parts)!r};"
+            " give one for every component or none"
+        )
+    return names, tuple(amounts)
+
+
+def read_mixture_text(text: str) -> MixtureText | None:
+    """Read mixture notation; None when ``text`` is not written as a mixture.
+
+    Parameters
+    ----------
+    text : str
+        A cell of the formula column.
+
+    Returns
+    -------
+    MixtureText or None
+        The components as written (not yet resolved or checked as formulas).
+
+    Raises
+    ------
+    MixtureNotationError
+        When the text is plainly a mixture but its proportions do not fit
+        (more numbers than components, amounts on only some components).
+
+    Examples
+    --------
+    >>> read_mixture_text("ChCl:urea 1:2").parts
+    ('ChCl', 'urea')
+    >>> read_mixture_text("0.588 LiCl + 0.412 KCl").amounts
+    (0.588, 0.412)
+    >>> read_mixture_text("NaNO3-KNO3 60:40 wt%").basis
+    'wt'
+    >>> read_mixture_text("KNO3+NaNO3").notes[0][:45]
+    "'KNO3+NaNO3' was read as a mixture of KNO3 an"
+    >>> read_mixture_text("SO4^2-") is None, read_mixture_text("[Fe(CN)6]4-") is None
+    (True, True)
+    """
+    if _QUICK.isdisjoint(text):
+        return None
+    if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
+        return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
+    body, amounts, basis = _proportions(text)
+    notes: list[str] = []
+    joined_by = ""
+    if "+" in body and len(_split_top(body, "+")) > 1 and not body.rstrip().endswith("+"):
+        parts = _split_top(body, "+")
+        joined_by = "+"
+    elif ":" in body:
+        parts = _split_top(body, ":")
+        joined_by = ":"
+    elif any(d in body for d in "-–—") and len(_dash_split(body)) > 1:
+        parts = _dash_split(body)
+        joined_by = "-"
+    elif any(d in body for d in _DOTS):
+        parts = _split_top(body, _DOTS)
+        if len(parts) < 2 or not all(_LEADING_AMOUNT.match(p) and "." in _LEADING_AMOUNT.match(p).group("amount") for p in parts):
+            return None
+        joined_by = "·"
+    else:
+        return None
+    parts = [p for p in (p.strip() for p in parts)]
+    if any(not p for p in parts):
+        if joined_by in ("+", "·"):
+            return None
+        raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
+    if any(_ADDUCT.match(p) for p in parts[1:]):
+        return None  # a hydrate or adduct written with '+' ("CaSO4+2H2O"): the compound reading
+    names, leading = _leading_amounts(parts)
+    if leading and amounts:
+        raise MixtureNotationError(f"{text!r} gives both leading amounts and proportions after the components; give one")
+    if leading:
+        amounts = leading
+    if amounts and len(amounts) != len(names):
+        raise MixtureNotationError(
+            f"{len(amounts)} proportions for {len(names)} components in {text!r}"
+            " (write one number per component, e.g. 'LiCl-KCl (58.8-41.2 mol%)')"
+        )
+    if any(a <= 0 for a in amounts):
+        raise MixtureNotationError(f"a proportion of zero in {text!r}; leave that component out")
+    if joined_by == "+" and not leading and "+" in body and " + " not in body:
+        notes.append(
+            f"{text!r} was read as a mixture of {' and '.join(names)} (also possible: one compound of them,"
+            " a double salt); write the double salt as one formula, e.g. KNa(NO3)2, or 'A + B' for a mixture"
+        )
+    if joined_by == "·":
+        notes.append(
+            f"{text!r} was read as a mixture of {' and '.join(names)} in the amounts written (also possible:"
+            " one non-stoichiometric compound or solid solution); write 'A + B' for a mixture"
+        )
+    return MixtureText(tuple(names), tuple(amounts), basis, tuple(notes))

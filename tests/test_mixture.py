@@ -1,0 +1,211 @@
+"""Mixtures in the formula column (scorer/mixture_notation.py, scorer/mixture.py).
+
+References: molar masses for the weight-percent conversion from molmass (an
+independent reference library, IUPAC atomic weights); melting points and
+enthalpies of fusion from the chemicals package's CRC tables (CRC Handbook,
+Haynes 2014); the compositions of the standard blends from their sources in
+scorer/data/blends.csv.
+"""
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from ionicity.scorer.mixture import fusion_rows, read_mixture
+from ionicity.scorer.mixture_notation import MixtureNotationError, read_mixture_text
+from ionicity.scorer.mixture_rules import MIXTURE_RULES
+from ionicity.scorer.columns import output_columns
+from ionicity.scorer.record import score_formula, score_row
+from ionicity.scorer.tables import table
+
+
+def _mix(text):
+    r = score_formula(text)
+    assert r["substance_class"] == "mixture", (text, r["message"])
+    return r, r["mixture_components"].split(";"), [float(x) for x in r["mixture_mole_fractions"].split(";")]
+
+
+@pytest.mark.parametrize(
+    "text, components, fractions",
+    [
+        ("LiCl-KCl (58.8-41.2 mol%)", ["LiCl", "KCl"], [0.588, 0.412]),
+        ("LiCl–KCl 58.8:41.2", ["LiCl", "KCl"], [0.588, 0.412]),  # en dash
+        ("LiCl:KCl 58.8:41.2", ["LiCl", "KCl"], [0.588, 0.412]),
+        ("0.588 LiCl + 0.412 KCl", ["LiCl", "KCl"], [0.588, 0.412]),
+        ("0.588LiCl·0.412KCl", ["LiCl", "KCl"], [0.588, 0.412]),
+        ("LiF-NaF-KF (46.5-11.5-42 mol%)", ["LiF", "NaF", "KF"], [0.465, 0.115, 0.42]),
+        ("ChCl:urea 1:2", ["[Ch]Cl", "urea"], [1 / 3, 2 / 3]),
+        ("choline chloride : urea (1:2)", ["[Ch]Cl", "urea"], [1 / 3, 2 / 3]),
+        ("MgCl2-KCl 32:68", ["MgCl2", "KCl"], [0.32, 0.68]),
+        ("NaOH + KOH", ["NaOH", "KOH"], [0.5, 0.5]),
+    ],
+)
+def test_notation_components_and_mole_fractions(text, components, fractions):
+    _, got_components, got_fractions = _mix(text)
+    assert got_components == components
+    assert got_fractions == pytest.approx(fractions, abs=1e-4)
+
+
+def test_weight_percent_is_converted_with_molar_masses():
+    molmass = pytest.importorskip("molmass")
+    m_na, m_k = molmass.Formula("NaNO3").mass, molmass.Formula("KNO3").mass  # IUPAC weights via molmass
+    expected = (60 / m_na) / (60 / m_na + 40 / m_k)
+    for text in ("NaNO3-KNO3 60:40 wt%", "NaNO3:KNO3 (60-40 wt%)", "solar salt"):
+        _, components, fractions = _mix(text)
+        assert components == ["NaNO3", "KNO3"]
+        assert fractions[0] == pytest.approx(expected, abs=1e-4)
+    # the same numbers in mol% are not converted
+    assert _mix("NaNO3-KNO3 60:40 mol%")[2][0] == pytest.approx(0.6)
+
+
+@pytest.mark.parametrize(
+    "text, components, fractions",
+    [  # compositions as the sources in scorer/data/blends.csv give them
+        ("FLiNaK", ["LiF", "NaF", "KF"], [0.465, 0.115, 0.42]),
+        ("flinak", ["LiF", "NaF", "KF"], [0.465, 0.115, 0.42]),
+        ("FLiBe", ["LiF", "BeF2"], [0.67, 0.33]),
+        ("reline", ["[Ch]Cl", "urea"], [1 / 3, 2 / 3]),
+        ("LiCl-KCl eutectic", ["LiCl", "KCl"], [0.588, 0.412]),
+    ],
+)
+def test_blend_names(text, components, fractions):
+    r, got_components, got_fractions = _mix(text)
+    assert got_components == components
+    assert got_fractions == pytest.approx(fractions, abs=1e-4)
+    assert "read as" in r["value_notes"]
+
+
+def test_hitec_weight_percent_to_mole_fractions():
+    molmass = pytest.importorskip("molmass")
+    w = {"NaNO2": 40, "NaNO3": 7, "KNO3": 53}  # Kirst, Nagle and Castner 1940 (blends.csv)
+    n = {k: v / molmass.Formula(k).mass for k, v in w.items()}
+    _, components, fractions = _mix("Hitec")
+    assert components == list(w)
+    assert fractions == pytest.approx([n[k] / sum(n.values()) for k in w], abs=1e-4)
+
+
+@pytest.mark.parametrize(
+    "text, alternative",
+    [("LiCl+KCl", "double salt"), ("KNO3+NaNO3", "KNa(NO3)2"), ("0.588LiCl·0.412KCl", "solid solution")],
+)
+def test_ambiguous_notations_warn_and_say_which_reading(text, alternative):
+    r, _, _ = _mix(text)
+    assert r["status"] == "warning"
+    assert "read as a mixture" in r["message"] and alternative in r["message"]
+
+
+def test_no_proportions_warns_and_says_what_was_assumed():
+    r, _, fractions = _mix("LiCl-KCl")
+    assert r["status"] == "warning" and "published liquidus point" in r["message"]
+    assert fractions == pytest.approx([0.588, 0.412])
+    r, _, fractions = _mix("NaCl-KBr")  # no published point: equal moles
+    assert "equal moles assumed" in r["message"] and fractions == pytest.approx([0.5, 0.5])
+
+
+@pytest.mark.parametrize(
+    "text, normalized",
+    [
+        ("KNa(NO3)2", "KNa(NO3)2"),
+        ("KMgCl3", "KMgCl3"),
+        ("K2SO4·Al2(SO4)3·24H2O", "K2Al2(SO4)4·24H2O"),
+        ("CuSO4·5H2O", "CuSO4·5H2O"),
+        ("CaCl2·6H2O", "CaCl2·6H2O"),
+        ("CaSO4+2H2O", "CaSO4·2H2O"),
+        ("CaSO4·0.5H2O", "CaSO4·0.5H2O"),
+        ("SO4^2-", "SO4^2-"),
+        ("[Fe(CN)6]4-", None),
+        ("[C4mim]+[BF4]-", "[C4mim][BF4]"),
+        ("NaCl", "NaCl"),
+    ],
+)
+def test_compounds_stay_compounds(text, normalized):
+    r = score_formula(text)
+    assert r["substance_class"] != "mixture"
+    assert r["mixture_components"] is None and math.isnan(r["liquidus_estimate_K"])
+    if normalized:
+        assert r["formula_normalized"] == normalized
+
+
+def test_component_names_resolve():
+    assert fusion_rows()["chcl"]["formula"] == "[Ch]Cl"  # the cholinium ion of scorer/data/ions.csv
+    assert fusion_rows()["urea"]["formula"] == "CH4N2O"
+    r = score_formula("[Ch]Cl")
+    assert r["cations"] == "[Ch](+)*1"
+
+
+@pytest.mark.parametrize(
+    "text, words",
+    [
+        ("LiCl-KCl 1:2:3", "3 proportions for 2 components"),
+        ("0.5 LiCl + KCl", "amounts given for 1 of 2"),
+        ("LiCl-Xx", "component 'Xx'"),
+        ("LiCl:foo 1:2", "component 'foo'"),
+        ("LiCl-LiCl", "named twice"),
+        ("LiCl-KCl (0-100 mol%)", "zero"),
+    ],
+)
+def test_unreadable_mixtures_are_error_rows_saying_why(text, words):
+    r = score_formula(text)
+    assert r["status"] == "error" and words in r["message"], r["message"]
+
+
+def test_no_row_is_dropped():
+    pd = pytest.importorskip("pandas")
+    from ionicity.pipelines.table import score_table
+
+    texts = ["LiCl-KCl", "FLiNaK", "LiCl-KCl 1:2:3", "NaCl", None, "ChCl:urea 1:2", "KNO3+NaNO3"]
+    out = score_table(pd.DataFrame({"formula": texts}), formula_col="formula")
+    assert len(out) == len(texts)
+    assert list(out["status"]) == ["warning", "ok", "error", "ok", "error", "ok", "warning"]
+
+
+def test_mixture_values_follow_their_rules():
+    r, _, x = _mix("LiCl-KCl (58.8-41.2 mol%)")
+    li, k = score_formula("LiCl"), score_formula("KCl")
+    assert r["molar_mass_g_mol"] == pytest.approx(x[0] * li["molar_mass_g_mol"] + x[1] * k["molar_mass_g_mol"])
+    assert r["delta_chi_pauling"] == pytest.approx(x[0] * li["delta_chi_pauling"] + x[1] * k["delta_chi_pauling"])
+    assert r["cation_polarising_power_max_e_per_A2"] == pytest.approx(li["cation_polarising_power_max_e_per_A2"])
+    assert r["cations"] == "Li(+)*0.588;K(+)*0.412" and r["anions"] == "Cl(-)*1"
+    assert r["structure_type"] is None and math.isnan(r["lattice_energy_vbt_kJ_mol"])
+    assert r["anion_hsab_class"] == li["anion_hsab_class"]
+
+
+def test_every_column_states_how_a_mixture_value_is_formed():
+    for column in output_columns():
+        if MIXTURE_RULES.get(column.name) == "own":
+            continue
+        assert "mixture:" in column.method, column.name
+    # every rule names a column that exists (a renamed column shows here)
+    names = {c.name for c in output_columns()}
+    assert set(MIXTURE_RULES) <= names
+
+
+def test_molecular_component_has_no_ion_values():
+    r, _, _ = _mix("ChCl:urea 1:2")
+    assert "urea: neutral molecule" in r["value_notes"]
+    chcl = score_formula("[Ch]Cl")
+    # the ion-based mean comes from the one component that has ions
+    assert r["delta_chi_pauling"] == pytest.approx(chcl["delta_chi_pauling"])
+
+
+def test_notation_reader_rejects_nothing_it_should_not_see():
+    assert read_mixture_text("Fe0.95O") is None
+    assert read_mixture_text("CaSO4·0.5H2O") is None
+    with pytest.raises(MixtureNotationError):
+        read_mixture_text("LiCl-KCl (1-2-3 mol%)")
+    assert read_mixture("NaCl", score_row) is None
+
+
+def test_fusion_table_matches_the_chemicals_crc_data():
+    pytest.importorskip("chemicals")
+    from chemicals.phase_change import Hfus, Tm
+
+    checked = 0
+    for row in table("fusion.csv"):
+        if not row["source"].startswith("CRC Handbook"):
+            continue  # choline chloride: an estimate, from memory (its source says so)
+        assert Tm(row["cas"]) == pytest.approx(float(row["melting_point_K"]), abs=0.01), row["component"]
+        assert Hfus(row["cas"]) / 1000 == pytest.approx(float(row["enthalpy_fusion_kJ_mol"]), rel=1e-6), row["component"]
+        checked += 1
+    assert checked == 37
