@@ -472,7 +472,7 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
     if model == "not_applicable" and cls in _IONLESS_CLASSES and dec.is_ionic:
         counts = _counts(dec)
         changes.update(
-            cations=(), anions=(), alternatives=(),
+            cations=(), anions=(), alternatives=(), formal_ions=(dec.cations, dec.anions),
             oxidation_states=_in_order(formal_oxidation_states(counts), dec.oxidation_states)
             if len(counts) > 1 else dec.oxidation_states,
         )

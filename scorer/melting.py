@@ -79,6 +79,8 @@ the one caution text, quoted in the columns' descriptions).
 """
 from __future__ import annotations
 
+import dataclasses
+
 import math
 from dataclasses import dataclass, replace
 
@@ -480,6 +482,23 @@ def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
     return math.log10(temperature) if temperature > 0 else math.nan, steps
 
 
+def _formal_salt(dec: Decomposition) -> Decomposition | None:
+    """The ionic reading of a compound for the salt index of the chain-layer
+    and network routes: its own ions, or the formal ions the applicability
+    decision dropped (scorer.applicability: CrO3 as Cr(6+) with O(2-)), read
+    as a salt for this purpose only; None without either."""
+    if dec.is_ionic and dec.ionic_model != "not_applicable":
+        return dec
+    if dec.is_ionic:
+        cations, anions = dec.cations, dec.anions
+    elif dec.formal_ions and dec.formal_ions[0] and dec.formal_ions[1]:
+        cations, anions = dec.formal_ions
+    else:
+        return None
+    return dataclasses.replace(dec, cations=cations, anions=anions, substance_class="ionic_salt",
+                               ionic_model="applies", formal_ions=())
+
+
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
           summary=_summary, maxsize=16384)
 def analyse(dec: Decomposition) -> MeltingTrend:
@@ -510,7 +529,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index, steps = _molecular(dec)
     elif route == "chain_layer":
         molecular, steps = _molecular(dec)
-        salt, terms, notes = _salt(dec) if dec.is_ionic else (math.nan, None, [])
+        formal = _formal_salt(dec)
+        salt, terms, notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and math.isfinite(molecular):
             index = routes.chain_layer_index(salt, molecular)
             steps = (f"  chain/layer solid: I = mean of the salt index {salt:.3f} and the molecular index"
@@ -523,7 +543,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index = math.log10(temperature) if temperature > 0 else math.nan
         steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"
                  f" (solid at 25 C; CRC Handbook via chemicals) = {temperature:.0f} K, {how}",)
-        salt = _salt(dec)[0] if dec.is_ionic else math.nan
+        formal = _formal_salt(dec)
+        salt = _salt(formal)[0] if formal is not None else math.nan
         if math.isfinite(salt) and not salt <= index:
             # a polar network (GaN, AlN) holds at least as well as its ionic reading
             steps = (*steps, f"  the ionic reading is higher, {trend_temperature_K(salt):.0f} K: it is taken"

@@ -107,6 +107,10 @@ class Decomposition:
     # (cached per decomposition) are then found again by the descriptors.
     ionic_model: str = field(default="applies", compare=False)
     ionic_model_reasons: tuple[str, ...] = field(default=(), compare=False)
+    # the formal ions (cations, anions) dropped where the ionic model does not
+    # apply: the melting routes of chain and layer solids and of polar
+    # networks still weigh the ionic reading (scorer.melting)
+    formal_ions: tuple = field(default=(), compare=False)
 
     @property
     def is_ionic(self) -> bool:

@@ -147,7 +147,7 @@ def short_notes(text: str | None) -> str | None:
     notes no entry matches stay as written.
 
     >>> short_notes("no HSAB hardness for SO4(2-): no I and A tabulated here for its parent radical;"
-    ...             " a new note; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion)")
+    ...             " a new note; Born-Lande/Born-Mayer: need a binary salt (one cation and one anion) or a measured structure")
     'hsab_no_IA(SO4(2-)); a new note; born_not_binary'
     >>> short_notes("covalent molecular: ion-based values do not apply")
     'not_ionic'
