@@ -86,7 +86,9 @@ def test_the_sample_is_bounded_and_uniform(scored):
 def test_rows_below_100_c_are_those_a_filter_finds(scored, frame):
     data = aggregate(str(scored))
     below = classes_melting_below()
-    assert below == ("ionic_liquid",)  # the trade's definition: melts below 100 C (Wasserscheid & Welton 2008, from memory)
+    # every class whose band ends at or below 100 C: the salts' ionic_liquid (the trade's
+    # definition, Wasserscheid & Welton 2008, from memory) and the two bands of other compounds
+    assert below == ("ionic_liquid", "liquid_at_room_temperature", "melts_below_100C")
     low = frame[frame.melting_class.isin(below)]
     assert data.low_melting_rows == len(low)
     assert set(data.low_melting) == set(low.formula_normalized)
@@ -98,17 +100,22 @@ def test_rows_below_100_c_are_those_a_filter_finds(scored, frame):
 
 
 def test_melting_bands_cover_every_class_without_gaps():
+    # two ladders on one temperature scale: the salts' classes and the other compounds',
+    # both ending in refractory (scorer.melting_routes.MELTING_CLASS_BANDS)
     bands = melting_bands()
-    assert bands[0][1] == 0.0 and bands[-1][2] == float("inf")
-    for (_, _, upper, _), (_, lower, _, _) in zip(bands, bands[1:]):
-        assert upper == lower
-    assert bands[0][2] == pytest.approx(100 + 273.15)  # 0 C = 273.15 K (SI definition)
+    salt = [b for b in bands if b[0] in ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")]
+    other = [b for b in bands if b[0] not in ("ionic_liquid", "low_melting_salt", "molten_salt")]
+    for ladder in (salt, other):
+        assert ladder[0][1] == 0.0 and ladder[-1][2] == float("inf")
+        for (_, _, upper, _), (_, lower, _, _) in zip(ladder, ladder[1:]):
+            assert upper == lower
+    assert salt[0][2] == pytest.approx(100 + 273.15)  # 0 C = 273.15 K (SI definition)
 
 
 def test_errors_are_listed_with_ids_names_and_grouped_reasons(scored, frame):
     data = aggregate(str(scored))
     errors = frame[frame.status == "error"]
-    assert data.kind_rows["error"] == len(errors) == 10
+    assert data.kind_rows["error"] == len(errors) >= 8  # datasets/demo/README.md plants at least 8
     first = data.first_rows["error"]
     assert [r["row"] for r in first] == [i + 1 for i in errors.index[: len(first)]]
     assert [r["id"] for r in first] == errors.item_id.tolist()[: len(first)]
@@ -124,10 +131,13 @@ def test_the_page_has_every_section_and_answers_the_two_questions(scored, tmp_pa
     page = out.read_text(encoding="utf-8")
     for sid, title in SECTIONS:
         assert f'<section id="{sid}"><h2>{title}</h2>' in page
-    assert "Rows that could not be scored (status error): 10" in page
-    assert "Predicted to melt below 100 C: 27 rows" in page
+    frame = pd.read_parquet(scored)
+    assert f"Rows that could not be scored (status error): {int((frame.status == 'error').sum())}" in page
+    below = int(frame.melting_class.isin(classes_melting_below()).sum())
+    assert f"Predicted to melt below 100 C: {below} rows" in page
     assert "safety data sheet" in page
-    assert "not checked in this run" in page.lower()
+    # the scored demo carries the audit columns (slips, names, duplicates): each has its count
+    assert "Typing slips with a suggestion:" in page and "Duplicates of an earlier row:" in page
     # self-contained: nothing fetched from anywhere
     assert not re.search(r"""(src|href)\s*=\s*["']?(https?:|//)""", page)
     assert "@import" not in page and "url(http" not in page
@@ -136,6 +146,10 @@ def test_the_page_has_every_section_and_answers_the_two_questions(scored, tmp_pa
 
 def _with_optional_columns(scored, path):
     table = pq.read_table(scored)
+    # the scorer writes these columns itself now; they are set here to known values
+    table = table.drop_columns([c for c in ("formula_suggested", "name_check", "name_formula",
+                                            "first_row_same_compound", "liquidus_estimate_K", "mixture_components")
+                                if c in table.column_names])
     n = table.num_rows
     suggested = [None] * n
     suggested[40] = "NaCl"                                       # QTS-0041 NaCL (datasets/demo/README.md)
@@ -177,7 +191,7 @@ def test_optional_columns_are_shown_when_present(scored, tmp_path):
 
 def test_a_scored_csv_is_reported_too(tmp_path, frame):
     scored_csv = tmp_path / "demo.csv"
-    score_file(str(DEMO), str(scored_csv), quiet=True)
+    score_file(str(DEMO), str(scored_csv), name_col="name", quiet=True)  # as the fixture was scored
     data = aggregate(str(scored_csv), batch_rows=100)
     assert data.rows == 208 and dict(data.counts["status"]) == frame["status"].value_counts().to_dict()
     assert data.name_col == "name" and data.id_col == "item_id"  # found by name, the CSV carries no run options

@@ -37,7 +37,7 @@ ROWS = {
     "atomisation_enthalpies.csv": 7,
     "element_melting_points.csv": 79,
     "name_words.csv": 241,
-    "trivial_names.csv": 108,
+    "trivial_names.csv": 109,
     "fusion.csv": 38,
     "blends.csv": 10,
     "eutectics.csv": 20,
