@@ -92,7 +92,7 @@ _LETTER_RUN = re.compile(r"[A-Za-z]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
-_MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|\d{2,}H2O$")
+_MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$")
 _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
 # a single element letter with three or more digits: the numeric code of a
 # quaternary ammonium or phosphonium ion (N2224, P66614), not a count
