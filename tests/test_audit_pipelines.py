@@ -1,5 +1,6 @@
 """first_row_same_compound across streamed batches, in score_table, and the
---summary JSON (pipelines/duplicates.py, pipelines/audit_summary.py)."""
+--summary JSON (pipelines/duplicates.py, pipelines/audit_summary.py). Properties of our own
+bookkeeping (common practice: a duplicate is the same normalised formula); no scientific reference values."""
 from __future__ import annotations
 
 import json

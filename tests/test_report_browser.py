@@ -3,7 +3,8 @@
 CI installs Debian's ``chromium`` (``.ci/run``); the test skips, saying so,
 only where no Chromium-family browser is on PATH. It renders the page,
 checks that the screenshot is not blank (the variance of its pixels) and
-that every section is present in the DOM the browser built.
+that every section is present in the DOM the browser built. Properties of our own
+page (common practice for a self-contained report); no scientific reference values.
 """
 from __future__ import annotations
 

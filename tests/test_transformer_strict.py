@@ -1,4 +1,8 @@
-"""FormulaDescriptors: on_error, validity column, one-hot categories, n_features_in_, scikit-learn's checks."""
+"""FormulaDescriptors: on_error, validity column, one-hot categories, n_features_in_, scikit-learn's checks.
+
+The reference is scikit-learn's own estimator checks (sklearn.utils.estimator_checks) and its
+developer guide's rules for transformers (common practice); no scientific reference values.
+"""
 from __future__ import annotations
 
 import warnings

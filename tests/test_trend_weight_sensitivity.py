@@ -1,5 +1,8 @@
 """Every weight of the melting trend index is checked by some test: tests/perturb_trend_weights.py in CI.
 
+A property of our own test suite (common practice: a weight no test can move is untested);
+the reference values live in the melting tests it runs, each with its source.
+
 The script changes each weight of ``scorer.melting.TREND_WEIGHTS`` by +50 % and by
 -50 %, one at a time, and lists the changes that leave every melting test green.
 One change is not caught today, and no referenced test can honestly catch it

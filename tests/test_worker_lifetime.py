@@ -1,5 +1,6 @@
 """Worker processes of a killed run exit by themselves, even while the killed
-parent waits unreaped as a zombie (its own parent never called wait)."""
+parent waits unreaped as a zombie (its own parent never called wait). A property of our
+own process handling (common practice for worker pools); no scientific reference values."""
 from __future__ import annotations
 
 import os
