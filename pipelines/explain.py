@@ -70,36 +70,32 @@ def _type_text(c) -> str:
     return f"{c.dtype}, {c.digits} significant digits" if c.digits else c.dtype
 
 
+def _two_column_listing(fmt: str, header: tuple[str, str], listing, footnote: str) -> str:
+    """A listing of (key, text) pairs as CSV, a Markdown table, or text lines with a footnote."""
+    if fmt == "csv":
+        buffer = io.StringIO()
+        writer = csv.writer(buffer, lineterminator="\n")
+        writer.writerow(list(header))
+        writer.writerows(listing)
+        return buffer.getvalue().rstrip("\n")
+    if fmt == "markdown":
+        return "\n".join([f"| {header[0]} | {header[1]} |", "| --- | --- |"] + [f"| `{k}` | {v} |" for k, v in listing])
+    return "\n".join(f"{k}: {v}" for k, v in listing) + "\n" + footnote
+
+
 def columns_table(fmt: str = "text", groups: bool = False, notes: bool = False) -> str:
     """Every generated column with its type (and, for floats, the significant
     digits written), unit, group, method and source; with ``groups``, the
     groups ``--columns`` takes and their columns instead; with ``notes``, the
     short codes of ``value_notes`` and what each means."""
     if notes:
-        listing = notes_table()
-        if fmt == "csv":
-            buffer = io.StringIO()
-            writer = csv.writer(buffer, lineterminator="\n")
-            writer.writerow(["code", "meaning"])
-            writer.writerows(listing)
-            return buffer.getvalue().rstrip("\n")
-        if fmt == "markdown":
-            return "\n".join(["| code | meaning |", "| --- | --- |"] + [f"| `{c}` | {m} |" for c, m in listing])
-        return "\n".join(f"{c}: {m}" for c, m in listing) + (
-            "\n(CODE(ION) names the ion concerned; a note without a code is written in full)")
+        return _two_column_listing(fmt, ("code", "meaning"), notes_table(),
+                                   "(CODE(ION) names the ion concerned; a note without a code is written in full)")
     group_of = {name: g for g, names in column_groups().items() for name in names}
     if groups:
         listing = [(g, ", ".join(names)) for g, names in column_groups().items()]
-        if fmt == "csv":
-            buffer = io.StringIO()
-            writer = csv.writer(buffer, lineterminator="\n")
-            writer.writerow(["group", "columns"])
-            writer.writerows(listing)
-            return buffer.getvalue().rstrip("\n")
-        if fmt == "markdown":
-            return "\n".join(["| group | columns |", "| --- | --- |"] + [f"| `{g}` | {names} |" for g, names in listing])
-        return "\n".join(f"{g}: {names}" for g, names in listing) + (
-            "\n(status and message are always written; --columns takes groups and column names)")
+        return _two_column_listing(fmt, ("group", "columns"), listing,
+                                   "(status and message are always written; --columns takes groups and column names)")
     # the name check's two columns last: they are written only with a name column
     columns = output_columns() + NAME_COLUMNS
     if fmt == "csv":
