@@ -39,6 +39,7 @@ import pyarrow.parquet as pq
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
+from ionicity.pipelines.scheduler import locality_key
 from ionicity.scorer.verdict import STATUSES
 
 __all__ = [
@@ -127,9 +128,15 @@ def share_distinct(per_piece: list[int], distinct: int, workers: int) -> bool:
 
 
 def distinct_chunks(formulas: pa.Array, workers: int) -> list[pa.Array]:
-    """The distinct formulas cut into about ``_CHUNKS_PER_WORKER`` chunks a worker."""
-    size = max(-(-len(formulas) // max(workers * _CHUNKS_PER_WORKER, 1)), _MIN_CHUNK)
-    return [formulas.slice(i, size) for i in range(0, len(formulas), size)]
+    """The distinct formulas cut into about ``_CHUNKS_PER_WORKER`` chunks a
+    worker, the spellings of one salt kept together
+    (:func:`ionicity.pipelines.scheduler.locality_key`): resolving a salt is
+    most of a formula's cost, and its hydrates then meet it in one worker's
+    caches. Each chunk is its own copy, so a task is sent only its formulas."""
+    texts = formulas.to_pylist()
+    order = sorted(range(len(texts)), key=lambda i: locality_key(texts[i]) if texts[i] is not None else ("", ""))
+    size = max(-(-len(order) // max(workers * _CHUNKS_PER_WORKER, 1)), _MIN_CHUNK)
+    return [formulas.take(pa.array(order[i:i + size], pa.int64())) for i in range(0, len(order), size)]
 
 
 def score_distinct(formulas: pa.Array, full_precision: bool = False) -> tuple[pa.Array, list[pa.Array]]:

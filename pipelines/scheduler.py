@@ -22,7 +22,7 @@ from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import WORKER_LOST, WorkerPool, default_workers, score_values
 
-__all__ = ["BatchScorer", "Ticket", "PARALLEL_MIN_NEW", "formula_array", "used_entries"]
+__all__ = ["locality_key", "BatchScorer", "Ticket", "PARALLEL_MIN_NEW", "formula_array", "used_entries"]
 
 # Below this many new distinct formulas in a batch, shipping them to worker
 # processes costs more than scoring them here (measured: see
@@ -35,10 +35,14 @@ _ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
 _TOKENS = itertools.count(1)
 
 
-def _locality_key(text: str) -> tuple[str, str]:
-    # Hydrates and other spellings of one salt share the scorer's per-process
-    # caches (the salt is decomposed once), so keep them in the same chunk.
+def locality_key(text: str) -> tuple[str, str]:
+    """(salt part, text): hydrates and other spellings of one salt share the
+    scorer's per-process caches (the salt is decomposed once), so whoever
+    splits formulas between processes keeps them together by this key."""
     return (_ADDUCT_MARKS.split(text, 1)[0].strip(), text)
+
+
+_locality_key = locality_key
 
 
 class BatchScorer:
