@@ -105,8 +105,17 @@ def summary(rows: list[dict]) -> dict:
         finite = [e <= 5.0 for e in errs if not math.isnan(e)]
         return (sum(finite), len(errs))
 
+    by_method = {}
+    for name, column in METHODS:
+        errs = [abs(error_pct(scored(r)[0].get(column), float(r["u_kJ_mol"]))) for r in rows]
+        errs = [e for e in errs if not math.isnan(e)]
+        by_method[name] = (len(errs), statistics.median(errs) if errs else math.nan, sum(e <= 5.0 for e in errs))
+    models = [e for e in model_err if not math.isnan(e)]
     return {
         "rows": len(rows),
+        "by_method": by_method,
+        "best_median_abs_pct": statistics.median([e for e in best_err if not math.isnan(e)]),
+        "best_models_median_abs_pct": statistics.median(models) if models else math.nan,
         "within_5pct": share(best_err),
         "within_5pct_models": share(model_err),
         "alkali_halide_median_abs_pct": statistics.median(alkali) if alkali else math.nan,
@@ -137,6 +146,11 @@ def print_summary(label: str, rows: list[dict], out=sys.stdout) -> None:
     print(f"[{label}] best value within 5 %: {n}/{total} ({100.0 * n / total:.0f} %)", file=out)
     if mtotal:
         print(f"[{label}] best value within 5 %, model rows only (not the cycle): {m}/{mtotal} ({100.0 * m / mtotal:.0f} %)", file=out)
+    print(f"[{label}] median |error| of the best value: {s['best_median_abs_pct']:.1f} %;"
+          f" model rows only: {s['best_models_median_abs_pct']:.1f} %", file=out)
+    for name, (count, median, within) in s["by_method"].items():
+        if count:
+            print(f"[{label}] {name}: {count} rows with a value, median |error| {median:.1f} %, within 5 %: {within}", file=out)
     print(
         f"[{label}] alkali halides ({s['alkali_halides']}): median |error| of the best method"
         f" {s['alkali_halide_median_abs_pct']:.2f} %",

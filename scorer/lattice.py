@@ -121,14 +121,15 @@ COLUMNS: tuple[Column, ...] = (
         "lattice_energy_kapustinskii_kJ_mol", "float64", "kJ/mol",
         "Kapustinskii lattice potential energy as published (his constant 120.25 kJ mol^-1 nm, Goldschmidt radii"
         " for monatomic ions, thermochemical radii for polyatomic ones); several ions through the ionic strength"
-        " (Glasser); anhydrous salt",
+        " (Glasser); anhydrous salt; empty where lattice_energy_cycle_kJ_mol is given (covalent salts, see value_notes)",
         "kapustinskii_lattice_energy_kJ_mol / glasser_kapustinskii_lattice_energy_kJ_mol", _SOURCE_KAP,
         "count-weighted mean cation radius plus count-weighted mean anion radius",
     ),
     Column(
         "lattice_energy_vbt_kJ_mol", "float64", "kJ/mol",
         "volume-based (Glasser-Jenkins) lattice potential energy from the formula-unit volume (the measured cell"
-        " where tabulated); anhydrous salt",
+        " where tabulated; coefficients per charge type 1:1, 2:1, 1:2, 2:2, else general or limiting); anhydrous salt;"
+        " empty where lattice_energy_cycle_kJ_mol is given",
         "glasser_jenkins_vbt_lattice_energy_kJ_mol", _SOURCE_VBT,
         "ionic strength I = 1/2 sum n_i z_i^2 and the formula-unit volume",
     ),
@@ -136,13 +137,15 @@ COLUMNS: tuple[Column, ...] = (
         "lattice_energy_born_mayer_kJ_mol", "float64", "kJ/mol",
         "Born-Mayer lattice energy with the Ewald-summed Madelung constant of the structure type and the measured"
         " nearest-neighbour distance where tabulated (else the sum of Shannon radii); salts with a measured"
-        " structure, binary salts with a guessed one (see structure_type_origin)",
+        " structure, binary salts with a guessed one (see structure_type_origin); empty where lattice_energy_cycle_kJ_mol"
+        " is given",
         "born_mayer_lattice_energy_kJ_mol", "Born & Mayer, Z. Phys. 1932, 75, 1",
     ),
     Column(
         "lattice_energy_born_lande_kJ_mol", "float64", "kJ/mol",
         "Born-Lande lattice energy with the Ewald-summed Madelung constant and Pauling's Born exponents"
-        " (binary salts of monatomic ions with a measured or guessed structure type)",
+        " (binary salts of monatomic ions with a measured or guessed structure type); empty where"
+        " lattice_energy_cycle_kJ_mol is given",
         "born_lande_lattice_energy_kJ_mol", "Born & Lande, Verh. Dtsch. Phys. Ges. 1918, 20, 210; Pauling 1960",
     ),
     Column(
@@ -457,13 +460,13 @@ _POINT_CHARGE_COLUMNS = (
 )
 _WITHHELD_NOTE = (
     "point-charge lattice energies (Kapustinskii, VBT, Born-Mayer, Born-Lande) withheld: they miss this salt's"
-    " covalency (d10 or 6s2 cation; 6-23 % low on the calibration halides AgF, CuBr, TlBr);"
+    " covalency (d10 or 6s2 cation, 6-23 % low on the calibration halides AgF, CuBr, TlBr);"
     " lattice_energy_best_kJ_mol is its thermochemical cycle"
 )
 _COVALENT_MONOVALENT = frozenset({"Cu(+)", "Ag(+)", "Au(+)", "Tl(+)"})
 _RUNS_LOW_NOTE = (
     "point-charge lattice energies of Cu(I), Ag(I), Au(I) and Tl(I) salts run low (covalency: 6-23 % on the"
-    " calibration halides AgF, CuBr, TlBr); no thermochemical cycle is tabulated for this salt"
+    " calibration halides AgF, CuBr, TlBr), and no thermochemical cycle is tabulated for this salt"
 )
 
 _NOT_FOR_ACIDS = "lattice energies: not estimated for an acid (a molecular substance, not an ionic crystal)"

@@ -33,7 +33,7 @@ EV_KJ_MOL = 96.485332
 """kJ/mol per eV (CODATA 2018: N_A e / 1000)."""
 
 CYCLE_METHOD = (
-    "thermochemical (Born-Haber) cycle from tabulated enthalpies (NBS 1982) and the element snapshot's"
+    "thermochemical (Born-Haber) cycle from tabulated enthalpies (NBS 1982; CRC Handbook) and the element snapshot's"
     " ionisation energies and electron affinities; covalency included because nothing ionic is assumed"
 )
 
