@@ -142,3 +142,15 @@ def test_hydrides_get_values():
         values = _values(row)
         assert math.isfinite(values["lattice_energy_best_kJ_mol"]), name
         assert _error_pct(row, "lattice_energy_kapustinskii_kJ_mol") <= 5.0, name
+
+
+def test_lattice_check_prints_the_validation_figures(capsys):
+    # the script the README's lattice table is copied from; figures measured as in the tests above
+    from ionicity.pipelines import lattice_check
+
+    assert lattice_check.main([]) == 0
+    out = capsys.readouterr().out
+    assert "[validation] best value within 5 %: 43/51 (84 %)" in out
+    assert "[validation] alkali halides (8): median |error| of the best method 0.16 %" in out
+    assert "[validation] AgCl error % per method: kapustinskii withheld" in out
+    assert lattice_check.main(["--reference", "/nonexistent.csv"]) == 2
