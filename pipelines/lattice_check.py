@@ -128,7 +128,7 @@ def _fmt(x: float) -> str:
     return "" if math.isnan(x) else f"{x:+.1f}"
 
 
-def print_table(rows: list[dict], out=sys.stdout) -> None:
+def print_table(rows: list[dict], out=None) -> None:
     names = [n for n, _ in METHODS]
     print("compound,set,u_ref_kJ_mol," + ",".join(f"err_{n}_pct" for n in names) + ",best_method", file=out)
     for row in rows:
@@ -138,7 +138,7 @@ def print_table(rows: list[dict], out=sys.stdout) -> None:
         print(f"{row['compound']},{row['set']},{ref:g}," + ",".join(errs) + f",{values.get('lattice_energy_best_method') or ''}", file=out)
 
 
-def print_summary(label: str, rows: list[dict], out=sys.stdout) -> None:
+def print_summary(label: str, rows: list[dict], out=None) -> None:
     s = summary(rows)
     n, total = s["within_5pct"]
     m, mtotal = s["within_5pct_models"]
