@@ -94,11 +94,16 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      r"ionic model strained \(.*?\): ionic values are estimates for a partly covalent solid",
      "the ionic model is strained (polar covalent bonding; ionic_model and ionicity explain give the reasons):"
      " ionic values are estimates for a partly covalent solid"),
+    ("point_charge_withheld",
+     r"point-charge lattice energies \(Kapustinskii, VBT, Born-Mayer, Born-Lande\) withheld: they miss this salt's"
+     r" covalency \([^;]*\)",
+     "point-charge lattice energies (Kapustinskii, VBT, Born-Mayer, Born-Lande) withheld: they miss the covalency"
+     " of this salt of a d10 or 6s2 cation (ionicity explain gives the figures and what they would be)"),
     ("point_charge_low_coinage",
-     r"the point-charge estimates \(Kapustinskii, VBT, Born\) miss this salt's covalency and run [0-9-]+ % low"
-     r" for the Ag, Cu\(I\) and Tl\(I\) halides",
-     "the point-charge estimates (Kapustinskii, VBT, Born) miss the covalency of the Ag, Cu(I) and Tl(I) halides"
-     " and run low (ionicity explain gives the figures)"),
+     r"point-charge lattice energies of Cu\(I\), Ag\(I\), Au\(I\) and Tl\(I\) salts run low \([^;]*\), and no"
+     r" thermochemical cycle is tabulated for this salt",
+     "point-charge lattice energies of Cu(I), Ag(I), Au(I) and Tl(I) salts run low (covalency), and no"
+     " thermochemical cycle is tabulated for this salt"),
     ("lattice_best_is_cycle", r"lattice_energy_best_kJ_mol is its thermochemical cycle",
      "lattice_energy_best_kJ_mol is the salt's Born-Haber (thermochemical) cycle from tabulated enthalpies"),
     ("hsab_proton", r"no HSAB hardness for H\(\+\): H\+ has no electrons: its hardness is infinite \(Parr & Pearson 1983\)",
