@@ -54,6 +54,7 @@ SALT_FEATURES = (
     ("trivalent_anion", lambda t: -t.trivalent_anion_fraction),
     ("high_charge_cation", lambda t: -t.cation_charge_above_3),
     ("framework_oxoanion", lambda t: t.framework_oxoanion_fraction),
+    ("hydrogen_bonded_anion", lambda t: -t.hydrogen_bonded_anion_fraction),
 )
 
 
@@ -133,7 +134,8 @@ def _index_with(terms, weights) -> float:
         terms.lattice_energy_per_ion_kJ_mol, terms.contact_chi_pauling, terms.contact_index, terms.pseudo_noble_gas,
         terms.polyatomic_anion_fraction, terms.ions_per_formula_unit, terms.flexibility_entropy_J_mol_K,
         terms.chain_packing_entropy_J_mol_K, terms.delocalised_fraction, terms.trivalent_anion_fraction,
-        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction, weights=weights)
+        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction,
+        terms.hydrogen_bonded_anion_fraction, weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:
