@@ -288,8 +288,15 @@ def _gather_terms(
     pack = 0.0
     deloc = 0.0
     free = TREND_WEIGHTS["packing_free_torsions"]
+    organic_salt = any(t.ion.organic for t in terms)
+    # a rigid inorganic ion of an organic salt ([PF6], [BF4]) adds its symmetry term, -R ln sigma, to the
+    # Dannenfelser-Yalkowsky entropy (in inorganic salts the polyatomic-anion term carries it); not beside
+    # a protic cation, whose N-H...anion hydrogen bonds fix the anion's orientation in crystal and melt alike
+    free_rotors = organic_salt and not any(t.ion.family == "ammonium-protic" for t in dec.cations)
     for t in terms:
         tau, sigma, delocalised, _ = ion_shape(t.ion)
+        if free_rotors and not t.ion.organic and not t.ion.monatomic and t.ion.ion_id not in _shape_table():
+            flex += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(0.0, routes.ion_symmetry_number(t.ion))
         if t.ion.organic or t.ion.ion_id in _shape_table():
             flex += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(tau, sigma)
             if t.ion.family in ONIUM_FAMILIES and sigma < 12:
@@ -311,7 +318,7 @@ def _gather_terms(
         flexibility_entropy_J_mol_K=float(flex),
         chain_packing_entropy_J_mol_K=float(pack),
         delocalised_fraction=float(deloc / nu) if nu else 0.0,
-        organic=any(t.ion.organic for t in terms),
+        organic=organic_salt,
         trivalent_anion_fraction=(
             sum(t.count for t in dec.anions if t.ion.monatomic and t.ion.charge <= -3) / anion_total
             if anion_total else 0.0),

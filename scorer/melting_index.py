@@ -61,7 +61,7 @@ TREND_WEIGHTS: dict[str, float] = {
     "flexibility": 0.13,
     "chain_melting_K": 414.6,  # polyethylene, the long-chain limit (Wunderlich 1980, from memory)
     "packing_free_torsions": 4.5,  # tau of a hexyl chain: longer chains pack
-    "delocalised": 0.19,
+    "delocalised": 0.21,
     # nitrides: the volume-based energy of a small triply charged anion overstates the
     # cohesion that melting breaks (Li3N 1086 K)
     "trivalent_anion": 0.11,
