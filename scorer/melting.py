@@ -289,10 +289,13 @@ def _gather_terms(
     deloc = 0.0
     free = TREND_WEIGHTS["packing_free_torsions"]
     organic_salt = any(t.ion.organic for t in terms)
-    # a rigid inorganic ion of an organic salt ([PF6], [BF4]) adds its symmetry term, -R ln sigma, to the
-    # Dannenfelser-Yalkowsky entropy (in inorganic salts the polyatomic-anion term carries it); not beside
-    # a protic cation, whose N-H...anion hydrogen bonds fix the anion's orientation in crystal and melt alike
-    free_rotors = organic_salt and not any(t.ion.family == "ammonium-protic" for t in dec.cations)
+    # Beside aprotic organic cations only, the anions rotate freely in the melt: a rigid inorganic ion
+    # ([PF6], [BF4]) adds its symmetry term, -R ln sigma, to the Dannenfelser-Yalkowsky entropy, which then
+    # carries every ion's orientational entropy, and the polyatomic-anion term (fitted on inorganic salts
+    # for the same entropy) is left out. A protic cation's N-H...anion hydrogen bonds, or a small hard
+    # inorganic cation bound to the anion's donor atoms (LiTFSI), fix the anion's orientation instead.
+    free_rotors = (organic_salt and all(t.ion.organic for t in dec.cations)
+                   and not any(t.ion.family == "ammonium-protic" for t in dec.cations))
     for t in terms:
         tau, sigma, delocalised, _ = ion_shape(t.ion)
         if free_rotors and not t.ion.organic and not t.ion.monatomic and t.ion.ion_id not in _shape_table():
@@ -314,7 +317,7 @@ def _gather_terms(
         contact_chi_pauling=float(chi),
         contact_index=float(contact_index),
         pseudo_noble_gas=png,
-        polyatomic_anion_fraction=float(poly),
+        polyatomic_anion_fraction=0.0 if free_rotors else float(poly),
         flexibility_entropy_J_mol_K=float(flex),
         chain_packing_entropy_J_mol_K=float(pack),
         delocalised_fraction=float(deloc / nu) if nu else 0.0,
