@@ -203,6 +203,18 @@ _SIGMA = {
 _LIGAND_CHARGE = {"F": -1, "Cl": -1, "Br": -1, "I": -1, "O": -2, "S": -2, "Se": -2, "H": -1}
 
 
+def _shape_symmetry_number(lone_pairs: int, ligand_counts) -> float:
+    """sigma of a centre's VSEPR shape, divided by the ways to place mixed ligands (VOCl3: 12 / 4 = 3)."""
+    n = int(sum(ligand_counts))
+    sigma = float(_SIGMA.get((n, lone_pairs), 1))
+    if len(ligand_counts) > 1:
+        arrangements = factorial(n)
+        for k in ligand_counts:
+            arrangements //= factorial(int(k))
+        sigma = max(sigma / arrangements, 1.0)
+    return sigma
+
+
 @dataclass(frozen=True)
 class MolecularTerms:
     """The inputs of the molecular route for one compound, with how they were read."""
@@ -276,12 +288,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         valence = element.group if element.group <= 2 else element.group - 10
         lone_pairs = max(int(valence - state) // 2, 0)
     n = int(n_lig)
-    sigma = float(_SIGMA.get((n, lone_pairs), 1))
-    if len(ligands) > 1:
-        arrangements = factorial(n)
-        for _, k in ligands:
-            arrangements //= factorial(int(k))
-        sigma = max(sigma / arrangements, 1.0)
+    sigma = _shape_symmetry_number(lone_pairs, [k for _, k in ligands])
     cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
     open_sites = max(cn - n - lone_pairs, 0)
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
@@ -327,13 +334,7 @@ def ion_symmetry_number(ion) -> float:
     else:
         state = ion.charge - sum({**_LIGAND_CHARGE, "N": -3, "C": -4}.get(s, -1) * k for s, k in ligands.items())
         lone_pairs = 0 if valence is None else max(int(valence - state) // 2, 0)
-    sigma = float(_SIGMA.get((int(n), lone_pairs), 1))
-    if len(ligands) > 1:
-        arrangements = factorial(int(n))
-        for k in ligands.values():
-            arrangements //= factorial(int(k))
-        sigma = max(sigma / arrangements, 1.0)
-    return sigma
+    return _shape_symmetry_number(lone_pairs, list(ligands.values()))
 
 
 # ------------------------------------------------------ networks and metals
