@@ -108,7 +108,7 @@ def nearest_stand_in(ion: Ion) -> tuple[Ion, str] | None:
             stand_in = get_ion(f"{symbol}({'' if ion.charge == 1 else ion.charge}+)")
         except KeyError:
             continue
-        return stand_in, f"{how}; {stand_in.ion_id} ({_cation_radii()[(symbol, ion.charge)]:.0f} pm) stands in"
+        return stand_in, f"{how}, {stand_in.ion_id} ({_cation_radii()[(symbol, ion.charge)]:.0f} pm) stands in"
     return None
 
 
