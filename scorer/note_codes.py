@@ -121,6 +121,9 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      "melting trend not computed: no lattice energy for this salt (see the lattice-energy notes)"),
     ("melting_no_fajans_term", r"melting trend: no Fajans contact index, its covalency term left out",
      "melting trend without its covalency term: no Fajans contact index"),
+    ("melting_radius_stand_in", r"melting trend: {ion} has no Shannon radius: lattice energy with [^;]*",
+     "melting trend: the ion (in brackets) has no Shannon radius; the lattice energy takes a stand-in cation of"
+     " the same charge (ionicity explain names it)"),
 )
 
 # an ion as the notes write it: SO4(2-), [C4mim](+), Fe(3+), Cu(NH3)4(2+)
