@@ -326,7 +326,7 @@ class Plot:
             px = float(self.xscale(v))
             self.parts.append(f'<line x1="{_f(px)}" x2="{_f(px)}" y1="{self.y1 - 4}" y2="{self.y1}" stroke="{MUTED}"/>')
             self.text(px, self.y1 - 7, lab, size=SMALL_PX, anchor="middle")
-        self.text(self.x1, self.y1 - 24, label, size=SMALL_PX, anchor="end", colour=MUTED, extra=' class="axis-label"')
+        self.text(self.x1, self.y1 - 24, label, size=SMALL_PX, anchor="end", colour=MUTED, extra=' class="axis-label-top"')
 
     def colour_bar(self, stops: tuple[str, ...], lo: float, hi: float, label: str, x: float, y: float,
                    length: float = 150) -> None:
