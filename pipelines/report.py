@@ -63,6 +63,10 @@ OPTIONAL_ROLES = (
     "mixture_components", "liquidus_estimate_K", "liquidus_method",
 )
 _NUMERIC = {"mean_chi_pauling", "delta_chi_pauling", "lattice_energy_vbt_kJ_mol", "mp_trend_index", "liquidus_estimate_K"}
+#: text read as stored, not dictionary-encoded: one value per compound, so the writer's dictionary overflows
+#: and Arrow would rebuild it for every batch (0.09 s against 0.02 s at 10^6 rows); only rows melting below
+#: 100 C are encoded, after a take
+_PLAIN_TEXT = {"formula_normalized"}
 
 
 @dataclass(frozen=True)
@@ -172,6 +176,7 @@ class ReportData:
     low_melting: dict[str, dict] = field(default_factory=dict)  # formula_normalized -> {rows, name, first_row}
     low_melting_rows: int = 0
     sample: dict[str, np.ndarray] = field(default_factory=dict)
+    plain_text: frozenset = frozenset()                         # text columns read without their dictionary
     seconds: float = 0.0
 
     def has(self, role: str) -> bool:
@@ -239,10 +244,10 @@ def _pick_input_columns(names, generated, options, id_col, name_col):
     return id_col, (name_col if name_col in names else None), formula_col
 
 
-def _batches(path: str, fmt: str, columns: list[str], batch_rows: int, text_cols: set[str]):
+def _batches(path: str, fmt: str, columns: list[str], batch_rows: int, text_cols: set[str], plain=frozenset()):
     if fmt == "parquet":
         for part in _parquet_paths(path):
-            f = pq.ParquetFile(part, read_dictionary=[c for c in columns if c in text_cols])
+            f = pq.ParquetFile(part, read_dictionary=[c for c in columns if c in text_cols and c not in plain])
             try:
                 yield from f.iter_batches(batch_size=batch_rows, columns=columns)
             finally:
@@ -404,7 +409,7 @@ class _Aggregator:
             idx, _ = LIQUIDUS_BINS.index(liq)
             d.liquidus += np.bincount(idx, minlength=LIQUIDUS_BINS.n)
             self._first("mixture", batch, start, np.isfinite(liq), "liquidus_estimate_K", "mixture_components")
-        self._sample(n, start, x[pos], y[pos], trend[pos], lattice[pos], codes["substance_class"])
+        self._sample(n, start, pos, (x, y, trend, lattice), codes["substance_class"])
 
     def _representatives(self, batch: pa.RecordBatch) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """One row of each distinct formula text in the batch, each row's
@@ -484,7 +489,8 @@ class _Aggregator:
             if fv[u] in d.low_melting:
                 d.low_melting[fv[u]]["rows"] += int(counts[u])
 
-    def _sample(self, n, start, x, y, trend, lattice, class_codes) -> None:
+    def _sample(self, n, start, pos, values, class_codes) -> None:
+        """Bottom-k: ``values`` are per distinct formula (x, y, trend, lattice), ``pos`` maps rows to them."""
         keys = self.rng.random(n)
         cc, cv = class_codes
         # once the sample is full, only rows whose key beats its largest can enter: few, late in a big table
@@ -493,7 +499,9 @@ class _Aggregator:
             return
         keys = keys[take]
         names = np.array([""] + list(cv), dtype=object)
-        new = {"x": x[take], "y": y[take], "trend": trend[take], "lattice": lattice[take],
+        at = pos[take]
+        x, y, trend, lattice = (v[at] for v in values)
+        new = {"x": x, "y": y, "trend": trend, "lattice": lattice,
                "substance_class": names[cc[take] + 1], "row": take + start + 1}
         if self.d.sample:
             keys = np.concatenate([self.keys, keys])
@@ -524,7 +532,8 @@ def plan(path: str, *, id_col: str | None = None, name_col: str | None = None,
     generated = {prefix + c for c in column_names()} | set(columns.values())
     id_col, name_col, formula_col = _pick_input_columns(names, generated, options, id_col, name_col)
     data = ReportData(source=path, fmt=fmt, columns=columns, id_col=id_col, name_col=name_col,
-                      formula_col=formula_col, metadata=meta)
+                      formula_col=formula_col, metadata=meta,
+                      plain_text=frozenset(columns[r] for r in _PLAIN_TEXT if r in columns))
     files = _parquet_paths(path) if fmt == "parquet" else [path]
     data.file_bytes = sum(os.path.getsize(p) for p in files)
     data.file_modified = max(os.path.getmtime(p) for p in files)
@@ -546,7 +555,7 @@ def aggregate(path: str, *, id_col: str | None = None, name_col: str | None = No
     agg = _Aggregator(data, sample_rows, seed)
     start = 0
     try:
-        for batch in _batches(path, data.fmt, read, batch_rows, text):
+        for batch in _batches(path, data.fmt, read, batch_rows, text, data.plain_text):
             agg.add(batch, start)
             start += batch.num_rows
     except (pa.ArrowInvalid, OSError, UnicodeDecodeError) as exc:
