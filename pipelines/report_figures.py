@@ -136,6 +136,10 @@ def _sample_note(data: ReportData, shown: int) -> str:
             " shading: every row, binned.")
 
 
+def _legend_title(data: ReportData) -> str:
+    return "substance class" + (" (sample)" if data.rows > len(data.sample.get("x", ())) else "")
+
+
 def _density(plot: Plot, counts: np.ndarray, xbins: Bins, ybins: Bins, ylog: bool, label: str, at: tuple) -> None:
     """Shade the non-empty cells of a 2-D histogram (log colour scale) and add its colour bar at pixel ``at``."""
     i, j = np.nonzero(counts)
@@ -173,7 +177,7 @@ def bond_map(data: ReportData) -> str:
     shown = int(np.sum(np.isfinite(x) & np.isfinite(y)))
     plot = Plot("bondmap", Scale(CHI_MIN - 0.1, CHI_MAX + 0.1, target=8), Scale(-0.05, CHI_MAX - CHI_MIN + 0.1, target=8),
                 width=860, height=600, legend_px=230)
-    plot.legend_title = "substance class (sample)"
+    plot.legend_title = _legend_title(data)
     for region, poly in region_polygons():
         plot.polygon([p[0] for p in poly], [p[1] for p in poly], _REGION_TINTS[region], stroke="#9a9a9a", width=0.8)
     corners = [CHI_MIN, CHI_MAX, (CHI_MIN + CHI_MAX) / 2, CHI_MIN]
@@ -245,7 +249,7 @@ def lattice_vs_trend(data: ReportData) -> str:
     shown = int(np.sum(np.isfinite(trend) & np.isfinite(lattice)))
     plot = Plot("lattice", Scale(TREND_BINS.lo, TREND_BINS.hi), Scale(10 ** LATTICE_LOG_BINS.lo, 10 ** LATTICE_LOG_BINS.hi, log=True),
                 width=860, height=520, legend_px=230)
-    plot.legend_title = "substance class (sample)"
+    plot.legend_title = _legend_title(data)
     if data.rows > len(trend):
         _density(plot, data.lattice_trend, TREND_BINS, LATTICE_LOG_BINS, True, "rows per bin",
                  (plot.x1 - 70, plot.y0 - 190))
