@@ -28,7 +28,7 @@ from html import escape
 
 import numpy as np
 
-__all__ = ["nice_step", "nice_ticks", "log_ticks", "Scale", "Plot", "ramp_colour", "MARKER_PATHS"]
+__all__ = ["nice_step", "nice_ticks", "log_ticks", "number", "Scale", "Plot", "ramp_colour", "text_px", "MARKER_PATHS"]
 
 FONT_PX = 12                  # body text of a figure
 SMALL_PX = 10.5               # ticks, legend, notes
@@ -292,6 +292,7 @@ class Plot:
         """Frame, ticks, tick labels, axis labels, title and a note under the x label."""
         out = [f'<rect x="{self.x0}" y="{self.y1}" width="{self.x1 - self.x0}" height="{self.y0 - self.y1}" fill="none"'
                f' stroke="{MUTED}" stroke-width="1"/>']
+        grid_lines = []
         xt = self.xscale.ticks() if xticks is None else list(xticks)
         yt = self.yscale.ticks() if yticks is None else list(yticks)
         for i, v in enumerate(xt):
@@ -304,15 +305,14 @@ class Plot:
             py = float(self.yscale(v))
             lab = number(v) if ytick_labels is None else ytick_labels[i]
             if grid:
-                out.append(f'<line x1="{self.x0}" x2="{self.x1}" y1="{_f(py)}" y2="{_f(py)}" stroke="{GRID}"'
-                           ' stroke-width="0.8"/>')
+                grid_lines.append(f'<line x1="{self.x0}" x2="{self.x1}" y1="{_f(py)}" y2="{_f(py)}" stroke="{GRID}"'
+                                  ' stroke-width="0.8"/>')
             out.append(f'<line x1="{self.x0 - 5}" x2="{self.x0}" y1="{_f(py)}" y2="{_f(py)}" stroke="{MUTED}"/>'
                        f'<text x="{self.x0 - 8}" y="{_f(py + 3.5)}" font-size="{SMALL_PX}" text-anchor="end"'
                        f' fill="{INK}">{escape(lab)}</text>')
         # the grid goes under the marks; the frame, ticks and labels over them
-        grid_lines = [o for o in out if 'stroke-width="0.8"' in o]
         self.parts.insert(0, "".join(grid_lines))
-        self.parts.append("".join(o for o in out if o not in grid_lines))
+        self.parts.append("".join(out))
         mid_x, mid_y = (self.x0 + self.x1) / 2, (self.y0 + self.y1) / 2
         self.text(mid_x, self.y0 + 38, xlabel, anchor="middle", extra=' class="axis-label"')
         self.text(18, mid_y, ylabel, anchor="middle", rotate=-90, extra=' class="axis-label"')
