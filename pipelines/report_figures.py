@@ -1,7 +1,7 @@
 """The figures of ``ionicity report``: inline SVG written by our own
 :mod:`ionicity.pipelines.svg_plot` from the streaming aggregates of
 :mod:`ionicity.pipelines.report` (no plotting library: the figures of a
-report take milliseconds, not the second and a quarter matplotlib took).
+report take under a tenth of a second, not the second and a quarter matplotlib took).
 
 The colours are chosen here. Eight substance-class groups, each also given
 its own marker so colour is never the only cue. The hex values were picked

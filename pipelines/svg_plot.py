@@ -5,8 +5,8 @@ axis labels, a title and a note under the plot, filled cells (binned
 densities), bars and stacked steps, polygons, lines, scatter markers (one
 ``<path>`` per group, so thousands of points stay light), a legend and a
 colour bar. No plotting library is imported: drawing all the report's
-figures this way takes milliseconds, where matplotlib's import and drawing
-cost about a second and a quarter per report (the fixed cost this module
+figures this way takes under a tenth of a second, where matplotlib's import
+and drawing cost about a second and a quarter per report (the fixed cost this module
 removed; DEVELOPERS.md, "The report").
 
 Coordinates: a :class:`Plot` maps data values to pixels of its plot area

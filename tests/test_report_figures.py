@@ -63,7 +63,7 @@ def test_every_figure_is_well_formed_titled_and_labelled(scored, sample_rows):
     for key in ("bond_map", "lattice"):  # the scatter figures say what their points are
         notes = [t for t in _texts(ET.fromstring(figs[key])) if t.startswith("Points:")]
         if sample_rows >= data.rows:
-            assert notes and f"all " in notes[0] and f"of {data.rows:,})" in notes[0], notes
+            assert notes and "all " in notes[0] and f"of {data.rows:,})" in notes[0], notes
         else:
             assert notes and f"a uniform random sample of {sample_rows:,} of {data.rows:,} rows" in notes[0], notes
             assert any(t.startswith("rows per") for t in _texts(ET.fromstring(figs[key]))), key  # the density's bar
