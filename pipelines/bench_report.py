@@ -49,7 +49,7 @@ import sys, time
 from ionicity.pipelines.report import _batches, plan
 t = time.perf_counter()
 data, read, text = plan(sys.argv[1])
-rows = sum(b.num_rows for b in _batches(sys.argv[1], data.fmt, read, 65536, text, data.plain_text))
+rows = sum(b.num_rows for b in _batches(sys.argv[1], data.fmt, read, 65536, text))
 print(time.perf_counter() - t, rows)
 """
 
@@ -93,7 +93,7 @@ def measure(rows: int, distinct: int, repeat: int, workdir: str) -> dict:
         write_table(source, rows, min(distinct, rows))
         _run([sys.executable, "-m", "ionicity", "score", source, "-o", scored, "--quiet", "--overwrite"], env=env)
     data, read_cols, text = plan(scored)
-    spec = json.dumps([read_cols, [c for c in read_cols if c in text and c not in data.plain_text]])
+    spec = json.dumps([read_cols, [c for c in read_cols if c in text]])
     report = [sys.executable, "-m", "ionicity", "report", scored, "-o", page, "--overwrite"]
     _run(report, env=env)  # warms the bytecode cache and the file cache; not timed
     read, read_proc, agg, whole, rss, start = [], [], [], [], [], []
