@@ -33,6 +33,7 @@ import pyarrow.compute as pc
 import pyarrow.parquet as pq
 
 from ionicity.pipelines.config import ScoreConfig, Summary
+from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.dask_partitions import (
     DEFAULT_PARTITION_ROWS,
     Piece,
@@ -252,7 +253,7 @@ class _Run:
     def score(self, sources: list) -> Summary:
         client = self.client
         parquet = bool(sources) and isinstance(sources[0], Piece)
-        shared = compounds = None
+        shared = compounds = shared_first_rows = None
         distinct = None
         placement: dict[int, str] = {}
         offsets = np.zeros(len(sources), dtype=np.int64)
@@ -268,12 +269,12 @@ class _Run:
             if mode == "always" or (mode == "auto" and share_distinct([len(t) for t, _ in found], len(everything), workers)):
                 del found  # the client keeps the table's distinct texts once, not once per piece
                 orders = distinct_chunks(everything, workers)
-                shared = client.map(score_distinct, [everything.take(pa.array(o)) for o in orders],
+                shared = client.map(score_distinct, [everything.take(int_array(o)) for o in orders],
                                     full_precision=self.config.full_precision, pure=False)
                 if several:
-                    normalized = client.gather(client.map(_normalized_of_chunk, shared, pure=False))
-                    compounds = compound_first_rows(_concat_text(normalized),
-                                                    np.concatenate([first_rows[o] for o in orders]))
+                    # each worker maps the adopted texts to compounds itself: no round trip through the client
+                    shared_first_rows = client.scatter([np.concatenate([first_rows[o] for o in orders] or [first_rows])],
+                                                       broadcast=True)[0]
             elif several:
                 del found
                 compounds, placement, _ = self._first_pass_scored(sources, offsets)
@@ -284,7 +285,7 @@ class _Run:
             table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
             schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
             count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
-            chosen=self.chosen,
+            shared_first_rows=shared_first_rows, chosen=self.chosen,
             compounds=client.scatter([compounds], broadcast=True)[0] if compounds is not None else None,
             alone=len(sources) == 1,
         )
@@ -361,12 +362,6 @@ def dask_delayed(function):
     return dask.delayed(function, pure=False)
 
 
-def _normalized_of_chunk(scored) -> pa.Array:
-    """``formula_normalized`` of a shared chunk (:func:`score_distinct`), in its formulas' order."""
-    _, arrays = scored
-    return arrays[column_names().index("formula_normalized")]
-
-
 def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array, np.ndarray, int]:
     """A partition's distinct formulas scored into this worker's cache: their
     ``formula_normalized``, the 0-based position of each one's first row, and
@@ -385,11 +380,19 @@ def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array
 
 
 def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col, name_col, schema, model, folder,
-                     metadata, count_distinct, status_name, shared, chosen=None, compounds=None, alone=True):
+                     metadata, count_distinct, status_name, shared, shared_first_rows=None, chosen=None, compounds=None,
+                     alone=True):
     cache = _worker_cache()
     if shared is not None and not getattr(cache, "adopted_shared", False):
+        before = len(cache.keys())
         cache.adopt(shared)
         cache.adopted_shared = True
+        if shared_first_rows is not None:
+            # the shared texts' compounds, in adoption order, with their first rows
+            normalized = cache.arrays()[column_names().index("formula_normalized")].slice(before)
+            cache.shared_compounds = compound_first_rows(normalized, shared_first_rows)
+    if compounds is None:
+        compounds = getattr(cache, "shared_compounds", None)
     if compounds is not None:
         first_rows = KnownFirstRows(*compounds, rows_before=row_offset)
     else:  # one partition: streamed in order, as the local engine does

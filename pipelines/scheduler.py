@@ -30,7 +30,9 @@ __all__ = ["locality_key", "BatchScorer", "Ticket", "PARALLEL_MIN_NEW", "formula
 PARALLEL_MIN_NEW = 256
 _CHUNKS_PER_WORKER = 4
 _MIN_CHUNK = 32
-_ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
+# the marks that end a salt part; the Dask engine sorts by it in Arrow (RE2 reads the same class)
+ADDUCT_PATTERN = r"[·•∙⋅.*+]"
+_ADDUCT_MARKS = re.compile(ADDUCT_PATTERN)
 # each scorer marks the cache rows it has counted with its own token
 _TOKENS = itertools.count(1)
 

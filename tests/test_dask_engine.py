@@ -362,3 +362,15 @@ def test_a_real_scheduler_and_two_worker_processes_give_the_local_engines_table(
             except subprocess.TimeoutExpired:
                 process.kill()
                 process.wait()
+
+
+def test_shared_chunks_keep_the_order_of_the_local_engines_locality_key():
+    # the chunks are sorted by Arrow; the order must be scheduler.locality_key's,
+    # which the local engine routes by (Unicode dots, spaces, a lone text)
+    from ionicity.pipelines.bench import realistic_formulas
+    from ionicity.pipelines.dask_partitions import distinct_chunks
+    from ionicity.pipelines.scheduler import locality_key
+
+    texts = realistic_formulas(3000) + [" NaCl . H2O", "ÅÅ", "", "x+y", "CuSO4∙5H2O", "CuSO4"]
+    order = [int(i) for chunk in distinct_chunks(pa.array(texts), 2) for i in chunk]
+    assert order == sorted(range(len(texts)), key=lambda i: locality_key(texts[i]))
