@@ -32,7 +32,9 @@ times ``score --name-col label`` alternating with the runs without it:
 ``--memory-scaling``, both sizes are scored with the names).
 
 ``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
-D) and prints both peak RSS figures and their ratio. ``--calibrate`` times
+D) and prints both peak RSS figures and their ratio; with ``--engine dask``,
+each worker's peak for N and 10 N rows, with D and with 10 D distinct
+formulas (:func:`ionicity.pipelines.bench_dask.run_dask_memory`). ``--calibrate`` times
 in-process against pooled scoring of fresh distinct formulas, to set
 :data:`ionicity.pipelines.scheduler.PARALLEL_MIN_NEW`.
 """
@@ -373,14 +375,14 @@ def main(argv: list[str] | None = None) -> int:
         _print("bytecode_compiled", "yes" if byte_compile() else "no")
         if args.engine == "dask":
             # imports distributed when asked for only
-            from ionicity.pipelines.bench_dask import run_dask_bench
+            from ionicity.pipelines.bench_dask import run_dask_bench, run_dask_memory
 
-            sizes = (args.rows, args.rows * 10) if args.memory_scaling else (args.rows,)
-            for rows in sizes:
-                write_table(table, rows, args.distinct, args.seed)
-                _print("table_rows", rows)
-                run_dask_bench(table, workdir, args.repeat, _env(), args.partition_rows, _print)
-                os.remove(table)
+            if args.memory_scaling:
+                run_dask_memory(lambda path, n, d: write_table(path, n, d, args.seed), args.rows, args.distinct,
+                                workdir, _env(), args.partition_rows, _print)
+                return 0
+            write_table(table, args.rows, args.distinct, args.seed)
+            run_dask_bench(table, workdir, args.repeat, _env(), args.partition_rows, _print)
             return 0
         if args.memory_scaling:
             figures = []

@@ -13,7 +13,15 @@ median. The shared first pass of distinct formulas
 (:mod:`ionicity.pipelines.dask_partitions`) is timed on and off
 (``IONICITY_DASK_SHARED``), so the rule that chooses it can be checked.
 ``peak_worker_rss_mib``: the largest peak resident set of any worker (from
-``/proc/PID/status`` VmHWM), for the memory-scaling check.
+``/proc/PID/status`` VmHWM). The speed-up is printed twice: the ratio of the
+medians, and the median of the ratios of the pairs (a one-worker run and the
+two-worker run right after it), which a drifting load on a shared machine
+disturbs less.
+
+:func:`run_dask_memory` (``--engine dask --memory-scaling``) scores tables of
+N and 10 N rows, with the same distinct count D and with the same distinct
+ratio (10 D), each on a fresh two-worker cluster, and prints every worker's
+peak resident set and the ratios of the largest.
 """
 from __future__ import annotations
 
@@ -66,6 +74,10 @@ class Cluster:
         raise RuntimeError(f"the scheduler at {self.address} did not get {workers} workers")
 
     def peak_worker_rss_mib(self) -> float:
+        return max(self.worker_peaks_mib(), default=float("nan"))
+
+    def worker_peaks_mib(self) -> list[float]:
+        """Each worker's peak resident set so far (VmHWM), MiB."""
         peaks = []
         for process in self.processes[1:]:
             try:
@@ -75,7 +87,7 @@ class Cluster:
                             peaks.append(int(line.split()[1]) / 1024.0)
             except OSError:
                 pass
-        return max(peaks, default=float("nan"))
+        return peaks
 
     def stop(self) -> None:
         for process in self.processes:
@@ -124,6 +136,10 @@ def run_dask_bench(table: str, workdir: str, repeat: int, env: dict, partition_r
         for name, values in times.items():
             emit(f"{name}_seconds_each", ", ".join(f"{v:.3f}" for v in values))
             emit(f"{name}_seconds", medians[name])
+        # pairs: the one-worker run and the two-worker run of the same round
+        pairs = [one / two for one, two in zip(times["dask_1w_auto"], times["dask_2w_auto"])]
+        emit("speedup_1_to_2_workers_pairs", ", ".join(f"{r:.3f}" for r in pairs))
+        emit("speedup_1_to_2_workers_paired_median", statistics.median(pairs))
         emit("speedup_1_to_2_workers", medians["dask_1w_auto"] / medians["dask_2w_auto"])
         emit("speedup_1_to_2_workers_shared_always", medians["dask_1w_auto"] / medians["dask_2w_always"])
         emit("speedup_1_to_2_workers_shared_never", medians["dask_1w_never"] / medians["dask_2w_never"])
@@ -133,3 +149,33 @@ def run_dask_bench(table: str, workdir: str, repeat: int, env: dict, partition_r
     finally:
         for cluster in clusters.values():
             cluster.stop()
+
+
+def run_dask_memory(write_table, rows: int, distinct: int, workdir: str, env: dict, partition_rows: int | None,
+                    emit) -> None:
+    """Peak resident set of each of two workers scoring N and 10 N rows
+    (``write_table(path, rows, distinct)`` makes the tables), with D and with
+    10 D distinct formulas; each size on a fresh cluster, so a worker's peak
+    is that run's."""
+    table = os.path.join(workdir, "memory.parquet")
+    out = os.path.join(workdir, "dask_out.parquet")
+    extra = ["--partition-rows", str(partition_rows)] if partition_rows else []
+    signal.signal(signal.SIGTERM, lambda signum, frame: sys.exit(128 + signum))
+    peaks = {}
+    for n, d in ((rows, distinct), (10 * rows, distinct), (10 * rows, 10 * distinct)):
+        write_table(table, n, d)
+        cluster = Cluster(2, env)
+        try:
+            seconds = _time_run([sys.executable, "-m", "ionicity", "score", table, "-o", out, "--quiet", "--overwrite",
+                                 "--engine", "dask", "--scheduler", cluster.address, *extra], env)
+            each = cluster.worker_peaks_mib()
+        finally:
+            cluster.stop()
+        os.remove(table)
+        name = f"{n}_rows_{d}_distinct"
+        emit(f"dask_2w_seconds_{name}", seconds)
+        emit(f"peak_worker_rss_mib_each_{name}", ", ".join(f"{p:.0f}" for p in each))
+        peaks[(n, d)] = max(each)
+    base = peaks[(rows, distinct)]
+    emit("peak_worker_rss_ratio_10x_rows_same_distinct", peaks[(10 * rows, distinct)] / base)
+    emit("peak_worker_rss_ratio_10x_rows_same_distinct_ratio", peaks[(10 * rows, 10 * distinct)] / base)

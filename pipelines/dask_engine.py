@@ -33,6 +33,7 @@ import pyarrow.compute as pc
 import pyarrow.parquet as pq
 
 from ionicity.pipelines.config import ScoreConfig, Summary
+from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.dask_partitions import (
     DEFAULT_PARTITION_ROWS,
     Piece,
@@ -40,11 +41,12 @@ from ionicity.pipelines.dask_partitions import (
     distinct_chunks,
     parquet_pieces,
     part_name,
-    piece_formulas,
+    piece_distinct,
     score_distinct,
     score_piece,
     share_distinct,
 )
+from ionicity.pipelines.duplicates import FirstRows, KnownFirstRows, compound_first_rows, first_positions
 from ionicity.pipelines.errors import InputError, install_hint
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.local_engine import prepare
@@ -61,7 +63,10 @@ from ionicity.pipelines.output_paths import (
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
+from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import chosen_columns
+from ionicity.scorer.audit import FIRST_ROW_COLUMN
+from ionicity.scorer.columns import column_names
 from ionicity.pipelines.text_dialect import check_encoding
 
 __all__ = ["score_file_dask"]
@@ -238,35 +243,62 @@ class _Run:
         self.model = model
         self.folder = folder
         self.metadata = metadata
+        self.chosen = chosen_columns(config.columns, config.mp_model is not None)
+        # first_row_same_compound needs the whole table's first rows (duplicates.KnownFirstRows)
+        self.wants_first_rows = self.chosen is None or FIRST_ROW_COLUMN in self.chosen
 
     def _workers(self) -> int:
         return max(len(self.client.scheduler_info().get("workers", {})), 1)
 
     def score(self, sources: list) -> Summary:
         client = self.client
-        shared = None
+        parquet = bool(sources) and isinstance(sources[0], Piece)
+        shared = compounds = shared_first_rows = None
         distinct = None
-        if sources and isinstance(sources[0], Piece):
-            found = client.gather(client.map(piece_formulas, sources, schema=self.table_schema,
-                                             formula_col=self.formula_col, pure=False))
-            everything = pc.unique(pa.concat_arrays(found)) if found else pa.array([], pa.string())
-            distinct = len(everything.drop_null())
-            distinct -= int(pc.sum(pc.equal(pc.utf8_trim_whitespace(everything.drop_null()), "")).as_py() or 0)
+        placement: dict[int, str] = {}
+        offsets = np.zeros(len(sources), dtype=np.int64)
+        several = len(sources) > 1 and self.wants_first_rows
+        if parquet:
+            offsets = np.cumsum([0] + [p.rows for p in sources[:-1]], dtype=np.int64)
+            found = client.gather(client.map(piece_distinct, sources, formula_col=self.formula_col, pure=False))
+            everything, first_rows = _table_first_rows([t for t, _ in found],
+                                                       [offsets[k] + at for k, (_, at) in enumerate(found)])
+            distinct = len(everything) - int(pc.sum(pc.equal(pc.utf8_trim_whitespace(everything), "")).as_py() or 0)
             workers = self._workers()
             mode = os.environ.get(SHARE_ENV, "auto")
-            if mode == "always" or (mode == "auto" and share_distinct([len(f) for f in found], len(everything), workers)):
-                chunks = distinct_chunks(everything, workers)
-                shared = client.map(score_distinct, chunks, full_precision=self.config.full_precision, pure=False)
+            if mode == "always" or (mode == "auto" and share_distinct([len(t) for t, _ in found], len(everything), workers)):
+                del found  # the client keeps the table's distinct texts once, not once per piece
+                orders = distinct_chunks(everything, workers)
+                shared = client.map(score_distinct, [everything.take(int_array(o)) for o in orders],
+                                    full_precision=self.config.full_precision, pure=False)
+                if several:
+                    # each worker maps the adopted texts to compounds itself: no round trip through the client
+                    shared_first_rows = client.scatter([np.concatenate([first_rows[o] for o in orders] or [first_rows])],
+                                                       broadcast=True)[0]
+            elif several:
+                del found
+                compounds, placement, _ = self._first_pass_scored(sources, offsets)
+        elif several:  # CSV blocks: the first pass also counts each block's rows
+            compounds, placement, rows = self._first_pass_scored(sources, None)
+            offsets = np.cumsum([0] + rows[:-1], dtype=np.int64)
         common = dict(
             table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
             schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
             count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
-            chosen=chosen_columns(self.config.columns, self.config.mp_model is not None),
+            shared_first_rows=shared_first_rows, chosen=self.chosen,
+            compounds=client.scatter([compounds], broadcast=True)[0] if compounds is not None else None,
+            alone=len(sources) == 1,
         )
-        if sources and isinstance(sources[0], Piece):
-            futures = client.map(_score_on_worker, range(len(sources)), sources, pure=False, **common)
+        if parquet:
+            futures = []
+            for worker, numbers in _by_worker(placement, len(sources)).items():
+                # a partition goes where its formulas were scored; elsewhere if that worker is busy or gone
+                where = dict(workers=[worker], allow_other_workers=True) if worker is not None else {}
+                futures += client.map(_score_on_worker, numbers, [sources[k] for k in numbers],
+                                      [int(offsets[k]) for k in numbers], pure=False, **where, **common)
         else:
-            futures = client.compute([dask_delayed(_score_on_worker)(i, frame, **common) for i, frame in enumerate(sources)])
+            futures = client.compute([dask_delayed(_score_on_worker)(i, frame, int(offsets[i]), **common)
+                                      for i, frame in enumerate(sources)])
         results = client.gather(futures)
         summary = Summary(partitions=len(sources))
         hashes = []
@@ -279,6 +311,49 @@ class _Run:
         summary.distinct_formulas = distinct if distinct is not None else len(np.unique(np.concatenate(hashes))) if hashes else 0
         return summary
 
+    def _first_pass_scored(self, sources: list, offsets) -> tuple:
+        """Without the shared pass: each partition's distinct formulas scored
+        into its worker's cache, returning their compounds and first rows;
+        the partition is later written on the same worker (its formulas are
+        then cached there). Returns (compounds, placement, rows per partition)."""
+        client = self.client
+        kwargs = dict(table_schema=self.table_schema, formula_col=self.formula_col)
+        if offsets is not None:
+            futures = client.map(_partition_compounds, sources, pure=False, **kwargs)
+        else:
+            futures = client.compute([dask_delayed(_partition_compounds)(frame, **kwargs) for frame in sources])
+        found = client.gather(futures)
+        holders = client.who_has(futures)
+        placement = {k: holders[f.key][0] for k, f in enumerate(futures) if holders.get(f.key)}
+        rows = [n for _, _, n in found]
+        if offsets is None:
+            offsets = np.cumsum([0] + rows[:-1], dtype=np.int64)
+        normalized = _concat_text([n for n, _, _ in found])
+        first_rows = np.concatenate([offsets[k] + at + 1 for k, (_, at, _) in enumerate(found)])
+        return compound_first_rows(normalized, first_rows), placement, rows
+
+
+def _table_first_rows(texts: list[pa.Array], positions: list[np.ndarray]) -> tuple[pa.Array, np.ndarray]:
+    """The table's distinct formula texts and the 1-based row of each one's
+    first appearance, from each piece's (distinct texts, 0-based global rows),
+    pieces in input order."""
+    if not texts:
+        return pa.array([], pa.string()), np.zeros(0, dtype=np.int64)
+    every, at = first_positions(pa.concat_arrays(texts))
+    return every, np.concatenate(positions)[at] + 1
+
+
+def _concat_text(arrays: list[pa.Array]) -> pa.Array:
+    arrays = [a.dictionary_decode() if pa.types.is_dictionary(a.type) else a for a in arrays]
+    return pa.concat_arrays(arrays) if arrays else pa.array([], pa.string())
+
+
+def _by_worker(placement: dict[int, str], n: int) -> dict:
+    groups: dict = {}
+    for k in range(n):
+        groups.setdefault(placement.get(k), []).append(k)
+    return groups
+
 
 def dask_delayed(function):
     # loaded already when a run gets here (the engine imported dask)
@@ -287,14 +362,43 @@ def dask_delayed(function):
     return dask.delayed(function, pure=False)
 
 
-def _score_on_worker(number, source, *, table_schema, formula_col, name_col, schema, model, folder, metadata,
-                     count_distinct, status_name, shared, chosen=None):
+def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array, np.ndarray, int]:
+    """A partition's distinct formulas scored into this worker's cache: their
+    ``formula_normalized``, the 0-based position of each one's first row, and
+    the partition's row count."""
+    if isinstance(source, Piece):
+        texts, at = piece_distinct(source, formula_col)
+        rows = source.rows
+    else:
+        column = pa.array(source[formula_col], type=pa.string(), from_pandas=True)
+        texts, at = first_positions(column)
+        rows = len(column)
+    scorer = BatchScorer(1, cache=_worker_cache())
+    cache_rows = scorer.rows_of(scorer.submit(texts))
+    normalized = scorer.cache.arrays()[column_names().index("formula_normalized")].take(cache_rows)
+    return normalized.dictionary_decode(), at, rows
+
+
+def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col, name_col, schema, model, folder,
+                     metadata, count_distinct, status_name, shared, shared_first_rows=None, chosen=None, compounds=None,
+                     alone=True):
     cache = _worker_cache()
     if shared is not None and not getattr(cache, "adopted_shared", False):
+        before = len(cache.keys())
         cache.adopt(shared)
         cache.adopted_shared = True
+        if shared_first_rows is not None:
+            # the shared texts' compounds, in adoption order, with their first rows
+            normalized = cache.arrays()[column_names().index("formula_normalized")].slice(before)
+            cache.shared_compounds = compound_first_rows(normalized, shared_first_rows)
+    if compounds is None:
+        compounds = getattr(cache, "shared_compounds", None)
+    if compounds is not None:
+        first_rows = KnownFirstRows(*compounds, rows_before=row_offset)
+    else:  # one partition: streamed in order, as the local engine does
+        first_rows = FirstRows() if alone else None
     return score_piece(number, source, table_schema, formula_col, name_col, schema, model, folder, metadata, cache,
-                       count_distinct, status_name, chosen)
+                       count_distinct, status_name, chosen, first_rows)
 
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:

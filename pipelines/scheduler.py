@@ -18,7 +18,7 @@ from dataclasses import dataclass
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import int_array
+from ionicity.pipelines.arrow_columns import int_array, nullable_int_array
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import WORKER_LOST, WorkerPool, default_workers, score_values
 
@@ -30,7 +30,9 @@ __all__ = ["locality_key", "BatchScorer", "Ticket", "PARALLEL_MIN_NEW", "formula
 PARALLEL_MIN_NEW = 256
 _CHUNKS_PER_WORKER = 4
 _MIN_CHUNK = 32
-_ADDUCT_MARKS = re.compile(r"[·•∙⋅.*+]")
+# the marks that end a salt part; the Dask engine sorts by it in Arrow (RE2 reads the same class)
+ADDUCT_PATTERN = r"[·•∙⋅.*+]"
+_ADDUCT_MARKS = re.compile(ADDUCT_PATTERN)
 # each scorer marks the cache rows it has counted with its own token
 _TOKENS = itertools.count(1)
 
@@ -181,15 +183,17 @@ class BatchScorer:
             distinct, indices = encoded.dictionary, encoded.indices
         if indices.null_count and None not in self.cache.index:
             self._store([None], score_values([None]), keep=distinct)
-        missing = pc.is_null(pc.index_in(distinct, value_set=self.cache.keys()))
-        if pc.any(missing).as_py():
+        evictions = self.cache.evictions  # before any store below, which may evict
+        found = pc.index_in(distinct, value_set=self.cache.keys())
+        missing = pc.is_null(found)
+        if found.null_count:
             # (dict.fromkeys: a dictionary read from a file is not checked for repeats)
             texts = [f for f in dict.fromkeys(distinct.filter(missing).to_pylist()) if f not in self._in_flight]
             if texts and not self._use_pool(len(texts)):
                 self._store(texts, score_values(texts), keep=distinct)
             elif texts:
                 self._send(texts, distinct)
-        return Ticket(distinct, indices, self._sequence)
+        return Ticket(distinct, indices, self._sequence, found, evictions)
 
     def _send(self, texts: list, keep: pa.Array) -> None:
         try:
@@ -220,7 +224,9 @@ class BatchScorer:
                 values = score_values(chunk)
             self._in_flight.difference_update(chunk)
             self._store(chunk, values, keep=ticket.distinct)
-        found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
+        found = self._rows_known(ticket)
+        if found is None:
+            found = pc.index_in(ticket.distinct, value_set=self.cache.keys())
         if found.null_count:
             # evicted from a full cache while the batch waited: score again
             texts = ticket.distinct.filter(pc.is_null(found)).to_pylist()
@@ -236,6 +242,23 @@ class BatchScorer:
         self._note_seen(self.cache.first_seen(found, self._token))
         return rows
 
+    def _rows_known(self, ticket: "Ticket") -> pa.Array | None:
+        """The batch's cache rows from its lookup at :meth:`submit`, when no
+        entry was evicted since (the rows then still hold; new entries were
+        only appended): the rows of the formulas scored since are looked up
+        in the cache's index. Hashing the cache's keys again for every batch
+        cost as much as the first lookup, and grows with the cache (every
+        formula of the table, on a Dask worker after the shared pass)."""
+        found = ticket.found
+        if found is None or ticket.evictions != self.cache.evictions:
+            return None
+        if not found.null_count:
+            return found
+        was_missing = pc.is_null(found)
+        index = self.cache.index
+        rows = [index.get(text) for text in ticket.distinct.filter(was_missing).to_pylist()]
+        return pc.replace_with_mask(found, was_missing, nullable_int_array(rows).cast(found.type))
+
 
 @dataclass(frozen=True)
 class Ticket:
@@ -246,6 +269,10 @@ class Ticket:
     distinct: pa.Array
     indices: pa.Array
     last_chunk: int
+    #: each distinct formula's cache row at submit (null: not cached then), and the
+    #: cache's eviction count then
+    found: pa.Array | None = None
+    evictions: int = -1
 
 
 def formula_array(batch: pa.RecordBatch, formula_col: str) -> pa.Array:

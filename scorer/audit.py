@@ -33,8 +33,7 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         FIRST_ROW_COLUMN, "int64", "row",
         "the 1-based data-row number (header not counted) of the first row holding the same compound (same"
-        " formula_normalized, lattice water included); empty for that first row, for error rows, and with"
-        " the Dask engine (its partitions do not see each other's rows)",
+        " formula_normalized, lattice water included); empty for that first row and for error rows",
         "ionicity.pipelines.duplicates", "",
     ),
 )

@@ -58,10 +58,10 @@ def parts(tmp_path):
 
 
 def _decoded(table: pa.Table) -> pa.Table:
-    # first_row_same_compound is the local engine's alone: Dask partitions are
-    # scored apart and leave it empty (README, "Inventory audit")
+    # every column, first_row_same_compound included: the Dask engine gives it
+    # from the whole table's first rows (duplicates.KnownFirstRows)
     return pa.table({name: column.cast(pa.string()) if pa.types.is_dictionary(column.type) else column
-                     for name, column in zip(table.column_names, table.columns) if name != FIRST_ROW_COLUMN})
+                     for name, column in zip(table.column_names, table.columns)})
 
 
 def _local(input_path, out_path, **options):
@@ -81,8 +81,7 @@ def test_parquet_parts_on_two_workers_match_the_local_engine(parts, tmp_path, cl
     # text columns are dictionary-encoded; each engine builds its own
     # dictionaries, so the values are compared, not the encodings
     assert _decoded(result).equals(_decoded(local))
-    assert result.column(FIRST_ROW_COLUMN).null_count == result.num_rows
-    assert local.column(FIRST_ROW_COLUMN).null_count < local.num_rows
+    assert 0 < local.column(FIRST_ROW_COLUMN).null_count < local.num_rows
     assert summary.rows == 2500 and summary.rows == summary.ok + summary.warning + summary.error
     local_summary = score_file(str(parts), str(tmp_path / "again.csv"), quiet=True)
     assert (summary.ok, summary.warning, summary.error, summary.distinct_formulas) == (
@@ -231,6 +230,59 @@ def test_formulas_recurring_across_partitions_are_scored_once_for_the_cluster(tm
     assert summary.distinct_formulas == 6 and summary.partitions == 12
 
 
+# the same compound spelled several ways, repeating across partitions (from
+# tests/test_audit_pipelines.py: a slip, a space for the dot, Unicode subscripts)
+SPELLINGS = ["NaCl", "KN03", "CuSO4·5H2O", "KNO3", "Xx", "Na Cl", "CuSO4 5H2O", "CuSO4", None, "Na₂SO₄", "Na2SO4",
+             "MgO", "", "[C4mim][BF4]"]
+
+
+def _spread(rows: int) -> pa.Table:
+    # a formula's first spelling appears late for some compounds, so that the
+    # first row of a compound is in one partition and its repeats in others
+    order = [(i * 5 + i // len(SPELLINGS)) % len(SPELLINGS) for i in range(rows)]
+    return pa.table({"id": pa.array(range(rows), pa.int64()), "formula": [SPELLINGS[k] for k in order]})
+
+
+@pytest.mark.parametrize("shared", ["always", "never"])
+def test_first_row_same_compound_across_partitions_equals_the_local_engine(tmp_path, cluster, monkeypatch, shared):
+    src = tmp_path / "in.parquet"
+    table = _spread(3000)
+    pq.write_table(table, src, row_group_size=1000)
+    local = _local(src, tmp_path / "local.parquet")
+    first = local.column(FIRST_ROW_COLUMN).to_pylist()
+    # the reference is the local engine's streamed FirstRows; rows repeat a compound first seen in another partition
+    assert any(v is not None and v <= 300 for v in first[300:])
+    monkeypatch.setenv("IONICITY_DASK_SHARED", shared)
+    out = tmp_path / "out.parquet"
+    summary = score_file(ScoreConfig(input=str(src), output=str(out), engine="dask", quiet=True,
+                                     scheduler=cluster.scheduler_address, partition_rows=300))
+    assert summary.partitions == 12  # row groups of 1,000 rows cut in 300, 300, 300, 100
+    result = pq.read_table(out)
+    assert result.column(FIRST_ROW_COLUMN).to_pylist() == first
+    assert _decoded(result).equals(_decoded(local))
+
+
+def test_first_row_same_compound_of_csv_blocks_equals_the_local_engine(tmp_path, cluster):
+    src = tmp_path / "in.csv"
+    table = _spread(40000)
+    table = table.set_column(1, "formula", pa.array([x or "" for x in table.column("formula").to_pylist()]))
+    pacsv.write_csv(table, src)
+    local = _local(src, tmp_path / "local.parquet", keep_text=True)
+    out = tmp_path / "out.parquet"
+    # blocks of at least 1 MB: a 40,000-row table is still one block, so the block size is forced
+    monkeypatch = pytest.MonkeyPatch()
+    monkeypatch.setattr("ionicity.pipelines.dask_engine.csv_block_bytes", lambda path, rows: 100_000)
+    try:
+        summary = score_file(ScoreConfig(input=str(src), output=str(out), engine="dask", quiet=True,
+                                         scheduler=cluster.scheduler_address))
+    finally:
+        monkeypatch.undo()
+    assert summary.partitions > 2
+    result = pq.read_table(out)
+    assert result.column(FIRST_ROW_COLUMN).to_pylist() == local.column(FIRST_ROW_COLUMN).to_pylist()
+    assert _decoded(result).equals(_decoded(local))
+
+
 def test_share_distinct_is_chosen_only_where_formulas_recur_on_several_workers():
     from ionicity.pipelines.dask_partitions import share_distinct
 
@@ -310,3 +362,15 @@ def test_a_real_scheduler_and_two_worker_processes_give_the_local_engines_table(
             except subprocess.TimeoutExpired:
                 process.kill()
                 process.wait()
+
+
+def test_shared_chunks_keep_the_order_of_the_local_engines_locality_key():
+    # the chunks are sorted by Arrow; the order must be scheduler.locality_key's,
+    # which the local engine routes by (Unicode dots, spaces, a lone text)
+    from ionicity.pipelines.bench import realistic_formulas
+    from ionicity.pipelines.dask_partitions import distinct_chunks
+    from ionicity.pipelines.scheduler import locality_key
+
+    texts = realistic_formulas(3000) + [" NaCl . H2O", "ÅÅ", "", "x+y", "CuSO4∙5H2O", "CuSO4"]
+    order = [int(i) for chunk in distinct_chunks(pa.array(texts), 2) for i in chunk]
+    assert order == sorted(range(len(texts)), key=lambda i: locality_key(texts[i]))
