@@ -19,6 +19,7 @@ import glob
 import io
 import os
 import queue
+import re
 import stat
 import sys
 import threading
@@ -157,6 +158,8 @@ def _first_line(exc: BaseException) -> str:
 
 def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str = "utf-8") -> TableReader:
     if path == "-":
+        if sys.stdin is None:  # Python's mark of a descriptor closed at start-up
+            raise InputError("standard input is closed; give the input file's path instead of -")
         raw = sys.stdin.buffer
         total_bytes = None
         label = "standard input"
@@ -390,6 +393,17 @@ def _share_dictionaries(batches: list[pa.RecordBatch]) -> list[pa.RecordBatch]:
     return out + [last]
 
 
+def _check_flat(schema: pa.Schema, path: str) -> None:
+    """Refuse, before anything is written, input columns of lists, structs or
+    maps for a CSV or TSV output: a cell of text cannot hold them (Arrow's CSV
+    writer fails on its first batch)."""
+    nested = [f"{f.name!r} ({f.type})" for f in schema if pa.types.is_nested(f.type)]
+    if nested:
+        where = "standard output" if path == "-" else repr(path)
+        raise InputError(f"column(s) {', '.join(nested)} hold nested values, which a CSV or TSV output ({where})"
+                         " cannot hold; write Parquet (-o OUTPUT.parquet) or .xlsx instead")
+
+
 class TableWriter:
     """Writes batches to a temporary file beside ``path``; :meth:`commit`
     renames it into place, :meth:`abort` removes it. ``-`` writes CSV to
@@ -426,6 +440,8 @@ class TableWriter:
         self._thread = None
         self._error: BaseException | None = None
         self.overwrite = overwrite
+        if self.fmt in ("csv", "tsv"):
+            _check_flat(schema, path)
         if path != "-":
             # first settle what killed runs left: a dataset they moved aside goes back to its path
             clean_stale_partials(os.path.dirname(os.path.abspath(path)))
@@ -469,12 +485,25 @@ class TableWriter:
             self._thread.start()
 
     def write(self, batch: pa.RecordBatch) -> None:
-        if self._thread is None:
-            self._write_now(batch)
-            return
-        if self._error is not None:
-            raise self._error
+        try:
+            if self._thread is None:
+                self._write_now(batch)
+                return
+            if self._error is not None:
+                raise self._error
+        except OSError as exc:
+            raise self._naming_the_output(exc) from None
         self._queue.put(batch)
+
+    def _naming_the_output(self, exc: OSError) -> OSError:
+        """The error of a failed write with the output's path (Arrow's carry neither
+        path nor errno: a full disk or a file-size limit was an anonymous line)."""
+        number = exc.errno
+        if number is None:
+            found = re.search(r"\[errno (\d+)\]", str(exc))
+            number = int(found.group(1)) if found else None
+        what = os.strerror(number) if number else (exc.strerror or _first_line(exc))
+        return OSError(number, f"cannot write the output: {what}", "standard output" if self.path == "-" else self.path)
 
     def _drain(self) -> None:
         while True:
@@ -509,6 +538,17 @@ class TableWriter:
             self._writer.write_table(table, row_group_size=max(table.num_rows, 1))
 
     def commit(self) -> None:
+        try:
+            self._finish()
+        except OSError as exc:
+            raise self._naming_the_output(exc) from None
+        if self._tmp is not None:
+            self._move_into_place()
+        else:
+            sys.stdout.flush()
+
+    def _finish(self) -> None:
+        """Write what is left, close and sync the temporary file."""
         self._stop_thread()
         if self._error is not None:
             raise self._error
@@ -528,9 +568,6 @@ class TableWriter:
                 self._file.flush()
                 os.fsync(self._file.fileno())
                 self._file.close()
-            self._move_into_place()
-        else:
-            sys.stdout.flush()
 
     def _move_into_place(self) -> None:
         """Rename the finished file to the output path; without ``overwrite``
