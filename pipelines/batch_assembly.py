@@ -14,7 +14,7 @@ from __future__ import annotations
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import string_array
+from ionicity.pipelines.arrow_columns import as_text, string_array
 from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
@@ -110,7 +110,7 @@ def label_failed_rows(status: pa.Array, message: pa.Array, row_names: pa.Array) 
     if pa.types.is_dictionary(message.type):
         message = message.dictionary_decode()
     if not pa.types.is_string(row_names.type):
-        row_names = pc.cast(row_names, pa.string())
+        row_names = as_text(row_names)
     row_names = pc.fill_null(row_names, "")
     failed = pc.and_(pc.equal(status, "error"), pc.not_equal(row_names, ""))
     rows = pc.indices_nonzero(failed)

@@ -36,6 +36,7 @@ import pyarrow as pa
 import pyarrow.compute as pc
 import pyarrow.parquet as pq
 
+from ionicity.pipelines.arrow_columns import as_text
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
@@ -114,10 +115,10 @@ def _read_piece(piece: Piece, schema: pa.Schema, columns: list[str] | None = Non
 
 def piece_formulas(piece: Piece, schema: pa.Schema, formula_col: str) -> pa.Array:
     """The distinct formulas of one piece (first pass of the shared mode), as text."""
-    column = _read_piece(piece, schema, [formula_col]).column(0)
+    column = _read_piece(piece, schema, [formula_col]).column(0).combine_chunks()
     if not pa.types.is_string(column.type):
-        column = pc.cast(column, pa.string())
-    return pc.unique(column.combine_chunks())
+        column = as_text(column)
+    return pc.unique(column)
 
 
 def share_distinct(per_piece: list[int], distinct: int, workers: int) -> bool:

@@ -31,6 +31,7 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity.pipelines.arrow_columns import as_text
 from ionicity.pipelines.column_types import infer_types
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
@@ -404,6 +405,23 @@ def _check_flat(schema: pa.Schema, path: str) -> None:
                          " cannot hold; write Parquet (-o OUTPUT.parquet) or .xlsx instead")
 
 
+def _valid_text_bytes(batch: pa.RecordBatch) -> pa.RecordBatch:
+    """The batch with each bytes column's cells made valid UTF-8 (U+FFFD for
+    a bad byte, :func:`~ionicity.pipelines.arrow_columns.as_text`): Arrow's
+    CSV writer refuses the whole batch otherwise, and a text file cannot
+    carry the bytes as they were. A batch without such cells is returned as it is."""
+    columns = list(batch.columns)
+    changed = False
+    for i, column in enumerate(columns):
+        if pa.types.is_binary(column.type) or pa.types.is_large_binary(column.type):
+            try:
+                column.cast(pa.string())
+            except pa.ArrowInvalid:
+                columns[i] = as_text(column).cast(column.type)
+                changed = True
+    return pa.RecordBatch.from_arrays(columns, schema=batch.schema) if changed else batch
+
+
 class TableWriter:
     """Writes batches to a temporary file beside ``path``; :meth:`commit`
     renames it into place, :meth:`abort` removes it. ``-`` writes CSV to
@@ -524,7 +542,7 @@ class TableWriter:
 
     def _write_now(self, batch: pa.RecordBatch) -> None:
         if self.fmt != "parquet":
-            self._writer.write(batch)
+            self._writer.write(_valid_text_bytes(batch) if self.fmt in ("csv", "tsv") else batch)
             return
         self._gathered.append(batch)
         self._gathered_rows += batch.num_rows
