@@ -11,13 +11,16 @@ from __future__ import annotations
 
 import unicodedata
 
+import pandas as pd
 import pyarrow as pa
 import pyarrow.parquet as pq
 import pytest
 
-from ionicity import score_formula
+from ionicity import score_formula, score_table
+from ionicity.pipelines.batch_assembly import fitted_messages
 from ionicity.pipelines.cli import main
 from ionicity.scorer.grammar import MAX_FORMULA_LENGTH
+from ionicity.scorer.verdict import FORMULA_STARTS, MESSAGE_MAX_CHARS, fit_message
 
 BAD = b"K\xffCl"  # 0xFF never occurs in UTF-8
 
@@ -73,3 +76,53 @@ def test_attack_the_length_limit_holds_after_normalisation():
     assert record["status"] == "error"
     assert "600 characters long once normalised" in record["message"]
     assert len(record["message"]) < 200
+
+
+# ------------------------------------------------------------------ messages
+
+# a mixture whose three iodides each get a redox warning: a 719-character message
+# (the warnings' potentials are the scorer's table's, scorer/data/redox_potentials.csv)
+LONG_MESSAGE_MIXTURE = "CuI2-FeI3-NaCl-KCl-CuBr2-AgI-TlI3-AuI3-PbI4-MnI4-SnI4-CoI3"
+
+
+def test_attack_messages_are_capped_and_explain_keeps_the_whole_text(tmp_path, capsys):
+    # attack 9: messages reached 20 kB
+    whole = score_formula(LONG_MESSAGE_MIXTURE)["message"]
+    assert len(whole) > MESSAGE_MAX_CHARS
+    src = tmp_path / "in.csv"
+    src.write_text(f"formula,label\n{LONG_MESSAGE_MIXTURE},long\nXx2O,{'n' * 20000}\nNaCl,short\n")
+    out = tmp_path / "out.parquet"
+    assert main(["score", str(src), "-o", str(out), "--quiet", "--name-col", "label"]) == 0
+    messages = pq.read_table(out).column("message").to_pylist()
+    assert all(len(m) <= MESSAGE_MAX_CHARS for m in messages)
+    assert messages[0].startswith(whole[:100]) and messages[0].endswith("ionicity explain shows the whole text)")
+    assert messages[1].startswith("unknown element") and "cut: 200" in messages[1]
+    assert messages[2] == ""
+    assert main(["explain", LONG_MESSAGE_MIXTURE]) == 0
+    assert whole in capsys.readouterr().out
+    # the pandas API caps alike
+    frame = score_table(pd.DataFrame({"formula": [LONG_MESSAGE_MIXTURE]}))
+    assert frame["message"][0] == messages[0]
+
+
+@pytest.mark.parametrize("start", ["=", "+", "-", "@", "\t", "\r"])
+def test_attack_no_message_cell_starts_like_a_spreadsheet_formula(start):
+    # attack 9: generated text must never start with =, +, - or @; the guard
+    # sits where every engine writes the message column
+    text = start + "1+1"
+    fitted = fitted_messages(pa.array([text, "fine", text, None]).dictionary_encode()).to_pylist()
+    assert fitted == ["'" + text, "fine", "'" + text, None]
+    assert fit_message(text) == "'" + text
+
+
+def test_no_message_of_the_reference_formulas_needs_the_guard():
+    # the scorer's own messages start with words or a quote; the guard is for what is not ours
+    import csv
+    from pathlib import Path
+
+    with open(Path(__file__).parent / "data" / "formula_cases.csv", encoding="utf-8") as f:
+        texts = [row["formula"] for row in csv.DictReader(f)]
+    assert len(texts) > 400
+    for text in texts:
+        message = score_formula(text)["message"]
+        assert not message.startswith(FORMULA_STARTS) and len(message) <= MESSAGE_MAX_CHARS, (text, message)
