@@ -33,7 +33,10 @@ import pyarrow.parquet as pq
 
 from ionicity.pipelines.arrow_columns import as_text
 from ionicity.pipelines.column_types import infer_types
+from ionicity.pipelines.csv_blocks import (block_for_header, growing_batches, head_with_header_line, header_line_end,
+                                          is_block_too_small)
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.schema import MAX_INPUT_COLUMNS, check_width
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
 from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
 
@@ -117,6 +120,9 @@ class _CountingStream(io.RawIOBase):
     def readable(self) -> bool:
         return True
 
+    def close_input(self) -> None:
+        self._raw.close()
+
     def readinto(self, buffer) -> int:
         if self._head.nbytes:
             n = min(len(buffer), self._head.nbytes)
@@ -176,7 +182,8 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         total_bytes = os.fstat(raw.fileno()).st_size
         label = repr(path)
     head = _read_head(raw)
-    complete = len(head) < _HEAD_BYTES
+    head, complete = head_with_header_line(raw, head, len(head) < _HEAD_BYTES, label)
+    header_block = len(head) if complete else min(block_for_header(head, _HEADER_BLOCK), len(head))
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
     problem = encoding_problem(head, complete, encoding)
@@ -188,22 +195,38 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
     # Arrow transcodes any other encoding to UTF-8 as it reads
     read_encoding = {} if encoding == "utf-8" else {"encoding": encoding}
-    try:
-        header_reader = pacsv.open_csv(
-            io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
+    def header_names(text: bytes) -> list[str]:
+        return pacsv.open_csv(
+            io.BytesIO(text), read_options=pacsv.ReadOptions(block_size=max(len(text), 1) if text is not head
+                                                             else header_block, **read_encoding),
             parse_options=parse_options,
             convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False,
                                                  quoted_strings_can_be_null=False),
-        )
-        names = header_reader.schema.names
+        ).schema.names
+
+    try:
+        if head[:header_line_end(head)].count(delimiter.encode()) >= MAX_INPUT_COLUMNS:
+            # Arrow's type inference over tens of thousands of columns takes minutes: count them first
+            check_width(header_names(head[:header_line_end(head)]))
+        try:
+            names = header_names(head)
+        except pa.ArrowInvalid as exc:
+            if not is_block_too_small(exc):
+                raise
+            # a first row longer than the head: the names from the header line alone
+            names = header_names(head[:header_line_end(head)])
         text_options = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
                                             quoted_strings_can_be_null=False)
-        sample = pacsv.open_csv(
-            io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
-            parse_options=parse_options, convert_options=text_options,
-        ).read_next_batch()
+        try:
+            sample = pacsv.open_csv(
+                io.BytesIO(head),
+                read_options=pacsv.ReadOptions(block_size=header_block, **read_encoding),
+                parse_options=parse_options, convert_options=text_options,
+            ).read_next_batch()
+        except pa.ArrowInvalid as exc:
+            if not is_block_too_small(exc):
+                raise
+            sample = None  # a first row longer than the head: no types guessed, every column stays text
     except StopIteration:
         sample = None
     except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
@@ -213,31 +236,25 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         raise InputError(f"input {label} has duplicate column names {dupes}; rename them first")
     if any(n == "" for n in names):
         raise InputError(f"input {label} has a column with an empty name; give every column a name")
-    stream = _CountingStream(head, raw)
     if len(names) == 1:
         # one column: a blank line is an empty cell, and dropping it would lose a row
         parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True, ignore_empty_lines=False)
-    try:
-        reader = pacsv.open_csv(
-            stream,
-            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE, **read_encoding),
-            parse_options=parse_options,
-            convert_options=pacsv.ConvertOptions(
-                column_types={n: pa.string() for n in names},
-                strings_can_be_null=False,
-                quoted_strings_can_be_null=False,
-            ),
-        )
-    except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
+    text_types = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
+                                      quoted_strings_can_be_null=False)
+    streams = [_CountingStream(head, raw)]
+
+    def open_stream(block: int, skip: int):
+        if skip:  # a row did not fit the block: read the file again, past the rows already given
+            streams[0].close_input()
+            streams[0] = _CountingStream(b"", open(path, "rb"))
+        return pacsv.open_csv(streams[0], read_options=pacsv.ReadOptions(block_size=block, skip_rows_after_names=skip,
+                                                                         **read_encoding),
+                              parse_options=parse_options, convert_options=text_types)
 
     def batches() -> Iterator[pa.RecordBatch]:
         try:
-            while True:
-                try:
-                    batch = reader.read_next_batch()
-                except StopIteration:
-                    return
+            for batch in growing_batches(open_stream, max(_BLOCK_SIZE, block_for_header(head, _HEADER_BLOCK)), label,
+                                         can_restart=path != "-"):
                 for start in range(0, batch.num_rows, batch_rows):
                     yield batch.slice(start, batch_rows)
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
@@ -247,15 +264,15 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
             raise InputError(f"cannot read {label} as {kind}: {text}") from None
         finally:
             if path != "-":
-                raw.close()
+                streams[0].close_input()
 
     def fraction_done() -> float | None:
         if not total_bytes:
             return None
-        return min(stream.consumed / total_bytes, 1.0)
+        return min(streams[0].consumed / total_bytes, 1.0)
 
     return TableReader(
-        reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
+        pa.schema([(n, pa.string()) for n in names]), batches(), "tsv" if delimiter == "\t" else "csv", path,
         fraction_done=fraction_done, paths=(path,), delimiter=delimiter,
         # standard input cannot be read again should a later row not fit: it stays text
         column_types=infer_types(sample) if path != "-" else {},
