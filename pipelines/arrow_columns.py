@@ -19,6 +19,7 @@ __all__ = [
     "int_array",
     "bool_array",
     "string_array",
+    "as_text",
     "int_numpy",
     "values_array",
 ]
@@ -86,6 +87,23 @@ def string_array(values) -> pa.Array:
     builder = _StringBuilder()
     builder.append_values(values)
     return builder.finish()
+
+
+def as_text(values: pa.Array) -> pa.Array:
+    """A flat column of any type as text. A bytes cell that is not UTF-8 is
+    decoded with U+FFFD for each bad byte (the scorer then makes such a
+    formula that row's error, :func:`ionicity.scorer.formula.parse_formula`),
+    instead of the whole column failing its cast: one bad cell is one row's
+    problem. Only a column that fails the cast pays for the cell-by-cell pass."""
+    if pa.types.is_dictionary(values.type):
+        return pa.DictionaryArray.from_arrays(values.indices, as_text(values.dictionary))
+    try:
+        return values.cast(pa.string())
+    except pa.ArrowInvalid:
+        if not (pa.types.is_binary(values.type) or pa.types.is_large_binary(values.type)
+                or pa.types.is_fixed_size_binary(values.type)):
+            raise
+        return string_array([None if v is None else v.decode("utf-8", errors="replace") for v in values.to_pylist()])
 
 
 def int_numpy(array: pa.Array) -> np.ndarray:

@@ -14,7 +14,7 @@ from __future__ import annotations
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import string_array
+from ionicity.pipelines.arrow_columns import as_text, int_array, string_array
 from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.model_step import ModelApplier
@@ -23,7 +23,7 @@ from ionicity.pipelines.scheduler import BatchScorer, Ticket, formula_array
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
 from ionicity.scorer.melting_model import MODEL_COLUMNS
-from ionicity.scorer.verdict import Verdict, with_row_name
+from ionicity.scorer.verdict import MESSAGE_MAX_CHARS, Verdict, fit_message, with_row_name
 
 __all__ = ["score_batch", "label_failed_rows"]
 
@@ -91,6 +91,8 @@ def score_batch(
         generated[message_at] = label_failed_rows(generated[status_at], generated[message_at], row_names)
     else:
         name_columns = []
+    if message_at in keep:
+        generated[message_at] = fitted_messages(generated[message_at])
     columns = [
         # a column read dictionary-encoded (the formulas, from Parquet) goes
         # out with its input type
@@ -98,6 +100,26 @@ def score_batch(
         for c, f in zip(batch.columns, schema)
     ] + [generated[k] for k in keep] + name_columns
     return pa.RecordBatch.from_arrays(columns, schema=schema)
+
+
+def fitted_messages(message: pa.Array) -> pa.Array:
+    """The message column with :func:`ionicity.scorer.verdict.fit_message`
+    applied: capped in length, never starting like a spreadsheet formula.
+    Two kernels over the dictionary (a batch's distinct messages); Python
+    only for the few messages that need it."""
+    values = message.dictionary if pa.types.is_dictionary(message.type) else message
+    if pa.types.is_dictionary(values.type):
+        values = values.dictionary_decode()
+    lengths = pc.utf8_length(values)
+    # the bound as an Arrow scalar taken from an array: a Python int here would go through pa.scalar, which imports pandas
+    longest = int_array([MESSAGE_MAX_CHARS]).cast(lengths.type)[0]
+    unfit = pc.or_(pc.greater(lengths, longest), pc.match_substring_regex(values, "^[=+\\-@\\t\\r]"))
+    if not pc.any(unfit).as_py():
+        return message
+    fitted = string_array([None if v is None else fit_message(v) for v in values.to_pylist()])
+    if pa.types.is_dictionary(message.type):
+        return pa.DictionaryArray.from_arrays(message.indices, fitted)
+    return fitted
 
 
 def label_failed_rows(status: pa.Array, message: pa.Array, row_names: pa.Array) -> pa.DictionaryArray:
@@ -110,7 +132,7 @@ def label_failed_rows(status: pa.Array, message: pa.Array, row_names: pa.Array) 
     if pa.types.is_dictionary(message.type):
         message = message.dictionary_decode()
     if not pa.types.is_string(row_names.type):
-        row_names = pc.cast(row_names, pa.string())
+        row_names = as_text(row_names)
     row_names = pc.fill_null(row_names, "")
     failed = pc.and_(pc.equal(status, "error"), pc.not_equal(row_names, ""))
     rows = pc.indices_nonzero(failed)

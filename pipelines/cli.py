@@ -285,6 +285,8 @@ def _os_problem(exc: OSError) -> str:
     what = exc.strerror or str(exc) or type(exc).__name__
     if exc.errno == errno.ENOSPC:
         what += " (free some space, or write the output elsewhere with -o)"
+    if exc.errno == errno.EFBIG:
+        what += " (a limit on file size: see ulimit -f, or the file system's largest file)"
     if exc.filename is not None:
         return f"{what}: {os.fsdecode(exc.filename)!r}"
     return what

@@ -17,6 +17,7 @@ from dataclasses import dataclass, field, fields
 from typing import Any, Callable
 
 from ionicity.pipelines.errors import InputError
+from ionicity.scorer.verdict import FORMULA_STARTS
 
 __all__ = ["ScoreConfig", "Summary", "Constraint", "CONSTRAINTS", "ENGINES"]
 
@@ -31,8 +32,6 @@ def _text_or_none(value: Any) -> bool:
     return value is None or isinstance(value, str)
 
 
-# a cell a spreadsheet opens as a formula starts with one of these
-_FORMULA_STARTS = ("=", "+", "-", "@")
 
 # [scheme://]host:port, host a name, an IPv4 address or a bracketed IPv6 one
 _SCHEDULER_ADDRESS = re.compile(
@@ -62,7 +61,7 @@ CONSTRAINTS: dict[str, Constraint] = {
     "output": Constraint("--output", lambda v: isinstance(v, str) and v != "", "a path, or - for standard output"),
     "formula_col": Constraint("--formula-col", _text_or_none, "a column name"),
     "name_col": Constraint("--name-col", _text_or_none, "a column name"),
-    "prefix": Constraint("--prefix", lambda v: isinstance(v, str) and not v.startswith(_FORMULA_STARTS) and v.isprintable(),
+    "prefix": Constraint("--prefix", lambda v: isinstance(v, str) and not v.startswith(FORMULA_STARTS) and v.isprintable(),
                          "printable text (may be empty) not starting with =, +, - or @, which a spreadsheet would"
                          " run as a formula in the header"),
     "batch_rows": Constraint("--batch-rows", lambda v: _whole_number(v) and v >= 1, "a positive whole number"),

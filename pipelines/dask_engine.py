@@ -57,6 +57,7 @@ from ionicity.pipelines.output_paths import (
     backup_path,
     check_output_path,
     clean_stale_partials,
+    exchange_paths,
     is_ionicity_dataset,
     keep_beside,
     partial_path,
@@ -403,8 +404,10 @@ def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col,
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:
     """Rename the finished dataset folder ``tmp`` to ``output``: over an old
-    dataset of ours only with ``overwrite`` (old aside, new in, old deleted,
-    so one of them is at ``output`` at every instant). Whatever else is found
+    dataset of ours only with ``overwrite``, exchanged in one step where the
+    system can (:func:`~ionicity.pipelines.output_paths.exchange_paths`), so
+    the old or the new one is at ``output`` at every instant; elsewhere old
+    aside, new in, old deleted (a killed run's old one is put back by the next). Whatever else is found
     at ``output`` by now stays, and the result is kept beside it
     (:class:`InputError` saying where). Nothing is left at ``tmp``."""
     if not os.path.lexists(output):
@@ -420,6 +423,14 @@ def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:
     if not is_ionicity_dataset(output):
         raise keep_beside(tmp, output, f"was replaced during the run by something without {DATASET_MARKER},"
                                        " which was left as it is")
+    if exchange_paths(tmp, output):
+        # one step: the new dataset at output, the old one at tmp (a partial name the next run cleans if this one dies)
+        if not is_ionicity_dataset(tmp):  # something else took the path since the check: put it back
+            exchange_paths(tmp, output)
+            raise keep_beside(tmp, output, f"was replaced during the run by something without {DATASET_MARKER},"
+                                           " which was left as it is")
+        _remove(tmp)
+        return
     backup = backup_path(output)
     os.rename(output, backup)
     try:

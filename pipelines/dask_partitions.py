@@ -40,7 +40,7 @@ from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.duplicates import first_positions
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
-from ionicity.pipelines.arrow_columns import int_numpy
+from ionicity.pipelines.arrow_columns import as_text, int_numpy
 from ionicity.pipelines.scheduler import ADDUCT_PATTERN as _ADDUCT_PATTERN
 from ionicity.scorer.verdict import STATUSES
 
@@ -148,9 +148,9 @@ def piece_distinct(piece: Piece, formula_col: str) -> tuple[pa.Array, np.ndarray
     column = column.combine_chunks()
     if pa.types.is_dictionary(column.type):
         if not pa.types.is_string(column.type.value_type):
-            column = pc.cast(column.dictionary_decode(), pa.string())
+            column = as_text(column.dictionary_decode())
     elif not pa.types.is_string(column.type):
-        column = pc.cast(column, pa.string())
+        column = as_text(column)
     return first_positions(column)
 
 

@@ -19,6 +19,7 @@ import glob
 import io
 import os
 import queue
+import re
 import stat
 import sys
 import threading
@@ -30,8 +31,12 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity.pipelines.arrow_columns import as_text
 from ionicity.pipelines.column_types import infer_types
+from ionicity.pipelines.csv_blocks import (block_for_header, growing_batches, head_with_header_line, header_line_end,
+                                          is_block_too_small)
 from ionicity.pipelines.errors import InputError
+from ionicity.pipelines.schema import MAX_INPUT_COLUMNS, check_width
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
 from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
 
@@ -115,6 +120,9 @@ class _CountingStream(io.RawIOBase):
     def readable(self) -> bool:
         return True
 
+    def close_input(self) -> None:
+        self._raw.close()
+
     def readinto(self, buffer) -> int:
         if self._head.nbytes:
             n = min(len(buffer), self._head.nbytes)
@@ -157,6 +165,8 @@ def _first_line(exc: BaseException) -> str:
 
 def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str = "utf-8") -> TableReader:
     if path == "-":
+        if sys.stdin is None:  # Python's mark of a descriptor closed at start-up
+            raise InputError("standard input is closed; give the input file's path instead of -")
         raw = sys.stdin.buffer
         total_bytes = None
         label = "standard input"
@@ -172,7 +182,8 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         total_bytes = os.fstat(raw.fileno()).st_size
         label = repr(path)
     head = _read_head(raw)
-    complete = len(head) < _HEAD_BYTES
+    head, complete = head_with_header_line(raw, head, len(head) < _HEAD_BYTES, label)
+    header_block = len(head) if complete else min(block_for_header(head, _HEADER_BLOCK), len(head))
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
     problem = encoding_problem(head, complete, encoding)
@@ -184,22 +195,38 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
     # Arrow transcodes any other encoding to UTF-8 as it reads
     read_encoding = {} if encoding == "utf-8" else {"encoding": encoding}
-    try:
-        header_reader = pacsv.open_csv(
-            io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
+    def header_names(text: bytes) -> list[str]:
+        return pacsv.open_csv(
+            io.BytesIO(text), read_options=pacsv.ReadOptions(block_size=max(len(text), 1) if text is not head
+                                                             else header_block, **read_encoding),
             parse_options=parse_options,
             convert_options=pacsv.ConvertOptions(column_types={}, strings_can_be_null=False,
                                                  quoted_strings_can_be_null=False),
-        )
-        names = header_reader.schema.names
+        ).schema.names
+
+    try:
+        if head[:header_line_end(head)].count(delimiter.encode()) >= MAX_INPUT_COLUMNS:
+            # Arrow's type inference over tens of thousands of columns takes minutes: count them first
+            check_width(header_names(head[:header_line_end(head)]))
+        try:
+            names = header_names(head)
+        except pa.ArrowInvalid as exc:
+            if not is_block_too_small(exc):
+                raise
+            # a first row longer than the head: the names from the header line alone
+            names = header_names(head[:header_line_end(head)])
         text_options = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
                                             quoted_strings_can_be_null=False)
-        sample = pacsv.open_csv(
-            io.BytesIO(head),
-            read_options=pacsv.ReadOptions(block_size=len(head) if complete else _HEADER_BLOCK, **read_encoding),
-            parse_options=parse_options, convert_options=text_options,
-        ).read_next_batch()
+        try:
+            sample = pacsv.open_csv(
+                io.BytesIO(head),
+                read_options=pacsv.ReadOptions(block_size=header_block, **read_encoding),
+                parse_options=parse_options, convert_options=text_options,
+            ).read_next_batch()
+        except pa.ArrowInvalid as exc:
+            if not is_block_too_small(exc):
+                raise
+            sample = None  # a first row longer than the head: no types guessed, every column stays text
     except StopIteration:
         sample = None
     except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
@@ -209,31 +236,25 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         raise InputError(f"input {label} has duplicate column names {dupes}; rename them first")
     if any(n == "" for n in names):
         raise InputError(f"input {label} has a column with an empty name; give every column a name")
-    stream = _CountingStream(head, raw)
     if len(names) == 1:
         # one column: a blank line is an empty cell, and dropping it would lose a row
         parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True, ignore_empty_lines=False)
-    try:
-        reader = pacsv.open_csv(
-            stream,
-            read_options=pacsv.ReadOptions(block_size=_BLOCK_SIZE, **read_encoding),
-            parse_options=parse_options,
-            convert_options=pacsv.ConvertOptions(
-                column_types={n: pa.string() for n in names},
-                strings_can_be_null=False,
-                quoted_strings_can_be_null=False,
-            ),
-        )
-    except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read {label} as {kind}: {_first_line(exc)}") from None
+    text_types = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
+                                      quoted_strings_can_be_null=False)
+    streams = [_CountingStream(head, raw)]
+
+    def open_stream(block: int, skip: int):
+        if skip:  # a row did not fit the block: read the file again, past the rows already given
+            streams[0].close_input()
+            streams[0] = _CountingStream(b"", open(path, "rb"))
+        return pacsv.open_csv(streams[0], read_options=pacsv.ReadOptions(block_size=block, skip_rows_after_names=skip,
+                                                                         **read_encoding),
+                              parse_options=parse_options, convert_options=text_types)
 
     def batches() -> Iterator[pa.RecordBatch]:
         try:
-            while True:
-                try:
-                    batch = reader.read_next_batch()
-                except StopIteration:
-                    return
+            for batch in growing_batches(open_stream, max(_BLOCK_SIZE, block_for_header(head, _HEADER_BLOCK)), label,
+                                         can_restart=path != "-"):
                 for start in range(0, batch.num_rows, batch_rows):
                     yield batch.slice(start, batch_rows)
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
@@ -243,15 +264,15 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
             raise InputError(f"cannot read {label} as {kind}: {text}") from None
         finally:
             if path != "-":
-                raw.close()
+                streams[0].close_input()
 
     def fraction_done() -> float | None:
         if not total_bytes:
             return None
-        return min(stream.consumed / total_bytes, 1.0)
+        return min(streams[0].consumed / total_bytes, 1.0)
 
     return TableReader(
-        reader.schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
+        pa.schema([(n, pa.string()) for n in names]), batches(), "tsv" if delimiter == "\t" else "csv", path,
         fraction_done=fraction_done, paths=(path,), delimiter=delimiter,
         # standard input cannot be read again should a later row not fit: it stays text
         column_types=infer_types(sample) if path != "-" else {},
@@ -390,6 +411,34 @@ def _share_dictionaries(batches: list[pa.RecordBatch]) -> list[pa.RecordBatch]:
     return out + [last]
 
 
+def _check_flat(schema: pa.Schema, path: str) -> None:
+    """Refuse, before anything is written, input columns of lists, structs or
+    maps for a CSV or TSV output: a cell of text cannot hold them (Arrow's CSV
+    writer fails on its first batch)."""
+    nested = [f"{f.name!r} ({f.type})" for f in schema if pa.types.is_nested(f.type)]
+    if nested:
+        where = "standard output" if path == "-" else repr(path)
+        raise InputError(f"column(s) {', '.join(nested)} hold nested values, which a CSV or TSV output ({where})"
+                         " cannot hold; write Parquet (-o OUTPUT.parquet) or .xlsx instead")
+
+
+def _valid_text_bytes(batch: pa.RecordBatch) -> pa.RecordBatch:
+    """The batch with each bytes column's cells made valid UTF-8 (U+FFFD for
+    a bad byte, :func:`~ionicity.pipelines.arrow_columns.as_text`): Arrow's
+    CSV writer refuses the whole batch otherwise, and a text file cannot
+    carry the bytes as they were. A batch without such cells is returned as it is."""
+    columns = list(batch.columns)
+    changed = False
+    for i, column in enumerate(columns):
+        if pa.types.is_binary(column.type) or pa.types.is_large_binary(column.type):
+            try:
+                column.cast(pa.string())
+            except pa.ArrowInvalid:
+                columns[i] = as_text(column).cast(column.type)
+                changed = True
+    return pa.RecordBatch.from_arrays(columns, schema=batch.schema) if changed else batch
+
+
 class TableWriter:
     """Writes batches to a temporary file beside ``path``; :meth:`commit`
     renames it into place, :meth:`abort` removes it. ``-`` writes CSV to
@@ -426,6 +475,8 @@ class TableWriter:
         self._thread = None
         self._error: BaseException | None = None
         self.overwrite = overwrite
+        if self.fmt in ("csv", "tsv"):
+            _check_flat(schema, path)
         if path != "-":
             # first settle what killed runs left: a dataset they moved aside goes back to its path
             clean_stale_partials(os.path.dirname(os.path.abspath(path)))
@@ -469,12 +520,25 @@ class TableWriter:
             self._thread.start()
 
     def write(self, batch: pa.RecordBatch) -> None:
-        if self._thread is None:
-            self._write_now(batch)
-            return
-        if self._error is not None:
-            raise self._error
+        try:
+            if self._thread is None:
+                self._write_now(batch)
+                return
+            if self._error is not None:
+                raise self._error
+        except OSError as exc:
+            raise self._naming_the_output(exc) from None
         self._queue.put(batch)
+
+    def _naming_the_output(self, exc: OSError) -> OSError:
+        """The error of a failed write with the output's path (Arrow's carry neither
+        path nor errno: a full disk or a file-size limit was an anonymous line)."""
+        number = exc.errno
+        if number is None:
+            found = re.search(r"\[errno (\d+)\]", str(exc))
+            number = int(found.group(1)) if found else None
+        what = os.strerror(number) if number else (exc.strerror or _first_line(exc))
+        return OSError(number, f"cannot write the output: {what}", "standard output" if self.path == "-" else self.path)
 
     def _drain(self) -> None:
         while True:
@@ -495,7 +559,7 @@ class TableWriter:
 
     def _write_now(self, batch: pa.RecordBatch) -> None:
         if self.fmt != "parquet":
-            self._writer.write(batch)
+            self._writer.write(_valid_text_bytes(batch) if self.fmt in ("csv", "tsv") else batch)
             return
         self._gathered.append(batch)
         self._gathered_rows += batch.num_rows
@@ -509,6 +573,17 @@ class TableWriter:
             self._writer.write_table(table, row_group_size=max(table.num_rows, 1))
 
     def commit(self) -> None:
+        try:
+            self._finish()
+        except OSError as exc:
+            raise self._naming_the_output(exc) from None
+        if self._tmp is not None:
+            self._move_into_place()
+        else:
+            sys.stdout.flush()
+
+    def _finish(self) -> None:
+        """Write what is left, close and sync the temporary file."""
         self._stop_thread()
         if self._error is not None:
             raise self._error
@@ -528,9 +603,6 @@ class TableWriter:
                 self._file.flush()
                 os.fsync(self._file.fileno())
                 self._file.close()
-            self._move_into_place()
-        else:
-            sys.stdout.flush()
 
     def _move_into_place(self) -> None:
         """Rename the finished file to the output path; without ``overwrite``

@@ -16,7 +16,10 @@ from ionicity.scorer.verdict import Verdict, with_warnings
 
 __all__ = ["save_model", "load_model", "apply_model_to_frame"]
 
-_MAX_MODEL_BYTES = 50_000_000
+# fit-melting writes a few hundred kB (the trees and the out-of-fold
+# predictions of its training rows); the tree bounds of the layout check
+# (scorer.melting_model_format) keep applying a model cheap, this one reading it
+_MAX_MODEL_BYTES = 16_000_000
 
 
 def save_model(document: dict, path) -> None:
@@ -58,8 +61,11 @@ def load_model(path) -> melting_model.MeltingModel:
         )
     try:
         document = json.loads(raw.decode("utf-8"))
-    except (UnicodeDecodeError, json.JSONDecodeError) as exc:
-        raise melting_model.ModelFormatError(f"{path} is not a JSON melting model: {exc}") from exc
+    except RecursionError:  # arrays or objects nested thousands deep
+        raise melting_model.ModelFormatError(f"{path} is not a JSON melting model: nested too deeply") from None
+    except ValueError as exc:  # not UTF-8, not JSON, or an integer of more than 4,300 digits
+        why = "it holds a number of thousands of digits" if "integer string conversion" in str(exc) else str(exc)
+        raise melting_model.ModelFormatError(f"{path} is not a JSON melting model: {why}") from None
     try:
         return melting_model.model_from_dict(document)
     except melting_model.ModelFormatError as exc:

@@ -13,6 +13,7 @@ and with it only a regular file, or a dataset folder carrying
 """
 from __future__ import annotations
 
+import errno
 import os
 import re
 import secrets
@@ -31,6 +32,7 @@ __all__ = [
     "backup_path",
     "DATASET_MARKER",
     "is_ionicity_dataset",
+    "exchange_paths",
 ]
 
 _PARTIAL_PREFIX = ".ionicity-"
@@ -130,6 +132,34 @@ def _settle_backup(backup: str, output: str) -> None:
             shutil.rmtree(backup)
     except OSError:  # another run got there first
         pass
+
+
+_RENAME_EXCHANGE = 2  # linux/fs.h
+_AT_FDCWD = -100
+
+
+def exchange_paths(a: str, b: str) -> bool:
+    """Swap what ``a`` and ``b`` name in one step (Linux ``renameat2`` with
+    ``RENAME_EXCHANGE``), so that ``b`` is never missing; False, with nothing
+    changed, where the system or the file system cannot (the caller then
+    renames twice)."""
+    if not hasattr(os, "fork") or not os.uname().sysname == "Linux":
+        return False
+    try:
+        # ctypes and libc cost about 1 ms; only a Dask run that replaces a dataset gets here
+        import ctypes
+
+        libc = ctypes.CDLL(None, use_errno=True)
+        renameat2 = libc.renameat2
+    except (OSError, AttributeError):  # glibc before 2.28, or another libc
+        return False
+    renameat2.argtypes = [ctypes.c_int, ctypes.c_char_p, ctypes.c_int, ctypes.c_char_p, ctypes.c_uint]
+    if renameat2(_AT_FDCWD, os.fsencode(a), _AT_FDCWD, os.fsencode(b), _RENAME_EXCHANGE) == 0:
+        return True
+    number = ctypes.get_errno()
+    if number in (errno.ENOSYS, errno.EINVAL, errno.EOPNOTSUPP, errno.ENOTSUP):
+        return False
+    raise OSError(number, os.strerror(number), b)
 
 
 def kept_path(path: str) -> str:

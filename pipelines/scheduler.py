@@ -18,7 +18,7 @@ from dataclasses import dataclass
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import int_array, nullable_int_array
+from ionicity.pipelines.arrow_columns import as_text, int_array, nullable_int_array
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import WORKER_LOST, WorkerPool, default_workers, score_values
 
@@ -282,8 +282,9 @@ def formula_array(batch: pa.RecordBatch, formula_col: str) -> pa.Array:
     if pa.types.is_dictionary(formulas.type) and pa.types.is_string(formulas.type.value_type):
         return formulas
     if not pa.types.is_string(formulas.type):
-        formulas = pc.cast(formulas, pa.string())
+        formulas = as_text(formulas)
     return formulas
+
 
 
 def used_entries(formulas: pa.DictionaryArray) -> tuple[pa.Array, pa.Array]:

@@ -17,7 +17,7 @@ from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import check_name_column, find_formula_column, generated_names
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import output_columns
-from ionicity.scorer.verdict import Verdict, with_row_name
+from ionicity.scorer.verdict import Verdict, fit_message, with_row_name
 
 __all__ = ["score_table"]
 
@@ -81,6 +81,11 @@ def score_table(df, formula_col: str | None = None, *, name_col: str | None = No
         for i in np.flatnonzero(status == "error"):
             messages[i] = with_row_name(Verdict(status[i], messages[i], notes[i]), row_names[i]).message
         result[prefix + "message"] = messages
+    # capped, never starting like a spreadsheet formula, as in files
+    fits = {m: fit_message(m) for m in pd.unique(result[prefix + "message"]) if isinstance(m, str)}
+    unfit = {m: f for m, f in fits.items() if f != m}
+    if unfit:
+        result[prefix + "message"] = result[prefix + "message"].replace(unfit)
     return result
 
 

@@ -327,6 +327,11 @@ def parse_formula(text: str) -> ParsedFormula:
             f"formula is {len(text)} characters long; the limit is {MAX_FORMULA_LENGTH}"
             f" (starts {text[:20]!r})"
         )
+    if "\ufffd" in text:
+        # what a reader puts for bytes that are not UTF-8: the cell's encoding is wrong, not its chemistry
+        raise FormulaError(
+            f"{text[:40]!r} holds U+FFFD, the mark of bytes that were not valid UTF-8 text; check the table's encoding"
+        )
     notes: list[str] = []
     if _STOCK_NAME.search(text):
         m = _STOCK_NAME.search(text)
@@ -344,6 +349,12 @@ def parse_formula(text: str) -> ParsedFormula:
     cleaned = _normalise_text(text_to_parse)
     if not cleaned:
         raise FormulaError("empty formula")
+    if len(cleaned) > MAX_FORMULA_LENGTH:
+        # checked again once written out: a compatibility character can stand for several (U+216B is XII)
+        raise FormulaError(
+            f"formula is {len(cleaned)} characters long once normalised ({len(text)} as typed); the limit is"
+            f" {MAX_FORMULA_LENGTH} (starts {cleaned[:20]!r})"
+        )
     try:
         parsed = _parse_normalised(cleaned)
     except FormulaError as exc:

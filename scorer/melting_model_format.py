@@ -62,8 +62,18 @@ _TOP_KEYS = frozenset({
 })
 _REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
 _TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
-_MAX_TREES = 5000
-_MAX_NODES = 100_000
+_INTERVAL_KEYS = frozenset({"method", "coverage", "log_halfwidth", "group_log_halfwidths", "calibration_rows"})
+_DOMAIN_KEYS = frozenset({"feature_min", "feature_max", "target_min_K", "target_max_K", "substance_classes"})
+# Bounds on what applying a model may cost. fit-melting writes 200 trees of at
+# most 13 nodes (max_leaf_nodes=7), depth at most 6: 2,600 nodes. Walking the
+# trees costs a few numpy operations per tree level reached, at most half the
+# node count in all (a chain of d levels needs 2d + 1 nodes), so the node bound
+# is a bound on the time a model adds to every batch.
+_MAX_TREES = 1000
+_MAX_NODES = 20_000  # in all the trees together: about 8 times what fit-melting writes
+_MAX_DEPTH = 32
+# a whole number past this cannot be a node index or a count, and past 2**1023 not even a float
+_MAX_WHOLE = 2 ** 53
 
 INTERVAL_GROUPS = ("ionic_liquid", "other")
 
@@ -101,15 +111,32 @@ def _need(condition: bool, message: str) -> None:
         raise ModelFormatError(message)
 
 
+def _finite(value) -> bool:
+    """A JSON number that is finite and fits a float (an integer of 400 digits does not)."""
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        return False
+    return abs(value) <= _MAX_WHOLE if isinstance(value, int) else math.isfinite(value)
+
+
 def _number_list(value, name: str, *, integer: bool = False, length: int | None = None) -> np.ndarray:
     _need(isinstance(value, list), f"'{name}' must be a list of numbers")
     _need(length is None or len(value) == length, f"'{name}' must have {length} entries, not {len(value)}")
     for item in value:
         _need(isinstance(item, (int, float)) and not isinstance(item, bool),
               f"'{name}' must hold only numbers (found {type(item).__name__})")
-        _need(math.isfinite(item), f"'{name}' must hold only finite numbers")
+        _need(_finite(item), f"'{name}' must hold only finite numbers of at most {_MAX_WHOLE}")
         _need(not integer or float(item) == int(item), f"'{name}' must hold only whole numbers")
     return np.array(value, dtype=np.int64 if integer else float)
+
+
+def _depth(left: np.ndarray, right: np.ndarray, inner: np.ndarray) -> int:
+    """The longest path below the root, in levels (children point forward, checked before;
+    a node two parents share counts by its deeper one)."""
+    depth = np.zeros(len(left), dtype=np.int64)
+    for i in np.flatnonzero(inner):
+        depth[left[i]] = max(depth[left[i]], depth[i] + 1)
+        depth[right[i]] = max(depth[right[i]], depth[i] + 1)
+    return int(depth.max())
 
 
 def _plain_json(value, depth: int = 0) -> bool:
@@ -157,8 +184,9 @@ def model_from_dict(document) -> MeltingModel:
     _need(isinstance(document, dict), "a melting model must be a JSON object")
     fmt = document.get("format")
     _need(fmt == MODEL_FORMAT, f"not an ionicity melting model: 'format' is {fmt!r}, expected {MODEL_FORMAT!r}")
-    _need(document.get("format_version") == MODEL_FORMAT_VERSION,
-          f"unsupported format_version {document.get('format_version')!r}; this ionicity reads {MODEL_FORMAT_VERSION}")
+    version = document.get("format_version")
+    _need(type(version) is int and version == MODEL_FORMAT_VERSION,
+          f"unsupported format_version {version!r}; this ionicity reads {MODEL_FORMAT_VERSION}")
     model_type = document.get("model_type")
     _need(model_type in MODEL_TYPES, f"model_type {model_type!r} is not accepted; allowed: {', '.join(MODEL_TYPES)}")
     unknown = sorted(set(document) - _TOP_KEYS)
@@ -173,8 +201,7 @@ def model_from_dict(document) -> MeltingModel:
     _need(not strange, f"features ionicity does not compute: {strange}; allowed: {', '.join(MODEL_FEATURES)}")
     _need(len(set(features)) == len(features), "'features' lists a column twice")
     baseline = document["baseline"]
-    _need(isinstance(baseline, (int, float)) and not isinstance(baseline, bool) and math.isfinite(baseline),
-          "'baseline' must be a finite number")
+    _need(_finite(baseline), "'baseline' must be a finite number")
     trees_in = document["trees"]
     _need(isinstance(trees_in, list) and 0 < len(trees_in) <= _MAX_TREES, f"'trees' must be a list of 1 to {_MAX_TREES} trees")
     trees = []
@@ -182,8 +209,11 @@ def model_from_dict(document) -> MeltingModel:
     for k, tree in enumerate(trees_in):
         _need(isinstance(tree, dict) and set(tree) == _TREE_KEYS,
               f"tree {k} must have exactly the keys {sorted(_TREE_KEYS)}")
-        n = len(tree["value"]) if isinstance(tree["value"], list) else 0
-        _need(0 < n <= _MAX_NODES, f"tree {k}: between 1 and {_MAX_NODES} nodes expected")
+        _need(isinstance(tree["value"], list) and len(tree["value"]) > 0, f"tree {k}: at least one node expected")
+    total_nodes = sum(len(tree["value"]) for tree in trees_in)
+    _need(total_nodes <= _MAX_NODES, f"the trees hold {total_nodes} nodes in all; the limit is {_MAX_NODES}")
+    for k, tree in enumerate(trees_in):
+        n = len(tree["value"])
         feature = _number_list(tree["feature"], f"trees[{k}].feature", integer=True, length=n)
         threshold = _number_list(tree["threshold"], f"trees[{k}].threshold", length=n)
         left = _number_list(tree["left"], f"trees[{k}].left", integer=True, length=n)
@@ -199,26 +229,33 @@ def model_from_dict(document) -> MeltingModel:
               f"tree {k}: a split names a feature outside 0..{n_features - 1}")
         _need(bool(np.all((left[inner] > nodes[inner]) & (left[inner] < n) & (right[inner] > nodes[inner]) & (right[inner] < n))),
               f"tree {k}: child indices must point forward inside the tree")
+        depth = _depth(left, right, inner)
+        _need(depth <= _MAX_DEPTH, f"tree {k} is {depth} levels deep; the limit is {_MAX_DEPTH}")
         trees.append((feature, threshold, left, right, missing_left.astype(bool), leaf.astype(bool), value))
     interval = document["interval"]
     _need(isinstance(interval, dict), "'interval' must be an object")
+    unknown = sorted(set(interval) - _INTERVAL_KEYS)
+    _need(not unknown, f"unexpected keys in 'interval': {unknown}; allowed: {sorted(_INTERVAL_KEYS)}")
     halfwidth = interval.get("log_halfwidth")
     coverage = interval.get("coverage", 0.9)
-    _need(isinstance(halfwidth, (int, float)) and not isinstance(halfwidth, bool) and math.isfinite(halfwidth)
-          and halfwidth >= 0, "'interval.log_halfwidth' must be a finite number >= 0")
-    _need(isinstance(coverage, (int, float)) and 0 < coverage < 1, "'interval.coverage' must lie between 0 and 1")
+    _need(_finite(halfwidth) and halfwidth >= 0, "'interval.log_halfwidth' must be a finite number >= 0")
+    _need(_finite(coverage) and 0 < coverage < 1, "'interval.coverage' must lie between 0 and 1")
+    _need(isinstance(interval.get("method", ""), str), "'interval.method' must be text")
+    rows = interval.get("calibration_rows", 0)
+    _need(type(rows) is int and 0 <= rows <= _MAX_WHOLE, "'interval.calibration_rows' must be a whole number >= 0")
     domain = document["domain"]
     _need(isinstance(domain, dict), "'domain' must be an object")
+    unknown = sorted(set(domain) - _DOMAIN_KEYS)
+    _need(not unknown, f"unexpected keys in 'domain': {unknown}; allowed: {sorted(_DOMAIN_KEYS)}")
     fmin = _number_list(domain.get("feature_min"), "domain.feature_min", length=n_features)
     fmax = _number_list(domain.get("feature_max"), "domain.feature_max", length=n_features)
     groups = interval.get("group_log_halfwidths", {})
     _need(isinstance(groups, dict) and all(
-        g in INTERVAL_GROUPS and isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v) and v >= 0
-        for g, v in groups.items()),
+        g in INTERVAL_GROUPS and _finite(v) and v >= 0 for g, v in groups.items()),
         f"'interval.group_log_halfwidths' must map {', '.join(INTERVAL_GROUPS)} to finite numbers >= 0")
     target = [domain.get("target_min_K", math.nan), domain.get("target_max_K", math.nan)]
     for key, value in zip(("target_min_K", "target_max_K"), target):
-        _need(key not in domain or (isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)),
+        _need(key not in domain or _finite(value),
               f"'domain.{key}' must be a finite number")
     classes = domain.get("substance_classes", [])
     _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),

@@ -188,9 +188,41 @@ def test_attack_dask_overwrite_refuses_a_folder_it_did_not_write(tmp_path):
 
 def test_attack_dask_swap_keeps_old_or_new_at_the_path(tmp_path, monkeypatch):
     # attack 2b: the old dataset was moved to a partial name, which the next
-    # run deleted as stale if this one was killed before the new one moved in
+    # run deleted as stale if this one was killed before the new one moved in;
+    # build item 1: at every instant either the old or the new output is at the path
     pytest.importorskip("dask.dataframe")
-    from ionicity.pipelines.dask_engine import _swap_into_place
+    from ionicity.pipelines import dask_engine
+    from ionicity.pipelines.output_paths import exchange_paths
+
+    out, new = tmp_path / "out.parquet", tmp_path / "new"
+    _dataset(out, "old")
+    _dataset(new, "new")
+    if not exchange_paths(str(new), str(new)):
+        pytest.skip("no renameat2(RENAME_EXCHANGE) here; the two-rename fallback is tested below")
+    seen = []
+
+    def watching(src, dst):
+        done = exchange_paths(src, dst)
+        seen.append(((out / "part-000000.parquet").read_text(), os.path.lexists(out)))
+        return done
+
+    def no_rename(src, dst):
+        raise AssertionError(f"renamed {src} -> {dst}: the path was empty in between")
+
+    monkeypatch.setattr(dask_engine, "exchange_paths", watching)
+    monkeypatch.setattr(os, "rename", no_rename)
+    dask_engine._swap_into_place(str(new), str(out), overwrite=True)
+    monkeypatch.undo()
+    assert seen == [("new", True)]  # one step: new in, old out
+    assert (out / "part-000000.parquet").read_text() == "new"
+    assert sorted(os.listdir(tmp_path)) == ["out.parquet"]
+
+
+def test_attack_dask_swap_without_exchange_renames_twice(tmp_path, monkeypatch):
+    # where the system cannot exchange two paths, old aside then new in (a killed
+    # run's old dataset is put back by the next, test below)
+    pytest.importorskip("dask.dataframe")
+    from ionicity.pipelines import dask_engine
 
     out, new = tmp_path / "out.parquet", tmp_path / "new"
     _dataset(out, "old")
@@ -202,12 +234,43 @@ def test_attack_dask_swap_keeps_old_or_new_at_the_path(tmp_path, monkeypatch):
         real_rename(src, dst)
         seen.append(os.path.lexists(out))
 
+    monkeypatch.setattr(dask_engine, "exchange_paths", lambda a, b: False)
     monkeypatch.setattr(os, "rename", watching_rename)
-    _swap_into_place(str(new), str(out), overwrite=True)
+    dask_engine._swap_into_place(str(new), str(out), overwrite=True)
     monkeypatch.undo()
     assert (out / "part-000000.parquet").read_text() == "new"
     assert sorted(os.listdir(tmp_path)) == ["out.parquet"]
     assert seen == [False, True]  # empty only between the two renames of one process, never left so
+
+
+def test_attack_dask_swap_does_not_exchange_with_a_stranger(tmp_path):
+    # the path changed hands between the check and the exchange: put back, result kept beside
+    pytest.importorskip("dask.dataframe")
+    from ionicity.pipelines import dask_engine
+    from ionicity.pipelines.output_paths import exchange_paths
+
+    out, new = tmp_path / "out.parquet", tmp_path / "new"
+    _dataset(new, "new")
+    out.mkdir()
+    (out / "thesis.tex").write_text("years of work")
+    if not exchange_paths(str(new), str(new)):
+        pytest.skip("no renameat2(RENAME_EXCHANGE) here")
+    real_check = dask_engine.is_ionicity_dataset
+    calls = []
+
+    def passes_first_check(path):  # as if the stranger arrived just after the check
+        calls.append(path)
+        return True if len(calls) == 1 else real_check(path)
+
+    dask_engine.is_ionicity_dataset = passes_first_check
+    try:
+        with pytest.raises(InputError, match="without _ionicity_dataset") as caught:
+            dask_engine._swap_into_place(str(new), str(out), overwrite=True)
+    finally:
+        dask_engine.is_ionicity_dataset = real_check
+    assert (out / "thesis.tex").read_text() == "years of work"
+    kept = _kept(tmp_path)
+    assert kept[0] in str(caught.value) and (tmp_path / kept[0] / "part-000000.parquet").read_text() == "new"
 
 
 def test_attack_a_killed_swap_is_restored_not_deleted(tmp_path):

@@ -256,7 +256,7 @@ HOSTILE = [
     ("huge count", "H999999999999", ["999999999999"]),
     ("nested 50 deep", NESTED_50, ["nested"]),
     ("ten open brackets", "((((((((((", ["unbalanced", "nested"]),
-    ("control characters", "\x00\x01\x02\xff\ufffd", ["unexpected character"]),
+    ("control characters", "\x00\x01\x02\xff\ufffd", ["unexpected character", "U+FFFD"]),
     ("a number", "42", ["42"]),
     ("an integer", 42, ["42"]),
     ("charge only", "^2-", ["no formula"]),
