@@ -23,6 +23,7 @@ from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import finalise
 
@@ -245,6 +246,15 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    # one scan: an ordinary formula (most texts) skips the mixture, solution and slip readers
+    comp = ordinary_formula(text)
+    if comp is not None:
+        return _parsed_row(comp)
+    return _read_row(text)
+
+
+def _read_row(text: str) -> tuple:
+    """The row of ``text`` through every reader (what an ordinary formula skips)."""
     mixture = mixture_row(text, score_row)
     if mixture is not None:
         return mixture
