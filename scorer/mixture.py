@@ -45,7 +45,7 @@ from ionicity.scorer.tables import table
 from ionicity.scorer.verdict import finalise
 
 __all__ = [
-    "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends",
+    "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends", "names_a_blend",
     "melt_component", "system_components", "published_point", "published_eutectics", "published_liquidus_errors", "compound_note", "fusion_rows",
 ]
 
@@ -131,6 +131,12 @@ def _blend(text: str) -> tuple[str, str, str] | None:
     if found is None:
         return None
     return text.strip(), found[0], found[1]
+
+
+def names_a_blend(text: str) -> bool:
+    """Whether ``text`` is a blend name (``scorer/data/blends.csv`` or the
+    user's ``--aliases``), case and spacing ignored."""
+    return _blend(text) is not None
 
 
 @once

@@ -23,6 +23,7 @@ from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import finalise
 
@@ -200,34 +201,56 @@ def score_parsed(comp: ParsedFormula) -> dict:
 
 
 def _parsed_row(comp: ParsedFormula) -> tuple:
-    values, warnings, gaps, formula, base = _anhydrous_scores(
-        comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint
-    )
+    # once per spelling: what is not shared with the salt's other spellings is
+    # its lattice water (a few distinct counts, each worded once) and its mass
+    key = (comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
+    values, warnings, gaps, formula, base = _anhydrous_scores(*key)
+    water = comp.hydrate_water
     # the hydrate of a molecular halide is a salt of the aqua ion ([Al(H2O)6]Cl3):
     # only those few hydrates are scored apart from their anhydrous compound
-    if (comp.hydrate_water and values["substance_class"] in _MOLECULAR_OR_LAYER
+    if (water and values["substance_class"] in _MOLECULAR_OR_LAYER
             and family_decided(decompose_anhydrous(comp))):
-        values, warnings, gaps, formula, base = _anhydrous_scores(
-            comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint, True
-        )
-    position = _layout()[1]
+        values, warnings, gaps, formula, base = _anhydrous_scores(*key, True)
+    formula_at, name_at, water_at, mass_at, status_at, message_at, notes_at = _slots()
     row = list(base)
-    water = comp.hydrate_water
-    row[position["formula_normalized"]] = formula + _water_suffix(water)
-    if water and row[position["systematic_name"]]:
-        row[position["systematic_name"]] += " " + hydrate_words(water)
-    row[position["hydrate_water"]] = float(water)
+    mass = _unrounded_mass(comp.counts)
+    if water:
+        suffix, words, water_mass = _hydrate_parts(float(water))
+        row[formula_at] = formula + suffix
+        if row[name_at]:
+            row[name_at] += words
+        mass += water_mass
+    else:
+        row[formula_at] = formula
+    row[water_at] = float(water)
     # per formula unit with its lattice water
-    row[position["molar_mass_g_mol"]] = round(_unrounded_mass(comp.counts) + water * _unrounded_mass(_WATER), 4)
+    row[mass_at] = round(mass, 4)
     if comp.notes:  # a spelling-specific warning (an ignored annotation, an ambiguous charge)
         verdict = _verdict(values["substance_class"], [*comp.notes, *warnings], [])
-        row[position["status"]] = verdict.status
-        row[position["message"]] = verdict.message
-    if row[position["status"]] == "error":
+        row[status_at] = verdict.status
+        row[message_at] = verdict.message
+    if row[status_at] == "error":
         # a failed row carries no half-read formula, mass or score
-        return _error_row(row[position["message"]])
-    row[position["value_notes"]] = gaps[1] if water else gaps[0]
+        return _error_row(row[message_at])
+    row[notes_at] = gaps[1] if water else gaps[0]
     return tuple(row)
+
+
+@once
+def _slots() -> tuple[int, ...]:
+    """Positions of the columns a spelling sets itself (see :func:`_parsed_row`)."""
+    position = _layout()[1]
+    return tuple(position[name] for name in (
+        "formula_normalized", "systematic_name", "hydrate_water", "molar_mass_g_mol", "status", "message",
+        "value_notes",
+    ))
+
+
+@per_input(maxsize=1024)
+def _hydrate_parts(water: float) -> tuple[str, str, float]:
+    """The ``·nH2O`` suffix, the hydrate words (with their space) and the
+    mass of ``water`` lattice water molecules: the same for every salt."""
+    return _water_suffix(water), " " + hydrate_words(water), water * _unrounded_mass(_WATER)
 
 
 _WATER = (("H", 2.0), ("O", 1.0))
@@ -245,6 +268,15 @@ def _error_row(message: str) -> tuple:
 
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
+    # one scan: an ordinary formula (most texts) skips the mixture, solution and slip readers
+    comp = ordinary_formula(text)
+    if comp is not None:
+        return _parsed_row(comp)
+    return _read_row(text)
+
+
+def _read_row(text: str) -> tuple:
+    """The row of ``text`` through every reader (what an ordinary formula skips)."""
     mixture = mixture_row(text, score_row)
     if mixture is not None:
         return mixture

@@ -49,7 +49,9 @@ from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous
 
-__all__ = ["Slip", "SLIP_KINDS", "MARGIN", "find_slip", "reading_penalty", "slip_kind_of"]
+__all__ = [
+    "Slip", "SLIP_KINDS", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+]
 
 # what each kind of slip is called in messages and in the audit summary
 SLIP_KINDS: dict[str, str] = {
@@ -92,7 +94,7 @@ _LETTER_RUN = re.compile(r"[A-Za-z]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
-_MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$")
+MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$")
 _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
 # a single element letter with three or more digits: the numeric code of a
 # quaternary ammonium or phosphonium ion (N2224, P66614), not a count
@@ -309,13 +311,13 @@ def _find_one(text: str) -> Slip | None:
     stripped = "".join(text.split())
     if not _balanced(stripped):
         return None  # no slip of these kinds unbalances brackets: the grammar's error stands
-    abbreviation = _unknown_abbreviation(stripped)
+    abbreviation = unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
     letters = "".join(ch for ch in stripped if ch.isalpha())
     all_caps = len(letters) > 1 and letters.isupper()
     all_lower = letters.islower()
-    if not (all_caps or all_lower or _MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
+    if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
     written_box: list[float] = []
@@ -385,7 +387,7 @@ def _find_one(text: str) -> Slip | None:
     return Slip(kind, best, f"typing slip? {text!r} looks like {best}{also}: {SLIP_KINDS[kind]}; values are for {best}")
 
 
-def _unknown_abbreviation(text: str) -> Slip | None:
+def unknown_abbreviation(text: str) -> Slip | None:
     """A bracketed ion code the library does not know (``[N2224]``): an error
     rather than a reading of nitrogen times 2224."""
     for m in _BRACKETED.finditer(text):
