@@ -50,23 +50,23 @@ TREND_WEIGHTS: dict[str, float] = {
     "intercept": 2.978,  # log10 K at the reference energy and chi with no other term
     "reference_energy_per_ion_kJ_mol": 381.0,  # NaCl: volume-based 762 kJ/mol over 2 ions
     "reference_contact_chi": 2.0,  # the fit's centring value (NaCl: (0.93 + 3.16) / 2 = 2.045)
-    "cohesion_exponent": 0.65,
+    "cohesion_exponent": 0.67,
     "contact_chi": 0.17,
     "contact_index": 0.20,
     "pseudo_noble_gas": 0.10,
-    "polyatomic_anion": 0.093,
-    "ions_per_formula_unit": 0.20,
+    "polyatomic_anion": 0.094,
+    "ions_per_formula_unit": 0.23,
     "entropy_per_ion_J_mol_K": 12.5,  # NaCl: dS_fus 26 J/(mol K) over 2 ions (CRC Handbook, from memory)
-    "flexibility": 0.098,
+    "flexibility": 0.092,
     "chain_melting_K": 414.6,  # polyethylene, the long-chain limit (Wunderlich 1980, from memory)
     "packing_free_torsions": 4.5,  # tau of a hexyl chain: longer chains pack
-    "delocalised": 0.33,
+    "delocalised": 0.32,
     # nitrides: the volume-based energy of a small triply charged anion overstates the
     # cohesion that melting breaks (Li3N 1086 K)
-    "trivalent_anion": 0.11,
-    "high_charge_cation": 0.06,
+    "trivalent_anion": 0.14,
+    "high_charge_cation": 0.065,
     "framework_oxoanion": 0.25,
-    "protic": 0.19,
+    "protic": 0.18,
     # anions that carry hydrogen (HF2-, HSO4-, OH-): hydrogen bonds between the anions
     "hydrogen_bonded_anion": 0.15,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
