@@ -220,10 +220,28 @@ def _metrics(y_true: np.ndarray, y_pred: np.ndarray) -> dict:
     }
 
 
-def _split_calibration(n: int, fraction: float, rng: np.random.Generator) -> tuple[np.ndarray, np.ndarray]:
-    order = rng.permutation(n)
-    n_cal = max(1, int(round(n * fraction)))
-    return np.sort(order[n_cal:]), np.sort(order[:n_cal])
+def _split_calibration(n: int, fraction: float, rng: np.random.Generator, groups=None) -> tuple[np.ndarray, np.ndarray]:
+    """Indices of the proper training part and of the calibration part (about ``fraction`` of n).
+
+    With ``groups``, whole groups go to the calibration part, so its residuals are
+    those of groups the proper part never saw: the situation of a held-out cation
+    family, where a random split would give intervals too narrow (split-conformal
+    coverage assumes the new row is exchangeable with the calibration rows).
+    """
+    if groups is None:
+        order = rng.permutation(n)
+        n_cal = max(1, int(round(n * fraction)))
+        return np.sort(order[n_cal:]), np.sort(order[:n_cal])
+    groups = np.asarray(groups)
+    target = max(1, int(round(n * fraction)))
+    calib = np.zeros(n, dtype=bool)
+    for g in rng.permutation(np.unique(groups)):
+        if calib.sum() >= target:
+            break
+        calib |= groups == g
+    if calib.all():  # one group only: nothing left to fit on
+        return _split_calibration(n, fraction, rng)
+    return np.flatnonzero(~calib), np.flatnonzero(calib)
 
 
 def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: float) -> tuple[float, dict]:
@@ -298,7 +316,7 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     width = np.full(len(y_K), np.nan)
     for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
         say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
-        proper, calib = _split_calibration(len(train), calibration_fraction, rng)
+        proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
         proper, calib = train[proper], train[calib]
         pipe, used = _fit_pipeline(x[proper], y_K[proper], seed, labels[proper])
         _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(x[calib][:, used])),
@@ -446,7 +464,7 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         cv[scheme].pop("oof_predictions_K")
     say("fitting the final model")
     rng = np.random.default_rng(seed)
-    proper, calib = _split_calibration(len(rows), calibration_fraction, rng)
+    proper, calib = _split_calibration(len(rows), calibration_fraction, rng, [row["cation_family"] for row in rows])
     pipe, used = _fit_pipeline(x[proper], y[proper], seed, labels[proper])
     q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used])), labels[calib], coverage)
     hgb = pipe.named_steps["regressor"].regressor_
