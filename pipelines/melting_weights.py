@@ -22,7 +22,9 @@ Two named sets, each with its source in the repository:
   a least-squares fit of dH_m on the calibration rows.
 
 Prints the fitted weights and, per set, Spearman's rho, the share within a
-factor 1.5 and the class accuracy (on MELTING_CLASS_BANDS). Progress goes to
+factor 1.5 and the class accuracy (on MELTING_CLASS_BANDS); then, on the open
+set's validation salts scored as a user's rows are, the share with an index
+and the share of those melting at 1500 C or above called ``refractory``. Progress goes to
 stderr. Needs the ``melting`` extra (chemicals, scipy).
 """
 from __future__ import annotations
@@ -39,7 +41,7 @@ from ionicity.scorer import melting
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
-from ionicity.scorer.record import normalized_formula
+from ionicity.scorer.record import normalized_formula, score_formula
 
 MOLECULAR_SET = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "molecular_compounds.csv"
 CALIBRATION_SALTS = MOLECULAR_SET.with_name("wikidata_salts.csv")
@@ -54,6 +56,7 @@ SALT_FEATURES = (
     ("trivalent_anion", lambda t: -t.trivalent_anion_fraction),
     ("high_charge_cation", lambda t: -t.cation_charge_above_3),
     ("framework_oxoanion", lambda t: t.framework_oxoanion_fraction),
+    ("hydrogen_bonded_anion", lambda t: -t.hydrogen_bonded_anion_fraction),
 )
 
 
@@ -133,7 +136,8 @@ def _index_with(terms, weights) -> float:
         terms.lattice_energy_per_ion_kJ_mol, terms.contact_chi_pauling, terms.contact_index, terms.pseudo_noble_gas,
         terms.polyatomic_anion_fraction, terms.ions_per_formula_unit, terms.flexibility_entropy_J_mol_K,
         terms.chain_packing_entropy_J_mol_K, terms.delocalised_fraction, terms.trivalent_anion_fraction,
-        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction, weights=weights)
+        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction,
+        terms.hydrogen_bonded_anion_fraction, weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:
@@ -216,6 +220,28 @@ def evaluate(salts, molecules, organics=None) -> dict:
     return out
 
 
+def coverage_and_refractory(training_rows) -> dict:
+    """Validation salts of the open set (formulas outside the CC0 fixture), each scored as a user's row would be.
+
+    ``coverage``: the share with a finite ``mp_trend_index`` (any route);
+    ``refractory_share``: of those melting at 1773.15 K or above, the share whose
+    ``melting_class`` is ``refractory``; ``no_index``: the formulas without one.
+    """
+    with open(CALIBRATION_SALTS, newline="", encoding="utf-8") as handle:
+        known = {row["formula_normalized"] for row in csv.DictReader(handle)}
+    rows = [r for r in training_rows if r["formula_normalized"] not in known]
+    scored = [(r, score_formula(r["formula_normalized"])) for r in rows]
+    indexed = [(r, s) for r, s in scored if isinstance(s.get("mp_trend_index"), float) and math.isfinite(s["mp_trend_index"])]
+    hot = [s for r, s in indexed if float(r["mp_K"]) >= 1773.15]
+    return {
+        "n": len(rows),
+        "coverage": round(len(indexed) / len(rows), 3) if rows else math.nan,
+        "refractory_n": len(hot),
+        "refractory_share": round(sum(s["melting_class"] == "refractory" for s in hot) / len(hot), 3) if hot else math.nan,
+        "no_index": sorted({r["formula_normalized"] for r, s in scored} - {r["formula_normalized"] for r, _ in indexed}),
+    }
+
+
 def main(argv=None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--training", help="a training_set.csv written by fit-melting (default: build it now)")
@@ -237,6 +263,7 @@ def main(argv=None) -> int:
     print("molecular weights (fit on calibration):", {k: round(v, 3) for k, v in fit_molecular_weights(molecules).items()})
     for name, figures in evaluate(salts, molecules, organics).items():
         print(name, figures)
+    print("open_set_validation_salts", coverage_and_refractory(training))
     return 0
 
 

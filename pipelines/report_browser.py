@@ -74,7 +74,7 @@ _PICTURE_STYLE = ("<style>#summary, #attention, #melting table, #melting p, #mel
                   " #caution { display: none; }</style>")
 
 
-def demo_picture(png: str, repo: str = ".", width: int = 1200, height: int = 2750) -> None:
+def demo_picture(png: str, repo: str = ".", width: int = 1200, height: int = 3000) -> None:
     """Score the demo table, write its report and save a picture of it: the
     page as written, less its long tables (:data:`_PICTURE_STYLE`), so that
     the cards at the top and the figures fit one image."""

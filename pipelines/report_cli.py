@@ -2,8 +2,8 @@
 and ``ionicity score ... --report report.html``.
 
 Light on purpose (argparse only): the command line builds its parser before
-it knows which command runs, so pyarrow and matplotlib load only when a
-report is written.
+it knows which command runs, so pyarrow loads only when a report is
+written.
 """
 from __future__ import annotations
 
@@ -12,7 +12,6 @@ import os
 import sys
 
 from ionicity.pipelines.errors import InputError
-from ionicity.pipelines.report_extra import INSTALL_HINT, matplotlib_missing
 
 __all__ = ["add_report_parser", "add_report_option", "check_report_option", "run_report", "report_after_score"]
 
@@ -23,7 +22,7 @@ def add_report_parser(sub) -> argparse.ArgumentParser:
         "report", help="one self-contained HTML page summarising a scored table",
         description="Write one HTML page (figures inline, no network needed, printable) from a table written by"
                     " 'ionicity score': run summary, rows that need a person, bond-type map, melting, hard and"
-                    " soft pairing, mixtures. Needs matplotlib (the 'report' extra).",
+                    " soft pairing, mixtures.",
     )
     report.add_argument("scored", metavar="SCORED", help="a table written by ionicity score (.parquet, .csv, .tsv,"
                         " or a folder of Parquet parts)")
@@ -44,7 +43,7 @@ def add_report_option(score: argparse.ArgumentParser) -> None:
 
 
 def run_report(args) -> int:
-    from ionicity.pipelines.report_html import report_file  # pyarrow and matplotlib: only when a report is written
+    from ionicity.pipelines.report_html import report_file  # pyarrow: only when a report is written
 
     report_file(args.scored, args.output, overwrite=args.overwrite, id_col=args.id_col, name_col=args.name_col)
     print(f"ionicity: report written to {args.output}", file=sys.stderr)
@@ -59,8 +58,6 @@ def check_report_option(args) -> None:
         raise InputError(f"--report {args.report!r} must end in .html or .htm")
     if getattr(args, "report", None) and os.path.lexists(args.report) and not args.overwrite:
         raise InputError(f"--report {args.report!r} exists; pass --overwrite to replace it")
-    if getattr(args, "report", None) and matplotlib_missing():
-        raise InputError(f"--report draws its figures with matplotlib, which is not installed: {INSTALL_HINT}")
 
 
 def report_after_score(args, summary) -> None:

@@ -1,5 +1,7 @@
-"""The figures of ``ionicity report``: inline SVG drawn by matplotlib from
-the streaming aggregates of :mod:`ionicity.pipelines.report`.
+"""The figures of ``ionicity report``: inline SVG written by our own
+:mod:`ionicity.pipelines.svg_plot` from the streaming aggregates of
+:mod:`ionicity.pipelines.report` (no plotting library: the figures of a
+report take under a tenth of a second, not the second and a quarter matplotlib took).
 
 The colours are chosen here. Eight substance-class groups, each also given
 its own marker so colour is never the only cue. The hex values were picked
@@ -13,18 +15,20 @@ reads the same under every simulated deficiency.
 """
 from __future__ import annotations
 
-import io
-import re
-
 import numpy as np
 
-from ionicity.pipelines.report_extra import require_matplotlib
 from ionicity.pipelines.report import (
-    CHI_DELTA_BINS, CHI_MEAN_BINS, LATTICE_LOG_BINS, LIQUIDUS_BINS, TREND_BINS, ReportData, melting_bands,
+    CHI_DELTA_BINS, CHI_MEAN_BINS, HUNDRED_C_K, LATTICE_LOG_BINS, LIQUIDUS_BINS, TREND_BINS, Bins, ReportData,
+    melting_bands,
 )
-from ionicity.scorer.character import van_arkel_ketelaar_bond_type
+from ionicity.pipelines.svg_plot import Plot, Scale, ramp_colour, text_px
+from ionicity.scorer.character import (
+    COVALENT_MIN_MEAN_CHI, IONIC_DELTA_CHI, IONIC_MAX_LOW_CHI, METALLIC_MAX_MEAN_CHI, NONMETAL_MIN_HIGH_CHI,
+    POLAR_DELTA_CHI,
+)
 
-__all__ = ["PALETTE", "MARKERS", "CLASS_GROUPS", "group_of", "figures"]
+__all__ = ["PALETTE", "MARKERS", "MELTING_COLOURS", "DENSITY_RAMP", "CLASS_GROUPS", "group_of", "region_polygons",
+           "figures"]
 
 #: substance-class group -> colour (chosen for this page; see the module docstring for the check)
 PALETTE = {
@@ -38,8 +42,8 @@ PALETTE = {
     "other": "#a8a8a8",
 }
 MARKERS = {
-    "ionic salt": "o", "ionic liquid": "D", "acid or base": "^", "molecular": "s",
-    "network or semiconductor": "P", "metallic": "v", "element": "*", "other": "x",
+    "ionic salt": "circle", "ionic liquid": "diamond", "acid or base": "triangle", "molecular": "square",
+    "network or semiconductor": "plus", "metallic": "triangle_down", "element": "star", "other": "cross",
 }
 #: substance_class values (today's and those agreed for the classification work) -> group
 CLASS_GROUPS = {
@@ -52,16 +56,21 @@ CLASS_GROUPS = {
     "metallic": "metallic", "intermetallic": "metallic",
     "element": "element",
 }
-#: melting class -> colour (the same hues, ordered from low to high melting)
-MELTING_COLOURS = ("#e8a33d", "#c85fb8", "#1f4e9c", "#7a4a16", "#262626", "#a8a8a8")
-_RAMP = ("#ffffff", "#d5dde8", "#8fa3c0", "#3d5a80", "#14243a")   # single-hue density ramp
+#: melting classes by temperature tier (below 100 C, to 300 C, to 1500 C, above; the last for a class the
+#: bands do not know): the palette's own hues, so the CVD check above covers them
+MELTING_COLOURS = ("#e8a33d", "#c85fb8", "#1f4e9c", "#7a4a16", "#a8a8a8")
+#: single-hue density ramp, light to dark (its lightness falls monotonically: tests/test_report.py)
+DENSITY_RAMP = ("#ffffff", "#d5dde8", "#8fa3c0", "#3d5a80", "#14243a")
+#: hatches of the classes that share a tier (salts first, as the bands list them, then other compounds),
+#: so that the classes stay apart in print and without colour
+_HATCHES = ("", "//", "xx", "..")
 _REGION_TINTS = {
     "ionic": "#f3e9d2", "ionic_covalent": "#e2ecf4", "covalent": "#eef0e4",
     "covalent_metallic": "#e9e4ef", "metallic": "#ece6df", "metallic_ionic": "#f3e4e9",
 }
-_REGION_LABELS = {
+_REGION_LABELS = {   # data position and rotation of each region's name
     "ionic": (2.35, 2.45, 0), "ionic_covalent": (2.95, 1.05, 0), "metallic_ionic": (1.45, 0.9, 0),
-    "metallic": (1.35, 0.2, 0), "covalent_metallic": (2.07, 0.24, 90), "covalent": (2.95, 0.2, 0),
+    "metallic": (1.35, 0.2, 0), "covalent_metallic": (2.07, 0.24, -90), "covalent": (2.95, 0.2, 0),
 }
 CHI_MIN, CHI_MAX = 0.79, 3.98   # Cs and F on the Pauling scale (the triangle's corners)
 
@@ -75,232 +84,227 @@ def group_of(substance_class) -> str:
     return CLASS_GROUPS.get(substance_class, "other")
 
 
-def _mpl():
-    """The matplotlib pieces the figures use. matplotlib is the optional report extra: imported only when a
-    figure is drawn (about 0.3 s, python -X importtime), after :func:`require_matplotlib` has checked it."""
-    from matplotlib import colors, ticker
-    from matplotlib.backends.backend_svg import FigureCanvasSVG
-    from matplotlib.figure import Figure
-
-    return colors, ticker, FigureCanvasSVG, Figure
-
-
-def _figure(width=7.2, height=4.6):
-    _, _, FigureCanvasSVG, Figure = _mpl()
-    fig = Figure(figsize=(width, height))
-    FigureCanvasSVG(fig)
-    return fig
+def _clip(poly: list[tuple[float, float]], a: float, b: float, c: float) -> list[tuple[float, float]]:
+    """The part of a convex polygon where a*x + b*y <= c (Sutherland-Hodgman, one edge)."""
+    out = []
+    for (x1, y1), (x2, y2) in zip(poly, poly[1:] + poly[:1]):
+        f1, f2 = a * x1 + b * y1 - c, a * x2 + b * y2 - c
+        if f1 <= 0:
+            out.append((x1, y1))
+        if f1 * f2 < 0:
+            t = f1 / (f1 - f2)
+            out.append((x1 + t * (x2 - x1), y1 + t * (y2 - y1)))
+    return out
 
 
-def _svg(fig) -> str:
-    buf = io.StringIO()
-    fig.savefig(buf, format="svg", bbox_inches="tight")
-    text = buf.getvalue()
-    text = re.sub(r"^<\?xml[^>]*>\s*", "", text)
-    text = re.sub(r"<!DOCTYPE[^>]*>\s*", "", text)
-    return re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)
+def region_polygons() -> list[tuple[str, list[tuple[float, float]]]]:
+    """The regions of the van Arkel-Ketelaar triangle as convex polygons (mean_chi, delta_chi), drawn from the
+    thresholds of :func:`ionicity.scorer.character.van_arkel_ketelaar_bond_type` (every boundary is a line
+    parallel to a side of the triangle, so each region is an intersection of half-planes; ionic_covalent,
+    which is not convex, comes in two pieces).
 
+    >>> [name for name, _ in region_polygons()]
+    ['ionic', 'ionic_covalent', 'ionic_covalent', 'metallic_ionic', 'metallic', 'covalent_metallic', 'covalent']
+    """
+    triangle = [(CHI_MIN, 0.0), (CHI_MAX, 0.0), ((CHI_MIN + CHI_MAX) / 2, CHI_MAX - CHI_MIN)]
+    y_ionic, y_polar = IONIC_DELTA_CHI, POLAR_DELTA_CHI
 
-def _ramp():
-    return _mpl()[0].LinearSegmentedColormap.from_list("ionicity_density", _RAMP)
+    def cut(*planes):
+        poly = triangle
+        for plane in planes:
+            poly = _clip(poly, *plane)
+        return poly
+
+    # (a, b, c) means a*x + b*y <= c; "x - y/2 < 2.0" is (1, -0.5, 2.0), "x + y/2 >= 2.15" is (-1, -0.5, -2.15)
+    low_partner_metal, high_partner_nonmetal = (1, -0.5, IONIC_MAX_LOW_CHI), (-1, -0.5, -NONMETAL_MIN_HIGH_CHI)
+    return [
+        ("ionic", cut((0, -1, -y_ionic), low_partner_metal)),
+        ("ionic_covalent", cut((0, -1, -y_polar), (0, 1, y_ionic), high_partner_nonmetal)),
+        ("ionic_covalent", cut((0, -1, -y_ionic), (-1, 0.5, -IONIC_MAX_LOW_CHI), high_partner_nonmetal)),
+        ("metallic_ionic", cut((0, -1, -y_polar), (1, 0.5, NONMETAL_MIN_HIGH_CHI))),
+        ("metallic", cut((0, 1, y_polar), (1, 0, METALLIC_MAX_MEAN_CHI))),
+        ("covalent_metallic", cut((0, 1, y_polar), (-1, 0, -METALLIC_MAX_MEAN_CHI), (1, 0, COVALENT_MIN_MEAN_CHI))),
+        ("covalent", cut((0, 1, y_polar), (-1, 0, -COVALENT_MIN_MEAN_CHI))),
+    ]
 
 
 def _sample_note(data: ReportData, shown: int) -> str:
     """What the points are: every row, or a sample (said on the figure)."""
     if len(data.sample.get("x", ())) >= data.rows:
-        return f"points: all {shown:,} rows with values (of {data.rows:,})"
-    return (f"points: a uniform random sample of {len(data.sample['x']):,} of {data.rows:,} rows ({shown:,} with values);"
-            " shading: every row, binned")
+        return f"Points: all {shown:,} rows with values (of {data.rows:,})."
+    return (f"Points: a uniform random sample of {len(data.sample['x']):,} of {data.rows:,} rows ({shown:,} with values);"
+            " shading: every row, binned.")
 
 
-def _scatter_groups(ax, x, y, classes):
+def _legend_title(data: ReportData) -> str:
+    return "substance class" + (" (sample)" if data.rows > len(data.sample.get("x", ())) else "")
+
+
+def _density(plot: Plot, counts: np.ndarray, xbins: Bins, ybins: Bins, ylog: bool, label: str, at: tuple) -> None:
+    """Shade the non-empty cells of a 2-D histogram (log colour scale) and add its colour bar at pixel ``at``."""
+    i, j = np.nonzero(counts)
+    if not len(i):
+        return
+    c = counts[i, j].astype(float)
+    top = float(c.max())
+    t = 0.15 + 0.85 * (np.log10(c) / np.log10(top) if top > 1 else np.ones_like(c))
+    xe, ye = xbins.edges(), ybins.edges()
+    if ylog:
+        ye = 10.0 ** ye
+    plot.cells(xe[i], xe[i + 1], ye[j], ye[j + 1], [ramp_colour(DENSITY_RAMP, v) for v in t], opacity=0.8)
+    plot.colour_bar(DENSITY_RAMP[1:], 1.0, max(top, 10.0), label, *at)
+
+
+def _scatter_groups(plot: Plot, x, y, classes) -> int:
+    """Markers of the sample by substance-class group (colour and shape); the number drawn."""
     lookup = {c: group_of(c) for c in set(classes.tolist())}
     groups = np.array([lookup[c] for c in classes], dtype=object)
-    # thousands of vector markers make the page slow to write and to open: above a few hundred
-    # points the markers are drawn as one embedded image (axes, labels and legend stay vector)
-    raster = len(classes) > 600
+    drawn = 0
     for g in PALETTE:
-        m = (groups == g) & np.isfinite(x) & np.isfinite(y)
+        m = groups == g
         if m.any():
-            ax.scatter(x[m], y[m], s=22 if MARKERS[g] != "*" else 50, marker=MARKERS[g], c=PALETTE[g],
-                       edgecolors="white" if MARKERS[g] not in ("x", "P") else None, linewidths=0.4,
-                       label=f"{g} ({int(m.sum()):,})", alpha=0.9, zorder=3, rasterized=raster)
+            n = int(np.sum(np.isfinite(x[m]) & np.isfinite(y[m])))
+            if n:
+                drawn += plot.scatter(x[m], y[m], PALETTE[g], MARKERS[g], label=f"{g} ({n:,})")
+    return drawn
 
 
 def bond_map(data: ReportData) -> str:
     """The van Arkel-Ketelaar triangle: mean against difference of electronegativity."""
-    fig = _figure(7.4, 5.4)
-    ax = fig.add_subplot()
-    gx = np.linspace(CHI_MIN, CHI_MAX, 160)
-    gy = np.linspace(0, CHI_MAX - CHI_MIN, 140)
-    X, Y = np.meshgrid(gx, gy)
-    inside = (X - Y / 2 >= CHI_MIN - 1e-9) & (X + Y / 2 <= CHI_MAX + 1e-9)
-    regions = list(_REGION_TINTS)
-    code = np.full(X.shape, np.nan)
-    for i, j in zip(*np.nonzero(inside)):
-        code[i, j] = regions.index(van_arkel_ketelaar_bond_type(X[i, j], Y[i, j]))
-    tints = _mpl()[0].ListedColormap([_REGION_TINTS[r] for r in regions]).with_extremes(bad=(1, 1, 1, 0))
-    # an image, not a mesh: 44,000 vector cells would make the page megabytes long
-    ax.imshow(np.ma.masked_invalid(code), cmap=tints, vmin=-0.5, vmax=len(regions) - 0.5, origin="lower",
-              extent=(gx[0], gx[-1], gy[0], gy[-1]), aspect="auto", interpolation="nearest", zorder=0)
-    ax.contour(gx, gy, np.nan_to_num(code, nan=-1), levels=np.arange(-0.5, len(regions)), colors="#7d7d7d",
-               linewidths=0.6, zorder=1)
-    ax.plot([CHI_MIN, CHI_MAX, (CHI_MIN + CHI_MAX) / 2, CHI_MIN], [0, 0, CHI_MAX - CHI_MIN, 0], color="#4d4d4d", lw=1)
-    for region, (lx, ly, rot) in _REGION_LABELS.items():
-        ax.text(lx, ly, region.replace("_", "-"), ha="center", va="center", rotation=rot, fontsize=8,
-                color="#333333", style="italic", zorder=2)
+    title = "Bond-type map (van Arkel-Ketelaar triangle)"
     s = data.sample
-    shown = int(np.sum(np.isfinite(s.get("x", np.empty(0))) & np.isfinite(s.get("y", np.empty(0)))))
-    if data.rows > len(s.get("x", ())) and data.bond_map.sum():
-        hist = np.where(data.bond_map > 0, data.bond_map, np.nan).T
-        mesh = ax.imshow(hist, cmap=_ramp(), norm=_mpl()[0].LogNorm(), alpha=0.75, zorder=2, origin="lower", aspect="auto",
-                         extent=(CHI_MEAN_BINS.lo, CHI_MEAN_BINS.hi, CHI_DELTA_BINS.lo, CHI_DELTA_BINS.hi),
-                         interpolation="nearest")
-        # inside the empty top-right corner of the triangle, clear of the legend beside the axes
-        bar = fig.colorbar(mesh, cax=ax.inset_axes([0.8, 0.5, 0.025, 0.45]), format="{x:,.0f}")  # plain numbers
-        bar.minorticks_off()
-        bar.set_label("rows per bin (0.05 x 0.05)", fontsize=7)
-        bar.ax.tick_params(labelsize=7)
+    x, y = s.get("x", np.empty(0)), s.get("y", np.empty(0))
+    shown = int(np.sum(np.isfinite(x) & np.isfinite(y)))
+    plot = Plot("bondmap", Scale(CHI_MIN - 0.1, CHI_MAX + 0.1, target=8), Scale(-0.05, CHI_MAX - CHI_MIN + 0.1, target=8),
+                width=860, height=600, legend_px=230)
+    plot.legend_title = _legend_title(data)
+    for region, poly in region_polygons():
+        plot.polygon([p[0] for p in poly], [p[1] for p in poly], _REGION_TINTS[region], stroke="#9a9a9a", width=0.8)
+    corners = [CHI_MIN, CHI_MAX, (CHI_MIN + CHI_MAX) / 2, CHI_MIN]
+    plot.line(corners, [0, 0, CHI_MAX - CHI_MIN, 0], colour="#4d4d4d", width=1.2)
+    for region, (lx, ly, rot) in _REGION_LABELS.items():
+        plot.data_text(lx, ly, region.replace("_", "-"), size=11, anchor="middle", colour="#333333", rotate=rot,
+                       extra=' font-style="italic" dominant-baseline="middle"')
+    if data.rows > len(x):
+        _density(plot, data.bond_map, CHI_MEAN_BINS, CHI_DELTA_BINS, False, "rows per 0.05 x 0.05 bin",
+                 (plot.x1 - 60, plot.y1 + 70))  # right of the triangle's upper half: empty
     if s:
-        _scatter_groups(ax, s["x"], s["y"], s["substance_class"])
-    ax.set_xlim(CHI_MIN - 0.1, CHI_MAX + 0.1)
-    ax.set_ylim(-0.05, CHI_MAX - CHI_MIN + 0.1)
-    ax.set_xlabel("mean electronegativity of the contact pair, mean_chi_pauling (Pauling units)")
-    ax.set_ylabel("electronegativity difference, delta_chi_pauling (Pauling units)")
-    ax.set_title("Bond-type map (van Arkel-Ketelaar triangle)")
-    if ax.get_legend_handles_labels()[0]:  # a table whose every row failed has nothing to place
-        ax.legend(fontsize=7, loc="upper left", bbox_to_anchor=(1.01, 1.0), title="substance class", title_fontsize=7)
-    ax.text(0.0, -0.13, _sample_note(data, shown), transform=ax.transAxes, ha="left", va="top", fontsize=7)
-    return _svg(fig)
+        _scatter_groups(plot, x, y, s["substance_class"])
+    plot.axes("mean electronegativity of the contact pair, mean_chi_pauling (Pauling units)",
+              "electronegativity difference, delta_chi_pauling (Pauling units)", title, _sample_note(data, shown))
+    return plot.svg(title)
+
+
+def _class_styles(data: ReportData, bands) -> list[tuple[str, int, str]]:
+    """(melting class, colour index, hatch) in stacking order: the colour says the temperature tier of the
+    class's band (tiers cut at the upper bounds from 100 C up), the hatch tells apart classes of one tier."""
+    tiers = sorted({hi for _, _, hi, _ in bands if hi >= HUNDRED_C_K - 1e-9})
+    out, used = [], {}
+    for name, _, hi, _ in bands:
+        tier = next(i for i, t in enumerate(tiers) if hi <= t + 1e-9)
+        out.append((name, min(tier, len(MELTING_COLOURS) - 2), _HATCHES[used.get(tier, 0) % len(_HATCHES)]))
+        used[tier] = used.get(tier, 0) + 1
+    known = {b[0] for b in bands}
+    return out + [(k, len(MELTING_COLOURS) - 1, "") for k in sorted(data.trend_by_class) if k not in known]
 
 
 def melting_distribution(data: ReportData) -> str:
     """Stacked histogram of mp_trend_index by melting class, class bands marked."""
-    fig = _figure(7.4, 4.2)
-    ax = fig.add_subplot()
+    title = "Melting trend by melting class (every row, binned by 0.025)"
+    bands = melting_bands()
+    stacked = [(name, colour, hatch, data.trend_by_class[name]) for name, colour, hatch in _class_styles(data, bands)
+               if name in data.trend_by_class and data.trend_by_class[name].sum()]
+    total = sum((h for *_, h in stacked), np.zeros(TREND_BINS.n, np.int64))
+    top = max(float(total.max()) * 1.12, 1.0)
+    width = max([text_px(f"{n} ({int(h.sum()):,} rows)") for n, *_, h in stacked] + [120.0])
+    plot = Plot("melting", Scale(TREND_BINS.lo, TREND_BINS.hi), Scale(0, top), width=860, height=470,
+                legend_px=int(width) + 40, top=70)
+    plot.legend_title = "melting_class"
     edges = TREND_BINS.edges()
     bottom = np.zeros(TREND_BINS.n)
-    bands = melting_bands()
-    order = [b[0] for b in bands] + sorted(k for k in data.trend_by_class if k not in {b[0] for b in bands})
-    for i, name in enumerate(order):
-        hist = data.trend_by_class.get(name)
-        if hist is None or not hist.sum():
-            continue
-        # one outline per class (not a bar per bin): 4 shapes in the SVG instead of 400
-        ax.stairs(bottom + hist, edges, baseline=bottom.copy(), fill=True,
-                  facecolor=MELTING_COLOURS[min(i, len(MELTING_COLOURS) - 1)], edgecolor="white", linewidth=0.3,
-                  label=f"{name} ({int(hist.sum()):,} rows)", hatch=("", "//", "", "..", "xx", "")[min(i, 5)])
-        bottom += hist
-    for name, lower, upper, _ in bands[:-1]:
-        if np.isfinite(upper) and upper > 0:
-            x = np.log10(upper)
-            ax.axvline(x, color="#4d4d4d", ls="--", lw=0.8)
-            ax.text(x, 1.0, f" {upper - 273.15:.0f} C", transform=ax.get_xaxis_transform(), fontsize=7,
-                    va="top", ha="left")
-    ax.set_xlim(TREND_BINS.lo, TREND_BINS.hi)
-    ax.set_xlabel("mp_trend_index (dimensionless: log10 of the trend temperature in K)")
-    ax.set_ylabel("rows")
-    ax.set_title("Melting trend by melting class (every row, binned by 0.025)")
-    top = ax.secondary_xaxis("top", functions=(lambda v: 10 ** np.asarray(v) - 273.15,
-                                                lambda c: np.log10(np.maximum(np.asarray(c) + 273.15, 1e-3))))
-    celsius = [c for c in (-200, -100, 0, 100, 300, 1000, 3000, 9000) if TREND_BINS.lo <= np.log10(c + 273.15) <= TREND_BINS.hi]
-    top.set_xticks(celsius, [f"{c:,}" for c in celsius])
-    top.set_xlabel("trend temperature (C)", fontsize=8)
-    if ax.get_legend_handles_labels()[0]:
-        ax.legend(fontsize=7, loc="upper left")
-    return _svg(fig)
+    for i, (name, colour, hatch, hist) in enumerate(stacked):
+        fill = plot.hatch(f"class{i}", hatch, MELTING_COLOURS[colour])
+        upper = bottom + hist
+        # one outline per class (steps up along the top, back along the bottom): a shape, not 100 bars
+        xs = np.concatenate([np.repeat(edges, 2)[1:-1], np.repeat(edges, 2)[1:-1][::-1]])
+        ys = np.concatenate([np.repeat(upper, 2), np.repeat(bottom, 2)[::-1]])
+        plot.polygon(xs, ys, fill, stroke="#ffffff", width=0.4)
+        plot.legend_entry(f"{name} ({int(hist.sum()):,} rows)", fill)
+        bottom = upper
+    for row, upper in enumerate(sorted({hi for _, _, hi, _ in bands if np.isfinite(hi) and hi > 0})):
+        plot.vline(np.log10(upper), f"{upper - 273.15:.0f} C", row=row % 2)  # two rows: 25 C and 100 C are close
+    celsius = [c for c in (-200, -100, 0, 100, 300, 1000, 3000, 9000)
+               if TREND_BINS.lo <= np.log10(c + 273.15) <= TREND_BINS.hi]
+    plot.top_axis([np.log10(c + 273.15) for c in celsius], [f"{c:,}" for c in celsius], "trend temperature (C)")
+    plot.axes("mp_trend_index (dimensionless: log10 of the trend temperature in K)", "rows", title)
+    return plot.svg(title)
 
 
 def lattice_vs_trend(data: ReportData) -> str:
     """Lattice energy (volume-based) against the melting trend."""
-    fig = _figure(7.4, 4.6)
-    ax = fig.add_subplot()
+    title = "Lattice energy against the melting trend"
     s = data.sample
-    finite = np.isfinite(s.get("trend", np.empty(0))) & (s.get("lattice", np.empty(0)) > 0) if s else np.empty(0, bool)
-    if data.rows > len(s.get("trend", ())) and data.lattice_trend.sum():
-        hist = np.where(data.lattice_trend > 0, data.lattice_trend, np.nan).T
-        # a mesh (not an image) because the y axis is logarithmic; 100 x 60 cells
-        mesh = ax.pcolormesh(TREND_BINS.edges(), 10 ** LATTICE_LOG_BINS.edges(), hist, cmap=_ramp(), norm=_mpl()[0].LogNorm(),
-                             alpha=0.8, zorder=1, rasterized=True)
-        bar = fig.colorbar(mesh, cax=ax.inset_axes([0.9, 0.06, 0.025, 0.4]), format="{x:,.0f}")
-        bar.minorticks_off()
-        bar.set_label("rows per bin", fontsize=7)
-        bar.ax.tick_params(labelsize=7)
+    trend = s.get("trend", np.empty(0))
+    lattice = np.where(s.get("lattice", np.empty(0)) > 0, s.get("lattice", np.empty(0)), np.nan)
+    shown = int(np.sum(np.isfinite(trend) & np.isfinite(lattice)))
+    plot = Plot("lattice", Scale(TREND_BINS.lo, TREND_BINS.hi), Scale(10 ** LATTICE_LOG_BINS.lo, 10 ** LATTICE_LOG_BINS.hi, log=True),
+                width=860, height=520, legend_px=230)
+    plot.legend_title = _legend_title(data)
+    if data.rows > len(trend):
+        _density(plot, data.lattice_trend, TREND_BINS, LATTICE_LOG_BINS, True, "rows per bin",
+                 (plot.x1 - 70, plot.y0 - 190))
     if s:
-        _scatter_groups(ax, s["trend"], np.where(s["lattice"] > 0, s["lattice"], np.nan), s["substance_class"])
-    ax.set_yscale("log")
-    ax.set_xlim(TREND_BINS.lo, TREND_BINS.hi)
-    ax.set_ylim(10 ** LATTICE_LOG_BINS.lo, 10 ** LATTICE_LOG_BINS.hi)
-    ticker = _mpl()[1]
-    # plain numbers, not 10^n: the exponent labels go through mathtext, a third of the drawing time (cProfile)
-    ticks = [100, 300, 1000, 3000, 10000, 30000, 100000]
-    ax.yaxis.set_major_locator(ticker.FixedLocator(ticks))
-    ax.yaxis.set_minor_locator(ticker.NullLocator())
-    ax.set_yticks(ticks, [f"{t:,}" for t in ticks])
-    ax.set_xlabel("mp_trend_index (dimensionless: log10 of the trend temperature in K)")
-    ax.set_ylabel("lattice energy, volume-based (kJ/mol, log scale)")
-    ax.set_title("Lattice energy against the melting trend")
-    ax.text(0.0, -0.13, _sample_note(data, int(finite.sum())), transform=ax.transAxes, ha="left", va="top", fontsize=7)
-    if s and finite.any():
-        ax.legend(fontsize=7, loc="upper left", bbox_to_anchor=(1.01, 1.0), title="substance class", title_fontsize=7)
-    return _svg(fig)
+        _scatter_groups(plot, trend, lattice, s["substance_class"])
+    plot.axes("mp_trend_index (dimensionless: log10 of the trend temperature in K)",
+              "lattice energy, volume-based (kJ/mol, log scale)", title, _sample_note(data, shown))
+    return plot.svg(title)
 
 
 def hsab_pairing(data: ReportData) -> str:
     """Counts of cation HSAB class against anion HSAB class, as a table of shaded cells."""
+    title = "Hard and soft pairing (rows)"
     order = ["hard", "borderline", "soft"]
     cations = order + sorted({a for a, _ in data.hsab_pairs} - set(order))
     anions = order + sorted({b for _, b in data.hsab_pairs} - set(order))
-    grid = np.array([[data.hsab_pairs.get((a, b), 0) for b in anions] for a in cations])
-    fig = _figure(5.2, 3.6)
-    ax = fig.add_subplot()
-    cmap = _ramp()
-    mesh = ax.imshow(np.log10(grid + 1), cmap=cmap, vmin=0, vmax=max(np.log10(grid.max() + 1), 1))
-    dark = np.log10(grid + 1) > 0.55 * max(np.log10(grid.max() + 1), 1)
-    for i in range(len(cations)):
-        for j in range(len(anions)):
-            ax.text(j, i, f"{grid[i, j]:,}", ha="center", va="center", fontsize=9,
-                    color="white" if dark[i, j] else "#1a1a1a")
-    ax.set_xticks(range(len(anions)), anions)
-    ax.set_yticks(range(len(cations)), cations)
-    ax.set_xlabel("anion_hsab_class (Pearson class of the anion)")
-    ax.set_ylabel("cation_hsab_class")
-    ax.set_title("Hard and soft pairing (rows)")
-    del mesh
-    return _svg(fig)
+    grid = np.array([[data.hsab_pairs.get((a, b), 0) for b in anions] for a in cations], dtype=float)
+    plot = Plot("hsab", Scale(-0.5, len(anions) - 0.5), Scale(len(cations) - 0.5, -0.5), width=560, height=400,
+                left=110)
+    top = max(float(np.log10(grid.max() + 1)), 1.0)
+    level = np.log10(grid + 1) / top
+    ii, jj = np.meshgrid(np.arange(len(cations)), np.arange(len(anions)), indexing="ij")
+    plot.cells((jj - 0.5).ravel(), (jj + 0.5).ravel(), (ii - 0.5).ravel(), (ii + 0.5).ravel(),
+               [ramp_colour(DENSITY_RAMP, v) for v in level.ravel()])
+    for i, j in zip(ii.ravel(), jj.ravel()):
+        plot.data_text(j, i, f"{int(grid[i, j]):,}", size=13, anchor="middle",
+                       colour="#ffffff" if level[i, j] > 0.55 else "#1a1a1a", extra=' dominant-baseline="middle"')
+    plot.axes("anion_hsab_class (Pearson class of the anion)", "cation_hsab_class (Pearson class)", title,
+              xticks=range(len(anions)), xtick_labels=anions, yticks=range(len(cations)), ytick_labels=cations,
+              grid=False)
+    return plot.svg(title)
 
 
 def liquidus(data: ReportData) -> str:
     """Histogram of the mixtures' liquidus estimates."""
-    fig = _figure(7.0, 3.6)
-    ax = fig.add_subplot()
+    title = "Liquidus estimates of the mixtures (binned by 25 K)"
     edges = LIQUIDUS_BINS.edges()
-    ax.bar(edges[:-1], data.liquidus, width=np.diff(edges), align="edge", color=PALETTE["ionic salt"],
-           edgecolor="white", linewidth=0.3)
     nonzero = np.flatnonzero(data.liquidus)
-    if len(nonzero):
-        ax.set_xlim(edges[max(nonzero[0] - 2, 0)], edges[min(nonzero[-1] + 3, len(edges) - 1)])
-    lo, hi = ax.get_xlim()
-    if lo < 373.15 < hi:  # a label outside the axes would stretch the tight bounding box
-        ax.axvline(373.15, color="#4d4d4d", ls="--", lw=0.8)
-        ax.text(373.15, 1.0, " 100 C", transform=ax.get_xaxis_transform(), fontsize=7, va="top")
-    ax.set_xlabel("liquidus_estimate_K (K)")
-    ax.set_ylabel("rows")
-    ax.set_title("Liquidus estimates of the mixtures (binned by 25 K)")
-    return _svg(fig)
+    lo, hi = (edges[max(nonzero[0] - 2, 0)], edges[min(nonzero[-1] + 3, len(edges) - 1)]) if len(nonzero) else (0, 2500)
+    plot = Plot("liquidus", Scale(lo, hi), Scale(0, max(float(data.liquidus.max()) * 1.12, 1.0)), width=760, height=400)
+    k = np.flatnonzero(data.liquidus)
+    plot.cells(edges[k] + 0.5, edges[k + 1] - 0.5, np.zeros(len(k)), data.liquidus[k], [PALETTE["ionic salt"]] * len(k))
+    plot.vline(373.15, "100 C")
+    plot.axes("liquidus_estimate_K (K)", "rows", title)
+    return plot.svg(title)
 
 
 def figures(data: ReportData) -> dict[str, str]:
     """Every figure the page shows, as SVG text keyed by section."""
-    matplotlib = require_matplotlib()
-    with matplotlib.rc_context({"svg.fonttype": "none", "font.size": 9, "font.family": "sans-serif",
-                                "svg.hashsalt": "ionicity-report"}):
-        out = {
-            "bond_map": bond_map(data),
-            "melting": melting_distribution(data),
-            "lattice": lattice_vs_trend(data),
-            "hsab": hsab_pairing(data),
-        }
-        if data.has("liquidus_estimate_K") and data.liquidus.sum():
-            out["liquidus"] = liquidus(data)
+    out = {
+        "bond_map": bond_map(data),
+        "melting": melting_distribution(data),
+        "lattice": lattice_vs_trend(data),
+        "hsab": hsab_pairing(data),
+    }
+    if data.has("liquidus_estimate_K") and data.liquidus.sum():
+        out["liquidus"] = liquidus(data)
     return out

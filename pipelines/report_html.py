@@ -15,7 +15,6 @@ from datetime import datetime, timezone
 
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.output_paths import check_output_path
-from ionicity.pipelines.report_extra import require_matplotlib
 from ionicity.pipelines.report_figures import figures
 from ionicity.pipelines.report import (
     HUNDRED_C_K, ReportData, aggregate, classes_melting_below, melting_bands,
@@ -329,7 +328,6 @@ def report_file(scored: str, output: str, *, overwrite: bool = False, id_col: st
     began = time.perf_counter()
     if not output.lower().endswith((".html", ".htm")):
         raise InputError(f"report output {output!r} must end in .html or .htm")
-    require_matplotlib()  # before reading a large table, not after
     data = aggregate(scored, id_col=id_col, name_col=name_col)
     figs = figures(data)
     page = render_page(data, figs, time.perf_counter() - began, run_seconds)

@@ -54,11 +54,14 @@ class Result:
     ``notes`` are the row's notes (a :class:`scorer.model.RowWarning` turns the
     status into ``warning``; a plain ``str`` goes to ``value_notes``);
     ``steps`` are the lines of ``ionicity explain``: each value with its
-    inputs and equation.
+    inputs and equation. ``withheld`` names columns whose value is kept in
+    the result for the modules that read it (a trend input fitted on it) but
+    written empty in the output, where it would mislead; a note says why.
     """
 
     notes: tuple[str, ...] = ()
     steps: tuple[str, ...] = ()
+    withheld: tuple[str, ...] = ()
 
 
 def empty_value(column: Column):
@@ -148,6 +151,7 @@ class Descriptor:
         self.failure = failure
         self._summary = summary
         self._names = tuple(c.name for c in columns)
+        self._by_name = {c.name: c for c in columns}
         # one C-level getter for every column: this runs once per new salt and module
         self._getter = operator.attrgetter(*self._names) if len(self._names) > 1 else (
             lambda result, _get=operator.attrgetter(self._names[0]): (_get(result),)
@@ -170,8 +174,11 @@ class Descriptor:
         self._cached.cache_clear()
 
     def values(self, result: Result) -> dict[str, object]:
-        """The output columns of ``result``, in ``COLUMNS`` order."""
-        return dict(zip(self._names, self._getter(result)))
+        """The output columns of ``result``, in ``COLUMNS`` order (``result.withheld`` written empty)."""
+        out = dict(zip(self._names, self._getter(result)))
+        for name in result.withheld:
+            out[name] = empty_value(self._by_name[name])
+        return out
 
     def describe(self, dec: Decomposition) -> tuple[dict[str, object], list[str]]:
         """Values for every column and the notes for the row; never raises."""

@@ -64,13 +64,18 @@ VBT_COEFFICIENTS: dict[str, tuple[float, float]] = {
     "1:1": (117.3, 51.9),
     "2:1": (133.5, 60.9),
     "1:2": (165.3, -29.8),
+    "2:2": (119.0, 60.0),
     "general": (138.7, 27.6),
 }
 """alpha (kJ mol^-1 nm) and beta (kJ mol^-1) of U = 2I(alpha/Vm^(1/3) + beta).
-"1:1" MX, "2:1" MX2 (cation charge 2, anion 1), "1:2" M2X: Jenkins,
-Roobottom, Passmore, Glasser, Inorg. Chem. 1999, 38, 3609,
-doi:10.1021/ic9812961; "general": Glasser and Jenkins, J. Am. Chem. Soc.
-2000, 122, 632, doi:10.1021/ja992375u. Values from memory."""
+"1:1" MX, "2:1" MX2 (cation charge 2, anion 1), "1:2" M2X, "2:2" MX of
+doubly charged ions (MgO, CaS): Jenkins, Roobottom, Passmore, Glasser,
+Inorg. Chem. 1999, 38, 3609, doi:10.1021/ic9812961, table of alpha and beta
+per charge type; "general": Glasser and Jenkins, J. Am. Chem. Soc. 2000,
+122, 632, doi:10.1021/ja992375u. Values from memory: the papers' tables
+could not be read through an open copy (the 2000 paper's abstract, read at
+studylib.net, confirms only A = 121.39 and the 5000 kJ/mol limit); the 2:2
+pair is the one least sure. None of them was fitted here."""
 
 VBT_LIMITING_A_KJ_NM_MOL = 121.39
 """A of the Glasser-Jenkins limiting equation U = A I (2I/Vm)^(1/3), for
@@ -79,7 +84,7 @@ U > 5000 kJ/mol (Glasser and Jenkins 2000, abstract)."""
 VBT_LIMITING_ABOVE_KJ_MOL = 5000.0
 """The limiting equation applies above this lattice energy (Glasser and Jenkins 2000)."""
 
-VBT_SALT_TYPES = ("1:1", "2:1", "1:2", "general", "limiting")
+VBT_SALT_TYPES = ("1:1", "2:1", "1:2", "2:2", "general", "limiting")
 
 _R_KJ_MOL_K = 8.314462618e-3
 
@@ -382,10 +387,10 @@ def glasser_jenkins_vbt_lattice_energy_kJ_mol(ionic_strength, formula_unit_volum
         and M2X).
     formula_unit_volume_nm3 : float or array-like
         ``Vm``, volume of one formula unit in nm^3.
-    salt_type : {"1:1", "2:1", "1:2", "general", "limiting"}, default="general"
+    salt_type : {"1:1", "2:1", "1:2", "2:2", "general", "limiting"}, default="general"
         Which coefficients: ``"1:1"`` (alpha 117.3 kJ mol^-1 nm, beta 51.9
-        kJ/mol), ``"2:1"`` MX2 (133.5, 60.9), ``"1:2"`` M2X (165.3, -29.8)
-        from Jenkins et al. 1999; ``"general"`` (138.7, 27.6) from Glasser and
+        kJ/mol), ``"2:1"`` MX2 (133.5, 60.9), ``"1:2"`` M2X (165.3, -29.8),
+        ``"2:2"`` MX of doubly charged ions (119, 60) from Jenkins et al. 1999; ``"general"`` (138.7, 27.6) from Glasser and
         Jenkins 2000; ``"limiting"`` the coefficient-free form with
         A = 121.39 kJ mol^-1 nm, for lattice energies above 5000 kJ/mol.
 

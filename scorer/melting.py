@@ -43,7 +43,8 @@ framework oxoanions (AlO2-, BO2-, PO3-: corner-sharing chains that melt like
 oxides) and protic ammonium cations ([EtNH3]+). A delocalised anion beside a
 small hard inorganic cation (LiTFSI) does not count as delocalised. Lone-pair
 cations with no Shannon radius take a stand-in's for the lattice energy
-(:data:`RADIUS_ANALOGUES`: Sn2+ takes Pb2+'s, In+ takes Tl+'s), said in the notes.
+(:mod:`scorer.melting_stand_in`: Sn2+ takes Pb2+'s; other cations one of the same
+charge and the radius estimated from the element's nearest listed charge), said in the notes.
 
 The torsion counts, symmetry numbers and delocalisation flags of organic and
 ionic-liquid ions are in ``scorer/data/ion_shape.csv``. Every weight was fitted
@@ -87,6 +88,7 @@ from dataclasses import dataclass, replace
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
+from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.descriptor import fmt, protocol, result_class
@@ -101,7 +103,6 @@ from ionicity.scorer.melting_index import (
     trend_temperature_K,
 )
 from ionicity.scorer.model import Column, Decomposition, Ion
-from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -183,6 +184,18 @@ def is_framework_oxoanion(ion: Ion) -> bool:
             and comp["O"] / comp[others[0]] <= 3)
 
 
+def is_hydrogen_bonded_anion(ion: Ion) -> bool:
+    """An inorganic anion that carries hydrogen (HF2-, HSO4-, H2PO4-, OH-): it donates hydrogen bonds to its neighbours.
+
+    Hydride (H-) and organic anions do not count (common practice).
+
+    >>> is_hydrogen_bonded_anion(get_ion("HF2(-)")), is_hydrogen_bonded_anion(get_ion("SO4(2-)"))
+    (True, False)
+    """
+    comp = dict(ion.composition)
+    return not ion.organic and ion.charge < 0 and "H" in comp and len(comp) > 1
+
+
 @dataclass(frozen=True)
 class MeltingTerms:
     """The inputs of :func:`melting_trend_index` for one compound, with their origins."""
@@ -202,6 +215,7 @@ class MeltingTerms:
     cation_charge_above_3: float = 0.0
     framework_oxoanion_fraction: float = 0.0
     protic_fraction: float = 0.0
+    hydrogen_bonded_anion_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -214,7 +228,7 @@ class MeltingTerms:
             self.pseudo_noble_gas, self.polyatomic_anion_fraction, self.ions_per_formula_unit,
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
-            self.protic_fraction,
+            self.protic_fraction, self.hydrogen_bonded_anion_fraction,
         )
 
 
@@ -232,7 +246,7 @@ def melting_terms(dec: Decomposition) -> MeltingTerms | None:
     energies = lattice.analyse(dec)
     analogue_note = None
     if not (math.isfinite(energies.lattice_energy_vbt_kJ_mol) or math.isfinite(energies.lattice_energy_kapustinskii_kJ_mol)):
-        analogue = _radius_analogue(dec)
+        analogue = radius_analogue(dec)
         if analogue is not None:
             energies, analogue_note = lattice.analyse(analogue[0]), analogue[1]
     terms = _gather_terms(dec, energies, fajans.analyse(dec), character.analyse(dec))
@@ -240,43 +254,6 @@ def melting_terms(dec: Decomposition) -> MeltingTerms | None:
         terms = replace(terms, lattice_energy_basis=terms.lattice_energy_basis + "; " + analogue_note,
                         notes=(*terms.notes, "melting trend: " + analogue_note))
     return terms
-
-
-# Lone-pair (ns2) cations with no Shannon radius, and the heavier lone-pair cation of
-# their group and charge whose radius stands in for theirs in the lattice energy (a
-# documented fallback, said in the row's notes): Sn2+ and In+ are not in Shannon's table
-# (Acta Cryst. 1976, A32, 751; from memory), Pb2+ (119 pm) and Tl+ (150 pm) are. A wider
-# fallback (hydride as fluoride, other cations by their group or nearest charge) was
-# tried and lowered the validation Spearman by 0.01-0.02, so it is not used.
-RADIUS_ANALOGUES: dict[str, str] = {"Sn(2+)": "Pb(2+)", "In(+)": "Tl(+)", "Ga(+)": "Tl(+)"}
-
-
-def _has_radius(ion: Ion) -> bool:
-    return not ion.monatomic or math.isfinite(shannon_radius_pm(ion.element, ion.charge)[0])
-
-
-def _stand_in(ion: Ion) -> Ion | None:
-    """The ion of :data:`RADIUS_ANALOGUES` whose radius stands in for this one's, if any."""
-    return get_ion(RADIUS_ANALOGUES[ion.ion_id]) if ion.ion_id in RADIUS_ANALOGUES else None
-
-
-def _radius_analogue(dec: Decomposition) -> tuple[Decomposition, str] | None:
-    """The decomposition with each ion that has no Shannon radius replaced by its stand-in."""
-    used = []
-
-    def swap(terms):
-        out = []
-        for t in terms:
-            stand_in = None if _has_radius(t.ion) else _stand_in(t.ion)
-            if stand_in is None:
-                out.append(t)
-                continue
-            out.append(replace(t, ion=stand_in))
-            used.append(f"{t.ion.ion_id} has no Shannon radius: lattice energy with the radius of {stand_in.ion_id}")
-        return tuple(out)
-
-    swapped = replace(dec, cations=swap(dec.cations), anions=swap(dec.anions))
-    return (swapped, "; ".join(used)) if used else None
 
 
 def _gather_terms(
@@ -311,8 +288,18 @@ def _gather_terms(
     pack = 0.0
     deloc = 0.0
     free = TREND_WEIGHTS["packing_free_torsions"]
+    organic_salt = any(t.ion.organic for t in terms)
+    # Beside aprotic organic cations only, the anions rotate freely in the melt: a rigid inorganic ion
+    # ([PF6], [BF4]) adds its symmetry term, -R ln sigma, to the Dannenfelser-Yalkowsky entropy, which then
+    # carries every ion's orientational entropy, and the polyatomic-anion term (fitted on inorganic salts
+    # for the same entropy) is left out. A protic cation's N-H...anion hydrogen bonds, or a small hard
+    # inorganic cation bound to the anion's donor atoms (LiTFSI), fix the anion's orientation instead.
+    free_rotors = (organic_salt and all(t.ion.organic for t in dec.cations)
+                   and not any(t.ion.family == "ammonium-protic" for t in dec.cations))
     for t in terms:
         tau, sigma, delocalised, _ = ion_shape(t.ion)
+        if free_rotors and not t.ion.organic and not t.ion.monatomic and t.ion.ion_id not in _shape_table():
+            flex += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(0.0, routes.ion_symmetry_number(t.ion))
         if t.ion.organic or t.ion.ion_id in _shape_table():
             flex += t.count * dannenfelser_yalkowsky_flexibility_entropy_J_mol_K(tau, sigma)
             if t.ion.family in ONIUM_FAMILIES and sigma < 12:
@@ -330,11 +317,11 @@ def _gather_terms(
         contact_chi_pauling=float(chi),
         contact_index=float(contact_index),
         pseudo_noble_gas=png,
-        polyatomic_anion_fraction=float(poly),
+        polyatomic_anion_fraction=0.0 if free_rotors else float(poly),
         flexibility_entropy_J_mol_K=float(flex),
         chain_packing_entropy_J_mol_K=float(pack),
         delocalised_fraction=float(deloc / nu) if nu else 0.0,
-        organic=any(t.ion.organic for t in terms),
+        organic=organic_salt,
         trivalent_anion_fraction=(
             sum(t.count for t in dec.anions if t.ion.monatomic and t.ion.charge <= -3) / anion_total
             if anion_total else 0.0),
@@ -342,6 +329,8 @@ def _gather_terms(
         protic_fraction=float(sum(t.count for t in dec.cations if t.ion.family == "ammonium-protic") / nu) if nu else 0.0,
         framework_oxoanion_fraction=(
             sum(t.count for t in dec.anions if is_framework_oxoanion(t.ion)) / anion_total if anion_total else 0.0),
+        hydrogen_bonded_anion_fraction=(
+            sum(t.count for t in dec.anions if is_hydrogen_bonded_anion(t.ion)) / anion_total if anion_total else 0.0),
         notes=tuple(notes),
     )
 
@@ -440,7 +429,9 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" {terms.trivalent_anion_fraction:.2f}; high-valent cation: -{w['high_charge_cation']} *"
         f" (z_max - 3)+ = {terms.cation_charge_above_3:g}; framework oxoanions: +{w['framework_oxoanion']} * share"
         f" {terms.framework_oxoanion_fraction:.2f}",
-        f"  protic ammonium ions: -{w['protic']} * their share {terms.protic_fraction:.2f}",
+        f"  protic ammonium ions: -{w['protic']} * their share {terms.protic_fraction:.2f};"
+        f" hydrogen-bonded anions: -{w['hydrogen_bonded_anion']} * their share of the anions"
+        f" {terms.hydrogen_bonded_anion_fraction:.2f}",
         f"  organic ions: S_flex = {terms.flexibility_entropy_J_mol_K:.1f} J/(mol K), S_pack ="
         f" {terms.chain_packing_entropy_J_mol_K:.1f} J/(mol K) (Dannenfelser-Yalkowsky, w_s = {w['flexibility']},"
         f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",

@@ -52,6 +52,7 @@ __all__ = [
     "molecular_terms",
     "element_mixture_melting_K",
     "chain_layer_index",
+    "ion_symmetry_number",
 ]
 
 GAS_CONSTANT_J_MOL_K = 8.314462618
@@ -202,6 +203,18 @@ _SIGMA = {
 _LIGAND_CHARGE = {"F": -1, "Cl": -1, "Br": -1, "I": -1, "O": -2, "S": -2, "Se": -2, "H": -1}
 
 
+def _shape_symmetry_number(lone_pairs: int, ligand_counts) -> float:
+    """sigma of a centre's VSEPR shape, divided by the ways to place mixed ligands (VOCl3: 12 / 4 = 3)."""
+    n = int(sum(ligand_counts))
+    sigma = float(_SIGMA.get((n, lone_pairs), 1))
+    if len(ligand_counts) > 1:
+        arrangements = factorial(n)
+        for k in ligand_counts:
+            arrangements //= factorial(int(k))
+        sigma = max(sigma / arrangements, 1.0)
+    return sigma
+
+
 @dataclass(frozen=True)
 class MolecularTerms:
     """The inputs of the molecular route for one compound, with how they were read."""
@@ -275,17 +288,53 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         valence = element.group if element.group <= 2 else element.group - 10
         lone_pairs = max(int(valence - state) // 2, 0)
     n = int(n_lig)
-    sigma = float(_SIGMA.get((n, lone_pairs), 1))
-    if len(ligands) > 1:
-        arrangements = factorial(n)
-        for _, k in ligands:
-            arrangements //= factorial(int(k))
-        sigma = max(sigma / arrangements, 1.0)
+    sigma = _shape_symmetry_number(lone_pairs, [k for _, k in ligands])
     cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
     open_sites = max(cn - n - lone_pairs, 0)
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
                           f" radius-ratio coordination {cn or 'unknown'}")
+
+
+def ion_symmetry_number(ion) -> float:
+    """Rotational symmetry number of a polyatomic inorganic ion from its VSEPR shape (common practice).
+
+    The centre is the least electronegative atom other than hydrogen that occurs
+    once (hydrogen in HF2-); the other atoms are its ligands. Lone pairs from
+    the centre's valence electrons less its oxidation state, or for hydrides
+    of an electronegative centre (NH4+, OH-) from its ``(V + n_H - z) / 2``
+    electron pairs (none for d- and f-block centres); 1 when protons sit on
+    the ligands (HSO4-). The
+    shape's symmetry number from the table the molecular route uses, divided
+    by the ways to place mixed ligands (SCN-: 1). 1 when no centre is found.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.ion_library import get_ion
+    >>> [ion_symmetry_number(get_ion(i)) for i in ("BF4(-)", "PF6(-)", "NO3(-)", "NO2(-)", "SCN(-)", "HF2(-)")]
+    [12.0, 24.0, 6.0, 2.0, 1.0, 2.0]
+    """
+    comp = dict(ion.composition)
+    singles = [s for s, n in comp.items() if s != "H" and n == 1] or [s for s, n in comp.items() if n == 1]
+    if not singles:
+        return 1.0
+    chi = {s: get_element(s).electronegativity_pauling for s in comp}
+    centre = min(singles, key=lambda s: (chi[s] if chi[s] == chi[s] else 1.5, s))
+    ligands = {s: n for s, n in comp.items() if s != centre}
+    n = sum(ligands.values())
+    if not ligands or not float(n).is_integer():
+        return 1.0
+    element = get_element(centre)
+    valence = None if element.block in ("d", "f") or element.group is None else (
+        element.group if element.group <= 2 else element.group - 10)
+    if set(ligands) == {"H"} and chi[centre] > 2.20:  # NH4+, OH-, H3O+: electron pairs (V + n_H - z) / 2
+        lone_pairs = 0 if valence is None else max(int(valence + n - ion.charge) // 2 - int(n), 0)
+    elif "H" in ligands:
+        return 1.0  # protons on the ligands (HSO4-, H2PO4-) break the skeleton's symmetry
+    else:
+        state = ion.charge - sum({**_LIGAND_CHARGE, "N": -3, "C": -4}.get(s, -1) * k for s, k in ligands.items())
+        lone_pairs = 0 if valence is None else max(int(valence - state) // 2, 0)
+    return _shape_symmetry_number(lone_pairs, list(ligands.values()))
 
 
 # ------------------------------------------------------ networks and metals

@@ -94,11 +94,16 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      r"ionic model strained \(.*?\): ionic values are estimates for a partly covalent solid",
      "the ionic model is strained (polar covalent bonding; ionic_model and ionicity explain give the reasons):"
      " ionic values are estimates for a partly covalent solid"),
+    ("point_charge_withheld",
+     r"point-charge lattice energies \(Kapustinskii, VBT, Born-Mayer, Born-Lande\) withheld: they miss this salt's"
+     r" covalency \([^;]*\)",
+     "point-charge lattice energies (Kapustinskii, VBT, Born-Mayer, Born-Lande) withheld: they miss the covalency"
+     " of this salt of a d10 or 6s2 cation (ionicity explain gives the figures and what they would be)"),
     ("point_charge_low_coinage",
-     r"the point-charge estimates \(Kapustinskii, VBT, Born\) miss this salt's covalency and run [0-9-]+ % low"
-     r" for the Ag, Cu\(I\) and Tl\(I\) halides",
-     "the point-charge estimates (Kapustinskii, VBT, Born) miss the covalency of the Ag, Cu(I) and Tl(I) halides"
-     " and run low (ionicity explain gives the figures)"),
+     r"point-charge lattice energies of Cu\(I\), Ag\(I\), Au\(I\) and Tl\(I\) salts run low \([^;]*\), and no"
+     r" thermochemical cycle is tabulated for this salt",
+     "point-charge lattice energies of Cu(I), Ag(I), Au(I) and Tl(I) salts run low (covalency), and no"
+     " thermochemical cycle is tabulated for this salt"),
     ("lattice_best_is_cycle", r"lattice_energy_best_kJ_mol is its thermochemical cycle",
      "lattice_energy_best_kJ_mol is the salt's Born-Haber (thermochemical) cycle from tabulated enthalpies"),
     ("hsab_proton", r"no HSAB hardness for H\(\+\): H\+ has no electrons: its hardness is infinite \(Parr & Pearson 1983\)",
@@ -116,6 +121,9 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      "melting trend not computed: no lattice energy for this salt (see the lattice-energy notes)"),
     ("melting_no_fajans_term", r"melting trend: no Fajans contact index, its covalency term left out",
      "melting trend without its covalency term: no Fajans contact index"),
+    ("melting_radius_stand_in", r"melting trend: {ion} has no Shannon radius: lattice energy with [^;]*",
+     "melting trend: the ion (in brackets) has no Shannon radius; the lattice energy takes a stand-in cation of"
+     " the same charge (ionicity explain names it)"),
 )
 
 # an ion as the notes write it: SO4(2-), [C4mim](+), Fe(3+), Cu(NH3)4(2+)

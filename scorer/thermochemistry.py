@@ -1,9 +1,11 @@
 """Thermochemical (Born-Haber) cycles for the salts whose lattice energy the
-ionic models cannot give: the silver, copper(I) and thallium(I) halides.
+ionic models cannot give: the silver, copper(I) and thallium(I) halides, and
+the chlorides, bromides and iodides of zinc, cadmium and lead(II).
 
 Their bonds are partly covalent (d10 and 6s2 cations, large polarisable
 anions), so every point-charge estimate (Born-Mayer, Kapustinskii, VBT) runs
-12-27 % low against their cycle values. What accounts for the covalency is the
+low against their cycle values (6-23 % on the calibration halides AgF, CuBr,
+TlBr); :mod:`scorer.lattice` withholds those estimates where a cycle exists. What accounts for the covalency is the
 measured thermochemistry itself: the lattice potential energy from the
 enthalpy of formation of the solid (``scorer/data/formation_enthalpies.csv``),
 the atomisation enthalpies of the elements (``atomisation_enthalpies.csv``),
@@ -31,7 +33,7 @@ EV_KJ_MOL = 96.485332
 """kJ/mol per eV (CODATA 2018: N_A e / 1000)."""
 
 CYCLE_METHOD = (
-    "thermochemical (Born-Haber) cycle from tabulated enthalpies (NBS 1982) and the element snapshot's"
+    "thermochemical (Born-Haber) cycle from tabulated enthalpies (NBS 1982; CRC Handbook) and the element snapshot's"
     " ionisation energies and electron affinities; covalency included because nothing ionic is assumed"
 )
 

@@ -169,8 +169,9 @@ def test_kapustinskii_is_not_born_mayer_on_rock_salt():
     for name in ("LiF", "NaCl", "KBr", "MgO", "CaO", "AgCl"):
         cations, anions, _ = EXPERIMENTAL.get(name, (None, None, None)) if name in EXPERIMENTAL else (
             (("Ag(+)", 1),), (("Cl(-)", 1),), None)
-        values, _ = describe(salt(cations, anions))
-        k, bm = values["lattice_energy_kapustinskii_kJ_mol"], values["lattice_energy_born_mayer_kJ_mol"]
+        # the result's fields: AgCl's point-charge columns are withheld in the output (its cycle is the value)
+        result = lattice.analyse(salt(cations, anions))
+        k, bm = result.lattice_energy_kapustinskii_kJ_mol, result.lattice_energy_born_mayer_kJ_mol
         differences.append(abs(k - bm) / bm)
     assert max(differences) > 0.03
     assert sum(d > 0.005 for d in differences) >= 4
@@ -195,7 +196,7 @@ def test_vbt_forms():
         121.39 * 15 * (30 / 0.0425) ** (1 / 3)
     )
     with pytest.raises(ValueError, match="general"):
-        glasser_jenkins_vbt_lattice_energy_kJ_mol(1, 0.05, salt_type="2:2")
+        glasser_jenkins_vbt_lattice_energy_kJ_mol(1, 0.05, salt_type="3:3")
 
 
 def test_equations_are_vectorised():

@@ -36,7 +36,7 @@ FIXTURE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "wikida
 INORGANIC_WEIGHTS = (
     "intercept", "reference_energy_per_ion_kJ_mol", "reference_contact_chi", "cohesion_exponent", "contact_chi",
     "contact_index", "pseudo_noble_gas", "polyatomic_anion", "ions_per_formula_unit", "trivalent_anion",
-    "high_charge_cation", "framework_oxoanion",
+    "high_charge_cation", "framework_oxoanion", "hydrogen_bonded_anion",
 )
 
 
@@ -61,7 +61,7 @@ def fixture_terms():
     assert len(terms) >= 120  # 128 of the 140 rows with chemicals 1.5.2
     fields = ("lattice_energy_per_ion_kJ_mol", "contact_chi_pauling", "contact_index", "pseudo_noble_gas",
               "polyatomic_anion_fraction", "ions_per_formula_unit", "trivalent_anion_fraction",
-              "cation_charge_above_3", "framework_oxoanion_fraction")
+              "cation_charge_above_3", "framework_oxoanion_fraction", "hydrogen_bonded_anion_fraction")
     arrays = {name: np.array([getattr(t, name) for t in terms], dtype=float) for name in fields}
     return arrays, np.array(log_mp)
 
@@ -73,6 +73,7 @@ def _sum_of_squares(arrays, log_mp, weights) -> float:
         trivalent_anion_fraction=arrays["trivalent_anion_fraction"],
         cation_charge_above_3=arrays["cation_charge_above_3"],
         framework_oxoanion_fraction=arrays["framework_oxoanion_fraction"],
+        hydrogen_bonded_anion_fraction=arrays["hydrogen_bonded_anion_fraction"],
         weights=weights,
     )
     return float(np.sum((log_mp - index) ** 2))
