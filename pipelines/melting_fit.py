@@ -56,7 +56,7 @@ from ionicity.pipelines.melting_cli import (
     require_extra,
 )
 from ionicity.pipelines.melting_data import build_open_training_set, combine_training_sets, read_user_table
-from ionicity.pipelines.melting_model_file import save_model
+from ionicity.pipelines.melting_model_file import finite_minmax, save_model, trees_to_json
 from ionicity.pipelines.melting_plot import parity_plot
 from ionicity.pipelines.melting_screen import cation_family
 from ionicity.scorer import melting_model
@@ -68,6 +68,8 @@ __all__ = [
     "FitReport",
     "feature_matrix",
     "make_melting_pipeline",
+    "balanced_weights",
+    "prepare_training",
     "grouped_cross_validation",
     "trend_index_report",
     "fit_melting_model",
@@ -158,13 +160,34 @@ def make_melting_pipeline(seed: int = 0, features=None):
                                                               check_inverse=False))])
 
 
-def _fit_pipeline(x: np.ndarray, y_K: np.ndarray, seed: int):
-    """Fit on the columns that hold at least one value; returns the pipeline and those column indices."""
+def balanced_weights(labels) -> np.ndarray:
+    """Sample weights that give every interval group the same total weight.
+
+    n / (k * n_g) for a row of group g (n rows, k groups): the "balanced"
+    weighting of scikit-learn's ``compute_sample_weight`` (common practice).
+    Without it the 50-odd organic-cation salts are a few per cent of the rows
+    and the trees barely split on them.
+
+    >>> balanced_weights(["ionic_liquid", "other", "other", "other"]).tolist()
+    [2.0, 0.6666666666666666, 0.6666666666666666, 0.6666666666666666]
+    """
+    labels = np.asarray(labels)
+    kinds, counts = np.unique(labels, return_counts=True)
+    per = {k: len(labels) / (len(kinds) * c) for k, c in zip(kinds.tolist(), counts.tolist())}
+    return np.array([per[g] for g in labels.tolist()], dtype=float)
+
+
+def _fit_pipeline(x: np.ndarray, y_K: np.ndarray, seed: int, labels=None):
+    """Fit on the columns that hold at least one value; returns the pipeline and those column indices.
+
+    ``labels`` (interval group per row) turn on :func:`balanced_weights`.
+    """
     used = np.array([j for j in range(x.shape[1]) if np.isfinite(x[:, j]).any()], dtype=int)
     if len(used) == 0:
         raise ValueError("no feature holds a value in the training rows")
     names = [melting_model.MODEL_FEATURES[j] for j in used]
-    pipe = make_melting_pipeline(seed, names).fit(x[:, used], y_K)
+    weights = {} if labels is None else {"regressor__sample_weight": balanced_weights(labels)}
+    pipe = make_melting_pipeline(seed, names).fit(x[:, used], y_K, **weights)
     return pipe, used
 
 
@@ -197,10 +220,28 @@ def _metrics(y_true: np.ndarray, y_pred: np.ndarray) -> dict:
     }
 
 
-def _split_calibration(n: int, fraction: float, rng: np.random.Generator) -> tuple[np.ndarray, np.ndarray]:
-    order = rng.permutation(n)
-    n_cal = max(1, int(round(n * fraction)))
-    return np.sort(order[n_cal:]), np.sort(order[:n_cal])
+def _split_calibration(n: int, fraction: float, rng: np.random.Generator, groups=None) -> tuple[np.ndarray, np.ndarray]:
+    """Indices of the proper training part and of the calibration part (about ``fraction`` of n).
+
+    With ``groups``, whole groups go to the calibration part, so its residuals are
+    those of groups the proper part never saw: the situation of a held-out cation
+    family, where a random split would give intervals too narrow (split-conformal
+    coverage assumes the new row is exchangeable with the calibration rows).
+    """
+    if groups is None:
+        order = rng.permutation(n)
+        n_cal = max(1, int(round(n * fraction)))
+        return np.sort(order[n_cal:]), np.sort(order[:n_cal])
+    groups = np.asarray(groups)
+    target = max(1, int(round(n * fraction)))
+    calib = np.zeros(n, dtype=bool)
+    for g in rng.permutation(np.unique(groups)):
+        if calib.sum() >= target:
+            break
+        calib |= groups == g
+    if calib.all():  # one group only: nothing left to fit on
+        return _split_calibration(n, fraction, rng)
+    return np.flatnonzero(~calib), np.flatnonzero(calib)
 
 
 def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: float) -> tuple[float, dict]:
@@ -275,9 +316,9 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     width = np.full(len(y_K), np.nan)
     for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
         say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
-        proper, calib = _split_calibration(len(train), calibration_fraction, rng)
+        proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
         proper, calib = train[proper], train[calib]
-        pipe, used = _fit_pipeline(x[proper], y_K[proper], seed)
+        pipe, used = _fit_pipeline(x[proper], y_K[proper], seed, labels[proper])
         _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(x[calib][:, used])),
                                          labels[calib], coverage)
         q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
@@ -306,40 +347,18 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
                 "model": _metrics(y_K[labels == g], oof[labels == g])}
             for g in melting_model.INTERVAL_GROUPS if np.any(labels == g)
         },
+        "ionic_liquid_by_held_out_group": _by_group(y_K, oof, groups, labels == "ionic_liquid"),
         "oof_predictions_K": [round(float(v), 2) for v in oof],
     }
 
 
-def _trees_to_json(hgb) -> tuple[float, list[dict]]:
-    """The fitted trees of a HistGradientBoostingRegressor as lists of plain numbers."""
-    baseline = float(np.ravel(hgb._baseline_prediction)[0])
-    trees = []
-    for iteration in hgb._predictors:
-        for predictor in iteration:
-            nodes = predictor.nodes
-            if np.any(nodes["is_categorical"]):
-                raise ValueError("categorical splits are not supported in the JSON model format")
-            leaf = nodes["is_leaf"].astype(int)
-            trees.append({
-                "feature": [int(v) for v in nodes["feature_idx"]],
-                "threshold": [float(t) if not lf and math.isfinite(t) else 0.0
-                              for t, lf in zip(nodes["num_threshold"], leaf)],
-                "left": [int(v) for v in nodes["left"]],
-                "right": [int(v) for v in nodes["right"]],
-                "missing_left": [int(v) for v in nodes["missing_go_to_left"]],
-                "leaf": [int(v) for v in leaf],
-                "value": [float(v) for v in nodes["value"]],
-            })
-    return baseline, trees
-
-
-def _finite_minmax(x: np.ndarray) -> tuple[list[float], list[float]]:
-    lo, hi = [], []
-    for j in range(x.shape[1]):
-        col = x[:, j][np.isfinite(x[:, j])]
-        lo.append(float(col.min()) if len(col) else 0.0)
-        hi.append(float(col.max()) if len(col) else 0.0)
-    return lo, hi
+def _by_group(y_K, oof, groups, mask) -> dict:
+    """MAE [K] and rows of the masked rows per cross-validation group (each one held out whole)."""
+    out = {}
+    for g in sorted(set(groups[mask].tolist())):
+        mine = mask & (groups == g)
+        out[str(g)] = {"rows": int(mine.sum()), "mae_K": round(float(np.mean(np.abs(y_K[mine] - oof[mine]))), 1)}
+    return out
 
 
 def trend_index_report(rows, records) -> dict:
@@ -361,6 +380,28 @@ def trend_index_report(rows, records) -> dict:
             entry["spearman_rho"] = round(float(spearmanr(index[idx], y[idx]).statistic), 3)
         out["per_anion_family"][family] = entry
     return out
+
+
+def prepare_training(rows, progress=None):
+    """Score training rows and keep those with a trend index: (rows, records, x, y_K, interval labels).
+
+    Each kept row gains ``cation_family`` (:func:`pipelines.melting_screen.cation_family`)
+    when it has none, the group of the cross-validation that holds out whole
+    ionic-liquid families.
+    """
+    say = progress or (lambda text: None)
+    say(f"scoring {len(rows)} training rows")
+    x, records = feature_matrix(rows, progress=say)
+    usable = [i for i, r in enumerate(records) if math.isfinite(_float(r.get("mp_trend_index")))]
+    rows = [rows[i] for i in usable]
+    records = [records[i] for i in usable]
+    if len(rows) < 20:
+        raise ValueError(f"only {len(rows)} training rows have a lattice energy; at least 20 are needed")
+    y = np.array([row["mp_K"] for row in rows], dtype=float)
+    labels = np.array([melting_model.interval_group(r.get("substance_class")) for r in records])
+    for row in rows:
+        row.setdefault("cation_family", cation_family(decompose(parse_formula(row["formula_normalized"]))))
+    return rows, records, x[usable], y, labels
 
 
 @dataclass
@@ -409,19 +450,8 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         raise ValueError(f"folds must be at least 2, not {folds}")
     require_extra("sklearn")
     say = progress or (lambda text: None)
-    say(f"scoring {len(rows)} training rows")
-    x, records = feature_matrix(rows, progress=say)
-    usable = [i for i, r in enumerate(records) if math.isfinite(_float(r.get("mp_trend_index")))]
-    rows = [rows[i] for i in usable]
-    records = [records[i] for i in usable]
-    x = x[usable]
-    if len(rows) < 20:
-        raise ValueError(f"only {len(rows)} training rows have a lattice energy; at least 20 are needed")
-    y = np.array([row["mp_K"] for row in rows], dtype=float)
+    rows, records, x, y, labels = prepare_training(rows, progress=say)
     lattice = _lattice_energy(records)
-    labels = np.array([melting_model.interval_group(r.get("substance_class")) for r in records])
-    for row in rows:
-        row.setdefault("cation_family", cation_family(decompose(parse_formula(row["formula_normalized"]))))
     cv = {}
     for scheme in CV_SCHEMES:
         say(f"cross-validating on {len(rows)} salts, grouped by {scheme.replace('_', ' ')}")
@@ -434,12 +464,12 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         cv[scheme].pop("oof_predictions_K")
     say("fitting the final model")
     rng = np.random.default_rng(seed)
-    proper, calib = _split_calibration(len(rows), calibration_fraction, rng)
-    pipe, used = _fit_pipeline(x[proper], y[proper], seed)
+    proper, calib = _split_calibration(len(rows), calibration_fraction, rng, [row["cation_family"] for row in rows])
+    pipe, used = _fit_pipeline(x[proper], y[proper], seed, labels[proper])
     q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used])), labels[calib], coverage)
     hgb = pipe.named_steps["regressor"].regressor_
-    baseline, trees = _trees_to_json(hgb)
-    lo, hi = _finite_minmax(x[:, used])
+    baseline, trees = trees_to_json(hgb)
+    lo, hi = finite_minmax(x[:, used])
     metrics = {"cross_validation": cv, "trend_index": trend_index_report(rows, records)}
     document = {
         "format": melting_model.MODEL_FORMAT,

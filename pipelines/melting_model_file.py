@@ -7,14 +7,17 @@ file or any other document is refused, so a model file cannot run code.
 from __future__ import annotations
 
 import json
+import math
 import os
 import stat
 from pathlib import Path
 
+import numpy as np
+
 from ionicity.scorer import melting_model
 from ionicity.scorer.verdict import Verdict, with_warnings
 
-__all__ = ["save_model", "load_model", "apply_model_to_frame"]
+__all__ = ["save_model", "load_model", "apply_model_to_frame", "trees_to_json", "finite_minmax"]
 
 # fit-melting writes a few hundred kB (the trees and the out-of-fold
 # predictions of its training rows); the tree bounds of the layout check
@@ -119,3 +122,35 @@ def apply_model_to_frame(frame, model: melting_model.MeltingModel, *, formula_co
         out[status] = pd.Series([v.status for v in verdicts], index=frame.index)
         out[message] = pd.Series([v.message for v in verdicts], index=frame.index)
     return out
+
+
+def trees_to_json(hgb) -> tuple[float, list[dict]]:
+    """The fitted trees of a HistGradientBoostingRegressor as lists of plain numbers."""
+    baseline = float(np.ravel(hgb._baseline_prediction)[0])
+    trees = []
+    for iteration in hgb._predictors:
+        for predictor in iteration:
+            nodes = predictor.nodes
+            if np.any(nodes["is_categorical"]):
+                raise ValueError("categorical splits are not supported in the JSON model format")
+            leaf = nodes["is_leaf"].astype(int)
+            trees.append({
+                "feature": [int(v) for v in nodes["feature_idx"]],
+                "threshold": [float(t) if not lf and math.isfinite(t) else 0.0
+                              for t, lf in zip(nodes["num_threshold"], leaf)],
+                "left": [int(v) for v in nodes["left"]],
+                "right": [int(v) for v in nodes["right"]],
+                "missing_left": [int(v) for v in nodes["missing_go_to_left"]],
+                "leaf": [int(v) for v in leaf],
+                "value": [float(v) for v in nodes["value"]],
+            })
+    return baseline, trees
+
+
+def finite_minmax(x: np.ndarray) -> tuple[list[float], list[float]]:
+    lo, hi = [], []
+    for j in range(x.shape[1]):
+        col = x[:, j][np.isfinite(x[:, j])]
+        lo.append(float(col.min()) if len(col) else 0.0)
+        hi.append(float(col.max()) if len(col) else 0.0)
+    return lo, hi

@@ -21,6 +21,7 @@ from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.melting import CAUTION
+from ionicity.scorer.melting_ion_features import ionic_liquid_descriptors
 from ionicity.scorer.melting_model_format import (
     _DERIVED_FEATURES,
     _RECORD_FEATURES,
@@ -147,8 +148,9 @@ def model_features(dec: Decomposition | None, record: Mapping) -> np.ndarray:
     (:mod:`pipelines.melting_fit`), the scikit-learn transformer
     (:mod:`pipelines.transformer`) and prediction (:func:`predict_for_formulas`)
     all call it. Record features are the scored record's numeric values;
-    derived features come from the decomposition (:func:`derived_ion_features`),
-    never from the record's text columns.
+    derived features come from the decomposition (:func:`derived_ion_features`,
+    :func:`scorer.melting_ion_features.ionic_liquid_descriptors`), never from the
+    record's text columns.
 
     Parameters
     ----------
@@ -177,6 +179,7 @@ def model_features(dec: Decomposition | None, record: Mapping) -> np.ndarray:
     """
     values = [_float(record.get(name)) for name in _RECORD_FEATURES]
     values += derived_ion_features(dec)
+    values += ionic_liquid_descriptors(dec)
     return np.array(values, dtype=float)
 
 

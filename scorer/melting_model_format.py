@@ -51,7 +51,21 @@ _DERIVED_FEATURES = (
     "polyatomic_anion_fraction",
     "organic_ion_fraction",
 )
-MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES
+# ion size, shape, flexibility, charge delocalisation and H-bond donors (scorer.melting_ion_features),
+# appended last so that files written before them, which name their features, still load
+_ION_FEATURES = (
+    "cation_volume_nm3",
+    "anion_volume_nm3",
+    "cation_anion_volume_ratio",
+    "cation_torsions_tau",
+    "anion_torsions_tau",
+    "cation_symmetry_number",
+    "cation_charge_delocalised",
+    "anion_charge_delocalised",
+    "cation_hbond_donor",
+    "cation_carbon_atoms",
+)
+MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES + _ION_FEATURES
 
 MODEL_FORMAT = "ionicity-melting-model"
 MODEL_FORMAT_VERSION = 1

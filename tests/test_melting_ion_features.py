@@ -1,0 +1,106 @@
+"""Tests for the ionic-liquid descriptors of the melting regression and the held-out measurement command.
+
+Reference values: ion volumes of scorer/data/ion_volumes.csv ([C2mim]+ 0.156 nm^3, [NTf2]- 0.232 nm^3:
+Slattery, Daguenet, Dyson, Schubert & Krossing, Angew. Chem. Int. Ed. 2007, 46, 5384; Cl- 0.047 nm^3:
+Jenkins, Roobottom, Passmore & Glasser, Inorg. Chem. 1999, 38, 3609; both from memory), symmetry numbers
+and torsion counts of scorer/data/ion_shape.csv (Dannenfelser & Yalkowsky rule, Ind. Eng. Chem. Res. 1996,
+35, 1483), carbon counts from the ions' formulas (C16H36N for tetrabutylammonium, IUPAC).
+"""
+from __future__ import annotations
+
+import importlib.util
+import math
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from ionicity.pipelines import melting_cv
+from ionicity.pipelines import melting_fit as mf
+from ionicity.scorer import melting_model
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.melting_ion_features import ION_FEATURES, ionic_liquid_descriptors
+from ionicity.scorer.melting_model_format import _ION_FEATURES
+
+needs_sklearn = pytest.mark.skipif(importlib.util.find_spec("sklearn") is None, reason="scikit-learn not installed")
+IL_TABLE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "ionic_liquids.csv"
+
+
+def _named(formula):
+    return dict(zip(ION_FEATURES, ionic_liquid_descriptors(decompose(parse_formula(formula)))))
+
+
+def test_the_format_lists_the_same_ion_features_as_the_module():
+    assert _ION_FEATURES == ION_FEATURES
+    assert melting_model.MODEL_FEATURES[-len(ION_FEATURES):] == ION_FEATURES
+
+
+def test_volumes_and_size_asymmetry_of_an_imidazolium_imide():
+    x = _named("[C2mim][NTf2]")
+    assert x["cation_volume_nm3"] == pytest.approx(0.156)  # Slattery et al. 2007 (from memory)
+    assert x["anion_volume_nm3"] == pytest.approx(0.232)  # Slattery et al. 2007 (from memory)
+    assert x["cation_anion_volume_ratio"] == pytest.approx(0.156 / 0.232)
+    assert x["anion_charge_delocalised"] == 1.0 and x["cation_charge_delocalised"] == 1.0
+
+
+def test_symmetry_chain_length_and_donors_tell_the_families_apart():
+    quaternary, protic, aprotic = _named("[N4444]Br"), _named("[EtNH3][NO3]"), _named("[C4mim]Cl")
+    assert quaternary["cation_symmetry_number"] == 12.0  # N(C)4 core, ion_shape.csv
+    assert quaternary["cation_carbon_atoms"] == 16.0  # C16H36N
+    assert quaternary["cation_torsions_tau"] == 12.0  # ion_shape.csv
+    assert protic["cation_hbond_donor"] == 1.0 and aprotic["cation_hbond_donor"] == 0.0
+    assert _named("NH4Cl")["cation_hbond_donor"] == 1.0  # N-H donors (common practice)
+    assert _named("NaCl")["cation_hbond_donor"] == 0.0
+    assert _named("NaCl")["anion_volume_nm3"] == pytest.approx(0.047)  # Jenkins et al. 1999 (from memory)
+
+
+def test_no_ions_no_descriptors():
+    assert all(math.isnan(v) for v in ionic_liquid_descriptors(decompose(parse_formula("CCl4"))))
+
+
+def test_model_features_carry_the_descriptors():
+    _, x = melting_model.features_for_formula("[C4mpyr][NTf2]")
+    named = dict(zip(melting_model.MODEL_FEATURES, x.tolist()))
+    assert named["cation_torsions_tau"] == 2.5 and named["cation_charge_delocalised"] == 0.0  # ion_shape.csv
+
+
+def test_balanced_weights_give_each_group_the_same_total():
+    labels = ["ionic_liquid"] * 5 + ["other"] * 45
+    w = mf.balanced_weights(labels)
+    assert w[:5].sum() == pytest.approx(w[5:].sum()) == pytest.approx(25.0)
+
+
+def test_the_measurement_command_refuses_a_bad_table(tmp_path, capsys):
+    bad = tmp_path / "t.csv"
+    bad.write_text("formula_normalized,mp_K\nNaCl,hot\n", encoding="utf-8")
+    assert melting_cv.main([str(bad)]) == 2
+    assert "mp_K 'hot' is not a number" in capsys.readouterr().err
+
+
+@needs_sklearn
+def test_held_out_report_names_every_ionic_liquid_family(monkeypatch):
+    # calibration-free check of the plumbing on the published table (datasets/melting/ionic_liquids.csv)
+    # plus a handful of inorganic salts; the figure itself is measured by the command, not asserted here
+    real = mf.make_melting_pipeline
+
+    def quick(seed=0, features=None):
+        pipe = real(seed, features)
+        pipe.named_steps["regressor"].regressor.set_params(max_iter=20, min_samples_leaf=3)
+        return pipe
+
+    monkeypatch.setattr(mf, "make_melting_pipeline", quick)
+    rows = melting_cv.read_training_table(IL_TABLE)
+    # inorganic salts, melting points from the CRC Handbook (from memory): NaCl 1074 K, KCl 1044 K,
+    # KBr 1007 K, NaBr 1020 K, LiCl 883 K, CsCl 919 K
+    for formula, mp in (("NaCl", 1074), ("KCl", 1044), ("KBr", 1007), ("NaBr", 1020), ("LiCl", 883), ("CsCl", 919)):
+        rows.append({"formula_normalized": formula, "mp_K": float(mp), "anion_family": "halide",
+                     "cation_element": formula[:2] if formula[1].islower() else formula[0]})
+    result = melting_cv.held_out_report(rows, folds=3)
+    families = set(result["ionic_liquid_by_held_out_group"])
+    assert {"imidazolium", "pyrrolidinium", "ammonium-quaternary"} <= families
+    assert result["per_group"]["ionic_liquid"]["rows"] == sum(
+        e["rows"] for e in result["ionic_liquid_by_held_out_group"].values())
+    text = melting_cv.report_text(result, "cation_family")
+    assert "ionic-liquid MAE held out by cation family" in text
+    assert np.isfinite(result["per_group"]["ionic_liquid"]["model"]["mae_K"])
