@@ -1,4 +1,4 @@
-from ionicity.pipelines.cli import entry_point
+from ionicity._entry import main
 
 if __name__ == "__main__":
-    entry_point()
+    main()
