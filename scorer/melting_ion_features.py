@@ -20,24 +20,12 @@ from __future__ import annotations
 import math
 
 from ionicity.scorer.melting import ion_shape
+from ionicity.scorer.melting_model_format import ION_FEATURES  # the names, in order, owned by the model layout
 from ionicity.scorer.model import Decomposition, Ion
 from ionicity.scorer.radii import ion_volume_nm3
 
 __all__ = ["ION_FEATURES", "HBOND_DONOR_FAMILIES", "ionic_liquid_descriptors", "is_hbond_donor_cation"]
 
-#: the names of :func:`ionic_liquid_descriptors`, in order (appended to the model's features)
-ION_FEATURES: tuple[str, ...] = (
-    "cation_volume_nm3",
-    "anion_volume_nm3",
-    "cation_anion_volume_ratio",
-    "cation_torsions_tau",
-    "anion_torsions_tau",
-    "cation_symmetry_number",
-    "cation_charge_delocalised",
-    "anion_charge_delocalised",
-    "cation_hbond_donor",
-    "cation_carbon_atoms",
-)
 
 #: cation families whose ions carry N-H or O-H hydrogen-bond donors (protic salts;
 #: cholinium through its OH group; the ammonium-like inorganic ions NH4+, H3O+,

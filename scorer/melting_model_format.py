@@ -52,8 +52,9 @@ _DERIVED_FEATURES = (
     "organic_ion_fraction",
 )
 # ion size, shape, flexibility, charge delocalisation and H-bond donors (scorer.melting_ion_features),
-# appended last so that files written before them, which name their features, still load
-_ION_FEATURES = (
+# appended last so that files written before them, which name their features, still load; the one list
+# of their names (scorer.melting_ion_features computes them in this order)
+ION_FEATURES: tuple[str, ...] = (
     "cation_volume_nm3",
     "anion_volume_nm3",
     "cation_anion_volume_ratio",
@@ -65,7 +66,7 @@ _ION_FEATURES = (
     "cation_hbond_donor",
     "cation_carbon_atoms",
 )
-MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES + _ION_FEATURES
+MODEL_FEATURES: tuple[str, ...] = _RECORD_FEATURES + _DERIVED_FEATURES + ION_FEATURES
 
 MODEL_FORMAT = "ionicity-melting-model"
 MODEL_FORMAT_VERSION = 1
