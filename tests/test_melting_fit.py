@@ -27,17 +27,6 @@ needs_extra = pytest.mark.skipif(
 )
 
 
-@pytest.fixture
-def fast_pipeline(monkeypatch):
-    """The real pipeline with fewer boosting rounds, so the tests stay fast."""
-    real = mf.make_melting_pipeline
-
-    def quick(seed=0, features=None):
-        pipe = real(seed, features)
-        pipe.named_steps["regressor"].regressor.set_params(max_iter=40, learning_rate=0.15)
-        return pipe
-
-    monkeypatch.setattr(mf, "make_melting_pipeline", quick)
 
 
 # ------------------------------------------------------------- CV and conformal

@@ -77,17 +77,9 @@ def test_the_measurement_command_refuses_a_bad_table(tmp_path, capsys):
 
 
 @needs_sklearn
-def test_held_out_report_names_every_ionic_liquid_family(monkeypatch):
+def test_held_out_report_names_every_ionic_liquid_family(fast_pipeline):
     # calibration-free check of the plumbing on the published table (datasets/melting/ionic_liquids.csv)
     # plus a handful of inorganic salts; the figure itself is measured by the command, not asserted here
-    real = mf.make_melting_pipeline
-
-    def quick(seed=0, features=None):
-        pipe = real(seed, features)
-        pipe.named_steps["regressor"].regressor.set_params(max_iter=20, min_samples_leaf=3)
-        return pipe
-
-    monkeypatch.setattr(mf, "make_melting_pipeline", quick)
     rows = melting_cv.read_training_table(IL_TABLE)
     # inorganic salts, melting points from the CRC Handbook (from memory): NaCl 1074 K, KCl 1044 K,
     # KBr 1007 K, NaBr 1020 K, LiCl 883 K, CsCl 919 K
