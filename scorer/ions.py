@@ -125,10 +125,12 @@ _ION_PENALTIES = {"H3O(+)": 2.0}
 _PENALTY_OXOCATION = 2.0
 _IONIC_THRESHOLD = 5.0
 _MAX_POLYATOMIC_SPECIES = 3
+# multiplicities of a polyatomic ion tried: the most that fit and the next ones down
+_MULTIPLICITIES = 3
 # equally plausible choices kept per charge of the knapsack table
 _MAX_TIES = 16
 # states kept per knapsack table: bounds the work whatever the counts
-_MAX_TABLE = 256
+_MAX_TABLE = 64
 # solver work done in this process (knapsack transitions and search nodes):
 # tests bound it by a polynomial of the formula's size
 _WORK = [0]
@@ -387,6 +389,19 @@ def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
 
 
 @per_input(maxsize=4096)
+def _monatomic_shares(symbols: tuple[str, ...]) -> tuple[tuple[str, tuple[float, float]], ...]:
+    """(lowest, highest) charge per atom of each element as a monatomic ion of
+    a plausible reading (an option of penalty under the ionic threshold)."""
+    out = []
+    for symbol in symbols:
+        states = [state for kind, pair, penalty in _monatomic_options(symbol, 1.0) if penalty < _IONIC_THRESHOLD
+                  for state in ((pair,) if kind == "single" else pair)]
+        if states:
+            out.append((symbol, (float(min(states)), float(max(states)))))
+    return tuple(out)
+
+
+@per_input(maxsize=4096)
 def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     """Polyatomic library ions made only of the elements ``present``."""
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
@@ -406,6 +421,19 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     coverable = [frozenset()] * (len(candidates) + 1)
     for i in range(len(candidates) - 1, -1, -1):
         coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
+    # per-atom charge range of each element (a relaxation: an ion's charge
+    # shared evenly by its atoms, or the element's monatomic states): a branch
+    # whose leftover atoms cannot carry the charge still needed is cut, so a
+    # formula with no reading is found out without visiting every combination
+    shares = [dict(_monatomic_shares(tuple(remaining)))]
+    for ion in reversed(candidates):
+        per_atom = ion.charge / sum(k for _, k in ion.composition)
+        share = dict(shares[-1])
+        for symbol, _ in ion.composition:
+            lo, hi = share.get(symbol, (float("inf"), float("-inf")))
+            share[symbol] = (min(lo, per_atom), max(hi, per_atom))
+        shares.append(share)
+    shares.reverse()
     nodes = 0
     best = [float("inf")]
     found: list = []
@@ -413,6 +441,16 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
         nonlocal nodes
         nodes += 1
+        share = shares[len(candidates) if len(chosen) == _MAX_POLYATOMIC_SPECIES else index]
+        lo = hi = 0.0
+        for symbol, n in left.items():
+            s_lo, s_hi = share.get(symbol, (float("inf"), float("-inf")))
+            if s_lo > s_hi:
+                return
+            lo += s_lo * n
+            hi += s_hi * n
+        if not lo - _TOL <= needed - charge <= hi + _TOL:
+            return
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
@@ -431,7 +469,11 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
             return
         ion = candidates[index]
         most = _fits(ion.composition, left)
-        for times in range(most, 0, -1):
+        # the largest multiplicities only: an ion used fewer times leaves its
+        # limiting element to monatomic ions, which a real salt seldom holds
+        # beside the same element in a polyatomic ion; this bounds the nodes
+        # by a polynomial of the candidates, O((candidates x 3)^3)
+        for times in range(most, max(most - _MULTIPLICITIES, 0), -1):
             walk(
                 index + 1,
                 _subtract(left, ion.composition, times),
