@@ -129,9 +129,17 @@ _MAX_POLYATOMIC_SPECIES = 3
 _MULTIPLICITIES = 3
 # equally plausible choices kept per charge of the knapsack table
 _MAX_TIES = 16
+# solver work (search nodes plus knapsack transitions) one polyatomic-ion walk
+# may spend, about 50 ms of CPU: far above what any formula of the demo and
+# reference tables needs (DEVELOPERS.md, "The charge-balance solver and its
+# cost"); a walk that reaches it stops and its row's notes say so
+_SEARCH_BUDGET = 40_000
+_SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
+                    "polyatomic ions: a more plausible reading may exist (check the formula)")
 # states kept per knapsack table: bounds the work whatever the counts
 _MAX_TABLE = 64
-# solver work done in this process (knapsack transitions and search nodes):
+# solver work done in this process (knapsack transitions, and search nodes
+# counted once plus once per leftover element they check):
 # tests bound it by a polynomial of the formula's size
 _WORK = [0]
 _TOL = 1e-6
@@ -197,6 +205,15 @@ def _monatomic_options(symbol: str, count: float):
 
 @per_input(maxsize=65536)
 def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float, excluded=frozenset()):
+    """(work, assignments): :func:`_assign_monatomic_solved` and the solver work
+    it cost, also when the answer comes from this cache, so that a search's
+    work limit does not depend on what was scored before."""
+    before = _WORK[0]
+    found = _assign_monatomic_solved(remaining, needed, cap, excluded)
+    return _WORK[0] - before, found
+
+
+def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: float, cap: float, excluded=frozenset()):
     """The best charge-balanced monatomic assignments with penalty <= cap.
 
     "Best" counts each species as the caller does (penalty plus
@@ -285,8 +302,10 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
     # key: (charge of the single-state elements, (split element, its two states) or ())
     table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
     work = 0
+    # whole counts keep the charge an integer: no rounding per transition
+    whole = all(float(n).is_integer() for n in n_of)
     for i, options in enumerate(singles):
-        n = n_of[i]
+        n = int(n_of[i]) if whole else n_of[i]
         lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
         following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
 
@@ -301,7 +320,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
             for state, option_penalty in options:
                 work += 1
                 p = penalty + option_penalty
-                c = round(charge + state * n, 9)
+                c = charge + state * n if whole else round(charge + state * n, 9)
                 if p > cap + _TOL:
                     continue
                 if not split and not lo <= c <= hi:
@@ -333,7 +352,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
 
 
 def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf"), excluded=frozenset()):
-    """Charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)])."""
+    """(work, charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)]))."""
     key = tuple(sorted((s, round(n, 9)) for s, n in remaining.items() if n > _TOL))
     return _assign_monatomic_cached(key, round(needed, 9), cap, excluded)
 
@@ -411,9 +430,11 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
-    ones and larger ones first, each at every multiplicity from the most that
-    fits down to none; a branch is cut once its penalty so far exceeds the
-    best complete reading. Yields (penalty, [(Ion, count), ...]).
+    ones and larger ones first, each at its largest multiplicities and at
+    none; a branch is cut once its penalty so far exceeds the best complete
+    reading. The walk spends at most ``_SEARCH_BUDGET`` units of solver work
+    (nodes plus knapsack transitions); one that reaches it stops there.
+    Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
     # common ions first, larger first: the best reading is found early and bounds the rest
@@ -437,10 +458,20 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     nodes = 0
     best = [float("inf")]
     found: list = []
+    cut = [False]
+    # work of the knapsacks counted whether or not their answer was cached:
+    # where a walk stops depends on the formula alone
+    spent = [0]
 
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
         nonlocal nodes
-        nodes += 1
+        if cut[0]:
+            return
+        if nodes + spent[0] >= _SEARCH_BUDGET:
+            cut[0] = True
+            return
+        # a node's cost grows with the elements its charge check visits
+        nodes += 1 + len(left)
         share = shares[len(candidates) if len(chosen) == _MAX_POLYATOMIC_SPECIES else index]
         lo = hi = 0.0
         for symbol, n in left.items():
@@ -460,7 +491,9 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
             return
         if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
             cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
-            for penalty, singles in _assign_monatomic(left, needed - charge, round(cap, 9), excluded):
+            work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
+            spent[0] += work
+            for penalty, singles in assignments:
                 terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
                 total = penalty + cost + _PENALTY_SPECIES * len(terms)
                 if total <= best[0] + _TOL:
@@ -485,7 +518,7 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
 
     walk(0, dict(remaining), [], 0.0, 0.0)
     _WORK[0] += nodes
-    return [(p, t) for p, t in found if p <= best[0] + _TOL]
+    return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
 
 
 # monatomic ions an organic formula may hold as one side of its ion pair
@@ -709,7 +742,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
     if cls == "unknown":
         # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-,
         # nitrobenzene as NO+ with phenoxide: not a salt, so read it as the molecule it is
-        return nonionic_decomposition(comp.charge, counts, [], water, neutral)
+        return nonionic_decomposition(comp.charge, counts, [n for n in notes if n == _SEARCH_CUT_NOTE], water, neutral)
     if cls == "covalent_molecular":
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
@@ -736,7 +769,9 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset()):
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            found = _search(remaining, -given_charge, excluded)
+            found, stopped = _search(remaining, -given_charge, excluded)
+            if stopped and _SEARCH_CUT_NOTE not in notes:
+                notes.append(_SEARCH_CUT_NOTE)
             readings.extend((penalty, given + terms) for penalty, terms in found)
         elif abs(given_charge) < _TOL:
             readings.append((0.0, given))

@@ -13,6 +13,7 @@ import pytest
 from ionicity.pipelines.bench_formulas import _formula_size, organic_formulas, random_formulas, solve
 from ionicity.scorer.caching import clear_all
 from ionicity.scorer.formula import parse_formula
+from ionicity.scorer import ions
 from ionicity.scorer.ions import decompose, solver_work, work_bound
 from ionicity.scorer.record import score_formula
 
@@ -87,3 +88,29 @@ def test_organic_throughput_formulas_are_molecules():
 ])
 def test_organic_rule(formula, expected, source):
     assert decompose(parse_formula(formula)).substance_class == expected, source
+
+
+# a grammar-valid random formula (random_formulas(3000, seed=2)) of 26 elements whose polyatomic-ion walk
+# reaches the work limit: it is read, and its notes say the search stopped
+_CUT_FORMULA = ("K7.908Cu3(FeAlSiMd)Na{SnLi10N{Sb}10W({B9}6LaAl)}12{[BLa4[N264B859B4Li6.398]SeCr1272"
+                "(Th8.984No8.600Se5F10CuC12)5.540]CuRe12Ts}9.101S+7.5H2O")
+
+
+def test_a_search_that_reaches_the_work_limit_says_so_and_does_not_depend_on_the_caches():
+    clear_all()
+    cold = solve(_CUT_FORMULA)
+    assert ions._SEARCH_CUT_NOTE in cold.notes
+    # the knapsack answers now come from their cache: the walk must stop at the same place
+    ions._decompose.cache_clear()
+    warm = solve(_CUT_FORMULA)
+    assert warm == cold
+
+
+def test_a_common_double_salt_stays_far_below_the_work_limit():
+    # Tutton's salt (NH4)2Mn(SO4)2.6H2O, the dearest walk of the demo and reference lists (18,279 units
+    # against 40,000): an ammonium manganese(II) sulfate (Greenwood & Earnshaw, 2nd ed., 1997, from memory)
+    clear_all()
+    dec = decompose(parse_formula("(NH4)2Mn(SO4)2·6H2O"))
+    assert ions._SEARCH_CUT_NOTE not in dec.notes
+    assert {t.ion.ion_id for t in dec.cations} == {"NH4(+)", "Mn(2+)"}
+    assert {t.ion.ion_id for t in dec.anions} == {"SO4(2-)"}
