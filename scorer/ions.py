@@ -532,40 +532,54 @@ def _ion_pair_readings(counts_key: tuple[tuple[str, float], ...]):
     The ions are library ions (or H(+) and the halides), at least one of the
     two inorganic, in whole multiples that use up every atom: carboxylic
     acids (H(+) with a carboxylate), ammonium and alkylammonium salts of
-    inorganic anions. Ranked by the solver's penalties. Cost: for each
-    cation candidate and each multiplicity that fits, one dictionary look-up
-    per anion charge, O(candidates x atoms).
+    inorganic anions. Ranked by the solver's penalties. For a cation of
+    charge z+ and an anion of charge q-, a cations and b = a z / q anions
+    hold a (c_e + z n_e / q) atoms of each element e (c_e, n_e its atoms in
+    the two ions), so one element fixes a and the others check it. Cost:
+    O(cations x anions x elements), whatever the counts.
     """
     counts = dict(counts_key)
     candidates = [ion for ion in _candidates_for(frozenset(counts)) if _fits(ion.composition, counts)]
     for symbol, charge in _ORGANIC_PAIR_MONATOMIC:
         if symbol in counts:
             candidates.append(monatomic_ion(symbol, charge))
-    anions: dict[tuple, list[Ion]] = {}
-    for ion in candidates:
-        if ion.charge < 0:
-            anions.setdefault(tuple(sorted(ion.composition)), []).append(ion)
-    anion_charges = sorted({-ion.charge for ion in candidates if ion.charge < 0})
+    # every candidate is made of the formula's elements only: a pair fits only if together they hold all of them
+    anions = [(ion, dict(ion.composition), frozenset(symbol for symbol, _ in ion.composition))
+              for ion in candidates if ion.charge < 0]
+    symbols = tuple(counts)
+    present = frozenset(symbols)
     readings = []
     work = 0
     # hydronium and oxocations (NO(+), NO2(+)) are no cation of an organic
     # formula: nitro and nitroso compounds, nitrites and nitrates of alcohols
     # are molecules (common practice)
     for cation in (ion for ion in candidates if ion.charge > 0 and ion.family != "oxocation" and ion.ion_id not in _ION_PENALTIES):
-        cation_penalty = _pair_penalty(cation, counts)
-        for a in range(1, _fits(cation.composition, counts) + 1):
-            rest = _subtract(counts, cation.composition, a)
-            for q in anion_charges:
-                work += 1
-                b, r = divmod(a * cation.charge, q)
-                if r or not rest:
+        held = dict(cation.composition)
+        held_symbols = frozenset(held)
+        cation_penalty = None
+        for anion, parts, part_symbols in anions:
+            work += 1
+            if (cation.organic and anion.organic) or held_symbols | part_symbols != present:
+                continue
+            ratio = cation.charge / -anion.charge
+            a = None
+            for symbol in symbols:
+                per_cation = held.get(symbol, 0) + ratio * parts.get(symbol, 0)
+                times = counts[symbol] / per_cation
+                if a is None:
+                    a = round(times)
+                    if a < 1 or abs(times - a) > _TOL:
+                        break
+                elif abs(a * per_cation - counts[symbol]) > _TOL:
+                    break
+            else:
+                b, r = divmod(a * cation.charge, -anion.charge)
+                if r:
                     continue
-                key = tuple(sorted((symbol, round(n / b, 9)) for symbol, n in rest.items()))
-                for anion in anions.get(key, ()):
-                    if anion.charge != -q or (cation.organic and anion.organic):
-                        continue
-                    penalty = cation_penalty + _pair_penalty(anion, counts) + 2 * _PENALTY_SPECIES
-                    readings.append((penalty, [(cation, float(a)), (anion, float(b))]))
+                if cation_penalty is None:
+                    cation_penalty = _pair_penalty(cation, counts)
+                penalty = cation_penalty + _pair_penalty(anion, counts) + 2 * _PENALTY_SPECIES
+                readings.append((penalty, [(cation, float(a)), (anion, float(b))]))
     _WORK[0] += work + 1
     return readings
 
