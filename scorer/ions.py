@@ -65,11 +65,12 @@ from ionicity.scorer.substance import (
     format_oxidation_states,
     listed_states,
     nonionic_decomposition,
+    organic_candidate,
     organometallic_states,
     oxidation_states_of,
 )
 
-__all__ = ["decompose", "decompose_anhydrous", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
+__all__ = ["decompose", "decompose_anhydrous", "solver_work", "work_bound", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
 
 _RARE_ANION_FAMILIES = frozenset({"chalcogenide-polyatomic", "carbide"})
 _PENALTY_EXTRA_STATE = 2.0
@@ -124,8 +125,35 @@ _ION_PENALTIES = {"H3O(+)": 2.0}
 _PENALTY_OXOCATION = 2.0
 _IONIC_THRESHOLD = 5.0
 _MAX_POLYATOMIC_SPECIES = 3
-_MAX_SEARCH_NODES = 5000
+# multiplicities of a polyatomic ion tried: the most that fit and the next ones down
+_MULTIPLICITIES = 3
+# equally plausible choices kept per charge of the knapsack table
+_MAX_TIES = 16
+# solver work (search nodes plus knapsack transitions) one polyatomic-ion walk
+# may spend, about 50 ms of CPU: far above what any formula of the demo and
+# reference tables needs (DEVELOPERS.md, "The charge-balance solver and its
+# cost"); a walk that reaches it stops and its row's notes say so
+_SEARCH_BUDGET = 40_000
+_SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
+                    "polyatomic ions: a more plausible reading may exist (check the formula)")
+# states kept per knapsack table: bounds the work whatever the counts
+_MAX_TABLE = 64
+# solver work done in this process (knapsack transitions, and search nodes
+# counted once plus once per leftover element they check):
+# tests bound it by a polynomial of the formula's size
+_WORK = [0]
 _TOL = 1e-6
+
+
+def solver_work() -> int:
+    """Solver work done in this process so far: knapsack transitions plus
+    search nodes (a deterministic measure of cost, for tests and benchmarks)."""
+    return _WORK[0]
+
+
+def work_bound(size: int) -> int:
+    """The most solver work a formula of ``size`` (elements x total atoms) may cost."""
+    return 2000 * size * size
 
 
 def format_ion_terms(terms) -> str:
@@ -177,15 +205,25 @@ def _monatomic_options(symbol: str, count: float):
 
 @per_input(maxsize=65536)
 def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: float, cap: float, excluded=frozenset()):
+    """(work, assignments): :func:`_assign_monatomic_solved` and the solver work
+    it cost, also when the answer comes from this cache, so that a search's
+    work limit does not depend on what was scored before."""
+    before = _WORK[0]
+    found = _assign_monatomic_solved(remaining, needed, cap, excluded)
+    return _WORK[0] - before, found
+
+
+def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: float, cap: float, excluded=frozenset()):
     """The best charge-balanced monatomic assignments with penalty <= cap.
 
     "Best" counts each species as the caller does (penalty plus
     ``_PENALTY_SPECIES`` per species): only the assignments within tolerance
     of the lowest such cost are returned, since the caller's cost of a
-    reading differs from it by a constant. A depth-first walk over the
-    elements, bounded by the reachable charge range of the elements still to
-    assign and by that lowest cost so far. Returns a tuple of
-    (penalty, ((symbol, state, count), ...)).
+    reading differs from it by a constant. Dynamic programming over the
+    elements with the charge carried so far as the state (a bounded knapsack,
+    :func:`_single_state_tables`); at most one element is split over two
+    states (mixed valence), settled by the charge left at the end. Returns a
+    tuple of (penalty, ((symbol, state, count), ...)).
     """
     symbols = [s for s, n in remaining if n > _TOL]
     counts = {s: n for s, n in remaining}
@@ -198,105 +236,123 @@ def _assign_monatomic_cached(remaining: tuple[tuple[str, float], ...], needed: f
             tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
             for s, options in zip(symbols, per_symbol)
         ]
+    singles = [tuple((state, penalty) for kind, state, penalty in options if kind == "single") for options in per_symbol]
+    if any(not options for options in singles):
+        return ()
+    n_of = [counts[s] for s in symbols]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
     stoichiometric = all(abs(n - round(n)) < _TOL for _, n in remaining)
-
-    def reach(option, n):
-        if option[0] == "single":
-            return option[1] * n, option[1] * n
-        s1, s2 = option[1]
-        return s1 * n, s2 * n
-
-    # lowest and highest charge the elements from index i on can carry
-    lows = [0.0] * (len(symbols) + 1)
-    highs = [0.0] * (len(symbols) + 1)
-    for i in range(len(symbols) - 1, -1, -1):
-        n = counts[symbols[i]]
-        spans = [reach(o, n) for o in per_symbol[i]] or [(0.0, 0.0)]
-        lows[i] = lows[i + 1] + min(lo for lo, _ in spans)
-        highs[i] = highs[i + 1] + max(hi for _, hi in spans)
-    out = []
-    # lowest penalty + _PENALTY_SPECIES * species of a complete assignment so far
-    best = [float("inf")]
-    count = len(symbols)
-
-    def keep(penalty, terms):
-        total = penalty + _PENALTY_SPECIES * len(terms)
-        if total <= best[0] + _TOL:
-            best[0] = min(best[0], total)
-            out.append((penalty, terms))
-
-    def walk(i, charge, penalty, picked, mixed):
-        if penalty > cap + _TOL:
-            return
-        if penalty + _PENALTY_SPECIES * (len(picked) + count - i + (2 if mixed else 0)) > best[0] + _TOL:
-            return
-        rest = needed - charge
-        if mixed is None and (rest < lows[i] - _TOL or rest > highs[i] + _TOL):
-            return
-        if i == len(symbols):
-            if mixed is None:
-                if abs(rest) < _TOL and not with_mixed[0]:
-                    keep(penalty, tuple(picked))
-                return
-            symbol, n, (s1, s2) = mixed
-            # x ions at s1 and n - x at s2 carry the residual charge
+    out = [
+        (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
+        for penalty, picks in _knapsack(singles, (), n_of, needed, cap)
+    ]
+    best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
+    # single states everywhere first: a reading with one element split has one
+    # species more and pays the split's penalty, so it competes only where no
+    # single-state reading is that cheap
+    mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
+    splits = [tuple((state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL)
+              for options in per_symbol]
+    if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
+        for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap):
+            j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
+            (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
+            # x ions at s1 and n - x at s2 carry the charge the others leave
             x = (s2 * n - rest) / (s2 - s1)
-            extra = 0.0
             if stoichiometric and abs(x - round(x)) > _TOL:
-                extra = _PENALTY_FRACTIONAL_SPLIT
-            if _TOL < x < n - _TOL and penalty + extra <= cap + _TOL:
-                keep(penalty + extra, tuple(picked) + ((symbol, s1, round(x, 9)), (symbol, s2, round(n - x, 9))))
-            return
-        symbol = symbols[i]
-        n = counts[symbol]
-        for option in per_symbol[i]:
-            kind, state, option_penalty = option
-            if kind == "single":
-                walk(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
-            elif mixed is None and with_mixed[0]:
-                # the split element's charge is settled at the end; bound with its range
-                walk_mixed(i, charge, penalty + option_penalty, picked, (symbol, n, state))
+                penalty += _PENALTY_FRACTIONAL_SPLIT
+                if penalty > cap + _TOL:
+                    continue
+            terms = [(symbols[i], state, n_of[i]) for i, state in enumerate(picks)]
+            terms[j:j + 1] = [(symbols[j], s1, round(x, 9)), (symbols[j], s2, round(n - x, 9))]
+            out.append((penalty, tuple(terms)))
+    if not out:
+        return ()
+    best = min(p + _PENALTY_SPECIES * len(t) for p, t in out)
+    return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
 
-    def walk_mixed(i, charge, penalty, picked, mixed):
-        symbol, n, (s1, s2) = mixed
-        rest_lo, rest_hi = lows[i + 1], highs[i + 1]
-        need = needed - charge
-        if need - s2 * n > rest_hi + _TOL or need - s1 * n < rest_lo - _TOL:
-            return
-        walk_rest(i + 1, charge, penalty, picked, mixed)
 
-    def walk_rest(i, charge, penalty, picked, mixed):
-        if penalty > cap + _TOL:
-            return
-        if penalty + _PENALTY_SPECIES * (len(picked) + count - i + 2) > best[0] + _TOL:
-            return
-        _, split_n, (s1, s2) = mixed
-        need = needed - charge
-        if need - s2 * split_n > highs[i] + _TOL or need - s1 * split_n < lows[i] - _TOL:
-            return
-        if i == len(symbols):
-            walk(i, charge, penalty, picked, mixed)
-            return
-        symbol = symbols[i]
-        n = counts[symbol]
-        for kind, state, option_penalty in per_symbol[i]:
-            if kind == "single":
-                walk_rest(i + 1, charge + state * n, penalty + option_penalty, picked + [(symbol, state, n)], mixed)
+def _knapsack(singles, splits, n_of, needed: float, cap: float):
+    """Charge balance as a bounded knapsack over the elements' oxidation states.
 
-    # single states everywhere first: the best such reading then bounds the
-    # mixed-valence ones, which cost more and are many
-    with_mixed = [False]
-    walk(0, 0.0, 0.0, [], None)
-    if any(option[0] == "mixed" for options in per_symbol for option in options):
-        with_mixed[0] = True
-        walk(0, 0.0, 0.0, [], None)
-    return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best[0] + _TOL)
+    Dynamic programming, one element at a time. A table maps each state
+    reached so far -- the charge carried (rounded to 1e-9), and with
+    ``splits`` which element is split over two states, whose charge is
+    settled at the end -- to its lowest penalty and the choices reaching it at
+    that penalty (ties kept up to ``_MAX_TIES``). A state from which
+    ``needed`` can no longer be reached, or whose penalty exceeds ``cap``, is
+    dropped; a table keeps at most ``_MAX_TABLE`` states, the cheapest (then
+    those nearest the charge still needed). Work: O(elements x _MAX_TABLE x
+    options), whatever the counts.
+
+    Without ``splits``: (penalty, states) of the cheapest single-state
+    assignments summing to ``needed``. With them: the assignments with
+    exactly one element split, its choice given as ((s1, s2), charge it must
+    carry), the charge strictly between s1 x count and s2 x count.
+    """
+    lows = [0.0] * (len(singles) + 1)
+    highs = [0.0] * (len(singles) + 1)
+    for i in range(len(singles) - 1, -1, -1):
+        spans = [s * n_of[i] for s, _ in singles[i]]
+        if splits and splits[i]:
+            spans += [s * n_of[i] for (pair, _) in splits[i] for s in pair]
+        lows[i] = lows[i + 1] + min(spans)
+        highs[i] = highs[i + 1] + max(spans)
+    # key: (charge of the single-state elements, (split element, its two states) or ())
+    table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
+    work = 0
+    # whole counts keep the charge an integer: no rounding per transition
+    whole = all(float(n).is_integer() for n in n_of)
+    for i, options in enumerate(singles):
+        n = int(n_of[i]) if whole else n_of[i]
+        lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
+        following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
+
+        def add(key, p, picks, choice):
+            held = following.get(key)
+            if held is None or p < held[0] - _TOL:
+                following[key] = (p, tuple(k + (choice,) for k in picks[:_MAX_TIES]))
+            elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
+                following[key] = (held[0], held[1] + tuple(k + (choice,) for k in picks[: _MAX_TIES - len(held[1])]))
+
+        for (charge, split), (penalty, picks) in table.items():
+            for state, option_penalty in options:
+                work += 1
+                p = penalty + option_penalty
+                c = charge + state * n if whole else round(charge + state * n, 9)
+                if p > cap + _TOL:
+                    continue
+                if not split and not lo <= c <= hi:
+                    continue
+                add((c, split), p, picks, state)
+            if splits and not split:
+                for pair, option_penalty in splits[i]:
+                    work += 1
+                    p = penalty + option_penalty
+                    if p <= cap + _TOL:
+                        add((charge, (i, pair)), p, picks, pair)
+        if len(following) > _MAX_TABLE:
+            # the cheapest states, then those nearest what is still needed
+            kept = sorted(following.items(), key=lambda kv: (round(kv[1][0], 9), abs(needed - kv[0][0]), kv[0]))
+            following = dict(kept[:_MAX_TABLE])
+        table = following
+    _WORK[0] += work + 1
+    found = []
+    for (charge, split), (penalty, choices) in table.items():
+        if not split:
+            if abs(charge - needed) < _TOL:
+                found.extend((penalty, picks) for picks in choices)
+            continue
+        rest = needed - charge
+        j, (s1, s2) = split
+        if s1 * n_of[j] + _TOL < rest < s2 * n_of[j] - _TOL:
+            found.extend((penalty, picks[:j] + (((s1, s2), rest),) + picks[j + 1:]) for picks in choices)
+    return found
 
 
 def _assign_monatomic(remaining: dict[str, float], needed: float, cap: float = float("inf"), excluded=frozenset()):
-    """Charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)])."""
+    """(work, charge-balanced monatomic readings of ``remaining``: (penalty, [(symbol, state, count)]))."""
     key = tuple(sorted((s, round(n, 9)) for s, n in remaining.items() if n > _TOL))
     return _assign_monatomic_cached(key, round(needed, 9), cap, excluded)
 
@@ -352,6 +408,19 @@ def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
 
 
 @per_input(maxsize=4096)
+def _monatomic_shares(symbols: tuple[str, ...]) -> tuple[tuple[str, tuple[float, float]], ...]:
+    """(lowest, highest) charge per atom of each element as a monatomic ion of
+    a plausible reading (an option of penalty under the ionic threshold)."""
+    out = []
+    for symbol in symbols:
+        states = [state for kind, pair, penalty in _monatomic_options(symbol, 1.0) if penalty < _IONIC_THRESHOLD
+                  for state in ((pair,) if kind == "single" else pair)]
+        if states:
+            out.append((symbol, (float(min(states)), float(max(states)))))
+    return tuple(out)
+
+
+@per_input(maxsize=4096)
 def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     """Polyatomic library ions made only of the elements ``present``."""
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
@@ -361,9 +430,11 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
-    ones and larger ones first, each at every multiplicity from the most that
-    fits down to none; a branch is cut once its penalty so far exceeds the
-    best complete reading. Yields (penalty, [(Ion, count), ...]).
+    ones and larger ones first, each at its largest multiplicities and at
+    none; a branch is cut once its penalty so far exceeds the best complete
+    reading. The walk spends at most ``_SEARCH_BUDGET`` units of solver work
+    (nodes plus knapsack transitions); one that reaches it stops there.
+    Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
     # common ions first, larger first: the best reading is found early and bounds the rest
@@ -371,14 +442,45 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
     coverable = [frozenset()] * (len(candidates) + 1)
     for i in range(len(candidates) - 1, -1, -1):
         coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
+    # per-atom charge range of each element (a relaxation: an ion's charge
+    # shared evenly by its atoms, or the element's monatomic states): a branch
+    # whose leftover atoms cannot carry the charge still needed is cut, so a
+    # formula with no reading is found out without visiting every combination
+    shares = [dict(_monatomic_shares(tuple(remaining)))]
+    for ion in reversed(candidates):
+        per_atom = ion.charge / sum(k for _, k in ion.composition)
+        share = dict(shares[-1])
+        for symbol, _ in ion.composition:
+            lo, hi = share.get(symbol, (float("inf"), float("-inf")))
+            share[symbol] = (min(lo, per_atom), max(hi, per_atom))
+        shares.append(share)
+    shares.reverse()
     nodes = 0
     best = [float("inf")]
     found: list = []
+    cut = [False]
+    # work of the knapsacks counted whether or not their answer was cached:
+    # where a walk stops depends on the formula alone
+    spent = [0]
 
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
         nonlocal nodes
-        nodes += 1
-        if nodes > _MAX_SEARCH_NODES:
+        if cut[0]:
+            return
+        if nodes + spent[0] >= _SEARCH_BUDGET:
+            cut[0] = True
+            return
+        # a node's cost grows with the elements its charge check visits
+        nodes += 1 + len(left)
+        share = shares[len(candidates) if len(chosen) == _MAX_POLYATOMIC_SPECIES else index]
+        lo = hi = 0.0
+        for symbol, n in left.items():
+            s_lo, s_hi = share.get(symbol, (float("inf"), float("-inf")))
+            if s_lo > s_hi:
+                return
+            lo += s_lo * n
+            hi += s_hi * n
+        if not lo - _TOL <= needed - charge <= hi + _TOL:
             return
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
@@ -389,7 +491,9 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
             return
         if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
             cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
-            for penalty, singles in _assign_monatomic(left, needed - charge, round(cap, 9), excluded):
+            work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
+            spent[0] += work
+            for penalty, singles in assignments:
                 terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
                 total = penalty + cost + _PENALTY_SPECIES * len(terms)
                 if total <= best[0] + _TOL:
@@ -398,7 +502,11 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
             return
         ion = candidates[index]
         most = _fits(ion.composition, left)
-        for times in range(most, 0, -1):
+        # the largest multiplicities only: an ion used fewer times leaves its
+        # limiting element to monatomic ions, which a real salt seldom holds
+        # beside the same element in a polyatomic ion; this bounds the nodes
+        # by a polynomial of the candidates, O((candidates x 3)^3)
+        for times in range(most, max(most - _MULTIPLICITIES, 0), -1):
             walk(
                 index + 1,
                 _subtract(left, ion.composition, times),
@@ -409,8 +517,78 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
         walk(index + 1, left, chosen, charge, cost)
 
     walk(0, dict(remaining), [], 0.0, 0.0)
-    readings = [(p, t) for p, t in found if p <= best[0] + _TOL]
-    return readings, nodes > _MAX_SEARCH_NODES
+    _WORK[0] += nodes
+    return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
+
+
+# monatomic ions an organic formula may hold as one side of its ion pair
+_ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
+
+
+@per_input(maxsize=65536)
+def _ion_pair_readings(counts_key: tuple[tuple[str, float], ...]):
+    """Readings of an organic formula as exactly one cation and one anion.
+
+    The ions are library ions (or H(+) and the halides), at least one of the
+    two inorganic, in whole multiples that use up every atom: carboxylic
+    acids (H(+) with a carboxylate), ammonium and alkylammonium salts of
+    inorganic anions. Ranked by the solver's penalties. For a cation of
+    charge z+ and an anion of charge q-, a cations and b = a z / q anions
+    hold a (c_e + z n_e / q) atoms of each element e (c_e, n_e its atoms in
+    the two ions), so one element fixes a and the others check it. Cost:
+    O(cations x anions x elements), whatever the counts.
+    """
+    counts = dict(counts_key)
+    candidates = [ion for ion in _candidates_for(frozenset(counts)) if _fits(ion.composition, counts)]
+    for symbol, charge in _ORGANIC_PAIR_MONATOMIC:
+        if symbol in counts:
+            candidates.append(monatomic_ion(symbol, charge))
+    # every candidate is made of the formula's elements only: a pair fits only if together they hold all of them
+    anions = [(ion, dict(ion.composition), frozenset(symbol for symbol, _ in ion.composition))
+              for ion in candidates if ion.charge < 0]
+    symbols = tuple(counts)
+    present = frozenset(symbols)
+    readings = []
+    work = 0
+    # hydronium and oxocations (NO(+), NO2(+)) are no cation of an organic
+    # formula: nitro and nitroso compounds, nitrites and nitrates of alcohols
+    # are molecules (common practice)
+    for cation in (ion for ion in candidates if ion.charge > 0 and ion.family != "oxocation" and ion.ion_id not in _ION_PENALTIES):
+        held = dict(cation.composition)
+        held_symbols = frozenset(held)
+        cation_penalty = None
+        for anion, parts, part_symbols in anions:
+            work += 1
+            if (cation.organic and anion.organic) or held_symbols | part_symbols != present:
+                continue
+            ratio = cation.charge / -anion.charge
+            a = None
+            for symbol in symbols:
+                per_cation = held.get(symbol, 0) + ratio * parts.get(symbol, 0)
+                times = counts[symbol] / per_cation
+                if a is None:
+                    a = round(times)
+                    if a < 1 or abs(times - a) > _TOL:
+                        break
+                elif abs(a * per_cation - counts[symbol]) > _TOL:
+                    break
+            else:
+                b, r = divmod(a * cation.charge, -anion.charge)
+                if r:
+                    continue
+                if cation_penalty is None:
+                    cation_penalty = _pair_penalty(cation, counts)
+                penalty = cation_penalty + _pair_penalty(anion, counts) + 2 * _PENALTY_SPECIES
+                readings.append((penalty, [(cation, float(a)), (anion, float(b))]))
+    _WORK[0] += work + 1
+    return readings
+
+
+def _pair_penalty(ion: Ion, counts: dict[str, float]) -> float:
+    if not ion.monatomic:
+        return _ion_penalty(ion)
+    return next(p for kind, state, p in _monatomic_options(ion.element, counts[ion.element])
+                if kind == "single" and state == ion.charge)
 
 
 def _merge(terms: list[tuple[Ion, float]]) -> tuple[list[IonTerm], list[IonTerm]]:
@@ -531,7 +709,12 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
         hinted.append([(variant, n) for variant in same_label_ions(ion)])
         remaining = _subtract(remaining, ion.composition, n)
 
-    readings = _readings(remaining, hinted, notes)
+    if not hinted and organic_candidate(remaining):
+        # a molecule unless it is one ion pair of the library (acetic acid,
+        # ethylammonium nitrate): no search over organic fragments
+        readings = _ion_pair_readings(tuple(sorted(remaining.items())))
+    else:
+        readings = _readings(remaining, hinted, notes)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
@@ -573,7 +756,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
     if cls == "unknown":
         # H+ with organic fragments (glucose as "lactic acid"), NH3 as H+ + NH2-,
         # nitrobenzene as NO+ with phenoxide: not a salt, so read it as the molecule it is
-        return nonionic_decomposition(comp.charge, counts, [], water, neutral)
+        return nonionic_decomposition(comp.charge, counts, [n for n in notes if n == _SEARCH_CUT_NOTE], water, neutral)
     if cls == "covalent_molecular":
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
@@ -600,12 +783,10 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset()):
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            found, cut_short = _search(remaining, -given_charge, excluded)
+            found, stopped = _search(remaining, -given_charge, excluded)
+            if stopped and _SEARCH_CUT_NOTE not in notes:
+                notes.append(_SEARCH_CUT_NOTE)
             readings.extend((penalty, given + terms) for penalty, terms in found)
-            if cut_short and "search cut short" not in " ".join(notes):
-                notes.append(
-                    f"the ion search was cut short after {_MAX_SEARCH_NODES} steps; a better reading may exist"
-                )
         elif abs(given_charge) < _TOL:
             readings.append((0.0, given))
     return [r for r in readings if _has_both_signs(r[1])]

@@ -65,6 +65,7 @@ from ionicity.scorer.model import Decomposition, IonTerm
 
 __all__ = [
     "classify",
+    "organic_candidate",
     "nonionic_decomposition",
     "listed_states",
     "formal_oxidation_states",
@@ -207,6 +208,25 @@ def oxidation_states_of(terms: list[IonTerm]) -> tuple[tuple[str, float], ...]:
             totals[symbol] = totals.get(symbol, 0.0) + state * k
             weights[symbol] = weights.get(symbol, 0.0) + k
     return tuple((s, round(totals[s] / weights[s], 6)) for s in totals)
+
+
+def organic_candidate(counts: dict[str, float]) -> bool:
+    """Whether a formula written without ions or charge has the make-up of an
+    organic molecule: carbon with hydrogen and only non-metals.
+
+    Such a formula is read as a molecule unless it is one cation and one
+    anion of the ion library with at least one of them inorganic (acetic
+    acid H(+) CH3COO(-), ethylammonium nitrate, ammonium stearate): see
+    :func:`scorer.ions.decompose`. Nitro compounds, nitriles, alcohols and
+    sugars are then molecules at once, with no ion search (common practice:
+    an organic formula without a salt-forming group is covalent).
+
+    >>> organic_candidate({"C": 6.0, "H": 5.0, "N": 1.0, "O": 2.0}), organic_candidate({"C": 1.0, "O": 2.0})
+    (True, False)
+    >>> organic_candidate({"C": 2.0, "H": 3.0, "Na": 1.0, "O": 2.0})
+    False
+    """
+    return "C" in counts and "H" in counts and not any(is_metal(s) for s in counts)
 
 
 def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:

@@ -339,4 +339,6 @@ def test_the_call_budget_tells_a_hostile_cell_from_real_work():
     assert calls > 3 * HOSTILE_CALL_BUDGET
     _clear_caches()
     _, calls = python_calls(score_formula, "Fe2(SO4)3")
-    assert calls > 20 * HOSTILE_CALL_BUDGET
+    # ten times the budget: the charge-balance knapsack made a salt's own work
+    # about 3,000 calls (it was over 4,000 with the branch-and-bound search)
+    assert calls > 10 * HOSTILE_CALL_BUDGET

@@ -1,0 +1,220 @@
+"""Attack benchmark of the scorer: random formulas, the slowest ones, and organic throughput.
+
+``python -m ionicity.pipelines.bench_formulas --count 100000 --organic 100000 --seed 1``
+generates grammar-aware random formulas (many elements, large and decimal
+counts, nested brackets, hydrates, adducts, charges, ionic-liquid shorthand),
+scores each one alone with :func:`ionicity.scorer.record.score_formula` under
+a per-formula timer (CPU time, ``time.process_time``, and wall time), and
+prints: how many took over the limit (50 ms by default), the ten slowest with
+both times, every exception raised (there should be none: a formula the
+scorer cannot read is an error row, not an exception), and the throughput of
+N distinct C/H/N/O formulas (organic molecules) scored one after the other on
+one core. It also prints the solver's work (:func:`ionicity.scorer.ions.solver_work`)
+of the worst formula against the bound the tests hold it to.
+
+Timings on a shared machine are noisy: ``--repeat`` scores the slowest
+formulas again in fresh caches and prints every repetition.
+
+>>> formulas = random_formulas(5, seed=3)
+>>> len(formulas), len(set(formulas)) == 5
+(5, True)
+>>> all(text.startswith("C") for text in organic_formulas(20, seed=1))
+True
+"""
+from __future__ import annotations
+
+import argparse
+import random
+import sys
+import time
+
+from ionicity.scorer.caching import clear_all
+from ionicity.scorer.elements import element_symbols, is_metal
+from ionicity.scorer.ions import solver_work, work_bound
+from ionicity.scorer.formula import MAX_FORMULA_LENGTH, FormulaError, parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.record import score_formula
+
+__all__ = ["random_formula", "random_formulas", "organic_formulas", "time_formulas", "main"]
+
+LIMIT_MS = 50.0
+# elements of real inventories, drawn more often than the rest of the table
+_COMMON = ("H", "C", "N", "O", "F", "Na", "Mg", "Al", "Si", "P", "S", "Cl", "K", "Ca", "Ti", "Cr", "Mn", "Fe",
+           "Co", "Ni", "Cu", "Zn", "Br", "Ag", "Sn", "I", "Ba", "Pb", "La", "Ce", "Mo", "W", "Li", "B", "Se", "Te")
+_IONS = ("[C4mim]", "[emim]", "[N4444]", "[P66614]", "[BF4]", "[PF6]", "[NTf2]", "[OAc]", "OAc", "[Fe(CN)6]")
+_CHARGES = ("^2-", "^3+", "(2-)", "+", "-", "2+", "3-", "--")
+_DOTS = ("·", ".", "*", "+")
+
+
+def _count(rng: random.Random) -> str:
+    r = rng.random()
+    if r < 0.35:
+        return ""
+    if r < 0.75:
+        return str(rng.randint(2, 12))
+    if r < 0.9:
+        return str(rng.randint(13, 999 if rng.random() < 0.7 else 10_000))
+    return f"{rng.randint(0, 9)}.{rng.randint(1, 999)}"
+
+
+def _element(rng: random.Random, symbols: tuple[str, ...]) -> str:
+    return rng.choice(_COMMON) if rng.random() < 0.7 else rng.choice(symbols)
+
+
+def _group(rng: random.Random, symbols: tuple[str, ...], depth: int) -> str:
+    parts = []
+    for _ in range(rng.randint(1, 6)):
+        r = rng.random()
+        if r < 0.12 and depth < 5:
+            opening, closing = rng.choice((("(", ")"), ("[", "]"), ("{", "}")))
+            parts.append(opening + _group(rng, symbols, depth + 1) + closing + _count(rng))
+        elif r < 0.16:
+            parts.append(rng.choice(_IONS))
+        else:
+            parts.append(_element(rng, symbols) + _count(rng))
+    return "".join(parts)
+
+
+def random_formula(rng: random.Random) -> str:
+    """One random formula text in the shape the grammar reads (it may still be
+    refused, for a count or length over the bounds, which is part of the test)."""
+    symbols = element_symbols()
+    text = _group(rng, symbols, 0)
+    if rng.random() < 0.3:
+        text += _group(rng, symbols, 0)
+    r = rng.random()
+    if r < 0.15:
+        text += rng.choice(_DOTS) + rng.choice(("", "2", "5", "0.5", "12", "7.5")) + "H2O"
+    elif r < 0.2:
+        text += rng.choice(_DOTS) + rng.choice(("", "2")) + rng.choice(("NH3", "H2O2", "H2O"))
+    elif r < 0.28:
+        text += rng.choice(_CHARGES)
+    return text
+
+
+def random_formulas(count: int, seed: int = 1) -> list[str]:
+    """``count`` distinct random formulas (:func:`random_formula`), reproducible from ``seed``."""
+    rng = random.Random(seed)
+    out: dict[str, None] = {}
+    while len(out) < count:
+        text = random_formula(rng)
+        # mostly within the grammar's length bound, so that most are read;
+        # a few longer ones check the refusal
+        if len(text) <= MAX_FORMULA_LENGTH or rng.random() < 0.05:
+            out.setdefault(text)
+    return list(out)
+
+
+def organic_formulas(count: int, seed: int = 1) -> list[str]:
+    """``count`` distinct C/H/N/O formulas of plausible molecules: C1-C40, hydrogen
+    up to the saturated 2C + N + 2, up to 6 N and 12 O (Hill order)."""
+    rng = random.Random(seed)
+    out: dict[str, None] = {}
+    while len(out) < count:
+        c = rng.randint(1, 40)
+        n = rng.choice((0, 0, 0, 1, 1, 2, 3, 4, 6))
+        o = rng.choice((0, 0, 1, 1, 2, 2, 3, 4, 6, 8, 12))
+        h = rng.randint(max(0, c // 2 - 2), 2 * c + n + 2)
+        text = f"C{'' if c == 1 else c}" + (f"H{'' if h == 1 else h}" if h else "")
+        text += (f"N{'' if n == 1 else n}" if n else "") + (f"O{'' if o == 1 else o}" if o else "")
+        out.setdefault(text)
+    return list(out)
+
+
+def _formula_size(text: str) -> int:
+    """Elements x total atoms of a formula (1 for one that does not parse):
+    the size the solver's work bound is stated in."""
+    try:
+        comp = parse_formula(text)
+    except ValueError:
+        return 1
+    return max(1, len(comp.counts)) * max(1, round(sum(n for _, n in comp.counts)))
+
+
+def solve(text: str):
+    """The solver stage alone: parse and decompose (None for a formula the grammar refuses)."""
+    try:
+        comp = parse_formula(text)
+    except FormulaError:
+        return None
+    return decompose(comp)
+
+
+STAGES = {"score": score_formula, "solve": solve}
+
+
+def time_formulas(formulas: list[str], stage: str = "score") -> tuple[list[tuple[float, float, str]], list[tuple[str, str]]]:
+    """Score (or only solve) each formula once; ((cpu_ms, wall_ms, formula) per
+    formula, (formula, exception) per raise)."""
+    timings, raised = [], []
+    run = STAGES[stage]
+    for text in formulas:
+        wall0, cpu0 = time.perf_counter(), time.process_time()
+        try:
+            run(text)
+        except Exception as exc:  # the attack's point: report every one, do not stop
+            raised.append((text, f"{type(exc).__name__}: {exc}"))
+        cpu, wall = time.process_time() - cpu0, time.perf_counter() - wall0
+        timings.append((cpu * 1000, wall * 1000, text))
+    return timings, raised
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.bench_formulas", description=__doc__.split("\n\n")[0])
+    parser.add_argument("--count", type=int, default=10_000, help="random formulas to score (default: 10,000)")
+    parser.add_argument("--organic", type=int, default=20_000, help="distinct C/H/N/O formulas for the throughput (default: 20,000)")
+    parser.add_argument("--seed", type=int, default=1)
+    parser.add_argument("--limit-ms", type=float, default=LIMIT_MS, help="per-formula limit counted (default: 50)")
+    parser.add_argument("--repeat", type=int, default=3, help="times the ten slowest are scored again, cold (default: 3)")
+    parser.add_argument("--stage", choices=tuple(STAGES), default="score",
+                        help="score: the whole record (default); solve: parsing and the ion solver alone")
+    args = parser.parse_args(argv)
+    if args.count < 0 or args.organic < 0 or args.repeat < 0:
+        parser.error("--count, --organic and --repeat must be 0 or more")
+    score_formula("NaCl")  # tables loaded once, as in a worker, before any timer runs
+    formulas = random_formulas(args.count, args.seed)
+    timings, raised = time_formulas(formulas, args.stage)
+    over = [t for t in timings if t[0] > args.limit_ms or t[1] > args.limit_ms]
+    cpu_over = [t for t in timings if t[0] > args.limit_ms]
+    print(f"random_formulas {len(formulas)} seed {args.seed} stage {args.stage}")
+    print(f"over_{args.limit_ms:g}_ms_cpu {len(cpu_over)}")
+    print(f"over_{args.limit_ms:g}_ms_wall_or_cpu {len(over)}")
+    print(f"raised {len(raised)}")
+    for text, message in raised[:20]:
+        print(f"  raised {text!r}: {message}")
+    worst = sorted(timings, reverse=True)[:10]
+    print("slowest (cpu_ms wall_ms formula):")
+    for cpu, wall, text in worst:
+        print(f"  {cpu:8.2f} {wall:8.2f}  {text}")
+    for r in range(args.repeat):
+        clear_all()
+        again, _ = time_formulas([text for _, _, text in worst], args.stage)
+        print(f"slowest again, fresh caches, run {r + 1}: max cpu {max((t[0] for t in again), default=0):.2f} ms,"
+              f" max wall {max((t[1] for t in again), default=0):.2f} ms")
+    ratios = []
+    for _, _, text in worst:
+        clear_all()
+        before = solver_work()
+        STAGES[args.stage](text)
+        ratios.append(((solver_work() - before) / work_bound(_formula_size(text)), text))
+    if ratios:
+        print(f"largest solver work / bound (cold): {max(ratios)[0]:.4f} ({max(ratios)[1]})")
+    cpu_ms = sorted(t[0] for t in timings)
+    if cpu_ms:
+        print(f"random cpu_ms median {cpu_ms[len(cpu_ms) // 2]:.3f} p99 {cpu_ms[int(len(cpu_ms) * 0.99)]:.3f}"
+              f" max {cpu_ms[-1]:.3f}")
+    organic = organic_formulas(args.organic, args.seed)
+    wall0, cpu0 = time.perf_counter(), time.process_time()
+    org_timings, org_raised = time_formulas(organic, args.stage)
+    cpu, wall = time.process_time() - cpu0, time.perf_counter() - wall0
+    if organic:
+        org_cpu = sorted(t[0] for t in org_timings)
+        print(f"organic_formulas {len(organic)} one core: {len(organic) / cpu:,.0f} per CPU second,"
+              f" {len(organic) / wall:,.0f} per wall second; raised {len(org_raised)}")
+        print(f"organic cpu_ms median {org_cpu[len(org_cpu) // 2]:.3f} p99 {org_cpu[int(len(org_cpu) * 0.99)]:.3f}"
+              f" max {org_cpu[-1]:.3f}")
+    return 1 if raised or org_raised else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
