@@ -1,7 +1,8 @@
 """Attacks through the shape of a CSV: long fields, long first rows, long
 header lines, very wide tables. Every row is read, or the error names the
 limit and what to do (pipelines/csv_blocks.py). No scientific reference
-values: the cells are ordinary salts; the block sizes are Arrow's reader's
+values: the cells are ordinary salts (common practice: any salt the scorer reads
+would do, their scores are not checked here); the block sizes are Arrow's reader's
 (pyarrow.csv.ReadOptions.block_size) and ours.
 """
 from __future__ import annotations
