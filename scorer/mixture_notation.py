@@ -74,36 +74,37 @@ def blend_key(name: str) -> str:
     return " ".join(name.lower().split())
 
 
-def _split_top(text: str, separators: str) -> list[str]:
-    """Split at any of ``separators`` outside brackets."""
+def _split_outside_brackets(text: str, splits_here) -> list[str]:
+    """Split ``text`` at each position ``i`` outside brackets where ``splits_here(text, i)`` holds."""
     parts, depth, start = [], 0, 0
     for i, ch in enumerate(text):
         if ch in "([{":
             depth += 1
         elif ch in ")]}":
             depth -= 1
-        elif depth == 0 and ch in separators:
+        elif depth == 0 and splits_here(text, i):
             parts.append(text[start:i])
             start = i + 1
     parts.append(text[start:])
     return parts
 
 
+def _split_top(text: str, separators: str) -> list[str]:
+    """Split at any of ``separators`` outside brackets."""
+    return _split_outside_brackets(text, lambda t, i: t[i] in separators)
+
+
+def _joining_dash(text: str, i: int) -> bool:
+    # a dash at the end, or after ^, + or another dash, is a charge
+    if text[i] not in "-–—" or not 0 < i < len(text) - 1:
+        return False
+    before, after = text[i - 1], text[i + 1]
+    return before not in "^+-" and (after.isalpha() or after in "([ " or after.isdigit())
+
+
 def _dash_split(text: str) -> list[str]:
     """Split at dashes that join two formulas (a dash at the end, or after ^, is a charge)."""
-    parts, depth, start = [], 0, 0
-    for i, ch in enumerate(text):
-        if ch in "([{":
-            depth += 1
-        elif ch in ")]}":
-            depth -= 1
-        elif depth == 0 and ch in "-–—" and 0 < i < len(text) - 1:
-            before, after = text[i - 1], text[i + 1]
-            if before not in "^+-" and (after.isalpha() or after in "([ " or after.isdigit()):
-                parts.append(text[start:i])
-                start = i + 1
-    parts.append(text[start:])
-    return parts
+    return _split_outside_brackets(text, _joining_dash)
 
 
 def _basis(word: str | None) -> str:
