@@ -76,7 +76,7 @@ MELTING_CLASS_BANDS: tuple[tuple[str, float, float, str], ...] = (
 
 SALT_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "base"})
 
-# substance_class -> route; class names from the agreed list (docs: contracts of issue 12)
+# substance_class -> route; the class names of scorer.substance and scorer.applicability
 ROUTE_OF_CLASS: dict[str, str] = {
     "ionic_salt": "salt",
     "ionic_liquid_pair": "salt",

@@ -7,7 +7,7 @@ in CI) has the value, the test reads it at run time with ``chemicals.phase_chang
 its source stand beside the formula. Known misses are strict expected failures
 (ids end in ``known_miss``): an improvement shows up as an unexpected pass.
 
-Compounds of the classes branch i12a adds (covalent_molecular for AlCl3 and HgX2,
+Compounds of the classes scorer.applicability decides (covalent_molecular for AlCl3 and HgX2,
 chain_layer_solid, semiconductor, intermetallic, zintl_phase) are scored from
 decompositions built here with those substance classes; the others go through
 ``score_formula``.
