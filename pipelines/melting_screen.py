@@ -263,6 +263,11 @@ def _main_states(symbol: str) -> tuple:
     return tuple(int(s) for s in get_element(symbol).oxidation_states_main)
 
 
+def _main_ion(terms):
+    """The ion of ``terms`` carrying most charge (ties broken by ion id, so the choice is stable)."""
+    return max(terms, key=lambda t: (abs(t.ion.charge) * t.count, t.ion.ion_id)).ion
+
+
 def anion_family(dec) -> str:
     """The family of a salt's main anion, for grouping and per-family figures.
 
@@ -279,7 +284,7 @@ def anion_family(dec) -> str:
     """
     if not dec.anions:
         return "none"
-    main = max(dec.anions, key=lambda t: (abs(t.ion.charge) * t.count, t.ion.ion_id)).ion
+    main = _main_ion(dec.anions)
     if main.monatomic:
         return {"F": "halide", "Cl": "halide", "Br": "halide", "I": "halide", "O": "oxide", "N": "nitride",
                 "H": "hydride"}.get(main.element, "chalcogenide" if main.element in ("S", "Se", "Te") else "other")
@@ -296,7 +301,7 @@ def cation_element(dec) -> str:
     """The main cation's element (``Na``), or ``NH4``/``organic`` for others, for grouping."""
     if not dec.cations:
         return "none"
-    main = max(dec.cations, key=lambda t: (abs(t.ion.charge) * t.count, t.ion.ion_id)).ion
+    main = _main_ion(dec.cations)
     if main.monatomic:
         return main.element
     if main.organic:
@@ -318,5 +323,5 @@ def cation_family(dec) -> str:
     """
     if not dec.cations:
         return "none"
-    main = max(dec.cations, key=lambda t: (abs(t.ion.charge) * t.count, t.ion.ion_id)).ion
+    main = _main_ion(dec.cations)
     return main.family if main.organic else cation_element(dec)
