@@ -35,6 +35,8 @@ import pyarrow.parquet as pq
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.dask_partitions import (
+    BAD_TEXT_FIRST_ROW,
+    BAD_TEXT_ROWS,
     DEFAULT_PARTITION_ROWS,
     Piece,
     csv_block_bytes,
@@ -68,6 +70,7 @@ from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import chosen_columns
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
+from ionicity.pipelines.text_cells import BadRows, text_table
 from ionicity.pipelines.text_dialect import check_encoding
 
 __all__ = ["score_file_dask"]
@@ -135,8 +138,8 @@ def _import_dask():
     return dask, dd, distributed
 
 
-def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
-    """A CSV or TSV input as a dask.dataframe of blocks of about ``partition_rows`` rows."""
+def _csv_blocks(dask, dd, reader, config: ScoreConfig, partition_rows: int) -> list:
+    """A CSV or TSV input as delayed pandas frames, blocks of about ``partition_rows`` rows."""
     if reader.fmt == "xlsx":
         raise InputError("--engine dask reads CSV, TSV or Parquet; score an .xlsx file with --engine local")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
@@ -149,10 +152,19 @@ def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
                         "this CSV has line breaks inside cells, which --engine dask cannot split;"
                         " convert it to Parquet or use --engine local"
                     )
+    # Dask would convert the object columns to pandas' Arrow-backed text, which cannot hold a surrogate
+    with dask.config.set({"dataframe.convert-string": False}):
+        return _read_csv_frame(dd, reader, config, partition_rows).to_delayed()
+
+
+def _read_csv_frame(dd, reader, config: ScoreConfig, partition_rows: int):
     return dd.read_csv(
         reader.source,
         sep=reader.delimiter,
-        dtype=str,
+        # object, not str: pandas' Arrow-backed text cannot hold the surrogates that keep a bad byte
+        # (surrogateescape), which the partition turns into its row's error (text_cells.text_table)
+        dtype=object,
+        encoding_errors="surrogateescape",
         keep_default_na=False,
         na_filter=False,
         blocksize=csv_block_bytes(reader.source, partition_rows),
@@ -187,7 +199,7 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         if reader.fmt == "parquet":
             sources = parquet_pieces(list(reader.paths), partition_rows)
         else:
-            sources = _read_frame(dd, reader, config, partition_rows).to_delayed()
+            sources = _csv_blocks(dask, dd, reader, config, partition_rows)
         os.mkdir(tmp)
         with dask.config.set({"logging.distributed": "error", "distributed.admin.system-monitor.gil.enabled": False}):
             if config.scheduler:
@@ -279,16 +291,18 @@ class _Run:
             elif several:
                 del found
                 compounds, placement, _ = self._first_pass_scored(sources, offsets)
-        elif several:  # CSV blocks: the first pass also counts each block's rows
+        elif len(sources) > 1:
+            # CSV blocks: the first pass also counts each block's rows, so that a row's message can name its number
             compounds, placement, rows = self._first_pass_scored(sources, None)
             offsets = np.cumsum([0] + rows[:-1], dtype=np.int64)
+            compounds = compounds if several else None
         common = dict(
             table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
             schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
             count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
             shared_first_rows=shared_first_rows, chosen=self.chosen,
             compounds=client.scatter([compounds], broadcast=True)[0] if compounds is not None else None,
-            alone=len(sources) == 1,
+            alone=len(sources) == 1, encoding=check_encoding(self.config.encoding),
         )
         if parquet:
             futures = []
@@ -303,12 +317,18 @@ class _Run:
         results = client.gather(futures)
         summary = Summary(partitions=len(sources))
         hashes = []
+        bad = BadRows(check_encoding(self.config.encoding))
         for counts, partition_hashes in results:
+            bad.count += counts.pop(BAD_TEXT_ROWS, 0)
+            first = counts.pop(BAD_TEXT_FIRST_ROW, 0)
+            bad.first_row = min(bad.first_row or first, first or bad.first_row)
             for status, n in counts.items():
                 setattr(summary, status, getattr(summary, status) + n)
             if partition_hashes is not None:
                 hashes.append(partition_hashes)
         summary.rows = summary.ok + summary.warning + summary.error
+        if bad.note(self.config.input):
+            summary.notes.append(bad.note(self.config.input))
         summary.distinct_formulas = distinct if distinct is not None else len(np.unique(np.concatenate(hashes))) if hashes else 0
         return summary
 
@@ -371,9 +391,9 @@ def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array
         texts, at = piece_distinct(source, formula_col)
         rows = source.rows
     else:
-        column = pa.array(source[formula_col], type=pa.string(), from_pandas=True)
-        texts, at = first_positions(column)
-        rows = len(column)
+        table, _ = text_table(source[[formula_col]], pa.schema([(formula_col, pa.string())]))
+        texts, at = first_positions(table.column(0).combine_chunks())
+        rows = table.num_rows
     scorer = BatchScorer(1, cache=_worker_cache())
     cache_rows = scorer.rows_of(scorer.submit(texts))
     normalized = scorer.cache.arrays()[column_names().index("formula_normalized")].take(cache_rows)
@@ -382,7 +402,7 @@ def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array
 
 def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col, name_col, schema, model, folder,
                      metadata, count_distinct, status_name, shared, shared_first_rows=None, chosen=None, compounds=None,
-                     alone=True):
+                     alone=True, encoding="utf-8"):
     cache = _worker_cache()
     if shared is not None and not getattr(cache, "adopted_shared", False):
         before = len(cache.keys())
@@ -399,7 +419,7 @@ def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col,
     else:  # one partition: streamed in order, as the local engine does
         first_rows = FirstRows() if alone else None
     return score_piece(number, source, table_schema, formula_col, name_col, schema, model, folder, metadata, cache,
-                       count_distinct, status_name, chosen, first_rows)
+                       count_distinct, status_name, chosen, first_rows, row_offset, encoding)
 
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:

@@ -29,6 +29,7 @@ from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.progress import Progress
 from ionicity.pipelines.provenance import provenance_metadata
 from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_array
+from ionicity.pipelines.text_cells import mark_rows
 from ionicity.pipelines.schema import (
     check_formula_type,
     check_name_column,
@@ -138,6 +139,9 @@ def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
         batch, ticket = waiting.popleft()
         scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket,
                              chosen=chosen, first_rows=first_rows)
+        if reader.bad_rows is not None:  # cells that were not text: their rows are errors
+            scored = mark_rows(scored, reader.bad_rows.take(summary.rows, batch.num_rows), status_name,
+                               config.prefix + "message", formula_col)
         writer.write(scored)
         if tally is not None:
             tally.add(scored)
@@ -168,6 +172,8 @@ def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
         progress.close()
     scorer.close()
     summary.distinct_formulas = scorer.distinct_formulas
+    if reader.bad_rows is not None and reader.bad_rows.note(config.input):
+        summary.notes.append(reader.bad_rows.note(config.input))
     return summary
 
 
