@@ -24,6 +24,8 @@ pays for them; install them with ``pip install "ionicity[dask]"`` (from a clone:
 """
 from __future__ import annotations
 
+import errno
+import logging
 import os
 import time
 
@@ -63,6 +65,7 @@ from ionicity.pipelines.output_paths import (
     is_ionicity_dataset,
     keep_beside,
     partial_path,
+    write_failure,
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
@@ -85,6 +88,8 @@ def _connect_timeout(address: str) -> str:
     host = address.split("://", 1)[-1]
     return _LOOPBACK_CONNECT_TIMEOUT if host.startswith(_LOOPBACK_HOSTS) else _CONNECT_TIMEOUT
 _PLUGIN = "ionicity-warm-up"
+# a worker's failed write of its part: no space, over a quota, over the file-size limit
+_WRITE_ERRNOS = (errno.ENOSPC, errno.EDQUOT, errno.EFBIG)
 # benchmark knob: "always" or "never" overrides the choice of the shared
 # first pass (pipelines/bench_dask.py measures both ways)
 SHARE_ENV = "IONICITY_DASK_SHARED"
@@ -105,15 +110,22 @@ def _worker_cache() -> FormulaCache:
     return cache if cache is not None else FormulaCache()
 
 
-def _warm_up_plugin(distributed, full_precision: bool = False):
+def _warm_up_plugin(distributed, full_precision: bool = False, own_cluster: bool = False):
     class WarmUp(distributed.diagnostics.plugin.WorkerPlugin):
         """Load the scorer's data tables once per worker, before any task, and
         keep the run's cache of scored formulas on that worker until the run
-        ends (the plugin is removed then)."""
+        ends (the plugin is removed then). On the run's own local cluster the
+        workers log nothing below critical: a task's failure reaches the user
+        once, as the command's one-line error (its traceback with --verbose),
+        not also as the worker's "Compute Failed" log with a traceback. A
+        running scheduler's workers are someone else's: their logs stay."""
 
         name = _PLUGIN
 
         def setup(self, worker):
+            if own_cluster:
+                # the worker process imported distributed, and set up its logging, before this run's config reached it
+                logging.getLogger("distributed").setLevel(logging.CRITICAL)
             warm_up()
             self.cache = FormulaCache()
             if not full_precision:
@@ -213,7 +225,8 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                     dashboard_address=":0",
                 )
                 client = distributed.Client(cluster)
-            client.register_plugin(_warm_up_plugin(distributed, config.full_precision), name=_PLUGIN)
+            client.register_plugin(_warm_up_plugin(distributed, config.full_precision, own_cluster=cluster is not None),
+                                   name=_PLUGIN)
             run = _Run(client, reader.schema, formula_col, config, schema, model, tmp,
                        provenance_metadata(config, formula_col))
             summary = run.score(sources)
@@ -227,6 +240,9 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         _swap_into_place(tmp, config.output, config.overwrite)
         tmp = None
     except Exception as exc:
+        if isinstance(exc, OSError) and (exc.errno in _WRITE_ERRNOS or "writing" in str(exc)):
+            # a part a worker could not write (a full disk, ulimit -f): the output named, as the local engine does
+            raise write_failure(exc, config.output) from None
         mapped = _user_error(exc)
         if mapped is not None:
             raise mapped from None

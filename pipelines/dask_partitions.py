@@ -238,8 +238,8 @@ def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, 
     numbered from ``row_offset``, the data rows before the block).
     ``first_rows`` fills ``first_row_same_compound`` (a
     :class:`~ionicity.pipelines.duplicates.KnownFirstRows` for this partition).
-    Returns the status counts (with ``BAD_TEXT_ROWS``: the rows whose cells were
-    not text) and, when ``count_distinct``, the hashes of the partition's
+    Returns the status counts (with ``BAD_TEXT_ROWS`` and ``BAD_TEXT_FIRST_ROW``
+    where some cells were not text) and, when ``count_distinct``, the hashes of the partition's
     distinct formulas (for the run's distinct count)."""
     bad_rows = BadRows(encoding)
     if isinstance(source, Piece):
@@ -269,6 +269,6 @@ def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, 
         if not written:
             writer.write_table(out_schema.empty_table())
     hashes = _formula_hashes(table.column(formula_col).combine_chunks()) if count_distinct and table is not None else None
-    counts[BAD_TEXT_ROWS] = bad_rows.count
-    counts[BAD_TEXT_FIRST_ROW] = bad_rows.first_row
+    if bad_rows.count:
+        counts[BAD_TEXT_ROWS], counts[BAD_TEXT_FIRST_ROW] = bad_rows.count, bad_rows.first_row
     return counts, hashes

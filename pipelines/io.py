@@ -19,7 +19,6 @@ import glob
 import io
 import os
 import queue
-import re
 import stat
 import sys
 import threading
@@ -39,7 +38,8 @@ from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.schema import MAX_INPUT_COLUMNS, check_width
 from ionicity.pipelines.text_cells import BadRows, text_batch
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
-from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
+from ionicity.pipelines.output_paths import (_remove, check_output_path, clean_stale_partials, keep_beside, partial_path,
+                                            write_failure)
 
 __all__ = [
     "InputError",
@@ -549,14 +549,7 @@ class TableWriter:
         self._queue.put(batch)
 
     def _naming_the_output(self, exc: OSError) -> OSError:
-        """The error of a failed write with the output's path (Arrow's carry neither
-        path nor errno: a full disk or a file-size limit was an anonymous line)."""
-        number = exc.errno
-        if number is None:
-            found = re.search(r"\[errno (\d+)\]", str(exc))
-            number = int(found.group(1)) if found else None
-        what = os.strerror(number) if number else (exc.strerror or _first_line(exc))
-        return OSError(number, f"cannot write the output: {what}", "standard output" if self.path == "-" else self.path)
+        return write_failure(exc, self.path)
 
     def _drain(self) -> None:
         while True:

@@ -93,8 +93,8 @@ def test_latin1_needs_encoding_and_the_error_names_it(tmp_path, capsys):
     assert main(["score", str(src), "-o", str(tmp_path / "o.csv"), "--quiet", "--workers", "1"]) == 0
     row = next(csv.DictReader((tmp_path / "o.csv").open(encoding="utf-8")))
     assert row["status"] == "error" and "--encoding latin-1" in row["message"]
-    assert main(["score", str(src), "-o", str(tmp_path / "o.csv"), "--quiet", "--workers", "1", "--encoding", "latin-1"]) == 0
-    assert next(csv.DictReader((tmp_path / "o.csv").open(encoding="utf-8")))["name"] == "sel de cuisine café"
+    assert main(["score", str(src), "-o", str(tmp_path / "l.csv"), "--quiet", "--workers", "1", "--encoding", "latin-1"]) == 0
+    assert next(csv.DictReader((tmp_path / "l.csv").open(encoding="utf-8")))["name"] == "sel de cuisine café"
     win = tmp_path / "win.csv"
     win.write_bytes("formula,name\nNaCl,\u201cquoted\u201d\n".encode("cp1252"))
     assert main(["score", str(win), "-o", str(tmp_path / "w.csv"), "--quiet", "--workers", "1", "--encoding", "cp1252"]) == 0
