@@ -212,7 +212,11 @@ def score_file_dask(config: ScoreConfig) -> Summary:
             sources = parquet_pieces(list(reader.paths), partition_rows)
         else:
             sources = _csv_blocks(dask, dd, reader, config, partition_rows)
-        os.mkdir(tmp)
+        try:
+            os.mkdir(tmp)
+        except OSError as exc:  # the output named, not the temporary folder beside it
+            tmp = None
+            raise write_failure(exc, config.output) from None
         with dask.config.set({"logging.distributed": "error", "distributed.admin.system-monitor.gil.enabled": False}):
             if config.scheduler:
                 try:

@@ -500,8 +500,12 @@ class TableWriter:
             clean_stale_partials(os.path.dirname(os.path.abspath(path)))
             directory = check_output_path(path, overwrite, inputs)
             self._tmp = partial_path(directory)
-            # os.open honours the umask, unlike mkstemp's 0600
-            fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+            try:
+                # os.open honours the umask, unlike mkstemp's 0600
+                fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+            except OSError as exc:  # the output named, not the temporary file beside it
+                self._tmp = None
+                raise write_failure(exc, path) from None
             if self.fmt == "parquet":
                 # a native file: Arrow writes it without taking the GIL
                 os.close(fd)

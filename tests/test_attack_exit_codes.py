@@ -93,6 +93,18 @@ def test_attack_a_file_size_limit_on_the_dask_engine_is_exit_2_in_one_line(table
     assert not out.exists() and _leftovers(tmp_path) == []
 
 
+@pytest.mark.skipif(not os.path.isdir("/proc/self"), reason="needs /proc (Linux) for a folder nothing may be created in")
+@pytest.mark.parametrize("engine", ["local", pytest.param("dask", marks=pytest.mark.slow)])
+def test_attack_an_output_folder_nothing_can_be_created_in_names_the_output(table, capsys, engine):
+    # the one line named the temporary file beside the output (.ionicity-PID@HOST...partial), not the output
+    if engine == "dask":
+        pytest.importorskip("distributed")
+    out = "/proc/self/out.parquet"
+    assert main(["score", str(table), "-o", out, "--engine", engine, "--workers", "1"]) == 2
+    line = _one_line_error(capsys.readouterr().err)
+    assert f"cannot write the output: No such file or directory: {out!r}" in line and ".partial" not in line
+
+
 @pytest.mark.parametrize("output", ["out.csv", "out.tsv", "-"])
 def test_attack_nested_input_columns_to_a_csv_output_are_exit_2(tmp_path, capsys, output):
     # found beside attack 8: a list or map column (not the formula column) failed
