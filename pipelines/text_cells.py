@@ -9,7 +9,8 @@ such row gets status ``error`` and a message naming its data-row number,
 the columns and the first bad byte, and the encoding option to try
 (:func:`mark_rows`). The rows' other columns are kept; a text file cannot
 hold the bytes as they were, so the cells are written with U+FFFD, and the
-message says so.
+message says so. The same holds for a Parquet input's bytes columns written
+to a CSV or TSV output (:func:`bytes_cells`); into Parquet they pass as they are.
 
 Only a batch with a bad cell pays for the cell-by-cell pass: the rest is one
 Arrow cast per column (validating UTF-8, as reading the column as text did).
@@ -25,7 +26,7 @@ from ionicity.pipelines.arrow_columns import bool_array, string_array
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED
 from ionicity.scorer.verdict import fit_message
 
-__all__ = ["BadRows", "text_batch", "text_table", "mark_rows", "decode_cells"]
+__all__ = ["BadRows", "text_batch", "text_table", "bytes_cells", "mark_rows", "decode_cells"]
 
 
 def decode_cells(values: list) -> tuple[pa.Array, dict[int, int]]:
@@ -110,6 +111,19 @@ def text_batch(batch: pa.RecordBatch, schema: pa.Schema) -> tuple[pa.RecordBatch
             columns.append(text)
             _merge(found, name, bad)
     return pa.RecordBatch.from_arrays(columns, schema=schema), found
+
+
+def bytes_cells(batch: pa.RecordBatch, names: list[str]) -> dict[int, tuple[list[str], int]]:
+    """The cells of the bytes columns ``names`` that are not UTF-8 (a text
+    output writes them with U+FFFD): position -> (column names, first bad byte)."""
+    found: dict = {}
+    for name in names:
+        column = batch.column(batch.schema.get_field_index(name))
+        try:
+            column.cast(pa.string())
+        except pa.ArrowInvalid:
+            _merge(found, name, decode_cells(column.to_pylist())[1])
+    return found
 
 
 def text_table(frame, schema: pa.Schema) -> tuple[pa.Table, dict[int, tuple[list[str], int]]]:

@@ -133,3 +133,21 @@ def test_attack_a_csv_cell_that_is_not_utf8_on_the_dask_engine(tmp_path, monkeyp
         assert dask.to_pylist() == expected.to_pylist()
         last = dask.column("message")[20_006].as_py()
         assert last.startswith("data row 20007: column 'formula'"), last
+
+
+def test_attack_a_parquet_bytes_cell_into_a_csv_output_is_marked(tmp_path):
+    # a bytes column other than the formula: into CSV its bad cell was written as U+FFFD with status ok
+    import pyarrow as pa
+
+    src = tmp_path / "in.parquet"
+    pq.write_table(pa.table({"formula": ["NaCl", "KBr"], "label": pa.array([b"sel", b"bromure \xe9"], pa.binary())}), src)
+    out = tmp_path / "out.csv"
+    assert main(["score", str(src), "-o", str(out), "--quiet", "--workers", "1"]) == 0
+    rows = _rows(out)
+    assert [r["status"] for r in rows] == ["ok", "error"] and rows[1]["label"] == "bromure \ufffd"
+    assert rows[1]["message"].startswith("data row 2: column 'label' held bytes that are not valid UTF-8 text (byte 0xE9)")
+    # into Parquet the bytes pass as they were: nothing to mark
+    assert main(["score", str(src), "-o", str(tmp_path / "out.parquet"), "--quiet", "--workers", "1"]) == 0
+    table = pq.read_table(tmp_path / "out.parquet")
+    assert table.column("status").to_pylist() == ["ok", "ok"]
+    assert table.column("label").to_pylist() == [b"sel", b"bromure \xe9"]
