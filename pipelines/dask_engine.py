@@ -24,6 +24,8 @@ pays for them; install them with ``pip install "ionicity[dask]"`` (from a clone:
 """
 from __future__ import annotations
 
+import errno
+import logging
 import os
 import time
 
@@ -35,6 +37,8 @@ import pyarrow.parquet as pq
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.dask_partitions import (
+    BAD_TEXT_FIRST_ROW,
+    BAD_TEXT_ROWS,
     DEFAULT_PARTITION_ROWS,
     Piece,
     csv_block_bytes,
@@ -61,6 +65,7 @@ from ionicity.pipelines.output_paths import (
     is_ionicity_dataset,
     keep_beside,
     partial_path,
+    write_failure,
 )
 from ionicity.pipelines.pool import default_workers, warm_up
 from ionicity.pipelines.provenance import provenance_metadata
@@ -68,6 +73,7 @@ from ionicity.pipelines.scheduler import BatchScorer
 from ionicity.pipelines.schema import chosen_columns
 from ionicity.scorer.audit import FIRST_ROW_COLUMN
 from ionicity.scorer.columns import column_names
+from ionicity.pipelines.text_cells import BadRows, text_table
 from ionicity.pipelines.text_dialect import check_encoding
 
 __all__ = ["score_file_dask"]
@@ -82,6 +88,8 @@ def _connect_timeout(address: str) -> str:
     host = address.split("://", 1)[-1]
     return _LOOPBACK_CONNECT_TIMEOUT if host.startswith(_LOOPBACK_HOSTS) else _CONNECT_TIMEOUT
 _PLUGIN = "ionicity-warm-up"
+# a worker's failed write of its part: no space, over a quota, over the file-size limit
+_WRITE_ERRNOS = (errno.ENOSPC, errno.EDQUOT, errno.EFBIG)
 # benchmark knob: "always" or "never" overrides the choice of the shared
 # first pass (pipelines/bench_dask.py measures both ways)
 SHARE_ENV = "IONICITY_DASK_SHARED"
@@ -102,15 +110,22 @@ def _worker_cache() -> FormulaCache:
     return cache if cache is not None else FormulaCache()
 
 
-def _warm_up_plugin(distributed, full_precision: bool = False):
+def _warm_up_plugin(distributed, full_precision: bool = False, own_cluster: bool = False):
     class WarmUp(distributed.diagnostics.plugin.WorkerPlugin):
         """Load the scorer's data tables once per worker, before any task, and
         keep the run's cache of scored formulas on that worker until the run
-        ends (the plugin is removed then)."""
+        ends (the plugin is removed then). On the run's own local cluster the
+        workers log nothing below critical: a task's failure reaches the user
+        once, as the command's one-line error (its traceback with --verbose),
+        not also as the worker's "Compute Failed" log with a traceback. A
+        running scheduler's workers are someone else's: their logs stay."""
 
         name = _PLUGIN
 
         def setup(self, worker):
+            if own_cluster:
+                # the worker process imported distributed, and set up its logging, before this run's config reached it
+                logging.getLogger("distributed").setLevel(logging.CRITICAL)
             warm_up()
             self.cache = FormulaCache()
             if not full_precision:
@@ -135,8 +150,8 @@ def _import_dask():
     return dask, dd, distributed
 
 
-def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
-    """A CSV or TSV input as a dask.dataframe of blocks of about ``partition_rows`` rows."""
+def _csv_blocks(dask, dd, reader, config: ScoreConfig, partition_rows: int) -> list:
+    """A CSV or TSV input as delayed pandas frames, blocks of about ``partition_rows`` rows."""
     if reader.fmt == "xlsx":
         raise InputError("--engine dask reads CSV, TSV or Parquet; score an .xlsx file with --engine local")
     # Dask splits CSV at line ends, which would cut a quoted multi-line cell in two
@@ -149,10 +164,19 @@ def _read_frame(dd, reader, config: ScoreConfig, partition_rows: int):
                         "this CSV has line breaks inside cells, which --engine dask cannot split;"
                         " convert it to Parquet or use --engine local"
                     )
+    # Dask would convert the object columns to pandas' Arrow-backed text, which cannot hold a surrogate
+    with dask.config.set({"dataframe.convert-string": False}):
+        return _read_csv_frame(dd, reader, config, partition_rows).to_delayed()
+
+
+def _read_csv_frame(dd, reader, config: ScoreConfig, partition_rows: int):
     return dd.read_csv(
         reader.source,
         sep=reader.delimiter,
-        dtype=str,
+        # object, not str: pandas' Arrow-backed text cannot hold the surrogates that keep a bad byte
+        # (surrogateescape), which the partition turns into its row's error (text_cells.text_table)
+        dtype=object,
+        encoding_errors="surrogateescape",
         keep_default_na=False,
         na_filter=False,
         blocksize=csv_block_bytes(reader.source, partition_rows),
@@ -187,8 +211,12 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         if reader.fmt == "parquet":
             sources = parquet_pieces(list(reader.paths), partition_rows)
         else:
-            sources = _read_frame(dd, reader, config, partition_rows).to_delayed()
-        os.mkdir(tmp)
+            sources = _csv_blocks(dask, dd, reader, config, partition_rows)
+        try:
+            os.mkdir(tmp)
+        except OSError as exc:  # the output named, not the temporary folder beside it
+            tmp = None
+            raise write_failure(exc, config.output) from None
         with dask.config.set({"logging.distributed": "error", "distributed.admin.system-monitor.gil.enabled": False}):
             if config.scheduler:
                 try:
@@ -201,7 +229,8 @@ def score_file_dask(config: ScoreConfig) -> Summary:
                     dashboard_address=":0",
                 )
                 client = distributed.Client(cluster)
-            client.register_plugin(_warm_up_plugin(distributed, config.full_precision), name=_PLUGIN)
+            client.register_plugin(_warm_up_plugin(distributed, config.full_precision, own_cluster=cluster is not None),
+                                   name=_PLUGIN)
             run = _Run(client, reader.schema, formula_col, config, schema, model, tmp,
                        provenance_metadata(config, formula_col))
             summary = run.score(sources)
@@ -215,6 +244,9 @@ def score_file_dask(config: ScoreConfig) -> Summary:
         _swap_into_place(tmp, config.output, config.overwrite)
         tmp = None
     except Exception as exc:
+        if isinstance(exc, OSError) and (exc.errno in _WRITE_ERRNOS or "writing" in str(exc)):
+            # a part a worker could not write (a full disk, ulimit -f): the output named, as the local engine does
+            raise write_failure(exc, config.output) from None
         mapped = _user_error(exc)
         if mapped is not None:
             raise mapped from None
@@ -279,16 +311,18 @@ class _Run:
             elif several:
                 del found
                 compounds, placement, _ = self._first_pass_scored(sources, offsets)
-        elif several:  # CSV blocks: the first pass also counts each block's rows
+        elif len(sources) > 1:
+            # CSV blocks: the first pass also counts each block's rows, so that a row's message can name its number
             compounds, placement, rows = self._first_pass_scored(sources, None)
             offsets = np.cumsum([0] + rows[:-1], dtype=np.int64)
+            compounds = compounds if several else None
         common = dict(
             table_schema=self.table_schema, formula_col=self.formula_col, name_col=self.config.name_col,
             schema=self.schema, model=self.model, folder=self.folder, metadata=self.metadata,
             count_distinct=distinct is None, status_name=self.config.prefix + "status", shared=shared,
             shared_first_rows=shared_first_rows, chosen=self.chosen,
             compounds=client.scatter([compounds], broadcast=True)[0] if compounds is not None else None,
-            alone=len(sources) == 1,
+            alone=len(sources) == 1, encoding=check_encoding(self.config.encoding),
         )
         if parquet:
             futures = []
@@ -303,12 +337,18 @@ class _Run:
         results = client.gather(futures)
         summary = Summary(partitions=len(sources))
         hashes = []
+        bad = BadRows(check_encoding(self.config.encoding))
         for counts, partition_hashes in results:
+            bad.count += counts.pop(BAD_TEXT_ROWS, 0)
+            first = counts.pop(BAD_TEXT_FIRST_ROW, 0)
+            bad.first_row = min(bad.first_row or first, first or bad.first_row)
             for status, n in counts.items():
                 setattr(summary, status, getattr(summary, status) + n)
             if partition_hashes is not None:
                 hashes.append(partition_hashes)
         summary.rows = summary.ok + summary.warning + summary.error
+        if bad.note(self.config.input):
+            summary.notes.append(bad.note(self.config.input))
         summary.distinct_formulas = distinct if distinct is not None else len(np.unique(np.concatenate(hashes))) if hashes else 0
         return summary
 
@@ -371,9 +411,9 @@ def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array
         texts, at = piece_distinct(source, formula_col)
         rows = source.rows
     else:
-        column = pa.array(source[formula_col], type=pa.string(), from_pandas=True)
-        texts, at = first_positions(column)
-        rows = len(column)
+        table, _ = text_table(source[[formula_col]], pa.schema([(formula_col, pa.string())]))
+        texts, at = first_positions(table.column(0).combine_chunks())
+        rows = table.num_rows
     scorer = BatchScorer(1, cache=_worker_cache())
     cache_rows = scorer.rows_of(scorer.submit(texts))
     normalized = scorer.cache.arrays()[column_names().index("formula_normalized")].take(cache_rows)
@@ -382,7 +422,7 @@ def _partition_compounds(source, *, table_schema, formula_col) -> tuple[pa.Array
 
 def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col, name_col, schema, model, folder,
                      metadata, count_distinct, status_name, shared, shared_first_rows=None, chosen=None, compounds=None,
-                     alone=True):
+                     alone=True, encoding="utf-8"):
     cache = _worker_cache()
     if shared is not None and not getattr(cache, "adopted_shared", False):
         before = len(cache.keys())
@@ -399,7 +439,7 @@ def _score_on_worker(number, source, row_offset=0, *, table_schema, formula_col,
     else:  # one partition: streamed in order, as the local engine does
         first_rows = FirstRows() if alone else None
     return score_piece(number, source, table_schema, formula_col, name_col, schema, model, folder, metadata, cache,
-                       count_distinct, status_name, chosen, first_rows)
+                       count_distinct, status_name, chosen, first_rows, row_offset, encoding)
 
 
 def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:

@@ -42,7 +42,11 @@ from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
 from ionicity.pipelines.arrow_columns import as_text, int_numpy
 from ionicity.pipelines.scheduler import ADDUCT_PATTERN as _ADDUCT_PATTERN
+from ionicity.pipelines.text_cells import BadRows, mark_rows, text_table
 from ionicity.scorer.verdict import STATUSES
+
+#: keys of :func:`score_piece`'s counts: the rows whose cells were not text, the first of them (1-based, 0: none)
+BAD_TEXT_ROWS, BAD_TEXT_FIRST_ROW = "bad_text_rows", "bad_text_first_row"
 
 __all__ = [
     "DEFAULT_PARTITION_ROWS",
@@ -56,6 +60,8 @@ __all__ = [
     "share_distinct",
     "score_piece",
     "part_name",
+    "BAD_TEXT_ROWS",
+    "BAD_TEXT_FIRST_ROW",
 ]
 
 # rows per partition: a few hundred milliseconds of scoring per task (Dask's
@@ -223,29 +229,39 @@ def _formula_hashes(column: pa.Array) -> np.ndarray:
 def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, name_col: str | None,
                 schema: pa.Schema, model, folder: str, metadata: dict, cache: FormulaCache,
                 count_distinct: bool, status_name: str, chosen=None,
-                first_rows=None) -> tuple[dict[str, int], np.ndarray | None]:
+                first_rows=None, row_offset: int = 0, encoding: str = "utf-8") -> tuple[dict[str, int], np.ndarray | None]:
     """Score one partition into ``folder/part-NNNNNN.parquet``.
 
-    ``source`` is a :class:`Piece` (Parquet) or a pandas frame (a CSV block).
+    ``source`` is a :class:`Piece` (Parquet) or a pandas frame (a CSV block,
+    read with ``encoding_errors="surrogateescape"``: its cells that were not
+    text become their rows' errors, :mod:`ionicity.pipelines.text_cells`,
+    numbered from ``row_offset``, the data rows before the block).
     ``first_rows`` fills ``first_row_same_compound`` (a
     :class:`~ionicity.pipelines.duplicates.KnownFirstRows` for this partition).
-    Returns the status counts and, when ``count_distinct``, the hashes of the
-    partition's distinct formulas (for the run's distinct count)."""
+    Returns the status counts (with ``BAD_TEXT_ROWS`` and ``BAD_TEXT_FIRST_ROW``
+    where some cells were not text) and, when ``count_distinct``, the hashes of the partition's
+    distinct formulas (for the run's distinct count)."""
+    bad_rows = BadRows(encoding)
     if isinstance(source, Piece):
         batches = piece_batches(source, table_schema)
         table = None
     else:
-        table = pa.Table.from_pandas(source, schema=table_schema, preserve_index=False)
+        table, found = text_table(source, table_schema)
+        bad_rows.add(row_offset, found)
         batches = table.to_batches(max_chunksize=_BATCH_ROWS)
     out_schema = schema.with_metadata(metadata) if metadata else schema
     counts = dict.fromkeys(STATUSES, 0)
     status_at = schema.get_field_index(status_name)
     path = os.path.join(folder, part_name(number))
+    message_name = status_name[:-len("status")] + "message"
     with pq.ParquetWriter(path, out_schema, write_statistics=True) as writer:
-        written = 0
+        written = done = 0
         for batch in batches:
             scored = score_batch(batch, formula_col, schema, cache, name_col=name_col, model=model, chosen=chosen,
                                  first_rows=first_rows)
+            scored = mark_rows(scored, bad_rows.take(row_offset + done, batch.num_rows), status_name, message_name,
+                               formula_col)
+            done += batch.num_rows
             writer.write_batch(scored)
             written += 1
             for status, n in _status_counts(scored.column(status_at)).items():
@@ -253,4 +269,6 @@ def score_piece(number: int, source, table_schema: pa.Schema, formula_col: str, 
         if not written:
             writer.write_table(out_schema.empty_table())
     hashes = _formula_hashes(table.column(formula_col).combine_chunks()) if count_distinct and table is not None else None
+    if bad_rows.count:
+        counts[BAD_TEXT_ROWS], counts[BAD_TEXT_FIRST_ROW] = bad_rows.count, bad_rows.first_row
     return counts, hashes

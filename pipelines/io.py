@@ -19,7 +19,6 @@ import glob
 import io
 import os
 import queue
-import re
 import stat
 import sys
 import threading
@@ -37,8 +36,10 @@ from ionicity.pipelines.csv_blocks import (block_for_header, growing_batches, he
                                           is_block_too_small)
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.schema import MAX_INPUT_COLUMNS, check_width
+from ionicity.pipelines.text_cells import BadRows, text_batch
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
-from ionicity.pipelines.output_paths import _remove, check_output_path, clean_stale_partials, keep_beside, partial_path
+from ionicity.pipelines.output_paths import (_remove, check_output_path, clean_stale_partials, keep_beside, partial_path,
+                                            write_failure)
 
 __all__ = [
     "InputError",
@@ -106,6 +107,9 @@ class TableReader:
     column_types: dict = field(default_factory=dict)
     #: the CSV delimiter used (found or given)
     delimiter: str = ","
+    #: rows read so far whose cells were not text in the encoding (CSV and TSV;
+    #: :class:`~ionicity.pipelines.text_cells.BadRows`): the engine marks them error
+    bad_rows: BadRows | None = None
 
 
 class _CountingStream(io.RawIOBase):
@@ -163,6 +167,11 @@ def _first_line(exc: BaseException) -> str:
     return text.splitlines()[0] if text else type(exc).__name__
 
 
+def text_schema(names: list[str]) -> pa.Schema:
+    """A text table's schema: every column text."""
+    return pa.schema([(n, pa.string()) for n in names])
+
+
 def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str = "utf-8") -> TableReader:
     if path == "-":
         if sys.stdin is None:  # Python's mark of a descriptor closed at start-up
@@ -186,7 +195,9 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     header_block = len(head) if complete else min(block_for_header(head, _HEADER_BLOCK), len(head))
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
-    problem = encoding_problem(head, complete, encoding)
+    # a data cell that is not text is its row's error (text_cells); the column names must be text
+    end = header_line_end(head) if encoding == "utf-8" else len(head)
+    problem = encoding_problem(head[:end], complete or end < len(head), encoding)
     if problem:
         raise InputError(f"input {label} {problem}")
     if delimiter is None:
@@ -215,14 +226,14 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
                 raise
             # a first row longer than the head: the names from the header line alone
             names = header_names(head[:header_line_end(head)])
-        text_options = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
-                                            quoted_strings_can_be_null=False)
+        bytes_options = pacsv.ConvertOptions(column_types={n: pa.binary() for n in names}, strings_can_be_null=False,
+                                             quoted_strings_can_be_null=False)
         try:
-            sample = pacsv.open_csv(
+            sample, _ = text_batch(pacsv.open_csv(
                 io.BytesIO(head),
                 read_options=pacsv.ReadOptions(block_size=header_block, **read_encoding),
-                parse_options=parse_options, convert_options=text_options,
-            ).read_next_batch()
+                parse_options=parse_options, convert_options=bytes_options,
+            ).read_next_batch(), text_schema(names))
         except pa.ArrowInvalid as exc:
             if not is_block_too_small(exc):
                 raise
@@ -239,8 +250,11 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     if len(names) == 1:
         # one column: a blank line is an empty cell, and dropping it would lose a row
         parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True, ignore_empty_lines=False)
-    text_types = pacsv.ConvertOptions(column_types={n: pa.string() for n in names}, strings_can_be_null=False,
+    # read as bytes, made text batch by batch: a cell that is not UTF-8 is then its row's error, not the file's
+    byte_types = pacsv.ConvertOptions(column_types={n: pa.binary() for n in names}, strings_can_be_null=False,
                                       quoted_strings_can_be_null=False)
+    schema = text_schema(names)
+    bad_rows = BadRows(encoding)
     streams = [_CountingStream(head, raw)]
 
     def open_stream(block: int, skip: int):
@@ -249,12 +263,16 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
             streams[0] = _CountingStream(b"", open(path, "rb"))
         return pacsv.open_csv(streams[0], read_options=pacsv.ReadOptions(block_size=block, skip_rows_after_names=skip,
                                                                          **read_encoding),
-                              parse_options=parse_options, convert_options=text_types)
+                              parse_options=parse_options, convert_options=byte_types)
 
     def batches() -> Iterator[pa.RecordBatch]:
+        offset = 0
         try:
             for batch in growing_batches(open_stream, max(_BLOCK_SIZE, block_for_header(head, _HEADER_BLOCK)), label,
                                          can_restart=path != "-"):
+                batch, found = text_batch(batch, schema)
+                bad_rows.add(offset, found)
+                offset += batch.num_rows
                 for start in range(0, batch.num_rows, batch_rows):
                     yield batch.slice(start, batch_rows)
         except (pa.ArrowInvalid, UnicodeDecodeError) as exc:
@@ -272,8 +290,8 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
         return min(streams[0].consumed / total_bytes, 1.0)
 
     return TableReader(
-        pa.schema([(n, pa.string()) for n in names]), batches(), "tsv" if delimiter == "\t" else "csv", path,
-        fraction_done=fraction_done, paths=(path,), delimiter=delimiter,
+        schema, batches(), "tsv" if delimiter == "\t" else "csv", path,
+        fraction_done=fraction_done, paths=(path,), delimiter=delimiter, bad_rows=bad_rows,
         # standard input cannot be read again should a later row not fit: it stays text
         column_types=infer_types(sample) if path != "-" else {},
     )
@@ -482,8 +500,12 @@ class TableWriter:
             clean_stale_partials(os.path.dirname(os.path.abspath(path)))
             directory = check_output_path(path, overwrite, inputs)
             self._tmp = partial_path(directory)
-            # os.open honours the umask, unlike mkstemp's 0600
-            fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+            try:
+                # os.open honours the umask, unlike mkstemp's 0600
+                fd = os.open(self._tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+            except OSError as exc:  # the output named, not the temporary file beside it
+                self._tmp = None
+                raise write_failure(exc, path) from None
             if self.fmt == "parquet":
                 # a native file: Arrow writes it without taking the GIL
                 os.close(fd)
@@ -531,14 +553,7 @@ class TableWriter:
         self._queue.put(batch)
 
     def _naming_the_output(self, exc: OSError) -> OSError:
-        """The error of a failed write with the output's path (Arrow's carry neither
-        path nor errno: a full disk or a file-size limit was an anonymous line)."""
-        number = exc.errno
-        if number is None:
-            found = re.search(r"\[errno (\d+)\]", str(exc))
-            number = int(found.group(1)) if found else None
-        what = os.strerror(number) if number else (exc.strerror or _first_line(exc))
-        return OSError(number, f"cannot write the output: {what}", "standard output" if self.path == "-" else self.path)
+        return write_failure(exc, self.path)
 
     def _drain(self) -> None:
         while True:

@@ -29,6 +29,7 @@ from ionicity.pipelines.model_step import load_model_applier
 from ionicity.pipelines.progress import Progress
 from ionicity.pipelines.provenance import provenance_metadata
 from ionicity.pipelines.scheduler import PARALLEL_MIN_NEW, BatchScorer, formula_array
+from ionicity.pipelines.text_cells import BadRows, bytes_cells, mark_rows
 from ionicity.pipelines.schema import (
     check_formula_type,
     check_name_column,
@@ -132,12 +133,21 @@ def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
         scorer.cache.set_output_digits()
         scorer.cache.set_short_notes()
     first_rows = FirstRows()
+    # bytes columns (Parquet) into a CSV or TSV, which cannot hold a cell that is not UTF-8 as it was
+    bytes_to_text = [f.name for f in reader.schema if pa.types.is_binary(f.type) or pa.types.is_large_binary(f.type)
+                     ] if config.output == "-" or format_of(config.output) in ("csv", "tsv") else []
+    bad_rows = reader.bad_rows if reader.bad_rows is not None or not bytes_to_text else BadRows()
     waiting: deque = deque()  # (batch, ticket): submitted, not written yet
 
     def finish() -> None:
         batch, ticket = waiting.popleft()
         scored = score_batch(batch, formula_col, schema, scorer, name_col=config.name_col, model=model, ticket=ticket,
                              chosen=chosen, first_rows=first_rows)
+        if bytes_to_text:
+            bad_rows.add(summary.rows, bytes_cells(batch, bytes_to_text))
+        if bad_rows is not None:  # cells that were not text: their rows are errors
+            scored = mark_rows(scored, bad_rows.take(summary.rows, batch.num_rows), status_name,
+                               config.prefix + "message", formula_col)
         writer.write(scored)
         if tally is not None:
             tally.add(scored)
@@ -168,6 +178,8 @@ def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
         progress.close()
     scorer.close()
     summary.distinct_formulas = scorer.distinct_formulas
+    if bad_rows is not None and bad_rows.note(config.input):
+        summary.notes.append(bad_rows.note(config.input))
     return summary
 
 

@@ -33,6 +33,7 @@ __all__ = [
     "DATASET_MARKER",
     "is_ionicity_dataset",
     "exchange_paths",
+    "write_failure",
 ]
 
 _PARTIAL_PREFIX = ".ionicity-"
@@ -214,3 +215,20 @@ def check_output_path(path: str, overwrite: bool, inputs: tuple[str, ...] = (), 
     if not os.path.isdir(directory):
         raise InputError(f"output folder {directory!r} does not exist")
     return directory
+
+
+def write_failure(exc: OSError, path: str) -> OSError:
+    """The error of a failed write, naming the output ``path`` (``-``: standard
+    output). Arrow's errors carry neither path nor errno (a full disk or a
+    file-size limit was an anonymous line): the number is read from their text.
+
+    >>> write_failure(OSError("Error writing bytes to file. Detail: [errno 27] File too large"), "out.parquet")
+    OSError(27, 'cannot write the output: File too large')
+    """
+    number = exc.errno
+    if number is None:
+        found = re.search(r"\[errno (\d+)\]", str(exc))
+        number = int(found.group(1)) if found else None
+    text = str(exc).strip()
+    what = os.strerror(number) if number else exc.strerror or (text.splitlines()[0] if text else type(exc).__name__)
+    return OSError(number, f"cannot write the output: {what}", "standard output" if path == "-" else path)

@@ -69,7 +69,7 @@ def test_strict_exit_code(small_csv, tmp_path):
         (b"", [], "empty"),
         (b"formula\n", [], "no data rows"),
         (b"name\nNaCl\n", [], "no column named 'formula'"),
-        ("formula\ncaf\xe9\n".encode("latin-1"), [], "UTF-8"),
+        ("formul\xe9\nNaCl\n".encode("latin-1"), [], "UTF-8"),  # column names must be text; a bad cell is a row error
         (b"formula\nNaCl\n", ["--formula-col", "smiles"], "no column 'smiles'"),
         (b"formula\nNaCl\n", ["--workers", "0"], "--workers"),
         (b"formula\nNaCl\n", ["--scheduler", "tcp://127.0.0.1:1"], "--engine dask"),
