@@ -70,9 +70,10 @@ TREND_WEIGHTS: dict[str, float] = {
     # anions that carry hydrogen (HF2-, HSO4-, OH-): hydrogen bonds between the anions
     "hydrogen_bonded_anion": 0.15,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
-    "molecular_contact_kJ_mol": 1.1,
-    "molecular_polarisability_kJ_mol_A3": 0.61,
-    "molecular_bridge_kJ_mol": 7.1,
+    "molecular_contact_kJ_mol": 1.08,
+    "molecular_polarisability_kJ_mol_A3": 0.60,
+    # per valence unit of bridges (open sites times Pauling's z / CN; Al2Br6: 1 * 3/4)
+    "molecular_bridge_kJ_mol": 9.4,
 }
 
 
