@@ -57,7 +57,7 @@ Other compounds
 Compounds that are not salts take the routes of :mod:`scorer.melting_routes`
 by their ``substance_class`` (column ``mp_route``): molecular compounds
 ``T_m = dH_m / dS_m`` (Walden's rule with Dannenfelser-Yalkowsky symmetry, a
-size-polarisability cohesion), chain and layer solids the mean of the salt and
+size-polarisability cohesion plus halide or oxide bridges of Pauling's bond strength z/CN), chain and layer solids the mean of the salt and
 molecular indices, networks and metals a stated rule of mixtures of the
 elements' melting points. One scale for all.
 
