@@ -321,10 +321,29 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     (reduced) formula unit; the rest are its ligands. ``sigma`` follows the
     VSEPR shape of the centre (lone pairs from its valence electrons less its
     oxidation state, none for d- and f-block centres); with mixed ligands it is
-    divided by the number of ways to place them (VOCl3: 12 / 4 = 3). Without
-    one centre (organic molecules, chains of like atoms) sigma is 1 and
-    ``tau`` counts carbon atoms beyond the second (a rough chain), both said
-    in ``basis``. None when the composition is empty.
+    divided by the number of ways to place them (VOCl3: 12 / 4 = 3); a linear
+    molecule (two ligands, no or three lone pairs) takes Dannenfelser and
+    Yalkowsky's cylinder, sigma 20 (a cone with mixed ligands, 10).
+
+    Open sites are the centre's coordination number in the solid less its
+    ligands and lone pairs. The coordination number is, in this order: the
+    measured one where ``scorer/data/molecular_coordination.csv`` lists the
+    compound (AlCl3 6, a layer lattice; HgCl2 2+4); that of the ligands alone
+    for carbon and nitrogen centres (multiple bonds, no bridges: CO2); 6 for
+    a d- or f-block pentahalide (bridged dimers and tetramers: NbBr5); else
+    the radius-ratio rule. ``bond_strength`` is Pauling's ``z / CN`` when a
+    site is open. Without one centre (organic molecules, chains of like
+    atoms) sigma is 1 and ``tau`` counts carbon atoms beyond the second (a
+    rough chain), both said in ``basis``. None when the composition is empty.
+
+    Examples
+    --------
+    >>> from dataclasses import replace
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> m = molecular_terms(replace(decompose(parse_formula("AlCl3")), cations=(), anions=()))
+    >>> m.symmetry_number, m.open_sites, m.bond_strength
+    (6.0, 3, 0.5)
     """
     comp = [(s, n) for s, n in dec.composition if n > 0]
     if not comp:
