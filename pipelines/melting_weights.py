@@ -179,7 +179,7 @@ def fit_molecular_weights(rows) -> dict[str, float]:
             continue
         ds = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
         dh = t * ds / 1000.0
-        a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3), m.open_sites]) / dh)
+        a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3), m.open_sites * m.bond_strength]) / dh)
         b.append(1.0)
     w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
     return dict(zip(("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol"),

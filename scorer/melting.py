@@ -57,7 +57,7 @@ Other compounds
 Compounds that are not salts take the routes of :mod:`scorer.melting_routes`
 by their ``substance_class`` (column ``mp_route``): molecular compounds
 ``T_m = dH_m / dS_m`` (Walden's rule with Dannenfelser-Yalkowsky symmetry, a
-size-polarisability cohesion), chain and layer solids the mean of the salt and
+size-polarisability cohesion plus halide or oxide bridges of Pauling's bond strength z/CN), chain and layer solids the mean of the salt and
 molecular indices, networks and metals a stated rule of mixtures of the
 elements' melting points. One scale for all.
 
@@ -459,7 +459,7 @@ def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
         return math.nan, ()
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, w)
+    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w)
     temperature = routes.molecular_melting_K(cohesion, entropy)
     steps = (
         f"  molecular: T = dH_m / dS_m = {cohesion:.1f} kJ/mol / {entropy:.1f} J/(mol K) = {temperature:.0f} K",
@@ -468,7 +468,8 @@ def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
         f"  cohesion: sum over {len(m.ligand_polarisabilities_A3)} peripheral atoms of ({w['molecular_contact_kJ_mol']}"
         f" + {w['molecular_polarisability_kJ_mol_A3']} * alpha/A3), alphas"
         f" {', '.join(f'{a:.2f}' for a in m.ligand_polarisabilities_A3)}; + {w['molecular_bridge_kJ_mol']} kJ/mol"
-        f" * {m.open_sites} open coordination site(s) bridged in the crystal",
+        f" * {m.open_sites} open coordination site(s) bridged in the crystal * Pauling bond strength z/CN"
+        f" {m.bond_strength:.3f}",
     )
     return math.log10(temperature) if temperature > 0 else math.nan, steps
 

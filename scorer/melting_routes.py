@@ -12,7 +12,12 @@ mean something:
   flexibility as Dannenfelser and Yalkowsky do
   (:func:`walden_dannenfelser_yalkowsky_entropy_J_mol_K`) and the heat of
   melting from a cohesion term of the molecule's size and polarisability
-  (:func:`molecular_cohesion_kJ_mol`);
+  and of the halide or oxide bridges that fill its centre's open
+  coordination sites in the crystal, each as strong as Pauling's
+  electrostatic bond strength ``z / CN`` (:func:`molecular_cohesion_kJ_mol`;
+  the coordination number measured where
+  ``scorer/data/molecular_coordination.csv`` lists the solid, else the
+  pentahalide and radius-ratio rules of :func:`molecular_terms`);
 * ``chain_layer`` (``chain_layer_solid``): between the two, the geometric
   mean of the salt and molecular temperatures (:func:`chain_layer_index`);
 * ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
@@ -36,6 +41,7 @@ from math import factorial
 
 from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element
+from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.model import Decomposition
 from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
@@ -47,6 +53,7 @@ __all__ = [
     "melting_class_for",
     "walden_dannenfelser_yalkowsky_entropy_J_mol_K",
     "molecular_cohesion_kJ_mol",
+    "pauling_bond_strength",
     "molecular_melting_K",
     "MolecularTerms",
     "molecular_terms",
@@ -151,27 +158,64 @@ def walden_dannenfelser_yalkowsky_entropy_J_mol_K(symmetry_number=1.0, torsions_
     return WALDEN_ENTROPY_J_MOL_K - GAS_CONSTANT_J_MOL_K * math.log(sigma) + GAS_CONSTANT_J_MOL_K * tau * math.log(2.435)
 
 
-def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, weights: Mapping[str, float]):
+def pauling_bond_strength(oxidation_state: float, coordination_number: float) -> float:
+    """Pauling's electrostatic bond strength ``s = z / CN`` of a cation's bonds (valence units).
+
+    Pauling's second rule: a cation of charge ``z`` among ``CN`` neighbours
+    gives each bond the strength ``z / CN``.
+
+    References
+    ----------
+    L. Pauling, J. Am. Chem. Soc. 1929, 51, 1010-1026 (from memory): Al3+ in
+    octahedral coordination, 3/6 = 0.5.
+
+    Examples
+    --------
+    >>> pauling_bond_strength(3, 6), pauling_bond_strength(2, 6) == 1 / 3
+    (0.5, True)
+    >>> pauling_bond_strength(4, 0)
+    0.0
+    """
+    return float(oxidation_state) / coordination_number if coordination_number > 0 else 0.0
+
+
+def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_strength, weights: Mapping[str, float]):
     """Heat of melting of a molecular crystal from the size and polarisability of its molecule [kJ/mol].
 
-    ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open``: each
+    ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open * s``: each
     peripheral atom L touches the neighbouring molecules and adds a contact
     share growing with its polarisability ``alpha_L`` (London dispersion);
-    ``n_open`` counts coordination sites the central atom leaves open
-    (its radius-ratio coordination number less its ligands and lone pairs), each of which a
-    halide or oxide of a neighbour bridges in the crystal (AlCl3 layers,
-    (NbCl5)2, (TaF5)4, HgCl2 2+4 coordination). Defined here; the weights
-    ``h_0``, ``h_alpha``, ``h_bridge`` are fitted (see ``TREND_WEIGHTS``).
+    ``n_open`` counts coordination sites the central atom leaves open (its
+    coordination number in the solid less its ligands and lone pairs), each of
+    which a halide or oxide of a neighbour bridges in the crystal (AlCl3
+    layers, (NbCl5)2, (TaF5)4, HgCl2 2+4 coordination). A bridge is as strong
+    as the centre's bonds: Pauling's electrostatic bond strength
+    ``s = z / CN`` (:func:`pauling_bond_strength`), so the four long Hg...Cl
+    contacts of HgCl2 (``s`` = 2/6) hold less than the Al-Cl-Al bridges of
+    Al2Br6 (3/4). Defined here; the weights ``h_0``, ``h_alpha``, ``h_bridge``
+    are fitted (see ``TREND_WEIGHTS``).
+
+    Parameters
+    ----------
+    ligand_polarisabilities_A3 : sequence of float
+        Polarisability volume of each peripheral atom [angstrom^3].
+    open_sites : int
+        Coordination sites of the centre bridged in the crystal.
+    bond_strength : float
+        ``s = z / CN`` of the centre [valence units].
+    weights : mapping
+        ``molecular_contact_kJ_mol``, ``molecular_polarisability_kJ_mol_A3``,
+        ``molecular_bridge_kJ_mol`` (kJ/mol per valence unit of bridges).
 
     Examples
     --------
     >>> w = {"molecular_contact_kJ_mol": 1.0, "molecular_polarisability_kJ_mol_A3": 1.0, "molecular_bridge_kJ_mol": 8.0}
-    >>> molecular_cohesion_kJ_mol([2.0, 2.0], 1, w)
-    14.0
+    >>> molecular_cohesion_kJ_mol([2.0, 2.0], 1, 0.75, w)
+    12.0
     """
     total = sum(weights["molecular_contact_kJ_mol"] + weights["molecular_polarisability_kJ_mol_A3"] * a
                 for a in ligand_polarisabilities_A3)
-    return total + weights["molecular_bridge_kJ_mol"] * max(open_sites, 0)
+    return total + weights["molecular_bridge_kJ_mol"] * max(open_sites, 0) * bond_strength
 
 
 def molecular_melting_K(cohesion_kJ_mol: float, entropy_J_mol_K: float) -> float:
@@ -200,6 +244,10 @@ _SIGMA = {
     (1, 0): 1, (2, 0): 2, (2, 1): 2, (2, 2): 2, (2, 3): 2, (3, 0): 6, (3, 1): 3, (3, 2): 2,
     (4, 0): 12, (4, 1): 2, (4, 2): 8, (5, 0): 6, (5, 1): 4, (6, 0): 24, (6, 1): 3, (7, 0): 10,
 }
+# Molecules with an infinite rotation axis: Dannenfelser and Yalkowsky give a
+# cylinder (D-infinity-h: Cl-Hg-Cl, CO2, XeF2) sigma 20 and a cone (C-infinity-v) sigma 10
+# (Ind. Eng. Chem. Res. 1996, 35, 1483; from memory); mixed ligands divide 20 by 2 ways.
+_LINEAR_SIGMA = 20.0
 _LIGAND_CHARGE = {"F": -1, "Cl": -1, "Br": -1, "I": -1, "O": -2, "S": -2, "Se": -2, "H": -1}
 
 
@@ -226,11 +274,29 @@ class MolecularTerms:
     open_sites: int
     ligand_polarisabilities_A3: tuple[float, ...]
     basis: str
+    bond_strength: float = 0.0
 
 
 def _polarisability_A3(symbol: str) -> float:
     value = get_element(symbol).dipole_polarizability_bohr3 * BOHR3_TO_A3
     return value if math.isfinite(value) else 0.0
+
+
+@once
+def _measured_coordination() -> dict[tuple, tuple[int, str]]:
+    """Reduced composition -> (coordination number of the centre in the solid, source)."""
+    out = {}
+    for row in table("molecular_coordination.csv"):
+        out[_reduced_key(parse_formula(row["formula"]).counts)] = (int(row["coordination_number"]), row["source"])
+    return out
+
+
+def _reduced_key(counts) -> tuple:
+    items = [(s, n) for s, n in dict(counts).items() if n > 0]
+    g = 0
+    for _, n in items:
+        g = math.gcd(g, int(n)) if float(n).is_integer() else 1
+    return tuple(sorted((s, n / (g or 1)) for s, n in items))
 
 
 def _radius_ratio_coordination(centre: str, state: int, ligands) -> int:
@@ -255,10 +321,29 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     (reduced) formula unit; the rest are its ligands. ``sigma`` follows the
     VSEPR shape of the centre (lone pairs from its valence electrons less its
     oxidation state, none for d- and f-block centres); with mixed ligands it is
-    divided by the number of ways to place them (VOCl3: 12 / 4 = 3). Without
-    one centre (organic molecules, chains of like atoms) sigma is 1 and
-    ``tau`` counts carbon atoms beyond the second (a rough chain), both said
-    in ``basis``. None when the composition is empty.
+    divided by the number of ways to place them (VOCl3: 12 / 4 = 3); a linear
+    molecule (two ligands, no or three lone pairs) takes Dannenfelser and
+    Yalkowsky's cylinder, sigma 20 (a cone with mixed ligands, 10).
+
+    Open sites are the centre's coordination number in the solid less its
+    ligands and lone pairs. The coordination number is, in this order: the
+    measured one where ``scorer/data/molecular_coordination.csv`` lists the
+    compound (AlCl3 6, a layer lattice; HgCl2 2+4); that of the ligands alone
+    for carbon and nitrogen centres (multiple bonds, no bridges: CO2); 6 for
+    a d- or f-block pentahalide (bridged dimers and tetramers: NbBr5); else
+    the radius-ratio rule. ``bond_strength`` is Pauling's ``z / CN`` when a
+    site is open. Without one centre (organic molecules, chains of like
+    atoms) sigma is 1 and ``tau`` counts carbon atoms beyond the second (a
+    rough chain), both said in ``basis``. None when the composition is empty.
+
+    Examples
+    --------
+    >>> from dataclasses import replace
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> m = molecular_terms(replace(decompose(parse_formula("AlCl3")), cations=(), anions=()))
+    >>> m.symmetry_number, m.open_sites, m.bond_strength
+    (6.0, 3, 0.5)
     """
     comp = [(s, n) for s, n in dec.composition if n > 0]
     if not comp:
@@ -289,11 +374,27 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         lone_pairs = max(int(valence - state) // 2, 0)
     n = int(n_lig)
     sigma = _shape_symmetry_number(lone_pairs, [k for _, k in ligands])
-    cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
+    if n == 2 and lone_pairs in (0, 3):  # linear: a cylinder, or a cone with mixed ligands
+        sigma = _LINEAR_SIGMA / (2.0 if len(ligands) > 1 else 1.0)
+    measured = _measured_coordination().get(_reduced_key(comp))
+    if measured is not None:
+        cn, how = measured[0], "measured in the solid (scorer/data/molecular_coordination.csv)"
+    else:
+        cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
+        how = "radius-ratio"
+        if element.period == 2 and element.group is not None and element.group >= 14:
+            # carbon and nitrogen keep their ligands by multiple bonds and take no bridges (CO2, CS2;
+            # the first-row anomaly, common practice): no open site
+            cn, how = n + lone_pairs, "a first-row centre keeps its own ligands"
+        elif n == 5 and lone_pairs == 0 and element.block in ("d", "f") and cn < 6:
+            # a d- or f-block pentahalide completes its octahedron through two halide bridges,
+            # (NbCl5)2, (MoCl5)2, (TaF5)4 (Greenwood & Earnshaw, 2nd ed., 1997, ch. 22; from memory)
+            cn, how = 6, "octahedral, a d/f-block pentahalide bridged into dimers or tetramers"
     open_sites = max(cn - n - lone_pairs, 0)
+    strength = pauling_bond_strength(state, cn) if open_sites else 0.0
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
-                          f" radius-ratio coordination {cn or 'unknown'}")
+                          f" coordination {cn or 'unknown'} ({how})", strength)
 
 
 def ion_symmetry_number(ion) -> float:

@@ -69,7 +69,8 @@ def _log_errors(rows, weights) -> float:
     total = 0.0
     for m, measured in rows:
         entropy = melting_routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-        cohesion = melting_routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, weights)
+        cohesion = melting_routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength,
+                                                           weights)
         total += math.log(melting_routes.molecular_melting_K(cohesion, entropy) / measured) ** 2
     return total
 
@@ -90,6 +91,6 @@ def test_validation_tetrachlorides_melt_where_walden_and_dispersion_put_them():
         m = melting_routes.molecular_terms(decompose(parse_formula(formula)))
         entropy = melting_routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
         cohesion = melting_routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites,
-                                                           melting.TREND_WEIGHTS)
+                                                           m.bond_strength, melting.TREND_WEIGHTS)
         ratio = melting_routes.molecular_melting_K(cohesion, entropy) / chemicals.Tm(cas)
         assert 1 / 1.2 < ratio < 1.2
