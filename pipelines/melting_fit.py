@@ -9,7 +9,8 @@ What it does
    of every training formula, the same function prediction and the
    scikit-learn transformer use.
 3. **The regression** is a scikit-learn pipeline (histogram gradient boosting
-   on log melting point, :func:`make_melting_pipeline`). It is cross-validated with
+   on log melting point, :func:`make_melting_pipeline`) fitted on what the trend
+   index leaves over (:class:`IndexOffsetRegressor`). It is cross-validated with
    :class:`sklearn.model_selection.GroupKFold`, once grouped by anion family
    and once by cation element so near-duplicates (NaCl/NaBr, the K and Rb
    salts of one anion) never sit on both sides of a split, and compared with two
@@ -68,6 +69,7 @@ __all__ = [
     "FitReport",
     "feature_matrix",
     "make_melting_pipeline",
+    "IndexOffsetRegressor",
     "balanced_weights",
     "prepare_training",
     "grouped_cross_validation",

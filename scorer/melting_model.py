@@ -67,7 +67,8 @@ MODEL_COLUMNS: tuple[Column, ...] = (
     Column(
         "mp_predicted_K", "float64", "K",
         "melting point predicted by the model given with --mp-model (ionicity fit-melting); " + CAUTION,
-        "gradient-boosted trees on log melting point over ionicity's own columns (MODEL_FEATURES)",
+        "gradient-boosted trees on log melting point over ionicity's own columns (MODEL_FEATURES),"
+        " on top of ln 10 * mp_trend_index when the model file has an offset",
         "the model file's training data; see its metadata",
     ),
     Column(
