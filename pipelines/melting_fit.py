@@ -288,7 +288,7 @@ def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: f
 
 def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, coverage: float = 0.9,
                              calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
-                             progress=None) -> dict:
+                             progress=None, features_for_fold=None) -> dict:
     """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
 
     In every fold the training part is split once more: the model is fitted
@@ -317,6 +317,12 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         Mondrian (a half-width per group) and coverage is counted per group.
     progress : callable, optional
         Hears about every fold.
+    features_for_fold : callable, optional
+        Called with the set of group labels a fold holds out; returns the
+        feature matrix (same rows and columns as ``x``) to fit and predict that
+        fold with, for measurements that refit part of the features without
+        the held-out groups (``python -m ionicity.pipelines.melting_cv
+        --refit-organic-weights``).
 
     Returns
     -------
@@ -349,11 +355,12 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
         proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
         proper, calib = train[proper], train[calib]
-        pipe, used = _fit_pipeline(x[proper], y_K[proper], seed, labels[proper])
-        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(x[calib][:, used])),
+        xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
+        pipe, used = _fit_pipeline(xf[proper], y_K[proper], seed, labels[proper])
+        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used])),
                                          labels[calib], coverage)
         q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
-        pred = pipe.predict(x[test][:, used])
+        pred = pipe.predict(xf[test][:, used])
         oof[test] = pred
         inside[test] = np.abs(np.log(y_K[test]) - np.log(pred)) <= q
         width[test] = pred * (np.exp(q) - np.exp(-q))
