@@ -14,6 +14,15 @@ families: imidazolium, pyrrolidinium, ammonium-quaternary...) and prints:
 * that MAE per held-out family;
 * conformal coverage and mean width per interval group.
 
+``--refit-organic-weights`` makes the measurement clean of the trend index's
+own calibration: the three organic weights of ``TREND_WEIGHTS`` (``flexibility``,
+``delocalised``, ``protic``) are fitted on the ``calibration`` rows of
+``datasets/melting/ionic_liquids.csv``, which belong to the cation families
+held out here; with the option each fold refits them
+(:func:`pipelines.melting_weights.fit_organic_weights`) without the calibration
+rows of the families it holds out, and scores every row again with those
+weights before fitting. Only with ``--scheme cation_family``.
+
 It skips the minute spent rebuilding the open data set, so it is the command
 to rerun after a change to the trend index or to the features (the trend index
 is one of the regression's features). Progress goes to stderr. Nothing here is
@@ -25,11 +34,23 @@ from __future__ import annotations
 import argparse
 import csv
 import sys
+from contextlib import contextmanager
 
 from ionicity.pipelines.melting_cli import require_extra
-from ionicity.pipelines.melting_fit import CV_SCHEMES, _lattice_energy, grouped_cross_validation, prepare_training
+from ionicity.pipelines.melting_fit import (
+    CV_SCHEMES,
+    _lattice_energy,
+    feature_matrix,
+    grouped_cross_validation,
+    prepare_training,
+)
+from ionicity.pipelines.melting_screen import cation_family
+from ionicity.scorer import melting
+from ionicity.scorer.caching import clear_all
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
 
-__all__ = ["read_training_table", "held_out_report", "report_text", "main"]
+__all__ = ["read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
 
 
 def read_training_table(path) -> list[dict]:
@@ -50,19 +71,63 @@ def read_training_table(path) -> list[dict]:
     return rows
 
 
+@contextmanager
+def trend_weights(weights: dict):
+    """Score with some entries of ``TREND_WEIGHTS`` replaced; every per-input cache is emptied
+    on the way in and out (as ``tests/perturb_trend_weights.py`` does), so no record of the
+    other weights survives."""
+    saved = dict(melting.TREND_WEIGHTS)
+    try:
+        melting.TREND_WEIGHTS.update(weights)
+        clear_all()
+        yield
+    finally:
+        melting.TREND_WEIGHTS.clear()
+        melting.TREND_WEIGHTS.update(saved)
+        clear_all()
+
+
+def organic_weights_without(families, progress=None) -> dict:
+    """The organic weights refitted on the calibration rows of ``ionic_liquids.csv`` outside ``families``."""
+    from ionicity.pipelines import melting_weights  # needs scipy (the melting extra), checked by the caller
+
+    rows = melting_weights.organic_rows([])
+    kept = [r for r in rows if not (r[0] == "calibration" and cation_family(decompose(parse_formula(r[3]))) in families)]
+    weights = melting_weights.fit_organic_weights(kept)
+    if progress:
+        progress(f"  organic weights without {', '.join(sorted(families)) or 'no family'}"
+                 f" ({len(rows) - len(kept)} calibration rows left out): "
+                 + ", ".join(f"{k} {v:.3f}" for k, v in weights.items()))
+    return weights
+
+
 def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, coverage: float = 0.9,
-                    seed: int = 0, progress=None) -> dict:
+                    seed: int = 0, progress=None, refit_organic_weights: bool = False) -> dict:
     """The grouped cross-validation of the melting regression on ``rows``, grouped by ``scheme``.
+
+    With ``refit_organic_weights`` (scheme ``cation_family`` only) each fold
+    refits the trend index's organic weights without the calibration rows of
+    the families it holds out (:func:`organic_weights_without`) and scores
+    every row again with them.
 
     Returns the dict of :func:`pipelines.melting_fit.grouped_cross_validation`
     (without the out-of-fold predictions).
     """
     if scheme not in CV_SCHEMES:
         raise ValueError(f"scheme {scheme!r} is not one of {', '.join(CV_SCHEMES)}")
+    if refit_organic_weights and scheme != "cation_family":
+        raise ValueError("refitting the organic weights per fold needs the scheme cation_family")
     require_extra("sklearn")
+    require_extra("scipy")
     rows, records, x, y, labels = prepare_training(rows, progress=progress)
+
+    def fold_features(held_out):
+        with trend_weights(organic_weights_without(held_out, progress)):
+            return feature_matrix(rows)[0]
+
     result = grouped_cross_validation(x, y, [row[scheme] for row in rows], _lattice_energy(records), folds=folds,
-                                      coverage=coverage, seed=seed, interval_groups=labels, progress=progress)
+                                      coverage=coverage, seed=seed, interval_groups=labels, progress=progress,
+                                      features_for_fold=fold_features if refit_organic_weights else None)
     result.pop("oof_predictions_K")
     return result
 
@@ -92,12 +157,14 @@ def main(argv=None) -> int:
     parser.add_argument("--folds", type=int, default=5, help="grouped folds (default: 5)")
     parser.add_argument("--coverage", type=float, default=0.9, help="interval coverage (default: 0.9)")
     parser.add_argument("--seed", type=int, default=0)
+    parser.add_argument("--refit-organic-weights", action="store_true",
+                        help="refit the trend index's organic weights in each fold without the held-out families")
     args = parser.parse_args(argv)
     say = lambda text: print(f"melting_cv: {text}", file=sys.stderr)  # noqa: E731
     try:
         rows = read_training_table(args.table)
         result = held_out_report(rows, scheme=args.scheme, folds=args.folds, coverage=args.coverage,
-                                 seed=args.seed, progress=say)
+                                 seed=args.seed, progress=say, refit_organic_weights=args.refit_organic_weights)
     except (OSError, ValueError) as exc:
         print(f"melting_cv: error: {exc}", file=sys.stderr)
         return 2

@@ -35,12 +35,14 @@ from ionicity.pipelines.melting_screen import (
 )
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
+from ionicity.scorer.name_reader import read_name
 from ionicity.scorer.record import normalized_formula
 
 __all__ = [
     "MEASURED_SOURCES",
     "TrainingSet",
     "build_open_training_set",
+    "reading_from_name",
     "read_user_table",
     "combine_training_sets",
 ]
@@ -115,6 +117,46 @@ def _chemicals_tables(sources=MEASURED_SOURCES):
     return values, names, getattr(chemicals, "__version__", "unknown")
 
 
+def reading_from_name(comp, names):
+    """(composition, decomposition) of a salt read from one of its names, or None.
+
+    For carbon-containing entries whose formula the ion solver does not read
+    as a salt of whole, unambiguous ions: organic salts written flat, whose cation the
+    formula alone cannot tell apart from an isomer (C4H12ClN: tetramethylammonium
+    or butylammonium chloride), or whose ion pair the organic reading does not
+    split (C7H11F3N2O3S, 1-ethyl-3-methylimidazolium triflate). A name that
+    :func:`scorer.name_reader.read_name` reads to the same elements in the same
+    counts, and whose reading passes :func:`screen_salt` (name check included),
+    settles it; a hydrate name, or a name of another compound, does not.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> comp, dec = reading_from_name(parse_formula("C4H12ClN"), ["tetramethylammonium chloride"])
+    >>> [t.ion.label for t in dec.cations], dec.substance_class
+    (['[N1111]'], 'ionic_liquid_pair')
+    >>> reading_from_name(parse_formula("C4H12ClN"), ["butylamine"]) is None
+    True
+    """
+    counts = comp.as_dict()
+    if comp.charge or "C" not in counts:
+        # inorganic formulas are read well as written; a formula with a net charge
+        # (``NaO2+`` in the identifier table) is a bookkeeping slip, not a salt
+        return None
+    for name in names:
+        text = read_name(name)
+        if not text:
+            continue
+        try:
+            named = parse_formula(text)
+        except FormulaError:
+            continue
+        if named.as_dict() != counts:
+            continue
+        dec = decompose(named)
+        if screen_salt(dec, name)[0]:
+            return named, dec
+    return None
+
+
 @dataclass
 class TrainingSet:
     """Rows kept for training (one per distinct normalized formula) and the decision log."""
@@ -184,13 +226,18 @@ def build_open_training_set(
         except FormulaError as exc:
             decisions.append({**entry, "kept": False, "reason": f"formula not parsed: {exc}"})
             continue
-        dec = decompose(comp)
+        dec, named = decompose(comp), None
         verdicts = [screen_salt(dec, n) for n in names] or [(False, "no name")]
         ok = any(v[0] for v in verdicts)
         if not ok:
-            decisions.append({**entry, "kept": False, "reason": verdicts[0][1]})
-            continue
+            named = reading_from_name(comp, names)
+            if named is None:
+                decisions.append({**entry, "kept": False, "reason": verdicts[0][1]})
+                continue
+            comp, dec = named
         value, how = consensus_melting_point_K(values[cas], tolerance_K)
+        if named is not None and not math.isnan(value):
+            how = f"ions read from the name ({verdicts[0][1]} as a formula); {how}"
         if math.isnan(value):
             decisions.append({**entry, "kept": False, "reason": how})
             continue

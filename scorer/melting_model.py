@@ -67,7 +67,8 @@ MODEL_COLUMNS: tuple[Column, ...] = (
     Column(
         "mp_predicted_K", "float64", "K",
         "melting point predicted by the model given with --mp-model (ionicity fit-melting); " + CAUTION,
-        "gradient-boosted trees on log melting point over ionicity's own columns (MODEL_FEATURES)",
+        "gradient-boosted trees on log melting point over ionicity's own columns (MODEL_FEATURES),"
+        " on top of ln 10 * mp_trend_index when the model file has an offset",
         "the model file's training data; see its metadata",
     ),
     Column(
@@ -226,7 +227,8 @@ def features_for_formula(text) -> tuple[dict, np.ndarray]:
 
 
 def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
-    """Sum of tree outputs plus baseline for rows of ``x`` (columns in ``model.features`` order)."""
+    """Sum of tree outputs plus baseline, plus the offset if the model has one, for rows of ``x``
+    (columns in ``model.features`` order)."""
     n = x.shape[0]
     total = np.full(n, model.baseline, dtype=float)
     rows = np.arange(n)
@@ -242,6 +244,9 @@ def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
             go_left = np.where(np.isnan(v), missing_left[node], v <= threshold[node])
             node = np.where(active, np.where(go_left, left[node], right[node]), node)
         total += value[node]
+    if model.offset_position >= 0:
+        # NaN where the compound has no trend index: the trees only correct the index
+        total += model.offset_scale * x[:, model.offset_position]
     return total
 
 

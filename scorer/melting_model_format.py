@@ -17,6 +17,7 @@ __all__ = [
     "MODEL_FORMAT",
     "MODEL_FORMAT_VERSION",
     "INTERVAL_GROUPS",
+    "OFFSET_FEATURES",
     "MeltingModel",
     "ModelFormatError",
     "model_from_dict",
@@ -73,11 +74,15 @@ MODEL_FORMAT_VERSION = 1
 MODEL_TYPES = ("gradient_boosted_trees",)
 _TOP_KEYS = frozenset({
     "format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain",
-    "training", "metrics", "caution",
+    "training", "metrics", "caution", "offset",
 })
 _REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
 _TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
 _INTERVAL_KEYS = frozenset({"method", "coverage", "log_halfwidth", "group_log_halfwidths", "calibration_rows"})
+# optional: ln T = scale * feature + baseline + trees; the trees then fit what the trend index
+# (log10 of a temperature, so scale ln 10) leaves over; files without it have no offset
+_OFFSET_KEYS = frozenset({"feature", "scale"})
+OFFSET_FEATURES = ("mp_trend_index",)
 _DOMAIN_KEYS = frozenset({"feature_min", "feature_max", "target_min_K", "target_max_K", "substance_classes"})
 # Bounds on what applying a model may cost. fit-melting writes 200 trees of at
 # most 13 nodes (max_leaf_nodes=7), depth at most 6: 2,600 nodes. Walking the
@@ -114,6 +119,9 @@ class MeltingModel:
     group_log_halfwidths: tuple[tuple[str, float], ...] = ()
     target_min_K: float = math.nan
     target_max_K: float = math.nan
+    # the offset (key 'offset'): position of its feature in ``features`` (-1: none) and its scale
+    offset_position: int = -1
+    offset_scale: float = 0.0
 
     @property
     def feature_indices(self) -> np.ndarray:
@@ -275,6 +283,7 @@ def model_from_dict(document) -> MeltingModel:
     classes = domain.get("substance_classes", [])
     _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),
           "'domain.substance_classes' must be a list of strings")
+    offset_position, offset_scale = _offset(document.get("offset"), features)
     for key in ("training", "metrics"):
         _need(_plain_json(document.get(key, {})), f"'{key}' must hold plain JSON values only")
     return MeltingModel(
@@ -290,7 +299,24 @@ def model_from_dict(document) -> MeltingModel:
         group_log_halfwidths=tuple(sorted((g, float(v)) for g, v in groups.items())),
         target_min_K=float(target[0]),
         target_max_K=float(target[1]),
+        offset_position=offset_position,
+        offset_scale=offset_scale,
     )
+
+
+def _offset(offset, features) -> tuple[int, float]:
+    """(position in ``features``, scale) of a document's ``offset`` object; (-1, 0.0) without one."""
+    if offset is None:
+        return -1, 0.0
+    _need(isinstance(offset, dict), "'offset' must be an object")
+    unknown = sorted(set(offset) - _OFFSET_KEYS)
+    _need(not unknown, f"unexpected keys in 'offset': {unknown}; allowed: {sorted(_OFFSET_KEYS)}")
+    _need(set(offset) == _OFFSET_KEYS, f"'offset' must have the keys {sorted(_OFFSET_KEYS)}")
+    feature, scale = offset["feature"], offset["scale"]
+    _need(feature in OFFSET_FEATURES and feature in features,
+          f"'offset.feature' must be one of {', '.join(OFFSET_FEATURES)} and listed in 'features'")
+    _need(_finite(scale) and 0 < scale <= 10, "'offset.scale' must be a number above 0 and at most 10")
+    return features.index(feature), float(scale)
 
 
 def model_to_dict(model: MeltingModel) -> dict:

@@ -83,6 +83,15 @@ def test_the_attack_document_is_valid_before_each_change(tmp_path):
     (lambda d: d.update(trees=[_chain(33)]), "tree 0 is 33 levels deep; the limit is 32"),
     (lambda d: d.update(trees=[_stump()] * 1001), "'trees' must be a list of 1 to 1000 trees"),
     (lambda d: d["trees"][0].update(value=[]), "at least one node"),
+    # the optional offset (ln T = scale * mp_trend_index + baseline + trees): an extra key,
+    # a missing key, a feature that is not the index or not listed, a scale out of bounds
+    (lambda d: d.update(offset={"feature": "mp_trend_index", "scale": 2.3, "payload": "x"}),
+     "unexpected keys in 'offset': \\['payload'\\]"),
+    (lambda d: d.update(offset={"feature": "mp_trend_index"}), "'offset' must have the keys"),
+    (lambda d: d.update(offset={"feature": "delta_chi_pauling", "scale": 2.3}), "'offset.feature' must be one of"),
+    (lambda d: d.update(offset={"feature": "mp_trend_index", "scale": 1e300}), "'offset.scale' must be a number"),
+    (lambda d: d.update(offset={"feature": "mp_trend_index", "scale": True}), "'offset.scale' must be a number"),
+    (lambda d: d.update(offset=["mp_trend_index", 2.3]), "'offset' must be an object"),
 ])
 def test_attack_model_layout_is_checked_everywhere(tmp_path, capsys, change, message):
     document = copy.deepcopy(_document())
@@ -91,6 +100,15 @@ def test_attack_model_layout_is_checked_everywhere(tmp_path, capsys, change, mes
     with pytest.raises(ModelFormatError, match=message):
         load_model(path)
     assert str(path) in _refused_by_the_cli(tmp_path, capsys, path)
+
+
+def test_a_model_with_an_offset_loads_and_one_without_the_feature_is_refused(tmp_path):
+    document = _document()
+    document["offset"] = {"feature": "mp_trend_index", "scale": math.log(10.0)}
+    assert load_model(_write(tmp_path, json.dumps(document))).offset_position == 0
+    document["features"] = ["delta_chi_pauling"]
+    with pytest.raises(ModelFormatError, match="listed in 'features'"):
+        load_model(_write(tmp_path, json.dumps(document)))
 
 
 def test_the_deepest_and_largest_trees_allowed_still_load(tmp_path):

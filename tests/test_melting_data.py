@@ -98,6 +98,30 @@ def test_open_builder_on_a_few_cas_numbers():
 
 
 @needs_extra
+def test_open_builder_reads_flat_organic_salts_from_their_names():
+    # formulas as the chemicals identifier table writes them: C4H12ClN is tetramethylammonium or
+    # butylammonium chloride (ambiguous alone), C7H11F3N2O3S an ion pair the solver does not split;
+    # their names settle both. Expected ions from the names (IUPAC nomenclature, common practice).
+    cas = ["75-57-0", "145022-44-2"]
+    data = melting_data.build_open_training_set(cas_numbers=cas)
+    kept = {r["cas"]: r for r in data.rows}
+    assert kept["75-57-0"]["formula_normalized"] == "[N1111]Cl"
+    assert kept["145022-44-2"]["formula_normalized"] == "[C2mim][OTf]"
+    assert all("ions read from the name" in r["decision"] for r in data.rows)
+    # 1-ethyl-3-methylimidazolium triflate: -9 C (Bonhote et al., Inorg. Chem. 1996, 35, 1168; from memory)
+    assert kept["145022-44-2"]["mp_K"] == pytest.approx(264, abs=5)
+
+
+def test_a_name_of_another_compound_or_a_hydrate_does_not_rescue_a_formula():
+    from ionicity.scorer.formula import parse_formula
+
+    flat = parse_formula("C4H12ClN")
+    assert melting_data.reading_from_name(flat, ["butylamine hydrochloride hydrate"]) is None
+    assert melting_data.reading_from_name(flat, ["tetraethylammonium chloride"]) is None  # C8H20ClN
+    assert melting_data.reading_from_name(parse_formula("NaCl"), ["sodium chloride"]) is None  # inorganic: as written
+
+
+@needs_extra
 @pytest.mark.slow
 def test_calibration_trend_index_ranks_the_open_training_set():
     # calibration: the inorganic weights were fitted on this set. The bar:

@@ -84,6 +84,36 @@ def test_exported_trees_predict_like_scikit_learn(fast_pipeline):
     assert np.allclose(ours, pipe.predict(x_test), rtol=1e-9)
 
 
+@needs_sklearn
+def test_the_offset_model_predicts_like_its_file(fast_pipeline):
+    # the regressor fits T / 10**index; the file's offset (scale ln 10 on mp_trend_index) puts it back
+    rng = np.random.default_rng(2)
+    x = rng.normal(size=(300, len(melting_model.MODEL_FEATURES)))
+    x[:, 0] = rng.uniform(2.2, 3.4, 300)  # mp_trend_index, log10 of a temperature
+    y = 10 ** x[:, 0] * np.exp(0.2 * x[:, 3])
+    regressor, used = mf._fit_pipeline(x, y, 0)
+    assert melting_model.MODEL_FEATURES[used[regressor.column]] == "mp_trend_index"
+    baseline, trees = trees_to_json(regressor.pipe.named_steps["regressor"].regressor_)
+    document = {
+        "format": melting_model.MODEL_FORMAT, "format_version": 1, "model_type": "gradient_boosted_trees",
+        "target": "ln_mp_K", "features": [melting_model.MODEL_FEATURES[j] for j in used], "baseline": baseline,
+        "trees": trees, "offset": {"feature": mf.OFFSET_FEATURE, "scale": mf.OFFSET_SCALE},
+        "interval": {"coverage": 0.9, "log_halfwidth": 0.1},
+        "domain": {"feature_min": [0.0] * len(used), "feature_max": [1.0] * len(used)},
+    }
+    model = melting_model.model_from_dict(json.loads(json.dumps(document)))
+    ours, _, _ = melting_model.predict_melting_K(model, x[:50])
+    assert np.allclose(ours, regressor.predict(x[:50][:, used]), rtol=1e-9)
+    # closed form: trees that add nothing leave exactly the index's temperature, 10**2.5 = 316.2 K
+    flat = {**document, "baseline": 0.0, "trees": [{"feature": [0], "threshold": [0.0], "left": [0], "right": [0],
+                                                    "missing_left": [0], "leaf": [1], "value": [0.0]}]}
+    row = np.full((1, len(melting_model.MODEL_FEATURES)), 1.0)
+    row[0, 0] = 2.5
+    assert melting_model.predict_melting_K(melting_model.model_from_dict(flat), row)[0][0] == pytest.approx(316.23, abs=0.01)
+    row[0, 0] = np.nan  # no trend index, no prediction
+    assert np.isnan(melting_model.predict_melting_K(melting_model.model_from_dict(flat), row)[0][0])
+
+
 # -------------------------------------------------------- fit, save, load, apply
 
 
