@@ -64,7 +64,11 @@ def score_batch(
     status_at, message_at = names.index("status"), names.index("message")
     cached = scorer.cache.arrays()
     # only the columns written are taken (with --columns, most of the rows' cost)
-    generated = {k: cached[k].take(rows) for k in keep if k < len(names)}
+    generated = scorer.cache.take(rows, [k for k in keep if k < len(names)])
+    normalized_at = names.index("formula_normalized")
+
+    def normalized() -> pa.Array:
+        return generated[normalized_at] if normalized_at in generated else cached[normalized_at].take(rows)
     if model is not None:
         distinct = ticket.distinct.to_pylist()
         indices = ticket.indices
@@ -80,12 +84,11 @@ def score_batch(
                 generated[len(names) + k] = array.take(indices)
     if first_rows is not None and names.index(FIRST_ROW_COLUMN) in keep:
         # the first row of each compound, known as batches stream past in input order
-        generated[names.index(FIRST_ROW_COLUMN)] = first_rows.column(cached[names.index("formula_normalized")].take(rows))
+        generated[names.index(FIRST_ROW_COLUMN)] = first_rows.column(normalized())
     if name_col is not None:
         row_names = batch.column(batch.schema.get_field_index(name_col))
         # names against formulas (name_formula, name_check; a mismatch is a warning), then failed rows labelled
-        checked = name_step_for(scorer.cache).columns(
-            cached[names.index("formula_normalized")].take(rows), row_names, generated[status_at], generated[message_at])
+        checked = name_step_for(scorer.cache).columns(normalized(), row_names, generated[status_at], generated[message_at])
         generated[status_at], generated[message_at] = checked[2], checked[3]
         name_columns = [checked[0], checked[1]]
         generated[message_at] = label_failed_rows(generated[status_at], generated[message_at], row_names)
