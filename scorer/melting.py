@@ -196,6 +196,22 @@ def is_hydrogen_bonded_anion(ion: Ion) -> bool:
     return not ion.organic and ion.charge < 0 and "H" in comp and len(comp) > 1
 
 
+def is_hard_donor_anion(ion: Ion) -> bool:
+    """An inorganic anion that binds through oxygen or fluorine: O2-, F- or an oxo/fluoro anion (SO4 2-, BF4-).
+
+    Beside an 18 or 18+2 electron cation (Zn2+, Sn4+, Ag+) the covalency of
+    Fajans' third rule goes with soft, polarisable anions (ZnI2, SnCl4 come
+    apart low) and much less with hard O and F donors (ZnO, SnO2 are
+    refractory): Pearson's hard and soft acids and bases, J. Am. Chem. Soc.
+    1963, 85, 3533 (from memory).
+
+    >>> is_hard_donor_anion(get_ion("O(2-)")), is_hard_donor_anion(get_ion("SO4(2-)")), is_hard_donor_anion(get_ion("Cl(-)"))
+    (True, True, False)
+    """
+    comp = dict(ion.composition)
+    return not ion.organic and ion.charge < 0 and ("O" in comp or "F" in comp)
+
+
 @dataclass(frozen=True)
 class MeltingTerms:
     """The inputs of :func:`melting_trend_index` for one compound, with their origins."""
@@ -216,6 +232,10 @@ class MeltingTerms:
     framework_oxoanion_fraction: float = 0.0
     protic_fraction: float = 0.0
     hydrogen_bonded_anion_fraction: float = 0.0
+    anion_symmetry_log10: float = 0.0
+    hydride_fraction: float = 0.0
+    hard_anion_fraction: float = 0.0
+    delta_chi_pauling: float = math.nan
     notes: tuple[str, ...] = ()
 
     @property
@@ -228,7 +248,8 @@ class MeltingTerms:
             self.pseudo_noble_gas, self.polyatomic_anion_fraction, self.ions_per_formula_unit,
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
-            self.protic_fraction, self.hydrogen_bonded_anion_fraction,
+            self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
+            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
         )
 
 
@@ -283,7 +304,7 @@ def _gather_terms(
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))
     anion_total = sum(t.count for t in dec.anions)
-    poly = sum(t.count for t in dec.anions if not t.ion.monatomic) / anion_total if anion_total else 0.0
+    poly = sum(t.count for t in dec.anions if not t.ion.monatomic and not t.ion.organic) / anion_total if anion_total else 0.0
     flex = 0.0
     pack = 0.0
     deloc = 0.0
@@ -331,6 +352,13 @@ def _gather_terms(
             sum(t.count for t in dec.anions if is_framework_oxoanion(t.ion)) / anion_total if anion_total else 0.0),
         hydrogen_bonded_anion_fraction=(
             sum(t.count for t in dec.anions if is_hydrogen_bonded_anion(t.ion)) / anion_total if anion_total else 0.0),
+        # beside free-rotating organic cations the symmetry is in the Dannenfelser-Yalkowsky entropy already
+        anion_symmetry_log10=0.0 if free_rotors else (
+            sum(t.count * math.log10(routes.ion_symmetry_number(t.ion)) for t in dec.anions if not t.ion.monatomic)
+            / anion_total if anion_total else 0.0),
+        hydride_fraction=sum(t.count for t in dec.anions if t.ion.ion_id == "H(-)") / anion_total if anion_total else 0.0,
+        hard_anion_fraction=sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0,
+        delta_chi_pauling=float(bond.delta_chi_pauling),
         notes=tuple(notes),
     )
 
