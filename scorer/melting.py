@@ -196,6 +196,18 @@ def is_hydrogen_bonded_anion(ion: Ion) -> bool:
     return not ion.organic and ion.charge < 0 and "H" in comp and len(comp) > 1
 
 
+def anion_symmetry_number(ion: Ion) -> float:
+    """Rotational symmetry number of a polyatomic anion: ``scorer/data/ion_shape.csv`` for organic
+    and tabulated ions, else the VSEPR shape of :func:`scorer.melting_routes.ion_symmetry_number`.
+
+    >>> anion_symmetry_number(get_ion("SO4(2-)")), anion_symmetry_number(get_ion("SCN(-)"))
+    (12.0, 1.0)
+    """
+    if ion.organic or ion.ion_id in _shape_table():
+        return ion_shape(ion)[1]
+    return routes.ion_symmetry_number(ion)
+
+
 def is_hard_donor_anion(ion: Ion) -> bool:
     """An inorganic anion that binds through oxygen or fluorine: O2-, F- or an oxo/fluoro anion (SO4 2-, BF4-).
 
@@ -304,7 +316,7 @@ def _gather_terms(
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))
     anion_total = sum(t.count for t in dec.anions)
-    poly = sum(t.count for t in dec.anions if not t.ion.monatomic and not t.ion.organic) / anion_total if anion_total else 0.0
+    poly = sum(t.count for t in dec.anions if not t.ion.monatomic) / anion_total if anion_total else 0.0
     flex = 0.0
     pack = 0.0
     deloc = 0.0
@@ -354,7 +366,7 @@ def _gather_terms(
             sum(t.count for t in dec.anions if is_hydrogen_bonded_anion(t.ion)) / anion_total if anion_total else 0.0),
         # beside free-rotating organic cations the symmetry is in the Dannenfelser-Yalkowsky entropy already
         anion_symmetry_log10=0.0 if free_rotors else (
-            sum(t.count * math.log10(routes.ion_symmetry_number(t.ion)) for t in dec.anions if not t.ion.monatomic)
+            sum(t.count * math.log10(anion_symmetry_number(t.ion)) for t in dec.anions if not t.ion.monatomic)
             / anion_total if anion_total else 0.0),
         hydride_fraction=sum(t.count for t in dec.anions if t.ion.ion_id == "H(-)") / anion_total if anion_total else 0.0,
         hard_anion_fraction=sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0,

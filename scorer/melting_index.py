@@ -57,7 +57,7 @@ TREND_WEIGHTS: dict[str, float] = {
     "polyatomic_anion": 0.313,
     "ions_per_formula_unit": 0.227,
     "entropy_per_ion_J_mol_K": 12.5,  # NaCl: dS_fus 26 J/(mol K) over 2 ions (CRC Handbook, from memory)
-    "flexibility": 0.088,
+    "flexibility": 0.089,
     "chain_melting_K": 414.6,  # polyethylene, the long-chain limit (Wunderlich 1980, from memory)
     "packing_free_torsions": 4.5,  # tau of a hexyl chain: longer chains pack
     "delocalised": 0.288,
@@ -66,7 +66,7 @@ TREND_WEIGHTS: dict[str, float] = {
     "trivalent_anion": 0.217,
     "high_charge_cation": 0.122,
     "framework_oxoanion": 0.143,
-    "protic": 0.101,
+    "protic": 0.1,
     # anions that carry hydrogen (HF2-, HSO4-, OH-): hydrogen bonds between the anions
     "hydrogen_bonded_anion": 0.045,
     "cohesion_curvature": 0.167,
@@ -235,15 +235,15 @@ def melting_trend_index(
     The intercept and the inorganic weights come from the least-squares fit
     described in the module docstring, not from one reference salt: NaCl
     (u = 381 kJ/mol per ion from its volume-based 762 kJ/mol, contact chi
-    2.045, contact index 0.131) lands at 2.944, a trend temperature of 879 K,
-    against 1074 K measured (CRC Handbook, from memory).
+    2.045, contact index 0.131, delta chi left at its reference) lands at 3.002, a trend
+    temperature of 1004 K, against 1074 K measured (CRC Handbook, from memory).
 
     Examples
     --------
     >>> round(melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2), 3)
-    2.944
+    3.002
     >>> round(float(10 ** melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2)))
-    879
+    1004
     """
     w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
     u = np.asarray(lattice_energy_per_ion_kJ_mol, dtype=float)
