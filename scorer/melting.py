@@ -40,7 +40,11 @@ each factor replaced by what the other scoring modules know
 Further salt terms: nitrides (a small triply charged anion), high-valent
 cations (``(z_max - 3)+``: Ti4+, Cr6+ form molecules, chains and layers),
 framework oxoanions (AlO2-, BO2-, PO3-: corner-sharing chains that melt like
-oxides) and protic ammonium cations ([EtNH3]+). A delocalised anion beside a
+oxides), protic ammonium cations ([EtNH3]+), the anion's rotational symmetry
+(Carnelley's rule: ClO4- above NO3- above SCN-), hydride anions, an
+18/18+2-electron cation beside O or F donors (its covalency penalty partly
+given back: ZnO, SnO2 are refractory), the electronegativity difference (the
+second van Arkel-Ketelaar coordinate) and a curvature of the cohesion term. A delocalised anion beside a
 small hard inorganic cation (LiTFSI) does not count as delocalised. Lone-pair
 cations with no Shannon radius take a stand-in's for the lattice energy
 (:mod:`scorer.melting_stand_in`: Sn2+ takes Pb2+'s; other cations one of the same
@@ -477,6 +481,13 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
         f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions with organic counter-ions"
         f" {terms.delocalised_fraction:.2f}",
+        f"  cohesion curvature: +{w['cohesion_curvature']} * log10(u / {w['reference_energy_per_ion_kJ_mol']:g})**2;"
+        f" ionicity: +{w['contact_delta_chi']} * (delta chi {fmt(terms.delta_chi_pauling, '.3f')}"
+        f" - {w['reference_delta_chi']})",
+        f"  anion symmetry (Carnelley): +{w['anion_symmetry']} * mean log10 sigma {terms.anion_symmetry_log10:.3f};"
+        f" hydride: -{w['hydride_anion']} * share of H- {terms.hydride_fraction:.2f};"
+        f" 18/18+2-electron cation beside O/F donors: +{w['pseudo_noble_gas_hard_anion']} * their share"
+        f" {terms.hard_anion_fraction:.2f}{'' if terms.pseudo_noble_gas else ' (no such cation: 0)'}",
     )
 
 
