@@ -125,7 +125,7 @@ def salt_rows(training_rows):
 
 
 def fit_salt_weights(rows) -> dict[str, float]:
-    """Least squares of log10 T_m on the calibration rows, then the spread matched: the intercept and the SALT_FEATURES weights.
+    """The intercept and the SALT_FEATURES weights: least squares of log10 T_m on the calibration rows, spread matched.
 
     Least squares shrinks the fitted values toward the mean by the correlation
     (Galton's regression to the mean): with rho about 0.85 the refractory
@@ -272,7 +272,7 @@ def evaluate(salts, molecules, organics=None) -> dict:
 
 
 def coverage_and_refractory(training_rows, held_out_only=True) -> dict:
-    """Validation salts of the open set (its validation half, outside the CC0 fixture), each scored as a user's row would be.
+    """Validation salts of the open set (its held-out half, outside the CC0 fixture), scored as a user's rows are.
 
     ``held_out_only=False``: every row outside the fixture, the calibration half included (the figure
     quoted before the open set was halved).

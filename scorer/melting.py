@@ -92,6 +92,11 @@ from dataclasses import dataclass, replace
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
+from ionicity.scorer.melting_anions import (
+    is_framework_oxoanion,
+    is_hard_donor_anion,
+    is_hydrogen_bonded_anion,
+)
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.caution import CAUTION
@@ -169,37 +174,6 @@ def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
 
 
 ONIUM_FAMILIES = frozenset({"ammonium-quaternary", "phosphonium"})
-NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
-
-
-def is_framework_oxoanion(ion: Ion) -> bool:
-    """An oxoanion of one network-forming element with at most 3 O per central atom (chains, frameworks).
-
-    Metaborate, aluminate, metasilicate, metaphosphate, ferrite, titanate,
-    zirconate: in the solid they share oxygen corners (the O:X ratio below 4
-    says so), unlike the discrete SO4 2-, NO3- or ClO4- ions (common practice).
-
-    >>> is_framework_oxoanion(get_ion("AlO2(-)")), is_framework_oxoanion(get_ion("SO4(2-)"))
-    (True, False)
-    """
-    comp = dict(ion.composition)
-    others = [e for e in comp if e != "O"]
-    return (len(others) == 1 and others[0] in NETWORK_FORMERS and comp.get("O", 0) > 0
-            and comp["O"] / comp[others[0]] <= 3)
-
-
-def is_hydrogen_bonded_anion(ion: Ion) -> bool:
-    """An inorganic anion that carries hydrogen (HF2-, HSO4-, H2PO4-, OH-): it donates hydrogen bonds to its neighbours.
-
-    Hydride (H-) and organic anions do not count (common practice).
-
-    >>> is_hydrogen_bonded_anion(get_ion("HF2(-)")), is_hydrogen_bonded_anion(get_ion("SO4(2-)"))
-    (True, False)
-    """
-    comp = dict(ion.composition)
-    return not ion.organic and ion.charge < 0 and "H" in comp and len(comp) > 1
-
-
 def anion_symmetry_number(ion: Ion) -> float:
     """Rotational symmetry number of a polyatomic anion: ``scorer/data/ion_shape.csv`` for organic
     and tabulated ions, else the VSEPR shape of :func:`scorer.melting_routes.ion_symmetry_number`.
@@ -210,22 +184,6 @@ def anion_symmetry_number(ion: Ion) -> float:
     if ion.organic or ion.ion_id in _shape_table():
         return ion_shape(ion)[1]
     return routes.ion_symmetry_number(ion)
-
-
-def is_hard_donor_anion(ion: Ion) -> bool:
-    """An inorganic anion that binds through oxygen or fluorine: O2-, F- or an oxo/fluoro anion (SO4 2-, BF4-).
-
-    Beside an 18 or 18+2 electron cation (Zn2+, Sn4+, Ag+) the covalency of
-    Fajans' third rule goes with soft, polarisable anions (ZnI2, SnCl4 come
-    apart low) and much less with hard O and F donors (ZnO, SnO2 are
-    refractory): Pearson's hard and soft acids and bases, J. Am. Chem. Soc.
-    1963, 85, 3533 (from memory).
-
-    >>> is_hard_donor_anion(get_ion("O(2-)")), is_hard_donor_anion(get_ion("SO4(2-)")), is_hard_donor_anion(get_ion("Cl(-)"))
-    (True, True, False)
-    """
-    comp = dict(ion.composition)
-    return not ion.organic and ion.charge < 0 and ("O" in comp or "F" in comp)
 
 
 @dataclass(frozen=True)
@@ -372,8 +330,10 @@ def _gather_terms(
         anion_symmetry_log10=0.0 if free_rotors else (
             sum(t.count * math.log10(anion_symmetry_number(t.ion)) for t in dec.anions if not t.ion.monatomic)
             / anion_total if anion_total else 0.0),
-        hydride_fraction=sum(t.count for t in dec.anions if t.ion.ion_id == "H(-)") / anion_total if anion_total else 0.0,
-        hard_anion_fraction=sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0,
+        hydride_fraction=(
+            sum(t.count for t in dec.anions if t.ion.ion_id == "H(-)") / anion_total if anion_total else 0.0),
+        hard_anion_fraction=(
+            sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0),
         delta_chi_pauling=float(bond.delta_chi_pauling),
         notes=tuple(notes),
     )
