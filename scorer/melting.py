@@ -40,7 +40,11 @@ each factor replaced by what the other scoring modules know
 Further salt terms: nitrides (a small triply charged anion), high-valent
 cations (``(z_max - 3)+``: Ti4+, Cr6+ form molecules, chains and layers),
 framework oxoanions (AlO2-, BO2-, PO3-: corner-sharing chains that melt like
-oxides) and protic ammonium cations ([EtNH3]+). A delocalised anion beside a
+oxides), protic ammonium cations ([EtNH3]+), the anion's rotational symmetry
+(Carnelley's rule: ClO4- above NO3- above SCN-), hydride anions, an
+18/18+2-electron cation beside O or F donors (its covalency penalty partly
+given back: ZnO, SnO2 are refractory), the electronegativity difference (the
+second van Arkel-Ketelaar coordinate) and a curvature of the cohesion term. A delocalised anion beside a
 small hard inorganic cation (LiTFSI) does not count as delocalised. Lone-pair
 cations with no Shannon radius take a stand-in's for the lattice energy
 (:mod:`scorer.melting_stand_in`: Sn2+ takes Pb2+'s; other cations one of the same
@@ -88,6 +92,11 @@ from dataclasses import dataclass, replace
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
+from ionicity.scorer.melting_anions import (
+    is_framework_oxoanion,
+    is_hard_donor_anion,
+    is_hydrogen_bonded_anion,
+)
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.caution import CAUTION
@@ -165,35 +174,16 @@ def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
 
 
 ONIUM_FAMILIES = frozenset({"ammonium-quaternary", "phosphonium"})
-NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
+def anion_symmetry_number(ion: Ion) -> float:
+    """Rotational symmetry number of a polyatomic anion: ``scorer/data/ion_shape.csv`` for organic
+    and tabulated ions, else the VSEPR shape of :func:`scorer.melting_routes.ion_symmetry_number`.
 
-
-def is_framework_oxoanion(ion: Ion) -> bool:
-    """An oxoanion of one network-forming element with at most 3 O per central atom (chains, frameworks).
-
-    Metaborate, aluminate, metasilicate, metaphosphate, ferrite, titanate,
-    zirconate: in the solid they share oxygen corners (the O:X ratio below 4
-    says so), unlike the discrete SO4 2-, NO3- or ClO4- ions (common practice).
-
-    >>> is_framework_oxoanion(get_ion("AlO2(-)")), is_framework_oxoanion(get_ion("SO4(2-)"))
-    (True, False)
+    >>> anion_symmetry_number(get_ion("SO4(2-)")), anion_symmetry_number(get_ion("SCN(-)"))
+    (12.0, 1.0)
     """
-    comp = dict(ion.composition)
-    others = [e for e in comp if e != "O"]
-    return (len(others) == 1 and others[0] in NETWORK_FORMERS and comp.get("O", 0) > 0
-            and comp["O"] / comp[others[0]] <= 3)
-
-
-def is_hydrogen_bonded_anion(ion: Ion) -> bool:
-    """An inorganic anion that carries hydrogen (HF2-, HSO4-, H2PO4-, OH-): it donates hydrogen bonds to its neighbours.
-
-    Hydride (H-) and organic anions do not count (common practice).
-
-    >>> is_hydrogen_bonded_anion(get_ion("HF2(-)")), is_hydrogen_bonded_anion(get_ion("SO4(2-)"))
-    (True, False)
-    """
-    comp = dict(ion.composition)
-    return not ion.organic and ion.charge < 0 and "H" in comp and len(comp) > 1
+    if ion.organic or ion.ion_id in _shape_table():
+        return ion_shape(ion)[1]
+    return routes.ion_symmetry_number(ion)
 
 
 @dataclass(frozen=True)
@@ -216,6 +206,10 @@ class MeltingTerms:
     framework_oxoanion_fraction: float = 0.0
     protic_fraction: float = 0.0
     hydrogen_bonded_anion_fraction: float = 0.0
+    anion_symmetry_log10: float = 0.0
+    hydride_fraction: float = 0.0
+    hard_anion_fraction: float = 0.0
+    delta_chi_pauling: float = math.nan
     notes: tuple[str, ...] = ()
 
     @property
@@ -228,7 +222,8 @@ class MeltingTerms:
             self.pseudo_noble_gas, self.polyatomic_anion_fraction, self.ions_per_formula_unit,
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
-            self.protic_fraction, self.hydrogen_bonded_anion_fraction,
+            self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
+            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
         )
 
 
@@ -331,6 +326,15 @@ def _gather_terms(
             sum(t.count for t in dec.anions if is_framework_oxoanion(t.ion)) / anion_total if anion_total else 0.0),
         hydrogen_bonded_anion_fraction=(
             sum(t.count for t in dec.anions if is_hydrogen_bonded_anion(t.ion)) / anion_total if anion_total else 0.0),
+        # beside free-rotating organic cations the symmetry is in the Dannenfelser-Yalkowsky entropy already
+        anion_symmetry_log10=0.0 if free_rotors else (
+            sum(t.count * math.log10(anion_symmetry_number(t.ion)) for t in dec.anions if not t.ion.monatomic)
+            / anion_total if anion_total else 0.0),
+        hydride_fraction=(
+            sum(t.count for t in dec.anions if t.ion.ion_id == "H(-)") / anion_total if anion_total else 0.0),
+        hard_anion_fraction=(
+            sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0),
+        delta_chi_pauling=float(bond.delta_chi_pauling),
         notes=tuple(notes),
     )
 
@@ -437,6 +441,13 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" s0 = {w['entropy_per_ion_J_mol_K']} J/(mol K) per ion, T_PE = {w['chain_melting_K']} K)",
         f"  charge delocalisation: -{w['delocalised']} * share of delocalised ions with organic counter-ions"
         f" {terms.delocalised_fraction:.2f}",
+        f"  cohesion curvature: +{w['cohesion_curvature']} * log10(u / {w['reference_energy_per_ion_kJ_mol']:g})**2;"
+        f" ionicity: +{w['contact_delta_chi']} * (delta chi {fmt(terms.delta_chi_pauling, '.3f')}"
+        f" - {w['reference_delta_chi']})",
+        f"  anion symmetry (Carnelley): +{w['anion_symmetry']} * mean log10 sigma {terms.anion_symmetry_log10:.3f};"
+        f" hydride: -{w['hydride_anion']} * share of H- {terms.hydride_fraction:.2f};"
+        f" 18/18+2-electron cation beside O/F donors: +{w['pseudo_noble_gas_hard_anion']} * their share"
+        f" {terms.hard_anion_fraction:.2f}{'' if terms.pseudo_noble_gas else ' (no such cation: 0)'}",
     )
 
 

@@ -8,10 +8,11 @@ Calibration and validation are kept apart:
 
 * **calibration** checks use compounds the weights were fitted or set on, and
   check that the weights still do what they were set for. The inorganic weights
-  are a least-squares fit of log10 T_m over the open training set that
-  ``ionicity fit-melting`` builds from ``chemicals`` 1.5.2; 118 of the 140 salts of
-  ``datasets/melting/wikidata_salts.csv`` (the CC0 fixture) are in that set (114
-  with the same melting point within 20 K), so a check on the fixture is calibration.
+  are a least-squares fit of log10 T_m (spread matched) over the CC0 fixture
+  ``datasets/melting/wikidata_salts.csv`` and the calibration half of the open
+  training set that ``ionicity fit-melting`` builds from ``chemicals`` 1.5.2 (the
+  half chosen by a hash of the formula, ``pipelines.melting_weights.open_set_half``);
+  the test refits them and compares.
 * **validation** checks use data no weight was fitted or set on: entropies of
   fusion (not melting points), the melting point of polyethylene, and organic salts
   (the fit used inorganic salts only; the organic weights were set by hand on
@@ -19,24 +20,19 @@ Calibration and validation are kept apart:
 """
 from __future__ import annotations
 
-import math
-from pathlib import Path
-
 import numpy as np
-import pandas as pd
 import pytest
 
 from ionicity.scorer import melting
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
-FIXTURE = Path(__file__).resolve().parents[1] / "datasets" / "melting" / "wikidata_salts.csv"
-
-# the weights of the ionic part, which the least-squares fit set
-INORGANIC_WEIGHTS = (
-    "intercept", "reference_energy_per_ion_kJ_mol", "reference_contact_chi", "cohesion_exponent", "contact_chi",
-    "contact_index", "pseudo_noble_gas", "polyatomic_anion", "ions_per_formula_unit", "trivalent_anion",
-    "high_charge_cation", "framework_oxoanion", "hydrogen_bonded_anion",
+# the weights of the ionic part, which the least-squares fit sets
+FITTED_INORGANIC_WEIGHTS = (
+    "intercept", "cohesion_exponent", "contact_chi", "contact_index", "pseudo_noble_gas", "polyatomic_anion",
+    "ions_per_formula_unit", "trivalent_anion", "high_charge_cation", "framework_oxoanion",
+    "hydrogen_bonded_anion", "cohesion_curvature", "contact_delta_chi", "anion_symmetry", "hydride_anion",
+    "pseudo_noble_gas_hard_anion",
 )
 
 
@@ -48,61 +44,65 @@ def _trend_K(formula: str) -> float:
 
 
 @pytest.fixture(scope="module")
-def fixture_terms():
-    """Index inputs and measured log10 T_m of the fixture's salts that have a trend index."""
-    frame = pd.read_csv(FIXTURE)
-    terms, log_mp = [], []
-    for formula, mp_K in zip(frame["formula_normalized"], frame["mp_K"]):
-        t = melting.melting_terms(decompose(parse_formula(formula)))
-        if t is None or not math.isfinite(t.lattice_energy_kJ_mol) or t.organic:
-            continue
-        terms.append(t)
-        log_mp.append(math.log10(mp_K))
-    assert len(terms) >= 120  # 128 of the 140 rows with chemicals 1.5.2
-    fields = ("lattice_energy_per_ion_kJ_mol", "contact_chi_pauling", "contact_index", "pseudo_noble_gas",
-              "polyatomic_anion_fraction", "ions_per_formula_unit", "trivalent_anion_fraction",
-              "cation_charge_above_3", "framework_oxoanion_fraction", "hydrogen_bonded_anion_fraction")
-    arrays = {name: np.array([getattr(t, name) for t in terms], dtype=float) for name in fields}
-    return arrays, np.array(log_mp)
+def open_salt_rows():
+    """(split, terms, measured K, formula) of the inorganic salts, as ``pipelines.melting_weights`` splits them.
+
+    Calibration: the CC0 fixture plus the calibration half of the open training set
+    that ``fit-melting`` builds from ``chemicals`` (CRC-derived values, read at run time);
+    validation: the other half.
+    """
+    pytest.importorskip("chemicals")
+    from ionicity.pipelines.melting_data import build_open_training_set
+    from ionicity.pipelines.melting_weights import salt_rows
+
+    rows = salt_rows(build_open_training_set().rows)
+    assert sum(r[0] == "calibration" for r in rows) >= 300  # 354 with chemicals 1.5.2
+    assert sum(r[0] == "validation" for r in rows) >= 200   # 230
+    return rows
 
 
-def _sum_of_squares(arrays, log_mp, weights) -> float:
-    index = melting.melting_trend_index(
-        arrays["lattice_energy_per_ion_kJ_mol"], arrays["contact_chi_pauling"], arrays["contact_index"],
-        arrays["pseudo_noble_gas"], arrays["polyatomic_anion_fraction"], arrays["ions_per_formula_unit"],
-        trivalent_anion_fraction=arrays["trivalent_anion_fraction"],
-        cation_charge_above_3=arrays["cation_charge_above_3"],
-        framework_oxoanion_fraction=arrays["framework_oxoanion_fraction"],
-        hydrogen_bonded_anion_fraction=arrays["hydrogen_bonded_anion_fraction"],
-        weights=weights,
-    )
-    return float(np.sum((log_mp - index) ** 2))
+@pytest.fixture(scope="module")
+def refitted_salt_weights(open_salt_rows):
+    """The inorganic weights as ``python -m ionicity.pipelines.melting_weights`` fits them now."""
+    from ionicity.pipelines.melting_weights import fit_salt_weights
+
+    return fit_salt_weights(open_salt_rows)
 
 
-# The inorganic weights were refitted (python -m ionicity.pipelines.melting_weights) after
-# scorer.applicability took AlN, BeTe, HgCl2, MoO3 and V2O5 out of the point-ion salts.
-_MOVED_BY_APPLICABILITY: set = set()
+@pytest.mark.parametrize("name", FITTED_INORGANIC_WEIGHTS)
+def test_calibration_each_inorganic_weight_is_the_fit_of_the_calibration_set(refitted_salt_weights, name):
+    # Calibration: the shipped weight is the least-squares weight (spread matched) of
+    # log10 T_m on the calibration salts, rounded to three decimals; a weight moved by
+    # half its value, or a fit whose terms changed, shows here.
+    assert melting.TREND_WEIGHTS[name] == pytest.approx(refitted_salt_weights[name], abs=0.0006)
 
 
-@pytest.mark.parametrize("name", [
-    pytest.param(n, marks=pytest.mark.xfail(strict=True, reason="fitting set changed by scorer.applicability; refit due"))
-    if n in _MOVED_BY_APPLICABILITY else n
-    for n in INORGANIC_WEIGHTS
-])
-def test_calibration_each_inorganic_weight_sits_at_its_least_squares_optimum(fixture_terms, name):
-    # Calibration (the fixture is part of the fitting set): with the other weights
-    # as they are, the value of this weight that minimises the squared log10 error
-    # on the fixture lies within 30 % of the shipped value. The weights were
-    # fitted on a larger, earlier set and rounded, hence the 30 %.
-    arrays, log_mp = fixture_terms
-    current = melting.TREND_WEIGHTS[name]
-    grid = np.linspace(0.0, 3.0 * current, 1201)
-    errors = [_sum_of_squares(arrays, log_mp, {name: float(v)}) for v in grid]
-    best = float(grid[int(np.argmin(errors))])
-    assert abs(current - best) <= 0.3 * best, f"{name} = {current}, least-squares optimum on the fixture {best:.4g}"
+def test_calibration_the_spread_matching_factor_is_modest(refitted_salt_weights):
+    # least squares shrinks by the correlation (about 0.85 here), so the factor that
+    # restores the measured spread lies near its inverse (common practice)
+    assert 1.0 < refitted_salt_weights["spread"] < 1.4
 
 
 # ------------------------------------------------------------- validation
+
+
+def test_validation_held_out_half_of_the_open_set(open_salt_rows):
+    # the figures README.md quotes (chemicals 1.5.2): Spearman 0.804, 83 % within a factor 1.5,
+    # class right for 77.8 %; a floor a little under each
+    from scipy.stats import spearmanr
+
+    held_out = [r for r in open_salt_rows if r[0] == "validation"]
+    trend = np.array([10 ** t.index() for _, t, _, _ in held_out])
+    measured = np.array([mp for _, _, mp, _ in held_out])
+    assert spearmanr(trend, measured).correlation >= 0.79
+    assert np.mean(np.abs(np.log(trend / measured)) < np.log(1.5)) >= 0.80
+    bands = (373.15, 573.15, 1773.15)
+    same = [np.searchsorted(bands, a) == np.searchsorted(bands, b) for a, b in zip(trend, measured)]
+    assert np.mean(same) >= 0.76
+    hot = measured >= 1773.15
+    # refractory compounds of the held-out half called refractory (salt route; 0.83 of 35)
+    assert np.mean(trend[hot] >= 1773.15) >= 0.78
+
 
 # Enthalpy of fusion [kJ/mol] and melting point [K] of alkali halides, CRC Handbook
 # of Chemistry and Physics, 'Enthalpy of fusion' and 'Physical constants of
