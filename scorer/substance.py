@@ -127,9 +127,17 @@ def format_oxidation_states(states) -> str:
     return ";".join(parts)
 
 
+@once
 def _electronegativity(symbol: str) -> float:
     value = get_element(symbol).electronegativity_pauling
     return value if value == value else 1.0
+
+
+@once
+def _state_range(symbol: str) -> tuple[int, int]:
+    """Lowest and highest listed oxidation state (0, 0 for an element with none)."""
+    states = [state for state, _ in listed_states(symbol)] or [0]
+    return min(states), max(states)
 
 
 _DEFAULT_STATES = {"F": -1, "O": -2, "H": 1, "Cl": -1, "Br": -1, "I": -1, "N": -3, "S": -2, "Se": -2, "P": -3}
@@ -154,16 +162,13 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
         ((symbol, n),) = counts.items()
         return ((symbol, charge / n),)
     # each element's electronegativity, listed range and usual state looked up
-    # once: this runs for every molecule scored (about a third of the time of
-    # an organic molecule's decomposition before)
+    # once per call, the first two cached per element: this runs for every
+    # molecule scored (it took a third of a molecule's decomposition before)
     chi = {s: _electronegativity(s) for s in symbols}
     by_chi = sorted(symbols, key=chi.__getitem__)
     most = by_chi[-1]
     chi_most = chi[most]
-    ranges = {}
-    for s in symbols:
-        states = [state for state, _ in listed_states(s)] or [0]
-        ranges[s] = (min(states), max(states))
+    ranges = {s: _state_range(s) for s in symbols}
 
     def default(symbol: str) -> float:
         if symbol == "H" and symbol == most:

@@ -178,6 +178,9 @@ def test_capital_organic_texts_skip_the_readers_only_where_they_find_nothing():
     accepted = [t for t in texts if ordinary_formula(t) is not None]
     assert len(accepted) > 0.9 * len(texts)
     for text in accepted:
+        # read as the grammar reads it
+        assert ordinary_formula(text) == parse_formula(text), text
+        assert ordinary_formula(text).text == text
         assert find_slip(text) is None, text
         assert split_solution(text) is None, text
         assert read_mixture(text, record.score_row) is None, text
