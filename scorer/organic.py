@@ -14,23 +14,26 @@ in DEVELOPERS.md, "Organic molecules").
 Recognition, all cheap and in this order:
 
 1. the formula carries no charge, no bracketed ion of the library (an ionic
-   liquid written ``[C4mim][BF4]``), no adduct and no written group that says
-   something about bonding (``CO(NH2)2``, ``Fe(CO)5``);
+   liquid written ``[C4mim][BF4]``) and no adduct; of the written groups, amide
+   groups (urea as ``CO(NH2)2``) make it a molecule at once, as in the solver;
 2. carbon with hydrogen and only non-metals
    (:func:`scorer.substance.organic_candidate`): a metal-organic, a carbide,
    CO2, CS2 and the carbonyl halides are never candidates;
-3. no ion pair can hold it. The organic ion-pair rule reads a formula as one
-   cation and one anion of the ion library (or H(+) and a halide) in whole
-   numbers that use up every atom (acetic acid, HCN, ammonium and
-   alkylammonium salts, ethylammonium nitrate, urea written flat as ammonium
-   cyanate, an ionic liquid written flat such as C8H15N2BF4). ``a`` cations
-   of charge z+ and ``b`` anions of charge q- balance when ``a z = b q``, so
-   every such formula is a whole multiple of ``q/g`` cations and ``z/g``
-   anions (g = gcd(z, q)): its counts divided by their greatest common
-   divisor are that pair's (:func:`primitive_counts`). A formula whose
-   primitive counts are no pair's (:func:`_pair_ratios`, every pair of the
-   library, a superset of what the rule tries) has no ion-pair reading, and
-   is a molecule at once; any other formula takes the solver, as before.
+3. the organic ion-pair rule cannot read it as a salt. The rule reads a
+   formula as one cation and one anion of the ion library (or H(+) and a
+   halide) in whole numbers that use up every atom (acetic acid, HCN,
+   ammonium and alkylammonium salts, ethylammonium nitrate, urea written flat
+   as ammonium cyanate, an ionic liquid written flat such as C8H15N2BF4).
+   ``a`` cations of charge z+ and ``b`` anions of charge q- balance when
+   ``a z = b q``, so every such formula is a whole multiple of the unit of
+   ``q/g`` cations and ``z/g`` anions (g = gcd(z, q)), and its counts
+   divided by their greatest common divisor (:func:`primitive_counts`) are
+   that unit's. :func:`_pairs_by_ratio` indexes the pairs by those counts (a
+   superset of the pairs the rule tries). A formula that matches no pair, or
+   only pairs that :func:`scorer.substance.classify` calls ``unknown`` at its
+   multiple (which the solver then reads as the molecule: glucose as 3 H(+)
+   with 3 lactate, an alcohol as H(+) with its alkoxide), is a molecule at
+   once; any other formula takes the solver, as before.
 
 Nitro compounds, nitriles, nitrate and nitrite esters and organic azides are
 therefore molecules (``covalent_molecular``), as the ion-pair rule already
