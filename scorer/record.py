@@ -23,6 +23,7 @@ from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import finalise
@@ -141,7 +142,11 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
         text="", counts=counts, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
     )
-    dec = decompose_anhydrous(comp, hydrated)
+    # a neutral organic molecule skips the ion search and the descriptors that need ions (scorer.organic)
+    dec = None if hydrated else organic_molecule(comp)
+    modules = descriptors() if dec is None else molecule_descriptors()
+    if dec is None:
+        dec = decompose_anhydrous(comp, hydrated)
     values: dict = {
         "substance_class": dec.substance_class,
         "cations": format_ion_terms(dec.cations),
@@ -152,7 +157,7 @@ def _anhydrous_scores(counts, charge, ion_hints, neutral_adducts, structure_hint
     gaps: list[str] = []
     if dec.substance_class not in _IONIC_CLASSES and not dec.is_ionic:
         gaps.append(f"{dec.substance_class.replace('_', ' ')}: ion-based values do not apply")
-    for descriptor in descriptors():
+    for descriptor in modules:
         result = descriptor(dec)
         values.update(descriptor.values(result))
         for note in result.notes:
@@ -209,7 +214,7 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     # the hydrate of a molecular halide is a salt of the aqua ion ([Al(H2O)6]Cl3):
     # only those few hydrates are scored apart from their anhydrous compound
     if (water and values["substance_class"] in _MOLECULAR_OR_LAYER
-            and family_decided(decompose_anhydrous(comp))):
+            and family_decided(organic_molecule(comp) or decompose_anhydrous(comp))):
         values, warnings, gaps, formula, base = _anhydrous_scores(*key, True)
     formula_at, name_at, water_at, mass_at, status_at, message_at, notes_at = _slots()
     row = list(base)

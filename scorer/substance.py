@@ -127,9 +127,17 @@ def format_oxidation_states(states) -> str:
     return ";".join(parts)
 
 
+@once
 def _electronegativity(symbol: str) -> float:
     value = get_element(symbol).electronegativity_pauling
     return value if value == value else 1.0
+
+
+@once
+def _state_range(symbol: str) -> tuple[int, int]:
+    """Lowest and highest listed oxidation state (0, 0 for an element with none)."""
+    states = [state for state, _ in listed_states(symbol)] or [0]
+    return min(states), max(states)
 
 
 _DEFAULT_STATES = {"F": -1, "O": -2, "H": 1, "Cl": -1, "Br": -1, "I": -1, "N": -3, "S": -2, "Se": -2, "P": -3}
@@ -153,33 +161,40 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
     if len(symbols) == 1:
         ((symbol, n),) = counts.items()
         return ((symbol, charge / n),)
-    by_chi = sorted(symbols, key=_electronegativity)
+    # each element's electronegativity, listed range and usual state looked up
+    # once per call, the first two cached per element: this runs for every
+    # molecule scored (it took a third of a molecule's decomposition before)
+    chi = {s: _electronegativity(s) for s in symbols}
+    by_chi = sorted(symbols, key=chi.__getitem__)
     most = by_chi[-1]
+    chi_most = chi[most]
+    ranges = {s: _state_range(s) for s in symbols}
 
     def default(symbol: str) -> float:
         if symbol == "H" and symbol == most:
             return -1.0
-        if symbol in _DEFAULT_STATES and (symbol != "H" or _electronegativity(most) > 2.2):
+        if symbol in _DEFAULT_STATES and (symbol != "H" or chi_most > 2.2):
             state = _DEFAULT_STATES[symbol]
-            if state < 0 and symbol != most and _electronegativity(symbol) < _electronegativity(most) - 1.0:
+            if state < 0 and symbol != most and chi[symbol] < chi_most - 1.0:
                 state = -state if symbol != "N" else 3
             return float(state)
-        states = [s for s, _ in listed_states(symbol)] or [0]
-        return float(min(states) if symbol == most else max(states))
+        low, high = ranges[symbol]
+        return float(low if symbol == most else high)
 
+    defaults = {s: default(s) for s in symbols}
     # an element without a usual state (C in organics, Si in SiC) balances first
     balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
     for balancer in balancers:
-        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
         value = (charge - rest) / counts[balancer]
-        states = [s for s, _ in listed_states(balancer)] or [0]
-        if min(states) - _TOL <= value <= max(states) + _TOL:
+        low, high = ranges[balancer]
+        if low - _TOL <= value <= high + _TOL:
             break
     else:
         balancer = balancers[0]
-        rest = sum(default(s) * counts[s] for s in symbols if s != balancer)
+        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
         value = (charge - rest) / counts[balancer]
-    return tuple((s, round(value if s == balancer else default(s), 6)) for s in symbols)
+    return tuple((s, round(value if s == balancer else defaults[s], 6)) for s in symbols)
 
 
 def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
