@@ -47,10 +47,10 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
-from ionicity.scorer.ions import decompose_anhydrous
+from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 
 __all__ = [
-    "Slip", "SLIP_KINDS", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+    "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
 ]
 
 # what each kind of slip is called in messages and in the audit summary
@@ -82,6 +82,15 @@ _CLASS_PENALTY = {
 _MAX_PROPOSALS = 256
 # proposals of one kind read by the ion solver at most (in2(co3)3 has dozens of re-casings)
 _SOLVED_PROPOSALS = 8
+# solver work (scorer.ions.solver_work units) the proposals of one text may spend together,
+# both rounds of find_slip: 1.4 times the dearest right correction of the demo and reference
+# lists (Tutton's salt typed with a 0 for O, 10,484 units), so that a text's slip search costs at
+# most this much more than its own read (DEVELOPERS.md, "The cost of one formula")
+SLIP_WORK_LIMIT = 15_000
+# elements a proposal may hold to be read: an inventory line with a typing slip holds a few
+# (the demo and reference lists at most 8); the solver's knapsack grows with the elements, so a
+# long random string of symbols is read as written, not re-read per proposal (common practice)
+_SLIP_MAX_ELEMENTS = 12
 # the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
 _BEST_PENALTY = 0.5
 # elements written with a count as the molecules they form (common practice)
@@ -123,11 +132,28 @@ def reading_penalty(text: str) -> float:
     >>> reading_penalty("Xx")
     inf
     """
+    if math.isinf(_parsed_penalty(text)):
+        return math.inf
+    return _penalty_of(text, decompose_anhydrous(_parsed(text)))
+
+
+@per_input(maxsize=65536)
+def _proposal_penalty(text: str, work_limit: int) -> tuple[float, int]:
+    """(:func:`reading_penalty` of a proposed spelling, the solver work it cost) with
+    the solver limited to ``work_limit`` units: a proposal whose read reaches the
+    limit is no correction (``inf``)."""
+    if math.isinf(_parsed_penalty(text)) or len(_parsed(text).counts) > _SLIP_MAX_ELEMENTS:
+        return math.inf, 0
+    dec, work = decompose_within(_parsed(text), work_limit)
+    if work >= work_limit:
+        return math.inf, work
+    return _penalty_of(text, dec), work
+
+
+def _penalty_of(text: str, dec) -> float:
+    """The reading penalty of ``text`` read as ``dec`` (see :func:`reading_penalty`)."""
     penalty = _parsed_penalty(text)
-    if math.isinf(penalty):
-        return penalty
     comp = _parsed(text)
-    dec = decompose_anhydrous(comp)
     if dec.substance_class == "unknown":
         return math.inf
     penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
@@ -293,10 +319,11 @@ def find_slip(text: str) -> Slip | None:
         Two slips in one text (``Kl03``: l for I, then 0 for O) are found
         in two rounds; the kind is the first one's.
     """
-    slip = _find_one(text)
+    allowance = [SLIP_WORK_LIMIT]
+    slip = _find_one(text, allowance)
     if slip is None or not slip.suggested:
         return slip
-    second = _find_one(slip.suggested)
+    second = _find_one(slip.suggested, allowance)
     if second is None or not second.suggested:
         return slip
     best = second.suggested
@@ -304,8 +331,10 @@ def find_slip(text: str) -> Slip | None:
     return Slip(slip.kind, best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
 
 
-def _find_one(text: str) -> Slip | None:
-    """One round of :func:`find_slip`: the best proposal of any kind."""
+def _find_one(text: str, allowance: list[int]) -> Slip | None:
+    """One round of :func:`find_slip`: the best proposal of any kind. The
+    proposals' reads draw on ``allowance`` (a one-item list of solver work
+    units); once it is spent no more proposals are read."""
     if not isinstance(text, str) or not text or len(text) > 200:
         return None
     stripped = "".join(text.split())
@@ -337,9 +366,11 @@ def _find_one(text: str) -> Slip | None:
         proposals = sorted((p for p in dict.fromkeys(make_proposals()) if p != stripped), key=_parsed_penalty)
         for proposal in proposals[:_SOLVED_PROPOSALS]:
             best = min((c[0] for c in candidates), default=math.inf)
-            if _parsed_penalty(proposal) >= best:
+            if _parsed_penalty(proposal) >= best or allowance[0] <= 0:
                 break
-            candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
+            penalty, work = _proposal_penalty(proposal, allowance[0])
+            allowance[0] -= work
+            candidates.append((penalty, len(candidates), kind, proposal, evidence))
 
     zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
     leading = any(not stripped[i - 1].isdigit() for i in zeros)
