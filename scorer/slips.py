@@ -90,7 +90,13 @@ SLIP_WORK_LIMIT = 15_000
 # elements a proposal may hold to be read: an inventory line with a typing slip holds a few
 # (the demo and reference lists at most 8); the solver's knapsack grows with the elements, so a
 # long random string of symbols is read as written, not re-read per proposal (common practice)
-_SLIP_MAX_ELEMENTS = 12
+_SLIP_MAX_ELEMENTS = 8
+# the longest text searched for slips (after removing spaces): inventory formulas are short (the
+# demo and reference lists at most 25 characters), and a text that does not parse costs the
+# parser's own suggestion search, growing with the square of its length (common practice)
+_SLIP_MAX_LENGTH = 64
+# proposals parsed per text, every kind and both rounds together: each costs a parse
+_PARSED_PROPOSALS = 32
 # the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
 _BEST_PENALTY = 0.5
 # elements written with a count as the molecules they form (common practice)
@@ -319,7 +325,7 @@ def find_slip(text: str) -> Slip | None:
         Two slips in one text (``Kl03``: l for I, then 0 for O) are found
         in two rounds; the kind is the first one's.
     """
-    allowance = [SLIP_WORK_LIMIT]
+    allowance = [SLIP_WORK_LIMIT, _PARSED_PROPOSALS]
     slip = _find_one(text, allowance)
     if slip is None or not slip.suggested:
         return slip
@@ -333,8 +339,8 @@ def find_slip(text: str) -> Slip | None:
 
 def _find_one(text: str, allowance: list[int]) -> Slip | None:
     """One round of :func:`find_slip`: the best proposal of any kind. The
-    proposals' reads draw on ``allowance`` (a one-item list of solver work
-    units); once it is spent no more proposals are read."""
+    proposals draw on ``allowance`` (solver work units, proposals parsed);
+    once either is spent no more are read."""
     if not isinstance(text, str) or not text or len(text) > 200:
         return None
     stripped = "".join(text.split())
@@ -343,6 +349,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     abbreviation = unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
+    if len(stripped) > _SLIP_MAX_LENGTH:
+        return None  # longer than any inventory line: read as written
     letters = "".join(ch for ch in stripped if ch.isalpha())
     all_caps = len(letters) > 1 and letters.isupper()
     all_lower = letters.islower()
@@ -363,7 +371,9 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
             return
         # the solver's work is the cost: proposals in order of the penalty they get
         # before it (a lower bound), solved until none left can beat the best
-        proposals = sorted((p for p in dict.fromkeys(make_proposals()) if p != stripped), key=_parsed_penalty)
+        proposals = [p for p in dict.fromkeys(make_proposals()) if p != stripped][:max(allowance[1], 0)]
+        allowance[1] -= len(proposals)
+        proposals.sort(key=_parsed_penalty)
         for proposal in proposals[:_SOLVED_PROPOSALS]:
             best = min((c[0] for c in candidates), default=math.inf)
             if _parsed_penalty(proposal) >= best or allowance[0] <= 0:
