@@ -83,10 +83,10 @@ _MAX_PROPOSALS = 256
 # proposals of one kind read by the ion solver at most (in2(co3)3 has dozens of re-casings)
 _SOLVED_PROPOSALS = 8
 # solver work (scorer.ions.solver_work units) the proposals of one text may spend together,
-# both rounds of find_slip: 1.4 times the dearest right correction of the demo and reference
-# lists (Tutton's salt typed with a 0 for O, 10,484 units), so that a text's slip search costs at
+# both rounds of find_slip: above the dearest right correction of the demo and reference
+# lists (Tutton's salt typed with 0 for O twice, 900 + 10,521 units), so that a text's slip search costs at
 # most this much more than its own read (DEVELOPERS.md, "The cost of one formula")
-SLIP_WORK_LIMIT = 15_000
+SLIP_WORK_LIMIT = 12_000
 # elements a proposal may hold to be read: an inventory line with a typing slip holds a few
 # (the demo and reference lists at most 8); the solver's knapsack grows with the elements, so a
 # long random string of symbols is read as written, not re-read per proposal (common practice)
