@@ -32,10 +32,12 @@ from ionicity.scorer.caching import clear_all
 from ionicity.scorer.elements import element_symbols, is_metal
 from ionicity.scorer.ions import solver_work, work_bound
 from ionicity.scorer.formula import MAX_FORMULA_LENGTH, FormulaError, parse_formula
+from ionicity.scorer.grammar import MAX_COUNT, MAX_NESTING_DEPTH
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.record import score_formula
 
-__all__ = ["random_formula", "random_formulas", "organic_formulas", "time_formulas", "main"]
+__all__ = ["random_formula", "random_formulas", "extreme_formula", "extreme_formulas", "record_cost", "organic_formulas",
+           "time_formulas", "main"]
 
 LIMIT_MS = 50.0
 # elements of real inventories, drawn more often than the rest of the table
@@ -103,6 +105,55 @@ def random_formulas(count: int, seed: int = 1) -> list[str]:
         if len(text) <= MAX_FORMULA_LENGTH or rng.random() < 0.05:
             out.setdefault(text)
     return list(out)
+
+
+def extreme_formula(rng: random.Random) -> str:
+    """One formula at the grammar's edges: many different elements (up to 40),
+    counts up to the grammar's largest, or brackets nested to its deepest."""
+    symbols = element_symbols()
+    shape = rng.randrange(3)
+    if shape == 0:
+        parts = [_element(rng, symbols) + _count(rng) for _ in range(rng.randint(12, 40))]
+    elif shape == 1:
+        parts = [_element(rng, symbols) + str(rng.choice((MAX_COUNT, MAX_COUNT - 1, rng.randint(100, MAX_COUNT))))
+                 for _ in range(rng.randint(2, 8))]
+    else:
+        inner = _element(rng, symbols) + _count(rng)
+        for _ in range(rng.randint(MAX_NESTING_DEPTH - 1, MAX_NESTING_DEPTH)):
+            opening, closing = rng.choice((("(", ")"), ("[", "]"), ("{", "}")))
+            inner = _element(rng, symbols) + _count(rng) + opening + inner + closing + str(rng.randint(2, 99))
+        parts = [inner]
+    return "".join(parts)[:MAX_FORMULA_LENGTH]
+
+
+def extreme_formulas(count: int, seed: int = 1) -> list[str]:
+    """``count`` distinct :func:`extreme_formula` texts, reproducible from ``seed``."""
+    rng = random.Random(seed)
+    out: dict[str, None] = {}
+    while len(out) < count:
+        out.setdefault(extreme_formula(rng))
+    return list(out)
+
+
+def record_cost(text: str) -> tuple[int, int]:
+    """(Python function calls, solver work units) of scoring ``text`` with every
+    per-input cache empty: a count of the work, not a clock, so a test can bound
+    it without flaking on a busy machine (the cost of one new formula; warm
+    caches only lower it). ``main`` prints how many milliseconds a call costs."""
+    clear_all()
+    calls = [0]
+
+    def count(frame, event, arg):
+        if event == "call":
+            calls[0] += 1
+
+    before = solver_work()
+    sys.setprofile(count)
+    try:
+        score_formula(text)
+    finally:
+        sys.setprofile(None)
+    return calls[0], solver_work() - before
 
 
 def organic_formulas(count: int, seed: int = 1) -> list[str]:
