@@ -210,6 +210,43 @@ def time_formulas(formulas: list[str], stage: str = "score") -> tuple[list[tuple
     return timings, raised
 
 
+def retime_alone(formulas: list[str], stage: str = "score", times: int = 3) -> list[tuple[float, str]]:
+    """(lowest CPU ms of ``times`` cold runs, formula) for each formula, scored
+    alone with every per-input cache empty: tells a formula that is dear from
+    one that met a busy minute of the machine."""
+    out = []
+    for text in formulas:
+        best = float("inf")
+        for _ in range(times):
+            clear_all()
+            cpu0 = time.process_time()
+            STAGES[stage](text)
+            best = min(best, (time.process_time() - cpu0) * 1000)
+        out.append((best, text))
+    return out
+
+
+def cost_figures(formulas: list[str]) -> dict[str, float]:
+    """The counted cost of each formula (:func:`record_cost`) against its cold CPU
+    time: the largest call and work counts, and the milliseconds one thousand
+    calls cost on this machine (median over formulas of 5 ms or more), which
+    turns the fuzz test's call bound into time."""
+    worst_calls = worst_work = 0
+    rates = []
+    for text in formulas:
+        clear_all()
+        cpu0 = time.process_time()
+        score_formula(text)
+        cpu_ms = (time.process_time() - cpu0) * 1000
+        calls, work = record_cost(text)
+        worst_calls, worst_work = max(worst_calls, calls), max(worst_work, work)
+        if cpu_ms >= 5 and calls:
+            rates.append(cpu_ms / calls * 1000)
+    rates.sort()
+    return {"max_calls": worst_calls, "max_solver_work": worst_work,
+            "ms_per_1000_calls": rates[len(rates) // 2] if rates else float("nan"), "timed": len(rates)}
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.bench_formulas", description=__doc__.split("\n\n")[0])
     parser.add_argument("--count", type=int, default=10_000, help="random formulas to score (default: 10,000)")
@@ -217,6 +254,8 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--seed", type=int, default=1)
     parser.add_argument("--limit-ms", type=float, default=LIMIT_MS, help="per-formula limit counted (default: 50)")
     parser.add_argument("--repeat", type=int, default=3, help="times the ten slowest are scored again, cold (default: 3)")
+    parser.add_argument("--cost", type=int, default=0, metavar="N",
+                        help="also count calls and solver work of N random and N/4 extreme formulas, cold (default: 0)")
     parser.add_argument("--stage", choices=tuple(STAGES), default="score",
                         help="score: the whole record (default); solve: parsing and the ion solver alone")
     args = parser.parse_args(argv)
@@ -233,6 +272,11 @@ def main(argv: list[str] | None = None) -> int:
     print(f"raised {len(raised)}")
     for text, message in raised[:20]:
         print(f"  raised {text!r}: {message}")
+    if cpu_over:
+        alone = retime_alone([text for _, _, text in cpu_over], args.stage)
+        still = [t for t in alone if t[0] > args.limit_ms]
+        print(f"over_{args.limit_ms:g}_ms_cpu re-timed alone (best of 3, fresh caches): {len(still)} still over;"
+              f" worst {max(alone)[0]:.2f} ms")
     worst = sorted(timings, reverse=True)[:10]
     print("slowest (cpu_ms wall_ms formula):")
     for cpu, wall, text in worst:
@@ -254,6 +298,10 @@ def main(argv: list[str] | None = None) -> int:
     if cpu_ms:
         print(f"random cpu_ms median {cpu_ms[len(cpu_ms) // 2]:.3f} p99 {cpu_ms[int(len(cpu_ms) * 0.99)]:.3f}"
               f" max {cpu_ms[-1]:.3f}")
+    if args.cost:
+        figures = cost_figures(random_formulas(args.cost, args.seed) + extreme_formulas(max(args.cost // 4, 1), args.seed))
+        print("cost (cold, counted): " + ", ".join(f"{k} {v:,.3f}" if isinstance(v, float) else f"{k} {v:,}"
+                                                   for k, v in figures.items()))
     organic = organic_formulas(args.organic, args.seed)
     wall0, cpu0 = time.perf_counter(), time.process_time()
     org_timings, org_raised = time_formulas(organic, args.stage)

@@ -237,13 +237,13 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
             tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
             for s, options in zip(symbols, per_symbol)
         ]
-    singles = [tuple((state, penalty) for kind, state, penalty in options if kind == "single") for options in per_symbol]
+    singles = [tuple([(state, penalty) for kind, state, penalty in options if kind == "single"]) for options in per_symbol]
     if any(not options for options in singles):
         return ()
     n_of = [counts[s] for s in symbols]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
-    stoichiometric = all(abs(n - round(n)) < _TOL for _, n in remaining)
+    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
         for penalty, picks in _knapsack(singles, (), n_of, needed, cap)
@@ -253,7 +253,7 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     # species more and pays the split's penalty, so it competes only where no
     # single-state reading is that cheap
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
-    splits = [tuple((state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL)
+    splits = [tuple([(state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL])
               for options in per_symbol]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
         for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap):
@@ -304,35 +304,40 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
     table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
     work = 0
     # whole counts keep the charge an integer: no rounding per transition
-    whole = all(float(n).is_integer() for n in n_of)
+    whole = all([float(n).is_integer() for n in n_of])
     for i, options in enumerate(singles):
         n = int(n_of[i]) if whole else n_of[i]
         lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
         following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
-
-        def add(key, p, picks, choice):
-            held = following.get(key)
-            if held is None or p < held[0] - _TOL:
-                following[key] = (p, tuple(k + (choice,) for k in picks[:_MAX_TIES]))
-            elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                following[key] = (held[0], held[1] + tuple(k + (choice,) for k in picks[: _MAX_TIES - len(held[1])]))
-
+        # the cheapest choices reaching each state, ties kept (written out rather
+        # than a helper: this loop is most of the solver's time)
         for (charge, split), (penalty, picks) in table.items():
             for state, option_penalty in options:
                 work += 1
                 p = penalty + option_penalty
-                c = charge + state * n if whole else round(charge + state * n, 9)
                 if p > cap + _TOL:
                     continue
+                c = charge + state * n if whole else round(charge + state * n, 9)
                 if not split and not lo <= c <= hi:
                     continue
-                add((c, split), p, picks, state)
+                key = (c, split)
+                held = following.get(key)
+                if held is None or p < held[0] - _TOL:
+                    following[key] = (p, tuple([k + (state,) for k in picks[:_MAX_TIES]]))
+                elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
+                    following[key] = (held[0], held[1] + tuple([k + (state,) for k in picks[: _MAX_TIES - len(held[1])]]))
             if splits and not split:
                 for pair, option_penalty in splits[i]:
                     work += 1
                     p = penalty + option_penalty
-                    if p <= cap + _TOL:
-                        add((charge, (i, pair)), p, picks, pair)
+                    if p > cap + _TOL:
+                        continue
+                    key = (charge, (i, pair))
+                    held = following.get(key)
+                    if held is None or p < held[0] - _TOL:
+                        following[key] = (p, tuple([k + (pair,) for k in picks[:_MAX_TIES]]))
+                    elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
+                        following[key] = (held[0], held[1] + tuple([k + (pair,) for k in picks[: _MAX_TIES - len(held[1])]]))
         if len(following) > _MAX_TABLE:
             # the cheapest states, then those nearest what is still needed
             kept = sorted(following.items(), key=lambda kv: (round(kv[1][0], 9), abs(needed - kv[0][0]), kv[0]))
@@ -490,7 +495,7 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset(), bu
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
-        alone = sum(1 for symbol in left if symbol not in later)
+        alone = len([symbol for symbol in left if symbol not in later])
         floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
         return None if floor > best[0] + _TOL else floor
 
