@@ -106,6 +106,8 @@ _ELEMENT_MOLECULES = frozenset({
 })
 _ZERO = re.compile(r"(?<![.\d])0(?!\.)|(?<=\d)0")
 _LETTER_RUN = re.compile(r"[A-Za-z]+")
+# what str.isalpha() refuses (digits, underscore, punctuation): one substitution, not a loop per character
+_NOT_A_LETTER = re.compile(r"[\W\d_]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
@@ -351,7 +353,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
         return abbreviation
     if len(stripped) > _SLIP_MAX_LENGTH:
         return None  # longer than any inventory line: read as written
-    letters = "".join(ch for ch in stripped if ch.isalpha())
+    letters = _NOT_A_LETTER.sub("", stripped)
     all_caps = len(letters) > 1 and letters.isupper()
     all_lower = letters.islower()
     if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:

@@ -22,7 +22,7 @@ from ionicity.pipelines.bench_formulas import extreme_formulas, random_formulas,
 from ionicity.scorer import ions, slips
 from ionicity.scorer.record import score_formula
 
-RECORD_CALL_BOUND = 75_000
+RECORD_CALL_BOUND = 60_000
 RECORD_WORK_BOUND = 2 * ions._SEARCH_BUDGET + slips.SLIP_WORK_LIMIT
 
 
