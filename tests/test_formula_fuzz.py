@@ -6,13 +6,19 @@ No clock: a test that times formulas flakes on a busy machine. The cost of one
 new formula is counted instead (:func:`ionicity.pipelines.bench_formulas.record_cost`,
 every per-input cache empty): the Python function calls it makes and the
 solver's work units (search nodes plus knapsack transitions). Both counts are
-deterministic. ``RECORD_CALL_BOUND`` is what 50 ms of CPU buys: ``python -m
-ionicity.pipelines.bench_formulas`` prints the milliseconds per 1,000 calls of
-its run (0.45-0.65 ms on the 2-core shared machine, so 75,000 calls are 34-49 ms;
-DEVELOPERS.md, "The cost of one formula"); the time figures themselves come
-from that benchmark, not from here. The bounds are common practice, set from
-the design: the solver's limit per composition twice (a hydrate may be read
-dry and again as its aqua salt) plus the slip search's allowance.
+deterministic. The time figures come from the benchmark, ``python -m
+ionicity.pipelines.bench_formulas --count 100000 --cost 1000`` (DEVELOPERS.md,
+"The cost of one formula"), which also prints what 1,000 counted calls cost
+in CPU (1.1 ms cold on the 2-core machine at a load average of 8-9).
+``RECORD_WORK_BOUND`` follows from the design: the solver's limit per
+composition twice (a hydrate may be read dry and again as its aqua salt) plus
+the slip search's allowance. ``RECORD_CALL_BOUND`` is set by hand (common
+practice) a little above the dearest formula of the slow part (51,895 calls,
+S10000Gd10000O9999), so that a change that makes any formula much dearer
+fails here. A loop inside one call is not counted (a generator counts once):
+the melting module's molecular route writes one polarisability per peripheral
+atom into its explain line (65,000 for a formula of 65,000 atoms), a cost
+only the benchmark's timings see.
 """
 from __future__ import annotations
 
