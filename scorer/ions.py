@@ -130,11 +130,11 @@ _MULTIPLICITIES = 3
 # equally plausible choices kept per charge of the knapsack table
 _MAX_TIES = 16
 # solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
-# of one composition may spend together, about 15 ms of CPU: 1.9 times the
+# of one composition may spend together, about 15 ms of CPU: 1.5 times the
 # dearest read of the demo and reference lists (Tutton's salt, 10,484 units;
 # DEVELOPERS.md, "The charge-balance solver and its cost"); a walk that
 # reaches it stops and its row's notes say so
-_SEARCH_BUDGET = 20_000
+_SEARCH_BUDGET = 16_000
 _SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
                     "polyatomic ions: a more plausible reading may exist (check the formula)")
 # states kept per knapsack table: bounds the work whatever the counts
