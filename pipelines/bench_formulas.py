@@ -27,6 +27,8 @@ True
 from __future__ import annotations
 
 import argparse
+import gc
+import inspect
 import random
 import statistics
 import sys
@@ -37,13 +39,18 @@ from ionicity.scorer.caching import clear_all
 from ionicity.scorer.elements import element_symbols, is_metal
 from ionicity.scorer.ions import solver_work, work_bound
 from ionicity.scorer.formula import MAX_FORMULA_LENGTH, FormulaError, parse_formula
+from ionicity.scorer.grammar import MAX_COUNT, MAX_NESTING_DEPTH
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.organic import set_organic_shortcut
 from ionicity.scorer.record import score_formula
 
-__all__ = ["random_formula", "random_formulas", "organic_formulas", "time_formulas", "main"]
+__all__ = ["random_formula", "random_formulas", "extreme_formula", "extreme_formulas", "record_cost", "organic_formulas",
+           "time_formulas", "main"]
 
 LIMIT_MS = 50.0
+_GC_EVERY = 1000
+# code flags of frames that are resumed (generators, coroutines): a resumption is no new call
+_RESUMABLE = inspect.CO_GENERATOR | inspect.CO_COROUTINE | inspect.CO_ASYNC_GENERATOR
 # elements of real inventories, drawn more often than the rest of the table
 _COMMON = ("H", "C", "N", "O", "F", "Na", "Mg", "Al", "Si", "P", "S", "Cl", "K", "Ca", "Ti", "Cr", "Mn", "Fe",
            "Co", "Ni", "Cu", "Zn", "Br", "Ag", "Sn", "I", "Ba", "Pb", "La", "Ce", "Mo", "W", "Li", "B", "Se", "Te")
@@ -111,6 +118,65 @@ def random_formulas(count: int, seed: int = 1) -> list[str]:
     return list(out)
 
 
+def extreme_formula(rng: random.Random) -> str:
+    """One formula at the grammar's edges: many different elements (up to 40),
+    counts up to the grammar's largest, or brackets nested to its deepest."""
+    symbols = element_symbols()
+    shape = rng.randrange(3)
+    if shape == 0:
+        parts = [_element(rng, symbols) + _count(rng) for _ in range(rng.randint(12, 40))]
+    elif shape == 1:
+        parts = [_element(rng, symbols) + str(rng.choice((MAX_COUNT, MAX_COUNT - 1, rng.randint(100, MAX_COUNT))))
+                 for _ in range(rng.randint(2, 8))]
+    else:
+        inner = _element(rng, symbols) + _count(rng)
+        for _ in range(rng.randint(MAX_NESTING_DEPTH - 1, MAX_NESTING_DEPTH)):
+            opening, closing = rng.choice((("(", ")"), ("[", "]"), ("{", "}")))
+            inner = _element(rng, symbols) + _count(rng) + opening + inner + closing + str(rng.randint(2, 99))
+        parts = [inner]
+    return "".join(parts)[:MAX_FORMULA_LENGTH]
+
+
+def extreme_formulas(count: int, seed: int = 1) -> list[str]:
+    """``count`` distinct :func:`extreme_formula` texts, reproducible from ``seed``."""
+    rng = random.Random(seed)
+    out: dict[str, None] = {}
+    while len(out) < count:
+        out.setdefault(extreme_formula(rng))
+    return list(out)
+
+
+def record_cost(text: str) -> tuple[int, int]:
+    """(Python function calls, solver work units) of scoring ``text`` with every
+    per-input cache empty: a count of the work, not a clock, so a test can bound
+    it without flaking on a busy machine (the cost of one new formula; warm
+    caches only lower it). ``main`` prints how many milliseconds a call costs.
+
+    A generator counts once, not once per item it yields: the count is of
+    calls, so a loop inside one call (a generator over every atom) is not in
+    it; the benchmark's timings are.
+    """
+    clear_all()
+    calls = [0]
+    started: set = set()
+
+    def count(frame, event, arg):
+        if event == "call":
+            if frame.f_code.co_flags & _RESUMABLE:
+                if frame in started:
+                    return
+                started.add(frame)
+            calls[0] += 1
+
+    before = solver_work()
+    sys.setprofile(count)
+    try:
+        score_formula(text)
+    finally:
+        sys.setprofile(None)
+    return calls[0], solver_work() - before
+
+
 def organic_formulas(count: int, seed: int = 1) -> list[str]:
     """``count`` distinct C/H/N/O formulas of plausible molecules: C1-C40, hydrogen
     up to the saturated 2C + N + 2, up to 8 N and 16 O (Hill order); about
@@ -159,14 +225,26 @@ def time_formulas(formulas: list[str], stage: str = "score") -> tuple[list[tuple
     formula, (formula, exception) per raise)."""
     timings, raised = [], []
     run = STAGES[stage]
-    for text in formulas:
-        wall0, cpu0 = time.perf_counter(), time.process_time()
-        try:
-            run(text)
-        except Exception as exc:  # the attack's point: report every one, do not stop
-            raised.append((text, f"{type(exc).__name__}: {exc}"))
-        cpu, wall = time.process_time() - cpu0, time.perf_counter() - wall0
-        timings.append((cpu * 1000, wall * 1000, text))
+    # the cyclic garbage collector runs outside the timers (every _GC_EVERY formulas): a full
+    # collection over the caches of tens of thousands of formulas took up to 2.5 s of CPU and
+    # landed on whichever formula was being timed (a cost of the process, not of that formula;
+    # the workers of a run freeze their heap and raise the thresholds, pipelines/pool.py)
+    enabled = gc.isenabled()
+    gc.disable()
+    try:
+        for i, text in enumerate(formulas):
+            if i % _GC_EVERY == 0:
+                gc.collect()
+            wall0, cpu0 = time.perf_counter(), time.process_time()
+            try:
+                run(text)
+            except Exception as exc:  # the attack's point: report every one, do not stop
+                raised.append((text, f"{type(exc).__name__}: {exc}"))
+            cpu, wall = time.process_time() - cpu0, time.perf_counter() - wall0
+            timings.append((cpu * 1000, wall * 1000, text))
+    finally:
+        if enabled:
+            gc.enable()
     return timings, raised
 
 
@@ -220,6 +298,43 @@ def _organic_throughput(organic: list[str], stage: str, baseline: int, repeat: i
     return raised
 
 
+def retime_alone(formulas: list[str], stage: str = "score", times: int = 3) -> list[tuple[float, str]]:
+    """(lowest CPU ms of ``times`` cold runs, formula) for each formula, scored
+    alone with every per-input cache empty: tells a formula that is dear from
+    one that met a busy minute of the machine."""
+    out = []
+    for text in formulas:
+        best = float("inf")
+        for _ in range(times):
+            clear_all()
+            cpu0 = time.process_time()
+            STAGES[stage](text)
+            best = min(best, (time.process_time() - cpu0) * 1000)
+        out.append((best, text))
+    return out
+
+
+def cost_figures(formulas: list[str]) -> dict[str, float]:
+    """The counted cost of each formula (:func:`record_cost`) against its cold CPU
+    time: the largest call and work counts, and the milliseconds one thousand
+    calls cost on this machine (median over formulas of 5 ms or more), which
+    turns the fuzz test's call bound into time."""
+    worst_calls = worst_work = 0
+    rates = []
+    for text in formulas:
+        clear_all()
+        cpu0 = time.process_time()
+        score_formula(text)
+        cpu_ms = (time.process_time() - cpu0) * 1000
+        calls, work = record_cost(text)
+        worst_calls, worst_work = max(worst_calls, calls), max(worst_work, work)
+        if cpu_ms >= 5 and calls:
+            rates.append(cpu_ms / calls * 1000)
+    rates.sort()
+    return {"max_calls": worst_calls, "max_solver_work": worst_work,
+            "ms_per_1000_calls": rates[len(rates) // 2] if rates else float("nan"), "timed": len(rates)}
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(prog="python -m ionicity.pipelines.bench_formulas", description=__doc__.split("\n\n")[0])
     parser.add_argument("--count", type=int, default=10_000, help="random formulas to score (default: 10,000)")
@@ -232,6 +347,8 @@ def main(argv: list[str] | None = None) -> int:
                              " (the baseline of the same run; default: 2,000)")
     parser.add_argument("--organic-repeat", type=int, default=1,
                         help="times the organic figure and its baseline are measured, alternating (default: 1)")
+    parser.add_argument("--cost", type=int, default=0, metavar="N",
+                        help="also count calls and solver work of N random and N/4 extreme formulas, cold (default: 0)")
     parser.add_argument("--stage", choices=tuple(STAGES), default="score",
                         help="score: the whole record (default); solve: parsing and the ion solver alone")
     args = parser.parse_args(argv)
@@ -248,6 +365,13 @@ def main(argv: list[str] | None = None) -> int:
     print(f"raised {len(raised)}")
     for text, message in raised[:20]:
         print(f"  raised {text!r}: {message}")
+    if cpu_over:
+        alone = retime_alone([text for _, _, text in cpu_over], args.stage)
+        still = [t for t in alone if t[0] > args.limit_ms]
+        print(f"over_{args.limit_ms:g}_ms_cpu re-timed alone (best of 3, fresh caches): {len(still)} still over;"
+              f" worst {max(alone)[0]:.2f} ms")
+        for cpu, text in sorted(still, reverse=True)[:10]:
+            print(f"  still over: {cpu:8.2f}  {text}")
     worst = sorted(timings, reverse=True)[:10]
     print("slowest (cpu_ms wall_ms formula):")
     for cpu, wall, text in worst:
@@ -269,6 +393,10 @@ def main(argv: list[str] | None = None) -> int:
     if cpu_ms:
         print(f"random cpu_ms median {cpu_ms[len(cpu_ms) // 2]:.3f} p99 {cpu_ms[int(len(cpu_ms) * 0.99)]:.3f}"
               f" max {cpu_ms[-1]:.3f}")
+    if args.cost:
+        figures = cost_figures(random_formulas(args.cost, args.seed) + extreme_formulas(max(args.cost // 4, 1), args.seed))
+        print("cost (cold, counted): " + ", ".join(f"{k} {v:,.3f}" if isinstance(v, float) else f"{k} {v:,}"
+                                                   for k, v in figures.items()))
     organic = organic_formulas(args.organic, args.seed)
     if organic and args.stage == "score":
         # as in a worker process: tables warm, the collector's thresholds raised

@@ -70,7 +70,7 @@ from ionicity.scorer.substance import (
     oxidation_states_of,
 )
 
-__all__ = ["decompose", "decompose_anhydrous", "solver_work", "work_bound", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
+__all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work", "work_bound", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
 
 _RARE_ANION_FAMILIES = frozenset({"chalcogenide-polyatomic", "carbide"})
 _PENALTY_EXTRA_STATE = 2.0
@@ -129,11 +129,12 @@ _MAX_POLYATOMIC_SPECIES = 3
 _MULTIPLICITIES = 3
 # equally plausible choices kept per charge of the knapsack table
 _MAX_TIES = 16
-# solver work (search nodes plus knapsack transitions) one polyatomic-ion walk
-# may spend, about 50 ms of CPU: far above what any formula of the demo and
-# reference tables needs (DEVELOPERS.md, "The charge-balance solver and its
-# cost"); a walk that reaches it stops and its row's notes say so
-_SEARCH_BUDGET = 40_000
+# solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
+# of one composition may spend together, about 15 ms of CPU: 1.5 times the
+# dearest read of the demo and reference lists (Tutton's salt, 10,484 units;
+# DEVELOPERS.md, "The charge-balance solver and its cost"); a walk that
+# reaches it stops and its row's notes say so
+_SEARCH_BUDGET = 16_000
 _SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
                     "polyatomic ions: a more plausible reading may exist (check the formula)")
 # states kept per knapsack table: bounds the work whatever the counts
@@ -236,13 +237,13 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
             tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
             for s, options in zip(symbols, per_symbol)
         ]
-    singles = [tuple((state, penalty) for kind, state, penalty in options if kind == "single") for options in per_symbol]
+    singles = [tuple([(state, penalty) for kind, state, penalty in options if kind == "single"]) for options in per_symbol]
     if any(not options for options in singles):
         return ()
     n_of = [counts[s] for s in symbols]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
-    stoichiometric = all(abs(n - round(n)) < _TOL for _, n in remaining)
+    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
         for penalty, picks in _knapsack(singles, (), n_of, needed, cap)
@@ -252,7 +253,7 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     # species more and pays the split's penalty, so it competes only where no
     # single-state reading is that cheap
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
-    splits = [tuple((state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL)
+    splits = [tuple([(state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL])
               for options in per_symbol]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
         for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap):
@@ -303,35 +304,40 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
     table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
     work = 0
     # whole counts keep the charge an integer: no rounding per transition
-    whole = all(float(n).is_integer() for n in n_of)
+    whole = all([float(n).is_integer() for n in n_of])
     for i, options in enumerate(singles):
         n = int(n_of[i]) if whole else n_of[i]
         lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
         following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
-
-        def add(key, p, picks, choice):
-            held = following.get(key)
-            if held is None or p < held[0] - _TOL:
-                following[key] = (p, tuple(k + (choice,) for k in picks[:_MAX_TIES]))
-            elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                following[key] = (held[0], held[1] + tuple(k + (choice,) for k in picks[: _MAX_TIES - len(held[1])]))
-
+        # the cheapest choices reaching each state, ties kept (written out rather
+        # than a helper: this loop is most of the solver's time)
         for (charge, split), (penalty, picks) in table.items():
             for state, option_penalty in options:
                 work += 1
                 p = penalty + option_penalty
-                c = charge + state * n if whole else round(charge + state * n, 9)
                 if p > cap + _TOL:
                     continue
+                c = charge + state * n if whole else round(charge + state * n, 9)
                 if not split and not lo <= c <= hi:
                     continue
-                add((c, split), p, picks, state)
+                key = (c, split)
+                held = following.get(key)
+                if held is None or p < held[0] - _TOL:
+                    following[key] = (p, tuple([k + (state,) for k in picks[:_MAX_TIES]]))
+                elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
+                    following[key] = (held[0], held[1] + tuple([k + (state,) for k in picks[: _MAX_TIES - len(held[1])]]))
             if splits and not split:
                 for pair, option_penalty in splits[i]:
                     work += 1
                     p = penalty + option_penalty
-                    if p <= cap + _TOL:
-                        add((charge, (i, pair)), p, picks, pair)
+                    if p > cap + _TOL:
+                        continue
+                    key = (charge, (i, pair))
+                    held = following.get(key)
+                    if held is None or p < held[0] - _TOL:
+                        following[key] = (p, tuple([k + (pair,) for k in picks[:_MAX_TIES]]))
+                    elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
+                        following[key] = (held[0], held[1] + tuple([k + (pair,) for k in picks[: _MAX_TIES - len(held[1])]]))
         if len(following) > _MAX_TABLE:
             # the cheapest states, then those nearest what is still needed
             kept = sorted(following.items(), key=lambda kv: (round(kv[1][0], 9), abs(needed - kv[0][0]), kv[0]))
@@ -426,14 +432,16 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
 
 
-def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
+def _search(remaining: dict[str, float], needed: float, excluded=frozenset(), budget=None):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
     ones and larger ones first, each at its largest multiplicities and at
     none; a branch is cut once its penalty so far exceeds the best complete
-    reading. The walk spends at most ``_SEARCH_BUDGET`` units of solver work
-    (nodes plus knapsack transitions); one that reaches it stops there.
+    reading. The walk spends at most what is left of ``budget`` (a one-item
+    list shared by the walks of one composition, ``_SEARCH_BUDGET`` units of
+    solver work: nodes plus knapsack transitions) and takes what it spent
+    from it; one that reaches it stops there.
     Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
@@ -455,69 +463,99 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset()):
             share[symbol] = (min(lo, per_atom), max(hi, per_atom))
         shares.append(share)
     shares.reverse()
+    budget = [_SEARCH_BUDGET] if budget is None else budget
+    limit = budget[0]
     nodes = 0
     best = [float("inf")]
     found: list = []
-    cut = [False]
+    cut = [limit <= 0]
     # work of the knapsacks counted whether or not their answer was cached:
     # where a walk stops depends on the formula alone
     spent = [0]
 
-    def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
+    def floor_at(index: int, left: dict[str, float], chosen, charge: float, cost: float, share_index: int):
+        """The penalty floor of a node whose next candidate is ``index``, or None when
+        it is cut (by the charge relaxation, the penalty floor or the work limit)."""
         nonlocal nodes
-        if cut[0]:
-            return
-        if nodes + spent[0] >= _SEARCH_BUDGET:
+        if nodes + spent[0] >= limit:
             cut[0] = True
-            return
+            return None
         # a node's cost grows with the elements its charge check visits
         nodes += 1 + len(left)
-        share = shares[len(candidates) if len(chosen) == _MAX_POLYATOMIC_SPECIES else index]
+        share = shares[share_index]
         lo = hi = 0.0
         for symbol, n in left.items():
             s_lo, s_hi = share.get(symbol, (float("inf"), float("-inf")))
             if s_lo > s_hi:
-                return
+                return None
             lo += s_lo * n
             hi += s_hi * n
         if not lo - _TOL <= needed - charge <= hi + _TOL:
-            return
+            return None
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
-        alone = sum(1 for symbol in left if symbol not in later)
+        alone = len([symbol for symbol in left if symbol not in later])
         floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
-        if floor > best[0] + _TOL:
+        return None if floor > best[0] + _TOL else floor
+
+    def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
+        cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
+        work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
+        spent[0] += work
+        for penalty, singles in assignments:
+            terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
+            total = penalty + cost + _PENALTY_SPECIES * len(terms)
+            if total <= best[0] + _TOL:
+                best[0] = min(best[0], total)
+                found.append((total, terms))
+
+    def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
+        """Every reading that adds candidates ``index``.. to ``chosen``: each candidate
+        that fits, at its largest multiplicities, then the monatomic rest.
+
+        The bounds only tighten as the index grows (fewer candidates left to
+        carry charge or hold an element), so a node cut at one candidate is
+        cut at every later one and at the monatomic rest: the loop stops there,
+        and candidates that do not fit are passed over without a node. The
+        readings are those of a walk that visits every index in turn.
+        """
+        if cut[0]:
             return
-        if index == len(candidates) or len(chosen) == _MAX_POLYATOMIC_SPECIES or not left:
-            cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
-            work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
-            spent[0] += work
-            for penalty, singles in assignments:
-                terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
-                total = penalty + cost + _PENALTY_SPECIES * len(terms)
-                if total <= best[0] + _TOL:
-                    best[0] = min(best[0], total)
-                    found.append((total, terms))
+        full = len(chosen) == _MAX_POLYATOMIC_SPECIES
+        if full or not left:
+            floor = floor_at(index, left, chosen, charge, cost, len(candidates) if full else index)
+            if floor is not None:
+                leaf(left, chosen, charge, cost, floor)
             return
-        ion = candidates[index]
-        most = _fits(ion.composition, left)
-        # the largest multiplicities only: an ion used fewer times leaves its
-        # limiting element to monatomic ions, which a real salt seldom holds
-        # beside the same element in a polyatomic ion; this bounds the nodes
-        # by a polynomial of the candidates, O((candidates x 3)^3)
-        for times in range(most, max(most - _MULTIPLICITIES, 0), -1):
-            walk(
-                index + 1,
-                _subtract(left, ion.composition, times),
-                chosen + [(ion, float(times))],
-                charge + ion.charge * times,
-                cost + _ion_penalty(ion),
-            )
-        walk(index + 1, left, chosen, charge, cost)
+        for j in range(index, len(candidates)):
+            ion = candidates[j]
+            most = _fits(ion.composition, left)
+            if not most:
+                continue
+            if floor_at(j, left, chosen, charge, cost, j) is None or cut[0]:
+                return
+            # the largest multiplicities only: an ion used fewer times leaves its
+            # limiting element to monatomic ions, which a real salt seldom holds
+            # beside the same element in a polyatomic ion; this bounds the nodes
+            # by a polynomial of the candidates, O((candidates x 3)^3)
+            for times in range(most, max(most - _MULTIPLICITIES, 0), -1):
+                walk(
+                    j + 1,
+                    _subtract(left, ion.composition, times),
+                    chosen + [(ion, float(times))],
+                    charge + ion.charge * times,
+                    cost + _ion_penalty(ion),
+                )
+                if cut[0]:
+                    return
+        floor = floor_at(len(candidates), left, chosen, charge, cost, len(candidates))
+        if floor is not None:
+            leaf(left, chosen, charge, cost, floor)
 
     walk(0, dict(remaining), [], 0.0, 0.0)
     _WORK[0] += nodes
+    budget[0] -= nodes + spent[0]
     return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
 
 
@@ -662,7 +700,28 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
-def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Decomposition:
+def decompose_within(comp: ParsedFormula, work_limit: int) -> tuple[Decomposition, int]:
+    """:func:`decompose_anhydrous` with the walks of its read limited to
+    ``work_limit`` units of solver work (at most ``_SEARCH_BUDGET``), and the
+    work they spent: how a caller that reads many spellings (the typing-slip
+    search, :mod:`scorer.slips`) bounds its own cost. The work is counted as
+    the walks count it, also where their knapsacks' answers come from a cache,
+    so it depends on the formula and the limit alone. A read that stays under
+    the limit is the read :func:`decompose_anhydrous` gives; one that reaches it
+    carries the work-limit note.
+    """
+    return _decompose_within(comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint,
+                             min(int(work_limit), _SEARCH_BUDGET))
+
+
+@per_input(maxsize=16384)
+def _decompose_within(counts_key, charge, ion_hints, neutral_adducts, structure_hint, limit: int):
+    budget = [limit]
+    dec = settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget))
+    return dec, limit - budget[0]
+
+
+def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget=None) -> Decomposition:
     comp = ParsedFormula(
         text="", counts=counts_key, charge=charge, ion_hints=ion_hints,
         neutral_adducts=neutral_adducts, structure_hint=structure_hint,
@@ -701,6 +760,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
         )
 
     remaining = dict(counts)
+    # every walk of this composition (the charge variants of written ions, the
+    # redox re-read) draws on one work limit: the cost of a read is bounded
+    budget = [_SEARCH_BUDGET] if budget is None else budget
     hinted = []
     for ion_id, n in comp.ion_hints:
         ion = get_ion(ion_id)
@@ -714,7 +776,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
     else:
-        readings = _readings(remaining, hinted, notes)
+        readings = _readings(remaining, hinted, notes, budget=budget)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
@@ -738,7 +800,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
             for t in cations if t.ion.monatomic and any(c.startswith(t.ion.ion_id + " ") for c in conflicts)
             for state, _ in _states(t.ion.element) if state >= t.ion.charge
         )
-        compatible = _best(_readings(remaining, hinted, [], excluded)) if excluded else None
+        compatible = _best(_readings(remaining, hinted, [], excluded, budget)) if excluded else None
         # only a reading of common states and ions will do (TlI3 = Tl(+) I3(-)),
         # not an odd state invented to balance (Fe(+) with I3(-) for FeI3)
         if (compatible is not None and compatible[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA
@@ -776,14 +838,16 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint) -> Dec
     )
 
 
-def _readings(remaining, hinted, notes: list[str], excluded=frozenset()):
-    """Every best charge-balanced reading, the written ions included."""
+def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=None):
+    """Every best charge-balanced reading, the written ions included; the
+    walks share ``budget`` (one composition's, see :func:`_search`)."""
+    budget = [_SEARCH_BUDGET] if budget is None else budget
     readings = []
     for given in itertools.product(*hinted):
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            found, stopped = _search(remaining, -given_charge, excluded)
+            found, stopped = _search(remaining, -given_charge, excluded, budget)
             if stopped and _SEARCH_CUT_NOTE not in notes:
                 notes.append(_SEARCH_CUT_NOTE)
             readings.extend((penalty, given + terms) for penalty, terms in found)

@@ -47,10 +47,10 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
-from ionicity.scorer.ions import decompose_anhydrous
+from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 
 __all__ = [
-    "Slip", "SLIP_KINDS", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+    "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
 ]
 
 # what each kind of slip is called in messages and in the audit summary
@@ -82,6 +82,21 @@ _CLASS_PENALTY = {
 _MAX_PROPOSALS = 256
 # proposals of one kind read by the ion solver at most (in2(co3)3 has dozens of re-casings)
 _SOLVED_PROPOSALS = 8
+# solver work (scorer.ions.solver_work units) the proposals of one text may spend together,
+# both rounds of find_slip: above the dearest right correction of the demo and reference
+# lists (Tutton's salt typed with 0 for O twice, 900 + 10,521 units), so that a text's slip search costs at
+# most this much more than its own read (DEVELOPERS.md, "The cost of one formula")
+SLIP_WORK_LIMIT = 12_000
+# elements a proposal may hold to be read: an inventory line with a typing slip holds a few
+# (the demo and reference lists at most 8); the solver's knapsack grows with the elements, so a
+# long random string of symbols is read as written, not re-read per proposal (common practice)
+_SLIP_MAX_ELEMENTS = 8
+# the longest text searched for slips (after removing spaces): inventory formulas are short (the
+# demo and reference lists at most 25 characters), and a text that does not parse costs the
+# parser's own suggestion search, growing with the square of its length (common practice)
+_SLIP_MAX_LENGTH = 64
+# proposals parsed per text, every kind and both rounds together: each costs a parse
+_PARSED_PROPOSALS = 32
 # the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
 _BEST_PENALTY = 0.5
 # elements written with a count as the molecules they form (common practice)
@@ -91,6 +106,8 @@ _ELEMENT_MOLECULES = frozenset({
 })
 _ZERO = re.compile(r"(?<![.\d])0(?!\.)|(?<=\d)0")
 _LETTER_RUN = re.compile(r"[A-Za-z]+")
+# what str.isalpha() refuses (digits, underscore, punctuation): one substitution, not a loop per character
+_NOT_A_LETTER = re.compile(r"[\W\d_]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
@@ -123,11 +140,28 @@ def reading_penalty(text: str) -> float:
     >>> reading_penalty("Xx")
     inf
     """
+    if math.isinf(_parsed_penalty(text)):
+        return math.inf
+    return _penalty_of(text, decompose_anhydrous(_parsed(text)))
+
+
+@per_input(maxsize=65536)
+def _proposal_penalty(text: str, work_limit: int) -> tuple[float, int]:
+    """(:func:`reading_penalty` of a proposed spelling, the solver work it cost) with
+    the solver limited to ``work_limit`` units: a proposal whose read reaches the
+    limit is no correction (``inf``)."""
+    if math.isinf(_parsed_penalty(text)) or len(_parsed(text).counts) > _SLIP_MAX_ELEMENTS:
+        return math.inf, 0
+    dec, work = decompose_within(_parsed(text), work_limit)
+    if work >= work_limit:
+        return math.inf, work
+    return _penalty_of(text, dec), work
+
+
+def _penalty_of(text: str, dec) -> float:
+    """The reading penalty of ``text`` read as ``dec`` (see :func:`reading_penalty`)."""
     penalty = _parsed_penalty(text)
-    if math.isinf(penalty):
-        return penalty
     comp = _parsed(text)
-    dec = decompose_anhydrous(comp)
     if dec.substance_class == "unknown":
         return math.inf
     penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
@@ -293,10 +327,11 @@ def find_slip(text: str) -> Slip | None:
         Two slips in one text (``Kl03``: l for I, then 0 for O) are found
         in two rounds; the kind is the first one's.
     """
-    slip = _find_one(text)
+    allowance = [SLIP_WORK_LIMIT, _PARSED_PROPOSALS]
+    slip = _find_one(text, allowance)
     if slip is None or not slip.suggested:
         return slip
-    second = _find_one(slip.suggested)
+    second = _find_one(slip.suggested, allowance)
     if second is None or not second.suggested:
         return slip
     best = second.suggested
@@ -304,8 +339,10 @@ def find_slip(text: str) -> Slip | None:
     return Slip(slip.kind, best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
 
 
-def _find_one(text: str) -> Slip | None:
-    """One round of :func:`find_slip`: the best proposal of any kind."""
+def _find_one(text: str, allowance: list[int]) -> Slip | None:
+    """One round of :func:`find_slip`: the best proposal of any kind. The
+    proposals draw on ``allowance`` (solver work units, proposals parsed);
+    once either is spent no more are read."""
     if not isinstance(text, str) or not text or len(text) > 200:
         return None
     stripped = "".join(text.split())
@@ -314,7 +351,9 @@ def _find_one(text: str) -> Slip | None:
     abbreviation = unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
-    letters = "".join(ch for ch in stripped if ch.isalpha())
+    if len(stripped) > _SLIP_MAX_LENGTH:
+        return None  # longer than any inventory line: read as written
+    letters = _NOT_A_LETTER.sub("", stripped)
     all_caps = len(letters) > 1 and letters.isupper()
     all_lower = letters.islower()
     if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
@@ -334,12 +373,16 @@ def _find_one(text: str) -> Slip | None:
             return
         # the solver's work is the cost: proposals in order of the penalty they get
         # before it (a lower bound), solved until none left can beat the best
-        proposals = sorted((p for p in dict.fromkeys(make_proposals()) if p != stripped), key=_parsed_penalty)
+        proposals = [p for p in dict.fromkeys(make_proposals()) if p != stripped][:max(allowance[1], 0)]
+        allowance[1] -= len(proposals)
+        proposals.sort(key=_parsed_penalty)
         for proposal in proposals[:_SOLVED_PROPOSALS]:
             best = min((c[0] for c in candidates), default=math.inf)
-            if _parsed_penalty(proposal) >= best:
+            if _parsed_penalty(proposal) >= best or allowance[0] <= 0:
                 break
-            candidates.append((reading_penalty(proposal), len(candidates), kind, proposal, evidence))
+            penalty, work = _proposal_penalty(proposal, allowance[0])
+            allowance[0] -= work
+            candidates.append((penalty, len(candidates), kind, proposal, evidence))
 
     zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
     leading = any(not stripped[i - 1].isdigit() for i in zeros)

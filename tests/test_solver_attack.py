@@ -107,8 +107,8 @@ def test_a_search_that_reaches_the_work_limit_says_so_and_does_not_depend_on_the
 
 
 def test_a_common_double_salt_stays_far_below_the_work_limit():
-    # Tutton's salt (NH4)2Mn(SO4)2.6H2O, the dearest walk of the demo and reference lists (18,279 units
-    # against 40,000): an ammonium manganese(II) sulfate (Greenwood & Earnshaw, 2nd ed., 1997, from memory)
+    # Tutton's salt (NH4)2Mn(SO4)2.6H2O, the dearest read of the demo and reference lists (10,484 units
+    # against 16,000): an ammonium manganese(II) sulfate (Greenwood & Earnshaw, 2nd ed., 1997, from memory)
     clear_all()
     dec = decompose(parse_formula("(NH4)2Mn(SO4)2·6H2O"))
     assert ions._SEARCH_CUT_NOTE not in dec.notes
