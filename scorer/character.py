@@ -56,6 +56,7 @@ common practice, chosen for this project on the Pauling scale; see
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 
 import numpy as np
 from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
@@ -514,13 +515,8 @@ def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
         mean_chi_pauling=mean,
         bond_type=bond_type,
     )
-    hi = max(rows, key=lambda r: r[2])
-    lo = min(rows, key=lambda r: r[2])
-    steps = [
-        f"no ions ({dec.substance_class}): composition {_composition_text(rows)}; dchi = max - min ="
-        f" {fmt(hi[2])} ({hi[0]}) - {fmt(lo[2])} ({lo[0]}) = {fmt(delta)}; mean chi ="
-        f" {_MEAN_CHI_COMPOSITION} = {fmt(mean, '.3f')}"
-    ]
+    # written only when explained (scorer.descriptor): a molecule's record does not need it
+    steps: list = [_NoIonStep(str(dec.substance_class), tuple(rows), delta, mean)]
     notes = []
     symbols = [s for s, _, _ in rows]
     metal_flags = [is_metal(s) for s in symbols]
@@ -536,6 +532,26 @@ def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
             " although no element here is a metal"
         )
     return values, notes, steps
+
+
+@dataclass(frozen=True)
+class _NoIonStep:
+    """The explain line of a compound without ions, written when called (a step
+    of :class:`scorer.descriptor.Result` may be a callable): about a quarter of a
+    molecule's bond-character cost went into formatting it for every one scored."""
+
+    substance_class: str
+    rows: tuple[tuple[str, float, float], ...]
+    delta: float
+    mean: float
+
+    def __call__(self) -> str:
+        rows = self.rows
+        hi = max(rows, key=lambda r: r[2])
+        lo = min(rows, key=lambda r: r[2])
+        return (f"no ions ({self.substance_class}): composition {_composition_text(rows)}; dchi = max - min ="
+                f" {fmt(hi[2])} ({hi[0]}) - {fmt(lo[2])} ({lo[0]}) = {fmt(self.delta)}; mean chi ="
+                f" {_MEAN_CHI_COMPOSITION} = {fmt(self.mean, '.3f')}")
 
 
 def _composition_text(rows) -> str:

@@ -54,7 +54,9 @@ class Result:
     ``notes`` are the row's notes (a :class:`scorer.model.RowWarning` turns the
     status into ``warning``; a plain ``str`` goes to ``value_notes``);
     ``steps`` are the lines of ``ionicity explain``: each value with its
-    inputs and equation. ``withheld`` names columns whose value is kept in
+    inputs and equation; a step may be a callable of no arguments that
+    returns its line, written only when explained (formatting a line for
+    every compound scored is a cost the record does not need). ``withheld`` names columns whose value is kept in
     the result for the modules that read it (a trend input fitted on it) but
     written empty in the output, where it would mislead; a note says why.
     """
@@ -192,10 +194,11 @@ class Descriptor:
         # without a title the steps stand at the left margin
         indent = "  " if self.title else ""
         lines = [self.title] if self.title else []
-        lines += [indent + step for step in result.steps]
+        steps = [step if isinstance(step, str) else step() for step in result.steps]
+        lines += [indent + step for step in steps]
         if self._summary is not None:
             lines += [indent + line for line in self._summary(result)]
-        lines += ["  note: " + note for note in result.notes if note not in result.steps]
+        lines += ["  note: " + note for note in result.notes if note not in steps]
         return lines
 
 

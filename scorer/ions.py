@@ -432,6 +432,11 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
 
 
+# the charge range of an element no candidate holds: empty, so the branch is cut (one
+# constant, not two float() calls per element of every node visited)
+_NO_SHARE = (float("inf"), float("-inf"))
+
+
 def _search(remaining: dict[str, float], needed: float, excluded=frozenset(), budget=None):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
@@ -485,7 +490,7 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset(), bu
         share = shares[share_index]
         lo = hi = 0.0
         for symbol, n in left.items():
-            s_lo, s_hi = share.get(symbol, (float("inf"), float("-inf")))
+            s_lo, s_hi = share.get(symbol, _NO_SHARE)
             if s_lo > s_hi:
                 return None
             lo += s_lo * n
@@ -495,7 +500,7 @@ def _search(remaining: dict[str, float], needed: float, excluded=frozenset(), bu
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
-        alone = len([symbol for symbol in left if symbol not in later])
+        alone = len(left.keys() - later)
         floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
         return None if floor > best[0] + _TOL else floor
 

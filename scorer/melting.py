@@ -392,7 +392,8 @@ COLUMNS: tuple[Column, ...] = (
 
 MeltingTrend = result_class(
     "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.",
-    extra=(("terms", "MeltingTerms | None", None), ("route_steps", "tuple", ())),
+    extra=(("terms", "MeltingTerms | None", None), ("route_steps", "tuple", ()),
+           ("molecular", "_MolecularReading | None", None)),
 )
 
 
@@ -411,7 +412,7 @@ def _summary(result: MeltingTrend) -> tuple[str, ...]:
         f"melting_class = {result.melting_class} (bands: {_BANDS_TEXT})",
     )
     salt = _steps(result.terms, result.terms.index()) if result.terms is not None else ()
-    return (*head, *salt, *result.route_steps, "  caution: " + CAUTION)
+    return (*head, *salt, *result.route_steps, *_molecular_steps(result.molecular), "  caution: " + CAUTION)
 
 
 def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
@@ -464,15 +465,38 @@ def _salt(dec: Decomposition) -> tuple[float, MeltingTerms | None, list[str]]:
     return float(terms.index()), terms, notes
 
 
-def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
+@dataclass(frozen=True)
+class _MolecularReading:
+    """The molecular route's inputs and results for one compound; its explain
+    lines are written from them only when ``ionicity explain`` asks
+    (:func:`_molecular_steps`): formatting one alpha per atom was about a third
+    of the route's cost for every molecule scored."""
+
+    terms: routes.MolecularTerms
+    cohesion_kJ_mol: float
+    entropy_J_mol_K: float
+    temperature_K: float
+
+
+def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | None]:
     m = routes.molecular_terms(dec)
     if m is None:
-        return math.nan, ()
+        return math.nan, None
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
     cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w)
     temperature = routes.molecular_melting_K(cohesion, entropy)
-    steps = (
+    reading = _MolecularReading(m, cohesion, entropy, temperature)
+    return math.log10(temperature) if temperature > 0 else math.nan, reading
+
+
+def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
+    if reading is None:
+        return ()
+    m, cohesion = reading.terms, reading.cohesion_kJ_mol
+    entropy, temperature = reading.entropy_J_mol_K, reading.temperature_K
+    w = TREND_WEIGHTS
+    return (
         f"  molecular: T = dH_m / dS_m = {cohesion:.1f} kJ/mol / {entropy:.1f} J/(mol K) = {temperature:.0f} K",
         f"  entropy: 56.5 - R ln sigma + R ln 2.435**tau (Walden; Dannenfelser & Yalkowsky 1996), sigma ="
         f" {m.symmetry_number:g}, tau = {m.torsions_tau:g} ({m.basis})",
@@ -482,7 +506,6 @@ def _molecular(dec: Decomposition) -> tuple[float, tuple[str, ...]]:
         f" * {m.open_sites} open coordination site(s) bridged in the crystal * Pauling bond strength z/CN"
         f" {m.bond_strength:.3f}",
     )
-    return math.log10(temperature) if temperature > 0 else math.nan, steps
 
 
 def _formal_salt(dec: Decomposition) -> Decomposition | None:
@@ -524,23 +547,23 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     route = routes.ROUTE_OF_CLASS.get(dec.substance_class)
     if route == "salt" and not dec.is_ionic:
         route = None
-    terms, notes, steps = None, [], ()
+    terms, notes, steps, reading = None, [], (), None
     index = math.nan
     if route == "salt":
         index, terms, notes = _salt(dec)
     elif route == "molecular":
-        index, steps = _molecular(dec)
+        index, reading = _molecular(dec)
     elif route == "chain_layer":
-        molecular, steps = _molecular(dec)
+        molecular, reading = _molecular(dec)
         formal = _formal_salt(dec)
         salt, terms, notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and math.isfinite(molecular):
             index = routes.chain_layer_index(salt, molecular)
             steps = (f"  chain/layer solid: I = mean of the salt index {salt:.3f} and the molecular index"
-                     f" {molecular:.3f} (chain_layer_index)", *steps)
+                     f" {molecular:.3f} (chain_layer_index)",)
         else:
             index = molecular
-            steps = ("  chain/layer solid without an ionic reading: the molecular index alone", *steps)
+            steps = ("  chain/layer solid without an ionic reading: the molecular index alone",)
     elif route == "element_mixture":
         temperature, how = routes.element_mixture_melting_K(dec.composition)
         index = math.log10(temperature) if temperature > 0 else math.nan
@@ -569,6 +592,7 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         mp_route=route,
         terms=terms,
         route_steps=steps,
+        molecular=reading,
         notes=tuple(notes),
     )
 

@@ -50,7 +50,8 @@ from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 
 __all__ = [
-    "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "MAYBE_SLIP", "find_slip", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+    "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
+    "reading_penalty", "slip_kind_of", "unknown_abbreviation",
 ]
 
 # what each kind of slip is called in messages and in the audit summary
@@ -98,7 +99,7 @@ _SLIP_MAX_LENGTH = 64
 # proposals parsed per text, every kind and both rounds together: each costs a parse
 _PARSED_PROPOSALS = 32
 # the lowest penalty any reading gets (a salt of one element... 0.5 per element, one element at least)
-_BEST_PENALTY = 0.5
+BEST_PENALTY = 0.5
 # elements written with a count as the molecules they form (common practice)
 _ELEMENT_MOLECULES = frozenset({
     ("H", 2.0), ("N", 2.0), ("O", 2.0), ("O", 3.0), ("F", 2.0), ("Cl", 2.0), ("Br", 2.0), ("I", 2.0),
@@ -232,7 +233,9 @@ def _parsed(text: str):
         return None
 
 
-def _absurd_count(text: str) -> bool:
+def absurd_count(text: str) -> bool:
+    """Whether ``text`` does not parse or has a count no inventory formula has
+    (over 100, or over 24 without carbon): where a 0 inside a count may be an O."""
     comp = _parsed(text)
     if comp is None:
         return True
@@ -368,8 +371,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
 
     def consider(kind: str, make_proposals, evidence: bool) -> None:
         # without evidence a proposal must beat the written reading by MARGIN, and none
-        # reads better than _BEST_PENALTY: a text that reads well (KNO3, CO) costs no proposals
-        if not evidence and written_penalty() - MARGIN <= _BEST_PENALTY:
+        # reads better than BEST_PENALTY: a text that reads well (KNO3, CO) costs no proposals
+        if not evidence and written_penalty() - MARGIN <= BEST_PENALTY:
             return
         # the solver's work is the cost: proposals in order of the penalty they get
         # before it (a lower bound), solved until none left can beat the best
@@ -388,7 +391,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     leading = any(not stripped[i - 1].isdigit() for i in zeros)
     # a 0 inside a count (Fe203, Na20) may be a slip where the count is absurd or
     # belongs to an element other than C and H (C10H8 is naphthalene)
-    if zeros and (leading or _absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
+    if zeros and (leading or absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
         consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options), leading)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:

@@ -105,3 +105,82 @@ def test_rows_found_after_submit_are_the_cache_rows():
         ticket = scorer.submit(batch)
         rows = scorer.rows_of(ticket).to_pylist()
         assert rows == [scorer.cache.index[f] for f in formulas[:200] * 2]
+
+
+# ----------------------------------------------- per-formula shortcuts of the workers
+
+def _plain_cohesion_kJ_mol(alphas, open_sites, bond_strength, w) -> float:
+    """molecular_cohesion_kJ_mol written out atom by atom, as before grouping."""
+    total = sum(w["molecular_contact_kJ_mol"] + w["molecular_polarisability_kJ_mol_A3"] * a for a in alphas)
+    return total + w["molecular_bridge_kJ_mol"] * max(open_sites, 0) * bond_strength
+
+
+def test_grouped_molecular_cohesion_is_the_same_float_as_the_atom_by_atom_sum():
+    from ionicity.scorer import melting_routes
+    from ionicity.scorer.melting_index import TREND_WEIGHTS
+
+    rng = random.Random(11)
+    alphas_of = [0.67, 1.76, 1.10, 0.80, 2.18, 5.35, 3.03]  # a few distinct values, as a molecule has
+    for _ in range(300):
+        alphas = [rng.choice(alphas_of) for _ in range(rng.randint(1, 400))]
+        rng.shuffle(alphas)
+        args = (alphas, rng.randint(0, 3), rng.random())
+        # exact equality: the same additions in the same order
+        assert melting_routes.molecular_cohesion_kJ_mol(*args, TREND_WEIGHTS) == _plain_cohesion_kJ_mol(*args, TREND_WEIGHTS)
+
+
+def test_one_polarisability_per_atom_in_composition_order():
+    from ionicity.scorer import melting_routes
+
+    for counts in ((("C", 6.0), ("H", 12.0), ("O", 6.0)), (("Cl", 4.0),), (("C", 40.0), ("H", 82.0), ("N", 1.0)),
+                   (("H", 2.5), ("Br", 1.0))):
+        plain = tuple(a for s, n in counts for a in [melting_routes._polarisability_A3(s)] * int(round(n)))
+        assert melting_routes._atom_polarisabilities_A3(counts) == plain, counts
+
+
+def _eager_explain(module, dec) -> list[str]:
+    """Descriptor.explain with every step formatted when the result was made (the plain path)."""
+    result = module.analyse(dec)
+    steps = [s if isinstance(s, str) else s() for s in result.steps]
+    indent = "  " if module.analyse.title else ""
+    lines = [module.analyse.title] if module.analyse.title else []
+    lines += [indent + s for s in steps]
+    if module.analyse._summary is not None:
+        lines += [indent + line for line in module.analyse._summary(result)]
+    return lines + ["  note: " + n for n in result.notes if n not in steps]
+
+
+@pytest.mark.parametrize("text, words", [
+    # Pauling electronegativities C 2.55, H 2.20, O 3.44 (CRC Handbook via mendeleev)
+    ("C6H6", ("no ions (covalent_molecular): composition C6(chi 2.55) H6(chi 2.20)", "dchi = max - min = 2.55 (C)"
+              " - 2.20 (H) = 0.35")),
+    ("C2H6O", ("composition C2(chi 2.55) H6(chi 2.20) O1(chi 3.44)",)),
+])
+def test_lazy_bond_character_step_is_written_when_explained(text, words):
+    from ionicity.scorer import character
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.ions import decompose
+
+    dec = decompose(parse_formula(text))
+    result = character.analyse(dec)
+    assert any(not isinstance(s, str) for s in result.steps)  # not formatted while scoring
+    explained = character.explain(dec)
+    assert explained == _eager_explain(character, dec)
+    for word in words:
+        assert word in "\n".join(explained), (word, explained)
+
+
+@pytest.mark.parametrize("text, atoms", [("C7H8", 15), ("TiCl4", 4), ("C2H6O", 9)])
+def test_lazy_molecular_melting_lines_name_every_peripheral_atom(text, atoms):
+    from ionicity.scorer import melting
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.ions import decompose
+
+    dec = decompose(parse_formula(text))
+    result = melting.analyse(dec)
+    assert result.molecular is not None and not result.route_steps  # the lines are not made yet
+    lines = "\n".join(melting.explain(dec))
+    assert f"cohesion: sum over {atoms} peripheral atoms" in lines
+    alphas = lines.split("alphas ")[1].split(";")[0].split(", ")
+    assert len(alphas) == atoms
+    assert "molecular: T = dH_m / dS_m" in lines and "caution" in lines
