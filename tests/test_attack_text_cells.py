@@ -6,6 +6,11 @@ scored, on the local engine (files and standard input) and the Dask engine
 alike. A whole file in another encoding gets the same per-row messages and a
 summary line that name ``--encoding``.
 
+Reference facts: which byte sequences are valid UTF-8 follows RFC 3629 (Yergeau 2003,
+"UTF-8, a transformation format of ISO 10646", section 4), as Python's codec implements it;
+U+FFFD is the Unicode replacement character (The Unicode Standard, chapter 3, "U+FFFD
+Substitution"). No chemistry value is checked here.
+
 No scientific reference values: the formulas are ordinary salts whose
 reading (status ok) is checked elsewhere (tests/data/formula_cases.csv);
 that 0xFF never occurs in UTF-8 and 0xE9 is "é" in Latin-1 is from the
