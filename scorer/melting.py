@@ -366,7 +366,7 @@ COLUMNS: tuple[Column, ...] = (
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
         " formula unit, nitride share, organic-ion flexibility and symmetry, chain packing, charge"
-        " delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids the mean of both;"
+        " delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids a weighted mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
         "salts: lattice energy of the whole formula unit over its ion count; contact terms averaged over"
@@ -558,8 +558,10 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         formal = _formal_salt(dec)
         salt, terms, notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and math.isfinite(molecular):
-            index = routes.chain_layer_index(salt, molecular)
-            steps = (f"  chain/layer solid: I = mean of the salt index {salt:.3f} and the molecular index"
+            share = routes.chain_layer_salt_share(reading.terms if reading is not None else None)
+            index = routes.chain_layer_index(salt, molecular, share)
+            steps = (f"  chain/layer solid: I = weighted mean of the salt index {salt:.3f} (weight {share:.3f}:"
+                     f" bridging bonds and Pauling's rule, chain_layer_salt_share) and the molecular index"
                      f" {molecular:.3f} (chain_layer_index)",)
         else:
             index = molecular

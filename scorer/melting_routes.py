@@ -18,8 +18,11 @@ mean something:
   the coordination number measured where
   ``scorer/data/molecular_coordination.csv`` lists the solid, else the
   pentahalide and radius-ratio rules of :func:`molecular_terms`);
-* ``chain_layer`` (``chain_layer_solid``): between the two, the geometric
-  mean of the salt and molecular temperatures (:func:`chain_layer_index`);
+* ``chain_layer`` (``chain_layer_solid``): between the two, a weighted
+  geometric mean of the salt and molecular temperatures
+  (:func:`chain_layer_index`), the salt's weight from the share of bonds
+  that bridge and how far Pauling's rule lets the bridges be ionic
+  (:func:`chain_layer_salt_share`: CrO3 1/6, BeCl2 1/2);
 * ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
   ``intermetallic``, ``zintl_phase``, ``element``): the stated rule of
   :func:`element_mixture_melting_K`, the atom-fraction weighted mean of the
@@ -59,6 +62,7 @@ __all__ = [
     "molecular_terms",
     "element_mixture_melting_K",
     "chain_layer_index",
+    "chain_layer_salt_share",
     "ion_symmetry_number",
 ]
 
@@ -231,13 +235,59 @@ def molecular_melting_K(cohesion_kJ_mol: float, entropy_J_mol_K: float) -> float
     return 1000.0 * cohesion_kJ_mol / entropy_J_mol_K
 
 
-def chain_layer_index(salt_index: float, molecular_index: float) -> float:
-    """A chain or layer solid sits between its salt and molecular readings: the mean of the two indices.
+def chain_layer_index(salt_index: float, molecular_index: float, salt_share: float = 0.5) -> float:
+    """A chain or layer solid sits between its salt and molecular readings: their weighted mean.
+
+    ``I = I_mol + w (I_salt - I_mol)`` with ``w`` the share of the ionic
+    reading (:func:`chain_layer_salt_share`): 0.5, the plain mean, for a
+    solid whose every bond is a saturated bridge (BeCl2, MoO3, CdCl2).
 
     >>> chain_layer_index(3.0, 2.4)
     2.7
+    >>> round(chain_layer_index(3.0, 2.4, salt_share=1 / 6), 3)
+    2.5
     """
-    return 0.5 * (salt_index + molecular_index)
+    return molecular_index + salt_share * (salt_index - molecular_index)
+
+
+def chain_layer_salt_share(terms: MolecularTerms | None) -> float:
+    """Share ``w`` of the ionic reading in a chain or layer solid, from its bridging and terminal bonds.
+
+    ``w = 0.5 * min(1, 2 n_open / CN) * min(1, |z_X| / (2 s))``:
+
+    * only bridging bonds tie one centre to the next; a terminal bond (the
+      two Cr=O of each CrO4 tetrahedron in the CrO3 chain, Wells, Structural
+      Inorganic Chemistry, 5th ed., 1984, ch. 24; from memory) holds nothing
+      between centres. Each bridge pairs one of the centre's own ligands with
+      an open site of a neighbour, so ``2 n_open`` of the centre's ``CN``
+      bonds bridge (CrO3: 2 of 4; BeCl2 and MoO3: all);
+    * Pauling's electrostatic valence rule (J. Am. Chem. Soc. 1929, 51, 1010;
+      from memory): a ligand of charge ``z_X`` bridging two centres receives
+      ``2 s`` with ``s = z / CN`` (:func:`pauling_bond_strength`). Where
+      ``2 s`` exceeds ``|z_X|`` (CrO3: 2 * 6/4 = 3 on an oxide) the bridge
+      over-bonds its anion and cannot be electrostatic: only the share
+      ``|z_X| / (2 s)`` reads as ionic.
+
+    The factor 0.5 is the plain mean a fully bridged solid of saturated
+    bridges keeps. 0.5 too without a reading of the bridges (no single
+    centre, V2O5; or no open site found), said in the explain step.
+
+    Examples
+    --------
+    >>> from dataclasses import replace
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> def share(f):
+    ...     return round(chain_layer_salt_share(molecular_terms(replace(decompose(parse_formula(f)), cations=(), anions=()))), 3)
+    >>> share("CrO3"), share("BeCl2"), share("MoO3")
+    (0.167, 0.5, 0.5)
+    """
+    if terms is None or terms.open_sites <= 0 or terms.bond_strength <= 0 or terms.coordination_number <= 0:
+        return 0.5
+    bridging = min(1.0, 2.0 * terms.open_sites / terms.coordination_number)
+    n = sum(k for _, k in terms.ligands)
+    ligand_charge = sum(abs(_LIGAND_CHARGE.get(s, -1)) * k for s, k in terms.ligands) / n
+    return 0.5 * bridging * min(1.0, ligand_charge / (2.0 * terms.bond_strength))
 
 
 # --------------------------------------------------------- molecular geometry
@@ -279,6 +329,7 @@ class MolecularTerms:
     ligand_polarisabilities_A3: tuple[float, ...]
     basis: str
     bond_strength: float = 0.0
+    coordination_number: int = 0
 
 
 def _polarisability_A3(symbol: str) -> float:
@@ -407,7 +458,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     strength = pauling_bond_strength(state, cn) if open_sites else 0.0
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
-                          f" coordination {cn or 'unknown'} ({how})", strength)
+                          f" coordination {cn or 'unknown'} ({how})", strength, cn)
 
 
 def ion_symmetry_number(ion) -> float:

@@ -219,19 +219,36 @@ def test_oxyhalides_are_liquids_at_room_temperature_not_salts():
         assert _values(_built(formula, "covalent_molecular"))["melting_class"] == "liquid_at_room_temperature"
 
 
-@pytest.mark.parametrize("formula, cas", [
-    # 470 K; the molecular reading alone (chains of CrO4 tetrahedra: one bridged site) gives 451 K
-    _case("CrO3", "1333-82-0", "trend 749 K: the formal Cr(6+) lattice pulls the mean up"),
-    _case("BeCl2", "7787-47-5"),   # 688 K
+@pytest.mark.parametrize("formula, cas, share", [
+    # 470 K: chains of CrO4 tetrahedra sharing two vertices, two terminal Cr=O (Wells 1984, from
+    # memory): 2 of 4 bonds bridge, and a Cr(6+) bridge of s = 6/4 over-bonds its oxide (2 s = 3 > 2):
+    # share 0.5 * 0.5 * 2/3 = 1/6
+    ("CrO3", "1333-82-0", 1 / 6),
+    # 688 K: chains of edge-sharing BeCl4 tetrahedra, every Cl bridging, s = 2/4 (saturated): 1/2
+    ("BeCl2", "7787-47-5", 0.5),
+    # 1075 K: layers of MoO6 octahedra, s = 6/6 saturates a two-coordinate oxide: 1/2
+    ("MoO3", "1313-27-5", 0.5),
 ])
-def test_chain_and_layer_solids_sit_between_salt_and_molecule(formula, cas):
+def test_chain_and_layer_solids_sit_between_salt_and_molecule(formula, cas, share):
+    # validation: no weight of the chain/layer route is fitted; the share follows from the structure
     dec = _built(formula, "chain_layer_solid", keep_ions=True)
     values = _values(dec)
     salt = melting.describe(replace(dec, substance_class="ionic_salt", ionic_model="applies"))[0]["mp_trend_index"]
     molecular = _values(_built(formula, "covalent_molecular"))["mp_trend_index"]
     assert values["mp_route"] == "chain_layer"
-    assert values["mp_trend_index"] == pytest.approx(0.5 * (salt + molecular), abs=1e-3)
+    assert values["mp_trend_index"] == pytest.approx(molecular + share * (salt - molecular), abs=1e-3)
     assert values["melting_class"] == _band(_tm(cas), salt=False)
+
+
+def test_chain_layer_share_of_the_ionic_reading_follows_bridges_and_pauling_rule():
+    # terminal bonds lower the share (a CrO4 chain: 2 of 4 bonds bridge), over-bonded bridges lower
+    # it again (Pauling's electrostatic valence rule, 1929, from memory); no bridge read: the plain mean
+    terms = melting_routes.molecular_terms(_built("CrO3", "covalent_molecular"))
+    assert (terms.open_sites, terms.coordination_number) == (1, 4)
+    assert melting_routes.chain_layer_salt_share(terms) == pytest.approx(0.5 * (2 / 4) * (2 / 3))
+    assert melting_routes.chain_layer_salt_share(None) == 0.5
+    v2o5 = melting_routes.molecular_terms(_built("V2O5", "covalent_molecular"))
+    assert melting_routes.chain_layer_salt_share(v2o5) == 0.5
 
 
 @pytest.mark.parametrize("formula, cas", [
@@ -355,7 +372,8 @@ def test_tin_ii_chloride_lands_in_its_band():
 @pytest.mark.parametrize("dec, words", [
     (decompose(parse_formula("NaCl")), ("mp_route = salt", "cohesion", "nitrides", "caution")),
     (decompose(parse_formula("TiCl4")), ("mp_route = molecular", "Walden", "sigma = 12", "open coordination")),
-    (_built("CrO3", "chain_layer_solid", keep_ions=True), ("mp_route = chain_layer", "mean of the salt index")),
+    (_built("CrO3", "chain_layer_solid", keep_ions=True), ("mp_route = chain_layer", "weighted mean of the salt index",
+                                                           "weight 0.167")),
     (_built("Cu3Au", "intermetallic"), ("mp_route = element_mixture", "atom-fraction mean", "Au, Cu")),
 ])
 def test_explain_shows_the_route_and_every_term(dec, words):
