@@ -484,7 +484,8 @@ def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | None]:
         return math.nan, None
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w)
+    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w,
+                                                m.secondary_contacts, m.primary_delta_chi)
     temperature = routes.molecular_melting_K(cohesion, entropy)
     reading = _MolecularReading(m, cohesion, entropy, temperature)
     return math.log10(temperature) if temperature > 0 else math.nan, reading
@@ -503,8 +504,11 @@ def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
         f"  cohesion: sum over {len(m.ligand_polarisabilities_A3)} peripheral atoms of ({w['molecular_contact_kJ_mol']}"
         f" + {w['molecular_polarisability_kJ_mol_A3']} * alpha/A3), alphas"
         f" {', '.join(f'{a:.2f}' for a in m.ligand_polarisabilities_A3)}; + {w['molecular_bridge_kJ_mol']} kJ/mol"
-        f" * {m.open_sites} open coordination site(s) bridged in the crystal * Pauling bond strength z/CN"
-        f" {m.bond_strength:.3f}",
+        f" * {m.open_sites - m.secondary_contacts} open coordination site(s) bridged in the crystal * Pauling bond"
+        f" strength z/CN {m.bond_strength:.3f}",
+        *((f"  secondary contacts (Alcock 1972): + {w['molecular_secondary_kJ_mol']} kJ/mol * {m.secondary_contacts}"
+           f" contact(s) * z/CN {m.bond_strength:.3f} * electronegativity difference of the primary bond"
+           f" {m.primary_delta_chi:.2f}",) if m.secondary_contacts else ()),
     )
 
 

@@ -92,6 +92,7 @@ TREND_WEIGHTS: dict[str, float] = {
     "molecular_polarisability_kJ_mol_A3": 0.60,
     # per valence unit of bridges (open sites times Pauling's z / CN; Al2Br6: 1 * 3/4)
     "molecular_bridge_kJ_mol": 9.4,
+    "molecular_secondary_kJ_mol": 7.5,
 }
 
 

@@ -14,7 +14,9 @@ decompositions built here with those substance classes; the others go through
 
 Calibration and validation: the molecular weights were fitted on the calibration
 rows of ``datasets/melting/molecular_compounds.csv``; every molecular compound of
-the issue is a validation row there. The salt compounds below are outside the CC0
+the issue is a validation row there but HgCl2, the one calibration row with secondary
+contacts (it sets ``molecular_secondary_kJ_mol``; HgBr2, HgI2 and BiCl3 validate it).
+The chain/layer route has no fitted weight. The salt compounds below are outside the CC0
 fixture the inorganic weights were fitted on, but for BaSO4 and TiO2 (calibration).
 """
 from __future__ import annotations
@@ -198,10 +200,13 @@ def test_thorium_tetrahalides_get_an_index_in_the_300_to_1500_C_band(formula, ca
 
 MOLECULAR_BUILT = [
     _case("AlCl3", "7446-70-0"),  # 466 K: the layer lattice, Al octahedral (measured coordination)
-    _case("HgCl2", "7487-94-7"),  # 550 K: linear (sigma 20), four Hg...Cl bridges of strength 2/6
-    _case("HgBr2", "7789-47-1", "trend 583 K against 514 K: the bromide's dispersion term adds what its"
-          " longer Hg...Br contacts lose"),
-    _case("HgI2", "7774-29-0", "trend 650 K against 529 K: as HgBr2, more so"),
+    # 550 K: linear (sigma 20), four secondary Hg...Cl contacts of strength 2/6 (a calibration row:
+    # it alone sets molecular_secondary_kJ_mol)
+    _case("HgCl2", "7487-94-7"),
+    # 514 K and 529 K (validation rows): the secondary contacts weaken with the polarity of the
+    # Hg-X bond (Alcock 1972) as the dispersion term grows (Wells 1984: both 2+4 in the solid that melts)
+    _case("HgBr2", "7789-47-1"),
+    _case("HgI2", "7774-29-0"),
     _case("VOCl3", "7727-18-6"),
     _case("CrO2Cl2", "14977-61-8"),
 ]
@@ -280,6 +285,20 @@ def test_bridges_count_with_pauling_bond_strength_of_the_measured_coordination()
     assert melting_routes.molecular_terms(_built("Al2Br6", "covalent_molecular")).open_sites == 1
 
 
+def test_secondary_contacts_weaken_from_chloride_to_iodide_with_the_bond_polarity():
+    # HgX2: 2+4 in the solid that melts (Wells 1984, from memory), four secondary contacts; the
+    # Pauling electronegativity difference of Hg-X (mendeleev snapshot: Hg 1.90, Cl 3.16, Br 2.96, I 2.66)
+    terms = {f: melting_routes.molecular_terms(_built(f, "covalent_molecular")) for f in ("HgCl2", "HgBr2", "HgI2")}
+    assert [t.secondary_contacts for t in terms.values()] == [4, 4, 4]
+    assert [round(t.primary_delta_chi, 2) for t in terms.values()] == [1.26, 1.06, 0.76]
+    # measured 549, 514, 529 K (chemicals Tm, CRC): the trend stays within a factor 1.15 of each
+    for formula, cas in (("HgCl2", "7487-94-7"), ("HgBr2", "7789-47-1"), ("HgI2", "7774-29-0")):
+        ratio = 10 ** _values(_built(formula, "covalent_molecular"))["mp_trend_index"] / _tm(cas)
+        assert 1 / 1.15 < ratio < 1.15, (formula, ratio)
+    # true bridges (Al2Br6, Nb2Cl10) have none
+    assert melting_routes.molecular_terms(_built("AlBr3", "covalent_molecular")).secondary_contacts == 0
+
+
 def test_measured_coordination_table_is_consistent_with_the_molecules():
     from ionicity.scorer.tables import table
 
@@ -287,6 +306,7 @@ def test_measured_coordination_table_is_consistent_with_the_molecules():
         m = melting_routes.molecular_terms(_built(row["formula"], "covalent_molecular"))
         ligands = sum(n for _, n in m.ligands)
         assert int(row["coordination_number"]) >= ligands, row["formula"]
+        assert 0 <= int(row["secondary_contacts"]) <= int(row["coordination_number"]) - ligands, row["formula"]
         assert row["source"]
 
 
@@ -372,6 +392,7 @@ def test_tin_ii_chloride_lands_in_its_band():
 @pytest.mark.parametrize("dec, words", [
     (decompose(parse_formula("NaCl")), ("mp_route = salt", "cohesion", "nitrides", "caution")),
     (decompose(parse_formula("TiCl4")), ("mp_route = molecular", "Walden", "sigma = 12", "open coordination")),
+    (_built("HgBr2", "covalent_molecular"), ("sigma = 20", "secondary contacts (Alcock 1972)", "primary bond 1.06")),
     (_built("CrO3", "chain_layer_solid", keep_ions=True), ("mp_route = chain_layer", "weighted mean of the salt index",
                                                            "weight 0.167")),
     (_built("Cu3Au", "intermetallic"), ("mp_route = element_mixture", "atom-fraction mean", "Au, Cu")),
