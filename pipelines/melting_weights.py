@@ -21,7 +21,9 @@ Two named sets, each with its source in the repository:
   the open training set not listed in that file.
 * **molecules**: ``datasets/melting/molecular_compounds.csv`` names its rows
   ``calibration`` or ``validation``; melting points are read at run time with
-  ``chemicals.phase_change.Tm``. The four weights of the molecular route
+  ``chemicals.phase_change.Tm``; validation figures are printed over all
+  its validation rows and per ``origin`` (``issue_13``: the compounds the
+  issue names; ``widened``: the rows a stated rule added). The four weights of the molecular route
   (:data:`MOLECULAR_WEIGHTS`) are a least-squares fit of dH_m on the
   calibration rows.
 
@@ -222,6 +224,14 @@ MOLECULAR_WEIGHTS = ("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mo
                      "molecular_secondary_kJ_mol")
 
 
+def molecular_origins() -> dict[str, str]:
+    """formula -> ``origin`` of datasets/melting/molecular_compounds.csv: ``issue_13`` (named in the
+    melting issue), ``first_set`` (the first calibration rows) or ``widened`` (validation rows added
+    by the rule in datasets/melting/README.md)."""
+    with open(MOLECULAR_SET, newline="", encoding="utf-8") as handle:
+        return {row["formula"]: row["origin"] for row in csv.DictReader(handle)}
+
+
 def fit_molecular_weights(rows) -> dict[str, float]:
     """Least squares of dH_m = T_m dS_m (relative errors) on the calibration rows.
 
@@ -270,6 +280,11 @@ def evaluate(salts, molecules, organics=None) -> dict:
             # class the ion solver gives it today (AlCl3 and HgX2 are covalent_molecular after issue 12)
             predicted = [10 ** melting.describe(as_molecular(f))[0]["mp_trend_index"] for _, f, _, _ in mols]
             out[f"molecules_{split}"] = _figures(predicted, [t for *_, t in mols], salt=False)
+            if split == "validation":
+                origin = molecular_origins()
+                for name in sorted({origin.get(f, "") for _, f, _, _ in mols}):
+                    pairs = [(p, t) for p, (_, f, _, t) in zip(predicted, mols) if origin.get(f, "") == name]
+                    out[f"molecules_validation_{name}"] = _figures(*zip(*pairs), salt=False)
         if split == "validation":
             pooled_p += [10 ** t.index() for _, t, _, _ in rows + organic] + (predicted if mols else [])
             pooled_m += [mp for _, _, mp, _ in rows + organic] + [t for *_, t in mols]

@@ -319,16 +319,37 @@ def test_linear_molecules_take_the_cylinder_symmetry_and_first_row_centres_no_br
     assert score_formula(formula)["melting_class"] == _band(_tm(cas), salt=False)
 
 
-def test_validation_molecular_route_ranks_the_issue_compounds():
-    # validation rows of datasets/melting/molecular_compounds.csv (no weight was fitted on them):
-    # Spearman rho >= 0.85 and 80 % within a factor 1.5 of the measured melting point
+def _validation_figures(origin: str):
+    """Spearman rho, share within a factor 1.5 and class accuracy of the validation rows of one origin."""
     with open(MOLECULAR_SET, newline="", encoding="utf-8") as handle:
-        rows = [r for r in csv.DictReader(handle) if r["set"] == "validation"]
+        rows = [r for r in csv.DictReader(handle) if r["set"] == "validation" and r["origin"] == origin]
     measured = np.array([_tm(r["cas"]) for r in rows])
     trend = np.array([10 ** _values(_built(r["formula"], "covalent_molecular"))["mp_trend_index"] for r in rows])
     ranks = lambda v: np.argsort(np.argsort(v))  # noqa: E731
-    assert np.corrcoef(ranks(measured), ranks(trend))[0, 1] >= 0.85
-    assert np.mean(np.abs(np.log(trend / measured)) < math.log(1.5)) >= 0.8
+    classes = np.mean([_band(t, False) == _band(m, False) for t, m in zip(trend, measured)])
+    return (len(rows), np.corrcoef(ranks(measured), ranks(trend))[0, 1],
+            np.mean(np.abs(np.log(trend / measured)) < math.log(1.5)), classes)
+
+
+def test_validation_molecular_route_ranks_the_issue_compounds():
+    # validation rows of datasets/melting/molecular_compounds.csv named in the issue (no weight was
+    # fitted on them; chemicals Tm, CRC): Spearman rho >= 0.85, 80 % within a factor 1.5, and every
+    # class right (measured 2026-12-03: 14 rows, 0.94, 1.00, 1.00)
+    n, rho, within, classes = _validation_figures("issue_13")
+    assert n == 14
+    assert rho >= 0.85 and within >= 0.8 and classes == 1.0
+
+
+def test_validation_widened_molecular_set_stays_at_its_measured_figures():
+    # the rows the rule of datasets/melting/README.md added (p- and d-block halides, oxyhalides,
+    # hydrides and chalcogenides that scoring reads as molecular, every one chemicals has a Tm for),
+    # validation only. Measured 2026-12-03: 47 rows, rho 0.644, 0.47 within a factor 1.5, class
+    # accuracy 0.70 (hydrogen halides, hydrides of no single centre, xenon fluorides and p-block
+    # trihalides with unlisted secondary contacts are the misses). Floors a little under those
+    # figures: a regression guard, not a target
+    n, rho, within, classes = _validation_figures("widened")
+    assert n == 47
+    assert rho >= 0.6 and within >= 0.42 and classes >= 0.65
 
 
 # --------------------------------------------------- networks and metals
