@@ -307,7 +307,8 @@ def chain_layer_salt_share(terms: MolecularTerms | None) -> float:
     >>> from ionicity.scorer.formula import parse_formula
     >>> from ionicity.scorer.ions import decompose
     >>> def share(f):
-    ...     return round(chain_layer_salt_share(molecular_terms(replace(decompose(parse_formula(f)), cations=(), anions=()))), 3)
+    ...     dec = replace(decompose(parse_formula(f)), cations=(), anions=())
+    ...     return round(chain_layer_salt_share(molecular_terms(dec)), 3)
     >>> share("CrO3"), share("BeCl2"), share("MoO3")
     (0.167, 0.5, 0.5)
     """
