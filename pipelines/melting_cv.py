@@ -14,14 +14,20 @@ families: imidazolium, pyrrolidinium, ammonium-quaternary...) and prints:
 * that MAE per held-out family;
 * conformal coverage and mean width per interval group.
 
-``--refit-organic-weights`` makes the measurement clean of the trend index's
-own calibration: the three organic weights of ``TREND_WEIGHTS`` (``flexibility``,
-``delocalised``, ``protic``) are fitted on the ``calibration`` rows of
-``datasets/melting/ionic_liquids.csv``, which belong to the cation families
-held out here; with the option each fold refits them
-(:func:`pipelines.melting_weights.fit_organic_weights`) without the calibration
-rows of the families it holds out, and scores every row again with those
-weights before fitting. Only with ``--scheme cation_family``.
+The three organic weights of the trend index (``flexibility``,
+``delocalised``, ``protic``) are fitted in ``TREND_WEIGHTS`` on the
+``calibration`` rows of ``datasets/melting/ionic_liquids.csv``, which belong
+to the cation families held out here. ``--index-weights`` says which weights
+the index feature is computed with:
+
+* ``fold`` (default): each fold refits them on the rows its trees are fitted
+  on (:func:`pipelines.melting_offset.fit_index_weights`), as
+  ``fit-melting`` does for the model file, which carries them: the held-out
+  family sets no weight, so the figure is clean of the index's calibration;
+* ``shipped``: ``TREND_WEIGHTS`` as they are (the figure leaks a little);
+* ``calibration_rows`` (also ``--refit-organic-weights``): each fold refits
+  them on the calibration rows of ``ionic_liquids.csv`` outside the held-out
+  families and scores every row again (slow; only with ``--scheme cation_family``).
 
 It skips the minute spent rebuilding the open data set, so it is the command
 to rerun after a change to the trend index or to the features (the trend index
@@ -44,13 +50,14 @@ from ionicity.pipelines.melting_fit import (
     grouped_cross_validation,
     prepare_training,
 )
+from ionicity.pipelines.melting_offset import index_terms
 from ionicity.pipelines.melting_screen import cation_family
 from ionicity.scorer import melting
 from ionicity.scorer.caching import clear_all
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
-__all__ = ["read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
+__all__ = ["INDEX_WEIGHT_MODES", "read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
 
 
 def read_training_table(path) -> list[dict]:
@@ -101,21 +108,28 @@ def organic_weights_without(families, progress=None) -> dict:
     return weights
 
 
+INDEX_WEIGHT_MODES = ("fold", "shipped", "calibration_rows")
+
+
 def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, coverage: float = 0.9,
-                    seed: int = 0, progress=None, refit_organic_weights: bool = False) -> dict:
+                    seed: int = 0, progress=None, index_weights: str = "fold") -> dict:
     """The grouped cross-validation of the melting regression on ``rows``, grouped by ``scheme``.
 
-    With ``refit_organic_weights`` (scheme ``cation_family`` only) each fold
-    refits the trend index's organic weights without the calibration rows of
-    the families it holds out (:func:`organic_weights_without`) and scores
-    every row again with them.
+    ``index_weights`` (one of :data:`INDEX_WEIGHT_MODES`) says how the trend
+    index's organic weights are set in each fold: ``fold`` refits them on the
+    fold's fitted rows, as ``fit-melting`` does; ``shipped`` keeps
+    ``TREND_WEIGHTS``; ``calibration_rows`` (scheme ``cation_family`` only)
+    refits them without the calibration rows of the families the fold holds
+    out (:func:`organic_weights_without`) and scores every row again.
 
     Returns the dict of :func:`pipelines.melting_fit.grouped_cross_validation`
     (without the out-of-fold predictions).
     """
     if scheme not in CV_SCHEMES:
         raise ValueError(f"scheme {scheme!r} is not one of {', '.join(CV_SCHEMES)}")
-    if refit_organic_weights and scheme != "cation_family":
+    if index_weights not in INDEX_WEIGHT_MODES:
+        raise ValueError(f"index_weights {index_weights!r} is not one of {', '.join(INDEX_WEIGHT_MODES)}")
+    if index_weights == "calibration_rows" and scheme != "cation_family":
         raise ValueError("refitting the organic weights per fold needs the scheme cation_family")
     require_extra("sklearn")
     require_extra("scipy")
@@ -127,7 +141,8 @@ def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, cove
 
     result = grouped_cross_validation(x, y, [row[scheme] for row in rows], _lattice_energy(records), folds=folds,
                                       coverage=coverage, seed=seed, interval_groups=labels, progress=progress,
-                                      features_for_fold=fold_features if refit_organic_weights else None)
+                                      features_for_fold=fold_features if index_weights == "calibration_rows" else None,
+                                      index_terms=index_terms(rows, records) if index_weights == "fold" else None)
     result.pop("oof_predictions_K")
     return result
 
@@ -157,14 +172,18 @@ def main(argv=None) -> int:
     parser.add_argument("--folds", type=int, default=5, help="grouped folds (default: 5)")
     parser.add_argument("--coverage", type=float, default=0.9, help="interval coverage (default: 0.9)")
     parser.add_argument("--seed", type=int, default=0)
-    parser.add_argument("--refit-organic-weights", action="store_true",
-                        help="refit the trend index's organic weights in each fold without the held-out families")
+    parser.add_argument("--index-weights", choices=INDEX_WEIGHT_MODES, default="fold",
+                        help="the trend index's organic weights: refitted on each fold's fitted rows (fold, the"
+                             " default, as fit-melting does), as shipped, or refitted on the calibration rows of"
+                             " ionic_liquids.csv outside the held-out families (calibration_rows)")
+    parser.add_argument("--refit-organic-weights", dest="index_weights", action="store_const",
+                        const="calibration_rows", help="the same as --index-weights calibration_rows")
     args = parser.parse_args(argv)
     say = lambda text: print(f"melting_cv: {text}", file=sys.stderr)  # noqa: E731
     try:
         rows = read_training_table(args.table)
         result = held_out_report(rows, scheme=args.scheme, folds=args.folds, coverage=args.coverage,
-                                 seed=args.seed, progress=say, refit_organic_weights=args.refit_organic_weights)
+                                 seed=args.seed, progress=say, index_weights=args.index_weights)
     except (OSError, ValueError) as exc:
         print(f"melting_cv: error: {exc}", file=sys.stderr)
         return 2
