@@ -10,7 +10,9 @@ What it does
    scikit-learn transformer use.
 3. **The regression** is a scikit-learn pipeline (histogram gradient boosting
    on log melting point, :func:`make_melting_pipeline`) fitted on what the trend
-   index leaves over (:class:`IndexOffsetRegressor`). It is cross-validated with
+   index leaves over (:class:`IndexOffsetRegressor`), the index's organic weights refitted on
+   the fitted rows and the ionic liquids' share of the trees chosen inside them
+   (:mod:`pipelines.melting_offset`). It is cross-validated with
    :class:`sklearn.model_selection.GroupKFold`, once grouped by anion family
    and once by cation element so near-duplicates (NaCl/NaBr, the K and Rb
    salts of one anion) never sit on both sides of a split, and compared with two

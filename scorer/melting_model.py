@@ -25,6 +25,7 @@ from ionicity.scorer.melting_ion_features import ionic_liquid_descriptors
 from ionicity.scorer.melting_model_format import (
     _DERIVED_FEATURES,
     _RECORD_FEATURES,
+    INDEX_WEIGHT_KEYS,
     INTERVAL_GROUPS,
     MODEL_FEATURES,
     MODEL_FORMAT,
@@ -57,6 +58,7 @@ __all__ = [
     "ModelPrediction",
     "predict_for_formulas",
     "INTERVAL_GROUPS",
+    "INDEX_WEIGHT_KEYS",
     "interval_group",
     "class_disagreement",
 ]
