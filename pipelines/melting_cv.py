@@ -14,14 +14,20 @@ families: imidazolium, pyrrolidinium, ammonium-quaternary...) and prints:
 * that MAE per held-out family;
 * conformal coverage and mean width per interval group.
 
-``--refit-organic-weights`` makes the measurement clean of the trend index's
-own calibration: the three organic weights of ``TREND_WEIGHTS`` (``flexibility``,
-``delocalised``, ``protic``) are fitted on the ``calibration`` rows of
-``datasets/melting/ionic_liquids.csv``, which belong to the cation families
-held out here; with the option each fold refits them
-(:func:`pipelines.melting_weights.fit_organic_weights`) without the calibration
-rows of the families it holds out, and scores every row again with those
-weights before fitting. Only with ``--scheme cation_family``.
+The three organic weights of the trend index (``flexibility``,
+``delocalised``, ``protic``) are fitted in ``TREND_WEIGHTS`` on the
+``calibration`` rows of ``datasets/melting/ionic_liquids.csv``, which belong
+to the cation families held out here. ``--index-weights`` says which weights
+the index feature is computed with:
+
+* ``fold`` (default): each fold refits them on the rows its trees are fitted
+  on (:func:`pipelines.melting_offset.fit_index_weights`), as
+  ``fit-melting`` does for the model file, which carries them: the held-out
+  family sets no weight, so the figure is clean of the index's calibration;
+* ``shipped``: ``TREND_WEIGHTS`` as they are (the figure leaks a little);
+* ``calibration_rows`` (also ``--refit-organic-weights``): each fold refits
+  them on the calibration rows of ``ionic_liquids.csv`` outside the held-out
+  families and scores every row again (slow; only with ``--scheme cation_family``).
 
 It skips the minute spent rebuilding the open data set, so it is the command
 to rerun after a change to the trend index or to the features (the trend index
@@ -36,6 +42,8 @@ import csv
 import sys
 from contextlib import contextmanager
 
+import numpy as np
+
 from ionicity.pipelines.melting_cli import require_extra
 from ionicity.pipelines.melting_fit import (
     CV_SCHEMES,
@@ -44,13 +52,14 @@ from ionicity.pipelines.melting_fit import (
     grouped_cross_validation,
     prepare_training,
 )
+from ionicity.pipelines.melting_offset import index_terms
 from ionicity.pipelines.melting_screen import cation_family
 from ionicity.scorer import melting
 from ionicity.scorer.caching import clear_all
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
-__all__ = ["read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
+__all__ = ["INDEX_WEIGHT_MODES", "DECOMPOSITION_ONSET_K", "suspect_melting_point", "read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
 
 
 def read_training_table(path) -> list[dict]:
@@ -101,21 +110,58 @@ def organic_weights_without(families, progress=None) -> dict:
     return weights
 
 
+INDEX_WEIGHT_MODES = ("fold", "shipped", "calibration_rows")
+# quaternary onium cations: their salts with F- or OH- are made and measured as hydrates (Bu4NF as the
+# trihydrate, Bu4NOH as a clathrate hydrate; the anhydrous salts decompose by Hofmann elimination: Sharma &
+# Fry, J. Org. Chem. 1983, 48, 2112, from memory), and above about 550 K tetraalkylammonium salts
+# dealkylate or eliminate, so a higher "melting point" is usually one with decomposition (common practice)
+_ONIUM_FAMILIES = ("ammonium-quaternary", "phosphonium")
+_HYDRATE_PRONE_ANIONS = ("F(-)", "OH(-)")
+DECOMPOSITION_ONSET_K = 550.0
+
+
+def suspect_melting_point(formula: str, mp_K: float) -> str:
+    """Why a measured value of an onium salt may not be the melting point of the anhydrous salt ('' if no reason).
+
+    A stated rule on the formula and the measured value only, never on a
+    prediction: a quaternary ammonium or phosphonium cation with fluoride or
+    hydroxide (``hydrate``), or such a salt measured above
+    :data:`DECOMPOSITION_ONSET_K` (``decomposition``). Flagged rows stay in the
+    training set; :func:`held_out_report` gives the ionic-liquid MAE with and
+    without them.
+
+    >>> suspect_melting_point("[N4444]F", 304.1), suspect_melting_point("[N1111]Cl", 642.15)
+    ('hydrate', 'decomposition')
+    >>> suspect_melting_point("[N4444]Br", 376.0), suspect_melting_point("[C2mim]Cl", 600.0)
+    ('', '')
+    """
+    dec = decompose(parse_formula(formula))
+    if not dec.cations or cation_family(dec) not in _ONIUM_FAMILIES:
+        return ""
+    if any(t.ion.ion_id in _HYDRATE_PRONE_ANIONS for t in dec.anions):
+        return "hydrate"
+    return "decomposition" if mp_K > DECOMPOSITION_ONSET_K else ""
+
+
 def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, coverage: float = 0.9,
-                    seed: int = 0, progress=None, refit_organic_weights: bool = False) -> dict:
+                    seed: int = 0, progress=None, index_weights: str = "fold") -> dict:
     """The grouped cross-validation of the melting regression on ``rows``, grouped by ``scheme``.
 
-    With ``refit_organic_weights`` (scheme ``cation_family`` only) each fold
-    refits the trend index's organic weights without the calibration rows of
-    the families it holds out (:func:`organic_weights_without`) and scores
-    every row again with them.
+    ``index_weights`` (one of :data:`INDEX_WEIGHT_MODES`) says how the trend
+    index's organic weights are set in each fold: ``fold`` refits them on the
+    fold's fitted rows, as ``fit-melting`` does; ``shipped`` keeps
+    ``TREND_WEIGHTS``; ``calibration_rows`` (scheme ``cation_family`` only)
+    refits them without the calibration rows of the families the fold holds
+    out (:func:`organic_weights_without`) and scores every row again.
 
     Returns the dict of :func:`pipelines.melting_fit.grouped_cross_validation`
     (without the out-of-fold predictions).
     """
     if scheme not in CV_SCHEMES:
         raise ValueError(f"scheme {scheme!r} is not one of {', '.join(CV_SCHEMES)}")
-    if refit_organic_weights and scheme != "cation_family":
+    if index_weights not in INDEX_WEIGHT_MODES:
+        raise ValueError(f"index_weights {index_weights!r} is not one of {', '.join(INDEX_WEIGHT_MODES)}")
+    if index_weights == "calibration_rows" and scheme != "cation_family":
         raise ValueError("refitting the organic weights per fold needs the scheme cation_family")
     require_extra("sklearn")
     require_extra("scipy")
@@ -127,8 +173,15 @@ def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, cove
 
     result = grouped_cross_validation(x, y, [row[scheme] for row in rows], _lattice_energy(records), folds=folds,
                                       coverage=coverage, seed=seed, interval_groups=labels, progress=progress,
-                                      features_for_fold=fold_features if refit_organic_weights else None)
-    result.pop("oof_predictions_K")
+                                      features_for_fold=fold_features if index_weights == "calibration_rows" else None,
+                                      index_terms=index_terms(rows, records) if index_weights == "fold" else None)
+    oof = np.array(result.pop("oof_predictions_K"))
+    flags = np.array([suspect_melting_point(row["formula_normalized"], row["mp_K"]) for row in rows])
+    il = (labels == "ionic_liquid") & np.isfinite(oof)
+    result["ionic_liquid_flagged"] = {flag: int(np.sum(il & (flags == flag))) for flag in ("hydrate", "decomposition")}
+    kept = il & (flags == "")
+    result["ionic_liquid_unflagged_mae_K"] = round(float(np.mean(np.abs(oof[kept] - y[kept]))), 1) if kept.any() else None
+    result["ionic_liquid_unflagged_rows"] = int(kept.sum())
     return result
 
 
@@ -145,6 +198,10 @@ def report_text(result: dict, scheme: str) -> str:
     for group, entry in result["ionic_liquid_by_held_out_group"].items():
         lines.append(f"  {group:<22} rows {entry['rows']:>3}: MAE {entry['mae_K']} K")
     il = result["per_group"].get("ionic_liquid", {}).get("model", {})
+    if "ionic_liquid_flagged" in result:
+        flagged = ", ".join(f"{k} {v}" for k, v in result["ionic_liquid_flagged"].items())
+        lines.append(f"  without the onium rows flagged by suspect_melting_point ({flagged}):"
+                     f" MAE {result['ionic_liquid_unflagged_mae_K']} K (n={result['ionic_liquid_unflagged_rows']})")
     lines.append(f"ionic-liquid MAE held out by {name}: {il.get('mae_K')} K (n={il.get('n')})")
     return "\n".join(lines)
 
@@ -157,14 +214,18 @@ def main(argv=None) -> int:
     parser.add_argument("--folds", type=int, default=5, help="grouped folds (default: 5)")
     parser.add_argument("--coverage", type=float, default=0.9, help="interval coverage (default: 0.9)")
     parser.add_argument("--seed", type=int, default=0)
-    parser.add_argument("--refit-organic-weights", action="store_true",
-                        help="refit the trend index's organic weights in each fold without the held-out families")
+    parser.add_argument("--index-weights", choices=INDEX_WEIGHT_MODES, default="fold",
+                        help="the trend index's organic weights: refitted on each fold's fitted rows (fold, the"
+                             " default, as fit-melting does), as shipped, or refitted on the calibration rows of"
+                             " ionic_liquids.csv outside the held-out families (calibration_rows)")
+    parser.add_argument("--refit-organic-weights", dest="index_weights", action="store_const",
+                        const="calibration_rows", help="the same as --index-weights calibration_rows")
     args = parser.parse_args(argv)
     say = lambda text: print(f"melting_cv: {text}", file=sys.stderr)  # noqa: E731
     try:
         rows = read_training_table(args.table)
         result = held_out_report(rows, scheme=args.scheme, folds=args.folds, coverage=args.coverage,
-                                 seed=args.seed, progress=say, refit_organic_weights=args.refit_organic_weights)
+                                 seed=args.seed, progress=say, index_weights=args.index_weights)
     except (OSError, ValueError) as exc:
         print(f"melting_cv: error: {exc}", file=sys.stderr)
         return 2

@@ -10,7 +10,9 @@ What it does
    scikit-learn transformer use.
 3. **The regression** is a scikit-learn pipeline (histogram gradient boosting
    on log melting point, :func:`make_melting_pipeline`) fitted on what the trend
-   index leaves over (:class:`IndexOffsetRegressor`). It is cross-validated with
+   index leaves over (:class:`IndexOffsetRegressor`), the index's organic weights refitted on
+   the fitted rows and the ionic liquids' share of the trees chosen inside them
+   (:mod:`pipelines.melting_offset`). It is cross-validated with
    :class:`sklearn.model_selection.GroupKFold`, once grouped by anion family
    and once by cation element so near-duplicates (NaCl/NaBr, the K and Rb
    salts of one anion) never sit on both sides of a split, and compared with two
@@ -57,6 +59,7 @@ from ionicity.pipelines.melting_cli import (
     require_extra,
 )
 from ionicity.pipelines.melting_data import build_open_training_set, combine_training_sets, read_user_table
+from ionicity.pipelines.melting_offset import fit_offset_model, index_terms
 from ionicity.pipelines.melting_model_file import finite_minmax, save_model, trees_to_json
 from ionicity.pipelines.melting_plot import parity_plot
 from ionicity.pipelines.melting_screen import cation_family
@@ -194,13 +197,22 @@ class IndexOffsetRegressor:
 
     ``pipe`` was fitted on ``T / 10**index`` (so its log target is ``ln T - ln 10 * index``);
     ``column`` is the position of ``mp_trend_index`` among the columns it was fitted on.
+    ``tree_weights`` maps an interval group to the share of the trees' log correction its rows
+    get (1 where a group is not named: the full correction; 0: the index alone), chosen by
+    :func:`pipelines.melting_offset.choose_tree_weight`.
     """
 
-    def __init__(self, pipe, column: int):
+    def __init__(self, pipe, column: int, tree_weights=None):
         self.pipe, self.column = pipe, column
+        self.tree_weights = dict(tree_weights or {})
 
-    def predict(self, x: np.ndarray) -> np.ndarray:
-        return self.pipe.predict(x) * np.power(10.0, x[:, self.column])
+    def predict(self, x: np.ndarray, groups=None) -> np.ndarray:
+        """Predicted T [K] for rows of ``x``; ``groups`` (interval group per row) apply ``tree_weights``."""
+        correction = self.pipe.predict(x)
+        if groups is not None and self.tree_weights:
+            share = np.array([self.tree_weights.get(g, 1.0) for g in groups], dtype=float)
+            correction = np.power(correction, share)
+        return correction * np.power(10.0, x[:, self.column])
 
 
 def _fit_pipeline(x: np.ndarray, y_K: np.ndarray, seed: int, labels=None):
@@ -288,7 +300,8 @@ def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: f
 
 def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, coverage: float = 0.9,
                              calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
-                             progress=None, features_for_fold=None) -> dict:
+                             progress=None, features_for_fold=None, index_terms=None,
+                             choose_tree_share: bool = True) -> dict:
     """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
 
     In every fold the training part is split once more: the model is fitted
@@ -323,6 +336,17 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         fold with, for measurements that refit part of the features without
         the held-out groups (``python -m ionicity.pipelines.melting_cv
         --refit-organic-weights``).
+    index_terms : list, optional
+        :func:`pipelines.melting_offset.index_terms` of every row: each
+        fold then refits the trend index's organic weights on the rows its
+        trees are fitted on (never the calibration part or the held-out fold)
+        and rebuilds ``mp_trend_index`` with them, as :func:`fit_melting_model`
+        does for the model file.
+    choose_tree_share : bool, default=True
+        Each fold picks the ionic liquids' share of the trees' correction by
+        an inner grouped cross-validation on its fitted rows
+        (:func:`pipelines.melting_offset.choose_tree_weight`), as
+        :func:`fit_melting_model` does.
 
     Returns
     -------
@@ -356,11 +380,12 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
         proper, calib = train[proper], train[calib]
         xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
-        pipe, used = _fit_pipeline(xf[proper], y_K[proper], seed, labels[proper])
-        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used])),
+        pipe, used, _, xf = fit_offset_model(xf, y_K, proper, labels, groups if choose_tree_share else None,
+                                             index_terms, lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
+        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used], labels[calib])),
                                          labels[calib], coverage)
         q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
-        pred = pipe.predict(xf[test][:, used])
+        pred = pipe.predict(xf[test][:, used], labels[test])
         oof[test] = pred
         inside[test] = np.abs(np.log(y_K[test]) - np.log(pred)) <= q
         width[test] = pred * (np.exp(q) - np.exp(-q))
@@ -487,24 +512,31 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     if folds < 2:
         raise ValueError(f"folds must be at least 2, not {folds}")
     require_extra("sklearn")
+    require_extra("scipy")
     say = progress or (lambda text: None)
     rows, records, x, y, labels = prepare_training(rows, progress=say)
     lattice = _lattice_energy(records)
+    terms = index_terms(rows, records)
     cv = {}
     for scheme in CV_SCHEMES:
         say(f"cross-validating on {len(rows)} salts, grouped by {scheme.replace('_', ' ')}")
         groups = [row[scheme] for row in rows]
         cv[scheme] = grouped_cross_validation(x, y, groups, lattice, folds=folds, coverage=coverage,
                                               calibration_fraction=calibration_fraction, seed=seed,
-                                              interval_groups=labels, progress=say)
+                                              interval_groups=labels, progress=say, index_terms=terms)
     oof = cv["anion_family"].pop("oof_predictions_K")
     for scheme in CV_SCHEMES[1:]:
         cv[scheme].pop("oof_predictions_K")
     say("fitting the final model")
     rng = np.random.default_rng(seed)
     proper, calib = _split_calibration(len(rows), calibration_fraction, rng, [row["cation_family"] for row in rows])
-    pipe, used = _fit_pipeline(x[proper], y[proper], seed, labels[proper])
-    q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used])), labels[calib], coverage)
+    # the index's organic weights and the ionic liquids' share of the trees from the rows the trees
+    # see, as in every fold above
+    pipe, used, index_weights, x = fit_offset_model(
+        x, y, proper, labels, np.array([row["cation_family"] for row in rows]), terms,
+        lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
+    q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used], labels[calib])),
+                                     labels[calib], coverage)
     hgb = pipe.pipe.named_steps["regressor"].regressor_
     baseline, trees = trees_to_json(hgb)
     lo, hi = finite_minmax(x[:, used])
@@ -518,6 +550,8 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         "baseline": baseline,
         "trees": trees,
         "offset": {"feature": OFFSET_FEATURE, "scale": OFFSET_SCALE},
+        "index_weights": index_weights,
+        "tree_weights": pipe.tree_weights,
         "interval": {"method": "split conformal on absolute ln residuals, a half-width per group (Mondrian)",
                      "coverage": coverage, "log_halfwidth": q, "group_log_halfwidths": per_group,
                      "calibration_rows": int(len(calib))},

@@ -216,14 +216,14 @@ class MeltingTerms:
     def lattice_energy_per_ion_kJ_mol(self) -> float:
         return self.lattice_energy_kJ_mol / self.ions_per_formula_unit
 
-    def index(self) -> float:
+    def index(self, weights=None) -> float:  # weights: entries of TREND_WEIGHTS replaced (a model file's own)
         return melting_trend_index(
             self.lattice_energy_per_ion_kJ_mol, self.contact_chi_pauling, self.contact_index,
             self.pseudo_noble_gas, self.polyatomic_anion_fraction, self.ions_per_formula_unit,
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
-            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
+            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling, weights=weights,
         )
 
 

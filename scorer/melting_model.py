@@ -20,11 +20,12 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 import numpy as np
-from ionicity.scorer.melting import CAUTION
+from ionicity.scorer.melting import CAUTION, melting_terms
 from ionicity.scorer.melting_ion_features import ionic_liquid_descriptors
 from ionicity.scorer.melting_model_format import (
     _DERIVED_FEATURES,
     _RECORD_FEATURES,
+    INDEX_WEIGHT_KEYS,
     INTERVAL_GROUPS,
     MODEL_FEATURES,
     MODEL_FORMAT,
@@ -49,6 +50,7 @@ __all__ = [
     "derived_ion_features",
     "model_features",
     "features_for_formula",
+    "model_trend_index",
     "model_from_dict",
     "predict_melting_K",
     "outside_training_domain",
@@ -56,6 +58,7 @@ __all__ = [
     "ModelPrediction",
     "predict_for_formulas",
     "INTERVAL_GROUPS",
+    "INDEX_WEIGHT_KEYS",
     "interval_group",
     "class_disagreement",
 ]
@@ -226,9 +229,55 @@ def features_for_formula(text) -> tuple[dict, np.ndarray]:
     return record, model_features(dec, record)
 
 
-def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
+def model_trend_index(dec: Decomposition | None, record: Mapping, weights=()) -> float:
+    """``mp_trend_index`` as a model with its own organic weights reads it.
+
+    A model file's ``index_weights`` (the trend index's ``flexibility``,
+    ``delocalised`` and ``protic`` weights refitted on the model's training
+    rows, :func:`pipelines.melting_fit.fit_index_weights`) replace those of
+    :data:`scorer.melting_index.TREND_WEIGHTS` in the salt route's index
+    (:meth:`scorer.melting.MeltingTerms.index`). Other routes, and compounds
+    without salt terms, keep the record's index: the organic weights do not
+    enter them. Without weights, the record's index.
+
+    Parameters
+    ----------
+    dec : Decomposition or None
+    record : mapping
+        The compound's scored record (``mp_trend_index``, ``mp_route``).
+    weights : mapping or sequence of (name, value) pairs, default=()
+
+    Returns
+    -------
+    float
+        NaN where the record has no index.
+
+    Examples
+    --------
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> dec = decompose(parse_formula("[C4mim][NTf2]"))
+    >>> record = score_formula("[C4mim][NTf2]")
+    >>> model_trend_index(dec, record) == record["mp_trend_index"]
+    True
+    >>> model_trend_index(dec, record, {"flexibility": 0.089, "delocalised": 0.0, "protic": 0.1}) > record["mp_trend_index"]
+    True
+    """
+    shipped = _float(record.get("mp_trend_index"))
+    weights = dict(weights)
+    if not weights or dec is None or record.get("mp_route") != "salt" or not math.isfinite(shipped):
+        return shipped
+    terms = melting_terms(dec)
+    if terms is None or not math.isfinite(terms.lattice_energy_kJ_mol):
+        return shipped
+    # rounded as the column is, so the shipped weights give the column's value exactly
+    return round(float(terms.index(weights)), 4)
+
+
+def _predict_ln(model: MeltingModel, x: np.ndarray, groups=None) -> np.ndarray:
     """Sum of tree outputs plus baseline, plus the offset if the model has one, for rows of ``x``
-    (columns in ``model.features`` order)."""
+    (columns in ``model.features`` order); with ``groups`` (interval group per row), a model's
+    ``tree_weights`` scale the trees' part of the rows of the groups it names."""
     n = x.shape[0]
     total = np.full(n, model.baseline, dtype=float)
     rows = np.arange(n)
@@ -244,6 +293,9 @@ def _predict_ln(model: MeltingModel, x: np.ndarray) -> np.ndarray:
             go_left = np.where(np.isnan(v), missing_left[node], v <= threshold[node])
             node = np.where(active, np.where(go_left, left[node], right[node]), node)
         total += value[node]
+    if groups is not None and model.tree_weights:
+        share = dict(model.tree_weights)
+        total *= np.array([share.get(g, 1.0) for g in groups], dtype=float)
     if model.offset_position >= 0:
         # NaN where the compound has no trend index: the trees only correct the index
         total += model.offset_scale * x[:, model.offset_position]
@@ -260,7 +312,8 @@ def predict_melting_K(model: MeltingModel, features, groups=None) -> tuple[np.nd
         Rows of :func:`model_features`.
     groups : sequence of str, optional
         :func:`interval_group` of each row; a model with a half-width per group
-        (Mondrian split-conformal) uses the row's own, else the pooled one.
+        (Mondrian split-conformal) uses the row's own, else the pooled one; a
+        model with ``tree_weights`` scales the trees' part of the named groups' rows.
 
     Returns
     -------
@@ -269,7 +322,7 @@ def predict_melting_K(model: MeltingModel, features, groups=None) -> tuple[np.nd
     """
     x_all = np.atleast_2d(np.asarray(features, dtype=float))
     x = x_all[:, model.feature_indices]
-    ln_pred = _predict_ln(model, x)
+    ln_pred = _predict_ln(model, x, groups)
     unusable = np.all(np.isnan(x_all[:, len(_RECORD_FEATURES):]), axis=1)
     ln_pred[unusable] = np.nan
     per_group = dict(model.group_log_halfwidths)
@@ -421,7 +474,13 @@ def predict_for_formulas(model: MeltingModel, formulas) -> list[ModelPrediction]
     scored = [features_for_formula(f) for f in formulas]
     if not scored:
         return []
-    return _predictions([r for r, _ in scored], np.vstack([x for _, x in scored]), model)
+    x = np.vstack([x for _, x in scored])
+    if model.index_weights:
+        column = MODEL_FEATURES.index("mp_trend_index")
+        for i, (text, (record, _)) in enumerate(zip(formulas, scored)):
+            if record.get("mp_route") == "salt":
+                x[i, column] = model_trend_index(_decomposition_of(text), record, model.index_weights)
+    return _predictions([r for r, _ in scored], x, model)
 
 
 def apply_model_to_records(formulas, model: MeltingModel) -> list[dict]:

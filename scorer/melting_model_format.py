@@ -18,6 +18,7 @@ __all__ = [
     "MODEL_FORMAT_VERSION",
     "INTERVAL_GROUPS",
     "OFFSET_FEATURES",
+    "INDEX_WEIGHT_KEYS",
     "MeltingModel",
     "ModelFormatError",
     "model_from_dict",
@@ -74,7 +75,8 @@ MODEL_FORMAT_VERSION = 1
 MODEL_TYPES = ("gradient_boosted_trees",)
 _TOP_KEYS = frozenset({
     "format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain",
-    "training", "metrics", "caution", "offset",
+    "training", "metrics", "caution", "offset", "index_weights",
+    "tree_weights",
 })
 _REQUIRED_KEYS = frozenset({"format", "format_version", "model_type", "target", "features", "baseline", "trees", "interval", "domain"})
 _TREE_KEYS = frozenset({"feature", "threshold", "left", "right", "missing_left", "leaf", "value"})
@@ -83,6 +85,14 @@ _INTERVAL_KEYS = frozenset({"method", "coverage", "log_halfwidth", "group_log_ha
 # (log10 of a temperature, so scale ln 10) leaves over; files without it have no offset
 _OFFSET_KEYS = frozenset({"feature", "scale"})
 OFFSET_FEATURES = ("mp_trend_index",)
+# optional: the trend index's organic weights refitted on the model's own training rows
+# (pipelines.melting_fit.fit_index_weights); the model reads mp_trend_index computed with them
+# (scorer.melting_model.model_trend_index), so a held-out family never set a weight its index uses.
+# Exactly these keys of scorer.melting_index.TREND_WEIGHTS; files without it use the shipped weights.
+INDEX_WEIGHT_KEYS = ("flexibility", "delocalised", "protic")
+_INDEX_WEIGHT_MAX = 5.0
+# optional: per interval group, the share (0 to 1) of the trees' log correction its rows get
+# (pipelines.melting_offset.choose_tree_weight); a group not named gets all of it  # ten times the largest fitted so far (0.29): past it the index means nothing
 _DOMAIN_KEYS = frozenset({"feature_min", "feature_max", "target_min_K", "target_max_K", "substance_classes"})
 # Bounds on what applying a model may cost. fit-melting writes 200 trees of at
 # most 13 nodes (max_leaf_nodes=7), depth at most 6: 2,600 nodes. Walking the
@@ -122,6 +132,10 @@ class MeltingModel:
     # the offset (key 'offset'): position of its feature in ``features`` (-1: none) and its scale
     offset_position: int = -1
     offset_scale: float = 0.0
+    # the key 'index_weights' as sorted (name, value) pairs; empty: the shipped TREND_WEIGHTS
+    index_weights: tuple[tuple[str, float], ...] = ()
+    # the key 'tree_weights' as sorted (interval group, share) pairs; empty: every group gets all the trees
+    tree_weights: tuple[tuple[str, float], ...] = ()
 
     @property
     def feature_indices(self) -> np.ndarray:
@@ -284,6 +298,11 @@ def model_from_dict(document) -> MeltingModel:
     _need(isinstance(classes, list) and all(isinstance(c, str) for c in classes),
           "'domain.substance_classes' must be a list of strings")
     offset_position, offset_scale = _offset(document.get("offset"), features)
+    index_weights = _index_weights(document.get("index_weights"))
+    tree_weights = document.get("tree_weights", {})
+    _need(isinstance(tree_weights, dict) and all(
+        g in INTERVAL_GROUPS and _finite(v) and 0 <= v <= 1 for g, v in tree_weights.items()),
+        f"'tree_weights' must map some of {', '.join(INTERVAL_GROUPS)} to numbers from 0 to 1")
     for key in ("training", "metrics"):
         _need(_plain_json(document.get(key, {})), f"'{key}' must hold plain JSON values only")
     return MeltingModel(
@@ -301,6 +320,8 @@ def model_from_dict(document) -> MeltingModel:
         target_max_K=float(target[1]),
         offset_position=offset_position,
         offset_scale=offset_scale,
+        index_weights=index_weights,
+        tree_weights=tuple(sorted((g, float(v)) for g, v in tree_weights.items())),
     )
 
 
@@ -317,6 +338,20 @@ def _offset(offset, features) -> tuple[int, float]:
           f"'offset.feature' must be one of {', '.join(OFFSET_FEATURES)} and listed in 'features'")
     _need(_finite(scale) and 0 < scale <= 10, "'offset.scale' must be a number above 0 and at most 10")
     return features.index(feature), float(scale)
+
+
+def _index_weights(weights) -> tuple[tuple[str, float], ...]:
+    """Sorted (name, value) pairs of a document's ``index_weights`` object; () without one."""
+    if weights is None:
+        return ()
+    _need(isinstance(weights, dict), "'index_weights' must be an object")
+    unknown = sorted(set(weights) - set(INDEX_WEIGHT_KEYS))
+    _need(not unknown, f"unexpected keys in 'index_weights': {unknown[:5]}; allowed: {list(INDEX_WEIGHT_KEYS)}")
+    _need(set(weights) == set(INDEX_WEIGHT_KEYS), f"'index_weights' must have the keys {list(INDEX_WEIGHT_KEYS)}")
+    for name, value in weights.items():
+        _need(_finite(value) and 0 <= value <= _INDEX_WEIGHT_MAX,
+              f"'index_weights.{name}' must be a number from 0 to {_INDEX_WEIGHT_MAX:g}")
+    return tuple(sorted((name, float(value)) for name, value in weights.items()))
 
 
 def model_to_dict(model: MeltingModel) -> dict:

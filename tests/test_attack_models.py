@@ -92,6 +92,23 @@ def test_the_attack_document_is_valid_before_each_change(tmp_path):
     (lambda d: d.update(offset={"feature": "mp_trend_index", "scale": 1e300}), "'offset.scale' must be a number"),
     (lambda d: d.update(offset={"feature": "mp_trend_index", "scale": True}), "'offset.scale' must be a number"),
     (lambda d: d.update(offset=["mp_trend_index", 2.3]), "'offset' must be an object"),
+    # the optional index weights (the trend index's organic weights refitted with the model): only the
+    # three organic keys, all of them, finite numbers from 0 to 5; an inorganic weight may not be replaced
+    (lambda d: d.update(index_weights={"flexibility": 0.1, "delocalised": 0.3, "protic": 0.1, "intercept": 9.0}),
+     "unexpected keys in 'index_weights': \\['intercept'\\]"),
+    (lambda d: d.update(index_weights={"flexibility": 0.1}), "'index_weights' must have the keys"),
+    (lambda d: d.update(index_weights={"flexibility": 0.1, "delocalised": 1e300, "protic": 0.1}),
+     "'index_weights.delocalised' must be a number from 0 to 5"),
+    (lambda d: d.update(index_weights={"flexibility": -0.1, "delocalised": 0.3, "protic": 0.1}),
+     "'index_weights.flexibility' must be a number"),
+    (lambda d: d.update(index_weights={"flexibility": "0.1", "delocalised": 0.3, "protic": 0.1}),
+     "'index_weights.flexibility' must be a number"),
+    (lambda d: d.update(index_weights=[0.1, 0.3, 0.1]), "'index_weights' must be an object"),
+    # the optional share of the trees per interval group: known groups, numbers from 0 to 1
+    (lambda d: d.update(tree_weights={"ionic_liquid": 1.5}), "'tree_weights' must map"),
+    (lambda d: d.update(tree_weights={"payload": 0.5}), "'tree_weights' must map"),
+    (lambda d: d.update(tree_weights={"ionic_liquid": True}), "'tree_weights' must map"),
+    (lambda d: d.update(tree_weights=[0.5]), "'tree_weights' must map"),
 ])
 def test_attack_model_layout_is_checked_everywhere(tmp_path, capsys, change, message):
     document = copy.deepcopy(_document())

@@ -327,6 +327,10 @@ def test_ionic_liquids_train_and_get_their_own_intervals(fitted_with_ionic_liqui
     assert 0.0 <= per_group["ionic_liquid"]["interval_coverage"] <= 1.0
     document = json.loads((out / "melting_model.json").read_text())
     assert set(document["interval"]["group_log_halfwidths"]) == {"ionic_liquid", "other"}
+    # the index's organic weights refitted on the fitted rows, and the ionic liquids' share of the trees
+    # (pipelines/melting_offset.py), travel with the model
+    assert set(document["index_weights"]) == set(melting_model.INDEX_WEIGHT_KEYS)
+    assert 0.0 <= document["tree_weights"]["ionic_liquid"] <= 1.0
     assert document["domain"]["target_min_K"] < 260  # [C4mpyr][dca] 218 K is a training row
     model = load_model(out / "melting_model.json")
     # able to predict below 300 K: the imidazolium [NTf2] salt of the table's validation rows

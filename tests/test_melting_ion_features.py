@@ -138,8 +138,10 @@ def test_held_out_report_can_refit_the_organic_weights_per_fold(fast_pipeline):
     for formula, mp in (("NaCl", 1074), ("KCl", 1044), ("KBr", 1007)):
         rows.append({"formula_normalized": formula, "mp_K": float(mp), "anion_family": "halide",
                      "cation_element": formula[:1]})
-    result = melting_cv.held_out_report(rows, folds=3, refit_organic_weights=True)
+    result = melting_cv.held_out_report(rows, folds=3, index_weights="calibration_rows")
     assert np.isfinite(result["per_group"]["ionic_liquid"]["model"]["mae_K"])
     assert melting.TREND_WEIGHTS == saved
     with pytest.raises(ValueError, match="needs the scheme cation_family"):
-        melting_cv.held_out_report(rows, scheme="anion_family", refit_organic_weights=True)
+        melting_cv.held_out_report(rows, scheme="anion_family", index_weights="calibration_rows")
+    with pytest.raises(ValueError, match="is not one of fold, shipped, calibration_rows"):
+        melting_cv.held_out_report(rows, index_weights="refit")

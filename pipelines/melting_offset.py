@@ -1,0 +1,218 @@
+"""The regression's offset: the trend index's organic weights, refitted on a model's own training rows,
+and how far the trees may move ionic liquids off the index.
+
+The regression reads ``mp_trend_index`` as a feature and as its offset
+(:class:`pipelines.melting_fit.IndexOffsetRegressor`). Three of the index's
+weights (``flexibility``, ``delocalised``, ``protic``:
+:data:`scorer.melting_model_format.INDEX_WEIGHT_KEYS`) are fitted in
+:data:`scorer.melting_index.TREND_WEIGHTS` on the calibration rows of
+``datasets/melting/ionic_liquids.csv``, which belong to the cation families
+that cross-validation holds out. So ``fit-melting`` refits them on the rows
+each model is fitted on (:func:`fit_index_weights`: the same Nelder-Mead as
+:func:`pipelines.melting_weights.fit_organic_weights`, on those rows instead),
+rebuilds the index column with them (:func:`with_index_weights`) and writes
+them into the model file (key ``index_weights``), where
+:func:`scorer.melting_model.model_trend_index` reads them back at prediction.
+Inside a cross-validation fold the held-out family never sets a weight.
+
+Only the salt route's index depends on these weights, and only through the
+:class:`scorer.melting.MeltingTerms` of a compound, so the column is rebuilt
+from the cached terms in milliseconds: nothing is scored again.
+
+The trees fit what the index leaves over. Across cation families their
+correction does not always carry over: held out by cation family (chemicals
+1.5.2 open set plus ``ionic_liquids.csv``, 61 organic salts, seed 0), the index
+with per-fold weights alone scored 59.5 K on the ionic liquids against 67.4 K
+for index plus trees. :func:`choose_tree_weight` picks, by an inner grouped
+cross-validation on the rows a model is fitted on (never the held-out fold),
+the share of the trees' log correction the ``ionic_liquid`` group gets; the
+model file stores it (``tree_weights``). :func:`fit_offset_model` does both
+steps and fits the regressor.
+"""
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ionicity.scorer import melting
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.ions import decompose
+from ionicity.scorer.melting_model import MODEL_FEATURES
+from ionicity.scorer.melting_model_format import INDEX_WEIGHT_KEYS
+
+__all__ = ["index_terms", "organic_rows_of", "fit_index_weights", "with_index_weights", "MIN_ORGANIC_ROWS",
+           "TREE_WEIGHT_CANDIDATES", "choose_tree_weight", "fit_offset_model"]
+
+# fewer organic rows than this and the three weights are not refitted: the shipped ones stay
+# (three parameters by Nelder-Mead need a few rows each; common practice)
+MIN_ORGANIC_ROWS = 8
+_COLUMN = MODEL_FEATURES.index("mp_trend_index")
+# shares of the trees' log correction tried for the ionic-liquid group, fixed beforehand (1: the full
+# model, 0: the index alone); the first of equal scores wins, so ties keep the fuller correction
+TREE_WEIGHT_CANDIDATES = (1.0, 0.75, 0.5, 0.25, 0.0)
+INNER_FOLDS = 4
+
+
+def index_terms(rows, records) -> list:
+    """The :class:`scorer.melting.MeltingTerms` behind each training row's salt index, or None.
+
+    None where the row's index does not come from the salt route (``mp_route``)
+    or has no lattice energy: the organic weights cannot move it.
+    """
+    out = []
+    for row, record in zip(rows, records):
+        terms = None
+        if record.get("mp_route") == "salt":
+            terms = melting.melting_terms(decompose(parse_formula(row["formula_normalized"])))
+            if terms is not None and not math.isfinite(terms.lattice_energy_kJ_mol):
+                terms = None
+        out.append(terms)
+    return out
+
+
+def organic_rows_of(terms) -> np.ndarray:
+    """Indices of the rows whose index the organic weights move (flexibility entropy,
+    delocalised charge or a protic cation present)."""
+    return np.array([i for i, t in enumerate(terms) if t is not None and (
+        t.flexibility_entropy_J_mol_K or t.chain_packing_entropy_J_mol_K or t.delocalised_fraction
+        or t.protic_fraction)], dtype=int)
+
+
+def fit_index_weights(terms, y_K, fit_rows, progress=None) -> dict[str, float]:
+    """The organic weights fitted on the rows ``fit_rows`` (indices) only.
+
+    Least squares on log10 T_m by Nelder-Mead, inorganic weights held
+    (:func:`pipelines.melting_weights.fit_organic_weights`), over the rows of
+    ``fit_rows`` that the weights move; with fewer than :data:`MIN_ORGANIC_ROWS`
+    such rows the shipped weights are returned.
+
+    Parameters
+    ----------
+    terms : list of MeltingTerms or None
+        :func:`index_terms` of every row.
+    y_K : ndarray of shape (n_rows,)
+        Measured melting points [K].
+    fit_rows : array-like of int
+        The rows the model is fitted on (never the held-out or calibration rows).
+    progress : callable, optional
+
+    Returns
+    -------
+    dict
+        One value per name of :data:`scorer.melting_model_format.INDEX_WEIGHT_KEYS`.
+    """
+    from ionicity.pipelines import melting_weights  # needs scipy (the melting extra), checked by the callers
+
+    chosen = np.intersect1d(organic_rows_of(terms), np.asarray(fit_rows, dtype=int))
+    if len(chosen) < MIN_ORGANIC_ROWS:
+        weights = {k: float(melting.TREND_WEIGHTS[k]) for k in INDEX_WEIGHT_KEYS}
+        how = f"shipped (only {len(chosen)} organic rows to fit on)"
+    else:
+        weights = melting_weights.fit_organic_weights(
+            [("calibration", terms[i], float(y_K[i]), "") for i in chosen.tolist()])
+        weights = {k: round(float(weights[k]), 4) for k in INDEX_WEIGHT_KEYS}
+        how = f"fitted on {len(chosen)} organic rows"
+    if progress:
+        progress(f"  index weights {how}: " + ", ".join(f"{k} {v:.3f}" for k, v in weights.items()))
+    return weights
+
+
+def with_index_weights(x: np.ndarray, terms, weights) -> np.ndarray:
+    """A copy of the feature matrix ``x`` (columns :data:`MODEL_FEATURES`) whose ``mp_trend_index``
+    is computed with ``weights`` wherever the salt route gave it (:func:`index_terms`)."""
+    out = np.array(x, dtype=float, copy=True)
+    for i, t in enumerate(terms):
+        if t is not None:
+            out[i, _COLUMN] = round(float(t.index(weights)), 4)
+    return out
+
+
+def _index_matrix(x, y_K, fit_rows, terms, progress=None):
+    """(weights or None, x with the index rebuilt from weights fitted on ``fit_rows``)."""
+    if terms is None:
+        return None, x
+    weights = fit_index_weights(terms, y_K, fit_rows, progress)
+    return weights, with_index_weights(x, terms, weights)
+
+
+def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: str = "ionic_liquid",
+                       folds: int = INNER_FOLDS) -> tuple[float, dict]:
+    """The share of the trees' correction for ``group``'s rows, by inner grouped cross-validation.
+
+    Only the rows ``fit_rows`` take part: they are split by ``groups`` into
+    ``folds`` (scikit-learn's ``GroupKFold``); in each inner fold the index
+    weights (when ``terms`` is given) and the trees are fitted on the inner
+    training rows, and the inner held-out rows of ``group`` are predicted with
+    every share of :data:`TREE_WEIGHT_CANDIDATES`. The share with the lowest
+    mean absolute error [K] wins.
+
+    Parameters
+    ----------
+    x : ndarray of shape (n_rows, len(MODEL_FEATURES))
+    y_K : ndarray of shape (n_rows,)
+    fit_rows : ndarray of int
+        The rows the model will be fitted on.
+    labels, groups : ndarray of shape (n_rows,)
+        Interval group and cross-validation group of every row.
+    terms : list or None
+        :func:`index_terms` (None: the index as it comes in ``x``).
+    fit : callable
+        ``fit(x, y_K, labels) -> (IndexOffsetRegressor, used columns)``
+        (:func:`pipelines.melting_fit._fit_pipeline`).
+
+    Returns
+    -------
+    (float, dict)
+        The share, and the inner MAE [K] of every candidate (empty when the
+        rows hold too few groups or no row of ``group``: the share is then 1).
+    """
+    from sklearn.model_selection import GroupKFold  # melting extra, checked by the callers
+
+    fit_rows = np.asarray(fit_rows, dtype=int)
+    inner_groups = np.asarray(groups)[fit_rows]
+    mine = np.asarray(labels)[fit_rows] == group
+    n_groups = len(set(inner_groups[mine].tolist()))
+    if n_groups < 2:
+        return 1.0, {}
+    ln_index = np.full(len(fit_rows), np.nan)
+    ln_trees = np.full(len(fit_rows), np.nan)
+    for train, test in GroupKFold(n_splits=min(folds, len(set(inner_groups.tolist())))).split(fit_rows, groups=inner_groups):
+        if not mine[test].any():
+            continue
+        _, xw = _index_matrix(x, y_K, fit_rows[train], terms)
+        regressor, used = fit(xw[fit_rows[train]], y_K[fit_rows[train]], np.asarray(labels)[fit_rows[train]])
+        rows = fit_rows[test]
+        ln_index[test] = math.log(10.0) * xw[rows, used[regressor.column]]
+        ln_trees[test] = np.log(regressor.pipe.predict(xw[rows][:, used]))
+    scored = mine & np.isfinite(ln_trees)
+    truth = y_K[fit_rows[scored]]
+    errors = {share: round(float(np.mean(np.abs(np.exp(ln_index[scored] + share * ln_trees[scored]) - truth))), 2)
+              for share in TREE_WEIGHT_CANDIDATES}
+    best = min(TREE_WEIGHT_CANDIDATES, key=lambda share: errors[share])
+    return best, errors
+
+
+def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None):
+    """Index weights, tree share and regressor, each fitted on the rows ``fit_rows`` only.
+
+    Returns
+    -------
+    (regressor, used, index_weights, x_rebuilt)
+        ``regressor`` an :class:`pipelines.melting_fit.IndexOffsetRegressor`
+        whose ``tree_weights`` name the ``ionic_liquid`` share
+        (:func:`choose_tree_weight`; skipped when ``groups`` is None);
+        ``index_weights`` None when ``terms`` is None; ``x_rebuilt`` is ``x``
+        with the index rebuilt from those weights (every row, so the caller
+        predicts held-out rows with it).
+    """
+    fit_rows = np.asarray(fit_rows, dtype=int)
+    weights, xw = _index_matrix(x, y_K, fit_rows, terms, progress)
+    regressor, used = fit(xw[fit_rows], y_K[fit_rows], np.asarray(labels)[fit_rows])
+    if groups is not None:
+        share, errors = choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit)
+        regressor.tree_weights = {"ionic_liquid": share}
+        if progress and errors:
+            progress("  ionic-liquid share of the trees' correction, inner MAE by share: "
+                     + ", ".join(f"{k:g}: {v:.1f} K" for k, v in errors.items()) + f"; chosen {share:g}")
+    return regressor, used, weights, xw
