@@ -102,9 +102,22 @@ class FormulaCache:
         that must survive eviction."""
         if len(self.index) + len(formulas) > self.max_entries:
             self._evict(len(formulas), set(keep.to_pylist() if isinstance(keep, pa.Array) else keep) | {None})
-        base = len(self.index)
+        index = self.index
+        if any(text in index for text in formulas) or len(set(formulas)) < len(formulas):
+            # A formula already stored is not stored again: a second row would
+            # leave the index one row short of the arrays from there on, and
+            # the next eviction would give later formulas other formulas'
+            # rows. It happens with read-ahead: a formula evicted while a
+            # batch waited is scored again for it, and also sent to a worker
+            # for a later batch, whose chunk then brings it a second time.
+            fresh = {}
+            for text, record in zip(formulas, values):
+                if text not in index:
+                    fresh.setdefault(text, record)
+            formulas, values = list(fresh), list(fresh.values())
+        base = len(index)
         for offset, text in enumerate(formulas):
-            self.index[text] = base + offset
+            index[text] = base + offset
         self._pending.extend(values)
         self._pending_keys.extend(formulas)
 
