@@ -8,9 +8,11 @@ expected records come from scorer.record.score_formula called directly.
 """
 from __future__ import annotations
 
+import csv
 import hashlib
 import json
 import os
+import random
 import subprocess
 import sys
 
@@ -109,8 +111,45 @@ def test_values_match_score_formula(tmp_path):
     src = tmp_path / "in.parquet"
     pq.write_table(pa.table({"formula": FORMULAS + [None]}), src)
     score_file(str(src), str(tmp_path / "out.parquet"), quiet=True)
-    rows = pq.read_table(tmp_path / "out.parquet").to_pylist()
-    for row, text in zip(rows, FORMULAS + [None]):
+    _assert_rows_are_score_formula(pq.read_table(tmp_path / "out.parquet").to_pylist(), FORMULAS + [None])
+
+
+def _varied_formulas() -> list:
+    """Some 3,000 distinct texts: the reference cases (tests/data/formula_cases.csv,
+    sources per row there), the invented demo inventory and the benchmark's
+    generator (salts, hydrates in three spellings, double salts, ionic liquids,
+    typos), plus empty cells."""
+    cases = [r["formula"] for r in csv.DictReader(open("tests/data/formula_cases.csv", encoding="utf-8"))]
+    demo = [r["formula"] for r in csv.DictReader(open("datasets/demo/inventory.csv", encoding="utf-8"))]
+    return list(dict.fromkeys(cases + demo + realistic_formulas(2500, seed=13) + ["", "  ", None]))
+
+
+def test_a_varied_table_in_small_batches_matches_score_formula(tmp_path, monkeypatch):
+    # The batch path's speed tricks all at once -- two worker processes, the
+    # cache's numpy gather with shared validity bitmaps, its per-column text
+    # codes, evictions (a cache of 700 entries), dictionaries shared across a
+    # row group, the writer thread -- against the plain per-formula scorer
+    # (the reference is score_formula itself: common practice for a
+    # refactoring check).
+    class Small(FormulaCache):
+        def __init__(self, max_entries=700):
+            super().__init__(max_entries=max_entries)
+
+    monkeypatch.setattr("ionicity.pipelines.scheduler.FormulaCache", Small)
+    distinct = _varied_formulas()
+    rng = random.Random(4)
+    texts = distinct + [rng.choice(distinct) for _ in range(3000)]
+    rng.shuffle(texts)
+    src = tmp_path / "in.parquet"
+    pq.write_table(pa.table({"formula": texts}), src, row_group_size=1500)
+    score_file(str(src), str(tmp_path / "out.parquet"), quiet=True, batch_rows=512, workers=2)
+    out = pq.read_table(tmp_path / "out.parquet")
+    assert out.num_rows == len(texts) and out.column("formula").to_pylist() == texts
+    _assert_rows_are_score_formula(out.to_pylist(), texts)
+
+
+def _assert_rows_are_score_formula(rows: list[dict], texts: list) -> None:
+    for row, text in zip(rows, texts, strict=True):
         expected = score_formula(text)
         for column in output_columns():
             if column.name == FIRST_ROW_COLUMN:

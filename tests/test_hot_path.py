@@ -22,6 +22,7 @@ from ionicity.pipelines.bench import realistic_formulas
 from ionicity.pipelines.formula_cache import FormulaCache
 from ionicity.pipelines.pool import score_values
 from ionicity.pipelines.scheduler import BatchScorer
+from ionicity.scorer.columns import output_columns
 from ionicity.scorer.note_codes import NOTE_CODES, _ION, _code, short_notes
 from ionicity.scorer.record import score_formula
 
@@ -92,6 +93,25 @@ def test_cache_take_after_eviction_and_more_rows():
     after = cache.take(rows, range(len(arrays)))
     assert all(after[k].equals(a.take(rows)) for k, a in enumerate(arrays))
     assert len(before[0]) == 300
+
+
+def test_a_formula_stored_again_keeps_every_row_its_own():
+    # With read-ahead, a formula evicted while a batch waits is scored again
+    # for that batch and may also come back in a worker's chunk for a later
+    # batch: stored twice, it must not shift the rows of what comes after
+    # (the cache's index against its arrays, through the next eviction).
+    formulas = list(dict.fromkeys(_sample_formulas()))[:300]
+    cache = FormulaCache(max_entries=320)
+    cache.add(formulas[:200], score_values(formulas[:200]))
+    cache.add(formulas[150:250], score_values(formulas[150:250]))  # 50 already stored
+    cache.add(formulas[250:300], score_values(formulas[250:300]), keep=formulas[250:300])
+    cache.add(formulas[:40], score_values(formulas[:40]), keep=formulas[:40])  # evicts
+    assert cache.evictions == 1
+    at = [c.name for c in output_columns()].index("formula_normalized")
+    stored = list(cache.index)
+    rows = pa.array([cache.index[f] for f in stored], type=pa.int64())
+    assert cache.take(rows, [at])[at].to_pylist() == [score_formula(f)["formula_normalized"] for f in stored]
+    assert cache.keys().to_pylist() == sorted(stored, key=cache.index.__getitem__)
 
 
 def test_rows_found_after_submit_are_the_cache_rows():

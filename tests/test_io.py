@@ -229,7 +229,7 @@ def test_a_grown_dictionary_is_shared_across_a_row_group(tmp_path):
         pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([1, 0], pa.int32()), pa.array(["warning", "ok"]))], schema=schema),
         pa.record_batch([pa.DictionaryArray.from_arrays(pa.array([2, 1], pa.int32()), grown)], schema=schema),
     ]
-    from ionicity.pipelines.io import _share_dictionaries
+    from ionicity.pipelines.table_writer import _share_dictionaries
 
     shared = _share_dictionaries(batches)
     assert shared[0].column(0).dictionary.equals(grown)
