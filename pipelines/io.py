@@ -34,7 +34,7 @@ from ionicity.pipelines.csv_blocks import (block_for_header, growing_batches, he
                                           is_block_too_small)
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.schema import MAX_INPUT_COLUMNS, check_width
-from ionicity.pipelines.text_cells import BadRows, text_batch
+from ionicity.pipelines.text_cells import BadRows, arrow_codec, marked_cells, text_batch
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED, check_delimiter, check_encoding, encoding_problem, sniff_delimiter
 from ionicity.pipelines.table_formats import FORMATS, format_of
 # the writer lives in its own module; its name stays importable from here
@@ -173,7 +173,7 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     if not head.strip(b"\r\n\t \xef\xbb\xbf"):
         raise InputError(f"input {label} is empty: expected a header row and data rows")
     # a data cell that is not text is its row's error (text_cells); the column names must be text
-    end = header_line_end(head) if encoding == "utf-8" else len(head)
+    end = header_line_end(head) if encoding in ("utf-8", "cp1252") else len(head)
     problem = encoding_problem(head[:end], complete or end < len(head), encoding)
     if problem:
         raise InputError(f"input {label} {problem}")
@@ -182,7 +182,7 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
     kind = "TSV" if delimiter == "\t" else "CSV"
     parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=True)
     # Arrow transcodes any other encoding to UTF-8 as it reads
-    read_encoding = {} if encoding == "utf-8" else {"encoding": encoding}
+    read_encoding = {} if encoding == "utf-8" else {"encoding": arrow_codec(encoding)}
     def header_names(text: bytes) -> list[str]:
         return pacsv.open_csv(
             io.BytesIO(text), read_options=pacsv.ReadOptions(block_size=max(len(text), 1) if text is not head
@@ -248,6 +248,9 @@ def _read_csv(path: str, delimiter: str | None, batch_rows: int, encoding: str =
             for batch in growing_batches(open_stream, max(_BLOCK_SIZE, block_for_header(head, _HEADER_BLOCK)), label,
                                          can_restart=path != "-"):
                 batch, found = text_batch(batch, schema)
+                if encoding == "cp1252":
+                    batch, undefined = marked_cells(batch)
+                    found = {**undefined, **found}
                 bad_rows.add(offset, found)
                 offset += batch.num_rows
                 for start in range(0, batch.num_rows, batch_rows):

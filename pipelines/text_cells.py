@@ -14,9 +14,19 @@ to a CSV or TSV output (:func:`bytes_cells`); into Parquet they pass as they are
 
 Only a batch with a bad cell pays for the cell-by-cell pass: the rest is one
 Arrow cast per column (validating UTF-8, as reading the column as text did).
+
+Windows-1252 leaves five bytes undefined (0x81, 0x8D, 0x8F, 0x90, 0x9D; the
+code chart of the Unicode Consortium's mapping file CP1252.TXT), so a file
+read with ``--encoding cp1252`` can hold bytes that are not text in it
+either. Arrow transcodes such a file to UTF-8 through a Python codec as it
+reads; the one it is given (:data:`ARROW_CP1252`, registered here) is
+Windows-1252 with each undefined byte decoded to a private-use character,
+U+F700 plus the byte, which no Windows-1252 text can hold, and
+:func:`marked_cells` finds those cells and treats them as above.
 """
 from __future__ import annotations
 
+import codecs
 from dataclasses import dataclass, field
 
 import pyarrow as pa
@@ -26,7 +36,79 @@ from ionicity.pipelines.arrow_columns import bool_array, string_array
 from ionicity.pipelines.text_dialect import ENCODING_HINT, SPELLED
 from ionicity.scorer.verdict import fit_message
 
-__all__ = ["BadRows", "text_batch", "text_table", "bytes_cells", "mark_rows", "decode_cells"]
+__all__ = ["ARROW_CP1252", "BadRows", "arrow_codec", "text_batch", "text_table", "bytes_cells", "mark_rows",
+           "marked_cells", "decode_cells"]
+
+#: the codec name Arrow reads ``--encoding cp1252`` files with (see the module's docstring)
+ARROW_CP1252 = "ionicity-cp1252-marked"
+_CP1252_UNDEFINED = (0x81, 0x8D, 0x8F, 0x90, 0x9D)
+_MARK_BASE = 0xF700
+_MARKS = "[" + "".join(chr(_MARK_BASE + b) for b in _CP1252_UNDEFINED) + "]"
+_CP1252_MARKED = "".join(chr(_MARK_BASE + b) if b in _CP1252_UNDEFINED else bytes([b]).decode("cp1252")
+                         for b in range(256))
+
+
+class _MarkedDecoder(codecs.IncrementalDecoder):
+    def decode(self, data, final=False):
+        # one byte, one character: no state is carried between chunks
+        return codecs.charmap_decode(data, self.errors, _CP1252_MARKED)[0]
+
+
+def _marked_codec(name: str):
+    if name.replace("_", "-") != ARROW_CP1252:
+        return None
+    table = codecs.charmap_build(_CP1252_MARKED)
+    return codecs.CodecInfo(
+        name=ARROW_CP1252,
+        encode=lambda text, errors="strict": codecs.charmap_encode(text, errors, table),
+        decode=lambda data, errors="strict": codecs.charmap_decode(data, errors, _CP1252_MARKED),
+        incrementaldecoder=_MarkedDecoder,
+    )
+
+
+codecs.register(_marked_codec)
+
+
+def arrow_codec(encoding: str) -> str:
+    """The codec Arrow transcodes a text file of ``encoding`` with.
+
+    >>> arrow_codec("cp1252") == ARROW_CP1252, arrow_codec("latin-1")
+    (True, 'latin-1')
+    >>> b"K\\x81Cl caf\\xe9".decode(arrow_codec("cp1252")) == "K\\uf781Cl caf\\u00e9"
+    True
+    """
+    return ARROW_CP1252 if encoding == "cp1252" else encoding
+
+
+def marked_cells(batch: pa.RecordBatch) -> tuple[pa.RecordBatch, dict[int, tuple[list[str], int]]]:
+    """A text batch read through :data:`ARROW_CP1252` with each undefined
+    byte's mark made U+FFFD, and those cells: position -> (column names,
+    first undefined byte). One regular-expression scan per column; only a
+    column with a mark is gone through cell by cell.
+
+    >>> batch = pa.RecordBatch.from_pydict({"f": ["NaCl", "K\\uf781Cl"], "n": ["a", None]})
+    >>> fixed, found = marked_cells(batch)
+    >>> fixed.column(0).to_pylist() == ["NaCl", "K\\ufffdCl"], found
+    (True, {1: (['f'], 129)})
+    """
+    columns, found = list(batch.columns), {}
+    for i, name in enumerate(batch.schema.names):
+        if not pc.any(pc.match_substring_regex(columns[i], _MARKS)).as_py():
+            continue
+        texts, bad = [], {}
+        for position, value in enumerate(columns[i].to_pylist()):
+            first = next((ch for ch in value or "" if _MARK_BASE < ord(ch) < _MARK_BASE + 256
+                          and ord(ch) - _MARK_BASE in _CP1252_UNDEFINED), None)
+            if first is not None:
+                bad[position] = ord(first) - _MARK_BASE
+                for b in _CP1252_UNDEFINED:
+                    value = value.replace(chr(_MARK_BASE + b), "\ufffd")
+            texts.append(value)
+        columns[i] = string_array(texts)
+        _merge(found, name, bad)
+    if not found:
+        return batch, {}
+    return pa.RecordBatch.from_arrays(columns, schema=batch.schema), found
 
 
 def decode_cells(values: list) -> tuple[pa.Array, dict[int, int]]:

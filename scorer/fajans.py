@@ -32,7 +32,7 @@ Several ions
 Polarising power and polarisability are count-weighted means over the cations
 (anions), with the maximum in a ``_max`` column; the contact index is averaged
 over cation-anion pairs weighted by the product of stoichiometric fractions
-(:func:`scorer.character.contact_pairs`), and ``covalency_risk`` is that of the
+(:func:`scorer.contact.contact_pairs`), and ``covalency_risk`` is that of the
 worst pair, since one covalent contact is enough to change a salt's behaviour.
 """
 from __future__ import annotations
@@ -40,7 +40,7 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.contact import contact_pairs, weighted_mean
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element

@@ -43,7 +43,7 @@ Several ions
 Hardness: count-weighted mean over the ions that have a value. Class: the
 shared class when every classified ion of that side agrees, ``mixed``
 otherwise. Pairing: mean over cation-anion pairs weighted by the product of
-stoichiometric fractions (:func:`scorer.character.contact_pairs`), over the
+stoichiometric fractions (:func:`scorer.contact.contact_pairs`), over the
 pairs whose both classes are known; the worst pair is shown by ``explain``.
 """
 from __future__ import annotations
@@ -52,7 +52,7 @@ import math
 
 import numpy as np
 from ionicity.scorer.caching import once
-from ionicity.scorer.character import contact_pairs, weighted_mean
+from ionicity.scorer.contact import contact_pairs, weighted_mean
 from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Column, Decomposition, Ion

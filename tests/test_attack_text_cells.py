@@ -111,6 +111,39 @@ def test_attack_a_whole_latin1_file_is_marked_and_named(tmp_path, capsys):
     assert [r["status"] for r in rows] == ["ok"] * 3 and rows[2]["name"] == "bromure é"
 
 
+# bytes Windows-1252 leaves undefined: 0x81, 0x8D, 0x8F, 0x90, 0x9D (the Unicode Consortium's mapping
+# file CP1252.TXT marks them UNDEFINED; Python's cp1252 codec follows it); 0x80 is the euro sign there
+CP1252_CSV = b"formula,name\nNaCl,caf\xe9 \x80\nK\x81Cl,a\nKBr,b\x8d\x8f\nCa\x90F2,c\x9d\nMgO,d\n"
+
+
+def test_attack_an_undefined_cp1252_byte_is_that_rows_error(tmp_path, capsys):
+    # before: --encoding cp1252 refused the whole file (exit 2) for one such byte
+    src = tmp_path / "win.csv"
+    src.write_bytes(CP1252_CSV)
+    assert main(["score", str(src), "-o", str(tmp_path / "out.csv"), "--encoding", "cp1252", "--workers", "1"]) == 0
+    rows = _rows(tmp_path / "out.csv")
+    assert [r["status"] for r in rows] == ["ok", "error", "error", "error", "ok"]
+    assert rows[0]["name"] == "caf\u00e9 \u20ac"  # the defined bytes read as Windows-1252
+    assert rows[1]["formula"] == "K\ufffdCl" and rows[1]["formula_normalized"] == ""
+    assert rows[1]["message"].startswith("data row 2: column 'formula' held bytes that are not valid Windows-1252"
+                                         " text (byte 0x81), written here as U+FFFD")
+    # the first undefined byte of the cell is named; the formula was text, so the scores stay
+    assert rows[2]["name"] == "b\ufffd\ufffd" and "(byte 0x8D)" in rows[2]["message"]
+    assert rows[2]["cations"] == "K(+)*1"
+    assert rows[3]["message"].startswith("data row 4: columns 'formula', 'name' held bytes") and "0x90" in rows[3]["message"]
+    assert all("--encoding latin-1" in r["message"] for r in rows[1:4])
+    assert "note: 3 rows of" in capsys.readouterr().err
+
+
+def test_attack_an_undefined_cp1252_byte_in_the_header_is_exit_2(tmp_path, capsys):
+    src = tmp_path / "win.csv"
+    src.write_bytes(b"formula,nom\x81\nNaCl,x\n")
+    assert main(["score", str(src), "-o", str(tmp_path / "out.csv"), "--encoding", "cp1252"]) == 2
+    err = capsys.readouterr().err.strip()
+    assert len(err.splitlines()) == 1 and "not valid Windows-1252" in err
+    assert sorted(os.listdir(tmp_path)) == ["win.csv"]
+
+
 def test_attack_column_names_that_are_not_utf8_are_exit_2(tmp_path, capsys):
     src = tmp_path / "in.csv"
     src.write_bytes(b"formula,nom \xe9\nNaCl,x\n")
