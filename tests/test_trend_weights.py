@@ -145,3 +145,19 @@ def test_validation_imidazolium_chain_minimum_lies_at_hexyl_to_octyl():
     chain = {n: _trend_K(f"[C{n}mim][PF6]") for n in (2, 4, 6, 8, 10)}
     assert min(chain, key=chain.get) in (6, 8)
     assert chain[2] > chain[4] and chain[10] > min(chain.values())
+
+
+@pytest.mark.parametrize("decision, mp_K, agreeing", [
+    # decision texts as pipelines.melting_data writes them (source tables of chemicals 1.5.2)
+    ("agree: CRC_INORG=1074.0, WIKIDATA=1073.8", 1073.9, 2),
+    ("consensus (2 of 3 within 20 K): CRC_INORG=1157.2, WIKIDATA=360.1, COMMON_CHEMISTRY=1161.2", 1159.2, 2),
+    ("single: COMMON_CHEMISTRY=331.1", 331.15, 1),
+    # one table counted once across two CAS entries of the same formula
+    ("2 CAS entries for NiS; agree: 16812-54-7:CRC_INORG=1249.2, 11113-75-0:CRC_INORG=1249.2", 1249.2, 1),
+    ("2 CAS entries for NiS; agree: 16812-54-7:CRC_INORG=1249.2, 11113-75-0:WIKIDATA=1259.2", 1254.2, 2),
+])
+def test_validation_subset_of_agreeing_sources_counts_tables(decision, mp_K, agreeing):
+    # the subset the melting issue measured on (two open sources within 20 K); chosen on the data alone
+    from ionicity.pipelines.melting_weights import agreeing_sources
+
+    assert agreeing_sources({"decision": decision, "mp_K": mp_K}) == agreeing
