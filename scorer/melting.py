@@ -373,8 +373,8 @@ COLUMNS: tuple[Column, ...] = (
         + CAUTION,
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
-        " formula unit, nitride share, organic-ion flexibility and symmetry, chain packing, charge"
-        " delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids the mean of both;"
+        " formula unit, nitride share (saline nitrides apart), 3d crystal-field stabilisation, organic-ion"
+        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids the mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
         "salts: lattice energy of the whole formula unit over its ion count; contact terms averaged over"

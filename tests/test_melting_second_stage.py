@@ -4,8 +4,9 @@ Both weights (``crystal_field``, ``saline_nitride`` in ``scorer.melting.TREND_WE
 least-squares fits of the calibration residuals of the ionic index, its other weights held
 (``pipelines.melting_weights.fit_salt_residual_weights``): calibration is the CC0 fixture
 ``datasets/melting/wikidata_salts.csv`` plus the calibration half of the open training set
-(``open_set_half``). NiO, Cr2O3 and Ca3N2 are calibration compounds; the checks called
-validation use compounds outside that set (Li3N and Sr3N2 are in neither half). Melting
+(``open_set_half``). NiO (fixture), Cr2O3 and Ca3N2 (open calibration half) are calibration
+compounds; the checks called validation use compounds outside the fitted set: Li3N and Sr3N2
+are in no row of the open set (``chemicals`` 1.5.2), though their formulas hash to the calibration half. Melting
 points are read at run time from ``chemicals.phase_change.Tm`` (CRC Handbook table).
 """
 from __future__ import annotations
