@@ -21,8 +21,11 @@ Two named sets, each with its source in the repository:
   the open training set not listed in that file.
 * **molecules**: ``datasets/melting/molecular_compounds.csv`` names its rows
   ``calibration`` or ``validation``; melting points are read at run time with
-  ``chemicals.phase_change.Tm``. The three weights of the molecular route are
-  a least-squares fit of dH_m on the calibration rows.
+  ``chemicals.phase_change.Tm``; validation figures are printed over all
+  its validation rows and per ``origin`` (``issue_13``: the compounds the
+  issue names; ``widened``: the rows a stated rule added). The four weights of the molecular route
+  (:data:`MOLECULAR_WEIGHTS`) are a least-squares fit of dH_m on the
+  calibration rows.
 
 The second-stage salt terms (``RESIDUAL_FEATURES``) are then fitted on the
 calibration residuals with those weights held (:func:`fit_salt_residual_weights`).
@@ -270,19 +273,38 @@ def molecular_rows():
     return out
 
 
+MOLECULAR_WEIGHTS = ("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol",
+                     "molecular_secondary_kJ_mol")
+
+
+def molecular_origins() -> dict[str, str]:
+    """formula -> ``origin`` of datasets/melting/molecular_compounds.csv: ``issue_13`` (named in the
+    melting issue), ``first_set`` (the first calibration rows) or ``widened`` (validation rows added
+    by the rule in datasets/melting/README.md)."""
+    with open(MOLECULAR_SET, newline="", encoding="utf-8") as handle:
+        return {row["formula"]: row["origin"] for row in csv.DictReader(handle)}
+
+
 def fit_molecular_weights(rows) -> dict[str, float]:
-    """Least squares of dH_m = T_m dS_m (relative errors) on the calibration rows."""
+    """Least squares of dH_m = T_m dS_m (relative errors) on the calibration rows.
+
+    ``molecular_secondary_kJ_mol`` rests on the calibration rows with secondary
+    contacts in ``scorer/data/molecular_coordination.csv`` (HgCl2); the other
+    rows of that kind (HgBr2, HgI2, BiCl3) are validation.
+    """
     a, b = [], []
     for split, _, m, t in rows:
         if split != "calibration":
             continue
         ds = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
         dh = t * ds / 1000.0
-        a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3), m.open_sites * m.bond_strength]) / dh)
+        secondary = min(m.secondary_contacts, m.open_sites)
+        a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3),
+                           (m.open_sites - secondary) * m.bond_strength,
+                           secondary * m.bond_strength * m.primary_delta_chi]) / dh)
         b.append(1.0)
     w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
-    return dict(zip(("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol"),
-                    map(float, w)))
+    return dict(zip(MOLECULAR_WEIGHTS, map(float, w)))
 
 
 def as_molecular(formula: str):
@@ -326,6 +348,11 @@ def evaluate(salts, molecules, organics=None, agreed=None, flagged=None) -> dict
             # class the ion solver gives it today (AlCl3 and HgX2 are covalent_molecular after issue 12)
             predicted = [10 ** melting.describe(as_molecular(f))[0]["mp_trend_index"] for _, f, _, _ in mols]
             out[f"molecules_{split}"] = _figures(predicted, [t for *_, t in mols], salt=False)
+            if split == "validation":
+                origin = molecular_origins()
+                for name in sorted({origin.get(f, "") for _, f, _, _ in mols}):
+                    pairs = [(p, t) for p, (_, f, _, t) in zip(predicted, mols) if origin.get(f, "") == name]
+                    out[f"molecules_validation_{name}"] = _figures(*zip(*pairs), salt=False)
         if split == "validation":
             pooled_p += [10 ** t.index() for _, t, _, _ in rows + organic] + (predicted if mols else [])
             pooled_m += [mp for _, _, mp, _ in rows + organic] + [t for *_, t in mols]

@@ -374,7 +374,8 @@ COLUMNS: tuple[Column, ...] = (
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
         " formula unit, nitride share (saline nitrides apart), 3d crystal-field stabilisation, organic-ion"
-        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids the mean of both;"
+        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes);"
+        " chain/layer solids a weighted mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
         "salts: lattice energy of the whole formula unit over its ion count; contact terms averaged over"
@@ -494,7 +495,8 @@ def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | None]:
         return math.nan, None
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w)
+    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w,
+                                                m.secondary_contacts, m.primary_delta_chi)
     temperature = routes.molecular_melting_K(cohesion, entropy)
     reading = _MolecularReading(m, cohesion, entropy, temperature)
     return math.log10(temperature) if temperature > 0 else math.nan, reading
@@ -513,8 +515,11 @@ def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
         f"  cohesion: sum over {len(m.ligand_polarisabilities_A3)} peripheral atoms of ({w['molecular_contact_kJ_mol']}"
         f" + {w['molecular_polarisability_kJ_mol_A3']} * alpha/A3), alphas"
         f" {', '.join(f'{a:.2f}' for a in m.ligand_polarisabilities_A3)}; + {w['molecular_bridge_kJ_mol']} kJ/mol"
-        f" * {m.open_sites} open coordination site(s) bridged in the crystal * Pauling bond strength z/CN"
-        f" {m.bond_strength:.3f}",
+        f" * {m.open_sites - m.secondary_contacts} open coordination site(s) bridged in the crystal * Pauling bond"
+        f" strength z/CN {m.bond_strength:.3f}",
+        *((f"  secondary contacts (Alcock 1972): + {w['molecular_secondary_kJ_mol']} kJ/mol * {m.secondary_contacts}"
+           f" contact(s) * z/CN {m.bond_strength:.3f} * electronegativity difference of the primary bond"
+           f" {m.primary_delta_chi:.2f}",) if m.secondary_contacts else ()),
     )
 
 
@@ -568,8 +573,10 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         formal = _formal_salt(dec)
         salt, terms, notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and math.isfinite(molecular):
-            index = routes.chain_layer_index(salt, molecular)
-            steps = (f"  chain/layer solid: I = mean of the salt index {salt:.3f} and the molecular index"
+            share = routes.chain_layer_salt_share(reading.terms if reading is not None else None)
+            index = routes.chain_layer_index(salt, molecular, share)
+            steps = (f"  chain/layer solid: I = weighted mean of the salt index {salt:.3f} (weight {share:.3f}:"
+                     f" bridging bonds and Pauling's rule, chain_layer_salt_share) and the molecular index"
                      f" {molecular:.3f} (chain_layer_index)",)
         else:
             index = molecular

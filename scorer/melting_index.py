@@ -53,7 +53,8 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 #   checked against fusion entropies of the alkali halides and polyethylene.
 # * molecular route (molecular_*): least squares of dH_m on the calibration rows of
 #   datasets/melting/molecular_compounds.csv; validation on its validation rows. The last refit
-#   (bridges weighted by Pauling's z/CN, issue 13) gave 1.083, 0.601, 9.364.
+#   (bridges weighted by Pauling's z/CN, issue 13) gave 1.083, 0.601, 9.364, and 7.508 for
+#   secondary contacts (fixed by HgCl2, the one calibration row that has them).
 # tests/perturb_trend_weights.py lists which +-50 % changes no test catches.
 TREND_WEIGHTS: dict[str, float] = {
     "intercept": 3.043,  # log10 K at the reference energy and chi with no other term
@@ -99,6 +100,8 @@ TREND_WEIGHTS: dict[str, float] = {
     "molecular_polarisability_kJ_mol_A3": 0.60,
     # per valence unit of bridges (open sites times Pauling's z / CN; Al2Br6: 1 * 3/4)
     "molecular_bridge_kJ_mol": 9.4,
+    # per valence unit and unit of the primary bond's delta chi (HgCl2: 4 * 2/6 * 1.26)
+    "molecular_secondary_kJ_mol": 7.5,
 }
 
 

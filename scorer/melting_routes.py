@@ -18,8 +18,11 @@ mean something:
   the coordination number measured where
   ``scorer/data/molecular_coordination.csv`` lists the solid, else the
   pentahalide and radius-ratio rules of :func:`molecular_terms`);
-* ``chain_layer`` (``chain_layer_solid``): between the two, the geometric
-  mean of the salt and molecular temperatures (:func:`chain_layer_index`);
+* ``chain_layer`` (``chain_layer_solid``): between the two, a weighted
+  geometric mean of the salt and molecular temperatures
+  (:func:`chain_layer_index`), the salt's weight from the share of bonds
+  that bridge and how far Pauling's rule lets the bridges be ionic
+  (:func:`chain_layer_salt_share`: CrO3 1/6, BeCl2 1/2);
 * ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
   ``intermetallic``, ``zintl_phase``, ``element``): the stated rule of
   :func:`element_mixture_melting_K`, the atom-fraction weighted mean of the
@@ -59,6 +62,7 @@ __all__ = [
     "molecular_terms",
     "element_mixture_melting_K",
     "chain_layer_index",
+    "chain_layer_salt_share",
     "ion_symmetry_number",
 ]
 
@@ -179,7 +183,8 @@ def pauling_bond_strength(oxidation_state: float, coordination_number: float) ->
     return float(oxidation_state) / coordination_number if coordination_number > 0 else 0.0
 
 
-def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_strength, weights: Mapping[str, float]):
+def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_strength, weights: Mapping[str, float],
+                              secondary_contacts=0, primary_delta_chi=0.0):
     """Heat of melting of a molecular crystal from the size and polarisability of its molecule [kJ/mol].
 
     ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open * s``: each
@@ -192,8 +197,23 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     as the centre's bonds: Pauling's electrostatic bond strength
     ``s = z / CN`` (:func:`pauling_bond_strength`), so the four long Hg...Cl
     contacts of HgCl2 (``s`` = 2/6) hold less than the Al-Cl-Al bridges of
-    Al2Br6 (3/4). Defined here; the weights ``h_0``, ``h_alpha``, ``h_bridge``
-    are fitted (see ``TREND_WEIGHTS``).
+    Al2Br6 (3/4).
+
+    Secondary contacts are counted apart: ``n_sec`` of the open sites are
+    filled not by bridges but by long secondary contacts (Alcock's secondary
+    bonds: the four Hg...X of linear HgX2 at 1.4-1.5 times the Hg-X bond,
+    Wells 1984), each worth ``h_sec * s * dchi``. A secondary bond is a
+    donor-acceptor contact into the antibonding orbital of the primary bond
+    and is the stronger the more polar that bond (N. W. Alcock, Adv. Inorg.
+    Chem. Radiochem. 1972, 15, 1; from memory): ``dchi`` is the Pauling
+    electronegativity difference of the primary bond (HgCl2 1.26, HgBr2
+    1.06, HgI2 0.76), so the contacts weaken from chloride to iodide as the
+    dispersion term grows, and the mercury halides melt alike (549, 514 and
+    529 K, chemicals Tm). Defined here; the weights ``h_0``, ``h_alpha``,
+    ``h_bridge``, ``h_sec`` are fitted (see ``TREND_WEIGHTS``).
+
+    ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * (n_open - n_sec) * s
+    + h_sec * n_sec * s * dchi``.
 
     Parameters
     ----------
@@ -205,13 +225,21 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
         ``s = z / CN`` of the centre [valence units].
     weights : mapping
         ``molecular_contact_kJ_mol``, ``molecular_polarisability_kJ_mol_A3``,
-        ``molecular_bridge_kJ_mol`` (kJ/mol per valence unit of bridges).
+        ``molecular_bridge_kJ_mol`` (kJ/mol per valence unit of bridges) and,
+        with secondary contacts, ``molecular_secondary_kJ_mol`` (kJ/mol per
+        valence unit and Pauling unit of electronegativity difference).
+    secondary_contacts : int, default=0
+        How many of the open sites are secondary contacts (at most ``open_sites``).
+    primary_delta_chi : float, default=0.0
+        Pauling electronegativity difference of the primary bond.
 
     Examples
     --------
     >>> w = {"molecular_contact_kJ_mol": 1.0, "molecular_polarisability_kJ_mol_A3": 1.0, "molecular_bridge_kJ_mol": 8.0}
     >>> molecular_cohesion_kJ_mol([2.0, 2.0], 1, 0.75, w)
     12.0
+    >>> round(molecular_cohesion_kJ_mol([2.0, 2.0], 4, 0.5, {**w, "molecular_secondary_kJ_mol": 10.0}, 4, 1.0), 6)
+    26.0
     """
     h_0, h_alpha = weights["molecular_contact_kJ_mol"], weights["molecular_polarisability_kJ_mol_A3"]
     # one term per distinct alpha, summed atom by atom in C: the same float sum as a loop
@@ -219,7 +247,12 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     # 100,000 atoms took 30 ms in a Python loop)
     term = {a: h_0 + h_alpha * a for a in set(ligand_polarisabilities_A3)}
     total = sum(map(term.__getitem__, ligand_polarisabilities_A3))
-    return total + weights["molecular_bridge_kJ_mol"] * max(open_sites, 0) * bond_strength
+    open_sites = max(open_sites, 0)
+    secondary = min(max(secondary_contacts, 0), open_sites)
+    total += weights["molecular_bridge_kJ_mol"] * (open_sites - secondary) * bond_strength
+    if secondary:
+        total += weights["molecular_secondary_kJ_mol"] * secondary * bond_strength * primary_delta_chi
+    return total
 
 
 def molecular_melting_K(cohesion_kJ_mol: float, entropy_J_mol_K: float) -> float:
@@ -231,13 +264,60 @@ def molecular_melting_K(cohesion_kJ_mol: float, entropy_J_mol_K: float) -> float
     return 1000.0 * cohesion_kJ_mol / entropy_J_mol_K
 
 
-def chain_layer_index(salt_index: float, molecular_index: float) -> float:
-    """A chain or layer solid sits between its salt and molecular readings: the mean of the two indices.
+def chain_layer_index(salt_index: float, molecular_index: float, salt_share: float = 0.5) -> float:
+    """A chain or layer solid sits between its salt and molecular readings: their weighted mean.
+
+    ``I = I_mol + w (I_salt - I_mol)`` with ``w`` the share of the ionic
+    reading (:func:`chain_layer_salt_share`): 0.5, the plain mean, for a
+    solid whose every bond is a saturated bridge (BeCl2, MoO3, CdCl2).
 
     >>> chain_layer_index(3.0, 2.4)
     2.7
+    >>> round(chain_layer_index(3.0, 2.4, salt_share=1 / 6), 3)
+    2.5
     """
-    return 0.5 * (salt_index + molecular_index)
+    return molecular_index + salt_share * (salt_index - molecular_index)
+
+
+def chain_layer_salt_share(terms: MolecularTerms | None) -> float:
+    """Share ``w`` of the ionic reading in a chain or layer solid, from its bridging and terminal bonds.
+
+    ``w = 0.5 * min(1, 2 n_open / CN) * min(1, |z_X| / (2 s))``:
+
+    * only bridging bonds tie one centre to the next; a terminal bond (the
+      two Cr=O of each CrO4 tetrahedron in the CrO3 chain, Wells, Structural
+      Inorganic Chemistry, 5th ed., 1984, ch. 24; from memory) holds nothing
+      between centres. Each bridge pairs one of the centre's own ligands with
+      an open site of a neighbour, so ``2 n_open`` of the centre's ``CN``
+      bonds bridge (CrO3: 2 of 4; BeCl2 and MoO3: all);
+    * Pauling's electrostatic valence rule (J. Am. Chem. Soc. 1929, 51, 1010;
+      from memory): a ligand of charge ``z_X`` bridging two centres receives
+      ``2 s`` with ``s = z / CN`` (:func:`pauling_bond_strength`). Where
+      ``2 s`` exceeds ``|z_X|`` (CrO3: 2 * 6/4 = 3 on an oxide) the bridge
+      over-bonds its anion and cannot be electrostatic: only the share
+      ``|z_X| / (2 s)`` reads as ionic.
+
+    The factor 0.5 is the plain mean a fully bridged solid of saturated
+    bridges keeps. 0.5 too without a reading of the bridges (no single
+    centre, V2O5; or no open site found), said in the explain step.
+
+    Examples
+    --------
+    >>> from dataclasses import replace
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> def share(f):
+    ...     dec = replace(decompose(parse_formula(f)), cations=(), anions=())
+    ...     return round(chain_layer_salt_share(molecular_terms(dec)), 3)
+    >>> share("CrO3"), share("BeCl2"), share("MoO3")
+    (0.167, 0.5, 0.5)
+    """
+    if terms is None or terms.open_sites <= 0 or terms.bond_strength <= 0 or terms.coordination_number <= 0:
+        return 0.5
+    bridging = min(1.0, 2.0 * terms.open_sites / terms.coordination_number)
+    n = sum(k for _, k in terms.ligands)
+    ligand_charge = sum(abs(_LIGAND_CHARGE.get(s, -1)) * k for s, k in terms.ligands) / n
+    return 0.5 * bridging * min(1.0, ligand_charge / (2.0 * terms.bond_strength))
 
 
 # --------------------------------------------------------- molecular geometry
@@ -279,6 +359,9 @@ class MolecularTerms:
     ligand_polarisabilities_A3: tuple[float, ...]
     basis: str
     bond_strength: float = 0.0
+    coordination_number: int = 0
+    secondary_contacts: int = 0
+    primary_delta_chi: float = 0.0
 
 
 def _polarisability_A3(symbol: str) -> float:
@@ -296,11 +379,13 @@ def _atom_polarisabilities_A3(counts) -> tuple[float, ...]:
 
 
 @once
-def _measured_coordination() -> dict[tuple, tuple[int, str]]:
-    """Reduced composition -> (coordination number of the centre in the solid, source)."""
+def _measured_coordination() -> dict[tuple, tuple[int, int, str]]:
+    """Reduced composition -> (coordination number of the centre in the solid, how many of them are
+    secondary contacts, source)."""
     out = {}
     for row in table("molecular_coordination.csv"):
-        out[_reduced_key(parse_formula(row["formula"]).counts)] = (int(row["coordination_number"]), row["source"])
+        out[_reduced_key(parse_formula(row["formula"]).counts)] = (
+            int(row["coordination_number"]), int(row["secondary_contacts"]), row["source"])
     return out
 
 
@@ -341,7 +426,8 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     Open sites are the centre's coordination number in the solid less its
     ligands and lone pairs. The coordination number is, in this order: the
     measured one where ``scorer/data/molecular_coordination.csv`` lists the
-    compound (AlCl3 6, a layer lattice; HgCl2 2+4); that of the ligands alone
+    compound (AlCl3 6, a layer lattice; HgCl2 2+4, its four long Hg...Cl
+    counted as ``secondary_contacts``); that of the ligands alone
     for carbon and nitrogen centres (multiple bonds, no bridges: CO2); 6 for
     a d- or f-block pentahalide (bridged dimers and tetramers: NbBr5); else
     the radius-ratio rule. ``bond_strength`` is Pauling's ``z / CN`` when a
@@ -390,8 +476,11 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     if n == 2 and lone_pairs in (0, 3):  # linear: a cylinder, or a cone with mixed ligands
         sigma = _LINEAR_SIGMA / (2.0 if len(ligands) > 1 else 1.0)
     measured = _measured_coordination().get(_reduced_key(comp))
+    secondary = 0
     if measured is not None:
-        cn, how = measured[0], "measured in the solid (scorer/data/molecular_coordination.csv)"
+        cn, secondary, how = measured[0], measured[1], "measured in the solid (scorer/data/molecular_coordination.csv)"
+        if secondary:
+            how += f", {secondary} of them secondary contacts"
     else:
         cn = _radius_ratio_coordination(centre, int(state), ligands) if state > 0 else 0
         how = "radius-ratio"
@@ -405,9 +494,11 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
             cn, how = 6, "octahedral, a d/f-block pentahalide bridged into dimers or tetramers"
     open_sites = max(cn - n - lone_pairs, 0)
     strength = pauling_bond_strength(state, cn) if open_sites else 0.0
+    delta_chi = sum((chi[s] - chi[centre]) * k for s, k in ligands) / n_lig
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
-                          f" coordination {cn or 'unknown'} ({how})", strength)
+                          f" coordination {cn or 'unknown'} ({how})", strength, cn, min(secondary, open_sites),
+                          delta_chi)
 
 
 def ion_symmetry_number(ion) -> float:

@@ -88,7 +88,8 @@ TABLES: dict[str, TableSpec] = {
             "scorer.melting",
         ),
         TableSpec("element_melting_points.csv", ("symbol", "mp_K", "source"), "scorer.melting_routes"),
-        TableSpec("molecular_coordination.csv", ("formula", "coordination_number", "structure", "source"),
+        TableSpec("molecular_coordination.csv",
+                  ("formula", "coordination_number", "secondary_contacts", "structure", "source"),
                   "scorer.melting_routes"),
         TableSpec(
             "structural_families.csv", ("formula", "substance_class", "ionic_model", "structure", "source"),

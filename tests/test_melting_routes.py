@@ -14,7 +14,9 @@ decompositions built here with those substance classes; the others go through
 
 Calibration and validation: the molecular weights were fitted on the calibration
 rows of ``datasets/melting/molecular_compounds.csv``; every molecular compound of
-the issue is a validation row there. The salt compounds below are outside the CC0
+the issue is a validation row there but HgCl2, the one calibration row with secondary
+contacts (it sets ``molecular_secondary_kJ_mol``; HgBr2, HgI2 and BiCl3 validate it).
+The chain/layer route has no fitted weight. The salt compounds below are outside the CC0
 fixture the inorganic weights were fitted on, but for BaSO4, TiO2 and NiO (calibration);
 Cr2O3 and Ca3N2 are in the calibration half of the open set
 (``pipelines.melting_weights.open_set_half``). The second-stage terms ``crystal_field``
@@ -201,10 +203,13 @@ def test_thorium_tetrahalides_get_an_index_in_the_300_to_1500_C_band(formula, ca
 
 MOLECULAR_BUILT = [
     _case("AlCl3", "7446-70-0"),  # 466 K: the layer lattice, Al octahedral (measured coordination)
-    _case("HgCl2", "7487-94-7"),  # 550 K: linear (sigma 20), four Hg...Cl bridges of strength 2/6
-    _case("HgBr2", "7789-47-1", "trend 583 K against 514 K: the bromide's dispersion term adds what its"
-          " longer Hg...Br contacts lose"),
-    _case("HgI2", "7774-29-0", "trend 650 K against 529 K: as HgBr2, more so"),
+    # 550 K: linear (sigma 20), four secondary Hg...Cl contacts of strength 2/6 (a calibration row:
+    # it alone sets molecular_secondary_kJ_mol)
+    _case("HgCl2", "7487-94-7"),
+    # 514 K and 529 K (validation rows): the secondary contacts weaken with the polarity of the
+    # Hg-X bond (Alcock 1972) as the dispersion term grows (Wells 1984: both 2+4 in the solid that melts)
+    _case("HgBr2", "7789-47-1"),
+    _case("HgI2", "7774-29-0"),
     _case("VOCl3", "7727-18-6"),
     _case("CrO2Cl2", "14977-61-8"),
 ]
@@ -222,19 +227,36 @@ def test_oxyhalides_are_liquids_at_room_temperature_not_salts():
         assert _values(_built(formula, "covalent_molecular"))["melting_class"] == "liquid_at_room_temperature"
 
 
-@pytest.mark.parametrize("formula, cas", [
-    # 470 K; the molecular reading alone (chains of CrO4 tetrahedra: one bridged site) gives 451 K
-    _case("CrO3", "1333-82-0", "trend 749 K: the formal Cr(6+) lattice pulls the mean up"),
-    _case("BeCl2", "7787-47-5"),   # 688 K
+@pytest.mark.parametrize("formula, cas, share", [
+    # 470 K: chains of CrO4 tetrahedra sharing two vertices, two terminal Cr=O (Wells 1984, from
+    # memory): 2 of 4 bonds bridge, and a Cr(6+) bridge of s = 6/4 over-bonds its oxide (2 s = 3 > 2):
+    # share 0.5 * 0.5 * 2/3 = 1/6
+    ("CrO3", "1333-82-0", 1 / 6),
+    # 688 K: chains of edge-sharing BeCl4 tetrahedra, every Cl bridging, s = 2/4 (saturated): 1/2
+    ("BeCl2", "7787-47-5", 0.5),
+    # 1075 K: layers of MoO6 octahedra, s = 6/6 saturates a two-coordinate oxide: 1/2
+    ("MoO3", "1313-27-5", 0.5),
 ])
-def test_chain_and_layer_solids_sit_between_salt_and_molecule(formula, cas):
+def test_chain_and_layer_solids_sit_between_salt_and_molecule(formula, cas, share):
+    # validation: no weight of the chain/layer route is fitted; the share follows from the structure
     dec = _built(formula, "chain_layer_solid", keep_ions=True)
     values = _values(dec)
     salt = melting.describe(replace(dec, substance_class="ionic_salt", ionic_model="applies"))[0]["mp_trend_index"]
     molecular = _values(_built(formula, "covalent_molecular"))["mp_trend_index"]
     assert values["mp_route"] == "chain_layer"
-    assert values["mp_trend_index"] == pytest.approx(0.5 * (salt + molecular), abs=1e-3)
+    assert values["mp_trend_index"] == pytest.approx(molecular + share * (salt - molecular), abs=1e-3)
     assert values["melting_class"] == _band(_tm(cas), salt=False)
+
+
+def test_chain_layer_share_of_the_ionic_reading_follows_bridges_and_pauling_rule():
+    # terminal bonds lower the share (a CrO4 chain: 2 of 4 bonds bridge), over-bonded bridges lower
+    # it again (Pauling's electrostatic valence rule, 1929, from memory); no bridge read: the plain mean
+    terms = melting_routes.molecular_terms(_built("CrO3", "covalent_molecular"))
+    assert (terms.open_sites, terms.coordination_number) == (1, 4)
+    assert melting_routes.chain_layer_salt_share(terms) == pytest.approx(0.5 * (2 / 4) * (2 / 3))
+    assert melting_routes.chain_layer_salt_share(None) == 0.5
+    v2o5 = melting_routes.molecular_terms(_built("V2O5", "covalent_molecular"))
+    assert melting_routes.chain_layer_salt_share(v2o5) == 0.5
 
 
 @pytest.mark.parametrize("formula, cas", [
@@ -266,6 +288,20 @@ def test_bridges_count_with_pauling_bond_strength_of_the_measured_coordination()
     assert melting_routes.molecular_terms(_built("Al2Br6", "covalent_molecular")).open_sites == 1
 
 
+def test_secondary_contacts_weaken_from_chloride_to_iodide_with_the_bond_polarity():
+    # HgX2: 2+4 in the solid that melts (Wells 1984, from memory), four secondary contacts; the
+    # Pauling electronegativity difference of Hg-X (mendeleev snapshot: Hg 1.90, Cl 3.16, Br 2.96, I 2.66)
+    terms = {f: melting_routes.molecular_terms(_built(f, "covalent_molecular")) for f in ("HgCl2", "HgBr2", "HgI2")}
+    assert [t.secondary_contacts for t in terms.values()] == [4, 4, 4]
+    assert [round(t.primary_delta_chi, 2) for t in terms.values()] == [1.26, 1.06, 0.76]
+    # measured 549, 514, 529 K (chemicals Tm, CRC): the trend stays within a factor 1.15 of each
+    for formula, cas in (("HgCl2", "7487-94-7"), ("HgBr2", "7789-47-1"), ("HgI2", "7774-29-0")):
+        ratio = 10 ** _values(_built(formula, "covalent_molecular"))["mp_trend_index"] / _tm(cas)
+        assert 1 / 1.15 < ratio < 1.15, (formula, ratio)
+    # true bridges (Al2Br6, Nb2Cl10) have none
+    assert melting_routes.molecular_terms(_built("AlBr3", "covalent_molecular")).secondary_contacts == 0
+
+
 def test_measured_coordination_table_is_consistent_with_the_molecules():
     from ionicity.scorer.tables import table
 
@@ -273,6 +309,7 @@ def test_measured_coordination_table_is_consistent_with_the_molecules():
         m = melting_routes.molecular_terms(_built(row["formula"], "covalent_molecular"))
         ligands = sum(n for _, n in m.ligands)
         assert int(row["coordination_number"]) >= ligands, row["formula"]
+        assert 0 <= int(row["secondary_contacts"]) <= int(row["coordination_number"]) - ligands, row["formula"]
         assert row["source"]
 
 
@@ -285,16 +322,37 @@ def test_linear_molecules_take_the_cylinder_symmetry_and_first_row_centres_no_br
     assert score_formula(formula)["melting_class"] == _band(_tm(cas), salt=False)
 
 
-def test_validation_molecular_route_ranks_the_issue_compounds():
-    # validation rows of datasets/melting/molecular_compounds.csv (no weight was fitted on them):
-    # Spearman rho >= 0.85 and 80 % within a factor 1.5 of the measured melting point
+def _validation_figures(origin: str):
+    """Spearman rho, share within a factor 1.5 and class accuracy of the validation rows of one origin."""
     with open(MOLECULAR_SET, newline="", encoding="utf-8") as handle:
-        rows = [r for r in csv.DictReader(handle) if r["set"] == "validation"]
+        rows = [r for r in csv.DictReader(handle) if r["set"] == "validation" and r["origin"] == origin]
     measured = np.array([_tm(r["cas"]) for r in rows])
     trend = np.array([10 ** _values(_built(r["formula"], "covalent_molecular"))["mp_trend_index"] for r in rows])
     ranks = lambda v: np.argsort(np.argsort(v))  # noqa: E731
-    assert np.corrcoef(ranks(measured), ranks(trend))[0, 1] >= 0.85
-    assert np.mean(np.abs(np.log(trend / measured)) < math.log(1.5)) >= 0.8
+    classes = np.mean([_band(t, False) == _band(m, False) for t, m in zip(trend, measured)])
+    return (len(rows), np.corrcoef(ranks(measured), ranks(trend))[0, 1],
+            np.mean(np.abs(np.log(trend / measured)) < math.log(1.5)), classes)
+
+
+def test_validation_molecular_route_ranks_the_issue_compounds():
+    # validation rows of datasets/melting/molecular_compounds.csv named in the issue (no weight was
+    # fitted on them; chemicals Tm, CRC): Spearman rho >= 0.85, 80 % within a factor 1.5, and every
+    # class right (measured 2026-12-03: 14 rows, 0.94, 1.00, 1.00)
+    n, rho, within, classes = _validation_figures("issue_13")
+    assert n == 14
+    assert rho >= 0.85 and within >= 0.8 and classes == 1.0
+
+
+def test_validation_widened_molecular_set_stays_at_its_measured_figures():
+    # the rows the rule of datasets/melting/README.md added (p- and d-block halides, oxyhalides,
+    # hydrides and chalcogenides that scoring reads as molecular, every one chemicals has a Tm for),
+    # validation only. Measured 2026-12-03: 47 rows, rho 0.644, 0.47 within a factor 1.5, class
+    # accuracy 0.70 (hydrogen halides, hydrides of no single centre, xenon fluorides and p-block
+    # trihalides with unlisted secondary contacts are the misses). Floors a little under those
+    # figures: a regression guard, not a target
+    n, rho, within, classes = _validation_figures("widened")
+    assert n == 47
+    assert rho >= 0.6 and within >= 0.42 and classes >= 0.65
 
 
 # --------------------------------------------------- networks and metals
@@ -358,7 +416,9 @@ def test_tin_ii_chloride_lands_in_its_band():
 @pytest.mark.parametrize("dec, words", [
     (decompose(parse_formula("NaCl")), ("mp_route = salt", "cohesion", "nitrides", "caution")),
     (decompose(parse_formula("TiCl4")), ("mp_route = molecular", "Walden", "sigma = 12", "open coordination")),
-    (_built("CrO3", "chain_layer_solid", keep_ions=True), ("mp_route = chain_layer", "mean of the salt index")),
+    (_built("HgBr2", "covalent_molecular"), ("sigma = 20", "secondary contacts (Alcock 1972)", "primary bond 1.06")),
+    (_built("CrO3", "chain_layer_solid", keep_ions=True), ("mp_route = chain_layer", "weighted mean of the salt index",
+                                                           "weight 0.167")),
     (_built("Cu3Au", "intermetallic"), ("mp_route = element_mixture", "atom-fraction mean", "Au, Cu")),
 ])
 def test_explain_shows_the_route_and_every_term(dec, words):

@@ -36,7 +36,7 @@ ROWS = {
     "formation_enthalpies.csv": 20,
     "atomisation_enthalpies.csv": 10,
     "element_melting_points.csv": 79,
-    "molecular_coordination.csv": 16,
+    "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "trivial_names.csv": 109,
     "fusion.csv": 38,

@@ -10,7 +10,9 @@ tests/test_melting_routes.py (molecular validation rows).
 * organic weights (flexibility, delocalised, protic): the ``calibration`` rows of
   ``datasets/melting/ionic_liquids.csv`` (published values, a source per row);
 * molecular weights: the ``calibration`` rows of ``datasets/melting/molecular_compounds.csv``,
-  melting points read at run time from ``chemicals`` (CRC Handbook table).
+  melting points read at run time from ``chemicals`` (CRC Handbook table);
+  ``molecular_secondary_kJ_mol`` rests on HgCl2, the one calibration row with secondary
+  contacts (HgBr2, HgI2 and BiCl3 validate it in tests/test_melting_routes.py).
 """
 from __future__ import annotations
 
@@ -20,7 +22,7 @@ from pathlib import Path
 
 import numpy as np
 import pytest
-from ionicity.pipelines.melting_weights import ORGANIC_WEIGHTS, _index_with
+from ionicity.pipelines.melting_weights import MOLECULAR_WEIGHTS, ORGANIC_WEIGHTS, _index_with
 from ionicity.scorer import melting, melting_routes
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
@@ -62,7 +64,6 @@ def molecular_calibration():
     return out
 
 
-MOLECULAR_WEIGHTS = ("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol")
 
 
 def _log_errors(rows, weights) -> float:
@@ -70,7 +71,7 @@ def _log_errors(rows, weights) -> float:
     for m, measured in rows:
         entropy = melting_routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
         cohesion = melting_routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength,
-                                                           weights)
+                                                           weights, m.secondary_contacts, m.primary_delta_chi)
         total += math.log(melting_routes.molecular_melting_K(cohesion, entropy) / measured) ** 2
     return total
 
