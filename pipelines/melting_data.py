@@ -32,6 +32,7 @@ from ionicity.pipelines.melting_screen import (
     cation_element,
     consensus_melting_point_K,
     screen_salt,
+    target_flags,
 )
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
@@ -241,6 +242,8 @@ def build_open_training_set(
         if math.isnan(value):
             decisions.append({**entry, "kept": False, "reason": how})
             continue
+        if flags := target_flags(names, how, value, dec):
+            how = f"{how}; target flagged: {', '.join(flags)}"
         key = normalized_formula(comp, dec)
         candidates.setdefault(key, []).append({**entry, "mp_K": value, "how": how, "dec": dec})
     say(f"{sum(len(v) for v in candidates.values())} salts passed the screen ({time.monotonic() - started:.0f} s)")

@@ -22,6 +22,7 @@ from ionicity.scorer.formula import FormulaError, parse_formula
 
 __all__ = [
     "consensus_melting_point_K",
+    "target_flags",
     "name_agrees_with_ions",
     "screen_salt",
     "anion_family",
@@ -83,6 +84,42 @@ def consensus_melting_point_K(values: dict[str, float], tolerance_K: float = TOL
         value = round(float(np.median(best)), 2)
         return value, f"consensus ({len(best)} of {len(numbers)} within {tolerance_K:g} K): {text}"
     return math.nan, f"disagree (spread {spread:.0f} K > {tolerance_K:g} K): {text}"
+
+
+_HYDRATE_WORDS = re.compile(r"hydrat|\bhydrous\b|\bx ?h2o\b|[.\u00b7*] ?\d*\s*h2o", re.IGNORECASE)
+_LOWEST_INORGANIC_SINGLE_K = 373.15
+
+
+def target_flags(names, how: str, value_K: float, dec) -> tuple[str, ...]:
+    """Why a kept melting point may be a hydrate's or a decomposition's: rules on the data, blind to the index.
+
+    * a name of the entry says hydrate (``hydrate``, ``hydrated``, ``x H2O``);
+    * one source only, below 100 C, for a salt with no organic ion: inorganic
+      salts that melt there are few, and a lone value there is most often a
+      hydrate melting in its own water (Na2SO4.10H2O 305 K, the alums near
+      365 K; CRC Handbook, from memory) or a decomposition.
+
+    The rows stay in the training set; the flags go into the decision text
+    (``target flagged: ...``) so the decision log shows them and
+    ``pipelines.melting_weights`` can print figures without them beside the
+    full ones.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> target_flags(["aluminum sodium disulfate"], "single: CRC_INORG=333.1", 333.15,
+    ...              decompose(parse_formula("NaAl(SO4)2")))
+    ('one source, below 100 C for an inorganic salt',)
+    >>> target_flags(["sodium sulfate decahydrate"], "agree: A=305.1, B=305.4", 305.3,
+    ...              decompose(parse_formula("Na2SO4")))
+    ('a name says hydrate',)
+    """
+    flags = []
+    if any(_HYDRATE_WORDS.search(n or "") for n in names):
+        flags.append("a name says hydrate")
+    organic = any(t.ion.organic or t.ion.label.startswith("[") for t in dec.cations + dec.anions)
+    if how.startswith("single") and value_K < _LOWEST_INORGANIC_SINGLE_K and not organic:
+        flags.append("one source, below 100 C for an inorganic salt")
+    return tuple(flags)
 
 
 # ------------------------------------------------------------ name agreement

@@ -96,6 +96,8 @@ from ionicity.scorer.melting_anions import (
     is_framework_oxoanion,
     is_hard_donor_anion,
     is_hydrogen_bonded_anion,
+    octahedral_high_spin_cfse_delta_o,
+    saline_nitride_fraction,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.caching import once, per_input
@@ -210,6 +212,8 @@ class MeltingTerms:
     hydride_fraction: float = 0.0
     hard_anion_fraction: float = 0.0
     delta_chi_pauling: float = math.nan
+    crystal_field_share: float = 0.0
+    saline_nitride_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -223,7 +227,8 @@ class MeltingTerms:
             self.flexibility_entropy_J_mol_K, self.chain_packing_entropy_J_mol_K, self.delocalised_fraction,
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
-            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling, weights=weights,
+            self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
+            self.crystal_field_share, self.saline_nitride_fraction, weights=weights,
         )
 
 
@@ -335,6 +340,9 @@ def _gather_terms(
         hard_anion_fraction=(
             sum(t.count for t in dec.anions if is_hard_donor_anion(t.ion)) / anion_total if anion_total else 0.0),
         delta_chi_pauling=float(bond.delta_chi_pauling),
+        crystal_field_share=float(sum(t.count * octahedral_high_spin_cfse_delta_o(t.ion) for t in dec.cations) / nu)
+        if nu else 0.0,
+        saline_nitride_fraction=saline_nitride_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
 
@@ -365,8 +373,9 @@ COLUMNS: tuple[Column, ...] = (
         + CAUTION,
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
-        " formula unit, nitride share, organic-ion flexibility and symmetry, chain packing, charge"
-        " delocalisation); molecules T = dH/dS (melting_routes); chain/layer solids a weighted mean of both;"
+        " formula unit, nitride share (saline nitrides apart), 3d crystal-field stabilisation, organic-ion"
+        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes);"
+        " chain/layer solids a weighted mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
         "salts: lattice energy of the whole formula unit over its ion count; contact terms averaged over"
@@ -449,6 +458,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" hydride: -{w['hydride_anion']} * share of H- {terms.hydride_fraction:.2f};"
         f" 18/18+2-electron cation beside O/F donors: +{w['pseudo_noble_gas_hard_anion']} * their share"
         f" {terms.hard_anion_fraction:.2f}{'' if terms.pseudo_noble_gas else ' (no such cation: 0)'}",
+        f"  crystal field: +{w['crystal_field']} * high-spin octahedral CFSE per ion {terms.crystal_field_share:.2f}"
+        f" Delta_o; saline nitride: -{w['saline_nitride']} * share {terms.saline_nitride_fraction:.2f}",
     )
 
 

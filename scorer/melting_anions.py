@@ -1,16 +1,27 @@
-"""Which anions the anion terms of the salt melting index count (read through :mod:`scorer.melting`).
+"""Which ions the ion terms of the salt melting index count (read through :mod:`scorer.melting`).
 
 Rules on an ion's composition and charge, no weights: framework oxoanions
 (chains and frameworks in the solid), anions that carry hydrogen (hydrogen
-bonds between the anions) and anions that bind through O or F (hard donors,
-beside which an 18/18+2-electron cation keeps part of its ionic cohesion).
+bonds between the anions), anions that bind through O or F (hard donors,
+beside which an 18/18+2-electron cation keeps part of its ionic cohesion),
+the crystal-field stabilisation of 3d cations and the s-block cations of the
+saline nitrides.
 The weights of the terms are in :data:`scorer.melting_index.TREND_WEIGHTS`.
 """
 from __future__ import annotations
 
+from ionicity.scorer.elements import get_element
 from ionicity.scorer.model import Ion
 
-__all__ = ["NETWORK_FORMERS", "is_framework_oxoanion", "is_hydrogen_bonded_anion", "is_hard_donor_anion"]
+__all__ = [
+    "NETWORK_FORMERS",
+    "is_framework_oxoanion",
+    "is_hydrogen_bonded_anion",
+    "is_hard_donor_anion",
+    "octahedral_high_spin_cfse_delta_o",
+    "is_saline_cation",
+    "saline_nitride_fraction",
+]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
 
@@ -60,3 +71,73 @@ def is_hard_donor_anion(ion: Ion) -> bool:
     """
     comp = dict(ion.composition)
     return not ion.organic and ion.charge < 0 and ("O" in comp or "F" in comp)
+
+
+# CFSE of d^n in a weak octahedral field, in units of Delta_o: -0.4 per t2g and +0.6 per eg electron,
+# high spin (t2g^3 eg^2 at d5), sign turned to a stabilisation; index n = 0..10.
+_HIGH_SPIN_OCTAHEDRAL_CFSE = (0.0, 0.4, 0.8, 1.2, 0.6, 0.0, 0.4, 0.8, 1.2, 0.6, 0.0)
+
+
+def octahedral_high_spin_cfse_delta_o(ion: Ion) -> float:
+    """Crystal-field stabilisation energy of a 3d cation in a high-spin octahedral site, in units of Delta_o.
+
+    ``CFSE = (0.4 n_t2g - 0.6 n_eg) Delta_o`` (sign turned: a stabilisation)
+    with the d electrons filled high spin, as O2-, F- and the halides (weak
+    field ligands) leave them: 0 for d0, d5 and d10, 1.2 for d3 (Cr3+) and
+    d8 (Ni2+). The point-ion lattice energy of a volume-based estimate misses
+    this term: the measured lattice energies of the MO and MX2 of the first
+    transition series lie on a double-humped curve above the line through
+    Ca2+, Mn2+ and Zn2+ (d0, d5, d10), by about the CFSE (George and McClure,
+    Prog. Inorg. Chem. 1959, 1, 381; Orgel, An Introduction to
+    Transition-Metal Chemistry: Ligand-Field Theory, 1960, ch. 6; from
+    memory). 4d and 5d cations are left at 0: their larger splitting makes
+    them low spin and their bonding covalent, so the ionic correction does
+    not carry over (common practice). Monatomic cations of Sc-Zn only.
+
+    >>> from ionicity.scorer.ion_library import get_ion
+    >>> [octahedral_high_spin_cfse_delta_o(get_ion(i)) for i in ("Ni(2+)", "Cr(3+)", "Mn(2+)", "Co(2+)", "Na(+)")]
+    [1.2, 1.2, 0.0, 0.8, 0.0]
+    """
+    if not ion.monatomic or ion.charge <= 0 or not ion.element:
+        return 0.0
+    number = get_element(ion.element).atomic_number
+    d_electrons = number - 18 - ion.charge
+    if not 21 <= number <= 30 or not 0 <= d_electrons <= 10:
+        return 0.0
+    return _HIGH_SPIN_OCTAHEDRAL_CFSE[d_electrons]
+
+
+def is_saline_cation(ion: Ion) -> bool:
+    """A monatomic cation of the s block (groups 1 and 2): with N3- it makes a saline (ionic) nitride.
+
+    Greenwood and Earnshaw (Chemistry of the Elements, 2nd ed. 1997, ch. 11.3.2;
+    from memory) sort nitrides into saline ones (Li3N, Mg3N2, Ca3N2: ionic,
+    hydrolysed by water, decomposing not far above 1,000 K), covalent ones
+    and interstitial ones of the transition metals (TiN, ZrN: metallic,
+    among the most refractory solids). The volume-based lattice energy of a
+    point N3- ion, a free ion that exists only in the Madelung field, treats
+    both alike.
+
+    >>> from ionicity.scorer.ion_library import get_ion
+    >>> is_saline_cation(get_ion("Ca(2+)")), is_saline_cation(get_ion("Ti(3+)"))
+    (True, False)
+    """
+    return bool(ion.monatomic and ion.charge > 0 and ion.element and get_element(ion.element).block == "s")
+
+
+def saline_nitride_fraction(cations, anions) -> float:
+    """The share of the anions that are N3- (or another monatomic anion of charge -3 or below) times the s-block share of the cations.
+
+    ``cations``, ``anions``: the ``IonTerm`` tuples of a decomposition.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [saline_nitride_fraction(d.cations, d.anions) for d in map(decompose, map(parse_formula, ("Ca3N2", "TiN", "CaO")))]
+    [1.0, 0.0, 0.0]
+    """
+    anion_total = sum(t.count for t in anions)
+    cation_total = sum(t.count for t in cations)
+    if not anion_total or not cation_total:
+        return 0.0
+    nitride = sum(t.count for t in anions if t.ion.monatomic and t.ion.charge <= -3) / anion_total
+    return float(nitride * sum(t.count for t in cations if is_saline_cation(t.ion)) / cation_total)

@@ -38,7 +38,9 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 #   pseudo_noble_gas_hard_anion): least squares of log10 T_m on the calibration set, then
 #   every weight times the spread factor sd(log10 T_m) / sd(fitted) = 1.205 (least squares
 #   shrinks toward the mean; matching the spread keeps the refractory oxides refractory),
-#   rounded. Calibration set: datasets/melting/wikidata_salts.csv (CC0, 128 salts with an
+#   rounded; then the second-stage terms (crystal_field, saline_nitride) by least squares of the
+#   calibration residuals with the weights above held (corrections on top of the ionic index,
+#   as the organic terms are). Calibration set: datasets/melting/wikidata_salts.csv (CC0, 128 salts with an
 #   index) and the calibration half of the open training set fit-melting builds at run
 #   time from chemicals (226 salts; the half chosen by the parity of a SHA-256 digest of
 #   formula_normalized, pipelines.melting_weights.open_set_half). Validation: the other
@@ -88,6 +90,11 @@ TREND_WEIGHTS: dict[str, float] = {
     "hydride_anion": 0.269,
     # eases the 18/18+2-electron penalty beside O and F donors (ZnO, SnO2 refractory)
     "pseudo_noble_gas_hard_anion": 0.086,
+    # second stage (fitted on the calibration residuals, the weights above held):
+    # d3/d8 crystal-field stabilisation the point-ion lattice energy misses (NiO, Cr2O3)
+    "crystal_field": 0.102,
+    # saline nitrides (s-block cations with N3-): ionic, decomposing low (Ca3N2 1468 K)
+    "saline_nitride": 0.211,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
     "molecular_contact_kJ_mol": 1.08,
     "molecular_polarisability_kJ_mol_A3": 0.60,
@@ -162,6 +169,8 @@ def melting_trend_index(
     hydride_fraction=0.0,
     hard_anion_fraction=0.0,
     delta_chi_pauling=math.nan,
+    crystal_field_share=0.0,
+    saline_nitride_fraction=0.0,
     *,
     weights=None,
 ):
@@ -177,6 +186,7 @@ def melting_trend_index(
             - w_z (z_\mathrm{max} - 3)_+ + w_\mathrm{fw} f_\mathrm{fw} - w_H f_H - w_\mathrm{HB} f_\mathrm{HB}
             + w_c \log_{10}^2(u/u_\mathrm{ref}) + w_\Delta (\Delta\chi - \Delta\chi_\mathrm{ref})
             + w_\sigma \overline{\log_{10}\sigma_a} - w_h f_\mathrm{H^-} + w_{pO}\, p\, f_\mathrm{O,F}
+            + w_\mathrm{CF} c_\mathrm{CF} - w_\mathrm{sN} f_\mathrm{sN}
 
     then the organic ions' entropy and chain packing, as ``T = dH / dS`` with
     the ionic part carrying ``dS_ion = nu s0`` and ``dH_ion = 10**I_ion dS_ion``:
@@ -268,6 +278,20 @@ def melting_trend_index(
         Pauling electronegativity difference across the contact, the other
         coordinate of the van Arkel-Ketelaar triangle (common practice); NaN
         counts as the reference ``reference_delta_chi`` (no term). Weight ``w_Delta``.
+    crystal_field_share : float or array-like, default=0.0
+        ``c_CF``: sum over the cations of count times their high-spin
+        octahedral crystal-field stabilisation in units of Delta_o
+        (:func:`scorer.melting_anions.octahedral_high_spin_cfse_delta_o`),
+        over ``nu``: the ligand-field energy the point-ion lattice energy
+        leaves out, largest for d3 and d8 (Cr2O3 2708 K, NiO 2228 K against
+        MnO 2118 K; CRC Handbook via chemicals). Weight ``w_CF``.
+    saline_nitride_fraction : float or array-like, default=0.0
+        ``f_sN``: the nitride share (``f_3``) times the share of the cations
+        from the s block (:func:`scorer.melting_anions.is_saline_cation`):
+        saline nitrides (Li3N 1086 K, Ca3N2 1468 K) melt or decompose far
+        below the interstitial nitrides (TiN 3203 K) the nitride term
+        ``w_3`` is mostly fitted on (Greenwood & Earnshaw 1997, ch. 11;
+        from memory). Weight ``w_sN``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -323,6 +347,8 @@ def melting_trend_index(
             + w["anion_symmetry"] * np.asarray(anion_symmetry_log10, dtype=float)
             - w["hydride_anion"] * np.asarray(hydride_fraction, dtype=float)
             + w["pseudo_noble_gas_hard_anion"] * png * np.asarray(hard_anion_fraction, dtype=float)
+            + w["crystal_field"] * np.asarray(crystal_field_share, dtype=float)
+            - w["saline_nitride"] * np.asarray(saline_nitride_fraction, dtype=float)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part

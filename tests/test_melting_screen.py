@@ -14,6 +14,26 @@ def _dec(formula: str):
     return decompose(parse_formula(formula))
 
 
+# ------------------------------------------------------- flagged targets
+
+
+@pytest.mark.parametrize("names, how, value_K, formula, expected", [
+    # NaAl(SO4)2 is listed at 333 K (CRC via chemicals 1.5.2): the dodecahydrate's melting (soda alum, about
+    # 334 K, CRC Handbook, from memory), not the anhydrous salt's
+    (["aluminum sodium disulfate"], "single: CRC_INORG=333.1", 333.15, "NaAl(SO4)2",
+     ("one source, below 100 C for an inorganic salt",)),
+    (["sodium sulfate decahydrate"], "agree: A=305.1, B=305.4", 305.3, "Na2SO4", ("a name says hydrate",)),
+    (["copper sulfate pentahydrate"], "single: X=383.1", 383.15, "CuSO4", ("a name says hydrate",)),
+    # two sources agreeing below 100 C: kept unflagged (Na2S2O3 is listed so by two tables)
+    (["sodium thiosulfate"], "agree: WIKIDATA=321.6, COMMON_CHEMISTRY=321.1", 321.4, "Na2S2O3", ()),
+    # a low-melting organic salt: unflagged ([C2mim]Cl about 360 K, from memory)
+    (["1-ethyl-3-methylimidazolium chloride"], "single: X=360.1", 360.15, "[C2mim]Cl", ()),
+    (["sodium chloride"], "single: X=1074.0", 1074.0, "NaCl", ()),
+])
+def test_target_flags_read_the_data_not_the_index(names, how, value_K, formula, expected):
+    assert melting_screen.target_flags(names, how, value_K, _dec(formula)) == expected
+
+
 # ------------------------------------------------------------------ consensus
 
 
