@@ -100,12 +100,11 @@ from ionicity.scorer.melting_anions import (
     saline_nitride_fraction,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
-from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.ion_shapes import ONIUM_FAMILIES, _shape_table, anion_symmetry_number, ion_shape
+from ionicity.scorer.caching import per_input
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.descriptor import fmt, protocol, result_class
-from ionicity.scorer.ion_library import get_ion
 from ionicity.scorer.melting_index import (
-    GAS_CONSTANT_J_MOL_K,
     MELTING_CLASSES,
     TREND_WEIGHTS,
     dannenfelser_yalkowsky_flexibility_entropy_J_mol_K,
@@ -113,8 +112,7 @@ from ionicity.scorer.melting_index import (
     melting_trend_index,
     trend_temperature_K,
 )
-from ionicity.scorer.model import Column, Decomposition, Ion
-from ionicity.scorer.tables import table
+from ionicity.scorer.model import Column, Decomposition
 
 __all__ = [
     "COLUMNS",
@@ -136,56 +134,6 @@ __all__ = [
 ]
 
 # --------------------------------------------------------------------- inputs
-
-
-@once
-def _shape_table() -> dict[str, tuple[float, float, bool, str]]:
-    """ion_id -> (tau, sigma, charge delocalised, source) from ``scorer/data/ion_shape.csv``."""
-    shapes = {}
-    for row in table("ion_shape.csv"):
-        shapes[row["ion_id"]] = (
-            float(row["torsions_tau"]),
-            float(row["symmetry_number"]),
-            row["charge_delocalised"].strip().lower() == "true",
-            row["source"],
-        )
-    return shapes
-
-
-def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
-    """(tau, sigma, charge delocalised, basis) of an ion.
-
-    Tabulated ions come from ``scorer/data/ion_shape.csv``. An organic ion
-    missing there gets an estimate from its composition: every carbon, nitrogen,
-    oxygen, sulfur or phosphorus atom beyond the fifth counted as half a
-    torsion, sigma 1, charge localised (common practice, said in the basis).
-    Inorganic ions not in the table are rigid: tau 0, sigma 1.
-
-    >>> from ionicity.scorer.ion_library import get_ion
-    >>> ion_shape(get_ion("[C4mim](+)"))[:3]
-    (2.5, 1.0, True)
-    """
-    shapes = _shape_table()
-    if ion.ion_id in shapes:
-        tau, sigma, deloc, _ = shapes[ion.ion_id]
-        return tau, sigma, deloc, "scorer/data/ion_shape.csv"
-    if ion.organic:
-        heavy = sum(n for s, n in ion.composition if s in ("C", "N", "O", "S", "P"))
-        return max(0.0, (heavy - 5) * 0.5), 1.0, False, "estimated from the composition (no ion_shape.csv entry)"
-    return 0.0, 1.0, False, "rigid inorganic ion"
-
-
-ONIUM_FAMILIES = frozenset({"ammonium-quaternary", "phosphonium"})
-def anion_symmetry_number(ion: Ion) -> float:
-    """Rotational symmetry number of a polyatomic anion: ``scorer/data/ion_shape.csv`` for organic
-    and tabulated ions, else the VSEPR shape of :func:`scorer.melting_routes.ion_symmetry_number`.
-
-    >>> anion_symmetry_number(get_ion("SO4(2-)")), anion_symmetry_number(get_ion("SCN(-)"))
-    (12.0, 1.0)
-    """
-    if ion.organic or ion.ion_id in _shape_table():
-        return ion_shape(ion)[1]
-    return routes.ion_symmetry_number(ion)
 
 
 @dataclass(frozen=True)
