@@ -134,3 +134,36 @@ def test_a_generated_name_clashing_in_another_case_is_refused_with_the_prefix_hi
     line = _one_line_error(capsys.readouterr().err)
     assert repr(name) in line and "--prefix" in line
     assert main(["score", str(path), "-o", str(tmp_path / "out.csv"), "--prefix", "ion_"]) == 0
+
+
+# A Ctrl-C that lands while numpy's C extension is being imported reaches the
+# entry point as an ImportError (numpy wraps whatever its extension import
+# raised). The child below stands in for that moment deterministically: the
+# import of the command line sends SIGINT to its own process and then fails the
+# way numpy does. Exit 130 is 128 + SIGINT (common practice for shells).
+_INTERRUPTED_IMPORT = r"""
+import importlib.abc, os, signal, sys
+class _Fail(importlib.abc.MetaPathFinder):
+    def find_spec(self, name, path, target=None):
+        if name == "ionicity.pipelines.cli":
+            os.kill(os.getpid(), signal.SIGINT)
+            raise ImportError("Importing the numpy C-extensions failed (stand-in)")
+        return None
+sys.meta_path.insert(0, _Fail())
+from ionicity._entry import main
+main()
+"""
+
+
+def test_ctrl_c_inside_an_extension_import_is_an_interruption():
+    done = subprocess.run([sys.executable, "-c", _INTERRUPTED_IMPORT], capture_output=True, text=True,
+                          timeout=60, cwd="/")
+    assert done.returncode == 130, done.stderr
+    assert "Traceback" not in done.stderr
+    assert done.stderr.strip().splitlines() == ["ionicity: interrupted; no output was written"]
+
+
+def test_an_import_error_without_a_signal_is_not_called_an_interruption():
+    child = _INTERRUPTED_IMPORT.replace("os.kill(os.getpid(), signal.SIGINT)", "pass")
+    done = subprocess.run([sys.executable, "-c", child], capture_output=True, text=True, timeout=60, cwd="/")
+    assert done.returncode == 1 and "ImportError" in done.stderr
