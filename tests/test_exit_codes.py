@@ -137,17 +137,22 @@ def test_a_generated_name_clashing_in_another_case_is_refused_with_the_prefix_hi
 
 
 # A Ctrl-C that lands while numpy's C extension is being imported reaches the
-# entry point as an ImportError (numpy wraps whatever its extension import
-# raised). The child below stands in for that moment deterministically: the
-# import of the command line sends SIGINT to its own process and then fails the
-# way numpy does. Exit 130 is 128 + SIGINT (common practice for shells).
+# entry point as an ImportError: the extension's own import of a module is cut
+# short and reported as "PyCapsule_Import could not import module", the
+# KeyboardInterrupt gone. The child below stands in for that moment
+# deterministically: the import of the command line sends SIGINT to its own
+# process and turns the interruption into an ImportError the same way. Exit 130 is 128 + SIGINT (common practice for shells).
 _INTERRUPTED_IMPORT = r"""
 import importlib.abc, os, signal, sys
 class _Fail(importlib.abc.MetaPathFinder):
     def find_spec(self, name, path, target=None):
         if name == "ionicity.pipelines.cli":
-            os.kill(os.getpid(), signal.SIGINT)
-            raise ImportError("Importing the numpy C-extensions failed (stand-in)")
+            try:
+                os.kill(os.getpid(), signal.SIGINT)
+                signal.pause() if hasattr(signal, "pause") else None
+            except BaseException:
+                pass
+            raise ImportError("PyCapsule_Import could not import module (stand-in)")
         return None
 sys.meta_path.insert(0, _Fail())
 from ionicity._entry import main
@@ -164,6 +169,6 @@ def test_ctrl_c_inside_an_extension_import_is_an_interruption():
 
 
 def test_an_import_error_without_a_signal_is_not_called_an_interruption():
-    child = _INTERRUPTED_IMPORT.replace("os.kill(os.getpid(), signal.SIGINT)", "pass")
+    child = _INTERRUPTED_IMPORT.replace("os.kill(os.getpid(), signal.SIGINT)", "raise RuntimeError")
     done = subprocess.run([sys.executable, "-c", child], capture_output=True, text=True, timeout=60, cwd="/")
     assert done.returncode == 1 and "ImportError" in done.stderr
