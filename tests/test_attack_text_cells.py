@@ -9,7 +9,9 @@ summary line that name ``--encoding``.
 Reference facts: which byte sequences are valid UTF-8 follows RFC 3629 (Yergeau 2003,
 "UTF-8, a transformation format of ISO 10646", section 4), as Python's codec implements it;
 U+FFFD is the Unicode replacement character (The Unicode Standard, chapter 3, "U+FFFD
-Substitution"). No chemistry value is checked here.
+Substitution"). The five bytes Windows-1252 leaves undefined (0x81, 0x8D, 0x8F, 0x90, 0x9D)
+are those of its code table as Python's cp1252 codec implements it (source: the codec's
+decoding table, Lib/encodings/cp1252.py). No chemistry value is checked here.
 
 No scientific reference values: the formulas are ordinary salts whose
 reading (status ok) is checked elsewhere (tests/data/formula_cases.csv);
