@@ -458,7 +458,6 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     centre, n_centre = min(comp, key=lambda sn: (chi[sn[0]], sn[0]))
     ligands = tuple((s, n) for s, n in comp if s != centre)
     n_lig = sum(n for _, n in ligands)
-    alphas = _atom_polarisabilities_A3(ligands)
     if n_centre != 1 or not ligands or not float(n_lig).is_integer() or "C" in dict(comp) and centre != "C":
         carbons = dict(comp).get("C", 0.0)
         all_alphas = _atom_polarisabilities_A3(comp)
@@ -495,6 +494,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     open_sites = max(cn - n - lone_pairs, 0)
     strength = pauling_bond_strength(state, cn) if open_sites else 0.0
     delta_chi = sum((chi[s] - chi[centre]) * k for s, k in ligands) / n_lig
+    alphas = _atom_polarisabilities_A3(ligands)  # after the no-centre return, which reads every atom
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
                           f" coordination {cn or 'unknown'} ({how})", strength, cn, min(secondary, open_sites),
