@@ -391,17 +391,22 @@ def coverage_and_refractory(training_rows, held_out_only=True) -> dict:
     }
 
 
+def training_rows(path=None) -> list[dict]:
+    """The rows of a training_set.csv written by fit-melting, or, without ``path``, the open set built now
+    (:func:`pipelines.melting_data.build_open_training_set`, progress on stderr)."""
+    if path:
+        with open(path, newline="", encoding="utf-8") as handle:
+            return list(csv.DictReader(handle))
+    from ionicity.pipelines.melting_data import build_open_training_set
+
+    return build_open_training_set(progress=lambda text: print(text, file=sys.stderr, flush=True)).rows
+
+
 def main(argv=None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--training", help="a training_set.csv written by fit-melting (default: build it now)")
     args = parser.parse_args(argv)
-    if args.training:
-        with open(args.training, newline="", encoding="utf-8") as handle:
-            training = list(csv.DictReader(handle))
-    else:
-        from ionicity.pipelines.melting_data import build_open_training_set
-
-        training = build_open_training_set(progress=lambda text: print(text, file=sys.stderr, flush=True)).rows
+    training = training_rows(args.training)
     print("scoring the salts", file=sys.stderr, flush=True)
     salts = salt_rows(training)
     print("reading the molecular set", file=sys.stderr, flush=True)
