@@ -8,7 +8,7 @@ What it does
 2. **Features** (:func:`feature_matrix`): :func:`scorer.melting_model.model_features`
    of every training formula, the same function prediction and the
    scikit-learn transformer use.
-3. **The regression** is a scikit-learn pipeline (histogram gradient boosting
+3. **The regression** (:mod:`pipelines.melting_regressor`) is a scikit-learn pipeline (histogram gradient boosting
    on log melting point, :func:`make_melting_pipeline`) fitted on what the trend
    index leaves over (:class:`IndexOffsetRegressor`), the index's organic weights refitted on
    the fitted rows and the ionic liquids' share of the trees chosen inside them
@@ -17,7 +17,7 @@ What it does
    and once by cation element so near-duplicates (NaCl/NaBr, the K and Rb
    salts of one anion) never sit on both sides of a split, and compared with two
    baselines: predicting the mean, and a straight line on the lattice energy
-   (:func:`grouped_cross_validation`).
+   (:func:`grouped_cross_validation`, in :mod:`pipelines.melting_validation`).
 4. **Prediction intervals** come from split conformal prediction: the
    model is fitted on one part of the training rows and the absolute log
    residuals on a held-out calibration part set the interval half-width
@@ -60,6 +60,22 @@ from ionicity.pipelines.melting_cli import (
 )
 from ionicity.pipelines.melting_data import build_open_training_set, combine_training_sets, read_user_table
 from ionicity.pipelines.melting_offset import fit_offset_model, index_terms
+from ionicity.pipelines.melting_regressor import (  # re-exported: the public names of the regression
+    OFFSET_FEATURE,
+    OFFSET_SCALE,
+    IndexOffsetRegressor,
+    _fit_pipeline,
+    balanced_weights,
+    make_melting_pipeline,
+)
+from ionicity.pipelines.melting_validation import (  # re-exported, as above
+    _conformal_halfwidth,
+    _float,
+    _group_halfwidths,
+    _split_calibration,
+    grouped_cross_validation,
+    trend_index_report,
+)
 from ionicity.pipelines.melting_model_file import finite_minmax, save_model, trees_to_json
 from ionicity.pipelines.melting_plot import parity_plot
 from ionicity.pipelines.melting_screen import cation_family
@@ -126,323 +142,6 @@ def _float(value) -> float:
     except (TypeError, ValueError):
         return math.nan
 
-
-# ----------------------------------------------------------------- the model
-
-
-def make_melting_pipeline(seed: int = 0, features=None):
-    """The regression: gradient-boosted trees on ln(melting point), as a scikit-learn pipeline.
-
-    ``HistGradientBoostingRegressor`` takes NaN features as they come (an ion
-    without a radius, a salt without an HSAB pairing), so no imputation step
-    is needed; the target is fitted on a log scale because errors grow with
-    the melting point. The hyperparameters were picked among four candidates
-    by their grouped cross-validation figures on the open set (chemicals 1.5.2).
-
-    Parameters
-    ----------
-    seed : int, default=0
-    features : sequence of str, optional
-        Names of the input columns, in order (default
-        :data:`scorer.melting_model.MODEL_FEATURES`); the trend index, when present,
-        gets a monotonic (increasing) constraint.
-    """
-    # optional extra (melting): imported where used, so that without it fit-melting
-    # ends with an install hint (require_extra), not a traceback
-    from sklearn.compose import TransformedTargetRegressor
-    from sklearn.ensemble import HistGradientBoostingRegressor
-    from sklearn.pipeline import Pipeline
-
-    names = list(melting_model.MODEL_FEATURES if features is None else features)
-    # the trees fit what the trend index leaves over (IndexOffsetRegressor): the offset carries the
-    # rise of the melting point with the index, so no monotonic constraint (on the remainder it would
-    # forbid the trees to temper a slope steeper than the data's); small trees and a floor on leaf
-    # size because groups of similar salts are few
-    trees = HistGradientBoostingRegressor(
-        max_iter=200, learning_rate=0.05, max_leaf_nodes=7, min_samples_leaf=15, l2_regularization=1.0,
-        early_stopping=False, random_state=seed,
-    )
-    return Pipeline([("regressor", TransformedTargetRegressor(regressor=trees, func=np.log, inverse_func=np.exp,
-                                                              check_inverse=False))])
-
-
-def balanced_weights(labels) -> np.ndarray:
-    """Sample weights that give every interval group the same total weight.
-
-    n / (k * n_g) for a row of group g (n rows, k groups): the "balanced"
-    weighting of scikit-learn's ``compute_sample_weight`` (common practice).
-    Without it the 50-odd organic-cation salts are a few per cent of the rows
-    and the trees barely split on them.
-
-    >>> balanced_weights(["ionic_liquid", "other", "other", "other"]).tolist()
-    [2.0, 0.6666666666666666, 0.6666666666666666, 0.6666666666666666]
-    """
-    labels = np.asarray(labels)
-    kinds, counts = np.unique(labels, return_counts=True)
-    per = {k: len(labels) / (len(kinds) * c) for k, c in zip(kinds.tolist(), counts.tolist())}
-    return np.array([per[g] for g in labels.tolist()], dtype=float)
-
-
-# the trees fit ln T minus ln(10) * mp_trend_index (the index is log10 of a temperature): what the
-# index leaves over, so a held-out family starts from the index's physics (T = dH/dS, with the
-# organic ions' flexibility, symmetry and charge delocalisation), not from the median of the
-# families the trees have seen. Ionic liquids held out by cation family, melting_cv (chemicals
-# 1.5.2, 52 organic salts): MAE 77.4 K with ln T as the target, 57.8 K with the offset.
-OFFSET_FEATURE = "mp_trend_index"
-OFFSET_SCALE = math.log(10.0)
-
-
-class IndexOffsetRegressor:
-    """A fitted :func:`make_melting_pipeline` whose predictions are multiplied by ``10**index``.
-
-    ``pipe`` was fitted on ``T / 10**index`` (so its log target is ``ln T - ln 10 * index``);
-    ``column`` is the position of ``mp_trend_index`` among the columns it was fitted on.
-    ``tree_weights`` maps an interval group to the share of the trees' log correction its rows
-    get (1 where a group is not named: the full correction; 0: the index alone), chosen by
-    :func:`pipelines.melting_offset.choose_tree_weight`.
-    """
-
-    def __init__(self, pipe, column: int, tree_weights=None):
-        self.pipe, self.column = pipe, column
-        self.tree_weights = dict(tree_weights or {})
-
-    def predict(self, x: np.ndarray, groups=None) -> np.ndarray:
-        """Predicted T [K] for rows of ``x``; ``groups`` (interval group per row) apply ``tree_weights``."""
-        correction = self.pipe.predict(x)
-        if groups is not None and self.tree_weights:
-            share = np.array([self.tree_weights.get(g, 1.0) for g in groups], dtype=float)
-            correction = np.power(correction, share)
-        return correction * np.power(10.0, x[:, self.column])
-
-
-def _fit_pipeline(x: np.ndarray, y_K: np.ndarray, seed: int, labels=None):
-    """Fit on the columns that hold at least one value; returns the regressor and those column indices.
-
-    ``labels`` (interval group per row) turn on :func:`balanced_weights`. The
-    regressor is an :class:`IndexOffsetRegressor`: rows need a trend index
-    (:func:`prepare_training` keeps only those).
-    """
-    used = np.array([j for j in range(x.shape[1]) if np.isfinite(x[:, j]).any()], dtype=int)
-    if len(used) == 0:
-        raise ValueError("no feature holds a value in the training rows")
-    names = [melting_model.MODEL_FEATURES[j] for j in used]
-    if OFFSET_FEATURE not in names:
-        raise ValueError(f"no training row has {OFFSET_FEATURE}, the offset of the regression")
-    column = names.index(OFFSET_FEATURE)
-    weights = {} if labels is None else {"regressor__sample_weight": balanced_weights(labels)}
-    pipe = make_melting_pipeline(seed, names).fit(x[:, used], y_K / np.power(10.0, x[:, used[column]]), **weights)
-    return IndexOffsetRegressor(pipe, column), used
-
-
-def _conformal_halfwidth(residuals: np.ndarray, coverage: float) -> float:
-    """Split-conformal quantile: the ceil((n+1) * coverage)-th smallest absolute residual."""
-    r = np.sort(np.abs(residuals))
-    n = len(r)
-    if n == 0:
-        return math.inf
-    k = math.ceil((n + 1) * coverage)
-    return float(r[min(k, n) - 1]) if k <= n else float(r[-1])
-
-
-def _metrics(y_true: np.ndarray, y_pred: np.ndarray) -> dict:
-    from scipy.stats import spearmanr  # optional extra (melting), as above
-
-    ok = np.isfinite(y_pred) & np.isfinite(y_true)
-    t, p = y_true[ok], y_pred[ok]
-    if len(t) < 3:
-        return {"n": int(len(t))}
-    resid = t - p
-    ss_tot = float(np.sum((t - t.mean()) ** 2))
-    rho = spearmanr(t, p).statistic if np.ptp(p) > 0 else math.nan
-    return {
-        "n": int(len(t)),
-        "mae_K": round(float(np.mean(np.abs(resid))), 1),
-        "rmse_K": round(float(np.sqrt(np.mean(resid ** 2))), 1),
-        "r2": round(1.0 - float(np.sum(resid ** 2)) / ss_tot, 3) if ss_tot > 0 else math.nan,
-        "spearman_rho": round(float(rho), 3) if rho == rho else None,
-    }
-
-
-def _split_calibration(n: int, fraction: float, rng: np.random.Generator, groups=None) -> tuple[np.ndarray, np.ndarray]:
-    """Indices of the proper training part and of the calibration part (about ``fraction`` of n).
-
-    With ``groups``, whole groups go to the calibration part, so its residuals are
-    those of groups the proper part never saw: the situation of a held-out cation
-    family, where a random split would give intervals too narrow (split-conformal
-    coverage assumes the new row is exchangeable with the calibration rows).
-    """
-    if groups is None:
-        order = rng.permutation(n)
-        n_cal = max(1, int(round(n * fraction)))
-        return np.sort(order[n_cal:]), np.sort(order[:n_cal])
-    groups = np.asarray(groups)
-    target = max(1, int(round(n * fraction)))
-    calib = np.zeros(n, dtype=bool)
-    for g in rng.permutation(np.unique(groups)):
-        if calib.sum() >= target:
-            break
-        calib |= groups == g
-    if calib.all():  # one group only: nothing left to fit on
-        return _split_calibration(n, fraction, rng)
-    return np.flatnonzero(~calib), np.flatnonzero(calib)
-
-
-def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: float) -> tuple[float, dict]:
-    """Pooled and per-group (Mondrian) split-conformal half-widths; a group with fewer
-    than 10 calibration rows takes the pooled one."""
-    pooled = _conformal_halfwidth(log_residuals, coverage)
-    per_group = {}
-    for g in melting_model.INTERVAL_GROUPS:
-        mine = log_residuals[labels == g]
-        per_group[g] = _conformal_halfwidth(mine, coverage) if len(mine) >= 10 else pooled
-    return pooled, per_group
-
-
-def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, coverage: float = 0.9,
-                             calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
-                             progress=None, features_for_fold=None, index_terms=None,
-                             choose_tree_share: bool = True) -> dict:
-    """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
-
-    In every fold the training part is split once more: the model is fitted
-    on one part and its absolute log residuals on the other (the calibration
-    part) set the interval half-width; coverage is then counted on the
-    held-out fold.
-
-    Parameters
-    ----------
-    x : ndarray of shape (n_samples, n_features)
-    y_K : ndarray of shape (n_samples,)
-        Melting points in K.
-    groups : array-like of shape (n_samples,)
-        Group label per row; rows of one group never straddle a split.
-    lattice_energy : ndarray of shape (n_samples,)
-        The single feature of the linear baseline [kJ/mol].
-    folds : int, default=5
-        Splits of :class:`sklearn.model_selection.GroupKFold` (fewer when
-        there are fewer groups).
-    coverage : float, default=0.9
-        Target coverage of the intervals.
-    calibration_fraction : float, default=0.25
-    seed : int, default=0
-    interval_groups : array-like of shape (n_samples,), optional
-        :func:`scorer.melting_model.interval_group` per row: the intervals are
-        Mondrian (a half-width per group) and coverage is counted per group.
-    progress : callable, optional
-        Hears about every fold.
-    features_for_fold : callable, optional
-        Called with the set of group labels a fold holds out; returns the
-        feature matrix (same rows and columns as ``x``) to fit and predict that
-        fold with, for measurements that refit part of the features without
-        the held-out groups (``python -m ionicity.pipelines.melting_cv
-        --refit-organic-weights``).
-    index_terms : list, optional
-        :func:`pipelines.melting_offset.index_terms` of every row: each
-        fold then refits the trend index's organic weights on the rows its
-        trees are fitted on (never the calibration part or the held-out fold)
-        and rebuilds ``mp_trend_index`` with them, as :func:`fit_melting_model`
-        does for the model file.
-    choose_tree_share : bool, default=True
-        Each fold picks the ionic liquids' share of the trees' correction by
-        an inner grouped cross-validation on its fitted rows
-        (:func:`pipelines.melting_offset.choose_tree_weight`), as
-        :func:`fit_melting_model` does.
-
-    Returns
-    -------
-    dict
-        ``model``, ``baseline_mean``, ``baseline_lattice_energy``: MAE, RMSE,
-        R^2, Spearman rho over the out-of-fold predictions;
-        ``interval_coverage`` and ``interval_mean_width_K``, overall and
-        ``per_group`` (coverage, width, rows, and the model's figures on the
-        group's held-out rows); ``folds``; ``oof_predictions_K`` (list).
-    """
-    # optional extra (melting): imported where used, so that without it fit-melting
-    # ends with an install hint (require_extra), not a traceback
-    from sklearn.linear_model import LinearRegression
-    from sklearn.model_selection import GroupKFold
-
-    groups = np.asarray(groups)
-    n_groups = len(set(groups.tolist()))
-    splits = min(folds, n_groups)
-    if splits < 2:
-        raise ValueError(f"grouped cross-validation needs at least 2 groups, found {n_groups}")
-    say = progress or (lambda text: None)
-    labels = np.asarray(interval_groups if interval_groups is not None else ["other"] * len(y_K))
-    rng = np.random.default_rng(seed)
-    oof = np.full(len(y_K), np.nan)
-    oof_mean = np.full(len(y_K), np.nan)
-    oof_lin = np.full(len(y_K), np.nan)
-    inside = np.zeros(len(y_K), dtype=bool)
-    width = np.full(len(y_K), np.nan)
-    for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
-        say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
-        proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
-        proper, calib = train[proper], train[calib]
-        xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
-        pipe, used, _, xf = fit_offset_model(xf, y_K, proper, labels, groups if choose_tree_share else None,
-                                             index_terms, lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
-        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used], labels[calib])),
-                                         labels[calib], coverage)
-        q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
-        pred = pipe.predict(xf[test][:, used], labels[test])
-        oof[test] = pred
-        inside[test] = np.abs(np.log(y_K[test]) - np.log(pred)) <= q
-        width[test] = pred * (np.exp(q) - np.exp(-q))
-        oof_mean[test] = float(np.mean(y_K[train]))
-        ok = np.isfinite(lattice_energy[train])
-        line = LinearRegression().fit(lattice_energy[train][ok].reshape(-1, 1), y_K[train][ok])
-        lat = lattice_energy[test]
-        oof_lin[test] = np.where(np.isfinite(lat), line.predict(np.nan_to_num(lat).reshape(-1, 1)), np.mean(y_K[train]))
-    return {
-        "folds": splits,
-        "groups": n_groups,
-        "model": _metrics(y_K, oof),
-        "baseline_mean": _metrics(y_K, oof_mean),
-        "baseline_lattice_energy": _metrics(y_K, oof_lin),
-        "interval_coverage": round(float(np.mean(inside)), 3),
-        "interval_target": coverage,
-        "interval_mean_width_K": round(float(np.nanmean(width)), 1),
-        "per_group": {
-            g: {"rows": int(np.sum(labels == g)),
-                "interval_coverage": round(float(np.mean(inside[labels == g])), 3),
-                "interval_mean_width_K": round(float(np.nanmean(width[labels == g])), 1),
-                "model": _metrics(y_K[labels == g], oof[labels == g])}
-            for g in melting_model.INTERVAL_GROUPS if np.any(labels == g)
-        },
-        "ionic_liquid_by_held_out_group": _by_group(y_K, oof, groups, labels == "ionic_liquid"),
-        "oof_predictions_K": [round(float(v), 2) for v in oof],
-    }
-
-
-def _by_group(y_K, oof, groups, mask) -> dict:
-    """MAE [K] and rows of the masked rows per cross-validation group (each one held out whole)."""
-    out = {}
-    for g in sorted(set(groups[mask].tolist())):
-        mine = mask & (groups == g)
-        out[str(g)] = {"rows": int(mine.sum()), "mae_K": round(float(np.mean(np.abs(y_K[mine] - oof[mine]))), 1)}
-    return out
-
-
-def trend_index_report(rows, records) -> dict:
-    """Spearman rho of ``mp_trend_index`` against measured melting points, overall and per anion family."""
-    from scipy.stats import spearmanr  # optional extra (melting), as above
-
-    index = np.array([_float(r.get("mp_trend_index")) for r in records])
-    y = np.array([row["mp_K"] for row in rows])
-    ok = np.isfinite(index)
-    out = {"overall": {"n": int(ok.sum()), "spearman_rho": round(float(spearmanr(index[ok], y[ok]).statistic), 3)}}
-    families: dict[str, list[int]] = {}
-    for i, row in enumerate(rows):
-        if ok[i]:
-            families.setdefault(row["anion_family"], []).append(i)
-    out["per_anion_family"] = {}
-    for family, idx in sorted(families.items(), key=lambda kv: -len(kv[1])):
-        entry = {"n": len(idx)}
-        if len(idx) >= 5 and np.ptp(index[idx]) > 0:
-            entry["spearman_rho"] = round(float(spearmanr(index[idx], y[idx]).statistic), 3)
-        out["per_anion_family"][family] = entry
-    return out
 
 
 def prepare_training(rows, progress=None):

@@ -2,7 +2,7 @@
 and how far the trees may move ionic liquids off the index.
 
 The regression reads ``mp_trend_index`` as a feature and as its offset
-(:class:`pipelines.melting_fit.IndexOffsetRegressor`). Three of the index's
+(:class:`pipelines.melting_regressor.IndexOffsetRegressor`). Three of the index's
 weights (``flexibility``, ``delocalised``, ``protic``:
 :data:`scorer.melting_model_format.INDEX_WEIGHT_KEYS`) are fitted in
 :data:`scorer.melting_index.TREND_WEIGHTS` on the calibration rows of
@@ -159,7 +159,7 @@ def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: s
         :func:`index_terms` (None: the index as it comes in ``x``).
     fit : callable
         ``fit(x, y_K, labels) -> (IndexOffsetRegressor, used columns)``
-        (:func:`pipelines.melting_fit._fit_pipeline`).
+        (:func:`pipelines.melting_regressor._fit_pipeline`).
 
     Returns
     -------
@@ -199,7 +199,7 @@ def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None
     Returns
     -------
     (regressor, used, index_weights, x_rebuilt)
-        ``regressor`` an :class:`pipelines.melting_fit.IndexOffsetRegressor`
+        ``regressor`` an :class:`pipelines.melting_regressor.IndexOffsetRegressor`
         whose ``tree_weights`` name the ``ionic_liquid`` share
         (:func:`choose_tree_weight`; skipped when ``groups`` is None);
         ``index_weights`` None when ``terms`` is None; ``x_rebuilt`` is ``x``

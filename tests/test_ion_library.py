@@ -434,3 +434,29 @@ def test_sources_name_a_reference():
         source = row["source"]
         assert len(source) > 10, row["ion_id"]
         assert any(ch.isdigit() for ch in source) or "Wikipedia" in source, row["ion_id"]
+
+
+# Onium cations added for the melting regression's open training set: each ion with its
+# counter-ion must have the composition and molar mass of the registry entry whose name it
+# reads (chemicals 1.5.2, chemicals.identifiers.search_chemical(CAS): formula and MW).
+REGISTRY_SALTS = [
+    ("[C1py](+)", "Cl", "7680-73-1"),     # 1-methylpyridinium chloride
+    ("[C8py](+)", "Br", "2534-66-9"),     # 1-octylpyridinium bromide
+    ("[C16py](+)", "Cl", "123-03-5"),     # cetylpyridinium chloride
+    ("[N5555](+)", "Br", "866-97-7"),     # tetrapentylammonium bromide
+    ("[N6666](+)", "Br", "4328-13-6"),    # tetrahexylammonium bromide
+    ("[N8888](+)", "Br", "14866-33-2"),   # tetraoctylammonium bromide
+    ("[N1222](+)", "Cl", "10052-47-8"),   # triethylmethylammonium chloride
+    ("[N11116](+)", "Cl", "112-02-7"),    # hexadecyltrimethylammonium chloride
+    ("[P2222](+)", "I", "4317-06-0"),     # tetraethylphosphonium iodide
+]
+
+
+@pytest.mark.parametrize("ion_id, counter, cas", REGISTRY_SALTS)
+def test_added_onium_ions_match_the_registry_salt(ion_id, counter, cas):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    entry = identifiers.search_chemical(cas)
+    ours = molmass.Formula(rows_by_id()[ion_id]["formula"] + counter)
+    assert Counter({el: item.count for el, item in ours.composition().items()}) == Counter(
+        {el: item.count for el, item in molmass.Formula(entry.formula).composition().items()}), cas
+    assert ours.mass == pytest.approx(entry.MW, abs=0.05), cas

@@ -112,6 +112,24 @@ def test_open_builder_reads_flat_organic_salts_from_their_names():
     assert kept["145022-44-2"]["mp_K"] == pytest.approx(264, abs=5)
 
 
+@needs_extra
+def test_open_builder_reads_the_onium_salts_of_the_added_ions():
+    # cetylpyridinium chloride, tetrahexylammonium bromide and 1-methylpyridinium chloride, flat in the
+    # identifier table (C21H38ClN, C24H52BrN, C6H8ClN): read through their names now that scorer/data/ions.csv
+    # holds [C16py], [N6666] and [C1py]. Cetylpyridinium chloride melts at 77-83 C (anhydrous; Merck
+    # Index, from memory); the other two are checked against the registry's own values.
+    cas = ["123-03-5", "4328-13-6", "7680-73-1"]
+    data = melting_data.build_open_training_set(cas_numbers=cas)
+    kept = {r["cas"]: r for r in data.rows}
+    assert kept["123-03-5"]["formula_normalized"] == "[C16py]Cl"
+    assert kept["4328-13-6"]["formula_normalized"] == "[N6666]Br"
+    assert kept["7680-73-1"]["formula_normalized"] == "[C1py]Cl"
+    assert kept["123-03-5"]["mp_K"] == pytest.approx(353, abs=10)
+    from chemicals.phase_change import Tm
+    for number in ("4328-13-6", "7680-73-1"):
+        assert kept[number]["mp_K"] == pytest.approx(Tm(number), abs=10)
+
+
 def test_a_name_of_another_compound_or_a_hydrate_does_not_rescue_a_formula():
     from ionicity.scorer.formula import parse_formula
 

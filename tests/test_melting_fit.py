@@ -13,6 +13,7 @@ import pandas as pd
 import pytest
 
 from ionicity.pipelines import melting_fit as mf
+from ionicity.pipelines import melting_regressor
 from ionicity.pipelines.melting_cli import add_fit_melting_parser
 from ionicity.pipelines.melting_model_file import apply_model_to_frame, load_model, trees_to_json
 from ionicity.scorer import melting_model
@@ -119,14 +120,14 @@ def test_the_offset_model_predicts_like_its_file(fast_pipeline):
 
 def _fit(out, *extra):
     """fit-melting on the CC0 fixture, through the CLI hook, with fewer boosting rounds."""
-    real = mf.make_melting_pipeline
+    real = melting_regressor.make_melting_pipeline
 
     def quick(seed=0, features=None):
         pipe = real(seed, features)
         pipe.named_steps["regressor"].regressor.set_params(max_iter=40, learning_rate=0.15)
         return pipe
 
-    mf.make_melting_pipeline = quick
+    melting_regressor.make_melting_pipeline = quick  # _fit_pipeline looks it up there
     try:
         parser = argparse.ArgumentParser()
         add_fit_melting_parser(parser.add_subparsers(dest="command"))
@@ -134,7 +135,7 @@ def _fit(out, *extra):
                                   *extra])
         code = mf.run_fit_melting(args)
     finally:
-        mf.make_melting_pipeline = real
+        melting_regressor.make_melting_pipeline = real
     return code, out
 
 

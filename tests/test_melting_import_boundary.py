@@ -14,6 +14,8 @@ from pathlib import Path
 
 TRAINER_MODULES = (
     "ionicity.pipelines.melting_fit",
+    "ionicity.pipelines.melting_regressor",
+    "ionicity.pipelines.melting_validation",
     "ionicity.pipelines.melting_data",
     "ionicity.pipelines.melting_screen",
     "ionicity.pipelines.melting_plot",

@@ -1,0 +1,242 @@
+"""Validation of the melting regression: grouped cross-validation, split-conformal intervals, metrics.
+
+:func:`grouped_cross_validation` holds out whole groups (anion family, cation
+element or cation family) and fits everything a model carries inside each
+fold: the index's organic weights and the ionic liquids' tree share
+(:func:`pipelines.melting_offset.fit_offset_model`), the trees
+(:func:`pipelines.melting_regressor._fit_pipeline`) and the conformal
+half-widths, on the fold's training rows only. :func:`trend_index_report`
+checks the trend index alone. :mod:`pipelines.melting_fit` re-exports these
+names; ``python -m ionicity.pipelines.melting_cv`` runs them on a saved
+training table. scikit-learn and scipy (the ``melting`` extra) are imported
+where they are used.
+"""
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ionicity.pipelines.melting_offset import fit_offset_model
+from ionicity.pipelines.melting_regressor import _fit_pipeline
+from ionicity.scorer import melting_model
+
+__all__ = ["grouped_cross_validation", "trend_index_report"]
+
+
+def _float(value) -> float:
+    try:
+        return float(value) if value is not None else math.nan
+    except (TypeError, ValueError):
+        return math.nan
+
+
+def _conformal_halfwidth(residuals: np.ndarray, coverage: float) -> float:
+    """Split-conformal quantile: the ceil((n+1) * coverage)-th smallest absolute residual."""
+    r = np.sort(np.abs(residuals))
+    n = len(r)
+    if n == 0:
+        return math.inf
+    k = math.ceil((n + 1) * coverage)
+    return float(r[min(k, n) - 1]) if k <= n else float(r[-1])
+
+
+def _metrics(y_true: np.ndarray, y_pred: np.ndarray) -> dict:
+    from scipy.stats import spearmanr  # optional extra (melting), as above
+
+    ok = np.isfinite(y_pred) & np.isfinite(y_true)
+    t, p = y_true[ok], y_pred[ok]
+    if len(t) < 3:
+        return {"n": int(len(t))}
+    resid = t - p
+    ss_tot = float(np.sum((t - t.mean()) ** 2))
+    rho = spearmanr(t, p).statistic if np.ptp(p) > 0 else math.nan
+    return {
+        "n": int(len(t)),
+        "mae_K": round(float(np.mean(np.abs(resid))), 1),
+        "rmse_K": round(float(np.sqrt(np.mean(resid ** 2))), 1),
+        "r2": round(1.0 - float(np.sum(resid ** 2)) / ss_tot, 3) if ss_tot > 0 else math.nan,
+        "spearman_rho": round(float(rho), 3) if rho == rho else None,
+    }
+
+
+def _split_calibration(n: int, fraction: float, rng: np.random.Generator, groups=None) -> tuple[np.ndarray, np.ndarray]:
+    """Indices of the proper training part and of the calibration part (about ``fraction`` of n).
+
+    With ``groups``, whole groups go to the calibration part, so its residuals are
+    those of groups the proper part never saw: the situation of a held-out cation
+    family, where a random split would give intervals too narrow (split-conformal
+    coverage assumes the new row is exchangeable with the calibration rows).
+    """
+    if groups is None:
+        order = rng.permutation(n)
+        n_cal = max(1, int(round(n * fraction)))
+        return np.sort(order[n_cal:]), np.sort(order[:n_cal])
+    groups = np.asarray(groups)
+    target = max(1, int(round(n * fraction)))
+    calib = np.zeros(n, dtype=bool)
+    for g in rng.permutation(np.unique(groups)):
+        if calib.sum() >= target:
+            break
+        calib |= groups == g
+    if calib.all():  # one group only: nothing left to fit on
+        return _split_calibration(n, fraction, rng)
+    return np.flatnonzero(~calib), np.flatnonzero(calib)
+
+
+def _group_halfwidths(log_residuals: np.ndarray, labels: np.ndarray, coverage: float) -> tuple[float, dict]:
+    """Pooled and per-group (Mondrian) split-conformal half-widths; a group with fewer
+    than 10 calibration rows takes the pooled one."""
+    pooled = _conformal_halfwidth(log_residuals, coverage)
+    per_group = {}
+    for g in melting_model.INTERVAL_GROUPS:
+        mine = log_residuals[labels == g]
+        per_group[g] = _conformal_halfwidth(mine, coverage) if len(mine) >= 10 else pooled
+    return pooled, per_group
+
+
+def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, coverage: float = 0.9,
+                             calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
+                             progress=None, features_for_fold=None, index_terms=None,
+                             choose_tree_share: bool = True) -> dict:
+    """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
+
+    In every fold the training part is split once more: the model is fitted
+    on one part and its absolute log residuals on the other (the calibration
+    part) set the interval half-width; coverage is then counted on the
+    held-out fold.
+
+    Parameters
+    ----------
+    x : ndarray of shape (n_samples, n_features)
+    y_K : ndarray of shape (n_samples,)
+        Melting points in K.
+    groups : array-like of shape (n_samples,)
+        Group label per row; rows of one group never straddle a split.
+    lattice_energy : ndarray of shape (n_samples,)
+        The single feature of the linear baseline [kJ/mol].
+    folds : int, default=5
+        Splits of :class:`sklearn.model_selection.GroupKFold` (fewer when
+        there are fewer groups).
+    coverage : float, default=0.9
+        Target coverage of the intervals.
+    calibration_fraction : float, default=0.25
+    seed : int, default=0
+    interval_groups : array-like of shape (n_samples,), optional
+        :func:`scorer.melting_model.interval_group` per row: the intervals are
+        Mondrian (a half-width per group) and coverage is counted per group.
+    progress : callable, optional
+        Hears about every fold.
+    features_for_fold : callable, optional
+        Called with the set of group labels a fold holds out; returns the
+        feature matrix (same rows and columns as ``x``) to fit and predict that
+        fold with, for measurements that refit part of the features without
+        the held-out groups (``python -m ionicity.pipelines.melting_cv
+        --refit-organic-weights``).
+    index_terms : list, optional
+        :func:`pipelines.melting_offset.index_terms` of every row: each
+        fold then refits the trend index's organic weights on the rows its
+        trees are fitted on (never the calibration part or the held-out fold)
+        and rebuilds ``mp_trend_index`` with them, as :func:`fit_melting_model`
+        does for the model file.
+    choose_tree_share : bool, default=True
+        Each fold picks the ionic liquids' share of the trees' correction by
+        an inner grouped cross-validation on its fitted rows
+        (:func:`pipelines.melting_offset.choose_tree_weight`), as
+        :func:`fit_melting_model` does.
+
+    Returns
+    -------
+    dict
+        ``model``, ``baseline_mean``, ``baseline_lattice_energy``: MAE, RMSE,
+        R^2, Spearman rho over the out-of-fold predictions;
+        ``interval_coverage`` and ``interval_mean_width_K``, overall and
+        ``per_group`` (coverage, width, rows, and the model's figures on the
+        group's held-out rows); ``folds``; ``oof_predictions_K`` (list).
+    """
+    # optional extra (melting): imported where used, so that without it fit-melting
+    # ends with an install hint (require_extra), not a traceback
+    from sklearn.linear_model import LinearRegression
+    from sklearn.model_selection import GroupKFold
+
+    groups = np.asarray(groups)
+    n_groups = len(set(groups.tolist()))
+    splits = min(folds, n_groups)
+    if splits < 2:
+        raise ValueError(f"grouped cross-validation needs at least 2 groups, found {n_groups}")
+    say = progress or (lambda text: None)
+    labels = np.asarray(interval_groups if interval_groups is not None else ["other"] * len(y_K))
+    rng = np.random.default_rng(seed)
+    oof = np.full(len(y_K), np.nan)
+    oof_mean = np.full(len(y_K), np.nan)
+    oof_lin = np.full(len(y_K), np.nan)
+    inside = np.zeros(len(y_K), dtype=bool)
+    width = np.full(len(y_K), np.nan)
+    for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
+        say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
+        proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
+        proper, calib = train[proper], train[calib]
+        xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
+        pipe, used, _, xf = fit_offset_model(xf, y_K, proper, labels, groups if choose_tree_share else None,
+                                             index_terms, lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
+        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used], labels[calib])),
+                                         labels[calib], coverage)
+        q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
+        pred = pipe.predict(xf[test][:, used], labels[test])
+        oof[test] = pred
+        inside[test] = np.abs(np.log(y_K[test]) - np.log(pred)) <= q
+        width[test] = pred * (np.exp(q) - np.exp(-q))
+        oof_mean[test] = float(np.mean(y_K[train]))
+        ok = np.isfinite(lattice_energy[train])
+        line = LinearRegression().fit(lattice_energy[train][ok].reshape(-1, 1), y_K[train][ok])
+        lat = lattice_energy[test]
+        oof_lin[test] = np.where(np.isfinite(lat), line.predict(np.nan_to_num(lat).reshape(-1, 1)), np.mean(y_K[train]))
+    return {
+        "folds": splits,
+        "groups": n_groups,
+        "model": _metrics(y_K, oof),
+        "baseline_mean": _metrics(y_K, oof_mean),
+        "baseline_lattice_energy": _metrics(y_K, oof_lin),
+        "interval_coverage": round(float(np.mean(inside)), 3),
+        "interval_target": coverage,
+        "interval_mean_width_K": round(float(np.nanmean(width)), 1),
+        "per_group": {
+            g: {"rows": int(np.sum(labels == g)),
+                "interval_coverage": round(float(np.mean(inside[labels == g])), 3),
+                "interval_mean_width_K": round(float(np.nanmean(width[labels == g])), 1),
+                "model": _metrics(y_K[labels == g], oof[labels == g])}
+            for g in melting_model.INTERVAL_GROUPS if np.any(labels == g)
+        },
+        "ionic_liquid_by_held_out_group": _by_group(y_K, oof, groups, labels == "ionic_liquid"),
+        "oof_predictions_K": [round(float(v), 2) for v in oof],
+    }
+
+
+def _by_group(y_K, oof, groups, mask) -> dict:
+    """MAE [K] and rows of the masked rows per cross-validation group (each one held out whole)."""
+    out = {}
+    for g in sorted(set(groups[mask].tolist())):
+        mine = mask & (groups == g)
+        out[str(g)] = {"rows": int(mine.sum()), "mae_K": round(float(np.mean(np.abs(y_K[mine] - oof[mine]))), 1)}
+    return out
+
+
+def trend_index_report(rows, records) -> dict:
+    """Spearman rho of ``mp_trend_index`` against measured melting points, overall and per anion family."""
+    from scipy.stats import spearmanr  # optional extra (melting), as above
+
+    index = np.array([_float(r.get("mp_trend_index")) for r in records])
+    y = np.array([row["mp_K"] for row in rows])
+    ok = np.isfinite(index)
+    out = {"overall": {"n": int(ok.sum()), "spearman_rho": round(float(spearmanr(index[ok], y[ok]).statistic), 3)}}
+    families: dict[str, list[int]] = {}
+    for i, row in enumerate(rows):
+        if ok[i]:
+            families.setdefault(row["anion_family"], []).append(i)
+    out["per_anion_family"] = {}
+    for family, idx in sorted(families.items(), key=lambda kv: -len(kv[1])):
+        entry = {"n": len(idx)}
+        if len(idx) >= 5 and np.ptp(index[idx]) > 0:
+            entry["spearman_rho"] = round(float(spearmanr(index[idx], y[idx]).statistic), 3)
+        out["per_anion_family"][family] = entry
+    return out
