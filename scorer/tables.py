@@ -60,7 +60,7 @@ TABLES: dict[str, TableSpec] = {
             "scorer.hsab",
         ),
         TableSpec(
-            "born_exponents.csv", ("configuration", "electrons", "born_exponent", "source"), "scorer.lattice"
+            "born_exponents.csv", ("configuration", "electrons", "born_exponent", "source"), "scorer.lattice_inputs"
         ),
         TableSpec(
             "structure_prototypes.csv",
@@ -80,7 +80,7 @@ TABLES: dict[str, TableSpec] = {
         TableSpec(
             "dispersion_coefficients.csv",
             ("cation_id", "anion_id", "c_1e60_erg_cm6", "d_1e76_erg_cm8", "source"),
-            "scorer.lattice",
+            "scorer.lattice_inputs",
         ),
         TableSpec(
             "ion_shape.csv",
