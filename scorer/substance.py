@@ -119,12 +119,14 @@ def listed_states(symbol: str) -> tuple[tuple[int, bool], ...]:
 
 def format_oxidation_states(states) -> str:
     """``Fe:+3;S:+6;O:-2``; averages of mixed or fractional states to 3 decimals."""
-    parts = []
-    for symbol, value in states:
-        text = format_count(round(abs(value), 3))
-        sign = "+" if value > 0 else ("-" if value < 0 else "")
-        parts.append(f"{symbol}:{sign}{text}")
-    return ";".join(parts)
+    return ";".join([symbol + ":" + _state_text(value) for symbol, value in states])
+
+
+@per_input(maxsize=4096)
+def _state_text(value: float) -> str:
+    # cached: every record writes its states, and most are a few values (+1, -2, -3)
+    sign = "+" if value > 0 else ("-" if value < 0 else "")
+    return sign + format_count(round(abs(value), 3))
 
 
 @once
