@@ -67,7 +67,6 @@ not how they are found:
 """
 from __future__ import annotations
 
-import dataclasses
 import math
 import re
 
@@ -478,7 +477,7 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
         )
         reasons.append("formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
-    return dataclasses.replace(dec, **changes)
+    return dec.with_fields(**changes)
 
 
 def _in_order(states, previous):

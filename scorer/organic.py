@@ -74,7 +74,7 @@ __all__ = [
 ION_ONLY_DESCRIPTORS = frozenset({
     "ionicity.scorer.fajans", "ionicity.scorer.hsab", "ionicity.scorer.lattice", "ionicity.scorer.systematic_name",
 })
-# monatomic ions the ion-pair rule adds to the library's (scorer.ions._ORGANIC_PAIR_MONATOMIC)
+# monatomic ions the ion-pair rule adds to the library's (scorer.ion_search._ORGANIC_PAIR_MONATOMIC)
 _PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
 
 # cations the ion-pair rule never reads in an organic formula besides the
@@ -134,7 +134,7 @@ def _pairs_by_ratio() -> dict[tuple[tuple[str, int], ...], tuple]:
     (how many times its smallest balanced unit holds the primitive counts,
     the cation, the anion, cations and anions in that unit).
 
-    The pairs are those the rule (scorer.ions._ion_pair_readings) draws from:
+    The pairs are those the rule (scorer.ion_search._ion_pair_readings) draws from:
     library ions and H(+) and the halides, not both organic, no oxocation as
     the cation. Keeping a pair the rule does not try only sends more
     formulas to the solver.

@@ -58,7 +58,7 @@ and gives the oxidation states: from the ions of a reading
 """
 from __future__ import annotations
 
-from ionicity.scorer.caching import once
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.grammar import format_count
 from ionicity.scorer.model import Decomposition, IonTerm
@@ -119,12 +119,14 @@ def listed_states(symbol: str) -> tuple[tuple[int, bool], ...]:
 
 def format_oxidation_states(states) -> str:
     """``Fe:+3;S:+6;O:-2``; averages of mixed or fractional states to 3 decimals."""
-    parts = []
-    for symbol, value in states:
-        text = format_count(round(abs(value), 3))
-        sign = "+" if value > 0 else ("-" if value < 0 else "")
-        parts.append(f"{symbol}:{sign}{text}")
-    return ";".join(parts)
+    return ";".join([symbol + ":" + _state_text(value) for symbol, value in states])
+
+
+@per_input(maxsize=4096)
+def _state_text(value: float) -> str:
+    # cached: every record writes its states, and most are a few values (+1, -2, -3)
+    sign = "+" if value > 0 else ("-" if value < 0 else "")
+    return sign + format_count(round(abs(value), 3))
 
 
 @once
@@ -157,13 +159,31 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
     >>> dict(formal_oxidation_states({"H": 2, "O": 2}))
     {'H': 1.0, 'O': -1.0}
     """
-    symbols = list(counts)
+    symbols = tuple(counts)
     if len(symbols) == 1:
         ((symbol, n),) = counts.items()
         return ((symbol, charge / n),)
-    # each element's electronegativity, listed range and usual state looked up
-    # once per call, the first two cached per element: this runs for every
-    # molecule scored (it took a third of a molecule's decomposition before)
+    defaults, balancers, ranges = _formal_rules(symbols)
+    for balancer in balancers:
+        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+        low, high = ranges[balancer]
+        if low - _TOL <= value <= high + _TOL:
+            break
+    else:
+        balancer = balancers[0]
+        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
+        value = (charge - rest) / counts[balancer]
+    return tuple((s, round(value if s == balancer else defaults[s], 6)) for s in symbols)
+
+
+@per_input(maxsize=4096)
+def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str], dict[str, tuple[int, int]]]:
+    """What :func:`formal_oxidation_states` decides from the elements alone, not
+    their counts: each element's usual state, the order in which they are tried
+    as the balancing element, and their listed ranges. Cached per element set:
+    this runs for every molecule scored, and an inventory's molecules share a few
+    sets (C, H, N, O); a third of the call's cost before."""
     chi = {s: _electronegativity(s) for s in symbols}
     by_chi = sorted(symbols, key=chi.__getitem__)
     most = by_chi[-1]
@@ -184,17 +204,7 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
     defaults = {s: default(s) for s in symbols}
     # an element without a usual state (C in organics, Si in SiC) balances first
     balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
-    for balancer in balancers:
-        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
-        value = (charge - rest) / counts[balancer]
-        low, high = ranges[balancer]
-        if low - _TOL <= value <= high + _TOL:
-            break
-    else:
-        balancer = balancers[0]
-        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
-        value = (charge - rest) / counts[balancer]
-    return tuple((s, round(value if s == balancer else defaults[s], 6)) for s in symbols)
+    return defaults, balancers, ranges
 
 
 def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:

@@ -226,3 +226,65 @@ def test_trend_index_on_floats_is_the_same_float_as_on_arrays():
             on_arrays = melting_trend_index(*(np.asarray(a, dtype=float) for a in args))
             assert type(on_floats) is float and type(on_arrays) is float
             assert on_floats == on_arrays or (np.isnan(on_floats) and np.isnan(on_arrays)), args
+
+
+# --- the organic path's cuts (DEVELOPERS.md, "The organic path, fifth round"): each against its plain form
+
+
+def test_decomposition_with_fields_is_dataclasses_replace():
+    import dataclasses
+
+    from ionicity.scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.ions import decompose
+
+    decs = []
+    for text in _sample_formulas()[:500]:
+        try:
+            decs.append(decompose(parse_formula(text)))
+        except FormulaError:
+            continue  # the demo inventory holds misspellings on purpose
+    assert len(decs) > 400
+    changes = [dict(substance_class="covalent_molecular", ionic_model="strained"), dict(cations=(), anions=()),
+               dict(notes=("a note",), ionic_model_reasons=("why",), formal_ions=((), ())), {}]
+    for dec in decs:
+        for change in changes:
+            fast, plain = dec.with_fields(**change), dataclasses.replace(dec, **change)
+            assert fast == plain and hash(fast) == hash(plain)
+            # the fields outside equality too (ionic_model, its reasons, the formal ions)
+            assert all(getattr(fast, f.name) == getattr(plain, f.name) for f in dataclasses.fields(plain))
+    with pytest.raises(TypeError, match="no field 'colour'"):
+        decs[0].with_fields(colour="blue")
+
+
+def test_state_text_cache_writes_what_the_plain_formatting_writes():
+    from ionicity.scorer.grammar import format_count
+    from ionicity.scorer.substance import format_oxidation_states
+
+    def plain(states):
+        parts = []
+        for symbol, value in states:
+            sign = "+" if value > 0 else ("-" if value < 0 else "")
+            parts.append(f"{symbol}:{sign}{format_count(round(abs(value), 3))}")
+        return ";".join(parts)
+
+    rng = random.Random(5)
+    values = [0.0, -0.0, 1, -2, 3.0, 2.6666666667, -0.4705882353, 1e-10, -1e-10, 7.9995, 0.0005]
+    values += [rng.uniform(-8, 8) for _ in range(3000)] + [rng.randint(-4, 8) / rng.randint(1, 12) for _ in range(3000)]
+    for i in range(0, len(values) - 3, 3):
+        states = tuple(zip(("Fe", "C", "O"), values[i:i + 3]))
+        assert format_oxidation_states(states) == plain(states)
+
+
+def test_metal_set_and_cached_characters_match_the_element_records():
+    from ionicity.scorer.character import _characters_pct, hannay_smyth_ionic_character_pct, pauling_ionic_character_pct
+    from ionicity.scorer.elements import element_symbols, get_element, is_metal
+
+    assert [is_metal(s) for s in element_symbols()] == [get_element(s).is_metal for s in element_symbols()]
+    assert sum(is_metal(s) for s in element_symbols()) > 80  # mendeleev's series: most elements are metals
+    assert not any(is_metal(x) for x in ("Xx", "", None, 3, "na", ["Na"]))
+    chis = sorted({get_element(s).electronegativity_pauling for s in element_symbols()} - {None})
+    chis = [c for c in chis if c == c]
+    for a in chis:
+        for b in chis:
+            d = abs(a - b)
+            assert _characters_pct(d) == (pauling_ionic_character_pct(d), hannay_smyth_ionic_character_pct(d))

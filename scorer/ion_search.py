@@ -1,0 +1,266 @@
+"""The walk over polyatomic ions: which library ions, how many of each, with
+the monatomic rest balanced by :mod:`scorer.charge_balance`; and the one-pair
+rule for organic formulas. Called by :mod:`scorer.ions`, which reads a
+composition and shares one work limit among its walks.
+"""
+from __future__ import annotations
+
+from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic
+from ionicity.scorer.ion_library import ion_library, monatomic_ion
+from ionicity.scorer.ion_penalties import (
+    _IONIC_THRESHOLD,
+    _ION_PENALTIES,
+    _PENALTY_SPECIES,
+    _PENALTY_UNCOMMON_ION,
+    _ion_penalty,
+    _monatomic_options,
+    _pair_penalty,
+)
+from ionicity.scorer.model import Ion
+
+_MAX_POLYATOMIC_SPECIES = 3
+# multiplicities of a polyatomic ion tried: the most that fit and the next ones down
+_MULTIPLICITIES = 3
+
+def _fits(composition, remaining: dict[str, float]) -> int:
+    """How many times an ion's composition fits in ``remaining``."""
+    times = None
+    for symbol, k in composition:
+        have = remaining.get(symbol, 0.0)
+        t = int((have + _TOL) // k)
+        times = t if times is None else min(times, t)
+        if times == 0:
+            return 0
+    return times or 0
+
+
+def _subtract(remaining: dict[str, float], composition, times: float) -> dict[str, float]:
+    out = dict(remaining)
+    for symbol, k in composition:
+        out[symbol] = out.get(symbol, 0.0) - k * times
+        if abs(out[symbol]) < _TOL:
+            del out[symbol]
+    return out
+
+
+@once
+def _polyatomic_ions() -> tuple[tuple[Ion, frozenset], ...]:
+    return tuple(
+        (ion, frozenset(symbol for symbol, _ in ion.composition))
+        for ion in ion_library()
+        if len(ion.composition) > 1 or ion.composition[0][1] > 1
+    )
+
+
+@per_input(maxsize=4096)
+def _monatomic_shares(symbols: tuple[str, ...]) -> tuple[tuple[str, tuple[float, float]], ...]:
+    """(lowest, highest) charge per atom of each element as a monatomic ion of
+    a plausible reading (an option of penalty under the ionic threshold)."""
+    out = []
+    for symbol in symbols:
+        states = [state for kind, pair, penalty in _monatomic_options(symbol, 1.0) if penalty < _IONIC_THRESHOLD
+                  for state in ((pair,) if kind == "single" else pair)]
+        if states:
+            out.append((symbol, (float(min(states)), float(max(states)))))
+    return tuple(out)
+
+
+@per_input(maxsize=4096)
+def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
+    """Polyatomic library ions made only of the elements ``present``."""
+    return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
+
+
+# the charge range of an element no candidate holds: empty, so the branch is cut (one
+# constant, not two float() calls per element of every node visited)
+_NO_SHARE = (float("inf"), float("-inf"))
+
+
+def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int]):
+    """Charge-balanced readings of ``remaining`` as library and monatomic ions.
+
+    A depth-first branch and bound: library ions that fit are tried, common
+    ones and larger ones first, each at its largest multiplicities and at
+    none; a branch is cut once its penalty so far exceeds the best complete
+    reading. The walk spends at most what is left of ``budget`` (a one-item
+    list shared by the walks of one composition, ``_SEARCH_BUDGET`` units of
+    solver work: nodes plus knapsack transitions) and takes what it spent
+    from it; one that reaches it stops there.
+    Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
+    """
+    candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
+    # common ions first, larger first: the best reading is found early and bounds the rest
+    candidates.sort(key=lambda ion: (_ion_penalty(ion) >= _PENALTY_UNCOMMON_ION, -ion.atom_count, _ion_penalty(ion), ion.ion_id))
+    coverable = [frozenset()] * (len(candidates) + 1)
+    for i in range(len(candidates) - 1, -1, -1):
+        coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
+    # per-atom charge range of each element (a relaxation: an ion's charge
+    # shared evenly by its atoms, or the element's monatomic states): a branch
+    # whose leftover atoms cannot carry the charge still needed is cut, so a
+    # formula with no reading is found out without visiting every combination
+    shares = [dict(_monatomic_shares(tuple(remaining)))]
+    for ion in reversed(candidates):
+        per_atom = ion.charge / sum(k for _, k in ion.composition)
+        share = dict(shares[-1])
+        for symbol, _ in ion.composition:
+            lo, hi = share.get(symbol, (float("inf"), float("-inf")))
+            share[symbol] = (min(lo, per_atom), max(hi, per_atom))
+        shares.append(share)
+    shares.reverse()
+    limit = budget[0]
+    nodes = 0
+    best = [float("inf")]
+    found: list = []
+    cut = [limit <= 0]
+    # work of the knapsacks counted whether or not their answer was cached:
+    # where a walk stops depends on the formula alone
+    spent = [0]
+
+    def floor_at(index: int, left: dict[str, float], chosen, charge: float, cost: float, share_index: int):
+        """The penalty floor of a node whose next candidate is ``index``, or None when
+        it is cut (by the charge relaxation, the penalty floor or the work limit)."""
+        nonlocal nodes
+        if nodes + spent[0] >= limit:
+            cut[0] = True
+            return None
+        # a node's cost grows with the elements its charge check visits
+        nodes += 1 + len(left)
+        share = shares[share_index]
+        lo = hi = 0.0
+        for symbol, n in left.items():
+            s_lo, s_hi = share.get(symbol, _NO_SHARE)
+            if s_lo > s_hi:
+                return None
+            lo += s_lo * n
+            hi += s_hi * n
+        if not lo - _TOL <= needed - charge <= hi + _TOL:
+            return None
+        # a leftover element no later candidate contains becomes a monatomic
+        # species of its own; the others need at least one more species
+        later = coverable[index]
+        alone = len(left.keys() - later)
+        floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
+        return None if floor > best[0] + _TOL else floor
+
+    def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
+        cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
+        work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
+        spent[0] += work
+        for penalty, singles in assignments:
+            terms = list(chosen) + [(monatomic_ion(s, st), n) for s, st, n in singles]
+            total = penalty + cost + _PENALTY_SPECIES * len(terms)
+            if total <= best[0] + _TOL:
+                best[0] = min(best[0], total)
+                found.append((total, terms))
+
+    def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
+        """Every reading that adds candidates ``index``.. to ``chosen``: each candidate
+        that fits, at its largest multiplicities, then the monatomic rest.
+
+        The bounds only tighten as the index grows (fewer candidates left to
+        carry charge or hold an element), so a node cut at one candidate is
+        cut at every later one and at the monatomic rest: the loop stops there,
+        and candidates that do not fit are passed over without a node. The
+        readings are those of a walk that visits every index in turn.
+        """
+        if cut[0]:
+            return
+        full = len(chosen) == _MAX_POLYATOMIC_SPECIES
+        if full or not left:
+            floor = floor_at(index, left, chosen, charge, cost, len(candidates) if full else index)
+            if floor is not None:
+                leaf(left, chosen, charge, cost, floor)
+            return
+        for j in range(index, len(candidates)):
+            ion = candidates[j]
+            most = _fits(ion.composition, left)
+            if not most:
+                continue
+            if floor_at(j, left, chosen, charge, cost, j) is None or cut[0]:
+                return
+            # the largest multiplicities only: an ion used fewer times leaves its
+            # limiting element to monatomic ions, which a real salt seldom holds
+            # beside the same element in a polyatomic ion; this bounds the nodes
+            # by a polynomial of the candidates, O((candidates x 3)^3)
+            for times in range(most, max(most - _MULTIPLICITIES, 0), -1):
+                walk(
+                    j + 1,
+                    _subtract(left, ion.composition, times),
+                    chosen + [(ion, float(times))],
+                    charge + ion.charge * times,
+                    cost + _ion_penalty(ion),
+                )
+                if cut[0]:
+                    return
+        floor = floor_at(len(candidates), left, chosen, charge, cost, len(candidates))
+        if floor is not None:
+            leaf(left, chosen, charge, cost, floor)
+
+    walk(0, dict(remaining), [], 0.0, 0.0)
+    _WORK[0] += nodes
+    budget[0] -= nodes + spent[0]
+    return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
+
+
+# monatomic ions an organic formula may hold as one side of its ion pair
+_ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
+
+
+@per_input(maxsize=65536)
+def _ion_pair_readings(counts_key: tuple[tuple[str, float], ...]):
+    """Readings of an organic formula as exactly one cation and one anion.
+
+    The ions are library ions (or H(+) and the halides), at least one of the
+    two inorganic, in whole multiples that use up every atom: carboxylic
+    acids (H(+) with a carboxylate), ammonium and alkylammonium salts of
+    inorganic anions. Ranked by the solver's penalties. For a cation of
+    charge z+ and an anion of charge q-, a cations and b = a z / q anions
+    hold a (c_e + z n_e / q) atoms of each element e (c_e, n_e its atoms in
+    the two ions), so one element fixes a and the others check it. Cost:
+    O(cations x anions x elements), whatever the counts.
+    """
+    counts = dict(counts_key)
+    candidates = [ion for ion in _candidates_for(frozenset(counts)) if _fits(ion.composition, counts)]
+    for symbol, charge in _ORGANIC_PAIR_MONATOMIC:
+        if symbol in counts:
+            candidates.append(monatomic_ion(symbol, charge))
+    # every candidate is made of the formula's elements only: a pair fits only if together they hold all of them
+    anions = [(ion, dict(ion.composition), frozenset(symbol for symbol, _ in ion.composition))
+              for ion in candidates if ion.charge < 0]
+    symbols = tuple(counts)
+    present = frozenset(symbols)
+    readings = []
+    work = 0
+    # hydronium and oxocations (NO(+), NO2(+)) are no cation of an organic
+    # formula: nitro and nitroso compounds, nitrites and nitrates of alcohols
+    # are molecules (common practice)
+    for cation in (ion for ion in candidates if ion.charge > 0 and ion.family != "oxocation" and ion.ion_id not in _ION_PENALTIES):
+        held = dict(cation.composition)
+        held_symbols = frozenset(held)
+        cation_penalty = None
+        for anion, parts, part_symbols in anions:
+            work += 1
+            if (cation.organic and anion.organic) or held_symbols | part_symbols != present:
+                continue
+            ratio = cation.charge / -anion.charge
+            a = None
+            for symbol in symbols:
+                per_cation = held.get(symbol, 0) + ratio * parts.get(symbol, 0)
+                times = counts[symbol] / per_cation
+                if a is None:
+                    a = round(times)
+                    if a < 1 or abs(times - a) > _TOL:
+                        break
+                elif abs(a * per_cation - counts[symbol]) > _TOL:
+                    break
+            else:
+                b, r = divmod(a * cation.charge, -anion.charge)
+                if r:
+                    continue
+                if cation_penalty is None:
+                    cation_penalty = _pair_penalty(cation, counts)
+                penalty = cation_penalty + _pair_penalty(anion, counts) + 2 * _PENALTY_SPECIES
+                readings.append((penalty, [(cation, float(a)), (anion, float(b))]))
+    _WORK[0] += work + 1
+    return readings
