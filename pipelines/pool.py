@@ -107,6 +107,14 @@ def ready() -> None:
 
 _WARM: list = []
 
+# What the first formulas of a table build once per process, built here, in the
+# forkserver, rather than in each worker: the data tables and the solver's
+# first readings (the salts), and the organic ion-pair table
+# (scorer.organic._pairs_by_ratio, 60-85 ms of CPU, which every worker built
+# again at its first formula before C6H12O6 was warmed here; a typo (NaCI)
+# warms the slip reader's symbol table.
+_WARM_TEXTS = ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl", "C6H12O6", "NaCI")
+
 
 def warm_up() -> bool:
     """Load the scorer's data tables and the Madelung constants of every
@@ -116,7 +124,7 @@ def warm_up() -> bool:
     if _WARM:
         return False
     load_aliases_from_environment()  # a user's --aliases, before anything is cached
-    for text in ("NaCl", "CuSO4·5H2O", "[C4mim][BF4]", "Al2O3", "TiO2", "CaF2", "ZnS", "CsCl"):
+    for text in _WARM_TEXTS:
         score_formula(text)
     for name in PROTOTYPES:
         madelung_details(name)

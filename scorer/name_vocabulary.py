@@ -180,10 +180,22 @@ def vocabulary() -> tuple[dict[str, Word], int]:
 
 
 @once
-def _prefixes() -> frozenset[str]:
-    """Every prefix of every word: the cut stops extending a word as soon as
-    no word starts so (a few lookups per position instead of one per length)."""
-    return frozenset(k[:j] for k in vocabulary()[0] for j in range(1, len(k) + 1))
+def _word_trie() -> dict:
+    """The vocabulary as a trie, one level per character: ``{char: [word
+    ending there or None, next level]}``. A character with no entry ends
+    every word that could start so, as a prefix missing from the vocabulary's
+    prefixes did."""
+    root: dict = {}
+    for key, word in vocabulary()[0].items():
+        level = root
+        for position, char in enumerate(key):
+            entry = level.get(char)
+            if entry is None:
+                entry = level[char] = [None, {}]
+            if position == len(key) - 1:
+                entry[0] = word
+            level = entry[1]
+    return root
 
 
 # spellings of the same ligand or group that names use interchangeably: the
@@ -231,6 +243,11 @@ def _ALIASES() -> dict[str, tuple[str, ...]]:
 
 _ELIDED = {"mon": 1, "tetr": 4, "pent": 5, "hex": 6, "hept": 7, "oct": 8, "non": 9, "dec": 10}
 _NUMBER = re.compile(r"\d+(?:\.\d+)?")
+# the stems above by their first letter, in the same order: a position whose letter starts none is skipped
+_ELIDED_BY_FIRST: dict[str, tuple[tuple[str, int], ...]] = {
+    first: tuple((stem, value) for stem, value in _ELIDED.items() if stem[0] == first)
+    for first in {stem[0] for stem in _ELIDED}
+}
 
 
 @per_input(maxsize=16384)
@@ -242,8 +259,7 @@ def tokenise(name: str) -> tuple[Word, ...] | None:
     key = compact(name)
     if not key or len(key) > MAX_NAME_LENGTH:
         return None
-    words, _ = vocabulary()
-    prefixes = _prefixes()
+    trie = _word_trie()
     n = len(key)
     best: list[tuple[int, tuple[Word, ...]] | None] = [None] * (n + 1)
     best[0] = (0, ())
@@ -252,17 +268,22 @@ def tokenise(name: str) -> tuple[Word, ...] | None:
             continue
         cost, path = best[i]
         options: list[tuple[int, Word]] = []
-        j = i + 1
-        while j <= n and key[i:j] in prefixes:
-            word = words.get(key[i:j])
-            if word is not None:
-                options.append((j, word))
+        # the known words starting at i, shortest first, by walking the trie
+        level, j = trie, i
+        while j < n:
+            entry = level.get(key[j])
+            if entry is None:
+                break
             j += 1
-        for stem, value in _ELIDED.items():
+            if entry[0] is not None:
+                options.append((j, entry[0]))
+            level = entry[1]
+        for stem, value in _ELIDED_BY_FIRST.get(key[i], ()):
             j = i + len(stem)
             if key.startswith(stem, i) and j < n and key[j] in "aeiou":
                 options.append((j, Word(stem, "multiplier", number=value)))
-        digits = _NUMBER.match(key, i)
+        # \d is a Unicode decimal digit, as str.isdecimal: the test skips only what cannot match
+        digits = _NUMBER.match(key, i) if key[i].isdecimal() else None
         if digits:
             options.append((digits.end(), Word(digits.group(), "number", number=float(digits.group()))))
         for j, word in options:

@@ -11,6 +11,7 @@ for a refactoring check).
 from __future__ import annotations
 
 import csv
+import functools
 import random
 import re
 
@@ -288,3 +289,74 @@ def test_metal_set_and_cached_characters_match_the_element_records():
         for b in chis:
             d = abs(a - b)
             assert _characters_pct(d) == (pauling_ionic_character_pct(d), hannay_smyth_ionic_character_pct(d))
+
+@functools.cache
+def _vocabulary_prefixes() -> frozenset:
+    from ionicity.scorer.name_vocabulary import vocabulary
+
+    return frozenset(k[:j] for k in vocabulary()[0] for j in range(1, len(k) + 1))
+
+
+def _plain_tokenise(name: str):
+    """scorer.name_vocabulary.tokenise as it was before the trie: every slice of the
+    key looked up in the set of the vocabulary's prefixes, every elided stem and
+    the digit pattern tried at every position."""
+    from ionicity.scorer.name_vocabulary import _ELIDED, _NUMBER, MAX_NAME_LENGTH, Word, compact, vocabulary
+
+    key = compact(name)
+    if not key or len(key) > MAX_NAME_LENGTH:
+        return None
+    words, _ = vocabulary()
+    prefixes = _vocabulary_prefixes()
+    n = len(key)
+    best = [None] * (n + 1)
+    best[0] = (0, ())
+    for i in range(n):
+        if best[i] is None:
+            continue
+        cost, path = best[i]
+        options = []
+        j = i + 1
+        while j <= n and key[i:j] in prefixes:
+            word = words.get(key[i:j])
+            if word is not None:
+                options.append((j, word))
+            j += 1
+        for stem, value in _ELIDED.items():
+            j = i + len(stem)
+            if key.startswith(stem, i) and j < n and key[j] in "aeiou":
+                options.append((j, Word(stem, "multiplier", number=value)))
+        digits = _NUMBER.match(key, i)
+        if digits:
+            options.append((digits.end(), Word(digits.group(), "number", number=float(digits.group()))))
+        for j, word in options:
+            if best[j] is None or best[j][0] > cost + 1:
+                best[j] = (cost + 1, path + (word,))
+    return best[n][1] if best[n] else None
+
+
+def test_trie_tokeniser_cuts_every_name_as_the_prefix_set_did():
+    # the same words in the same order (Word equality: kind, symbol, ion, numbers), or None
+    # for both: generated names of the benchmark's salts, every vocabulary word alone and in
+    # random pairs and triples, elided multipliers, numbers (Arabic-Indic digits among them:
+    # \d and str.isdecimal agree on them) and random letter soup
+    from ionicity.scorer.name_vocabulary import tokenise, vocabulary
+
+    names = [score_formula(f)["systematic_name"] for f in realistic_formulas(3000)]
+    names = [n for n in names if n]
+    assert len(names) > 200
+    words = sorted(vocabulary()[0])
+    rng = random.Random(11)
+    names += words
+    names += [" ".join(rng.sample(words, rng.choice((2, 3)))) for _ in range(3000)]
+    names += ["dinitrogen pentoxide", "carbon monoxide", "osmium tetroxide", "copper(II) sulfate 5-hydrate",
+              "iron(3+) chloride", "cobalt(II) chloride \u0666-hydrate", "sodium 2.5-hydrate", "nonahydrate"]
+    names += ["".join(rng.choice("aehilmnoprstuxyz()0123456789") for _ in range(rng.randint(1, 40)))
+              for _ in range(3000)]
+    cut = 0
+    for name in names:
+        tokenise.cache_clear()
+        fast = tokenise(name)
+        assert fast == _plain_tokenise(name), name
+        cut += fast is not None
+    assert cut > 3000  # most names above are cut into words, the soup mostly not
