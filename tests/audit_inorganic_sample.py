@@ -160,17 +160,6 @@ def class_band_holds(melting_class: str, tm_K: float) -> bool:
     return lo <= tm_K < hi
 
 
-if __name__ == "__main__":
-    if sys.argv[1:] == ["draw"]:
-        sample = draw()
-        print(Counter(r["stratum"] for r in sample), len(sample), file=sys.stderr)
-        w = csv.writer(sys.stdout)
-        w.writerow(["formula", "name", "cas", "stratum", "half", "registry_Tm_K"])
-        for r in sample:
-            tm = registry_tm_K(r["cas"])
-            w.writerow([r["formula"], r["name"], r["cas"], r["stratum"], r["half"], "" if tm is None else round(tm, 2)])
-
-
 def verdicts(formula: str) -> dict[str, str]:
     """ionicity's current verdict on one formula (the columns the audit compares)."""
     from ionicity.scorer.record import score_formula
@@ -204,3 +193,19 @@ def agreement(rows, prefix: str = "") -> dict[str, dict[str, tuple[int, int]]]:
 def read_audit() -> list[dict[str, str]]:
     with open(AUDIT_CSV, encoding="utf-8") as fh:
         return list(csv.DictReader(fh))
+
+
+if __name__ == "__main__":
+    if sys.argv[1:] == ["score"]:
+        audit_rows = read_audit()
+        for label, prefix in (("before", "before_"), ("now", "")):
+            for h, figures in agreement(audit_rows, prefix).items():
+                print(label, "half", h, "  ".join(f"{k} {a}/{n} ({a / n:.0%})" for k, (a, n) in figures.items()))
+    elif sys.argv[1:] == ["draw"]:
+        sample = draw()
+        print(Counter(r["stratum"] for r in sample), len(sample), file=sys.stderr)
+        w = csv.writer(sys.stdout)
+        w.writerow(["formula", "name", "cas", "stratum", "half", "registry_Tm_K"])
+        for r in sample:
+            tm = registry_tm_K(r["cas"])
+            w.writerow([r["formula"], r["name"], r["cas"], r["stratum"], r["half"], "" if tm is None else round(tm, 2)])
