@@ -395,12 +395,14 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
     molecular_halide = high_valent_halide_reason(counts)
     if molecular_halide is not None:
         return "covalent_molecular", "not_applicable", [molecular_halide]
-    if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(dec.cations) == 1:
-        hydride = covalent_hydride_class(dec.cations[0].ion.element)
+    hydride_of = {t.ion.element for t in dec.cations}
+    if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(hydride_of) == 1:
+        # one element, perhaps in two states (Sn2H6 read as Sn(2+) and Sn(4+))
+        hydride = covalent_hydride_class(hydride_of.pop())
         if hydride is not None:
             cls, dchi = hydride
             return cls, "not_applicable", [
-                f"a hydride of a p-block or group-12 element: dchi(E-H) = {dchi:.2f}, a nearly non-polar bond,"
+                f"a hydride of a main-group or group-12 element: dchi(E-H) = {dchi:.2f}, a nearly non-polar bond,"
                 f" {'molecular' if cls == 'covalent_molecular' else 'polymeric'}; H(-) needs an electropositive"
                 " metal (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.5; from memory)"
             ]

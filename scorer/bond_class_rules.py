@@ -18,7 +18,7 @@ the chemistry of the element pair (found by an audit of registry compounds,
   and the acetylides of group 11.
 * :func:`covalent_hydride_class`: H(-) exists only beside electropositive
   metals (Pauling electronegativity of H 2.20). With a p-block or group-12
-  element the E-H bond is nearly non-polar: dchi < 0.5 gives molecular
+  element, or beryllium, the E-H bond is nearly non-polar: dchi < 0.5 gives molecular
   hydrides (SnH4, BiH3, Ga2H6), 0.5 <= dchi < 0.75 polymeric ones (AlH3,
   BeH2, ZnH2: the "intermediate" hydrides, Greenwood & Earnshaw ch. 3.5;
   boundaries common practice: Pauling's ionic character is 6 % at dchi 0.5
@@ -92,16 +92,17 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
 
 
 def covalent_hydride_class(cation_element: str | None) -> tuple[str, float] | None:
-    """(substance_class, dchi) of the hydride of a p-block or group-12 element; None for a saline one.
+    """(substance_class, dchi) of a covalent hydride of an s-, p-block or group-12 element;
+    None for a saline hydride (dchi >= 0.75) or a d- or f-block metal.
 
-    >>> covalent_hydride_class("Bi")[0], covalent_hydride_class("Al")[0], covalent_hydride_class("Na")
+    >>> covalent_hydride_class("Bi")[0], covalent_hydride_class("Be")[0], covalent_hydride_class("Na")
     ('covalent_molecular', 'covalent_network', None)
     """
     if cation_element is None:
         return None
     element = get_element(cation_element)
-    if not (element.block == "p" or _d_group(cation_element) == 12):
-        return None
+    if element.block == "f" or (element.block == "d" and _d_group(cation_element) != 12):
+        return None  # metallic hydrides: interstitial_reason
     dchi = abs(get_element("H").electronegativity_pauling - element.electronegativity_pauling)
     if dchi < HYDRIDE_MOLECULAR_MAX_DCHI:
         return "covalent_molecular", dchi

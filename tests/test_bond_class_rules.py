@@ -59,14 +59,15 @@ def test_pnictides(formula, expected):
     assert _verdict(formula)[1] == expected
 
 
-# Hydrides: saline (s-block), metallic (d, f block), molecular (p block),
+# Hydrides: saline (s-block but Be), metallic (d, f block), molecular (p block),
 # polymeric (Be, Al, Zn) -- Greenwood & Earnshaw ch. 3.5, from memory.
 @pytest.mark.parametrize("formula,expected", [
     ("NaH", "ionic_salt"), ("CaH2", "ionic_salt"), ("MgH2", "ionic_salt"),
     ("ZrH2", "intermetallic"), ("TiH2", "intermetallic"),
     ("SnH4", "covalent_molecular"), ("BiH3", "covalent_molecular"), ("SbH3", "covalent_molecular"),
     ("Ga2H6", "covalent_molecular"),  # digallane, a molecule (Downs et al., JACS 1989, 111, 1936; from memory)
-    ("AlH3", "covalent_network"), ("ZnH2", "covalent_network"),
+    ("AlH3", "covalent_network"), ("ZnH2", "covalent_network"), ("BeH2", "covalent_network"),
+    ("Si2H6", "covalent_molecular"), ("Sn2H6", "covalent_molecular"),
     ("LiAlH4", "ionic_salt"), ("NaBH4", "ionic_salt"),
 ])
 def test_hydrides(formula, expected):
@@ -78,7 +79,8 @@ def test_hydride_boundaries_follow_pauling_electronegativity():
     # The Nature of the Chemical Bond, 3rd ed., 1960, table 3-8)
     assert covalent_hydride_class("Sn") == ("covalent_molecular", pytest.approx(0.24, abs=0.01))
     assert covalent_hydride_class("Al")[0] == "covalent_network"
-    assert covalent_hydride_class("Mg") is None  # s block: saline
+    assert covalent_hydride_class("Mg") is None  # dchi 0.89: saline
+    assert covalent_hydride_class("Be")[0] == "covalent_network"  # dchi 0.63: polymeric
     assert covalent_hydride_class("Ti") is None  # d block: metallic, decided elsewhere
     assert HYDRIDE_MOLECULAR_MAX_DCHI < 2.20 - 1.61 < HYDRIDE_POLYMERIC_MAX_DCHI
 
