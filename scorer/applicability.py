@@ -54,7 +54,7 @@ is Na(+) Tl(-)).
 Before criterion 2, :mod:`scorer.bond_class_rules` takes out two kinds of
 balanced readings that are not salts: a single metal in formal oxidation
 state 5 or more with halide (and oxide) ligands is molecular (RuF6, ReOCl4),
-and the hydride of a p-block or group-12 element is molecular or polymeric
+MX2 of a group 4-6 metal with S, Se, Te is a layer solid (MoS2), and the hydride of a p-block or group-12 element is molecular or polymeric
 (BiH3, AlH3).
 
 Two further decisions live here because they are about which ions can exist,
@@ -81,7 +81,12 @@ import math
 import re
 
 from ionicity.scorer import character, fajans
-from ionicity.scorer.bond_class_rules import covalent_hydride_class, high_valent_halide_reason, interstitial_reason
+from ionicity.scorer.bond_class_rules import (
+    covalent_hydride_class,
+    high_valent_halide_reason,
+    interstitial_reason,
+    layered_dichalcogenide_reason,
+)
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
@@ -395,6 +400,9 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
     molecular_halide = high_valent_halide_reason(counts)
     if molecular_halide is not None:
         return "covalent_molecular", "not_applicable", [molecular_halide]
+    layers = layered_dichalcogenide_reason(counts)
+    if layers is not None:
+        return "chain_layer_solid", "not_applicable", [layers]
     hydride_of = {t.ion.element for t in dec.cations}
     if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(hydride_of) == 1:
         # one element, perhaps in two states (Sn2H6 read as Sn(2+) and Sn(4+))

@@ -30,6 +30,11 @@ the chemistry of the element pair (found by an audit of registry compounds,
   metal's coordination in a discrete unit (Greenwood & Earnshaw, ch. 22-25;
   from memory). The oxides of such metals are frameworks instead
   (:mod:`scorer.applicability`, criterion 3).
+* :func:`layered_dichalcogenide_reason`: MX2 of a group 4-6 transition
+  metal with S, Se or Te is a layer solid (X-M-X sandwiches held by van der
+  Waals contacts: MoS2, WS2, TiS2, NbSe2, MoTe2; Wilson & Yoffe, Adv. Phys.
+  1969, 18, 193). Later groups are left to the solver: pyrite-type FeS2,
+  MnS2 and NiS2 hold S2(2-) ions.
 """
 from __future__ import annotations
 
@@ -43,6 +48,7 @@ __all__ = [
     "interstitial_reason",
     "covalent_hydride_class",
     "high_valent_halide_reason",
+    "layered_dichalcogenide_reason",
 ]
 
 HYDRIDE_MOLECULAR_MAX_DCHI = 0.5
@@ -50,6 +56,8 @@ HYDRIDE_POLYMERIC_MAX_DCHI = 0.75
 HIGH_VALENT_MIN_STATE = 5
 _HALOGENS = frozenset({"F", "Cl", "Br", "I"})
 _PNICTOGENS = frozenset({"P", "As", "Sb"})
+_CHALCOGENS = frozenset({"S", "Se", "Te"})
+_LAYER_GROUPS = range(4, 7)
 
 
 def _d_group(symbol: str) -> int | None:
@@ -130,4 +138,23 @@ def high_valent_halide_reason(counts: dict[str, float]) -> str | None:
         f"{metals[0]} in formal oxidation state +{state:g} with halide ligands: no halide lattice returns"
         f" the ionisation energies of {metals[0]}({state:g}+); a discrete molecule (MF6, MOCl4, M2Cl10;"
         " Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 22-25; from memory)"
+    )
+
+
+def layered_dichalcogenide_reason(counts: dict[str, float]) -> str | None:
+    """Why MX2 (M of groups 4-6, X = S, Se, Te) is a layer solid; None otherwise.
+
+    >>> layered_dichalcogenide_reason({"Mo": 1.0, "S": 2.0}) is not None
+    True
+    >>> layered_dichalcogenide_reason({"Fe": 1.0, "S": 2.0}), layered_dichalcogenide_reason({"Ti": 1.0, "O": 2.0})
+    (None, None)
+    """
+    if len(counts) != 2:
+        return None
+    (m, n_m), (x, n_x) = sorted(counts.items(), key=lambda item: item[0] in _CHALCOGENS)
+    if x not in _CHALCOGENS or _d_group(m) not in _LAYER_GROUPS or abs(n_x - 2.0 * n_m) > 1e-9:
+        return None
+    return (
+        f"{m}{x}2: a layered transition-metal dichalcogenide, {x}-{m}-{x} sandwiches held by van der Waals"
+        " contacts, not a point-ion crystal (Wilson & Yoffe, Adv. Phys. 1969, 18, 193)"
     )

@@ -16,6 +16,7 @@ import pytest
 
 from ionicity.scorer.bond_class_rules import (
     HYDRIDE_MOLECULAR_MAX_DCHI,
+    layered_dichalcogenide_reason,
     HYDRIDE_POLYMERIC_MAX_DCHI,
     covalent_hydride_class,
     high_valent_halide_reason,
@@ -103,6 +104,21 @@ def test_salts_with_high_valent_metals_or_low_states_stay_salts(formula):
 def _counts(formula):
     from ionicity.scorer.formula import parse_formula
     return parse_formula(formula).counts
+
+
+# Layered dichalcogenides of groups 4-6 (Wilson & Yoffe, Adv. Phys. 1969, 18, 193,
+# table 1); pyrite FeS2 holds S2(2-) (Wells, Structural Inorganic Chemistry, 5th
+# ed., 1984, ch. 17; from memory) and stays a salt reading.
+@pytest.mark.parametrize("formula", ["MoS2", "WS2", "TiS2", "ZrSe2", "NbSe2", "TaS2", "MoTe2", "HfS2"])
+def test_group_4_to_6_dichalcogenides_are_layer_solids(formula):
+    assert _verdict(formula)[1:] == ("chain_layer_solid", "not_applicable")
+
+
+def test_layer_rule_leaves_pyrite_oxides_and_other_ratios():
+    assert layered_dichalcogenide_reason({"Fe": 1.0, "S": 2.0}) is None
+    assert layered_dichalcogenide_reason({"Ti": 1.0, "O": 2.0}) is None
+    assert layered_dichalcogenide_reason({"Mo": 2.0, "S": 3.0}) is None
+    assert _verdict("FeS2")[1] == "ionic_salt"
 
 
 def test_interstitial_reason_needs_one_partner():
