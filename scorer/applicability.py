@@ -53,8 +53,8 @@ is Na(+) Tl(-)).
 
 Before criterion 2, :mod:`scorer.bond_class_rules` takes out two kinds of
 balanced readings that are not salts: a single metal in formal oxidation
-state 5 or more with halide (and oxide) ligands is molecular (RuF6, ReOCl4),
-MX2 of a group 4-6 metal with S, Se, Te is a layer solid (MoS2), and the hydride of a p-block or group-12 element is molecular or polymeric
+state 6 or more with halide (and oxide) ligands is molecular (RuF6, ReOCl4),
+and the hydride of a p-block or group-12 element is molecular or polymeric
 (BiH3, AlH3).
 
 Two further decisions live here because they are about which ions can exist,
@@ -65,8 +65,8 @@ not how they are found:
   Angew. Chem. 1939, 52, 1; Nesper, Angew. Chem. Int. Ed. 1991, 30, 789)
   applies where s-block metals give their valence electrons to one p-block
   element or to gold (NaTl, KGe, Mg2Si, CsAu: Jansen, Chem. Soc. Rev. 2008,
-  37, 1826); anything else is an intermetallic without ions. Carbides,
-  nitrides and hydrides of the transition metals and the f block, and
+  37, 1826); anything else is an intermetallic without ions. Carbides
+  and hydrides of the transition metals and the f block, and
   pnictides of groups 4-11, are read the same way (interstitial and
   metal-rich phases: WC, TiN, ZrH2, Fe2P; :mod:`scorer.bond_class_rules`).
 * :func:`redox_conflicts`: a cation that oxidises its anion (Tl(3+) with
@@ -81,12 +81,7 @@ import math
 import re
 
 from ionicity.scorer import character, fajans
-from ionicity.scorer.bond_class_rules import (
-    covalent_hydride_class,
-    high_valent_halide_reason,
-    interstitial_reason,
-    layered_dichalcogenide_reason,
-)
+from ionicity.scorer.bond_class_rules import covalent_hydride_class, high_valent_halide_reason, interstitial_reason
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
@@ -400,9 +395,6 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
     molecular_halide = high_valent_halide_reason(counts)
     if molecular_halide is not None:
         return "covalent_molecular", "not_applicable", [molecular_halide]
-    layers = layered_dichalcogenide_reason(counts)
-    if layers is not None:
-        return "chain_layer_solid", "not_applicable", [layers]
     hydride_of = {t.ion.element for t in dec.cations}
     if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(hydride_of) == 1:
         # one element, perhaps in two states (Sn2H6 read as Sn(2+) and Sn(4+))

@@ -132,7 +132,7 @@ def saline_nitride_fraction(cations, anions) -> float:
 
     >>> from ionicity.scorer.formula import parse_formula
     >>> from ionicity.scorer.ions import decompose
-    >>> [saline_nitride_fraction(d.cations, d.anions) for d in map(decompose, map(parse_formula, ("Ca3N2", "ScN", "CaO")))]
+    >>> [saline_nitride_fraction(d.cations, d.anions) for d in map(decompose, map(parse_formula, ("Ca3N2", "TiN", "CaO")))]
     [1.0, 0.0, 0.0]
     """
     anion_total = sum(t.count for t in anions)

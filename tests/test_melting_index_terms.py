@@ -45,23 +45,10 @@ def test_charge_step_ratio_reproduces_shannon_radii_one_charge_apart():
 @pytest.mark.parametrize("formula, cas", [
     ("ZrN", "25658-42-8"),  # 3225 K
     ("HfN", "25817-87-2"),  # 3583 K
-])
-def test_interstitial_nitrides_stay_refractory(formula, cas):
-    # ZrN and HfN are interstitial nitrides read without ions (scorer.bond_class_rules;
-    # Greenwood & Earnshaw, 2nd ed., 1997, ch. 11.3.3, from memory): the element-mixture
-    # route gives their index, in the band of the registry melting point (chemicals)
-    measured = _tm(cas)
-    record = score_formula(formula)
-    assert record["substance_class"] == "intermetallic"
-    assert math.isfinite(record["mp_trend_index"])
-    assert record["melting_class"] == melting_routes.melting_class_for(measured, salt=False) == "refractory"
-
-
-@pytest.mark.parametrize("formula, cas", [
     ("NbO", "12034-57-0"),  # 2210 K
 ])
 def test_compounds_of_cations_shannon_does_not_list_get_an_index_and_say_why(formula, cas):
-    # Nb(2+) has no Shannon radius: a stand-in of the same charge gives the lattice energy
+    # Zr(3+), Hf(3+), Nb(2+) have no Shannon radius: a stand-in of the same charge gives the lattice energy
     measured = _tm(cas)
     values, notes = melting.describe(decompose(parse_formula(formula)))
     assert math.isfinite(values["mp_trend_index"])
