@@ -51,6 +51,12 @@ does not apply and the compound is molecular, a chain or layer solid, a
 semiconductor or an intermetallic; Zintl phases keep their formal ions (NaTl
 is Na(+) Tl(-)).
 
+Before criterion 2, :mod:`scorer.bond_class_rules` takes out two kinds of
+balanced readings that are not salts: a single metal in formal oxidation
+state 6 or more with halide (and oxide) ligands is molecular (RuF6, ReOCl4),
+and the hydride of a p-block or group-12 element is molecular or polymeric
+(BiH3, AlH3).
+
 Two further decisions live here because they are about which ions can exist,
 not how they are found:
 
@@ -59,7 +65,10 @@ not how they are found:
   Angew. Chem. 1939, 52, 1; Nesper, Angew. Chem. Int. Ed. 1991, 30, 789)
   applies where s-block metals give their valence electrons to one p-block
   element or to gold (NaTl, KGe, Mg2Si, CsAu: Jansen, Chem. Soc. Rev. 2008,
-  37, 1826); anything else is an intermetallic without ions.
+  37, 1826); anything else is an intermetallic without ions. Carbides
+  and hydrides of the transition metals and the f block, and
+  pnictides of groups 4-11, are read the same way (interstitial and
+  metal-rich phases: WC, TiN, ZrH2, Fe2P; :mod:`scorer.bond_class_rules`).
 * :func:`redox_conflicts`: a cation that oxidises its anion (Tl(3+) with
   I(-), Fe(3+) with I(-), Cu(2+) with I(-)) from standard reduction
   potentials (``scorer/data/redox_potentials.csv``); the solver then looks
@@ -71,6 +80,7 @@ import math
 import re
 
 from ionicity.scorer import character, fajans
+from ionicity.scorer.bond_class_rules import covalent_hydride_class, high_valent_halide_reason, interstitial_reason
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
@@ -271,7 +281,8 @@ def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tu
     symbols = set(counts)
     if len(symbols) < 2 or not any(is_metal(s) for s in symbols):
         return None
-    if not all(is_metal(s) or s in METAL_RICH_PARTNERS for s in symbols):
+    interstitial = interstitial_reason(counts)
+    if interstitial is None and not all(is_metal(s) or s in METAL_RICH_PARTNERS for s in symbols):
         return None
     base = dict(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral)
     family = structural_family(counts)
@@ -283,7 +294,7 @@ def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tu
         )
     donors = {s: _group_valence(s) for s in symbols}
     acceptors = [s for s, v in donors.items() if v is None]
-    if len(acceptors) == 1 and len(symbols) >= 2:
+    if interstitial is None and len(acceptors) == 1 and len(symbols) >= 2:
         b = acceptors[0]
         element = get_element(b)
         electrons = sum(donors[s] * counts[s] for s in symbols if s != b)
@@ -310,7 +321,7 @@ def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tu
             )
     whole = all(abs(n - round(n)) < 1e-9 for n in counts.values())
     cls = "intermetallic" if whole else "metallic"
-    reason = (
+    reason = interstitial or (
         "metals (with B, Si or Ge) in whole-number ratio and no Zintl reading: an intermetallic compound"
         " held by metallic bonding, without ions"
         if whole else "metals in non-integer ratio: a metallic solid solution, without ions"
@@ -380,6 +391,20 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
             f" sp3 bonds ({source}); ionic values {'strained' if model == 'strained' else 'not meaningful'}"
             f" (f_i {'>=' if model == 'strained' else '<'} {STRAINED_MIN_IONICITY}, common practice)"
         ]
+    molecular_halide = high_valent_halide_reason(counts)
+    if molecular_halide is not None:
+        return "covalent_molecular", "not_applicable", [molecular_halide]
+    hydride_of = {t.ion.element for t in dec.cations}
+    if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(hydride_of) == 1:
+        # one element, perhaps in two states (Sn2H6 read as Sn(2+) and Sn(4+))
+        hydride = covalent_hydride_class(hydride_of.pop())
+        if hydride is not None:
+            cls, dchi = hydride
+            return cls, "not_applicable", [
+                f"a hydride of a main-group or group-12 element: dchi(E-H) = {dchi:.2f}, a nearly non-polar bond,"
+                f" {'molecular' if cls == 'covalent_molecular' else 'polymeric'}; H(-) needs an electropositive"
+                " metal (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.5; from memory)"
+            ]
     charge = _bare_cation_charge(dec)
     anion_elements = {t.ion.element for t in dec.anions}
     if charge >= 5 and anion_elements == {"O"} and all(t.ion.monatomic for t in dec.anions) and len(dec.cations) == 1:
