@@ -7,6 +7,9 @@ of the work is done. See DEVELOPERS.md, "The charge-balance solver and its cost"
 """
 from __future__ import annotations
 
+import math
+from decimal import Decimal
+
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.ion_penalties import (
     _PENALTY_FRACTIONAL_SPLIT,
@@ -109,18 +112,66 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
 
 
+def _scaled_counts(n_of) -> tuple[int, list[int]]:
+    """(scale, counts x scale): the smallest power of ten that makes every
+    count whole, and the whole counts. The counts reach the knapsack rounded to
+    1e-9 (:func:`_assign_monatomic`), so their shortest decimal form has at most
+    nine decimals and the scale is at most 10**9."""
+    decimals = [0 if float(n).is_integer() else -Decimal(repr(float(n))).as_tuple().exponent for n in n_of]
+    scale = 10 ** max(decimals, default=0)
+    return scale, [int(Decimal(repr(float(n))).scaleb(max(decimals, default=0))) for n in n_of]
+
+
+def _least_scaled(x: float, scale: int) -> int:
+    """The least whole c with c / scale >= x, as Python compares them."""
+    c = math.ceil(x * scale)
+    while (c - 1) / scale >= x:
+        c -= 1
+    while c / scale < x:
+        c += 1
+    return c
+
+
+def _most_scaled(x: float, scale: int) -> int:
+    """The greatest whole c with c / scale <= x, as Python compares them."""
+    c = math.floor(x * scale)
+    while (c + 1) / scale <= x:
+        c += 1
+    while c / scale > x:
+        c -= 1
+    return c
+
+
+def _cheapest_states(following: dict, needed: float, scale: int) -> dict:
+    """The ``_MAX_TABLE`` cheapest states of a table, then those nearest
+    ``needed``, in that order (the order of a sort of the whole table by that
+    key: it decides which ties later tables keep). Only the states at or under
+    the 64th lowest penalty are ranked by the whole key."""
+    penalties = [penalty for penalty, _ in following.values()]
+    # a table holds few distinct penalties (sums of a few option penalties): each rounded once
+    rounded = {penalty: round(penalty, 9) for penalty in set(penalties)}
+    ranked = [rounded[penalty] for penalty in penalties]
+    cut = sorted(ranked)[_MAX_TABLE - 1]
+    within = [(r, kv) for r, kv in zip(ranked, following.items()) if r <= cut]
+    within.sort(key=lambda rkv: (rkv[0], abs(needed - rkv[1][0][0] / scale), rkv[1][0]))
+    return dict([kv for _, kv in within[:_MAX_TABLE]])
+
+
 def _knapsack(singles, splits, n_of, needed: float, cap: float):
     """Charge balance as a bounded knapsack over the elements' oxidation states.
 
     Dynamic programming, one element at a time. A table maps each state
-    reached so far -- the charge carried (rounded to 1e-9), and with
-    ``splits`` which element is split over two states, whose charge is
-    settled at the end -- to its lowest penalty and the choices reaching it at
-    that penalty (ties kept up to ``_MAX_TIES``). A state from which
-    ``needed`` can no longer be reached, or whose penalty exceeds ``cap``, is
-    dropped; a table keeps at most ``_MAX_TABLE`` states, the cheapest (then
-    those nearest the charge still needed). Work: O(elements x _MAX_TABLE x
-    options), whatever the counts.
+    reached so far -- the charge carried, and with ``splits`` which element
+    is split over two states, whose charge is settled at the end -- to its
+    lowest penalty and the choices reaching it at that penalty (ties kept up
+    to ``_MAX_TIES``). A state from which ``needed`` can no longer be reached,
+    or whose penalty exceeds ``cap``, is dropped; a table keeps at most
+    ``_MAX_TABLE`` states, the cheapest (then those nearest the charge still
+    needed). Work: O(elements x _MAX_TABLE x options), whatever the counts.
+
+    The charge is kept as a whole number, in units of 1 / scale
+    (:func:`_scaled_counts`): exact, with no rounding per transition, and
+    ``charge / scale`` is the float the charge rounded to 1e-9 would be.
 
     Without ``splits``: (penalty, states) of the cheapest single-state
     assignments summing to ``needed``. With them: the assignments with
@@ -135,24 +186,25 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
             spans += [s * n_of[i] for (pair, _) in splits[i] for s in pair]
         lows[i] = lows[i + 1] + min(spans)
         highs[i] = highs[i + 1] + max(spans)
-    # key: (charge of the single-state elements, (split element, its two states) or ())
-    table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
+    scale, scaled = _scaled_counts(n_of)
+    # key: (charge x scale of the single-state elements, (split element, its two states) or ())
+    table: dict[tuple[int, tuple], tuple[float, tuple]] = {(0, ()): (0.0, ((),))}
     work = 0
-    # whole counts keep the charge an integer: no rounding per transition
-    whole = all([float(n).is_integer() for n in n_of])
+    over = cap + _TOL
     for i, options in enumerate(singles):
-        n = int(n_of[i]) if whole else n_of[i]
-        lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
-        following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
+        moves = [(state * scaled[i], state, option_penalty) for state, option_penalty in options]
+        lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
+        hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
+        following: dict[tuple[int, tuple], tuple[float, tuple]] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
         # than a helper: this loop is most of the solver's time)
         for (charge, split), (penalty, picks) in table.items():
-            for state, option_penalty in options:
+            for move, state, option_penalty in moves:
                 work += 1
                 p = penalty + option_penalty
-                if p > cap + _TOL:
+                if p > over:
                     continue
-                c = charge + state * n if whole else round(charge + state * n, 9)
+                c = charge + move
                 if not split and not lo <= c <= hi:
                     continue
                 key = (c, split)
@@ -165,7 +217,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
                 for pair, option_penalty in splits[i]:
                     work += 1
                     p = penalty + option_penalty
-                    if p > cap + _TOL:
+                    if p > over:
                         continue
                     key = (charge, (i, pair))
                     held = following.get(key)
@@ -174,13 +226,12 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
                     elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
                         following[key] = (held[0], held[1] + tuple([k + (pair,) for k in picks[: _MAX_TIES - len(held[1])]]))
         if len(following) > _MAX_TABLE:
-            # the cheapest states, then those nearest what is still needed
-            kept = sorted(following.items(), key=lambda kv: (round(kv[1][0], 9), abs(needed - kv[0][0]), kv[0]))
-            following = dict(kept[:_MAX_TABLE])
+            following = _cheapest_states(following, needed, scale)
         table = following
     _WORK[0] += work + 1
     found = []
-    for (charge, split), (penalty, choices) in table.items():
+    for (scaled_charge, split), (penalty, choices) in table.items():
+        charge = scaled_charge / scale
         if not split:
             if abs(charge - needed) < _TOL:
                 found.extend((penalty, picks) for picks in choices)
