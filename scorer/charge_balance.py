@@ -147,7 +147,7 @@ def _cheapest_states(following: dict, needed: float, scale: int) -> dict:
     ``needed``, in that order (the order of a sort of the whole table by that
     key: it decides which ties later tables keep). Only the states at or under
     the 64th lowest penalty are ranked by the whole key."""
-    penalties = [penalty for penalty, _ in following.values()]
+    penalties = [held[0] for held in following.values()]
     # a table holds few distinct penalties (sums of a few option penalties): each rounded once
     rounded = {penalty: round(penalty, 9) for penalty in set(penalties)}
     ranked = [rounded[penalty] for penalty in penalties]
@@ -155,6 +155,24 @@ def _cheapest_states(following: dict, needed: float, scale: int) -> dict:
     within = [(r, kv) for r, kv in zip(ranked, following.items()) if r <= cut]
     within.sort(key=lambda rkv: (rkv[0], abs(needed - rkv[1][0][0] / scale), rkv[1][0]))
     return dict([kv for _, kv in within[:_MAX_TABLE]])
+
+
+def _choices(tables: list[dict], level: int, state_key, written: dict) -> tuple:
+    """The choices reaching ``state_key`` of table ``level``: tuples of one
+    option per element so far, at most ``_MAX_TIES``, in the order they were
+    found -- the previous state's choices in its order, each extended by the
+    option taken, as long as fewer than ``_MAX_TIES`` are held. ``written``
+    keeps those already written out (a state reached by several others)."""
+    if level == 0:
+        return ((),)
+    done = written.get((level, state_key))
+    if done is None:
+        held: list = []
+        for previous, option in tables[level][state_key][2]:
+            earlier = _choices(tables, level - 1, previous, written)
+            held.extend([k + (option,) for k in earlier[: _MAX_TIES - len(held)]])
+        done = written[(level, state_key)] = tuple(held)
+    return done
 
 
 def _knapsack(singles, splits, n_of, needed: float, cap: float):
@@ -187,20 +205,27 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
         lows[i] = lows[i + 1] + min(spans)
         highs[i] = highs[i + 1] + max(spans)
     scale, scaled = _scaled_counts(n_of)
-    # key: (charge x scale of the single-state elements, (split element, its two states) or ())
-    table: dict[tuple[int, tuple], tuple[float, tuple]] = {(0, ()): (0.0, ((),))}
+    # key: (charge x scale of the single-state elements, (split element, its two states) or ()).
+    # value: [penalty, how many choices reach it (at most _MAX_TIES), [(state of the
+    # previous table, option taken), ...]]: the choices are written out only for the
+    # states of the last table (:func:`_choices`), not at every transition
+    table: dict[tuple[int, tuple], list] = {(0, ()): [0.0, 1, []]}
+    tables = [table]
     work = 0
     over = cap + _TOL
     for i, options in enumerate(singles):
         moves = [(state * scaled[i], state, option_penalty) for state, option_penalty in options]
         lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
         hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
-        following: dict[tuple[int, tuple], tuple[float, tuple]] = {}
+        split_options = splits[i] if splits else ()
+        following: dict[tuple[int, tuple], list] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
         # than a helper: this loop is most of the solver's time)
-        for (charge, split), (penalty, picks) in table.items():
+        for state_key, (penalty, count, _) in table.items():
+            charge, split = state_key
+            # every option tried counts, whether or not it is kept
+            work += len(moves)
             for move, state, option_penalty in moves:
-                work += 1
                 p = penalty + option_penalty
                 if p > over:
                     continue
@@ -210,36 +235,43 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
                 key = (c, split)
                 held = following.get(key)
                 if held is None or p < held[0] - _TOL:
-                    following[key] = (p, tuple([k + (state,) for k in picks[:_MAX_TIES]]))
-                elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                    following[key] = (held[0], held[1] + tuple([k + (state,) for k in picks[: _MAX_TIES - len(held[1])]]))
-            if splits and not split:
-                for pair, option_penalty in splits[i]:
-                    work += 1
+                    following[key] = [p, count, [(state_key, state)]]
+                elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
+                    held[1] = min(held[1] + count, _MAX_TIES)
+                    held[2].append((state_key, state))
+            if split_options and not split:
+                work += len(split_options)
+                for pair, option_penalty in split_options:
                     p = penalty + option_penalty
                     if p > over:
                         continue
                     key = (charge, (i, pair))
                     held = following.get(key)
                     if held is None or p < held[0] - _TOL:
-                        following[key] = (p, tuple([k + (pair,) for k in picks[:_MAX_TIES]]))
-                    elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                        following[key] = (held[0], held[1] + tuple([k + (pair,) for k in picks[: _MAX_TIES - len(held[1])]]))
+                        following[key] = [p, count, [(state_key, pair)]]
+                    elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
+                        held[1] = min(held[1] + count, _MAX_TIES)
+                        held[2].append((state_key, pair))
         if len(following) > _MAX_TABLE:
             following = _cheapest_states(following, needed, scale)
         table = following
+        tables.append(table)
     _WORK[0] += work + 1
     found = []
-    for (scaled_charge, split), (penalty, choices) in table.items():
+    written: dict = {}
+    last = len(tables) - 1
+    for state_key, (penalty, _, _) in table.items():
+        scaled_charge, split = state_key
         charge = scaled_charge / scale
         if not split:
             if abs(charge - needed) < _TOL:
-                found.extend((penalty, picks) for picks in choices)
+                found.extend((penalty, picks) for picks in _choices(tables, last, state_key, written))
             continue
         rest = needed - charge
         j, (s1, s2) = split
         if s1 * n_of[j] + _TOL < rest < s2 * n_of[j] - _TOL:
-            found.extend((penalty, picks[:j] + (((s1, s2), rest),) + picks[j + 1:]) for picks in choices)
+            found.extend((penalty, picks[:j] + (((s1, s2), rest),) + picks[j + 1:])
+                         for picks in _choices(tables, last, state_key, written))
     return found
 
 
