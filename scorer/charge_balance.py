@@ -68,33 +68,30 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     counts = {s: n for s, n in remaining}
     if not symbols:
         return ((0.0, ()),) if abs(needed) < _TOL else ()
-    per_symbol = [_monatomic_options(s, counts[s]) for s in symbols]
-    if excluded:
-        # states ruled out by redox (Tl(3+) beside I(-)): see scorer.applicability.redox_conflicts
-        per_symbol = [
-            tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
-            for s, options in zip(symbols, per_symbol)
-        ]
-    singles = [tuple([(state, penalty) for kind, state, penalty in options if kind == "single"]) for options in per_symbol]
+    elements = [_element_choices(s, counts[s], excluded) for s in symbols]
+    singles = [element[0] for element in elements]
     if any(not options for options in singles):
         return ()
     n_of = [counts[s] for s in symbols]
+    spans = [element[2] for element in elements]
+    decimals = max(element[3] for element in elements)
+    scale = 10 ** decimals
+    scaled = [element[4] * 10 ** (decimals - element[3]) for element in elements]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
     stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
-        for penalty, picks in _knapsack(singles, (), n_of, needed, cap)
+        for penalty, picks in _knapsack(singles, (), n_of, needed, cap, spans, scale, scaled)
     ]
     best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
     # single states everywhere first: a reading with one element split has one
     # species more and pays the split's penalty, so it competes only where no
     # single-state reading is that cheap
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
-    splits = [tuple([(state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL])
-              for options in per_symbol]
+    splits = [tuple([(pair, penalty) for pair, penalty in element[1] if penalty <= mixed_cap + _TOL]) for element in elements]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
-        for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap):
+        for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap, spans, scale, scaled):
             j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
             (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
             # x ions at s1 and n - x at s2 carry the charge the others leave
@@ -112,18 +109,34 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
 
 
-def _scaled_counts(n_of) -> tuple[int, list[int]]:
-    """(scale, counts x scale): the smallest power of ten that makes every
-    count whole, and the whole counts. The counts reach the knapsack rounded to
-    1e-9 (:func:`_assign_monatomic`), so their shortest decimal form has at most
-    nine decimals and the scale is at most 10**9."""
-    decimals = [0 if float(n).is_integer() else -Decimal(repr(float(n))).as_tuple().exponent for n in n_of]
-    scale = 10 ** max(decimals, default=0)
-    return scale, [int(Decimal(repr(float(n))).scaleb(max(decimals, default=0))) for n in n_of]
+@per_input(maxsize=65536)
+def _element_choices(symbol: str, count: float, excluded=frozenset()):
+    """What the knapsack needs of one leftover element, computed once per
+    (element, count): (single states ((state, penalty), ...), splits over two
+    states (((s1, s2), penalty), ...), (least, greatest) charge of a single
+    state, decimals, count x 10**decimals). Counts reach the solver rounded to
+    1e-9 (:func:`_assign_monatomic`), so their shortest decimal form has at
+    most nine decimals and the whole count is exact."""
+    options = _monatomic_options(symbol, count)
+    if excluded:
+        # states ruled out by redox (Tl(3+) beside I(-)): see scorer.applicability.redox_conflicts
+        options = tuple(o for o in options
+                        if not ({(symbol, o[1])} if o[0] == "single" else {(symbol, o[1][0]), (symbol, o[1][1])}) & excluded)
+    singles = tuple([(state, penalty) for kind, state, penalty in options if kind == "single"])
+    splits = tuple([(pair, penalty) for kind, pair, penalty in options if kind == "mixed"])
+    charges = [state * count for state, _ in singles]
+    span = (min(charges), max(charges)) if charges else (0.0, 0.0)
+    if float(count).is_integer():
+        return singles, splits, span, 0, int(count)
+    exact = Decimal(repr(float(count)))
+    decimals = -exact.as_tuple().exponent
+    return singles, splits, span, decimals, int(exact.scaleb(decimals))
 
 
 def _least_scaled(x: float, scale: int) -> int:
     """The least whole c with c / scale >= x, as Python compares them."""
+    if scale == 1:
+        return math.ceil(x)
     c = math.ceil(x * scale)
     while (c - 1) / scale >= x:
         c -= 1
@@ -134,6 +147,8 @@ def _least_scaled(x: float, scale: int) -> int:
 
 def _most_scaled(x: float, scale: int) -> int:
     """The greatest whole c with c / scale <= x, as Python compares them."""
+    if scale == 1:
+        return math.floor(x)
     c = math.floor(x * scale)
     while (c + 1) / scale <= x:
         c += 1
@@ -175,7 +190,7 @@ def _choices(tables: list[dict], level: int, state_key, written: dict) -> tuple:
     return done
 
 
-def _knapsack(singles, splits, n_of, needed: float, cap: float):
+def _knapsack(singles, splits, n_of, needed: float, cap: float, spans, scale: int, scaled):
     """Charge balance as a bounded knapsack over the elements' oxidation states.
 
     Dynamic programming, one element at a time. A table maps each state
@@ -187,9 +202,11 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
     ``_MAX_TABLE`` states, the cheapest (then those nearest the charge still
     needed). Work: O(elements x _MAX_TABLE x options), whatever the counts.
 
-    The charge is kept as a whole number, in units of 1 / scale
-    (:func:`_scaled_counts`): exact, with no rounding per transition, and
-    ``charge / scale`` is the float the charge rounded to 1e-9 would be.
+    ``spans`` holds each element's (least, greatest) charge of a single
+    state; the charge is kept as a whole number, in units of 1 / ``scale``
+    (``scaled``: the counts x ``scale``, :func:`_element_choices`): exact,
+    with no rounding per transition, and ``charge / scale`` is the float the
+    charge rounded to 1e-9 would be.
 
     Without ``splits``: (penalty, states) of the cheapest single-state
     assignments summing to ``needed``. With them: the assignments with
@@ -199,12 +216,12 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
     lows = [0.0] * (len(singles) + 1)
     highs = [0.0] * (len(singles) + 1)
     for i in range(len(singles) - 1, -1, -1):
-        spans = [s * n_of[i] for s, _ in singles[i]]
+        least, greatest = spans[i]
         if splits and splits[i]:
-            spans += [s * n_of[i] for (pair, _) in splits[i] for s in pair]
-        lows[i] = lows[i + 1] + min(spans)
-        highs[i] = highs[i + 1] + max(spans)
-    scale, scaled = _scaled_counts(n_of)
+            reach = [s * n_of[i] for (pair, _) in splits[i] for s in pair]
+            least, greatest = min(least, *reach), max(greatest, *reach)
+        lows[i] = lows[i + 1] + least
+        highs[i] = highs[i + 1] + greatest
     # key: (charge x scale of the single-state elements, (split element, its two states) or ()).
     # value: [penalty, how many choices reach it (at most _MAX_TIES), [(state of the
     # previous table, option taken), ...]]: the choices are written out only for the
@@ -217,6 +234,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
         moves = [(state * scaled[i], state, option_penalty) for state, option_penalty in options]
         lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
         hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
+        n_moves = len(moves)
         split_options = splits[i] if splits else ()
         following: dict[tuple[int, tuple], list] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
@@ -224,7 +242,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float):
         for state_key, (penalty, count, _) in table.items():
             charge, split = state_key
             # every option tried counts, whether or not it is kept
-            work += len(moves)
+            work += n_moves
             for move, state, option_penalty in moves:
                 p = penalty + option_penalty
                 if p > over:
