@@ -76,13 +76,16 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     spans = [element[2] for element in elements]
     decimals = max(element[3] for element in elements)
     scale = 10 ** decimals
-    scaled = [element[4] * 10 ** (decimals - element[3]) for element in elements]
+    # each element's moves at the scale of all counts (most formulas: whole counts, scale 1)
+    moves = [element[5] if element[3] == decimals else
+             tuple([(state * element[4] * 10 ** (decimals - element[3]), state, penalty) for state, penalty in element[0]])
+             for element in elements]
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
     stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
-        for penalty, picks in _knapsack(singles, (), n_of, needed, cap, spans, scale, scaled)
+        for penalty, picks in _knapsack(moves, (), n_of, needed, cap, spans, scale)
     ]
     best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
     # single states everywhere first: a reading with one element split has one
@@ -91,7 +94,7 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
     splits = [tuple([(pair, penalty) for pair, penalty in element[1] if penalty <= mixed_cap + _TOL]) for element in elements]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
-        for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap, spans, scale, scaled):
+        for penalty, picks in _knapsack(moves, splits, n_of, needed, mixed_cap, spans, scale):
             j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
             (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
             # x ions at s1 and n - x at s2 carry the charge the others leave
@@ -114,7 +117,8 @@ def _element_choices(symbol: str, count: float, excluded=frozenset()):
     """What the knapsack needs of one leftover element, computed once per
     (element, count): (single states ((state, penalty), ...), splits over two
     states (((s1, s2), penalty), ...), (least, greatest) charge of a single
-    state, decimals, count x 10**decimals). Counts reach the solver rounded to
+    state, decimals, count x 10**decimals, the knapsack's moves at that
+    scale). Counts reach the solver rounded to
     1e-9 (:func:`_assign_monatomic`), so their shortest decimal form has at
     most nine decimals and the whole count is exact."""
     options = _monatomic_options(symbol, count)
@@ -127,10 +131,14 @@ def _element_choices(symbol: str, count: float, excluded=frozenset()):
     charges = [state * count for state, _ in singles]
     span = (min(charges), max(charges)) if charges else (0.0, 0.0)
     if float(count).is_integer():
-        return singles, splits, span, 0, int(count)
-    exact = Decimal(repr(float(count)))
-    decimals = -exact.as_tuple().exponent
-    return singles, splits, span, decimals, int(exact.scaleb(decimals))
+        decimals, whole = 0, int(count)
+    else:
+        exact = Decimal(repr(float(count)))
+        decimals = -exact.as_tuple().exponent
+        whole = int(exact.scaleb(decimals))
+    # the knapsack's moves at this scale: (charge x 10**decimals, state, penalty)
+    moves = tuple([(state * whole, state, penalty) for state, penalty in singles])
+    return singles, splits, span, decimals, whole, moves
 
 
 def _least_scaled(x: float, scale: int) -> int:
@@ -190,7 +198,7 @@ def _choices(tables: list[dict], level: int, state_key, written: dict) -> tuple:
     return done
 
 
-def _knapsack(singles, splits, n_of, needed: float, cap: float, spans, scale: int, scaled):
+def _knapsack(moves_of, splits, n_of, needed: float, cap: float, spans, scale: int):
     """Charge balance as a bounded knapsack over the elements' oxidation states.
 
     Dynamic programming, one element at a time. A table maps each state
@@ -202,20 +210,20 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float, spans, scale: in
     ``_MAX_TABLE`` states, the cheapest (then those nearest the charge still
     needed). Work: O(elements x _MAX_TABLE x options), whatever the counts.
 
-    ``spans`` holds each element's (least, greatest) charge of a single
-    state; the charge is kept as a whole number, in units of 1 / ``scale``
-    (``scaled``: the counts x ``scale``, :func:`_element_choices`): exact,
-    with no rounding per transition, and ``charge / scale`` is the float the
-    charge rounded to 1e-9 would be.
+    ``moves_of`` holds each element's single states as (charge x ``scale``,
+    state, penalty) and ``spans`` its (least, greatest) charge of a single
+    state: the charge is kept as a whole number, in units of 1 / ``scale``
+    (:func:`_element_choices`), exact, with no rounding per transition, and
+    ``charge / scale`` is the float the charge rounded to 1e-9 would be.
 
     Without ``splits``: (penalty, states) of the cheapest single-state
     assignments summing to ``needed``. With them: the assignments with
     exactly one element split, its choice given as ((s1, s2), charge it must
     carry), the charge strictly between s1 x count and s2 x count.
     """
-    lows = [0.0] * (len(singles) + 1)
-    highs = [0.0] * (len(singles) + 1)
-    for i in range(len(singles) - 1, -1, -1):
+    lows = [0.0] * (len(moves_of) + 1)
+    highs = [0.0] * (len(moves_of) + 1)
+    for i in range(len(moves_of) - 1, -1, -1):
         least, greatest = spans[i]
         if splits and splits[i]:
             reach = [s * n_of[i] for (pair, _) in splits[i] for s in pair]
@@ -230,8 +238,7 @@ def _knapsack(singles, splits, n_of, needed: float, cap: float, spans, scale: in
     tables = [table]
     work = 0
     over = cap + _TOL
-    for i, options in enumerate(singles):
-        moves = [(state * scaled[i], state, option_penalty) for state, option_penalty in options]
+    for i, moves in enumerate(moves_of):
         lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
         hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
         n_moves = len(moves)
