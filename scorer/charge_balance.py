@@ -64,25 +64,12 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     states (mixed valence), settled by the charge left at the end. Returns a
     tuple of (penalty, ((symbol, state, count), ...)).
     """
-    symbols = [s for s, n in remaining if n > _TOL]
-    counts = {s: n for s, n in remaining}
-    if not symbols:
+    if not any(n > _TOL for _, n in remaining):
         return ((0.0, ()),) if abs(needed) < _TOL else ()
-    elements = [_element_choices(s, counts[s], excluded) for s in symbols]
-    singles = [element[0] for element in elements]
-    if any(not options for options in singles):
+    prepared = _leftover(remaining, excluded)
+    if prepared is None:
         return ()
-    n_of = [counts[s] for s in symbols]
-    spans = [element[2] for element in elements]
-    decimals = max(element[3] for element in elements)
-    scale = 10 ** decimals
-    # each element's moves at the scale of all counts (most formulas: whole counts, scale 1)
-    moves = [element[5] if element[3] == decimals else
-             tuple([(state * element[4] * 10 ** (decimals - element[3]), state, penalty) for state, penalty in element[0]])
-             for element in elements]
-    # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
-    # and a last resort in a stoichiometric one
-    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
+    symbols, elements, n_of, moves, spans, scale, stoichiometric = prepared
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
         for penalty, picks in _knapsack(moves, (), n_of, needed, cap, spans, scale)
@@ -110,6 +97,30 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
         return ()
     best = min(p + _PENALTY_SPECIES * len(t) for p, t in out)
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
+
+
+@per_input(maxsize=65536)
+def _leftover(remaining: tuple[tuple[str, float], ...], excluded=frozenset()):
+    """What the knapsack needs of a leftover composition, whatever the charge
+    needed and the cap (the walk asks for one leftover at several): (symbols,
+    each one's :func:`_element_choices`, counts, moves at the scale of all
+    counts, charge spans, scale, whether every count is whole), or None when
+    an element has no single state left."""
+    symbols = tuple([s for s, n in remaining if n > _TOL])
+    counts = dict(remaining)
+    elements = tuple([_element_choices(s, counts[s], excluded) for s in symbols])
+    if any(not element[0] for element in elements):
+        return None
+    decimals = max(element[3] for element in elements)
+    # each element's moves at the scale of all counts (most formulas: whole counts, scale 1)
+    moves = tuple([element[5] if element[3] == decimals else
+                   tuple([(state * element[4] * 10 ** (decimals - element[3]), state, penalty) for state, penalty in element[0]])
+                   for element in elements])
+    # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
+    # and a last resort in a stoichiometric one
+    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
+    return (symbols, elements, tuple([counts[s] for s in symbols]), moves,
+            tuple([element[2] for element in elements]), 10 ** decimals, stoichiometric)
 
 
 @per_input(maxsize=65536)
