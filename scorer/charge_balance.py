@@ -69,10 +69,10 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     prepared = _leftover(remaining, excluded)
     if prepared is None:
         return ()
-    symbols, elements, n_of, moves, spans, scale, stoichiometric = prepared
+    symbols, elements, n_of, moves, spans, scale, stoichiometric, reach = prepared
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
-        for penalty, picks in _knapsack(moves, (), n_of, needed, cap, spans, scale)
+        for penalty, picks in _knapsack(moves, (), n_of, needed, cap, reach, scale)
     ]
     best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
     # single states everywhere first: a reading with one element split has one
@@ -81,7 +81,8 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
     splits = [tuple([(pair, penalty) for pair, penalty in element[1] if penalty <= mixed_cap + _TOL]) for element in elements]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
-        for penalty, picks in _knapsack(moves, splits, n_of, needed, mixed_cap, spans, scale):
+        split_charges = [[state * n for pair, _ in options for state in pair] for options, n in zip(splits, n_of)]
+        for penalty, picks in _knapsack(moves, splits, n_of, needed, mixed_cap, _reach(spans, split_charges), scale):
             j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
             (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
             # x ions at s1 and n - x at s2 carry the charge the others leave
@@ -119,8 +120,24 @@ def _leftover(remaining: tuple[tuple[str, float], ...], excluded=frozenset()):
     # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
     # and a last resort in a stoichiometric one
     stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
-    return (symbols, elements, tuple([counts[s] for s in symbols]), moves,
-            tuple([element[2] for element in elements]), 10 ** decimals, stoichiometric)
+    spans = tuple([element[2] for element in elements])
+    return (symbols, elements, tuple([counts[s] for s in symbols]), moves, spans, 10 ** decimals, stoichiometric,
+            _reach(spans))
+
+
+def _reach(spans, extra=None) -> tuple[list[float], list[float]]:
+    """(lows, highs): the least and greatest charge elements i.. can still carry,
+    from each one's single-state ``spans`` and, with ``extra``, the charges of
+    its splits over two states."""
+    lows = [0.0] * (len(spans) + 1)
+    highs = [0.0] * (len(spans) + 1)
+    for i in range(len(spans) - 1, -1, -1):
+        least, greatest = spans[i]
+        if extra and extra[i]:
+            least, greatest = min(least, *extra[i]), max(greatest, *extra[i])
+        lows[i] = lows[i + 1] + least
+        highs[i] = highs[i + 1] + greatest
+    return lows, highs
 
 
 @per_input(maxsize=65536)
@@ -209,7 +226,7 @@ def _choices(tables: list[dict], level: int, state_key, written: dict) -> tuple:
     return done
 
 
-def _knapsack(moves_of, splits, n_of, needed: float, cap: float, spans, scale: int):
+def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: int):
     """Charge balance as a bounded knapsack over the elements' oxidation states.
 
     Dynamic programming, one element at a time. A table maps each state
@@ -222,9 +239,9 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, spans, scale: i
     needed). Work: O(elements x _MAX_TABLE x options), whatever the counts.
 
     ``moves_of`` holds each element's single states as (charge x ``scale``,
-    state, penalty) and ``spans`` its (least, greatest) charge of a single
-    state: the charge is kept as a whole number, in units of 1 / ``scale``
-    (:func:`_element_choices`), exact, with no rounding per transition, and
+    state, penalty) and ``reach`` the least and greatest charge elements i..
+    can carry (:func:`_reach`): the charge is kept as a whole number, in
+    units of 1 / ``scale`` (:func:`_element_choices`), exact, with no rounding per transition, and
     ``charge / scale`` is the float the charge rounded to 1e-9 would be.
 
     Without ``splits``: (penalty, states) of the cheapest single-state
@@ -232,15 +249,7 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, spans, scale: i
     exactly one element split, its choice given as ((s1, s2), charge it must
     carry), the charge strictly between s1 x count and s2 x count.
     """
-    lows = [0.0] * (len(moves_of) + 1)
-    highs = [0.0] * (len(moves_of) + 1)
-    for i in range(len(moves_of) - 1, -1, -1):
-        least, greatest = spans[i]
-        if splits and splits[i]:
-            reach = [s * n_of[i] for (pair, _) in splits[i] for s in pair]
-            least, greatest = min(least, *reach), max(greatest, *reach)
-        lows[i] = lows[i + 1] + least
-        highs[i] = highs[i + 1] + greatest
+    lows, highs = reach
     # key: (charge x scale of the single-state elements, (split element, its two states) or ()).
     # value: [penalty, how many choices reach it (at most _MAX_TIES), [(state of the
     # previous table, option taken), ...]]: the choices are written out only for the
@@ -250,8 +259,11 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, spans, scale: i
     work = 0
     over = cap + _TOL
     for i, moves in enumerate(moves_of):
-        lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
-        hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
+        if scale == 1:
+            lo, hi = math.ceil(needed - highs[i + 1] - _TOL), math.floor(needed - lows[i + 1] + _TOL)
+        else:
+            lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
+            hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
         n_moves = len(moves)
         split_options = splits[i] if splits else ()
         following: dict[tuple[int, tuple], list] = {}
