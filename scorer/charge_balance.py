@@ -7,6 +7,9 @@ of the work is done. See DEVELOPERS.md, "The charge-balance solver and its cost"
 """
 from __future__ import annotations
 
+import math
+from decimal import Decimal
+
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.ion_penalties import (
     _PENALTY_FRACTIONAL_SPLIT,
@@ -61,37 +64,25 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     states (mixed valence), settled by the charge left at the end. Returns a
     tuple of (penalty, ((symbol, state, count), ...)).
     """
-    symbols = [s for s, n in remaining if n > _TOL]
-    counts = {s: n for s, n in remaining}
-    if not symbols:
+    if not any(n > _TOL for _, n in remaining):
         return ((0.0, ()),) if abs(needed) < _TOL else ()
-    per_symbol = [_monatomic_options(s, counts[s]) for s in symbols]
-    if excluded:
-        # states ruled out by redox (Tl(3+) beside I(-)): see scorer.applicability.redox_conflicts
-        per_symbol = [
-            tuple(o for o in options if not ({(s, o[1])} if o[0] == "single" else {(s, o[1][0]), (s, o[1][1])}) & excluded)
-            for s, options in zip(symbols, per_symbol)
-        ]
-    singles = [tuple([(state, penalty) for kind, state, penalty in options if kind == "single"]) for options in per_symbol]
-    if any(not options for options in singles):
+    prepared = _leftover(remaining, excluded)
+    if prepared is None:
         return ()
-    n_of = [counts[s] for s in symbols]
-    # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
-    # and a last resort in a stoichiometric one
-    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
+    symbols, elements, n_of, moves, spans, scale, stoichiometric, reach = prepared
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
-        for penalty, picks in _knapsack(singles, (), n_of, needed, cap)
+        for penalty, picks in _knapsack(moves, (), n_of, needed, cap, reach, scale)
     ]
     best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
     # single states everywhere first: a reading with one element split has one
     # species more and pays the split's penalty, so it competes only where no
     # single-state reading is that cheap
     mixed_cap = min(cap, best - _PENALTY_SPECIES * (len(symbols) + 1))
-    splits = [tuple([(state, penalty) for kind, state, penalty in options if kind == "mixed" and penalty <= mixed_cap + _TOL])
-              for options in per_symbol]
+    splits = [tuple([(pair, penalty) for pair, penalty in element[1] if penalty <= mixed_cap + _TOL]) for element in elements]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
-        for penalty, picks in _knapsack(singles, splits, n_of, needed, mixed_cap):
+        split_charges = [[state * n for pair, _ in options for state in pair] for options, n in zip(splits, n_of)]
+        for penalty, picks in _knapsack(moves, splits, n_of, needed, mixed_cap, _reach(spans, split_charges), scale):
             j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
             (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
             # x ions at s1 and n - x at s2 carry the charge the others leave
@@ -109,86 +100,226 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
 
 
-def _knapsack(singles, splits, n_of, needed: float, cap: float):
+@per_input(maxsize=65536)
+def _leftover(remaining: tuple[tuple[str, float], ...], excluded=frozenset()):
+    """What the knapsack needs of a leftover composition, whatever the charge
+    needed and the cap (the walk asks for one leftover at several): (symbols,
+    each one's :func:`_element_choices`, counts, moves at the scale of all
+    counts, charge spans, scale, whether every count is whole), or None when
+    an element has no single state left."""
+    symbols = tuple([s for s, n in remaining if n > _TOL])
+    counts = dict(remaining)
+    elements = tuple([_element_choices(s, counts[s], excluded) for s in symbols])
+    if any(not element[0] for element in elements):
+        return None
+    decimals = max(element[3] for element in elements)
+    # each element's moves at the scale of all counts (most formulas: whole counts, scale 1)
+    moves = tuple([element[5] if element[3] == decimals else
+                   tuple([(state * element[4] * 10 ** (decimals - element[3]), state, penalty) for state, penalty in element[0]])
+                   for element in elements])
+    # a fractional split is normal in a non-stoichiometric phase (La0.7Sr0.3MnO3)
+    # and a last resort in a stoichiometric one
+    stoichiometric = all([abs(n - round(n)) < _TOL for _, n in remaining])
+    spans = tuple([element[2] for element in elements])
+    return (symbols, elements, tuple([counts[s] for s in symbols]), moves, spans, 10 ** decimals, stoichiometric,
+            _reach(spans))
+
+
+def _reach(spans, extra=None) -> tuple[list[float], list[float]]:
+    """(lows, highs): the least and greatest charge elements i.. can still carry,
+    from each one's single-state ``spans`` and, with ``extra``, the charges of
+    its splits over two states."""
+    lows = [0.0] * (len(spans) + 1)
+    highs = [0.0] * (len(spans) + 1)
+    for i in range(len(spans) - 1, -1, -1):
+        least, greatest = spans[i]
+        if extra and extra[i]:
+            least, greatest = min(least, *extra[i]), max(greatest, *extra[i])
+        lows[i] = lows[i + 1] + least
+        highs[i] = highs[i + 1] + greatest
+    return lows, highs
+
+
+@per_input(maxsize=65536)
+def _element_choices(symbol: str, count: float, excluded=frozenset()):
+    """What the knapsack needs of one leftover element, computed once per
+    (element, count): (single states ((state, penalty), ...), splits over two
+    states (((s1, s2), penalty), ...), (least, greatest) charge of a single
+    state, decimals, count x 10**decimals, the knapsack's moves at that
+    scale). Counts reach the solver rounded to
+    1e-9 (:func:`_assign_monatomic`), so their shortest decimal form has at
+    most nine decimals and the whole count is exact."""
+    options = _monatomic_options(symbol, count)
+    if excluded:
+        # states ruled out by redox (Tl(3+) beside I(-)): see scorer.applicability.redox_conflicts
+        options = tuple(o for o in options
+                        if not ({(symbol, o[1])} if o[0] == "single" else {(symbol, o[1][0]), (symbol, o[1][1])}) & excluded)
+    singles = tuple([(state, penalty) for kind, state, penalty in options if kind == "single"])
+    splits = tuple([(pair, penalty) for kind, pair, penalty in options if kind == "mixed"])
+    charges = [state * count for state, _ in singles]
+    span = (min(charges), max(charges)) if charges else (0.0, 0.0)
+    if float(count).is_integer():
+        decimals, whole = 0, int(count)
+    else:
+        exact = Decimal(repr(float(count)))
+        decimals = -exact.as_tuple().exponent
+        whole = int(exact.scaleb(decimals))
+    # the knapsack's moves at this scale: (charge x 10**decimals, state, penalty)
+    moves = tuple([(state * whole, state, penalty) for state, penalty in singles])
+    return singles, splits, span, decimals, whole, moves
+
+
+def _least_scaled(x: float, scale: int) -> int:
+    """The least whole c with c / scale >= x, as Python compares them."""
+    if scale == 1:
+        return math.ceil(x)
+    c = math.ceil(x * scale)
+    while (c - 1) / scale >= x:
+        c -= 1
+    while c / scale < x:
+        c += 1
+    return c
+
+
+def _most_scaled(x: float, scale: int) -> int:
+    """The greatest whole c with c / scale <= x, as Python compares them."""
+    if scale == 1:
+        return math.floor(x)
+    c = math.floor(x * scale)
+    while (c + 1) / scale <= x:
+        c += 1
+    while c / scale > x:
+        c -= 1
+    return c
+
+
+def _cheapest_states(following: dict, needed: float, scale: int) -> dict:
+    """The ``_MAX_TABLE`` cheapest states of a table, then those nearest
+    ``needed``, in that order (the order of a sort of the whole table by that
+    key: it decides which ties later tables keep). Only the states at or under
+    the 64th lowest penalty are ranked by the whole key."""
+    penalties = [held[0] for held in following.values()]
+    # a table holds few distinct penalties (sums of a few option penalties): each rounded once
+    rounded = {penalty: round(penalty, 9) for penalty in set(penalties)}
+    ranked = [rounded[penalty] for penalty in penalties]
+    cut = sorted(ranked)[_MAX_TABLE - 1]
+    within = [(r, kv) for r, kv in zip(ranked, following.items()) if r <= cut]
+    within.sort(key=lambda rkv: (rkv[0], abs(needed - rkv[1][0][0] / scale), rkv[1][0]))
+    return dict([kv for _, kv in within[:_MAX_TABLE]])
+
+
+def _choices(tables: list[dict], level: int, state_key, written: dict) -> tuple:
+    """The choices reaching ``state_key`` of table ``level``: tuples of one
+    option per element so far, at most ``_MAX_TIES``, in the order they were
+    found -- the previous state's choices in its order, each extended by the
+    option taken, as long as fewer than ``_MAX_TIES`` are held. ``written``
+    keeps those already written out (a state reached by several others)."""
+    if level == 0:
+        return ((),)
+    done = written.get((level, state_key))
+    if done is None:
+        held: list = []
+        for previous, option in tables[level][state_key][2]:
+            earlier = _choices(tables, level - 1, previous, written)
+            held.extend([k + (option,) for k in earlier[: _MAX_TIES - len(held)]])
+        done = written[(level, state_key)] = tuple(held)
+    return done
+
+
+def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: int):
     """Charge balance as a bounded knapsack over the elements' oxidation states.
 
     Dynamic programming, one element at a time. A table maps each state
-    reached so far -- the charge carried (rounded to 1e-9), and with
-    ``splits`` which element is split over two states, whose charge is
-    settled at the end -- to its lowest penalty and the choices reaching it at
-    that penalty (ties kept up to ``_MAX_TIES``). A state from which
-    ``needed`` can no longer be reached, or whose penalty exceeds ``cap``, is
-    dropped; a table keeps at most ``_MAX_TABLE`` states, the cheapest (then
-    those nearest the charge still needed). Work: O(elements x _MAX_TABLE x
-    options), whatever the counts.
+    reached so far -- the charge carried, and with ``splits`` which element
+    is split over two states, whose charge is settled at the end -- to its
+    lowest penalty and the choices reaching it at that penalty (ties kept up
+    to ``_MAX_TIES``). A state from which ``needed`` can no longer be reached,
+    or whose penalty exceeds ``cap``, is dropped; a table keeps at most
+    ``_MAX_TABLE`` states, the cheapest (then those nearest the charge still
+    needed). Work: O(elements x _MAX_TABLE x options), whatever the counts.
+
+    ``moves_of`` holds each element's single states as (charge x ``scale``,
+    state, penalty) and ``reach`` the least and greatest charge elements i..
+    can carry (:func:`_reach`): the charge is kept as a whole number, in
+    units of 1 / ``scale`` (:func:`_element_choices`), exact, with no rounding per transition, and
+    ``charge / scale`` is the float the charge rounded to 1e-9 would be.
 
     Without ``splits``: (penalty, states) of the cheapest single-state
     assignments summing to ``needed``. With them: the assignments with
     exactly one element split, its choice given as ((s1, s2), charge it must
     carry), the charge strictly between s1 x count and s2 x count.
     """
-    lows = [0.0] * (len(singles) + 1)
-    highs = [0.0] * (len(singles) + 1)
-    for i in range(len(singles) - 1, -1, -1):
-        spans = [s * n_of[i] for s, _ in singles[i]]
-        if splits and splits[i]:
-            spans += [s * n_of[i] for (pair, _) in splits[i] for s in pair]
-        lows[i] = lows[i + 1] + min(spans)
-        highs[i] = highs[i + 1] + max(spans)
-    # key: (charge of the single-state elements, (split element, its two states) or ())
-    table: dict[tuple[float, tuple], tuple[float, tuple]] = {(0.0, ()): (0.0, ((),))}
+    lows, highs = reach
+    # key: (charge x scale of the single-state elements, (split element, its two states) or ()).
+    # value: [penalty, how many choices reach it (at most _MAX_TIES), [(state of the
+    # previous table, option taken), ...]]: the choices are written out only for the
+    # states of the last table (:func:`_choices`), not at every transition
+    table: dict[tuple[int, tuple], list] = {(0, ()): [0.0, 1, []]}
+    tables = [table]
     work = 0
-    # whole counts keep the charge an integer: no rounding per transition
-    whole = all([float(n).is_integer() for n in n_of])
-    for i, options in enumerate(singles):
-        n = int(n_of[i]) if whole else n_of[i]
-        lo, hi = needed - highs[i + 1] - _TOL, needed - lows[i + 1] + _TOL
-        following: dict[tuple[float, tuple], tuple[float, tuple]] = {}
+    over = cap + _TOL
+    for i, moves in enumerate(moves_of):
+        if scale == 1:
+            lo, hi = math.ceil(needed - highs[i + 1] - _TOL), math.floor(needed - lows[i + 1] + _TOL)
+        else:
+            lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
+            hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
+        n_moves = len(moves)
+        split_options = splits[i] if splits else ()
+        following: dict[tuple[int, tuple], list] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
         # than a helper: this loop is most of the solver's time)
-        for (charge, split), (penalty, picks) in table.items():
-            for state, option_penalty in options:
-                work += 1
+        for state_key, (penalty, count, _) in table.items():
+            charge, split = state_key
+            # every option tried counts, whether or not it is kept
+            work += n_moves
+            for move, state, option_penalty in moves:
                 p = penalty + option_penalty
-                if p > cap + _TOL:
+                if p > over:
                     continue
-                c = charge + state * n if whole else round(charge + state * n, 9)
+                c = charge + move
                 if not split and not lo <= c <= hi:
                     continue
                 key = (c, split)
                 held = following.get(key)
                 if held is None or p < held[0] - _TOL:
-                    following[key] = (p, tuple([k + (state,) for k in picks[:_MAX_TIES]]))
-                elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                    following[key] = (held[0], held[1] + tuple([k + (state,) for k in picks[: _MAX_TIES - len(held[1])]]))
-            if splits and not split:
-                for pair, option_penalty in splits[i]:
-                    work += 1
+                    following[key] = [p, count, [(state_key, state)]]
+                elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
+                    held[1] = min(held[1] + count, _MAX_TIES)
+                    held[2].append((state_key, state))
+            if split_options and not split:
+                work += len(split_options)
+                for pair, option_penalty in split_options:
                     p = penalty + option_penalty
-                    if p > cap + _TOL:
+                    if p > over:
                         continue
                     key = (charge, (i, pair))
                     held = following.get(key)
                     if held is None or p < held[0] - _TOL:
-                        following[key] = (p, tuple([k + (pair,) for k in picks[:_MAX_TIES]]))
-                    elif p <= held[0] + _TOL and len(held[1]) < _MAX_TIES:
-                        following[key] = (held[0], held[1] + tuple([k + (pair,) for k in picks[: _MAX_TIES - len(held[1])]]))
+                        following[key] = [p, count, [(state_key, pair)]]
+                    elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
+                        held[1] = min(held[1] + count, _MAX_TIES)
+                        held[2].append((state_key, pair))
         if len(following) > _MAX_TABLE:
-            # the cheapest states, then those nearest what is still needed
-            kept = sorted(following.items(), key=lambda kv: (round(kv[1][0], 9), abs(needed - kv[0][0]), kv[0]))
-            following = dict(kept[:_MAX_TABLE])
+            following = _cheapest_states(following, needed, scale)
         table = following
+        tables.append(table)
     _WORK[0] += work + 1
     found = []
-    for (charge, split), (penalty, choices) in table.items():
+    written: dict = {}
+    last = len(tables) - 1
+    for state_key, (penalty, _, _) in table.items():
+        scaled_charge, split = state_key
+        charge = scaled_charge / scale
         if not split:
             if abs(charge - needed) < _TOL:
-                found.extend((penalty, picks) for picks in choices)
+                found.extend((penalty, picks) for picks in _choices(tables, last, state_key, written))
             continue
         rest = needed - charge
         j, (s1, s2) = split
         if s1 * n_of[j] + _TOL < rest < s2 * n_of[j] - _TOL:
-            found.extend((penalty, picks[:j] + (((s1, s2), rest),) + picks[j + 1:]) for picks in choices)
+            found.extend((penalty, picks[:j] + (((s1, s2), rest),) + picks[j + 1:])
+                         for picks in _choices(tables, last, state_key, written))
     return found
 
 
