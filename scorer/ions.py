@@ -31,6 +31,7 @@ import itertools
 from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
+from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
@@ -221,6 +222,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
     else:
         readings = _readings(remaining, hinted, notes, budget=budget)
+        if not hinted and _best(readings) is None:  # last resort: a complex anion built by rule (K2GeF6)
+            readings, built = complex_anion_readings(remaining, budget)
+            notes.extend(built)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
