@@ -31,6 +31,7 @@ import itertools
 from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
+from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
@@ -221,6 +222,12 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
     else:
         readings = _readings(remaining, hinted, notes, budget=budget)
+    chosen = _best(readings)
+    if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
+        built, built_notes = complex_anion_readings(remaining, budget)
+        if built:
+            readings, chosen = built, _best(built)
+            notes.extend(built_notes)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
@@ -228,7 +235,6 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-    chosen = _best(readings)
     if chosen is None:
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     cations, anions, alternatives, _ = chosen
