@@ -5,6 +5,9 @@ Accepted, in any combination:
 * element symbols with integer or decimal counts (``Fe0.95O``), checked
   against the periodic table, case-sensitively (``Co`` is cobalt, ``CO`` is
   carbon monoxide);
+* the hydrogen isotopes ``D`` and ``T`` (IUPAC Red Book 2005, IR-3.3.2),
+  read as hydrogen and counted in ``ParsedFormula.isotopes`` (``D2O``,
+  ``CuSO4·5D2O``; see :mod:`scorer.isotopes`);
 * nested groups in ``()``, ``[]`` and ``{}`` with a count after the closing
   bracket;
 * hydrates and adducts joined by ``·``, ``•``, ``∙``, ``⋅``, ``.``, ``*`` or
