@@ -5,6 +5,9 @@ Accepted, in any combination:
 * element symbols with integer or decimal counts (``Fe0.95O``), checked
   against the periodic table, case-sensitively (``Co`` is cobalt, ``CO`` is
   carbon monoxide);
+* the hydrogen isotopes ``D`` and ``T`` (IUPAC Red Book 2005, IR-3.3.2),
+  read as hydrogen and counted in ``ParsedFormula.isotopes`` (``D2O``,
+  ``CuSO4·5D2O``; see :mod:`scorer.isotopes`);
 * nested groups in ``()``, ``[]`` and ``{}`` with a count after the closing
   bracket;
 * hydrates and adducts joined by ``·``, ``•``, ``∙``, ``⋅``, ``.``, ``*`` or
@@ -71,10 +74,10 @@ _DOT_SEPARATORS = "·•∙⋅・･×"
 _MINUS_SIGNS = "−–—‐‑"
 _SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])")
 # "MgSO4 7H2O": a space typed for the hydrate dot before a counted water at the end
-_SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*H2O\s*$)")
+_SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*[HDT]2O\s*$)")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
-# adduct and not as the decimal count "2.2".
-_ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
+# adduct and not as the decimal count "2.2"; heavy water (D2O, T2O) too.
+_ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:[HDT]2O2|[HDT]2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
@@ -106,6 +109,10 @@ class ParsedFormula:
     neutral_adducts: tuple[tuple[str, float], ...] = ()
     structure_hint: str = ""
     notes: tuple[str, ...] = field(default=(), compare=False)
+    # hydrogens written D or T, lattice water's included (("D", 2.0),); they
+    # are also in ``counts`` and ``hydrate_water`` as H, so that D2O is scored
+    # as water; D2O and H2O still differ in equality (and in mass)
+    isotopes: tuple[tuple[str, float], ...] = ()
 
     @property
     def elements(self) -> tuple[str, ...]:
@@ -121,6 +128,7 @@ class ParsedFormula:
         return ParsedFormula(
             text, self.counts, self.hydrate_water if hydrate_water is None else hydrate_water, self.charge,
             self.ion_hints, self.neutral_adducts, self.structure_hint, self.notes if notes is None else notes,
+            self.isotopes,
         )
 
     @property
@@ -284,11 +292,12 @@ def _split_components(text: str) -> list[str]:
 
 
 @per_input(maxsize=65536)
-def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[str, float], ...]]:
-    """(element counts, ion references) of one adduct component, cached: the
-    salt part of every hydrate and spelling of a salt is read once."""
+def _component(text: str) -> tuple[tuple[tuple[str, float], ...], tuple[tuple[str, float], ...], dict[str, float]]:
+    """(element counts, ion references, hydrogens written D or T) of one
+    adduct component, cached: the salt part of every hydrate and spelling of
+    a salt is read once."""
     counts, parser = parse_element_groups(text, ion_library)
-    return tuple(counts.items()), tuple(parser.ion_refs)
+    return tuple(counts.items()), tuple(parser.ion_refs), parser.isotopes
 
 
 @per_input(maxsize=65536)
@@ -423,6 +432,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     water = 0.0
     hints: dict[str, float] = {}
     adducts: dict[str, float] = {}
+    isotopes: dict[str, float] = {}
     for index, component in enumerate(_split_components(body)):
         if not component:
             raise FormulaError(f"an adduct separator with nothing after it in {text!r}")
@@ -435,7 +445,9 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             component = component[m.end():]
             if not component:
                 raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
-        counted, ion_refs = _component(component)
+        counted, ion_refs, written_heavy = _component(component)
+        for symbol, n in written_heavy.items():
+            isotopes[symbol] = isotopes.get(symbol, 0.0) + n * multiplier
         counts = dict(counted)
         water += counts.pop(_WATER, 0.0) * multiplier
         if not counts and not ion_refs and not water:
@@ -477,6 +489,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         neutral_adducts=tuple(sorted(adducts.items())),
         structure_hint=hint,
         notes=tuple(notes),
+        isotopes=tuple(sorted(isotopes.items())),
     )
 
 

@@ -30,6 +30,7 @@ __all__ = [
     "IUPAC_ELEMENT_SEQUENCE",
     "format_count",
     "WATER",
+    "ISOTOPE_MARKERS",
     "OPEN_BRACKETS",
     "CLOSE_BRACKETS",
     "NUMBER",
@@ -55,6 +56,12 @@ NUMBER = re.compile(r"\d+(?:\.\d+)?")
 # (H2O)n inside a component, also in a complex ([Co(H2O)6]Cl2), is water:
 # carried as a pseudo-element so that outer counts multiply it
 WATER = "_water"
+# D and T (IUPAC Red Book 2005, IR-3.3.2: the symbols of 2H and 3H) are read
+# as hydrogen, so every rule and ion of hydrogen applies to them; how many of
+# the hydrogens were written D or T rides along in these pseudo-elements,
+# which brackets multiply like any count and parse_element_groups takes out
+ISOTOPE_MARKERS = {"D": "_2H", "T": "_3H"}
+_MARKER_KEYS = frozenset(ISOTOPE_MARKERS.values())
 _OPEN, _CLOSE, _NUMBER = OPEN_BRACKETS, CLOSE_BRACKETS, NUMBER
 
 
@@ -161,6 +168,8 @@ class ElementParser:
         self.ions = ions
         self.allow_ion_refs = ions is not None
         self.ion_refs: list[tuple[str, float]] = []
+        # hydrogens written D or T (parse_element_groups fills it): {"D": 4.0}
+        self.isotopes: dict[str, float] = {}
 
     def error(self, what: str) -> FormulaError:
         return FormulaError(f"{what} at position {self.pos + 1} of {self.text!r}")
@@ -209,6 +218,9 @@ class ElementParser:
                     # (H2O)n, also inside a complex ([Co(H2O)6]Cl2), is water:
                     # carried as a pseudo-element so outer counts multiply it
                     inner = {WATER: 1.0}
+                elif _MARKER_KEYS.intersection(inner) and _without_markers(inner) == {"H": 2.0, "O": 1.0}:
+                    # (D2O)n is water too; its markers keep the isotope count
+                    inner = {WATER: 1.0, **{k: v for k, v in inner.items() if k in _MARKER_KEYS}}
                 for symbol, n in inner.items():
                     counts[symbol] = counts.get(symbol, 0.0) + n * multiplier
                 continue
@@ -220,6 +232,13 @@ class ElementParser:
                     symbol = two
                 elif is_element_symbol(ch):
                     symbol = ch
+                elif ch in ISOTOPE_MARKERS:
+                    self.pos += 1
+                    n = self.number() or 1.0
+                    counts["H"] = counts.get("H", 0.0) + n
+                    marker = ISOTOPE_MARKERS[ch]
+                    counts[marker] = counts.get(marker, 0.0) + n
+                    continue
                 else:
                     m = re.match(r"[A-Z][a-z]*", text[self.pos:])
                     raise self.error(f"unknown element {m.group()!r}")
@@ -287,4 +306,10 @@ def parse_element_groups(text: str, ions: IonNames | None = None) -> tuple[dict[
     """
     parser = ElementParser(text, ions)
     counts = parser.sequence(0, None)
+    if _MARKER_KEYS.intersection(counts):
+        parser.isotopes = {k: counts.pop(m) for k, m in ISOTOPE_MARKERS.items() if m in counts}
     return counts, parser
+
+
+def _without_markers(counts: dict[str, float]) -> dict[str, float]:
+    return {k: v for k, v in counts.items() if k not in _MARKER_KEYS}

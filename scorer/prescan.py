@@ -79,7 +79,7 @@ _MOLECULE_MAX_COUNT = 100
 _WATER_WITH_ZERO = re.compile(r"(?P<salt>[^0]+[·.*])(?=[1-9]\d*H2O\Z)\d*0")
 
 # Any other text in capitals only (NH4BF4, KNO3·7H2O): every kind of slip
-# but the evidence kinds ruled out here (a 0 not inside a count, CI, a count
+# but the evidence kinds ruled out here (a 0 not inside a count, CI or TI, a count
 # 1 written out) proposes only where the text reads worse than
 # slips.MARGIN + slips.BEST_PENALTY (slips.find_slip), so a text that reads
 # at least that well as written (slips.reading_penalty: the solver's reading,
@@ -87,7 +87,7 @@ _WATER_WITH_ZERO = re.compile(r"(?P<salt>[^0]+[·.*])(?=[1-9]\d*H2O\Z)\d*0")
 # those of _ORDINARY in capitals: no space, joiner, state word, leading digit
 # or closing bracket at the end, so no mixture or solution reader applies.
 _CAPITAL_TEXT = re.compile(
-    r"(?!\d)(?!.*(?:SOLN|SOLUTION))(?!.*(?<!\d)0)(?!.*CI)(?!.*[A-Z]1(?!\d))"
+    r"(?!\d)(?!.*(?:SOLN|SOLUTION))(?!.*(?<!\d)0)(?!.*[CT]I)(?!.*[A-Z]1(?!\d))"
     r"[A-PR-Z\d()\[\]·.*]+(?<!\))\Z",
     re.DOTALL,
 )

@@ -20,6 +20,7 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.grammar import iupac_formula
+from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
@@ -228,6 +229,9 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     else:
         row[formula_at] = formula
     row[water_at] = float(water)
+    if comp.isotopes:  # D2O: scored as water above, written and weighed as D2O here
+        mass += isotope_mass_shift_g_mol(comp.isotopes, get_element("H").atomic_weight)
+        _write_isotopes(row, comp)
     # per formula unit with its lattice water
     row[mass_at] = round(mass, 4)
     if comp.notes:  # a spelling-specific warning (an ignored annotation, an ambiguous charge)
@@ -239,6 +243,21 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
         return _error_row(row[message_at])
     row[notes_at] = gaps[1] if water else gaps[0]
     return tuple(row)
+
+
+def _write_isotopes(row: list, comp: ParsedFormula) -> None:
+    """The columns that name hydrogen, with the hydrogens written D or T again."""
+    hydrogens = comp.total_counts.get("H", 0.0)
+    formula_at = _slots()[0]
+    row[formula_at] = isotope_text(row[formula_at], comp.isotopes, hydrogens, whole_formula=True)
+    for at in _isotope_slots():
+        row[at] = isotope_text(row[at], comp.isotopes, hydrogens)
+
+
+@once
+def _isotope_slots() -> tuple[int, ...]:
+    position = _layout()[1]
+    return tuple(position[name] for name in ("cations", "anions", "oxidation_states"))
 
 
 @once

@@ -395,8 +395,9 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
         consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options), leading)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
-        # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many
-        evidence = any(stripped[i - 1] == "C" for i in capital_i)
+        # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many;
+        # "TI" tritium (IUPAC's T for 3H) beside iodine, thallium mistyped (TlCl, TlNO3)
+        evidence = any(stripped[i - 1] in "CT" for i in capital_i)
         consider("I_for_l", lambda: _replacements(stripped, capital_i, _ell_options), evidence)
     ones = [i for i, ch in enumerate(stripped) if ch == "1" and _ell_options(stripped, i)]
     if ones:
