@@ -125,12 +125,20 @@ def high_valent_halide_reason(counts: dict[str, float]) -> str | None:
     True
     >>> high_valent_halide_reason({"V": 1.0, "O": 1.0, "F": 3.0}), high_valent_halide_reason({"K": 1.0, "Re": 1.0, "O": 4.0})
     (None, None)
+    >>> high_valent_halide_reason({"Mn": 1.0, "Cl": 2.0, "O": 8.0}) is None  # manganese(II) perchlorate
+    True
     """
     metals = [s for s in counts if is_metal(s)]
     others = set(counts) - set(metals)
     if len(metals) != 1 or not others & _HALOGENS or not others <= _HALOGENS | {"O"}:
         return None
-    state = dict(formal_oxidation_states(counts)).get(metals[0])
+    states = dict(formal_oxidation_states(counts))
+    if any(states.get(x) != -1 for x in others & _HALOGENS):
+        # a halogen in a positive state is the centre of an oxoanion (perchlorate,
+        # iodate): Mn(ClO4)2 is a salt, however high the metal would have to be
+        # if every chlorine were a chloride ligand
+        return None
+    state = states.get(metals[0])
     if state is None or state < HIGH_VALENT_MIN_STATE:
         return None
     return (

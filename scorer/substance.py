@@ -273,6 +273,15 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         # (nitrobenzene C6H5NO2): carbon with hydrogen and no salt-forming
         # cation is a molecule; "unknown" sends it to the molecular reading
         return "unknown"
+    if not has_metal and cation_ions and all(ion.family == "oxocation" for ion in cation_ions) and all(
+        t.ion.atom_count <= 2 for t in anions
+    ):
+        # nitrosyl and nitryl halides (NOCl, NO2F) and their like (ONCN) are volatile
+        # molecules X-NO and X-NO2: NO(+) and NO2(+) are cations only beside large
+        # weakly coordinating anions (NOBF4, NOClO4, NO2(+)NO3(-) in solid N2O5)
+        # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.6;
+        # the two-atom bound is common practice)
+        return "covalent_molecular"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
     metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]

@@ -107,6 +107,41 @@ def test_salts_with_high_valent_metals_or_low_states_stay_salts(formula):
     assert _verdict(formula)[1] == "ionic_salt"
 
 
+# Perchlorates, chlorates and iodates of d-block metals are salts of the oxoanion
+# (the registry package chemicals names them so in its identifier table:
+# "manganese(2+);diperchlorate", "iron(3+);triperchlorate", "chromium(3+);triperchlorate";
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 17.2.6, from memory):
+# the halogen is the anion's centre, not a halide ligand of a metal at +7 or more.
+@pytest.mark.parametrize("formula", ["Mn(ClO4)2", "Fe(ClO4)3", "Fe(ClO4)2", "Cr(ClO4)3", "Mn(IO3)2", "Co(ClO4)2"])
+def test_oxohalogenate_salts_of_d_block_metals_stay_salts(formula):
+    assert high_valent_halide_reason(dict(_counts(formula))) is None
+    assert _verdict(formula)[1] == "ionic_salt"
+
+
+# Nitrosyl and nitryl halides are volatile molecules X-NO and X-NO2 (Greenwood &
+# Earnshaw, 2nd ed., 1997, ch. 11.3.6, from memory), liquids or gases at room
+# temperature: melting and boiling points from the registry package chemicals
+# (chemicals.phase_change.Tm and Tb, looked up by CAS number). NO(+) and NO2(+)
+# are cations only beside large weakly coordinating anions (NOBF4, NO2BF4: ibid.).
+@pytest.mark.parametrize("formula, cas", [
+    ("NOCl", "2696-92-6"), ("NOBr", "13444-87-6"), ("NO2Cl", "13444-90-1"),
+    ("NOF", "7789-25-5"), ("NO2F", "10022-50-1"),
+])
+def test_nitrosyl_and_nitryl_halides_are_molecules(formula, cas):
+    from chemicals.phase_change import Tm
+    from ionicity.scorer.melting import MELTING_CLASS_BANDS
+    out = score_formula(formula)
+    assert out["substance_class"] == "covalent_molecular"
+    bands = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
+    lo, hi = bands[out["melting_class"]]
+    assert lo <= Tm(cas) < hi
+
+
+@pytest.mark.parametrize("formula", ["NOBF4", "NO2BF4"])
+def test_nitrosyl_salts_of_large_anions_stay_salts(formula):
+    assert _verdict(formula)[1] == "ionic_salt"
+
+
 def _counts(formula):
     from ionicity.scorer.formula import parse_formula
     return parse_formula(formula).counts
