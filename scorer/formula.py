@@ -81,6 +81,8 @@ _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:[HDT]2O2|[HDT]2O|NH3|HF|HCl|CH3
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
+# a hydrate whose water count is a letter: "CoCl2*xH2O", "Fe2O3.nH2O", "CuSO4*(H2O)x"
+_UNSTATED_WATER = re.compile(r"(?P<salt>.+?)[*.](?P<water>[xnyz]H2O|\(H2O\)[xnyz])")
 _ORGANOMETALLIC_GROUPS = re.compile(r"\(CO\)|C5H5|\(Cp\)|Cp2")
 
 
@@ -356,6 +358,15 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text
     text_to_parse = _shorthand_with_spaces(text_to_parse)
     cleaned = _normalise_text(text_to_parse)
+    m = _UNSTATED_WATER.fullmatch(cleaned)
+    if m:
+        # "CoCl2·xH2O", "Fe2O3.nH2O": a hydrate of unstated water, as catalogues and stock
+        # lists write it (common practice); the anhydrous salt is scored and the row says so
+        notes.append(
+            f"water of crystallisation not stated ({m.group('water')!r}): values are for anhydrous"
+            f" {m.group('salt')}, and the molar mass leaves the water out"
+        )
+        cleaned = m.group("salt")
     if not cleaned:
         raise FormulaError("empty formula")
     if len(cleaned) > MAX_FORMULA_LENGTH:

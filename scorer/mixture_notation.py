@@ -4,13 +4,16 @@ Accepted (components are formulas, or names of ``scorer/data/fusion.csv``
 such as ``ChCl`` and ``urea``; blend names of ``scorer/data/blends.csv`` and
 of a user's ``--aliases`` file stand for a whole mixture):
 
-* components joined by ``-``, an en dash ``–``, ``:`` or ``+`` (spaced or
-  not): ``LiCl-KCl``, ``NaNO3–KNO3``, ``ChCl:urea``, ``LiCl + KCl``;
+* components joined by ``-``, an en dash ``–``, ``:``, ``+`` or ``/`` (spaced or
+  not): ``LiCl-KCl``, ``NaNO3–KNO3``, ``ChCl:urea``, ``LiCl + KCl``, ``NaNO3/KNO3``;
 * proportions after them: ``58.8:41.2``, ``(46.5-11.5-42 mol%)``,
   ``60:40 wt%``, a molar ratio ``1:2``;
-* leading amounts: ``0.588 LiCl + 0.412 KCl``, ``0.588LiCl·0.412KCl`` (a dot
-  joins a mixture only when every part has a decimal amount, so
-  ``CuSO4·5H2O`` and the alum ``K2SO4·Al2(SO4)3·24H2O`` stay compounds).
+* leading amounts: ``0.588 LiCl + 0.412 KCl``, ``60 wt% NaNO3 + 40 wt% KNO3``,
+  ``0.588LiCl·0.412KCl`` (a dot joins a mixture only when every part has a
+  decimal amount, so ``CuSO4·5H2O`` and the alum ``K2SO4·Al2(SO4)3·24H2O``
+  stay compounds). Where the amounts are percentages, one component may go
+  without: it is the balance to 100 (``[C4mim][BF4] + 10 wt% H2O``), and
+  the row says so.
 
 Readings that could be either a mixture or one compound are taken as a
 mixture with a warning that says so (``KNO3+NaNO3``: the double salt is
@@ -40,10 +43,13 @@ _BRACKETED = re.compile(
 _TRAILING = re.compile(
     rf"\s+(?P<numbers>{_NUMBER}(?:\s*[-–:/]\s*{_NUMBER})+){_BASIS}\s*$", re.IGNORECASE
 )
-_LEADING_AMOUNT = re.compile(rf"^\s*(?P<amount>{_NUMBER})\s*(?=[A-Za-z(\[])")
+_LEADING_AMOUNT = re.compile(
+    rf"^\s*(?P<amount>{_NUMBER})\s*(?P<unit>(?:(?P<basis>mol|wt|mass)\s*%|%\s*(?P<after>w/w|mol/mol)?))?\s*(?=[A-Za-z(\[])",
+    re.IGNORECASE,
+)
 _DOTS = "·•∙⋅*"
-_QUICK = frozenset("-–—:+·•∙⋅* ")
-_JOINERS = frozenset("-–—:+ ")
+_QUICK = frozenset("-–—:+·•∙⋅* /")
+_JOINERS = frozenset("-–—:+ /")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
 
 
@@ -123,21 +129,47 @@ def _proportions(text: str) -> tuple[str, tuple[float, ...], str]:
     return text.strip(), (), "mol"
 
 
-def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...]]:
-    names, amounts = [], []
+def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...], str | None, str | None]:
+    """(names, amounts, basis, note): amounts written before the components.
+
+    ``basis`` is None when no amount carries a unit; a percentage may be left
+    off one component, which then takes the balance to 100 (``note`` says so).
+    """
+    names: list[str] = []
+    amounts: list[float | None] = []
+    bases = set()
+    percent = False
     for part in parts:
         m = _LEADING_AMOUNT.match(part)
         if m:
             amounts.append(float(m.group("amount")))
             names.append(part[m.end():].strip())
+            if m.group("unit"):
+                percent = True
+                bases.add(_basis(m.group("basis") or m.group("after")))
         else:
+            amounts.append(None)
             names.append(part.strip())
-    if amounts and len(amounts) != len(parts):
+    if len(bases) > 1:
         raise MixtureNotationError(
-            f"amounts given for {len(amounts)} of {len(parts)} components in {' + '.join(parts)!r};"
-            " give one for every component or none"
+            f"{' + '.join(parts)!r} mixes mol% and wt%; give every amount on one basis"
         )
-    return names, tuple(amounts)
+    basis = bases.pop() if bases else None
+    given = [a for a in amounts if a is not None]
+    note = None
+    if given and len(given) == len(parts) - 1 and percent and sum(given) < 100:
+        missing = amounts.index(None)
+        amounts[missing] = 100.0 - sum(given)
+        note = (
+            f"{names[missing]} was given no amount: it was taken as the balance,"
+            f" {amounts[missing]:g} {basis or 'mol'}%"
+        )
+    elif given and len(given) != len(parts):
+        raise MixtureNotationError(
+            f"amounts given for {len(given)} of {len(parts)} components in {' + '.join(parts)!r};"
+            " give one for every component, none, or percentages for all but one (the balance)"
+        )
+    return names, tuple(a for a in amounts if a is not None) if given else (), basis, note
 
 
 def read_mixture_text(text: str) -> MixtureText | None:
@@ -188,6 +220,9 @@ def read_mixture_text(text: str) -> MixtureText | None:
     elif any(d in body for d in "-–—") and len(_dash_split(body)) > 1:
         parts = _dash_split(body)
         joined_by = "-"
+    elif "/" in body and len(_split_top(body, "/")) > 1:
+        parts = _split_top(body, "/")
+        joined_by = "/"
     elif any(d in body for d in _DOTS):
         parts = _split_top(body, _DOTS)
         if len(parts) < 2 or not all(_LEADING_AMOUNT.match(p) and "." in _LEADING_AMOUNT.match(p).group("amount") for p in parts):
@@ -202,11 +237,14 @@ def read_mixture_text(text: str) -> MixtureText | None:
         raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
     if any(_ADDUCT.match(p) for p in parts[1:]):
         return None  # a hydrate or adduct written with '+' ("CaSO4+2H2O"): the compound reading
-    names, leading = _leading_amounts(parts)
+    names, leading, leading_basis, balance_note = _leading_amounts(parts)
     if leading and amounts:
         raise MixtureNotationError(f"{text!r} gives both leading amounts and proportions after the components; give one")
     if leading:
         amounts = leading
+        basis = leading_basis or basis
+    if balance_note:
+        notes.append(balance_note)
     if amounts and len(amounts) != len(names):
         raise MixtureNotationError(
             f"{len(amounts)} proportions for {len(names)} components in {text!r}"
@@ -214,6 +252,8 @@ def read_mixture_text(text: str) -> MixtureText | None:
         )
     if any(a <= 0 for a in amounts):
         raise MixtureNotationError(f"a proportion of zero in {text!r}; leave that component out")
+    if amounts and "%" in text and abs(sum(amounts) - 100.0) > 0.5:
+        notes.append(f"the percentages in {text!r} add up to {sum(amounts):g}, not 100: they were scaled to 100")
     if joined_by == "+" and not leading and "+" in body and " + " not in body:
         notes.append(
             f"{text!r} was read as a mixture of {' and '.join(names)} (also possible: one compound of them,"

@@ -342,3 +342,24 @@ def test_the_call_budget_tells_a_hostile_cell_from_real_work():
     # ten times the budget: the charge-balance knapsack made a salt's own work
     # about 3,000 calls (it was over 4,000 with the branch-and-bound search)
     assert calls > 10 * HOSTILE_CALL_BUDGET
+
+
+# Hydrates of unstated water, as catalogues write them ("CoCl2·xH2O"; common practice):
+# the anhydrous salt is scored, the row says so, and the molar mass is the anhydrous one
+# (checked against periodictable, an independent formula library).
+@pytest.mark.parametrize("text, salt", [
+    ("CoCl2·xH2O", "CoCl2"), ("Fe2O3.nH2O", "Fe2O3"), ("Na2B4O7·xH2O", "Na2B4O7"), ("CuSO4*(H2O)x", "CuSO4"),
+])
+def test_hydrate_of_unstated_water_scores_the_anhydrous_salt_and_says_so(text, salt):
+    from ionicity.scorer.record import score_formula
+    out = score_formula(text)
+    assert out["status"] == "warning"
+    assert "water of crystallisation not stated" in out["message"]
+    assert out["hydrate_water"] == 0
+    assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(salt).mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("text", ["xH2O", "CoCl2·qH2O", "CoCl2·xH2"])
+def test_unstated_water_needs_a_salt_and_a_letter_count(text):
+    from ionicity.scorer.record import score_formula
+    assert score_formula(text)["status"] == "error"

@@ -209,3 +209,48 @@ def test_fusion_table_matches_the_chemicals_crc_data():
         assert Hfus(row["cas"]) / 1000 == pytest.approx(float(row["enthalpy_fusion_kJ_mol"]), rel=1e-6), row["component"]
         checked += 1
     assert checked == 37
+
+
+# Spellings of a mixture as formulators write them (common practice): a slash between
+# components, amounts with their unit before each component, and one component left to
+# take the balance of percentages. Solar salt is 60 wt% NaNO3 / 40 wt% KNO3 (Bauer et al.,
+# "Characterization of sodium nitrate and potassium nitrate ... for thermal energy
+# storage", 2012; from memory): its mole fractions follow from the molar masses
+# (NaNO3 84.99, KNO3 101.10 g/mol, IUPAC atomic weights).
+SOLAR_SALT_X_NANO3 = (60 / 84.9947) / (60 / 84.9947 + 40 / 101.1032)
+
+
+@pytest.mark.parametrize("text", [
+    "NaNO3/KNO3 60:40 wt%", "NaNO3/KNO3 (60/40 wt%)", "60 wt% NaNO3 + 40 wt% KNO3", "KNO3 + 60 wt% NaNO3",
+])
+def test_solar_salt_spellings_agree(text):
+    from ionicity.scorer.mixture_notation import read_mixture_text
+    from ionicity.scorer.record import score_formula
+    out = score_formula(text)
+    assert out["substance_class"] == "mixture", out
+    fractions = dict(zip(out["mixture_components"].split(";"), map(float, out["mixture_mole_fractions"].split(";"))))
+    assert fractions["NaNO3"] == pytest.approx(SOLAR_SALT_X_NANO3, abs=1e-3)
+    assert read_mixture_text(text).basis == "wt"
+
+
+def test_balance_component_is_named_in_the_row():
+    from ionicity.scorer.record import score_formula
+    out = score_formula("NaCl + 5 mol% KCl")
+    assert out["status"] == "warning" and "taken as the balance, 95 mol%" in out["message"]
+    assert out["mixture_mole_fractions"] == "0.95;0.05"
+
+
+@pytest.mark.parametrize("text, words", [
+    ("60 wt% NaNO3 + 40 mol% KNO3", "mixes mol% and wt%"),
+    ("60 wt% NaNO3 + KNO3 + LiNO3", "amounts given for 1 of 3"),
+])
+def test_unreadable_amounts_are_row_errors(text, words):
+    from ionicity.scorer.record import score_formula
+    out = score_formula(text)
+    assert out["status"] == "error" and words in out["message"]
+
+
+def test_percentages_that_do_not_add_up_say_so():
+    from ionicity.scorer.record import score_formula
+    out = score_formula("50 wt% NaCl + 60 wt% KCl")
+    assert "add up to 110, not 100" in out["message"]
