@@ -108,6 +108,20 @@ def _joining_dash(text: str, i: int) -> bool:
     return before not in "^+-" and (after.isalpha() or after in "([ " or after.isdigit())
 
 
+# the words around a slash in a unit (mol/L, % w/v, mg/kg): no mixture there
+_UNIT_WORDS = frozenset("mol mmol umol µmol g mg ug µg kg w v l L ml mL dm3 cm3 m3".split())
+_WORD_BEFORE = re.compile(r"[A-Za-zµ0-9]*$")
+_WORD_AFTER = re.compile(r"^[A-Za-zµ0-9]*")
+
+
+def _joining_slash(text: str, i: int) -> bool:
+    if text[i] != "/":
+        return False
+    before = _WORD_BEFORE.search(text[:i].rstrip()).group()
+    after = _WORD_AFTER.match(text[i + 1:].lstrip()).group()
+    return bool(before) and bool(after) and before not in _UNIT_WORDS and after not in _UNIT_WORDS
+
+
 def _dash_split(text: str) -> list[str]:
     """Split at dashes that join two formulas (a dash at the end, or after ^, is a charge)."""
     return _split_outside_brackets(text, _joining_dash)
@@ -220,8 +234,8 @@ def read_mixture_text(text: str) -> MixtureText | None:
     elif any(d in body for d in "-–—") and len(_dash_split(body)) > 1:
         parts = _dash_split(body)
         joined_by = "-"
-    elif "/" in body and len(_split_top(body, "/")) > 1:
-        parts = _split_top(body, "/")
+    elif "/" in body and len(_split_outside_brackets(body, _joining_slash)) > 1:
+        parts = _split_outside_brackets(body, _joining_slash)
         joined_by = "/"
     elif any(d in body for d in _DOTS):
         parts = _split_top(body, _DOTS)
