@@ -111,6 +111,8 @@ _LETTER_RUN = re.compile(r"[A-Za-z]+")
 _NOT_A_LETTER = re.compile(r"[\W\d_]+")
 # digits run straight into a counted water at the end: "MgSO47H2O"
 _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
+# lattice water typed with the digit 0 for the letter O: "CaCl2·6H20", "CuSO4.5H20"
+_WATER_WITH_ZERO = re.compile(r"[·•∙⋅.*\s+]\d*(?:\.\d+)?H20$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
 MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$")
 _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
@@ -389,10 +391,13 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
 
     zeros = [m.start() for m in _ZERO.finditer(stripped) if m.start() > 0 and not stripped[m.start() - 1] in "*+ "]
     leading = any(not stripped[i - 1].isdigit() for i in zeros)
-    # a 0 inside a count (Fe203, Na20) may be a slip where the count is absurd or
-    # belongs to an element other than C and H (C10H8 is naphthalene)
-    if zeros and (leading or absurd_count(text) or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
-        consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options), leading)
+    # a 0 inside a count may be a slip where the count is absurd or belongs to an element
+    # other than C and H (Fe203, Na20) but not C10H8 (naphthalene); after a hydrate dot "H20" is water (CaCl2·6H20)
+    water_zero = zeros and _WATER_WITH_ZERO.search(stripped) is not None
+    if zeros and (leading or absurd_count(text) or water_zero
+                  or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
+        consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options),
+                 leading or water_zero)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
         # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many;

@@ -49,6 +49,10 @@ SLIPS = [
     ("NaBr", None, None),  # control
     ("FeSO47H2O", "FeSO4·7H2O", "hydrate_dot_missing"),
     ("BaCl22H2O", "BaCl2·2H2O", "hydrate_dot_missing"),
+    ("CaCl2.6H20", "CaCl2.6H2O", "zero_for_O"),  # lattice water typed H20
+    ("CuSO4·5H20", "CuSO4·5H2O", "zero_for_O"),
+    ("Na2CO3.10H20", "Na2CO3.10H2O", "zero_for_O"),
+    ("C10H20", None, None),  # control: decene, a count of 20 hydrogens (not after a hydrate dot)
 ]
 
 
