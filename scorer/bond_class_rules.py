@@ -37,10 +37,14 @@ the chemistry of the element pair (found by an audit of registry compounds,
 """
 from __future__ import annotations
 
+import re
+
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.substance import formal_oxidation_states
 
 __all__ = [
+    "ORGANOMETALLIC_NOTE",
+    "organometallic_reason",
     "HYDRIDE_MOLECULAR_MAX_DCHI",
     "HYDRIDE_POLYMERIC_MAX_DCHI",
     "HIGH_VALENT_MIN_STATE",
@@ -147,3 +151,43 @@ def high_valent_halide_reason(counts: dict[str, float]) -> str | None:
         " Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 22-25; from memory)"
     )
 
+
+
+ORGANOMETALLIC_NOTE = (
+    "organometallic or metal-organic: metal-carbon bonds of alkyl, aryl or arene groups (CH3Li, Zn(C2H5)2,"
+    " Cr(C6H6)2), or alkoxide groups written without a library ion (Al(OC3H7)3); a molecule or molecular"
+    " aggregate, not a salt of carbide ions beside H(+) (carbon bonded to hydrogen is no carbide); formal oxidation states not"
+    " assigned (IUPAC Red Book 2005, IR-10; Elschenbroich, Organometallics, 3rd ed., 2006, ch. 5-6; from"
+    " memory). Metal alkyls and aryls are air- and water-reactive, many pyrophoric"
+)
+_CARBON_ANION_PARTNERS = _HALOGENS
+
+
+def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
+    """Why a formula of a metal with carbon and hydrogen is an organometallic
+    molecule; None otherwise.
+
+    ``anion_ids`` are the anions of the best ionic reading (``None`` when no
+    reading balances). Carbon bonded to hydrogen is never a carbide anion, so
+    a reading that needs one (C(4-), C2(2-)) beside hydrogen is no reading; and
+    a metal with only carbon, hydrogen and halogens that no ions balance
+    (Zn(C2H5)2, C2H5MgCl) is a metal alkyl or aryl.
+
+    >>> organometallic_reason({"C": 1.0, "H": 3.0, "Li": 1.0}, ("C(4-)",)) is not None
+    True
+    >>> organometallic_reason({"C": 4.0, "H": 10.0, "Zn": 1.0}, None) is not None
+    True
+    >>> organometallic_reason({"C": 2.0, "Ca": 1.0}, ("C2(2-)",)), organometallic_reason({"C": 2.0, "H": 3.0, "Na": 1.0, "O": 2.0}, ("CH3COO(-)",))
+    (None, None)
+    """
+    if "C" not in counts or "H" not in counts or not any(is_metal(s) for s in counts):
+        return None
+    if anion_ids is None:
+        others = {s for s in counts if not is_metal(s)} - {"C", "H"}
+        return ORGANOMETALLIC_NOTE if others <= _CARBON_ANION_PARTNERS else None
+    if any(_CARBIDE_ANION.fullmatch(ion_id) for ion_id in anion_ids):
+        return ORGANOMETALLIC_NOTE
+    return None
+
+
+_CARBIDE_ANION = re.compile(r"C\d*\(\d*-\)")

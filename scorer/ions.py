@@ -29,6 +29,7 @@ import dataclasses
 import itertools
 
 from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
+from ionicity.scorer.bond_class_rules import organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
@@ -231,6 +232,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
+    if not comp.ion_hints:
+        # metal alkyls, aryls and arene complexes: no salt of carbide ions beside H(+)
+        organometallic = organometallic_reason(counts, None if chosen is None else [t.ion.ion_id for t in chosen[1]])
+        if organometallic is not None:
+            return Decomposition(
+                composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+                substance_class="covalent_molecular", notes=(organometallic,),
+            )
     if not readings:
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")

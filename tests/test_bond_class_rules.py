@@ -142,6 +142,27 @@ def test_nitrosyl_salts_of_large_anions_stay_salts(formula):
     assert _verdict(formula)[1] == "ionic_salt"
 
 
+# Metal alkyls, aryls and arene complexes are molecules or molecular aggregates with
+# metal-carbon bonds (Elschenbroich, Organometallics, 3rd ed., 2006, ch. 5-6 and 15;
+# IUPAC Red Book 2005, IR-10; from memory): never a salt of carbide ions beside H(+).
+@pytest.mark.parametrize("formula", [
+    "CH3Li", "C4H9Li", "CH3MgBr", "C2H5MgCl", "Al2(CH3)6", "Zn(C2H5)2", "Sn(CH3)4", "Pb(C2H5)4",
+    "(CH3)3SnCl", "Hg(CH3)2", "Cr(C6H6)2", "LiC6H5", "C10H10Fe",
+])
+def test_metal_alkyls_and_arene_complexes_are_molecules(formula):
+    out = score_formula(formula)
+    assert out["substance_class"] == "covalent_molecular", out
+    assert "organometallic" in out["message"]
+    assert not out["anions"] or "C(4-)" not in out["anions"]
+
+
+# Salts with carbon in a real anion stay salts: carbides without hydrogen (CaC2 acetylide,
+# Al4C3 methanide), acetate, methoxide, oxalate (Greenwood & Earnshaw ch. 8.4; from memory).
+@pytest.mark.parametrize("formula", ["CaC2", "Al4C3", "CH3COONa", "NaOCH3", "Na2C2O4", "KCN"])
+def test_carbon_anion_salts_stay_salts(formula):
+    assert _verdict(formula)[1] == "ionic_salt"
+
+
 def _counts(formula):
     from ionicity.scorer.formula import parse_formula
     return parse_formula(formula).counts
