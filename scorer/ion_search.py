@@ -203,6 +203,10 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
 
 
+# anions that pair with no cation in a formula without a metal: H2CN2 is cyanamide or
+# diazomethane, C2H4N4 dicyandiamide, molecules (CN2(2-) is a salt anion only beside a
+# metal, as in CaCN2; Greenwood & Earnshaw, 2nd ed., 1997, ch. 8.6; from memory)
+_NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)"})
 # monatomic ions an organic formula may hold as one side of its ion pair
 _ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
 
@@ -227,7 +231,7 @@ def _ion_pair_readings(counts_key: tuple[tuple[str, float], ...]):
             candidates.append(monatomic_ion(symbol, charge))
     # every candidate is made of the formula's elements only: a pair fits only if together they hold all of them
     anions = [(ion, dict(ion.composition), frozenset(symbol for symbol, _ in ion.composition))
-              for ion in candidates if ion.charge < 0]
+              for ion in candidates if ion.charge < 0 and ion.ion_id not in _NO_ORGANIC_PAIR_ANIONS]
     symbols = tuple(counts)
     present = frozenset(symbols)
     readings = []

@@ -460,3 +460,22 @@ def test_added_onium_ions_match_the_registry_salt(ion_id, counter, cas):
     assert Counter({el: item.count for el, item in ours.composition().items()}) == Counter(
         {el: item.count for el, item in molmass.Formula(entry.formula).composition().items()}), cas
     assert ours.mass == pytest.approx(entry.MW, abs=0.05), cas
+
+
+# Calcium cyanamide (the fertiliser, Ca(2+) with N=C=N(2-)) and sodium cyanoborohydride
+# (Na(+) with [BH3CN](-)) are salts (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed.,
+# 1997, ch. 8.6 and 6.7; from memory); their molar masses checked against periodictable.
+# Cyanamide itself (H2NCN, CH2N2, also diazomethane) is a molecule, not an acid of CN2(2-).
+@pytest.mark.parametrize("formula, anion", [("CaCN2", "CN2(2-)*1"), ("NaBH3CN", "BH3CN(-)*1"), ("Ag2CN2", "CN2(2-)*1")])
+def test_cyanamide_and_cyanoborohydride_salts(formula, anion):
+    import periodictable
+    from ionicity.scorer.record import score_formula
+    out = score_formula(formula)
+    assert out["substance_class"] == "ionic_salt" and out["anions"] == anion
+    assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(formula).mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("formula", ["CH2N2", "H2NCN"])
+def test_cyanamide_without_a_metal_is_a_molecule(formula):
+    from ionicity.scorer.record import score_formula
+    assert score_formula(formula)["substance_class"] == "covalent_molecular"
