@@ -36,6 +36,7 @@ import unicodedata
 from dataclasses import dataclass, field
 
 from ionicity.scorer import ion_library
+from ionicity.scorer.abbreviations import expand_abbreviations
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.elements import is_element_symbol
 from ionicity.scorer.grammar import (
@@ -358,6 +359,9 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text
     text_to_parse = _shorthand_with_spaces(text_to_parse)
     cleaned = _normalise_text(text_to_parse)
+    cleaned, abbreviations = expand_abbreviations(cleaned)
+    if abbreviations:
+        notes.append("read the abbreviations " + ", ".join(abbreviations) + " (common practice)")
     m = _UNSTATED_WATER.fullmatch(cleaned)
     if m:
         # "CoCl2·xH2O", "Fe2O3.nH2O": a hydrate of unstated water, as catalogues and stock
@@ -521,11 +525,19 @@ def _shorthand_with_spaces(text: str) -> str:
     return f"[{words[0]}][{words[1]}]" if second is not None else f"[{words[0]}]{words[1]}"
 
 
+# symbols never suggested for two capitals in mixed-case text (LiHMDS is no mendelevium
+# compound): short-lived and synthetic elements (common practice; scorer.slips keeps the same list)
+_RARE_FOR_SUGGESTIONS = frozenset(
+    "Tc Pm Po At Rn Fr Ra Ac Pa Np Pu Am Cm Bk Cf Es Fm Md No Lr Rf Db Sg Bh Hs Mt Ds Rg Cn Nh Fl Mc Lv Ts Og".split()
+)
+
+
 def _suggest(cleaned: str) -> str | None:
     """A corrected spelling for a mis-cased symbol ("NaCL" -> "NaCl")."""
     for i in range(len(cleaned) - 1):
         pair = cleaned[i:i + 2]
-        if pair.isupper() and pair.isalpha() and is_element_symbol(pair[0] + pair[1].lower()):
+        if pair.isupper() and pair.isalpha() and is_element_symbol(pair[0] + pair[1].lower()) \
+                and (pair[0] + pair[1].lower() not in _RARE_FOR_SUGGESTIONS or cleaned.isupper()):
             candidate = cleaned[:i] + pair[0] + pair[1].lower() + cleaned[i + 2:]
             try:
                 _parse_cleaned(candidate, candidate, [])

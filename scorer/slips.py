@@ -45,7 +45,7 @@ from dataclasses import dataclass
 from ionicity.scorer import ion_library
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import element_symbols, get_element
-from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 
@@ -250,8 +250,11 @@ def _symbols_folded() -> dict[str, str]:
     return {s.casefold(): s for s in element_symbols()}
 
 
-def _recasings(run: str) -> list[str]:
-    """Every way to write the letters of ``run`` as element symbols."""
+def _recasings(run: str, rare: bool = True) -> list[str]:
+    """Every way to write the letters of ``run`` as element symbols; with ``rare``
+    False, a short-lived or synthetic element only where it is typed so: in
+    mixed-case text a re-casing that brings one in reads an abbreviation as an
+    element ("Cu(acac)2" -> Cu(AcAc)2, actinium; common practice)."""
     folded = _symbols_folded()
     out: list[str] = []
 
@@ -263,19 +266,19 @@ def _recasings(run: str) -> list[str]:
             return
         for width in (1, 2):
             symbol = folded.get(run[i:i + width].casefold()) if i + width <= len(run) else None
-            if symbol:
+            if symbol and (rare or symbol not in _RARE_FOR_SUGGESTIONS or run[i:i + width] == symbol):
                 walk(i + width, parts + [symbol])
 
     walk(0, [])
     return out
 
 
-def _case_proposals(text: str) -> list[str]:
+def _case_proposals(text: str, rare: bool = True) -> list[str]:
     runs = list(_LETTER_RUN.finditer(text))
     proposals = [""]
     last = 0
     for m in runs:
-        options = _recasings(m.group())
+        options = _recasings(m.group(), rare)
         if not options:
             return []
         proposals = [p + text[last:m.start()] + o for p in proposals for o in options][:_MAX_PROPOSALS]
@@ -423,7 +426,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # capitals or all lower case, is re-cased
     unreadable = _parsed(text) is None
     if all_caps or all_lower or unreadable:
-        consider("letter_case", lambda: _case_proposals(stripped), all_lower or unreadable)
+        consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower), all_lower or unreadable)
     if not candidates:
         return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
     written = written_penalty()

@@ -1,0 +1,102 @@
+"""Organic group and ligand abbreviations in formula text: ``PhLi``, ``PPh3``,
+``Cu(acac)2``, ``Ti(OiPr)4``, ``Cp2ZrCl2``, ``AcOH`` written out as element groups.
+
+Stock lists and reagent catalogues write metal-organic reagents with the
+abbreviations of the trade (IUPAC Blue Book 2013, P-61 and P-68, for the
+groups; common practice for the ligands). None of the abbreviations below is
+an element symbol or starts one, so each is found by a plain scan: ``Me``,
+``Et``, ``Bu``, ``Ph``, ``Bn``, ``Cy`` and ``Cp`` begin with a capital that
+no element pairs with the following lower-case letter, and ``acac`` is taken only where a bracket,
+a count or the text's edge delimits it. ``Pr`` (praseodymium), ``Ac``
+(actinium) and ``Ts`` (tennessine) are symbols and are read as elements
+unless prefixed (``iPr``, ``nPr``; ``OAc`` is an ion of the library) or in
+the whole words ``AcOH``, ``Ac2O`` and ``AcCl`` (AcCl3 is actinium's).
+Neutral N-donor ligands (py, en, bpy, phen) are not expanded: the solver has
+no reading of their complexes, and a row error says so more honestly than a
+reading of their atoms as ions would.
+
+>>> expand_abbreviations("Ti(OiPr)4")
+('Ti(O(C3H7))4', ('iPr = C3H7 (isopropyl)',))
+>>> expand_abbreviations("Cu(acac)2")
+('Cu((C5H7O2))2', ('acac = C5H7O2 (acetylacetonate)',))
+>>> expand_abbreviations("SnBu3Cl")[0]
+'Sn(C4H9)3Cl'
+>>> expand_abbreviations("NaCl")
+('NaCl', ())
+"""
+from __future__ import annotations
+
+import re
+
+from ionicity.scorer.elements import is_element_symbol
+
+__all__ = ["ABBREVIATIONS", "expand_abbreviations"]
+
+# abbreviation -> (element group, name); longer spellings first where one contains another
+ABBREVIATIONS: dict[str, tuple[str, str]] = {
+    # acetyl compounds as whole words: AcCl3 and Ac2O3 stay actinium's
+    "AcOH": ("CH3COOH", "acetic acid"),
+    "Ac2O": ("(CH3CO)2O", "acetic anhydride"),
+    "AcCl": ("CH3COCl", "acetyl chloride"),
+    "Cp*": ("C5(CH3)5", "pentamethylcyclopentadienyl"),
+    "tBu": ("C4H9", "tert-butyl"),
+    "nBu": ("C4H9", "n-butyl"),
+    "sBu": ("C4H9", "sec-butyl"),
+    "iBu": ("C4H9", "isobutyl"),
+    "Bu": ("C4H9", "butyl"),
+    "iPr": ("C3H7", "isopropyl"),
+    "nPr": ("C3H7", "n-propyl"),
+    "Me": ("CH3", "methyl"),
+    "Et": ("C2H5", "ethyl"),
+    "Ph": ("C6H5", "phenyl"),
+    "Bn": ("C7H7", "benzyl"),
+    "Cy": ("C6H11", "cyclohexyl"),
+    "Cp": ("C5H5", "cyclopentadienyl"),
+    "acac": ("C5H7O2", "acetylacetonate"),
+}
+_CAPITALISED = [a for a in ABBREVIATIONS if a[0].isupper() or a[0] in "tnsi"]
+_LOWER = [a for a in ABBREVIATIONS if a not in _CAPITALISED]
+# a capitalised abbreviation is not followed by a lower-case letter (Bun is no Bu);
+# a lower-case one stands between brackets, counts, dots or the text's edges
+_WHOLE_WORDS = ("AcOH", "Ac2O", "AcCl")
+_PATTERN = re.compile(
+    "|".join(
+        [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z0-9])" for a in _WHOLE_WORDS]
+        + [rf"{re.escape(a)}(?![a-z])" for a in _CAPITALISED if a not in _WHOLE_WORDS]
+        + [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z])" for a in _LOWER]
+    )
+)
+_HILL = {"C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
+# the trade's tetraalkylammonium shorthand (Bu4N, NBu4) is left to the ionic-liquid reader
+_QUICK = frozenset("MEBPCAatnsi")
+
+
+def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
+    """(text with abbreviations written out, one note per abbreviation used).
+
+    Parameters
+    ----------
+    text : str
+        Formula text after Unicode normalisation.
+    """
+    if _QUICK.isdisjoint(text) or not _PATTERN.search(text):
+        return text, ()
+    used: dict[str, str] = {}
+
+    def replace(m: re.Match) -> str:
+        word = m.group()
+        if word[0] in "tnsi" and m.start() and is_element_symbol(text[m.start() - 1] + word[0]):
+            # the prefix letter ends an element symbol: SnBu3 is Sn(C4H9)3, LiPr2 stays praseodymium's
+            rest = word[1:]
+            if rest not in ABBREVIATIONS:
+                return word
+            group, name = ABBREVIATIONS[rest]
+            used[rest] = f"{rest} = {_HILL.get(group, group)} ({name})"
+            return f"{word[0]}({group})"
+        group, name = ABBREVIATIONS[word]
+        used[m.group()] = f"{m.group()} = {_HILL.get(group, group)} ({name})"
+        # bracketed, so that a count after the abbreviation counts the group (PPh3)
+        return f"({group})"
+
+    expanded = _PATTERN.sub(replace, text)
+    return expanded, tuple(used.values())
