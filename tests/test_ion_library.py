@@ -479,3 +479,12 @@ def test_cyanamide_and_cyanoborohydride_salts(formula, anion):
 def test_cyanamide_without_a_metal_is_a_molecule(formula):
     from ionicity.scorer.record import score_formula
     assert score_formula(formula)["substance_class"] == "covalent_molecular"
+
+
+# Alkali polysulfides up to the hexasulfide, S6(2-) (Greenwood & Earnshaw, 2nd ed., 1997,
+# ch. 15.2.4: K2S6, Cs2S6; from memory): sulfur at -1/3 on average.
+@pytest.mark.parametrize("formula", ["K2S6", "Cs2S6"])
+def test_hexasulfides_read_as_polysulfide_salts(formula):
+    from ionicity.scorer.record import score_formula
+    out = score_formula(formula)
+    assert out["anions"] == "S6(2-)*1" and "S:-0.333" in out["oxidation_states"]
