@@ -19,6 +19,8 @@ reading of their atoms as ions would.
 ('Ti(O(C3H7))4', ('iPr = C3H7 (isopropyl)',))
 >>> expand_abbreviations("Cu(acac)2")
 ('Cu((C5H7O2))2', ('acac = C5H7O2 (acetylacetonate)',))
+>>> expand_abbreviations("[EtNH3][NO3]")
+('[EtNH3][NO3]', ())
 >>> expand_abbreviations("SnBu3Cl")[0]
 'Sn(C4H9)3Cl'
 >>> expand_abbreviations("NaCl")
@@ -85,6 +87,8 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
 
     def replace(m: re.Match) -> str:
         word = m.group()
+        if text.count("[", 0, m.start()) > text.count("]", 0, m.start()):
+            return word  # square brackets hold the ion library's codes ([EtNH3], [Me4N]): read there
         if word[0] in "tnsi" and m.start() and is_element_symbol(text[m.start() - 1] + word[0]):
             # the prefix letter ends an element symbol: SnBu3 is Sn(C4H9)3, LiPr2 stays praseodymium's
             rest = word[1:]

@@ -73,9 +73,15 @@ def read_name(name) -> str | None:
     if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
         return None
     try:
-        return _read_text(name)
+        formula = _read_text(name)
     except Exception:  # a name must never stop a batch: what cannot be read is unread
         return None
+    # the elements that are diatomic molecules as substances: "iodine" on a bottle is I2
+    # (IUPAC Red Book 2005, IR-3.4.2: dihydrogen, dichlorine; common practice for the bare names)
+    return formula + "2" if formula in _DIATOMIC else formula
+
+
+_DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
 
 
 def _read_text(name: str) -> str | None:

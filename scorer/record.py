@@ -26,6 +26,7 @@ from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_cha
 from ionicity.scorer.name_reader import parse_as_name
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
+from ionicity.scorer.solutions import split_grade_words
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import finalise
 
@@ -314,8 +315,26 @@ def _plain_row(text: str) -> tuple:
     except FormulaError as exc:
         comp = parse_as_name(text)  # a name typed in the formula column ("choline chloride")
         if comp is None:
-            return _error_row(str(exc))
+            comp = _without_grade_words(text)
+            if comp is None:
+                return _error_row(str(exc))
     return _parsed_row(comp)
+
+
+def _without_grade_words(text: str):
+    """The formula or name before grade and form words ("NaOH pellets", "Na2SO4
+    anhydrous"), with a note naming the words left out; None when there are none
+    or the rest does not read either."""
+    body, words = split_grade_words(text)
+    if words is None:
+        return None
+    try:
+        comp = parse_formula(body)
+    except FormulaError:
+        comp = parse_as_name(body)
+        if comp is None:
+            return None
+    return comp.respelled(text, notes=(*comp.notes, f"ignored the grade or form words {words!r}"))
 
 
 def score_row(text) -> tuple:

@@ -26,7 +26,7 @@ from dataclasses import dataclass
 
 from ionicity.scorer.caution import CAUTION
 
-__all__ = ["Solution", "split_solution", "solution_note", "CORROSIVE_CLASSES"]
+__all__ = ["Solution", "split_solution", "solution_note", "split_grade_words", "CORROSIVE_CLASSES"]
 
 # substance classes whose solutions are corrosive (common practice)
 CORROSIVE_CLASSES = frozenset({"acid", "base"})
@@ -114,3 +114,31 @@ def solution_note(solution: Solution, substance_class: str) -> str:
             f" diluting or mixing it ({CAUTION})"
         )
     return note
+
+
+# grade, purity and form words that catalogues and stock lists write after a formula or a
+# name ("NaOH pellets", "Na2SO4 anhydrous", "NaCl ACS reagent, 99.5%"; common practice)
+_GRADE_WORD = (
+    r"anhydrous|anhydr\.?|anhyd\.?|pellets?|powder(?:ed)?|flakes?|granular|granules?|crystals?|crystalline|cryst\.?"
+    r"|beads?|lumps?|pieces?|chips?|shot|wire|foil|sticks?|rods?|ingots?|turnings|dust|fine|coarse|dried|fused"
+    r"|precipitated|sublimed|resublimed|purified|recrystalli[sz]ed|distilled|redistilled|ACS|reagent|grade|technical|tech\.?|pure|puriss\.?|p\.\s?a\.|extra|ultrapure|analytical"
+    r"|for\s+analysis|AR|LR|GR|USP|BP|EP|Ph\.?\s?Eur\.?|FCC|HPLC|min\.?|approx\.?|ca\.?"
+    r"|\d+(?:[.,]\d+)?\s*%"
+)
+_GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)
+
+
+def split_grade_words(text: str) -> tuple[str, str | None]:
+    """(text without the grade and form words at its end, the words as written or None).
+
+    >>> split_grade_words("NaOH pellets")
+    ('NaOH', 'pellets')
+    >>> split_grade_words("Sodium chloride, ACS reagent, 99.5%")
+    ('Sodium chloride', 'ACS reagent, 99.5%')
+    >>> split_grade_words("NaCl")
+    ('NaCl', None)
+    """
+    m = _GRADE_TAIL.search(text) if isinstance(text, str) else None
+    if m is None or m.start() == 0:
+        return text, None
+    return text[:m.start()].rstrip(" ,;"), text[m.start():].strip(" ,;.") or None

@@ -174,3 +174,22 @@ def test_an_acid_solution_defers_to_the_safety_data_sheet():
 def test_plain_formulas_are_not_solutions(text):
     assert split_solution(text) is None
     assert score_formula(text)["concentration_as_written"] is None
+
+
+# Grade, purity and form words written after a formula or a name, as catalogues and stock
+# lists do (common practice): the compound is scored and the row names the words left out.
+@pytest.mark.parametrize("text, formula", [
+    ("NaOH pellets", "NaOH"), ("Sodium hydroxide pellets", "NaOH"), ("Na2SO4 anhydrous", "Na2SO4"),
+    ("NaCl ACS reagent", "NaCl"), ("NaCl 99.9% ACS reagent", "NaCl"), ("Mg turnings", "Mg"),
+    ("CuSO4·5H2O cryst.", "CuSO4·5H2O"), ("iodine, resublimed", "I2"), ("copper(II) oxide, wire", "CuO"),
+])
+def test_grade_and_form_words_are_left_out_and_named(text, formula):
+    record = score_formula(text)
+    assert record["status"] == "warning"
+    assert record["formula_normalized"] == formula
+    assert "ignored the grade or form words" in record["message"]
+
+
+@pytest.mark.parametrize("text", ["NaCl pellet-ish", "NaCl granulated sugar"])
+def test_unknown_trailing_words_stay_errors(text):
+    assert score_formula(text)["status"] == "error"

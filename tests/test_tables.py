@@ -35,7 +35,7 @@ ROWS = {
     "dispersion_coefficients.csv": 20,
     "formation_enthalpies.csv": 20,
     "atomisation_enthalpies.csv": 10,
-    "element_melting_points.csv": 79,
+    "element_melting_points.csv": 80,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "trivial_names.csv": 109,
