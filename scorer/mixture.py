@@ -40,6 +40,7 @@ from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_la
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
+from ionicity.scorer.name_reader import parse_as_name
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
 from ionicity.scorer.verdict import finalise
@@ -374,9 +375,11 @@ def read_mixture(text: str, score_row) -> Mixture | str | None:
             try:
                 comp = parse_formula(part)
             except FormulaError as exc:
-                if blend is None and ":" not in text_to_read and not mixture_text.amounts and _reads_as_compound(text):
-                    return None  # a dash or plus inside a compound's own notation
-                return f"component {part!r} of the mixture: {exc}"
+                comp = parse_as_name(part)  # a component named ("sodium chloride + potassium chloride")
+                if comp is None:
+                    if blend is None and ":" not in text_to_read and not mixture_text.amounts and _reads_as_compound(text):
+                        return None  # a dash or plus inside a compound's own notation
+                    return f"component {part!r} of the mixture: {exc}"
             if comp.charge != 0:
                 return None if blend is None else f"component {part!r} of the blend {blend[0]!r} is an ion"
         components.append(_resolve(part, score_row))
@@ -518,6 +521,8 @@ def mixture_row(text: str, score_row) -> tuple | None:
     found = read_mixture(text, score_row)
     if found is None:
         return None
+    if isinstance(found, str) and parse_as_name(text) is not None:
+        return None  # a name with hyphens ("1-ethyl-3-methylimidazolium chloride"), not a mixture
     if isinstance(found, str):
         _, position, empty, _ = _layout()
         row = list(empty)

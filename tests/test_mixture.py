@@ -254,3 +254,23 @@ def test_percentages_that_do_not_add_up_say_so():
     from ionicity.scorer.record import score_formula
     out = score_formula("50 wt% NaCl + 60 wt% KCl")
     assert "add up to 110, not 100" in out["message"]
+
+
+# Names read as names before mixtures: the hyphens of a systematic ionic-liquid name join
+# no components (the IUPAC names of the ions, from the ion library), and components may
+# themselves be names (common practice in formulation sheets).
+@pytest.mark.parametrize("text, formula", [
+    ("1-ethyl-3-methylimidazolium chloride", "[C2mim]Cl"),
+    ("1-butyl-3-methylimidazolium tetrafluoroborate", "[C4mim][BF4]"),
+])
+def test_hyphenated_ionic_liquid_names_are_compounds(text, formula):
+    from ionicity.scorer.record import score_formula
+    out = score_formula(text)
+    assert out["substance_class"] == "ionic_liquid_pair" and out["formula_normalized"] == formula
+
+
+def test_mixture_components_may_be_names():
+    from ionicity.scorer.record import score_formula
+    out = score_formula("sodium nitrate + potassium nitrate 60:40 wt%")
+    assert out["mixture_components"] == "NaNO3;KNO3"
+    assert float(out["mixture_mole_fractions"].split(";")[0]) == pytest.approx(SOLAR_SALT_X_NANO3, abs=1e-3)
