@@ -40,6 +40,10 @@ ABBREVIATIONS: dict[str, tuple[str, str]] = {
     "AcOH": ("CH3COOH", "acetic acid"),
     "Ac2O": ("(CH3CO)2O", "acetic anhydride"),
     "AcCl": ("CH3COCl", "acetyl chloride"),
+    # the A-site cations of hybrid perovskites, as that literature writes them (MAPbI3, FA0.8Cs0.2PbI3);
+    # not GA (guanidinium), which in capitals is gallium (GAAS for GaAs)
+    "MA": ("[MeNH3]", "methylammonium"),
+    "FA": ("[FA]", "formamidinium"),
     "Cp*": ("C5(CH3)5", "pentamethylcyclopentadienyl"),
     "tBu": ("C4H9", "tert-butyl"),
     "nBu": ("C4H9", "n-butyl"),
@@ -68,9 +72,9 @@ _PATTERN = re.compile(
         + [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z])" for a in _LOWER]
     )
 )
-_HILL = {"C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
+_HILL = {"[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
 # the trade's tetraalkylammonium shorthand (Bu4N, NBu4) is left to the ionic-liquid reader
-_QUICK = frozenset("MEBPCAatnsi")
+_QUICK = frozenset("MEBPCAFatnsi")
 
 
 def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
@@ -100,7 +104,12 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
         group, name = ABBREVIATIONS[word]
         used[m.group()] = f"{m.group()} = {_HILL.get(group, group)} ({name})"
         # bracketed, so that a count after the abbreviation counts the group (PPh3)
-        return f"({group})"
+        return group if group.startswith("[") else f"({group})"
 
     expanded = _PATTERN.sub(replace, text)
+    if "([" in expanded:
+        expanded = _CODE_IN_PARENTHESES.sub(r"\1", expanded)  # (MA)2PbI4: the code's own brackets suffice
     return expanded, tuple(used.values())
+
+
+_CODE_IN_PARENTHESES = re.compile(r"\((\[[A-Za-z0-9]+\])\)")

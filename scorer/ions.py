@@ -146,6 +146,15 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
+def _amidinium_salt(counts: dict[str, float]) -> bool:
+    """Whether a formula written with NH2 groups reads as a salt of an amidinium
+    cation of the library (formamidinium, guanidinium)."""
+    if not organic_candidate(counts):
+        return False
+    return any(ion.family == "amidinium" and ion.charge > 0
+               for _, terms in _ion_pair_readings(tuple(sorted(counts.items()))) for ion, _ in terms)
+
+
 def decompose_within(comp: ParsedFormula, work_limit: int) -> tuple[Decomposition, int]:
     """:func:`decompose_anhydrous` with the walks of its read limited to
     ``work_limit`` units of solver work (at most ``_SEARCH_BUDGET``), and the
@@ -192,8 +201,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-    if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols):
-        # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts
+    if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
+        # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
+        # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     if comp.structure_hint == "organometallic" and any(is_metal(s) for s in symbols):
         # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2

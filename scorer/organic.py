@@ -224,7 +224,14 @@ def _molecule(counts: tuple[tuple[str, float], ...], amide: bool = False) -> Dec
     if key is None:
         return None
     symbol, primitive = key[0]
-    if not amide and not _read_as_molecule(as_dict, key, round(as_dict[symbol]) // primitive):
+    if amide:
+        # NH2 groups written out mark a molecule (urea), unless they are an amidinium
+        # cation's own (HC(NH2)2I, C(NH2)3Cl): the solver reads those
+        multiple = round(as_dict[symbol]) // primitive
+        if any(getattr(cation, "family", None) == "amidinium" and not multiple % common
+               for common, cation, *_ in _pairs_by_ratio().get(key, ())):
+            return None
+    elif not _read_as_molecule(as_dict, key, round(as_dict[symbol]) // primitive):
         return None
     # what scorer.ions reads for a formula without ions: no notes, no water, no adducts
     return settle(nonionic_decomposition(0, as_dict, [], 0.0, ()))

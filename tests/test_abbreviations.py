@@ -59,3 +59,32 @@ def test_mixed_case_text_is_never_recased_into_a_rare_element(text):
 def test_all_capitals_may_still_be_recased_into_any_element():
     # PUO2 typed in capitals is plutonium dioxide (a re-casing of the whole text)
     assert score_formula("PUO2")["formula_suggested"] == "PuO2"
+
+
+# Hybrid perovskites as their literature writes them: MA methylammonium CH3NH3+, FA
+# formamidinium HC(NH2)2+ (guanidinium C(NH2)3+ written out: GA in capitals is gallium) (Jena, Kulkarni & Miyasaka, Chem. Rev.
+# 2019, 119, 3036, from memory); Pb(2+) and the halide, molar mass against periodictable.
+@pytest.mark.parametrize("typed, formula, cation", [
+    ("MAPbI3", "CH6NPbI3", "[MeNH3](+)*1"), ("FAPbI3", "CH5N2PbI3", "[FA](+)*1"),
+    ("C(NH2)3PbI3", "CH6N3PbI3", "[GA](+)*1"), ("(MA)2PbI4", "C2H12N2PbI4", "[MeNH3](+)*2"),
+])
+def test_perovskite_a_site_abbreviations(typed, formula, cation):
+    out = score_formula(typed)
+    assert cation in out["cations"] and "Pb(2+)*1" in out["cations"]
+    assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(formula).mass, rel=1e-4)
+
+
+def test_mixed_a_site_keeps_the_written_fractions():
+    out = score_formula("Cs0.05FA0.8MA0.15PbI3")
+    assert out["cations"] == "Cs(+)*0.05;Pb(2+)*1;[FA](+)*0.8;[MeNH3](+)*0.15"
+
+
+# Amidinium salts written with their NH2 groups are salts (guanidinium chloride and nitrate;
+# formamidinium iodide, the perovskite precursor), urea and thiourea stay molecules
+# (Greenwood & Earnshaw ch. 8; from memory).
+@pytest.mark.parametrize("typed, cls", [
+    ("C(NH2)3Cl", "ionic_liquid_pair"), ("C(NH2)3NO3", "ionic_liquid_pair"), ("HC(NH2)2I", "ionic_liquid_pair"),
+    ("guanidinium chloride", "ionic_liquid_pair"), ("CO(NH2)2", "covalent_molecular"), ("CS(NH2)2", "covalent_molecular"),
+])
+def test_amidinium_salts_and_amides(typed, cls):
+    assert score_formula(typed)["substance_class"] == cls
