@@ -158,7 +158,8 @@ ORGANOMETALLIC_NOTE = (
     " Cr(C6H6)2), or alkoxide groups written without a library ion (Al(OC3H7)3); a molecule or molecular"
     " aggregate, not a salt of carbide ions beside H(+) (carbon bonded to hydrogen is no carbide); formal oxidation states not"
     " assigned (IUPAC Red Book 2005, IR-10; Elschenbroich, Organometallics, 3rd ed., 2006, ch. 5-6; from"
-    " memory). Metal alkyls and aryls are air- and water-reactive, many pyrophoric"
+    " memory). Metal alkyls and aryls are air- and water-reactive, many pyrophoric: this is a reading of the"
+    " formula, not a hazard assessment; follow the safety data sheet"
 )
 _CARBON_ANION_PARTNERS = _HALOGENS
 
