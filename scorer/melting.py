@@ -568,6 +568,12 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index = math.log10(temperature) if temperature > 0 else math.nan
         steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"
                  f" (solid at 25 C; CRC Handbook via chemicals) = {temperature:.0f} K, {how}",)
+        if dec.substance_class == "intermetallic" and math.isfinite(index):
+            variance = routes.intermetallic_mixing_variance(dec.composition)
+            index += TREND_WEIGHTS["intermetallic_chi_variance"] * variance
+            steps = (*steps, f"  intermetallic: + {TREND_WEIGHTS['intermetallic_chi_variance']} * variance of the"
+                             f" Pauling electronegativities {variance:.3f} (heat of formation, Pauling's"
+                             f" bond-energy relation) -> {trend_temperature_K(index):.0f} K")
         formal = _formal_salt(dec)
         salt = _salt(formal)[0] if formal is not None else math.nan
         if math.isfinite(salt) and not salt <= index:

@@ -98,6 +98,11 @@ TREND_WEIGHTS: dict[str, float] = {
     # linear pseudohalides bound at both ends by 18/18+2-electron cations: chains and
     # frameworks, not the molecules and layers the covalency terms stand for (TlN3 607 K)
     "soft_cation_pseudohalide": 0.315,
+    # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
+    # melting point per unit of the electronegativity variance (Pauling's heat of formation),
+    # least squares through the origin on the calibration rows of
+    # datasets/melting/intermetallic_compounds.csv (pipelines.melting_weights.fit_intermetallic_weight)
+    "intermetallic_chi_variance": 0.554,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
     "molecular_contact_kJ_mol": 1.08,
     "molecular_polarisability_kJ_mol_A3": 0.60,
