@@ -75,7 +75,10 @@ from memory), ``low_melting_salt`` (to 573.15 K), ``molten_salt`` (to
 1773.15 K). Other compounds: ``liquid_at_room_temperature`` (below 298.15 K),
 ``melts_below_100C`` (to 373.15 K), ``low_melting_solid`` (to 573.15 K),
 ``high_melting_solid`` (to 1773.15 K). Any compound from 1773.15 K up is
-``refractory`` (ISO 836 refractoriness, from memory).
+``refractory`` (ISO 836 refractoriness, from memory). A salt hydrate with four
+or more waters per formula unit is ``melts_in_own_water`` (below 373.15 K;
+:func:`hydrate_melting_class`, :func:`scorer.melting_routes.water_rich_hydrate`):
+it melts in its own water of crystallisation whatever its anhydrous salt does.
 
 Applying a fitted model lives in :mod:`scorer.melting_model`.
 

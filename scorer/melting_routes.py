@@ -26,9 +26,10 @@ mean something:
 * ``element_mixture`` (``covalent_network``, ``semiconductor``, ``metallic``,
   ``intermetallic``, ``zintl_phase``, ``element``): the stated rule of
   :func:`element_mixture_melting_K`, the atom-fraction weighted mean of the
-  melting points of the elements that are solids at room temperature, or the
-  salt index where the compound has an ionic reading and that is higher
-  (polar networks such as GaN and AlN).
+  melting points of the elements that are solids at room temperature (for an
+  ``intermetallic`` raised by the variance of the elements' electronegativities,
+  :func:`intermetallic_mixing_variance`), or the salt index where the compound
+  has an ionic reading and that is higher (polar networks such as GaN and AlN).
 
 Melting classes (:data:`MELTING_CLASS_BANDS`) share the same temperature
 bands; salts keep the trade's names (``ionic_liquid`` is a salt melting below
