@@ -81,6 +81,7 @@ SALT_FEATURES = (
 RESIDUAL_FEATURES = (
     ("crystal_field", lambda t: t.crystal_field_share),
     ("saline_nitride", lambda t: -t.saline_nitride_fraction),
+    ("soft_cation_pseudohalide", lambda t: t.soft_pseudohalide_fraction),
 )
 
 
@@ -239,7 +240,7 @@ def _index_with(terms, weights) -> float:
         terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction,
         terms.hydrogen_bonded_anion_fraction, terms.anion_symmetry_log10, terms.hydride_fraction,
         terms.hard_anion_fraction, terms.delta_chi_pauling, terms.crystal_field_share,
-        terms.saline_nitride_fraction, weights=weights)
+        terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:
@@ -305,6 +306,50 @@ def fit_molecular_weights(rows) -> dict[str, float]:
         b.append(1.0)
     w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
     return dict(zip(MOLECULAR_WEIGHTS, map(float, w)))
+
+
+INTERMETALLIC_SET = MOLECULAR_SET.with_name("intermetallic_compounds.csv")
+
+
+def intermetallic_rows():
+    """(split, formula, element-mixture K, electronegativity variance, measured K) of
+    datasets/melting/intermetallic_compounds.csv (chemicals Tm at run time; ``excluded`` rows left out)."""
+    from chemicals.phase_change import Tm  # melting extra
+
+    out = []
+    with open(INTERMETALLIC_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"])
+            if value is None or row["set"] == "excluded":
+                continue
+            composition = decompose(parse_formula(row["formula"])).composition
+            mixture_K, _ = routes.element_mixture_melting_K(composition)
+            out.append((row["set"], row["formula"], mixture_K,
+                        routes.intermetallic_mixing_variance(composition), float(value)))
+    return out
+
+
+def fit_intermetallic_weight(rows) -> float:
+    """``intermetallic_chi_variance``: least squares through the origin of log10(T_m / T_mix) on the
+    electronegativity variance, calibration rows only (no intercept: the rule of mixtures stands for
+    a compound of like elements)."""
+    x = np.array([v for split, _, _, v, _ in rows if split == "calibration"])
+    y = np.array([math.log10(t / m) for split, _, m, _, t in rows if split == "calibration"])
+    return float(np.sum(x * y) / np.sum(x * x))
+
+
+def intermetallic_figures(rows, weight: float) -> dict:
+    """Per split: mean |log10 error|, share within a factor 1.5 and class right, with and without the term."""
+    out = {}
+    for split in ("calibration", "validation"):
+        chosen = [r for r in rows if r[0] == split]
+        measured = [t for *_, t in chosen]
+        for label, w in (("rule_of_mixtures", 0.0), ("with_term", weight)):
+            predicted = [m * 10 ** (w * v) for _, _, m, v, _ in chosen]
+            figures = _figures(predicted, measured, salt=False)
+            figures["mean_abs_log10"] = round(float(np.mean(np.abs(np.log10(np.divide(predicted, measured))))), 4)
+            out[f"intermetallics_{split}_{label}"] = figures
+    return out
 
 
 def as_molecular(formula: str):
@@ -418,10 +463,15 @@ def main(argv=None) -> int:
     organics = organic_rows(training)
     print("organic weights (fit on calibration):", {k: round(v, 3) for k, v in fit_organic_weights(organics).items()})
     print("molecular weights (fit on calibration):", {k: round(v, 3) for k, v in fit_molecular_weights(molecules).items()})
+    metals = intermetallic_rows()
+    metal_weight = fit_intermetallic_weight(metals)
+    print("intermetallic weight (fit on calibration):", {"intermetallic_chi_variance": round(metal_weight, 3)})
     agreed = {r["formula_normalized"] for r in training if agreeing_sources(r) >= 2}
     flagged = {r["formula_normalized"] for r in training if "target flagged" in r["decision"]}
     print("targets flagged (rules blind to the index):", len(flagged), sorted(flagged), file=sys.stderr)
     for name, figures in evaluate(salts, molecules, organics, agreed, flagged).items():
+        print(name, figures)
+    for name, figures in intermetallic_figures(metals, metal_weight).items():
         print(name, figures)
     print("open_set_validation_salts", coverage_and_refractory(training))
     print("open_set_old_style_includes_fitted_half", coverage_and_refractory(training, held_out_only=False))

@@ -10,7 +10,8 @@ the chemistry of the element pair (found by an audit of registry compounds,
 * :func:`interstitial_reason`: carbides and hydrides of the
   transition metals and the f-block, and pnictides of groups 4-11, are
   metallic (interstitial or metal-rich phases: TiC, WC, ZrH2, Fe2P,
-  NiAs; Haegg, Z. Phys. Chem. B 1931, 12, 33 for the interstitial phases;
+  NiAs; and hydrides and carbides of intermetallic hosts, LaNi5H6, Fe3AlC;
+  Haegg, Z. Phys. Chem. B 1931, 12, 33 for the interstitial phases;
   Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 8.4
   carbides, ch. 11.3 nitrides, ch. 3.5 hydrides; from memory). Saline
   carbides and nitrides (CaC2, Al4C3, Li3N, Ca3N2) have s- or p-block metals
@@ -74,6 +75,26 @@ def _hosts(partner: str, symbol: str) -> bool:
     return group is not None and 4 <= group <= 11  # P, As, Sb
 
 
+def _intermetallic_host(partner: str, counts: dict[str, float], metals: list[str]) -> bool:
+    """Whether two or more metals form an interstitial host for ``partner`` together.
+
+    Hydrides and carbides of intermetallic compounds (LaNi5H6, TiFeH, the
+    perovskite carbides Fe3AlC and Mn3AlC) keep the metallic bonding of their
+    host: hydrogen or carbon fills holes of a lattice whose metal atoms are
+    mostly hosting metals (:func:`_hosts`), at most one partner atom per metal
+    atom (Haegg's rule for interstitial phases; Greenwood & Earnshaw,
+    Chemistry of the Elements, 2nd ed., 1997, ch. 3.5; from memory). More
+    partner atoms than metal atoms read as a complex anion instead (Mg2NiH4 is
+    2 Mg(2+) [NiH4](4-)), and a host of mostly s- or p-block metals as a
+    saline or complex hydride (LiAlH4), both left to the ion solver.
+    """
+    if len(metals) < 2:
+        return False
+    total = sum(counts[m] for m in metals)
+    hosting = sum(counts[m] for m in metals if _hosts(partner, m))
+    return 2 * hosting >= total and counts[partner] <= total
+
+
 def interstitial_reason(counts: dict[str, float]) -> str | None:
     """Why a composition of metals with one of C, N, H, P, As, Sb is metallic; None otherwise.
 
@@ -82,6 +103,10 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
     >>> interstitial_reason({"Ca": 1.0, "C": 2.0}), interstitial_reason({"Fe": 1.0, "C": 2.0, "N": 2.0})
     (None, None)
     >>> interstitial_reason({"Ti": 1.0, "N": 1.0}) is None  # left to the solver (see the module notes)
+    True
+    >>> interstitial_reason({"Al": 1.0, "Ni": 3.0, "H": 3.0}) is not None  # a hydride of the host Ni3Al
+    True
+    >>> interstitial_reason({"Mg": 2.0, "Ni": 1.0, "H": 4.0}) is None  # Mg2NiH4: 2 Mg(2+) [NiH4](4-)
     True
     """
     partners = [s for s in counts if not is_metal(s)]
@@ -92,7 +117,7 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
     if len(partners) != 1 or not metals or partners[0] not in _PNICTOGENS | {"C", "H"}:
         return None
     partner = partners[0]
-    if not all(_hosts(partner, m) for m in metals):
+    if not all(_hosts(partner, m) for m in metals) and not _intermetallic_host(partner, counts, metals):
         return None
     kind = {"C": "carbide", "H": "hydride"}.get(partner, "pnictide")
     return (

@@ -75,7 +75,10 @@ from memory), ``low_melting_salt`` (to 573.15 K), ``molten_salt`` (to
 1773.15 K). Other compounds: ``liquid_at_room_temperature`` (below 298.15 K),
 ``melts_below_100C`` (to 373.15 K), ``low_melting_solid`` (to 573.15 K),
 ``high_melting_solid`` (to 1773.15 K). Any compound from 1773.15 K up is
-``refractory`` (ISO 836 refractoriness, from memory).
+``refractory`` (ISO 836 refractoriness, from memory). A salt hydrate with four
+or more waters per formula unit is ``melts_in_own_water`` (below 373.15 K;
+:func:`hydrate_melting_class`, :func:`scorer.melting_routes.water_rich_hydrate`):
+it melts in its own water of crystallisation whatever its anhydrous salt does.
 
 Applying a fitted model lives in :mod:`scorer.melting_model`.
 
@@ -98,6 +101,7 @@ from ionicity.scorer.melting_anions import (
     is_hydrogen_bonded_anion,
     octahedral_high_spin_cfse_delta_o,
     saline_nitride_fraction,
+    soft_cation_pseudohalide_fraction,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.ion_shapes import ONIUM_FAMILIES, _shape_table, anion_symmetry_number, ion_shape
@@ -131,6 +135,7 @@ __all__ = [
     "dannenfelser_yalkowsky_flexibility_entropy_J_mol_K",
     "ion_shape",
     "melting_terms",
+    "hydrate_melting_class",
 ]
 
 # --------------------------------------------------------------------- inputs
@@ -162,6 +167,7 @@ class MeltingTerms:
     delta_chi_pauling: float = math.nan
     crystal_field_share: float = 0.0
     saline_nitride_fraction: float = 0.0
+    soft_pseudohalide_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -176,7 +182,8 @@ class MeltingTerms:
             self.trivalent_anion_fraction, self.cation_charge_above_3, self.framework_oxoanion_fraction,
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
-            self.crystal_field_share, self.saline_nitride_fraction, weights=weights,
+            self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
+            weights=weights,
         )
 
 
@@ -291,6 +298,7 @@ def _gather_terms(
         crystal_field_share=float(sum(t.count * octahedral_high_spin_cfse_delta_o(t.ion) for t in dec.cations) / nu)
         if nu else 0.0,
         saline_nitride_fraction=saline_nitride_fraction(dec.cations, dec.anions),
+        soft_pseudohalide_fraction=soft_cation_pseudohalide_fraction(dec.anions, png),
         notes=tuple(notes),
     )
 
@@ -358,6 +366,11 @@ _NO_LATTICE_ENERGY = "melting trend: no lattice energy for this salt (see the la
 _HYDRATE = (
     "melting trend of the anhydrous salt: a hydrate melts in its own water of crystallisation, usually far lower"
 )
+_WATER_RICH_HYDRATE = (
+    "melting class of the hydrate: with {n:g} waters per formula unit (at least {limit:g}) a salt hydrate melts or"
+    " dissolves in its own water of crystallisation, usually below about 100 C (water_rich_hydrate; Lane 1983);"
+    " mp_trend_index is the anhydrous salt's; " + CAUTION
+)
 
 
 def _summary(result: MeltingTrend) -> tuple[str, ...]:
@@ -408,6 +421,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" {terms.hard_anion_fraction:.2f}{'' if terms.pseudo_noble_gas else ' (no such cation: 0)'}",
         f"  crystal field: +{w['crystal_field']} * high-spin octahedral CFSE per ion {terms.crystal_field_share:.2f}"
         f" Delta_o; saline nitride: -{w['saline_nitride']} * share {terms.saline_nitride_fraction:.2f}",
+        f"  linear pseudohalides bound by an 18/18+2-electron cation (chains, frameworks):"
+        f" +{w['soft_cation_pseudohalide']} * their share of the anions {terms.soft_pseudohalide_fraction:.2f}",
     )
 
 
@@ -488,6 +503,27 @@ def _formal_salt(dec: Decomposition) -> Decomposition | None:
                                ionic_model="applies", formal_ions=())
 
 
+def hydrate_melting_class(melting_class: str | None, route: str | None, hydrate_water: float) -> str | None:
+    """The melting class of a compound with its lattice water: a water-rich salt hydrate's own class.
+
+    A salt (``mp_route`` ``salt``) with at least
+    :data:`scorer.melting_routes.WATER_RICH_HYDRATE_MIN` waters per formula
+    unit melts in its own water of crystallisation
+    (:func:`scorer.melting_routes.water_rich_hydrate`): ``melts_in_own_water``;
+    every other compound keeps the class of its anhydrous trend index. The
+    record (:mod:`scorer.record`, which scores the anhydrous compound once for
+    all its hydrates) and :func:`analyse` both ask here.
+
+    >>> hydrate_melting_class("molten_salt", "salt", 10.0), hydrate_melting_class("molten_salt", "salt", 2.0)
+    ('melts_in_own_water', 'molten_salt')
+    >>> hydrate_melting_class("low_melting_solid", "molecular", 6.0)
+    'low_melting_solid'
+    """
+    if melting_class and route == "salt" and routes.water_rich_hydrate(hydrate_water):
+        return routes.HYDRATE_MELT_CLASS
+    return melting_class
+
+
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",
           summary=_summary, maxsize=16384)
 def analyse(dec: Decomposition) -> MeltingTrend:
@@ -509,7 +545,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     """
     route = routes.ROUTE_OF_CLASS.get(dec.substance_class)
     if route == "salt" and not dec.is_ionic:
-        route = None
+        # a base without ions is a molecule (NH3, N2H4, amines): the molecular route
+        route = "molecular" if dec.substance_class == "base" else None
     terms, notes, steps, reading = None, [], (), None
     index = math.nan
     if route == "salt":
@@ -534,6 +571,12 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index = math.log10(temperature) if temperature > 0 else math.nan
         steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"
                  f" (solid at 25 C; CRC Handbook via chemicals) = {temperature:.0f} K, {how}",)
+        if dec.substance_class == "intermetallic" and math.isfinite(index):
+            variance = routes.intermetallic_mixing_variance(dec.composition)
+            index += TREND_WEIGHTS["intermetallic_chi_variance"] * variance
+            steps = (*steps, f"  intermetallic: + {TREND_WEIGHTS['intermetallic_chi_variance']} * variance of the"
+                             f" Pauling electronegativities {variance:.3f} (heat of formation, Pauling's"
+                             f" bond-energy relation) -> {trend_temperature_K(index):.0f} K")
         formal = _formal_salt(dec)
         salt = _salt(formal)[0] if formal is not None else math.nan
         if math.isfinite(salt) and not salt <= index:
@@ -549,11 +592,16 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     if not math.isfinite(index):
         return MeltingTrend(notes=tuple(notes), steps=tuple(notes) or ("melting trend: not computed",),
                             terms=terms, mp_route=route)
-    if dec.hydrate_water:
+    melting_class = hydrate_melting_class(
+        melting_class_for(trend_temperature_K(index), salt=route == "salt"), route, dec.hydrate_water)
+    if melting_class == routes.HYDRATE_MELT_CLASS:
+        notes.append(_WATER_RICH_HYDRATE.format(n=dec.hydrate_water, limit=routes.WATER_RICH_HYDRATE_MIN))
+        steps = (*steps, "  " + notes[-1])
+    elif dec.hydrate_water:
         notes.append(_HYDRATE)
     return MeltingTrend(
         mp_trend_index=round(float(index), 4),
-        melting_class=melting_class_for(trend_temperature_K(index), salt=route == "salt"),
+        melting_class=melting_class,
         mp_route=route,
         terms=terms,
         route_steps=steps,

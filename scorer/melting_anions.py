@@ -4,8 +4,9 @@ Rules on an ion's composition and charge, no weights: framework oxoanions
 (chains and frameworks in the solid), anions that carry hydrogen (hydrogen
 bonds between the anions), anions that bind through O or F (hard donors,
 beside which an 18/18+2-electron cation keeps part of its ionic cohesion),
-the crystal-field stabilisation of 3d cations and the s-block cations of the
-saline nitrides.
+the crystal-field stabilisation of 3d cations, the s-block cations of the
+saline nitrides and the linear pseudohalide anions that 18/18+2-electron
+cations bind at both ends (coordination polymers).
 The weights of the terms are in :data:`scorer.melting_index.TREND_WEIGHTS`.
 """
 from __future__ import annotations
@@ -21,6 +22,8 @@ __all__ = [
     "octahedral_high_spin_cfse_delta_o",
     "is_saline_cation",
     "saline_nitride_fraction",
+    "BRIDGING_PSEUDOHALIDES",
+    "soft_cation_pseudohalide_fraction",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -141,3 +144,36 @@ def saline_nitride_fraction(cations, anions) -> float:
         return 0.0
     nitride = sum(t.count for t in anions if t.ion.monatomic and t.ion.charge <= -3) / anion_total
     return float(nitride * sum(t.count for t in cations if is_saline_cation(t.ion)) / cation_total)
+
+
+# Linear ambidentate pseudohalides and azide: ligands that bind a metal at either end
+# (IUPAC Red Book 2005, IR-9.2.4.2, ambidentate ligands; Greenwood & Earnshaw 1997, ch. 8.3 and 11.3; from memory)
+BRIDGING_PSEUDOHALIDES = frozenset({"CN(-)", "SCN(-)", "SeCN(-)", "OCN(-)", "CNO(-)", "N3(-)"})
+
+
+def soft_cation_pseudohalide_fraction(anions, pseudo_noble_gas: bool) -> float:
+    """The share of the anions that are linear pseudohalides (:data:`BRIDGING_PSEUDOHALIDES`) beside an 18/18+2-electron cation.
+
+    ``anions``: the ``IonTerm`` tuple of a decomposition; ``pseudo_noble_gas``:
+    whether a cation has an 18 or 18+2 electron shell (Cu+, Ag+, Zn2+, Cd2+,
+    Hg2+, Tl+, Pb2+; :mod:`scorer.fajans`). The salt index's covalency terms
+    (contact electronegativity, Fajans contact index, the 18/18+2 flag) were
+    fitted mostly on halides and oxosalts, where a covalent contact breaks
+    the lattice into molecules, chains or layers that melt low (HgCl2,
+    CdI2). A linear pseudohalide is bound by such a cation at both ends and
+    links the cations into chains or frameworks instead (CuCN, AgCN: -M-C-N-M-
+    chains; Zn(CN)2, Cd(CN)2: interpenetrating diamond-like frameworks;
+    CuSCN: a three-dimensional net; Wells, Structural Inorganic Chemistry,
+    5th ed., 1984, ch. 22; from memory), so the covalency does not lower the
+    melting point as the index assumes. 0 without such a cation.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [soft_cation_pseudohalide_fraction(decompose(parse_formula(f)).anions, png)
+    ...  for f, png in (("TlN3", True), ("KN3", False), ("AgCl", True))]
+    [1.0, 0.0, 0.0]
+    """
+    anion_total = sum(t.count for t in anions)
+    if not pseudo_noble_gas or not anion_total:
+        return 0.0
+    return float(sum(t.count for t in anions if t.ion.ion_id in BRIDGING_PSEUDOHALIDES) / anion_total)

@@ -38,7 +38,7 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 #   pseudo_noble_gas_hard_anion): least squares of log10 T_m on the calibration set, then
 #   every weight times the spread factor sd(log10 T_m) / sd(fitted) = 1.205 (least squares
 #   shrinks toward the mean; matching the spread keeps the refractory oxides refractory),
-#   rounded; then the second-stage terms (crystal_field, saline_nitride) by least squares of the
+#   rounded; then the second-stage terms (crystal_field, saline_nitride, soft_cation_pseudohalide) by least squares of the
 #   calibration residuals with the weights above held (corrections on top of the ionic index,
 #   as the organic terms are). Calibration set: datasets/melting/wikidata_salts.csv (CC0, 128 salts with an
 #   index) and the calibration half of the open training set fit-melting builds at run
@@ -95,6 +95,14 @@ TREND_WEIGHTS: dict[str, float] = {
     "crystal_field": 0.102,
     # saline nitrides (s-block cations with N3-): ionic, decomposing low (Ca3N2 1468 K)
     "saline_nitride": 0.211,
+    # linear pseudohalides bound at both ends by 18/18+2-electron cations: chains and
+    # frameworks, not the molecules and layers the covalency terms stand for (TlN3 607 K)
+    "soft_cation_pseudohalide": 0.315,
+    # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
+    # melting point per unit of the electronegativity variance (Pauling's heat of formation),
+    # least squares through the origin on the calibration rows of
+    # datasets/melting/intermetallic_compounds.csv (pipelines.melting_weights.fit_intermetallic_weight)
+    "intermetallic_chi_variance": 0.554,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
     "molecular_contact_kJ_mol": 1.08,
     "molecular_polarisability_kJ_mol_A3": 0.60,
@@ -171,6 +179,7 @@ def melting_trend_index(
     delta_chi_pauling=math.nan,
     crystal_field_share=0.0,
     saline_nitride_fraction=0.0,
+    soft_pseudohalide_fraction=0.0,
     *,
     weights=None,
 ):
@@ -292,6 +301,14 @@ def melting_trend_index(
         below the interstitial nitrides (TiN 3203 K) the nitride term
         ``w_3`` is mostly fitted on (Greenwood & Earnshaw 1997, ch. 11;
         from memory). Weight ``w_sN``.
+    soft_pseudohalide_fraction : float or array-like, default=0.0
+        ``f_psX``: the share of the anions that are linear pseudohalides
+        (CN-, SCN-, SeCN-, OCN-, CNO-, N3-) beside an 18/18+2-electron cation
+        (:func:`scorer.melting_anions.soft_cation_pseudohalide_fraction`):
+        bound at both ends, they link such cations into chains and
+        frameworks (CuCN, Zn(CN)2, CuSCN), so the covalency terms, fitted
+        where covalency makes molecules and layers, put these salts too low
+        (TlN3 607 K, Zn(CN)2 1073 K; CRC Handbook via chemicals). Weight ``w_psX``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -349,6 +366,7 @@ def melting_trend_index(
             + w["pseudo_noble_gas_hard_anion"] * png * _floats(hard_anion_fraction)
             + w["crystal_field"] * _floats(crystal_field_share)
             - w["saline_nitride"] * _floats(saline_nitride_fraction)
+            + w["soft_cation_pseudohalide"] * _floats(soft_pseudohalide_fraction)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part

@@ -35,7 +35,7 @@ from ionicity.scorer.melting_model_format import (
     model_from_dict,
     model_to_dict,
 )
-from ionicity.scorer.melting_routes import ROUTE_OF_CLASS, melting_class_for
+from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, ROUTE_OF_CLASS, melting_class_for
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.model import Column, Decomposition
@@ -387,6 +387,7 @@ def _float(value) -> float:
         return math.nan
 
 
+_BAND_OF_CLASS = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
 _DOMAIN_NOTE = "mp model: outside the training domain ({}); treat mp_predicted_K as a guess"
 _DISAGREE_NOTE = (
     "mp model: melting_class {index_class} (trend index) disagrees with the model, whose {predicted:.0f} K"
@@ -411,7 +412,8 @@ def class_disagreement(record: Mapping, predicted_K: float) -> str | None:
         return None
     salt = (record.get("mp_route") or ROUTE_OF_CLASS.get(record.get("substance_class") or "")) == "salt"
     model_class = melting_class_for(predicted_K, salt)
-    if model_class == index_class:
+    lo, hi = _BAND_OF_CLASS.get(index_class, (math.nan, math.nan))
+    if model_class == index_class or lo <= predicted_K < hi:  # a class of its own (a hydrate's) on the same band
         return None
     return _DISAGREE_NOTE.format(index_class=index_class, predicted=predicted_K, model_class=model_class)
 

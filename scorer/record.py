@@ -21,6 +21,7 @@ from ionicity.scorer.ions import (
 )
 from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
+from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
 from ionicity.scorer.name_reader import parse_as_name
@@ -230,6 +231,9 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     else:
         row[formula_at] = formula
     row[water_at] = float(water)
+    if water:  # a water-rich salt hydrate melts in its own water (scorer.melting.hydrate_melting_class)
+        class_at, route_at = _melting_slots()
+        row[class_at] = hydrate_melting_class(row[class_at], row[route_at], float(water))
     if comp.isotopes:  # D2O: scored as water above, written and weighed as D2O here
         mass += isotope_mass_shift_g_mol(comp.isotopes, get_element("H").atomic_weight)
         _write_isotopes(row, comp)
@@ -269,6 +273,12 @@ def _slots() -> tuple[int, ...]:
         "formula_normalized", "systematic_name", "hydrate_water", "molar_mass_g_mol", "status", "message",
         "value_notes",
     ))
+
+
+@once
+def _melting_slots() -> tuple[int, int]:
+    position = _layout()[1]
+    return position["melting_class"], position["mp_route"]
 
 
 @per_input(maxsize=1024)

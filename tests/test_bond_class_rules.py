@@ -175,6 +175,19 @@ def test_interstitial_reason_needs_one_partner():
     assert interstitial_reason({"W": 2.0, "C": 1.0}) is not None
 
 
+@pytest.mark.parametrize("formula, metallic", [
+    ("AlNi3H3", True),    # a hydride of the host Ni3Al (Haegg's interstitial phases; from memory)
+    ("LaNi5H6", True),    # the hydrogen-storage hydride of LaNi5 (Greenwood & Earnshaw 1997, ch. 3.5; from memory)
+    ("Fe3AlC", True),     # the perovskite carbide of Fe3Al (from memory)
+    ("Mg2NiH4", False),   # 2 Mg(2+) [NiH4](4-): more H than metal atoms, a complex hydride (from memory)
+    ("LiAlH4", False),    # no hosting metal: Li(+) [AlH4](-) (common practice)
+    ("K2ReH9", False),    # hosts a third of the metal atoms: 2 K(+) [ReH9](2-) (from memory)
+])
+def test_hydrides_and_carbides_of_intermetallic_hosts(formula, metallic):
+    assert (interstitial_reason(dict(_counts(formula))) is not None) is metallic
+    assert (_verdict(formula)[1] == "intermetallic") is metallic
+
+
 # --- the audit -------------------------------------------------------------------
 
 def test_audit_table_has_two_labelled_halves():

@@ -77,7 +77,7 @@ def test_calibration_each_inorganic_weight_is_the_fit_of_the_calibration_set(ref
     assert melting.TREND_WEIGHTS[name] == pytest.approx(refitted_salt_weights[name], abs=0.0006)
 
 
-@pytest.mark.parametrize("name", ("crystal_field", "saline_nitride"))
+@pytest.mark.parametrize("name", ("crystal_field", "saline_nitride", "soft_cation_pseudohalide"))
 def test_calibration_each_second_stage_weight_is_the_fit_of_the_calibration_residuals(open_salt_rows, name):
     # Calibration: least squares of the calibration residuals with the weights above held
     # (python -m ionicity.pipelines.melting_weights prints it), rounded to three decimals
