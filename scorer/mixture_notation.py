@@ -119,7 +119,8 @@ def _joining_slash(text: str, i: int) -> bool:
         return False
     before = _WORD_BEFORE.search(text[:i].rstrip()).group()
     after = _WORD_AFTER.match(text[i + 1:].lstrip()).group()
-    return bool(before) and bool(after) and before not in _UNIT_WORDS and after not in _UNIT_WORDS
+    # single letters around a slash are a placeholder (N/A, n/a, N/D), not two formulas
+    return len(before) > 1 and len(after) > 1 and before not in _UNIT_WORDS and after not in _UNIT_WORDS
 
 
 def _dash_split(text: str) -> list[str]:

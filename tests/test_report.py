@@ -125,8 +125,8 @@ def test_errors_are_listed_with_ids_names_and_grouped_reasons(scored, frame):
     assert [r["id"] for r in first] == errors.item_id.tolist()[: len(first)]
     assert first[0]["name"] == errors.name.iloc[0]
     assert sum(data.reasons["error"].values()) == len(errors)
-    # the two '/' rows (N/A and NaCl/KCl, datasets/demo/README.md) fail for one reason
-    assert data.reasons["error"][reason_of("unexpected character '/' at position 2 of 'N/A'")] == 2
+    # the placeholder N/A (datasets/demo/README.md) fails at its '/'; NaCl/KCl is read as a mixture
+    assert data.reasons["error"][reason_of("unexpected character '/' at position 2 of 'N/A'")] == 1
 
 
 def test_the_page_has_every_section_and_answers_the_two_questions(scored, tmp_path):
