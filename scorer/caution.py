@@ -6,11 +6,19 @@ melting-model columns, ``ionicity explain``, ``fit-melting``) quotes
 module can quote it too.
 """
 
-__all__ = ["CAUTION", "caution_sentence"]
+__all__ = ["CAUTION", "WATER_CAUTION", "caution_sentence"]
 
 CAUTION = (
     "estimates for screening, not for process safety: decomposition, hydration and pressure are not"
     " modelled; check measured data and the safety data sheet before heating anything"
+)
+
+
+#: the water columns' words (scorer.water): every row that reacts with water or
+#: gives an acidic or basic solution carries them
+WATER_CAUTION = (
+    "water behaviour and pH are screening rules, not a hazard assessment: water contact can release heat and"
+    " flammable, toxic or corrosive products; follow the safety data sheet, local codes and qualified people"
 )
 
 
