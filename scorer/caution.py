@@ -15,11 +15,10 @@ CAUTION = (
 
 
 #: the water columns' words (scorer.water): every row that reacts with water or
-#: gives an acidic or basic solution carries them
-WATER_CAUTION = (
-    "water behaviour and pH are screening rules, not a hazard assessment: water contact can release heat and"
-    " flammable, toxic or corrosive products; follow the safety data sheet, local codes and qualified people"
-)
+#: gives an acidic or basic solution carries them (kept short: output files
+#: write it in full on every such row; SDS is the safety data sheet, said in full
+#: in the README and in the columns' descriptions)
+WATER_CAUTION = "screening rule, not a hazard assessment: see the SDS, local codes and qualified people"
 
 
 def caution_sentence() -> str:

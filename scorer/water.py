@@ -96,7 +96,9 @@ COLUMNS: tuple[Column, ...] = (
         "water_behaviour", "string", "",
         "dissolves (> ~10 g/L), slightly_soluble (~0.1-10 g/L), insoluble (< ~0.1 g/L), reacts (hydrolyses:"
         " a gas, heat or a hydroxide/oxide precipitate), reacts_violently, miscible (liquids), or empty where no"
-        " rule applies (value_notes says why); screening rules, not a hazard assessment",
+        " rule applies (value_notes says why). Screening rules, not a hazard assessment: a row that reacts or"
+        " gives an acidic or basic solution carries a caution in value_notes; follow the safety data sheet (SDS),"
+        " local codes and qualified people",
         "first matching rule of scorer.water (water, metal alkyl, element, binary water-reactive, fuming halide,"
         " acid anhydride, acid, molecular base, organic molecule, ionic liquid, solubility rules, insoluble solid)",
         _SOURCE_RULES,
@@ -114,7 +116,7 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         "water_reaction_products", "string", "",
         "the gas or product of the reaction with water where the rule knows it (H2, C2H2, CH4, NH3, PH3, HCl,"
-        " H3PO4 ...), ';'-joined; empty when nothing reacts",
+        " H3PO4 ...), ';'-joined; none where the rule finds no reaction; empty where no rule applies",
         "from the rule that fired (scorer.water)", _SOURCE_RULES,
         "several ions: every reacting pair's products",
     ),
@@ -612,7 +614,7 @@ RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _anhydride, _a
 
 @protocol(
     title="Behaviour in water (screening rules, not a hazard assessment):",
-    columns=COLUMNS, result=WaterValues, failure="water behaviour not assessed",
+    columns=COLUMNS, result=WaterValues, failure="water behaviour not computed",
     summary=value_lines({name: ("", "") for name in ("water_behaviour", "solution_ph", "water_reaction_products")}),
 )
 def analyse(dec: Decomposition) -> WaterValues:
@@ -635,12 +637,19 @@ def analyse(dec: Decomposition) -> WaterValues:
         return WaterValues(notes=("water_behaviour: no rule of scorer.water applies",),
                            steps=("no rule applies: values left empty",))
     notes = []
+    products = found.products
     if found.behaviour is None:
         notes.append(f"water_behaviour: {found.why}")
+    elif products is None:
+        products = "none"
+    if found.behaviour is not None and found.ph is None:
+        notes.append("solution_ph empty: " + (
+            "insoluble, no solution to take the pH of" if found.behaviour == "insoluble"
+            else "no hydrolysis constant or rule here gives the pH"))
     if found.behaviour in ("reacts", "reacts_violently") or found.ph in ("acidic", "basic"):
         notes.append(WATER_CAUTION)
     return WaterValues(
-        water_behaviour=found.behaviour, solution_ph=found.ph, water_reaction_products=found.products,
+        water_behaviour=found.behaviour, solution_ph=found.ph, water_reaction_products=products,
         notes=tuple(notes), steps=(f"rule '{found.rule}': {found.why}",),
     )
 
