@@ -278,6 +278,8 @@ _HALIDE_INSOLUBLE = frozenset({"Ag(+)", "Hg2(2+)", "Cu(+)"})
 _HALIDE_SLIGHT = frozenset({"Pb(2+)", "Tl(+)"})
 _SULFATE_INSOLUBLE = frozenset({"Ba(2+)", "Sr(2+)", "Pb(2+)", "Hg2(2+)"})
 _SULFATE_SLIGHT = frozenset({"Ca(2+)", "Ag(+)"})
+# metals whose oxide or hydroxide dissolves in alkali as an oxo or hydroxo anion (common practice)
+_AMPHOTERIC = frozenset({"Al", "Zn", "Sn", "Pb", "Ga", "Be", "Cr"})
 _MOSTLY_INSOLUBLE = frozenset({
     "CO3(2-)", "PO4(3-)", "S(2-)", "OH(-)", "O(2-)", "SO3(2-)", "CrO4(2-)", "SiO3(2-)", "SiO4(4-)", "C2O4(2-)",
     "HPO4(2-)", "AsO4(3-)",
@@ -419,7 +421,15 @@ def _acid(counts, dec) -> _Finding | None:
     return _finding("dissolves", "acidic", None, "acid", f"{iupac_formula(counts)}: an acid, dissolves")
 
 
+#: inorganic molecular liquids miscible with water (common practice), with their pH class
+MISCIBLE_INORGANIC = {(("H", 2.0), ("O", 2.0)): ("H2O2", "neutral"), (("H", 4.0), ("N", 2.0)): ("N2H4", "basic")}
+
+
 def _molecular_base(counts, dec) -> _Finding | None:
+    liquid = MISCIBLE_INORGANIC.get(tuple(sorted(counts.items())))
+    if liquid is not None:
+        return _finding("miscible", liquid[1], None, "molecular base",
+                        f"{liquid[0]}: a small inorganic molecular liquid, miscible")
     if dec.substance_class != "base" or dec.cations:
         return None
     return _finding("dissolves", "basic", None, "molecular base", "a molecular base (NH3, amines): dissolves, basic")
@@ -472,14 +482,18 @@ def _ionic_liquid(counts, dec) -> _Finding | None:
     return _finding(behaviour, ph[0], None, "ionic liquid", f"{why}: {behaviour.replace('_', ' ')}{ph[1]}")
 
 
-def _pair(cation: str, element: str | None, anion: str, mixed: bool = False) -> tuple[str | None, str | None, str]:
+def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
+          alkali: bool = False) -> tuple[str | None, str | None, str]:
     """(behaviour, products, why) of one cation-anion pair by the solubility guidelines;
-    ``mixed``: the salt has several cations (a mixed oxide such as LiCoO2 is not Li2O)."""
+    ``mixed``: the salt has several cations (a mixed oxide such as LiCoO2 is not Li2O); ``alkali``: one
+    of them is of group 1 or ammonium (NaAlO2 is sodium aluminate)."""
     group = get_element(element).group if element else None
     soluble_cation = group == 1 or cation == "NH4(+)"
-    if anion == "O(2-)" and mixed:
+    if anion in ("O(2-)", "OH(-)") and mixed and element in _AMPHOTERIC and alkali:
+        return "dissolves", None, f"{cation} with an alkali metal: an aluminate, zincate or stannate, dissolves"
+    if anion == "O(2-)" and mixed and not soluble_cation:
         return "insoluble", None, "mixed-metal oxides are insoluble"
-    if anion == "O(2-)" and (group == 1 or element in _HEAVY_ALKALINE_EARTH):
+    if anion == "O(2-)" and not mixed and (group == 1 or element in _HEAVY_ALKALINE_EARTH):
         return "reacts", "hydroxide (heat)", f"{cation} oxide reacts with water to the hydroxide, with heat"
     if anion == "S(2-)" and (group == 2 or element in {"Al", "Cr"}):
         return "reacts", "H2S", f"{cation} sulfide hydrolyses, giving H2S"
@@ -528,9 +542,11 @@ def _salt(counts, dec) -> _Finding | None:
     if not cations or not anions:
         return None
     results, unknown = [], []
+    alkali = any(t.ion.ion_id == "NH4(+)" or t.ion.element in _ALKALI for t in cations)
     for cation in cations:
         for anion in anions:
-            behaviour, products, why = _pair(cation.ion.ion_id, cation.ion.element, anion.ion.ion_id, len(cations) > 1)
+            behaviour, products, why = _pair(cation.ion.ion_id, cation.ion.element, anion.ion.ion_id,
+                                             len(cations) > 1, alkali)
             (results if behaviour else unknown).append((behaviour, products, why))
     if unknown:
         return _finding(None, None, None, "solubility rules", "; ".join(w for _, _, w in unknown))
