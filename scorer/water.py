@@ -40,7 +40,7 @@ names it):
 12. ``insoluble solid``: covalent networks, semiconductors, intermetallics,
     alloys: insoluble.
 
-Solution pH (``acidic`` below pH 6, ``basic`` above 8, else ``neutral``, at
+Solution pH (:mod:`scorer.water_ph`; ``acidic`` below pH 6, ``basic`` above 8, else ``neutral``, at
 0.1 mol/L): a cation with a tabulated aqua-ion hydrolysis constant (Baes &
 Mesmer 1976) or NH4+ is a weak acid, pH = (pKa + 1)/2; an anion of a weak
 acid is a weak base, pH = (13 + pKa(HA))/2; both weak, pH = (pKa_cation +
@@ -53,21 +53,18 @@ rule ``each``).
 """
 from __future__ import annotations
 
-import math
 import re
 from dataclasses import dataclass
 
-from ionicity.scorer.caching import once
 from ionicity.scorer.caution import WATER_CAUTION
 from ionicity.scorer.descriptor import protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.grammar import iupac_formula
 from ionicity.scorer.model import Column, Decomposition, IonTerm
-from ionicity.scorer.tables import table
+from ionicity.scorer.water_ph import salt_ph
 
 __all__ = [
-    "GROUP", "COLUMNS", "BEHAVIOURS", "PH_CLASSES", "WaterValues", "analyse", "describe", "explain",
-    "weak_acid_pH", "weak_base_pH", "weak_pair_pH", "amphiprotic_pH", "ph_class", "acidity_table",
+    "GROUP", "COLUMNS", "BEHAVIOURS", "PH_CLASSES", "RULES", "WaterValues", "analyse", "describe", "explain",
 ]
 
 #: the --columns group of this module's COLUMNS
@@ -77,10 +74,6 @@ BEHAVIOURS = ("dissolves", "slightly_soluble", "insoluble", "reacts", "reacts_vi
 PH_CLASSES = ("acidic", "basic", "neutral")
 #: most hazardous (or least soluble) first: a salt's pairs and a mixture's components are ranked by it
 _RANK = {"reacts_violently": 0, "reacts": 1, "insoluble": 2, "slightly_soluble": 3, "dissolves": 4, "miscible": 5}
-
-ACIDIC_BELOW_PH = 6.0
-BASIC_ABOVE_PH = 8.0
-CONCENTRATION_MOL_L = 0.1
 
 _SOURCE_RULES = (
     "Petrucci et al., General Chemistry, 10th ed., 2011, solubility guidelines (from memory); water-reactive"
@@ -123,96 +116,6 @@ COLUMNS: tuple[Column, ...] = (
 )
 
 WaterValues = result_class("WaterValues", COLUMNS, "How one compound behaves in water (fields named as the columns).")
-
-
-# ------------------------------------------------------------------ equations
-
-
-def weak_acid_pH(pKa: float, concentration_mol_L: float = CONCENTRATION_MOL_L) -> float:
-    """pH of a weak acid solution, pH = (pKa - log10 c)/2.
-
-    Parameters
-    ----------
-    pKa : float
-        Acid dissociation (or aqua-ion hydrolysis) constant.
-    concentration_mol_L : float, default=0.1
-        Formal concentration [mol/L].
-
-    References
-    ----------
-    D. C. Harris, Quantitative Chemical Analysis, weak-acid approximation x = sqrt(Ka c) (common practice).
-
-    Examples
-    --------
-    NH4Cl at 0.1 mol/L, pKa(NH4+) 9.25: pH 5.1 (Harris's worked example gives 5.13; from memory):
-
-    >>> round(weak_acid_pH(9.25), 2)
-    5.12
-    """
-    return (pKa - math.log10(concentration_mol_L)) / 2.0
-
-
-def weak_base_pH(pKa_conjugate_acid: float, concentration_mol_L: float = CONCENTRATION_MOL_L,
-                 pKw: float = 14.0) -> float:
-    """pH of a solution of the anion of a weak acid, pH = pKw - (pKw - pKa - log10 c)/2.
-
-    Examples
-    --------
-    Sodium acetate at 0.1 mol/L, pKa(acetic acid) 4.76: pH 8.88 (Harris; from memory):
-
-    >>> round(weak_base_pH(4.76), 2)
-    8.88
-    """
-    return pKw - weak_acid_pH(pKw - pKa_conjugate_acid, concentration_mol_L)
-
-
-def weak_pair_pH(pKa_cation: float, pKa_conjugate_acid: float) -> float:
-    """pH of a salt of a weak acid and a weak base, pH = (pKa(BH+) + pKa(HA))/2.
-
-    Examples
-    --------
-    Ammonium acetate: (9.25 + 4.76)/2 = 7.0 (common practice):
-
-    >>> round(weak_pair_pH(9.25, 4.76), 2)
-    7.01
-    """
-    return (pKa_cation + pKa_conjugate_acid) / 2.0
-
-
-def amphiprotic_pH(pKa1: float, pKa2: float) -> float:
-    """pH of an intermediate (amphiprotic) form, pH = (pKa1 + pKa2)/2.
-
-    Examples
-    --------
-    NaHCO3: (6.35 + 10.33)/2 = 8.34 (Harris; from memory):
-
-    >>> round(amphiprotic_pH(6.35, 10.33), 2)
-    8.34
-    """
-    return (pKa1 + pKa2) / 2.0
-
-
-def ph_class(pH: float) -> str:
-    """``acidic`` below pH 6, ``basic`` above 8, else ``neutral`` (thresholds set here).
-
-    >>> ph_class(5.12), ph_class(8.88), ph_class(7.0)
-    ('acidic', 'basic', 'neutral')
-    """
-    if pH < ACIDIC_BELOW_PH:
-        return "acidic"
-    if pH > BASIC_ABOVE_PH:
-        return "basic"
-    return "neutral"
-
-
-@once
-def acidity_table() -> dict[str, tuple[str, float, float]]:
-    """ion_id -> (kind, pKa, pKa2) from ``scorer/data/water_acidity.csv``, read once."""
-    nan = float("nan")
-    return {
-        row["ion_id"]: (row["kind"], float(row["pKa"]) if row["pKa"] else nan, float(row["pKa2"]) if row["pKa2"] else nan)
-        for row in table("water_acidity.csv")
-    }
 
 
 # ------------------------------------------------------------------ rules
@@ -301,8 +204,10 @@ def _water(counts, dec) -> _Finding | None:
 
 
 def _metal_alkyl(counts, dec) -> _Finding | None:
+    if "C" not in counts or "H" not in counts:
+        return None
     metals = [s for s in counts if s in _ORGANOMETAL and s != "B"]
-    if "C" not in counts or "H" not in counts or not metals:
+    if not metals:
         return None
     rest = set(counts) - {"C", "H", *metals}
     if not rest <= _HALOGENS:
@@ -478,7 +383,7 @@ def _ionic_liquid(counts, dec) -> _Finding | None:
     else:
         behaviour = "slightly_soluble" if long_chain else "dissolves"
         why = f"organic cation ({carbons:g} C) with a hydrophilic anion"
-    ph = _salt_ph(dec) if behaviour != "insoluble" else (None, "")
+    ph = salt_ph(dec.cations, dec.anions) if behaviour != "insoluble" else (None, "")
     return _finding(behaviour, ph[0], None, "ionic liquid", f"{why}: {behaviour.replace('_', ' ')}{ph[1]}")
 
 
@@ -559,58 +464,8 @@ def _salt(counts, dec) -> _Finding | None:
     if behaviour == "reacts":
         return _finding(behaviour, "basic" if "hydroxide (heat)" in (products or "") or "H2S" in (products or "")
                         else None, products, "solubility rules", why)
-    ph, ph_why = _salt_ph(dec, cations, anions)
+    ph, ph_why = salt_ph(cations, anions)
     return _finding(behaviour, ph, products, "solubility rules", why + ph_why)
-
-
-def _salt_ph(dec, cations=None, anions=None) -> tuple[str | None, str]:
-    """The pH class of a dissolved salt and the words saying how."""
-    cations = dec.cations if cations is None else cations
-    anions = dec.anions if anions is None else anions
-    data = acidity_table()
-    acid_pKa, base, unknown = None, None, []
-    for term in cations:
-        row = data.get(term.ion.ion_id)
-        if row is not None:
-            # a cation too weak to make its own solution acidic (Na+, Mg2+, Ca2+) is a spectator
-            if weak_acid_pH(row[1]) < ACIDIC_BELOW_PH:
-                acid_pKa = row[1] if acid_pKa is None else min(acid_pKa, row[1])
-        elif term.ion.charge >= 3:
-            unknown.append(f"{term.ion.ion_id} (no pKa tabulated here; a 3+ aqua ion is acidic)")
-            acid_pKa = 4.0 if acid_pKa is None else min(acid_pKa, 4.0)
-        elif not term.ion.organic and (term.ion.element is None or get_element(term.ion.element).group not in (1, 2)):
-            unknown.append(term.ion.ion_id)
-    for term in anions:
-        row = data.get(term.ion.ion_id)
-        if row is not None and (base is None or _anion_pH(row) > _anion_pH(base[1])):
-            base = (term.ion.ion_id, row)
-    if unknown and acid_pKa is None:
-        return None, f"; pH not given: no hydrolysis constant for {', '.join(unknown)}"
-    if base is not None and base[1][0] in {"strong_base", "anion_acid", "amphiprotic"}:
-        pH = _anion_pH(base[1])
-        if acid_pKa is not None and base[1][0] != "strong_base":
-            pH = min(pH, weak_acid_pH(acid_pKa))
-        how = f"{base[0]} ({base[1][0].replace('_', ' ')})"
-    elif base is not None and acid_pKa is not None:
-        pH, how = weak_pair_pH(acid_pKa, base[1][1]), f"weak acid cation pKa {acid_pKa:g} with {base[0]}"
-    elif base is not None:
-        pH, how = weak_base_pH(base[1][1]), f"{base[0]}, pKa(HA) {base[1][1]:g}"
-    elif acid_pKa is not None:
-        pH, how = weak_acid_pH(acid_pKa), f"aqua cation pKa {acid_pKa:g}"
-    else:
-        pH, how = 7.0, "ions of a strong acid and a strong base"
-    return ph_class(pH), f"; pH about {pH:.1f} at {CONCENTRATION_MOL_L:g} mol/L ({how}): {ph_class(pH)}"
-
-
-def _anion_pH(row) -> float:
-    kind, pKa, pKa2 = row
-    if kind == "strong_base":
-        return 13.0
-    if kind == "anion_acid":
-        return weak_acid_pH(pKa)
-    if kind == "amphiprotic":
-        return amphiprotic_pH(pKa, pKa2)
-    return weak_base_pH(pKa)
 
 
 _INSOLUBLE_CLASSES = frozenset({"covalent_network", "semiconductor", "intermetallic", "metallic"})

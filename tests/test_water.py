@@ -17,7 +17,7 @@ from pathlib import Path
 
 import pytest
 
-from ionicity.scorer import water
+from ionicity.scorer import water, water_ph
 from ionicity.scorer.caution import WATER_CAUTION
 from ionicity.scorer.model import Decomposition
 from ionicity.scorer.record import score_formula
@@ -217,16 +217,16 @@ def test_every_empty_value_has_a_note():
 
 # worked examples of the equations (Harris, Quantitative Chemical Analysis; from memory)
 def test_weak_acid_and_base_equations():
-    assert water.weak_acid_pH(9.25) == pytest.approx(5.125, abs=1e-9)  # 0.1 M NH4Cl, Harris: 5.13
-    assert water.weak_base_pH(4.76) == pytest.approx(8.88, abs=1e-9)  # 0.1 M NaOAc, Harris: 8.88
-    assert water.amphiprotic_pH(6.35, 10.33) == pytest.approx(8.34)  # NaHCO3, Harris: 8.3
-    assert water.weak_pair_pH(9.25, 4.76) == pytest.approx(7.005)  # NH4OAc about 7 (common practice)
-    assert [water.ph_class(x) for x in (5.9, 6.0, 8.0, 8.1)] == ["acidic", "neutral", "neutral", "basic"]
+    assert water_ph.weak_acid_pH(9.25) == pytest.approx(5.125, abs=1e-9)  # 0.1 M NH4Cl, Harris: 5.13
+    assert water_ph.weak_base_pH(4.76) == pytest.approx(8.88, abs=1e-9)  # 0.1 M NaOAc, Harris: 8.88
+    assert water_ph.amphiprotic_pH(6.35, 10.33) == pytest.approx(8.34)  # NaHCO3, Harris: 8.3
+    assert water_ph.weak_pair_pH(9.25, 4.76) == pytest.approx(7.005)  # NH4OAc about 7 (common practice)
+    assert [water_ph.ph_class(x) for x in (5.9, 6.0, 8.0, 8.1)] == ["acidic", "neutral", "neutral", "basic"]
 
 
 def test_aqua_ion_constants_order_by_charge_density():
     # Baes & Mesmer 1976: Fe3+ < Cr3+ < Al3+ < Cu2+ < Zn2+ < Mg2+ < Ca2+ (more acidic first)
-    table = water.acidity_table()
+    table = water_ph.acidity_table()
     order = ["Fe(3+)", "Cr(3+)", "Al(3+)", "Cu(2+)", "Zn(2+)", "Mg(2+)", "Ca(2+)"]
     values = [table[i][1] for i in order]
     assert values == sorted(values)
