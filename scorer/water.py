@@ -27,7 +27,7 @@ names it):
    acids; CO2 is slightly soluble and SO2 dissolves, both acidic.
 7. ``acid``: strong mineral acids, H3PO4 and the small carboxylic acids are
    miscible; other acids dissolve or follow the molecule rule; acidic.
-8. ``molecular base`` (NH3): dissolves, basic.
+8. ``molecular base`` (NH3): dissolves, basic; H2O2 and N2H4 are miscible.
 9. ``organic molecule``: hydrocarbons and halocarbons insoluble; otherwise
    by carbons per O or N atom (:data:`MISCIBLE_MAX_CARBONS`,
    :data:`CARBON_PER_POLAR_BANDS`).
