@@ -31,7 +31,7 @@ import math
 from dataclasses import dataclass
 
 from ionicity.scorer.caching import clear_all, once, per_input
-from ionicity.scorer.caution import CAUTION
+from ionicity.scorer.caution import CAUTION, WATER_CAUTION
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
@@ -419,6 +419,8 @@ def _combine(rule: str, values, fractions, dtype: str):
         return max((v for v, _ in present), default=math.nan)
     if rule == "any":
         return any(bool(v) for v, _ in present) if present else None
+    if rule == "each":
+        return ";".join(dict.fromkeys(str(v) for v, _ in present)) or None
     if rule == "shared":
         distinct = {v for v, _ in present}
         if not distinct:
@@ -504,6 +506,8 @@ def _record(mixture: Mixture) -> tuple:
     for component in mixture.components:
         if component.fusion is not None and component.fusion["kind"] == "molecular":
             gaps.append(f"{component.name}: {_MOLECULAR_NOTE}")
+    if any(WATER_CAUTION in (r[position["value_notes"]] or "") for r in records):
+        gaps.append(WATER_CAUTION)
     verdict = finalise(warnings=mixture.warnings, gaps=gaps)
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message

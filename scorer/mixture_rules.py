@@ -34,6 +34,7 @@ RULE_TEXT: dict[str, str] = {
     "states": "every component's oxidation states, joined (an element with two states keeps both)",
     "own": "set for the mixture itself (see the column's description)",
     "empty": "empty (a mixture is not one crystal; see each component in ionicity explain)",
+    "each": "every component's value in component order, equal values once, joined by ';'",
 }
 
 MIXTURE_RULES: dict[str, str] = {
@@ -52,6 +53,7 @@ MIXTURE_RULES: dict[str, str] = {
     "lattice_energy_kapustinskii_kJ_mol": "empty", "lattice_energy_vbt_kJ_mol": "empty",
     "lattice_energy_born_mayer_kJ_mol": "empty", "lattice_energy_born_lande_kJ_mol": "empty",
     "structure_type": "empty", "structure_type_origin": "empty", "mp_trend_index": "empty", "melting_class": "empty",
+    "water_behaviour": "each", "solution_ph": "each", "water_reaction_products": "each",
     "mixture_components": "own", "mixture_mole_fractions": "own", "liquidus_estimate_K": "own", "liquidus_method": "own",
 }
 

@@ -124,6 +124,11 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
     ("melting_radius_stand_in", r"melting trend: {ion} has no Shannon radius: lattice energy with [^;]*",
      "melting trend: the ion (in brackets) has no Shannon radius; the lattice energy takes a stand-in cation of"
      " the same charge (ionicity explain names it)"),
+    # the water caution itself is never shortened: a reader of the file sees it in full
+    ("water_no_ph_insoluble", r"solution_ph empty: insoluble, no solution to take the pH of",
+     "solution_ph empty: the compound is insoluble, there is no solution to take the pH of"),
+    ("water_no_ph_constant", r"solution_ph empty: no hydrolysis constant or rule here gives the pH",
+     "solution_ph empty: no hydrolysis constant or rule of scorer.water gives the pH (ionicity explain says why)"),
 )
 
 # an ion as the notes write it: SO4(2-), [C4mim](+), Fe(3+), Cu(NH3)4(2+)

@@ -118,6 +118,7 @@ TABLES: dict[str, TableSpec] = {
         TableSpec("blends.csv", ("name", "mixture", "source"), "scorer.mixture"),
         TableSpec("eutectics.csv", ("system", "mole_fractions", "liquidus_K", "set", "kind", "source"), "scorer.mixture"),
         TableSpec("compound_systems.csv", ("component_a", "component_b", "compounds", "source"), "scorer.mixture"),
+        TableSpec("water_acidity.csv", ("ion_id", "kind", "pKa", "pKa2", "source"), "scorer.water_ph"),
     )
 }
 

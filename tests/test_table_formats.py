@@ -162,7 +162,7 @@ def test_chosen_columns_write_only_those(tmp_path, capsys):
         _score(tmp_path, b"formula\nNaCl\n", "x.csv", columns=["no_such"])
     assert main(["columns", "--groups"]) == 0
     listing = capsys.readouterr().out
-    assert all(g in listing for g in ("composition", "character", "fajans", "hsab", "lattice", "melting"))
+    assert all(g in listing for g in ("composition", "character", "fajans", "hsab", "lattice", "melting", "water"))
 
 
 def test_every_descriptor_module_names_its_group():
