@@ -34,6 +34,8 @@ from ionicity.pipelines.melting_screen import (
     screen_salt,
     target_flags,
 )
+from ionicity.scorer.bond_class_rules import keeps_formal_salt_reading
+from ionicity.scorer.melting import formal_salt_reading
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.name_reader import read_name
@@ -228,6 +230,10 @@ def build_open_training_set(
             decisions.append({**entry, "kept": False, "reason": f"formula not parsed: {exc}"})
             continue
         dec, named = decompose(comp), None
+        if not dec.is_ionic and keeps_formal_salt_reading(comp.as_dict()):
+            # interstitial nitrides and layered dichalcogenides (TiN, MoS2) have no ions, but the
+            # salt index of their formal reading is what their melting route takes: screened as that
+            dec = formal_salt_reading(dec) or dec
         verdicts = [screen_salt(dec, n) for n in names] or [(False, "no name")]
         ok = any(v[0] for v in verdicts)
         if not ok:

@@ -53,6 +53,7 @@ from pathlib import Path
 import numpy as np
 from ionicity.scorer import melting
 from ionicity.scorer import melting_routes as routes
+from ionicity.scorer.bond_class_rules import keeps_formal_salt_reading
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.record import normalized_formula, score_formula
@@ -132,6 +133,11 @@ def salt_rows(training_rows):
     for in_fixture, row in [*((True, r) for r in fixture),
                             *((False, r) for r in training_rows if r["formula_normalized"] not in known)]:
         dec = decompose(parse_formula(row["formula_normalized"]))
+        if not dec.is_ionic and keeps_formal_salt_reading(dict(dec.composition)):
+            # interstitial nitrides and layered dichalcogenides (TiN, VN, TiS2, WTe2) are read without
+            # ions, but their melting route takes the salt index of their formal ionic reading: the
+            # calibration fits that index on that reading, as before the rules (scorer.bond_class_rules)
+            dec = melting.formal_salt_reading(dec)
         terms = melting.melting_terms(dec)
         if terms is None or terms.organic or not math.isfinite(terms.lattice_energy_kJ_mol):
             continue

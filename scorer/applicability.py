@@ -80,7 +80,10 @@ import math
 import re
 
 from ionicity.scorer import character, fajans
-from ionicity.scorer.bond_class_rules import covalent_hydride_class, high_valent_halide_reason, interstitial_reason
+from ionicity.scorer.bond_class_rules import (
+    covalent_hydride_class, high_valent_halide_reason, interstitial_nitride_reason, interstitial_reason,
+    layered_dichalcogenide_reason,
+)
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
@@ -394,6 +397,12 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
     molecular_halide = high_valent_halide_reason(counts)
     if molecular_halide is not None:
         return "covalent_molecular", "not_applicable", [molecular_halide]
+    nitride = interstitial_nitride_reason(counts)
+    if nitride is not None:
+        return "intermetallic", "not_applicable", [nitride]
+    layers = layered_dichalcogenide_reason(counts)
+    if layers is not None:
+        return "chain_layer_solid", "not_applicable", [layers]
     hydride_of = {t.ion.element for t in dec.cations}
     if len(dec.anions) == 1 and dec.anions[0].ion.ion_id == "H(-)" and len(hydride_of) == 1:
         # one element, perhaps in two states (Sn2H6 read as Sn(2+) and Sn(4+))

@@ -15,10 +15,24 @@ the chemistry of the element pair (found by an audit of registry compounds,
   Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 8.4
   carbides, ch. 11.3 nitrides, ch. 3.5 hydrides; from memory). Saline
   carbides and nitrides (CaC2, Al4C3, Li3N, Ca3N2) have s- or p-block metals
-  and stay with the solver; so do the acetylides of group 11. Transition-metal
-  nitrides (TiN) are interstitial as well but are left to the solver: TiN is
-  a calibration row of the salt melting index, whose weights this rule must
-  not move.
+  and stay with the solver; so do the acetylides of group 11.
+* :func:`interstitial_nitride_reason`: nitrides of the group 4-10 metals and
+  the actinides with at most one N per metal atom (TiN, NbN, CrN, Mo2N, UN)
+  are interstitial, metallic conductors (Haegg 1931; Greenwood & Earnshaw
+  ch. 11.3.2; from memory), applied after the ion search so that their formal
+  ionic reading is kept (``Decomposition.formal_ions``): the salt melting index
+  of that reading is what their melting route takes (:mod:`scorer.melting`),
+  and TiN and VN stay calibration rows of that index through it
+  (:func:`pipelines.melting_weights.salt_rows`). Saline nitrides (Li3N,
+  Ca3N2), the lanthanide nitrides and nitrogen-rich insulators (Ta3N5, Zr3N4)
+  stay with the solver.
+* :func:`layered_dichalcogenide_reason`: MX2 sulfides, selenides and
+  tellurides of groups 4-7 (Ti, Zr, Hf, V, Nb, Ta, Mo, W, Tc, Re) and of Pd
+  and Pt are layer solids: X-M-X sandwiches held by covalent M-X bonds inside
+  the layer and by van der Waals contacts between layers (Wilson & Yoffe, Adv.
+  Phys. 1969, 18, 193). The pyrite disulfides (FeS2, MnS2, NiS2: S2(2-) ions)
+  are not of this kind. Applied after the ion search, formal reading kept,
+  for the same reasons (TiS2 and WTe2 are calibration rows of the salt index).
 * :func:`covalent_hydride_class`: H(-) exists only beside electropositive
   metals (Pauling electronegativity of H 2.20). With a p-block or group-12
   element, or beryllium, the E-H bond is nearly non-polar: dchi < 0.5 gives molecular
@@ -45,6 +59,9 @@ from ionicity.scorer.substance import formal_oxidation_states
 
 __all__ = [
     "ORGANOMETALLIC_NOTE",
+    "interstitial_nitride_reason",
+    "layered_dichalcogenide_reason",
+    "keeps_formal_salt_reading",
     "organometallic_reason",
     "HYDRIDE_MOLECULAR_MAX_DCHI",
     "HYDRIDE_POLYMERIC_MAX_DCHI",
@@ -59,6 +76,8 @@ HYDRIDE_POLYMERIC_MAX_DCHI = 0.75
 HIGH_VALENT_MIN_STATE = 6
 _HALOGENS = frozenset({"F", "Cl", "Br", "I"})
 _PNICTOGENS = frozenset({"P", "As", "Sb"})
+# 5f metals whose mononitrides are metallic (ThN, UN, PuN: rock-salt conductors; from memory)
+_ACTINIDE_METALS = frozenset("Th Pa U Np Pu Am".split())
 
 
 def _d_group(symbol: str) -> int | None:
@@ -111,9 +130,8 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
     """
     partners = [s for s in counts if not is_metal(s)]
     metals = [s for s in counts if is_metal(s)]
-    # nitrides (TiN, ZrN, MoN) are interstitial too, but TiN is a row of the salt
-    # index's calibration set (pipelines.melting_weights): reading it without ions
-    # changes the fitted weights, which this rule must not do; left to the index's owner
+    # nitrides are read after the ion search (interstitial_nitride_reason), so that
+    # their formal ionic reading stays for the melting route
     if len(partners) != 1 or not metals or partners[0] not in _PNICTOGENS | {"C", "H"}:
         return None
     partner = partners[0]
@@ -125,6 +143,68 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
         " phase) bonded metallically, not as ions (Haegg, Z. Phys. Chem. B 1931, 12, 33; Greenwood &"
         " Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.5, 8.4; from memory)"
     )
+
+
+# Wilson & Yoffe, Adv. Phys. 1969, 18, 193: the layered MX2 of groups 4-7 and of Pd, Pt
+# (NiS2 and the group 7-9 disulfides MnS2, FeS2, CoS2 are pyrites of S2(2-))
+_LAYER_DICHALCOGENIDE_METALS = frozenset("Ti Zr Hf V Nb Ta Mo W Tc Re Pd Pt".split())
+_CHALCOGENS = frozenset({"S", "Se", "Te"})
+
+
+def interstitial_nitride_reason(counts: dict[str, float]) -> str | None:
+    """Why a nitride of group 4-10 metals or actinides is metallic; None otherwise.
+
+    At most one N per metal atom (nitrogen in the octahedral holes of a metal
+    lattice: Haegg's interstitial phases); more nitrogen than metal (Ta3N5,
+    Zr3N4) makes insulating nitrides, left to the ion solver, as are the
+    saline nitrides of the s- and p-block and the lanthanide nitrides.
+
+    >>> interstitial_nitride_reason({"Ti": 1.0, "N": 1.0}) is not None
+    True
+    >>> interstitial_nitride_reason({"Ca": 3.0, "N": 2.0}), interstitial_nitride_reason({"Ta": 3.0, "N": 5.0})
+    (None, None)
+    """
+    metals = [s for s in counts if is_metal(s)]
+    if not metals or set(counts) != {*metals, "N"} or counts["N"] > sum(counts[m] for m in metals) + 1e-9:
+        return None
+    if not all((_d_group(m) or 0) in range(4, 11) or get_element(m).symbol in _ACTINIDE_METALS for m in metals):
+        return None
+    return (
+        "a transition-metal (or actinide) nitride: N sits in the octahedral holes of a metal lattice, a"
+        " metallic conductor (an interstitial phase), not a salt of N(3-) (Haegg, Z. Phys. Chem. B 1931, 12,"
+        " 33; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.2; from memory);"
+        " its formal ionic reading is kept for the melting index only"
+    )
+
+
+def layered_dichalcogenide_reason(counts: dict[str, float]) -> str | None:
+    """Why an MX2 chalcogenide of groups 4-7 or of Pd, Pt is a layer solid; None otherwise.
+
+    >>> layered_dichalcogenide_reason({"Mo": 1.0, "S": 2.0}) is not None
+    True
+    >>> layered_dichalcogenide_reason({"Fe": 1.0, "S": 2.0}), layered_dichalcogenide_reason({"Mo": 2.0, "S": 3.0})
+    (None, None)
+    """
+    metals = [s for s in counts if is_metal(s)]
+    chalcogens = [s for s in counts if s in _CHALCOGENS]
+    if len(metals) != 1 or not chalcogens or len(metals) + len(chalcogens) != len(counts):
+        return None
+    if metals[0] not in _LAYER_DICHALCOGENIDE_METALS:
+        return None
+    if abs(sum(counts[x] for x in chalcogens) - 2.0 * counts[metals[0]]) > 1e-9:
+        return None
+    return (
+        "a layered dichalcogenide: X-M-X sandwiches of covalent M-X bonds, held to each other by van der"
+        " Waals contacts (CdI2 and MoS2 types; Wilson & Yoffe, Adv. Phys. 1969, 18, 193); its formal ionic"
+        " reading is kept for the melting index only"
+    )
+
+
+def keeps_formal_salt_reading(counts: dict[str, float]) -> bool:
+    """Whether a composition is read without ions by a rule that keeps its formal salt reading
+    (:func:`interstitial_nitride_reason`, :func:`layered_dichalcogenide_reason`): the salt melting
+    index's calibration keeps such rows through that reading (``pipelines.melting_weights.salt_rows``)."""
+    return interstitial_nitride_reason(counts) is not None or layered_dichalcogenide_reason(counts) is not None
 
 
 def covalent_hydride_class(cation_element: str | None) -> tuple[str, float] | None:

@@ -92,6 +92,7 @@ import dataclasses
 import math
 from dataclasses import dataclass, replace
 
+from ionicity.scorer.bond_class_rules import layered_dichalcogenide_reason
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
@@ -127,6 +128,7 @@ __all__ = [
     "MeltingTrend",
     "MeltingTerms",
     "analyse",
+    "formal_salt_reading",
     "describe",
     "explain",
     "melting_trend_index",
@@ -486,7 +488,7 @@ def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
     )
 
 
-def _formal_salt(dec: Decomposition) -> Decomposition | None:
+def formal_salt_reading(dec: Decomposition) -> Decomposition | None:
     """The ionic reading of a compound for the salt index of the chain-layer
     and network routes: its own ions, or the formal ions the applicability
     decision dropped (scorer.applicability: CrO3 as Cr(6+) with O(2-)), read
@@ -555,9 +557,16 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         index, reading = _molecular(dec)
     elif route == "chain_layer":
         molecular, reading = _molecular(dec)
-        formal = _formal_salt(dec)
+        formal = formal_salt_reading(dec)
         salt, terms, notes = _salt(formal) if formal is not None else (math.nan, None, [])
-        if math.isfinite(salt) and math.isfinite(molecular):
+        if math.isfinite(salt) and layered_dichalcogenide_reason(dict(dec.composition)) is not None:
+            # sheets of covalent M-X bonds (MoS2): melting breaks those bonds, as in the formal ionic
+            # lattice, so its salt index is taken; the mean with a molecular index below is for
+            # chains and layers of molecular units bridged by halide or oxide (CrO3, ZnCl2)
+            index = salt
+            steps = (f"  layered dichalcogenide: melting breaks the covalent M-X bonds of the sheets, the salt"
+                     f" index of the formal ionic reading {salt:.3f} is taken",)
+        elif math.isfinite(salt) and math.isfinite(molecular):
             share = routes.chain_layer_salt_share(reading.terms if reading is not None else None)
             index = routes.chain_layer_index(salt, molecular, share)
             steps = (f"  chain/layer solid: I = weighted mean of the salt index {salt:.3f} (weight {share:.3f}:"
@@ -577,13 +586,14 @@ def analyse(dec: Decomposition) -> MeltingTrend:
             steps = (*steps, f"  intermetallic: + {TREND_WEIGHTS['intermetallic_chi_variance']} * variance of the"
                              f" Pauling electronegativities {variance:.3f} (heat of formation, Pauling's"
                              f" bond-energy relation) -> {trend_temperature_K(index):.0f} K")
-        formal = _formal_salt(dec)
-        salt = _salt(formal)[0] if formal is not None else math.nan
+        formal = formal_salt_reading(dec)
+        salt, _, salt_notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and not salt <= index:
             # a polar network (GaN, AlN) holds at least as well as its ionic reading
             steps = (*steps, f"  the ionic reading is higher, {trend_temperature_K(salt):.0f} K: it is taken"
                      " (a polar network holds at least as well as its ionic lattice)")
             index = salt
+            notes.extend(salt_notes)
         if not math.isfinite(index):
             notes.append("melting trend: " + how)
     else:

@@ -19,7 +19,9 @@ from ionicity.scorer.bond_class_rules import (
     HYDRIDE_POLYMERIC_MAX_DCHI,
     covalent_hydride_class,
     high_valent_halide_reason,
+    interstitial_nitride_reason,
     interstitial_reason,
+    layered_dichalcogenide_reason,
 )
 from ionicity.scorer.record import score_formula
 
@@ -186,6 +188,72 @@ def test_interstitial_reason_needs_one_partner():
 def test_hydrides_and_carbides_of_intermetallic_hosts(formula, metallic):
     assert (interstitial_reason(dict(_counts(formula))) is not None) is metallic
     assert (_verdict(formula)[1] == "intermetallic") is metallic
+
+
+# Interstitial nitrides of groups 4-10 and of the actinides are metallic conductors with rock-salt
+# or metal-rich structures (Haegg, Z. Phys. Chem. B 1931, 12, 33; Greenwood & Earnshaw, Chemistry of
+# the Elements, 2nd ed., 1997, ch. 11.3.2; Toth, Transition Metal Carbides and Nitrides, 1971; from
+# memory). Written from the chemistry; TiN, VN, ZrN, HfN, MoN, UN are rows of the salt index's
+# calibration set and NbN, TaN, PuN of its validation half (see the calibration test below).
+@pytest.mark.parametrize("formula", ["TiN", "ZrN", "HfN", "VN", "NbN", "TaN", "CrN", "Cr2N", "MoN", "Mo2N", "UN",
+                                     "ThN"])
+def test_interstitial_nitrides_are_not_salts(formula):
+    status, cls, model = _verdict(formula)
+    assert (status, cls, model) == ("ok", "intermetallic", "not_applicable")
+
+
+# Saline nitrides (Li3N, Ca3N2: Greenwood & Earnshaw ch. 11.3.2), the nitrogen-rich insulators Ta3N5
+# and Zr3N4 (more N than metal; from memory) and the group-13 nitrides (Phillips 1970) are not
+# interstitial.
+@pytest.mark.parametrize("formula", ["Li3N", "Ca3N2", "Mg3N2", "Ta3N5", "Zr3N4", "AlN", "GaN", "BN"])
+def test_nitrides_that_are_not_interstitial(formula):
+    assert interstitial_nitride_reason(dict(_counts(formula))) is None
+
+
+def test_interstitial_nitrides_keep_their_refractory_melting_class():
+    # TiN melts at 3223 K, ZrN 3225 K, NbN 2573 K (CRC Handbook of Chemistry and Physics, 95th ed.,
+    # 2014, physical constants of inorganic compounds; from memory): the salt index of the formal
+    # reading is what their melting route takes, so the class stays refractory
+    for formula in ("TiN", "ZrN", "NbN"):
+        out = score_formula(formula)
+        assert out["mp_route"] == "element_mixture" and out["melting_class"] == "refractory", formula
+
+
+# Layered transition-metal dichalcogenides: X-M-X sandwiches held by van der Waals contacts (Wilson &
+# Yoffe, Adv. Phys. 1969, 18, 193, table 1: groups IVA-VIA and Pd, Pt); the pyrite disulfides hold
+# S2(2-) ions (FeS2, NiS2, MnS2: Wells, Structural Inorganic Chemistry, 5th ed., 1984; from memory).
+@pytest.mark.parametrize("formula, layered", [
+    ("MoS2", True), ("WS2", True), ("MoSe2", True), ("WTe2", True), ("TiS2", True), ("ZrS2", True),
+    ("NbSe2", True), ("TaS2", True), ("ReS2", True), ("PtS2", True),
+    ("FeS2", False), ("NiS2", False), ("MnS2", False), ("SnS2", False), ("Mo2S3", False), ("TiS3", False),
+])
+def test_layered_dichalcogenides(formula, layered):
+    assert (layered_dichalcogenide_reason(dict(_counts(formula))) is not None) is layered
+    out = score_formula(formula)
+    assert (out["substance_class"] == "chain_layer_solid") is layered
+    if layered:
+        assert out["ionic_model"] == "not_applicable" and out["status"] == "ok"
+
+
+def test_layered_dichalcogenides_melt_through_their_formal_salt_index():
+    # MoS2 melts at about 2023 K and WS2 above 1523 K (CRC Handbook, 95th ed., 2014; from memory): the
+    # sheets' covalent bonds break on melting, so the route takes the formal reading's salt index,
+    # not the mean with a molecular index that bridged molecular chains get (CrO3)
+    from ionicity.scorer import melting
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.ions import decompose
+    dec = decompose(parse_formula("MoS2"))
+    salt = melting.analyse(melting.formal_salt_reading(dec)).mp_trend_index
+    assert melting.analyse(dec).mp_trend_index == pytest.approx(salt)
+    assert melting.analyse(dec).melting_class == "high_melting_solid"
+
+
+def test_rules_that_keep_the_formal_reading_do_not_move_the_salt_calibration():
+    """Calibration set of the salt index: TiN (wikidata_salts.csv) still enters through its formal reading."""
+    from ionicity.pipelines import melting_weights
+    rows = melting_weights.salt_rows([{"formula_normalized": f, "mp_K": "1000"} for f in ("VN", "TiS2", "MoS2")])
+    kept = {formula for *_, formula in rows}
+    assert {"TiN", "VN", "TiS2", "MoS2"} <= kept
 
 
 # --- the audit -------------------------------------------------------------------
