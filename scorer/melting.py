@@ -105,6 +105,7 @@ from ionicity.scorer.melting_anions import (
     soft_cation_pseudohalide_fraction,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
+from ionicity.scorer.radii import fallback_radii
 from ionicity.scorer.ion_shapes import ONIUM_FAMILIES, _shape_table, anion_symmetry_number, ion_shape
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.caution import CAUTION
@@ -587,6 +588,12 @@ def analyse(dec: Decomposition) -> MeltingTrend:
                              f" Pauling electronegativities {variance:.3f} (heat of formation, Pauling's"
                              f" bond-energy relation) -> {trend_temperature_K(index):.0f} K")
         formal = formal_salt_reading(dec)
+        if formal is not None and dec.substance_class == "semiconductor" and any(
+                t.ion.ion_id in fallback_radii() for t in formal.anions):
+            # Pauling's crystal radii of P(3-), As(3-), Sb(3-) (fallback_radii.csv) describe those ions
+            # in salts (Mg3P2, Na3Sb); a III-V semiconductor's tetrahedral bonds are no such lattice, and
+            # its formal reading overestimates (InSb 1961 K against 800 K): its mixture rule stands
+            formal = None
         salt, _, salt_notes = _salt(formal) if formal is not None else (math.nan, None, [])
         if math.isfinite(salt) and not salt <= index:
             # a polar network (GaN, AlN) holds at least as well as its ionic reading

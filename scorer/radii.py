@@ -100,8 +100,9 @@ def thermochemical_radii() -> dict[str, tuple[float, str]]:
 
 @once
 def fallback_radii() -> dict[str, tuple[float, str]]:
-    """Radii of cations Shannon (1976) does not list, from older tables
-    (``scorer/data/fallback_radii.csv``, a source per row)."""
+    """Radii of ions Shannon (1976) does not list, from older tables
+    (``scorer/data/fallback_radii.csv``, a source per row): Ahrens's Sn(2+) and
+    Ge(2+), Pauling's crystal radii of P(3-), As(3-), Sb(3-)."""
     return {row["ion_id"]: (float(row["radius_pm"]), row["source"]) for row in table("fallback_radii.csv")}
 
 

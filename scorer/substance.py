@@ -77,7 +77,10 @@ __all__ = [
 _TOL = 1e-6
 _HALOGENS = frozenset({"F", "Cl", "Br", "I", "At"})
 _NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
-_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O"})
+# P and As make tetrahedral networks with B, Si and Ge (BP, BAs: zinc blende; SiP2, GeAs2: layers;
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 6.7, 9.3; from memory);
+# with carbon alone they would make no known network, hence the carbon test in nonionic_decomposition
+_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O", "P", "As"})
 _ACID_ANION_FAMILIES = frozenset({
     "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
     "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
@@ -310,7 +313,8 @@ def nonionic_decomposition(
         states = tuple((s, 0.0) for s in counts)
     elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
         cls = "base"
-    elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}):
+    elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
+            symbols & {"P", "As"} and not symbols & {"B", "Si", "Ge"}):
         cls = "covalent_network"
     elif any(is_metal(s) for s in symbols):
         cls = "unknown"
