@@ -103,6 +103,7 @@ from ionicity.scorer.melting_anions import (
     octahedral_high_spin_cfse_delta_o,
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
+    coinage_cation_fraction,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
@@ -171,6 +172,7 @@ class MeltingTerms:
     crystal_field_share: float = 0.0
     saline_nitride_fraction: float = 0.0
     soft_pseudohalide_fraction: float = 0.0
+    coinage_cation_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -186,7 +188,7 @@ class MeltingTerms:
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
-            weights=weights,
+            self.coinage_cation_fraction, weights=weights,
         )
 
 
@@ -302,6 +304,7 @@ def _gather_terms(
         if nu else 0.0,
         saline_nitride_fraction=saline_nitride_fraction(dec.cations, dec.anions),
         soft_pseudohalide_fraction=soft_cation_pseudohalide_fraction(dec.anions, png),
+        coinage_cation_fraction=coinage_cation_fraction(dec.cations),
         notes=tuple(notes),
     )
 
@@ -426,6 +429,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" Delta_o; saline nitride: -{w['saline_nitride']} * share {terms.saline_nitride_fraction:.2f}",
         f"  linear pseudohalides bound by an 18/18+2-electron cation (chains, frameworks):"
         f" +{w['soft_cation_pseudohalide']} * their share of the anions {terms.soft_pseudohalide_fraction:.2f}",
+        f"  Cu(+), Ag(+), Au(+) (Born-Haber lattice energy above the point-ion value): +{w['coinage_cation']}"
+        f" * their share of the cations {terms.coinage_cation_fraction:.2f}",
     )
 
 
