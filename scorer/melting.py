@@ -104,6 +104,7 @@ from ionicity.scorer.melting_anions import (
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
+    DECOMPOSING_ANIONS,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
@@ -240,6 +241,12 @@ def _gather_terms(
     if not math.isfinite(chi):
         notes.append("melting trend: no Pauling electronegativity for a contact atom, covalency term at the reference")
         chi = TREND_WEIGHTS["reference_contact_chi"]
+    decomposing = sorted({t.ion.ion_id for t in dec.anions if t.ion.ion_id in DECOMPOSING_ANIONS})
+    if decomposing:
+        notes.append(
+            f"melting trend: {', '.join(decomposing)} decompose(s) on heating (giving off oxygen, carbon dioxide,"
+            " sulfur dioxide or chlorine compounds): the trend is of the decomposition, the salt may never melt;"
+            " heating it can release gas and pressure: see the safety data sheet")
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))
     anion_total = sum(t.count for t in dec.anions)

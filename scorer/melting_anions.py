@@ -25,6 +25,7 @@ __all__ = [
     "BRIDGING_PSEUDOHALIDES",
     "soft_cation_pseudohalide_fraction",
     "coinage_cation_fraction",
+    "DECOMPOSING_ANIONS",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -209,3 +210,15 @@ def coinage_cation_fraction(cations) -> float:
     if not total:
         return 0.0
     return float(sum(t.count for t in cations if t.ion.ion_id in COINAGE_CATIONS) / total)
+
+
+# anions that give off a gas or disproportionate on heating, below or at the salt's melting point: the
+# melting trend of their salts carries a note and a caution (scorer.melting.melting_terms); a second-stage
+# weight for them was tried and not kept (datasets/melting/README.md)
+# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997: peroxides and superoxides lose O2,
+# ch. 14.2; hydrogencarbonates lose CO2 and water, ch. 8.6; hydrogensulfites, disulfites and dithionites
+# lose SO2, ch. 15.2; hypochlorites and chlorites disproportionate, ch. 17.2; from memory)
+DECOMPOSING_ANIONS = frozenset({
+    "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)", "S2O5(2-)",
+})
+
