@@ -21,8 +21,9 @@ names it):
    amides (NH3); peroxides and superoxides of the alkali metals (O2).
 5. ``fuming covalent halide``: a molecular or chain halide or oxyhalide of
    B, Al, Ga, Si, Ge, Sn, Ti, Zr, Hf, V, Nb, Ta, Cr, Mo, W, P, As, Sb, S or
-   Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3): reacts violently, giving
-   the hydrogen halide.
+   Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3), or a molecular halide of a
+   d- or f-block metal at +5 or more (MoF6, WF6, UF6, ReCl6, OsF6): reacts
+   violently, giving the hydrogen halide.
 6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7 react violently to their
    acids; CO2 is slightly soluble and SO2 dissolves, both acidic.
 7. ``acid``: strong mineral acids, H3PO4 and the small carboxylic acids are
@@ -283,16 +284,30 @@ def _binary(counts, dec) -> _Finding | None:
                     f"{metal} {kind}: reacts violently, giving {product}")
 
 
+def _high_valent_molecular_metal(centre: str, dec: Decomposition) -> bool:
+    """A d- or f-block metal at +5 or more in a molecular halide (MoF6, WF6, UF6, ReCl6, OsF6, MoCl5):
+    such halides hydrolyse violently to the hydrogen halide (UF6 + 2 H2O -> UO2F2 + 4 HF; Greenwood &
+    Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 31.3.3 and 23.3.3; from memory), unlike the
+    ionic metal fluorides and the molecular halides of group 12 (HgCl2 dissolves)."""
+    if dec.substance_class != "covalent_molecular" or not is_metal(centre):
+        return False
+    if get_element(centre).block not in ("d", "f"):
+        return False
+    state = dict(dec.oxidation_states).get(centre)
+    return state is not None and state >= 5
+
+
 def _fuming_halide(counts, dec) -> _Finding | None:
     if dec.is_ionic:
         return None
     halogens = [s for s in counts if s in _HALOGENS]
     centres = [s for s in counts if s not in _HALOGENS and s != "O"]
-    if not halogens or len(centres) != 1 or centres[0] not in _FUMING_CENTRES:
+    if not halogens or len(centres) != 1:
         return None
     centre = centres[0]
-    if halogens == ["F"] and centre not in _FUMING_FLUORIDE_CENTRES:
-        return None
+    if centre not in _FUMING_CENTRES or (halogens == ["F"] and centre not in _FUMING_FLUORIDE_CENTRES):
+        if not _high_valent_molecular_metal(centre, dec):
+            return None
     products = ";".join(f"H{x}" for x in halogens)
     kind = "oxyhalide" if "O" in counts else "halide"
     return _finding("reacts_violently", "acidic", products, "fuming covalent halide",
