@@ -607,10 +607,18 @@ def analyse(dec: Decomposition) -> MeltingTrend:
             # its formal reading overestimates (InSb 1961 K against 800 K): its mixture rule stands
             formal = None
         salt, _, salt_notes = _salt(formal) if formal is not None else (math.nan, None, [])
+        partial = not routes.mixture_counts_whole_formula(dec.composition)
         if math.isfinite(salt) and not salt <= index:
             # a polar network (GaN, AlN) holds at least as well as its ionic reading
             steps = (*steps, f"  the ionic reading is higher, {trend_temperature_K(salt):.0f} K: it is taken"
                      " (a polar network holds at least as well as its ionic lattice)")
+            index = salt
+            notes.extend(salt_notes)
+        elif math.isfinite(salt) and partial:
+            # the mixture dropped the gaseous elements (WO3 read as tungsten, 3695 K): the formal
+            # ionic reading describes the whole formula (WO3 1487 K against 1745 K measured)
+            steps = (*steps, f"  the mixture counts only the elements solid at 25 C, the formula's other atoms"
+                     f" drop out: the formal ionic reading, {trend_temperature_K(salt):.0f} K, is taken")
             index = salt
             notes.extend(salt_notes)
         if not math.isfinite(index):
