@@ -82,7 +82,11 @@ _NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
 # P and As make tetrahedral networks with B, Si and Ge (BP, BAs: zinc blende; SiP2, GeAs2: layers;
 # Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 6.7, 9.3; from memory);
 # with carbon alone they would make no known network, hence the carbon test in nonionic_decomposition
-_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O", "P", "As"})
+# S, Se and Te likewise with B, Si and Ge (SiS2 chains, GeS and GeSe layers, GeS2 and B2S3 networks;
+# Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 16; from memory)
+_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O", "P", "As", "S", "Se", "Te"})
+# partners that make networks with B, Si and Ge but not with carbon alone (CS2, COS, CP are molecules or unknown)
+_NOT_WITH_CARBON_ALONE = frozenset({"P", "As", "S", "Se", "Te"})
 _ACID_ANION_FAMILIES = frozenset({
     "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
     "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
@@ -342,7 +346,7 @@ def nonionic_decomposition(
     elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
         cls = "base"
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
-            symbols & {"P", "As"} and not symbols & {"B", "Si", "Ge"}):
+            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}):
         cls = "covalent_network"
     elif any(is_metal(s) for s in symbols):
         cls = "unknown"
