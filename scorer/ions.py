@@ -33,6 +33,7 @@ from ionicity.scorer.bond_class_rules import organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
+from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
@@ -236,6 +237,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     chosen = _best(readings)
     if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
+        if built:
+            readings, chosen = built, _best(built)
+            notes.extend(built_notes)
+    if not hinted and (chosen is None or suspect_organic_reading(chosen[0], chosen[1])):
+        # last resort for a salt of an organic acid the library does not list (C12H25NaO4S, KHC8H4O4):
+        # the s-block metal with the rest as one organic anion
+        built, built_notes = organic_anion_readings(remaining)
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
