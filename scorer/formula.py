@@ -99,7 +99,7 @@ class ParsedFormula:
     ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``);
     ``structure_hint`` what the written groups say about bonding that the
     counts cannot (``"amide"`` for ``CO(NH2)2``, ``"organometallic"`` for
-    ``Fe(CO)5`` or ``Fe(C5H5)2``), so it takes part in equality.
+    ``Fe(CO)5`` or ``Fe(C5H5)2``, ``"ammonium"`` for ``NH4SCN``), so it takes part in equality.
     ``canonical`` is one string per compound: every accepted spelling of the
     same formula unit gives the same one.
     """
@@ -495,6 +495,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "organometallic"
     elif "(NH2)" in cleaned:
         hint = "amide"
+    elif "NH4" in cleaned.replace("[", "").replace("]", ""):
+        # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
+        # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer)
+        hint = "ammonium"
     return ParsedFormula(
         text=text,
         counts=ordered,

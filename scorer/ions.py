@@ -232,6 +232,8 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
+        if comp.structure_hint != "ammonium" and _woehler_isomer(readings):
+            readings = []
     else:
         readings = _readings(remaining, hinted, notes, budget=budget)
     chosen = _best(readings)
@@ -331,6 +333,27 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=
         elif abs(given_charge) < _TOL:
             readings.append((0.0, given))
     return [r for r in readings if _has_both_signs(r[1])]
+
+
+# NH4(+) with these anions is the isomer of urea, thiourea, selenourea (Woehler 1828)
+_WOEHLER_ANIONS = frozenset({"OCN(-)", "CNO(-)", "SCN(-)", "SeCN(-)"})
+
+
+def _woehler_isomer(readings) -> bool:
+    """Whether an organic formula's only pair readings are ammonium (thio)cyanate; the caller asks
+    only when the text does not write NH4: CH4N2O is urea and CH4N2S thiourea, the molecules a formula
+    in that form names, not their ammonium-salt isomers (Woehler, Ann. Phys. Chem. 1828, 88, 253;
+    from memory).
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> [decompose(parse_formula(f)).substance_class for f in ("CH4N2O", "NH4OCN", "CH4N2S", "NH4SCN")]
+    ['covalent_molecular', 'ionic_salt', 'covalent_molecular', 'ionic_salt']
+    """
+    if not readings:
+        return False
+    _, terms = min(readings, key=lambda r: r[0])
+    ids = {ion.ion_id for ion, _ in terms}
+    return "NH4(+)" in ids and bool(ids - {"NH4(+)"}) and ids - {"NH4(+)"} <= _WOEHLER_ANIONS
 
 
 def _best(readings):
