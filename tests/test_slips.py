@@ -193,3 +193,25 @@ def test_grade_and_form_words_are_left_out_and_named(text, formula):
 @pytest.mark.parametrize("text", ["NaCl pellet-ish", "NaCl granulated sugar"])
 def test_unknown_trailing_words_stay_errors(text):
     assert score_formula(text)["status"] == "error"
+
+
+@pytest.mark.parametrize("text, meant", [
+    ("H20", "H2O"),    # water with the digit 0: hydrogen has no H20 molecule
+    ("N20", "N2O"),    # nitrous oxide
+    ("CD", "Cd"),      # capitals that read as a radical (C and D, 7 electrons)
+    ("SN", "Sn"),      # NS, 23 electrons
+    ("SIO2", "SiO2"),  # S, I and O2: 85 electrons
+    ("BII3", "BiI3"),  # BI4: 217 electrons
+])
+def test_readings_no_shelf_holds_are_slips(text, meant):
+    # common practice: an element with a count none of its molecules has, and an odd-electron
+    # molecule other than NO, NO2 and ClO2, are not what an inventory line means
+    slip = find_slip(text)
+    assert slip is not None and slip.suggested == meant, (text, slip)
+
+
+@pytest.mark.parametrize("text", ["NO", "NO2", "ClO2", "CO", "HF", "H2", "O3", "S8", "CH4", "C13H12N3"])
+def test_stable_molecules_and_long_formulas_are_read_as_written(text):
+    # NO, NO2 and ClO2 are the stable odd-electron molecules of a shelf (common practice); a long
+    # formula with an odd electron count is read as written
+    assert find_slip(text) is None
