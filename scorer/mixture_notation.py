@@ -31,6 +31,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
+from ionicity.scorer.solutions import split_in_solvent
+
 __all__ = ["MixtureText", "MixtureNotationError", "read_mixture_text", "blend_key"]
 
 _NUMBER = r"\d+(?:\.\d+)?"
@@ -242,6 +244,8 @@ def read_mixture_text(text: str) -> MixtureText | None:
     """
     if _QUICK.isdisjoint(text):
         return None
+    if split_in_solvent(text) is not None:
+        return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
     if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
         return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
     body, amounts, basis = _proportions(text)

@@ -164,6 +164,22 @@ def test_a_solution_scores_its_solute(text, solute, concentration):
     assert record["formula_normalized"] == score_formula(solute)["formula_normalized"]
 
 
+@pytest.mark.parametrize("text, solute, concentration, solvent", [
+    # electrolyte and stock-solution labels (common practice): the solute is scored, the solvent named
+    ("1 M LiPF6 in EC/DMC", "LiPF6", "1 M", "EC/DMC"),
+    ("1 M LiPF6 in EC:DMC (1:1 v/v)", "LiPF6", "1 M", "EC:DMC (1:1 v/v)"),
+    ("LiTFSI (1 M) in DME/DOL", "LiTFSI", "1 M", "DME/DOL"),
+    ("0.5 M LiTFSI in [C4mim][TFSI]", "LiTFSI", "0.5 M", "[C4mim][TFSI]"),
+    ("NaCl in water", "NaCl", None, "water"),
+])
+def test_a_solute_in_a_named_solvent(text, solute, concentration, solvent):
+    record = score_formula(text)
+    assert record["status"] == "ok" and record["concentration_as_written"] == concentration
+    assert record["formula_normalized"] == score_formula(solute)["formula_normalized"]
+    assert f"in {solvent}: the values are for the pure solute" in record["value_notes"]
+    assert "the solvent is not scored" in record["value_notes"]
+
+
 def test_an_acid_solution_defers_to_the_safety_data_sheet():
     notes = score_formula("HCl 37%")["value_notes"]
     assert "safety data sheet" in notes
