@@ -55,7 +55,7 @@ def solution_row(row: tuple, solution: Solution, position: dict[str, int]) -> tu
     """``row`` (the solute's) with the concentration as written and the
     solution's note (and, for an acid or a base, the caution)."""
     row = list(row)
-    row[position["concentration_as_written"]] = solution.concentration
+    row[position["concentration_as_written"]] = solution.concentration or None
     if row[position["status"]] != "error":
         note = solution_note(solution, row[position["substance_class"]] or "")
         row[position["value_notes"]] = joined([note, row[position["value_notes"]] or ""])
