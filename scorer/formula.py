@@ -158,6 +158,9 @@ class ParsedFormula:
         return text
 
 
+# an acyl halide group written out: CH3COCl, C6H5COCl, COCl2, CH3C(O)Br (not CoCl2: case matters)
+_ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
+
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
     text = _SPACED_WATER.sub("*", _SPACED_TIMES.sub("*", text))
@@ -493,6 +496,8 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     hint = ""
     if _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
+    elif _ACYL_HALIDE.search(cleaned):
+        hint = "acyl_halide"
     elif "(NH2)" in cleaned:
         hint = "amide"
     elif "NH4" in cleaned.replace("[", "").replace("]", ""):

@@ -202,6 +202,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if comp.structure_hint == "acyl_halide" and not any(is_metal(s) for s in symbols):
+        # an acyl halide written out (CH3COCl, COCl2): a molecule whose C-X bond water cleaves
+        dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+        return dataclasses.replace(dec, written_groups=("acyl_halide",))
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)

@@ -24,6 +24,8 @@ names it):
    Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3), or a molecular halide of a
    d- or f-block metal at +5 or more (MoF6, WF6, UF6, ReCl6, OsF6): reacts
    violently, giving the hydrogen halide.
+5b. ``acyl halide``: an acyl halide written out (CH3COCl, C6H5COCl, COCl2)
+   reacts violently, giving the hydrogen halide and the acid.
 6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7 react violently to their
    acids; CO2 is slightly soluble and SO2 dissolves, both acidic.
 7. ``acid``: strong mineral acids, H3PO4 and the small carboxylic acids are
@@ -315,6 +317,19 @@ def _fuming_halide(counts, dec) -> _Finding | None:
                     f" {products.replace(';', ' and ')}")
 
 
+def _acyl_halide(counts, dec) -> _Finding | None:
+    """An acyl halide written out (CH3COCl, C6H5COCl, COCl2): water cleaves the C-X bond, giving the
+    hydrogen halide and the carboxylic acid (phosgene: CO2), violently for the small ones (Bretherick's
+    Handbook of Reactive Chemical Hazards; Clayden et al., Organic Chemistry, 2nd ed., 2012, ch. 10;
+    from memory)."""
+    if "acyl_halide" not in dec.written_groups:
+        return None
+    halogens = [s for s in counts if s in _HALOGENS]
+    products = ";".join([*(f"H{x}" for x in halogens), "CO2" if counts.get("C") == 1 else "carboxylic acid"])
+    return _finding("reacts_violently", "acidic", products, "acyl halide",
+                    f"an acyl halide: water cleaves its C-X bond, giving {products.replace(';', ' and ')}")
+
+
 def _anhydride(counts, dec) -> _Finding | None:
     entry = _ANHYDRIDES.get(tuple(sorted(counts.items())))
     if entry is None:
@@ -494,7 +509,7 @@ def _insoluble_solid(counts, dec) -> _Finding | None:
 
 
 #: the rules in order; the first that returns a finding decides
-RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _anhydride, _acid, _molecular_base, _organic,
+RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
          _ionic_liquid, _salt, _insoluble_solid)
 
 

@@ -296,3 +296,22 @@ def test_score_table_api():
 
     out = score_table(pd.DataFrame({"formula": ["Li3N", "AgCl"]}))
     assert list(out["water_behaviour"]) == ["reacts_violently", "insoluble"]
+
+
+@pytest.mark.parametrize("text, products", [
+    ("CH3COCl", "HCl;carboxylic acid"), ("AcCl", "HCl;carboxylic acid"), ("C6H5COCl", "HCl;carboxylic acid"),
+    ("CH3COBr", "HBr;carboxylic acid"), ("COCl2", "HCl;CO2"),
+])
+def test_acyl_halides_written_out_react_violently(text, products):
+    # acetyl chloride, benzoyl chloride, acetyl bromide and phosgene hydrolyse to the hydrogen halide
+    # (Bretherick's Handbook of Reactive Chemical Hazards; from memory); they were "miscible"
+    row = score_formula(text)
+    assert (row["water_behaviour"], row["solution_ph"], row["water_reaction_products"]) == (
+        "reacts_violently", "acidic", products)
+    assert "see the SDS" in row["value_notes"]
+
+
+def test_a_hill_formula_does_not_say_acyl_halide():
+    # C2H3ClO may be acetyl chloride or chloroacetaldehyde: only the written group decides
+    assert score_formula("C2H3ClO")["water_behaviour"] != "reacts_violently"
+    assert score_formula("CoCl2")["water_behaviour"] == "dissolves"
