@@ -24,6 +24,8 @@ names it):
    Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3), or a molecular halide of a
    d- or f-block metal at +5 or more (MoF6, WF6, UF6, ReCl6, OsF6): reacts
    violently, giving the hydrogen halide.
+5c. ``fluoro anion``: salts of PF6- and BF4- keep their solubility but give HF
+   as they hydrolyse slowly (acidic); LiPF6 reacts.
 5b. ``acyl halide``: an acyl halide written out (CH3COCl, C6H5COCl, COCl2)
    reacts violently, giving the hydrogen halide and the acid.
 6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7 react violently to their
@@ -508,9 +510,33 @@ def _insoluble_solid(counts, dec) -> _Finding | None:
     return None
 
 
+# fluoro anions that water hydrolyses to HF, slowly at room temperature and faster with acid, heat or
+# a Lewis-acidic cation (PF6-: Swatloski, Holbrey and Rogers, Green Chem. 2003, 5, 361, on [C4mim][PF6];
+# Kawamura et al., J. Power Sources 2006, 156, 547, on LiPF6; BF4-: Freire et al., J. Phys. Chem. A
+# 2010, 114, 3744; from memory)
+HF_RELEASING_ANIONS = frozenset({"PF6(-)", "BF4(-)"})
+
+
+def _fluoro_anion(counts, dec) -> _Finding | None:
+    """A salt of PF6- or BF4-: its solubility as the ionic-liquid or salt rule gives it, with HF as the
+    product of its slow hydrolysis and an acidic solution; LiPF6, which moist air already decomposes,
+    reacts."""
+    found = [t.ion.ion_id for t in dec.anions if t.ion.ion_id in HF_RELEASING_ANIONS]
+    if not found:
+        return None
+    base = _ionic_liquid(counts, dec) or _salt(counts, dec)
+    if base is None:
+        return None
+    if "PF6(-)" in found and any(t.ion.ion_id == "Li(+)" for t in dec.cations):
+        return _finding("reacts", "acidic", "HF;POF3", "fluoro anion",
+                        "LiPF6 hydrolyses in water and in moist air to LiF, POF3 and HF (Kawamura et al. 2006)")
+    return _finding(base.behaviour, "acidic", "HF", "fluoro anion",
+                    f"{base.why}; {', '.join(found)} hydrolyses slowly to HF, faster with acid or heat")
+
+
 #: the rules in order; the first that returns a finding decides
 RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
-         _ionic_liquid, _salt, _insoluble_solid)
+         _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 
 @protocol(

@@ -149,10 +149,14 @@ CASES = [
     ("SiO2", "insoluble", None, "none", CP),
     ("SiC", "insoluble", None, "none", CP),
     # ionic liquids
-    ("[C4mim][BF4]", "dissolves", "neutral", "none", IL),
+    # BF4- and PF6- hydrolyse slowly to HF (Freire et al., J. Phys. Chem. A 2010, 114, 3744; Swatloski,
+    # Holbrey and Rogers, Green Chem. 2003, 5, 361; from memory)
+    ("[C4mim][BF4]", "dissolves", "acidic", "HF", IL),
     ("[C2mim]Cl", "dissolves", "neutral", "none", IL),
     ("[C4mim][CH3COO]", "dissolves", "basic", "none", IL),
-    ("[C4mim][PF6]", "slightly_soluble", "neutral", "none", IL),
+    ("[C4mim][PF6]", "slightly_soluble", "acidic", "HF", IL),
+    ("LiPF6", "reacts", "acidic", "HF;POF3", "Kawamura et al., J. Power Sources 2006, 156, 547 (from memory)"),
+    ("NaBF4", "dissolves", "acidic", "HF", "Freire et al. 2010 (from memory); CRC, about 1 kg/L"),
     ("[C4mim][NTf2]", "slightly_soluble", "neutral", "none", IL),
     ("[P66614][NTf2]", "insoluble", None, "none", "common practice (a hydrophobic ionic liquid)"),
     ("LiNTf2", "dissolves", "neutral", "none", CP),
