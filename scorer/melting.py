@@ -243,10 +243,10 @@ def _gather_terms(
         chi = TREND_WEIGHTS["reference_contact_chi"]
     decomposing = sorted({t.ion.ion_id for t in dec.anions if t.ion.ion_id in DECOMPOSING_ANIONS})
     if decomposing:
-        notes.append(
-            f"melting trend: {', '.join(decomposing)} decompose(s) on heating (giving off oxygen, carbon dioxide,"
-            " sulfur dioxide or chlorine compounds): the trend is of the decomposition, the salt may never melt;"
-            " heating it can release gas and pressure: see the safety data sheet")
+        for ion_id in decomposing:
+            notes.append(f"melting trend: {ion_id} decomposes on heating (giving off oxygen, carbon dioxide, sulfur"
+                         " dioxide or chlorine compounds): the trend is of the decomposition, the salt may never melt")
+        notes.append(_DECOMPOSITION_CAUTION)
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))
     anion_total = sum(t.count for t in dec.anions)
@@ -499,6 +499,10 @@ def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
            f" contact(s) * z/CN {m.bond_strength:.3f} * electronegativity difference of the primary bond"
            f" {m.primary_delta_chi:.2f}",) if m.secondary_contacts else ()),
     )
+
+
+# said in full in output files too (scorer.note_codes leaves it long)
+_DECOMPOSITION_CAUTION = "heating it can release gas and pressure: see the safety data sheet"
 
 
 def formal_salt_reading(dec: Decomposition) -> Decomposition | None:

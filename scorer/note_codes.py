@@ -124,6 +124,23 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
     ("melting_radius_stand_in", r"melting trend: {ion} has no Shannon radius: lattice energy with [^;]*",
      "melting trend: the ion (in brackets) has no Shannon radius; the lattice energy takes a stand-in cation of"
      " the same charge (ionicity explain names it)"),
+    ("melting_decomposes",
+     r"melting trend: {ion} decomposes on heating \(giving off oxygen, carbon dioxide, sulfur dioxide or chlorine"
+     r" compounds\): the trend is of the decomposition, the salt may never melt",
+     "melting trend: the anion (in brackets) decomposes on heating, giving off a gas; the trend is of the"
+     " decomposition and the salt may never melt (the caution that follows is written in full)"),
+    ("mixture_per_component",
+     r"a mixture: each column formed from its components as its method says \(lattice energies, structure type and"
+     r" melting trend per component: ionicity explain\)",
+     "a mixture: each column is formed from its components as its method says (lattice energies, structure type"
+     " and melting trend per component: ionicity explain)"),
+    ("lattice_not_applicable", r"lattice energies and structure type: the ionic model does not apply to an? (?P<ion>[a-z_ ]+?) \(see ionic_model\)",
+     "lattice energies and structure type not given: the ionic model does not apply to this class (in brackets;"
+     " see ionic_model)"),
+    ("water_no_rule", r"water_behaviour: no rule of scorer\.water applies",
+     "water_behaviour empty: no rule of scorer.water applies to this compound"),
+    ("born_configuration_monatomic", r"Born-Lande: Born exponents by configuration are defined for monatomic ions only",
+     "Born-Lande not computed: Born exponents by electron configuration are defined for monatomic ions only"),
     # the water caution itself is never shortened: a reader of the file sees it in full
     ("water_no_ph_insoluble", r"solution_ph empty: insoluble, no solution to take the pH of",
      "solution_ph empty: the compound is insoluble, there is no solution to take the pH of"),

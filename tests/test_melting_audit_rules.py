@@ -262,4 +262,4 @@ def test_intermetallic_set_rebuilds_from_the_registry():
 ])
 def test_salts_of_anions_that_decompose_on_heating_say_so(formula, decomposes):
     notes = score_formula(formula)["value_notes"] or ""
-    assert ("decompose(s) on heating" in notes and "safety data sheet" in notes) is decomposes
+    assert ("decomposes on heating" in notes and "safety data sheet" in notes) is decomposes
