@@ -350,25 +350,37 @@ def organic_molecule_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
 
 
 def _organic_design(rows, weights):
-    """Rows of the least-squares problem dH_m = T_m dS_m, each divided by its target (relative errors)."""
+    """(features, dS_m, measured T_m) of rows: heavy atoms, polarisability, hydrogen-bond sites per row."""
     from ionicity.scorer.melting_organic import organic_terms
 
-    a = []
+    features, entropy, measured = [], [], []
     for _, _, counts, t, _ in rows:
         m = organic_terms(counts, weights)
-        dh = t * m.entropy_J_mol_K() / 1000.0
-        a.append(np.array([m.heavy_atoms, m.polarisability_A3, m.hydrogen_bond_sites]) / dh)
-    return np.array(a)
+        features.append([m.heavy_atoms, m.polarisability_A3, m.hydrogen_bond_sites])
+        entropy.append(m.entropy_J_mol_K())
+        measured.append(t)
+    return np.array(features), np.array(entropy), np.array(measured)
 
 
 def fit_organic_molecule_weights(rows, weights=None) -> dict[str, float]:
-    """Least squares of dH_m = T_m dS_m (relative errors) on the ``calibration`` rows of
-    :func:`organic_molecule_rows`, the formula reading's constants as in ``weights``
-    (default ``TREND_WEIGHTS``)."""
+    """Least squares of log10 T_m on the ``calibration`` rows of :func:`organic_molecule_rows`.
+
+    ``T_m = 1000 (w . f) / dS_m`` is linear in the weights ``w``; the squared log10
+    errors are minimised (``scipy.optimize.least_squares``) from the linear least-squares
+    solution of ``w . f = T_m dS_m`` in relative errors, whose log errors lean low
+    (mean -0.027 on the calibration half). The formula reading's constants as in
+    ``weights`` (default ``TREND_WEIGHTS``).
+    """
+    from scipy.optimize import least_squares  # melting extra
+
     weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
-    cal = [r for r in rows if r[0] == "calibration"]
-    a = _organic_design(cal, weights)
-    w, *_ = np.linalg.lstsq(a, np.ones(len(a)), rcond=None)
+    features, entropy, measured = _organic_design([r for r in rows if r[0] == "calibration"], weights)
+    start, *_ = np.linalg.lstsq(features / (measured * entropy / 1000.0)[:, None], np.ones(len(measured)), rcond=None)
+
+    def log_errors(w):
+        return np.log10(np.maximum(features @ w, 1e-9) * 1000.0 / entropy) - np.log10(measured)
+
+    w = least_squares(log_errors, start).x
     return dict(zip(ORGANIC_MOLECULE_WEIGHTS, map(float, w)))
 
 

@@ -168,7 +168,7 @@ def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_b
     (:func:`hydrogen_bond_sites`), which break or loosen on melting. Defined
     here; the weights ``organic_heavy_atom_kJ_mol``,
     ``organic_polarisability_kJ_mol_A3`` and ``organic_hydrogen_bond_kJ_mol``
-    are a least-squares fit of ``T_m dS_m`` (relative errors) on the calibration
+    are a least-squares fit of ``log10 T_m`` on the calibration
     half of ``datasets/melting/organic_molecules.csv``
     (``python -m ionicity.pipelines.melting_weights``).
 

@@ -161,15 +161,15 @@ def test_calibration_formula_constants_are_the_chosen_ones(rows):
 
 
 def test_validation_half_figures(rows):
-    # measured on 4 December 2026 (chemicals 1.5.2): 1385 formulas, Spearman 0.745,
-    # mean |log10 error| 0.067, within x1.5 0.944, class right 0.609; before this route 0.159,
+    # measured on 4 December 2026 (chemicals 1.5.2): 1385 formulas, Spearman 0.746,
+    # mean |log10 error| 0.064, within x1.5 0.949, class right 0.651; before this route 0.159,
     # 0.129, 0.731, 0.414. The limits leave room for chemicals versions, not for a wrong weight.
     figures = mw.organic_molecule_figures(rows, splits=("validation",))["organic_molecules_validation"]
     assert figures["n"] > 1300
     assert figures["spearman"] >= 0.72
-    assert figures["mean_abs_log10"] <= 0.075
-    assert figures["within_factor_1_5"] >= 0.92
-    assert figures["class_accuracy"] >= 0.58
+    assert figures["mean_abs_log10"] <= 0.07
+    assert figures["within_factor_1_5"] >= 0.93
+    assert figures["class_accuracy"] >= 0.62
 
 
 @pytest.mark.parametrize("formula, cas, name", [
