@@ -111,11 +111,14 @@ def formula_torsions_tau(counts: Mapping[str, float], rigid_atoms_per_unsaturati
 
     Examples
     --------
-    n-octane C8H18 (U = 0, two ends) gives Dannenfelser and Yalkowsky's 5;
-    benzene none:
+    n-octane C8H18 (U = 0, two ends) gives Dannenfelser and Yalkowsky's 5.
+    Benzene gets 0.5 where its true count is 0: with ``k = 1`` four of its six
+    ring atoms count as rigid (``k = 1.5`` would hold all six, but the
+    calibration half prefers 1 over the whole set, where one ring or double
+    bond rarely holds more than one or two chain atoms):
 
     >>> formula_torsions_tau({"C": 8, "H": 18}, 1.0), formula_torsions_tau({"C": 6, "H": 6}, 1.0)
-    (5.0, 0.0)
+    (5.0, 0.5)
     """
     skeleton = sum(n for s, n in counts.items() if s not in _PERIPHERAL)
     rigid = min(skeleton, rigid_atoms_per_unsaturation * degree_of_unsaturation(counts))
