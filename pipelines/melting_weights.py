@@ -27,6 +27,15 @@ Two named sets, each with its source in the repository:
   (:data:`MOLECULAR_WEIGHTS`) are a least-squares fit of dH_m on the
   calibration rows.
 
+* **organic molecules**: ``datasets/melting/organic_molecules.csv`` (CAS numbers of the
+  CRC Handbook organic table; ``Tm(cas, method="CRC_ORG")`` at run time; one row per
+  formula, the median of its isomers, formulas whose isomers melt more than a factor 1.5
+  apart dropped: :func:`organic_molecule_rows`). The three cohesion weights of the organic
+  molecular route (:data:`ORGANIC_MOLECULE_WEIGHTS`) are a least-squares fit of log10 T_m
+  on the ``calibration`` half (:func:`fit_organic_molecule_weights`) and its two formula
+  constants are chosen there (:func:`choose_organic_constants`); figures per half
+  (:func:`organic_molecule_figures`: Spearman, mean |log10 error|, within x1.5, class).
+
 The second-stage salt terms (``RESIDUAL_FEATURES``) are then fitted on the
 calibration residuals with those weights held (:func:`fit_salt_residual_weights`).
 
