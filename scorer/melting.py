@@ -333,7 +333,8 @@ COLUMNS: tuple[Column, ...] = (
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
         " formula unit, nitride share (saline nitrides apart), 3d crystal-field stabilisation, organic-ion"
-        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes);"
+        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes;"
+        " organic molecules read from the formula as written, melting_organic);"
         " chain/layer solids a weighted mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
