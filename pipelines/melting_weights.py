@@ -27,6 +27,15 @@ Two named sets, each with its source in the repository:
   (:data:`MOLECULAR_WEIGHTS`) are a least-squares fit of dH_m on the
   calibration rows.
 
+* **organic molecules**: ``datasets/melting/organic_molecules.csv`` (CAS numbers of the
+  CRC Handbook organic table; ``Tm(cas, method="CRC_ORG")`` at run time; one row per
+  formula, the median of its isomers, formulas whose isomers melt more than a factor 1.5
+  apart dropped: :func:`organic_molecule_rows`). The three cohesion weights of the organic
+  molecular route (:data:`ORGANIC_MOLECULE_WEIGHTS`) are a least-squares fit of log10 T_m
+  on the ``calibration`` half (:func:`fit_organic_molecule_weights`) and its two formula
+  constants are chosen there (:func:`choose_organic_constants`); figures per half
+  (:func:`organic_molecule_figures`: Spearman, mean |log10 error|, within x1.5, class).
+
 The second-stage salt terms (``RESIDUAL_FEATURES``) are then fitted on the
 calibration residuals with those weights held (:func:`fit_salt_residual_weights`).
 
@@ -316,6 +325,114 @@ def fit_molecular_weights(rows) -> dict[str, float]:
     return dict(zip(MOLECULAR_WEIGHTS, map(float, w)))
 
 
+ORGANIC_MOLECULE_SET = MOLECULAR_SET.with_name("organic_molecules.csv")
+#: fitted by least squares (fit_organic_molecule_weights)
+ORGANIC_MOLECULE_WEIGHTS = ("organic_heavy_atom_kJ_mol", "organic_polarisability_kJ_mol_A3",
+                            "organic_hydrogen_bond_kJ_mol")
+#: the formula reading's constants, each chosen on the calibration half over these grids (choose_organic_constants)
+ORGANIC_CONSTANT_GRIDS = {"organic_rigid_atoms_per_unsaturation": (0.75, 1.0, 1.25, 1.5, 2.0),
+                          "organic_uniform_symmetry_number": (1.0, 2.0, 4.0)}
+#: isomers whose CRC melting points differ by more than this factor: the formula cannot tell them apart
+ISOMER_SPREAD_LIMIT = 1.5
+
+
+def organic_molecule_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
+    """(split, formula, composition, median K, isomers) of datasets/melting/organic_molecules.csv.
+
+    Melting points are read at run time (``chemicals.phase_change.Tm(cas, method="CRC_ORG")``,
+    the CRC Handbook organic table). A formula is one row: the median over its CAS numbers
+    (isomers); a formula whose isomers melt more than ``spread_limit`` apart (max / min) is
+    dropped, as no reading of the formula can place it. Both halves alike.
+    """
+    from chemicals.phase_change import Tm  # melting extra
+
+    values: dict[tuple[str, str], list[float]] = {}
+    with open(ORGANIC_MOLECULE_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"], method="CRC_ORG")
+            if value is not None and value > 0:
+                values.setdefault((row["set"], row["formula"]), []).append(float(value))
+    out = []
+    for (split, formula), found in sorted(values.items()):
+        if max(found) / min(found) > spread_limit:
+            continue
+        out.append((split, formula, parse_formula(formula).counts, float(np.median(found)), len(found)))
+    return out
+
+
+def _organic_design(rows, weights):
+    """(features, dS_m, measured T_m) of rows: heavy atoms, polarisability, hydrogen-bond sites per row."""
+    from ionicity.scorer.melting_organic import organic_terms
+
+    features, entropy, measured = [], [], []
+    for _, _, counts, t, _ in rows:
+        m = organic_terms(counts, weights)
+        features.append([m.heavy_atoms, m.polarisability_A3, m.hydrogen_bond_sites])
+        entropy.append(m.entropy_J_mol_K())
+        measured.append(t)
+    return np.array(features), np.array(entropy), np.array(measured)
+
+
+def fit_organic_molecule_weights(rows, weights=None) -> dict[str, float]:
+    """Least squares of log10 T_m on the ``calibration`` rows of :func:`organic_molecule_rows`.
+
+    ``T_m = 1000 (w . f) / dS_m`` is linear in the weights ``w``; the squared log10
+    errors are minimised (``scipy.optimize.least_squares``) from the linear least-squares
+    solution of ``w . f = T_m dS_m`` in relative errors, whose log errors lean low
+    (mean -0.027 on the calibration half). The formula reading's constants as in
+    ``weights`` (default ``TREND_WEIGHTS``).
+    """
+    from scipy.optimize import least_squares  # melting extra
+
+    weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
+    features, entropy, measured = _organic_design([r for r in rows if r[0] == "calibration"], weights)
+    start, *_ = np.linalg.lstsq(features / (measured * entropy / 1000.0)[:, None], np.ones(len(measured)), rcond=None)
+
+    def log_errors(w):
+        return np.log10(np.maximum(features @ w, 1e-9) * 1000.0 / entropy) - np.log10(measured)
+
+    w = least_squares(log_errors, start).x
+    return dict(zip(ORGANIC_MOLECULE_WEIGHTS, map(float, w)))
+
+
+def organic_molecule_figures(rows, weights=None, splits=("calibration", "validation")) -> dict:
+    """Per split: n, Spearman, mean |log10 error|, share within x1.5, melting class right (non-salt bands)."""
+    from ionicity.scorer.melting_organic import organic_terms
+
+    weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
+    out = {}
+    for split in splits:
+        part = [r for r in rows if r[0] == split]
+        if not part:
+            continue
+        predicted = [organic_terms(c, weights).melting_K(weights) for _, _, c, _, _ in part]
+        measured = [t for _, _, _, t, _ in part]
+        figures = _figures(predicted, measured, salt=False)
+        figures["mean_abs_log10"] = round(float(np.mean(np.abs(np.log10(np.divide(predicted, measured))))), 4)
+        out[f"organic_molecules_{split}"] = figures
+    return out
+
+
+def choose_organic_constants(rows) -> tuple[dict[str, float], list]:
+    """The formula reading's constants with the highest Spearman rho on the calibration half.
+
+    Each combination of :data:`ORGANIC_CONSTANT_GRIDS` refits the three weights
+    (:func:`fit_organic_molecule_weights`) and is scored on the calibration rows
+    only. Returns the chosen constants and every (constants, figures) tried.
+    """
+    import itertools
+
+    names = list(ORGANIC_CONSTANT_GRIDS)
+    tried = []
+    for values in itertools.product(*ORGANIC_CONSTANT_GRIDS.values()):
+        constants = dict(zip(names, values))
+        fitted = fit_organic_molecule_weights(rows, constants)
+        figures = organic_molecule_figures(rows, {**constants, **fitted}, splits=("calibration",))
+        tried.append((constants, figures["organic_molecules_calibration"]))
+    best = max(tried, key=lambda item: item[1]["spearman"])
+    return best[0], tried
+
+
 INTERMETALLIC_SET = MOLECULAR_SET.with_name("intermetallic_compounds.csv")
 
 
@@ -471,6 +588,14 @@ def main(argv=None) -> int:
     organics = organic_rows(training)
     print("organic weights (fit on calibration):", {k: round(v, 3) for k, v in fit_organic_weights(organics).items()})
     print("molecular weights (fit on calibration):", {k: round(v, 3) for k, v in fit_molecular_weights(molecules).items()})
+    print("reading the organic molecules", file=sys.stderr, flush=True)
+    organic_molecules = organic_molecule_rows()
+    constants, tried = choose_organic_constants(organic_molecules)
+    for tried_constants, figures in tried:
+        print("organic formula constants tried (calibration):", tried_constants, figures, file=sys.stderr)
+    print("organic formula constants (chosen on calibration Spearman):", constants)
+    print("organic molecule weights (fit on calibration):",
+          {k: round(v, 3) for k, v in fit_organic_molecule_weights(organic_molecules).items()})
     metals = intermetallic_rows()
     metal_weight = fit_intermetallic_weight(metals)
     print("intermetallic weight (fit on calibration):", {"intermetallic_chi_variance": round(metal_weight, 3)})
@@ -478,6 +603,8 @@ def main(argv=None) -> int:
     flagged = {r["formula_normalized"] for r in training if "target flagged" in r["decision"]}
     print("targets flagged (rules blind to the index):", len(flagged), sorted(flagged), file=sys.stderr)
     for name, figures in evaluate(salts, molecules, organics, agreed, flagged).items():
+        print(name, figures)
+    for name, figures in organic_molecule_figures(organic_molecules).items():
         print(name, figures)
     for name, figures in intermetallic_figures(metals, metal_weight).items():
         print(name, figures)

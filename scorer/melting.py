@@ -94,6 +94,7 @@ from dataclasses import dataclass, replace
 
 from ionicity.scorer.bond_class_rules import layered_dichalcogenide_reason
 from ionicity.scorer import character, fajans, lattice
+from ionicity.scorer import melting_organic
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
 from ionicity.scorer.melting_anions import (
@@ -343,7 +344,8 @@ COLUMNS: tuple[Column, ...] = (
         "by substance_class (mp_route): salts melting_trend_index (lattice energy per ion, contact"
         " electronegativity, Fajans contact index, 18/18+2-electron cation, polyatomic-anion share, ions per"
         " formula unit, nitride share (saline nitrides apart), 3d crystal-field stabilisation, organic-ion"
-        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes);"
+        " flexibility and symmetry, chain packing, charge delocalisation); molecules T = dH/dS (melting_routes;"
+        " organic molecules read from the formula as written, melting_organic);"
         " chain/layer solids a weighted mean of both;"
         " networks and metals the element-mixture rule",
         _SOURCE_INDEX,
@@ -371,7 +373,7 @@ COLUMNS: tuple[Column, ...] = (
 MeltingTrend = result_class(
     "MeltingTrend", COLUMNS, "The melting trend of one compound (fields named as the columns) and the terms behind it.",
     extra=(("terms", "MeltingTerms | None", None), ("route_steps", "tuple", ()),
-           ("molecular", "_MolecularReading | None", None)),
+           ("molecular", "_MolecularReading | _OrganicReading | None", None)),
 )
 
 
@@ -467,7 +469,24 @@ class _MolecularReading:
     temperature_K: float
 
 
-def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | None]:
+@dataclass(frozen=True)
+class _OrganicReading:
+    """The organic molecular route's inputs and results for one molecule (:mod:`scorer.melting_organic`)."""
+
+    terms: melting_organic.OrganicTerms
+    cohesion_kJ_mol: float
+    entropy_J_mol_K: float
+    temperature_K: float
+
+
+def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
+    organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS)
+    if organic is not None:
+        # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
+        cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()
+        temperature = routes.molecular_melting_K(cohesion, entropy)
+        reading = _OrganicReading(organic, cohesion, entropy, temperature)
+        return math.log10(temperature) if temperature > 0 else math.nan, reading
     m = routes.molecular_terms(dec)
     if m is None:
         return math.nan, None
@@ -480,9 +499,11 @@ def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | None]:
     return math.log10(temperature) if temperature > 0 else math.nan, reading
 
 
-def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
+def _molecular_steps(reading: _MolecularReading | _OrganicReading | None) -> tuple[str, ...]:
     if reading is None:
         return ()
+    if isinstance(reading, _OrganicReading):
+        return _organic_steps(reading)
     m, cohesion = reading.terms, reading.cohesion_kJ_mol
     entropy, temperature = reading.entropy_J_mol_K, reading.temperature_K
     w = TREND_WEIGHTS
@@ -503,6 +524,23 @@ def _molecular_steps(reading: _MolecularReading | None) -> tuple[str, ...]:
 
 # said in full in output files too (scorer.note_codes leaves it long)
 _DECOMPOSITION_CAUTION = "heating it can release gas and pressure: see the safety data sheet"
+
+
+def _organic_steps(reading: _OrganicReading) -> tuple[str, ...]:
+    t, w = reading.terms, TREND_WEIGHTS
+    return (
+        f"  organic molecule: T = dH_m / dS_m = {reading.cohesion_kJ_mol:.1f} kJ/mol / {reading.entropy_J_mol_K:.1f}"
+        f" J/(mol K) = {reading.temperature_K:.0f} K (from the formula alone, no structure)",
+        f"  entropy: 56.5 - R ln sigma + R ln 2.435**tau (Walden; Dannenfelser & Yalkowsky 1996), sigma ="
+        f" {t.symmetry_number:g} (formula_symmetry_number), tau = {t.torsions_tau:g} (formula_torsions_tau: rings"
+        f" plus pi bonds {t.unsaturation:g}, {w['organic_rigid_atoms_per_unsaturation']:g} rigid skeleton atom(s)"
+        " each)",
+        f"  cohesion: {w['organic_heavy_atom_kJ_mol']} kJ/mol * {t.heavy_atoms:g} heavy atoms +"
+        f" {w['organic_polarisability_kJ_mol_A3']} kJ/mol * polarisability {t.polarisability_A3:.2f} A3 +"
+        f" {w['organic_hydrogen_bond_kJ_mol']} kJ/mol * {t.hydrogen_bond_sites:g} hydrogen-bond site(s)"
+        " (O and N with H, an upper bound)",
+        "  a rough guide: isomers share a formula and may melt far apart (typical scatter a factor 1.5)",
+    )
 
 
 def formal_salt_reading(dec: Decomposition) -> Decomposition | None:
@@ -584,7 +622,7 @@ def analyse(dec: Decomposition) -> MeltingTrend:
             steps = (f"  layered dichalcogenide: melting breaks the covalent M-X bonds of the sheets, the salt"
                      f" index of the formal ionic reading {salt:.3f} is taken",)
         elif math.isfinite(salt) and math.isfinite(molecular):
-            share = routes.chain_layer_salt_share(reading.terms if reading is not None else None)
+            share = routes.chain_layer_salt_share(reading.terms if isinstance(reading, _MolecularReading) else None)
             index = routes.chain_layer_index(salt, molecular, share)
             steps = (f"  chain/layer solid: I = weighted mean of the salt index {salt:.3f} (weight {share:.3f}:"
                      f" bridging bonds and Pauling's rule, chain_layer_salt_share) and the molecular index"

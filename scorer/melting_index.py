@@ -114,6 +114,19 @@ TREND_WEIGHTS: dict[str, float] = {
     "molecular_bridge_kJ_mol": 9.4,
     # per valence unit and unit of the primary bond's delta chi (HgCl2: 4 * 2/6 * 1.26)
     "molecular_secondary_kJ_mol": 7.5,
+    # organic molecular route (scorer.melting_organic): least squares of log10 T_m
+    # (T_m = dH_m / dS_m, linear in these three) on the calibration half of datasets/melting/organic_molecules.csv
+    # (pipelines.melting_weights.fit_organic_molecule_weights); per heavy atom, per
+    # angstrom^3 of polarisability, per hydrogen-bond site
+    "organic_heavy_atom_kJ_mol": 0.618,
+    "organic_polarisability_kJ_mol_A3": 0.636,
+    "organic_hydrogen_bond_kJ_mol": 4.16,
+    # the formula reading's two constants, each chosen on the same calibration half by its
+    # Spearman rho over a grid (0.75 ... 2 and 1, 2, 4;
+    # pipelines.melting_weights.choose_organic_constants): skeleton atoms held rigid per
+    # ring or pi bond, and sigma of a hydrocarbon or perhalocarbon
+    "organic_rigid_atoms_per_unsaturation": 1.0,
+    "organic_uniform_symmetry_number": 2.0,
 }
 
 

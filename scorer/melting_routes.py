@@ -483,7 +483,9 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     the radius-ratio rule. ``bond_strength`` is Pauling's ``z / CN`` when a
     site is open. Without one centre (organic molecules, chains of like
     atoms) sigma is 1 and ``tau`` counts carbon atoms beyond the second (a
-    rough chain), both said in ``basis``. None when the composition is empty.
+    rough chain), both said in ``basis``, and every atom of the formula as
+    written counts (P4O10, not P2O5; organic molecules take
+    :mod:`scorer.melting_organic` before this reading). None when the composition is empty.
 
     Examples
     --------
@@ -494,7 +496,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     >>> m.symmetry_number, m.open_sites, m.bond_strength
     (6.0, 3, 0.5)
     """
-    comp = [(s, n) for s, n in dec.composition if n > 0]
+    comp = written = [(s, n) for s, n in dec.composition if n > 0]
     if not comp:
         return None
     counts = [n for _, n in comp]
@@ -508,8 +510,10 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     ligands = tuple((s, n) for s, n in comp if s != centre)
     n_lig = sum(n for _, n in ligands)
     if n_centre != 1 or not ligands or not float(n_lig).is_integer() or "C" in dict(comp) and centre != "C":
-        carbons = dict(comp).get("C", 0.0)
-        all_alphas = _atom_polarisabilities_A3(comp)
+        # the formula as written is the molecule: P4O10 is not P2O5 (the reduction is for a centre
+        # with its ligands, Al2Cl6 read as AlCl3)
+        carbons = dict(written).get("C", 0.0)
+        all_alphas = _atom_polarisabilities_A3(written)
         return MolecularTerms(centre, ligands, 1.0, max(carbons - 2.0, 0.0), 0, all_alphas,
                               "no single central atom: sigma 1, tau from the carbon count (rough)")
     state = -sum(_LIGAND_CHARGE.get(s, -1) * n for s, n in ligands)

@@ -1,0 +1,94 @@
+"""Rebuild ``organic_molecules.csv``: organic molecules of the CRC Handbook table by CAS number, in two halves.
+
+usage: python datasets/melting/build_organic_molecule_set.py [--check]
+
+Rows: every CAS number of the CRC Handbook organic table of the registry package
+``chemicals`` (``chemicals.phase_change``, method ``CRC_ORG``) that has a melting point
+and that the package's PubChem identifier tables (``chemical identifiers pubchem
+large.tsv``, then ``... small.tsv``) give a formula and a SMILES for, when
+
+* the SMILES is one neutral molecule (no ``.``, no charged atom);
+* the formula holds only elements of :data:`ionicity.scorer.melting_organic.ORGANIC_ELEMENTS`
+  and :func:`~ionicity.scorer.melting_organic.is_organic_molecule` says yes;
+* it has at most 60 atoms other than hydrogen;
+* ``score_formula`` sends it down the ``molecular`` route (``mp_route``), as a user's
+  row of that formula would go (formulas the ion solver reads as a salt, such as
+  some amino acids and amines, are left out: their route is the salt index's).
+
+The SMILES only chooses the rows; the scorer never sees it. ``set``: ``calibration``
+or ``validation`` by :func:`ionicity.pipelines.melting_weights.open_set_half` of
+``formula_normalized`` (from ``score_formula``), so every isomer of a formula falls in the same half. No
+melting point is written: they are read at run time
+(``chemicals.phase_change.Tm(cas, method="CRC_ORG")``). ``--check`` exits 1 when the
+file differs from a rebuild.
+"""
+from __future__ import annotations
+
+import csv
+import io
+import os
+import re
+import sys
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+OUT = HERE / "organic_molecules.csv"
+# the melting point is read at run time: chemicals Tm(CAS, method="CRC_ORG"), the CRC Handbook of
+# Chemistry and Physics, 95th ed., organic table (datasets/melting/README.md)
+SOURCE = "chemicals CRC_ORG"
+MAX_HEAVY_ATOMS = 60
+_CHARGED = re.compile(r"[+-]\d*\]")
+
+
+def _counts(hill: str) -> dict[str, float]:
+    counts: dict[str, float] = {}
+    for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", hill):
+        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
+    return counts
+
+
+def build() -> str:
+    import chemicals.identifiers as ident
+    import chemicals.phase_change as pc
+    from ionicity.pipelines.melting_weights import open_set_half
+    from ionicity.scorer.melting_organic import is_organic_molecule
+    from ionicity.scorer.record import score_formula
+
+    pc.Tm("7732-18-5")  # loads the tables
+    crc = pc.Tm_sources["CRC_ORG"]
+    crc = crc[crc["Tm"].notna()]
+    wanted = set(crc.index)
+    folder = Path(os.path.dirname(ident.__file__)) / "Identifiers"
+    found: dict[str, tuple[str, str]] = {}
+    for name in ("chemical identifiers pubchem large.tsv", "chemical identifiers pubchem small.tsv"):
+        with open(folder / name, encoding="utf-8") as handle:
+            for line in handle:
+                f = line.split("\t", 6)
+                if len(f) > 5 and f[1] in wanted and f[1] not in found:
+                    found[f[1]] = (f[2], f[4])
+    rows = []
+    for cas, (hill, smiles) in found.items():
+        if "." in smiles or _CHARGED.search(smiles) or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
+            continue
+        counts = _counts(hill)
+        if not is_organic_molecule(counts) or sum(n for s, n in counts.items() if s != "H") > MAX_HEAVY_ATOMS:
+            continue
+        record = score_formula(hill)
+        if record.get("mp_route") != "molecular":
+            continue
+        normalized = record["formula_normalized"]
+        rows.append((hill, cas, str(crc.loc[cas, "Name"]), open_set_half(normalized)))
+    out = io.StringIO()
+    writer = csv.writer(out, lineterminator="\n")
+    writer.writerow(["formula", "cas", "name", "set", "source"])
+    for hill, cas, name, split in sorted(rows):
+        writer.writerow([hill, cas, name, split, SOURCE])
+    return out.getvalue()
+
+
+if __name__ == "__main__":
+    text = build()
+    if sys.argv[1:] == ["--check"]:
+        sys.exit(0 if OUT.read_text(encoding="utf-8") == text else 1)
+    OUT.write_text(text, encoding="utf-8")
+    print(f"{text.count(chr(10)) - 1} rows written to {OUT}", file=sys.stderr)
