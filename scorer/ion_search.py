@@ -72,12 +72,21 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
 
 
+@per_input(maxsize=4096)
+def _least_monatomic_penalty(symbol: str) -> float:
+    """The least penalty of any monatomic option of ``symbol`` (a single state or a
+    split over two, whose penalty is at least its lower state's single option's): a
+    floor for what the knapsack charges an element the walk leaves to it."""
+    return min([penalty for _, _, penalty in _monatomic_options(symbol, 1.0)], default=0.0)
+
+
 # the charge range of an element no candidate holds: empty, so the branch is cut (one
 # constant, not two float() calls per element of every node visited)
 _NO_SHARE = (float("inf"), float("-inf"))
 
 
-def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int]):
+def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int],
+            ceiling: float = float("inf"), ceiling_after_first: bool = False):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
@@ -87,6 +96,16 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     list shared by the walks of one composition, ``_SEARCH_BUDGET`` units of
     solver work: nodes plus knapsack transitions) and takes what it spent
     from it; one that reaches it stops there.
+
+    ``ceiling`` is the highest penalty a reading may have and still be of
+    use to the caller (the ionic threshold for a composition's reading: a
+    reading at or above it is no ionic reading). A branch whose penalty floor
+    is above it is cut as a branch above the best reading is, and a leaf's
+    knapsack is capped by it: the walk reaches every reading at or under the
+    ceiling that it reached without it, and no reading above it that it misses
+    could have been used. With ``ceiling_after_first`` the ceiling holds only
+    once a first reading is found, for a caller that asks whether any reading
+    balances at all (written ions whose remainder no assignment balances).
     Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
@@ -111,6 +130,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     limit = budget[0]
     nodes = 0
     best = [float("inf")]
+    # what a branch's floor is held to: the best reading so far or the ceiling, the lower
+    bound = [float("inf") if ceiling_after_first else ceiling]
     found: list = []
     cut = [limit <= 0]
     # work of the knapsacks counted whether or not their answer was cached:
@@ -139,12 +160,18 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
-        alone = len(left.keys() - later)
-        floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
-        return None if floor > best[0] + _TOL else floor
+        alone = left.keys() - later
+        floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
+        # and each element left alone pays at least its cheapest monatomic option: a
+        # floor for the cut only (the knapsack's cap below counts those penalties itself)
+        least = sum([_least_monatomic_penalty(symbol) for symbol in alone]) if alone else 0.0
+        return None if floor + least > bound[0] + _TOL else floor
 
     def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
         cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
+        if bound[0] < best[0]:
+            # the ceiling: a reading's penalty is at least the knapsack's plus the floor
+            cap = min(cap, bound[0] - floor + _TOL)
         work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
         spent[0] += work
         for penalty, singles in assignments:
@@ -152,6 +179,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             total = penalty + cost + _PENALTY_SPECIES * len(terms)
             if total <= best[0] + _TOL:
                 best[0] = min(best[0], total)
+                bound[0] = min(best[0], ceiling)
                 found.append((total, terms))
 
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):

@@ -232,7 +232,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
     else:
-        readings = _readings(remaining, hinted, notes, budget=budget)
+        # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
+        # need not look for one; with written ions, whether any reading balances at all
+        # decides a note, so there the ceiling holds once one is found
+        readings = _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
     chosen = _best(readings)
     if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
@@ -269,7 +272,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             for t in cations if t.ion.monatomic and any(c.startswith(t.ion.ion_id + " ") for c in conflicts)
             for state, _ in _states(t.ion.element) if state >= t.ion.charge
         )
-        compatible = _best(_readings(remaining, hinted, [], excluded, budget)) if excluded else None
+        # only a reading at most _REDOX_ALTERNATIVE_MAX_EXTRA dearer is taken: the walks need no dearer one
+        ceiling = min(_IONIC_THRESHOLD, chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA)
+        compatible = _best(_readings(remaining, hinted, [], excluded, budget, ceiling)) if excluded else None
         # only a reading of common states and ions will do (TlI3 = Tl(+) I3(-)),
         # not an odd state invented to balance (Fe(+) with I3(-) for FeI3)
         if (compatible is not None and compatible[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA
@@ -307,16 +312,20 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     )
 
 
-def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=None):
+def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=None, ceiling=float("inf"),
+              any_reading=False):
     """Every best charge-balanced reading, the written ions included; the
-    walks share ``budget`` (one composition's, see :func:`_search`)."""
+    walks share ``budget`` (one composition's, see :func:`_search`) and need
+    look for no reading above ``ceiling`` (with ``any_reading``, only once
+    some reading is found: the caller asks whether any balances)."""
     budget = [_SEARCH_BUDGET] if budget is None else budget
     readings = []
     for given in itertools.product(*hinted):
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            found, stopped = _search(remaining, -given_charge, excluded, budget)
+            found, stopped = _search(remaining, -given_charge, excluded, budget, ceiling,
+                                     any_reading and not readings)
             if stopped and _SEARCH_CUT_NOTE not in notes:
                 notes.append(_SEARCH_CUT_NOTE)
             readings.extend((penalty, given + terms) for penalty, terms in found)
