@@ -127,6 +127,16 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             share[symbol] = (min(lo, per_atom), max(hi, per_atom))
         shares.append(share)
     shares.reverse()
+    # the same relaxation with each candidate's capacity: the candidates holding each
+    # element, by per-atom charge (:func:`_carried`)
+    mono = dict(shares[-1])
+    holders: dict[str, list] = {}
+    for i, ion in enumerate(candidates):
+        per_atom = ion.charge / sum(k for _, k in ion.composition)
+        for symbol, k in ion.composition:
+            holders.setdefault(symbol, []).append((per_atom, i, k))
+    highest_first = {symbol: sorted(held, key=lambda h: (-h[0], h[1])) for symbol, held in holders.items()}
+    lowest_first = {symbol: sorted(held, key=lambda h: (h[0], h[1])) for symbol, held in holders.items()}
     limit = budget[0]
     nodes = 0
     best = [float("inf")]
@@ -182,6 +192,50 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
                 bound[0] = min(best[0], ceiling)
                 found.append((total, terms))
 
+    def carried(index: int, left: dict[str, float], wanted: float) -> bool:
+        """Whether the atoms ``left`` can carry the charge ``wanted`` with candidates
+        ``index``.. each used at most as often as it fits and the rest monatomic.
+
+        The per-atom relaxation of :func:`floor_at` with capacities: an atom of an
+        element in a copy of candidate i carries i's per-atom charge, and at most
+        fits x (its atoms of the element) atoms of it sit in candidate i; the rest
+        carry the element's monatomic range (or, without a plausible monatomic
+        state, must all sit in candidates). The highest charge fills each element's
+        atoms from the candidate of highest per-atom charge down, the lowest from
+        the lowest up: a bound no reading below this node exceeds, never looser
+        than :func:`floor_at`'s, so a node it cuts holds no reading the walk
+        would reach.
+        """
+        fits: dict[int, int] = {}
+        lo = hi = 0.0
+        for symbol, n in left.items():
+            single = mono.get(symbol)
+            for ordered, side in ((highest_first, 1), (lowest_first, 0)):
+                rest = n
+                total = 0.0
+                for per_atom, i, k in ordered.get(symbol, ()):
+                    if i < index:
+                        continue
+                    if single is not None and (per_atom <= single[1] if side else per_atom >= single[0]):
+                        break
+                    times = fits.get(i)
+                    if times is None:
+                        times = fits[i] = _fits(candidates[i].composition, left)
+                    take = min(rest, times * k)
+                    total += take * per_atom
+                    rest -= take
+                    if rest <= _TOL:
+                        break
+                if rest > _TOL:
+                    if single is None:
+                        return False
+                    total += rest * single[side]
+                if side:
+                    hi += total
+                else:
+                    lo += total
+        return lo - _TOL <= wanted <= hi + _TOL
+
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
         """Every reading that adds candidates ``index``.. to ``chosen``: each candidate
         that fits, at its largest multiplicities, then the monatomic rest.
@@ -199,6 +253,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             floor = floor_at(index, left, chosen, charge, cost, len(candidates) if full else index)
             if floor is not None:
                 leaf(left, chosen, charge, cost, floor)
+            return
+        if not carried(index, left, needed - charge):
             return
         for j in range(index, len(candidates)):
             ion = candidates[j]
