@@ -70,6 +70,8 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     if prepared is None:
         return ()
     symbols, elements, n_of, moves, spans, scale, stoichiometric, reach = prepared
+    if not _within_reach(elements, n_of, needed, cap):
+        return ()
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
         for penalty, picks in _knapsack(moves, (), n_of, needed, cap, reach, scale)
@@ -98,6 +100,29 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
         return ()
     best = min(p + _PENALTY_SPECIES * len(t) for p, t in out)
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
+
+
+def _within_reach(elements, n_of, needed: float, cap: float) -> bool:
+    """Whether some assignment of penalty at most ``cap`` can carry ``needed``: a
+    test that needs no table. Each element pays at least its cheapest option, so
+    an option dearer than ``cap`` less the others' cheapest is out of reach; the
+    charges of the options left (a split's two ends bound what it carries) must
+    span ``needed``. Every assignment :func:`_assign_monatomic_solved` returns
+    passes it (one option per element, within the cap), so where it fails the
+    answer is empty and no table is built.
+    """
+    least = [min([penalty for _, penalty in element[0]] + [penalty for _, penalty in element[1]]) for element in elements]
+    allowance = cap + 2 * _TOL - sum(least)
+    if allowance < 0:
+        return False
+    lo = hi = 0.0
+    for (singles, splits, *_), n, cheapest in zip(elements, n_of, least):
+        room = allowance + cheapest
+        charges = ([state * n for state, penalty in singles if penalty <= room]
+                   + [state * n for pair, penalty in splits if penalty <= room for state in pair])
+        lo += min(charges)
+        hi += max(charges)
+    return lo - _TOL <= needed <= hi + _TOL
 
 
 @per_input(maxsize=65536)
