@@ -80,6 +80,32 @@ def _least_monatomic_penalty(symbol: str) -> float:
     return min([penalty for _, _, penalty in _monatomic_options(symbol, 1.0)], default=0.0)
 
 
+@per_input(maxsize=4096)
+def _monatomic_reach(symbol: str) -> tuple[tuple[float, float, float], ...]:
+    """(penalty, lowest, highest charge per atom) of ``symbol``'s plausible monatomic
+    options (those of :func:`_monatomic_shares`), cheapest first, the range growing
+    over every option up to that penalty."""
+    options = sorted((penalty, state) for kind, pair, penalty in _monatomic_options(symbol, 1.0)
+                     if penalty < _IONIC_THRESHOLD for state in ((pair,) if kind == "single" else pair))
+    out = []
+    lo, hi = float("inf"), float("-inf")
+    for penalty, state in options:
+        lo, hi = min(lo, state), max(hi, state)
+        out.append((penalty, float(lo), float(hi)))
+    return tuple(out)
+
+
+def _within_room(symbol: str, room: float):
+    """(lowest, highest) charge per atom of ``symbol``'s plausible monatomic options
+    of penalty at most ``room``, or None when none is that cheap."""
+    reach = None
+    for penalty, lo, hi in _monatomic_reach(symbol):
+        if penalty > room:
+            break
+        reach = (lo, hi)
+    return reach
+
+
 # the charge range of an element no candidate holds: empty, so the branch is cut (one
 # constant, not two float() calls per element of every node visited)
 _NO_SHARE = (float("inf"), float("-inf"))
@@ -192,7 +218,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
                 bound[0] = min(best[0], ceiling)
                 found.append((total, terms))
 
-    def carried(index: int, left: dict[str, float], wanted: float) -> bool:
+    def carried(index: int, left: dict[str, float], wanted: float, chosen, cost: float) -> bool:
         """Whether the atoms ``left`` can carry the charge ``wanted`` with candidates
         ``index``.. each used at most as often as it fits and the rest monatomic.
 
@@ -204,12 +230,25 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         atoms from the candidate of highest per-atom charge down, the lowest from
         the lowest up: a bound no reading below this node exceeds, never looser
         than :func:`floor_at`'s, so a node it cuts holds no reading the walk
-        would reach.
+        would reach. Under a finite bound the monatomic range holds only the
+        options the bound leaves room for: an element's option costs at most the
+        bound less the node's floor and the cheapest options of the other elements
+        left alone (:func:`_monatomic_reach`).
         """
         fits: dict[int, int] = {}
         lo = hi = 0.0
+        room = float("inf")
+        if bound[0] < float("inf"):
+            alone = left.keys() - coverable[index]
+            least = [_least_monatomic_penalty(symbol) for symbol in alone]
+            floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
+            room = bound[0] + _TOL - floor - sum(least)
+            if room < 0:
+                return False
         for symbol, n in left.items():
             single = mono.get(symbol)
+            if single is not None and room < float("inf"):
+                single = _within_room(symbol, room + (_least_monatomic_penalty(symbol) if symbol not in coverable[index] else 0.0))
             for ordered, side in ((highest_first, 1), (lowest_first, 0)):
                 rest = n
                 total = 0.0
@@ -254,7 +293,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             if floor is not None:
                 leaf(left, chosen, charge, cost, floor)
             return
-        if not carried(index, left, needed - charge):
+        if not carried(index, left, needed - charge, chosen, cost):
             return
         for j in range(index, len(candidates)):
             ion = candidates[j]
