@@ -6,7 +6,7 @@ composition and shares one work limit among its walks.
 from __future__ import annotations
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic
+from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic, _within_reach
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_penalties import (
     _IONIC_THRESHOLD,
@@ -134,6 +134,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     balances at all (written ions whose remainder no assignment balances).
     Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
+    if budget[0] <= 0:
+        return [], True  # the composition's work limit is spent: no walk, nothing to prepare
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
     # common ions first, larger first: the best reading is found early and bounds the rest
     candidates.sort(key=lambda ion: (_ion_penalty(ion) >= _PENALTY_UNCOMMON_ION, -ion.atom_count, _ion_penalty(ion), ion.ion_id))
@@ -144,9 +146,9 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     # shared evenly by its atoms, or the element's monatomic states): a branch
     # whose leftover atoms cannot carry the charge still needed is cut, so a
     # formula with no reading is found out without visiting every combination
+    per_atoms = [ion.charge / sum(k for _, k in ion.composition) for ion in candidates]
     shares = [dict(_monatomic_shares(tuple(remaining)))]
-    for ion in reversed(candidates):
-        per_atom = ion.charge / sum(k for _, k in ion.composition)
+    for ion, per_atom in zip(reversed(candidates), reversed(per_atoms)):
         share = dict(shares[-1])
         for symbol, _ in ion.composition:
             lo, hi = share.get(symbol, (float("inf"), float("-inf")))
@@ -157,12 +159,12 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     # element, by per-atom charge (:func:`_carried`)
     mono = dict(shares[-1])
     holders: dict[str, list] = {}
-    for i, ion in enumerate(candidates):
-        per_atom = ion.charge / sum(k for _, k in ion.composition)
+    for i, (ion, per_atom) in enumerate(zip(candidates, per_atoms)):
         for symbol, k in ion.composition:
             holders.setdefault(symbol, []).append((per_atom, i, k))
-    highest_first = {symbol: sorted(held, key=lambda h: (-h[0], h[1])) for symbol, held in holders.items()}
-    lowest_first = {symbol: sorted(held, key=lambda h: (h[0], h[1])) for symbol, held in holders.items()}
+    # sorted when first asked (many walks end before): highest per-atom charge first
+    ordered_holders: dict[str, list] = {}
+    least_of = {symbol: _least_monatomic_penalty(symbol) for symbol in remaining}
     limit = budget[0]
     nodes = 0
     best = [float("inf")]
@@ -200,7 +202,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
         # and each element left alone pays at least its cheapest monatomic option: a
         # floor for the cut only (the knapsack's cap below counts those penalties itself)
-        least = sum([_least_monatomic_penalty(symbol) for symbol in alone]) if alone else 0.0
+        least = sum([least_of[symbol] for symbol in alone]) if alone else 0.0
         return None if floor + least > bound[0] + _TOL else floor
 
     def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
@@ -208,6 +210,12 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         if bound[0] < best[0]:
             # the ceiling: a reading's penalty is at least the knapsack's plus the floor
             cap = min(cap, bound[0] - floor + _TOL)
+        # the knapsack's reach test first, without preparing the leftover (counted as
+        # the knapsack counts it: once per element)
+        spent[0] += len(left)
+        _WORK[0] += len(left)
+        if left and not _within_reach(left.items(), round(needed - charge, 9), round(cap, 9)):
+            return
         work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
         spent[0] += work
         for penalty, singles in assignments:
@@ -235,12 +243,15 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         bound less the node's floor and the cheapest options of the other elements
         left alone (:func:`_monatomic_reach`).
         """
+        nonlocal nodes
+        # counted as a node's charge check is: once per element visited
+        nodes += len(left)
         fits: dict[int, int] = {}
         lo = hi = 0.0
         room = float("inf")
         if bound[0] < float("inf"):
             alone = left.keys() - coverable[index]
-            least = [_least_monatomic_penalty(symbol) for symbol in alone]
+            least = [least_of[symbol] for symbol in alone]
             floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
             room = bound[0] + _TOL - floor - sum(least)
             if room < 0:
@@ -248,11 +259,15 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         for symbol, n in left.items():
             single = mono.get(symbol)
             if single is not None and room < float("inf"):
-                single = _within_room(symbol, room + (_least_monatomic_penalty(symbol) if symbol not in coverable[index] else 0.0))
-            for ordered, side in ((highest_first, 1), (lowest_first, 0)):
+                single = _within_room(symbol, room + (least_of[symbol] if symbol not in coverable[index] else 0.0))
+            highest = ordered_holders.get(symbol)
+            if highest is None:
+                highest = ordered_holders[symbol] = sorted(holders.get(symbol, ()), key=lambda h: -h[0])
+            # equal per-atom charges carry the same whichever fills first
+            for ordered, side in ((highest, 1), (highest[::-1], 0)):
                 rest = n
                 total = 0.0
-                for per_atom, i, k in ordered.get(symbol, ()):
+                for per_atom, i, k in ordered:
                     if i < index:
                         continue
                     if single is not None and (per_atom <= single[1] if side else per_atom >= single[0]):
