@@ -61,10 +61,10 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
 # solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
-# of one composition may spend together, about 15 ms of CPU: 1.5 times the
-# dearest read of the demo and reference lists (Tutton's salt, 10,484 units;
-# DEVELOPERS.md, "The charge-balance solver and its cost"); a walk that
-# reaches it stops and its row's notes say so
+# of one composition may spend together, about 15 ms of CPU: set at 1.5 times the
+# dearest read of the demo and reference lists (Tutton's salt, 10,484 units; 7,393
+# since issue 14's exact cuts; DEVELOPERS.md, "The charge-balance solver and its
+# cost"); a walk that reaches it stops and its row's notes say so
 _SEARCH_BUDGET = 16_000
 _SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
                     "polyatomic ions: a more plausible reading may exist (check the formula)")
