@@ -156,7 +156,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         shares.append(share)
     shares.reverse()
     # the same relaxation with each candidate's capacity: the candidates holding each
-    # element, by per-atom charge (:func:`_carried`)
+    # element, by per-atom charge (``carried`` below)
     mono = dict(shares[-1])
     holders: dict[str, list] = {}
     for i, (ion, per_atom) in enumerate(zip(candidates, per_atoms)):
