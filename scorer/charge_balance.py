@@ -66,6 +66,10 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     """
     if not any(n > _TOL for _, n in remaining):
         return ((0.0, ()),) if abs(needed) < _TOL else ()
+    # the reach test visits each element once: counted, whether or not a table follows
+    _WORK[0] += len(remaining)
+    if not _within_reach(remaining, needed, cap):
+        return ()
     prepared = _leftover(remaining, excluded)
     if prepared is None:
         return ()
@@ -98,6 +102,49 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
         return ()
     best = min(p + _PENALTY_SPECIES * len(t) for p, t in out)
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
+
+
+def _within_reach(remaining: tuple[tuple[str, float], ...], needed: float, cap: float) -> bool:
+    """Whether some assignment of penalty at most ``cap`` can carry ``needed``: a
+    test that needs no table, nor the leftover's preparation. Each element pays at
+    least its cheapest option, so an option dearer than ``cap`` less the others'
+    cheapest is out of reach; the charges of the options left (a split's two ends
+    bound what it carries) must span ``needed``. Every assignment
+    :func:`_assign_monatomic_solved` returns passes it (one option per element,
+    within the cap; states ruled out by redox only remove options), so where it
+    fails the answer is empty and no table is built.
+    """
+    reaches = [(_option_reach(symbol), n) for symbol, n in remaining if n > _TOL]
+    allowance = cap + 2 * _TOL - sum([reach[0][0] for reach, _ in reaches if reach])
+    if allowance < 0:
+        return False
+    lo = hi = 0.0
+    for reach, n in reaches:
+        if not reach:
+            return False
+        room = allowance + reach[0][0]
+        least = most = None
+        for penalty, low, high in reach:
+            if penalty > room:
+                break
+            least, most = low, high
+        lo += least * n
+        hi += most * n
+    # twice the knapsack's tolerance: the counts may reach it unrounded (the walk's leaves)
+    return lo - 2 * _TOL <= needed <= hi + 2 * _TOL
+
+
+@per_input(maxsize=4096)
+def _option_reach(symbol: str) -> tuple[tuple[float, int, int], ...]:
+    """(penalty, lowest, highest state) over ``symbol``'s monatomic options (single
+    states and both ends of each split) up to each penalty, cheapest first."""
+    options = sorted((penalty, state) for kind, payload, penalty in _monatomic_options(symbol, 1.0)
+                     for state in ((payload,) if kind == "single" else payload))
+    out = []
+    for penalty, state in options:
+        low, high = (state, state) if not out else (min(out[-1][1], state), max(out[-1][2], state))
+        out.append((penalty, low, high))
+    return tuple(out)
 
 
 @per_input(maxsize=65536)

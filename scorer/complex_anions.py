@@ -159,7 +159,10 @@ def complex_anion_readings(remaining: dict[str, float], budget: list[int]) -> tu
                     rest = _subtract(remaining, anion.composition, anions_per_formula)
                     if not rest:
                         continue
-                    found, _ = _search(rest, -anion.charge * anions_per_formula, frozenset(), budget)
+                    extra = _PENALTY_CONSTRUCTED + _PENALTY_SPECIES + _PENALTY_PER_MISSING_LIGAND * (counts[-1] - count)
+                    # a reading is kept only under the ionic threshold: the walk needs look for no dearer one
+                    found, _ = _search(rest, -anion.charge * anions_per_formula, frozenset(), budget,
+                                       _IONIC_THRESHOLD - extra)
                     for penalty, terms in found:
                         total = (penalty + _PENALTY_CONSTRUCTED + _PENALTY_SPECIES
                                  + _PENALTY_PER_MISSING_LIGAND * (counts[-1] - count))

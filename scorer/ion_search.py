@@ -6,7 +6,7 @@ composition and shares one work limit among its walks.
 from __future__ import annotations
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic
+from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic, _within_reach
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_penalties import (
     _IONIC_THRESHOLD,
@@ -72,12 +72,47 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
     return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
 
 
+@per_input(maxsize=4096)
+def _least_monatomic_penalty(symbol: str) -> float:
+    """The least penalty of any monatomic option of ``symbol`` (a single state or a
+    split over two, whose penalty is at least its lower state's single option's): a
+    floor for what the knapsack charges an element the walk leaves to it."""
+    return min([penalty for _, _, penalty in _monatomic_options(symbol, 1.0)], default=0.0)
+
+
+@per_input(maxsize=4096)
+def _monatomic_reach(symbol: str) -> tuple[tuple[float, float, float], ...]:
+    """(penalty, lowest, highest charge per atom) of ``symbol``'s plausible monatomic
+    options (those of :func:`_monatomic_shares`), cheapest first, the range growing
+    over every option up to that penalty."""
+    options = sorted((penalty, state) for kind, pair, penalty in _monatomic_options(symbol, 1.0)
+                     if penalty < _IONIC_THRESHOLD for state in ((pair,) if kind == "single" else pair))
+    out = []
+    lo, hi = float("inf"), float("-inf")
+    for penalty, state in options:
+        lo, hi = min(lo, state), max(hi, state)
+        out.append((penalty, float(lo), float(hi)))
+    return tuple(out)
+
+
+def _within_room(symbol: str, room: float):
+    """(lowest, highest) charge per atom of ``symbol``'s plausible monatomic options
+    of penalty at most ``room``, or None when none is that cheap."""
+    reach = None
+    for penalty, lo, hi in _monatomic_reach(symbol):
+        if penalty > room:
+            break
+        reach = (lo, hi)
+    return reach
+
+
 # the charge range of an element no candidate holds: empty, so the branch is cut (one
 # constant, not two float() calls per element of every node visited)
 _NO_SHARE = (float("inf"), float("-inf"))
 
 
-def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int]):
+def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int],
+            ceiling: float = float("inf"), ceiling_after_first: bool = False):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
@@ -87,8 +122,20 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     list shared by the walks of one composition, ``_SEARCH_BUDGET`` units of
     solver work: nodes plus knapsack transitions) and takes what it spent
     from it; one that reaches it stops there.
+
+    ``ceiling`` is the highest penalty a reading may have and still be of
+    use to the caller (the ionic threshold for a composition's reading: a
+    reading at or above it is no ionic reading). A branch whose penalty floor
+    is above it is cut as a branch above the best reading is, and a leaf's
+    knapsack is capped by it: the walk reaches every reading at or under the
+    ceiling that it reached without it, and no reading above it that it misses
+    could have been used. With ``ceiling_after_first`` the ceiling holds only
+    once a first reading is found, for a caller that asks whether any reading
+    balances at all (written ions whose remainder no assignment balances).
     Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
+    if budget[0] <= 0:
+        return [], True  # the composition's work limit is spent: no walk, nothing to prepare
     candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
     # common ions first, larger first: the best reading is found early and bounds the rest
     candidates.sort(key=lambda ion: (_ion_penalty(ion) >= _PENALTY_UNCOMMON_ION, -ion.atom_count, _ion_penalty(ion), ion.ion_id))
@@ -99,18 +146,30 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     # shared evenly by its atoms, or the element's monatomic states): a branch
     # whose leftover atoms cannot carry the charge still needed is cut, so a
     # formula with no reading is found out without visiting every combination
+    per_atoms = [ion.charge / sum(k for _, k in ion.composition) for ion in candidates]
     shares = [dict(_monatomic_shares(tuple(remaining)))]
-    for ion in reversed(candidates):
-        per_atom = ion.charge / sum(k for _, k in ion.composition)
+    for ion, per_atom in zip(reversed(candidates), reversed(per_atoms)):
         share = dict(shares[-1])
         for symbol, _ in ion.composition:
             lo, hi = share.get(symbol, (float("inf"), float("-inf")))
             share[symbol] = (min(lo, per_atom), max(hi, per_atom))
         shares.append(share)
     shares.reverse()
+    # the same relaxation with each candidate's capacity: the candidates holding each
+    # element, by per-atom charge (``carried`` below)
+    mono = dict(shares[-1])
+    holders: dict[str, list] = {}
+    for i, (ion, per_atom) in enumerate(zip(candidates, per_atoms)):
+        for symbol, k in ion.composition:
+            holders.setdefault(symbol, []).append((per_atom, i, k))
+    # sorted when first asked (many walks end before): highest per-atom charge first
+    ordered_holders: dict[str, list] = {}
+    least_of = {symbol: _least_monatomic_penalty(symbol) for symbol in remaining}
     limit = budget[0]
     nodes = 0
     best = [float("inf")]
+    # what a branch's floor is held to: the best reading so far or the ceiling, the lower
+    bound = [float("inf") if ceiling_after_first else ceiling]
     found: list = []
     cut = [limit <= 0]
     # work of the knapsacks counted whether or not their answer was cached:
@@ -139,12 +198,24 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
         later = coverable[index]
-        alone = len(left.keys() - later)
-        floor = cost + _PENALTY_SPECIES * (len(chosen) + alone + (1 if len(left) > alone else 0))
-        return None if floor > best[0] + _TOL else floor
+        alone = left.keys() - later
+        floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
+        # and each element left alone pays at least its cheapest monatomic option: a
+        # floor for the cut only (the knapsack's cap below counts those penalties itself)
+        least = sum([least_of[symbol] for symbol in alone]) if alone else 0.0
+        return None if floor + least > bound[0] + _TOL else floor
 
     def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
         cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
+        if bound[0] < best[0]:
+            # the ceiling: a reading's penalty is at least the knapsack's plus the floor
+            cap = min(cap, bound[0] - floor + _TOL)
+        # the knapsack's reach test first, without preparing the leftover (counted as
+        # the knapsack counts it: once per element)
+        spent[0] += len(left)
+        _WORK[0] += len(left)
+        if left and not _within_reach(left.items(), round(needed - charge, 9), round(cap, 9)):
+            return
         work, assignments = _assign_monatomic(left, needed - charge, round(cap, 9), excluded)
         spent[0] += work
         for penalty, singles in assignments:
@@ -152,7 +223,72 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             total = penalty + cost + _PENALTY_SPECIES * len(terms)
             if total <= best[0] + _TOL:
                 best[0] = min(best[0], total)
+                bound[0] = min(best[0], ceiling)
                 found.append((total, terms))
+
+    def carried(index: int, left: dict[str, float], wanted: float, chosen, cost: float) -> bool:
+        """Whether the atoms ``left`` can carry the charge ``wanted`` with candidates
+        ``index``.. each used at most as often as it fits and the rest monatomic.
+
+        The per-atom relaxation of :func:`floor_at` with capacities: an atom of an
+        element in a copy of candidate i carries i's per-atom charge, and at most
+        fits x (its atoms of the element) atoms of it sit in candidate i; the rest
+        carry the element's monatomic range (or, without a plausible monatomic
+        state, must all sit in candidates). The highest charge fills each element's
+        atoms from the candidate of highest per-atom charge down, the lowest from
+        the lowest up: a bound no reading below this node exceeds, never looser
+        than :func:`floor_at`'s, so a node it cuts holds no reading the walk
+        would reach. Under a finite bound the monatomic range holds only the
+        options the bound leaves room for: an element's option costs at most the
+        bound less the node's floor and the cheapest options of the other elements
+        left alone (:func:`_monatomic_reach`).
+        """
+        nonlocal nodes
+        # counted as a node's charge check is: once per element visited
+        nodes += len(left)
+        fits: dict[int, int] = {}
+        lo = hi = 0.0
+        room = float("inf")
+        if bound[0] < float("inf"):
+            alone = left.keys() - coverable[index]
+            least = [least_of[symbol] for symbol in alone]
+            floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
+            room = bound[0] + _TOL - floor - sum(least)
+            if room < 0:
+                return False
+        for symbol, n in left.items():
+            single = mono.get(symbol)
+            if single is not None and room < float("inf"):
+                single = _within_room(symbol, room + (least_of[symbol] if symbol not in coverable[index] else 0.0))
+            highest = ordered_holders.get(symbol)
+            if highest is None:
+                highest = ordered_holders[symbol] = sorted(holders.get(symbol, ()), key=lambda h: -h[0])
+            # equal per-atom charges carry the same whichever fills first
+            for ordered, side in ((highest, 1), (highest[::-1], 0)):
+                rest = n
+                total = 0.0
+                for per_atom, i, k in ordered:
+                    if i < index:
+                        continue
+                    if single is not None and (per_atom <= single[1] if side else per_atom >= single[0]):
+                        break
+                    times = fits.get(i)
+                    if times is None:
+                        times = fits[i] = _fits(candidates[i].composition, left)
+                    take = min(rest, times * k)
+                    total += take * per_atom
+                    rest -= take
+                    if rest <= _TOL:
+                        break
+                if rest > _TOL:
+                    if single is None:
+                        return False
+                    total += rest * single[side]
+                if side:
+                    hi += total
+                else:
+                    lo += total
+        return lo - _TOL <= wanted <= hi + _TOL
 
     def walk(index: int, left: dict[str, float], chosen: list[tuple[Ion, float]], charge: float, cost: float):
         """Every reading that adds candidates ``index``.. to ``chosen``: each candidate
@@ -171,6 +307,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             floor = floor_at(index, left, chosen, charge, cost, len(candidates) if full else index)
             if floor is not None:
                 leaf(left, chosen, charge, cost, floor)
+            return
+        if not carried(index, left, needed - charge, chosen, cost):
             return
         for j in range(index, len(candidates)):
             ion = candidates[j]

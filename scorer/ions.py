@@ -62,10 +62,10 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
 # solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
-# of one composition may spend together, about 15 ms of CPU: 1.5 times the
-# dearest read of the demo and reference lists (Tutton's salt, 10,484 units;
-# DEVELOPERS.md, "The charge-balance solver and its cost"); a walk that
-# reaches it stops and its row's notes say so
+# of one composition may spend together, about 15 ms of CPU: set at 1.5 times the
+# dearest read of the demo and reference lists (Tutton's salt, 10,484 units; 7,393
+# since issue 14's exact cuts; DEVELOPERS.md, "The charge-balance solver and its
+# cost"); a walk that reaches it stops and its row's notes say so
 _SEARCH_BUDGET = 16_000
 _SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
                     "polyatomic ions: a more plausible reading may exist (check the formula)")
@@ -239,7 +239,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         if comp.structure_hint != "ammonium" and _woehler_isomer(readings):
             readings = []
     else:
-        readings = _readings(remaining, hinted, notes, budget=budget)
+        # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
+        # need not look for one; with written ions, whether any reading balances at all
+        # decides a note, so there the ceiling holds once one is found
+        readings = _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
     chosen = _best(readings)
     if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
@@ -283,7 +286,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             for t in cations if t.ion.monatomic and any(c.startswith(t.ion.ion_id + " ") for c in conflicts)
             for state, _ in _states(t.ion.element) if state >= t.ion.charge
         )
-        compatible = _best(_readings(remaining, hinted, [], excluded, budget)) if excluded else None
+        # only a reading at most _REDOX_ALTERNATIVE_MAX_EXTRA dearer is taken: the walks need no dearer one
+        ceiling = min(_IONIC_THRESHOLD, chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA)
+        compatible = _best(_readings(remaining, hinted, [], excluded, budget, ceiling)) if excluded else None
         # only a reading of common states and ions will do (TlI3 = Tl(+) I3(-)),
         # not an odd state invented to balance (Fe(+) with I3(-) for FeI3)
         if (compatible is not None and compatible[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA
@@ -321,16 +326,20 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     )
 
 
-def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=None):
+def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=None, ceiling=float("inf"),
+              any_reading=False):
     """Every best charge-balanced reading, the written ions included; the
-    walks share ``budget`` (one composition's, see :func:`_search`)."""
+    walks share ``budget`` (one composition's, see :func:`_search`) and need
+    look for no reading above ``ceiling`` (with ``any_reading``, only once
+    some reading is found: the caller asks whether any balances)."""
     budget = [_SEARCH_BUDGET] if budget is None else budget
     readings = []
     for given in itertools.product(*hinted):
         given = list(given)
         given_charge = sum(ion.charge * n for ion, n in given)
         if remaining:
-            found, stopped = _search(remaining, -given_charge, excluded, budget)
+            found, stopped = _search(remaining, -given_charge, excluded, budget, ceiling,
+                                     any_reading and not readings)
             if stopped and _SEARCH_CUT_NOTE not in notes:
                 notes.append(_SEARCH_CUT_NOTE)
             readings.extend((penalty, given + terms) for penalty, terms in found)
