@@ -355,10 +355,26 @@ def cation_family(dec) -> str:
 
     >>> from ionicity.scorer.formula import parse_formula
     >>> from ionicity.scorer.ions import decompose
+    A compound read without ions whose formal reading the salt index keeps
+    (interstitial nitrides, layered dichalcogenides:
+    :func:`scorer.bond_class_rules.keeps_formal_salt_reading`) takes its
+    formal cation's element, as the training screen reads it
+    (:func:`pipelines.melting_data.build_open_training_set`), so TiN groups
+    with the other titanium salts rather than with every compound read
+    without ions.
+
     >>> cation_family(decompose(parse_formula("[C4mim][BF4]"))), cation_family(decompose(parse_formula("NaCl")))
     ('imidazolium', 'Na')
+    >>> cation_family(decompose(parse_formula("TiN"))), cation_family(decompose(parse_formula("WTe2")))
+    ('Ti', 'W')
     """
     if not dec.cations:
-        return "none"
+        from ionicity.scorer.bond_class_rules import keeps_formal_salt_reading
+        from ionicity.scorer.melting import formal_salt_reading
+
+        reading = formal_salt_reading(dec) if keeps_formal_salt_reading(dict(dec.composition)) else None
+        if reading is None or not reading.cations:
+            return "none"
+        dec = reading
     main = _main_ion(dec.cations)
     return main.family if main.organic else cation_element(dec)
