@@ -83,6 +83,7 @@ RESIDUAL_FEATURES = (
     ("crystal_field", lambda t: t.crystal_field_share),
     ("saline_nitride", lambda t: -t.saline_nitride_fraction),
     ("soft_cation_pseudohalide", lambda t: t.soft_pseudohalide_fraction),
+    ("coinage_cation", lambda t: t.coinage_cation_fraction),
 )
 
 
@@ -246,7 +247,8 @@ def _index_with(terms, weights) -> float:
         terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction,
         terms.hydrogen_bonded_anion_fraction, terms.anion_symmetry_log10, terms.hydride_fraction,
         terms.hard_anion_fraction, terms.delta_chi_pauling, terms.crystal_field_share,
-        terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, weights=weights)
+        terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, terms.coinage_cation_fraction,
+        weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:

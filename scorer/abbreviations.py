@@ -44,6 +44,8 @@ ABBREVIATIONS: dict[str, tuple[str, str]] = {
     # not GA (guanidinium), which in capitals is gallium (GAAS for GaAs)
     "MA": ("[MeNH3]", "methylammonium"),
     "FA": ("[FA]", "formamidinium"),
+    # cholinium, as deep-eutectic-solvent recipes write it (ChCl:urea 1:2)
+    "Ch": ("[Ch]", "cholinium"),
     "Cp*": ("C5(CH3)5", "pentamethylcyclopentadienyl"),
     "tBu": ("C4H9", "tert-butyl"),
     "nBu": ("C4H9", "n-butyl"),
@@ -72,7 +74,7 @@ _PATTERN = re.compile(
         + [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z])" for a in _LOWER]
     )
 )
-_HILL = {"[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
+_HILL = {"[Ch]": "C5H14NO", "[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
 # the trade's tetraalkylammonium shorthand (Bu4N, NBu4) is left to the ionic-liquid reader
 _QUICK = frozenset("MEBPCAFatnsi")
 

@@ -8,7 +8,7 @@ from __future__ import annotations
 from typing import Callable
 
 from ionicity.scorer.slips import Slip, find_slip
-from ionicity.scorer.solutions import Solution, solution_note, split_solution
+from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
 __all__ = ["slipped_row", "solution_row", "audited_row"]
@@ -22,7 +22,7 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     ``plain_row(text)`` scores a text as written; ``error_row(message)`` is
     the row of a failure; ``position`` maps column names to places in a row.
     """
-    solution = split_solution(text)
+    solution = split_in_solvent(text) or split_solution(text)
     if solution is not None:
         return solution_row(audited_row(solution.solute, plain_row, error_row, position), solution, position)
     slip = find_slip(text)
@@ -55,7 +55,7 @@ def solution_row(row: tuple, solution: Solution, position: dict[str, int]) -> tu
     """``row`` (the solute's) with the concentration as written and the
     solution's note (and, for an acid or a base, the caution)."""
     row = list(row)
-    row[position["concentration_as_written"]] = solution.concentration
+    row[position["concentration_as_written"]] = solution.concentration or None
     if row[position["status"]] != "error":
         note = solution_note(solution, row[position["substance_class"]] or "")
         row[position["value_notes"]] = joined([note, row[position["value_notes"]] or ""])

@@ -99,7 +99,7 @@ class ParsedFormula:
     ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``);
     ``structure_hint`` what the written groups say about bonding that the
     counts cannot (``"amide"`` for ``CO(NH2)2``, ``"organometallic"`` for
-    ``Fe(CO)5`` or ``Fe(C5H5)2``), so it takes part in equality.
+    ``Fe(CO)5`` or ``Fe(C5H5)2``, ``"ammonium"`` for ``NH4SCN``), so it takes part in equality.
     ``canonical`` is one string per compound: every accepted spelling of the
     same formula unit gives the same one.
     """
@@ -157,6 +157,9 @@ class ParsedFormula:
             text += "·" + ("" if water == "1" else water) + "H2O"
         return text
 
+
+# an acyl halide group written out: CH3COCl, C6H5COCl, COCl2, CH3C(O)Br (not CoCl2: case matters)
+_ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
 
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
@@ -493,8 +496,14 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     hint = ""
     if _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
+    elif _ACYL_HALIDE.search(cleaned):
+        hint = "acyl_halide"
     elif "(NH2)" in cleaned:
         hint = "amide"
+    elif "NH4" in cleaned.replace("[", "").replace("]", ""):
+        # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
+        # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer)
+        hint = "ammonium"
     return ParsedFormula(
         text=text,
         counts=ordered,

@@ -33,6 +33,7 @@ from ionicity.scorer.bond_class_rules import organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
+from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula, format_count
 from ionicity.scorer.ion_library import (
@@ -201,6 +202,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if comp.structure_hint == "acyl_halide" and not any(is_metal(s) for s in symbols):
+        # an acyl halide written out (CH3COCl, COCl2): a molecule whose C-X bond water cleaves
+        dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+        return dataclasses.replace(dec, written_groups=("acyl_halide",))
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)
@@ -231,11 +236,20 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
+        if comp.structure_hint != "ammonium" and _woehler_isomer(readings):
+            readings = []
     else:
         readings = _readings(remaining, hinted, notes, budget=budget)
     chosen = _best(readings)
     if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
+        if built:
+            readings, chosen = built, _best(built)
+            notes.extend(built_notes)
+    if not hinted and (chosen is None or suspect_organic_reading(chosen[0], chosen[1])):
+        # last resort for a salt of an organic acid the library does not list (C12H25NaO4S, KHC8H4O4):
+        # the s-block metal with the rest as one organic anion
+        built, built_notes = organic_anion_readings(remaining)
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
@@ -323,6 +337,27 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=
         elif abs(given_charge) < _TOL:
             readings.append((0.0, given))
     return [r for r in readings if _has_both_signs(r[1])]
+
+
+# NH4(+) with these anions is the isomer of urea, thiourea, selenourea (Woehler 1828)
+_WOEHLER_ANIONS = frozenset({"OCN(-)", "CNO(-)", "SCN(-)", "SeCN(-)"})
+
+
+def _woehler_isomer(readings) -> bool:
+    """Whether an organic formula's only pair readings are ammonium (thio)cyanate; the caller asks
+    only when the text does not write NH4: CH4N2O is urea and CH4N2S thiourea, the molecules a formula
+    in that form names, not their ammonium-salt isomers (Woehler, Ann. Phys. Chem. 1828, 88, 253;
+    from memory).
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> [decompose(parse_formula(f)).substance_class for f in ("CH4N2O", "NH4OCN", "CH4N2S", "NH4SCN")]
+    ['covalent_molecular', 'ionic_salt', 'covalent_molecular', 'ionic_salt']
+    """
+    if not readings:
+        return False
+    _, terms = min(readings, key=lambda r: r[0])
+    ids = {ion.ion_id for ion, _ in terms}
+    return "NH4(+)" in ids and bool(ids - {"NH4(+)"}) and ids - {"NH4(+)"} <= _WOEHLER_ANIONS
 
 
 def _best(readings):

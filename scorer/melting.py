@@ -103,6 +103,8 @@ from ionicity.scorer.melting_anions import (
     octahedral_high_spin_cfse_delta_o,
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
+    coinage_cation_fraction,
+    DECOMPOSING_ANIONS,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
@@ -171,6 +173,7 @@ class MeltingTerms:
     crystal_field_share: float = 0.0
     saline_nitride_fraction: float = 0.0
     soft_pseudohalide_fraction: float = 0.0
+    coinage_cation_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -186,7 +189,7 @@ class MeltingTerms:
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
-            weights=weights,
+            self.coinage_cation_fraction, weights=weights,
         )
 
 
@@ -238,6 +241,12 @@ def _gather_terms(
     if not math.isfinite(chi):
         notes.append("melting trend: no Pauling electronegativity for a contact atom, covalency term at the reference")
         chi = TREND_WEIGHTS["reference_contact_chi"]
+    decomposing = sorted({t.ion.ion_id for t in dec.anions if t.ion.ion_id in DECOMPOSING_ANIONS})
+    if decomposing:
+        notes.append(
+            f"melting trend: {', '.join(decomposing)} decompose(s) on heating (giving off oxygen, carbon dioxide,"
+            " sulfur dioxide or chlorine compounds): the trend is of the decomposition, the salt may never melt;"
+            " heating it can release gas and pressure: see the safety data sheet")
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))
     anion_total = sum(t.count for t in dec.anions)
@@ -302,6 +311,7 @@ def _gather_terms(
         if nu else 0.0,
         saline_nitride_fraction=saline_nitride_fraction(dec.cations, dec.anions),
         soft_pseudohalide_fraction=soft_cation_pseudohalide_fraction(dec.anions, png),
+        coinage_cation_fraction=coinage_cation_fraction(dec.cations),
         notes=tuple(notes),
     )
 
@@ -426,6 +436,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" Delta_o; saline nitride: -{w['saline_nitride']} * share {terms.saline_nitride_fraction:.2f}",
         f"  linear pseudohalides bound by an 18/18+2-electron cation (chains, frameworks):"
         f" +{w['soft_cation_pseudohalide']} * their share of the anions {terms.soft_pseudohalide_fraction:.2f}",
+        f"  Cu(+), Ag(+), Au(+) (Born-Haber lattice energy above the point-ion value): +{w['coinage_cation']}"
+        f" * their share of the cations {terms.coinage_cation_fraction:.2f}",
     )
 
 
@@ -595,10 +607,18 @@ def analyse(dec: Decomposition) -> MeltingTrend:
             # its formal reading overestimates (InSb 1961 K against 800 K): its mixture rule stands
             formal = None
         salt, _, salt_notes = _salt(formal) if formal is not None else (math.nan, None, [])
+        partial = not routes.mixture_counts_whole_formula(dec.composition)
         if math.isfinite(salt) and not salt <= index:
             # a polar network (GaN, AlN) holds at least as well as its ionic reading
             steps = (*steps, f"  the ionic reading is higher, {trend_temperature_K(salt):.0f} K: it is taken"
                      " (a polar network holds at least as well as its ionic lattice)")
+            index = salt
+            notes.extend(salt_notes)
+        elif math.isfinite(salt) and partial:
+            # the mixture dropped the gaseous elements (WO3 read as tungsten, 3695 K): the formal
+            # ionic reading describes the whole formula (WO3 1487 K against 1745 K measured)
+            steps = (*steps, f"  the mixture counts only the elements solid at 25 C, the formula's other atoms"
+                     f" drop out: the formal ionic reading, {trend_temperature_K(salt):.0f} K, is taken")
             index = salt
             notes.extend(salt_notes)
         if not math.isfinite(index):

@@ -24,6 +24,8 @@ __all__ = [
     "saline_nitride_fraction",
     "BRIDGING_PSEUDOHALIDES",
     "soft_cation_pseudohalide_fraction",
+    "coinage_cation_fraction",
+    "DECOMPOSING_ANIONS",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -177,3 +179,46 @@ def soft_cation_pseudohalide_fraction(anions, pseudo_noble_gas: bool) -> float:
     if not pseudo_noble_gas or not anion_total:
         return 0.0
     return float(sum(t.count for t in anions if t.ion.ion_id in BRIDGING_PSEUDOHALIDES) / anion_total)
+
+
+# the group-11 metals in their +1 state: d10 cations whose salts hold more lattice energy than point ions give
+COINAGE_CATIONS = frozenset({"Cu(+)", "Ag(+)", "Au(+)"})
+
+
+def coinage_cation_fraction(cations) -> float:
+    """The share of the cations that are Cu(+), Ag(+) or Au(+) (:data:`COINAGE_CATIONS`).
+
+    ``cations``: the ``IonTerm`` tuple of a decomposition. The lattice energies
+    of the copper(I) and silver(I) halides from the Born-Haber cycle exceed the
+    point-ion (Born-Mayer, Kapustinskii) values by about 10 % (AgCl 915
+    against 833 kJ/mol, AgI 889 against 778 kJ/mol; Waddington, Adv. Inorg.
+    Chem. Radiochem. 1959, 1, 157; Greenwood & Earnshaw, Chemistry of the
+    Elements, 2nd ed., 1997, ch. 28; from memory): a covalent share of the
+    cohesion that the index's volume-based lattice energy misses, while its
+    covalency terms (contact electronegativity, the 18/18+2 flag) count such
+    a contact as weakening. Their salts come out too low on the calibration
+    set (residuals +0.1 to +0.2 in log10: AgCl, CuCl, CuI, Ag2SO4, Ag4P2O7).
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [coinage_cation_fraction(decompose(parse_formula(f)).cations) for f in ("AgCl", "CuCl2", "KAg(CN)2")]
+    [1.0, 0.0, 0.0]
+
+    (Ag(+) bound in a complex anion, [Ag(CN)2](-), is not a cation of the lattice.)
+    """
+    total = sum(t.count for t in cations)
+    if not total:
+        return 0.0
+    return float(sum(t.count for t in cations if t.ion.ion_id in COINAGE_CATIONS) / total)
+
+
+# anions that give off a gas or disproportionate on heating, below or at the salt's melting point: the
+# melting trend of their salts carries a note and a caution (scorer.melting.melting_terms); a second-stage
+# weight for them was tried and not kept (datasets/melting/README.md)
+# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997: peroxides and superoxides lose O2,
+# ch. 14.2; hydrogencarbonates lose CO2 and water, ch. 8.6; hydrogensulfites, disulfites and dithionites
+# lose SO2, ch. 15.2; hypochlorites and chlorites disproportionate, ch. 17.2; from memory)
+DECOMPOSING_ANIONS = frozenset({
+    "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)", "S2O5(2-)",
+})
+

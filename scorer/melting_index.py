@@ -38,7 +38,8 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 #   pseudo_noble_gas_hard_anion): least squares of log10 T_m on the calibration set, then
 #   every weight times the spread factor sd(log10 T_m) / sd(fitted) = 1.205 (least squares
 #   shrinks toward the mean; matching the spread keeps the refractory oxides refractory),
-#   rounded; then the second-stage terms (crystal_field, saline_nitride, soft_cation_pseudohalide) by least squares of the
+#   rounded; then the second-stage terms (crystal_field, saline_nitride, soft_cation_pseudohalide,
+#   coinage_cation) by least squares of the
 #   calibration residuals with the weights above held (corrections on top of the ionic index,
 #   as the organic terms are). Calibration set: datasets/melting/wikidata_salts.csv (CC0, 128 salts with an
 #   index) and the calibration half of the open training set fit-melting builds at run
@@ -98,6 +99,9 @@ TREND_WEIGHTS: dict[str, float] = {
     # linear pseudohalides bound at both ends by 18/18+2-electron cations: chains and
     # frameworks, not the molecules and layers the covalency terms stand for (TlN3 607 K)
     "soft_cation_pseudohalide": 0.315,
+    # Cu(+), Ag(+), Au(+): Born-Haber lattice energies about 10 % above the point-ion value
+    # (AgCl, CuI), a covalent cohesion the volume-based lattice energy misses
+    "coinage_cation": 0.101,
     # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
     # melting point per unit of the electronegativity variance (Pauling's heat of formation),
     # least squares through the origin on the calibration rows of
@@ -180,6 +184,7 @@ def melting_trend_index(
     crystal_field_share=0.0,
     saline_nitride_fraction=0.0,
     soft_pseudohalide_fraction=0.0,
+    coinage_cation_fraction=0.0,
     *,
     weights=None,
 ):
@@ -309,6 +314,12 @@ def melting_trend_index(
         frameworks (CuCN, Zn(CN)2, CuSCN), so the covalency terms, fitted
         where covalency makes molecules and layers, put these salts too low
         (TlN3 607 K, Zn(CN)2 1073 K; CRC Handbook via chemicals). Weight ``w_psX``.
+    coinage_cation_fraction : float or array-like, default=0.0
+        ``f_Cu``: the share of the cations that are Cu(+), Ag(+) or Au(+)
+        (:func:`scorer.melting_anions.coinage_cation_fraction`): their
+        Born-Haber lattice energies exceed the point-ion values by about
+        10 % (Waddington 1959), a cohesion the volume-based lattice energy
+        misses (AgCl 728 K, CuI 879 K; CRC Handbook via chemicals). Weight ``w_Cu``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -367,6 +378,7 @@ def melting_trend_index(
             + w["crystal_field"] * _floats(crystal_field_share)
             - w["saline_nitride"] * _floats(saline_nitride_fraction)
             + w["soft_cation_pseudohalide"] * _floats(soft_pseudohalide_fraction)
+            + w["coinage_cation"] * _floats(coinage_cation_fraction)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part

@@ -65,6 +65,7 @@ __all__ = [
     "MolecularTerms",
     "molecular_terms",
     "element_mixture_melting_K",
+    "mixture_counts_whole_formula",
     "electronegativity_variance_pauling",
     "intermetallic_mixing_variance",
     "chain_layer_index",
@@ -596,6 +597,17 @@ def ion_symmetry_number(ion) -> float:
 @once
 def _element_melting_points() -> dict[str, tuple[float, str]]:
     return {row["symbol"]: (float(row["mp_K"]), row["source"]) for row in table("element_melting_points.csv")}
+
+
+def mixture_counts_whole_formula(composition) -> bool:
+    """Whether :func:`element_mixture_melting_K` counts every element of ``composition``
+    (False when gaseous or liquid elements drop out: WO3 reads as tungsten alone).
+
+    >>> mixture_counts_whole_formula((("Ni", 1.0), ("Al", 1.0))), mixture_counts_whole_formula((("W", 1.0), ("O", 3.0)))
+    (True, False)
+    """
+    table_ = _element_melting_points()
+    return all(symbol in table_ for symbol, _ in composition)
 
 
 def element_mixture_melting_K(composition) -> tuple[float, str]:

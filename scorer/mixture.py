@@ -126,9 +126,20 @@ def _blends() -> dict[str, tuple[str, str]]:
     return {blend_key(r["name"]): (r["mixture"], r["source"]) for r in table("blends.csv")}
 
 
+# words a blend's trade name is often followed by ("Hitec salt", "FLiNaK eutectic"); common practice
+_BLEND_WORDS = (" salt", " salts", " eutectic", " mixture", " blend", " melt")
+
+
 def _blend(text: str) -> tuple[str, str, str] | None:
     key = blend_key(text)
     found = _USER_BLENDS.get(key) or _blends().get(key)
+    if found is None:
+        for word in _BLEND_WORDS:
+            if key.endswith(word) and key != word.strip():
+                stem = key[: -len(word)]
+                found = _USER_BLENDS.get(stem) or _blends().get(stem)
+                if found is not None:
+                    break
     if found is None:
         return None
     return text.strip(), found[0], found[1]

@@ -31,6 +31,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
+from ionicity.scorer.solutions import split_in_solvent
+
 __all__ = ["MixtureText", "MixtureNotationError", "read_mixture_text", "blend_key"]
 
 _NUMBER = r"\d+(?:\.\d+)?"
@@ -48,6 +50,12 @@ _LEADING_AMOUNT = re.compile(
     re.IGNORECASE,
 )
 _DOTS = "·•∙⋅*"
+# an amount written after a component: "KNO3 53 / NaNO2 40 / NaNO3 7 wt%"
+_TRAILING_AMOUNT = re.compile(
+    rf"^(?P<name>.*?[A-Za-z0-9)\]])\s+(?P<amount>{_NUMBER})\s*\(?\s*"
+    rf"(?P<unit>(?:(?P<basis>mol|wt|mass)\s*%|%\s*(?P<after>w/w|mol/mol)?))?\s*\)?\s*$",
+    re.IGNORECASE,
+)
 _QUICK = frozenset("-–—:+·•∙⋅* /")
 _JOINERS = frozenset("-–—:+ /")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
@@ -117,8 +125,12 @@ _WORD_AFTER = re.compile(r"^[A-Za-zµ0-9]*")
 def _joining_slash(text: str, i: int) -> bool:
     if text[i] != "/":
         return False
-    before = _WORD_BEFORE.search(text[:i].rstrip()).group()
-    after = _WORD_AFTER.match(text[i + 1:].lstrip()).group()
+    left, right = text[:i].rstrip(), text[i + 1:].lstrip()
+    before = _WORD_BEFORE.search(left).group()
+    after = _WORD_AFTER.match(right).group()
+    # a bracketed ion on either side ends or starts a formula: [C4mim][BF4] / water
+    before = before or ("[]" if left.endswith(("]", ")")) else "")
+    after = after or ("[]" if right.startswith(("[", "(")) else "")
     # single letters around a slash are a placeholder (N/A, n/a, N/D), not two formulas
     return len(before) > 1 and len(after) > 1 and before not in _UNIT_WORDS and after not in _UNIT_WORDS
 
@@ -154,7 +166,18 @@ def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...], st
     amounts: list[float | None] = []
     bases = set()
     percent = False
-    for part in parts:
+    trailing = [_TRAILING_AMOUNT.match(part) for part in parts]
+    if all(trailing) and not any(_LEADING_AMOUNT.match(part) for part in parts):
+        # every component followed by its amount; a unit on any of them is the basis of all
+        for m in trailing:
+            amounts.append(float(m.group("amount")))
+            names.append(m.group("name").strip())
+            if m.group("unit"):
+                percent = True
+                bases.add(_basis(m.group("basis") or m.group("after")))
+    else:
+        trailing = []
+    for part in parts if not trailing else ():
         m = _LEADING_AMOUNT.match(part)
         if m:
             amounts.append(float(m.group("amount")))
@@ -221,6 +244,8 @@ def read_mixture_text(text: str) -> MixtureText | None:
     """
     if _QUICK.isdisjoint(text):
         return None
+    if split_in_solvent(text) is not None:
+        return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
     if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
         return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
     body, amounts, basis = _proportions(text)
@@ -250,7 +275,7 @@ def read_mixture_text(text: str) -> MixtureText | None:
         if joined_by in ("+", "·"):
             return None
         raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
-    if any(_ADDUCT.match(p) for p in parts[1:]):
+    if joined_by not in ("/", ":") and any(_ADDUCT.match(p) for p in parts[1:]):
         return None  # a hydrate or adduct written with '+' ("CaSO4+2H2O"): the compound reading
     names, leading, leading_basis, balance_note = _leading_amounts(parts)
     if leading and amounts:

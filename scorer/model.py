@@ -112,6 +112,9 @@ class Decomposition:
     # apply: the melting routes of chain and layer solids and of polar
     # networks still weigh the ionic reading (scorer.melting)
     formal_ions: tuple = field(default=(), compare=False)
+    # functional groups the written formula shows and the counts cannot ("acyl_halide" for
+    # CH3COCl); part of equality, as the parser's structure hint is
+    written_groups: tuple[str, ...] = ()
 
     @property
     def is_ionic(self) -> bool:

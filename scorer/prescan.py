@@ -26,7 +26,10 @@ from ionicity.scorer.formula import FormulaError, ParsedFormula, parse_formula
 from ionicity.scorer.grammar import MAX_COUNT, MAX_FORMULA_LENGTH, MAX_TOTAL_ATOMS, hill_order
 from ionicity.scorer.mixture import names_a_blend
 from ionicity.scorer.organic import organic_molecule, organic_shortcut_enabled
-from ionicity.scorer.slips import BEST_PENALTY, MARGIN, MAYBE_SLIP, absurd_count, reading_penalty, unknown_abbreviation
+from ionicity.scorer.slips import (
+    BEST_PENALTY, MARGIN, MAYBE_SLIP, absurd_count, lone_element_count, odd_electron_molecule, reading_penalty,
+    unknown_abbreviation,
+)
 
 __all__ = ["ordinary_formula"]
 
@@ -130,7 +133,9 @@ def _capital_formula(text: str) -> ParsedFormula | None:
             comp = parse_formula(text)
         except FormulaError:
             return None
-    if comp.notes:
+    if comp.notes or ("0" in text and lone_element_count(text)) or odd_electron_molecule(comp):
+        # one element with a count no molecule has (H20), or a short text that reads as a radical
+        # (CD, SN: capitals that lost their case): the slip reader decides
         return None
     if (len(comp.counts) <= _MOLECULE_MAX_ELEMENTS and all(n <= _MOLECULE_MAX_COUNT for _, n in comp.counts)
             and organic_molecule(comp) is not None):
@@ -158,8 +163,8 @@ def _capital_parse(text: str) -> ParsedFormula | None:
     symbols, whole counts, nothing else), read by one regular expression:
     a fifth of the time a molecule's record took. The same ParsedFormula
     (``tests/test_organic.py`` compares them); None where the grammar has
-    more to say (the length and count bounds, a C5H5 group, which it marks)."""
-    if len(text) > MAX_FORMULA_LENGTH or "C5H5" in text:
+    more to say (the length and count bounds, a C5H5 group or an NH4 ion, which it marks)."""
+    if len(text) > MAX_FORMULA_LENGTH or "C5H5" in text or "NH4" in text or "COF" in text or "COI" in text:
         return None
     totals: dict[str, float] = {}
     for symbol, digits in _SYMBOL_COUNT.findall(text):

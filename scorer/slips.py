@@ -51,7 +51,7 @@ from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 
 __all__ = [
     "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
-    "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+    "RADICAL_MAX_ATOMS", "lone_element_count", "odd_electron_molecule", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
 ]
 
 # what each kind of slip is called in messages and in the audit summary
@@ -177,7 +177,30 @@ def _penalty_of(text: str, dec) -> float:
             penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
     if len(comp.counts) == 1 and comp.counts[0][1] != 1 and comp.counts[0] not in _ELEMENT_MOLECULES:
         penalty += 2.0  # Na20, Cl4: an element written with a count no molecule of it has
+    if dec.substance_class == "covalent_molecular" and odd_electron_molecule(comp):
+        penalty += 2.0  # CD, SN, SIO2 read as radicals: an inventory holds few (NO, NO2, ClO2 aside)
     return penalty
+
+
+# the odd-electron molecules a shelf holds (common practice)
+# only short texts are judged as radicals (CD, SN, BII3: capitals that lost their case); a longer
+# formula with an odd electron count is an organic formula typed without its hydrogens, read as written
+RADICAL_MAX_ATOMS = 5
+_STABLE_RADICALS = frozenset({(("N", 1.0), ("O", 1.0)), (("N", 1.0), ("O", 2.0)), (("Cl", 1.0), ("O", 2.0))})
+
+
+def odd_electron_molecule(comp) -> bool:
+    """Whether a neutral molecule of at most :data:`RADICAL_MAX_ATOMS` atoms has an odd number of
+    electrons (a radical), other than the few stable ones (:data:`_STABLE_RADICALS`).
+
+    >>> odd_electron_molecule(_parsed("CD")), odd_electron_molecule(_parsed("NO")), odd_electron_molecule(_parsed("CO"))
+    (True, False, False)
+    """
+    if comp.charge or tuple(comp.counts) in _STABLE_RADICALS or sum(n for _, n in comp.counts) > RADICAL_MAX_ATOMS:
+        return False
+    if any(abs(n - round(n)) > 1e-9 for _, n in comp.counts):
+        return False
+    return sum(get_element(s).atomic_number * int(round(n)) for s, n in comp.counts) % 2 == 1
 
 
 @per_input(maxsize=65536)
@@ -397,10 +420,12 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # a 0 inside a count may be a slip where the count is absurd or belongs to an element
     # other than C and H (Fe203, Na20) but not C10H8 (naphthalene); after a hydrate dot "H20" is water (CaCl2·6H20)
     water_zero = zeros and _WATER_WITH_ZERO.search(stripped) is not None
-    if zeros and (leading or absurd_count(text) or water_zero
+    # one element with a count no molecule of it has (H20 for H2O): the zero is the evidence
+    lone_zero = zeros and lone_element_count(text)
+    if zeros and (leading or absurd_count(text) or water_zero or lone_zero
                   or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
         consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options),
-                 leading or water_zero)
+                 leading or water_zero or lone_zero)
     capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
         # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many;
@@ -426,7 +451,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # capitals or all lower case, is re-cased
     unreadable = _parsed(text) is None
     if all_caps or all_lower or unreadable:
-        consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower), all_lower or unreadable)
+        # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
+        radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
+        consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),
+                 all_lower or unreadable or radical)
     if not candidates:
         return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
     written = written_penalty()
@@ -440,6 +468,13 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     others = [c[3] for c in sorted(candidates) if c[3] != best and c[0] <= penalty + 1.0][:2]
     also = f" (also possible: {', '.join(others)})" if others else ""
     return Slip(kind, best, f"typing slip? {text!r} looks like {best}{also}: {SLIP_KINDS[kind]}; values are for {best}")
+
+
+def lone_element_count(text: str) -> bool:
+    """Whether ``text`` reads as one element with a count no molecule of it has (``H20``, ``O20``)."""
+    comp = _parsed(text)
+    return comp is not None and len(comp.counts) == 1 and comp.counts[0][1] != 1 and \
+        comp.counts[0] not in _ELEMENT_MOLECULES
 
 
 def unknown_abbreviation(text: str) -> Slip | None:

@@ -22,11 +22,11 @@ True
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from ionicity.scorer.caution import CAUTION
 
-__all__ = ["Solution", "split_solution", "solution_note", "split_grade_words", "CORROSIVE_CLASSES"]
+__all__ = ["Solution", "split_solution", "split_in_solvent", "solution_note", "split_grade_words", "CORROSIVE_CLASSES"]
 
 # substance classes whose solutions are corrosive (common practice)
 CORROSIVE_CLASSES = frozenset({"acid", "base"})
@@ -47,10 +47,47 @@ _TAIL_BEFORE = re.compile(r"[\s,;]+$")
 
 @dataclass(frozen=True)
 class Solution:
-    """A solute's formula and its concentration as written (``37 %``)."""
+    """A solute's formula, its concentration as written (``37 %``; empty when none is written)
+    and the solvent as written after ``in`` (``EC/DMC``; empty for the plain forms)."""
 
     solute: str
     concentration: str
+    solvent: str = field(default="", repr=False)
+
+
+# a solute in a named solvent, as electrolyte and stock-solution labels write it:
+# "1 M LiPF6 in EC/DMC", "LiTFSI (1 M) in DME/DOL", "NaCl in water" (common practice)
+_IN_SOLVENT = re.compile(r"^(?P<left>\S.*?)\s+in\s+(?P<solvent>\S.*)$", re.I)
+
+
+def split_in_solvent(text: str) -> Solution | None:
+    """The solute, its concentration (written before or after it) and the solvent of
+    ``SOLUTE in SOLVENT``; None for any other text.
+
+    >>> s = split_in_solvent("1 M LiPF6 in EC/DMC (1:1 v/v)")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiPF6', '1 M', 'EC/DMC (1:1 v/v)')
+    >>> s = split_in_solvent("LiTFSI (0.5 mol/L) in DME")
+    >>> s.solute, s.concentration
+    ('LiTFSI', '0.5 mol/L')
+    >>> split_in_solvent("NaCl in water").concentration, split_in_solvent("Sn in") is None
+    ('', True)
+    """
+    if not isinstance(text, str) or len(text) > 200:
+        return None
+    m = _IN_SOLVENT.match(text.strip())
+    if m is None:
+        return None
+    left, solvent = m.group("left").strip(), m.group("solvent").strip()
+    for pattern in (_MOLAR, _PERCENT):
+        lead = re.match(rf"^(?P<c>{pattern.pattern})\s+(?P<rest>\S.*)$", left, pattern.flags)
+        if lead:
+            inner = pattern.match(lead.group("c"))
+            return Solution(lead.group("rest").strip(), _as_written(pattern, inner), solvent)
+    trailing = split_solution(left)
+    if trailing is not None:
+        return Solution(trailing.solute, trailing.concentration, solvent)
+    return Solution(left, "", solvent)
 
 
 def split_solution(text: str) -> Solution | None:
@@ -107,10 +144,15 @@ def solution_note(solution: Solution, substance_class: str) -> str:
     >>> solution_note(Solution("NaCl", "1 M"), "ionic_salt")
     'a solution (1 M): the values are for the pure solute, not for the solution'
     """
-    note = f"a solution ({solution.concentration}): the values are for the pure solute, not for the solution"
+    strength = f" ({solution.concentration})" if solution.concentration else ""
+    solvent = f" in {solution.solvent}" if solution.solvent else ""
+    note = f"a solution{strength}{solvent}: the values are for the pure solute, not for the solution"
+    if solution.solvent:
+        note += "; the solvent is not scored"
     if substance_class in CORROSIVE_CLASSES:
         note += (
-            f"; a solution of an {substance_class} is corrosive: read the safety data sheet before handling,"
+            f"; a solution of {'an' if substance_class[0] in 'aeiou' else 'a'} {substance_class} is corrosive:"
+            " read the safety data sheet before handling,"
             f" diluting or mixing it ({CAUTION})"
         )
     return note

@@ -58,6 +58,8 @@ and gives the oxidation states: from the ions of a reading
 """
 from __future__ import annotations
 
+import math
+
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.grammar import format_count
@@ -80,7 +82,11 @@ _NETWORK_FORMERS = frozenset({"B", "C", "Si", "Ge"})
 # P and As make tetrahedral networks with B, Si and Ge (BP, BAs: zinc blende; SiP2, GeAs2: layers;
 # Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 6.7, 9.3; from memory);
 # with carbon alone they would make no known network, hence the carbon test in nonionic_decomposition
-_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O", "P", "As"})
+# S, Se and Te likewise with B, Si and Ge (SiS2 chains, GeS and GeSe layers, GeS2 and B2S3 networks;
+# Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 16; from memory)
+_NETWORK_PARTNERS = frozenset({"B", "C", "Si", "Ge", "N", "O", "P", "As", "S", "Se", "Te"})
+# partners that make networks with B, Si and Ge but not with carbon alone (CS2, COS, CP are molecules or unknown)
+_NOT_WITH_CARBON_ALONE = frozenset({"P", "As", "S", "Se", "Te"})
 _ACID_ANION_FAMILIES = frozenset({
     "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
     "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
@@ -257,6 +263,22 @@ def organic_candidate(counts: dict[str, float]) -> bool:
     return "C" in counts and "H" in counts and not any(is_metal(s) for s in counts)
 
 
+# Pauling's radius-ratio limit of octahedral coordination (J. Am. Chem. Soc. 1929, 51, 1010; from memory)
+_OCTAHEDRAL_RADIUS_RATIO = 0.414
+
+
+def _bridged_tetrahalide(cation, anions) -> bool:
+    """Whether a tetrahalide MX4 is a bridged solid rather than a molecule: the M(4+)/X(-) ratio of
+    Shannon radii (CN VI) reaches Pauling's octahedral limit 0.414, so M takes six or more halides
+    and every halide bridges (UF4, ThF4, ZrF4, SnF4: chains, layers and frameworks melting at
+    900-1400 K; ThCl4, UCl4) while a smaller centre keeps four in a molecule (TiCl4, SnCl4, SiF4;
+    Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory)."""
+    from ionicity.scorer.radii import shannon_radius_pm  # radii reads tables that import this module
+    r_m = shannon_radius_pm(cation.element, cation.charge, 6)[0]
+    ratios = [r_m / shannon_radius_pm(a.element, a.charge, 6)[0] for a in anions]
+    return all(math.isfinite(q) and q >= _OCTAHEDRAL_RADIUS_RATIO for q in ratios)
+
+
 def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
     has_metal = any(is_metal(s) for s in counts)
     cation_ions = [t.ion for t in cations]
@@ -288,9 +310,19 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
     metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]
+    if (metal_states and len(cation_ions) == 2 and len({ion.element for ion in cation_ions}) == 1
+            and all(t.ion.monatomic and t.ion.element in _HALOGENS for t in anions)):
+        # one metal split over two states because its mean state is no listed ion (MoCl5 read as
+        # Mo(4+)/Mo(6+), ReCl5, WBr5, OsF5): the halide of the mean state, molecular from +4 as below
+        # (MoCl5 and WCl5 are Mo2Cl10 and W2Cl10 dimers; Greenwood & Earnshaw, ch. 23.3; from memory)
+        total = sum(t.count for t in cations)
+        if sum(t.count * t.ion.charge for t in cations) / total >= 4 - _TOL:
+            return "covalent_molecular"
     if metal_states and len(cation_ions) == 1 and all(t.ion.monatomic for t in anions):
         anion_elements = {t.ion.element for t in anions}
         if max(metal_states) >= 4 and anion_elements <= _HALOGENS:
+            if max(metal_states) == 4 and _bridged_tetrahalide(cation_ions[0], [t.ion for t in anions]):
+                return "chain_layer_solid"
             return "covalent_molecular"
         if max(metal_states) >= 7 and anion_elements == {"O"}:
             return "covalent_molecular"  # Mn2O7, OsO4, RuO4
@@ -314,7 +346,7 @@ def nonionic_decomposition(
     elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
         cls = "base"
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
-            symbols & {"P", "As"} and not symbols & {"B", "Si", "Ge"}):
+            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}):
         cls = "covalent_network"
     elif any(is_metal(s) for s in symbols):
         cls = "unknown"

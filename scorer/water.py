@@ -21,8 +21,13 @@ names it):
    amides (NH3); peroxides and superoxides of the alkali metals (O2).
 5. ``fuming covalent halide``: a molecular or chain halide or oxyhalide of
    B, Al, Ga, Si, Ge, Sn, Ti, Zr, Hf, V, Nb, Ta, Cr, Mo, W, P, As, Sb, S or
-   Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3): reacts violently, giving
-   the hydrogen halide.
+   Se (AlCl3, TiCl4, SiCl4, PCl5, SOCl2, VOCl3), or a molecular halide of a
+   d- or f-block metal at +5 or more (MoF6, WF6, UF6, ReCl6, OsF6): reacts
+   violently, giving the hydrogen halide.
+5c. ``fluoro anion``: salts of PF6- and BF4- keep their solubility but give HF
+   as they hydrolyse slowly (acidic); LiPF6 reacts.
+5b. ``acyl halide``: an acyl halide written out (CH3COCl, C6H5COCl, COCl2)
+   reacts violently, giving the hydrogen halide and the acid.
 6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7 react violently to their
    acids; CO2 is slightly soluble and SO2 dissolves, both acidic.
 7. ``acid``: strong mineral acids, H3PO4 and the small carboxylic acids are
@@ -283,21 +288,48 @@ def _binary(counts, dec) -> _Finding | None:
                     f"{metal} {kind}: reacts violently, giving {product}")
 
 
+def _high_valent_molecular_metal(centre: str, dec: Decomposition) -> bool:
+    """A d- or f-block metal at +5 or more in a molecular halide (MoF6, WF6, UF6, ReCl6, OsF6, MoCl5):
+    such halides hydrolyse violently to the hydrogen halide (UF6 + 2 H2O -> UO2F2 + 4 HF; Greenwood &
+    Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 31.3.3 and 23.3.3; from memory), unlike the
+    ionic metal fluorides and the molecular halides of group 12 (HgCl2 dissolves)."""
+    if dec.substance_class != "covalent_molecular" or not is_metal(centre):
+        return False
+    if get_element(centre).block not in ("d", "f"):
+        return False
+    state = dict(dec.oxidation_states).get(centre)
+    return state is not None and state >= 5
+
+
 def _fuming_halide(counts, dec) -> _Finding | None:
     if dec.is_ionic:
         return None
     halogens = [s for s in counts if s in _HALOGENS]
     centres = [s for s in counts if s not in _HALOGENS and s != "O"]
-    if not halogens or len(centres) != 1 or centres[0] not in _FUMING_CENTRES:
+    if not halogens or len(centres) != 1:
         return None
     centre = centres[0]
-    if halogens == ["F"] and centre not in _FUMING_FLUORIDE_CENTRES:
-        return None
+    if centre not in _FUMING_CENTRES or (halogens == ["F"] and centre not in _FUMING_FLUORIDE_CENTRES):
+        if not _high_valent_molecular_metal(centre, dec):
+            return None
     products = ";".join(f"H{x}" for x in halogens)
     kind = "oxyhalide" if "O" in counts else "halide"
     return _finding("reacts_violently", "acidic", products, "fuming covalent halide",
                     f"an anhydrous covalent {kind} of {centre}: hydrolyses violently (fumes in moist air), giving"
                     f" {products.replace(';', ' and ')}")
+
+
+def _acyl_halide(counts, dec) -> _Finding | None:
+    """An acyl halide written out (CH3COCl, C6H5COCl, COCl2): water cleaves the C-X bond, giving the
+    hydrogen halide and the carboxylic acid (phosgene: CO2), violently for the small ones (Bretherick's
+    Handbook of Reactive Chemical Hazards; Clayden et al., Organic Chemistry, 2nd ed., 2012, ch. 10;
+    from memory)."""
+    if "acyl_halide" not in dec.written_groups:
+        return None
+    halogens = [s for s in counts if s in _HALOGENS]
+    products = ";".join([*(f"H{x}" for x in halogens), "CO2" if counts.get("C") == 1 else "carboxylic acid"])
+    return _finding("reacts_violently", "acidic", products, "acyl halide",
+                    f"an acyl halide: water cleaves its C-X bond, giving {products.replace(';', ' and ')}")
 
 
 def _anhydride(counts, dec) -> _Finding | None:
@@ -478,9 +510,33 @@ def _insoluble_solid(counts, dec) -> _Finding | None:
     return None
 
 
+# fluoro anions that water hydrolyses to HF, slowly at room temperature and faster with acid, heat or
+# a Lewis-acidic cation (PF6-: Swatloski, Holbrey and Rogers, Green Chem. 2003, 5, 361, on [C4mim][PF6];
+# Kawamura et al., J. Power Sources 2006, 156, 547, on LiPF6; BF4-: Freire et al., J. Phys. Chem. A
+# 2010, 114, 3744; from memory)
+HF_RELEASING_ANIONS = frozenset({"PF6(-)", "BF4(-)"})
+
+
+def _fluoro_anion(counts, dec) -> _Finding | None:
+    """A salt of PF6- or BF4-: its solubility as the ionic-liquid or salt rule gives it, with HF as the
+    product of its slow hydrolysis and an acidic solution; LiPF6, which moist air already decomposes,
+    reacts."""
+    found = [t.ion.ion_id for t in dec.anions if t.ion.ion_id in HF_RELEASING_ANIONS]
+    if not found:
+        return None
+    base = _ionic_liquid(counts, dec) or _salt(counts, dec)
+    if base is None:
+        return None
+    if "PF6(-)" in found and any(t.ion.ion_id == "Li(+)" for t in dec.cations):
+        return _finding("reacts", "acidic", "HF;POF3", "fluoro anion",
+                        "LiPF6 hydrolyses in water and in moist air to LiF, POF3 and HF (Kawamura et al. 2006)")
+    return _finding(base.behaviour, "acidic", "HF", "fluoro anion",
+                    f"{base.why}; {', '.join(found)} hydrolyses slowly to HF, faster with acid or heat")
+
+
 #: the rules in order; the first that returns a finding decides
-RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _anhydride, _acid, _molecular_base, _organic,
-         _ionic_liquid, _salt, _insoluble_solid)
+RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
+         _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 
 @protocol(

@@ -88,3 +88,15 @@ def test_mixed_a_site_keeps_the_written_fractions():
 ])
 def test_amidinium_salts_and_amides(typed, cls):
     assert score_formula(typed)["substance_class"] == cls
+
+
+def test_choline_chloride_as_deep_eutectic_recipes_write_it():
+    # ChCl: choline chloride, the hydrogen-bond acceptor of the reline deep eutectic solvent
+    # (Abbott et al., Chem. Commun. 2003, 70, "ChCl:urea 1:2"; from memory); it was a typing-slip
+    # proposal CHCl before
+    out = score_formula("ChCl")
+    assert (out["cations"], out["anions"]) == ("[Ch](+)*1", "Cl(-)*1")
+    assert "cholinium" in out["message"]
+    mixture = score_formula("ChCl:urea 1:2")
+    assert mixture["substance_class"] == "mixture" and mixture["status"] == "ok"
+    assert score_formula("CHCl3")["substance_class"] == "covalent_molecular"

@@ -274,3 +274,29 @@ def test_mixture_components_may_be_names():
     out = score_formula("sodium nitrate + potassium nitrate 60:40 wt%")
     assert out["mixture_components"] == "NaNO3;KNO3"
     assert float(out["mixture_mole_fractions"].split(";")[0]) == pytest.approx(SOLAR_SALT_X_NANO3, abs=1e-3)
+
+
+def test_amounts_written_after_each_component():
+    # Hitec as its makers give it, amounts after the components (Kirst, Nagle and Castner, Trans. Am.
+    # Inst. Chem. Eng. 1940, 36, 371: 53 wt% KNO3, 40 wt% NaNO2, 7 wt% NaNO3; from memory): the same
+    # mixture as the blend name
+    from ionicity.scorer.mixture_notation import read_mixture_text
+    text = read_mixture_text("KNO3 53 / NaNO2 40 / NaNO3 7 wt%")
+    assert (text.parts, text.amounts, text.basis) == (("KNO3", "NaNO2", "NaNO3"), (53.0, 40.0, 7.0), "wt")
+    written = score_formula("KNO3 53 + NaNO2 40 + NaNO3 7 (wt%)")
+    named = score_formula("Hitec salt")
+    assert written["status"] == named["status"] == "ok"
+    assert written["liquidus_estimate_K"] == pytest.approx(named["liquidus_estimate_K"])
+
+
+def test_blend_names_followed_by_a_trade_word():
+    # "Hitec salt", "solar salt mixture": the blend's name with the word people add (common practice)
+    for text in ("Hitec salt", "HITEC salt", "Solar salt mixture"):
+        assert score_formula(text)["substance_class"] == "mixture", text
+
+
+def test_a_bracketed_ionic_liquid_with_water_after_a_slash():
+    # [C4mim][BF4] with water, as formulators write it; CaSO4+2H2O stays a hydrate (common practice)
+    row = score_formula("[C4mim][BF4]/H2O 90:10")
+    assert row["substance_class"] == "mixture" and row["status"] == "ok"
+    assert score_formula("CaSO4+2H2O")["substance_class"] == "ionic_salt"

@@ -64,7 +64,12 @@ NOT_MOLECULES = {
     "CH3COONH4": "ionic_salt", "CH3COONa": "ionic_salt", "C2H5NH3NO3": "ionic_liquid_pair",
     "[EtNH3][NO3]": "ionic_liquid_pair", "[C4mim][BF4]": "ionic_liquid_pair",
     "C8H15N2BF4": "ionic_liquid_pair",  # [C4mim][BF4] written flat
-    "CH4N2O": "ionic_salt",  # urea written flat reads as ammonium cyanate (its isomer)
+    # urea and thiourea written flat: their ammonium-salt isomers are read by the solver and set aside
+    # (Woehler 1828, scorer.ions._woehler_isomer); written with NH4, the salts (NH4SCN is a common reagent)
+    "CH4N2O": "covalent_molecular",
+    "CH4N2S": "covalent_molecular",
+    "NH4OCN": "ionic_salt",
+    "NH4SCN": "ionic_salt",
     "Fe(CO)5": "covalent_molecular", "Fe(C5H5)2": "covalent_molecular",  # metal-organics
     "CaC2": "ionic_salt", "SiC": "covalent_network", "Al4C3": "ionic_salt",  # carbides
     "C2F4": "covalent_molecular",  # no hydrogen: not an organic candidate

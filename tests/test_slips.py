@@ -164,6 +164,22 @@ def test_a_solution_scores_its_solute(text, solute, concentration):
     assert record["formula_normalized"] == score_formula(solute)["formula_normalized"]
 
 
+@pytest.mark.parametrize("text, solute, concentration, solvent", [
+    # electrolyte and stock-solution labels (common practice): the solute is scored, the solvent named
+    ("1 M LiPF6 in EC/DMC", "LiPF6", "1 M", "EC/DMC"),
+    ("1 M LiPF6 in EC:DMC (1:1 v/v)", "LiPF6", "1 M", "EC:DMC (1:1 v/v)"),
+    ("LiTFSI (1 M) in DME/DOL", "LiTFSI", "1 M", "DME/DOL"),
+    ("0.5 M LiTFSI in [C4mim][TFSI]", "LiTFSI", "0.5 M", "[C4mim][TFSI]"),
+    ("NaCl in water", "NaCl", None, "water"),
+])
+def test_a_solute_in_a_named_solvent(text, solute, concentration, solvent):
+    record = score_formula(text)
+    assert record["status"] == "ok" and record["concentration_as_written"] == concentration
+    assert record["formula_normalized"] == score_formula(solute)["formula_normalized"]
+    assert f"in {solvent}: the values are for the pure solute" in record["value_notes"]
+    assert "the solvent is not scored" in record["value_notes"]
+
+
 def test_an_acid_solution_defers_to_the_safety_data_sheet():
     notes = score_formula("HCl 37%")["value_notes"]
     assert "safety data sheet" in notes
@@ -193,3 +209,25 @@ def test_grade_and_form_words_are_left_out_and_named(text, formula):
 @pytest.mark.parametrize("text", ["NaCl pellet-ish", "NaCl granulated sugar"])
 def test_unknown_trailing_words_stay_errors(text):
     assert score_formula(text)["status"] == "error"
+
+
+@pytest.mark.parametrize("text, meant", [
+    ("H20", "H2O"),    # water with the digit 0: hydrogen has no H20 molecule
+    ("N20", "N2O"),    # nitrous oxide
+    ("CD", "Cd"),      # capitals that read as a radical (C and D, 7 electrons)
+    ("SN", "Sn"),      # NS, 23 electrons
+    ("SIO2", "SiO2"),  # S, I and O2: 85 electrons
+    ("BII3", "BiI3"),  # BI4: 217 electrons
+])
+def test_readings_no_shelf_holds_are_slips(text, meant):
+    # common practice: an element with a count none of its molecules has, and an odd-electron
+    # molecule other than NO, NO2 and ClO2, are not what an inventory line means
+    slip = find_slip(text)
+    assert slip is not None and slip.suggested == meant, (text, slip)
+
+
+@pytest.mark.parametrize("text", ["NO", "NO2", "ClO2", "CO", "HF", "H2", "O3", "S8", "CH4", "C13H12N3"])
+def test_stable_molecules_and_long_formulas_are_read_as_written(text):
+    # NO, NO2 and ClO2 are the stable odd-electron molecules of a shelf (common practice); a long
+    # formula with an odd electron count is read as written
+    assert find_slip(text) is None

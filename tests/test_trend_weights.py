@@ -77,7 +77,7 @@ def test_calibration_each_inorganic_weight_is_the_fit_of_the_calibration_set(ref
     assert melting.TREND_WEIGHTS[name] == pytest.approx(refitted_salt_weights[name], abs=0.0006)
 
 
-@pytest.mark.parametrize("name", ("crystal_field", "saline_nitride", "soft_cation_pseudohalide"))
+@pytest.mark.parametrize("name", ("crystal_field", "saline_nitride", "soft_cation_pseudohalide", "coinage_cation"))
 def test_calibration_each_second_stage_weight_is_the_fit_of_the_calibration_residuals(open_salt_rows, name):
     # Calibration: least squares of the calibration residuals with the weights above held
     # (python -m ionicity.pipelines.melting_weights prints it), rounded to three decimals
@@ -96,21 +96,33 @@ def test_calibration_the_spread_matching_factor_is_modest(refitted_salt_weights)
 
 
 def test_validation_held_out_half_of_the_open_set(open_salt_rows):
-    # the figures README.md quotes (chemicals 1.5.2): Spearman 0.805, 83 % within a factor 1.5,
-    # class right for 78.3 %; a floor a little under each
+    # the figures README.md quotes (chemicals 1.5.2): Spearman 0.818, 85.5 % within a factor 1.5,
+    # class right for 80.3 %; a floor a little under each
     from scipy.stats import spearmanr
 
     held_out = [r for r in open_salt_rows if r[0] == "validation"]
     trend = np.array([10 ** t.index() for _, t, _, _ in held_out])
     measured = np.array([mp for _, _, mp, _ in held_out])
-    assert spearmanr(trend, measured).correlation >= 0.79
-    assert np.mean(np.abs(np.log(trend / measured)) < np.log(1.5)) >= 0.80
+    assert spearmanr(trend, measured).correlation >= 0.81
+    assert np.mean(np.abs(np.log(trend / measured)) < np.log(1.5)) >= 0.84
     bands = (373.15, 573.15, 1773.15)
     same = [np.searchsorted(bands, a) == np.searchsorted(bands, b) for a, b in zip(trend, measured)]
-    assert np.mean(same) >= 0.76
+    assert np.mean(same) >= 0.79
     hot = measured >= 1773.15
     # refractory compounds of the held-out half called refractory (salt route; 0.857 of 35)
     assert np.mean(trend[hot] >= 1773.15) >= 0.78
+
+
+def test_validation_the_coinage_cation_term_helps_the_held_out_copper_and_silver_salts(open_salt_rows):
+    # Validation: the weight is fitted on the calibration residuals only (its CV gain inside the
+    # calibration set decided it, pipelines/melting_residuals.py); on the held-out half's Cu(+) and
+    # Ag(+) salts (registry values, chemicals 1.5.2) the term must lower the mean |log10 error|
+    held_out = [r for r in open_salt_rows if r[0] == "validation" and r[1].coinage_cation_fraction > 0]
+    assert len(held_out) >= 5  # 9 with chemicals 1.5.2
+    measured = np.log10([mp for _, _, mp, _ in held_out])
+    with_term = np.array([t.index() for _, t, _, _ in held_out])
+    without = np.array([t.index({"coinage_cation": 0.0}) for _, t, _, _ in held_out])
+    assert np.mean(np.abs(with_term - measured)) < np.mean(np.abs(without - measured))
 
 
 # Enthalpy of fusion [kJ/mol] and melting point [K] of alkali halides, CRC Handbook

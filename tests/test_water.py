@@ -149,10 +149,14 @@ CASES = [
     ("SiO2", "insoluble", None, "none", CP),
     ("SiC", "insoluble", None, "none", CP),
     # ionic liquids
-    ("[C4mim][BF4]", "dissolves", "neutral", "none", IL),
+    # BF4- and PF6- hydrolyse slowly to HF (Freire et al., J. Phys. Chem. A 2010, 114, 3744; Swatloski,
+    # Holbrey and Rogers, Green Chem. 2003, 5, 361; from memory)
+    ("[C4mim][BF4]", "dissolves", "acidic", "HF", IL),
     ("[C2mim]Cl", "dissolves", "neutral", "none", IL),
     ("[C4mim][CH3COO]", "dissolves", "basic", "none", IL),
-    ("[C4mim][PF6]", "slightly_soluble", "neutral", "none", IL),
+    ("[C4mim][PF6]", "slightly_soluble", "acidic", "HF", IL),
+    ("LiPF6", "reacts", "acidic", "HF;POF3", "Kawamura et al., J. Power Sources 2006, 156, 547 (from memory)"),
+    ("NaBF4", "dissolves", "acidic", "HF", "Freire et al. 2010 (from memory); CRC, about 1 kg/L"),
     ("[C4mim][NTf2]", "slightly_soluble", "neutral", "none", IL),
     ("[P66614][NTf2]", "insoluble", None, "none", "common practice (a hydrophobic ionic liquid)"),
     ("LiNTf2", "dissolves", "neutral", "none", CP),
@@ -296,3 +300,22 @@ def test_score_table_api():
 
     out = score_table(pd.DataFrame({"formula": ["Li3N", "AgCl"]}))
     assert list(out["water_behaviour"]) == ["reacts_violently", "insoluble"]
+
+
+@pytest.mark.parametrize("text, products", [
+    ("CH3COCl", "HCl;carboxylic acid"), ("AcCl", "HCl;carboxylic acid"), ("C6H5COCl", "HCl;carboxylic acid"),
+    ("CH3COBr", "HBr;carboxylic acid"), ("COCl2", "HCl;CO2"),
+])
+def test_acyl_halides_written_out_react_violently(text, products):
+    # acetyl chloride, benzoyl chloride, acetyl bromide and phosgene hydrolyse to the hydrogen halide
+    # (Bretherick's Handbook of Reactive Chemical Hazards; from memory); they were "miscible"
+    row = score_formula(text)
+    assert (row["water_behaviour"], row["solution_ph"], row["water_reaction_products"]) == (
+        "reacts_violently", "acidic", products)
+    assert "see the SDS" in row["value_notes"]
+
+
+def test_a_hill_formula_does_not_say_acyl_halide():
+    # C2H3ClO may be acetyl chloride or chloroacetaldehyde: only the written group decides
+    assert score_formula("C2H3ClO")["water_behaviour"] != "reacts_violently"
+    assert score_formula("CoCl2")["water_behaviour"] == "dissolves"

@@ -1,0 +1,54 @@
+"""Salts of s-block metals with organic anions the ion library does not list (scorer/organic_anions.py).
+
+The compounds are salts by their common names (sodium dodecyl sulfate, potassium hydrogen phthalate,
+potassium sorbate, potassium tert-butoxide, disodium and tetrasodium EDTA: IUPAC Red Book 2005, IR-5.4;
+Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 4; from memory). Before the rule,
+SDS and KOtBu were called organometallic molecules, KHP was a row error, potassium sorbate a reading of
+H(+) and OH(-) beside K(+), and Na2H2EDTA an imidazolium formate tartrate.
+"""
+from __future__ import annotations
+
+import pytest
+
+from ionicity.scorer.organic_anions import organic_anion_readings
+from ionicity.scorer.record import score_formula
+
+
+@pytest.mark.parametrize("formula, cations, anions", [
+    ("C12H25NaO4S", "Na(+)*1", "C12H25O4S(-)*1"),     # sodium dodecyl sulfate
+    ("KHC8H4O4", "K(+)*1", "C8H5O4(-)*1"),             # potassium hydrogen phthalate (KHP)
+    ("C6H7KO2", "K(+)*1", "C6H7O2(-)*1"),              # potassium sorbate
+    ("C4H9OK", "K(+)*1", "C4H9O(-)*1"),                # potassium tert-butoxide
+    ("C10H14N2Na2O8", "Na(+)*2", "C10H14N2O8(2-)*1"),  # disodium dihydrogen EDTA
+    ("C10H12N2Na4O8", "Na(+)*4", "C10H12N2O8(4-)*1"),  # tetrasodium EDTA
+])
+def test_salts_of_organic_acids_read_as_metal_and_organic_anion(formula, cations, anions):
+    out = score_formula(formula)
+    assert (out["substance_class"], out["cations"], out["anions"]) == ("ionic_salt", cations, anions)
+    assert "organic anion the ion library does not list" in out["message"]
+
+
+def test_alkaline_earth_salts_split_into_two_monoanions():
+    # calcium and magnesium carboxylates hold two monoanions (calcium propionate, Ca(C2H5COO)2)
+    readings, _ = organic_anion_readings({"C": 6.0, "H": 10.0, "Ca": 1.0, "O": 4.0})
+    assert sorted(f"{ion.ion_id}*{n:g}" for ion, n in readings[0][1]) == ["C3H5O2(-)*2", "Ca(2+)*1"]
+
+
+@pytest.mark.parametrize("formula", ["CH3Li", "C4H9Li", "C2H5MgCl", "C6H5Li"])
+def test_metal_alkyls_without_oxygen_stay_organometallic(formula):
+    # no oxygen to carry the charge: metal-carbon bonds (Elschenbroich, Organometallics, 2006; from memory)
+    out = score_formula(formula)
+    assert out["substance_class"] == "covalent_molecular" and "organometallic" in out["message"]
+
+
+@pytest.mark.parametrize("formula, anion", [
+    ("CH3COONa", "CH3COO(-)*1"), ("C6H5Na3O7", "C6H5O7(3-)*1"), ("C7H5NaO2", "C6H5COO(-)*1"),
+])
+def test_library_organic_anions_are_still_preferred(formula, anion):
+    out = score_formula(formula)
+    assert out["anions"] == anion and out["status"] == "ok"
+
+
+def test_the_rule_needs_an_oxygen_per_charge_and_an_s_block_metal():
+    assert organic_anion_readings({"C": 2.0, "H": 6.0, "Al": 1.0, "O": 3.0}) == ([], [])   # not s-block
+    assert organic_anion_readings({"C": 6.0, "H": 5.0, "Na": 2.0, "O": 1.0}) == ([], [])   # 2 charges, 1 O
