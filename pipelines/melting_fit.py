@@ -18,12 +18,18 @@ What it does
    salts of one anion) never sit on both sides of a split, and compared with two
    baselines: predicting the mean, and a straight line on the lattice energy
    (:func:`grouped_cross_validation`, in :mod:`pipelines.melting_validation`).
-4. **Prediction intervals** come from split conformal prediction: the
-   model is fitted on one part of the training rows and the absolute log
-   residuals on a held-out calibration part set the interval half-width
-   (Vovk, Gammerman & Shafer, *Algorithmic Learning in a Random World*, 2005;
-   Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116).
-   Their coverage is checked on the held-out folds.
+4. **Prediction intervals**: the model is fitted on every training row, and
+   the absolute log residuals of the inner grouped cross-validation that
+   chooses the ionic liquids' tree share (rows predicted by models that never
+   saw their group) set the interval half-width, one per interval group:
+   cross-validation residuals in the sense of Barber, Candes, Ramdas &
+   Tibshirani, Ann. Statist. 2021, 49, 486, doi:10.1214/20-AOS1965 (their CV+
+   form has a finite-sample guarantee; this quantile of the residuals has
+   none), after split conformal prediction (Vovk, Gammerman & Shafer,
+   *Algorithmic Learning in a Random World*, 2005; Lei et al., J. Am. Stat.
+   Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116), which held a
+   quarter of the rows (whole cation families) out of the fit. Their coverage
+   is checked on the held-out folds.
 5. **The outputs** (:func:`fit_melting`): the model as JSON, the trees as
    arrays of plain numbers, checked against a fixed schema on load
    (:func:`scorer.melting_model.model_from_dict`; written by
@@ -190,7 +196,10 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     coverage : float, default=0.9
         Target coverage of the split-conformal intervals (0 < coverage < 1).
     calibration_fraction : float, default=0.25
-        Share of the training rows held back to calibrate the intervals.
+        Checked and passed on to :func:`grouped_cross_validation`, which uses
+        it only without an inner cross-validation (``choose_tree_share=False``);
+        the model and its cross-validation here always run one, so every row
+        is fitted and the half-widths come from the inner residuals.
     seed : int, default=0
     progress : callable, optional
 
@@ -227,15 +236,15 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     for scheme in CV_SCHEMES[1:]:
         cv[scheme].pop("oof_predictions_K")
     say("fitting the final model")
-    rng = np.random.default_rng(seed)
-    proper, calib = _split_calibration(len(rows), calibration_fraction, rng, [row["cation_family"] for row in rows])
-    # the index's organic weights and the ionic liquids' share of the trees from the rows the trees
-    # see, as in every fold above
+    # every row fits the model: the index's organic weights, the ionic liquids' share of the trees
+    # (inner grouped cross-validation by cation family) and the trees, as in every fold above; the
+    # interval half-widths come from that inner cross-validation's residuals
     pipe, used, index_weights, x = fit_offset_model(
-        x, y, proper, labels, np.array([row["cation_family"] for row in rows]), terms,
+        x, y, np.arange(len(rows)), labels, np.array([row["cation_family"] for row in rows]), terms,
         lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
-    q, per_group = _group_halfwidths(np.log(y[calib]) - np.log(pipe.predict(x[calib][:, used], labels[calib])),
-                                     labels[calib], coverage)
+    residuals = pipe.inner_log_residuals
+    ok = np.isfinite(residuals)
+    q, per_group = _group_halfwidths(residuals[ok], labels[ok], coverage)
     hgb = pipe.pipe.named_steps["regressor"].regressor_
     baseline, trees = trees_to_json(hgb)
     lo, hi = finite_minmax(x[:, used])
@@ -251,14 +260,15 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         "offset": {"feature": OFFSET_FEATURE, "scale": OFFSET_SCALE},
         "index_weights": index_weights,
         "tree_weights": pipe.tree_weights,
-        "interval": {"method": "split conformal on absolute ln residuals, a half-width per group (Mondrian)",
+        "interval": {"method": "absolute ln residuals of an inner grouped cross-validation by cation family,"
+                               " a half-width per group (Mondrian)",
                      "coverage": coverage, "log_halfwidth": q, "group_log_halfwidths": per_group,
-                     "calibration_rows": int(len(calib))},
+                     "calibration_rows": int(ok.sum())},
         "domain": {"feature_min": lo, "feature_max": hi,
                    "target_min_K": float(np.min(y)), "target_max_K": float(np.max(y)),
                    "substance_classes": sorted({r.get("substance_class") or "" for r in records} - {""})},
         "training": {
-            "rows": len(rows), "fitted_rows": int(len(proper)), "seed": seed,
+            "rows": len(rows), "fitted_rows": len(rows), "seed": seed,
             "origins": sorted({row.get("origin", "") for row in rows}),
             "hyperparameters": {k: v for k, v in hgb.get_params().items() if isinstance(v, (int, float, str, bool)) or v is None},
         },

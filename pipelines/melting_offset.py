@@ -42,7 +42,8 @@ from ionicity.scorer.melting_model import MODEL_FEATURES
 from ionicity.scorer.melting_model_format import INDEX_WEIGHT_KEYS
 
 __all__ = ["index_terms", "organic_rows_of", "fit_index_weights", "with_index_weights", "MIN_ORGANIC_ROWS",
-           "TREE_WEIGHT_CANDIDATES", "choose_tree_weight", "fit_offset_model"]
+           "TREE_WEIGHT_CANDIDATES", "inner_predictions", "choose_tree_weight", "inner_log_residuals",
+           "fit_offset_model"]
 
 # fewer organic rows than this and the three weights are not refitted: the shipped ones stay
 # (three parameters by Nelder-Mead need a few rows each; common practice)
@@ -136,16 +137,44 @@ def _index_matrix(x, y_K, fit_rows, terms, progress=None):
     return weights, with_index_weights(x, terms, weights)
 
 
+def inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit, *,
+                      folds: int = INNER_FOLDS) -> tuple[np.ndarray, np.ndarray]:
+    """Out-of-fold log predictions of an inner grouped cross-validation on the rows ``fit_rows``.
+
+    The rows ``fit_rows`` are split by ``groups`` into ``folds`` (scikit-learn's
+    ``GroupKFold``); in each inner fold the index weights (when ``terms`` is
+    given) and the trees are fitted on the inner training rows and predict the
+    inner held-out rows. Returns two arrays aligned with ``fit_rows``: ln of
+    the index's temperature (ln 10 times ``mp_trend_index``) and the trees'
+    log correction, so that ``ln T = ln_index + share * ln_trees``; NaN where
+    a row was not predicted (fewer than two groups: no split).
+    """
+    from sklearn.model_selection import GroupKFold  # melting extra, checked by the callers
+
+    fit_rows = np.asarray(fit_rows, dtype=int)
+    inner_groups = np.asarray(groups)[fit_rows]
+    ln_index = np.full(len(fit_rows), np.nan)
+    ln_trees = np.full(len(fit_rows), np.nan)
+    n_splits = min(folds, len(set(inner_groups.tolist())))
+    if n_splits < 2:
+        return ln_index, ln_trees
+    for train, test in GroupKFold(n_splits=n_splits).split(fit_rows, groups=inner_groups):
+        _, xw = _index_matrix(x, y_K, fit_rows[train], terms)
+        regressor, used = fit(xw[fit_rows[train]], y_K[fit_rows[train]], np.asarray(labels)[fit_rows[train]])
+        rows = fit_rows[test]
+        ln_index[test] = math.log(10.0) * xw[rows, used[regressor.column]]
+        ln_trees[test] = np.log(regressor.pipe.predict(xw[rows][:, used]))
+    return ln_index, ln_trees
+
+
 def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: str = "ionic_liquid",
-                       folds: int = INNER_FOLDS) -> tuple[float, dict]:
+                       folds: int = INNER_FOLDS, inner=None) -> tuple[float, dict]:
     """The share of the trees' correction for ``group``'s rows, by inner grouped cross-validation.
 
-    Only the rows ``fit_rows`` take part: they are split by ``groups`` into
-    ``folds`` (scikit-learn's ``GroupKFold``); in each inner fold the index
-    weights (when ``terms`` is given) and the trees are fitted on the inner
-    training rows, and the inner held-out rows of ``group`` are predicted with
-    every share of :data:`TREE_WEIGHT_CANDIDATES`. The share with the lowest
-    mean absolute error [K] wins.
+    Only the rows ``fit_rows`` take part (:func:`inner_predictions`, or
+    ``inner``, its result computed already); the inner held-out rows of
+    ``group`` are predicted with every share of :data:`TREE_WEIGHT_CANDIDATES`.
+    The share with the lowest mean absolute error [K] wins.
 
     Parameters
     ----------
@@ -167,30 +196,35 @@ def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: s
         The share, and the inner MAE [K] of every candidate (empty when the
         rows hold too few groups or no row of ``group``: the share is then 1).
     """
-    from sklearn.model_selection import GroupKFold  # melting extra, checked by the callers
-
     fit_rows = np.asarray(fit_rows, dtype=int)
     inner_groups = np.asarray(groups)[fit_rows]
     mine = np.asarray(labels)[fit_rows] == group
     n_groups = len(set(inner_groups[mine].tolist()))
     if n_groups < 2:
         return 1.0, {}
-    ln_index = np.full(len(fit_rows), np.nan)
-    ln_trees = np.full(len(fit_rows), np.nan)
-    for train, test in GroupKFold(n_splits=min(folds, len(set(inner_groups.tolist())))).split(fit_rows, groups=inner_groups):
-        if not mine[test].any():
-            continue
-        _, xw = _index_matrix(x, y_K, fit_rows[train], terms)
-        regressor, used = fit(xw[fit_rows[train]], y_K[fit_rows[train]], np.asarray(labels)[fit_rows[train]])
-        rows = fit_rows[test]
-        ln_index[test] = math.log(10.0) * xw[rows, used[regressor.column]]
-        ln_trees[test] = np.log(regressor.pipe.predict(xw[rows][:, used]))
+    ln_index, ln_trees = inner if inner is not None else inner_predictions(
+        x, y_K, fit_rows, labels, groups, terms, fit, folds=folds)
     scored = mine & np.isfinite(ln_trees)
     truth = y_K[fit_rows[scored]]
     errors = {share: round(float(np.mean(np.abs(np.exp(ln_index[scored] + share * ln_trees[scored]) - truth))), 2)
               for share in TREE_WEIGHT_CANDIDATES}
     best = min(TREE_WEIGHT_CANDIDATES, key=lambda share: errors[share])
     return best, errors
+
+
+def inner_log_residuals(y_K, fit_rows, labels, inner, tree_weights) -> np.ndarray:
+    """ln(measured) minus ln(inner out-of-fold prediction) of every row of ``fit_rows`` (NaN where not predicted).
+
+    ``inner`` is :func:`inner_predictions`; each row's trees' correction is
+    scaled by the share its interval group gets in ``tree_weights`` (1 where
+    not named), as :meth:`IndexOffsetRegressor.predict` does. These are the
+    residuals of rows predicted by models that never saw their group: what
+    the interval half-widths are set from (cross-validation residuals).
+    """
+    ln_index, ln_trees = inner
+    fit_rows = np.asarray(fit_rows, dtype=int)
+    share = np.array([tree_weights.get(g, 1.0) for g in np.asarray(labels)[fit_rows].tolist()], dtype=float)
+    return np.log(y_K[fit_rows]) - (ln_index + share * ln_trees)
 
 
 def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None):
@@ -201,17 +235,23 @@ def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None
     (regressor, used, index_weights, x_rebuilt)
         ``regressor`` an :class:`pipelines.melting_regressor.IndexOffsetRegressor`
         whose ``tree_weights`` name the ``ionic_liquid`` share
-        (:func:`choose_tree_weight`; skipped when ``groups`` is None);
-        ``index_weights`` None when ``terms`` is None; ``x_rebuilt`` is ``x``
-        with the index rebuilt from those weights (every row, so the caller
-        predicts held-out rows with it).
+        (:func:`choose_tree_weight`; skipped when ``groups`` is None) and
+        whose ``inner_log_residuals`` (:func:`inner_log_residuals`, aligned
+        with ``fit_rows``; None when ``groups`` is None) are the inner
+        cross-validation's residuals at that share; ``index_weights`` None
+        when ``terms`` is None; ``x_rebuilt`` is ``x`` with the index rebuilt
+        from those weights (every row, so the caller predicts held-out rows
+        with it).
     """
     fit_rows = np.asarray(fit_rows, dtype=int)
     weights, xw = _index_matrix(x, y_K, fit_rows, terms, progress)
     regressor, used = fit(xw[fit_rows], y_K[fit_rows], np.asarray(labels)[fit_rows])
+    regressor.inner_log_residuals = None
     if groups is not None:
-        share, errors = choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit)
+        inner = inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit)
+        share, errors = choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, inner=inner)
         regressor.tree_weights = {"ionic_liquid": share}
+        regressor.inner_log_residuals = inner_log_residuals(y_K, fit_rows, labels, inner, regressor.tree_weights)
         if progress and errors:
             progress("  ionic-liquid share of the trees' correction, inner MAE by share: "
                      + ", ".join(f"{k:g}: {v:.1f} K" for k, v in errors.items()) + f"; chosen {share:g}")

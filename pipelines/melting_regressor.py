@@ -90,12 +90,15 @@ class IndexOffsetRegressor:
     ``column`` is the position of ``mp_trend_index`` among the columns it was fitted on.
     ``tree_weights`` maps an interval group to the share of the trees' log correction its rows
     get (1 where a group is not named: the full correction; 0: the index alone), chosen by
-    :func:`pipelines.melting_offset.choose_tree_weight`.
+    :func:`pipelines.melting_offset.choose_tree_weight`. ``inner_log_residuals``: the residuals
+    of the inner grouped cross-validation that chose it (:func:`pipelines.melting_offset.fit_offset_model`
+    sets them; None otherwise), from which the interval half-widths are set.
     """
 
     def __init__(self, pipe, column: int, tree_weights=None):
         self.pipe, self.column = pipe, column
         self.tree_weights = dict(tree_weights or {})
+        self.inner_log_residuals = None
 
     def predict(self, x: np.ndarray, groups=None) -> np.ndarray:
         """Predicted T [K] for rows of ``x``; ``groups`` (interval group per row) apply ``tree_weights``."""

@@ -17,8 +17,10 @@ import re
 import numpy as np
 
 from ionicity.pipelines.melting_cli import TOLERANCE_K
+from ionicity.scorer.bond_class_rules import keeps_formal_salt_reading
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.melting import formal_salt_reading
 
 __all__ = [
     "consensus_melting_point_K",
@@ -353,12 +355,25 @@ def cation_family(dec) -> str:
     Cross-validation grouped by it holds out whole ionic-liquid families
     (imidazolium, pyrrolidinium, ammonium-protic...) at once.
 
+    A compound read without ions whose formal reading the salt index keeps
+    (interstitial nitrides, layered dichalcogenides:
+    :func:`scorer.bond_class_rules.keeps_formal_salt_reading`) takes its
+    formal cation's element, as the training screen reads it
+    (:func:`pipelines.melting_data.build_open_training_set`), so TiN groups
+    with the other titanium salts rather than with every compound read
+    without ions.
+
     >>> from ionicity.scorer.formula import parse_formula
     >>> from ionicity.scorer.ions import decompose
     >>> cation_family(decompose(parse_formula("[C4mim][BF4]"))), cation_family(decompose(parse_formula("NaCl")))
     ('imidazolium', 'Na')
+    >>> cation_family(decompose(parse_formula("TiN"))), cation_family(decompose(parse_formula("WTe2")))
+    ('Ti', 'W')
     """
     if not dec.cations:
-        return "none"
+        reading = formal_salt_reading(dec) if keeps_formal_salt_reading(dict(dec.composition)) else None
+        if reading is None or not reading.cations:
+            return "none"
+        dec = reading
     main = _main_ion(dec.cations)
     return main.family if main.organic else cation_element(dec)

@@ -1,11 +1,12 @@
-"""Validation of the melting regression: grouped cross-validation, split-conformal intervals, metrics.
+"""Validation of the melting regression: grouped cross-validation, interval half-widths, metrics.
 
 :func:`grouped_cross_validation` holds out whole groups (anion family, cation
 element or cation family) and fits everything a model carries inside each
 fold: the index's organic weights and the ionic liquids' tree share
 (:func:`pipelines.melting_offset.fit_offset_model`), the trees
-(:func:`pipelines.melting_regressor._fit_pipeline`) and the conformal
-half-widths, on the fold's training rows only. :func:`trend_index_report`
+(:func:`pipelines.melting_regressor._fit_pipeline`) and the interval
+half-widths (from the inner cross-validation's residuals), on the fold's
+training rows only. :func:`trend_index_report`
 checks the trend index alone. :mod:`pipelines.melting_fit` re-exports these
 names; ``python -m ionicity.pipelines.melting_cv`` runs them on a saved
 training table. scikit-learn and scipy (the ``melting`` extra) are imported
@@ -99,12 +100,22 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
                              calibration_fraction: float = 0.25, seed: int = 0, interval_groups=None,
                              progress=None, features_for_fold=None, index_terms=None,
                              choose_tree_share: bool = True) -> dict:
-    """Grouped K-fold cross-validation of the model and the two baselines, with conformal coverage.
+    """Grouped K-fold cross-validation of the model and the two baselines, with interval coverage.
 
-    In every fold the training part is split once more: the model is fitted
-    on one part and its absolute log residuals on the other (the calibration
-    part) set the interval half-width; coverage is then counted on the
-    held-out fold.
+    In every fold the model is fitted on all the fold's training rows, and the
+    interval half-widths (one per interval group) come from the absolute log
+    residuals of the inner grouped cross-validation that chooses the ionic
+    liquids' tree share (:func:`pipelines.melting_offset.fit_offset_model`):
+    each of those rows was predicted by a model that never saw its group, as
+    a held-out row will be (cross-validation residuals, Barber, Candes, Ramdas
+    & Tibshirani, Ann. Statist. 2021, 49, 486, doi:10.1214/20-AOS1965, whose
+    CV+ form guarantees at least 1 - 2 alpha; this simpler form, the quantile
+    of the residuals, has no finite-sample guarantee, so coverage is counted on
+    the held-out fold). With ``choose_tree_share=False`` there is no inner
+    cross-validation and the training rows are split once more, by whole
+    groups: the model is fitted on one part and its residuals on the other
+    (the calibration part, ``calibration_fraction``) set the half-widths
+    (split conformal).
 
     Parameters
     ----------
@@ -121,6 +132,8 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     coverage : float, default=0.9
         Target coverage of the intervals.
     calibration_fraction : float, default=0.25
+        Share of the training rows held back for the half-widths when
+        ``choose_tree_share`` is False (unused otherwise).
     seed : int, default=0
     interval_groups : array-like of shape (n_samples,), optional
         :func:`scorer.melting_model.interval_group` per row: the intervals are
@@ -136,14 +149,15 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     index_terms : list, optional
         :func:`pipelines.melting_offset.index_terms` of every row: each
         fold then refits the trend index's organic weights on the rows its
-        trees are fitted on (never the calibration part or the held-out fold)
+        trees are fitted on (never the held-out fold)
         and rebuilds ``mp_trend_index`` with them, as :func:`fit_melting_model`
         does for the model file.
     choose_tree_share : bool, default=True
         Each fold picks the ionic liquids' share of the trees' correction by
         an inner grouped cross-validation on its fitted rows
         (:func:`pipelines.melting_offset.choose_tree_weight`), as
-        :func:`fit_melting_model` does.
+        :func:`fit_melting_model` does, and sets the half-widths from that
+        inner cross-validation's residuals.
 
     Returns
     -------
@@ -174,13 +188,21 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     width = np.full(len(y_K), np.nan)
     for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
         say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
-        proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
-        proper, calib = train[proper], train[calib]
         xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
-        pipe, used, _, xf = fit_offset_model(xf, y_K, proper, labels, groups if choose_tree_share else None,
-                                             index_terms, lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
-        _, per_group = _group_halfwidths(np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used], labels[calib])),
-                                         labels[calib], coverage)
+        fit = lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls)  # noqa: E731
+        if choose_tree_share:
+            # every training row fits the model; the half-widths come from the residuals of the inner
+            # grouped cross-validation that chose the tree share (rows predicted without their group)
+            pipe, used, _, xf = fit_offset_model(xf, y_K, train, labels, groups, index_terms, fit, say)
+            residuals, calib_labels = pipe.inner_log_residuals, labels[train]
+        else:
+            proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
+            proper, calib = train[proper], train[calib]
+            pipe, used, _, xf = fit_offset_model(xf, y_K, proper, labels, None, index_terms, fit, say)
+            residuals = np.log(y_K[calib]) - np.log(pipe.predict(xf[calib][:, used], labels[calib]))
+            calib_labels = labels[calib]
+        ok = np.isfinite(residuals)
+        _, per_group = _group_halfwidths(residuals[ok], calib_labels[ok], coverage)
         q = np.array([per_group.get(g, per_group["other"]) for g in labels[test]])
         pred = pipe.predict(xf[test][:, used], labels[test])
         oof[test] = pred

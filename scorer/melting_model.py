@@ -5,8 +5,8 @@ gradient-boosted trees on :data:`MODEL_FEATURES` and writes them as JSON:
 every tree as arrays of plain numbers. :func:`model_from_dict` (in
 :mod:`scorer.melting_model_format`, re-exported here) checks such a
 document against the expected layout and refuses anything else;
-:func:`predict_melting_K` walks the trees in numpy and adds the split-conformal
-interval. No pickle is involved, so a model file cannot run code. Scoring
+:func:`predict_melting_K` walks the trees in numpy and adds the conformal-style
+interval (half-widths set by the trainer, see the file's ``interval.method``). No pickle is involved, so a model file cannot run code. Scoring
 imports this module, never the trainer.
 
 Predicted melting points are estimates for screening, not for process safety:
@@ -76,13 +76,14 @@ MODEL_COLUMNS: tuple[Column, ...] = (
     ),
     Column(
         "mp_interval_low_K", "float64", "K",
-        "lower end of the split-conformal prediction interval (coverage in the model file, 90 % by default)",
-        "prediction / exp(q), q the conformal quantile of absolute log residuals on calibration rows",
+        "lower end of the prediction interval (coverage in the model file, 90 % by default)",
+        "prediction / exp(q), q the quantile of absolute log residuals of rows predicted without their group"
+        " (the model file's interval method: inner grouped cross-validation; older files: calibration rows)",
         "Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116",
     ),
     Column(
         "mp_interval_high_K", "float64", "K",
-        "upper end of the split-conformal prediction interval",
+        "upper end of the prediction interval",
         "prediction * exp(q)",
         "Lei et al., J. Am. Stat. Assoc. 2018, 113, 1094, doi:10.1080/01621459.2017.1307116",
     ),
@@ -312,7 +313,7 @@ def predict_melting_K(model: MeltingModel, features, groups=None) -> tuple[np.nd
         Rows of :func:`model_features`.
     groups : sequence of str, optional
         :func:`interval_group` of each row; a model with a half-width per group
-        (Mondrian split-conformal) uses the row's own, else the pooled one; a
+        (Mondrian) uses the row's own, else the pooled one; a
         model with ``tree_weights`` scales the trees' part of the named groups' rows.
 
     Returns

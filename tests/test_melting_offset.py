@@ -154,6 +154,34 @@ def test_the_inner_cross_validation_picks_the_share_that_fits(fast_pipeline, fol
     assert share >= 0.75 if follows else share == 0.0
 
 
+@needs_sklearn
+def test_interval_half_widths_come_from_the_inner_cross_validation(fast_pipeline):
+    # ln T = ln 10 * index + 0.5 f + noise of spread 0.1 that no feature carries: the inner grouped
+    # cross-validation predicts every fitted row without its group, and the 90 % quantile of its
+    # absolute log residuals comes out near the noise's, z_0.95 * sigma = 1.645 * 0.1 (standard normal
+    # quantile, any statistics table; common practice), a little wider for the trees' own error
+    from ionicity.pipelines import melting_fit as mf
+    from ionicity.pipelines.melting_validation import _conformal_halfwidth
+
+    rng = np.random.default_rng(5)
+    n = 600
+    x = np.full((n, len(melting_model.MODEL_FEATURES)), np.nan)
+    x[:, 0] = rng.uniform(2.3, 3.3, n)
+    x[:, 3] = rng.normal(size=n)
+    y = 10 ** x[:, 0] * np.exp(0.5 * x[:, 3] + rng.normal(0.0, 0.1, n))
+    labels = np.array(["other"] * n)
+    groups = np.array([f"g{i % 20}" for i in range(n)])
+    regressor, _, _, _ = mo.fit_offset_model(x, y, np.arange(n), labels, groups, None,
+                                             lambda xs, ys, ls: mf._fit_pipeline(xs, ys, 0, ls))
+    residuals = regressor.inner_log_residuals
+    assert residuals.shape == (n,) and np.isfinite(residuals).all()
+    assert 0.9 * 0.1645 < _conformal_halfwidth(residuals, 0.9) < 1.4 * 0.1645
+    # without an inner cross-validation there are no residuals to set half-widths from
+    regressor, _, _, _ = mo.fit_offset_model(x, y, np.arange(n), labels, None, None,
+                                             lambda xs, ys, ls: mf._fit_pipeline(xs, ys, 0, ls))
+    assert regressor.inner_log_residuals is None
+
+
 def test_no_ionic_liquid_rows_keep_the_full_trees():
     x, y, labels, groups = _synthetic(True)
     others = np.flatnonzero(labels == "other")

@@ -7,6 +7,7 @@ import pytest
 
 from ionicity.pipelines import melting_screen
 from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.melting import formal_salt_reading
 from ionicity.scorer.ions import decompose
 
 
@@ -131,3 +132,19 @@ def test_groups_for_cross_validation():
     assert melting_screen.cation_element(_dec("Fe2(SO4)3")) == "Fe"
     assert melting_screen.cation_element(_dec("(NH4)2SO4")) == "NH4"
     assert melting_screen.cation_element(_dec("[C4mim]Cl")) == "organic"
+
+
+@pytest.mark.parametrize("formula, family", [
+    # read without ions by the interstitial-nitride rule (Haegg 1931; Greenwood & Earnshaw, Chemistry of the
+    # Elements, 2nd ed. 1997, ch. 11.3.2) and the layered-dichalcogenide rule (Wilson & Yoffe, Adv. Phys. 1969,
+    # 18, 193), both keeping their formal salt reading: grouped with the salts of their metal, as the
+    # training screen reads them (cation_element), not in one group of every compound without ions
+    ("TiN", "Ti"), ("UN", "U"), ("ZrS2", "Zr"), ("WTe2", "W"),
+    # a covalent molecule has no formal salt reading to fall back on (common practice: no cation, no family)
+    ("CH4", "none"),
+])
+def test_cation_family_of_compounds_read_without_ions(formula, family):
+    assert melting_screen.cation_family(_dec(formula)) == family
+    if family != "none":
+        assert melting_screen.cation_family(_dec(formula)) == melting_screen.cation_element(
+            formal_salt_reading(_dec(formula)))
