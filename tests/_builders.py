@@ -47,3 +47,16 @@ def periodictable_spelling(text: str) -> str | None:
     if re.search(r"[a-z]{2}|\s|\^|[+-]$", text):
         return None
     return text
+
+
+def registry_melting_point_K(cas: str) -> float:
+    """The registry's melting point of ``cas`` (``chemicals.phase_change.Tm``, CRC Handbook), read at test
+    time; the test is skipped without the ``melting`` extra and fails where the registry has no value."""
+    import pytest
+
+    pytest.importorskip("chemicals")
+    from chemicals.phase_change import Tm
+
+    value = Tm(cas)
+    assert value, f"no registry melting point for {cas}"
+    return value

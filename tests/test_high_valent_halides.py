@@ -20,13 +20,9 @@ import pytest
 from ionicity.scorer import melting_routes
 from ionicity.scorer.record import score_formula
 
+from _builders import registry_melting_point_K
 
-def _tm(cas):
-    pytest.importorskip("chemicals")
-    from chemicals.phase_change import Tm
-    value = Tm(cas)
-    assert value, f"no registry melting point for {cas}"
-    return value
+
 
 
 @pytest.mark.parametrize("formula, cas", [
@@ -41,7 +37,7 @@ def _tm(cas):
 def test_bridged_tetrahalides_are_chain_layer_solids_in_their_band(formula, cas):
     out = score_formula(formula)
     assert out["substance_class"] == "chain_layer_solid" and out["mp_route"] == "chain_layer"
-    assert out["melting_class"] == melting_routes.melting_class_for(_tm(cas), salt=False)
+    assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=False)
 
 
 @pytest.mark.parametrize("formula", ["TiCl4", "SnCl4", "SiF4", "GeCl4", "ZrCl4"])
@@ -62,7 +58,7 @@ def test_pentahalide_melting_classes_against_the_registry():
     # MoCl5 was read as a salt of Mo(4+)/Mo(6+) and called an ionic liquid
     for formula, cas in (("MoCl5", "10241-05-1"), ("WCl5", "13470-14-9"), ("ReCl5", "13596-35-5")):
         out = score_formula(formula)
-        assert out["melting_class"] == melting_routes.melting_class_for(_tm(cas), salt=False) == "low_melting_solid"
+        assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=False) == "low_melting_solid"
 
 
 @pytest.mark.parametrize("formula, product", [
@@ -89,4 +85,4 @@ def test_oxide_frameworks_take_their_formal_reading_not_their_metal(formula, cas
     import math
     out = score_formula(formula)
     assert out["substance_class"] == "covalent_network" and out["mp_route"] == "element_mixture"
-    assert abs(out["mp_trend_index"] - math.log10(_tm(cas))) < math.log10(1.3)
+    assert abs(out["mp_trend_index"] - math.log10(registry_melting_point_K(cas))) < math.log10(1.3)

@@ -20,13 +20,9 @@ import pytest
 from ionicity.scorer import melting_routes
 from ionicity.scorer.record import score_formula
 
+from _builders import registry_melting_point_K
 
-def _tm(cas):
-    pytest.importorskip("chemicals")
-    from chemicals.phase_change import Tm
-    value = Tm(cas)
-    assert value, f"no registry melting point for {cas}"
-    return value
+
 
 
 @pytest.mark.parametrize("formula, cas", [
@@ -38,7 +34,7 @@ def _tm(cas):
 def test_chalcogenides_of_si_and_ge_are_networks_in_their_band(formula, cas):
     out = score_formula(formula)
     assert out["substance_class"] == "covalent_network" and out["status"] == "ok"
-    assert out["melting_class"] == melting_routes.melting_class_for(_tm(cas), salt=False) == "high_melting_solid"
+    assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=False) == "high_melting_solid"
 
 
 @pytest.mark.parametrize("formula", ["CS2", "COS", "CSe2"])
@@ -52,7 +48,7 @@ def test_methanides_get_a_melting_index():
     # Be2C: 2400 K (registry, decomposes); Al4C3: 2373 K (CRC Handbook, 95th ed.; from memory)
     be2c = score_formula("Be2C")
     assert math.isfinite(be2c["mp_trend_index"]) and be2c["melting_class"] in ("molten_salt", "refractory")
-    assert _tm("506-66-1") > 1773.15
+    assert registry_melting_point_K("506-66-1") > 1773.15
     al4c3 = score_formula("Al4C3")
     assert abs(al4c3["mp_trend_index"] - math.log10(2373.0)) < math.log10(1.5)
     assert al4c3["melting_class"] == "refractory"

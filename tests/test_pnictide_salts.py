@@ -15,12 +15,10 @@ import pytest
 from ionicity.scorer import melting_routes
 from ionicity.scorer.record import score_formula
 
-chemicals = pytest.importorskip("chemicals")
+from _builders import registry_melting_point_K
 
 
-def _tm(cas):
-    from chemicals.phase_change import Tm
-    return Tm(cas)
+
 
 
 @pytest.mark.parametrize("formula, cas", [
@@ -29,7 +27,7 @@ def _tm(cas):
     ("Mg3As2", "12044-49-4"),  # magnesium arsenide
 ])
 def test_phosphide_and_arsenide_salts_get_an_index_in_their_measured_band(formula, cas):
-    measured = _tm(cas)
+    measured = registry_melting_point_K(cas)
     assert measured, f"the registry has no melting point for {formula}"
     out = score_formula(formula)
     assert out["mp_route"] == "salt" and math.isfinite(out["mp_trend_index"])
