@@ -64,6 +64,7 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.grammar import format_count
 from ionicity.scorer.model import Decomposition, IonTerm
+from ionicity.scorer.radii import shannon_radius_pm
 
 __all__ = [
     "classify",
@@ -273,7 +274,6 @@ def _bridged_tetrahalide(cation, anions) -> bool:
     and every halide bridges (UF4, ThF4, ZrF4, SnF4: chains, layers and frameworks melting at
     900-1400 K; ThCl4, UCl4) while a smaller centre keeps four in a molecule (TiCl4, SnCl4, SiF4;
     Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory)."""
-    from ionicity.scorer.radii import shannon_radius_pm  # radii reads tables that import this module
     r_m = shannon_radius_pm(cation.element, cation.charge, 6)[0]
     ratios = [r_m / shannon_radius_pm(a.element, a.charge, 6)[0] for a in anions]
     return all(math.isfinite(q) and q >= _OCTAHEDRAL_RADIUS_RATIO for q in ratios)
