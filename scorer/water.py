@@ -274,6 +274,9 @@ def _binary(counts, dec) -> _Finding | None:
     if not active or (other == "N" and metal == "Al"):
         # AlN is a ceramic that hydrolyses only slowly: the semiconductor rule calls it insoluble
         return None
+    if other == "N" and "N(3-)" not in anion_ids:
+        # an azide (NaN3: N3(-)) is no nitride: it dissolves; the solubility rules read it
+        return None
     if other == "H" and metal in {"Be", "Mg", "Al"}:
         return _finding("reacts", None, "H2", "binary water-reactive",
                         f"{metal} hydride: hydrolyses (more slowly than the saline hydrides), giving H2")

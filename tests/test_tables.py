@@ -43,7 +43,7 @@ ROWS = {
     "blends.csv": 10,
     "eutectics.csv": 20,
     "compound_systems.csv": 11,
-    "water_acidity.csv": 54,
+    "water_acidity.csv": 55,
 }
 
 

@@ -319,3 +319,12 @@ def test_a_hill_formula_does_not_say_acyl_halide():
     # C2H3ClO may be acetyl chloride or chloroacetaldehyde: only the written group decides
     assert score_formula("C2H3ClO")["water_behaviour"] != "reacts_violently"
     assert score_formula("CoCl2")["water_behaviour"] == "dissolves"
+
+
+@pytest.mark.parametrize("text", ["NaN3", "KN3", "LiN3"])
+def test_azides_dissolve_and_are_not_nitrides(text):
+    # sodium azide dissolves (about 400 g/L, CRC Handbook; from memory) and its solution is weakly basic
+    # (HN3 pKa 4.72); only N(3-) nitrides (Li3N, Mg3N2) react violently, giving NH3. NaN3 was read as a nitride.
+    row = score_formula(text)
+    assert (row["water_behaviour"], row["solution_ph"], row["water_reaction_products"]) == ("dissolves", "basic", "none")
+    assert score_formula("Li3N")["water_behaviour"] == "reacts_violently"
