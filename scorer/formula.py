@@ -99,7 +99,7 @@ class ParsedFormula:
     ``neutral_adducts`` other neutral molecules joined with a dot (``NH3``);
     ``structure_hint`` what the written groups say about bonding that the
     counts cannot (``"amide"`` for ``CO(NH2)2``, ``"organometallic"`` for
-    ``Fe(CO)5`` or ``Fe(C5H5)2``, ``"ammonium"`` for ``NH4SCN``), so it takes part in equality.
+    ``Fe(CO)5`` or ``Fe(C5H5)2``, ``"ammonium"`` for ``NH4SCN``, ``"fulminate"`` for ``Hg(CNO)2``), so it takes part in equality.
     ``canonical`` is one string per compound: every accepted spelling of the
     same formula unit gives the same one.
     """
@@ -159,6 +159,9 @@ class ParsedFormula:
 
 
 # an acyl halide group written out: CH3COCl, C6H5COCl, COCl2, CH3C(O)Br (not CoCl2: case matters)
+# CNO written in that order is fulminate (C-N-O: AgCNO, Hg(CNO)2, HCNO), OCN cyanate (AgOCN):
+# the two ions have one composition, so only the text tells them apart
+_FULMINATE = re.compile(r"CNO(?![a-z])")
 _ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
 
 def _normalise_text(text: str) -> str:
@@ -500,6 +503,8 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "acyl_halide"
     elif "(NH2)" in cleaned:
         hint = "amide"
+    elif _FULMINATE.search(cleaned):
+        hint = "fulminate"
     elif "NH4" in cleaned.replace("[", "").replace("]", ""):
         # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
         # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer)

@@ -41,8 +41,11 @@ _PENALTY_NONMETAL_CATION = 5.0
 _PENALTY_PROTON = 1.5
 # metalloid cations of the inert pair that form salts with oxoanions and oxides
 # (Sb2(SO4)3, Sb2O3, Te(SO4)2, TeO2; Greenwood & Earnshaw, Chemistry of the
-# Elements, 2nd ed., 1997, ch. 13 and 16): cheaper than SbO(+) (2), dearer than a metal
-_PBLOCK_CATIONS = frozenset({("Sb", 3), ("Te", 4)})
+# Elements, 2nd ed., 1997, ch. 13 and 16): cheaper than SbO(+) (2), dearer than a metal;
+# and their group states in the oxide networks of corner- and edge-sharing octahedra
+# (Sb2O5, TeO3; same chapters; from memory), which otherwise read as Sb(3+) or Te(4+)
+# with peroxide
+_PBLOCK_CATIONS = frozenset({("Sb", 3), ("Te", 4), ("Sb", 5), ("Te", 6)})
 _PENALTY_PBLOCK_CATION = 1.0
 _PENALTY_MIXED_VALENCE = 1.0
 _PENALTY_RARE_ANION = 1.5

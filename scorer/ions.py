@@ -236,7 +236,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
-        if comp.structure_hint != "ammonium" and _woehler_isomer(readings):
+        if comp.structure_hint not in ("ammonium", "fulminate") and _woehler_isomer(readings):
             readings = []
     else:
         # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
@@ -274,6 +274,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if chosen is None:
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     cations, anions, alternatives, _ = chosen
+    if comp.structure_hint == "fulminate":
+        # the text writes C-N-O: the fulminate the library ranks after cyanate (one composition)
+        anions = [IonTerm(get_ion("CNO(-)"), t.count) if t.ion.ion_id == "OCN(-)" else t for t in anions]
 
     reasons: tuple[str, ...] = ()
     conflicts = redox_conflicts(cations, anions)

@@ -106,6 +106,7 @@ from ionicity.scorer.melting_anions import (
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
     DECOMPOSING_ANIONS,
+    ENERGETIC_ANIONS,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
@@ -247,6 +248,12 @@ def _gather_terms(
         for ion_id in decomposing:
             notes.append(f"melting trend: {ion_id} decomposes on heating (giving off oxygen, carbon dioxide, sulfur"
                          " dioxide or chlorine compounds): the trend is of the decomposition, the salt may never melt")
+        notes.append(_DECOMPOSITION_CAUTION)
+    energetic = sorted({t.ion.ion_id for t in dec.anions if t.ion.ion_id in ENERGETIC_ANIONS})
+    for ion_id in energetic:
+        notes.append(f"melting trend: {ion_id} salts decompose on heating, and heavy-metal ones explode on heating,"
+                     " shock or friction: the trend is not a temperature to heat towards")
+    if energetic and not decomposing:
         notes.append(_DECOMPOSITION_CAUTION)
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))

@@ -26,6 +26,7 @@ __all__ = [
     "soft_cation_pseudohalide_fraction",
     "coinage_cation_fraction",
     "DECOMPOSING_ANIONS",
+    "ENERGETIC_ANIONS",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -221,4 +222,11 @@ def coinage_cation_fraction(cations) -> float:
 DECOMPOSING_ANIONS = frozenset({
     "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)", "S2O5(2-)",
 })
+
+# anions whose salts decompose violently on heating, shock or friction: azides lose N2 (sodium azide near
+# 548 K; lead, silver, copper and mercury azides detonate) and fulminates detonate (mercury and silver
+# fulminate are primary explosives) (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+# ch. 11.3.4 and 8.5; from memory): the melting trend of their salts carries a note and the caution,
+# never a weight
+ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)"})
 

@@ -129,6 +129,11 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      r" compounds\): the trend is of the decomposition, the salt may never melt",
      "melting trend: the anion (in brackets) decomposes on heating, giving off a gas; the trend is of the"
      " decomposition and the salt may never melt (the caution that follows is written in full)"),
+    ("melting_energetic",
+     r"melting trend: {ion} salts decompose on heating, and heavy-metal ones explode on heating, shock or friction:"
+     r" the trend is not a temperature to heat towards",
+     "melting trend: salts of the anion (in brackets) decompose on heating, and heavy-metal ones explode on heating,"
+     " shock or friction; the trend is not a temperature to heat towards (the caution that follows is written in full)"),
     ("mixture_per_component",
      r"a mixture: each column formed from its components as its method says \(lattice energies, structure type and"
      r" melting trend per component: ionicity explain\)",

@@ -99,10 +99,13 @@ _ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
 # States that mendeleev lists only as "extra" but that are common in salts
 # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory):
 # Cu(I) in CuCl and Cu2O, Mn(III) in Mn2O3 and Mn3O4, Ti(III), V(III)/V(IV),
-# Cr(II), Au(I), U(IV) in UO2, Os(VIII) and Ru(VIII) in the tetroxides, Re(VII).
+# Cr(II), Au(I), U(IV) in UO2, Os(VIII) and Ru(VIII) in the tetroxides, Re(VII),
+# Re(VI) in ReO3 (otherwise read as Re(IV)/Re(VII)).
+# metalloids read as cations in salts and oxide networks (scorer.ion_penalties._PBLOCK_CATIONS)
+_PBLOCK_CATION_ELEMENTS = frozenset({"Sb", "Te"})
 _COMMON_STATES = {
     "Cu": (1,), "Mn": (3,), "Ti": (2, 3), "V": (2, 3, 4), "Cr": (2,), "Au": (1,), "U": (4,),
-    "Os": (8,), "Ru": (8,), "Re": (7,), "Sm": (2,), "Yb": (2,),
+    "Os": (8,), "Ru": (8,), "Re": (6, 7), "Sm": (2,), "Yb": (2,),
 }
 
 
@@ -309,7 +312,10 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         return "covalent_molecular"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
-    metal_states = [ion.charge for ion in cation_ions if ion.monatomic and is_metal(ion.element)]
+    # Sb and Te count with the metals here: their cations (Sb(3+), Te(4+), and Sb(5+), Te(6+) of the oxide
+    # networks; scorer.ion_penalties) give halides that are molecules as the metals' do (SbCl5, TeF6, TeCl4)
+    metal_states = [ion.charge for ion in cation_ions
+                    if ion.monatomic and (is_metal(ion.element) or ion.element in _PBLOCK_CATION_ELEMENTS)]
     if (metal_states and len(cation_ions) == 2 and len({ion.element for ion in cation_ions}) == 1
             and all(t.ion.monatomic and t.ion.element in _HALOGENS for t in anions)):
         # one metal split over two states because its mean state is no listed ion (MoCl5 read as
