@@ -89,7 +89,7 @@ from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.ion_library import monatomic_ion
 from ionicity.scorer.model import Column, Decomposition, IonTerm
-from ionicity.scorer.substance import formal_oxidation_states
+from ionicity.scorer.substance import formal_oxidation_states, listed_states
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -481,6 +481,34 @@ def _assess(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[
     return cls, "not_applicable", [why]
 
 
+# the +1 state of these elements forms salts although their main list starts at +3 (InCl, InBr, InI;
+# Ga(+) in Ga[GaCl4]; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 7.3; from memory)
+_MONOVALENT_SALT_FORMERS = frozenset({"Ga", "In"})
+
+
+def subvalent_notes(cations) -> list[str]:
+    """A warning for each monatomic cation at +1 of an element whose salts hold it at +2 or more: CaCl, AlCl,
+    FeCl or Mg(NO3) balance only with Ca(+), Al(+), Fe(+), Mg(+), which no stable salt has (they exist as
+    gas-phase molecules), so a count is most likely missing from the formula as written (common practice).
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> decompose(parse_formula("CaCl")).notes[0][:40], decompose(parse_formula("InCl")).notes
+    ('Ca(+) is not a state Ca takes in its sal', ())
+    """
+    out = []
+    for term in cations:
+        ion = term.ion
+        if not ion.monatomic or ion.charge != 1 or ion.element in _MONOVALENT_SALT_FORMERS:
+            continue
+        main = [state for state, extra in listed_states(ion.element) if not extra and state > 0]
+        if main and min(main) >= 2:
+            out.append(f"{ion.ion_id} is not a state {ion.element} takes in its salts (they hold"
+                       f" {ion.element}({min(main)}+) or higher): a count may be missing from the formula as written;"
+                       " check it")
+    return out
+
+
 def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
     """The decomposition with its ``ionic_model``, its reasons and, where the
     criteria say so, its substance class; ions dropped where the compound
@@ -511,6 +539,10 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
         )
         reasons.append("formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
+    else:
+        subvalent = subvalent_notes(dec.cations)
+        if subvalent:
+            changes["notes"] = tuple(dec.notes) + tuple(subvalent)
     return dec.with_fields(**changes)
 
 

@@ -62,6 +62,7 @@ SLIP_KINDS: dict[str, str] = {
     "one_for_l": "the digit 1 typed for a lower-case l",
     "l_for_I": "a lower-case l typed for a capital I",
     "letter_case": "element symbols in the wrong case",
+    "oxoanion_case": "a lower-case o typed in an oxoanion (Co for CO, No for NO, Po for PO)",
     "hydrate_dot_missing": "the hydrate dot left out before the water",
     "unknown_abbreviation": "a bracketed ion abbreviation the ion library does not know",
 }
@@ -114,7 +115,10 @@ _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # lattice water typed with the digit 0 for the letter O: "CaCl2·6H20", "CuSO4.5H20"
 _WATER_WITH_ZERO = re.compile(r"[·•∙⋅.*\s+]\d*(?:\.\d+)?H20$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
-MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$")
+MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$|Co3|No[23]|Po4")
+# carbonate, nitrate, nitrite and phosphate typed with a lower-case o: CaCo3 (calcium cobalt), KNo3 (nobelium),
+# Na3Po4 (polonium); only where an oxoanion's count follows (LiCoO2 and CoCl2 have none)
+_OXOANION_CASE = re.compile(r"(?<=[A-Za-z\d()\]])(?:Co(?=3)|No(?=[23])|Po(?=4))(?![0-9][0-9])")
 _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
 # a single element letter with three or more digits: the numeric code of a
 # quaternary ammonium or phosphonium ion (N2224, P66614), not a count
@@ -309,6 +313,14 @@ def _case_proposals(text: str, rare: bool = True) -> list[str]:
     return [p + text[last:] for p in proposals if p + text[last:] != text]
 
 
+def _recase_all(text: str, positions: list[int]) -> str:
+    """``text`` with the ``o`` after every position in ``positions`` written ``O``."""
+    chars = list(text)
+    for i in positions:
+        chars[i + 1] = "O"
+    return "".join(chars)
+
+
 def _replacements(text: str, positions: list[int], options) -> list[str]:
     """Each position replaced alone, and all of them at once, by each option
     that ``options(text, position)`` allows there."""
@@ -440,6 +452,15 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     small_l = [i for i, ch in enumerate(stripped) if ch == "l" and not _ell_options(stripped, i)]
     if small_l:
         consider("l_for_I", lambda: _replacements(stripped, small_l, _capital_i_options), False)
+    oxo = [m.start() for m in _OXOANION_CASE.finditer(stripped)]
+    if oxo:
+        # evidence: as written the text holds no anion (CaCo3 an intermetallic, KNo3 nobelium) while the
+        # proposal writes a whole oxoanion after a metal
+        written_dec = None if _parsed(text) is None else decompose_anhydrous(_parsed(text))
+        evidence = written_dec is not None and not written_dec.anions and any(
+            get_element(symbol).is_metal for symbol, _ in _parsed(text).counts if symbol not in ("Co", "No", "Po"))
+        consider("oxoanion_case", lambda: [stripped[:i + 1] + "O" + stripped[i + 2:] for i in oxo] + (
+            [_recase_all(stripped, oxo)] if len(oxo) > 1 else []), evidence)
     water = _RUN_INTO_WATER.search(stripped)
     if water:
         digits = water.group(1)
