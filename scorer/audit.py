@@ -26,7 +26,7 @@ COLUMNS: tuple[Column, ...] = (
     ),
     Column(
         "concentration_as_written", "string", "",
-        "the concentration or grade written after a solute (37 %, 65 % w/w, 1 M, 0.1 mol/L, conc.); the row's"
+        "the concentration or grade written before or after a solute (37 %, 65 % w/w, 1 M, 0.1 mol/L, conc.); the row's"
         " values are for the pure solute; empty for a plain formula",
         "scorer.solutions", "",
     ),

@@ -202,6 +202,13 @@ def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...], st
             f"{names[missing]} was given no amount: it was taken as the balance,"
             f" {amounts[missing]:g} {basis or 'mol'}%"
         )
+    elif given and len(given) != len(parts) and not percent and all(a == int(a) >= 1 for a in given):
+        # whole-number coefficients on some components, as molten-salt formulas write them (2LiF-BeF2,
+        # 3NaF-AlF3): a component without one counts once (common practice)
+        missing = [names[i] for i, a in enumerate(amounts) if a is None]
+        amounts = [1.0 if a is None else a for a in amounts]
+        note = f"{', '.join(missing)} written without a coefficient: counted once (mole ratio " + \
+            ":".join(f"{a:g}" for a in amounts) + ")"
     elif given and len(given) != len(parts):
         raise MixtureNotationError(
             f"amounts given for {len(given)} of {len(parts)} components in {' + '.join(parts)!r};"

@@ -1,5 +1,6 @@
 """Solutions and grades written after a formula: ``HCl 37%``, ``NaOH 1 M``,
-``H2SO4 conc.``, ``NH3 (aq) 25%``, ``HNO3 65 % w/w``, ``KOH 0.1 mol/L``.
+``H2SO4 conc.``, ``NH3 (aq) 25%``, ``HNO3 65 % w/w``, ``KOH 0.1 mol/L``, or before it
+as bottle labels write them: ``0.1 M NaCl``, ``37% HCl``, ``conc. HNO3``.
 
 :func:`split_solution` takes the concentration (or grade word) off the end of
 the text, as written with its unit, and leaves the solute's formula, which is
@@ -16,6 +17,8 @@ Solution(solute='NH3', concentration='25 %')
 Solution(solute='KOH', concentration='0.1 mol/L')
 >>> split_solution("H2SO4 conc.")
 Solution(solute='H2SO4', concentration='conc.')
+>>> split_solution("0.1 M NaCl"), split_solution("conc. HNO3").concentration
+(Solution(solute='NaCl', concentration='0.1 M'), 'conc.')
 >>> split_solution("NaCl") is None
 True
 """
@@ -111,6 +114,11 @@ def split_solution(text: str) -> Solution | None:
     tail = _BRACKETED_TAIL.search(body)
     if tail and any(p.fullmatch(tail.group(1)) for p in (_PERCENT, _MOLAR, _GRADE)):
         body = body[:tail.start()] + " " + tail.group(1)
+    for pattern in (_MOLAR, _PERCENT, _GRADE):
+        # or the first, before a space, as bottle labels write it: "0.1 M NaCl", "37% HCl", "conc. HNO3"
+        lead = re.match(rf"^(?P<c>{pattern.pattern})\s+(?P<rest>[A-Z(\[].*)$", body, pattern.flags)
+        if lead and split_solution(lead.group("rest")) is None:
+            return Solution(lead.group("rest").strip(), _as_written(pattern, pattern.match(lead.group("c"))))
     for pattern in (_PERCENT, _MOLAR, _GRADE):
         # the concentration is the last thing written, after a space
         for m in pattern.finditer(body):

@@ -300,3 +300,24 @@ def test_a_bracketed_ionic_liquid_with_water_after_a_slash():
     row = score_formula("[C4mim][BF4]/H2O 90:10")
     assert row["substance_class"] == "mixture" and row["status"] == "ok"
     assert score_formula("CaSO4+2H2O")["substance_class"] == "ionic_salt"
+
+
+@pytest.mark.parametrize("text, components, fractions", [
+    # whole-number coefficients on some components, as molten-salt compositions are written: 2LiF-BeF2 is
+    # the 2:1 FLiBe melt (Thoma et al., J. Phys. Chem. 63 (1959) 1266, from memory), 3NaF-AlF3 the cryolite
+    # ratio (common practice); the component without a coefficient counts once
+    ("2LiF-BeF2", "LiF;BeF2", (2 / 3, 1 / 3)),
+    ("3NaF-AlF3", "NaF;AlF3", (0.75, 0.25)),
+    ("KCl-2MgCl2", "KCl;MgCl2", (1 / 3, 2 / 3)),
+])
+def test_stoichiometric_coefficients_on_some_components(text, components, fractions):
+    r, got_components, got = _mix(text)
+    assert ";".join(got_components) == components
+    assert got == pytest.approx(fractions, abs=1e-4)
+    assert "counted once" in r["message"]
+
+
+def test_a_fraction_on_one_component_alone_is_still_refused():
+    # 0.6 before one component and nothing before the other is no coefficient: ask for the rest
+    r = score_formula("0.6 NaNO3 - KNO3")
+    assert r["status"] == "error" and "amounts given for 1 of 2 components" in r["message"]

@@ -272,3 +272,25 @@ def test_a_missing_count_that_needs_a_subvalent_cation_is_a_warning(text, ion):
 def test_real_monovalent_salts_carry_no_subvalent_warning(text):
     record = score_formula(text)
     assert record["status"] == "ok", record["message"]
+
+
+@pytest.mark.parametrize("text, solute, concentration", [
+    # concentrations written before the formula, as bottle labels write them (common practice)
+    ("0.1 M NaCl", "NaCl", "0.1 M"),
+    ("1M H2SO4", "H2SO4", "1 M"),
+    ("37% HCl", "HCl", "37 %"),
+    ("10 % w/v NaOH", "NaOH", "10 % w/v"),
+    ("conc. HNO3", "HNO3", "conc."),
+    ("saturated NaCl", "NaCl", "sat."),
+    ("2 N HCl", "HCl", "2 N"),
+])
+def test_leading_concentrations_are_solutions(text, solute, concentration):
+    record = score_formula(text)
+    assert record["status"] == "ok", record["message"]
+    assert record["formula_normalized"] == solute
+    assert record["concentration_as_written"] == concentration
+
+
+@pytest.mark.parametrize("text", ["2 NaCl", "3 MgO"])
+def test_a_count_before_a_formula_is_no_concentration(text):
+    assert score_formula(text)["concentration_as_written"] is None
