@@ -1,4 +1,4 @@
-"""Phosphide, arsenide and antimonide salts get a melting index; III-V semiconductors keep their rule.
+"""Phosphide, arsenide and antimonide salts get a melting index; III-V semiconductors a rule of their own.
 
 Pauling's crystal radii of P(3-), As(3-) and Sb(3-) (``scorer/data/fallback_radii.csv``; Pauling, The
 Nature of the Chemical Bond, 3rd ed., 1960, table 13-4; from memory) give these anions a lattice
@@ -42,16 +42,40 @@ def test_the_lattice_energy_says_which_radius_it_used():
     assert radius == 212.0 and "Pauling" in why
 
 
-@pytest.mark.parametrize("formula", ["GaP", "InSb", "GaAs", "AlSb"])
-def test_iii_v_semiconductors_do_not_take_a_formal_reading_from_pauling_radii(formula):
-    # their tetrahedral bonds are no P(3-) lattice: the formal reading would put InSb (800 K, CRC
-    # Handbook 95th ed., 2014; from memory) at about 1960 K; the element-mixture rule stands
+# the nine III-V compounds of Al, Ga, In with P, As, Sb and their registry CAS numbers (chemicals' PubChem table)
+_III_V = {"AlP": "20859-73-8", "AlAs": "22831-42-1", "AlSb": "25152-52-7", "GaP": "12063-98-8",
+          "GaAs": "1303-00-0", "GaSb": "12064-03-8", "InP": "22398-80-7", "InAs": "1303-11-3", "InSb": "1312-41-0"}
+
+
+@pytest.mark.parametrize("formula", sorted(_III_V))
+def test_iii_v_semiconductors_take_the_mean_of_mixture_and_formal_reading(formula):
+    # neither limit: the element mixture counts Ga's and In's low melting points (GaP read 303 K), the formal
+    # ionic reading with Pauling's radii overestimates (InSb about 1960 K against 797 K)
     out = score_formula(formula)
     assert out["substance_class"] == "semiconductor" and out["mp_route"] == "element_mixture"
-    from ionicity.scorer.melting_routes import element_mixture_melting_K
     from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.melting import _salt, formal_salt_reading
+    from ionicity.scorer.ions import decompose
+    from ionicity.scorer.melting_routes import element_mixture_melting_K, polar_network_index
     mixture, _ = element_mixture_melting_K(tuple(parse_formula(formula).counts))
-    assert 10 ** out["mp_trend_index"] == pytest.approx(mixture, rel=1e-3)  # the column keeps 4 decimals
+    salt = _salt(formal_salt_reading(decompose(parse_formula(formula))))[0]
+    expected = polar_network_index(math.log10(mixture), salt)
+    assert out["mp_trend_index"] == pytest.approx(expected, abs=1e-4)  # the column keeps 4 decimals
+
+
+def test_iii_v_rule_figures_against_registry_melting_points():
+    """The figures the rule was chosen on (calibration: these nine are all the family the registry has; no
+    separate validation set): registry melting points (``chemicals``, CRC Handbook) within a factor 1.5 for
+    at least 7 of 9, and the melting class of that registry value right for at least 7 of 9 (the mixture
+    alone: 2 and 5)."""
+    within = right = 0
+    for formula, cas in _III_V.items():
+        out = score_formula(formula)
+        measured = registry_melting_point_K(cas)
+        predicted = 10 ** out["mp_trend_index"]
+        within += max(predicted, measured) / min(predicted, measured) <= 1.5
+        right += out["melting_class"] == melting_routes.melting_class_for(measured, salt=False)
+    assert within >= 7 and right >= 7, (within, right)
 
 
 @pytest.mark.parametrize("formula", ["BP", "BAs", "SiP2"])
