@@ -58,7 +58,8 @@ _ORDINARY = re.compile(
 # proposals, 5-100 ms a formula. It cannot find a slip in one when:
 # * no character gives it evidence of a slip (what the regular expression
 #   refuses): no 0 right after a letter (a leading zero), no CI (chlorine
-#   mistyped), no count 1 written out (C1 for Cl); with no evidence a proposal
+#   mistyped), no count 1 written out (C1 for Cl), no count right after a group whose brackets may have
+#   been left out (NH42CO3 for (NH4)2CO3: slips._BRACKETLESS_GROUP); with no evidence a proposal
 #   must read better than the text by slips.MARGIN;
 # * and no proposal can: every reading costs at least 1.0 in
 #   slips.reading_penalty (0.5 per element; one element alone is an element,
@@ -68,7 +69,8 @@ _ORDINARY = re.compile(
 #   100 has 0.5 per element + 1.0 (covalent molecular) <= 3.0 without the
 #   solver; any other such text is asked (reading_penalty, which the record's
 #   solver call then finds in its cache).
-_CAPITALS = re.compile(r"(?!.*[A-Z]0)(?!.*CI)(?!.*[A-Z]1(?!\d))[CHNOSPFI][CHNOSPFI\d]*\Z")
+_CAPITALS = re.compile(
+    r"(?!.*[A-Z]0)(?!.*CI)(?!.*[A-Z]1(?!\d))(?!.*(?:NH4|OH|NO[23]|[SC]O[34]|PO4)\d)[CHNOSPFI][CHNOSPFI\d]*\Z")
 _LEAST_READING_PENALTY = 1.0
 _MOLECULE_MAX_ELEMENTS = 4
 _MOLECULE_MAX_COUNT = 100

@@ -63,6 +63,7 @@ SLIP_KINDS: dict[str, str] = {
     "l_for_I": "a lower-case l typed for a capital I",
     "letter_case": "element symbols in the wrong case",
     "oxoanion_case": "a lower-case o typed in an oxoanion (Co for CO, No for NO, Po for PO)",
+    "brackets_left_out": "the brackets around a group left out (CaOH2 for Ca(OH)2)",
     "hydrate_dot_missing": "the hydrate dot left out before the water",
     "unknown_abbreviation": "a bracketed ion abbreviation the ion library does not know",
 }
@@ -115,7 +116,12 @@ _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # lattice water typed with the digit 0 for the letter O: "CaCl2·6H20", "CuSO4.5H20"
 _WATER_WITH_ZERO = re.compile(r"[·•∙⋅.*\s+]\d*(?:\.\d+)?H20$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
-MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$|Co3|No[23]|Po4")
+MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$|Co3|No[23]|Po4|(?:OH|NO[23]|[SC]O[34]|PO4|NH4|ClO[34]?)\d")
+# polyatomic groups whose brackets a spreadsheet or a hurried hand leaves out: Ca(OH)2 typed CaOH2, (NH4)2SO4
+# typed NH42SO4, Al2(SO4)3 typed Al2SO43 (common practice); CN is not among them (CaCN2 is calcium cyanamide)
+_BRACKETLESS_GROUP = re.compile(
+    r"(?<=[A-Za-z\d])(?P<group>HCO3|HSO4|H2PO4|HPO4|OH|NO3|NO2|SO4|SO3|PO4|CO3|ClO4|ClO3|ClO|CrO4|MnO4|IO3|BrO3|C2O4"
+    r"|CH3COO)(?P<count>[2-9])(?![0-9])|^(?P<lead>NH4)(?P<lead_count>[2-9])(?=[A-Z(])")
 # carbonate, nitrate, nitrite and phosphate typed with a lower-case o: CaCo3 (calcium cobalt), KNo3 (nobelium),
 # Na3Po4 (polonium); only where an oxoanion's count follows (LiCoO2 and CoCl2 have none)
 _OXOANION_CASE = re.compile(r"(?<=[A-Za-z\d()\]])(?:Co(?=3)|No(?=[23])|Po(?=4))(?![0-9][0-9])")
@@ -179,6 +185,9 @@ def _penalty_of(text: str, dec) -> float:
             penalty += 2.0  # Fe(7+) beside a carbide: the solver's last resort
         if element == "C":
             penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
+    if any(t.ion.ion_id == "H(-)" for t in dec.anions) and any(
+            "O" in dict(t.ion.composition) for t in dec.anions):
+        penalty += 2.0  # a hydride beside oxide or hydroxide (CaOH2 as Ca(2+) H(-) OH(-)): rarer than a slip
     if len(comp.counts) == 1 and comp.counts[0][1] != 1 and comp.counts[0] not in _ELEMENT_MOLECULES:
         penalty += 2.0  # Na20, Cl4: an element written with a count no molecule of it has
     if dec.substance_class == "covalent_molecular" and odd_electron_molecule(comp):
@@ -311,6 +320,34 @@ def _case_proposals(text: str, rare: bool = True) -> list[str]:
         proposals = [p + text[last:m.start()] + o for p in proposals for o in options][:_MAX_PROPOSALS]
         last = m.end()
     return [p + text[last:] for p in proposals if p + text[last:] != text]
+
+
+def _bracketed(text: str, groups: list[re.Match]) -> list[str]:
+    """``text`` with brackets put around each group of ``groups`` (each alone, then all of them)."""
+    def put(chosen):
+        out, last = [], 0
+        for m in chosen:
+            name = "group" if m.group("group") else "lead"
+            start, end = m.span(name)
+            out.append(text[last:start] + "(" + text[start:end] + ")")
+            last = end
+        return "".join(out) + text[last:]
+    proposals = [put([m]) for m in groups]
+    return proposals + ([put(groups)] if len(groups) > 1 else [])
+
+
+def _bracketless_evidence(text: str) -> bool:
+    comp = _parsed(text)
+    if comp is None:
+        return True
+    dec = decompose_anhydrous(comp)
+    if dec.substance_class in ("unknown", "error") or not (dec.cations or dec.anions):
+        return dec.substance_class != "covalent_molecular" or math.isinf(reading_penalty(text)) or any(
+            n > 24 for _, n in comp.counts)
+    listed = {ion.ion_id for ion in ion_library.ion_library()}
+    symbols = {s for s, _ in comp.counts}
+    return any(t.ion.ion_id == "H(-)" for t in dec.anions) and "O" in symbols or any(
+        t.ion.ion_id not in listed for t in dec.anions)
 
 
 def _recase_all(text: str, positions: list[int]) -> str:
@@ -461,6 +498,11 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
             get_element(symbol).is_metal for symbol, _ in _parsed(text).counts if symbol not in ("Co", "No", "Po"))
         consider("oxoanion_case", lambda: [stripped[:i + 1] + "O" + stripped[i + 2:] for i in oxo] + (
             [_recase_all(stripped, oxo)] if len(oxo) > 1 else []), evidence)
+    groups = list(_BRACKETLESS_GROUP.finditer(stripped))
+    if groups:
+        # evidence: as written the text needs a hydride beside oxygen (CaOH2 as Ca(2+) H(-) OH(-)) or an anion
+        # the library does not list (CaHCO32), or it does not read at all
+        consider("brackets_left_out", lambda: _bracketed(stripped, groups), _bracketless_evidence(text))
     water = _RUN_INTO_WATER.search(stripped)
     if water:
         digits = water.group(1)

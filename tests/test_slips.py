@@ -60,6 +60,15 @@ SLIPS = [
     ("KNo2", "KNO2", "oxoanion_case"),
     ("Mg3(Po4)2", "Mg3(PO4)2", "oxoanion_case"),
     ("NaH2Po4", "NaH2PO4", "oxoanion_case"),
+    # the brackets around a group left out: as written a hydride hydroxide (SrOH2 as Sr(2+) H(-) OH(-)), a
+    # molecule with 42 hydrogens, or nothing that balances
+    ("SrOH2", "Sr(OH)2", "brackets_left_out"),
+    ("NiNO32", "Ni(NO3)2", "brackets_left_out"),
+    ("Cr2SO43", "Cr2(SO4)3", "brackets_left_out"),
+    ("Mg3PO42", "Mg3(PO4)2", "brackets_left_out"),
+    ("NH42HPO4", "(NH4)2HPO4", "brackets_left_out"),
+    ("CaCN2", None, None),   # control: calcium cyanamide, Ca(2+) CN2(2-)
+    ("LiAlH4", None, None),  # control: a hydride written right
     ("LiCoO2", None, None),  # control: lithium cobalt oxide, no count after the o
     ("CoCl2", None, None),   # control
 ]
