@@ -26,10 +26,16 @@ names it):
    violently, giving the hydrogen halide.
 5c. ``fluoro anion``: salts of PF6- and BF4- keep their solubility but give HF
    as they hydrolyse slowly (acidic); LiPF6 reacts.
+5d. ``interhalogen``: interhalogen fluorides (ClF3, BrF3, IF5) react violently (HF);
+   ICl, IBr, BrCl react (HX and HOX); xenon and krypton fluorides react (XeF2
+   slowly), giving HF, the noble gas and O2.
+5e. ``molecular hydride``: boranes (B2H6) and silanes (SiH4) react, giving H2.
 5b. ``acyl halide``: an acyl halide written out (CH3COCl, C6H5COCl, COCl2)
    reacts violently, giving the hydrogen halide and the acid.
-6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7 react violently to their
-   acids; CO2 is slightly soluble and SO2 dissolves, both acidic.
+6. ``acid anhydride``: P4O10, SO3, N2O5, Cl2O7, Mn2O7, SeO3 and oleum react
+   violently to their acids; NO2 and N2O3 react; CrO3, Re2O7, SeO2, As2O5,
+   I2O5 and Cl2O dissolve as their acids; CO2, As2O3, V2O5, MoO3 are slightly
+   soluble and SO2 dissolves, all acidic.
 7. ``acid``: strong mineral acids, H3PO4 and the small carboxylic acids are
    miscible; other acids dissolve or follow the molecule rule; acidic.
 8. ``molecular base`` (NH3): dissolves, basic; H2O2 and N2H4 are miscible.
@@ -41,7 +47,10 @@ names it):
 11. ``solubility rules``: every cation-anion pair of a salt (a hydrate as
     its salt) by the solubility guidelines of general chemistry (Petrucci
     et al., General Chemistry, 10th ed., 2011, solubility guidelines; from
-    memory); the least soluble (or most reactive) pair decides.
+    memory); the least soluble (or most reactive) pair decides. Hypochlorites
+    and chlorites dissolve; cyanides dissolve with group 1 and 2 cations and
+    Hg(2+) and as alkali cyano complexes, otherwise not. Zn and Cd phosphides
+    and arsenides react slowly (PH3, AsH3).
 12. ``insoluble solid``: covalent networks, semiconductors, intermetallics,
     alloys: insoluble.
 
@@ -150,6 +159,19 @@ _ANHYDRIDES = {
     (("O", 3.0), ("S", 1.0)): ("reacts_violently", "H2SO4"), (("N", 2.0), ("O", 5.0)): ("reacts_violently", "HNO3"),
     (("Cl", 2.0), ("O", 7.0)): ("reacts_violently", "HClO4"), (("C", 1.0), ("O", 2.0)): ("slightly_soluble", None),
     (("O", 2.0), ("S", 1.0)): ("dissolves", None),
+    # oleum written as H2SO4.SO3 (disulfuric acid) takes up water as SO3 does
+    (("H", 2.0), ("O", 7.0), ("S", 2.0)): ("reacts_violently", "H2SO4"),
+    # oxides of non-metals and of metals in high states that dissolve as their acids (solubilities and reactions:
+    # CRC Handbook of Chemistry and Physics, physical constants of inorganic compounds; Greenwood & Earnshaw,
+    # Chemistry of the Elements, 2nd ed., 1997, ch. 23.3 (CrO3), 24.3 (Mn2O7, Re2O7), 15.2 and 16.2 (SeO2, SeO3),
+    # 13.3 (As2O3, As2O5), 17.2 (I2O5, Cl2O), 11.3 (NO2, N2O3); from memory)
+    (("Cr", 1.0), ("O", 3.0)): ("dissolves", "H2CrO4"), (("Mn", 2.0), ("O", 7.0)): ("reacts_violently", "HMnO4"),
+    (("O", 7.0), ("Re", 2.0)): ("dissolves", "HReO4"), (("O", 2.0), ("Se", 1.0)): ("dissolves", "H2SeO3"),
+    (("O", 3.0), ("Se", 1.0)): ("reacts_violently", "H2SeO4"), (("As", 2.0), ("O", 3.0)): ("slightly_soluble", "H3AsO3"),
+    (("As", 2.0), ("O", 5.0)): ("dissolves", "H3AsO4"), (("I", 2.0), ("O", 5.0)): ("dissolves", "HIO3"),
+    (("Cl", 2.0), ("O", 1.0)): ("dissolves", "HOCl"), (("N", 1.0), ("O", 2.0)): ("reacts", "HNO3;NO"),
+    (("N", 2.0), ("O", 3.0)): ("reacts", "HNO2"), (("O", 5.0), ("V", 2.0)): ("slightly_soluble", None),
+    (("Mo", 1.0), ("O", 3.0)): ("slightly_soluble", None),
 }
 #: acids miscible with water in all proportions (as liquids or their concentrated solutions; common practice)
 MISCIBLE_ACIDS = ("HCl", "HBr", "HI", "HF", "HNO3", "H2SO4", "HClO4", "H3PO4", "C2H4O2", "CH2O2")
@@ -179,7 +201,7 @@ HYDROPHOBIC_ANIONS = frozenset({"[NTf2](-)", "PF6(-)", "[BETI](-)", "[FAP](-)", 
 LONG_CATION_CARBONS = 16
 _ALWAYS_SOLUBLE_ANIONS = frozenset({
     "NO3(-)", "CH3COO(-)", "ClO4(-)", "ClO3(-)", "[NTf2](-)", "BF4(-)", "HCO3(-)", "HSO4(-)", "H2PO4(-)", "HCOO(-)",
-    "[OTf](-)", "[FSI](-)",
+    "[OTf](-)", "[FSI](-)", "ClO(-)", "ClO2(-)",
 })
 _HALIDES = frozenset({"Cl(-)", "Br(-)", "I(-)"})
 _HALIDE_INSOLUBLE = frozenset({"Ag(+)", "Hg2(2+)", "Cu(+)"})
@@ -271,6 +293,13 @@ def _binary(counts, dec) -> _Finding | None:
         return None
     group = get_element(metal).group
     active = group in (1, 2) or metal == "Al"
+    if group == 12 and other in ("P", "As") and dec.is_ionic:
+        # Zn3P2, Cd3As2: hydrolyse slowly in moist air and fast with acid (zinc phosphide is a rodenticide for
+        # the PH3 it gives in the stomach; Greenwood & Earnshaw ch. 12.3; from memory)
+        product = _BINARY_HYDROLYSIS[other]
+        return _finding("reacts", None, product, "binary water-reactive",
+                        f"{metal} {'phosphide' if other == 'P' else 'arsenide'}: hydrolyses slowly (fast with acid),"
+                        f" giving {product}")
     if not active or (other == "N" and metal == "Al"):
         # AlN is a ceramic that hydrolyses only slowly: the semiconductor rule calls it insoluble
         return None
@@ -322,6 +351,53 @@ def _fuming_halide(counts, dec) -> _Finding | None:
                     f" {products.replace(';', ' and ')}")
 
 
+_NOBLE_GASES = frozenset({"Kr", "Xe", "Rn"})
+# the oxoacid a fluoride's other halogen ends in, as usually written (IF5 + 3 H2O -> HIO3 + 5 HF)
+_INTERHALOGEN_FLUORIDE_PRODUCTS = {"Cl": "HF;Cl2;O2", "Br": "HF;HBrO3;Br2;O2", "I": "HF;HIO3"}
+
+
+def _interhalogen(counts, dec) -> _Finding | None:
+    """Interhalogens and noble-gas fluorides (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+    ch. 17.2.1 and 18.3; from memory): the fluorides of Cl, Br and I (ClF3, BrF3, BrF5, IF5, IF7) hydrolyse
+    violently, ClF3 and BrF3 explosively, giving HF; ICl, IBr, BrCl hydrolyse to the hydrogen halide of the
+    more electronegative halogen and the hypohalous acid of the other; XeF2 hydrolyses slowly, XeF4, XeF6 and
+    KrF2 violently (XeF6 and XeF4 can give explosive XeO3), giving HF, xenon and oxygen."""
+    if dec.is_ionic or not counts or not set(counts) <= _HALOGENS | _NOBLE_GASES | {"O"}:
+        return None
+    halogens = [s for s in counts if s in _HALOGENS]
+    nobles = [s for s in counts if s in _NOBLE_GASES]
+    if nobles and halogens == ["F"]:
+        noble = nobles[0]
+        slow = noble == "Xe" and counts.get("F") == 2 and "O" not in counts
+        how = "slowly" if slow else "violently (XeO3, which can form, is explosive)"
+        return _finding("reacts" if slow else "reacts_violently", "acidic", f"HF;{noble};O2", "interhalogen",
+                        f"a {noble} fluoride: hydrolyses {how}, giving HF, {noble} and O2")
+    if nobles or len(halogens) != 2 or "O" in counts:
+        return None
+    centre, ligand = sorted(halogens, key=lambda x: get_element(x).electronegativity_pauling or 0.0)
+    if ligand == "F":
+        products = _INTERHALOGEN_FLUORIDE_PRODUCTS.get(centre, "HF")
+        return _finding("reacts_violently", "acidic", products, "interhalogen",
+                        f"an interhalogen fluoride of {centre}: hydrolyses violently (ClF3 and BrF3 explosively),"
+                        f" giving {products.replace(';', ', ')}")
+    products = f"H{ligand};HO{centre}"
+    return _finding("reacts", "acidic", products, "interhalogen",
+                    f"an interhalogen: hydrolyses, giving H{ligand} and HO{centre}")
+
+
+def _molecular_hydride(counts, dec) -> _Finding | None:
+    """Boranes and silanes (Greenwood & Earnshaw ch. 6.3 and 9.3; from memory): B2H6 and the other boranes
+    hydrolyse to boric acid and H2; silanes hydrolyse to silica and H2, slowly in neutral water, fast with a
+    trace of base (both ignite in air: a matter for the safety data sheet, not this column)."""
+    if dec.is_ionic or set(counts) not in ({"B", "H"}, {"Si", "H"}):
+        return None
+    if "B" in counts:
+        return _finding("reacts", "acidic", "H3BO3;H2", "molecular hydride",
+                        "a borane: hydrolyses, giving boric acid and H2")
+    return _finding("reacts", None, "SiO2;H2", "molecular hydride",
+                    "a silane: hydrolyses (slowly in neutral water, fast with base), giving silica and H2")
+
+
 def _acyl_halide(counts, dec) -> _Finding | None:
     """An acyl halide written out (CH3COCl, C6H5COCl, COCl2): water cleaves the C-X bond, giving the
     hydrogen halide and the carboxylic acid (phosgene: CO2), violently for the small ones (Bretherick's
@@ -342,9 +418,10 @@ def _anhydride(counts, dec) -> _Finding | None:
     behaviour, acid = entry
     if acid is None:
         return _finding(behaviour, "acidic", None, "acid anhydride",
-                        "a non-metal oxide that dissolves to a weak acid")
-    return _finding(behaviour, "acidic", acid, "acid anhydride",
-                    f"an acid anhydride: reacts violently with water, giving {acid}")
+                        f"an oxide that dissolves to a weak acid ({behaviour.replace('_', ' ')})")
+    how = {"reacts_violently": "reacts violently with water", "reacts": "reacts with water"}.get(
+        behaviour, behaviour.replace("_", " ") + " in water")
+    return _finding(behaviour, "acidic", acid, "acid anhydride", f"an acid anhydride: {how}, giving {acid.replace(';', ' and ')}")
 
 
 def _acid(counts, dec) -> _Finding | None:
@@ -460,6 +537,17 @@ def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
         if cation in _SULFATE_SLIGHT:
             return "slightly_soluble", None, f"sulfate of {cation} is slightly soluble"
         return "dissolves", None, "sulfates dissolve"
+    if anion == "CN(-)":
+        # cyanides: those of group 2 and mercury(II) dissolve, the others (AgCN, CuCN, Zn(CN)2, Ni(CN)2) do not
+        # (CRC Handbook, physical constants of inorganic compounds; from memory)
+        if group == 2 or cation == "Hg(2+)":
+            return "dissolves", None, f"cyanide of {cation} dissolves"
+        if mixed and alkali:
+            # beside an alkali metal the cyanide is a cyano complex (Na4[Co(CN)6], K[Au(CN)2]): it dissolves
+            return "dissolves", None, "an alkali cyano complex dissolves"
+        if cation == "Tl(+)":
+            return None, None, f"no solubility guideline for {cation} with {anion}"
+        return "insoluble", None, "cyanides other than those of groups 1 and 2 and Hg(2+) are insoluble"
     if anion == "OH(-)" and element in _HEAVY_ALKALINE_EARTH:
         return "slightly_soluble", None, f"hydroxide of {cation} is slightly soluble"
     if anion in _MOSTLY_INSOLUBLE:
@@ -538,7 +626,7 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 
 #: the rules in order; the first that returns a finding decides
-RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
+RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 

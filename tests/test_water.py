@@ -160,6 +160,29 @@ CASES = [
     ("[C4mim][NTf2]", "slightly_soluble", "neutral", "none", IL),
     ("[P66614][NTf2]", "insoluble", None, "none", "common practice (a hydrophobic ionic liquid)"),
     ("LiNTf2", "dissolves", "neutral", "none", CP),
+    # interhalogens and noble-gas fluorides (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+    # ch. 17.2.1 and 18.3; from memory): they had no verdict
+    ("ClF3", "reacts_violently", "acidic", "HF;Cl2;O2", "Greenwood & Earnshaw ch. 17.2.1 (from memory)"),
+    ("IF5", "reacts_violently", "acidic", "HF;HIO3", "Greenwood & Earnshaw ch. 17.2.1: IF5 + 3 H2O -> HIO3 + 5 HF"),
+    ("IBr", "reacts", "acidic", "HBr;HOI", "Greenwood & Earnshaw ch. 17.2.1 (from memory)"),
+    ("XeF2", "reacts", "acidic", "HF;Xe;O2", "Greenwood & Earnshaw ch. 18.3: slow hydrolysis (from memory)"),
+    ("XeF6", "reacts_violently", "acidic", "HF;Xe;O2", "Greenwood & Earnshaw ch. 18.3 (from memory)"),
+    # oxides that dissolve as their acids (CRC Handbook, physical constants of inorganic compounds; from memory)
+    ("CrO3", "dissolves", "acidic", "H2CrO4", "CRC: about 1.7 kg/L (from memory)"),
+    ("Mn2O7", "reacts_violently", "acidic", "HMnO4", BRE),
+    ("SeO2", "dissolves", "acidic", "H2SeO3", "CRC: about 2.6 kg/L (from memory)"),
+    ("As2O3", "slightly_soluble", "acidic", "H3AsO3", "CRC: about 20 g/L (from memory)"),
+    ("NO2", "reacts", "acidic", "HNO3;NO", "Greenwood & Earnshaw ch. 11.3 (from memory)"),
+    ("H2SO4·SO3", "reacts_violently", "acidic", "H2SO4", f"oleum takes up water as SO3 does; {BRE}"),
+    # boranes and silanes (Greenwood & Earnshaw ch. 6.3, 9.3; from memory)
+    ("B2H6", "reacts", "acidic", "H3BO3;H2", "Greenwood & Earnshaw ch. 6.3 (from memory)"),
+    ("SiH4", "reacts", None, "SiO2;H2", "Greenwood & Earnshaw ch. 9.3 (from memory)"),
+    # hypochlorites and cyanides (CRC; from memory)
+    ("Ca(ClO)2", "dissolves", "basic", "none", "CRC: about 210 g/L (from memory); HOCl pKa 7.5"),
+    ("Hg(CN)2", "dissolves", "neutral", "none", "CRC: about 93 g/L (from memory)"),
+    ("AgCN", "insoluble", None, "none", "CRC (from memory)"),
+    ("Na4Co(CN)6", "dissolves", "basic", "none", "an alkali cyano complex (common practice)"),
+    ("Zn3P2", "reacts", None, "PH3", "Greenwood & Earnshaw ch. 12.3: slow hydrolysis, fast with acid (from memory)"),
 ]
 
 
