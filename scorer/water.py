@@ -50,7 +50,11 @@ names it):
     memory); the least soluble (or most reactive) pair decides. Hypochlorites
     and chlorites dissolve; cyanides dissolve with group 1 and 2 cations and
     Hg(2+) and as alkali cyano complexes, otherwise not. Zn and Cd phosphides
-    and arsenides react slowly (PH3, AsH3).
+    and arsenides react slowly (PH3, AsH3). Nitrites, permanganates,
+    dichromates, bromates, thiosulfates, selenates, thiocyanates and PF6- salts
+    mostly dissolve, iodates are slightly soluble, molybdates and tungstates
+    insoluble, each with its exceptions (:data:`_ANION_SOLUBILITY`; CRC
+    Handbook solubilities, from memory).
 12. ``insoluble solid``: covalent networks, semiconductors, intermetallics,
     alloys: insoluble.
 
@@ -201,8 +205,32 @@ HYDROPHOBIC_ANIONS = frozenset({"[NTf2](-)", "PF6(-)", "[BETI](-)", "[FAP](-)", 
 LONG_CATION_CARBONS = 16
 _ALWAYS_SOLUBLE_ANIONS = frozenset({
     "NO3(-)", "CH3COO(-)", "ClO4(-)", "ClO3(-)", "[NTf2](-)", "BF4(-)", "HCO3(-)", "HSO4(-)", "H2PO4(-)", "HCOO(-)",
-    "[OTf](-)", "[FSI](-)", "ClO(-)", "ClO2(-)",
+    "[OTf](-)", "[FSI](-)", "ClO(-)", "ClO2(-)", "PF6(-)",
 })
+# further anions by the solubility tables (CRC Handbook of Chemistry and Physics, physical constants of inorganic
+# compounds, aqueous solubilities; from memory): the usual behaviour of their salts, then the exceptions by cation.
+# Group 1 and ammonium salts dissolve before this table is read.
+_ANION_SOLUBILITY: dict[str, tuple[str, dict[str, str]]] = {
+    # nitrites, permanganates, dichromates dissolve (AgNO2 about 4 g/L, Ag2Cr2O7 far less)
+    "NO2(-)": ("dissolves", {"Ag(+)": "slightly_soluble"}),
+    "MnO4(-)": ("dissolves", {}),
+    "Cr2O7(2-)": ("dissolves", {"Ag(+)": "insoluble"}),
+    # bromates dissolve, Ag and Ba bromates slightly; iodates are sparingly soluble, Ag, Pb, Hg iodates insoluble
+    "BrO3(-)": ("dissolves", {"Ag(+)": "slightly_soluble", "Ba(2+)": "slightly_soluble"}),
+    "IO3(-)": ("slightly_soluble", {"Ag(+)": "insoluble", "Pb(2+)": "insoluble", "Hg(2+)": "insoluble",
+                                    "Hg2(2+)": "insoluble"}),
+    # thiosulfates dissolve, Ba and Ag slightly, Pb not
+    "S2O3(2-)": ("dissolves", {"Ba(2+)": "slightly_soluble", "Ag(+)": "slightly_soluble", "Pb(2+)": "insoluble"}),
+    # selenates as sulfates
+    "SeO4(2-)": ("dissolves", {"Ba(2+)": "insoluble", "Pb(2+)": "insoluble", "Sr(2+)": "slightly_soluble",
+                               "Ag(+)": "slightly_soluble"}),
+    # molybdates and tungstates: only group 1, ammonium and Mg salts dissolve (CaWO4, PbMoO4 are minerals)
+    "MoO4(2-)": ("insoluble", {"Mg(2+)": "dissolves"}),
+    "WO4(2-)": ("insoluble", {"Mg(2+)": "dissolves"}),
+    # thiocyanates dissolve except those of Ag, Cu(I), Hg(I); Pb and Hg(II) slightly
+    "SCN(-)": ("dissolves", {"Ag(+)": "insoluble", "Cu(+)": "insoluble", "Hg2(2+)": "insoluble",
+                             "Pb(2+)": "slightly_soluble", "Hg(2+)": "slightly_soluble"}),
+}
 _HALIDES = frozenset({"Cl(-)", "Br(-)", "I(-)"})
 _HALIDE_INSOLUBLE = frozenset({"Ag(+)", "Hg2(2+)", "Cu(+)"})
 _HALIDE_SLIGHT = frozenset({"Pb(2+)", "Tl(+)"})
@@ -537,6 +565,10 @@ def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
         if cation in _SULFATE_SLIGHT:
             return "slightly_soluble", None, f"sulfate of {cation} is slightly soluble"
         return "dissolves", None, "sulfates dissolve"
+    if anion in _ANION_SOLUBILITY:
+        usual, exceptions = _ANION_SOLUBILITY[anion]
+        behaviour = exceptions.get(cation, usual)
+        return behaviour, None, f"{anion} salts of {cation}: {behaviour.replace('_', ' ')} (solubility tables)"
     if anion == "CN(-)":
         # cyanides: those of group 2 and mercury(II) dissolve, the others (AgCN, CuCN, Zn(CN)2, Ni(CN)2) do not
         # (CRC Handbook, physical constants of inorganic compounds; from memory)

@@ -183,6 +183,15 @@ CASES = [
     ("AgCN", "insoluble", None, "none", "CRC (from memory)"),
     ("Na4Co(CN)6", "dissolves", "basic", "none", "an alkali cyano complex (common practice)"),
     ("Zn3P2", "reacts", None, "PH3", "Greenwood & Earnshaw ch. 12.3: slow hydrolysis, fast with acid (from memory)"),
+    # anions beyond the textbook guidelines, by the CRC solubility tables (from memory)
+    ("AgNO2", "slightly_soluble", "basic", "none", "CRC: about 4 g/L (from memory); HNO2 pKa 3.3"),
+    ("Ag2Cr2O7", "insoluble", None, "none", "CRC (from memory)"),
+    ("Ca(IO3)2", "slightly_soluble", "neutral", "none", "CRC: about 2.4 g/L (from memory)"),
+    ("BaSeO4", "insoluble", None, "none", "CRC (from memory); as BaSO4"),
+    ("CaWO4", "insoluble", None, "none", "CRC (from memory): scheelite"),
+    ("MgMoO4", "dissolves", "neutral", "none", "CRC (from memory)"),
+    ("AgSCN", "insoluble", None, "none", "CRC (from memory)"),
+    ("Zn(MnO4)2", "dissolves", "acidic", "none", f"CRC (from memory); Zn2+ pKa 9.0, {BM}"),
 ]
 
 
