@@ -2,6 +2,7 @@
 from __future__ import annotations
 
 import math
+import re
 
 from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.audit_rows import audited_row
@@ -327,8 +328,24 @@ def _plain_row(text: str) -> tuple:
         if comp is None:
             comp = _without_grade_words(text)
             if comp is None:
-                return _error_row(str(exc))
+                return _error_row(_unread_text_message(text, exc))
     return _parsed_row(comp)
+
+
+# letters, spaces and the punctuation of names only, starting with a lower-case word or holding a space between
+# words: "acetone", "sodium dodecyl sulfate", "Bleach solution" (not "NaCI" or "K4[Fe(CN)6")
+_NAME_LIKE = re.compile(r"(?=.*[a-z]{3})(?:[a-z][A-Za-z0-9(),'-]*|[A-Za-z][A-Za-z0-9(),'-]*(?:\s+[A-Za-z0-9(),'-]+)+)")
+
+
+def _unread_text_message(text: str, exc: FormulaError) -> str:
+    """The error of a cell that is neither a formula nor a name the reader knows: a word-like text says that
+    names are read too and which, then what the formula grammar found."""
+    stripped = " ".join(text.split())
+    if _NAME_LIKE.fullmatch(stripped):
+        return (f"{stripped!r} is neither a formula nor a name the name reader knows (it reads inorganic salts,"
+                f" acids, bases and ionic liquids by systematic, Stock and trivial names, e.g. 'copper(II) sulfate"
+                f" pentahydrate'); write the formula instead (as a formula: {exc})")
+    return str(exc)
 
 
 def _without_grade_words(text: str):

@@ -278,3 +278,20 @@ def test_name_columns_in_a_scored_file_and_none_without_a_name_column(tmp_path):
     score_file(str(source), str(plain), workers=1, quiet=True)
     names = pq.read_table(plain).schema.names
     assert "name_formula" not in names and "name_check" not in names and "systematic_name" in names
+
+
+@pytest.mark.parametrize("text", ["acetone", "sodium dodecyl sulfate", "Bleach solution"])
+def test_an_unknown_name_says_names_are_read_and_to_write_the_formula(text):
+    # organic and trade names the name reader does not hold: the row says what happened, not only
+    # "unexpected 'a'" (common practice)
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] == "error"
+    assert "neither a formula nor a name the name reader knows" in row["message"]
+    assert "write the formula" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["K4[Fe(CN)6", "Xx2"])
+def test_a_broken_formula_keeps_the_grammar_message(text):
+    from ionicity.scorer.record import score_formula
+    assert "name reader" not in score_formula(text)["message"]
