@@ -11,6 +11,7 @@ from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element, is_element_symbol
 from ionicity.scorer.grammar import FormulaError, hill_order, parse_element_groups
 from ionicity.scorer.model import Ion, format_charge
+from ionicity.scorer.onium_codes import onium_from_code
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -115,6 +116,9 @@ def get_ion(ion_id: str) -> Ion:
         if digits.isdigit():
             if is_element_symbol(label):
                 return monatomic_ion(label, int(digits) * (1 if charge_text[-1] == "+" else -1))
+    built = onium_from_code(label) if label.startswith("[") else None
+    if built is not None and built.ion_id == ion_id:
+        return built
     raise KeyError(f"unknown ion {ion_id!r}; ids look like 'SO4(2-)', 'Fe(3+)' or '[C4mim](+)'")
 
 
@@ -157,6 +161,9 @@ def find_alias(text: str, exact_case: bool = False) -> Ion | None:
     ion = exact.get(text)
     if ion is None and not exact_case:
         ion = folded.get(text.strip("[]").casefold())
+    if ion is None:
+        # an onium code the library does not list, built by rule ([C16mim], [P4441]; scorer.onium_codes)
+        ion = onium_from_code(text)
     return ion
 
 

@@ -103,7 +103,7 @@ def ordinary_formula(text: str) -> ParsedFormula | None:
     solution or slip reading would change; ``None`` otherwise (the text then
     takes the full path of :func:`scorer.record.score_row`).
 
-    A bracketed ion the library does not know (``[N2224]``), a blend name
+    A bracketed ion the library does not know (``[N222]``), a blend name
     (``FLiNaK``) and a text that does not parse are not ordinary.
     """
     if not _ORDINARY.match(text):

@@ -4,7 +4,8 @@ People typing an inventory make the same few slips: the digit ``0`` for the
 letter O (``KN03``, ``Fe203``), ``1``, ``I`` and ``l`` swapped (``NaCI``,
 ``CaC12``, ``Kl``), the wrong case (``CUSO4``, ``nacl``), or an ionic-liquid
 abbreviation the ion library does not know pasted in brackets
-(``[N2224][TFSI]``, which the grammar would read as nitrogen times 2224).
+(``[N222][TFSI]``, which the grammar would read as nitrogen times 222; codes that follow the alkyl-chain
+notation, such as ``[P4441]`` or ``[C16mim]``, are built by :mod:`scorer.onium_codes`).
 Many of these still parse, as another compound (``KN03`` is KN3, potassium
 azide), so a slip is found by *plausibility*, not by the grammar alone:
 
@@ -129,6 +130,9 @@ _BRACKETED = re.compile(r"\[([^\[\]]+)\]")
 # a single element letter with three or more digits: the numeric code of a
 # quaternary ammonium or phosphonium ion (N2224, P66614), not a count
 _ION_CODE = re.compile(r"[A-Z]\d{3,}[A-Za-z0-9]*")
+# four or more capitals in brackets and nothing else (DBUH, TMGH): an abbreviation, not a chain of one-letter
+# element symbols (D, B, U, H would read as deuterium, boron, uranium and hydrogen)
+_CAPITAL_CODE = re.compile(r"[A-Z]{4,}")
 
 
 @dataclass(frozen=True)
@@ -547,7 +551,7 @@ def unknown_abbreviation(text: str) -> Slip | None:
         content = m.group(1)
         if ion_library.find_alias(content) is not None:
             continue
-        if _ION_CODE.fullmatch(content) or not _reads_as_elements(content):
+        if _ION_CODE.fullmatch(content) or _CAPITAL_CODE.fullmatch(content) or not _reads_as_elements(content):
             return Slip(
                 "unknown_abbreviation", "",
                 f"{m.group()!r} in {text!r}: {SLIP_KINDS['unknown_abbreviation']} (scorer/data/ions.csv),"

@@ -106,8 +106,8 @@ def test_valid_formulas_are_not_flagged(text):
     assert slip_kind_of(record["message"]) is None
 
 
-@pytest.mark.parametrize("text,bracket", [("[N2224][TFSI]", "[N2224]"), ("[P44412]Br", "[P44412]"),
-                                          ("[C4mpyrr][NTf2]", "[C4mpyrr]")])
+@pytest.mark.parametrize("text,bracket", [("[N222][TFSI]", "[N222]"), ("[P4444444]Br", "[P4444444]"),
+                                          ("[C4mpyrx][NTf2]", "[C4mpyrx]"), ("[DBUH][OAc]", "[DBUH]")])
 def test_an_unknown_bracketed_abbreviation_is_an_error_that_says_so(text, bracket):
     record = score_formula(text)
     assert record["status"] == "error"

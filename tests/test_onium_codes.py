@@ -1,0 +1,71 @@
+"""Onium cations built by rule from their codes (scorer/onium_codes.py).
+
+Checks: (1) every library cation of the four ring families and of the quaternary families whose label is
+such a code has the composition the rule gives (the library rows carry their own sources); (2) salts named
+in the registry's PubChem table (``chemicals``) with the composition the rule gives for their code:
+1-dodecylpyridinium chloride C17H30ClN and 1-hexadecylpyridinium bromide C21H38BrN; (3) codes the library
+does not list now read, and codes no rule covers stay errors.
+"""
+from __future__ import annotations
+
+import os
+
+import pytest
+
+from ionicity.scorer import ion_library
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.onium_codes import onium_from_code
+from ionicity.scorer.record import score_formula
+
+
+def _library_codes():
+    for ion in ion_library.ion_library():
+        code = ion.label.strip("[]")
+        built = onium_from_code(code)
+        if ion.organic and built is not None:
+            yield ion, built
+
+
+def test_the_rule_agrees_with_every_library_cation_it_covers():
+    pairs = list(_library_codes())
+    assert len(pairs) >= 25  # the imidazolium, pyridinium, pyrrolidinium and quaternary rows
+    for ion, built in pairs:
+        assert dict(built.composition) == dict(ion.composition), ion.ion_id
+        assert built.family == ion.family, ion.ion_id
+
+
+@pytest.mark.parametrize("text, registry_formula, name", [
+    ("[C12py]Cl", "C17H30ClN", "1-dodecylpyridin-1-ium;chloride"),
+    ("[C16py]Br", "C21H38BrN", "1-hexadecylpyridin-1-ium;bromide"),
+])
+def test_built_cations_match_registry_salts(text, registry_formula, name):
+    chemicals = pytest.importorskip("chemicals")
+    path = os.path.join(os.path.dirname(chemicals.__file__), "Identifiers", "chemical identifiers pubchem large.tsv")
+    with open(path, encoding="utf-8") as handle:
+        rows = [line.split("\t") for line in handle if f"\t{name}\t" in line]
+    assert rows and rows[0][2] == registry_formula  # the registry's own formula of that name
+    assert dict(parse_formula(text).counts) == dict(parse_formula(registry_formula).counts)
+
+
+@pytest.mark.parametrize("text, cation", [
+    ("[P4441][NTf2]", "[P1444](+)*1"),   # tributyl(methyl)phosphonium, chains sorted
+    ("[C16mim]Cl", "[C16mim](+)*1"),
+    ("[C4mpip][NTf2]", "[C4mpip](+)*1"),
+    ("[N11116]Br", "[N11116](+)*1"),     # cetyltrimethylammonium bromide
+    ("[C3mpyr][FSI]", "[C3mpyr](+)*1"),
+])
+def test_codes_the_library_does_not_list_read_as_salts(text, cation):
+    row = score_formula(text)
+    assert row["status"] == "ok", row["message"]
+    assert row["substance_class"] == "ionic_liquid_pair" and row["cations"] == cation
+
+
+@pytest.mark.parametrize("code", ["C21mim", "C0mim", "N222", "N1110", "P444444", "C4mpyrx", "DBUH"])
+def test_codes_outside_the_rules_are_not_built(code):
+    assert onium_from_code(code) is None
+
+
+def test_a_built_cation_is_found_again_by_its_id():
+    ion = onium_from_code("C14mim")
+    assert ion_library.get_ion(ion.ion_id) == ion
+    assert "built by rule" in ion.source
