@@ -527,8 +527,35 @@ _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
 _ANNOTATION = re.compile(r"\s*\((?=[^)]*[a-z])[a-z .,%0-9-]+\)\s*$")
 
 
+# "EMIM-BF4", "BMIM - PF6": an ionic liquid's two codes joined by a hyphen or a dash, as catalogues write them
+_HYPHENATED_PAIR = re.compile(r"\s*([A-Za-z][A-Za-z0-9]*)\s*[-–]\s*([A-Za-z][A-Za-z0-9]*)\s*")
+
+
+def ionic_liquid_pair_text(text: str) -> str | None:
+    """``EMIM-BF4`` -> ``[EMIM][BF4]`` when the first code is an organic cation of the library (or one built by
+    rule) and the second an anion; None for any other text (``LiCl-KCl`` is a mixture).
+
+    >>> ionic_liquid_pair_text("EMIM-BF4"), ionic_liquid_pair_text("BMIM-Cl"), ionic_liquid_pair_text("LiCl-KCl")
+    ('[EMIM][BF4]', '[BMIM]Cl', None)
+    """
+    m = _HYPHENATED_PAIR.fullmatch(text) if isinstance(text, str) else None
+    if m is None:
+        return None
+    first, second = (ion_library.find_alias(g) for g in m.groups())
+    if first is None or first.charge <= 0 or not first.organic:
+        return None
+    if second is None and m.group(2) in ("F", "Cl", "Br", "I"):
+        return f"[{m.group(1)}]{m.group(2)}"  # a halide written as its symbol ("BMIM-Cl")
+    if second is None or second.charge >= 0:
+        return None
+    return f"[{m.group(1)}][{m.group(2)}]"
+
+
 def _shorthand_with_spaces(text: str) -> str:
-    """``bmim BF4`` -> ``[bmim][BF4]`` when both words are ions of the library."""
+    """``bmim BF4`` -> ``[bmim][BF4]`` when both words are ions of the library; ``EMIM-BF4`` likewise."""
+    pair = ionic_liquid_pair_text(text)
+    if pair is not None:
+        return pair
     words = text.split()
     if len(words) != 2 or any(ch in text for ch in "[]"):
         return text

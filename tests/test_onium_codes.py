@@ -69,3 +69,18 @@ def test_a_built_cation_is_found_again_by_its_id():
     ion = onium_from_code("C14mim")
     assert ion_library.get_ion(ion.ion_id) == ion
     assert "built by rule" in ion.source
+
+
+@pytest.mark.parametrize("text, normalized", [
+    # an ionic liquid's codes joined by a hyphen, as catalogues write them (common practice)
+    ("EMIM-BF4", "[C2mim][BF4]"),
+    ("BMIM - Cl", "[C4mim]Cl"),
+    ("C4mpyr-NTf2", "[C4mpyr][NTf2]"),
+])
+def test_hyphenated_ionic_liquid_codes_are_one_salt(text, normalized):
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["formula_normalized"] == normalized
+
+
+def test_hyphenated_salts_are_still_mixtures():
+    assert score_formula("LiCl-KCl")["substance_class"] == "mixture"
