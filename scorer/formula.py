@@ -363,6 +363,10 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
+    reagent = quaternary_reagent_code(text_to_parse)
+    if reagent is not None:
+        notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
+        text_to_parse = reagent
     text_to_parse = _shorthand_with_spaces(text_to_parse)
     cleaned = _normalise_text(text_to_parse)
     cleaned, abbreviations = expand_abbreviations(cleaned)
@@ -525,6 +529,32 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
 _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
 # "(s)", "(aq)", "(anhydr.)", "(tech. grade)": lowercase notes after the formula
 _ANNOTATION = re.compile(r"\s*\((?=[^)]*[a-z])[a-z .,%0-9-]+\)\s*$")
+
+
+# quaternary ammonium reagents as catalogues and lab notebooks abbreviate them: tetrabutylammonium bromide
+# TBAB, TBAF, TBAHS, TBAPF6, tetraethylammonium tetrafluoroborate TEABF4, tetramethylammonium hydroxide TMAH,
+# cetyltrimethylammonium bromide CTAB (common practice); one letter after the cation code is the halide or
+# hydroxide (B, C, F, I, H); P is left out (perchlorate or hexafluorophosphate, as the writer meant)
+_QUATERNARY_REAGENT = re.compile(r"\s*(TMA|TEA|TPA|TBA|THA|TOA|CTA)(PF6|BF4|ClO4|HSO4|HS|OH|NO3|OAc|Br|Cl|B|C|F|I|H)\s*")
+_REAGENT_CATIONS = {"TMA": "[N1111]", "TEA": "[N2222]", "TPA": "[N3333]", "TBA": "[N4444]", "THA": "[N6666]",
+                    "TOA": "[N8888]", "CTA": "[N11116]"}
+_REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": "(OH)", "HS": "[HSO4]",
+                   "HSO4": "[HSO4]", "PF6": "[PF6]", "BF4": "[BF4]", "ClO4": "[ClO4]", "NO3": "[NO3]", "OAc": "[OAc]",
+                   "Br": "Br", "Cl": "Cl"}
+
+
+def quaternary_reagent_code(text: str) -> str | None:
+    """``TBAB`` -> ``[N4444]Br``: a quaternary ammonium reagent's code as a formula; None for any other text.
+
+    >>> quaternary_reagent_code("TBAB"), quaternary_reagent_code("TEABF4"), quaternary_reagent_code("TMAH")
+    ('[N4444]Br', '[N2222][BF4]', '[N1111](OH)')
+    >>> quaternary_reagent_code("TBA") is None, quaternary_reagent_code("NaCl") is None
+    (True, True)
+    """
+    m = _QUATERNARY_REAGENT.fullmatch(text) if isinstance(text, str) else None
+    if m is None:
+        return None
+    return _REAGENT_CATIONS[m.group(1)] + _REAGENT_ANIONS[m.group(2)]
 
 
 # "EMIM-BF4", "BMIM - PF6": an ionic liquid's two codes joined by a hyphen or a dash, as catalogues write them

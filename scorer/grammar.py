@@ -266,7 +266,9 @@ class ElementParser:
     def abbreviation_tail(self) -> bool:
         """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""
         ion = self.ions.find_abbreviation(self.text[self.pos:])
-        if ion is None:
+        if ion is None or ion.charge > 0:
+            # only an anion ends a formula so (LiNTf2); a cation's code after a symbol is no salt: "TEA" is
+            # not tritium with ethylammonium
             return False
         self.ion_refs.append((ion.ion_id, 1.0))
         self.pos = len(self.text)

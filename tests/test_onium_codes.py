@@ -84,3 +84,24 @@ def test_hyphenated_ionic_liquid_codes_are_one_salt(text, normalized):
 
 def test_hyphenated_salts_are_still_mixtures():
     assert score_formula("LiCl-KCl")["substance_class"] == "mixture"
+
+
+@pytest.mark.parametrize("text, normalized", [
+    # quaternary ammonium reagents by their catalogue codes (common practice): tetrabutylammonium bromide,
+    # tetraethylammonium tetrafluoroborate, tetramethylammonium hydroxide, cetyltrimethylammonium bromide
+    ("TBAB", "[N4444]Br"),
+    ("TEABF4", "[N2222][BF4]"),
+    ("TMAH", "[N1111][OH]"),
+    ("CTAB", "[N11116]Br"),
+    ("TBAHS", "[N4444][HSO4]"),
+])
+def test_quaternary_reagent_codes(text, normalized):
+    row = score_formula(text)
+    assert row["formula_normalized"] == normalized
+    assert "read the reagent code" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["TEA", "DEA"])
+def test_amine_codes_are_not_tritium_or_deuterium_with_ethylammonium(text):
+    # TEA was read as T (tritium) and EA (ethylammonium), "ethylammonium tritide"
+    assert score_formula(text)["status"] == "error"
