@@ -363,7 +363,7 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
-    reagent = quaternary_reagent_code(text_to_parse)
+    reagent = quaternary_reagent_code(text_to_parse) if _QUATERNARY_REAGENT.fullmatch(text_to_parse) else None
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
         text_to_parse = reagent
@@ -583,7 +583,7 @@ def ionic_liquid_pair_text(text: str) -> str | None:
 
 def _shorthand_with_spaces(text: str) -> str:
     """``bmim BF4`` -> ``[bmim][BF4]`` when both words are ions of the library; ``EMIM-BF4`` likewise."""
-    pair = ionic_liquid_pair_text(text)
+    pair = ionic_liquid_pair_text(text) if _HYPHENATED_PAIR.fullmatch(text) else None
     if pair is not None:
         return pair
     words = text.split()

@@ -328,13 +328,16 @@ def _plain_row(text: str) -> tuple:
         if comp is None:
             comp = _without_grade_words(text)
             if comp is None:
-                return _error_row(_unread_text_message(text, exc))
+                return _error_row(_unread_text_message(text, exc) if _LOWER_WORD.search(text) else str(exc))
     return _parsed_row(comp)
 
 
 # letters, spaces and the punctuation of names only, starting with a lower-case word or holding a space between
 # words: "acetone", "sodium dodecyl sulfate", "Bleach solution" (not "NaCI" or "K4[Fe(CN)6")
 _NAME_LIKE = re.compile(r"(?=.*[a-z]{3})(?:[a-z][A-Za-z0-9(),'-]*|[A-Za-z][A-Za-z0-9(),'-]*(?:\s+[A-Za-z0-9(),'-]+)+)")
+
+
+_LOWER_WORD = re.compile(r"[a-z]{3}")
 
 
 def _unread_text_message(text: str, exc: FormulaError) -> str:
