@@ -171,6 +171,9 @@ def _normalise_text(text: str) -> str:
         # no superscripts, subscripts, dots, dashes or compatibility forms
         return "".join(text.split())
     text = text.replace("½", "0.5").replace("¼", "0.25").replace("¾", "0.75")
+    # invisible format characters that copying from web pages and spreadsheets leaves (zero-width space,
+    # byte-order mark, soft hyphen, word joiner): no part of a formula
+    text = "".join(ch for ch in text if unicodedata.category(ch) != "Cf")
     out = []
     i = 0
     while i < len(text):

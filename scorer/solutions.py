@@ -173,7 +173,7 @@ _GRADE_WORD = (
     r"|beads?|lumps?|pieces?|chips?|shot|wire|foil|sticks?|rods?|ingots?|turnings|dust|fine|coarse|dried|fused"
     r"|precipitated|sublimed|resublimed|purified|recrystalli[sz]ed|distilled|redistilled|ACS|reagent|grade|technical|tech\.?|pure|puriss\.?|p\.\s?a\.|extra|ultrapure|analytical"
     r"|for\s+analysis|AR|LR|GR|USP|BP|EP|Ph\.?\s?Eur\.?|FCC|HPLC|min\.?|approx\.?|ca\.?"
-    r"|\d+(?:[.,]\d+)?\s*%"
+    r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
 )
 _GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)
 

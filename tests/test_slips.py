@@ -303,3 +303,16 @@ def test_leading_concentrations_are_solutions(text, solute, concentration):
 @pytest.mark.parametrize("text", ["2 NaCl", "3 MgO"])
 def test_a_count_before_a_formula_is_no_concentration(text):
     assert score_formula(text)["concentration_as_written"] is None
+
+
+@pytest.mark.parametrize("text", ["\u200bNaCl", "Na\u00adCl", "\ufeffNaCl", "NaCl\u2060"])
+def test_invisible_format_characters_are_dropped(text):
+    # zero-width space, soft hyphen, byte-order mark, word joiner: left by copying from web pages (common practice)
+    record = score_formula(text)
+    assert record["status"] == "ok" and record["formula_normalized"] == "NaCl"
+
+
+@pytest.mark.parametrize("text", ["NaCl ≥99%", "KCl >99.5%"])
+def test_purity_with_a_comparison_sign_is_a_grade(text):
+    record = score_formula(text)
+    assert record["status"] == "warning" and "ignored the grade or form words" in record["message"]
