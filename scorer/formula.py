@@ -164,6 +164,11 @@ class ParsedFormula:
 _FULMINATE = re.compile(r"CNO(?![a-z])")
 _ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
 
+# the invisible format characters (Unicode category Cf) that copied text carries: soft hyphen, zero-width
+# space to right-to-left mark, word joiner and invisible operators, byte-order mark
+_FORMAT_CHARACTERS = re.compile("[\u00ad\u200b-\u200f\u202a-\u202e\u2060-\u2064\ufeff]")
+
+
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
     text = _SPACED_WATER.sub("*", _SPACED_TIMES.sub("*", text))
@@ -173,7 +178,7 @@ def _normalise_text(text: str) -> str:
     text = text.replace("½", "0.5").replace("¼", "0.25").replace("¾", "0.75")
     # invisible format characters that copying from web pages and spreadsheets leaves (zero-width space,
     # byte-order mark, soft hyphen, word joiner): no part of a formula
-    text = "".join(ch for ch in text if unicodedata.category(ch) != "Cf")
+    text = _FORMAT_CHARACTERS.sub("", text)
     out = []
     i = 0
     while i < len(text):
