@@ -334,6 +334,17 @@ def _fractions(text: MixtureText, components, warnings: list, notes: list) -> tu
     names = tuple(c.name for c in components)
     if not text.amounts:
         published = _published(names)
+        if published is not None and text.eutectic:
+            notes.append(
+                "the eutectic: the composition of the published point of scorer/data/eutectics.csv"
+                f" ({'-'.join(f'{100 * x:.1f}' for x in published['fractions'])} mol%; {published['source']})"
+            )
+            return published["fractions"]
+        if text.eutectic:
+            raise MixtureNotationError(
+                f"no published eutectic of {'-'.join(names)} in scorer/data/eutectics.csv; give the proportions,"
+                " e.g. (50-50 mol%)"
+            )
         if published is not None:
             warnings.append(
                 "no proportions given: took the composition of the published liquidus point of scorer/data/eutectics.csv"

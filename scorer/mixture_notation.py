@@ -52,7 +52,7 @@ _LEADING_AMOUNT = re.compile(
 _DOTS = "·•∙⋅*"
 # an amount written after a component: "KNO3 53 / NaNO2 40 / NaNO3 7 wt%"
 _TRAILING_AMOUNT = re.compile(
-    rf"^(?P<name>.*?[A-Za-z0-9)\]])\s+(?P<amount>{_NUMBER})\s*\(?\s*"
+    rf"^(?P<name>.*?[A-Za-z0-9)\]])\s+\(?\s*(?P<amount>{_NUMBER})\s*\(?\s*"
     rf"(?P<unit>(?:(?P<basis>mol|wt|mass)\s*%|%\s*(?P<after>w/w|mol/mol)?))?\s*\)?\s*$",
     re.IGNORECASE,
 )
@@ -77,6 +77,7 @@ class MixtureText:
     amounts: tuple[float, ...] = ()
     basis: str = "mol"
     notes: tuple[str, ...] = ()
+    eutectic: bool = False  # the text asks for the eutectic ("LiF-NaF-KF eutectic")
 
 
 def blend_key(name: str) -> str:
@@ -217,6 +218,16 @@ def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...], st
     return names, tuple(a for a in amounts if a is not None) if given else (), basis, note
 
 
+# "eutectic LiF-NaF-KF", "LiCl-KCl eutectic mixture", "eutectic of NaNO3 and KNO3" is not matched (no joiner)
+_EUTECTIC_WORD = re.compile(r"^\s*eutectic\s+(?:of\s+)?|\s+eutectic(?:\s+(?:mixture|salt|melt))?\s*$", re.I)
+
+
+def _without_eutectic_word(text: str) -> tuple[str, bool]:
+    """The text without a leading or trailing word "eutectic", and whether it had one."""
+    stripped = _EUTECTIC_WORD.sub("", text)
+    return (stripped, True) if stripped != text and stripped.strip() else (text, False)
+
+
 def read_mixture_text(text: str) -> MixtureText | None:
     """Read mixture notation; None when ``text`` is not written as a mixture.
 
@@ -255,6 +266,7 @@ def read_mixture_text(text: str) -> MixtureText | None:
         return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
     if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
         return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
+    text, eutectic = _without_eutectic_word(text)
     body, amounts, basis = _proportions(text)
     notes: list[str] = []
     joined_by = ""
@@ -311,4 +323,4 @@ def read_mixture_text(text: str) -> MixtureText | None:
             f"{text!r} was read as a mixture of {' and '.join(names)} in the amounts written (also possible:"
             " one non-stoichiometric compound or solid solution); write 'A + B' for a mixture"
         )
-    return MixtureText(tuple(names), tuple(amounts), basis, tuple(notes))
+    return MixtureText(tuple(names), tuple(amounts), basis, tuple(notes), eutectic)

@@ -439,7 +439,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
         return None  # longer than any inventory line: read as written
     letters = _NOT_A_LETTER.sub("", stripped)
     all_caps = len(letters) > 1 and letters.isupper()
-    all_lower = letters.islower()
+    # a lower-case word of seven letters or more without a digit is a word ("eutectic", "acetone"), not a
+    # formula that lost its case: the shelf's lower-case formulas are short ("nacl", "naoh", "kscn") or counted
+    word = letters.islower() and len(letters) >= 7 and not any(ch.isdigit() for ch in stripped)
+    all_lower = letters.islower() and not word
     if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
@@ -517,7 +520,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # where the solver finds no ions: only text that does not parse, or is all
     # capitals or all lower case, is re-cased
     unreadable = _parsed(text) is None
-    if all_caps or all_lower or unreadable:
+    if (all_caps or all_lower or unreadable) and not word:
         # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
         radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
         consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),

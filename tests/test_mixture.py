@@ -321,3 +321,25 @@ def test_a_fraction_on_one_component_alone_is_still_refused():
     # 0.6 before one component and nothing before the other is no coefficient: ask for the rest
     r = score_formula("0.6 NaNO3 - KNO3")
     assert r["status"] == "error" and "amounts given for 1 of 2 components" in r["message"]
+
+
+def test_amounts_in_brackets_after_each_component():
+    # "NaNO3 (60 wt%) + KNO3 (40 wt%)" was read at equal moles, its amounts ignored as notes; solar salt is
+    # 60:40 by weight (blends.csv); molar masses from molmass
+    _, components, fractions = _mix("NaNO3 (60 wt%) + KNO3 (40 wt%)")
+    assert components == ["NaNO3", "KNO3"]
+    assert fractions == pytest.approx([0.6408, 0.3592], abs=1e-3)
+
+
+@pytest.mark.parametrize("text", ["eutectic LiF-NaF-KF", "LiF-NaF-KF eutectic"])
+def test_the_word_eutectic_takes_the_published_point(text):
+    # FLiNaK, 46.5-11.5-42 mol% (scorer/data/eutectics.csv, its source there)
+    r, components, fractions = _mix(text)
+    assert components == ["LiF", "NaF", "KF"]
+    assert fractions == pytest.approx([0.465, 0.115, 0.42], abs=1e-3)
+    assert r["status"] == "ok"
+
+
+def test_a_eutectic_without_a_published_point_asks_for_proportions():
+    r = score_formula("CsCl-RbCl eutectic")
+    assert r["status"] == "error" and "no published eutectic" in r["message"]
