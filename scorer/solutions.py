@@ -75,12 +75,20 @@ def split_in_solvent(text: str) -> Solution | None:
     ('LiTFSI', '0.5 mol/L')
     >>> split_in_solvent("NaCl in water").concentration, split_in_solvent("Sn in") is None
     ('', True)
+    >>> s = split_in_solvent("[C4mim][BF4] + 0.5 M LiBF4")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiBF4', '0.5 M', '[C4mim][BF4]')
     """
     if not isinstance(text, str) or len(text) > 200:
         return None
     m = _IN_SOLVENT.match(text.strip())
     if m is None:
-        return None
+        # "[C4mim][BF4] + 0.5 M LiBF4": a molar amount after "+" is a solute in what comes before it
+        plus = re.match(rf"^(?P<solvent>\S.*?)\s*\+\s*(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$", text.strip())
+        if plus is None:
+            return None
+        return Solution(plus.group("rest").strip(), _as_written(_MOLAR, _MOLAR.match(plus.group("c"))),
+                        plus.group("solvent").strip())
     left, solvent = m.group("left").strip(), m.group("solvent").strip()
     for pattern in (_MOLAR, _PERCENT):
         lead = re.match(rf"^(?P<c>{pattern.pattern})\s+(?P<rest>\S.*)$", left, pattern.flags)

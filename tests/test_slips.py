@@ -316,3 +316,12 @@ def test_invisible_format_characters_are_dropped(text):
 def test_purity_with_a_comparison_sign_is_a_grade(text):
     record = score_formula(text)
     assert record["status"] == "warning" and "ignored the grade or form words" in record["message"]
+
+
+def test_a_molar_amount_after_plus_is_a_solute_in_the_first_component():
+    # "[C4mim][BF4] + 0.5 M LiBF4": an electrolyte salt dissolved in an ionic liquid (common practice), as
+    # "0.5 M LiBF4 in [C4mim][BF4]" is read
+    record = score_formula("[C4mim][BF4] + 0.5 M LiBF4")
+    assert record["status"] == "ok" and record["formula_normalized"] == "LiBF4"
+    assert record["concentration_as_written"] == "0.5 M"
+    assert "in [C4mim][BF4]" in record["value_notes"]
