@@ -157,6 +157,10 @@ _FUMING_CENTRES = frozenset({
 })
 # fluorides that fume with water; SF6, SeF6 and the metal fluorides do not
 _FUMING_FLUORIDE_CENTRES = frozenset({"B", "Si", "P", "As", "Sb"})
+# sulfido anions of P, Si and Ge hydrolyse to their oxoanions and H2S (the moisture sensitivity of sulfide
+# solid electrolytes: Muramatsu et al., Solid State Ionics 182 (2011) 116; from memory); thiostannates,
+# thioantimonates and thioarsenates dissolve (Schlippe's salt, Na3SbS4.9H2O, is made in water)
+_HYDROLYSING_THIOANIONS = frozenset({"PS4(3-)", "P2S7(4-)", "P2S6(4-)", "SiS4(4-)", "GeS4(4-)"})
 _BINARY_HYDROLYSIS = {"C": None, "N": "NH3", "P": "PH3", "As": "AsH3", "Si": "SiH4", "H": "H2"}
 _ANHYDRIDES = {
     (("O", 10.0), ("P", 4.0)): ("reacts_violently", "H3PO4"), (("O", 5.0), ("P", 2.0)): ("reacts_violently", "H3PO4"),
@@ -308,6 +312,10 @@ def _binary(counts, dec) -> _Finding | None:
     if "BH4(-)" in anion_ids:
         return _finding("reacts", "basic", "H2", "binary water-reactive",
                         "a borohydride (BH4-): hydrolyses, giving H2 (slowly in cold alkaline water)")
+    if anion_ids & _HYDROLYSING_THIOANIONS:
+        return _finding("reacts", None, "H2S", "binary water-reactive",
+                        "a thiophosphate, thiosilicate or thiogermanate (Li3PS4, Li6PS5Cl, Li10GeP2S12): hydrolyses in"
+                        " water and moist air, giving H2S")
     if "NH2(-)" in anion_ids:
         return _finding("reacts_violently", "basic", "NH3", "binary water-reactive",
                         "an amide (NH2-): reacts violently, giving NH3 and the hydroxide")

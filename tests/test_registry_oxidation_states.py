@@ -192,3 +192,35 @@ def test_azides_and_fulminates_carry_the_heating_caution(text):
     notes = score_formula(text)["value_notes"]
     assert "explode on heating, shock or friction" in notes
     assert "safety data sheet" in notes
+
+
+@pytest.mark.parametrize("text, anions", [
+    # sulfide solid electrolytes: Li10GeP2S12 is Li(+) with GeS4(4-) and PS4(3-) tetrahedra (Kamaya et al.,
+    # Nat. Mater. 10 (2011) 682, from memory); Li7P3S11 holds P2S7(4-) and PS4(3-); argyrodite Li6PS5Cl
+    # PS4(3-), S(2-) and Cl(-) (Deiseroth et al., Angew. Chem. 47 (2008) 755, from memory). They were row
+    # errors, and Li6PS5Cl read as P(3-) with a pentasulfide.
+    ("Li10GeP2S12", "PS4(3-)*2;GeS4(4-)*1"),
+    ("Li7P3S11", "PS4(3-)*1;P2S7(4-)*1"),
+    ("Li6PS5Cl", "Cl(-)*1;S(2-)*1;PS4(3-)*1"),
+    ("Li3PS4", "PS4(3-)*1"),
+    ("Na3SbS4", "SbS4(3-)*1"),
+    # lithium bis(oxalato)borate and difluoro(oxalato)borate by their codes (Xu, Chem. Rev. 104 (2004) 4303)
+    ("LiBOB", "B(C2O4)2(-)*1"),
+    ("LiDFOB", "BF2(C2O4)(-)*1"),
+])
+def test_electrolyte_salts_read_with_their_anions(text, anions):
+    row = score_formula(text)
+    assert row["status"] == "ok", row["message"]
+    assert row["anions"] == anions
+
+
+@pytest.mark.parametrize("text, behaviour", [
+    # thiophosphates and thiogermanates give H2S with water and moist air (Muramatsu et al., Solid State Ionics
+    # 182 (2011) 116, from memory); Schlippe's salt dissolves (Greenwood & Earnshaw ch. 13.3, from memory)
+    ("Li3PS4", "reacts"), ("Li6PS5Cl", "reacts"), ("Li10GeP2S12", "reacts"), ("Na3SbS4", "dissolves"),
+])
+def test_sulfide_electrolytes_give_hydrogen_sulfide_with_water(text, behaviour):
+    row = score_formula(text)
+    assert row["water_behaviour"] == behaviour
+    if behaviour == "reacts":
+        assert row["water_reaction_products"] == "H2S"
