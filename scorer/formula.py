@@ -55,6 +55,7 @@ from ionicity.scorer.grammar import (
     parse_element_groups,
 )
 from ionicity.scorer.model import format_charge
+from ionicity.scorer.tables import table
 
 __all__ = [
     "ParsedFormula",
@@ -371,6 +372,12 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
+    solvent = (_SOLVENT_CODES or _solvent_codes()).get(text_to_parse.strip().upper()) \
+        if _SOLVENT_CODE.fullmatch(text_to_parse) else None
+    if solvent is not None:
+        formula, name = solvent
+        notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
+        text_to_parse = formula
     reagent = quaternary_reagent_code(text_to_parse) if _QUATERNARY_REAGENT.fullmatch(text_to_parse) else None
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
@@ -549,6 +556,22 @@ _REAGENT_CATIONS = {"TMA": "[N1111]", "TEA": "[N2222]", "TPA": "[N3333]", "TBA":
 _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": "(OH)", "HS": "[HSO4]",
                    "HSO4": "[HSO4]", "PF6": "[PF6]", "BF4": "[BF4]", "ClO4": "[ClO4]", "NO3": "[NO3]", "OAc": "[OAc]",
                    "Br": "Br", "Cl": "Cl"}
+
+
+# a whole cell that is a solvent's or reagent's laboratory code (THF, DMSO, EC, DMC: scorer/data/solvent_codes.csv);
+# THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
+_SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\s*")
+
+
+_SOLVENT_CODES: dict[str, tuple[str, str]] = {}
+
+
+def _solvent_codes() -> dict[str, tuple[str, str]]:
+    """Upper-cased code -> (formula, name) of ``solvent_codes.csv``, read once (the parser then reads the module
+    global, so an ordinary formula pays no call for the check)."""
+    if not _SOLVENT_CODES:
+        _SOLVENT_CODES.update({row["code"].upper(): (row["formula"], row["name"]) for row in table("solvent_codes.csv")})
+    return _SOLVENT_CODES
 
 
 def quaternary_reagent_code(text: str) -> str | None:

@@ -295,3 +295,20 @@ def test_an_unknown_name_says_names_are_read_and_to_write_the_formula(text):
 def test_a_broken_formula_keeps_the_grammar_message(text):
     from ionicity.scorer.record import score_formula
     assert "name reader" not in score_formula(text)["message"]
+
+
+@pytest.mark.parametrize("text, formula", [
+    # laboratory codes of solvents (common practice; the carbonates after Xu, Chem. Rev. 104 (2004) 4303):
+    # THF was read as tritium, hydrogen and fluorine, PC as phosphorus carbide, AcOEt as an actinium compound
+    ("THF", "C4H8O"), ("DMSO", "C2H6OS"), ("PC", "C4H6O3"), ("AcOEt", "C4H8O2"), ("dmf", "C3H7NO"),
+])
+def test_solvent_codes_read_as_their_molecules(text, formula):
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["formula_normalized"] == formula and row["substance_class"] == "covalent_molecular"
+    assert "read the solvent code" in row["message"]
+
+
+def test_a_compound_that_shares_a_code_stays_itself():
+    from ionicity.scorer.record import score_formula
+    assert score_formula("VC")["substance_class"] == "intermetallic"  # vanadium carbide, no solvent code

@@ -38,6 +38,7 @@ ROWS = {
     "element_melting_points.csv": 80,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
+    "solvent_codes.csv": 30,
     "trivial_names.csv": 109,
     "fusion.csv": 38,
     "blends.csv": 10,
