@@ -374,6 +374,8 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text
     solvent = (_SOLVENT_CODES or _solvent_codes()).get(text_to_parse.strip().upper()) \
         if _SOLVENT_CODE.fullmatch(text_to_parse) else None
+    if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
+        solvent = deuterated_solvent(text_to_parse)
     if solvent is not None:
         formula, name = solvent
         notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
@@ -572,6 +574,28 @@ def _solvent_codes() -> dict[str, tuple[str, str]]:
     if not _SOLVENT_CODES:
         _SOLVENT_CODES.update({row["code"].upper(): (row["formula"], row["name"]) for row in table("solvent_codes.csv")})
     return _SOLVENT_CODES
+
+
+# a deuterated solvent as NMR labs write it: "DMSO-d6", "THF-d8" (every hydrogen a deuterium)
+_DEUTERATED_CODE = re.compile(r"\s*([A-Za-z]{2,6})-d(\d{1,2})\s*")
+
+
+def deuterated_solvent(text: str) -> tuple[str, str] | None:
+    """(formula, name) of a solvent code with every hydrogen written as deuterium: ``DMSO-d6`` ->
+    ``C2D6OS``; None where the code is unknown or the count is not the molecule's hydrogen count.
+
+    >>> deuterated_solvent("DMSO-d6"), deuterated_solvent("DMSO-d5")
+    (('C2D6OS', 'dimethyl sulfoxide, fully deuterated'), None)
+    """
+    m = _DEUTERATED_CODE.fullmatch(text) if isinstance(text, str) else None
+    entry = (_SOLVENT_CODES or _solvent_codes()).get(m.group(1).upper()) if m else None
+    if entry is None:
+        return None
+    formula, name = entry
+    hydrogens = re.search(r"H(\d*)(?![a-z])", formula)
+    if hydrogens is None or int(hydrogens.group(1) or 1) != int(m.group(2)):
+        return None
+    return formula[:hydrogens.start()] + "D" + formula[hydrogens.start() + 1:], f"{name}, fully deuterated"
 
 
 def quaternary_reagent_code(text: str) -> str | None:

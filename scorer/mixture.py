@@ -40,7 +40,7 @@ from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_la
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
-from ionicity.scorer.formula import _HYPHENATED_PAIR, ionic_liquid_pair_text
+from ionicity.scorer.formula import _DEUTERATED_CODE, _HYPHENATED_PAIR, deuterated_solvent, ionic_liquid_pair_text
 from ionicity.scorer.name_reader import parse_as_name
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
@@ -545,6 +545,8 @@ def mixture_row(text: str, score_row) -> tuple | None:
     once per distinct text (that function's cache). A mixture that cannot be
     read gives an error row saying why; the row is never dropped.
     """
+    if _DEUTERATED_CODE.fullmatch(text) and deuterated_solvent(text) is not None:
+        return None  # a deuterated solvent ("DMSO-d6"), not a mixture
     if _HYPHENATED_PAIR.fullmatch(text) and ionic_liquid_pair_text(text) is not None:
         return None  # an ionic liquid's codes joined by a hyphen ("EMIM-BF4"), not a mixture
     found = read_mixture(text, score_row)

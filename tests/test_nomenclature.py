@@ -312,3 +312,16 @@ def test_solvent_codes_read_as_their_molecules(text, formula):
 def test_a_compound_that_shares_a_code_stays_itself():
     from ionicity.scorer.record import score_formula
     assert score_formula("VC")["substance_class"] == "intermetallic"  # vanadium carbide, no solvent code
+
+
+@pytest.mark.parametrize("text, formula", [
+    # NMR solvents: the code with every hydrogen deuterated (common practice); molar mass from periodictable's D
+    ("DMSO-d6", "C2D6OS"), ("THF-d8", "C4D8O"), ("DCM-d2", "CD2Cl2"),
+])
+def test_deuterated_solvent_codes(text, formula):
+    import periodictable
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["formula_normalized"] == formula
+    expected = periodictable.formula(formula.replace("D", "D")).mass
+    assert row["molar_mass_g_mol"] == pytest.approx(expected, rel=1e-4)
