@@ -81,3 +81,13 @@ def test_flagged_targets_reads_the_fixture_and_the_decisions():
     flagged = mr.flagged_targets([{"formula_normalized": "XyZ", "decision": "single: A=300.0; target flagged: x"}])
     assert {"Na2SO4", "XyZ"} <= flagged
     assert "NaCl" not in flagged
+
+
+def test_labels_read_compounds_without_ions_by_their_formal_reading():
+    # TiN (an interstitial nitride, no ions kept) is a calibration salt of the index by its formal reading
+    # Ti(3+) N(3-); the residual report crashed on it (common practice: the index's own reading)
+    from ionicity.pipelines.melting_residuals import _formal, _labels
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.ions import decompose
+    dec = _formal(decompose(parse_formula("TiN")))
+    assert dec.cations and _labels(dec, "nitride")["cation charge"] == "3+"
