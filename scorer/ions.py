@@ -277,6 +277,15 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if comp.structure_hint == "fulminate":
         # the text writes C-N-O: the fulminate the library ranks after cyanate (one composition)
         anions = [IonTerm(get_ion("CNO(-)"), t.count) if t.ion.ion_id == "OCN(-)" else t for t in anions]
+    ammine = _ammine_ligands(cations, anions)
+    if ammine and sum(counts.values()) > 4 * ammine:
+        # NH4(+) beside NH2(-), NH(2-) or N(3-) is NH3 (they neutralise each other): the ammine ligands of a
+        # complex written flat, Pt(NH3)2Cl2 (cisplatin) or Cu(NH3)4SO4, read as ammonium with amide or nitride,
+        # salts that react violently with water. Read again with that NH3 set apart as neutral parts, as in
+        # PtCl2·2NH3 (common practice).
+        adducts = dict(comp.neutral_adducts)
+        adducts["NH3"] = adducts.get("NH3", 0.0) + ammine
+        return _read(counts_key, charge, ion_hints, tuple(sorted(adducts.items())), structure_hint, budget)
 
     reasons: tuple[str, ...] = ()
     conflicts = redox_conflicts(cations, anions)
@@ -353,6 +362,25 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=
 
 # NH4(+) with these anions is the isomer of urea, thiourea, selenourea (Woehler 1828)
 _WOEHLER_ANIONS = frozenset({"OCN(-)", "CNO(-)", "SCN(-)", "SeCN(-)"})
+
+
+# a basic nitrogen anion and the ammonium ions that neutralise it: NH2(-) + NH4(+) = 2 NH3, N(3-) + 3 NH4(+) = 4 NH3
+_AMMONIUM_BASES = {"NH2(-)": 1, "NH(2-)": 2, "N(3-)": 3}
+
+
+def _ammine_ligands(cations, anions) -> float:
+    """How many NH3 a reading's ammonium ions make with its amide, imide or nitride anions (0 for none)."""
+    ammonium = sum(t.count for t in cations if t.ion.ion_id == "NH4(+)")
+    if not ammonium:
+        return 0.0
+    total = 0.0
+    for term in anions:
+        need = _AMMONIUM_BASES.get(term.ion.ion_id)
+        if need:
+            used = min(term.count, ammonium / need)
+            ammonium -= used * need
+            total += used * (need + 1)
+    return total
 
 
 def _woehler_isomer(readings) -> bool:

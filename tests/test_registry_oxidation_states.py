@@ -224,3 +224,17 @@ def test_sulfide_electrolytes_give_hydrogen_sulfide_with_water(text, behaviour):
     assert row["water_behaviour"] == behaviour
     if behaviour == "reacts":
         assert row["water_reaction_products"] == "H2S"
+
+
+@pytest.mark.parametrize("text, cations, anions", [
+    # ammine ligands written flat: cisplatin Pt(NH3)2Cl2 read as Pt(2+), NH4(+), NH2(-) and two Cl(-), "reacting
+    # violently with water" like sodium amide; NH4(+) and NH2(-) neutralise to NH3 (common practice), so the NH3
+    # is a neutral part and the salt is PtCl2 (registry name "cis-diamminedichloroplatinum(II)", Pt(II))
+    ("Pt(NH3)2Cl2", "Pt(2+)*1", "Cl(-)*2"),
+    ("Cu(NH3)4SO4", "Cu(2+)*1", "SO4(2-)*1"),  # was ammonium with nitride
+    ("Co(NH3)6Cl3", "Co(NH3)6(3+)*1", "Cl(-)*3"),  # a library complex stays itself
+])
+def test_ammine_ligands_are_not_ammonium_with_amide(text, cations, anions):
+    row = score_formula(text)
+    assert (row["cations"], row["anions"]) == (cations, anions)
+    assert row["water_behaviour"] != "reacts_violently"
