@@ -14,7 +14,9 @@ from ionicity.scorer.name_check import COLUMNS as NAME_COLUMNS
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.note_codes import notes_table
-from ionicity.scorer.record import score_parsed
+from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.record import score_formula, score_parsed
+from ionicity.scorer.solutions import split_in_solvent, split_solution
 
 __all__ = ["explain_formula", "columns_table"]
 
@@ -27,6 +29,12 @@ def _value_text(value) -> str:
     return str(value) if value != "" else "-"
 
 
+def _solute(text: str) -> str | None:
+    """The solute of a text written as a solution ("HCl 37%", "0.1 M NaCl", "1 M LiPF6 in EC/DMC"), or None."""
+    solution = split_in_solvent(text) or split_solution(text)
+    return None if solution is None else solution.solute
+
+
 def explain_formula(text: str) -> str:
     """Every score of one compound with the method and the inputs behind it."""
     mixture = explain_mixture(text, explain_formula)
@@ -34,15 +42,22 @@ def explain_formula(text: str) -> str:
         return mixture
     shown = text if len(text) <= 80 else f"{text[:80]}... ({len(text)} characters)"
     lines = [f"formula: {shown}"]
+    # the row as `ionicity score` writes it: a typing slip, a solution's solute or a name decides what is scored
+    row = score_formula(text)
+    scored = row["formula_suggested"] or _solute(text) or text
+    if scored != text:
+        lines.append(f"read as: {scored}")
     try:
-        comp = parse_formula(text)
+        comp = parse_formula(scored)
     except FormulaError as exc:
-        return "\n".join(lines + ["status: error", f"message: {exc}"])
+        comp = parse_as_name(scored)
+        if comp is None:
+            return "\n".join(lines + ["status: error", f"message: {row['message'] or exc}"])
     dec = decompose(comp)
     record = score_parsed(comp)
-    lines.append(f"status: {record['status']}")
-    if record["message"]:
-        lines.append(f"message: {record['message']}")
+    lines.append(f"status: {row['status']}")
+    if row["message"]:
+        lines.append(f"message: {row['message']}")
     lines.append("")
     lines.append("composition")
     for name in ("formula_normalized", "substance_class", "cations", "anions", "oxidation_states",

@@ -231,6 +231,9 @@ _ANION_SOLUBILITY: dict[str, tuple[str, dict[str, str]]] = {
     # molybdates and tungstates: only group 1, ammonium and Mg salts dissolve (CaWO4, PbMoO4 are minerals)
     "MoO4(2-)": ("insoluble", {"Mg(2+)": "dissolves"}),
     "WO4(2-)": ("insoluble", {"Mg(2+)": "dissolves"}),
+    # cyanates dissolve except those of Ag, Cu(I), Pb; fulminates are sparingly soluble, silver fulminate hardly
+    "OCN(-)": ("dissolves", {"Ag(+)": "insoluble", "Cu(+)": "insoluble", "Pb(2+)": "insoluble"}),
+    "CNO(-)": ("slightly_soluble", {"Ag(+)": "insoluble"}),
     # thiocyanates dissolve except those of Ag, Cu(I), Hg(I); Pb and Hg(II) slightly
     "SCN(-)": ("dissolves", {"Ag(+)": "insoluble", "Cu(+)": "insoluble", "Hg2(2+)": "insoluble",
                              "Pb(2+)": "slightly_soluble", "Hg(2+)": "slightly_soluble"}),

@@ -325,3 +325,12 @@ def test_a_molar_amount_after_plus_is_a_solute_in_the_first_component():
     assert record["status"] == "ok" and record["formula_normalized"] == "LiBF4"
     assert record["concentration_as_written"] == "0.5 M"
     assert "in [C4mim][BF4]" in record["value_notes"]
+
+
+@pytest.mark.parametrize("text, scored", [("CaCo3", "CaCO3"), ("NaCI", "NaCl"), ("37% HCl", "HCl")])
+def test_explain_shows_what_score_scored(text, scored):
+    # `ionicity explain` explained the text as written while `score` read the slip's correction or the solute
+    from ionicity.pipelines.explain import explain_formula
+    out = explain_formula(text)
+    assert f"read as: {scored}" in out
+    assert f"formula_normalized: {scored}" in out
