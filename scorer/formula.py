@@ -380,6 +380,11 @@ def parse_formula(text: str) -> ParsedFormula:
         formula, name = solvent
         notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
+    if _NONSTOICHIOMETRY.search(text_to_parse):
+        exact = _NONSTOICHIOMETRY.sub(_ideal_count, text_to_parse)
+        notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
+                     " (x = 0)")
+        text_to_parse = exact
     reagent = quaternary_reagent_code(text_to_parse) if _QUATERNARY_REAGENT.fullmatch(text_to_parse) else None
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
@@ -596,6 +601,26 @@ def deuterated_solvent(text: str) -> tuple[str, str] | None:
     if hydrogens is None or int(hydrogens.group(1) or 1) != int(m.group(2)):
         return None
     return formula[:hydrogens.start()] + "D" + formula[hydrogens.start() + 1:], f"{name}, fully deuterated"
+
+
+# a variable deviation from stoichiometry written on a count: TiO2-x, CeO2-δ, YBa2Cu3O7-δ, Fe1-xO, Li1+xMn2O4
+# (common practice in solid-state chemistry); a count of 1 may be left unwritten before it (TiO2-x has 2)
+_NONSTOICHIOMETRY = re.compile(r"(?<=[A-Za-z0-9)\]])(\d+(?:\.\d+)?)?\s*[-+±]\s*[xδyz](?=[A-Z(\[·.*\s]|$)")
+
+
+def _ideal_count(m: re.Match) -> str:
+    return m.group(1) or ""
+
+
+def nonstoichiometric_text(text: str) -> str | None:
+    """The ideal formula of a text written with a variable deviation (``TiO2-x`` -> ``TiO2``), or None.
+
+    >>> nonstoichiometric_text("CeO2-δ"), nonstoichiometric_text("Fe1-xO"), nonstoichiometric_text("LiCl-KCl")
+    ('CeO2', 'Fe1O', None)
+    """
+    if not isinstance(text, str) or not _NONSTOICHIOMETRY.search(text):
+        return None
+    return _NONSTOICHIOMETRY.sub(_ideal_count, text)
 
 
 def quaternary_reagent_code(text: str) -> str | None:

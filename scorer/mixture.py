@@ -40,7 +40,9 @@ from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_la
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
-from ionicity.scorer.formula import _DEUTERATED_CODE, _HYPHENATED_PAIR, deuterated_solvent, ionic_liquid_pair_text
+from ionicity.scorer.formula import (
+    _DEUTERATED_CODE, _HYPHENATED_PAIR, deuterated_solvent, ionic_liquid_pair_text, nonstoichiometric_text,
+)
 from ionicity.scorer.name_reader import parse_as_name
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
@@ -545,6 +547,9 @@ def mixture_row(text: str, score_row) -> tuple | None:
     once per distinct text (that function's cache). A mixture that cannot be
     read gives an error row saying why; the row is never dropped.
     """
+    ideal = nonstoichiometric_text(text)
+    if ideal is not None and not any(j in ideal for j in "-–:/+"):
+        return None  # a non-stoichiometric compound ("TiO2-x", "YBa2Cu3O7-δ"), not a mixture
     if _DEUTERATED_CODE.fullmatch(text) and deuterated_solvent(text) is not None:
         return None  # a deuterated solvent ("DMSO-d6"), not a mixture
     if _HYPHENATED_PAIR.fullmatch(text) and ionic_liquid_pair_text(text) is not None:

@@ -369,3 +369,15 @@ def test_hydrate_of_unstated_water_scores_the_anhydrous_salt_and_says_so(text, s
 def test_unstated_water_needs_a_salt_and_a_letter_count(text):
     from ionicity.scorer.record import score_formula
     assert score_formula(text)["status"] == "error"
+
+
+@pytest.mark.parametrize("text, ideal", [
+    # variable non-stoichiometry as solid-state chemistry writes it (common practice): scored at x = 0 with a
+    # note; it was read as a mixture with a component 'x'
+    ("TiO2-x", "TiO2"), ("CeO2-δ", "CeO2"), ("YBa2Cu3O7-δ", "Ba2Cu3YO7"), ("Fe1-xO", "FeO"),
+])
+def test_non_stoichiometric_formulas_are_scored_as_the_ideal_one(text, ideal):
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == ideal
+    assert "non-stoichiometry written" in row["message"]
