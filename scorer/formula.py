@@ -380,6 +380,11 @@ def parse_formula(text: str) -> ParsedFormula:
         formula, name = solvent
         notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
+    if "," in text_to_parse and _SOLID_SOLUTION_SITE.search(text_to_parse):
+        shared = _SOLID_SOLUTION_SITE.sub(_equal_shares, text_to_parse)
+        notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
+                     f" assumed, {shared.strip()}; write the fractions, e.g. Cu(In0.7Ga0.3)Se2")
+        text_to_parse = shared
     if _NONSTOICHIOMETRY.search(text_to_parse):
         exact = _NONSTOICHIOMETRY.sub(_ideal_count, text_to_parse)
         notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
@@ -610,6 +615,16 @@ _NONSTOICHIOMETRY = re.compile(r"(?<=[A-Za-z0-9)\]])(\d+(?:\.\d+)?)?\s*[-+±]\s*
 
 def _ideal_count(m: re.Match) -> str:
     return m.group(1) or ""
+
+
+# elements sharing one site, as solid-state chemistry writes them: Cu(In,Ga)Se2, (Ba,Sr)TiO3
+_SOLID_SOLUTION_SITE = re.compile(r"\(\s*([A-Z][a-z]?(?:\s*,\s*[A-Z][a-z]?)+)\s*\)")
+
+
+def _equal_shares(m: re.Match) -> str:
+    symbols = [x.strip() for x in m.group(1).split(",")]
+    share = format_count(round(1.0 / len(symbols), 4))
+    return "(" + "".join(f"{x}{share}" for x in symbols) + ")"
 
 
 def nonstoichiometric_text(text: str) -> str | None:
