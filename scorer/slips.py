@@ -117,7 +117,8 @@ _RUN_INTO_WATER = re.compile(r"(?<=[A-Za-z)\]])(\d{2,})(H2O)$")
 # lattice water typed with the digit 0 for the letter O: "CaCl2·6H20", "CuSO4.5H20"
 _WATER_WITH_ZERO = re.compile(r"[·•∙⋅.*\s+]\d*(?:\.\d+)?H20$")
 # a character that some kind of slip below could have typed (a superset: each kind checks more)
-MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$|Co3|No[23]|Po4|(?:OH|NO[23]|[SC]O[34]|PO4|NH4|ClO[34]?)\d")
+MAYBE_SLIP = re.compile(r"(?<=[A-Za-z\d)\]])0|[A-Z][I1]|(?<![CATF])l|(?<![·.*\s\d])\d{2,}H2O$"
+                       r"|(?<=[A-Za-z\d()\]])(?:Co3|No[23]|Po4)|(?:OH|NO[23]|[SC]O[34]|PO4|NH4|ClO[34])\d")
 # polyatomic groups whose brackets a spreadsheet or a hurried hand leaves out: Ca(OH)2 typed CaOH2, (NH4)2SO4
 # typed NH42SO4, Al2(SO4)3 typed Al2SO43 (common practice); CN is not among them (CaCN2 is calcium cyanamide)
 _BRACKETLESS_GROUP = re.compile(
@@ -441,7 +442,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     all_caps = len(letters) > 1 and letters.isupper()
     # a lower-case word of seven letters or more without a digit is a word ("eutectic", "acetone"), not a
     # formula that lost its case: the shelf's lower-case formulas are short ("nacl", "naoh", "kscn") or counted
-    word = letters.islower() and len(letters) >= 7 and not any(ch.isdigit() for ch in stripped)
+    word = len(letters) >= 7 and letters.islower() and letters == stripped
     all_lower = letters.islower() and not word
     if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
         return None  # the common case, in one regular-expression scan

@@ -48,6 +48,11 @@ _STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b", r
 _TAIL_BEFORE = re.compile(r"[\s,;]+$")
 
 
+# the same concentrations written before the solute, and a molar amount after "+" (a solute in what precedes)
+_LEADING = tuple((p, re.compile(rf"^(?P<c>{p.pattern})\s+(?P<rest>[A-Z(\[].*)$", p.flags)) for p in (_MOLAR, _PERCENT, _GRADE))
+_PLUS_MOLAR = re.compile(rf"^(?P<solvent>\S.*?)\s*\+\s*(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$")
+
+
 @dataclass(frozen=True)
 class Solution:
     """A solute's formula, its concentration as written (``37 %``; empty when none is written)
@@ -84,7 +89,7 @@ def split_in_solvent(text: str) -> Solution | None:
     m = _IN_SOLVENT.match(text.strip())
     if m is None:
         # "[C4mim][BF4] + 0.5 M LiBF4": a molar amount after "+" is a solute in what comes before it
-        plus = re.match(rf"^(?P<solvent>\S.*?)\s*\+\s*(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$", text.strip())
+        plus = _PLUS_MOLAR.match(text.strip()) if "+" in text else None
         if plus is None:
             return None
         return Solution(plus.group("rest").strip(), _as_written(_MOLAR, _MOLAR.match(plus.group("c"))),
@@ -122,9 +127,9 @@ def split_solution(text: str) -> Solution | None:
     tail = _BRACKETED_TAIL.search(body)
     if tail and any(p.fullmatch(tail.group(1)) for p in (_PERCENT, _MOLAR, _GRADE)):
         body = body[:tail.start()] + " " + tail.group(1)
-    for pattern in (_MOLAR, _PERCENT, _GRADE):
+    for pattern, leading in _LEADING:
         # or the first, before a space, as bottle labels write it: "0.1 M NaCl", "37% HCl", "conc. HNO3"
-        lead = re.match(rf"^(?P<c>{pattern.pattern})\s+(?P<rest>[A-Z(\[].*)$", body, pattern.flags)
+        lead = leading.match(body)
         if lead and split_solution(lead.group("rest")) is None:
             return Solution(lead.group("rest").strip(), _as_written(pattern, pattern.match(lead.group("c"))))
     for pattern in (_PERCENT, _MOLAR, _GRADE):
