@@ -677,6 +677,12 @@ def analyse(dec: Decomposition) -> MeltingTrend:
                      f" drop out: the formal ionic reading, {trend_temperature_K(salt):.0f} K, is taken")
             index = salt
             notes.extend(salt_notes)
+        fluid = routes.fluid_element_melting_K(dec.composition) if not math.isfinite(index) else None
+        if fluid is not None:
+            # the element itself, a gas or a liquid at 25 C (O2, Hg): its own melting point
+            index = math.log10(fluid[0])
+            steps = (f"  an element that is a gas or a liquid at 25 C: its own melting point, {fluid[0]:.2f} K"
+                     f" ({fluid[1]})",)
         if not math.isfinite(index):
             notes.append("melting trend: " + how)
     else:

@@ -45,7 +45,7 @@ from math import factorial
 
 from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element
-from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.formula import format_count, parse_formula
 from ionicity.scorer.model import Decomposition
 from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
@@ -613,6 +613,26 @@ def mixture_counts_whole_formula(composition) -> bool:
     """
     table_ = _element_melting_points()
     return all(symbol in table_ for symbol, _ in composition)
+
+
+@once
+def _fluid_element_melting_points() -> dict[str, tuple[float, str]]:
+    return {row["substance"]: (float(row["mp_K"]), row["source"]) for row in table("fluid_element_melting_points.csv")}
+
+
+def fluid_element_melting_K(composition) -> tuple[float, str] | None:
+    """The melting point of an element that is a gas or a liquid at 25 C, when the formula is that substance
+    (O2, N2, Cl2, Br2, Hg; ``scorer/data/fluid_element_melting_points.csv``, the CRC Handbook via chemicals);
+    None for any other formula (O alone, or a compound). The rule of mixtures leaves these elements out.
+
+    >>> round(fluid_element_melting_K((("Hg", 1.0),))[0], 2), fluid_element_melting_K((("O", 1.0),))
+    (234.32, None)
+    """
+    if len(composition) != 1:
+        return None
+    ((symbol, n),) = composition
+    found = _fluid_element_melting_points().get(symbol if n == 1 else f"{symbol}{format_count(n)}")
+    return found
 
 
 def element_mixture_melting_K(composition) -> tuple[float, str]:

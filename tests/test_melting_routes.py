@@ -444,3 +444,22 @@ def _band_holds(melting_class, tm_K):
     bands = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
     lo, hi = bands[melting_class]
     return lo <= tm_K < hi
+
+
+@pytest.mark.parametrize("formula, cas", [
+    # gases and liquids among the elements had no index (the rule of mixtures leaves them out): their own melting
+    # points now, checked against the registry (chemicals, CRC Handbook) read at test time
+    ("O2", "7782-44-7"), ("N2", "7727-37-9"), ("Cl2", "7782-50-5"), ("Br2", "7726-95-6"), ("Hg", "7439-97-6"),
+])
+def test_fluid_elements_take_their_own_melting_point(formula, cas):
+    from _builders import registry_melting_point_K
+    from ionicity.scorer.record import score_formula
+    out = score_formula(formula)
+    assert 10 ** out["mp_trend_index"] == pytest.approx(registry_melting_point_K(cas), rel=5e-3)
+    assert out["melting_class"] == "liquid_at_room_temperature"
+
+
+def test_the_fluid_element_table_rebuilds_from_the_registry():
+    pytest.importorskip("chemicals")
+    from ionicity.scorer.data import build_element_melting_points as builder
+    assert builder.FLUID_OUT.read_text() == builder.build_fluid()

@@ -49,8 +49,35 @@ def build() -> str:
     return buf.getvalue()
 
 
+# the elements that are gases or liquids at 25 C, as the substances a formula cell names (O2, Hg): their own
+# melting points, for a row that is the element itself (the rule of mixtures still leaves them out); He has no
+# melting point at 1 atm, P's allotropes disagree
+FLUID_OUT = Path(__file__).with_name("fluid_element_melting_points.csv")
+FLUID_SUBSTANCES = (("H2", "1333-74-0"), ("N2", "7727-37-9"), ("O2", "7782-44-7"), ("O3", "10028-15-6"),
+                    ("F2", "7782-41-4"), ("Cl2", "7782-50-5"), ("Br2", "7726-95-6"), ("Ne", "7440-01-9"),
+                    ("Ar", "7440-37-1"), ("Kr", "7439-90-9"), ("Xe", "7440-63-3"), ("Rn", "10043-92-2"),
+                    ("Hg", "7439-97-6"))
+
+
+def build_fluid() -> str:
+    import chemicals
+    from chemicals.phase_change import Tm, Tm_methods
+
+    buf = io.StringIO()
+    writer = csv.writer(buf, lineterminator="\n")
+    writer.writerow(["substance", "mp_K", "source"])
+    for substance, cas in FLUID_SUBSTANCES:
+        crc = "CRC_INORG" in (Tm_methods(cas) or ())
+        value = Tm(cas, method="CRC_INORG") if crc else Tm(cas)
+        where = f"Tm({cas}, method='CRC_INORG')" if crc else f"Tm({cas})"
+        writer.writerow([substance, f"{value:.2f}",
+                         f"{'CRC Handbook' if crc else 'default source'} via chemicals {chemicals.__version__} {where}"])
+    return buf.getvalue()
+
+
 if __name__ == "__main__":
-    text = build()
+    text, fluid = build(), build_fluid()
     if "--check" in sys.argv:
-        sys.exit(0 if OUT.read_text() == text else 1)
+        sys.exit(0 if OUT.read_text() == text and FLUID_OUT.read_text() == fluid else 1)
     OUT.write_text(text)
+    FLUID_OUT.write_text(fluid)
