@@ -166,7 +166,9 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     """Grouped K-fold cross-validation of the model and the two baselines, with interval coverage.
 
     In every fold the model is fitted on all the fold's training rows, and the
-    interval half-widths (one per interval group) come from the absolute log
+    interval half-widths (one per interval group; for the groups of
+    :data:`FAMILY_LEVEL_GROUPS` a quantile over the inner held-out groups,
+    :func:`_family_conformal_halfwidth`) come from the absolute log
     residuals of the inner grouped cross-validation that chooses the ionic
     liquids' tree share (:func:`pipelines.melting_offset.fit_offset_model`):
     each of those rows was predicted by a model that never saw its group, as

@@ -113,6 +113,38 @@ def test_grouped_cv_needs_two_groups():
 
 
 @needs_sklearn
+def test_grouped_cv_hands_each_fold_the_families_of_its_inner_residuals(fast_pipeline, monkeypatch):
+    # the ionic liquids' half-width is a quantile over families (Dunn, Wasserman & Ramdas 2023), so every
+    # fold must pass the cross-validation group of each inner residual; families here share a bias of
+    # sd 0.3 in ln K that no feature carries (an invented set)
+    from ionicity.pipelines import melting_validation as mv
+
+    rng = np.random.default_rng(2)
+    n = 160
+    x = np.full((n, len(melting_model.MODEL_FEATURES)), np.nan)
+    x[:, 0] = rng.uniform(2.3, 3.0, n)
+    x[:, 1] = rng.uniform(300, 3000, n)
+    groups = np.repeat(np.arange(16), n // 16)
+    y = 10 ** x[:, 0] * np.exp(rng.normal(0.0, 0.3, 16)[groups] + rng.normal(0.0, 0.03, n))
+    labels = np.where(groups < 8, "ionic_liquid", "other")
+    seen = []
+    real = mv._group_halfwidths
+
+    def spy(residuals, calib_labels, coverage, families=None):
+        seen.append((calib_labels.copy(), None if families is None else np.asarray(families).copy()))
+        return real(residuals, calib_labels, coverage, families)
+
+    monkeypatch.setattr(mv, "_group_halfwidths", spy)
+    result = mf.grouped_cross_validation(x, y, groups, x[:, 1], folds=4, coverage=0.9, interval_groups=labels)
+    assert len(seen) == 4
+    for calib_labels, families in seen:
+        assert families is not None and len(families) == len(calib_labels)
+        # the families handed over are cross-validation groups whose rows carry those labels
+        assert set(families[calib_labels == "ionic_liquid"].tolist()) <= set(range(8))
+    assert result["per_group"]["ionic_liquid"]["interval_coverage"] >= 0.75
+
+
+@needs_sklearn
 def test_exported_trees_predict_like_scikit_learn(fast_pipeline):
     rng = np.random.default_rng(0)
     x = rng.normal(size=(300, len(melting_model.MODEL_FEATURES)))
