@@ -239,12 +239,13 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     # every row fits the model: the index's organic weights, the ionic liquids' share of the trees
     # (inner grouped cross-validation by cation family) and the trees, as in every fold above; the
     # interval half-widths come from that inner cross-validation's residuals
+    families = np.array([row["cation_family"] for row in rows])
     pipe, used, index_weights, x = fit_offset_model(
-        x, y, np.arange(len(rows)), labels, np.array([row["cation_family"] for row in rows]), terms,
+        x, y, np.arange(len(rows)), labels, families, terms,
         lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
     residuals = pipe.inner_log_residuals
     ok = np.isfinite(residuals)
-    q, per_group = _group_halfwidths(residuals[ok], labels[ok], coverage)
+    q, per_group = _group_halfwidths(residuals[ok], labels[ok], coverage, families[ok])
     hgb = pipe.pipe.named_steps["regressor"].regressor_
     baseline, trees = trees_to_json(hgb)
     lo, hi = finite_minmax(x[:, used])
@@ -261,7 +262,8 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
         "index_weights": index_weights,
         "tree_weights": pipe.tree_weights,
         "interval": {"method": "absolute ln residuals of an inner grouped cross-validation by cation family,"
-                               " a half-width per group (Mondrian)",
+                               " a half-width per group (Mondrian); for ionic liquids a conformal quantile"
+                               " over the cation families' own quantiles",
                      "coverage": coverage, "log_halfwidth": q, "group_log_halfwidths": per_group,
                      "calibration_rows": int(ok.sum())},
         "domain": {"feature_min": lo, "feature_max": hi,

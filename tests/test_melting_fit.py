@@ -40,6 +40,54 @@ def test_conformal_quantile_is_the_finite_sample_rank():
     assert mf._conformal_halfwidth(residuals, 0.5) == 6.0
 
 
+def test_family_conformal_quantile_is_the_finite_sample_rank_over_families():
+    # Dunn, Wasserman & Ramdas, J. Am. Stat. Assoc. 2023, 118, 2491 (double conformal): a quantile within
+    # each family, then the ceil((K + 1) * c)-th smallest over the K families (Lei et al. 2018's rank)
+    from ionicity.pipelines.melting_validation import _family_conformal_halfwidth
+
+    # 19 families of one row each: ceil(20 * 0.9) = 18th smallest of 0.01 ... 0.19
+    residuals = np.arange(1, 20) / 100.0
+    assert _family_conformal_halfwidth(residuals, np.arange(19), 0.9) == pytest.approx(0.18)
+    # a family of ten rows counts once, by its own 90 % quantile (its largest, ceil(11 * 0.9) = 10th):
+    # 20 families, 0.05, 0.5 and 0.01 ... 0.18, whose ceil(21 * 0.9) = 19th smallest is 0.18 (row by
+    # row, the 27th smallest of 29 residuals would be 0.17)
+    residuals = np.concatenate([np.full(10, 0.05), [0.5], np.arange(1, 19) / 100.0])
+    families = np.concatenate([np.zeros(10), np.arange(1, 20)])
+    assert _family_conformal_halfwidth(residuals, families, 0.9) == pytest.approx(0.18)
+    assert mf._conformal_halfwidth(residuals, 0.9) == pytest.approx(0.17)
+    # below 9 families the rank passes K: the largest family quantile
+    assert _family_conformal_halfwidth(np.array([0.1, -0.4, 0.2]), np.array([1, 2, 3]), 0.9) == 0.4
+
+
+def test_family_level_half_widths_cover_a_held_out_family_where_row_quantiles_do_not():
+    # residuals that share a bias per family (family effect sd 0.3, row noise sd 0.05 in ln K), six
+    # calibration families, one of them large: the row quantile is exchangeable only with rows, so it
+    # covers a new family's rows less often than 90 %; the quantile over families covers at least
+    # K/(K+1) = 6/7 of new families in full (Dunn, Wasserman & Ramdas 2023), and rows of the others in part
+    from ionicity.pipelines.melting_validation import _group_halfwidths
+
+    rng = np.random.default_rng(3)
+    sizes = [40, 8, 6, 5, 3, 2]
+    covered = {"rows": [], "families": []}
+    for _ in range(400):
+        effects = rng.normal(0.0, 0.3, len(sizes) + 1)
+        residuals = np.concatenate([effects[k] + rng.normal(0.0, 0.05, m) for k, m in enumerate(sizes)])
+        families = np.repeat(np.arange(len(sizes)), sizes)
+        labels = np.array(["ionic_liquid"] * len(residuals))
+        new_family = effects[-1] + rng.normal(0.0, 0.05, 20)
+        _, by_rows = _group_halfwidths(residuals, labels, 0.9)
+        _, by_families = _group_halfwidths(residuals, labels, 0.9, families)
+        covered["rows"].append(np.mean(np.abs(new_family) <= by_rows["ionic_liquid"]))
+        covered["families"].append(np.mean(np.abs(new_family) <= by_families["ionic_liquid"]))
+    assert np.mean(covered["families"]) >= 6 / 7
+    assert np.mean(covered["rows"]) < 0.85  # 0.81 measured; the family quantile 0.89
+    # the other group keeps the row quantile even when families are given
+    labels = np.array(["other"] * 20)
+    residuals = np.linspace(0.01, 0.2, 20)
+    _, per_group = _group_halfwidths(residuals, labels, 0.9, np.repeat([0, 1], 10))
+    assert per_group["other"] == mf._conformal_halfwidth(residuals, 0.9)
+
+
 @needs_sklearn
 def test_grouped_cv_on_synthetic_data_beats_the_baselines_and_covers(fast_pipeline):
     # an independent truth: ln T = 5 + 1.2 * x0 + noise, grouped in 8 families
@@ -62,6 +110,38 @@ def test_grouped_cv_on_synthetic_data_beats_the_baselines_and_covers(fast_pipeli
 def test_grouped_cv_needs_two_groups():
     with pytest.raises(ValueError, match="at least 2 groups"):
         mf.grouped_cross_validation(np.zeros((5, 3)), np.ones(5), ["a"] * 5, np.ones(5))
+
+
+@needs_sklearn
+def test_grouped_cv_hands_each_fold_the_families_of_its_inner_residuals(fast_pipeline, monkeypatch):
+    # the ionic liquids' half-width is a quantile over families (Dunn, Wasserman & Ramdas 2023), so every
+    # fold must pass the cross-validation group of each inner residual; families here share a bias of
+    # sd 0.3 in ln K that no feature carries (an invented set)
+    from ionicity.pipelines import melting_validation as mv
+
+    rng = np.random.default_rng(2)
+    n = 160
+    x = np.full((n, len(melting_model.MODEL_FEATURES)), np.nan)
+    x[:, 0] = rng.uniform(2.3, 3.0, n)
+    x[:, 1] = rng.uniform(300, 3000, n)
+    groups = np.repeat(np.arange(16), n // 16)
+    y = 10 ** x[:, 0] * np.exp(rng.normal(0.0, 0.3, 16)[groups] + rng.normal(0.0, 0.03, n))
+    labels = np.where(groups < 8, "ionic_liquid", "other")
+    seen = []
+    real = mv._group_halfwidths
+
+    def spy(residuals, calib_labels, coverage, families=None):
+        seen.append((calib_labels.copy(), None if families is None else np.asarray(families).copy()))
+        return real(residuals, calib_labels, coverage, families)
+
+    monkeypatch.setattr(mv, "_group_halfwidths", spy)
+    result = mf.grouped_cross_validation(x, y, groups, x[:, 1], folds=4, coverage=0.9, interval_groups=labels)
+    assert len(seen) == 4
+    for calib_labels, families in seen:
+        assert families is not None and len(families) == len(calib_labels)
+        # the families handed over are cross-validation groups whose rows carry those labels
+        assert set(families[calib_labels == "ionic_liquid"].tolist()) <= set(range(8))
+    assert result["per_group"]["ionic_liquid"]["interval_coverage"] >= 0.75
 
 
 @needs_sklearn
