@@ -269,6 +269,12 @@ def organic_candidate(counts: dict[str, float]) -> bool:
 
 # Pauling's radius-ratio limit of octahedral coordination (J. Am. Chem. Soc. 1929, 51, 1010; from memory)
 _OCTAHEDRAL_RADIUS_RATIO = 0.414
+# 4d and 5d metals of groups 4-10: their tetrahalides are chains or layers of edge-sharing MX6
+# octahedra, not MX4 molecules, even where the radius ratio is below Pauling's limit (ZrCl4, HfCl4:
+# zigzag chains, sublime near 600 K; NbCl4, TaCl4, MoCl4, WCl4, ReCl4, PtCl4 polymeric; Greenwood &
+# Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 21.3.3, 22.3.3, 23.3.3, 24.3.3, 27.3.3;
+# Wells 1984, ch. 9; from memory)
+_HEAVY_TRANSITION_METALS = frozenset("Zr Nb Mo Tc Ru Rh Pd Hf Ta W Re Os Ir Pt".split())
 
 
 def _bridged_tetrahalide(cation, anions) -> bool:
@@ -276,7 +282,17 @@ def _bridged_tetrahalide(cation, anions) -> bool:
     Shannon radii (CN VI) reaches Pauling's octahedral limit 0.414, so M takes six or more halides
     and every halide bridges (UF4, ThF4, ZrF4, SnF4: chains, layers and frameworks melting at
     900-1400 K; ThCl4, UCl4) while a smaller centre keeps four in a molecule (TiCl4, SnCl4, SiF4;
-    Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory)."""
+    Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory). The 4d and 5d metals of
+    groups 4-10 bridge whatever the ratio (:data:`_HEAVY_TRANSITION_METALS`: ZrCl4, HfCl4, ZrI4, NbCl4,
+    MoCl4, WCl4, ReCl4, PtCl4 are chains of edge-sharing MX6 octahedra that sublime or melt at 600-800 K)
+    where the 3d metals of the same groups keep molecules (TiCl4, VCl4).
+
+    >>> from ionicity.scorer.ion_library import monatomic_ion
+    >>> [_bridged_tetrahalide(monatomic_ion(m, 4), [monatomic_ion("Cl", -1)]) for m in ("Zr", "Ti", "Sn")]
+    [True, False, False]
+    """
+    if cation.element in _HEAVY_TRANSITION_METALS:
+        return True
     r_m = shannon_radius_pm(cation.element, cation.charge, 6)[0]
     ratios = [r_m / shannon_radius_pm(a.element, a.charge, 6)[0] for a in anions]
     return all(math.isfinite(q) and q >= _OCTAHEDRAL_RADIUS_RATIO for q in ratios)
