@@ -154,6 +154,7 @@ _HEAVY_ALKALINE_EARTH = frozenset({"Ca", "Sr", "Ba", "Ra"})
 _ORGANOMETAL = frozenset({"Li", "Na", "K", "Rb", "Cs", "Be", "Mg", "Ca", "Zn", "Cd", "Al", "Ga", "In", "B"})
 _FUMING_CENTRES = frozenset({
     "B", "Al", "Ga", "Si", "Ge", "Sn", "Ti", "Zr", "Hf", "V", "Nb", "Ta", "Cr", "Mo", "W", "P", "As", "Sb", "S", "Se",
+    "Te",
 })
 # fluorides that fume with water; SF6, SeF6 and the metal fluorides do not
 _FUMING_FLUORIDE_CENTRES = frozenset({"B", "Si", "P", "As", "Sb"})
@@ -566,7 +567,8 @@ def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
             return "slightly_soluble", None, f"halides of {cation} are slightly soluble"
         return "dissolves", None, "chlorides, bromides and iodides dissolve"
     if anion == "F(-)":
-        rare_earth = element is not None and (group == 3 or get_element(element).series == "Lanthanides")
+        # rare earths and actinides (LaF3, CeF3, UF4, ThF4, PuF4: insoluble; CRC Handbook, from memory)
+        rare_earth = element is not None and (group == 3 or get_element(element).series in ("Lanthanides", "Actinides"))
         if group == 2 and element != "Be" or cation == "Pb(2+)" or rare_earth:
             return "insoluble", None, f"fluorides of {cation} are insoluble"
         return "dissolves", None, "fluorides other than those of group 2, Pb and the rare earths dissolve"

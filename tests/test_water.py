@@ -192,6 +192,9 @@ CASES = [
     ("MgMoO4", "dissolves", "neutral", "none", "CRC (from memory)"),
     ("AgSCN", "insoluble", None, "none", "CRC (from memory)"),
     ("Zn(MnO4)2", "dissolves", "acidic", "none", f"CRC (from memory); Zn2+ pKa 9.0, {BM}"),
+    ("UF4", "insoluble", None, "none", "CRC (from memory): actinide tetrafluorides are insoluble, as LaF3"),
+    ("TeCl4", "reacts_violently", "acidic", "HCl", "Greenwood & Earnshaw ch. 16.3: hydrolyses to TeO2 and HCl"
+                                                   " (from memory)"),
 ]
 
 
