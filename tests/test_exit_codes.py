@@ -144,6 +144,9 @@ def test_a_generated_name_clashing_in_another_case_is_refused_with_the_prefix_hi
 # process and turns the interruption into an ImportError the same way. Exit 130 is 128 + SIGINT (common practice for shells).
 _INTERRUPTED_IMPORT = r"""
 import importlib.abc, os, signal, sys
+# Ctrl-C as a terminal delivers it: a runner that starts the tests in the background has SIGINT ignored, and
+# the child would inherit that and wait for ever below
+signal.signal(signal.SIGINT, signal.default_int_handler)
 class _Fail(importlib.abc.MetaPathFinder):
     def find_spec(self, name, path, target=None):
         if name == "ionicity.pipelines.cli":
