@@ -386,7 +386,7 @@ def parse_formula(text: str) -> ParsedFormula:
                      f" assumed, {shared.strip()}; write the fractions, e.g. Cu(In0.7Ga0.3)Se2")
         text_to_parse = shared
     if _NONSTOICHIOMETRY.search(text_to_parse):
-        exact = _NONSTOICHIOMETRY.sub(_ideal_count, text_to_parse)
+        exact = nonstoichiometric_text(text_to_parse)
         notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
                      " (x = 0)")
         text_to_parse = exact
