@@ -320,7 +320,8 @@ def fit_molecular_weights(rows) -> dict[str, float]:
         a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3),
                            (m.open_sites - secondary) * m.bond_strength,
                            secondary * m.bond_strength * m.primary_delta_chi]) / dh)
-        b.append(1.0)
+        # the hydrogen-bond weight is held (fit_molecular_hydrogen_bond_weight; none of these rows has a donor site)
+        b.append(1.0 - melting.TREND_WEIGHTS["molecular_hydrogen_bond_kJ_mol"] * m.hydrogen_bond_sites / dh)
     w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
     return dict(zip(MOLECULAR_WEIGHTS, map(float, w)))
 
@@ -477,6 +478,66 @@ def intermetallic_figures(rows, weight: float) -> dict:
     return out
 
 
+HYDROGEN_BONDED_SET = MOLECULAR_SET.with_name("hydrogen_bonded_molecules.csv")
+
+
+def hydrogen_bonded_rows():
+    """(split, formula, terms, measured K) of ``hydrogen_bonded_molecules.csv``, read down the molecular route.
+
+    The melting points are the CRC Handbook's inorganic table,
+    ``chemicals.phase_change.Tm(cas, method="CRC_INORG")``, read now.
+    """
+    from chemicals.phase_change import Tm  # melting extra
+
+    out = []
+    with open(HYDROGEN_BONDED_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"], method="CRC_INORG")
+            if value is not None:
+                out.append((row["set"], row["formula"], routes.molecular_terms(as_molecular(row["formula"])),
+                            float(value)))
+    return out
+
+
+def _molecular_K(m, weights, hydrogen_bond_sites) -> float:
+    entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
+    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, weights,
+                                                m.secondary_contacts, m.primary_delta_chi, hydrogen_bond_sites)
+    return routes.molecular_melting_K(cohesion, entropy)
+
+
+def fit_molecular_hydrogen_bond_weight(rows) -> float:
+    """``molecular_hydrogen_bond_kJ_mol``: least squares of dH_m = T_m dS_m (relative errors) on the calibration
+    rows of :func:`hydrogen_bonded_rows`, the other molecular weights held (as :func:`fit_molecular_weights`)."""
+    a, b = [], []
+    held = {**melting.TREND_WEIGHTS, "molecular_hydrogen_bond_kJ_mol": 0.0}
+    for split, _, m, t in rows:
+        if split != "calibration" or not m.hydrogen_bond_sites:
+            continue
+        dh = t * routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau) / 1000.0
+        without = _molecular_K(m, held, 0.0) * dh / t
+        a.append(m.hydrogen_bond_sites / dh)
+        b.append(1.0 - without / dh)
+    a, b = np.array(a), np.array(b)
+    return float(a @ b / (a @ a))
+
+
+def hydrogen_bonded_figures(rows, weights=None) -> dict:
+    """Figures of the molecular route on :func:`hydrogen_bonded_rows`, per split, with and without the
+    hydrogen-bond term (``weights`` overrides :data:`scorer.melting.TREND_WEIGHTS`)."""
+    w = {**melting.TREND_WEIGHTS, **(weights or {})}
+    out = {}
+    for split in ("calibration", "validation"):
+        part = [r for r in rows if r[0] == split]
+        measured = [t for *_, t in part]
+        for name, on in (("with_hydrogen_bonds", True), ("without_hydrogen_bonds", False)):
+            predicted = [_molecular_K(m, w, m.hydrogen_bond_sites if on else 0.0) for _, _, m, _ in part]
+            out[f"{split}_{name}"] = {
+                **_figures(predicted, measured, salt=False),
+                "mean_abs_log10": round(float(np.mean(np.abs(np.log10(np.divide(predicted, measured))))), 3)}
+    return out
+
+
 def as_molecular(formula: str):
     """The decomposition of a formula read as a molecular compound (no ions, class covalent_molecular)."""
     return replace(decompose(parse_formula(formula)), cations=(), anions=(), substance_class="covalent_molecular")
@@ -608,6 +669,11 @@ def main(argv=None) -> int:
         print(name, figures)
     for name, figures in intermetallic_figures(metals, metal_weight).items():
         print(name, figures)
+    bonded = hydrogen_bonded_rows()
+    print("molecular hydrogen-bond weight (fit on calibration):",
+          {"molecular_hydrogen_bond_kJ_mol": round(fit_molecular_hydrogen_bond_weight(bonded), 3)})
+    for name, figures in hydrogen_bonded_figures(bonded).items():
+        print(f"hydrogen_bonded_molecules_{name}", figures)
     print("open_set_validation_salts", coverage_and_refractory(training))
     print("open_set_old_style_includes_fitted_half", coverage_and_refractory(training, held_out_only=False))
     return 0

@@ -500,7 +500,7 @@ def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicR
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
     cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w,
-                                                m.secondary_contacts, m.primary_delta_chi)
+                                                m.secondary_contacts, m.primary_delta_chi, m.hydrogen_bond_sites)
     temperature = routes.molecular_melting_K(cohesion, entropy)
     reading = _MolecularReading(m, cohesion, entropy, temperature)
     return math.log10(temperature) if temperature > 0 else math.nan, reading
@@ -526,6 +526,8 @@ def _molecular_steps(reading: _MolecularReading | _OrganicReading | None) -> tup
         *((f"  secondary contacts (Alcock 1972): + {w['molecular_secondary_kJ_mol']} kJ/mol * {m.secondary_contacts}"
            f" contact(s) * z/CN {m.bond_strength:.3f} * electronegativity difference of the primary bond"
            f" {m.primary_delta_chi:.2f}",) if m.secondary_contacts else ()),
+        *((f"  hydrogen bonds: + {w['molecular_hydrogen_bond_kJ_mol']} kJ/mol * {m.hydrogen_bond_sites:g} O-H/N-H"
+           f" donor site(s)",) if m.hydrogen_bond_sites else ()),
     )
 
 

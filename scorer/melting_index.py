@@ -114,6 +114,10 @@ TREND_WEIGHTS: dict[str, float] = {
     "molecular_bridge_kJ_mol": 9.4,
     # per valence unit and unit of the primary bond's delta chi (HgCl2: 4 * 2/6 * 1.26)
     "molecular_secondary_kJ_mol": 7.5,
+    # per O-H or N-H donor site of an inorganic molecule (boric acid 3, hydrazine 2): least squares of
+    # dH_m in relative errors, the four weights above held, on the calibration half of
+    # datasets/melting/hydrogen_bonded_molecules.csv (pipelines.melting_weights.fit_molecular_hydrogen_bond_weight)
+    "molecular_hydrogen_bond_kJ_mol": 2.97,
     # organic molecular route (scorer.melting_organic): least squares of log10 T_m
     # (T_m = dH_m / dS_m, linear in these three) on the calibration half of datasets/melting/organic_molecules.csv
     # (pipelines.melting_weights.fit_organic_molecule_weights); per heavy atom, per

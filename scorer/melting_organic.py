@@ -26,7 +26,11 @@ import math
 from collections.abc import Mapping
 from dataclasses import dataclass
 
-from ionicity.scorer.melting_routes import _polarisability_A3, walden_dannenfelser_yalkowsky_entropy_J_mol_K
+from ionicity.scorer.melting_routes import (  # noqa: F401 - hydrogen_bond_sites is part of this module's API
+    _polarisability_A3,
+    hydrogen_bond_sites,
+    walden_dannenfelser_yalkowsky_entropy_J_mol_K,
+)
 
 __all__ = [
     "ORGANIC_ELEMENTS",
@@ -144,21 +148,6 @@ def formula_symmetry_number(counts: Mapping[str, float], uniform_symmetry_number
     present = {s for s, n in counts.items() if n > 0}
     uniform = len(present) == 2 and "C" in present and bool(present & _PERIPHERAL)
     return float(uniform_symmetry_number) if uniform else 1.0
-
-
-def hydrogen_bond_sites(counts: Mapping[str, float]) -> float:
-    """Hydrogen-bond sites a formula can hold: ``min(n_O + n_N, n_H)``.
-
-    An O-H or N-H donor needs both the atom and a hydrogen; the formula does
-    not say which hydrogens sit on O or N, so the count is the upper bound,
-    every O and N with a hydrogen as far as there are hydrogens (ethanol 1,
-    glucose C6H12O6 6, where five OH and one ring O are there; diethyl ether 1,
-    an overcount). Common practice.
-
-    >>> hydrogen_bond_sites({"C": 6, "H": 12, "O": 6}), hydrogen_bond_sites({"C": 6, "Cl": 6})
-    (6.0, 0.0)
-    """
-    return float(min(counts.get("O", 0) + counts.get("N", 0), counts.get("H", 0)))
 
 
 def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_bond_sites_, weights: Mapping[str, float]):

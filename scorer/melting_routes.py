@@ -61,6 +61,7 @@ __all__ = [
     "water_rich_hydrate",
     "walden_dannenfelser_yalkowsky_entropy_J_mol_K",
     "molecular_cohesion_kJ_mol",
+    "hydrogen_bond_sites",
     "pauling_bond_strength",
     "molecular_melting_K",
     "MolecularTerms",
@@ -227,7 +228,7 @@ def pauling_bond_strength(oxidation_state: float, coordination_number: float) ->
 
 
 def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_strength, weights: Mapping[str, float],
-                              secondary_contacts=0, primary_delta_chi=0.0):
+                              secondary_contacts=0, primary_delta_chi=0.0, hydrogen_bond_sites=0.0):
     """Heat of melting of a molecular crystal from the size and polarisability of its molecule [kJ/mol].
 
     ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open * s``: each
@@ -255,8 +256,15 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     529 K, chemicals Tm). Defined here; the weights ``h_0``, ``h_alpha``,
     ``h_bridge``, ``h_sec`` are fitted (see ``TREND_WEIGHTS``).
 
+    Hydrogen bonds are counted apart too: each O-H or N-H donor site
+    (``n_HB``, :func:`hydrogen_bond_sites`: boric acid 3, sulfuric acid 2,
+    hydrazine 2) adds ``h_HB`` (``molecular_hydrogen_bond_kJ_mol``), the
+    hydrogen bonds broken or loosened on melting (water, the oxoacids and
+    hydrazine were read 30-250 K low without it: the ligand contacts alone
+    gave water 80 K).
+
     ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * (n_open - n_sec) * s
-    + h_sec * n_sec * s * dchi``.
+    + h_sec * n_sec * s * dchi + h_HB * n_HB``.
 
     Parameters
     ----------
@@ -275,6 +283,8 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
         How many of the open sites are secondary contacts (at most ``open_sites``).
     primary_delta_chi : float, default=0.0
         Pauling electronegativity difference of the primary bond.
+    hydrogen_bond_sites : float, default=0.0
+        O-H and N-H donor sites; with them, ``molecular_hydrogen_bond_kJ_mol`` (kJ/mol per site).
 
     Examples
     --------
@@ -283,6 +293,8 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     12.0
     >>> round(molecular_cohesion_kJ_mol([2.0, 2.0], 4, 0.5, {**w, "molecular_secondary_kJ_mol": 10.0}, 4, 1.0), 6)
     26.0
+    >>> molecular_cohesion_kJ_mol([2.0, 2.0], 0, 0.0, {**w, "molecular_hydrogen_bond_kJ_mol": 4.0}, hydrogen_bond_sites=2)
+    14.0
     """
     h_0, h_alpha = weights["molecular_contact_kJ_mol"], weights["molecular_polarisability_kJ_mol_A3"]
     # one term per distinct alpha, summed atom by atom in C: the same float sum as a loop
@@ -295,6 +307,8 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     total += weights["molecular_bridge_kJ_mol"] * (open_sites - secondary) * bond_strength
     if secondary:
         total += weights["molecular_secondary_kJ_mol"] * secondary * bond_strength * primary_delta_chi
+    if hydrogen_bond_sites:
+        total += weights["molecular_hydrogen_bond_kJ_mol"] * hydrogen_bond_sites
     return total
 
 
@@ -405,6 +419,8 @@ class MolecularTerms:
     coordination_number: int = 0
     secondary_contacts: int = 0
     primary_delta_chi: float = 0.0
+    #: O-H and N-H donor sites of the unit read (hydrogen_bond_sites)
+    hydrogen_bond_sites: float = 0.0
 
 
 @once
@@ -454,6 +470,21 @@ def _radius_ratio_coordination(centre: str, state: int, ligands) -> int:
         return 0
     ratio = r_cat / r_an
     return 8 if ratio >= 0.732 else 6 if ratio >= 0.414 else 4 if ratio >= 0.225 else 3
+
+
+def hydrogen_bond_sites(counts: Mapping[str, float]) -> float:
+    """Hydrogen-bond sites a formula can hold: ``min(n_O + n_N, n_H)``.
+
+    An O-H or N-H donor needs both the atom and a hydrogen; the formula does
+    not say which hydrogens sit on O or N, so the count is the upper bound,
+    every O and N with a hydrogen as far as there are hydrogens (ethanol 1,
+    glucose C6H12O6 6, where five OH and one ring O are there; diethyl ether 1,
+    an overcount). Common practice.
+
+    >>> hydrogen_bond_sites({"C": 6, "H": 12, "O": 6}), hydrogen_bond_sites({"C": 6, "Cl": 6})
+    (6.0, 0.0)
+    """
+    return float(min(counts.get("O", 0) + counts.get("N", 0), counts.get("H", 0)))
 
 
 @once
@@ -516,7 +547,8 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         carbons = dict(written).get("C", 0.0)
         all_alphas = _atom_polarisabilities_A3(written)
         return MolecularTerms(centre, ligands, 1.0, max(carbons - 2.0, 0.0), 0, all_alphas,
-                              "no single central atom: sigma 1, tau from the carbon count (rough)")
+                              "no single central atom: sigma 1, tau from the carbon count (rough)",
+                              hydrogen_bond_sites=hydrogen_bond_sites(dict(written)))
     state = -sum(_LIGAND_CHARGE.get(s, -1) * n for s, n in ligands)
     element = get_element(centre)
     if element.block in ("d", "f") or element.group is None:
@@ -552,7 +584,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
                           f" coordination {cn or 'unknown'} ({how})", strength, cn, min(secondary, open_sites),
-                          delta_chi)
+                          delta_chi, hydrogen_bond_sites(dict(comp)))
 
 
 def ion_symmetry_number(ion) -> float:

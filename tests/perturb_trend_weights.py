@@ -31,6 +31,7 @@ MELTING_TESTS = (
     "tests/test_melting.py", "tests/test_trend_weights.py", "tests/test_melting_routes.py",
     "tests/test_trend_weights_routes.py", "tests/test_melting_index_terms.py", "tests/test_melting_second_stage.py",
     "tests/test_melting_audit_rules.py", "tests/test_melting_organic_molecules.py",
+    "tests/test_melting_hydrogen_bonds.py",
 )
 FACTORS = (1.5, 0.5)
 
