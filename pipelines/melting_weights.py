@@ -93,6 +93,7 @@ RESIDUAL_FEATURES = (
     ("saline_nitride", lambda t: -t.saline_nitride_fraction),
     ("soft_cation_pseudohalide", lambda t: t.soft_pseudohalide_fraction),
     ("coinage_cation", lambda t: t.coinage_cation_fraction),
+    ("heavy_halate", lambda t: t.heavy_halate_fraction),
 )
 
 
@@ -257,7 +258,7 @@ def _index_with(terms, weights) -> float:
         terms.hydrogen_bonded_anion_fraction, terms.anion_symmetry_log10, terms.hydride_fraction,
         terms.hard_anion_fraction, terms.delta_chi_pauling, terms.crystal_field_share,
         terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, terms.coinage_cation_fraction,
-        weights=weights)
+        terms.heavy_halate_fraction, weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:

@@ -105,6 +105,7 @@ from ionicity.scorer.melting_anions import (
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
+    heavy_halate_fraction,
     DECOMPOSING_ANIONS,
     ENERGETIC_ANIONS,
 )
@@ -176,6 +177,7 @@ class MeltingTerms:
     saline_nitride_fraction: float = 0.0
     soft_pseudohalide_fraction: float = 0.0
     coinage_cation_fraction: float = 0.0
+    heavy_halate_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -191,7 +193,7 @@ class MeltingTerms:
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
-            self.coinage_cation_fraction, weights=weights,
+            self.coinage_cation_fraction, self.heavy_halate_fraction, weights=weights,
         )
 
 
@@ -320,6 +322,7 @@ def _gather_terms(
         saline_nitride_fraction=saline_nitride_fraction(dec.cations, dec.anions),
         soft_pseudohalide_fraction=soft_cation_pseudohalide_fraction(dec.anions, png),
         coinage_cation_fraction=coinage_cation_fraction(dec.cations),
+        heavy_halate_fraction=heavy_halate_fraction(dec.anions),
         notes=tuple(notes),
     )
 
@@ -447,6 +450,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" +{w['soft_cation_pseudohalide']} * their share of the anions {terms.soft_pseudohalide_fraction:.2f}",
         f"  Cu(+), Ag(+), Au(+) (Born-Haber lattice energy above the point-ion value): +{w['coinage_cation']}"
         f" * their share of the cations {terms.coinage_cation_fraction:.2f}",
+        f"  bromate and iodate (X...O secondary bonds join the anions): +{w['heavy_halate']}"
+        f" * their share of the anions {terms.heavy_halate_fraction:.2f}",
     )
 
 

@@ -39,7 +39,7 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 #   every weight times the spread factor sd(log10 T_m) / sd(fitted) = 1.205 (least squares
 #   shrinks toward the mean; matching the spread keeps the refractory oxides refractory),
 #   rounded; then the second-stage terms (crystal_field, saline_nitride, soft_cation_pseudohalide,
-#   coinage_cation) by least squares of the
+#   coinage_cation, heavy_halate) by least squares of the
 #   calibration residuals with the weights above held (corrections on top of the ionic index,
 #   as the organic terms are). Calibration set: datasets/melting/wikidata_salts.csv (CC0, 128 salts with an
 #   index) and the calibration half of the open training set fit-melting builds at run
@@ -102,6 +102,9 @@ TREND_WEIGHTS: dict[str, float] = {
     # Cu(+), Ag(+), Au(+): Born-Haber lattice energies about 10 % above the point-ion value
     # (AgCl, CuI), a covalent cohesion the volume-based lattice energy misses
     "coinage_cation": 0.101,
+    # bromates and iodates: the X(V) lone pair's long X...O secondary bonds join the anions into a
+    # network the point-ion lattice energy misses (KIO3 833 K)
+    "heavy_halate": 0.134,
     # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
     # melting point per unit of the electronegativity variance (Pauling's heat of formation),
     # least squares through the origin on the calibration rows of
@@ -202,6 +205,7 @@ def melting_trend_index(
     saline_nitride_fraction=0.0,
     soft_pseudohalide_fraction=0.0,
     coinage_cation_fraction=0.0,
+    heavy_halate_fraction=0.0,
     *,
     weights=None,
 ):
@@ -337,6 +341,12 @@ def melting_trend_index(
         Born-Haber lattice energies exceed the point-ion values by about
         10 % (Waddington 1959), a cohesion the volume-based lattice energy
         misses (AgCl 728 K, CuI 879 K; CRC Handbook via chemicals). Weight ``w_Cu``.
+    heavy_halate_fraction : float or array-like, default=0.0
+        ``f_XO3``: the share of the anions that are bromate or iodate
+        (:func:`scorer.melting_anions.heavy_halate_fraction`): the X(V) lone
+        pair's long X...O secondary bonds (Alcock 1972) join the anions into
+        a network the point-ion lattice energy misses (KIO3 833 K, LiIO3
+        723 K; CRC Handbook via chemicals). Weight ``w_XO3``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -396,6 +406,7 @@ def melting_trend_index(
             - w["saline_nitride"] * _floats(saline_nitride_fraction)
             + w["soft_cation_pseudohalide"] * _floats(soft_pseudohalide_fraction)
             + w["coinage_cation"] * _floats(coinage_cation_fraction)
+            + w["heavy_halate"] * _floats(heavy_halate_fraction)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part
