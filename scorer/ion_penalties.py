@@ -18,6 +18,7 @@ fulminate, ammine and hydroxo complexes, alkoxides ...)
 H3O+ or an oxocation (NO2+, UO2(2+), VO(2+) ...)        2
 a hydrogen-oxoanion (HSO4-: H2SO4 reads as 2 H+)       0.05
 mercury as Hg(+) (mercury(I) is Hg2(2+))               1
+Al(2+), Ga(2+), In(2+), Tl(2+) (group 13 has no M(2+))  1.5
 each distinct ion species                              0.1
 ====================================================  =======
 
@@ -48,6 +49,12 @@ _PENALTY_PROTON = 1.5
 _PBLOCK_CATIONS = frozenset({("Sb", 3), ("Te", 4), ("Sb", 5), ("Te", 6)})
 _PENALTY_PBLOCK_CATION = 1.0
 _PENALTY_MIXED_VALENCE = 1.0
+# Group 13 holds no M(2+) ion: "GaCl2" and "InCl2" are M(I)[M(III)Cl4] (Ga(+)[GaCl4](-)), TlS and
+# TlSe Tl(I)Tl(III); a formal M(II) is always a metal-metal bond (Ga2Cl6(2-), the Ga2(4+) pairs of
+# GaS) (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 7.3.5 and 7.3.6; from
+# memory): dearer than the M(I)/M(III) readings
+_NO_DIVALENT_ION = frozenset({("Al", 2), ("Ga", 2), ("In", 2), ("Tl", 2)})
+_PENALTY_NO_DIVALENT_ION = 1.5
 _PENALTY_RARE_ANION = 1.5
 _PENALTY_UNCOMMON_ION = 0.5
 # O-O anions only where no mixed valence explains the oxygen (YBa2Cu3O7 is
@@ -120,6 +127,8 @@ def _monatomic_options(symbol: str, count: float):
                 penalty += _PENALTY_NONMETAL_CATION
         if symbol == "Hg" and state == 1:
             penalty += 1.0
+        if (symbol, state) in _NO_DIVALENT_ION:
+            penalty += _PENALTY_NO_DIVALENT_ION
         options.append(("single", state, penalty))
     options.sort(key=lambda o: o[2])
     if metal:

@@ -224,3 +224,16 @@ def test_percarbonate_keeps_carbonate():
     record = score_formula("Na2CO3·1.5H2O2")
     assert record["cations"] == "Na(+)*2"
     assert record["anions"] == "CO3(2-)*1"
+
+
+@pytest.mark.parametrize("formula, cations, anions", [
+    # gallium "dichloride" is gallium(I) tetrachloridogallate(III); TlS and TlSe are thallium(I)
+    # thallium(III) chalcogenides: group 13 holds no M(2+) ion (Greenwood & Earnshaw, Chemistry of
+    # the Elements, 2nd ed., 1997, ch. 7.3.5-7.3.6; from memory)
+    ("Ga2Cl4", "Ga(+)*1", "GaCl4(-)*1"),
+    ("TlSe", "Tl(+)*0.5;Tl(3+)*0.5", "Se(2-)*1"),
+    ("TlS", "Tl(+)*0.5;Tl(3+)*0.5", "S(2-)*1"),
+])
+def test_group_13_has_no_divalent_cation(formula, cations, anions):
+    record = score_formula(formula)
+    assert (record["cations"], record["anions"]) == (cations, anions)
