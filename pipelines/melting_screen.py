@@ -20,6 +20,7 @@ from ionicity.pipelines.melting_cli import TOLERANCE_K
 from ionicity.scorer.bond_class_rules import keeps_formal_salt_reading
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.lattice import whole_unit_factor
 from ionicity.scorer.melting import formal_salt_reading
 
 __all__ = [
@@ -169,6 +170,21 @@ def _ion_names(ion) -> tuple[str, ...]:
     return tuple(sorted(names))
 
 
+def _halo_complex_named(ion, folded: str, cation_elements) -> bool:
+    """A halo-complex anion of a metal that is also a cation of the reading, named as that metal's
+    halide (``gallium dichloride`` for Ga(+)[GaCl4](-), ``indium dichloride`` for In(+)[InCl4](-)).
+    Double salts of two metals (K2PtCl6, Li3AlF6) are not taken this way: their names must name the
+    complex."""
+    if ion.family != "halo-complex":
+        return False
+    elements = dict(ion.composition)
+    halides = [s for s in elements if s in ("F", "Cl", "Br", "I")]
+    metals = [s for s in elements if s not in halides]
+    return (len(halides) == 1 and len(metals) == 1 and metals[0] in cation_elements
+            and any(w in folded for w in _ANION_WORDS[halides[0]])
+            and any(stem in folded for stem in _element_stems(metals[0])))
+
+
 def name_agrees_with_ions(name: str, dec) -> tuple[bool, str]:
     """Whether a compound's name mentions every ion the formula was read as.
 
@@ -215,7 +231,8 @@ def name_agrees_with_ions(name: str, dec) -> tuple[bool, str]:
             if not ok and ion.element == "O":
                 ok = any(s[:5] + "at" in folded for s in cation_stems if len(s) >= 4)
         else:
-            ok = any(n in folded for n in _ion_names(ion))
+            ok = any(n in folded for n in _ion_names(ion)) or _halo_complex_named(
+                ion, folded, {t.ion.element for t in dec.cations if t.ion.monatomic})
         if not ok:
             return False, f"{ion.ion_id} not named"
     return True, ""
@@ -225,7 +242,8 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
     """Whether a scored entry may enter the training set, and why not.
 
     Kept: anhydrous, charge-balanced ``ionic_salt`` or ``ionic_liquid_pair``
-    readings without an ambiguity and with whole ion counts, with metal
+    readings without an ambiguity and with whole ion counts (or half counts of a doubled
+    formula unit without a metal split over two lone cations: GaCl2 as Ga(+)[GaCl4](-)), with metal
     cations (a +1 state only where the element has one in common use) or
     polyatomic/organic cations,
     halide, chalcogenide, nitride or hydride monatomic anions, no molecular
@@ -246,8 +264,13 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
         return False, "hydrate"
     if dec.alternatives:
         return False, "ambiguous ion reading"
+    # half counts of a whole formula without a metal split over two lone cations are its unit written
+    # at half size (GaCl2 = Ga(+)*0.5 with GaCl4(-)*0.5, HgCl = Hg2(2+)*0.5 with Cl(-)), which the index
+    # takes whole; TlSe as Tl(+)*0.5;Tl(3+)*0.5 stays out, a mixed-valence reading
+    lone = [t.ion.element for t in dec.cations if t.ion.monatomic]
+    whole = whole_unit_factor(dec.cations, dec.anions) if len(lone) == len(set(lone)) else 1
     for term in dec.cations + dec.anions:
-        if abs(term.count - round(term.count)) > 1e-6:
+        if abs(term.count * whole - round(term.count * whole)) > 1e-6:
             return False, f"fractional ion count ({term}): a mixed-valence or non-stoichiometric reading"
     for term in dec.cations:
         ion = term.ion

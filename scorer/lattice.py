@@ -89,6 +89,7 @@ __all__ = [
     "kapustinskii_lattice_energy_kJ_mol",
     "glasser_kapustinskii_lattice_energy_kJ_mol",
     "glasser_jenkins_vbt_lattice_energy_kJ_mol",
+    "whole_unit_factor",
     "born_haber_lattice_energy_kJ_mol",
     "born_exponent",
     "assign_structure_type",
@@ -241,6 +242,25 @@ _RUNS_LOW_NOTE = (
 _NOT_FOR_ACIDS = "lattice energies: not estimated for an acid (a molecular substance, not an ionic crystal)"
 
 
+def whole_unit_factor(cations, anions) -> int:
+    """2 when doubling makes every ion count whole and some count is a half; else 1.
+
+    A reading with half counts (GaCl2 as Ga(+)*0.5 with GaCl4(-)*0.5, a mixed valence as
+    Tl(+)*0.5;Tl(3+)*0.5) is a whole unit written at half size. Finer fractions are
+    non-stoichiometric compositions (TiO1.9, La0.7Sr0.3MnO3), taken as written.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [whole_unit_factor(d.cations, d.anions) for d in map(decompose, map(parse_formula, ("NaCl", "GaCl2", "Fe3O4", "TiO1.9")))]
+    [1, 2, 1, 1]
+    """
+    counts = [t.count for t in (*cations, *anions)]
+    for k in (1, 2):
+        if all(abs(c * k - round(c * k)) < 1e-9 for c in counts):
+            return k
+    return 1
+
+
 @per_input(maxsize=65536)
 def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_water: float) -> LatticeEnergies:
     """The lattice energies of a salt, cached per set of ions (every spelling,
@@ -276,11 +296,21 @@ def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_
         notes.append(f"VBT: no formula-unit volume ({why_volume})")
     else:
         salt_type = _vbt_salt_type(cations, anions)
+        # VBT is fitted on whole formula units and is not linear in their size (the beta term,
+        # Vm^(-1/3)): a reading with half counts (Tl(+)*0.5;Tl(3+)*0.5 for TlSe, Ga(+)*0.5 with
+        # GaCl4(-)*0.5 for GaCl2) is taken at its smallest whole unit and the energy divided back
+        whole = whole_unit_factor(cations, anions)
+        ionic_strength, volume = ionic_strength * whole, volume * whole
         u = glasser_jenkins_vbt_lattice_energy_kJ_mol(ionic_strength, volume, salt_type=salt_type)
         if salt_type == "general":
             limiting = glasser_jenkins_vbt_lattice_energy_kJ_mol(ionic_strength, volume, salt_type="limiting")
             if limiting > VBT_LIMITING_ABOVE_KJ_MOL:
                 salt_type, u = "limiting", limiting
+        u /= whole
+        ionic_strength, volume = ionic_strength / whole, volume / whole
+        if whole != 1:
+            lines.append(f"Glasser-Jenkins VBT: taken for {whole} formula units as written (whole ion counts),"
+                         f" the energy divided by {whole}")
         values["lattice_energy_vbt_kJ_mol"] = u
         if salt_type == "limiting":
             a = VBT_LIMITING_A_KJ_NM_MOL

@@ -100,9 +100,19 @@ def normalized_formula(comp: ParsedFormula, dec: Decomposition) -> str:
             merged[key] = IonTerm(merged[key].ion, merged[key].count + term.count)
         else:
             merged[key] = term
+    if any(abs(t.count - round(t.count)) > 1e-9 for t in merged.values()) and all(
+            float(n).is_integer() for _, n in comp.counts):
+        # a whole formula read at half a unit (GaCl2 as Ga(+)*0.5 with GaCl4(-)*0.5, HgCl as
+        # Hg2(2+)*0.5 with Cl(-)): written as given, in IUPAC order, not with half counts
+        return _inorganic_order(comp) + _hydrate_text(dec)
     ionic_liquid = any(t.ion.organic for t in dec.cations)
     text = "".join(_ion_text(t, ionic_liquid) for t in merged.values())
-    text += "".join("·" + _adduct_text(p) for p in dec.neutral_parts)
+    return text + _hydrate_text(dec)
+
+
+def _hydrate_text(dec: Decomposition) -> str:
+    """The neutral parts and lattice water of a normalized formula (``·2NH3``, ``·5H2O``)."""
+    text = "".join("·" + _adduct_text(p) for p in dec.neutral_parts)
     if dec.hydrate_water:
         water = format_count(dec.hydrate_water)
         text += "·" + ("" if water == "1" else water) + "H2O"
