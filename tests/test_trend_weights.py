@@ -97,18 +97,18 @@ def test_calibration_the_spread_matching_factor_is_modest(refitted_salt_weights)
 
 
 def test_validation_held_out_half_of_the_open_set(open_salt_rows):
-    # the figures README.md quotes (chemicals 1.5.2): Spearman 0.817, 85.1 % within a factor 1.5,
-    # class right for 80.3 %; a floor a little under each
+    # the figures README.md quotes (chemicals 1.5.2): Spearman 0.829, 86.0 % within a factor 1.5,
+    # class right for 81.1 %; a floor a little under each
     from scipy.stats import spearmanr
 
     held_out = [r for r in open_salt_rows if r[0] == "validation"]
     trend = np.array([10 ** t.index() for _, t, _, _ in held_out])
     measured = np.array([mp for _, _, mp, _ in held_out])
-    assert spearmanr(trend, measured).correlation >= 0.81
-    assert np.mean(np.abs(np.log(trend / measured)) < np.log(1.5)) >= 0.84
+    assert spearmanr(trend, measured).correlation >= 0.82
+    assert np.mean(np.abs(np.log(trend / measured)) < np.log(1.5)) >= 0.85
     bands = (373.15, 573.15, 1773.15)
     same = [np.searchsorted(bands, a) == np.searchsorted(bands, b) for a, b in zip(trend, measured)]
-    assert np.mean(same) >= 0.79
+    assert np.mean(same) >= 0.80
     hot = measured >= 1773.15
     # refractory compounds of the held-out half called refractory (salt route; 0.857 of 35)
     assert np.mean(trend[hot] >= 1773.15) >= 0.78
