@@ -128,8 +128,8 @@ def _may_balance(moves_of, splits, n_of, needed: float, cap: float, reach) -> bo
     charge within the state's hull. So where no final state holds ``needed`` the
     knapsack finds nothing, trimmed or not, and is not run. It costs one unit
     per option tried (a few states x options, against the knapsack's 64 states x
-    options); on the 48 random formulas of issue 14 that reached the work limit it
-    spared about 2,200 of 2,600 tables, all of them empty.
+    options). Asked only where the counts are decimal (DEVELOPERS.md, "The
+    charge-balance solver and its cost").
     """
     lows, highs = reach
     cheapest = [min([penalty for _, _, penalty in moves] + ([penalty for _, penalty in splits[i]] if splits else []))
