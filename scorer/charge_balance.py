@@ -258,7 +258,8 @@ def _reach(spans, extra=None) -> tuple[list[float], list[float]]:
 @per_input(maxsize=65536)
 def _element_choices(symbol: str, count: float, excluded=frozenset()):
     """What the knapsack needs of one leftover element, computed once per
-    (element, count): (single states ((state, penalty), ...), splits over two
+    (element, count): (single states ((state, penalty), ...), cheapest first as
+    :func:`scorer.ion_penalties._monatomic_options` gives them, splits over two
     states (((s1, s2), penalty), ...), (least, greatest) charge of a single
     state, decimals, count x 10**decimals, the knapsack's moves at that
     scale). Counts reach the solver rounded to
@@ -379,19 +380,19 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: i
         else:
             lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
             hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
-        n_moves = len(moves)
         split_options = splits[i] if splits else ()
         following: dict[tuple[int, tuple], list] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
         # than a helper: this loop is most of the solver's time)
         for state_key, (penalty, count, _) in table.items():
             charge, split = state_key
-            # every option tried counts, whether or not it is kept
-            work += n_moves
-            for move, state, option_penalty in moves:
+            # every option tried counts, whether or not it is kept; the options come
+            # cheapest first (:func:`_element_choices`), so the first over the cap ends them
+            tried = 0
+            for tried, (move, state, option_penalty) in enumerate(moves, 1):
                 p = penalty + option_penalty
                 if p > over:
-                    continue
+                    break
                 c = charge + move
                 if not split and not lo <= c <= hi:
                     continue
@@ -402,6 +403,7 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: i
                 elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
                     held[1] = min(held[1] + count, _MAX_TIES)
                     held[2].append((state_key, state))
+            work += tried
             if split_options and not split:
                 work += len(split_options)
                 for pair, option_penalty in split_options:
