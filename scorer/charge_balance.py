@@ -74,13 +74,10 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     if prepared is None:
         return ()
     symbols, elements, n_of, moves, spans, scale, stoichiometric, reach = prepared
-    # with decimal counts, each table only where its relaxation (:func:`_may_balance`)
-    # leaves room for an assignment
-    relaxed = scale > 1
     out = [
         (penalty, tuple((symbols[i], state, n_of[i]) for i, state in enumerate(picks)))
         for penalty, picks in _knapsack(moves, (), n_of, needed, cap, reach, scale)
-    ] if not relaxed or _may_balance(moves, (), n_of, needed, cap, reach) else []
+    ]
     best = min((p + _PENALTY_SPECIES * len(symbols) for p, _ in out), default=float("inf"))
     # single states everywhere first: a reading with one element split has one
     # species more and pays the split's penalty, so it competes only where no
@@ -89,10 +86,7 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
     splits = [tuple([(pair, penalty) for pair, penalty in element[1] if penalty <= mixed_cap + _TOL]) for element in elements]
     if mixed_cap + _TOL >= _PENALTY_MIXED_VALENCE and any(splits):
         split_charges = [[state * n for pair, _ in options for state in pair] for options, n in zip(splits, n_of)]
-        split_reach = _reach(spans, split_charges)
-        mixed = (_knapsack(moves, splits, n_of, needed, mixed_cap, split_reach, scale)
-                 if not relaxed or _may_balance(moves, splits, n_of, needed, mixed_cap, split_reach) else ())
-        for penalty, picks in mixed:
+        for penalty, picks in _knapsack(moves, splits, n_of, needed, mixed_cap, _reach(spans, split_charges), scale):
             j = next(i for i, pick in enumerate(picks) if isinstance(pick, tuple))
             (s1, s2), rest, n = picks[j][0], picks[j][1], n_of[j]
             # x ions at s1 and n - x at s2 carry the charge the others leave
@@ -108,68 +102,6 @@ def _assign_monatomic_solved(remaining: tuple[tuple[str, float], ...], needed: f
         return ()
     best = min(p + _PENALTY_SPECIES * len(t) for p, t in out)
     return tuple((p, t) for p, t in out if p + _PENALTY_SPECIES * len(t) <= best + _TOL)
-
-
-def _may_balance(moves_of, splits, n_of, needed: float, cap: float, reach) -> bool:
-    """Whether :func:`_knapsack` over these elements may find an assignment: the same
-    dynamic programming, relaxed so that a table holds a few states whatever the counts.
-
-    A state is a penalty level (the whole part of the penalty so far) and whether
-    an element is split; it keeps the least penalty and the lowest and highest
-    charge of the partial assignments it stands for (their hull: the charges
-    between are kept too, a split carries any charge between its two ends). An
-    option dearer than the cap less the other elements' cheapest options is out, a
-    state whose penalty leaves the elements still to come less than their
-    cheapest is dropped, and the charge is clipped to what the elements still to
-    come can bring to ``needed`` (``reach``, as the knapsack's window, with twice
-    its tolerance). Every assignment the knapsack can return -- within the cap,
-    summing to ``needed``, one split with ``splits`` and none without -- lies in
-    some state of every table: its penalty is at least the state's, its partial
-    charge within the state's hull. So where no final state holds ``needed`` the
-    knapsack finds nothing, trimmed or not, and is not run. It costs one unit
-    per option tried (a few states x options, against the knapsack's 64 states x
-    options). Asked only where the counts are decimal (DEVELOPERS.md, "The
-    charge-balance solver and its cost").
-    """
-    lows, highs = reach
-    cheapest = [min([penalty for _, _, penalty in moves] + ([penalty for _, penalty in splits[i]] if splits else []))
-                for i, moves in enumerate(moves_of)]
-    after = [0.0] * (len(moves_of) + 1)
-    for i in range(len(moves_of) - 1, -1, -1):
-        after[i] = after[i + 1] + cheapest[i]
-    # the knapsack's tolerance and a little more: the sums here are added in another order
-    over = cap + _TOL + 1e-9
-    # (penalty level, whether a split is used) -> [least penalty, lowest charge, highest charge]
-    table = {(0, False): (0.0, 0.0, 0.0)}
-    work = 1
-    for i, moves in enumerate(moves_of):
-        n = n_of[i]
-        low, high = needed - highs[i + 1] - 2 * _TOL, needed - lows[i + 1] + 2 * _TOL
-        room = over - after[i + 1]
-        afford = over - after[0] + cheapest[i]
-        options = [(state * n, state * n, penalty, False) for _, state, penalty in moves if penalty <= afford]
-        if splits and splits[i]:
-            options += [(s1 * n, s2 * n, penalty, True) for (s1, s2), penalty in splits[i] if penalty <= afford]
-        following: dict = {}
-        for (_, used), (penalty, lo, hi) in table.items():
-            work += len(options)
-            for least, most, option_penalty, split in options:
-                p = penalty + option_penalty
-                if p > room or (split and used):
-                    continue
-                c_lo, c_hi = max(lo + least, low), min(hi + most, high)
-                if c_lo > c_hi:
-                    continue
-                key = (int(p + 1e-9), used or split)
-                held = following.get(key)
-                following[key] = (p, c_lo, c_hi) if held is None else (
-                    min(held[0], p), min(held[1], c_lo), max(held[2], c_hi))
-        table = following
-        if not table:
-            break
-    _WORK[0] += work
-    want = bool(splits)
-    return any(used == want and lo - 2 * _TOL <= needed <= hi + 2 * _TOL for (_, used), (_, lo, hi) in table.items())
 
 
 def _within_reach(remaining: tuple[tuple[str, float], ...], needed: float, cap: float) -> bool:
@@ -258,8 +190,7 @@ def _reach(spans, extra=None) -> tuple[list[float], list[float]]:
 @per_input(maxsize=65536)
 def _element_choices(symbol: str, count: float, excluded=frozenset()):
     """What the knapsack needs of one leftover element, computed once per
-    (element, count): (single states ((state, penalty), ...), cheapest first as
-    :func:`scorer.ion_penalties._monatomic_options` gives them, splits over two
+    (element, count): (single states ((state, penalty), ...), splits over two
     states (((s1, s2), penalty), ...), (least, greatest) charge of a single
     state, decimals, count x 10**decimals, the knapsack's moves at that
     scale). Counts reach the solver rounded to
@@ -380,19 +311,19 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: i
         else:
             lo = _least_scaled(needed - highs[i + 1] - _TOL, scale)
             hi = _most_scaled(needed - lows[i + 1] + _TOL, scale)
+        n_moves = len(moves)
         split_options = splits[i] if splits else ()
         following: dict[tuple[int, tuple], list] = {}
         # the cheapest choices reaching each state, ties kept (written out rather
         # than a helper: this loop is most of the solver's time)
         for state_key, (penalty, count, _) in table.items():
             charge, split = state_key
-            # every option tried counts, whether or not it is kept; the options come
-            # cheapest first (:func:`_element_choices`), so the first over the cap ends them
-            tried = 0
-            for tried, (move, state, option_penalty) in enumerate(moves, 1):
+            # every option tried counts, whether or not it is kept
+            work += n_moves
+            for move, state, option_penalty in moves:
                 p = penalty + option_penalty
                 if p > over:
-                    break
+                    continue
                 c = charge + move
                 if not split and not lo <= c <= hi:
                     continue
@@ -403,7 +334,6 @@ def _knapsack(moves_of, splits, n_of, needed: float, cap: float, reach, scale: i
                 elif p <= held[0] + _TOL and held[1] < _MAX_TIES:
                     held[1] = min(held[1] + count, _MAX_TIES)
                     held[2].append((state_key, state))
-            work += tried
             if split_options and not split:
                 work += len(split_options)
                 for pair, option_penalty in split_options:

@@ -3,9 +3,7 @@
 This is scorer/charge_balance.py's knapsack as it was before its speed-ups
 (the charge a float rounded to 1e-9 at every transition, the choices written
 out at every transition, each table sorted whole to trim it): the fast form
-must give the same readings, in the same order, and count the same work (each
-option tried up to the first over the cap: the single states come cheapest
-first, issue 14).
+must give the same readings, in the same order, and count the same work.
 Work is counted on the scorer's own counter so the two can be compared.
 """
 from __future__ import annotations
@@ -121,8 +119,7 @@ def _plain_knapsack(singles, splits, n_of, needed: float, cap: float):
                 work += 1
                 p = penalty + option_penalty
                 if p > cap + _TOL:
-                    # the options come cheapest first: the later ones are over the cap too
-                    break
+                    continue
                 c = charge + state * n if whole else round(charge + state * n, 9)
                 if not split and not lo <= c <= hi:
                     continue
