@@ -22,11 +22,10 @@ fitted on the calibration half alone. No melting point is written: they are read
 """
 from __future__ import annotations
 
-import csv
-import io
 import re
-import sys
 from pathlib import Path
+
+from set_file import csv_text, write_or_check  # this folder's shared writer (see set_file.py)
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "hydrogen_bonded_molecules.csv"
@@ -67,17 +66,9 @@ def build() -> str:
         if record.get("mp_route") != "molecular":
             continue
         rows.append((hill, cas, str(crc.loc[cas, "Chemical"]), open_set_half(record["formula_normalized"])))
-    out = io.StringIO()
-    writer = csv.writer(out, lineterminator="\n")
-    writer.writerow(["formula", "cas", "name", "set", "source"])
-    for hill, cas, name, split in sorted(rows):
-        writer.writerow([hill, cas, name, split, SOURCE])
-    return out.getvalue()
+    return csv_text(["formula", "cas", "name", "set", "source"],
+                    ([hill, cas, name, split, SOURCE] for hill, cas, name, split in sorted(rows)))
 
 
 if __name__ == "__main__":
-    text = build()
-    if sys.argv[1:] == ["--check"]:
-        sys.exit(0 if OUT.exists() and OUT.read_text(encoding="utf-8") == text else 1)
-    OUT.write_text(text, encoding="utf-8")
-    print(f"{text.count(chr(10)) - 1} rows written to {OUT}", file=sys.stderr)
+    write_or_check(build(), OUT)

@@ -14,12 +14,12 @@ CAS number), which stays validation of the audit only. ``set``: ``calibration`` 
 """
 from __future__ import annotations
 
-import csv
-import io
 import os
 import re
 import sys
 from pathlib import Path
+
+from set_file import csv_text, write_or_check  # this folder's shared writer (see set_file.py)
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "intermetallic_compounds.csv"
@@ -68,17 +68,10 @@ def build() -> str:
                 normalized = record["formula_normalized"]
                 split = "excluded" if hill in EXCLUDED else open_set_half(normalized)
                 rows[normalized] = (hill, cas, split, EXCLUDED.get(hill, ""))
-    out = io.StringIO()
-    writer = csv.writer(out, lineterminator="\n")
-    writer.writerow(["formula", "formula_normalized", "cas", "set", "note", "source"])
-    for normalized, (hill, cas, split, note) in sorted(rows.items()):
-        writer.writerow([hill, normalized, cas, split, note, SOURCE])
-    return out.getvalue()
+    return csv_text(["formula", "formula_normalized", "cas", "set", "note", "source"],
+                    ([hill, normalized, cas, split, note, SOURCE]
+                     for normalized, (hill, cas, split, note) in sorted(rows.items())))
 
 
 if __name__ == "__main__":
-    text = build()
-    if sys.argv[1:] == ["--check"]:
-        sys.exit(0 if OUT.read_text(encoding="utf-8") == text else 1)
-    OUT.write_text(text, encoding="utf-8")
-    print(f"{text.count(chr(10)) - 1} rows written to {OUT}", file=sys.stderr)
+    write_or_check(build(), OUT)

@@ -24,12 +24,11 @@ file differs from a rebuild.
 """
 from __future__ import annotations
 
-import csv
-import io
 import os
 import re
-import sys
 from pathlib import Path
+
+from set_file import csv_text, write_or_check  # this folder's shared writer (see set_file.py)
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "organic_molecules.csv"
@@ -78,17 +77,9 @@ def build() -> str:
             continue
         normalized = record["formula_normalized"]
         rows.append((hill, cas, str(crc.loc[cas, "Name"]), open_set_half(normalized)))
-    out = io.StringIO()
-    writer = csv.writer(out, lineterminator="\n")
-    writer.writerow(["formula", "cas", "name", "set", "source"])
-    for hill, cas, name, split in sorted(rows):
-        writer.writerow([hill, cas, name, split, SOURCE])
-    return out.getvalue()
+    return csv_text(["formula", "cas", "name", "set", "source"],
+                    ([hill, cas, name, split, SOURCE] for hill, cas, name, split in sorted(rows)))
 
 
 if __name__ == "__main__":
-    text = build()
-    if sys.argv[1:] == ["--check"]:
-        sys.exit(0 if OUT.read_text(encoding="utf-8") == text else 1)
-    OUT.write_text(text, encoding="utf-8")
-    print(f"{text.count(chr(10)) - 1} rows written to {OUT}", file=sys.stderr)
+    write_or_check(build(), OUT)
