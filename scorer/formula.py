@@ -502,17 +502,29 @@ def _as_hydrate(cleaned: str) -> ParsedFormula | None:
         if not 0 < count <= MAX_COUNT:
             return None
         water += count
+    salt_and_atoms = _hydrate_salt(parts[0])
+    if salt_and_atoms is None:
+        return None
+    salt, salt_atoms = salt_and_atoms
+    water += salt.hydrate_water
+    total_atoms = salt_atoms + 3 * water
+    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
+        return None
+    return salt.respelled(cleaned, hydrate_water=water)
+
+
+@per_input(maxsize=65536)
+def _hydrate_salt(text: str) -> tuple[ParsedFormula, float] | None:
+    """The salt part of a hydrate (:func:`_as_hydrate`) parsed, with its number of atoms; None when it does
+    not parse or reads differently alone (a charge, a note, only H and O). Once per salt part: every hydrate
+    of one salt shares it."""
     try:
-        salt = _parse_normalised(parts[0])
+        salt = _parse_normalised(text)
     except FormulaError:
         return None
     if salt.charge or salt.notes or all(symbol in ("H", "O") for symbol, _ in salt.counts):
         return None
-    water += salt.hydrate_water
-    total_atoms = sum(n for _, n in salt.counts) + 3 * water
-    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
-        return None
-    return salt.respelled(cleaned, hydrate_water=water)
+    return salt, sum(n for _, n in salt.counts)
 
 
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
