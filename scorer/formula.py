@@ -202,6 +202,22 @@ def _normalise_text(text: str) -> str:
     return "".join(text.split())
 
 
+# Plain formula text: ASCII letters and digits, brackets, the middle dot (U+00B7, the first of
+# _DOT_SEPARATORS) and the ASCII dot and star, nothing else (most cells). Each step before the grammar leaves
+# such a text as it is but the dot: no comma (_SOLID_SOLUTION_SITE), no sign (_NONSTOICHIOMETRY,
+# _HYPHENATED_PAIR), no whitespace (_SPACED_TIMES, _SPACED_WATER, the two words of _shorthand_with_spaces), and
+# no other character _normalise_text maps (super- or subscripts, fractions, format characters, other dots,
+# minus signs; NFKC leaves ASCII as it is). tests/test_hot_path.py compares the two ways on the benchmark's
+# texts, the reference cases and random plain text.
+_PLAIN = re.compile(r"[A-Za-z0-9()\[\]\u00b7.*]+")
+
+
+def _plain_normalised(text: str) -> str:
+    """:func:`_normalise_text` and :func:`_shorthand_with_spaces` of a :data:`_PLAIN` text: the middle dot
+    written as the adduct star."""
+    return text.replace("\u00b7", "*")
+
+
 _CHARGE_PATTERNS = (
     re.compile(r"\^\(?(?P<digits>\d*)(?P<sign>[+-])\)?$"),
     re.compile(r"\^\(?(?P<sign>[+-])(?P<digits>\d*)\)?$"),
@@ -272,8 +288,26 @@ def _names_known_ion(body: str, charge: int) -> bool:
     return ion_library.is_known_ion(counts, charge)
 
 
+# A salt and its counted lattice water after one star or dot, nothing else (CuSO4*5H2O, KCl.0.5H2O): the
+# split _split_components makes of it when the salt's brackets balance (no separator can fall inside the salt,
+# which holds no * + or .; the dot before the water is a separator, _ADDUCT_AFTER_DOT matching what follows;
+# the water's count is read whole by NUMBER). tests/test_hot_path.py compares it with the loop.
+_SALT_AND_WATER = re.compile(r"(?P<salt>[^*+.]+)[*.](?P<water>(?:\d+(?:\.\d+)?)?H2O)")
+
+
 def _split_components(text: str) -> list[str]:
     """Split at adduct separators outside brackets, keeping decimals whole."""
+    m = _SALT_AND_WATER.fullmatch(text)
+    if m is not None:
+        salt = m.group("salt")
+        if (salt.count("(") + salt.count("[") + salt.count("{")
+                == salt.count(")") + salt.count("]") + salt.count("}")):
+            return [salt, m.group("water")]
+    return _split_components_loop(text)
+
+
+def _split_components_loop(text: str) -> list[str]:
+    """:func:`_split_components`, character by character (every text the fast split does not take)."""
     parts: list[str] = []
     depth = 0
     start = 0
@@ -380,12 +414,15 @@ def parse_formula(text: str) -> ParsedFormula:
         formula, name = solvent
         notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
-    if "," in text_to_parse and _SOLID_SOLUTION_SITE.search(text_to_parse):
+    # most cells are plain (_PLAIN): no comma, sign or space, so no solid-solution site, written
+    # non-stoichiometry, spaced or hyphenated ion pair, and nothing for _normalise_text to map but the dot
+    plain = _PLAIN.fullmatch(text_to_parse) is not None
+    if not plain and "," in text_to_parse and _SOLID_SOLUTION_SITE.search(text_to_parse):
         shared = _SOLID_SOLUTION_SITE.sub(_equal_shares, text_to_parse)
         notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
                      f" assumed, {shared.strip()}; write the fractions, e.g. Cu(In0.7Ga0.3)Se2")
         text_to_parse = shared
-    if _NONSTOICHIOMETRY.search(text_to_parse):
+    if not plain and _NONSTOICHIOMETRY.search(text_to_parse):
         exact = nonstoichiometric_text(text_to_parse)
         notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
                      " (x = 0)")
@@ -394,8 +431,12 @@ def parse_formula(text: str) -> ParsedFormula:
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
         text_to_parse = reagent
-    text_to_parse = _shorthand_with_spaces(text_to_parse)
-    cleaned = _normalise_text(text_to_parse)
+        plain = False
+    if plain:
+        cleaned = _plain_normalised(text_to_parse)
+    else:
+        text_to_parse = _shorthand_with_spaces(text_to_parse)
+        cleaned = _normalise_text(text_to_parse)
     cleaned, abbreviations = expand_abbreviations(cleaned)
     if abbreviations:
         notes.append("read the abbreviations " + ", ".join(abbreviations) + " (common practice)")
@@ -461,17 +502,29 @@ def _as_hydrate(cleaned: str) -> ParsedFormula | None:
         if not 0 < count <= MAX_COUNT:
             return None
         water += count
+    salt_and_atoms = _hydrate_salt(parts[0])
+    if salt_and_atoms is None:
+        return None
+    salt, salt_atoms = salt_and_atoms
+    water += salt.hydrate_water
+    total_atoms = salt_atoms + 3 * water
+    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
+        return None
+    return salt.respelled(cleaned, hydrate_water=water)
+
+
+@per_input(maxsize=65536)
+def _hydrate_salt(text: str) -> tuple[ParsedFormula, float] | None:
+    """The salt part of a hydrate (:func:`_as_hydrate`) parsed, with its number of atoms; None when it does
+    not parse or reads differently alone (a charge, a note, only H and O). Once per salt part: every hydrate
+    of one salt shares it."""
     try:
-        salt = _parse_normalised(parts[0])
+        salt = _parse_normalised(text)
     except FormulaError:
         return None
     if salt.charge or salt.notes or all(symbol in ("H", "O") for symbol, _ in salt.counts):
         return None
-    water += salt.hydrate_water
-    total_atoms = sum(n for _, n in salt.counts) + 3 * water
-    if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
-        return None
-    return salt.respelled(cleaned, hydrate_water=water)
+    return salt, sum(n for _, n in salt.counts)
 
 
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:

@@ -136,7 +136,8 @@ _BLEND_WORDS = (" salt", " salts", " eutectic", " mixture", " blend", " melt")
 def _blend(text: str) -> tuple[str, str, str] | None:
     key = blend_key(text)
     found = _USER_BLENDS.get(key) or _blends().get(key)
-    if found is None:
+    # every word of _BLEND_WORDS starts with a space: a key without one (a formula) ends in none of them
+    if found is None and " " in key:
         for word in _BLEND_WORDS:
             if key.endswith(word) and key != word.strip():
                 stem = key[: -len(word)]

@@ -376,3 +376,66 @@ def test_trie_tokeniser_cuts_every_name_as_the_prefix_set_did():
         assert fast == _plain_tokenise(name), name
         cut += fast is not None
     assert cut > 3000  # most names above are cut into words, the soup mostly not
+
+
+def _plain_texts() -> list[str]:
+    """Formula texts for the parser's shortcuts: the reference cases, the demo inventory, every
+    formula column of tests/data, the benchmark's formulas, and random text over the plain
+    alphabet and beyond it (Unicode dots and digits, signs, spaces, commas, brackets)."""
+    texts = _sample_formulas() + realistic_formulas(20000)
+    for name, column in (("inorganic_audit.csv", "formula"), ("lattice_reference.csv", "compound"),
+                         ("name_cases.csv", "formula"), ("salt_hydrates_registry.csv", "formula")):
+        texts += [r[column] for r in csv.DictReader(open(f"tests/data/{name}", encoding="utf-8"))]
+    rng = random.Random(17)
+    plain = "HCNOSKaFelMgubrI()[]{}\u00b7.*0123456789"
+    other = plain + " ,+-\u2212\u2022\u00d7\u2082\u00b2\u0665x\u03b4\u00bd\u200b\ufeff"
+    for alphabet in (plain, other):
+        texts += ["".join(rng.choice(alphabet) for _ in range(rng.randint(1, 16))) for _ in range(4000)]
+    texts += [f"{s}{sep}{w}H2O" for s in ("CuSO4", "Fe2(SO4)3", "(A", "A)", "K{Cl", "5", "", "Na[BF4]")
+              for sep in ("*", ".", "\u00b7", "**", "..", "+") for w in ("", "0", "0.5", "5", "12", "1.", ".5", "5.5.5")]
+    return list(dict.fromkeys(texts))
+
+
+def test_plain_text_skips_only_steps_that_leave_it_as_it_is():
+    # scorer.formula._PLAIN: for a plain text the steps parse_formula skips change nothing (no
+    # solid-solution site, no written non-stoichiometry, no spaced or hyphenated ion pair) and
+    # _normalise_text only writes the middle dot as the star
+    from ionicity.scorer import formula
+
+    plain = 0
+    for text in _plain_texts():
+        if formula._PLAIN.fullmatch(text) is None:
+            continue
+        plain += 1
+        assert formula._SOLID_SOLUTION_SITE.search(text) is None, text
+        assert formula._NONSTOICHIOMETRY.search(text) is None, text
+        assert formula._shorthand_with_spaces(text) == text, text
+        assert formula._normalise_text(text) == formula._plain_normalised(text), text
+    assert plain > 20000
+    # the middle dot of _PLAIN is the one _normalise_text maps; other dots and digits are not plain
+    assert formula._DOT_SEPARATORS[0] == "\u00b7"
+    for text in ("CuSO4\u20225H2O", "Na\u2082SO4", "CuSO4\u00b7\u0665H2O", "NaCl ", "Fe1-xO", "Cu(In,Ga)Se2"):
+        assert formula._PLAIN.fullmatch(text) is None, text
+
+
+def test_salt_and_water_split_is_the_loop_split():
+    # scorer.formula._split_components takes a salt and its counted water by one regular expression;
+    # the character loop it skips gives the same parts (brackets balanced or not, decimals, empty parts)
+    from ionicity.scorer import formula
+
+    taken = 0
+    for text in _plain_texts():
+        for cleaned in {text, formula._plain_normalised(text)}:
+            assert formula._split_components(cleaned) == formula._split_components_loop(cleaned), cleaned
+            taken += formula._SALT_AND_WATER.fullmatch(cleaned) is not None
+    assert taken > 10000
+
+
+def test_a_blend_word_needs_a_space():
+    # scorer.mixture._blend looks for the trailing words of _BLEND_WORDS only in a key with a space:
+    # each of them starts with one (the look-up of the whole key is unchanged)
+    from ionicity.scorer import mixture
+
+    assert all(word.startswith(" ") for word in mixture._BLEND_WORDS)
+    assert mixture.names_a_blend("FLiNaK") and mixture.names_a_blend("Solar salt")
+    assert mixture.names_a_blend("FLiNaK eutectic") and not mixture.names_a_blend("NaCl")
