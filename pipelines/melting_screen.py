@@ -265,8 +265,8 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
     if dec.alternatives:
         return False, "ambiguous ion reading"
     # half counts of a whole formula without a metal split over two lone cations are its unit written
-    # at half size (GaCl2 = Ga(+)*0.5 with GaCl4(-)*0.5, HgCl = Hg2(2+)*0.5 with Cl(-)), which the index
-    # takes whole; TlSe as Tl(+)*0.5;Tl(3+)*0.5 stays out, a mixed-valence reading
+    # at half size (GaCl2 = Ga(+)*0.5 with GaCl4(-)*0.5, InCl2 = In(+)*0.5 with InCl4(-)*0.5), which the index
+    # takes whole; a metal split half and half over two lone cations stays out, a mixed-valence reading
     lone = [t.ion.element for t in dec.cations if t.ion.monatomic]
     whole = whole_unit_factor(dec.cations, dec.anions) if len(lone) == len(set(lone)) else 1
     for term in dec.cations + dec.anions:

@@ -245,8 +245,8 @@ _NOT_FOR_ACIDS = "lattice energies: not estimated for an acid (a molecular subst
 def whole_unit_factor(cations, anions) -> int:
     """2 when doubling makes every ion count whole and some count is a half; else 1.
 
-    A reading with half counts (GaCl2 as Ga(+)*0.5 with GaCl4(-)*0.5, a mixed valence as
-    Tl(+)*0.5;Tl(3+)*0.5) is a whole unit written at half size. Finer fractions are
+    A reading with half counts (GaCl2 as Ga(+)*0.5 with GaCl4(-)*0.5, a mixed valence split
+    half and half) is a whole unit written at half size. Finer fractions are
     non-stoichiometric compositions (TiO1.9, La0.7Sr0.3MnO3), taken as written.
 
     >>> from ionicity.scorer.formula import parse_formula
@@ -297,8 +297,8 @@ def _compute(cations: tuple[IonTerm, ...], anions: tuple[IonTerm, ...], hydrate_
     else:
         salt_type = _vbt_salt_type(cations, anions)
         # VBT is fitted on whole formula units and is not linear in their size (the beta term,
-        # Vm^(-1/3)): a reading with half counts (Tl(+)*0.5;Tl(3+)*0.5 for TlSe, Ga(+)*0.5 with
-        # GaCl4(-)*0.5 for GaCl2) is taken at its smallest whole unit and the energy divided back
+        # Vm^(-1/3)): a reading with half counts (Ga(+)*0.5 with GaCl4(-)*0.5 for GaCl2) is taken
+        # at its smallest whole unit and the energy divided back
         whole = whole_unit_factor(cations, anions)
         ionic_strength, volume = ionic_strength * whole, volume * whole
         u = glasser_jenkins_vbt_lattice_energy_kJ_mol(ionic_strength, volume, salt_type=salt_type)

@@ -287,9 +287,9 @@ def _gather_terms(
         anion_with_hard_cation = t in dec.anions and not all(c.ion.organic for c in dec.cations)
         if delocalised and not anion_with_hard_cation:
             deloc += t.count
-    # the index is fitted on whole formula units: a reading with half counts (TlSe as
-    # Tl(+)*0.5;Tl(3+)*0.5, GaCl2 as Ga(+)*0.5 with GaCl4(-)*0.5) takes the extensive terms of
-    # its smallest whole unit, so TlSe and Tl2Se2, GaCl2 and Ga2Cl4 get one index
+    # the index is fitted on whole formula units: a reading with half counts (GaCl2 as Ga(+)*0.5
+    # with GaCl4(-)*0.5) takes the extensive terms of its smallest whole unit, so GaCl2 and
+    # Ga2Cl4 get one index
     whole = lattice.whole_unit_factor(dec.cations, dec.anions)
     if whole != 1:
         energy, nu, flex, pack, deloc = energy * whole, nu * whole, flex * whole, pack * whole, deloc * whole
