@@ -288,7 +288,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         return _read(counts_key, charge, ion_hints, tuple(sorted(adducts.items())), structure_hint, budget)
 
     if not hinted and any(t.ion.ion_id in _PAIRED_CATIONS for t in cations):
-        paired = _paired_reading(remaining, chosen[3], budget)
+        paired = _paired_reading(remaining, chosen[3], budget, notes)
         if paired is not None:
             cations, anions, alternatives = paired
 
@@ -373,11 +373,12 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=
 _PAIRED_CATIONS = frozenset({"Al(2+)", "Ga(2+)", "In(2+)"})
 
 
-def _paired_reading(remaining: dict[str, float], penalty: float, budget):
+def _paired_reading(remaining: dict[str, float], penalty: float, budget, notes: list[str]):
     """The reading of the doubled formula unit, counts halved, when it is more plausible than ``penalty``.
 
     Only for whole counts (a formula unit written at its smallest: GaCl2 for Ga2Cl4); None when
-    the doubled unit reads no better.
+    the doubled unit reads no better. The walk draws on the composition's ``budget`` and adds
+    the work-limit note to ``notes`` when it stops there.
 
     >>> from ionicity.scorer.formula import parse_formula
     >>> [decompose(parse_formula(f)).cations[0].ion.ion_id for f in ("GaCl2", "InBr2", "InCl3")]
@@ -386,7 +387,7 @@ def _paired_reading(remaining: dict[str, float], penalty: float, budget):
     if not all(float(n).is_integer() for n in remaining.values()):
         return None
     doubled = {symbol: 2 * n for symbol, n in remaining.items()}
-    better = _best(_readings(doubled, [], [], budget=budget, ceiling=penalty))
+    better = _best(_readings(doubled, [], notes, budget=budget, ceiling=penalty))
     if better is None or better[3] >= penalty - _TOL:
         return None
     cations, anions, alternatives, _ = better
