@@ -34,6 +34,26 @@ MELTING_TESTS = (
     "tests/test_melting_hydrogen_bonds.py",
 )
 FACTORS = (1.5, 0.5)
+# the file that checks a weight family, run first for its weights (pytest -x stops at the first
+# failure, so the order changes the run time and which failing test is named, never whether a
+# change is caught); the longest prefix wins
+FIRST_FILE = {
+    "organic_": "tests/test_melting_organic_molecules.py",
+    "molecular_": "tests/test_melting_routes.py",
+    "molecular_hydrogen_bond": "tests/test_melting_hydrogen_bonds.py",
+    "intermetallic_": "tests/test_melting_audit_rules.py",
+}
+
+
+def ordered_tests(key: str, tests) -> list[str]:
+    """``tests`` with the file of ``key``'s family (:data:`FIRST_FILE`) first, when it is among them.
+
+    >>> ordered_tests("organic_heavy_atom_kJ_mol", ["tests/test_melting.py", "tests/test_melting_organic_molecules.py"])
+    ['tests/test_melting_organic_molecules.py', 'tests/test_melting.py']
+    """
+    prefixes = [p for p in FIRST_FILE if key.startswith(p)]
+    first = FIRST_FILE[max(prefixes, key=len)] if prefixes else None
+    return sorted(tests, key=lambda t: t != first)
 
 # One child process runs many cases: importing ionicity, scipy and chemicals costs
 # seconds, a melting test run about as much. Between cases every per-input cache is
@@ -43,9 +63,9 @@ import io, json, sys, contextlib
 from ionicity.scorer import melting
 from ionicity.scorer.caching import clear_all
 import pytest
-cases, tests = json.loads(sys.argv[1]), sys.argv[2:]
+cases = json.loads(sys.argv[1])
 original = dict(melting.TREND_WEIGHTS)
-for key, factor in cases:
+for key, factor, tests in cases:
     melting.TREND_WEIGHTS.clear()
     melting.TREND_WEIGHTS.update(original)
     if key:
@@ -69,7 +89,8 @@ def weight_names() -> list[str]:
 
 def run_cases(cases, tests) -> dict:
     """{(key, factor): (pytest exit code, first failing test or '')} for cases run in one child process."""
-    result = subprocess.run([sys.executable, "-c", _CHILD, json.dumps(cases), *tests],
+    payload = [[key, factor, ordered_tests(key, tests)] for key, factor in cases]
+    result = subprocess.run([sys.executable, "-c", _CHILD, json.dumps(payload)],
                             capture_output=True, text=True, cwd=ROOT)
     found = {}
     for line in result.stdout.splitlines():
