@@ -500,11 +500,14 @@ def hydrogen_bonded_rows():
     return out
 
 
+def _molecular_cohesion(m, weights, hydrogen_bond_sites) -> float:
+    return routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, weights,
+                                            m.secondary_contacts, m.primary_delta_chi, hydrogen_bond_sites)
+
+
 def _molecular_K(m, weights, hydrogen_bond_sites) -> float:
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, weights,
-                                                m.secondary_contacts, m.primary_delta_chi, hydrogen_bond_sites)
-    return routes.molecular_melting_K(cohesion, entropy)
+    return routes.molecular_melting_K(_molecular_cohesion(m, weights, hydrogen_bond_sites), entropy)
 
 
 def fit_molecular_hydrogen_bond_weight(rows) -> float:
@@ -516,9 +519,8 @@ def fit_molecular_hydrogen_bond_weight(rows) -> float:
         if split != "calibration" or not m.hydrogen_bond_sites:
             continue
         dh = t * routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau) / 1000.0
-        without = _molecular_K(m, held, 0.0) * dh / t
         a.append(m.hydrogen_bond_sites / dh)
-        b.append(1.0 - without / dh)
+        b.append(1.0 - _molecular_cohesion(m, held, 0.0) / dh)
     a, b = np.array(a), np.array(b)
     return float(a @ b / (a @ a))
 
