@@ -23,9 +23,9 @@ Two named sets, each with its source in the repository:
   ``calibration`` or ``validation``; melting points are read at run time with
   ``chemicals.phase_change.Tm``; validation figures are printed over all
   its validation rows and per ``origin`` (``issue_13``: the compounds the
-  issue names; ``widened``: the rows a stated rule added). The four weights of the molecular route
-  (:data:`MOLECULAR_WEIGHTS`) are a least-squares fit of dH_m on the
-  calibration rows.
+  issue names; ``widened``: the rows a stated rule added). The five weights of the molecular route
+  (:data:`MOLECULAR_WEIGHTS`, the lone-pair weight among them) are a least-squares fit of dH_m on the
+  calibration rows; :func:`lone_pair_figures` prints each half with and without the lone-pair term.
 
 * **organic molecules**: ``datasets/melting/organic_molecules.csv`` (CAS numbers of the
   CRC Handbook organic table; ``Tm(cas, method="CRC_ORG")`` at run time; one row per
@@ -293,7 +293,7 @@ def molecular_rows():
 
 
 MOLECULAR_WEIGHTS = ("molecular_contact_kJ_mol", "molecular_polarisability_kJ_mol_A3", "molecular_bridge_kJ_mol",
-                     "molecular_secondary_kJ_mol")
+                     "molecular_secondary_kJ_mol", "molecular_lone_pair_kJ_mol")
 
 
 def molecular_origins() -> dict[str, str]:
@@ -309,7 +309,9 @@ def fit_molecular_weights(rows) -> dict[str, float]:
 
     ``molecular_secondary_kJ_mol`` rests on the calibration rows with secondary
     contacts in ``scorer/data/molecular_coordination.csv`` (HgCl2); the other
-    rows of that kind (HgBr2, HgI2, BiCl3) are validation.
+    rows of that kind (HgBr2, HgI2, BiCl3) are validation. ``molecular_lone_pair_kJ_mol``
+    rests on the four calibration rows whose centre has a lone pair (PCl3, PBr3, AsCl3,
+    SOCl2, one each); the validation half holds 24 such rows, with one to three lone pairs.
     """
     a, b = [], []
     for split, _, m, t in rows:
@@ -320,7 +322,7 @@ def fit_molecular_weights(rows) -> dict[str, float]:
         secondary = min(m.secondary_contacts, m.open_sites)
         a.append(np.array([len(m.ligand_polarisabilities_A3), sum(m.ligand_polarisabilities_A3),
                            (m.open_sites - secondary) * m.bond_strength,
-                           secondary * m.bond_strength * m.primary_delta_chi]) / dh)
+                           secondary * m.bond_strength * m.primary_delta_chi, m.lone_pairs_counted]) / dh)
         # the hydrogen-bond weight is held (fit_molecular_hydrogen_bond_weight; none of these rows has a donor site)
         b.append(1.0 - melting.TREND_WEIGHTS["molecular_hydrogen_bond_kJ_mol"] * m.hydrogen_bond_sites / dh)
     w, *_ = np.linalg.lstsq(np.array(a), np.array(b), rcond=None)
@@ -501,8 +503,7 @@ def hydrogen_bonded_rows():
 
 
 def _molecular_cohesion(m, weights, hydrogen_bond_sites) -> float:
-    return routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, weights,
-                                            m.secondary_contacts, m.primary_delta_chi, hydrogen_bond_sites)
+    return m.cohesion_kJ_mol(weights, hydrogen_bond_sites)
 
 
 def _molecular_K(m, weights, hydrogen_bond_sites) -> float:
@@ -523,6 +524,24 @@ def fit_molecular_hydrogen_bond_weight(rows) -> float:
         b.append(1.0 - _molecular_cohesion(m, held, 0.0) / dh)
     a, b = np.array(a), np.array(b)
     return float(a @ b / (a @ a))
+
+
+def lone_pair_figures(rows, weights=None) -> dict:
+    """Figures of the molecular route on :func:`molecular_rows`, per split, with and without the lone-pair term;
+    ``_lone_pair_rows`` only the rows whose centre has a lone pair the cohesion counts."""
+    w = {**melting.TREND_WEIGHTS, **(weights or {})}
+    out = {}
+    for split in ("calibration", "validation"):
+        for subset, keep in (("", lambda m: True), ("_lone_pair_rows", lambda m: m.lone_pairs_counted > 0)):
+            part = [r for r in rows if r[0] == split and keep(r[2])]
+            measured = [t for *_, t in part]
+            for name, h in (("with_lone_pairs", w["molecular_lone_pair_kJ_mol"]), ("without_lone_pairs", 0.0)):
+                predicted = [_molecular_K(m, {**w, "molecular_lone_pair_kJ_mol": h}, m.hydrogen_bond_sites)
+                             for _, _, m, _ in part]
+                out[f"{split}{subset}_{name}"] = {
+                    **_figures(predicted, measured, salt=False),
+                    "mean_abs_log10": round(float(np.mean(np.abs(np.log10(np.divide(predicted, measured))))), 3)}
+    return out
 
 
 def hydrogen_bonded_figures(rows, weights=None) -> dict:
@@ -652,6 +671,8 @@ def main(argv=None) -> int:
     organics = organic_rows(training)
     print("organic weights (fit on calibration):", {k: round(v, 3) for k, v in fit_organic_weights(organics).items()})
     print("molecular weights (fit on calibration):", {k: round(v, 3) for k, v in fit_molecular_weights(molecules).items()})
+    for name, figures in lone_pair_figures(molecules).items():
+        print(f"molecules_{name}", figures)
     print("reading the organic molecules", file=sys.stderr, flush=True)
     organic_molecules = organic_molecule_rows()
     constants, tried = choose_organic_constants(organic_molecules)

@@ -510,8 +510,7 @@ def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicR
         return math.nan, None
     w = TREND_WEIGHTS
     entropy = routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-    cohesion = routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength, w,
-                                                m.secondary_contacts, m.primary_delta_chi, m.hydrogen_bond_sites)
+    cohesion = m.cohesion_kJ_mol(w)
     temperature = routes.molecular_melting_K(cohesion, entropy)
     reading = _MolecularReading(m, cohesion, entropy, temperature)
     return math.log10(temperature) if temperature > 0 else math.nan, reading
@@ -539,6 +538,9 @@ def _molecular_steps(reading: _MolecularReading | _OrganicReading | None) -> tup
            f" {m.primary_delta_chi:.2f}",) if m.secondary_contacts else ()),
         *((f"  hydrogen bonds: + {w['molecular_hydrogen_bond_kJ_mol']} kJ/mol * {m.hydrogen_bond_sites:g} O-H/N-H"
            f" donor site(s)",) if m.hydrogen_bond_sites else ()),
+        *((f"  lone pairs (polar molecule, secondary bonds; Alcock 1972): + {w['molecular_lone_pair_kJ_mol']} kJ/mol"
+           f" * {m.lone_pairs_counted} stereochemically active lone pair(s) of the centre",)
+          if m.lone_pairs_counted else ()),
     )
 
 

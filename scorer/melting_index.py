@@ -55,7 +55,8 @@ MELTING_CLASSES: tuple[tuple[str, float, str], ...] = (
 # * molecular route (molecular_*): least squares of dH_m on the calibration rows of
 #   datasets/melting/molecular_compounds.csv; validation on its validation rows. The last refit
 #   (bridges weighted by Pauling's z/CN, issue 13) gave 1.083, 0.601, 9.364, and 7.508 for
-#   secondary contacts (fixed by HgCl2, the one calibration row that has them).
+#   secondary contacts (fixed by HgCl2, the one calibration row that has them); with the lone-pair
+#   term added to the same fit (4 December 2026): 1.066, 0.569, 9.749, 7.611 and 2.912 per lone pair.
 # tests/perturb_trend_weights.py lists which +-50 % changes no test catches.
 TREND_WEIGHTS: dict[str, float] = {
     "intercept": 3.043,  # log10 K at the reference energy and chi with no other term
@@ -111,16 +112,19 @@ TREND_WEIGHTS: dict[str, float] = {
     # datasets/melting/intermetallic_compounds.csv (pipelines.melting_weights.fit_intermetallic_weight)
     "intermetallic_chi_variance": 0.554,
     # molecular route (scorer.melting_routes.molecular_cohesion_kJ_mol)
-    "molecular_contact_kJ_mol": 1.08,
-    "molecular_polarisability_kJ_mol_A3": 0.60,
+    "molecular_contact_kJ_mol": 1.07,
+    "molecular_polarisability_kJ_mol_A3": 0.569,
     # per valence unit of bridges (open sites times Pauling's z / CN; Al2Br6: 1 * 3/4)
-    "molecular_bridge_kJ_mol": 9.4,
+    "molecular_bridge_kJ_mol": 9.75,
     # per valence unit and unit of the primary bond's delta chi (HgCl2: 4 * 2/6 * 1.26)
-    "molecular_secondary_kJ_mol": 7.5,
+    "molecular_secondary_kJ_mol": 7.61,
+    # per stereochemically active lone pair of a p-block centre (PCl3 1, SCl2 2, XeF2 3), fitted with the
+    # four above (PCl3, PBr3, AsCl3, SOCl2 are the calibration rows that have one)
+    "molecular_lone_pair_kJ_mol": 2.91,
     # per O-H or N-H donor site of an inorganic molecule (boric acid 3, hydrazine 2): least squares of
-    # dH_m in relative errors, the four weights above held, on the calibration half of
+    # dH_m in relative errors, the five weights above held (refitted after the lone-pair term: 2.97 -> 3.08), on the calibration half of
     # datasets/melting/hydrogen_bonded_molecules.csv (pipelines.melting_weights.fit_molecular_hydrogen_bond_weight)
-    "molecular_hydrogen_bond_kJ_mol": 2.97,
+    "molecular_hydrogen_bond_kJ_mol": 3.08,
     # organic molecular route (scorer.melting_organic): least squares of log10 T_m
     # (T_m = dH_m / dS_m, linear in these three) on the calibration half of datasets/melting/organic_molecules.csv
     # (pipelines.melting_weights.fit_organic_molecule_weights); per heavy atom, per

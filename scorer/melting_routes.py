@@ -228,7 +228,7 @@ def pauling_bond_strength(oxidation_state: float, coordination_number: float) ->
 
 
 def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_strength, weights: Mapping[str, float],
-                              secondary_contacts=0, primary_delta_chi=0.0, hydrogen_bond_sites=0.0):
+                              secondary_contacts=0, primary_delta_chi=0.0, hydrogen_bond_sites=0.0, lone_pairs=0):
     """Heat of melting of a molecular crystal from the size and polarisability of its molecule [kJ/mol].
 
     ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * n_open * s``: each
@@ -263,8 +263,21 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     hydrazine were read 30-250 K low without it: the ligand contacts alone
     gave water 80 K).
 
+    Stereochemically active lone pairs of a p-block centre are counted apart
+    as well: each (``n_LP``: one in PCl3, SbI3, SOCl2, SeO2; two in SCl2,
+    ClF3, H2S; three in XeF2 and HCl) adds ``h_LP``
+    (``molecular_lone_pair_kJ_mol``). A lone pair makes the molecule polar
+    (AX3E, AX2E2: a dipole, Gillespie & Nyholm, Q. Rev. Chem. Soc. 1957, 11,
+    339; from memory) and is the donor of the secondary bonds that join
+    such molecules in the crystal (the 3+3 layers of AsI3 and SbI3, the
+    Xe...F contacts of XeF2; Alcock 1972, above; from memory); the ligand
+    contacts alone read those molecules 0.1-0.7 low in log10. Where the
+    secondary contacts are measured (``n_sec`` > 0, BiCl3 3+5) they are that
+    cohesion, and the caller passes no lone pair
+    (:meth:`MolecularTerms.cohesion_kJ_mol`).
+
     ``dH_m = sum_L (h_0 + h_alpha * alpha_L) + h_bridge * (n_open - n_sec) * s
-    + h_sec * n_sec * s * dchi + h_HB * n_HB``.
+    + h_sec * n_sec * s * dchi + h_HB * n_HB + h_LP * n_LP``.
 
     Parameters
     ----------
@@ -285,6 +298,9 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
         Pauling electronegativity difference of the primary bond.
     hydrogen_bond_sites : float, default=0.0
         O-H and N-H donor sites; with them, ``molecular_hydrogen_bond_kJ_mol`` (kJ/mol per site).
+    lone_pairs : int, default=0
+        Stereochemically active lone pairs of the centre; with them, ``molecular_lone_pair_kJ_mol``
+        (kJ/mol per lone pair).
 
     Examples
     --------
@@ -295,6 +311,8 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
     26.0
     >>> molecular_cohesion_kJ_mol([2.0, 2.0], 0, 0.0, {**w, "molecular_hydrogen_bond_kJ_mol": 4.0}, hydrogen_bond_sites=2)
     14.0
+    >>> molecular_cohesion_kJ_mol([2.0, 2.0], 0, 0.0, {**w, "molecular_lone_pair_kJ_mol": 3.0}, lone_pairs=2)
+    12.0
     """
     h_0, h_alpha = weights["molecular_contact_kJ_mol"], weights["molecular_polarisability_kJ_mol_A3"]
     # one term per distinct alpha, summed atom by atom in C: the same float sum as a loop
@@ -309,6 +327,8 @@ def molecular_cohesion_kJ_mol(ligand_polarisabilities_A3, open_sites, bond_stren
         total += weights["molecular_secondary_kJ_mol"] * secondary * bond_strength * primary_delta_chi
     if hydrogen_bond_sites:
         total += weights["molecular_hydrogen_bond_kJ_mol"] * hydrogen_bond_sites
+    if lone_pairs:
+        total += weights["molecular_lone_pair_kJ_mol"] * lone_pairs
     return total
 
 
@@ -390,6 +410,7 @@ _SIGMA = {
 # (Ind. Eng. Chem. Res. 1996, 35, 1483; from memory); mixed ligands divide 20 by 2 ways.
 _LINEAR_SIGMA = 20.0
 _LIGAND_CHARGE = {"F": -1, "Cl": -1, "Br": -1, "I": -1, "O": -2, "S": -2, "Se": -2, "H": -1}
+_HALOGENS = frozenset({"F", "Cl", "Br", "I", "At"})
 
 
 def _shape_symmetry_number(lone_pairs: int, ligand_counts) -> float:
@@ -421,6 +442,21 @@ class MolecularTerms:
     primary_delta_chi: float = 0.0
     #: O-H and N-H donor sites of the unit read (hydrogen_bond_sites)
     hydrogen_bond_sites: float = 0.0
+    #: stereochemically active lone pairs of the centre (VSEPR; none for d- and f-block centres)
+    lone_pairs: int = 0
+
+    @property
+    def lone_pairs_counted(self) -> int:
+        """The lone pairs the cohesion counts: none where the centre's secondary contacts are measured
+        (they are the cohesion those lone pairs give, BiCl3 3+5; :func:`molecular_cohesion_kJ_mol`)."""
+        return 0 if self.secondary_contacts else self.lone_pairs
+
+    def cohesion_kJ_mol(self, weights: Mapping[str, float], hydrogen_bond_sites: float | None = None) -> float:
+        """:func:`molecular_cohesion_kJ_mol` of this reading (``hydrogen_bond_sites`` overrides its own count)."""
+        sites = self.hydrogen_bond_sites if hydrogen_bond_sites is None else hydrogen_bond_sites
+        return molecular_cohesion_kJ_mol(self.ligand_polarisabilities_A3, self.open_sites, self.bond_strength, weights,
+                                         self.secondary_contacts, self.primary_delta_chi, sites,
+                                         self.lone_pairs_counted)
 
 
 @once
@@ -539,6 +575,18 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         comp = [(s, n / g) for s, n in comp]
     chi = {s: _centre_chi(s) for s, _ in comp}
     centre, n_centre = min(comp, key=lambda sn: (chi[sn[0]], sn[0]))
+    heavy = [(s, n) for s, n in written if s != "H"]
+    hydride = len(heavy) == 1 and heavy[0][1] == 1 and len(written) == 2
+    if hydride:
+        # a molecular hydride XH_n (H2S, HCl, NH3): hydrogen forms one bond and is never the centre,
+        # whatever the electronegativities say (H 2.20 against S 2.58, Cl 3.16; common practice)
+        centre, n_centre = heavy[0]
+    elif centre in _HALOGENS:
+        # halogens are terminal where another atom can be the centre (O=N-Br, Cl-O-Cl; common practice):
+        # the least electronegative atom that is neither hydrogen nor a halogen and occurs once
+        inner = [(s, n) for s, n in comp if n == 1 and s != "H" and s not in _HALOGENS]
+        if inner:
+            centre, n_centre = min(inner, key=lambda sn: (chi[sn[0]], sn[0]))
     ligands = tuple((s, n) for s, n in comp if s != centre)
     n_lig = sum(n for _, n in ligands)
     if n_centre != 1 or not ligands or not float(n_lig).is_integer() or "C" in dict(comp) and centre != "C":
@@ -573,6 +621,12 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
             # carbon and nitrogen keep their ligands by multiple bonds and take no bridges (CO2, CS2;
             # the first-row anomaly, common practice): no open site
             cn, how = n + lone_pairs, "a first-row centre keeps its own ligands"
+        elif hydride and element.group >= 14:
+            # hydrogen bridges only electron-deficient centres (B2H6, (AlH3)n, (BeH2)n: three-centre
+            # two-electron bonds); a centre of groups 14-17 has its valence shell filled by its own
+            # hydrogens and lone pairs, and its hydrides are molecules (SiH4, AsH3, SbH3, SnH4; Greenwood &
+            # Earnshaw, 2nd ed., 1997, ch. 3; from memory)
+            cn, how = n + lone_pairs, "a hydride of groups 14-17 takes no hydrogen bridges"
         elif n == 5 and lone_pairs == 0 and element.block in ("d", "f") and cn < 6:
             # a d- or f-block pentahalide completes its octahedron through two halide bridges,
             # (NbCl5)2, (MoCl5)2, (TaF5)4 (Greenwood & Earnshaw, 2nd ed., 1997, ch. 22; from memory)
@@ -584,7 +638,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     return MolecularTerms(centre, ligands, sigma, 0.0, open_sites, alphas,
                           f"centre {centre}({int(state):+d}) with {n} ligands, {lone_pairs} lone pair(s),"
                           f" coordination {cn or 'unknown'} ({how})", strength, cn, min(secondary, open_sites),
-                          delta_chi, hydrogen_bond_sites(dict(comp)))
+                          delta_chi, hydrogen_bond_sites(dict(comp)), lone_pairs)
 
 
 def ion_symmetry_number(ion) -> float:

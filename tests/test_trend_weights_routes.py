@@ -70,8 +70,7 @@ def _log_errors(rows, weights) -> float:
     total = 0.0
     for m, measured in rows:
         entropy = melting_routes.walden_dannenfelser_yalkowsky_entropy_J_mol_K(m.symmetry_number, m.torsions_tau)
-        cohesion = melting_routes.molecular_cohesion_kJ_mol(m.ligand_polarisabilities_A3, m.open_sites, m.bond_strength,
-                                                           weights, m.secondary_contacts, m.primary_delta_chi)
+        cohesion = m.cohesion_kJ_mol(weights)
         total += math.log(melting_routes.molecular_melting_K(cohesion, entropy) / measured) ** 2
     return total
 
