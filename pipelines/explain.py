@@ -15,7 +15,7 @@ from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.note_codes import notes_table
 from ionicity.scorer.name_reader import parse_as_name
-from ionicity.scorer.record import score_formula, score_parsed
+from ionicity.scorer.record import score_formula, score_parsed, without_grade_words
 from ionicity.scorer.solutions import split_in_solvent, split_solution
 
 __all__ = ["explain_formula", "columns_table"]
@@ -50,7 +50,8 @@ def explain_formula(text: str) -> str:
     try:
         comp = parse_formula(scored)
     except FormulaError as exc:
-        comp = parse_as_name(scored)
+        # a name, or a formula or name with grade and form words after it ("NaCl ACS reagent"), as score reads it
+        comp = parse_as_name(scored) or without_grade_words(scored)
         if comp is None:
             return "\n".join(lines + ["status: error", f"message: {row['message'] or exc}"])
     dec = decompose(comp)

@@ -30,6 +30,7 @@ quotes the bad text and says what would be accepted.
 """
 from __future__ import annotations
 
+import dataclasses
 import math
 import re
 import unicodedata
@@ -469,6 +470,10 @@ def parse_formula(text: str) -> ParsedFormula:
         raise FormulaError(message) from None
     if not notes and not parsed.notes and parsed.text == text:
         return parsed
+    if solvent is not None and not parsed.ion_hints:
+        # a solvent's or reagent's code names one molecule (TRIS is no propylammonium hydrogencarbonate); an
+        # acid's H(+) reading stands (TFA; scorer.ions)
+        parsed = dataclasses.replace(parsed, structure_hint="molecule")
     return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
 
 

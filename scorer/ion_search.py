@@ -344,7 +344,10 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
 # anions that pair with no cation in a formula without a metal: H2CN2 is cyanamide or
 # diazomethane, C2H4N4 dicyandiamide, molecules (CN2(2-) is a salt anion only beside a
 # metal, as in CaCN2; Greenwood & Earnshaw, 2nd ed., 1997, ch. 8.6; from memory)
-_NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)"})
+# The carbide anions neither: they are strong bases that no cation of an organic formula (ammonium, H+) would
+# leave unprotonated, and carbon bonded to hydrogen is never a carbide (C2H8N2 is ethylenediamine, not
+# ammonium acetylide; common practice)
+_NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)", "C2(2-)", "C3(4-)"})
 # monatomic ions an organic formula may hold as one side of its ion pair
 _ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
 

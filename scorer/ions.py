@@ -47,6 +47,7 @@ from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.substance import (
+    binary_carbonyl,
     classify,
     formal_oxidation_states,
     format_oxidation_states,
@@ -210,8 +211,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-    if comp.structure_hint == "organometallic" and any(is_metal(s) for s in symbols):
-        # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2
+    if (comp.structure_hint == "organometallic" and any(is_metal(s) for s in symbols)) or binary_carbonyl(counts):
+        # carbonyl and cyclopentadienyl ligands written out: Fe(CO)5, Fe(C5H5)2; a binary carbonyl in Hill
+        # order (C5FeO5, C4NiO4, C10Mn2O10)
         return Decomposition(
             composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
             substance_class="covalent_molecular",
@@ -238,6 +240,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
         if comp.structure_hint not in ("ammonium", "fulminate") and _woehler_isomer(readings):
             readings = []
+        if comp.structure_hint == "molecule":
+            # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
+            readings = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
     else:
         # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
         # need not look for one; with written ions, whether any reading balances at all

@@ -28,6 +28,7 @@ True
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 
 from ionicity.scorer.caching import clear_all, once, per_input
@@ -541,6 +542,10 @@ def _record(mixture: Mixture) -> tuple:
     return tuple(row)
 
 
+# a hyphen between two lower-case letters, as inside a chemical name (tert-butoxide, n-butyllithium)
+_HYPHEN_IN_WORD = re.compile(r"(?:^|[\s(])[a-z]+-[a-z]{2,}")
+
+
 def mixture_row(text: str, score_row) -> tuple | None:
     """The output row of a cell written as a mixture, or None for a compound.
 
@@ -558,8 +563,14 @@ def mixture_row(text: str, score_row) -> tuple | None:
     found = read_mixture(text, score_row)
     if found is None:
         return None
-    if isinstance(found, str) and parse_as_name(text) is not None:
-        return None  # a name with hyphens ("1-ethyl-3-methylimidazolium chloride"), not a mixture
+    if parse_as_name(text) is not None:
+        # a name with hyphens ("1-ethyl-3-methylimidazolium chloride"), not a mixture; also where the parts
+        # would read ("N-pentane" is pentane, not nitrogen and pentane)
+        return None
+    if isinstance(found, str) and _HYPHEN_IN_WORD.search(text):
+        # a hyphen inside a word of a name the reader does not know ("potassium tert-butoxide"): the name's
+        # own error says more than "component 'potassium tert' of the mixture"
+        return None
     if isinstance(found, str):
         _, position, empty, _ = _layout()
         row = list(empty)

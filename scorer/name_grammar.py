@@ -310,7 +310,18 @@ def formula_text(reading: NameReading) -> str | None:
     if literal or _covalent(cations) and any(p.count for p in anions):
         counts = [p.count or 1 for p in cations + anions]
         _acid_hydrogen(cations, anions, counts)
+        _unsaid_first_count(cations, anions, counts)
         return parts_text(list(zip(cations + anions, counts)), reading.water)
+    if len(anions) == 1 and anions[0].split and any(p.charge is None and _variable_valence(p) for p in cations):
+        # "iron disulfide", "chromium trioxide": no oxidation number for a metal of several states, so the prefix
+        # counts atoms (FeS2, CrO3), not an ozonide or a disulfide ion; "bismuth trioxide" is Bi2O3 (two atoms
+        # where one could not hold the state, _unsaid_first_count); "sodium disulfide" stays Na2S2
+        symbol, count = anions[0].split
+        split = [Part(symbol, -2 if symbol in ("O", "S", "Se", "Te") else -1, element=symbol)]
+        counts = [1] * len(cations) + [count]
+        split[0].count = count
+        _unsaid_first_count(cations, split, counts)
+        return parts_text(list(zip(cations + [Part(symbol, None, element=symbol)], counts)), reading.water)
     for part in cations:
         if part.charge is None:
             part.charge = usual_charge(part.element) if part.element else None
@@ -324,6 +335,33 @@ def formula_text(reading: NameReading) -> str | None:
     if counts is None:
         return None
     return parts_text(list(zip(cations + anions, counts)), reading.water)
+
+
+def _variable_valence(part: Part) -> bool:
+    """Whether a cation part is an element of more than one positive state (Fe, Cr, Bi; not Na, Ba, Zn)."""
+    if not part.element:
+        return False
+    states = get_element(part.element)
+    return len({s for s in (*states.oxidation_states_main, *states.oxidation_states_extra) if s > 0}) > 1
+
+
+def _unsaid_first_count(cations: list[Part], anions: list[Part], counts: list) -> None:
+    """The trade's ``phosphorus pentoxide`` (P2O5), ``nitrogen tetroxide`` (N2O4), ``arsenic trioxide``
+    (As2O3), ``chlorine heptoxide`` (Cl2O7): the first element's count is left unsaid where one atom could not
+    hold the oxidation state the prefix implies (P(+10)), and two atoms can (common practice; the Red Book's
+    names are diphosphorus pentaoxide and the like). ``sulfur trioxide``, ``chromium trioxide`` and
+    ``nitrogen dioxide`` are one atom each: S(+6), Cr(+6) and N(+4) are states those elements hold."""
+    if len(cations) != 1 or len(anions) != 1 or cations[0].count is not None or not cations[0].element:
+        return
+    anion = anions[0]
+    if anion.charge is None or anion.count is None or anion.polyatomic:
+        return
+    element = get_element(cations[0].element)
+    states = [s for s in (*element.oxidation_states_main, *element.oxidation_states_extra) if s > 0]
+    highest = max(states) if states else None
+    state = -anion.charge * anion.count
+    if highest is not None and state > highest and state % 2 == 0 and 0 < state // 2 <= highest:
+        counts[0] = 2
 
 
 def _acid_hydrogen(cations: list[Part], anions: list[Part], counts: list) -> None:

@@ -43,9 +43,11 @@ a name it cannot read gives ``None``.
 """
 from __future__ import annotations
 
+import dataclasses
 import re
 
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.name_grammar import NameReading, Part, Reader, count_text, formula_text, parts_text, usual_charge
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
@@ -70,15 +72,28 @@ def read_name(name) -> str | None:
     cached per compact key, so ``SODIUM CHLORIDE`` costs a lookup once
     ``sodium chloride`` was read). Never raises.
     """
+    return _read_name(name)[0]
+
+
+def _read_name(name) -> tuple[str | None, tuple[str, str, str, str, str] | None]:
+    """(:func:`read_name`'s formula, the registry entry it came from or None): the grammar and the trivial
+    names first; the registry's names (:func:`registry_entry`) only where they read nothing, so a name the
+    grammar reads never loads that table."""
     if not isinstance(name, str) or not name.strip() or len(name) > MAX_NAME_LENGTH:
-        return None
+        return None, None
     try:
         formula = _read_text(name)
     except Exception:  # a name must never stop a batch: what cannot be read is unread
-        return None
+        return None, None
+    entry = None
+    if formula is None:
+        entry = registry_entry(name)
+        if entry is None:
+            return None, None
+        formula = entry[0]
     # the elements that are diatomic molecules as substances: "iodine" on a bottle is I2
     # (IUPAC Red Book 2005, IR-3.4.2: dihydrogen, dichlorine; common practice for the bare names)
-    return formula + "2" if formula in _DIATOMIC else formula
+    return (formula + "2" if formula in _DIATOMIC else formula), entry
 
 
 _DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
@@ -100,6 +115,42 @@ def _read_text(name: str) -> str | None:
         water = float(match.group(1))
         return None if salt is None or "·" in salt else salt + "·" + ("" if water == 1 else f"{water:g}") + "H2O"
     return _read_key(compact(name)) or _as_formula(name)
+
+
+@once
+def _registry() -> dict[str, tuple[str, str, str, str, str]]:
+    """compact name -> (formula, CAS number, name as written, source, kind) of ``registry_names.csv``."""
+    return {compact(row["name"]): (row["formula"], row["cas"], row["name"], row["source"], row["kind"])
+            for row in table("registry_names.csv")}
+
+
+# how a row's note names the source of a registry name (scorer/data/registry_names.csv)
+_REGISTRY_SOURCES = {
+    "CRC organic": "CRC Handbook organic table via the registry package chemicals",
+    "CRC inorganic": "CRC Handbook inorganic table via the registry package chemicals",
+    "PubChem": "PubChem common-chemical table via the registry package chemicals",
+    "common practice": "a common name; formula of the CAS number from the registry package chemicals",
+}
+
+
+# "n-hexane" is the straight-chain isomer the handbook lists as Hexane (common practice)
+_NORMAL_PREFIX = re.compile(r"\s*n-(?=[a-z])", re.I)
+
+
+def registry_entry(name: str) -> tuple[str, str, str, str, str] | None:
+    """(formula, CAS number, name as written, source, kind) of a name of the registry's handbook and common-chemical
+    tables (``scorer/data/registry_names.csv``: Hexane, acetone, D-Glucose), or ``None``. The name reader takes
+    these names last, when neither the name grammar nor the trivial names read the text.
+
+    >>> registry_entry("Acetone")
+    ('C3H6O', '67-64-1', 'Acetone', 'CRC organic', 'molecule')
+    """
+    if not isinstance(name, str):
+        return None
+    entry = _registry().get(compact(name))
+    if entry is None and _NORMAL_PREFIX.match(name):
+        entry = _registry().get(compact(_NORMAL_PREFIX.sub("", name, count=1)))
+    return entry
 
 
 # CAS index additions that say nothing about composition: editions "(8CI,9CI)",
@@ -214,7 +265,7 @@ def parse_as_name(text: str):
     """
     if not isinstance(text, str) or not _WORDLIKE.search(text):
         return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
-    formula = read_name(text)
+    formula, entry = _read_name(text)
     if formula is None:
         return None
     try:
@@ -222,7 +273,20 @@ def parse_as_name(text: str):
     except FormulaError:
         return None
     note = f"the formula cell holds a name: {' '.join(text.split())!r} read as {formula}"
+    if entry is not None:
+        # a formula may stand for several compounds (C3H6O: acetone, propanal): say which one the name is
+        note += f" ({entry[2]}, CAS {entry[1]}; {_REGISTRY_SOURCES.get(entry[3], entry[3])})"
+        if entry[4] == "molecule" and _organic_molecule(parsed):
+            # the registry knows it as one molecule: no ion pair of the formula's atoms (tris, C4H11NO3, is no
+            # propylammonium hydrogencarbonate; lysine no choline cyanate); an acid's H(+) reading stands
+            parsed = dataclasses.replace(parsed, structure_hint="molecule")
     return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+def _organic_molecule(parsed) -> bool:
+    """Carbon with only non-metals, as written (no charge, no written ions)."""
+    symbols = [s for s, _ in parsed.counts]
+    return "C" in symbols and not parsed.charge and not parsed.ion_hints and not any(is_metal(s) for s in symbols)
 
 
 _COUNT_BEFORE_HYDRATE = re.compile(r"(\d+(?:\.\d+)?)$")

@@ -35,7 +35,8 @@ from ionicity.scorer.verdict import finalise
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 _MOLECULAR_OR_LAYER = frozenset({"covalent_molecular", "chain_layer_solid"})
 
-__all__ = ["score_formula", "score_row", "score_parsed", "normalized_formula", "molar_mass_g_mol", "empty_record"]
+__all__ = ["score_formula", "score_row", "score_parsed", "normalized_formula", "molar_mass_g_mol", "empty_record",
+           "without_grade_words"]
 
 
 def empty_record() -> dict:
@@ -336,7 +337,7 @@ def _plain_row(text: str) -> tuple:
     except FormulaError as exc:
         comp = parse_as_name(text)  # a name typed in the formula column ("choline chloride")
         if comp is None:
-            comp = _without_grade_words(text)
+            comp = without_grade_words(text)
             if comp is None:
                 return _error_row(_unread_text_message(text, exc) if _LOWER_WORD.search(text) else str(exc))
     return _parsed_row(comp)
@@ -357,11 +358,12 @@ def _unread_text_message(text: str, exc: FormulaError) -> str:
     if _NAME_LIKE.fullmatch(stripped):
         return (f"{stripped!r} is neither a formula nor a name the name reader knows (it reads inorganic salts,"
                 f" acids, bases and ionic liquids by systematic, Stock and trivial names, e.g. 'copper(II) sulfate"
-                f" pentahydrate'); write the formula instead (as a formula: {exc})")
+                f" pentahydrate', and handbook names such as 'acetone'); write the formula instead (as a formula:"
+                f" {exc})")
     return str(exc)
 
 
-def _without_grade_words(text: str):
+def without_grade_words(text: str):
     """The formula or name before grade and form words ("NaOH pellets", "Na2SO4
     anhydrous"), with a note naming the words left out; None when there are none
     or the rest does not read either."""

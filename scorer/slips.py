@@ -229,13 +229,10 @@ def _parsed_penalty(text: str) -> float:
     if comp is None:
         return math.inf
     penalty = 0.5 * len(comp.counts)
-    has_carbon = any(s == "C" for s, _ in comp.counts)
     for symbol, count in comp.counts:
         if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
             penalty += 3.0
-        if count > 100 or (count > 24 and not has_carbon):
-            penalty += 4.0
-    return penalty
+    return penalty + 4.0 * sum(map(_absurd_counts(comp.counts).__contains__, (s for s, _ in comp.counts)))
 
 
 def _reads_as_elements(content: str) -> bool:
@@ -282,8 +279,24 @@ def absurd_count(text: str) -> bool:
     comp = _parsed(text)
     if comp is None:
         return True
-    has_carbon = any(s == "C" for s, _ in comp.counts)
-    return any(n > 100 or (n > 24 and not has_carbon) for _, n in comp.counts)
+    return bool(_absurd_counts(comp.counts))
+
+
+def _absurd_counts(counts) -> frozenset[str]:
+    """The elements of ``(symbol, count)`` pairs whose count no inventory formula has: over 24 without
+    carbon; with carbon over 100, except carbon and hydrogen in a molecule whose hydrogens the carbons
+    can hold (``H <= 2 C + N + 2``, degree of unsaturation at least 0; common practice): glyceryl
+    tristearate C57H110O6 and a C110H220 wax are molecules, not slips for C57H11OO6.
+
+    >>> sorted(_absurd_counts((("C", 57.0), ("H", 110.0), ("O", 6.0)))), sorted(_absurd_counts((("Fe", 2.0), ("O", 203.0))))
+    ([], ['O'])
+    """
+    found = dict(counts)
+    carbon = found.get("C", 0.0)
+    if not carbon:
+        return frozenset(s for s, n in counts if n > 24)
+    saturated = found.get("H", 0.0) <= 2 * carbon + found.get("N", 0.0) + 2
+    return frozenset(s for s, n in counts if n > 100 and not (saturated and s in ("C", "H")))
 
 
 @once

@@ -186,6 +186,10 @@ _GRADE_WORD = (
     r"|beads?|lumps?|pieces?|chips?|shot|wire|foil|sticks?|rods?|ingots?|turnings|dust|fine|coarse|dried|fused"
     r"|precipitated|sublimed|resublimed|purified|recrystalli[sz]ed|distilled|redistilled|ACS|reagent|grade|technical|tech\.?|pure|puriss\.?|p\.\s?a\.|extra|ultrapure|analytical"
     r"|for\s+analysis|AR|LR|GR|USP|BP|EP|Ph\.?\s?Eur\.?|FCC|HPLC|min\.?|approx\.?|ca\.?"
+    # a solvent's grades ("ethanol absolute", "acetonitrile for HPLC", "chloroform stabilised")
+    r"|absolute|dry|spectroscopic|spectrophotometric|GC|for\s+(?:synthesis|HPLC|spectroscopy)|stabili[sz]ed"
+    # a metal as the metal ("sodium metal", "lithium metal, ribbon")
+    r"|metal|ribbon|granulate"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
 )
 _GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)

@@ -73,6 +73,7 @@ __all__ = [
     "listed_states",
     "formal_oxidation_states",
     "organometallic_states",
+    "binary_carbonyl",
     "oxidation_states_of",
     "format_oxidation_states",
 ]
@@ -220,6 +221,29 @@ def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str]
     return defaults, balancers, ranges
 
 
+# the metals of the binary carbonyls M_x(CO)_y (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+# ch. 8.4, table of binary carbonyls; from memory)
+_CARBONYL_METALS = frozenset("V Cr Mo W Mn Tc Re Fe Ru Os Co Rh Ir Ni".split())
+# carbonyls per metal atom: Rh6(CO)16 2.67 to Cr(CO)6 6; an oxalate (C2O4) has twice the oxygens
+_CARBONYLS_PER_METAL_MIN = 2.5
+
+
+def binary_carbonyl(counts: dict[str, float]) -> bool:
+    """Whether a composition is a binary metal carbonyl written in Hill order: one carbonyl-forming metal
+    (:data:`_CARBONYL_METALS`), carbon and oxygen in equal numbers, at least 2.5 of them per metal atom.
+    C5FeO5 is Fe(CO)5, C4NiO4 Ni(CO)4 (the squarate Ni(C4O4) has the same formula; the carbonyl is the
+    stock chemical; common practice).
+
+    >>> binary_carbonyl({"C": 5.0, "Fe": 1.0, "O": 5.0}), binary_carbonyl({"C": 2.0, "Fe": 1.0, "O": 4.0})
+    (True, False)
+    """
+    metals = [s for s in counts if s not in ("C", "O")]
+    if len(metals) != 1 or metals[0] not in _CARBONYL_METALS or set(counts) != {"C", "O", metals[0]}:
+        return False
+    carbon = counts["C"]
+    return abs(carbon - counts["O"]) < _TOL and carbon >= _CARBONYLS_PER_METAL_MIN * counts[metals[0]]
+
+
 def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
     """Formal states of a homoleptic carbonyl (neutral CO: metal 0, C +2, O -2)
     or metallocene (two C5H5(-): metal +2, C -1.2, H +1); IUPAC Red Book
@@ -351,6 +375,17 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
     return "ionic_salt"
 
 
+def _cyanocarbon(counts: dict[str, float]) -> bool:
+    """Carbon and nitrogen with no more N than C: the molecules of the nitrile groups (cyanogen NC-CN,
+    dicyanoacetylene C4N2, tetracyanoethylene C6N4; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed.,
+    1997, ch. 8.6; from memory), not the carbon nitride networks richer in N (C3N4).
+
+    >>> _cyanocarbon({"C": 2.0, "N": 2.0}), _cyanocarbon({"C": 3.0, "N": 4.0})
+    (True, False)
+    """
+    return set(counts) == {"C", "N"} and counts["N"] <= counts["C"]
+
+
 def nonionic_decomposition(
     charge: float, counts: dict[str, float], notes: list[str], water: float, neutral: tuple[str, ...]
 ) -> Decomposition:
@@ -368,7 +403,7 @@ def nonionic_decomposition(
     elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
         cls = "base"
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
-            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}):
+            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}) and not _cyanocarbon(counts):
         cls = "covalent_network"
     elif any(is_metal(s) for s in symbols):
         cls = "unknown"

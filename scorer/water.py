@@ -495,6 +495,10 @@ def _molecular_base(counts, dec) -> _Finding | None:
 def _organic(counts, dec) -> _Finding | None:
     if "C" not in counts or dec.is_ionic or any(is_metal(s) for s in counts):
         return None
+    if set(counts) <= {"C", "O", "N", "S", "Se", "Te"} and "H" not in counts:
+        # carbon with only O, N and chalcogens (CO, CS2, COS, C3O2, cyanogen) is no organic molecule: the
+        # carbon-per-polar-atom rule read CO as miscible (it dissolves about 0.03 g/L; from memory)
+        return None
     return _molecule(counts)
 
 

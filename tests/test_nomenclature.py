@@ -280,10 +280,11 @@ def test_name_columns_in_a_scored_file_and_none_without_a_name_column(tmp_path):
     assert "name_formula" not in names and "name_check" not in names and "systematic_name" in names
 
 
-@pytest.mark.parametrize("text", ["acetone", "sodium dodecyl sulfate", "Bleach solution"])
+@pytest.mark.parametrize("text", ["mineral oil", "polyvinyl alcohol", "Bleach solution"])
 def test_an_unknown_name_says_names_are_read_and_to_write_the_formula(text):
-    # organic and trade names the name reader does not hold: the row says what happened, not only
-    # "unexpected 'a'" (common practice)
+    # materials of no one formula and names the name reader does not hold: the row says what happened, not
+    # only "unexpected 'm'" (common practice); acetone and sodium dodecyl sulfate are read since the registry's
+    # names (tests/test_registry_names.py)
     from ionicity.scorer.record import score_formula
     row = score_formula(text)
     assert row["status"] == "error"
@@ -309,6 +310,26 @@ def test_solvent_codes_read_as_their_molecules(text, formula):
     assert "read the solvent code" in row["message"]
 
 
+@pytest.mark.parametrize("text, cas", [
+    # buffers and a chelator by their codes (common practice); formulas of the CAS numbers from the registry
+    # package chemicals at test time. TRIS had no code; as a formula, C4H11NO3 reads as propylammonium
+    # hydrogencarbonate, while a code names the molecule
+    ("TRIS", "77-86-1"), ("HEPES", "7365-45-9"), ("MOPS", "1132-61-2"), ("MES", "4432-31-9"),
+    ("EDTA", "60-00-4"), ("PIPES", "5625-37-6"),
+])
+def test_buffer_codes_read_as_their_molecules(text, cas):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.grammar import hill_formula
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    expected = identifiers.search_chemical(cas).formula
+    assert hill_formula(dict(parse_formula(row["formula_normalized"]).counts)) == hill_formula(
+        dict(parse_formula(expected).counts))
+    # one molecule: no cation but an acid's proton
+    assert row["substance_class"] in ("covalent_molecular", "acid") and (row["cations"] or "H(+)*1") == "H(+)*1"
+
+
 def test_a_compound_that_shares_a_code_stays_itself():
     from ionicity.scorer.record import score_formula
     assert score_formula("VC")["substance_class"] == "intermetallic"  # vanadium carbide, no solvent code
@@ -325,3 +346,37 @@ def test_deuterated_solvent_codes(text, formula):
     assert row["formula_normalized"] == formula
     expected = periodictable.formula(formula.replace("D", "D")).mass
     assert row["molar_mass_g_mol"] == pytest.approx(expected, rel=1e-4)
+
+
+@pytest.mark.parametrize("name, formula", [
+    # the trade's oxide names (common practice; the Red Book writes diphosphorus pentaoxide, IR-5.2): the first
+    # element's count is unsaid where one atom could not hold the state the prefix implies (P(+10))
+    ("phosphorus pentoxide", "P2O5"), ("nitrogen tetroxide", "N2O4"), ("arsenic trioxide", "As2O3"),
+    ("chlorine heptoxide", "Cl2O7"), ("vanadium pentoxide", "V2O5"), ("rhenium heptoxide", "Re2O7"),
+    ("bismuth trioxide", "Bi2O3"),
+    # one atom holds the state: as written
+    ("sulfur trioxide", "SO3"), ("nitrogen dioxide", "NO2"), ("osmium tetroxide", "OsO4"), ("chlorine dioxide", "ClO2"),
+    # a metal of several states without an oxidation number: the prefix counts atoms, not an ozonide ion
+    ("chromium trioxide", "CrO3"), ("molybdenum trioxide", "MoO3"), ("iron disulfide", "FeS2"),
+    # a metal of one state: the ion (disulfide(2-), ozonide)
+    ("sodium disulfide", "Na2S2"), ("potassium ozonide", "KO3"),
+])
+def test_traditional_oxide_names(name, formula):
+    from ionicity.scorer.name_reader import read_name
+    assert read_name(name) == formula
+    # "phosphorus pentoxide" had read as PO5, "chromium trioxide" as chromium(III) ozonide
+
+
+@pytest.mark.parametrize("text", ["potassium tert-butoxide", "n-butyllithium"])
+def test_a_hyphen_inside_an_unknown_name_is_not_a_mixture(text):
+    # the error had been "component 'potassium tert' of the mixture"
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] == "error" and "neither a formula nor a name" in row["message"]
+    assert row["substance_class"] != "mixture"
+
+
+def test_a_metal_named_as_the_metal():
+    from ionicity.scorer.record import score_formula
+    row = score_formula("sodium metal")
+    assert row["formula_normalized"] == "Na" and "'metal'" in row["message"]

@@ -334,3 +334,19 @@ def test_explain_shows_what_score_scored(text, scored):
     out = explain_formula(text)
     assert f"read as: {scored}" in out
     assert f"formula_normalized: {scored}" in out
+
+
+@pytest.mark.parametrize("formula", [
+    # molecules whose hydrogen count passes 100 (formulas of the CRC Handbook's organic table via chemicals:
+    # glyceryl tristearate CAS 555-43-1, glyceryl trioleate CAS 122-32-7) and a C110H220 wax: the 0 in
+    # "110" had been read as an O (C57H11OO6), a radical
+    "C57H110O6", "C57H104O6", "C110H220",
+])
+def test_large_saturated_counts_are_not_zero_slips(formula):
+    record = score_formula(formula)
+    assert record["formula_suggested"] is None and record["status"] == "ok", record["message"]
+
+
+def test_a_hydrogen_count_the_carbons_cannot_hold_is_still_a_slip():
+    # C6H1206: 1206 hydrogens on six carbons (at most 2 C + 2 = 14, degree of unsaturation; common practice)
+    assert score_formula("C6H1206")["formula_suggested"] == "C6H12O6"

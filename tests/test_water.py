@@ -363,3 +363,10 @@ def test_azides_dissolve_and_are_not_nitrides(text):
     row = score_formula(text)
     assert (row["water_behaviour"], row["solution_ph"], row["water_reaction_products"]) == ("dissolves", "basic", "none")
     assert score_formula("Li3N")["water_behaviour"] == "reacts_violently"
+
+
+@pytest.mark.parametrize("formula", ["CO", "CS2", "COS"])
+def test_inorganic_carbon_molecules_take_no_organic_rule(formula):
+    # carbon monoxide dissolves about 0.03 g/L (from memory); the organic carbon-per-polar-atom rule had called it
+    # miscible: no verdict is better than a wrong one
+    assert score_formula(formula)["water_behaviour"] != "miscible"

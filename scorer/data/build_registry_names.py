@@ -1,0 +1,142 @@
+"""Rebuild ``registry_names.csv``: names of the compounds the registry's handbook tables list, with formulas.
+
+usage: python -m ionicity.scorer.data.build_registry_names [--check]
+
+Rows, from the registry package ``chemicals`` (its version is written in the README section):
+
+* ``CRC organic`` and ``CRC inorganic``: the name and CAS number of every compound of the CRC
+  Handbook's "Physical Constants of Organic Compounds" and "... of Inorganic Compounds" tables as the
+  package ships them (``Misc/Physical Constants of *.csv``: Hexane, Acetone, D-Glucose, Ammonia), the
+  formula from the package's identifier tables by CAS number (``chemicals.identifiers.search_chemical``);
+* ``common practice``: the names of :data:`SYNONYMS` that stock lists use (methylene chloride, glycerin,
+  dextrose, tris), each with the CAS number it means; the formula of that CAS number, checked against the
+  registry's own lookup of the name;
+* ``PubChem``: the first two names of each compound of the package's table of common chemicals
+  (``Identifiers/chemical identifiers pubchem small.tsv``): the IUPAC-style name and the common name
+  (``propan-2-one``, ``acetone``). Later synonyms are not taken: they mix trade names and wrong
+  assignments (``dichloroethylene`` listed for 1,2-dichloroethane).
+
+``kind``: ``molecule`` when the registry's SMILES of the CAS number is one component, ``salt`` when it is
+several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
+from being read as an ion pair (tris, C4H11NO3, is no propylammonium hydrogencarbonate).
+
+Left out: names longer than 40 characters or not in ASCII, hydrates (the tables write their formulas without
+the water apart, CuH10O9S; the name grammar reads hydrate names itself), names that are CAS numbers or hold ``;`` or ``$`` (ion-pair and lambda-convention names),
+names of fewer than four lower-case letters, formulas with a charge or that the formula grammar does not
+read, and every name whose compact key (:func:`scorer.name_vocabulary.compact`: case, spaces and hyphens
+dropped) means two different formulas. Names are written as the source writes them; the first source
+in the order above keeps the row. ``--check`` exits 1 when the file differs from a rebuild.
+"""
+from __future__ import annotations
+
+import csv
+import io
+import os
+import re
+import sys
+from pathlib import Path
+
+OUT = Path(__file__).with_name("registry_names.csv")
+CRC_TABLES = (("CRC organic", "Physical Constants of Organic Compounds.csv"),
+              ("CRC inorganic", "Physical Constants of Inorganic Compounds.csv"))
+PUBCHEM_TABLE = "chemical identifiers pubchem small.tsv"
+# names a stock list uses that the two tables write otherwise (common practice), each with the CAS number
+# it means (from memory; xylene, a mixture of isomers, takes o-xylene's, the registry's own reading of
+# the name: every isomer is C8H10); the build takes the formula of that CAS number and, where the registry's own name
+# lookup (chemicals.identifiers.search_chemical) resolves the name, requires the same formula
+SYNONYMS = (
+    ("n-butanol", "71-36-3"), ("xylene", "95-47-6"), ("xylenes", "95-47-6"), ("methylene chloride", "75-09-2"),
+    ("ether", "60-29-7"), ("dimethylformamide", "68-12-2"), ("glucose", "50-99-7"), ("D-glucose", "50-99-7"),
+    ("dextrose", "50-99-7"), ("fructose", "57-48-7"), ("D-fructose", "57-48-7"), ("lactose", "63-42-3"),
+    ("maltose", "69-79-4"), ("glycerin", "56-81-5"), ("glycerine", "56-81-5"), ("propylene glycol", "57-55-6"),
+    ("EDTA", "60-00-4"), ("alanine", "56-41-7"), ("L-alanine", "56-41-7"), ("valine", "72-18-4"),
+    ("leucine", "61-90-5"), ("lysine", "56-87-1"), ("serine", "56-45-1"), ("glutamic acid", "56-86-0"),
+    ("tris", "77-86-1"), ("HEPES", "7365-45-9"), ("MOPS", "1132-61-2"), ("methyl ethyl ketone", "78-93-3"),
+    ("hexanes", "110-54-3"), ("isooctane", "540-84-1"), ("dioxane", "123-91-1"),
+    ("N-methyl-2-pyrrolidone", "872-50-4"), ("N-methylpyrrolidone", "872-50-4"), ("isobutanol", "78-83-1"),
+    ("sec-butanol", "78-92-2"), ("isoamyl alcohol", "123-51-3"), ("acetylacetone", "123-54-6"),
+)
+_CAS = re.compile(r"\d{2,7}-\d\d-\d")
+# longer names (stereo descriptors, CAS index inversions) are not what an inventory cell holds; nor are
+# names with Greek letters, typed in ASCII ("alpha-pinene") where they are typed at all
+MAX_NAME_CHARS = 40
+
+
+def _kind(smiles: str) -> str:
+    """``molecule`` for a SMILES of one component, ``salt`` for several (``[Na+].[Cl-]``), empty when unknown."""
+    return "" if not smiles else "salt" if "." in smiles else "molecule"
+
+
+def _entries():
+    """(source, name, formula, CAS, kind) of every candidate row, in the order of the sources."""
+    import chemicals.identifiers as ident
+
+    root = Path(os.path.dirname(ident.__file__))
+    for source, file in CRC_TABLES:
+        with open(root / "Misc" / file, encoding="utf-8") as handle:
+            for row in csv.DictReader(handle, delimiter="\t"):
+                name = row.get("Name") or row.get("Chemical") or ""
+                try:
+                    found = ident.search_chemical(row["CAS"])
+                except Exception:  # a CAS number the identifier tables do not hold: no formula, no row
+                    continue
+                yield source, name, found.formula, row["CAS"], _kind(found.smiles)
+    for name, cas in SYNONYMS:
+        found = ident.search_chemical(cas)
+        formula = found.formula
+        try:
+            by_name = ident.search_chemical(name).formula
+        except Exception:  # a name the registry's lookup does not know: the CAS number stands
+            by_name = formula
+        if by_name != formula and "-" not in by_name and "+" not in by_name:  # "N-methyl-2-pyrrolidone": "N-3"
+            raise ValueError(f"{name!r}: CAS {cas} is {formula}, the registry's name lookup says {by_name}")
+        yield "common practice", name, formula, cas, _kind(found.smiles)
+    with open(root / "Identifiers" / PUBCHEM_TABLE, encoding="utf-8") as handle:
+        for line in handle:
+            fields = line.rstrip("\n").split("\t")
+            if len(fields) >= 9:
+                for name in fields[7:9]:
+                    yield "PubChem", name, fields[2], fields[1], _kind(fields[4])
+
+
+def build() -> str:
+    from ionicity.scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.name_vocabulary import compact
+
+    formulas: dict[str, set[str]] = {}
+    first: dict[str, tuple[str, str, str, str, str]] = {}
+    readable: dict[str, bool] = {}
+    for source, name, formula, cas, kind in _entries():
+        name = " ".join(name.split())
+        if (not name or len(name) > MAX_NAME_CHARS or not name.isascii() or not formula or "+" in formula
+                or "-" in formula or _CAS.fullmatch(name) or ";" in name or "$" in name
+                or len(re.findall(r"[a-z]", name)) < 4 or "hydrate" in name.lower()):
+            continue
+        if formula not in readable:
+            try:
+                parse_formula(formula)
+                readable[formula] = True
+            except FormulaError:
+                readable[formula] = False
+        if not readable[formula]:
+            continue
+        key = compact(name)
+        formulas.setdefault(key, set()).add(formula)
+        first.setdefault(key, (name, formula, cas, kind, source))
+    buf = io.StringIO()
+    writer = csv.writer(buf, lineterminator="\n")
+    writer.writerow(["name", "formula", "cas", "kind", "source"])
+    for key in sorted(first):
+        if len(formulas[key]) == 1:
+            writer.writerow(first[key])
+    return buf.getvalue()
+
+
+if __name__ == "__main__":
+    text = build()
+    if "--check" in sys.argv:
+        same = OUT.read_text(encoding="utf-8") == text
+        print("registry_names.csv is up to date" if same else "registry_names.csv is stale: rebuild it")
+        sys.exit(0 if same else 1)
+    OUT.write_text(text, encoding="utf-8")
+    print(f"wrote {OUT} ({text.count(chr(10)) - 1} rows)")

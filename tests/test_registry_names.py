@@ -1,0 +1,102 @@
+"""Names of common chemicals read from the registry's tables (scorer/data/registry_names.csv).
+
+Source: the registry package ``chemicals`` (the CRC Handbook's tables of physical constants of
+organic and inorganic compounds, names and CAS numbers, and its PubChem identifier table of common
+chemicals; the formula of each CAS number from its identifier tables). The checks compare the
+committed file with a rebuild, and each row's formula with the molecular weight PubChem gives for
+its CAS number (``chemicals.identifiers.search_chemical(CAS).MW``), an outside value the build does
+not use.
+"""
+from __future__ import annotations
+
+import csv
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from ionicity.scorer.name_reader import parse_as_name, read_name, registry_entry
+from ionicity.scorer.name_vocabulary import compact
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.record import molar_mass_g_mol, score_formula
+
+ROOT = Path(__file__).resolve().parents[1]
+TABLE = ROOT / "scorer" / "data" / "registry_names.csv"
+
+
+def _rows():
+    with open(TABLE, newline="", encoding="utf-8") as handle:
+        return list(csv.DictReader(handle))
+
+
+def test_the_file_is_its_rebuild():
+    pytest.importorskip("chemicals")
+    done = subprocess.run([sys.executable, "-m", "ionicity.scorer.data.build_registry_names", "--check"],
+                          capture_output=True, text=True, cwd=ROOT)
+    assert done.returncode == 0, done.stdout + done.stderr
+
+
+def test_one_formula_per_name_key():
+    keys = [compact(row["name"]) for row in _rows()]
+    assert len(keys) == len(set(keys))
+
+
+def test_formulas_weigh_what_pubchem_says():
+    # every 10th row: the formula's molar mass (ionicity's atomic weights) against PubChem's molecular weight
+    # of the row's CAS number, read from the registry package at test time
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    checked = 0
+    for row in _rows()[::10]:
+        try:
+            expected = identifiers.search_chemical(row["cas"]).MW
+        except Exception:
+            continue
+        mass = score_formula(row["formula"])["molar_mass_g_mol"]  # D and T weigh as themselves
+        if mass != mass:  # a row the scorer cannot read as ions (C18H35OSn) has no mass column: its atoms'
+            mass = molar_mass_g_mol(dict(parse_formula(row["formula"]).counts))
+        assert mass == pytest.approx(expected, rel=2e-3), row
+        checked += 1
+    assert checked >= 1000
+
+
+@pytest.mark.parametrize("name, formula, cas", [
+    # CAS numbers and formulas: CRC Handbook of Chemistry and Physics, physical constants of organic compounds
+    # (via chemicals); spellings as a stock list writes them
+    ("acetone", "C3H6O", "67-64-1"), ("Ethyl acetate", "C4H8O2", "141-78-6"), ("HEXANE", "C6H14", "110-54-3"),
+    ("n-hexane", "C6H14", "110-54-3"), ("2-propanol", "C3H8O", "67-63-0"), ("toluene", "C7H8", "108-88-3"),
+    ("N,N-dimethylformamide", "C3H7NO", "68-12-2"), ("p-xylene", "C8H10", "106-42-3"),
+])
+def test_common_solvents_read_by_name(name, formula, cas):
+    entry = registry_entry(name)
+    assert entry is not None and (entry[0], entry[1]) == (formula, cas)
+    assert read_name(name) == formula
+    note = parse_as_name(name).notes[-1]
+    assert f"CAS {cas}" in note and formula in note
+
+
+def test_the_name_grammar_reads_first():
+    # the grammar's reading of a salt's name stands; the registry is asked only when it reads nothing
+    assert read_name("sodium chloride") == "NaCl"
+    assert read_name("copper(II) sulfate pentahydrate") == "CuSO4·5H2O"
+    assert all("hydrate" not in row["name"].lower() for row in _rows())
+
+
+def test_a_name_with_a_letter_and_a_hyphen_is_not_a_mixture():
+    # "N-pentane" had read as nitrogen and pentane in equal moles
+    row = score_formula("N-pentane")
+    assert row["formula_normalized"] == "C5H12" and row["substance_class"] != "mixture"
+
+
+@pytest.mark.parametrize("text, words", [
+    ("ethanol absolute", "absolute"), ("Acetonitrile for HPLC", "for HPLC"), ("Methanol HPLC grade", "HPLC grade"),
+])
+def test_solvent_grades_are_left_out_and_named(text, words):
+    row = score_formula(text)
+    assert row["status"] == "warning" and words in row["message"]
+    assert row["melting_class"] == "liquid_at_room_temperature"
+
+
+def test_explain_reads_grade_words_as_score_does():
+    from ionicity.pipelines.explain import explain_formula
+    text = explain_formula("NaCl ACS reagent")
+    assert "status: warning" in text and "status: error" not in text
