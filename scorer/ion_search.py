@@ -136,7 +136,9 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     """
     if budget[0] <= 0:
         return [], True  # the composition's work limit is spent: no walk, nothing to prepare
-    candidates = [ion for ion in _candidates_for(frozenset(remaining)) if _fits(ion.composition, remaining)]
+    # ``excluded`` holds (element, state) pairs of monatomic states and the ids of library ions to leave out
+    candidates = [ion for ion in _candidates_for(frozenset(remaining))
+                  if _fits(ion.composition, remaining) and ion.ion_id not in excluded]
     # common ions first, larger first: the best reading is found early and bounds the rest
     candidates.sort(key=lambda ion: (_ion_penalty(ion) >= _PENALTY_UNCOMMON_ION, -ion.atom_count, _ion_penalty(ion), ion.ion_id))
     coverable = [frozenset()] * (len(candidates) + 1)

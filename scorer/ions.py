@@ -61,6 +61,9 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 
 # how much less plausible a redox-compatible reading may be than the incompatible one
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
+# hypohalites, and the N-H cations that react with them (chloramine chemistry)
+_HYPOHALITES = frozenset({"ClO(-)", "BrO(-)", "IO(-)"})
+_AMMONIUM_LIKE = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
 # solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
 # of one composition may spend together, about 15 ms of CPU: set at 1.5 times the
@@ -298,6 +301,18 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             cations, anions, alternatives = paired
 
     reasons: tuple[str, ...] = ()
+    hypohalites = [t.ion.ion_id for t in anions if t.ion.ion_id in _HYPOHALITES]
+    if hypohalites and not hinted and any(t.ion.ion_id in _AMMONIUM_LIKE for t in cations):
+        # ammonium (or hydrazinium, hydroxylammonium) with a hypohalite is no salt: they react to a
+        # chloramine (NH4+ + OCl- -> NH2Cl + H2O; Greenwood & Earnshaw, 2nd ed., 1997, ch. 11.3; from memory).
+        # H4ClNO is hydroxylamine hydrochloride, NH3OH(+) Cl(-): read again without the hypohalite
+        ceiling = min(_IONIC_THRESHOLD, chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA)
+        other = _best(_readings(remaining, hinted, [], frozenset(hypohalites), budget, ceiling))
+        if other is not None and other[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA:
+            if comp.structure_hint == "ammonium":  # NH4 written out: say why it is not read so
+                notes.append(f"{hypohalites[0]} beside NH4(+) is no salt (they react to a chloramine): the composition"
+                             " is read as " + _reading_text(other[0], other[1]))
+            cations, anions, alternatives, _ = other
     conflicts = redox_conflicts(cations, anions)
     if conflicts:
         # a cation that oxidises its anion: look for the reading without it

@@ -249,3 +249,19 @@ def test_a_half_unit_reading_keeps_the_written_formula_and_one_index():
     assert half["formula_normalized"] == "GaCl2"
     assert half["mp_trend_index"] == pytest.approx(whole["mp_trend_index"], abs=1e-9)
     assert abs(10 ** half["mp_trend_index"] - 446) / 446 < 0.25
+
+
+@pytest.mark.parametrize("text", ["NH2OH.HCl", "NH3OHCl", "H4ClNO", "ClH4NO"])
+def test_hydroxylamine_hydrochloride_is_no_ammonium_hypochlorite(text):
+    # hydroxylammonium chloride (CAS 5470-11-1; ClH4NO in the registry package chemicals' identifier tables);
+    # ammonium with hypochlorite reacts to chloramine (Greenwood & Earnshaw, 2nd ed., 1997, ch. 11.3; from memory):
+    # the formula had read as NH4(+) ClO(-), an oxidiser beside a reducer
+    record = score_formula(text)
+    assert record["cations"] == "NH3OH(+)*1" and record["anions"] == "Cl(-)*1", record
+    assert record["status"] == "ok"
+
+
+def test_ammonium_hypochlorite_written_out_says_how_it_was_read():
+    record = score_formula("NH4ClO")
+    assert record["status"] == "warning" and "chloramine" in record["message"]
+    assert score_formula("NaClO")["anions"] == "ClO(-)*1"
