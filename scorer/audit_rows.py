@@ -7,6 +7,7 @@ from __future__ import annotations
 
 from typing import Callable
 
+from ionicity.scorer.name_reader import known_word_name
 from ionicity.scorer.slips import Slip, find_slip
 from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
@@ -15,7 +16,7 @@ __all__ = ["slipped_row", "solution_row", "audited_row"]
 
 
 def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
-                position: dict[str, int]) -> tuple:
+                position: dict[str, int], parsed_row: Callable | None = None) -> tuple:
     """The row of ``text``: ``plain_row`` of its solute and of the formula it
     most plausibly meant, with the audit columns and messages set.
 
@@ -24,8 +25,15 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     """
     solution = split_in_solvent(text) or split_solution(text)
     if solution is not None:
-        return solution_row(audited_row(solution.solute, plain_row, error_row, position), solution, position)
+        return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
+                            position)
     slip = find_slip(text)
+    if slip is not None and parsed_row is not None:
+        # one word of letters that the vocabulary or the registry holds as a name ("tin", "Tin", "TIN", "iron",
+        # "arsine") is that name, not a formula that lost its case or had I for l (TiN, TlN, IrON, ArSiNe)
+        named = known_word_name(text)
+        if named is not None:
+            return parsed_row(named)
     if slip is None:
         return plain_row(text)
     if slip.suggested:

@@ -255,15 +255,29 @@ def _read_key(key: str) -> str | None:
 _WORDLIKE = re.compile(r"[a-z]{3}|[A-Z]{4}")
 
 
-def parse_as_name(text: str):
+def known_word_name(text: str):
+    """``text`` parsed as the name it is, when it is one word that the vocabulary or the registry's names hold as a
+    name (``tin``, ``Tin``, ``TIN``, ``iron``, ``arsine``); ``None`` otherwise (``SN``, ``nacl``: no such word).
+    The slip audit asks it before taking a re-cased or re-lettered formula (TiN, TlN, IrON)."""
+    word = text.strip() if isinstance(text, str) else ""
+    if len(word) < 3 or not word.isalpha():
+        return None
+    if _read_key(compact(word)) is None and registry_entry(word) is None:
+        return None
+    return parse_as_name(word, any_word=True)
+
+
+def parse_as_name(text: str, any_word: bool = False):
     """A formula cell that holds a name (``choline chloride``) parsed as the
     formula the name means, with a note that becomes the row's warning; ``None``
-    when the text is not a name either.
+    when the text is not a name either. Without ``any_word`` only a text with a
+    word of three lower-case or four capital letters is tried (``Tin`` and ``TIN``
+    are tried by the slip audit, which asks with it).
 
     >>> parse_as_name("sodium chloride").notes
     ("the formula cell holds a name: 'sodium chloride' read as NaCl",)
     """
-    if not isinstance(text, str) or not _WORDLIKE.search(text):
+    if not isinstance(text, str) or not (any_word or _WORDLIKE.search(text)):
         return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
     formula, entry = _read_name(text)
     if formula is None:

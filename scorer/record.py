@@ -328,7 +328,7 @@ def _read_row(text: str) -> tuple:
     if mixture is not None:
         return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
-    return audited_row(text, _plain_row, _error_row, _layout()[1])
+    return audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row)
 
 
 def _plain_row(text: str) -> tuple:

@@ -350,3 +350,18 @@ def test_large_saturated_counts_are_not_zero_slips(formula):
 def test_a_hydrogen_count_the_carbons_cannot_hold_is_still_a_slip():
     # C6H1206: 1206 hydrogens on six carbons (at most 2 C + 2 = 14, degree of unsaturation; common practice)
     assert score_formula("C6H1206")["formula_suggested"] == "C6H12O6"
+
+
+@pytest.mark.parametrize("text, formula", [
+    # one word that is a name is that name (element names: IUPAC; arsine: CRC Handbook inorganic table via
+    # chemicals, CAS 7784-42-1): "tin" had read as TiN, "TIN" as TlN, "arsine" as argon-silicon-neon
+    ("tin", "Sn"), ("Tin", "Sn"), ("TIN", "Sn"), ("IRON", "Fe"), ("arsine", "AsH3"), ("neon", "Ne"),
+])
+def test_a_word_that_is_a_name_is_no_slip(text, formula):
+    record = score_formula(text)
+    assert record["formula_normalized"] == formula and record["formula_suggested"] is None
+
+
+@pytest.mark.parametrize("text, suggested", [("nacl", "NaCl"), ("SN", "Sn"), ("CD", "Cd"), ("CUSO4", "CuSO4")])
+def test_words_that_are_no_names_keep_their_slips(text, suggested):
+    assert score_formula(text)["formula_suggested"] == suggested

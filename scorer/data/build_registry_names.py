@@ -20,7 +20,8 @@ Rows, from the registry package ``chemicals`` (its version is written in the REA
 several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
 from being read as an ion pair (tris, C4H11NO3, is no propylammonium hydrogencarbonate).
 
-Left out: names longer than 40 characters or not in ASCII, hydrates (the tables write their formulas without
+Left out: CRC names whose formula by CAS number the package's own lookup of the name contradicts (another
+neutral formula), or a hydride's name with a one-element formula (Stibine read as Sb); names longer than 40 characters or not in ASCII, hydrates (the tables write their formulas without
 the water apart, CuH10O9S; the name grammar reads hydrate names itself), names that are CAS numbers or hold ``;`` or ``$`` (ion-pair and lambda-convention names),
 names of fewer than four lower-case letters, formulas with a charge or that the formula grammar does not
 read, and every name whose compact key (:func:`scorer.name_vocabulary.compact`: case, spaces and hyphens
@@ -67,6 +68,20 @@ def _kind(smiles: str) -> str:
     return "" if not smiles else "salt" if "." in smiles else "molecule"
 
 
+def _disagrees(ident, name: str, formula: str) -> bool:
+    """Whether the package's own lookup of ``name`` gives another neutral formula than its CAS number does
+    (Bismuth titanate: BiOTi by CAS, Bi2O7Ti2 by name), or a hydride's name (-ane, -ine) has no hydrogen
+    (Stibine: Sb by CAS): either table may be wrong, so the name is left out."""
+    if re.search(r"(?:ane|ine)$", name.lower()) and "H" not in re.findall(r"[A-Z][a-z]?", formula):
+        if len(re.findall(r"[A-Z][a-z]?", formula)) == 1:
+            return True
+    try:
+        by_name = ident.search_chemical(name).formula
+    except Exception:  # the lookup does not know the name: nothing to disagree with
+        return False
+    return by_name != formula and "-" not in by_name and "+" not in by_name
+
+
 def _entries():
     """(source, name, formula, CAS, kind) of every candidate row, in the order of the sources."""
     import chemicals.identifiers as ident
@@ -79,6 +94,8 @@ def _entries():
                 try:
                     found = ident.search_chemical(row["CAS"])
                 except Exception:  # a CAS number the identifier tables do not hold: no formula, no row
+                    continue
+                if _disagrees(ident, name, found.formula):
                     continue
                 yield source, name, found.formula, row["CAS"], _kind(found.smiles)
     for name, cas in SYNONYMS:
