@@ -262,9 +262,15 @@ def known_word_name(text: str):
     word = text.strip() if isinstance(text, str) else ""
     if len(word) < 3 or not word.isalpha():
         return None
-    if _read_key(compact(word)) is None and registry_entry(word) is None:
+    # the registry's names only from six letters (arsine): the shorter words a slip reads (nacl, kscn, naoh)
+    # are formulas, and the element names among them (tin, iron, lead, zinc) are the vocabulary's; so the
+    # registry's table is not loaded for them
+    if _read_key(compact(word)) is None and (len(word) < _REGISTRY_WORD_MIN or registry_entry(word) is None):
         return None
     return parse_as_name(word, any_word=True)
+
+
+_REGISTRY_WORD_MIN = 6
 
 
 def parse_as_name(text: str, any_word: bool = False):
