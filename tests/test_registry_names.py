@@ -100,3 +100,22 @@ def test_explain_reads_grade_words_as_score_does():
     from ionicity.pipelines.explain import explain_formula
     text = explain_formula("NaCl ACS reagent")
     assert "status: warning" in text and "status: error" not in text
+
+
+@pytest.mark.parametrize("name", ["acetyl chloride", "benzoyl chloride", "oxalyl chloride"])
+def test_acyl_halides_by_name_react_with_water(name):
+    # the registry's SMILES holds the carbonyl halide (CC(=O)Cl); its Hill formula C2H3ClO does not, and read
+    # from the formula alone acetyl chloride had been "miscible" (acyl halides react violently with water:
+    # Bretherick's Handbook of Reactive Chemical Hazards; from memory)
+    assert registry_entry(name)[4] == "acyl_halide"
+    assert score_formula(name)["water_behaviour"] == "reacts_violently"
+
+
+def test_a_molecule_by_name_is_no_ion_pair():
+    # lysine, C6H14N2O2: as a bare formula the library pair choline cyanate fits; the name is the molecule
+    # (registry SMILES of CAS 56-87-1: one component)
+    assert registry_entry("lysine")[4] == "molecule"
+    named, bare = score_formula("lysine"), score_formula("C6H14N2O2")
+    assert named["formula_normalized"] == "C6H14N2O2" and not named["cations"]
+    assert bare["cations"]  # the formula alone cannot tell: still an ion pair
+    assert score_formula("benzoic acid")["cations"] == "H(+)*1"  # an acid's proton stands

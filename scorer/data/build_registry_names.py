@@ -16,8 +16,8 @@ Rows, from the registry package ``chemicals`` (its version is written in the REA
   (``propan-2-one``, ``acetone``). Later synonyms are not taken: they mix trade names and wrong
   assignments (``dichloroethylene`` listed for 1,2-dichloroethane).
 
-``kind``: ``molecule`` when the registry's SMILES of the CAS number is one component, ``salt`` when it is
-several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
+``kind``: ``molecule`` when the registry's SMILES of the CAS number is one component (``acyl_halide`` when
+that molecule holds a carbonyl halide group), ``salt`` when it is several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
 from being read as an ion pair (tris, C4H11NO3, is no propylammonium hydrogencarbonate).
 
 Left out: CRC names whose formula by CAS number the package's own lookup of the name contradicts (another
@@ -63,9 +63,19 @@ _CAS = re.compile(r"\d{2,7}-\d\d-\d")
 MAX_NAME_CHARS = 40
 
 
+# a carbonyl halide group in a SMILES: CC(=O)Cl, C(=O)(Cl)Cl, ClC(=O)C, O=C(Cl)C
+_ACYL_HALIDE_SMILES = re.compile(r"C\(=O\)\(?(?:Cl|Br|I|F)|(?:Cl|Br|I|F)C\(=O\)|O=C\((?:Cl|Br|I|F)\)|C\((?:Cl|Br|I|F)\)=O")
+
+
 def _kind(smiles: str) -> str:
-    """``molecule`` for a SMILES of one component, ``salt`` for several (``[Na+].[Cl-]``), empty when unknown."""
-    return "" if not smiles else "salt" if "." in smiles else "molecule"
+    """``molecule`` for a SMILES of one component, ``acyl_halide`` for such a molecule with a carbonyl halide
+    group (CC(=O)Cl: water cleaves it, which its Hill formula C2H3ClO cannot show), ``salt`` for several
+    components (``[Na+].[Cl-]``), empty when unknown."""
+    if not smiles:
+        return ""
+    if "." in smiles:
+        return "salt"
+    return "acyl_halide" if _ACYL_HALIDE_SMILES.search(smiles) else "molecule"
 
 
 def _disagrees(ident, name: str, formula: str) -> bool:
