@@ -61,6 +61,8 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 
 # how much less plausible a redox-compatible reading may be than the incompatible one
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
+# groups a formula's text or a name shows that water attacks (scorer.water)
+_REACTIVE_GROUPS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
 # hypohalites, and the N-H cations that react with them (chloramine chemistry)
 _HYPOHALITES = frozenset({"ClO(-)", "BrO(-)", "IO(-)"})
 _AMMONIUM_LIKE = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
@@ -206,10 +208,11 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-    if comp.structure_hint == "acyl_halide" and not any(is_metal(s) for s in symbols):
-        # an acyl halide written out (CH3COCl, COCl2): a molecule whose C-X bond water cleaves
+    if comp.structure_hint in _REACTIVE_GROUPS and not any(is_metal(s) for s in symbols):
+        # an acyl halide written out (CH3COCl, COCl2), or an acid anhydride or isocyanate a name says
+        # (name_reader: the registry's SMILES): a molecule with a group water attacks
         dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-        return dataclasses.replace(dec, written_groups=("acyl_halide",))
+        return dataclasses.replace(dec, written_groups=(comp.structure_hint,))
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)

@@ -296,12 +296,17 @@ def parse_as_name(text: str, any_word: bool = False):
     if entry is not None:
         # a formula may stand for several compounds (C3H6O: acetone, propanal): say which one the name is
         note += f" ({entry[2]}, CAS {entry[1]}; {_REGISTRY_SOURCES.get(entry[3], entry[3])})"
-        if entry[4] in ("molecule", "acyl_halide") and _organic_molecule(parsed):
+        if entry[4] in _MOLECULE_KINDS and _organic_molecule(parsed):
             # the registry knows it as one molecule: no ion pair of the formula's atoms (tris, C4H11NO3, is no
             # propylammonium hydrogencarbonate; lysine no choline cyanate); an acid's H(+) reading stands; an
-            # acyl halide (acetyl chloride, C2H3ClO) is marked as its written CH3COCl is, for the water rules
-            parsed = dataclasses.replace(parsed, structure_hint="acyl_halide" if entry[4] == "acyl_halide" else "molecule")
+            # acyl halide (acetyl chloride, C2H3ClO) is marked as its written CH3COCl is, and an acid anhydride
+            # or an isocyanate likewise, for the water rules
+            parsed = dataclasses.replace(parsed, structure_hint=entry[4])
     return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+# the registry's kinds of one molecule (scorer/data/registry_names.csv): the parse's structure hint
+_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
 
 
 def _organic_molecule(parsed) -> bool:

@@ -451,6 +451,20 @@ def _acyl_halide(counts, dec) -> _Finding | None:
                     f"an acyl halide: water cleaves its C-X bond, giving {products.replace(';', ' and ')}")
 
 
+def _organic_reactive_group(counts, dec) -> _Finding | None:
+    """A carboxylic anhydride or an isocyanate a name says (the registry's SMILES; acetic anhydride, methyl
+    isocyanate): water opens the anhydride to the carboxylic acid, and adds to the isocyanate, which gives
+    off CO2 and the amine, a gas that builds pressure in a closed container (Clayden et al., Organic
+    Chemistry, 2nd ed., 2012, ch. 10; Bretherick's Handbook of Reactive Chemical Hazards; from memory)."""
+    if "acid_anhydride" in dec.written_groups:
+        return _finding("reacts", "acidic", "carboxylic acid", "acid anhydride",
+                        "a carboxylic anhydride: water opens it to the carboxylic acid (exothermic)")
+    if "isocyanate" in dec.written_groups:
+        return _finding("reacts", None, "amine;CO2", "isocyanate",
+                        "an isocyanate: water adds to N=C=O, giving CO2 and the amine (pressure in a closed container)")
+    return None
+
+
 def _anhydride(counts, dec) -> _Finding | None:
     entry = _ANHYDRIDES.get(tuple(sorted(counts.items())))
     if entry is None:
@@ -675,7 +689,8 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 
 #: the rules in order; the first that returns a finding decides
-RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide, _anhydride, _acid, _molecular_base, _organic,
+RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide,
+         _organic_reactive_group, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 

@@ -119,3 +119,16 @@ def test_a_molecule_by_name_is_no_ion_pair():
     assert named["formula_normalized"] == "C6H14N2O2" and not named["cations"]
     assert bare["cations"]  # the formula alone cannot tell: still an ion pair
     assert score_formula("benzoic acid")["cations"] == "H(+)*1"  # an acid's proton stands
+
+
+@pytest.mark.parametrize("name, kind, products", [
+    # the registry's SMILES shows the group, the Hill formula does not (acetic anhydride C4H6O3 read from its
+    # formula "dissolves"; methyl isocyanate C2H3NO was "miscible"); water opens anhydrides to the acid and adds
+    # to isocyanates, giving CO2 and the amine (Clayden et al., Organic Chemistry, 2nd ed., 2012, ch. 10; from memory)
+    ("acetic anhydride", "acid_anhydride", "carboxylic acid"), ("maleic anhydride", "acid_anhydride", "carboxylic acid"),
+    ("methyl isocyanate", "isocyanate", "amine;CO2"), ("phenyl isocyanate", "isocyanate", "amine;CO2"),
+])
+def test_anhydrides_and_isocyanates_by_name_react_with_water(name, kind, products):
+    assert registry_entry(name)[4] == kind
+    record = score_formula(name)
+    assert record["water_behaviour"] == "reacts" and record["water_reaction_products"] == products

@@ -17,7 +17,8 @@ Rows, from the registry package ``chemicals`` (its version is written in the REA
   assignments (``dichloroethylene`` listed for 1,2-dichloroethane).
 
 ``kind``: ``molecule`` when the registry's SMILES of the CAS number is one component (``acyl_halide`` when
-that molecule holds a carbonyl halide group), ``salt`` when it is several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
+that molecule holds a carbonyl halide group, ``acid_anhydride`` a carboxylic anhydride, ``isocyanate`` an
+N=C=O group: water reactions a Hill formula cannot show), ``salt`` when it is several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
 from being read as an ion pair (tris, C4H11NO3, is no propylammonium hydrogencarbonate).
 
 Left out: CRC names whose formula by CAS number the package's own lookup of the name contradicts (another
@@ -67,6 +68,11 @@ MAX_NAME_CHARS = 40
 _ACYL_HALIDE_SMILES = re.compile(r"C\(=O\)\(?(?:Cl|Br|I|F)|(?:Cl|Br|I|F)C\(=O\)|O=C\((?:Cl|Br|I|F)\)|C\((?:Cl|Br|I|F)\)=O")
 
 
+# a carboxylic anhydride (CC(=O)OC(=O)C) and an isocyanate (CN=C=O) in a SMILES
+_ANHYDRIDE_SMILES = re.compile(r"C\(=O\)OC\(=O\)|O=C\d?OC\(=O\)|C\(=O\)OC\d?=O")
+_ISOCYANATE_SMILES = re.compile(r"N=C=O|O=C=N")
+
+
 def _kind(smiles: str) -> str:
     """``molecule`` for a SMILES of one component, ``acyl_halide`` for such a molecule with a carbonyl halide
     group (CC(=O)Cl: water cleaves it, which its Hill formula C2H3ClO cannot show), ``salt`` for several
@@ -75,7 +81,13 @@ def _kind(smiles: str) -> str:
         return ""
     if "." in smiles:
         return "salt"
-    return "acyl_halide" if _ACYL_HALIDE_SMILES.search(smiles) else "molecule"
+    if _ACYL_HALIDE_SMILES.search(smiles):
+        return "acyl_halide"
+    if _ANHYDRIDE_SMILES.search(smiles):
+        return "acid_anhydride"
+    if _ISOCYANATE_SMILES.search(smiles):
+        return "isocyanate"
+    return "molecule"
 
 
 def _disagrees(ident, name: str, formula: str) -> bool:
