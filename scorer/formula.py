@@ -165,6 +165,10 @@ class ParsedFormula:
 # the two ions have one composition, so only the text tells them apart
 _FULMINATE = re.compile(r"CNO(?![a-z])")
 _ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
+# an isocyanate group written last or closing a group (CH3NCO, C6H5NCO, HNCO; not the N-acyl of
+# (CH3)2NCOCH3) and a carboxylic anhydride written as (RCO)2O ((CH3CO)2O, (CF3CO)2O): common practice
+_ISOCYANATE = re.compile(r"N=?C=?O(?=$|\))")
+_ACID_ANHYDRIDE = re.compile(r"^\([A-Za-z0-9]*CO\)2O$")
 
 # the invisible format characters (Unicode category Cf) that copied text carries: soft hyphen, zero-width
 # space to right-to-left mark, word joiner and invisible operators, byte-order mark
@@ -590,6 +594,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "organometallic"
     elif _ACYL_HALIDE.search(cleaned):
         hint = "acyl_halide"
+    elif totals.get("C", 0) >= 2 and "H" in totals and _ISOCYANATE.search(cleaned):  # R-NCO, not HNCO
+        hint = "isocyanate"
+    elif _ACID_ANHYDRIDE.match(cleaned):
+        hint = "acid_anhydride"
     elif "(NH2)" in cleaned:
         hint = "amide"
     elif _FULMINATE.search(cleaned):

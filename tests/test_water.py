@@ -370,3 +370,20 @@ def test_inorganic_carbon_molecules_take_no_organic_rule(formula):
     # carbon monoxide dissolves about 0.03 g/L (from memory); the organic carbon-per-polar-atom rule had called it
     # miscible: no verdict is better than a wrong one
     assert score_formula(formula)["water_behaviour"] != "miscible"
+
+
+@pytest.mark.parametrize("formula, products", [
+    # written with their groups (common practice): an isocyanate R-NCO, a carboxylic anhydride (RCO)2O; water adds
+    # to N=C=O giving CO2 and the amine, and opens the anhydride to the acid (Clayden et al., Organic Chemistry,
+    # 2nd ed., 2012, ch. 10; from memory). CH3NCO had been "miscible"
+    ("CH3NCO", "amine;CO2"), ("C6H5NCO", "amine;CO2"), ("(CH3CO)2O", "carboxylic acid"), ("(CF3CO)2O", "carboxylic acid"),
+])
+def test_written_isocyanates_and_anhydrides_react(formula, products):
+    record = score_formula(formula)
+    assert record["water_behaviour"] == "reacts" and record["water_reaction_products"] == products
+
+
+@pytest.mark.parametrize("formula", ["(CH3)2NCOCH3", "HNCO", "KNCO"])
+def test_an_n_acyl_group_cyanic_acid_and_cyanates_are_no_isocyanates(formula):
+    # N,N-dimethylacetamide, isocyanic acid (an acid, read as before), potassium cyanate (a salt)
+    assert score_formula(formula)["water_reaction_products"] != "amine;CO2"
