@@ -75,7 +75,12 @@ _SUPERSCRIPT_CHARS = "⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻"
 _SUPERSCRIPTS = str.maketrans(_SUPERSCRIPT_CHARS, "0123456789+-")
 _DOT_SEPARATORS = "·•∙⋅・･×"
 _MINUS_SIGNS = "−–—‐‑"
-_SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?[A-Z(\[])")
+_SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?\s?[A-Z(\[])")
+# "CoCl2 · x H2O", "CoCl2 xH2O": water of unstated amount typed with spaces (a catalogue's xH2O) after a dot,
+# or written on to the salt after a space; read as the unstated-water hydrate (common practice). A lone
+# " x " between salt and water stays a multiplication sign ("LiF x H2O" is LiF·H2O, tests/test_properties.py)
+_SPACED_X_WATER = re.compile(r"\s*[·.*•∙⋅]\s*[xXn]\s+(?=H2O\s*$)")
+_SPACED_UNSTATED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=[xn]H2O\s*$)")
 # "MgSO4 7H2O": a space typed for the hydrate dot before a counted water at the end
 _SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*[HDT]2O\s*$)")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
@@ -177,6 +182,7 @@ _FORMAT_CHARACTERS = re.compile("[\u00ad\u200b-\u200f\u202a-\u202e\u2060-\u2064\
 
 def _normalise_text(text: str) -> str:
     """Map the Unicode and typing variants onto the plain grammar alphabet."""
+    text = _SPACED_UNSTATED_WATER.sub("*", _SPACED_X_WATER.sub("*x", text))
     text = _SPACED_WATER.sub("*", _SPACED_TIMES.sub("*", text))
     if text.isascii():
         # no superscripts, subscripts, dots, dashes or compatibility forms

@@ -185,7 +185,10 @@ def test_bracketed_water_alone_is_water():
 
 EQUIVALENT_SPELLINGS = [
     ["CuSO4·5H2O", "CuSO4.5H2O", "CuSO4*5H2O", "CuSO4•5H2O", "CuSO₄·5H₂O", " CuSO4 · 5 H2O ",
-     "CuSO4+5H2O", "CuSO4∙5H2O", "CuSO4⋅5H2O", "CuSO4(H2O)5", "CuSO4 x 5H2O", "ＣｕＳＯ４·５Ｈ２Ｏ"],
+     "CuSO4+5H2O", "CuSO4∙5H2O", "CuSO4⋅5H2O", "CuSO4(H2O)5", "CuSO4 x 5H2O", "CuSO4 x 5 H2O",
+     "ＣｕＳＯ４·５Ｈ２Ｏ"],
+    # water of unstated amount, however spaced (common practice: a catalogue's xH2O): the anhydrous salt
+    ["CoCl2·xH2O", "CoCl2 xH2O", "CoCl2 · x H2O", "CoCl2.nH2O"],
     ["CaCO3(H2O)6", "CaCO3.6H2O", "CaCO3·6H2O"],
     ["CaSO4·0.5H2O", "CaSO4·½H2O", "CaSO4.0.5H2O", "CaSO4*0.5H2O", "CaSO4(H2O)0.5"],
     ["KCl·MgCl2·6H2O", "KMgCl3·6H2O", "KMgCl₃·6H₂O"],
