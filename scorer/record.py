@@ -220,7 +220,47 @@ def score_parsed(comp: ParsedFormula) -> dict:
     return dict(zip(_layout()[0], _parsed_row(comp)))
 
 
+def flattened_hydrate(comp: ParsedFormula) -> ParsedFormula | None:
+    """A salt hydrate written as one formula, its water counted into H and O (FeH14O11S, a registry's Hill
+    formula of FeSO4·7H2O), read as the salt with its lattice water; ``None`` for any other formula.
+
+    The sign is the reading: H(+) beside O(2-) or OH(-) in one solid is no salt (they are water). The
+    most water is taken whose rest reads with neither H(+) nor O(2-) (Ba(OH)2·8H2O, not BaO·9H2O;
+    common practice).
+
+    >>> flattened_hydrate(parse_formula("FeH14O11S")).hydrate_water
+    7.0
+    >>> flattened_hydrate(parse_formula("FeSO4")) is None
+    True
+    """
+    if comp.hydrate_water or comp.ion_hints or comp.charge or comp.isotopes or comp.neutral_adducts:
+        return None
+    counts = dict(comp.counts)
+    if "H" not in counts or "O" not in counts or not all(float(n).is_integer() for n in counts.values()):
+        return None
+    dec = decompose_anhydrous(comp)
+    protons = sum(t.count for t in dec.cations if t.ion.ion_id == "H(+)")
+    bases = sum(t.count for t in dec.anions if t.ion.ion_id in ("O(2-)", "OH(-)"))
+    if not protons or not bases:
+        return None
+    for water in range(int(min(counts["H"] // 2, counts["O"])), 0, -1):
+        dry = {s: n - (2 * water if s == "H" else water if s == "O" else 0) for s, n in counts.items()}
+        dry = tuple((s, n) for s, n in comp.counts if dry[s] > 0 for n in (dry[s],))
+        salt = ParsedFormula(comp.text, dry, float(water))
+        read = decompose_anhydrous(salt)
+        if read.cations and not any(t.ion.ion_id == "H(+)" for t in read.cations) and not any(
+                t.ion.ion_id == "O(2-)" for t in read.anions):
+            note = (f"{comp.text!r} holds its water of crystallisation in the formula (H(+) beside O(2-) or OH(-) is"
+                    f" water): read as the hydrate with {water:g} H2O")
+            return ParsedFormula(comp.text, dry, float(water), notes=(*comp.notes, note))
+    return None
+
+
 def _parsed_row(comp: ParsedFormula) -> tuple:
+    # a salt hydrate written as one formula, its water counted in (FeH14O11S): the salt with its water
+    flat = flattened_hydrate(comp) if "H" in dict(comp.counts) and not comp.hydrate_water else None
+    if flat is not None:
+        return _parsed_row(flat)
     # once per spelling: what is not shared with the salt's other spellings is
     # its lattice water (a few distinct counts, each worded once) and its mass
     key = (comp.counts, comp.charge, comp.ion_hints, comp.neutral_adducts, comp.structure_hint)
