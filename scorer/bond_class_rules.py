@@ -267,6 +267,9 @@ ORGANOMETALLIC_NOTE = (
     " formula, not a hazard assessment; follow the safety data sheet"
 )
 _CARBON_ANION_PARTNERS = _HALOGENS
+# heavy p-block metals and mercury, whose alkyls and aryls keep their M-C bonds beside oxygen (R3SnOH,
+# (R3Sn)2O, RHgOH; Elschenbroich, Organometallics, 3rd ed., 2006, ch. 5-6; from memory)
+_ORGANO_OXO_METALS = frozenset({"Sn", "Pb", "Hg", "Ge", "Tl", "Bi", "Sb"})
 
 
 def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
@@ -290,7 +293,15 @@ def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
         return None
     if anion_ids is None:
         others = {s for s in counts if not is_metal(s)} - {"C", "H"}
-        return ORGANOMETALLIC_NOTE if others <= _CARBON_ANION_PARTNERS else None
+        if others <= _CARBON_ANION_PARTNERS:
+            return ORGANOMETALLIC_NOTE
+        # organotin, organolead and organomercury oxides, hydroxides and alkoxides (bis(tributyltin) oxide
+        # C24H54OSn2, cyhexatin C18H35OSn) that no ions balance: molecules of M-C and M-O bonds, not a typo
+        # of a salt (for these metals; the s-block and the d-block keep the "check the formula" error)
+        metals = {s for s in counts if is_metal(s)}
+        if metals <= _ORGANO_OXO_METALS and others <= _CARBON_ANION_PARTNERS | {"O"}:
+            return ORGANOMETALLIC_NOTE
+        return None
     if any(_CARBIDE_ANION.fullmatch(ion_id) for ion_id in anion_ids):
         return ORGANOMETALLIC_NOTE
     return None

@@ -309,3 +309,19 @@ def test_cyanogen_is_a_molecule_not_a_network(formula, cas):
 
 def test_carbon_nitride_richer_in_nitrogen_stays_a_network():
     assert _verdict("C3N4")[1] == "covalent_network"
+
+
+@pytest.mark.parametrize("cas", ["56-35-9", "13121-70-5", "76-87-9"])
+def test_organotin_oxides_and_hydroxides_are_metal_organic_molecules(cas):
+    # bis(tributyltin) oxide, cyhexatin, triphenyltin hydroxide: formulas from the registry package chemicals by CAS
+    # number; no ions balance them, and they had been errors ("check the formula"); Sn-C and Sn-O bonds
+    # (Elschenbroich, Organometallics, 3rd ed., 2006; from memory)
+    from chemicals.identifiers import search_chemical
+    out = score_formula(search_chemical(cas).formula)
+    assert out["status"] == "warning" and out["substance_class"] == "covalent_molecular"
+    assert "organometallic" in out["message"]
+
+
+def test_an_unbalanced_alkali_organic_formula_is_not_called_organometallic():
+    # the s-block keeps its salt readings and errors (a typo of a carboxylate is likelier than an alkoxide)
+    assert "organometallic" not in (score_formula("C2H3NaO")["message"] or "")
