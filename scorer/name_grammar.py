@@ -317,10 +317,8 @@ def formula_text(reading: NameReading) -> str | None:
         # counts atoms (FeS2, CrO3), not an ozonide or a disulfide ion; "bismuth trioxide" is Bi2O3 (two atoms
         # where one could not hold the state, _unsaid_first_count); "sodium disulfide" stays Na2S2
         symbol, count = anions[0].split
-        split = [Part(symbol, -2 if symbol in ("O", "S", "Se", "Te") else -1, element=symbol)]
         counts = [1] * len(cations) + [count]
-        split[0].count = count
-        _unsaid_first_count(cations, split, counts)
+        _unsaid_first_count(cations, [Part(symbol, -2 if symbol in _CHALCOGENS else -1, count, element=symbol)], counts)
         return parts_text(list(zip(cations + [Part(symbol, None, element=symbol)], counts)), reading.water)
     for part in cations:
         if part.charge is None:
@@ -335,6 +333,9 @@ def formula_text(reading: NameReading) -> str | None:
     if counts is None:
         return None
     return parts_text(list(zip(cations + anions, counts)), reading.water)
+
+
+_CHALCOGENS = frozenset({"O", "S", "Se", "Te"})
 
 
 def _variable_valence(part: Part) -> bool:

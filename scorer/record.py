@@ -234,7 +234,7 @@ def flattened_hydrate(comp: ParsedFormula) -> ParsedFormula | None:
     True
     """
     if comp.hydrate_water or comp.ion_hints or comp.charge or comp.isotopes or comp.neutral_adducts:
-        return None
+        return None  # the checks that cost nothing come first: this runs for every spelling scored
     counts = dict(comp.counts)
     if "H" not in counts or "O" not in counts or not all(float(n).is_integer() for n in counts.values()):
         return None
@@ -244,8 +244,8 @@ def flattened_hydrate(comp: ParsedFormula) -> ParsedFormula | None:
     if not protons or not bases:
         return None
     for water in range(int(min(counts["H"] // 2, counts["O"])), 0, -1):
-        dry = {s: n - (2 * water if s == "H" else water if s == "O" else 0) for s, n in counts.items()}
-        dry = tuple((s, n) for s, n in comp.counts if dry[s] > 0 for n in (dry[s],))
+        taken = {"H": 2 * water, "O": water}
+        dry = tuple((s, n - taken.get(s, 0)) for s, n in comp.counts if n > taken.get(s, 0))
         salt = ParsedFormula(comp.text, dry, float(water))
         read = decompose_anhydrous(salt)
         if read.cations and not any(t.ion.ion_id == "H(+)" for t in read.cations) and not any(
@@ -258,7 +258,7 @@ def flattened_hydrate(comp: ParsedFormula) -> ParsedFormula | None:
 
 def _parsed_row(comp: ParsedFormula) -> tuple:
     # a salt hydrate written as one formula, its water counted in (FeH14O11S): the salt with its water
-    flat = flattened_hydrate(comp) if "H" in dict(comp.counts) and not comp.hydrate_water else None
+    flat = flattened_hydrate(comp)
     if flat is not None:
         return _parsed_row(flat)
     # once per spelling: what is not shared with the salt's other spellings is
