@@ -365,6 +365,41 @@ def _unsaid_first_count(cations: list[Part], anions: list[Part], counts: list) -
         counts[0] = 2
 
 
+def unsaid_readings(reading: NameReading) -> tuple[str, ...]:
+    """The formula texts a name may mean where it gives one element cation without an oxidation number and
+    no multiplying prefix (``phosphorus oxychloride``, ``iron chloride``), for the reader to check against the
+    compounds the registry knows (:func:`scorer.name_reader.known_reading`); empty for any other name.
+
+    One text per positive state the element takes (mendeleev's main and extra states up to +8), highest
+    first, by charge balance with one anion, or, after ``oxy``, one oxide and as many halides as the rest of
+    the state (POCl3, VOCl3, BiOCl; common practice).
+
+    >>> from ionicity.scorer.name_reader import read_name_parts
+    >>> unsaid_readings(read_name_parts("phosphorusoxychloride"))
+    ('POCl3', 'POCl2', 'POCl')
+    """
+    cations, anions = reading.cations, reading.anions
+    if (reading.molecule is not None or len(cations) != 1 or not anions or any(
+            p.count is not None or p.split for p in cations + anions) or any(p.charge is None for p in anions)
+            or cations[0].charge is not None or not cations[0].element or cations[0].polyatomic):
+        return ()
+    part = cations[0]
+    element = get_element(part.element)
+    out: list[str] = []
+    for state in sorted({s for s in (*element.oxidation_states_main, *element.oxidation_states_extra)
+                         if 0 < s <= 8}, reverse=True):
+        if len(anions) == 1:
+            counts = balance([state], [anions[0].charge])
+        elif len(anions) == 2 and anions[0].element == "O" and anions[1].charge == -1 and state > 2:
+            counts = [1, 1, state - 2]
+        else:
+            continue
+        if counts:
+            out.append(parts_text(list(zip([Part(part.text, state, element=part.element), *anions], counts)),
+                                  reading.water))
+    return tuple(dict.fromkeys(out))
+
+
 def _acid_hydrogen(cations: list[Part], anions: list[Part], counts: list) -> None:
     """The trade's ``disodium phosphate`` (Na2HPO4) and ``monosodium
     phosphate`` (NaH2PO4): prefixes that leave one oxoanion short of positive

@@ -44,12 +44,14 @@ a name it cannot read gives ``None``.
 from __future__ import annotations
 
 import dataclasses
+import math
 import re
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
-from ionicity.scorer.name_grammar import NameReading, Part, Reader, count_text, formula_text, parts_text, usual_charge
+from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
+                                         usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
 from ionicity.scorer.tables import table
 
@@ -247,9 +249,86 @@ def _read_key(key: str) -> str | None:
                 return None
             return anhydrous + ("·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else "")
         reading = read_name_parts(key)
-        return None if reading is None else formula_text(reading)
+        if reading is None:
+            return None
+        unsaid = unsaid_readings(reading)  # before formula_text, which fills in usual charges
+        return known_reading(formula_text(reading), unsaid, _metal_cation(reading))[0]
     except (ValueError, ZeroDivisionError, KeyError, OverflowError, IndexError):
         return None
+
+
+def known_reading(default: str | None, candidates, metal: bool) -> tuple[str | None, tuple[str, ...]]:
+    """(the formula a name is read as, the known compounds a name left unread could mean).
+
+    ``default`` is the grammar's reading (usual charges; None when the name leaves an oxidation state unsaid
+    that no usual charge fills); ``candidates`` are the texts of :func:`scorer.name_grammar.unsaid_readings`
+    for the element, a ``metal`` or not. Only a non-metal's usual charge gives way: where its reading is not a
+    compound the registry knows and exactly one candidate is, that one is taken (``phosphorus oxychloride``:
+    POCl3, not the usual-charge POCl); a metal's usual charge stands (``neodymium sulfide`` is Nd2S3 though the
+    registry holds NdS and not Nd2S3). A name that no usual charge reads (``iron chloride``, ``platinum
+    chloride``) stays unread, never guessed, and its known candidates come back for the row's error (FeCl3,
+    FeCl2). Known: the formulas of ``registry_names.csv`` (CRC Handbook and PubChem tables of the registry
+    package ``chemicals``), compared as reduced compositions (HgCl is Hg2Cl2).
+
+    >>> known_reading("POCl", ("POCl3", "POCl2", "POCl"), metal=False)
+    ('POCl3', ())
+    >>> known_reading(None, ("FeCl3", "FeCl2"), metal=True)
+    (None, ('FeCl3', 'FeCl2'))
+    """
+    if not candidates or default is not None and (metal or _known(default)):
+        return default, ()
+    known = tuple(text for text in candidates if _known(text))
+    if default is None:
+        return None, known
+    return (known[0] if len(known) == 1 else default), ()
+
+
+def ambiguous_name(text: str) -> tuple[str, ...]:
+    """The known compounds a name could mean when it leaves an oxidation state unsaid and reads as none of them
+    alone (``iron chloride``: FeCl2, FeCl3); empty otherwise. For the error of an unread cell."""
+    if not isinstance(text, str) or not text.strip() or len(text) > MAX_NAME_LENGTH:
+        return ()
+    try:
+        salt, water = _split_hydrate_word(compact(text))
+        reading = read_name_parts(salt) if salt else None
+        if reading is None:
+            return ()
+        unsaid = unsaid_readings(reading)
+        return known_reading(formula_text(reading), unsaid, _metal_cation(reading))[1]
+    except (ValueError, ZeroDivisionError, KeyError, OverflowError, IndexError):
+        return ()
+
+
+def _metal_cation(reading: NameReading) -> bool:
+    return bool(reading.cations) and bool(reading.cations[0].element) and is_metal(reading.cations[0].element)
+
+
+@once
+def _known_compositions() -> frozenset:
+    """Reduced compositions of the registry's formulas (Hill formulas, no brackets)."""
+    out = set()
+    for row in table("registry_names.csv"):
+        counts = {}
+        for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", row["formula"]):
+            counts[symbol] = counts.get(symbol, 0) + (int(n) if n else 1)
+        out.add(_reduced(counts))
+    return frozenset(out)
+
+
+def _reduced(counts: dict) -> tuple:
+    g = 0
+    for n in counts.values():
+        g = math.gcd(g, int(n)) if float(n).is_integer() else 1
+    return tuple(sorted((s, n / (g or 1)) for s, n in counts.items() if n))
+
+
+def _known(text: str) -> bool:
+    try:
+        parsed = parse_formula(text)
+    except FormulaError:
+        return False
+    counts = dict(parsed.counts)
+    return _reduced(counts) in _known_compositions()
 
 
 _WORDLIKE = re.compile(r"[a-z]{3}|[A-Z]{4}")

@@ -25,7 +25,7 @@ from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
-from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.name_reader import ambiguous_name, parse_as_name
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.solutions import split_grade_words
@@ -395,6 +395,12 @@ def _unread_text_message(text: str, exc: FormulaError) -> str:
     """The error of a cell that is neither a formula nor a name the reader knows: a word-like text says that
     names are read too and which, then what the formula grammar found."""
     stripped = " ".join(text.split())
+    options = ambiguous_name(stripped) if _NAME_LIKE.fullmatch(stripped) else ()
+    if options:
+        fits = (f"more than one compound fits: {', '.join(options)}" if len(options) > 1 else
+                f"the one compound of the registry that fits is {options[0]}, but others may exist")
+        return (f"{stripped!r} gives no oxidation state, and {fits}; write the formula, or the name with its"
+                f" oxidation state (as 'iron(III) chloride' for FeCl3)")
     if _NAME_LIKE.fullmatch(stripped):
         return (f"{stripped!r} is neither a formula nor a name the name reader knows (it reads inorganic salts,"
                 f" acids, bases and ionic liquids by systematic, Stock and trivial names, e.g. 'copper(II) sulfate"
