@@ -200,7 +200,8 @@ class ElementParser:
             if ch in _OPEN:
                 if depth + 1 > MAX_NESTING_DEPTH:
                     raise self.error(f"brackets nested deeper than {MAX_NESTING_DEPTH}")
-                if depth == 0 and self.allow_ion_refs and (ch == "[" or self.abbreviation_group()):
+                if depth == 0 and self.allow_ion_refs and (
+                        ch == "[" or self.abbreviation_group() or self.organic_anion_group()):
                     ref = self.ion_reference()
                     if ref is not None:
                         continue
@@ -262,6 +263,20 @@ class ElementParser:
         closer = _OPEN[self.text[self.pos]]
         end = self.text.find(closer, self.pos)
         return end > 0 and self.ions.find_abbreviation(self.text[self.pos + 1:end]) is not None
+
+    def organic_anion_group(self) -> bool:
+        """``UO2(CH3COO)2``, ``VO(CH3CO2)2``: a round bracket holding, exactly as written, an organic anion of the
+        library (acetate, formate, benzoate...): the formula writes that ion out, as ``(OAc)2`` names it, and
+        the solver takes it as given rather than recombining its atoms with the cation's (uranyl acetate was
+        read as U(4+) with hydroxide and succinate)."""
+        if self.text[self.pos] != "(":
+            return False
+        end = self.text.find(")", self.pos)
+        content = self.text[self.pos + 1:end] if end > 0 else ""
+        if not content or "(" in content:
+            return False
+        ion = self.ions.find_alias(content, exact_case=True)
+        return ion is not None and ion.organic and ion.charge < 0
 
     def abbreviation_tail(self) -> bool:
         """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""

@@ -246,6 +246,11 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
         if comp.structure_hint not in ("ammonium", "fulminate") and _woehler_isomer(readings):
             readings = []
+        if comp.structure_hint == "ammonium":
+            # the ammonium ion written out (NH4 in the text) is an ammonium salt: (NH4)2C2O4 is ammonium oxalate,
+            # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
+            written = [r for r in readings if any(ion.ion_id == "NH4(+)" for ion, _ in r[1])]
+            readings = written or readings
         if comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
