@@ -1,15 +1,15 @@
 """Organic group and ligand abbreviations in formula text: ``PhLi``, ``PPh3``,
-``Cu(acac)2``, ``Ti(OiPr)4``, ``Cp2ZrCl2``, ``AcOH`` written out as element groups.
+``Ti(OiPr)4``, ``Cp2ZrCl2``, ``AcOH`` written out as element groups.
 
 Stock lists and reagent catalogues write metal-organic reagents with the
 abbreviations of the trade (IUPAC Blue Book 2013, P-61 and P-68, for the
 groups; common practice for the ligands). None of the abbreviations below is
 an element symbol or starts one, so each is found by a plain scan: ``Me``,
 ``Et``, ``Bu``, ``Ph``, ``Bn``, ``Cy`` and ``Cp`` begin with a capital that
-no element pairs with the following lower-case letter, and ``acac`` is taken only where a bracket,
-a count or the text's edge delimits it. ``Pr`` (praseodymium), ``Ac``
+no element pairs with the following lower-case letter. ``Pr`` (praseodymium), ``Ac``
 (actinium) and ``Ts`` (tennessine) are symbols and are read as elements
-unless prefixed (``iPr``, ``nPr``; ``OAc`` is an ion of the library) or in
+unless prefixed (``iPr``, ``nPr``; ``OAc`` and ``acac`` are ions of the library, read by the
+formula grammar as written ions: ``Cu(acac)2``) or in
 the whole words ``AcOH``, ``Ac2O`` and ``AcCl`` (AcCl3 is actinium's).
 Neutral N-donor ligands (py, en, bpy, phen) are not expanded: the solver has
 no reading of their complexes, and a row error says so more honestly than a
@@ -18,7 +18,7 @@ reading of their atoms as ions would.
 >>> expand_abbreviations("Ti(OiPr)4")
 ('Ti(O(C3H7))4', ('iPr = C3H7 (isopropyl)',))
 >>> expand_abbreviations("Cu(acac)2")
-('Cu((C5H7O2))2', ('acac = C5H7O2 (acetylacetonate)',))
+('Cu(acac)2', ())
 >>> expand_abbreviations("[EtNH3][NO3]")
 ('[EtNH3][NO3]', ())
 >>> expand_abbreviations("SnBu3Cl")[0]
@@ -60,7 +60,6 @@ ABBREVIATIONS: dict[str, tuple[str, str]] = {
     "Bn": ("C7H7", "benzyl"),
     "Cy": ("C6H11", "cyclohexyl"),
     "Cp": ("C5H5", "cyclopentadienyl"),
-    "acac": ("C5H7O2", "acetylacetonate"),
 }
 _CAPITALISED = [a for a in ABBREVIATIONS if a[0].isupper() or a[0] in "tnsi"]
 _LOWER = [a for a in ABBREVIATIONS if a not in _CAPITALISED]

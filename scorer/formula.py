@@ -412,7 +412,8 @@ def parse_formula(text: str) -> ParsedFormula:
             " write the formula, e.g. Fe3O4 or FeCl3"
         )
     m = _ANNOTATION.search(text)
-    if m and m.start() > 0:
+    if m and m.start() > 0 and ion_library.find_alias(m.group().strip()[1:-1], exact_case=True) is None:
+        # "(aq)", "(anhydrous)" are notes; "(acac)" in Li(acac) is a ligand the ion library abbreviates
         notes.append(f"ignored the note {m.group().strip()!r}")
         text_to_parse = text[: m.start()]
     else:

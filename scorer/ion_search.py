@@ -349,7 +349,9 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
 # The carbide anions neither: they are strong bases that no cation of an organic formula (ammonium, H+) would
 # leave unprotonated, and carbon bonded to hydrogen is never a carbide (C2H8N2 is ethylenediamine, not
 # ammonium acetylide; common practice)
-_NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)", "C2(2-)", "C3(4-)"})
+# acetylacetonate too: it is read where written ((acac), or beside a metal); as one side of an organic pair it
+# made amino acids salts (valine, C5H11NO2, ammonium acetylacetonate)
+_NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)", "C2(2-)", "C3(4-)", "C5H7O2(-)"})
 # monatomic ions an organic formula may hold as one side of its ion pair
 _ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
 

@@ -322,6 +322,10 @@ def _bridged_tetrahalide(cation, anions) -> bool:
     return all(math.isfinite(q) and q >= _OCTAHEDRAL_RADIUS_RATIO for q in ratios)
 
 
+# chelating anions whose metal compounds are neutral molecular complexes (classify)
+CHELATE_ANIONS = frozenset({"C5H7O2(-)"})
+
+
 def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
     has_metal = any(is_metal(s) for s in counts)
     cation_ions = [t.ion for t in cations]
@@ -349,6 +353,11 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         # weakly coordinating anions (NOBF4, NOClO4, NO2(+)NO3(-) in solid N2O5)
         # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.6;
         # the two-atom bound is common practice)
+        return "covalent_molecular"
+    if has_metal and any(t.ion.ion_id in CHELATE_ANIONS for t in anions):
+        # a metal acetylacetonate (Cu(acac)2, Fe(acac)3, VO(acac)2) is a neutral chelate complex, each ligand
+        # bound by both O atoms: a molecule that melts low, sublimes and dissolves in organic solvents, not a
+        # salt (IUPAC Red Book 2005, IR-9.2; Greenwood & Earnshaw, 2nd ed., 1997, ch. 7.3 and 25.3; from memory)
         return "covalent_molecular"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"
