@@ -23,6 +23,8 @@ reading of their atoms as ions would.
 ('[EtNH3][NO3]', ())
 >>> expand_abbreviations("SnBu3Cl")[0]
 'Sn(C4H9)3Cl'
+>>> expand_abbreviations("n-BuLi")[0], expand_abbreviations("sec-BuLi")[0], expand_abbreviations("i-PrOH")[0]
+('(C4H9)Li', '(C4H9)Li', '(C3H7)OH')
 >>> expand_abbreviations("NaCl")
 ('NaCl', ())
 """
@@ -86,6 +88,11 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
     text : str
         Formula text after Unicode normalisation.
     """
+    if "-" in text and _HYPHEN_PREFIX.search(text):
+        # the hyphenated prefixes of the trade: n-BuLi, t-BuOK, sec-BuLi, i-PrOH, Ti(O-i-Pr)4 are nBuLi, tBuOK,
+        # sBuLi, iPrOH, Ti(OiPr)4
+        text = _HYPHEN_PREFIX.sub(lambda m: _PREFIX_LETTER.get(m.group(1), m.group(1)), text)
+        text = _ALKOXY_HYPHEN.sub("O", text)
     if _QUICK.isdisjoint(text) or not _PATTERN.search(text):
         return text, ()
     used: dict[str, str] = {}
@@ -113,4 +120,7 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
     return expanded, tuple(used.values())
 
 
+_HYPHEN_PREFIX = re.compile(r"(?<![A-Za-z])(n|t|s|i|sec|tert|iso)-(?=Bu(?![a-z])|(?<=[ni]-)Pr(?![a-z])|(?<=iso-)Pr(?![a-z]))")
+_PREFIX_LETTER = {"sec": "s", "tert": "t", "iso": "i"}
+_ALKOXY_HYPHEN = re.compile(r"O-(?=[ntsi](?:Bu|Pr)(?![a-z]))")
 _CODE_IN_PARENTHESES = re.compile(r"\((\[[A-Za-z0-9]+\])\)")

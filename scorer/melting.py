@@ -108,6 +108,8 @@ from ionicity.scorer.melting_anions import (
     heavy_halate_fraction,
     DECOMPOSING_ANIONS,
     ENERGETIC_ANIONS,
+    FUEL_CATIONS,
+    OXIDISING_ANIONS,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
@@ -255,7 +257,12 @@ def _gather_terms(
     for ion_id in energetic:
         notes.append(f"melting trend: {ion_id} salts decompose on heating, and heavy-metal ones explode on heating,"
                      " shock or friction: the trend is not a temperature to heat towards")
-    if energetic and not decomposing:
+    fuels = sorted({t.ion.ion_id for t in dec.cations if t.ion.ion_id in FUEL_CATIONS})
+    oxidisers = sorted({t.ion.ion_id for t in dec.anions if t.ion.ion_id in OXIDISING_ANIONS})
+    if fuels and oxidisers:
+        notes.append(f"melting trend: {fuels[0]} with {oxidisers[0]} is fuel and oxidiser in one salt: it decomposes"
+                     " exothermically on heating and can explode; the trend is not a temperature to heat towards")
+    if (energetic or fuels and oxidisers) and not decomposing:
         notes.append(_DECOMPOSITION_CAUTION)
     terms = dec.cations + dec.anions
     nu = float(sum(t.count for t in terms))

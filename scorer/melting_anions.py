@@ -28,6 +28,8 @@ __all__ = [
     "heavy_halate_fraction",
     "DECOMPOSING_ANIONS",
     "ENERGETIC_ANIONS",
+    "FUEL_CATIONS",
+    "OXIDISING_ANIONS",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -261,4 +263,14 @@ DECOMPOSING_ANIONS = frozenset({
 # ch. 11.3.4 and 8.5; from memory): the melting trend of their salts carries a note and the caution,
 # never a weight
 ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)"})
+
+# fuel and oxidiser in one salt: an ammonium-like cation (NH4+, hydrazinium, hydroxylammonium) beside an
+# oxidising anion decomposes exothermically on heating and can deflagrate or explode (ammonium nitrate,
+# perchlorate, chlorate, nitrite, permanganate, dichromate; Greenwood & Earnshaw, Chemistry of the Elements,
+# 2nd ed., 1997, ch. 11.3.7 and 17.2.5; Bretherick's Handbook of Reactive Chemical Hazards; from memory): a
+# note and the caution on the melting trend, never a weight
+OXIDISING_ANIONS = frozenset({
+    "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)", "CrO4(2-)",
+})
+FUEL_CATIONS = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
 

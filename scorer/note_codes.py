@@ -134,6 +134,12 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      r" the trend is not a temperature to heat towards",
      "melting trend: salts of the anion (in brackets) decompose on heating, and heavy-metal ones explode on heating,"
      " shock or friction; the trend is not a temperature to heat towards (the caution that follows is written in full)"),
+    ("melting_oxidiser_fuel",
+     r"melting trend: {ion} with [^ ;]+ is fuel and oxidiser in one salt: it decomposes exothermically on heating and"
+     r" can explode; the trend is not a temperature to heat towards",
+     "melting trend: an ammonium-like cation (in brackets) with an oxidising anion is fuel and oxidiser in one"
+     " salt: it decomposes exothermically on heating and can explode; the trend is not a temperature to heat towards"
+     " (the caution that follows is written in full)"),
     ("mixture_per_component",
      r"a mixture: each column formed from its components as its method says \(lattice energies, structure type and"
      r" melting trend per component: ionicity explain\)",

@@ -116,3 +116,20 @@ def test_choline_chloride_as_deep_eutectic_recipes_write_it():
     mixture = score_formula("ChCl:urea 1:2")
     assert mixture["substance_class"] == "mixture" and mixture["status"] == "ok"
     assert score_formula("CHCl3")["substance_class"] == "covalent_molecular"
+
+
+@pytest.mark.parametrize("hyphenated, plain, formula", [
+    # the trade writes the alkyl prefixes with or without a hyphen (common practice); masses from periodictable
+    ("n-BuLi", "nBuLi", "C4H9Li"), ("t-BuLi", "tBuLi", "C4H9Li"), ("sec-BuLi", "sBuLi", "C4H9Li"),
+    ("tert-BuOK", "tBuOK", "C4H9OK"), ("i-PrOH", "iPrOH", "C3H8O"), ("n-PrOH", "nPrOH", "C3H8O"),
+    ("Ti(O-i-Pr)4", "Ti(OiPr)4", "C12H28O4Ti"), ("n-Bu4NBr", "nBu4NBr", "C16H36NBr"),
+])
+def test_hyphenated_alkyl_prefixes_read_as_the_plain_ones(hyphenated, plain, formula):
+    out, same = score_formula(hyphenated), score_formula(plain)
+    assert out["substance_class"] != "mixture" and out["status"] != "error", out["message"]
+    assert (out["formula_normalized"], out["substance_class"]) == (same["formula_normalized"], same["substance_class"])
+    assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(formula).mass, rel=1e-4)
+
+
+def test_a_hyphen_between_formulas_is_still_a_mixture():
+    assert score_formula("NaCl-KCl")["substance_class"] == "mixture"

@@ -194,6 +194,20 @@ def test_azides_and_fulminates_carry_the_heating_caution(text):
     assert "safety data sheet" in notes
 
 
+@pytest.mark.parametrize("text", ["NH4NO3", "NH4ClO4", "(NH4)2Cr2O7", "NH4MnO4", "N2H5ClO4", "NH3OHNO3"])
+def test_ammonium_salts_of_oxidising_anions_carry_the_heating_caution(text):
+    # fuel and oxidiser in one salt: ammonium nitrate and perchlorate decompose exothermically and can explode,
+    # ammonium dichromate and permanganate deflagrate (Greenwood & Earnshaw ch. 11.3.7 and 17.2.5; Bretherick's
+    # Handbook of Reactive Chemical Hazards; from memory): safety wording, not a figure
+    notes = score_formula(text)["value_notes"]
+    assert "fuel and oxidiser in one salt" in notes and "safety data sheet" in notes
+
+
+@pytest.mark.parametrize("text", ["NH4Cl", "KNO3", "KClO4", "(NH4)2SO4"])
+def test_no_fuel_oxidiser_caution_without_both(text):
+    assert "fuel and oxidiser" not in (score_formula(text)["value_notes"] or "")
+
+
 @pytest.mark.parametrize("text, anions", [
     # sulfide solid electrolytes: Li10GeP2S12 is Li(+) with GeS4(4-) and PS4(3-) tetrahedra (Kamaya et al.,
     # Nat. Mater. 10 (2011) 682, from memory); Li7P3S11 holds P2S7(4-) and PS4(3-); argyrodite Li6PS5Cl
