@@ -180,6 +180,14 @@ class ElementParser:
             return None
         self.pos = m.end()
         value = float(m.group())
+        if self.text.startswith("/", self.pos) and self.pos + 1 < len(self.text) and self.text[self.pos + 1].isdigit():
+            # a fraction as battery and ceramic formulas write it: LiNi1/3Mn1/3Co1/3O2
+            d = _NUMBER.match(self.text, self.pos + 1)
+            denominator = float(d.group())
+            if denominator <= 0:
+                raise self.error(f"count {m.group()}/{d.group()} divides by zero")
+            self.pos = d.end()
+            value /= denominator
         if value <= 0:
             raise self.error(f"count {m.group()!r} must be positive")
         if value > MAX_COUNT:

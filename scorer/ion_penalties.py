@@ -81,6 +81,9 @@ _FORMULA_UNIT_OXOANIONS = frozenset({
     # Al(3+) in octahedral or tetrahedral holes, no discrete AlO2 units
     # (Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 13; from memory)
     "AlO2(-)",
+    # sheet and framework silicates share every or nearly every O between two Si: Si2O5 and Si3O8 are
+    # formula units (Na2Si2O5, NaAlSi3O8) where no discrete ion reading balances
+    "Si2O5(2-)", "Si3O8(4-)",
 })
 _PENALTY_FORMULA_UNIT_OXOANION = 1.5
 # actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)

@@ -126,6 +126,8 @@ _WORD_AFTER = re.compile(r"^[A-Za-zµ0-9]*")
 def _joining_slash(text: str, i: int) -> bool:
     if text[i] != "/":
         return False
+    if 0 < i < len(text) - 1 and text[i - 1].isdigit() and text[i + 1].isdigit():
+        return False  # a fractional count inside a formula (LiNi1/3Mn1/3Co1/3O2), not two formulas
     left, right = text[:i].rstrip(), text[i + 1:].lstrip()
     before = _WORD_BEFORE.search(left).group()
     after = _WORD_AFTER.match(right).group()

@@ -58,3 +58,40 @@ def test_the_hill_formula_alone_stays_ambiguous():
     # C2H8N2O4 writes no ion out: ammonium oxalate and 2-hydroxyethylammonium nitrate tie, and the row says so
     row = score_formula("C2H8N2O4")
     assert "equally plausible" in row["message"]
+
+
+# sheet and framework silicates: the formula units Si2O5(2-) (layer silicates, sodium disilicate Na2Si2O5)
+# and Si3O8(4-) (feldspars NaAlSi3O8, KAlSi3O8, with Al in the framework) balance where no discrete
+# silicate ion does (Liebau, Structural Chemistry of Silicates, 1985; Greenwood & Earnshaw, 2nd ed., 1997,
+# ch. 9.3; from memory); the formulas are the minerals' and compounds' usual ones (from memory). They were
+# row errors ("no charge-balanced set of ions found").
+@pytest.mark.parametrize("text, anion, cations", [
+    ("Na2Si2O5", "Si2O5(2-)", {"Na(+)"}), ("Li2Si2O5", "Si2O5(2-)", {"Li(+)"}), ("BaSi2O5", "Si2O5(2-)", {"Ba(2+)"}),
+    ("NaAlSi3O8", "Si3O8(4-)", {"Na(+)", "Al(3+)"}), ("KAlSi3O8", "Si3O8(4-)", {"K(+)", "Al(3+)"}),
+])
+def test_sheet_and_framework_silicates_read(text, anion, cations):
+    row = score_formula(text)
+    assert row["status"] == "ok", row["message"]
+    assert _ions(row, "anions") == {anion} and _ions(row, "cations") == cations
+    assert "Si:+4" in row["oxidation_states"]
+
+
+@pytest.mark.parametrize("text", ["Na2SiO3", "Mg2SiO4", "CaAl2Si2O8", "Sc2Si2O7"])
+def test_discrete_silicates_keep_their_ions(text):
+    # the formula units are dearer than any discrete reading: metasilicate, orthosilicate and pyrosilicate stay
+    assert not {"Si2O5(2-)", "Si3O8(4-)"} & _ions(score_formula(text), "anions")
+
+
+def test_fractional_counts_as_battery_formulas_write_them():
+    # LiNi1/3Mn1/3Co1/3O2 (NMC111; common practice) is LiNi(1/3)Mn(1/3)Co(1/3)O2, not a mixture of "LiNi1" and
+    # "3Mn1"; its mass from periodictable with the fractions written out
+    periodictable = pytest.importorskip("periodictable")
+    third = 1 / 3
+    for text in ("LiNi1/3Mn1/3Co1/3O2", "Li(Ni1/3Mn1/3Co1/3)O2"):
+        row = score_formula(text)
+        assert row["substance_class"] == "ionic_salt" and row["status"] == "ok", row["message"]
+        assert row["molar_mass_g_mol"] == pytest.approx(
+            periodictable.formula(f"LiNi{third}Mn{third}Co{third}O2").mass, rel=1e-5)
+    # a slash between formulas still joins a mixture
+    assert score_formula("KNO3/NaNO3")["substance_class"] == "mixture"
+    assert score_formula("NaCl 1/0")["status"] == "error"
