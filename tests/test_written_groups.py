@@ -95,3 +95,20 @@ def test_fractional_counts_as_battery_formulas_write_them():
     # a slash between formulas still joins a mixture
     assert score_formula("KNO3/NaNO3")["substance_class"] == "mixture"
     assert score_formula("NaCl 1/0")["status"] == "error"
+
+
+@pytest.mark.parametrize("labelled, plain", [
+    # structure labels of materials data (common practice): Greek polymorphs, h-/c- for hexagonal and cubic,
+    # Ramsdell polytypes; before, "2H-MoS2" was read as a mixture of H and MoS2 and "α-Al2O3" was an error
+    ("α-Al2O3", "Al2O3"), ("alpha-Al2O3", "Al2O3"), ("γ-Fe2O3", "Fe2O3"), ("h-BN", "BN"), ("c-BN", "BN"),
+    ("2H-MoS2", "MoS2"), ("4H-SiC", "SiC"), ("β-SiC", "SiC"),
+])
+def test_structure_labels_are_set_aside(labelled, plain):
+    row, same = score_formula(labelled), score_formula(plain)
+    assert row["substance_class"] == same["substance_class"] != "mixture"
+    assert row["formula_normalized"] == same["formula_normalized"]
+    assert "structure label" in row["message"]
+
+
+def test_a_hyphen_between_formulas_after_a_label_is_still_read_as_written():
+    assert score_formula("LiCl-KCl")["substance_class"] == "mixture"
