@@ -312,8 +312,13 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             return
         if not carried(index, left, needed - charge, chosen, cost):
             return
+        organic_chosen = any(c.organic for c, _ in chosen)
         for j in range(index, len(candidates)):
             ion = candidates[j]
+            if organic_chosen and ion.organic:
+                # one organic ion species per reading: a salt's carbon skeleton is one ion (or one written per
+                # species), not rebuilt from fragments (uranyl acetate as hydroxide and succinate)
+                continue
             most = _fits(ion.composition, left)
             if not most:
                 continue

@@ -60,6 +60,7 @@ from ionicity.scorer.columns import descriptors
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import ParsedFormula
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
+from ionicity.scorer.ion_search import _NO_ORGANIC_PAIR_ANIONS
 from ionicity.scorer.model import Decomposition, IonTerm
 from ionicity.scorer.substance import classify, nonionic_decomposition, organic_candidate
 
@@ -143,7 +144,7 @@ def _pairs_by_ratio() -> dict[tuple[tuple[str, int], ...], tuple]:
             if not any(is_metal(s) for s, _ in ion.composition)]
     cations = [(ion, _whole(ion.composition)) for ion in ions
                if ion.charge > 0 and ion.family != "oxocation" and ion.ion_id not in _NO_ORGANIC_CATIONS]
-    anions = [(ion, _whole(ion.composition)) for ion in ions if ion.charge < 0]
+    anions = [(ion, _whole(ion.composition)) for ion in ions if ion.charge < 0 and ion.ion_id not in _NO_ORGANIC_PAIR_ANIONS]
     out: dict[tuple[tuple[str, int], ...], list] = {}
     for cation, held in cations:
         for anion, parts in anions:
