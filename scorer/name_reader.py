@@ -101,8 +101,31 @@ def _read_name(name) -> tuple[str | None, tuple[str, str, str, str, str] | None]
 _DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
 
 
+# the catalogues' acid-salt names (common practice): "sodium phosphate dibasic" is Na2HPO4, "monobasic" NaH2PO4,
+# "tribasic" Na3PO4 (the acid's protons replaced by the metal: one, two, three); "sodium citrate tribasic" the
+# citrate; also written before the salt ("dibasic sodium phosphate")
+_BASIC_AFTER = re.compile(r"\b(phosphate|citrate)\s*,?\s*(mono|di|tri)basic\b", re.I)
+_BASIC_BEFORE = re.compile(r"\b(mono|di|tri)basic\s+(.+?)\s+(phosphate|citrate)\b", re.I)
+_BASIC_ANION = {("phosphate", "mono"): "dihydrogenphosphate", ("phosphate", "di"): "hydrogenphosphate",
+                ("phosphate", "tri"): "phosphate", ("citrate", "tri"): "citrate"}
+
+
+def _basic_salt_name(name: str) -> str:
+    """A catalogue's "sodium phosphate dibasic" written as the name grammar reads it: "sodium hydrogenphosphate"."""
+    def after(m: re.Match) -> str:
+        return _BASIC_ANION.get((m.group(1).lower(), m.group(2).lower()), m.group(0))
+
+    def before(m: re.Match) -> str:
+        anion = _BASIC_ANION.get((m.group(3).lower(), m.group(1).lower()))
+        return f"{m.group(2)} {anion}" if anion else m.group(0)
+
+    return _BASIC_BEFORE.sub(before, _BASIC_AFTER.sub(after, name))
+
+
 def _read_text(name: str) -> str | None:
     name = _CAS_QUALIFIERS.sub("", name)
+    if "basic" in name.lower():
+        name = _basic_salt_name(name)
     name = _CAS_HYDRATE.sub(lambda m: f" {m.group(1)}-hydrate", name)
     inverted = _CAS_SALT.match(name.strip())
     if inverted:

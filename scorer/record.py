@@ -384,8 +384,9 @@ def _plain_row(text: str) -> tuple:
 
 
 # letters, spaces and the punctuation of names only, starting with a lower-case word or holding a space between
-# words: "acetone", "sodium dodecyl sulfate", "Bleach solution" (not "NaCI" or "K4[Fe(CN)6")
-_NAME_LIKE = re.compile(r"(?=.*[a-z]{3})(?:[a-z][A-Za-z0-9(),'-]*|[A-Za-z][A-Za-z0-9(),'-]*(?:\s+[A-Za-z0-9(),'-]+)+)")
+# words, or one capitalised word: "acetone", "sodium dodecyl sulfate", "Bleach solution", "Unknown" (not "NaCI" or
+# "K4[Fe(CN)6")
+_NAME_LIKE = re.compile(r"(?=.*[a-z]{3})(?:[a-z][A-Za-z0-9(),'-]*|[A-Z][a-z]{3,}|[A-Za-z][A-Za-z0-9(),'-]*(?:\s+[A-Za-z0-9(),'-]+)+)")
 
 
 _LOWER_WORD = re.compile(r"[a-z]{3}")

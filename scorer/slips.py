@@ -455,7 +455,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     all_caps = len(letters) > 1 and letters.isupper()
     # a lower-case word of seven letters or more without a digit is a word ("eutectic", "acetone"), not a
     # formula that lost its case: the shelf's lower-case formulas are short ("nacl", "naoh", "kscn") or counted
-    word = len(letters) >= 7 and letters.islower() and letters == stripped
+    # a capitalised word of six letters or more likewise ("Unknown", "Buffer", "Solution": they were re-cased into
+    # UNKNOWN, BUFFEr, SOLuTiON); a capitalised formula that lost its case is short or counted ("Nacl", "Kscn")
+    word = letters == stripped and (len(letters) >= 7 and letters.islower() or len(letters) >= 6 and letters[0].isupper()
+                                    and letters[1:].islower())
     all_lower = letters.islower() and not word
     if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
         return None  # the common case, in one regular-expression scan

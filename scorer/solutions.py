@@ -124,6 +124,7 @@ def split_solution(text: str) -> Solution | None:
     if not isinstance(text, str) or len(text) > 200:
         return None
     body = _STATE.sub(" ", text).strip()
+    stated = body != text.strip()  # "solution", "soln.", "(aq)", "aq." was written
     tail = _BRACKETED_TAIL.search(body)
     if tail and any(p.fullmatch(tail.group(1)) for p in (_PERCENT, _MOLAR, _GRADE)):
         body = body[:tail.start()] + " " + tail.group(1)
@@ -141,6 +142,11 @@ def split_solution(text: str) -> Solution | None:
             if not solute or not solute[0].isalpha() and solute[0] not in "([":
                 return None
             return Solution(solute, _as_written(pattern, m))
+    body = " ".join(body.split())
+    if stated and body and (body[0].isalpha() or body[0] in "([") and not _TAIL_BEFORE.search(body):
+        # a solution of unstated strength: "NaOCl solution", "sodium hypochlorite solution", "NH3 (aq)"; its words
+        # are no formula ("solution" was re-cased into S, O, Lu, Ti, O, N)
+        return Solution(body.rstrip(" ,;"), "")
     return None
 
 
@@ -188,6 +194,8 @@ _GRADE_WORD = (
     r"|for\s+analysis|AR|LR|GR|USP|BP|EP|Ph\.?\s?Eur\.?|FCC|HPLC|min\.?|approx\.?|ca\.?"
     # a solvent's grades ("ethanol absolute", "acetonitrile for HPLC", "chloroform stabilised")
     r"|absolute|dry|spectroscopic|spectrophotometric|GC|for\s+(?:synthesis|HPLC|spectroscopy)|stabili[sz]ed"
+    # alcohol strength in US proof ("ethanol 200 proof", "190 proof": twice the volume percent)
+    r"|\d{2,3}\s*proof"
     # a metal as the metal ("sodium metal", "lithium metal, ribbon")
     r"|metal|ribbon|granulate"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"

@@ -41,7 +41,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 36,
     "trivial_names.csv": 112,
-    "registry_names.csv": 13411,
+    "registry_names.csv": 13415,
     "fusion.csv": 38,
     "blends.csv": 10,
     "eutectics.csv": 20,

@@ -57,6 +57,8 @@ SYNONYMS = (
     ("hexanes", "110-54-3"), ("isooctane", "540-84-1"), ("dioxane", "123-91-1"),
     ("N-methyl-2-pyrrolidone", "872-50-4"), ("N-methylpyrrolidone", "872-50-4"), ("isobutanol", "78-83-1"),
     ("sec-butanol", "78-92-2"), ("isoamyl alcohol", "123-51-3"), ("acetylacetone", "123-54-6"),
+    ("tris base", "77-86-1"), ("potassium tert-butoxide", "865-47-4"), ("sodium tert-butoxide", "865-48-5"),
+    ("lithium tert-butoxide", "1907-33-1"),
 )
 _CAS = re.compile(r"\d{2,7}-\d\d-\d")
 # longer names (stereo descriptors, CAS index inversions) are not what an inventory cell holds; nor are

@@ -1,0 +1,74 @@
+"""How stockroom labels write chemicals: catalogue acid-salt names, solutions of unstated strength, grade
+words and inventory words that are no formula.
+
+External references: the registry package ``chemicals`` (``chemicals.identifiers.search_chemical``: the
+formula its name lookup gives, CRC Handbook and PubChem identifier tables), which the reader does not call
+for these names (the grammar reads them, or ``registry_names.csv`` holds them); the catalogue terms
+monobasic, dibasic and tribasic (the acid's protons replaced by the metal: one, two, three) are common
+practice.
+"""
+from __future__ import annotations
+
+import pytest
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.record import score_formula
+
+
+def _composition(text: str) -> dict[str, float]:
+    return {s: n for s, n in parse_formula(text).counts if n}
+
+
+@pytest.mark.parametrize("label, stock_name", [
+    ("Sodium Phosphate Dibasic Anhydrous", "disodium hydrogen phosphate"),
+    ("Sodium phosphate monobasic", "sodium dihydrogen phosphate"),
+    ("Potassium phosphate dibasic", "dipotassium hydrogen phosphate"),
+    ("potassium phosphate tribasic", "tripotassium phosphate"),
+    ("dibasic sodium phosphate", "disodium hydrogen phosphate"),
+    ("calcium phosphate dibasic", "calcium hydrogen phosphate"),
+    ("Sodium citrate tribasic", "trisodium citrate"),
+])
+def test_catalogue_acid_salt_names(label, stock_name):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    expected = identifiers.search_chemical(stock_name).formula  # source: chemicals' name lookup
+    row = score_formula(label)
+    assert row["status"] != "error", row["message"]
+    assert _composition(row["formula_normalized"]) == _composition(expected)
+
+
+def test_catalogue_names_keep_their_hydrate_words():
+    assert score_formula("Sodium phosphate, dibasic, heptahydrate")["formula_normalized"] == "Na2HPO4·7H2O"
+
+
+@pytest.mark.parametrize("label, formula", [
+    ("NaOCl solution", "NaClO"), ("sodium hypochlorite solution", "NaClO"), ("KOH soln.", "KOH"),
+    ("NH3 (aq)", "NH3"),
+])
+def test_a_solution_of_unstated_strength_is_its_solute(label, formula):
+    # "NaOCl solution" had been re-cased into NaOClSOLuTiON, a lutetium titanium salt
+    row = score_formula(label)
+    assert row["formula_normalized"] == formula and row["status"] != "error"
+    assert "a solution" in row["value_notes"]
+
+
+@pytest.mark.parametrize("word", ["Unknown", "Buffer", "Solution", "Sample", "Bleach"])
+def test_inventory_words_are_not_recased_into_formulas(word):
+    # "Unknown" was read as UNKNOWN (U, N, K, O, W), "Buffer" as BUFFEr: a capitalised word of six letters or
+    # more is a word, never a formula that lost its case (common practice)
+    row = score_formula(word)
+    assert row["status"] == "error" and "neither a formula nor a name" in row["message"]
+
+
+@pytest.mark.parametrize("slip, formula", [("Nacl", "NaCl"), ("Kscn", "KSCN"), ("Cuso4", "CuSO4")])
+def test_short_capitalised_formulas_are_still_slips(slip, formula):
+    assert score_formula(slip)["formula_normalized"] == formula
+
+
+@pytest.mark.parametrize("label, name", [
+    ("Tris base", "tris base"), ("Potassium tert-butoxide, 98%", "potassium tert-butoxide"),
+    ("Ethanol 200 proof", "ethanol"),
+])
+def test_names_with_grade_words_and_registry_names(label, name):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    expected = identifiers.search_chemical(name).formula  # source: chemicals' name lookup
+    row = score_formula(label)
+    assert _composition(row["formula_normalized"]) == _composition(expected)
