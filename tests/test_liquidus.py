@@ -137,3 +137,17 @@ def test_missing_fusion_data_leaves_the_liquidus_empty_with_a_note():
     r = score_formula("CuCl2-FeCl3 1:1")
     assert r["substance_class"] == "mixture" and math.isnan(r["liquidus_estimate_K"])
     assert "no melting point and enthalpy of fusion for" in r["value_notes"]
+
+
+@pytest.mark.parametrize("text", ["ZnCl2:ChCl 2:1", "ZnCl2-KCl (50-50)"])
+def test_a_network_forming_component_flags_the_estimate(text):
+    # ZnCl2 melts form ZnCl4(2-) and chains with a partner's chloride; the simple-ion estimate is far off
+    # (ChCl:ZnCl2 1:2 freezes near 297 K, Abbott, Capper, Davies, Munro, Rasheed and Tambyrajah, Inorg. Chem.
+    # 2004, 43, 3447, from memory; the model reads 110 K): the row says so
+    row = score_formula(text)
+    assert row["status"] == "warning" and "not a simple-ion salt" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["LiCl-KCl (59:41)", "urea:choline chloride 2:1"])
+def test_simple_ion_and_molecular_mixtures_carry_no_network_warning(text):
+    assert "not a simple-ion salt" not in (score_formula(text)["message"] or "")
