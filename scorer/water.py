@@ -557,6 +557,10 @@ def _ionic_liquid(counts, dec) -> _Finding | None:
     return _finding(behaviour, ph[0], None, "ionic liquid", f"{why}: {behaviour.replace('_', ' ')}{ph[1]}")
 
 
+# the lithium exception to "alkali salts dissolve"
+_LITHIUM_SLIGHT = frozenset({"F(-)", "CO3(2-)", "PO4(3-)"})
+
+
 def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
           alkali: bool = False) -> tuple[str | None, str | None, str]:
     """(behaviour, products, why) of one cation-anion pair by the solubility guidelines;
@@ -573,8 +577,10 @@ def _pair(cation: str, element: str | None, anion: str, mixed: bool = False,
     if anion == "S(2-)" and (group == 2 or element in {"Al", "Cr"}):
         return "reacts", "H2S", f"{cation} sulfide hydrolyses, giving H2S"
     if soluble_cation:
-        if cation == "Li(+)" and anion == "F(-)":
-            return "slightly_soluble", None, "LiF: slightly soluble (the lithium exception)"
+        if cation == "Li(+)" and anion in _LITHIUM_SLIGHT:
+            # LiF 0.13, Li2CO3 1.3, Li3PO4 0.04 g per 100 g water (CRC Handbook, aqueous solubility of inorganic
+            # compounds; from memory): the small lithium ion's lattices with small, highly charged anions
+            return "slightly_soluble", None, f"lithium with {anion}: slightly soluble (the lithium exception)"
         return "dissolves", None, f"{cation} salts dissolve"
     if anion in _ALWAYS_SOLUBLE_ANIONS:
         return "dissolves", None, f"{anion} salts dissolve"

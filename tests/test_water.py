@@ -49,6 +49,8 @@ CASES = [
     ("NaHSO4", "dissolves", "acidic", "none", "CRC, H2SO4 pKa2 1.99 (from memory)"),
     ("NaH2PO4", "dissolves", "acidic", "none", "CRC, H3PO4 pKa1 2.15 and pKa2 7.20 (from memory)"),
     ("LiF", "slightly_soluble", "basic", "none", f"{CRC}: 1.3 g/L"),
+    ("Li2CO3", "slightly_soluble", "basic", "none", f"{CRC}: about 13 g/L (the lithium exception)"),
+    ("Li3PO4", "slightly_soluble", "basic", "none", f"{CRC}: about 0.4 g/L (the lithium exception)"),
     # halides and their exceptions
     ("AgCl", "insoluble", None, "none", PET),
     ("Hg2Cl2", "insoluble", None, "none", PET),
