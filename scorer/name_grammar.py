@@ -192,6 +192,14 @@ class Reader:
                 return False
             ion, charge = siblings[0], explicit
         text = ion.label if ion.label.startswith("[") else _ion_formula(ion)
+        before = self.words[self.i - 2] if self.i >= 2 else None  # the word right before this one
+        if (self.mults and ion.organic and charge > 0 and word.word.startswith(_ALKYL_STEMS) and before is not None
+                and any(w.kind == "multiplier" for w in before.meanings())):
+            # "diethylammonium", "triethanolammonium", "dimethylammonium": the prefix belongs to the substituent
+            # names of one cation, (C2H5)2NH2(+), not a count of ethylammonium ions; a cation the library does
+            # not list is left unread (it had read as two ethylammonium ions, C4H16ClN2); "bis(ethylammonium)"
+            # brackets the ion and counts it
+            return False
         count = self.take_mult()
         if charge > 0:
             if self.reading.anions:
@@ -248,6 +256,11 @@ class Reader:
                 return False
             self.reading.cations.append(part)
         return True
+
+
+# substituent names an onium cation's name starts with (methylammonium, ethanolammonium, butylpyridinium)
+_ALKYL_STEMS = ("meth", "eth", "prop", "but", "pent", "hex", "hept", "oct", "non", "dec", "dodec", "tetradec",
+                "hexadec", "octadec", "benz", "phen", "allyl", "vinyl")
 
 
 def _atoms(formula: str) -> int:

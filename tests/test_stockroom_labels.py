@@ -72,3 +72,19 @@ def test_names_with_grade_words_and_registry_names(label, name):
     expected = identifiers.search_chemical(name).formula  # source: chemicals' name lookup
     row = score_formula(label)
     assert _composition(row["formula_normalized"]) == _composition(expected)
+
+
+@pytest.mark.parametrize("name", ["diethylammonium chloride", "dimethylammonium chloride", "triethanolammonium acetate"])
+def test_a_prefix_inside_an_onium_name_is_no_count(name):
+    # diethylammonium is one cation, (C2H5)2NH2(+), not two ethylammonium ions: it had read as C4H16ClN2 (common
+    # practice of substitutive names); the library does not list it, so the name is left unread, never misread
+    row = score_formula(name)
+    assert row["status"] == "error" and row["formula_normalized"] is None
+
+
+@pytest.mark.parametrize("name, formula", [
+    ("bis(ethylammonium) sulfate", "[EtNH3]2[SO4]"), ("ethylammonium nitrate", "[EtNH3][NO3]"),
+    ("triethylammonium chloride", "[Et3NH]Cl"),
+])
+def test_bracketed_and_listed_onium_names_still_read(name, formula):
+    assert score_formula(name)["formula_normalized"] == formula
