@@ -35,7 +35,7 @@ from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.elements import is_metal
-from ionicity.scorer.formula import ParsedFormula, format_count
+from ionicity.scorer.formula import ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
     ion_library,
@@ -46,6 +46,7 @@ from ionicity.scorer.ion_library import (
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
+from ionicity.scorer.registry_formulas import registry_molecule
 from ionicity.scorer.substance import (
     binary_carbonyl,
     classify,
@@ -254,6 +255,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         if comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
+        elif readings and comp.structure_hint not in ("ammonium", "fulminate"):
+            # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
+            # without a metal: C5H5N5 is adenine)
+            readings = _registry_molecule_readings(remaining, readings, notes)
     else:
         # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
         # need not look for one; with written ions, whether any reading balances at all
@@ -444,6 +449,42 @@ def _ammine_ligands(cations, anions) -> float:
             ammonium -= used * need
             total += used * (need + 1)
     return total
+
+
+# cation families of the aprotic ionic liquids: a formula that reads as one of their salts and as a registry
+# molecule is said to be both
+_IONIC_LIQUID_CATIONS = frozenset({"imidazolium", "pyridinium", "pyrrolidinium", "piperidinium", "ammonium-quaternary",
+                                   "phosphonium"})
+# and of their anions (the ionic-liquid families of the ion library, and the simple anions ionic liquids pair
+# with); hydroxide, cyanide, hydrogencarbonate and the like are no ionic-liquid anion a formula means
+_IONIC_LIQUID_ANION_FAMILIES = frozenset({"sulfonylimide", "sulfonate", "alkylsulfate", "cyano-anion",
+                                          "fluoroalkylphosphate", "alkylphosphate"})
+_IONIC_LIQUID_ANIONS = frozenset({"BF4(-)", "PF6(-)", "Cl(-)", "Br(-)", "I(-)", "NO3(-)", "HSO4(-)", "SCN(-)",
+                                  "CH3COO(-)", "CF3COO(-)"})
+
+
+def _registry_molecule_readings(remaining: dict[str, float], readings, notes: list[str]):
+    """The organic pair readings of a formula without written ions, less the salts where the registry's tables
+    know the formula as molecules only (``scorer.registry_formulas``): C6H15NO3 is triethanolamine, not
+    [N1112][HCO3]; C3H6N6 melamine, not guanidinium dicyanamide; C6H12N4 hexamethylenetetramine, not
+    [N1111][dca] (325 registry molecules had read as salts). An acid's reading stands (acetic acid). Where the
+    salt is one of an aprotic ionic-liquid cation, ``notes`` gets the warning that the formula reads as both."""
+    name = registry_molecule(hill_formula(remaining))
+    if name is None:
+        return readings
+    acids = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
+    salts = [r for r in readings if r not in acids]
+    if not salts:
+        return readings
+    penalty, terms = min(salts, key=lambda r: r[0])
+    if not acids and any(ion.charge > 0 and ion.family in _IONIC_LIQUID_CATIONS for ion, _ in terms) and any(
+            ion.charge < 0 and (ion.family in _IONIC_LIQUID_ANION_FAMILIES or ion.ion_id in _IONIC_LIQUID_ANIONS)
+            for ion, _ in terms):
+        written = "".join(f"[{ion.label.strip('[]')}]" + (format_count(n) if n != 1 else "")
+                          for ion, n in sorted(terms, key=lambda t: -t[0].charge))
+        notes.append(f"read as a molecule, {name}, the registry's compound of this formula; it also reads as the"
+                     f" ionic liquid {written}: write its ions to score the salt")
+    return acids
 
 
 def _woehler_isomer(readings) -> bool:

@@ -117,7 +117,9 @@ def test_a_molecule_by_name_is_no_ion_pair():
     assert registry_entry("lysine")[4] == "molecule"
     named, bare = score_formula("lysine"), score_formula("C6H14N2O2")
     assert named["formula_normalized"] == "C6H14N2O2" and not named["cations"]
-    assert bare["cations"]  # the formula alone cannot tell: still an ion pair
+    # the bare formula too: every registry compound of C6H14N2O2 is a molecule (scorer.registry_formulas;
+    # tests/test_registry_molecules.py), so choline cyanate is no longer taken
+    assert not bare["cations"] and bare["substance_class"] == "covalent_molecular"
     assert score_formula("benzoic acid")["cations"] == "H(+)*1"  # an acid's proton stands
 
 

@@ -1,0 +1,44 @@
+"""What the registry's tables know a Hill formula as: molecules only, or salts too.
+
+``scorer/data/registry_names.csv`` (the CRC Handbook and PubChem tables of the registry package
+``chemicals``, built by ``scorer/data/build_registry_names.py``) gives each compound its formula and a
+``kind`` read from its SMILES: ``molecule`` for one component, ``salt`` for several. A Hill formula of
+carbon, hydrogen and non-metals can often be spelt as one cation and one anion of the ion library
+(C6H15NO3 as [N1112][HCO3]; C3H6N6 as guanidinium dicyanamide), while the compounds that formula names in
+the registry are molecules (triethanolamine, melamine): :func:`registry_molecule` says so, and the ion
+solver then reads the formula as the molecule (:func:`scorer.ions.decompose`).
+
+The table is loaded once per process, only when a formula asks.
+"""
+from __future__ import annotations
+
+from ionicity.scorer.caching import once
+from ionicity.scorer.tables import table
+
+__all__ = ["registry_molecule"]
+
+_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
+
+
+@once
+def _kinds() -> dict[str, tuple[frozenset, str]]:
+    """Hill formula -> (the kinds the registry gives it, the first name it lists)."""
+    kinds: dict[str, set] = {}
+    first: dict[str, str] = {}
+    for row in table("registry_names.csv"):
+        kinds.setdefault(row["formula"], set()).add(row["kind"] or "unknown")
+        first.setdefault(row["formula"], row["name"])
+    return {formula: (frozenset(k), first[formula]) for formula, k in kinds.items()}
+
+
+def registry_molecule(hill: str) -> str | None:
+    """The registry's name of a compound with Hill formula ``hill`` when every compound it lists with that
+    formula is one molecule; ``None`` when it lists none, or a salt or an entry without a structure among them.
+
+    >>> registry_molecule("C6H15NO3"), registry_molecule("NaCl")
+    ('2-[bis(2-hydroxyethyl)amino]ethanol', None)
+    """
+    found = _kinds().get(hill)
+    if found is None or not found[0] <= _MOLECULE_KINDS:
+        return None
+    return found[1]
