@@ -88,6 +88,11 @@ _SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*[HDT]2O\s
 _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:[HDT]2O2|[HDT]2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")
 _STARTS_FORMULA = re.compile(r"\d*(?:\.\d+)?[A-Z(\[{]")
 _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "H2O2"}
+# a hydrogen halide joined to a base, as amine salts are written (C6H5NH2·HCl): the structure hint
+# "hydrohalide:Cl*1" (halide, how many) tells the solver which acid protonates the base
+_HYDROGEN_HALIDES = {(("Cl", 1.0), ("H", 1.0)): "Cl", (("Br", 1.0), ("H", 1.0)): "Br", (("H", 1.0), ("I", 1.0)): "I",
+                     (("F", 1.0), ("H", 1.0)): "F"}
+HYDROHALIDE_HINT = "hydrohalide:"
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
 # a hydrate whose water count is a letter: "CoCl2*xH2O", "Fe2O3.nH2O", "CuSO4*(H2O)x"
 _UNSTATED_WATER = re.compile(r"(?P<salt>.+?)[*.](?P<water>[xnyz]H2O|\(H2O\)[xnyz])")
@@ -558,6 +563,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     water = 0.0
     hints: dict[str, float] = {}
     adducts: dict[str, float] = {}
+    hydrohalide: dict[str, float] = {}
     isotopes: dict[str, float] = {}
     for index, component in enumerate(_split_components(body)):
         if not component:
@@ -582,6 +588,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             water += multiplier
             continue
         key = tuple(sorted(counts.items()))
+        if index > 0 and not ion_refs and key in _HYDROGEN_HALIDES:
+            # an amine salt written with its acid: C6H5NH2·HCl, C2H8N2·2HCl (scorer.ions reads the amine protonated)
+            halide = _HYDROGEN_HALIDES[key]
+            hydrohalide[halide] = hydrohalide.get(halide, 0.0) + multiplier
         if index > 0 and key in _NEUTRAL_ADDUCTS and not ion_refs:
             name = _NEUTRAL_ADDUCTS[key]
             adducts[name] = adducts.get(name, 0.0) + multiplier
@@ -602,7 +612,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
     ordered = tuple((s, totals[s]) for s in hill_order(totals))
     hint = ""
-    if _ORGANOMETALLIC_GROUPS.search(cleaned):
+    if len(hydrohalide) == 1 and next(iter(hydrohalide.values())).is_integer():
+        (halide, n), = hydrohalide.items()
+        hint = f"{HYDROHALIDE_HINT}{halide}*{int(n)}"
+    elif _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
     elif _ACYL_HALIDE.search(cleaned):
         hint = "acyl_halide"

@@ -34,8 +34,9 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
+from ionicity.scorer.organic_cations import amine_salt_readings
 from ionicity.scorer.elements import is_metal
-from ionicity.scorer.formula import ParsedFormula, format_count, hill_formula
+from ionicity.scorer.formula import HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
     ion_library,
@@ -252,10 +253,18 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
             written = [r for r in readings if any(ion.ion_id == "NH4(+)" for ion, _ in r[1])]
             readings = written or readings
-        if comp.structure_hint == "molecule":
+        if comp.structure_hint.startswith(HYDROHALIDE_HINT):
+            # an amine salt written with its acid (C6H5NH2·HCl) or so named: the base protonated, beside the halide
+            halide, _, n = comp.structure_hint[len(HYDROHALIDE_HINT):].partition("*")
+            built, built_notes = amine_salt_readings(remaining, halide, int(n))
+            if built:
+                readings = built
+                notes.extend(built_notes)
+        elif comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
-        elif readings and comp.structure_hint not in ("ammonium", "fulminate"):
+        elif readings and comp.structure_hint not in ("ammonium", "fulminate") and not comp.structure_hint.startswith(
+                HYDROHALIDE_HINT):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)

@@ -89,6 +89,8 @@ def _read_name(name) -> tuple[str | None, tuple[str, str, str, str, str] | None]
         return None, None
     entry = None
     if formula is None:
+        formula = _hydrohalide_name(name)
+    if formula is None:
         entry = registry_entry(name)
         if entry is None:
             return None, None
@@ -99,6 +101,36 @@ def _read_name(name) -> tuple[str | None, tuple[str, str, str, str, str] | None]
 
 
 _DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
+
+# "aniline hydrochloride", "ethylenediamine dihydrochloride", "pyridine hydrobromide": a base and n HX
+_HYDROHALIDE_NAME = re.compile(r"^(?P<base>.+?)[\s,]+(?P<n>mono|di|tri|tetra)?hydro(?P<x>chloride|bromide|iodide|fluoride)$",
+                               re.I)
+_HALIDE_OF = {"chloride": "Cl", "bromide": "Br", "iodide": "I", "fluoride": "F"}
+_COUNT_OF = {None: 1, "mono": 1, "di": 2, "tri": 3, "tetra": 4}
+
+
+def _hydrohalide_name(name: str) -> str | None:
+    """The formula of an organic base's hydrohalide named so: the base's formula and n HX, written as the
+    adduct (``C6H7N·HCl``) so that the solver protonates the base (``scorer.organic_cations``); None for any
+    other name, or a base that is no organic molecule with nitrogen.
+
+    >>> _hydrohalide_name("ethylenediamine dihydrochloride")
+    'C2H8N2·2HCl'
+    """
+    m = _HYDROHALIDE_NAME.match(name.strip())
+    if m is None:
+        return None
+    base, _ = _read_name(m.group("base"))
+    if base is None or "·" in base:
+        return None
+    try:
+        counts = dict(parse_formula(base).counts)
+    except FormulaError:
+        return None
+    if "C" not in counts or "N" not in counts or any(is_metal(s) for s in counts):
+        return None
+    n = _COUNT_OF[(m.group("n") or "").lower() or None]
+    return f"{base}·{'' if n == 1 else n}H{_HALIDE_OF[m.group('x').lower()]}"
 
 
 # the catalogues' acid-salt names (common practice): "sodium phosphate dibasic" is Na2HPO4, "monobasic" NaH2PO4,

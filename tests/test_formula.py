@@ -231,10 +231,11 @@ def test_spelled_out_ionic_liquid_names_its_ions():
 
 def test_result_does_not_depend_on_what_was_scored_before():
     plain = score_formula("RbBr")
-    annotated = score_formula("RbBr (aq)")
+    # an annotation the parser sets aside ("(aq)" now reads as a solution of unstated strength, status ok)
+    annotated = score_formula("RbBr (crystals)")
     assert plain["status"] == "ok"
     assert annotated["status"] == "warning"
-    assert "(aq)" in annotated["message"]
+    assert "(crystals)" in annotated["message"]
 
 
 # --------------------------------------------------------------------------- hostile cells

@@ -1,0 +1,51 @@
+"""Amine hydrohalides: a base written or named with n HX is read as the base protonated n times beside n halides.
+
+External reference: the registry package ``chemicals`` (``chemicals.identifiers.search_chemical(name)``): the
+compound's formula and its SMILES, which writes the base and HCl as separate components (``CN.Cl`` for
+methylamine hydrochloride, ``C(CN)N.Cl.Cl`` for ethylenediamine dihydrochloride): the composition and the count
+of HX checked here. The protonated-base reading is IUPAC's (Red Book 2005, IR-5.5; Blue Book 2013, P-73.2; from
+memory). Before this rule aniline hydrochloride read as 1-methylpyridinium chloride and triethylamine
+hydrochloride as trimethylpropylammonium chloride (isomers from the ion library); ethylenediamine
+dihydrochloride was unread.
+"""
+from __future__ import annotations
+
+import pytest
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.record import score_formula
+
+
+def _composition(text: str) -> dict[str, float]:
+    return {s: n for s, n in parse_formula(text).counts if n}
+
+
+@pytest.mark.parametrize("name", ["aniline hydrochloride", "pyridine hydrochloride", "methylamine hydrochloride",
+                                  "triethylamine hydrochloride", "ethylenediamine dihydrochloride",
+                                  "glycine hydrochloride", "guanidine hydrochloride"])
+def test_named_hydrochlorides_are_protonated_bases(name):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    found = identifiers.search_chemical(name)  # source: chemicals (PubChem identifier table)
+    n_acid = found.smiles.split(".").count("Cl")
+    row = score_formula(name)
+    assert row["substance_class"] == "ionic_liquid_pair", row["message"]
+    assert row["anions"] == f"Cl(-)*{n_acid}"
+    cation = row["cations"].split("*")[0]
+    assert cation.endswith(f"({n_acid}+)" if n_acid > 1 else "(+)")
+    # the composition is the registry's
+    total = _composition(found.formula)
+    assert _composition(row["formula_normalized"]) == total
+
+
+@pytest.mark.parametrize("text, cation", [
+    ("C6H5NH2·HCl", "[C6H8N](+)*1"), ("C2H8N2·2HCl", "[C2H10N2](2+)*1"), ("CH3NH2.HCl", "[MeNH3](+)*1"),
+    ("C6H5NH2*HBr", "[C6H8N](+)*1"),
+])
+def test_written_hydrohalides(text, cation):
+    row = score_formula(text)
+    assert row["cations"] == cation and row["substance_class"] == "ionic_liquid_pair"
+
+
+def test_a_listed_cation_only_where_no_isomer_is_possible():
+    # C2H8N(+) is ethylammonium or dimethylammonium: the formula cannot say, so the built cation is taken
+    assert score_formula("(CH3)2NH·HCl")["cations"] == "[C2H8N](+)*1"
+    assert score_formula("hydroxylamine hydrochloride")["cations"] == "NH3OH(+)*1"  # inorganic: as before
