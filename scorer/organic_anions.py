@@ -30,7 +30,8 @@ from ionicity.scorer.ion_library import monatomic_ion
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
 from ionicity.scorer.model import Ion, format_charge
 
-__all__ = ["ORGANIC_ANION_SOURCE", "organic_anion", "organic_anion_readings", "suspect_organic_reading"]
+__all__ = ["ORGANIC_ANION_SOURCE", "built_organic_ion", "organic_anion", "organic_anion_readings",
+           "suspect_organic_reading"]
 
 ORGANIC_ANION_SOURCE = (
     "constructed by rule (scorer/organic_anions.py), not from the ion library: the conjugate base of an"
@@ -48,18 +49,26 @@ def organic_anion(composition: dict[str, float], charge: int) -> Ion:
     >>> ion.ion_id, ion.family, ion.organic
     ('C12H25O4S(-)', 'organic-anion', True)
     """
-    label = hill_formula(composition)
+    return built_organic_ion(hill_formula(composition), composition, charge, "organic-anion", "organic anion",
+                             ORGANIC_ANION_SOURCE)
+
+
+def built_organic_ion(label: str, composition: dict[str, float], charge: int, family: str, kind: str,
+                      source: str) -> Ion:
+    """An organic ion built by rule, not taken from the ion library: ``label`` and ``composition``, named
+    "``kind`` LABEL(charge), read from the formula" (this module's anions; the protonated bases of
+    :mod:`scorer.organic_cations`)."""
     return Ion(
         ion_id=f"{label}({format_charge(charge)})",
         label=label,
         charge=charge,
         composition=tuple(sorted(composition.items())),
-        family="organic-anion",
-        name=f"organic anion {label}({format_charge(charge)}), read from the formula",
+        family=family,
+        name=f"{kind} {label}({format_charge(charge)}), read from the formula",
         organic=True,
         element=None,
         oxidation_states=(),
-        source=ORGANIC_ANION_SOURCE,
+        source=source,
     )
 
 

@@ -18,7 +18,8 @@ from __future__ import annotations
 from ionicity.scorer.grammar import hill_formula
 from ionicity.scorer.ion_library import ions_by_composition, monatomic_ion
 from ionicity.scorer.ion_penalties import _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
-from ionicity.scorer.model import Ion, format_charge
+from ionicity.scorer.model import Ion
+from ionicity.scorer.organic_anions import built_organic_ion
 
 __all__ = ["AMINE_SALT_SOURCE", "amine_salt_readings"]
 
@@ -38,19 +39,8 @@ def protonated_base(composition: dict[str, float], charge: int) -> Ion:
     >>> ion.ion_id, ion.family, ion.organic
     ('[C6H8N](+)', 'ammonium-protic', True)
     """
-    label = f"[{hill_formula(composition)}]"
-    return Ion(
-        ion_id=f"{label}({format_charge(charge)})",
-        label=label,
-        charge=charge,
-        composition=tuple(sorted(composition.items())),
-        family="ammonium-protic",
-        name=f"protonated organic base {label}({format_charge(charge)}), read from the formula",
-        organic=True,
-        element=None,
-        oxidation_states=(),
-        source=AMINE_SALT_SOURCE,
-    )
+    return built_organic_ion(f"[{hill_formula(composition)}]", composition, charge, "ammonium-protic",
+                             "protonated organic base", AMINE_SALT_SOURCE)
 
 
 def amine_salt_readings(remaining: dict[str, float], halide: str, n: int) -> tuple[list, list[str]]:
