@@ -34,7 +34,7 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
-from ionicity.scorer.organic_cations import amine_salt_readings
+from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
@@ -47,7 +47,7 @@ from ionicity.scorer.ion_library import (
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
-from ionicity.scorer.registry_formulas import registry_molecule
+from ionicity.scorer.registry_formulas import registry_molecule, registry_salt
 from ionicity.scorer.substance import (
     binary_carbonyl,
     classify,
@@ -248,6 +248,12 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
         if comp.structure_hint not in ("ammonium", "fulminate") and _woehler_isomer(readings):
             readings = []
+        # an organic cation beside a hypohalite is an oxidant and a fuel that do not keep: where the formula
+        # also reads otherwise, that reading stands (C5H14ClNO is choline chloride, which tied with
+        # ethyltrimethylammonium hypochlorite; common practice)
+        readings = [r for r in readings if not (
+            any(ion.ion_id in _HYPOHALITES for ion, _ in r[1]) and any(ion.organic and ion.charge > 0 for ion, _ in r[1])
+        )] or readings
         if comp.structure_hint == "ammonium":
             # the ammonium ion written out (NH4 in the text) is an ammonium salt: (NH4)2C2O4 is ammonium oxalate,
             # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
@@ -268,6 +274,12 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)
+        if not readings and comp.structure_hint not in ("molecule", "amide"):
+            salt = registry_salt(hill_formula(remaining))
+            if salt is not None:
+                # the registry lists the formula only as a salt: an amine hydrohalide or quaternary ammonium halide
+                readings, built_notes = registry_halide_salt_readings(remaining, salt)
+                notes.extend(built_notes)
     else:
         # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
         # need not look for one; with written ions, whether any reading balances at all

@@ -58,10 +58,11 @@ from ionicity.scorer.applicability import settle
 from ionicity.scorer.caching import clear_all, once, per_input
 from ionicity.scorer.columns import descriptors
 from ionicity.scorer.elements import is_metal
-from ionicity.scorer.formula import ParsedFormula
+from ionicity.scorer.formula import ParsedFormula, hill_formula
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_search import _NO_ORGANIC_PAIR_ANIONS
 from ionicity.scorer.model import Decomposition, IonTerm
+from ionicity.scorer.registry_formulas import registry_salt
 from ionicity.scorer.substance import classify, nonionic_decomposition, organic_candidate
 
 __all__ = [
@@ -234,6 +235,8 @@ def _molecule(counts: tuple[tuple[str, float], ...], amide: bool = False) -> Dec
             return None
     elif not _read_as_molecule(as_dict, key, round(as_dict[symbol]) // primitive):
         return None
+    if "N" in as_dict and any(x in as_dict for x in ("Cl", "Br", "I")) and registry_salt(hill_formula(as_dict)):
+        return None  # the registry lists the formula only as a salt (an amine hydrohalide): the solver reads it
     # what scorer.ions reads for a formula without ions: no notes, no water, no adducts
     return settle(nonionic_decomposition(0, as_dict, [], 0.0, ()))
 

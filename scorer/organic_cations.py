@@ -21,7 +21,7 @@ from ionicity.scorer.ion_penalties import _PENALTY_SPECIES, _PENALTY_UNCOMMON_IO
 from ionicity.scorer.model import Ion
 from ionicity.scorer.organic_anions import built_organic_ion
 
-__all__ = ["AMINE_SALT_SOURCE", "amine_salt_readings"]
+__all__ = ["AMINE_SALT_SOURCE", "amine_salt_readings", "registry_halide_salt_readings"]
 
 AMINE_SALT_SOURCE = (
     "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic base protonated by"
@@ -68,3 +68,44 @@ def amine_salt_readings(remaining: dict[str, float], halide: str, n: int) -> tup
                                " a cation the ion library does not list (built by rule, scorer/organic_cations.py)"]
     penalty = (0.0 if listed else _PENALTY_UNCOMMON_ION) + 2 * _PENALTY_SPECIES
     return [(penalty, [(cation, 1.0), (anion, float(n))])], notes
+
+
+_HALIDES = ("Cl", "Br", "I")
+
+
+def registry_halide_salt_readings(remaining: dict[str, float], name: str) -> tuple[list, list[str]]:
+    """The reading of a Hill formula that the registry lists only as a salt (``name``), with carbon,
+    nitrogen and one halogen and no metal, as an organic cation beside halide ions: amine hydrohalides
+    (C6H10Cl2N2, 1,2-benzenediamine dihydrochloride) and quaternary ammonium halides (C7H16BrNO2,
+    acetylcholine bromide) that a bare formula otherwise reads as molecules. Each halide ion needs a
+    nitrogen to carry its cation's charge, so the halide count is the smaller of the halogen and nitrogen
+    counts (2-chloroaniline hydrochloride, C6H7Cl2N: one chloride, one Cl on the ring). The cation is built
+    by rule (``organic-cation``: the formula cannot say whether it is protic or quaternary). Two empty lists
+    where the rule does not apply.
+
+    >>> readings, notes = registry_halide_salt_readings({"C": 6.0, "H": 7.0, "Cl": 2.0, "N": 1.0}, "x")
+    >>> sorted(f"{ion.ion_id}*{k:g}" for ion, k in readings[0][1])
+    ['Cl(-)*1', '[C6H7ClN](+)*1']
+    """
+    halides = [x for x in _HALIDES if x in remaining]
+    if len(halides) != 1 or "C" not in remaining or "N" not in remaining or not set(remaining) <= _ALLOWED:
+        return [], []
+    halide = halides[0]
+    n = int(min(remaining[halide], remaining["N"]))
+    if n < 1 or any(abs(k - round(k)) > 1e-9 for k in remaining.values()):
+        return [], []
+    rest = dict(remaining)
+    rest[halide] -= n
+    if rest[halide] < 1e-9:
+        del rest[halide]
+    cation = built_organic_ion(f"[{hill_formula(rest)}]", rest, n, "organic-cation", "organic cation",
+                               REGISTRY_SALT_SOURCE)
+    note = (f"{cation.ion_id}: an organic cation beside {n} {halide}(-), read so because the registry lists"
+            f" this formula only as a salt ({name}); built by rule (scorer/organic_cations.py)")
+    return [(_PENALTY_UNCOMMON_ION + 2 * _PENALTY_SPECIES, [(cation, 1.0), (monatomic_ion(halide, -1), float(n))])], [note]
+
+
+REGISTRY_SALT_SOURCE = (
+    "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic cation of a formula"
+    " the registry lists only as a salt, beside its halide ions"
+)

@@ -15,7 +15,7 @@ from __future__ import annotations
 from ionicity.scorer.caching import once
 from ionicity.scorer.tables import table
 
-__all__ = ["registry_molecule"]
+__all__ = ["registry_molecule", "registry_salt"]
 
 _MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
 
@@ -40,5 +40,18 @@ def registry_molecule(hill: str) -> str | None:
     """
     found = _kinds().get(hill)
     if found is None or not found[0] <= _MOLECULE_KINDS:
+        return None
+    return found[1]
+
+
+def registry_salt(hill: str) -> str | None:
+    """The registry's name of a compound with Hill formula ``hill`` when every compound it lists with that
+    formula is a salt (several components in its SMILES); ``None`` otherwise.
+
+    >>> registry_salt("C2H10Cl2N2"), registry_salt("C6H15NO3")
+    ('1,2-Dimethylhydrazine dihydrochloride', None)
+    """
+    found = _kinds().get(hill)
+    if found is None or found[0] != {"salt"}:
         return None
     return found[1]

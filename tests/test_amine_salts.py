@@ -49,3 +49,23 @@ def test_a_listed_cation_only_where_no_isomer_is_possible():
     # C2H8N(+) is ethylammonium or dimethylammonium: the formula cannot say, so the built cation is taken
     assert score_formula("(CH3)2NH·HCl")["cations"] == "[C2H8N](+)*1"
     assert score_formula("hydroxylamine hydrochloride")["cations"] == "NH3OH(+)*1"  # inorganic: as before
+
+
+@pytest.mark.parametrize("name", ["1,2-benzenediamine dihydrochloride", "2-chloroaniline hydrochloride",
+                                  "acetylcholine bromide", "betaine hydrochloride"])
+def test_hill_formulas_the_registry_lists_as_salts(name):
+    # as a bare Hill formula these read as molecules; the registry (scorer/data/registry_names.csv, from the same
+    # package's tables) lists each formula only as a salt: one organic cation beside as many halide ions as the
+    # SMILES has halide components (source: chemicals' lookup below)
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    found = identifiers.search_chemical(name)
+    halides = [part for part in found.smiles.split(".") if part in ("Cl", "Br", "[Cl-]", "[Br-]")]
+    row = score_formula(found.formula)
+    assert row["substance_class"] == "ionic_liquid_pair", (found.formula, row["message"])
+    assert row["anions"].endswith(f"*{len(halides)}")
+
+
+def test_choline_chloride_is_no_hypochlorite():
+    # C5H14ClNO tied between choline chloride and ethyltrimethylammonium hypochlorite, and took the hypochlorite
+    # (an organic cation beside a hypohalite does not keep; common practice)
+    assert score_formula("C5H14ClNO")["cations"] == "[Ch](+)*1"
