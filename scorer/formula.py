@@ -645,13 +645,13 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
 
 
 _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
-# "(s)", "(aq)", "(anhydr.)", "(tech. grade)": lowercase notes after the formula
 # a structure label before the formula: Greek-letter polymorphs (alpha-Al2O3, γ-Fe2O3), the one-letter ones of
 # materials data (h-BN hexagonal, c-BN cubic, w- wurtzite, t-/m-/o-/r- tetragonal, monoclinic, orthorhombic,
 # rhombohedral, a- amorphous) and Ramsdell's polytypes (2H-MoS2, 1T-TaS2, 4H-SiC); common practice
 POLYMORPH_LABEL = re.compile(
     r"^\s*(?:[αβγδεζηθκλω]|(?i:alpha|beta|gamma|delta|epsilon|zeta|eta|theta|kappa|lambda|omega)|[hcwtmora]"
     r"|[1-9]\d?[HTRCOM])\s*-\s*(?=[A-Z(\[])")
+# "(s)", "(aq)", "(anhydr.)", "(tech. grade)": lowercase notes after the formula
 _ANNOTATION = re.compile(r"\s*\((?=[^)]*[a-z])[a-z .,%0-9-]+\)\s*$")
 
 

@@ -13,6 +13,7 @@ Hill order and the way counts are written.
 """
 from __future__ import annotations
 
+import math
 import re
 from typing import Protocol
 
@@ -138,6 +139,21 @@ def format_count(value: float) -> str:
     if abs(value - round(value)) < 1e-9:
         return str(int(round(value)))
     return f"{value:.6f}".rstrip("0").rstrip(".")
+
+
+def reduced_counts(counts) -> tuple[tuple[str, float], ...]:
+    """A composition divided by the greatest common divisor of its whole counts, sorted by symbol: one key for
+    every multiple of a formula unit (Al2Cl6 and AlCl3, Hg2Cl2 and HgCl); counts that are not whole stay as
+    they are.
+
+    >>> reduced_counts({"Hg": 2.0, "Cl": 2.0}), reduced_counts((("Fe", 0.95), ("O", 1.0)))
+    ((('Cl', 1.0), ('Hg', 1.0)), (('Fe', 0.95), ('O', 1.0)))
+    """
+    items = [(s, n) for s, n in dict(counts).items() if n > 0]
+    g = 0
+    for _, n in items:
+        g = math.gcd(g, int(n)) if float(n).is_integer() else 1
+    return tuple(sorted((s, n / (g or 1)) for s, n in items))
 
 
 def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:

@@ -268,9 +268,8 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
                 notes.extend(built_notes)
         elif comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
-            readings = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
-        elif readings and comp.structure_hint not in ("ammonium", "fulminate") and not comp.structure_hint.startswith(
-                HYDROHALIDE_HINT):
+            readings = _acid_readings(readings)
+        elif readings and comp.structure_hint not in ("ammonium", "fulminate"):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)
@@ -484,6 +483,11 @@ _IONIC_LIQUID_ANIONS = frozenset({"BF4(-)", "PF6(-)", "Cl(-)", "Br(-)", "I(-)", 
                                   "CH3COO(-)", "CF3COO(-)"})
 
 
+def _acid_readings(readings):
+    """The readings whose only cation is H(+): an acid's (acetic acid), which a molecule's formula keeps."""
+    return [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
+
+
 def _registry_molecule_readings(remaining: dict[str, float], readings, notes: list[str]):
     """The organic pair readings of a formula without written ions, less the salts where the registry's tables
     know the formula as molecules only (``scorer.registry_formulas``): C6H15NO3 is triethanolamine, not
@@ -493,7 +497,7 @@ def _registry_molecule_readings(remaining: dict[str, float], readings, notes: li
     name = registry_molecule(hill_formula(remaining))
     if name is None:
         return readings
-    acids = [r for r in readings if all(ion.charge < 0 or ion.ion_id == "H(+)" for ion, _ in r[1])]
+    acids = _acid_readings(readings)
     salts = [r for r in readings if r not in acids]
     if not salts:
         return readings

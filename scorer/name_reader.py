@@ -44,7 +44,6 @@ a name it cannot read gives ``None``.
 from __future__ import annotations
 
 import dataclasses
-import math
 import re
 
 from ionicity.scorer.caching import once, per_input
@@ -53,6 +52,7 @@ from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
+from ionicity.scorer.registry_formulas import registry_knows
 from ionicity.scorer.tables import table
 
 __all__ = ["read_name", "NameReading", "read_name_parts", "parse_as_name"]
@@ -358,32 +358,12 @@ def _metal_cation(reading: NameReading) -> bool:
     return bool(reading.cations) and bool(reading.cations[0].element) and is_metal(reading.cations[0].element)
 
 
-@once
-def _known_compositions() -> frozenset:
-    """Reduced compositions of the registry's formulas (Hill formulas, no brackets)."""
-    out = set()
-    for row in table("registry_names.csv"):
-        counts = {}
-        for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", row["formula"]):
-            counts[symbol] = counts.get(symbol, 0) + (int(n) if n else 1)
-        out.add(_reduced(counts))
-    return frozenset(out)
-
-
-def _reduced(counts: dict) -> tuple:
-    g = 0
-    for n in counts.values():
-        g = math.gcd(g, int(n)) if float(n).is_integer() else 1
-    return tuple(sorted((s, n / (g or 1)) for s, n in counts.items() if n))
-
-
 def _known(text: str) -> bool:
     try:
         parsed = parse_formula(text)
     except FormulaError:
         return False
-    counts = dict(parsed.counts)
-    return _reduced(counts) in _known_compositions()
+    return registry_knows(parsed.counts)
 
 
 _WORDLIKE = re.compile(r"[a-z]{3}|[A-Z]{4}")

@@ -12,10 +12,13 @@ The table is loaded once per process, only when a formula asks.
 """
 from __future__ import annotations
 
+import re
+
 from ionicity.scorer.caching import once
+from ionicity.scorer.grammar import reduced_counts
 from ionicity.scorer.tables import table
 
-__all__ = ["registry_molecule", "registry_salt"]
+__all__ = ["registry_knows", "registry_molecule", "registry_salt"]
 
 _MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
 
@@ -55,3 +58,24 @@ def registry_salt(hill: str) -> str | None:
     if found is None or found[0] != {"salt"}:
         return None
     return found[1]
+
+
+@once
+def _compositions() -> frozenset:
+    """Reduced compositions of the registry's formulas (Hill formulas, no brackets)."""
+    out = set()
+    for formula in _kinds():
+        counts: dict[str, float] = {}
+        for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", formula):
+            counts[symbol] = counts.get(symbol, 0.0) + (float(n) if n else 1.0)
+        out.add(reduced_counts(counts))
+    return frozenset(out)
+
+
+def registry_knows(counts) -> bool:
+    """Whether the registry lists a compound of this composition or a whole multiple of it (HgCl is Hg2Cl2).
+
+    >>> registry_knows({"P": 1.0, "O": 1.0, "Cl": 3.0}), registry_knows({"P": 1.0, "O": 1.0, "Cl": 1.0})
+    (True, False)
+    """
+    return reduced_counts(counts) in _compositions()
