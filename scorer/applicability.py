@@ -77,7 +77,6 @@ not how they are found:
 from __future__ import annotations
 
 import math
-import re
 
 from ionicity.scorer import character, fajans
 from ionicity.scorer.bond_class_rules import (
@@ -87,6 +86,7 @@ from ionicity.scorer.bond_class_rules import (
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.grammar import hill_text_key, reduced_key  # one composition key, shared with the molecular route
 from ionicity.scorer.ion_library import monatomic_ion
 from ionicity.scorer.model import Column, Decomposition, IonTerm
 from ionicity.scorer.substance import formal_oxidation_states, listed_states
@@ -135,41 +135,15 @@ COLUMNS: tuple[Column, ...] = (
 
 # --- tables -----------------------------------------------------------------------
 
-_TERM = re.compile(r"([A-Z][a-z]?)(\d*)")
-
-
-def reduced_key(counts) -> tuple[tuple[str, float], ...]:
-    """A composition divided by the greatest common divisor of its counts,
-    sorted by symbol: Al2Cl6 and AlCl3 share one key.
-
-    >>> reduced_key({"Al": 2, "Cl": 6})
-    (('Al', 1.0), ('Cl', 3.0))
-    """
-    items = sorted((s, float(n)) for s, n in dict(counts).items())
-    if any(n != int(n) for _, n in items):
-        return tuple(items)
-    divisor = 0
-    for _, n in items:
-        divisor = math.gcd(divisor, int(n))
-    divisor = divisor or 1
-    return tuple((s, n / divisor) for s, n in items)
-
-
-def _key_of_text(formula: str):
-    counts: dict[str, float] = {}
-    for symbol, n in _TERM.findall(formula):
-        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
-    return reduced_key(counts)
-
 
 @once
 def _families() -> dict:
-    return {_key_of_text(r["formula"]): r for r in table("structural_families.csv")}
+    return {hill_text_key(r["formula"]): r for r in table("structural_families.csv")}
 
 
 @once
 def _phillips() -> dict:
-    return {_key_of_text(r["formula"]): (float(r["ionicity_fi"]), r["source"]) for r in table("phillips_ionicity.csv")}
+    return {hill_text_key(r["formula"]): (float(r["ionicity_fi"]), r["source"]) for r in table("phillips_ionicity.csv")}
 
 
 @once

@@ -141,19 +141,37 @@ def format_count(value: float) -> str:
     return f"{value:.6f}".rstrip("0").rstrip(".")
 
 
-def reduced_counts(counts) -> tuple[tuple[str, float], ...]:
-    """A composition divided by the greatest common divisor of its whole counts, sorted by symbol: one key for
-    every multiple of a formula unit (Al2Cl6 and AlCl3, Hg2Cl2 and HgCl); counts that are not whole stay as
-    they are.
+def reduced_key(counts) -> tuple[tuple[str, float], ...]:
+    """A composition divided by the greatest common divisor of its counts,
+    sorted by symbol: Al2Cl6 and AlCl3 share one key (so do Hg2Cl2 and HgCl);
+    counts that are not whole stay as they are.
 
-    >>> reduced_counts({"Hg": 2.0, "Cl": 2.0}), reduced_counts((("Fe", 0.95), ("O", 1.0)))
-    ((('Cl', 1.0), ('Hg', 1.0)), (('Fe', 0.95), ('O', 1.0)))
+    >>> reduced_key({"Al": 2, "Cl": 6})
+    (('Al', 1.0), ('Cl', 3.0))
     """
-    items = [(s, n) for s, n in dict(counts).items() if n > 0]
-    g = 0
+    items = sorted((s, float(n)) for s, n in dict(counts).items())
+    if any(n != int(n) for _, n in items):
+        return tuple(items)
+    divisor = 0
     for _, n in items:
-        g = math.gcd(g, int(n)) if float(n).is_integer() else 1
-    return tuple(sorted((s, n / (g or 1)) for s, n in items))
+        divisor = math.gcd(divisor, int(n))
+    divisor = divisor or 1
+    return tuple((s, n / divisor) for s, n in items)
+
+
+_HILL_TERM = re.compile(r"([A-Z][a-z]?)(\d*)")
+
+
+def hill_text_key(formula: str) -> tuple[tuple[str, float], ...]:
+    """:func:`reduced_key` of a formula written without brackets (a Hill formula, a data table's ``AlCl3``).
+
+    >>> hill_text_key("Cl2Hg2")
+    (('Cl', 1.0), ('Hg', 1.0))
+    """
+    counts: dict[str, float] = {}
+    for symbol, n in _HILL_TERM.findall(formula):
+        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
+    return reduced_key(counts)
 
 
 def hill_formula(counts: dict[str, float] | tuple[tuple[str, float], ...]) -> str:

@@ -46,7 +46,7 @@ from math import factorial
 from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import format_count, parse_formula
-from ionicity.scorer.grammar import reduced_counts
+from ionicity.scorer.grammar import reduced_key
 from ionicity.scorer.model import Decomposition
 from ionicity.scorer.radii import shannon_radius_pm
 from ionicity.scorer.tables import table
@@ -481,7 +481,7 @@ def _measured_coordination() -> dict[tuple, tuple[int, int, str]]:
     secondary contacts, source)."""
     out = {}
     for row in table("molecular_coordination.csv"):
-        out[reduced_counts(parse_formula(row["formula"]).counts)] = (
+        out[reduced_key(parse_formula(row["formula"]).counts)] = (
             int(row["coordination_number"]), int(row["secondary_contacts"]), row["source"])
     return out
 
@@ -601,7 +601,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     sigma = _shape_symmetry_number(lone_pairs, [k for _, k in ligands])
     if n == 2 and lone_pairs in (0, 3):  # linear: a cylinder, or a cone with mixed ligands
         sigma = _LINEAR_SIGMA / (2.0 if len(ligands) > 1 else 1.0)
-    measured = _measured_coordination().get(reduced_counts(comp))
+    measured = _measured_coordination().get(reduced_key(comp))
     secondary = 0
     if measured is not None:
         cn, secondary, how = measured[0], measured[1], "measured in the solid (scorer/data/molecular_coordination.csv)"

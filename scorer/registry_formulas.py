@@ -12,10 +12,8 @@ The table is loaded once per process, only when a formula asks.
 """
 from __future__ import annotations
 
-import re
-
 from ionicity.scorer.caching import once
-from ionicity.scorer.grammar import reduced_counts
+from ionicity.scorer.grammar import hill_text_key, reduced_key
 from ionicity.scorer.tables import table
 
 __all__ = ["registry_knows", "registry_molecule", "registry_salt"]
@@ -63,13 +61,7 @@ def registry_salt(hill: str) -> str | None:
 @once
 def _compositions() -> frozenset:
     """Reduced compositions of the registry's formulas (Hill formulas, no brackets)."""
-    out = set()
-    for formula in _kinds():
-        counts: dict[str, float] = {}
-        for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", formula):
-            counts[symbol] = counts.get(symbol, 0.0) + (float(n) if n else 1.0)
-        out.add(reduced_counts(counts))
-    return frozenset(out)
+    return frozenset(hill_text_key(formula) for formula in _kinds())
 
 
 def registry_knows(counts) -> bool:
@@ -78,4 +70,4 @@ def registry_knows(counts) -> bool:
     >>> registry_knows({"P": 1.0, "O": 1.0, "Cl": 3.0}), registry_knows({"P": 1.0, "O": 1.0, "Cl": 1.0})
     (True, False)
     """
-    return reduced_counts(counts) in _compositions()
+    return reduced_key(counts) in _compositions()

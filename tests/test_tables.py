@@ -40,7 +40,7 @@ ROWS = {
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 36,
-    "trivial_names.csv": 112,
+    "trivial_names.csv": 115,
     "registry_names.csv": 13415,
     "fusion.csv": 38,
     "blends.csv": 10,
