@@ -73,7 +73,7 @@ __all__ = [
 _SUBSCRIPTS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
 _SUPERSCRIPT_CHARS = "⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻"
 _SUPERSCRIPTS = str.maketrans(_SUPERSCRIPT_CHARS, "0123456789+-")
-_DOT_SEPARATORS = "·•∙⋅・･×"
+_DOT_SEPARATORS = "·•∙⋅・･×●"
 _MINUS_SIGNS = "−–—‐‑"
 _SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?\s?[A-Z(\[])")
 # "CoCl2 · x H2O", "CoCl2 xH2O": water of unstated amount typed with spaces (a catalogue's xH2O) after a dot,
@@ -242,6 +242,41 @@ _CHARGE_PATTERNS = (
     re.compile(r"(?<=[A-Za-z)\]}])(?P<sign>[+-])(?P<digits>\d+)$"),
     re.compile(r"(?<=\d)(?P<sign>[+-])(?P<digits>\d+)$"),
 )
+
+
+# the ions of a salt written one by one with their charges: "Na+ Cl-", "Na+Cl-", "Ca2+ 2Cl-", "NH4+ NO3-"
+_ION_TOKEN_BREAK = re.compile(r"(?<=[+-])\s*(?=\d*\s*[A-Z\[(])|\s+")
+_LEADING_COUNT = re.compile(r"^(\d+)\s*(?=[A-Z\[(])")
+
+
+def _written_ion_pair(text: str) -> str | None:
+    """Formula text of a salt written as its ions with their charges, or None when the text is not that:
+    two or more ions, each with a charge, cations and anions balancing ("Ca2+ 2Cl-" is CaCl2).
+
+    >>> _written_ion_pair("Na+ Cl-"), _written_ion_pair("Ca2+ 2Cl-"), _written_ion_pair("SO4^2-")
+    ('(Na)(Cl)', '(Ca)(Cl)2', None)
+    """
+    if "[" in text:
+        return None  # bracketed codes ("[C4mim]+ [BF4]-") are read by the ionic-liquid shorthand
+    tokens: list[str] = []
+    for token in _ION_TOKEN_BREAK.split(text.strip()):
+        if token and tokens and tokens[-1].isdigit():
+            tokens[-1] += token  # "3 OH-": a count written apart from its ion
+        elif token:
+            tokens.append(token)
+    if len(tokens) < 2 or not all(t.endswith(("+", "-")) for t in tokens):
+        return None
+    parts, total, signs = [], 0, set()
+    for token in tokens:
+        m = _LEADING_COUNT.match(token)
+        count = int(m.group(1)) if m else 1
+        body, charge, _ = _split_charge(token[m.end():] if m else token)
+        if not charge or not body or count < 1:
+            return None
+        parts.append(f"({body.strip('^')})" + (str(count) if count > 1 else ""))
+        total += count * charge
+        signs.add(charge > 0)
+    return "".join(parts) if total == 0 and signs == {True, False} else None
 
 
 def _split_charge(text: str) -> tuple[str, int, str | None]:
@@ -436,6 +471,11 @@ def parse_formula(text: str) -> ParsedFormula:
         formula, name = solvent
         notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
+    if "+" in text_to_parse and "-" in text_to_parse:
+        pair = _written_ion_pair(text_to_parse)
+        if pair is not None:
+            notes.append(f"read the ions written with their charges ({' '.join(text_to_parse.split())!r}) as one salt")
+            text_to_parse = pair
     # most cells are plain (_PLAIN): no comma, sign or space, so no solid-solution site, written
     # non-stoichiometry, spaced or hyphenated ion pair, and nothing for _normalise_text to map but the dot
     plain = _PLAIN.fullmatch(text_to_parse) is not None

@@ -112,3 +112,25 @@ def test_structure_labels_are_set_aside(labelled, plain):
 
 def test_a_hyphen_between_formulas_after_a_label_is_still_read_as_written():
     assert score_formula("LiCl-KCl")["substance_class"] == "mixture"
+
+
+@pytest.mark.parametrize("text, salt", [
+    # a salt written as its ions with their charges (common practice in ion lists): before, "Na+ Cl-" read as
+    # one ion, NaCl^-
+    ("Na+ Cl-", "NaCl"), ("Na+Cl-", "NaCl"), ("Ca2+ 2Cl-", "CaCl2"), ("NH4+ NO3-", "NH4NO3"),
+    ("2Na+ SO4^2-", "Na2SO4"), ("Al3+ 3 OH-", "Al(OH)3"),
+])
+def test_ions_written_with_their_charges_are_one_salt(text, salt):
+    row, same = score_formula(text), score_formula(salt)
+    assert (row["formula_normalized"], row["cations"], row["anions"]) == (
+        same["formula_normalized"], same["cations"], same["anions"])
+    assert "with their charges" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["SO4^2-", "Fe3+", "[C4mim]+ [BF4]-", "NaCl-KCl"])
+def test_single_ions_codes_and_mixtures_are_not_taken_for_ion_lists(text):
+    assert "with their charges" not in (score_formula(text)["message"] or "")
+
+
+def test_a_black_circle_is_a_hydrate_dot():
+    assert score_formula("CuSO4●5H2O")["formula_normalized"] == "CuSO4·5H2O"
