@@ -26,8 +26,9 @@ from ionicity.pipelines.eutectic_plot import liquidus_plot
 from ionicity.pipelines.melting_cli import MissingExtraError, require_extra
 from ionicity.scorer.caution import caution_sentence
 from ionicity.scorer.liquidus import liquidus_K, minimum_liquidus
-from ionicity.scorer.mixture import compound_note, published_point, system_components
-from ionicity.scorer.record import score_row
+from ionicity.scorer.mixture import (NETWORK_MELT_CLASSES, compound_note, network_melt_warning, published_point,
+                                     system_components)
+from ionicity.scorer.record import score_formula, score_row
 
 __all__ = ["add_eutectic_parser", "run_eutectic", "rank_pairs", "CAUTION", "INSTALL_HINT", "PAIR_COLUMNS"]
 
@@ -125,6 +126,10 @@ def _run_system(args) -> int:
                      f" it gives {ideal:.0f} K, and the published point lies {ideal - published['liquidus_K']:.0f} K below it")
     if note:
         lines.append(f"note: {note}")
+    networks = [m.name for m, text in zip(melts, texts)
+                if score_formula(text)["substance_class"] in NETWORK_MELT_CLASSES] if all(m.ionic for m in melts) else []
+    if networks:
+        lines.append(f"warning: {network_melt_warning(networks)}")
     if plot_path:
         liquidus_plot(melts, fractions, result, published, plot_path)
         lines.append(f"plot: {plot_path}")

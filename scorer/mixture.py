@@ -477,7 +477,16 @@ def _states_text(values) -> str | None:
 
 
 # components whose melt is no simple-ion liquid: chains and layers (ZnCl2, BeCl2), molecules (AlCl3 as Al2Cl6)
-_NETWORK_MELT_CLASSES = frozenset({"chain_layer_solid", "covalent_molecular", "covalent_network"})
+NETWORK_MELT_CLASSES = frozenset({"chain_layer_solid", "covalent_molecular", "covalent_network"})
+
+
+def network_melt_warning(names) -> str:
+    """The warning of a liquidus estimate from the simple-ion model where components (``names``) form networks
+    or complex ions in the melt (ZnCl4(2-) with a partner's chloride): the estimate can be far off
+    (``ZnCl2:ChCl 2:1`` reads 110 K; it freezes near 297 K, Abbott et al., Inorg. Chem. 2004, 43, 3447, from
+    memory). The mixture rows and ``ionicity eutectic`` say it."""
+    return (f"liquidus estimate: {', '.join(names)} is not a simple-ion salt (its melt forms complex ions or"
+            " networks with the other components), so the estimate can be far off; check measured data")
 
 
 def _liquidus(mixture: Mixture) -> tuple[float, str, list[str]]:
@@ -541,14 +550,10 @@ def _record(mixture: Mixture) -> tuple:
         gaps.append(WATER_CAUTION)
     warnings = list(mixture.warnings)
     networks = [c.name for c, r in zip(mixture.components, records)
-                if r[position["substance_class"]] in _NETWORK_MELT_CLASSES]
+                if r[position["substance_class"]] in NETWORK_MELT_CLASSES]
     if networks and liquidus == liquidus and all(m is not None and m.ionic for m in map(_melt, mixture.components)):
-        # the Temkin and regular-solution model counts simple ions; ZnCl2, AlCl3, BeF2-like melts form complex
-        # anions and networks with a partner's halide (ZnCl4(2-), AlCl4(-)), and the estimate can be far off
-        # (ZnCl2:ChCl 2:1 reads 110 K; it freezes near 297 K, Abbott et al., Inorg. Chem. 2004, 43, 3447, from memory)
-        warnings.append(f"liquidus estimate: {', '.join(networks)} is not a simple-ion salt (its melt forms complex"
-                        " ions or networks with the other components), so the estimate can be far off; check"
-                        " measured data")
+        # the Temkin and regular-solution model counts simple ions (network_melt_warning)
+        warnings.append(network_melt_warning(networks))
     verdict = finalise(warnings=warnings, gaps=gaps)
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message

@@ -159,3 +159,13 @@ def test_explain_a_mixture_shows_every_component(capsys):
     for name in ("component LiF", "component NaF", "component KF", "liquidus_estimate_K", "fusion: melts at"):
         assert name in out
     assert out.count("lattice_energy_vbt_kJ_mol") >= 3  # each component's own lattice energy
+
+
+def test_eutectic_of_a_network_forming_salt_is_flagged(capsys):
+    # ZnCl2 with KCl forms ZnCl4(2-) (K2ZnCl4; ACerS-NIST Phase Equilibria Diagrams, KCl-ZnCl2, from memory):
+    # the simple-ion estimate is far below the measured eutectic, and the command says so, as the mixture rows do
+    assert main(["eutectic", "ZnCl2", "KCl", "--no-plot"]) == 0
+    out = capsys.readouterr().out
+    assert "warning: liquidus estimate: ZnCl2 is not a simple-ion salt" in out
+    assert main(["eutectic", "LiCl", "KCl", "--no-plot"]) == 0
+    assert "not a simple-ion salt" not in capsys.readouterr().out
