@@ -494,12 +494,12 @@ def _registry_molecule_readings(remaining: dict[str, float], readings, notes: li
     [N1112][HCO3]; C3H6N6 melamine, not guanidinium dicyanamide; C6H12N4 hexamethylenetetramine, not
     [N1111][dca] (325 registry molecules had read as salts). An acid's reading stands (acetic acid). Where the
     salt is one of an aprotic ionic-liquid cation, ``notes`` gets the warning that the formula reads as both."""
-    name = registry_molecule(hill_formula(remaining))
-    if name is None:
-        return readings
     acids = _acid_readings(readings)
     salts = [r for r in readings if r not in acids]
     if not salts:
+        return readings  # an acid's reading only: no registry to ask (its table loads only when needed)
+    name = registry_molecule(hill_formula(remaining))
+    if name is None:
         return readings
     penalty, terms = min(salts, key=lambda r: r[0])
     if not acids and any(ion.charge > 0 and ion.family in _IONIC_LIQUID_CATIONS for ion, _ in terms) and any(
