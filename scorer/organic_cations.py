@@ -19,7 +19,7 @@ from ionicity.scorer.grammar import hill_formula
 from ionicity.scorer.ion_library import ions_by_composition, monatomic_ion
 from ionicity.scorer.ion_penalties import _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
 from ionicity.scorer.model import Ion
-from ionicity.scorer.organic_anions import built_organic_ion
+from ionicity.scorer.organic_anions import _ALLOWED, built_organic_ion
 
 __all__ = ["AMINE_SALT_SOURCE", "amine_salt_readings", "registry_halide_salt_readings"]
 
@@ -27,9 +27,12 @@ AMINE_SALT_SOURCE = (
     "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic base protonated by"
     " the hydrogen halide the formula or name writes"
 )
+REGISTRY_SALT_SOURCE = (
+    "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic cation of a formula"
+    " the registry lists only as a salt, beside its halide ions"
+)
 # cation families that are the protonated form of a base (a hydrochloride's cation is never quaternary)
 _PROTIC_FAMILIES = frozenset({"ammonium-protic", "amidinium", "ammonium-like", "cholinium"})
-_ALLOWED = frozenset({"C", "H", "N", "O", "S", "P", "F", "Cl", "Br", "I"})
 
 
 def protonated_base(composition: dict[str, float], charge: int) -> Ion:
@@ -55,19 +58,29 @@ def amine_salt_readings(remaining: dict[str, float], halide: str, n: int) -> tup
         return [], []
     if "C" not in remaining or "H" not in remaining or not set(remaining) <= _ALLOWED:
         return [], []
-    rest = {s: k for s, k in remaining.items() if s != halide or k > n + 1e-9}
-    if halide in rest:
-        rest[halide] = remaining[halide] - n
+    rest = _without_halides(remaining, halide, n)
     # a library cation only where the composition has no other amine (one carbon: methylammonium, guanidinium):
     # C2H8N(+) is ethylammonium or dimethylammonium, and the formula cannot say which
     listed = [ion for ion in ions_by_composition(rest, n) if ion.family in _PROTIC_FAMILIES and rest["C"] <= 1]
     cation = listed[0] if listed else protonated_base(rest, n)
-    anion = monatomic_ion(halide, -1)
     # a library cation needs no word; one built by rule is said, as the organic anions built by rule are
     notes = [] if listed else [f"{cation.ion_id}: the organic base protonated by the H{halide} the text writes,"
                                " a cation the ion library does not list (built by rule, scorer/organic_cations.py)"]
-    penalty = (0.0 if listed else _PENALTY_UNCOMMON_ION) + 2 * _PENALTY_SPECIES
-    return [(penalty, [(cation, 1.0), (anion, float(n))])], notes
+    return _halide_salt(cation, halide, n, 0.0 if listed else _PENALTY_UNCOMMON_ION), notes
+
+
+def _without_halides(remaining: dict[str, float], halide: str, n: int) -> dict[str, float]:
+    """``remaining`` less ``n`` atoms of ``halide`` (the halide ions): the cation's composition."""
+    rest = dict(remaining)
+    rest[halide] -= n
+    if rest[halide] < 1e-9:
+        del rest[halide]
+    return rest
+
+
+def _halide_salt(cation, halide: str, n: int, cation_penalty: float) -> list:
+    """The one reading of ``cation`` beside ``n`` halide ions, priced like the solver's readings."""
+    return [(cation_penalty + 2 * _PENALTY_SPECIES, [(cation, 1.0), (monatomic_ion(halide, -1), float(n))])]
 
 
 _HALIDES = ("Cl", "Br", "I")
@@ -94,18 +107,9 @@ def registry_halide_salt_readings(remaining: dict[str, float], name: str) -> tup
     n = int(min(remaining[halide], remaining["N"]))
     if n < 1 or any(abs(k - round(k)) > 1e-9 for k in remaining.values()):
         return [], []
-    rest = dict(remaining)
-    rest[halide] -= n
-    if rest[halide] < 1e-9:
-        del rest[halide]
+    rest = _without_halides(remaining, halide, n)
     cation = built_organic_ion(f"[{hill_formula(rest)}]", rest, n, "organic-cation", "organic cation",
                                REGISTRY_SALT_SOURCE)
     note = (f"{cation.ion_id}: an organic cation beside {n} {halide}(-), read so because the registry lists"
             f" this formula only as a salt ({name}); built by rule (scorer/organic_cations.py)")
-    return [(_PENALTY_UNCOMMON_ION + 2 * _PENALTY_SPECIES, [(cation, 1.0), (monatomic_ion(halide, -1), float(n))])], [note]
-
-
-REGISTRY_SALT_SOURCE = (
-    "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic cation of a formula"
-    " the registry lists only as a salt, beside its halide ions"
-)
+    return _halide_salt(cation, halide, n, _PENALTY_UNCOMMON_ION), [note]
