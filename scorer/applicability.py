@@ -403,6 +403,16 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
         f"van Arkel-Ketelaar triangle at the contact: dchi = {bond.delta_chi_pauling:.2f}, mean chi ="
         f" {bond.mean_chi_pauling:.2f} -> {bond.bond_type}; Fajans covalency risk {risk}"
     )
+    if bond.bond_type in _NONPOLAR_BOND_TYPES and anion_elements <= _SEMICONDUCTOR_ANIONS and all(
+            t.ion.monatomic for t in dec.anions) and all(t.ion.monatomic and t.ion.element != "H"
+                                                         for t in dec.cations):
+        # PbTe, SnTe, Bi2Te3, Sb2Te3, Ag2Te, Cd3As2: the chalcogenides and pnictides the Phillips table does
+        # not list, whose contact bond is hardly polar
+        return "semiconductor", "not_applicable", [
+            where + ": a chalcogenide or pnictide with dchi below 0.5, a covalent (narrow-gap) semiconductor or"
+            " semimetal, not a point-ion crystal (lead and tin chalcogenides, Bi2Te3, Sb2Te3: Madelung,"
+            " Semiconductors: Data Handbook, 3rd ed., Springer 2004; from memory)"
+        ]
     if charge == 4:
         return "ionic_salt", "strained", [
             f"a bare 4+ cation ({', '.join(t.ion.ion_id for t in dec.cations if t.ion.charge == 4)}) polarises its"
@@ -454,6 +464,12 @@ def _assess(dec: Decomposition, hydrated: bool = False) -> tuple[str, str, list[
     }.get(cls, cls.replace("_", " "))
     return cls, "not_applicable", [why]
 
+
+# below Pauling's dchi = 0.5 the van Arkel-Ketelaar triangle has no polar region (scorer.character)
+_NONPOLAR_BOND_TYPES = frozenset({"covalent", "covalent_metallic", "metallic"})
+# monatomic anions of the salts that can be covalent semiconductors (not O, N or the halogens, whose
+# compounds never fall below dchi 0.5 with a metal)
+_SEMICONDUCTOR_ANIONS = frozenset({"P", "As", "Sb", "Bi", "S", "Se", "Te"})
 
 # the +1 state of these elements forms salts although their main list starts at +3 (InCl, InBr, InI;
 # Ga(+) in Ga[GaCl4]; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 7.3; from memory)

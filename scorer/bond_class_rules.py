@@ -60,6 +60,7 @@ from ionicity.scorer.substance import formal_oxidation_states
 __all__ = [
     "ORGANOMETALLIC_NOTE",
     "interstitial_nitride_reason",
+    "metal_rich_phase_reason",
     "layered_dichalcogenide_reason",
     "keeps_formal_salt_reading",
     "organometallic_reason",
@@ -174,6 +175,40 @@ def interstitial_nitride_reason(counts: dict[str, float]) -> str | None:
         " metallic conductor (an interstitial phase), not a salt of N(3-) (Haegg, Z. Phys. Chem. B 1931, 12,"
         " 33; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.2; from memory);"
         " its formal ionic reading is kept for the melting index only"
+    )
+
+
+def metal_rich_phase_reason(counts: dict[str, float]) -> str | None:
+    """Why a composition that no ion reading balances is a metal-rich phase; None otherwise.
+
+    Asked only after the ion solver found nothing: a nitride of the group 4-10
+    metals (Fe4N, Mn4N: :func:`interstitial_nitride_reason`), or a sulfide,
+    selenide or telluride of d-block metals with at least two metal atoms per
+    chalcogen atom (Pd4S, Ta2S, Nb21S8), whose metal atoms bond to each other
+    in clusters and chains (Franzen, Prog. Solid State Chem. 1978, 12, 53;
+    from memory). Oxides and halides are left out: there a formula without a
+    reading is far more often a typing slip than a suboxide (Ti3O, Cs11O3).
+
+    >>> metal_rich_phase_reason({"Pd": 4.0, "S": 1.0}) is not None
+    True
+    >>> metal_rich_phase_reason({"Fe": 4.0, "O": 1.0}), metal_rich_phase_reason({"Na": 3.0, "S": 1.0})
+    (None, None)
+    """
+    nitride = interstitial_nitride_reason(counts)
+    if nitride is not None:
+        return nitride.split("; its formal ionic reading")[0] + "; no ion reading balances its counts"
+    metals = [s for s in counts if is_metal(s)]
+    chalcogens = [s for s in counts if s in _CHALCOGENS]
+    if not metals or not chalcogens or len(metals) + len(chalcogens) != len(counts):
+        return None
+    if not all(_d_group(m) is not None for m in metals):
+        return None
+    if sum(counts[m] for m in metals) < 2.0 * sum(counts[x] for x in chalcogens) - 1e-9:
+        return None
+    return (
+        "a metal-rich chalcogenide of d-block metals (at least two metal atoms per chalcogen atom, and no ion"
+        " reading balances): metal-metal bonds in clusters and chains, a metallic conductor, not a salt"
+        " (Franzen, Prog. Solid State Chem. 1978, 12, 53; from memory)"
     )
 
 

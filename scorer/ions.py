@@ -29,13 +29,13 @@ import dataclasses
 import itertools
 
 from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
-from ionicity.scorer.bond_class_rules import organometallic_reason
+from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
-from ionicity.scorer.elements import is_metal
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
@@ -308,6 +308,15 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
                 composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                 substance_class="covalent_molecular", notes=(organometallic,),
             )
+    if chosen is None and not comp.ion_hints:
+        # Fe4N, Pd4S: more metal than any ion reading can balance, a metal-rich phase
+        metal_rich = metal_rich_phase_reason(counts)
+        if metal_rich is not None:
+            return Decomposition(
+                composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+                oxidation_states=tuple((s, 0.0) for s in counts), substance_class="intermetallic",
+                ionic_model="not_applicable", ionic_model_reasons=(metal_rich,),
+            )
     if not readings:
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
@@ -529,9 +538,32 @@ def _woehler_isomer(readings) -> bool:
     return "NH4(+)" in ids and bool(ids - {"NH4(+)"}) and ids - {"NH4(+)"} <= _WOEHLER_ANIONS
 
 
+def reversed_polarity(terms) -> bool:
+    """Whether a reading makes a non-metal (or metalloid) a monatomic cation beside a monatomic anion of a
+    less electronegative element: Te(4+) with Ge(4-) for GeTe. An oxidation
+    number gives the bonding electrons to the more electronegative partner (IUPAC Red Book 2005, IR-4.6.1),
+    so such a reading is not a reading of the compound at all.
+
+    >>> reversed_polarity([(get_ion("Te(4+)"), 1.0), (get_ion("Ge(4-)"), 1.0)])
+    True
+    >>> reversed_polarity([(get_ion("Ge(4+)"), 1.0), (get_ion("O(2-)"), 2.0)])
+    False
+    """
+    # hydrogen keeps +1 beside the non-metals by convention (H2Te and H2Se are acids), whatever the scale says
+    cations = [ion.element for ion, _ in terms
+               if ion.monatomic and ion.charge > 0 and not is_metal(ion.element) and ion.element != "H"]
+    if not cations:
+        return False
+    anions = [ion.element for ion, _ in terms if ion.monatomic and ion.charge < 0]
+    chi = {s: get_element(s).electronegativity_pauling for s in {*cations, *anions}}
+    return any(chi[c] is not None and chi[a] is not None and chi[c] > chi[a] for c in cations for a in anions)
+
+
 def _best(readings):
     """(cations, anions, alternatives, penalty) of the most plausible reading; None when
-    no reading is plausible enough to be ionic."""
+    no reading is plausible enough to be ionic (or none gives the electrons to the more
+    electronegative element, :func:`reversed_polarity`)."""
+    readings = [r for r in readings if not reversed_polarity(r[1])]
     if not readings:
         return None
     best_penalty = min(p for p, _ in readings)

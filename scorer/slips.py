@@ -226,13 +226,35 @@ def _parsed_penalty(text: str) -> float:
     """The part of :func:`reading_penalty` that needs no solver: rare elements,
     absurd counts, 0.5 per element (``inf`` when the text does not parse)."""
     comp = _parsed(text)
-    if comp is None:
+    if comp is None or _impossible_noble_gas_compound(dict(comp.counts)):
         return math.inf
     penalty = 0.5 * len(comp.counts)
     for symbol, count in comp.counts:
         if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
             penalty += 3.0
     return penalty + 4.0 * sum(map(_absurd_counts(comp.counts).__contains__, (s for s, _ in comp.counts)))
+
+
+# He, Ne and Ar form no compounds; Kr and Xe only with the most electronegative partners (KrF2, XeF6,
+# XeO3, XeOF4; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 18.3; from memory)
+_INERT_GASES = frozenset({"He", "Ne", "Ar"})
+_HEAVY_NOBLE_GASES = frozenset({"Kr", "Xe"})
+_NOBLE_GAS_PARTNERS = frozenset({"F", "O", "Cl"})
+
+
+def _impossible_noble_gas_compound(counts: dict[str, float]) -> bool:
+    """Whether a formula of several elements holds a noble gas in a compound none forms: a re-cased word
+    ("brine" read as BrINe, with neon) is no correction.
+
+    >>> _impossible_noble_gas_compound({"Br": 1, "I": 1, "Ne": 1}), _impossible_noble_gas_compound({"Xe": 1, "F": 2})
+    (True, False)
+    """
+    if len(counts) < 2:
+        return False
+    if any(s in _INERT_GASES for s in counts):
+        return True
+    return any(s in _HEAVY_NOBLE_GASES for s in counts) and not all(
+        s in _HEAVY_NOBLE_GASES or s in _NOBLE_GAS_PARTNERS for s in counts)
 
 
 def _reads_as_elements(content: str) -> bool:

@@ -199,7 +199,11 @@ def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str]
     this runs for every molecule scored, and an inventory's molecules share a few
     sets (C, H, N, O); a third of the call's cost before."""
     chi = {s: _electronegativity(s) for s in symbols}
-    by_chi = sorted(symbols, key=chi.__getitem__)
+    # beside a non-metal a metal is never the negative partner, whatever the scale says: gold and
+    # platinum (Pauling 2.54, 2.28) are the positive partners of tellurium (2.10) in AuTe2 and PtTe2
+    # (common practice; the aurides and platinides are compounds of metals alone, CsAu, Cs2Pt)
+    nonmetal = any(not is_metal(s) for s in symbols)
+    by_chi = sorted(symbols, key=lambda s: (nonmetal and not is_metal(s), chi[s]))
     most = by_chi[-1]
     chi_most = chi[most]
     ranges = {s: _state_range(s) for s in symbols}
