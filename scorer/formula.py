@@ -81,8 +81,9 @@ _SPACED_TIMES = re.compile(r"\s+[xX]\s+(?=\d*(?:\.\d+)?\s?[A-Z(\[])")
 # " x " between salt and water stays a multiplication sign ("LiF x H2O" is LiF·H2O, tests/test_properties.py)
 _SPACED_X_WATER = re.compile(r"\s*[·.*•∙⋅]\s*[xXn]\s+(?=H2O\s*$)")
 _SPACED_UNSTATED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=[xn]H2O\s*$)")
-# "MgSO4 7H2O": a space typed for the hydrate dot before a counted water at the end
-_SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])\s+(?=\d+(?:\.\d+)?\s*[HDT]2O\s*$)")
+# "MgSO4 7H2O": a space typed for the hydrate dot before a counted water at the end; "CuSO4-5H2O": a dash
+# (spreadsheets and catalogues; common practice)
+_SPACED_WATER = re.compile(r"(?<=[A-Za-z0-9)\]}])(?:\s+(?=\d)|\s*-\s*)(?=\d*(?:\.\d+)?\s*[HDT]2O\s*$)")
 # Molecules that follow a dot as an adduct, so "CaCl2.2NH3" is read as an
 # adduct and not as the decimal count "2.2"; heavy water (D2O, T2O) too.
 _ADDUCT_AFTER_DOT = re.compile(r"\d*(?:\.\d+)?(?:[HDT]2O2|[HDT]2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)(?![a-z])")

@@ -39,6 +39,7 @@ from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
+from ionicity.scorer.mixing import corrosive_note, mixing_warning
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
 from ionicity.scorer.formula import (
@@ -549,6 +550,14 @@ def _record(mixture: Mixture) -> tuple:
     if any(WATER_CAUTION in (r[position["value_notes"]] or "") for r in records):
         gaps.append(WATER_CAUTION)
     warnings = list(mixture.warnings)
+    parts = [(c.name, r[position["substance_class"]] or "", r[position["cations"]], r[position["anions"]])
+             for c, r in zip(mixture.components, records)]
+    hazard = mixing_warning(parts)
+    if hazard:
+        warnings.append(hazard)
+    corrosive = corrosive_note(parts)
+    if corrosive:
+        gaps.append(corrosive)
     networks = [c.name for c, r in zip(mixture.components, records)
                 if r[position["substance_class"]] in NETWORK_MELT_CLASSES]
     if networks and liquidus == liquidus and all(m is not None and m.ionic for m in map(_melt, mixture.components)):

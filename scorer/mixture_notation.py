@@ -296,8 +296,13 @@ def read_mixture_text(text: str) -> MixtureText | None:
         if joined_by in ("+", "·"):
             return None
         raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
-    if joined_by not in ("/", ":") and any(_ADDUCT.match(p) for p in parts[1:]):
-        return None  # a hydrate or adduct written with '+' ("CaSO4+2H2O"): the compound reading
+    adducts = [p for p in parts[1:] if _ADDUCT.match(p)]
+    if joined_by not in ("/", ":") and not amounts and adducts and (
+            joined_by != "-" or any(p[:1].isdigit() or p.endswith("H2O") and "H2O2" not in p for p in adducts)):
+        # a hydrate or adduct written with '+' ("CaSO4+2H2O") or with a dash before water or a counted adduct
+        # ("CuSO4-5H2O"): the compound reading; with proportions after the components ("H2SO4-H2O2 (3:1)",
+        # "NaOH-H2O (1:1)"), or a dash before another molecule ("H2SO4-H2O2"), it is a mixture
+        return None
     names, leading, leading_basis, balance_note = _leading_amounts(parts)
     if leading and amounts:
         raise MixtureNotationError(f"{text!r} gives both leading amounts and proportions after the components; give one")

@@ -27,9 +27,12 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 
+from ionicity.scorer.caching import once
 from ionicity.scorer.caution import CAUTION
+from ionicity.scorer.name_vocabulary import compact
+from ionicity.scorer.tables import table
 
-__all__ = ["Solution", "split_solution", "split_in_solvent", "solution_note", "split_grade_words", "CORROSIVE_CLASSES"]
+__all__ = ["Solution", "named_solution", "split_solution", "split_in_solvent", "solution_note", "split_grade_words", "CORROSIVE_CLASSES"]
 
 # substance classes whose solutions are corrosive (common practice)
 CORROSIVE_CLASSES = frozenset({"acid", "base"})
@@ -61,6 +64,32 @@ class Solution:
     solute: str
     concentration: str
     solvent: str = field(default="", repr=False)
+    # a solution named by a trivial name (scorer/data/solution_names.csv): the name and its caution
+    name: str = field(default="", repr=False)
+    caution: str = field(default="", repr=False)
+
+
+@once
+def _solution_names() -> dict[str, dict[str, str]]:
+    return {compact(row["name"]).replace("'", ""): row for row in table("solution_names.csv")}
+
+
+def named_solution(text: str) -> Solution | None:
+    """The solution a trivial name means ("brine", "bleach", "normal saline", "formalin";
+    ``scorer/data/solution_names.csv``), with its usual strength and caution; None for other text.
+
+    >>> s = named_solution("Normal saline")
+    >>> s.solute, s.concentration
+    ('NaCl', '0.9 % w/v')
+    >>> named_solution("bleach").caution[:24], named_solution("NaCl") is None
+    ('never mix with acids (it', True)
+    """
+    if not isinstance(text, str) or len(text) > 60:
+        return None
+    row = _solution_names().get(compact(text).replace("'", "").replace("’", ""))
+    if row is None:
+        return None
+    return Solution(row["solute"], row["concentration"], name=row["name"], caution=row["caution"])
 
 
 # a solute in a named solvent, as electrolyte and stock-solution labels write it:
@@ -108,7 +137,8 @@ def split_in_solvent(text: str) -> Solution | None:
 
 def split_solution(text: str) -> Solution | None:
     """The solute and the concentration written after it, or None when the
-    text names no concentration or grade.
+    text names no concentration or grade. A solution's trivial name
+    (:func:`named_solution`), alone or with a strength ("bleach 5 %"), is that solution.
 
     Parameters
     ----------
@@ -123,6 +153,19 @@ def split_solution(text: str) -> Solution | None:
     """
     if not isinstance(text, str) or len(text) > 200:
         return None
+    named = named_solution(text)
+    if named is not None:
+        return named
+    found = _split_solution(text)
+    if found is not None and not found.name:
+        inner = named_solution(found.solute)
+        if inner is not None:
+            return Solution(inner.solute, found.concentration or inner.concentration, name=inner.name,
+                            caution=inner.caution)
+    return found
+
+
+def _split_solution(text: str) -> Solution | None:
     body = _STATE.sub(" ", text).strip()
     stated = body != text.strip()  # "solution", "soln.", "(aq)", "aq." was written
     tail = _BRACKETED_TAIL.search(body)
@@ -173,9 +216,12 @@ def solution_note(solution: Solution, substance_class: str) -> str:
     """
     strength = f" ({solution.concentration})" if solution.concentration else ""
     solvent = f" in {solution.solvent}" if solution.solvent else ""
-    note = f"a solution{strength}{solvent}: the values are for the pure solute, not for the solution"
+    named = f" ('{solution.name}' read as a solution of {solution.solute})" if solution.name else ""
+    note = f"a solution{strength}{solvent}{named}: the values are for the pure solute, not for the solution"
     if solution.solvent:
         note += "; the solvent is not scored"
+    if solution.caution:
+        note += f"; caution: {solution.caution} (read the safety data sheet before handling it)"
     if substance_class in CORROSIVE_CLASSES:
         note += (
             f"; a solution of {'an' if substance_class[0] in 'aeiou' else 'a'} {substance_class} is corrosive:"

@@ -50,7 +50,7 @@ def test_a_solution_of_unstated_strength_is_its_solute(label, formula):
     assert "a solution" in row["value_notes"]
 
 
-@pytest.mark.parametrize("word", ["Unknown", "Buffer", "Solution", "Sample", "Bleach"])
+@pytest.mark.parametrize("word", ["Unknown", "Buffer", "Solution", "Sample", "Reagent"])  # "Bleach" is a named solution now
 def test_inventory_words_are_not_recased_into_formulas(word):
     # "Unknown" was read as UNKNOWN (U, N, K, O, W), "Buffer" as BUFFEr: a capitalised word of six letters or
     # more is a word, never a formula that lost its case (common practice)

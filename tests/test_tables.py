@@ -41,6 +41,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 36,
     "trivial_names.csv": 115,
+    "solution_names.csv": 19,
     "registry_names.csv": 13415,
     "fusion.csv": 38,
     "blends.csv": 10,

@@ -1,0 +1,99 @@
+"""Named solutions, hazardous mixtures and water in mixture notation.
+
+* ``scorer/data/solution_names.csv`` (``scorer.solutions.named_solution``): "brine", "saline", "bleach",
+  "formalin" and the like were errors ("brine" was even read as BrINe, with neon); they are solutions of
+  their solute, with the usual strength and the caution the name calls for. Solutes and strengths: The
+  Merck Index, 15th ed., 2013 (from memory), or common practice, as each row says.
+* ``scorer.mixing``: an oxidiser mixed with an acid or a fuel (aqua regia, piranha, bleach with acid or
+  ammonia, nitrate or perchlorate with a fuel) came back ``ok``; such a row now warns (Bretherick's
+  Handbook of Reactive Chemical Hazards, 7th ed., 2007; from memory). Blends of oxidising salts alone
+  (solar salt, HITEC) do not.
+* ``scorer.mixture_notation``: water or hydrogen peroxide as a component ("H2SO4-H2O2 (3:1)",
+  "NaOH-H2O (1:1)") failed with a parse error about charges; a dash before water ("CuSO4-5H2O") is the
+  hydrate dot (common practice).
+"""
+from __future__ import annotations
+
+import pytest
+
+from ionicity.scorer.record import score_formula
+from ionicity.scorer.slips import find_slip
+
+
+@pytest.mark.parametrize("text, solute, strength", [
+    ("brine", "NaCl", None),
+    ("Normal saline", "NaCl", "0.9 % w/v"),     # sodium chloride injection, 0.9 % w/v (from memory)
+    ("bleach", "NaClO", None),
+    ("bleach 5%", "NaClO", "5 %"),              # a strength written after the name wins
+    ("Dakin's solution", "NaClO", "0.5 %"),
+    ("formalin", "CH2O", "37 %"),               # formaldehyde about 37 % (Merck Index, from memory)
+    ("baryta water", "Ba(OH)2", "sat."),
+    ("aqua fortis", "HNO3", None),
+    ("ammonia water", "NH3", None),
+])
+def test_named_solutions_are_their_solute(text, solute, strength):
+    out = score_formula(text)
+    assert out["status"] == "ok"
+    assert out["formula_normalized"] == solute
+    assert out["concentration_as_written"] == strength
+    assert "the values are for the pure solute" in out["value_notes"]
+
+
+@pytest.mark.parametrize("text", ["bleach", "household bleach", "Javel water"])
+def test_bleach_says_never_mix_it_with_acids_or_ammonia(text):
+    # hypochlorite with acid releases chlorine, with ammonia chloramines (Bretherick, from memory)
+    notes = score_formula(text)["value_notes"]
+    assert "never mix with acids" in notes and "ammonia" in notes and "safety data sheet" in notes
+
+
+def test_a_word_with_a_noble_gas_is_no_typing_slip():
+    # "brine" re-cased is Br, I, Ne: neon forms no compounds (Greenwood & Earnshaw, 2nd ed., 1997,
+    # ch. 18.3; from memory)
+    assert find_slip("brine") is None or "Ne" not in (find_slip("brine").suggested or "")
+    assert find_slip("NACL").suggested == "NaCl"  # real slips are still found
+
+
+@pytest.mark.parametrize("text, oxidiser, partner", [
+    ("HCl-HNO3 (3:1)", "HNO3", "HCl"),                      # aqua regia
+    ("H2SO4-H2O2 (3:1)", "H2O2", "H2SO4"),                  # piranha
+    ("NaClO-HCl (1:1)", "NaClO", "HCl"),                    # bleach and acid: chlorine
+    ("NaClO-NH3 (1:1)", "NaClO", "NH3"),                    # bleach and ammonia: chloramines
+    ("KNO3-S-C (75:10:15 wt%)", "KNO3", "S"),               # black powder
+    ("KClO4-Al (70:30 wt%)", "KClO4", "Al"),                # flash powder
+    ("NH4NO3-C12H26 (94:6 wt%)", "NH4NO3", "C12H26"),      # ammonium nitrate with fuel oil
+])
+def test_an_oxidiser_with_an_acid_or_a_fuel_warns(text, oxidiser, partner):
+    out = score_formula(text)
+    assert out["status"] == "warning"
+    assert f"mixing hazard: {oxidiser} is an oxidiser and {partner}" in out["message"]
+    assert "safety data sheets" in out["message"]
+
+
+@pytest.mark.parametrize("text", ["solar salt", "HITEC", "FLiNaK", "ChCl:urea 1:2", "KNO3-NaCl (1:1)",
+                                  "[C4mim][BF4]-LiBF4 (1:1)"])
+def test_blends_without_such_a_pair_do_not(text):
+    assert "mixing hazard" not in (score_formula(text)["message"] or "")
+
+
+def test_a_mixture_with_an_acid_or_a_base_is_called_corrosive():
+    assert "corrosive" in score_formula("NaOH-H2O (1:1)")["value_notes"]
+    assert "corrosive" not in (score_formula("NaCl-KCl (1:1)")["value_notes"] or "")
+
+
+@pytest.mark.parametrize("text, normalized", [
+    ("H2SO4-H2O2 (3:1)", "H2SO4-H2O2 (75-25 mol%)"),
+    ("NaOH-H2O (1:1)", "NaOH-H2O (50-50 mol%)"),
+    ("H2SO4-H2O2", "H2SO4-H2O2 (50-50 mol%)"),              # equal moles assumed, with a warning
+])
+def test_water_and_peroxide_are_mixture_components(text, normalized):
+    out = score_formula(text)
+    assert out["substance_class"] == "mixture" and out["formula_normalized"] == normalized
+
+
+@pytest.mark.parametrize("text, normalized", [
+    ("CuSO4-5H2O", "CuSO4·5H2O"), ("CuSO4 - 5H2O", "CuSO4·5H2O"), ("CuSO4-H2O", "CuSO4·H2O"),
+    ("CaSO4+2H2O", "CaSO4·2H2O"),
+])
+def test_a_dash_before_water_is_the_hydrate_dot(text, normalized):
+    out = score_formula(text)
+    assert out["status"] == "ok" and out["formula_normalized"] == normalized
