@@ -380,7 +380,9 @@ COLUMNS: tuple[Column, ...] = (
         "melting_class", "string", "",
         "band of the trend temperature; salts keep the trade's names, other compounds names of their own: "
         + _BANDS_TEXT + "; from mp_trend_index, so as rough as it; " + CAUTION,
-        "melting_class_for: bands of MELTING_CLASS_BANDS on 10**mp_trend_index in K",
+        "melting_class_for: bands of MELTING_CLASS_BANDS on 10**mp_trend_index in K; mixture: the band of"
+        " liquidus_estimate_K, with the salts' names when every component takes the salt route (empty without"
+        " an estimate, or where a component forms networks in the melt)",
         "ionic liquid: Wasserscheid & Welton, Ionic Liquids in Synthesis, 2008 (from memory); refractory: ISO 836"
         " (from memory); other bounds common practice",
     ),

@@ -39,6 +39,7 @@ from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
+from ionicity.scorer.melting_routes import melting_class_for
 from ionicity.scorer.mixing import corrosive_note, mixing_warning
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
@@ -563,6 +564,11 @@ def _record(mixture: Mixture) -> tuple:
     if networks and liquidus == liquidus and all(m is not None and m.ionic for m in map(_melt, mixture.components)):
         # the Temkin and regular-solution model counts simple ions (network_melt_warning)
         warnings.append(network_melt_warning(networks))
+    elif liquidus == liquidus:
+        # the band of the liquidus, as a compound's class is the band of its trend temperature: a salt blend
+        # keeps the trade's names (molten_salt, ionic_liquid), a blend with a molecular component the others
+        row[position["melting_class"]] = melting_class_for(
+            liquidus, salt=all(r[position["mp_route"]] == "salt" for r in records))
     verdict = finalise(warnings=warnings, gaps=gaps)
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message

@@ -52,7 +52,9 @@ MIXTURE_RULES: dict[str, str] = {
     # melting trend of one crystal do not apply (the liquidus columns replace the last)
     "lattice_energy_kapustinskii_kJ_mol": "empty", "lattice_energy_vbt_kJ_mol": "empty",
     "lattice_energy_born_mayer_kJ_mol": "empty", "lattice_energy_born_lande_kJ_mol": "empty",
-    "structure_type": "empty", "structure_type_origin": "empty", "mp_trend_index": "empty", "melting_class": "empty",
+    "structure_type": "empty", "structure_type_origin": "empty", "mp_trend_index": "empty",
+    # the band of the mixture's liquidus estimate (scorer.mixture)
+    "melting_class": "own",
     "water_behaviour": "each", "solution_ph": "each", "water_reaction_products": "each",
     "mixture_components": "own", "mixture_mole_fractions": "own", "liquidus_estimate_K": "own", "liquidus_method": "own",
 }
