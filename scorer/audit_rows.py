@@ -5,14 +5,16 @@ text is scored and change the row (:func:`audited_row`). Kept out of
 record passes its scoring functions in (no import circle)."""
 from __future__ import annotations
 
+import re
 from typing import Callable
 
+from ionicity.scorer.formula import laboratory_code
 from ionicity.scorer.name_reader import known_word_name
 from ionicity.scorer.slips import Slip, find_slip
 from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
-__all__ = ["slipped_row", "solution_row", "audited_row"]
+__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row"]
 
 
 def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
@@ -35,12 +37,50 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
         if named is not None:
             return parsed_row(named)
     if slip is None:
+        if CAPITALS_CODE.fullmatch(text):
+            return code_like_row(plain_row(text), text, position, error_row)
         return plain_row(text)
     if slip.suggested:
         row = plain_row(slip.suggested)
     else:
         row = plain_row(text) if slip.kind == "leading_zero" else error_row(slip.message)
     return slipped_row(row, slip, position)
+
+
+# a whole cell of three to six capitals, which reads as one-letter element symbols: the shape of a laboratory
+# abbreviation (PBS, NBS, BPO) as much as of a formula (KCN, KOH, KSCN)
+CAPITALS_CODE = re.compile(r"\s*[A-Z]{3,6}\s*")
+# the classes a formula of capitals usually means (KCN, HCN, KOH, KSCN, KOCN); any other reading of an
+# abbreviation-shaped text is said (common practice)
+_FORMULA_CLASSES = frozenset({"ionic_salt", "acid", "base", "ionic_liquid_pair"})
+# hydrogen isotopes where a capital code may mean them: semi-heavy water HDO, DTO
+_HYDROGEN_AND_OXYGEN = frozenset({"H", "D", "T", "O"})
+
+
+def code_like_row(row: tuple, text: str, position: dict[str, int], error_row: Callable[[str], tuple]) -> tuple:
+    """The row of a text of capitals alone that reads as a formula: an error where only deuterium or
+    tritium make it read ("SDS" as DS2, "DTT" as DT2, "BHT" as B, H, T: abbreviations, not isotopes), a
+    warning where the reading is neither a salt nor an acid or base ("PBS" as BPS, "NCS" as CNS); the
+    row unchanged otherwise (KCN, KOH, KSCN)."""
+    status, normalized = row[position["status"]], row[position["formula_normalized"]]
+    if status == "error" or not normalized or laboratory_code(text) is not None:
+        return row
+    symbols = set(_SYMBOLS.findall(normalized))
+    stripped = text.strip()
+    if symbols & {"D", "T"} and not symbols <= _HYDROGEN_AND_OXYGEN:
+        return error_row(
+            f"{stripped!r} reads as a formula only with deuterium or tritium ({normalized}): it looks like an"
+            " abbreviation the code table does not hold; write the formula or the name")
+    if row[position["substance_class"]] in _FORMULA_CLASSES or stripped.startswith("CH"):
+        return row  # a salt, acid or base (KCN, KOH), or an organic formula in Hill order (CHFO)
+    row = list(row)
+    verdict = with_warnings(Verdict(status, row[position["message"]] or "", row[position["value_notes"]] or ""), [
+        f"{stripped!r} read as the formula {normalized}; if it is an abbreviation, write the formula or the name"])
+    row[position["status"]], row[position["message"]] = verdict.status, verdict.message
+    return tuple(row)
+
+
+_SYMBOLS = re.compile(r"[A-Z][a-z]?")
 
 
 def slipped_row(row: tuple, slip: Slip, position: dict[str, int]) -> tuple:

@@ -464,13 +464,12 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
-    solvent = (_SOLVENT_CODES or _solvent_codes()).get(text_to_parse.strip().upper()) \
-        if _SOLVENT_CODE.fullmatch(text_to_parse) else None
+    solvent = laboratory_code(text_to_parse)
     if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
         solvent = deuterated_solvent(text_to_parse)
     if solvent is not None:
         formula, name = solvent
-        notes.append(f"read the solvent code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
+        notes.append(f"read the laboratory code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
     if "+" in text_to_parse and "-" in text_to_parse:
         pair = _written_ion_pair(text_to_parse)
@@ -714,14 +713,33 @@ _SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\s*")
 
 
 _SOLVENT_CODES: dict[str, tuple[str, str]] = {}
+_CODES_AS_WRITTEN: set[str] = set()
 
 
 def _solvent_codes() -> dict[str, tuple[str, str]]:
     """Upper-cased code -> (formula, name) of ``solvent_codes.csv``, read once (the parser then reads the module
     global, so an ordinary formula pays no call for the check)."""
     if not _SOLVENT_CODES:
-        _SOLVENT_CODES.update({row["code"].upper(): (row["formula"], row["name"]) for row in table("solvent_codes.csv")})
+        rows = table("solvent_codes.csv")
+        _CODES_AS_WRITTEN.update(row["code"] for row in rows)
+        _SOLVENT_CODES.update({row["code"].upper(): (row["formula"], row["name"]) for row in rows})
     return _SOLVENT_CODES
+
+
+def laboratory_code(text: str) -> tuple[str, str] | None:
+    """(formula, name) of a whole cell that is a laboratory code of ``solvent_codes.csv``; None otherwise.
+
+    >>> laboratory_code(" thf "), laboratory_code("NaCl"), laboratory_code("NiS")
+    (('C4H8O', 'tetrahydrofuran (oxolane)'), None, None)
+    """
+    if not isinstance(text, str) or not _SOLVENT_CODE.fullmatch(text):
+        return None
+    code = text.strip()
+    entry = (_SOLVENT_CODES or _solvent_codes()).get(code.upper())
+    if entry is None or code.isupper() or code.islower() or code == code.capitalize() or code in _CODES_AS_WRITTEN:
+        return entry
+    # other mixed case than the code's own is a formula's (NiS is nickel sulfide, not NIS; NbS not NBS)
+    return None
 
 
 # a deuterated solvent as NMR labs write it: "DMSO-d6", "THF-d8" (every hydrogen a deuterium)

@@ -46,7 +46,7 @@ from ionicity.scorer.model import Column
 from ionicity.scorer.formula import (
     _DEUTERATED_CODE, _HYPHENATED_PAIR, deuterated_solvent, ionic_liquid_pair_text, nonstoichiometric_text,
 )
-from ionicity.scorer.name_reader import parse_as_name
+from ionicity.scorer.name_reader import formula_with_hydrate_word, parse_as_name
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
 from ionicity.scorer.verdict import finalise
@@ -594,6 +594,8 @@ def mixture_row(text: str, score_row) -> tuple | None:
         return None  # a deuterated solvent ("DMSO-d6"), not a mixture
     if _HYPHENATED_PAIR.fullmatch(text) and ionic_liquid_pair_text(text) is not None:
         return None  # an ionic liquid's codes joined by a hyphen ("EMIM-BF4"), not a mixture
+    if formula_with_hydrate_word(text) is not None:
+        return None  # a formula with its hydrate word ("NiCl2 6-hydrate"), not a mixture
     label = POLYMORPH_LABEL.match(text)
     if label and not any(j in text[label.end():] for j in "-–:/+"):
         return None  # a structure label ("α-Al2O3", "2H-MoS2", "h-BN"), not a mixture

@@ -441,6 +441,32 @@ def _hydrate_prefixes() -> tuple[tuple[str, float], ...]:
     return tuple(sorted(rows, key=lambda item: -len(item[0])))
 
 
+# a formula with its hydrate word after it, as stock lists write it: "CuCl2 dihydrate", "Zn(NO3)2 hexahydrate",
+# "CaSO4 hemihydrate", "MgSO4 7-hydrate" (common practice)
+_FORMULA_THEN_HYDRATE_WORD = re.compile(r"^(?P<formula>\S+?)[\s,]+(?P<word>[A-Za-z0-9-]*hydrate)\s*$", re.I)
+
+
+def formula_with_hydrate_word(text: str) -> str | None:
+    """A formula followed by a hydrate word, written with its water: ``CuCl2 dihydrate`` ->
+    ``CuCl2·2H2O``; None for any other text (the name grammar reads names with hydrate words).
+
+    >>> formula_with_hydrate_word("Zn(NO3)2 hexahydrate"), formula_with_hydrate_word("CaSO4 hemihydrate")
+    ('Zn(NO3)2·6H2O', 'CaSO4·0.5H2O')
+    >>> formula_with_hydrate_word("sodium chloride") is None
+    True
+    """
+    m = _FORMULA_THEN_HYDRATE_WORD.match(text) if isinstance(text, str) and len(text) <= 200 else None
+    if m is None:
+        return None
+    word = compact(m.group("word")).replace("-", "")
+    if word == "hydrate":
+        return f"{m.group('formula')}·xH2O"  # water of unstated amount, as a catalogue's xH2O
+    rest, water = _split_hydrate_word(word)
+    if water is None or rest or water <= 0:
+        return None
+    return f"{m.group('formula')}·{water:g}H2O"
+
+
 def _split_hydrate_word(key: str) -> tuple[str, float | None]:
     """A compact key ``copper(ii)sulfatepentahydrate`` -> (``copper(ii)sulfate``,
     5.0); (key, None) when it does not end in a hydrate word of known count."""

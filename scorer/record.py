@@ -5,7 +5,7 @@ import math
 import re
 
 from ionicity.scorer.applicability import family_decided
-from ionicity.scorer.audit_rows import audited_row
+from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element, is_metal
@@ -25,7 +25,7 @@ from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
-from ionicity.scorer.name_reader import ambiguous_name, parse_as_name
+from ionicity.scorer.name_reader import ambiguous_name, formula_with_hydrate_word, parse_as_name
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.solutions import split_grade_words
@@ -358,6 +358,9 @@ def _score_text(text: str) -> tuple:
     # one scan: an ordinary formula (most texts) skips the mixture, solution and slip readers
     comp = ordinary_formula(text)
     if comp is not None:
+        if CAPITALS_CODE.fullmatch(text):
+            # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
+            return code_like_row(_parsed_row(comp), text, _layout()[1], _error_row)
         return _parsed_row(comp)
     return _read_row(text)
 
@@ -376,6 +379,8 @@ def _plain_row(text: str) -> tuple:
         comp = parse_formula(text)
     except FormulaError as exc:
         comp = parse_as_name(text)  # a name typed in the formula column ("choline chloride")
+        if comp is None:
+            comp = _with_hydrate_word(text)
         if comp is None:
             comp = without_grade_words(text)
             if comp is None:
@@ -408,6 +413,17 @@ def _unread_text_message(text: str, exc: FormulaError) -> str:
                 f" pentahydrate', and handbook names such as 'acetone'); write the formula instead (as a formula:"
                 f" {exc})")
     return str(exc)
+
+
+def _with_hydrate_word(text: str):
+    """A formula followed by its hydrate word ("CuCl2 dihydrate") parsed with its water; None otherwise."""
+    written = formula_with_hydrate_word(text)
+    if written is None:
+        return None
+    try:
+        return parse_formula(written).respelled(text)
+    except FormulaError:
+        return None
 
 
 def without_grade_words(text: str):

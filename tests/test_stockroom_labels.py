@@ -88,3 +88,67 @@ def test_a_prefix_inside_an_onium_name_is_no_count(name):
 ])
 def test_bracketed_and_listed_onium_names_still_read(name, formula):
     assert score_formula(name)["formula_normalized"] == formula
+
+
+# ---------------------------------------------------------------- hydrate words, laboratory codes, abbreviations
+
+@pytest.mark.parametrize("text, normalized", [
+    ("CuCl2 dihydrate", "CuCl2·2H2O"), ("Zn(NO3)2 hexahydrate", "Zn(NO3)2·6H2O"),
+    ("CaSO4 hemihydrate", "CaSO4·0.5H2O"), ("NiCl2 6-hydrate", "NiCl2·6H2O"),
+    ("KAl(SO4)2 dodecahydrate", "KAl(SO4)2·12H2O"),
+])
+def test_a_formula_with_its_hydrate_word_is_the_hydrate(text, normalized):
+    # the multiplying prefixes of IUPAC Red Book 2005, Table IV; hemi- 1/2 (common practice)
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["formula_normalized"] == normalized
+
+
+def test_a_formula_with_the_bare_word_hydrate_has_unstated_water():
+    row = score_formula("CuCl2 hydrate")
+    assert row["formula_normalized"] == "CuCl2" and "not stated" in row["message"]
+
+
+@pytest.mark.parametrize("code, formula", [
+    # molecular formulas checked against the registry package chemicals (search_chemical by name) where it
+    # holds the compound; otherwise common practice
+    ("SDS", "NaC12H25O4S"), ("DTT", "C4H10O2S2"), ("KHP", "KC8H5O4"), ("NBS", "C4H4BrNO2"),
+    ("AIBN", "C8H12N4"), ("TsOH", "C7H8O3S"), ("DMA", "C4H9NO"),
+])
+def test_reagent_codes_are_read_as_their_compound(code, formula):
+    row = score_formula(code)
+    assert row["formula_normalized"] == formula and "laboratory code" in row["message"]
+
+
+@pytest.mark.parametrize("name, code", [
+    ("sodium dodecyl sulfate", "SDS"), ("dithiothreitol", "DTT"), ("N-bromosuccinimide", "NBS"),
+    ("p-toluenesulfonic acid", "TsOH"), ("N,N-dimethylacetamide", "DMA"),
+])
+def test_reagent_codes_agree_with_the_registry(name, code):
+    chemicals = pytest.importorskip("chemicals")
+    from ionicity.scorer.formula import laboratory_code, parse_formula
+    hill = chemicals.identifiers.search_chemical(name).formula
+    assert parse_formula(laboratory_code(code)[0]).hill == parse_formula(hill).hill
+
+
+@pytest.mark.parametrize("formula", ["NiS", "NbS", "NiS·6H2O"])
+def test_a_formula_in_its_own_case_is_no_laboratory_code(formula):
+    # NiS is nickel sulfide, not NIS (N-iodosuccinimide); NbS niobium sulfide, not NBS
+    assert score_formula(formula)["substance_class"] == "ionic_salt"
+
+
+@pytest.mark.parametrize("text", ["TBS", "DSD", "BHTS"])
+def test_capitals_that_read_only_with_deuterium_or_tritium_are_no_formula(text):
+    # a text of capitals that reads only as deuterium or tritium compounds is an abbreviation (common practice)
+    row = score_formula(text)
+    assert row["status"] == "error" and "deuterium or tritium" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["PBS", "PVP", "BNS"])
+def test_capitals_read_as_an_odd_formula_warn(text):
+    row = score_formula(text)
+    assert row["status"] == "warning" and "if it is an abbreviation" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["KCN", "HCN", "KOH", "KSCN", "KOCN", "CHFO"])
+def test_capital_formulas_of_salts_acids_bases_and_hill_formulas_stay_quiet(text):
+    assert score_formula(text)["status"] == "ok"

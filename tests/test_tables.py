@@ -39,7 +39,7 @@ ROWS = {
     "fluid_element_melting_points.csv": 13,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
-    "solvent_codes.csv": 36,
+    "solvent_codes.csv": 62,
     "trivial_names.csv": 115,
     "solution_names.csv": 19,
     "registry_names.csv": 13415,
