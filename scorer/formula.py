@@ -489,7 +489,8 @@ def parse_formula(text: str) -> ParsedFormula:
         notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
                      " (x = 0)")
         text_to_parse = exact
-    reagent = quaternary_reagent_code(text_to_parse) if _QUATERNARY_REAGENT.fullmatch(text_to_parse) else None
+    reagent = quaternary_reagent_code(text_to_parse) if _QUATERNARY_REAGENT.fullmatch(text_to_parse) or \
+        text_to_parse.strip() in _SALT_CODES else None
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
         text_to_parse = reagent
@@ -801,11 +802,21 @@ def quaternary_reagent_code(text: str) -> str | None:
     ('[N4444]Br', '[N2222][BF4]', '[N1111](OH)')
     >>> quaternary_reagent_code("TBA") is None, quaternary_reagent_code("NaCl") is None
     (True, True)
+    >>> quaternary_reagent_code("EAN")
+    '[EtNH3][NO3]'
     """
+    if isinstance(text, str) and text.strip() in _SALT_CODES:
+        return _SALT_CODES[text.strip()]
     m = _QUATERNARY_REAGENT.fullmatch(text) if isinstance(text, str) else None
     if m is None:
         return None
     return _REAGENT_CATIONS[m.group(1)] + _REAGENT_ANIONS[m.group(2)]
+
+
+# protic ionic liquids by their codes, written as the literature writes them (Greaves & Drummond, Chem. Rev. 108
+# (2008) 206; from memory); matched in capitals only. PAN (propylammonium nitrate) is left out: it is also
+# polyacrylonitrile, and PaN a formula
+_SALT_CODES = {"EAN": "[EtNH3][NO3]"}
 
 
 # "EMIM-BF4", "BMIM - PF6": an ionic liquid's two codes joined by a hyphen or a dash, as catalogues write them

@@ -11,7 +11,7 @@ from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element, is_element_symbol
 from ionicity.scorer.grammar import FormulaError, hill_order, parse_element_groups
 from ionicity.scorer.model import Ion, format_charge
-from ionicity.scorer.onium_codes import onium_from_code
+from ionicity.scorer.onium_codes import canonical_quaternary_code, onium_from_code
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -162,6 +162,10 @@ def find_alias(text: str, exact_case: bool = False) -> Ion | None:
     if ion is None and not exact_case:
         ion = folded.get(text.strip("[]").casefold())
     if ion is None:
+        # chains written apart (P14,6,6,6): the library's code for the same cation
+        canonical = canonical_quaternary_code(text)
+        if canonical is not None:
+            return find_alias(canonical, exact_case)
         # an onium code the library does not list, built by rule ([C16mim], [P4441]; scorer.onium_codes)
         ion = onium_from_code(text)
     return ion

@@ -32,7 +32,7 @@ import re
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.model import Ion
 
-__all__ = ["MAX_CHAIN", "onium_from_code"]
+__all__ = ["MAX_CHAIN", "onium_from_code", "canonical_quaternary_code"]
 
 #: the longest alkyl chain a code may name (icosyl)
 MAX_CHAIN = 20
@@ -54,6 +54,25 @@ _RINGS = (
      6, 14, 1),
 )
 _QUATERNARY = re.compile(r"([NP])(\d{4,5})")
+# the same with the chains apart, as papers write a two-digit chain anywhere: P14,6,6,6, N1,1,1,16, N4,4,4,4
+_QUATERNARY_SPLIT = re.compile(r"\[?\s*([NP])(\d{1,2})\s*,\s*(\d{1,2})\s*,\s*(\d{1,2})\s*,\s*(\d{1,2})\s*\]?")
+
+
+def canonical_quaternary_code(code: str) -> str | None:
+    """A quaternary code with its chains apart, as the library writes such codes (three one-digit chains in
+    ascending order, then the longest: ``P14,6,6,6`` -> ``P66614``; four one-digit chains ascending:
+    ``N4,1,1,1`` -> ``N1114``); None for any other text or where no such code exists (two chains over 9).
+
+    >>> canonical_quaternary_code("P14,6,6,6"), canonical_quaternary_code("[N1,1,1,16]"), canonical_quaternary_code("C4mim")
+    ('P66614', 'N11116', None)
+    """
+    m = _QUATERNARY_SPLIT.fullmatch(code) if isinstance(code, str) else None
+    if m is None:
+        return None
+    chains = sorted(int(g) for g in m.groups()[1:])
+    if not all(1 <= c <= MAX_CHAIN for c in chains) or any(c > 9 for c in chains[:3]):
+        return None
+    return m.group(1) + "".join(str(c) for c in chains)
 
 
 def _chains(digits: str) -> tuple[int, ...] | None:

@@ -24,6 +24,7 @@ True
 """
 from __future__ import annotations
 
+import dataclasses
 import re
 from dataclasses import dataclass, field
 
@@ -47,7 +48,7 @@ _MOLAR = re.compile(
 _GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial|sat(?:\.|urated)?)", re.I)
 # a concentration written in brackets at the end: "HCl (37%)"
 _BRACKETED_TAIL = re.compile(r"\s*\(\s*([^()]*?)\s*\)\s*$")
-_STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b", re.I)
+_STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b|\b(?P<form>dispersion|suspension|slurry)\b", re.I)
 _TAIL_BEFORE = re.compile(r"[\s,;]+$")
 
 
@@ -64,6 +65,9 @@ class Solution:
     solute: str
     concentration: str
     solvent: str = field(default="", repr=False)
+    # what the label calls it: a solution, or a dispersion, suspension or slurry ("NaH 60% dispersion in
+    # mineral oil")
+    form: str = field(default="solution", repr=False)
     # a solution named by a trivial name (scorer/data/solution_names.csv): the name and its caution
     name: str = field(default="", repr=False)
     caution: str = field(default="", repr=False)
@@ -131,7 +135,7 @@ def split_in_solvent(text: str) -> Solution | None:
             return Solution(lead.group("rest").strip(), _as_written(pattern, inner), solvent)
     trailing = split_solution(left)
     if trailing is not None:
-        return Solution(trailing.solute, trailing.concentration, solvent)
+        return Solution(trailing.solute, trailing.concentration, solvent, form=trailing.form)
     return Solution(left, "", solvent)
 
 
@@ -166,6 +170,14 @@ def split_solution(text: str) -> Solution | None:
 
 
 def _split_solution(text: str) -> Solution | None:
+    found = _split_solution_text(text)
+    form = next((m.group("form").lower() for m in _STATE.finditer(text) if m.group("form")), None)
+    if found is None or form is None:
+        return found
+    return dataclasses.replace(found, form=form)
+
+
+def _split_solution_text(text: str) -> Solution | None:
     body = _STATE.sub(" ", text).strip()
     stated = body != text.strip()  # "solution", "soln.", "(aq)", "aq." was written
     tail = _BRACKETED_TAIL.search(body)
@@ -217,7 +229,8 @@ def solution_note(solution: Solution, substance_class: str) -> str:
     strength = f" ({solution.concentration})" if solution.concentration else ""
     solvent = f" in {solution.solvent}" if solution.solvent else ""
     named = f" ('{solution.name}' read as a solution of {solution.solute})" if solution.name else ""
-    note = f"a solution{strength}{solvent}{named}: the values are for the pure solute, not for the solution"
+    form = solution.form
+    note = f"a {form}{strength}{solvent}{named}: the values are for the pure solute, not for the {form}"
     if solution.solvent:
         note += "; the solvent is not scored"
     if solution.caution:

@@ -140,3 +140,20 @@ def test_a_mixture_with_a_molecular_component_takes_the_other_names():
 def test_a_mixture_whose_melt_forms_networks_gets_no_class():
     out = score_formula("ZnCl2-KCl (1:1)")
     assert out["melting_class"] is None and "not a simple-ion salt" in out["message"]
+
+
+@pytest.mark.parametrize("text, solute, strength, form", [
+    ("NaH 60% dispersion in mineral oil", "NaH", "60 %", "dispersion"),   # as reagent catalogues sell it
+    ("Mg(OH)2 suspension", "Mg(OH)2", None, "suspension"),
+    ("CaCO3 slurry", "CaCO3", None, "slurry"),
+])
+def test_dispersions_and_suspensions_are_their_solid(text, solute, strength, form):
+    out = score_formula(text)
+    assert out["formula_normalized"] == solute and out["concentration_as_written"] == strength
+    assert f"a {form}" in out["value_notes"] and "the values are for the pure solute" in out["value_notes"]
+
+
+def test_sodium_hydride_in_oil_keeps_its_water_hazard():
+    # NaH with water gives H2 violently (Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.5; from memory)
+    out = score_formula("NaH 60% dispersion in mineral oil")
+    assert out["water_behaviour"] == "reacts_violently" and out["water_reaction_products"] == "H2"

@@ -105,3 +105,18 @@ def test_quaternary_reagent_codes(text, normalized):
 def test_amine_codes_are_not_tritium_or_deuterium_with_ethylammonium(text):
     # TEA was read as T (tritium) and EA (ethylammonium), "ethylammonium tritide"
     assert score_formula(text)["status"] == "error"
+
+
+@pytest.mark.parametrize("text, normalized", [
+    # chains written apart, as papers write a two-digit chain (trihexyltetradecylphosphonium is P66614;
+    # Wasserscheid & Welton, Ionic Liquids in Synthesis, 2nd ed., 2008; from memory)
+    ("[P14,6,6,6][NTf2]", "[P66614][NTf2]"), ("[P14,6,6,6]Cl", "[P66614]Cl"),
+    ("[N1,1,1,16]Br", "[N11116]Br"), ("[N4,4,4,4][BF4]", "[N4444][BF4]"),
+    # aliases of the trade: BMPyrr for 1-butyl-1-methylpyrrolidinium, HNEt3 for triethylammonium, EAN for
+    # ethylammonium nitrate (Greaves & Drummond, Chem. Rev. 108 (2008) 206; from memory)
+    ("[BMPyrr][TFSI]", "[C4mpyr][NTf2]"), ("[HNEt3][HSO4]", "[Et3NH][HSO4]"), ("EAN", "[EtNH3][NO3]"),
+])
+def test_codes_of_the_trade_read_as_their_ions(text, normalized):
+    row = score_formula(text)
+    assert row["status"] in ("ok", "warning") and row["formula_normalized"] == normalized
+    assert row["substance_class"] == "ionic_liquid_pair"
