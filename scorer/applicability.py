@@ -499,6 +499,37 @@ def subvalent_notes(cations) -> list[str]:
     return out
 
 
+# monatomic anions that a cation above its element's highest usual state would oxidise (common practice)
+_REDUCING_ANIONS = frozenset({"S(2-)", "Se(2-)", "Te(2-)", "C(4-)", "N(3-)", "P(3-)", "As(3-)", "H(-)", "I(-)"})
+
+
+def supervalent_notes(cations, anions) -> list[str]:
+    """A warning for each bare cation above the highest state its element takes in its usual compounds, beside
+    an anion it would oxidise: FeSO and FeCO balance only as Fe(4+) or Fe(6+) with sulfide or carbide, which
+    no solid holds (the cation takes the anion's electrons), so the formula as written most likely lost a
+    count or an element (FeSO4, FeCO3; common practice). Fe(4+) with oxide (SrFeO3) is not flagged.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> decompose(parse_formula("FeSO")).notes[0][:48], decompose(parse_formula("FeS")).notes
+    ('Fe(4+) beside S(2-): no compound holds Fe above ', ())
+    """
+    reducing = [t.ion.ion_id for t in anions if t.ion.ion_id in _REDUCING_ANIONS]
+    if not reducing:
+        return []
+    out = []
+    for term in cations:
+        ion = term.ion
+        if not ion.monatomic or ion.charge <= 1:
+            continue
+        main = [state for state, extra in listed_states(ion.element) if not extra and state > 0]
+        if main and ion.charge > max(main):
+            out.append(f"{ion.ion_id} beside {reducing[0]}: no compound holds {ion.element} above"
+                       f" {ion.element}({max(main)}+) with an anion it would oxidise; a count or an element may be"
+                       " missing from the formula as written; check it")
+    return out
+
+
 def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
     """The decomposition with its ``ionic_model``, its reasons and, where the
     criteria say so, its substance class; ions dropped where the compound
@@ -530,7 +561,7 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
         reasons.append("formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
     else:
-        subvalent = subvalent_notes(dec.cations)
+        subvalent = subvalent_notes(dec.cations) + supervalent_notes(dec.cations, dec.anions)
         if subvalent:
             changes["notes"] = tuple(dec.notes) + tuple(subvalent)
     return dec.with_fields(**changes)

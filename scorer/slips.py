@@ -79,6 +79,10 @@ MARGIN = 2.0
 # everything after Bi (a reading that needs one is a worse reading)
 _RARE_FROM_Z = 84
 _RARE = frozenset({"He", "Ne", "Ar", "Kr", "Xe", "Tc", "Pm"})
+# elements no inventory holds a compound of (no long-lived isotope, or made a few atoms at a time): a reading
+# that needs one is no reading ("KNO" as nobelium, "ATP" as astatine; common practice)
+_NO_CHEMISTRY = frozenset({"At", "Rn", "Fr"})
+_NO_CHEMISTRY_FROM_Z = 97
 _CLASS_PENALTY = {
     "ionic_salt": 0.0, "acid": 0.0, "base": 0.0, "ionic_liquid_pair": 0.0,
     "element": 0.5, "covalent_molecular": 1.0, "covalent_network": 1.0, "ion": 1.5,
@@ -226,7 +230,8 @@ def _parsed_penalty(text: str) -> float:
     """The part of :func:`reading_penalty` that needs no solver: rare elements,
     absurd counts, 0.5 per element (``inf`` when the text does not parse)."""
     comp = _parsed(text)
-    if comp is None or _impossible_noble_gas_compound(dict(comp.counts)):
+    if comp is None or _impossible_noble_gas_compound(dict(comp.counts)) or any(
+            s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in comp.counts):
         return math.inf
     penalty = 0.5 * len(comp.counts)
     for symbol, count in comp.counts:

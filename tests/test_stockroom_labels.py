@@ -152,3 +152,24 @@ def test_capitals_read_as_an_odd_formula_warn(text):
 @pytest.mark.parametrize("text", ["KCN", "HCN", "KOH", "KSCN", "KOCN", "CHFO"])
 def test_capital_formulas_of_salts_acids_bases_and_hill_formulas_stay_quiet(text):
     assert score_formula(text)["status"] == "ok"
+
+
+@pytest.mark.parametrize("text, cation", [("FeSO", "Fe(4+)"), ("CuSO", "Cu(4+)"), ("FeCO", "Fe(6+)")])
+def test_a_cation_above_its_usual_states_beside_a_reducing_anion_warns(text, cation):
+    # FeSO (for FeSO4) balanced only as Fe(4+) with S(2-) and O(2-); iron's usual states are +2 and +3
+    # (mendeleev's main list), and a cation that high takes a sulfide's electrons (common practice)
+    row = score_formula(text)
+    assert row["status"] == "warning" and f"{cation} beside" in row["message"] and "check it" in row["message"]
+
+
+@pytest.mark.parametrize("formula", ["SrFeO3", "FeS", "FeS2", "CuS", "SnS2"])
+def test_usual_states_and_high_states_with_oxide_stay_quiet(formula):
+    # SrFeO3 holds Fe(4+) with oxide (Greenwood & Earnshaw, 2nd ed., 1997, ch. 25; from memory)
+    assert score_formula(formula)["status"] == "ok"
+
+
+@pytest.mark.parametrize("text", ["KNO", "KNo3"])
+def test_no_typing_slip_reads_an_element_without_chemistry(text):
+    # nobelium (Z = 102) is made a few atoms at a time: "KNO" is no potassium nobelide
+    row = score_formula(text)
+    assert "No" not in (row["formula_normalized"] or "").replace("NO", "")
