@@ -67,6 +67,7 @@ SLIP_KINDS: dict[str, str] = {
     "brackets_left_out": "the brackets around a group left out (CaOH2 for Ca(OH)2)",
     "hydrate_dot_missing": "the hydrate dot left out before the water",
     "unknown_abbreviation": "a bracketed ion abbreviation the ion library does not know",
+    "stray_punctuation": "a stray quote or punctuation mark at the start or end (a spreadsheet's text mark, a list's comma)",
 }
 
 # how much better (in penalty points of reading_penalty) a proposal must read
@@ -452,6 +453,9 @@ def find_slip(text: str) -> Slip | None:
         Two slips in one text (``Kl03``: l for I, then 0 for O) are found
         in two rounds; the kind is the first one's.
     """
+    stray = _stray_punctuation(text)
+    if stray is not None:
+        return stray
     allowance = [SLIP_WORK_LIMIT, _PARSED_PROPOSALS]
     slip = _find_one(text, allowance)
     if slip is None or not slip.suggested:
@@ -462,6 +466,26 @@ def find_slip(text: str) -> Slip | None:
     best = second.suggested
     kinds = f"{SLIP_KINDS[slip.kind]}; {SLIP_KINDS[second.kind]}"
     return Slip(slip.kind, best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
+
+
+# quotes before or after a formula, and a comma, semicolon, colon or full stop after it: "'NaCl" (a spreadsheet's
+# text mark), "NaCl," (a list pasted cell by cell), "KCl." (common practice)
+_STRAY = re.compile(r"^\s*['\"`´‘’“”]+|['\"`´‘’“”,;:.]+\s*$")
+
+
+def _stray_punctuation(text: str) -> Slip | None:
+    """The slip of a formula typed with stray quotes or punctuation around it, when the rest parses."""
+    if not isinstance(text, str) or len(text) > 200 or not _STRAY.search(text):
+        return None
+    core = _STRAY.sub("", text).strip()
+    if not core or core == text.strip():
+        return None
+    slip = find_slip(core)  # the rest may hold a slip of its own ("nacl,")
+    if _parsed(core) is None and (slip is None or not slip.suggested):
+        return None
+    best = slip.suggested if slip is not None and slip.suggested else core
+    kinds = SLIP_KINDS["stray_punctuation"] + (f"; {SLIP_KINDS[slip.kind]}" if best != core else "")
+    return Slip("stray_punctuation", best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
 
 
 def _find_one(text: str, allowance: list[int]) -> Slip | None:

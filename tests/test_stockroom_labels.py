@@ -173,3 +173,17 @@ def test_no_typing_slip_reads_an_element_without_chemistry(text):
     # nobelium (Z = 102) is made a few atoms at a time: "KNO" is no potassium nobelide
     row = score_formula(text)
     assert "No" not in (row["formula_normalized"] or "").replace("NO", "")
+
+
+@pytest.mark.parametrize("text, formula", [
+    ("NaCl,", "NaCl"), ("KCl.", "KCl"), ("'NaCl", "NaCl"), ('"KBr"', "KBr"), ("nacl,", "NaCl"),
+    ("CuSO4·5H2O.", "CuSO4·5H2O"),
+])
+def test_stray_quotes_and_punctuation_are_a_typing_slip(text, formula):
+    # a spreadsheet's leading apostrophe, a list pasted with its commas (common practice)
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == formula and "stray" in row["message"]
+
+
+def test_a_grade_word_with_its_full_stop_is_no_stray_punctuation():
+    assert score_formula("H2SO4 conc.")["concentration_as_written"] == "conc."
