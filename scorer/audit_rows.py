@@ -67,7 +67,9 @@ def code_like_row(row: tuple, text: str, position: dict[str, int], error_row: Ca
         return row
     symbols = set(_SYMBOLS.findall(normalized))
     stripped = text.strip()
-    if symbols & {"D", "T"} and not symbols <= _HYDROGEN_AND_OXYGEN:
+    if symbols <= _HYDROGEN_AND_OXYGEN:
+        return row  # water of the hydrogen isotopes (HDO, D2O)
+    if symbols & {"D", "T"}:
         return error_row(
             f"{stripped!r} reads as a formula only with deuterium or tritium ({normalized}): it looks like an"
             " abbreviation the code table does not hold; write the formula or the name")
