@@ -523,6 +523,19 @@ def _centre_chi(symbol: str) -> float:
     return value if value == value else 1.5
 
 
+# oxides and sulfides of phosphorus and arsenic written as their empirical formulas are molecules of four
+# such atoms, adamantane-like cages: P4O6, P4O10, As4O6, P4S10 (Greenwood & Earnshaw, Chemistry of the
+# Elements, 2nd ed., 1997, ch. 12.3.5 and 13.3.4; from memory); the molecular route reads the cage
+# (As2S3 and As2Se3 are layer solids, As2O5 a polymer: not listed)
+_CAGE_ATOMS = frozenset({"P", "As"})
+_CAGE_MOLECULES = {
+    (("O", 3.0), ("P", 2.0)): 4.0,
+    (("O", 5.0), ("P", 2.0)): 4.0,
+    (("As", 2.0), ("O", 3.0)): 4.0,
+    (("P", 2.0), ("S", 5.0)): 4.0,
+}
+
+
 def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     """Read a molecule off its composition: centre, ligands, symmetry, torsions, open sites.
 
@@ -560,6 +573,10 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     comp = written = [(s, n) for s, n in dec.composition if n > 0]
     if not comp:
         return None
+    cage = _CAGE_MOLECULES.get(reduced_key(comp))
+    if cage is not None:
+        # the empirical formula of a cage molecule (P2O5 is P4O10): the molecule counts, as written out
+        comp = written = [(s, n * cage / sum(k for t, k in comp if t in _CAGE_ATOMS)) for s, n in comp]
     counts = [n for _, n in comp]
     if all(float(n).is_integer() for n in counts):
         g = 0

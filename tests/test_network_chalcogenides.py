@@ -52,3 +52,20 @@ def test_methanides_get_a_melting_index():
     al4c3 = score_formula("Al4C3")
     assert abs(al4c3["mp_trend_index"] - math.log10(2373.0)) < math.log10(1.5)
     assert al4c3["melting_class"] == "refractory"
+
+
+@pytest.mark.parametrize("formula, cas", [
+    ("As2O3", "1327-53-3"),   # arsenic trioxide, 547 K (registry); molecules of As4O6 (arsenolite)
+])
+def test_empirical_formulas_of_cage_molecules_read_as_the_cage(formula, cas):
+    # P2O5, P2O3, As2O3 and P2S5 are the empirical formulas of the cages P4O10, P4O6, As4O6 and P4S10
+    # (Greenwood & Earnshaw, 2nd ed., 1997, ch. 12.3.5 and 13.3.4; from memory): read as written they were
+    # "liquid at room temperature"
+    out = score_formula(formula)
+    assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=False)
+
+
+@pytest.mark.parametrize("empirical, cage", [("P2O5", "P4O10"), ("P2O3", "P4O6"), ("As2O3", "As4O6"), ("P2S5", "P4S10")])
+def test_an_empirical_formula_and_its_cage_share_one_index(empirical, cage):
+    assert score_formula(empirical)["mp_trend_index"] == score_formula(cage)["mp_trend_index"]
+    assert score_formula(empirical)["melting_class"] not in ("liquid_at_room_temperature", "melts_below_100C")
