@@ -293,3 +293,15 @@ def test_ilmenite_is_not_ambiguous_once_redox_is_checked():
     # Fe(3+) would oxidise Ti(3+) (Bard: Fe3+/Fe2+ 0.77 V, TiO2+/Ti3+ 0.1 V): FeTiO3 is Fe(2+) Ti(4+) (G&E ch. 21)
     r = score_formula("FeTiO3")
     assert "ambiguous" not in (r["message"] or "")
+
+
+@pytest.mark.parametrize("formula, cations", [
+    # lead titanate and lead vanadate are Pb(II) with Ti(IV), V(IV) (Greenwood & Earnshaw, 2nd ed., 1997,
+    # ch. 21; from memory): Pb(4+) would oxidise Ti(2+) (E0 Pb4+/Pb2+ 1.67 V against Ti3+/Ti2+ -0.37 V, CRC
+    # Handbook electrochemical series, from memory), so the tie with Pb(4+) Ti(2+) is no tie
+    ("PbTiO3", "Pb(2+)*1;Ti(4+)*1"), ("PbVO3", "Pb(2+)*1;V(4+)*1"),
+])
+def test_a_reducing_cation_beside_an_oxidising_one_is_no_alternative(formula, cations):
+    from ionicity.scorer.record import score_formula
+    row = score_formula(formula)
+    assert row["status"] == "ok" and row["cations"] == cations
