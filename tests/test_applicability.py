@@ -300,6 +300,9 @@ def test_ilmenite_is_not_ambiguous_once_redox_is_checked():
     # ch. 21; from memory): Pb(4+) would oxidise Ti(2+) (E0 Pb4+/Pb2+ 1.67 V against Ti3+/Ti2+ -0.37 V, CRC
     # Handbook electrochemical series, from memory), so the tie with Pb(4+) Ti(2+) is no tie
     ("PbTiO3", "Pb(2+)*1;Ti(4+)*1"), ("PbVO3", "Pb(2+)*1;V(4+)*1"),
+    # the ferrite MnFe2O4 (jacobsite) is Mn(II) Fe(III)2, pyrophanite MnTiO3 Mn(II) Ti(IV) (Greenwood & Earnshaw,
+    # 2nd ed., 1997, ch. 24-25; from memory): Mn(4+) oxidises Fe(2+) and Ti(2+) (MnO2/Mn2+ 1.224 V)
+    ("MnFe2O4", "Mn(2+)*1;Fe(3+)*2"), ("MnTiO3", "Mn(2+)*1;Ti(4+)*1"),
 ])
 def test_a_reducing_cation_beside_an_oxidising_one_is_no_alternative(formula, cations):
     from ionicity.scorer.record import score_formula

@@ -30,7 +30,7 @@ ROWS = {
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
     "fallback_radii.csv": 6,
-    "redox_potentials.csv": 23,
+    "redox_potentials.csv": 25,
     "goldschmidt_radii.csv": 41,
     "dispersion_coefficients.csv": 20,
     "formation_enthalpies.csv": 20,
