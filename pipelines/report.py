@@ -123,7 +123,7 @@ def classes_melting_below(limit_K: float = HUNDRED_C_K) -> tuple[str, ...]:
     """Melting classes whose whole band lies below ``limit_K``.
 
     >>> classes_melting_below()
-    ('ionic_liquid', 'liquid_at_room_temperature', 'melts_below_100C', 'melts_in_own_water')
+    ('ionic_liquid', 'liquid_at_room_temperature', 'gas_at_room_temperature', 'melts_below_100C', 'melts_in_own_water')
     """
     return tuple(name for name, _, upper, _ in melting_bands() if upper <= limit_K + 1e-9)
 

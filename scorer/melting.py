@@ -712,9 +712,13 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     else:
         reason = "melting trend: no route for substance class " + str(dec.substance_class)
         return MeltingTrend(steps=(reason,))
+    gas = routes.gas_at_room_temperature(dec.composition) if route != "salt" and not dec.hydrate_water else None
+    if gas is not None:
+        # the registry's boiling point says more than the trend: a gas on the shelf (CO2, NH3, CH4, He)
+        notes.append(f"a gas at 25 C: {gas[1]} boils (or sublimes) at {gas[0]:g} K ({routes.GAS_SOURCE}); {CAUTION}")
     if not math.isfinite(index):
-        return MeltingTrend(notes=tuple(notes), steps=tuple(notes) or ("melting trend: not computed",),
-                            terms=terms, mp_route=route)
+        return MeltingTrend(melting_class=routes.GAS_CLASS if gas is not None else None, notes=tuple(notes),
+                            steps=tuple(notes) or ("melting trend: not computed",), terms=terms, mp_route=route)
     melting_class = hydrate_melting_class(
         melting_class_for(trend_temperature_K(index), salt=route == "salt"), route, dec.hydrate_water)
     if melting_class == routes.HYDRATE_MELT_CLASS:
@@ -722,6 +726,9 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         steps = (*steps, "  " + notes[-1])
     elif dec.hydrate_water:
         notes.append(_HYDRATE)
+    if gas is not None:
+        melting_class = routes.GAS_CLASS
+        steps = (*steps, f"  melting_class = {routes.GAS_CLASS}: {gas[1]} boils (or sublimes) at {gas[0]:g} K, below 25 C")
     return MeltingTrend(
         mp_trend_index=round(float(index), 4),
         melting_class=melting_class,

@@ -45,7 +45,7 @@ from math import factorial
 
 from ionicity.scorer.caching import once
 from ionicity.scorer.elements import get_element
-from ionicity.scorer.formula import format_count, parse_formula
+from ionicity.scorer.formula import format_count, hill_formula, parse_formula
 from ionicity.scorer.grammar import reduced_key
 from ionicity.scorer.model import Decomposition
 from ionicity.scorer.radii import shannon_radius_pm
@@ -89,6 +89,8 @@ MELTING_CLASS_BANDS: tuple[tuple[str, float, float, str], ...] = (
     ("low_melting_salt", 373.15, 573.15, "salt melting at 100-300 C (common practice)"),
     ("molten_salt", 573.15, 1773.15, "salt melting at 300-1500 C, the usual molten-salt range (common practice)"),
     ("liquid_at_room_temperature", 0.0, 298.15, "not a salt: liquid (or gas) at 25 C"),
+    ("gas_at_room_temperature", 0.0, 298.15,
+     "not a salt, and every registry compound of its formula boils below 25 C (scorer/data/gases.csv)"),
     ("melts_below_100C", 298.15, 373.15, "not a salt: solid at 25 C, melting below 100 C"),
     ("low_melting_solid", 373.15, 573.15, "not a salt: melting at 100-300 C"),
     ("high_melting_solid", 573.15, 1773.15, "not a salt: melting at 300-1500 C"),
@@ -124,6 +126,25 @@ ROUTE_OF_CLASS: dict[str, str] = {
 _BAND_LIMITS = {name: (lo, hi) for name, lo, hi, _ in MELTING_CLASS_BANDS}
 _SALT_BANDS = ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")
 _OTHER_BANDS = ("liquid_at_room_temperature", "melts_below_100C", "low_melting_solid", "high_melting_solid", "refractory")
+
+
+GAS_CLASS = "gas_at_room_temperature"
+GAS_SOURCE = "registry package chemicals, scorer/data/gases.csv"
+
+
+@once
+def _gases() -> dict[str, tuple[float, str]]:
+    return {row["formula"]: (float(row["boiling_point_K"]), row["name"]) for row in table("gases.csv")}
+
+
+def gas_at_room_temperature(composition) -> tuple[float, str] | None:
+    """(boiling point in K, name) when every registry compound of the composition's Hill formula boils below
+    25 C (``scorer/data/gases.csv``); None otherwise.
+
+    >>> gas_at_room_temperature((("C", 1.0), ("O", 2.0))), gas_at_room_temperature((("H", 2.0), ("O", 1.0)))
+    ((194.7, 'Carbon dioxide'), None)
+    """
+    return _gases().get(hill_formula(dict(composition)))
 
 
 def melting_class_for(temperature_K: float, salt: bool) -> str | None:

@@ -89,6 +89,7 @@ TABLES: dict[str, TableSpec] = {
         ),
         TableSpec("element_melting_points.csv", ("symbol", "mp_K", "source"), "scorer.melting_routes"),
         TableSpec("fluid_element_melting_points.csv", ("substance", "mp_K", "source"), "scorer.melting_routes"),
+        TableSpec("gases.csv", ("formula", "boiling_point_K", "name", "cas", "source"), "scorer.melting_routes"),
         TableSpec("molecular_coordination.csv",
                   ("formula", "coordination_number", "secondary_contacts", "structure", "source"),
                   "scorer.melting_routes"),

@@ -178,7 +178,9 @@ def test_molecular_bases_take_the_molecular_route(formula, cas):
     # before, a base without ions had no route and no class
     record = score_formula(formula)
     assert record["substance_class"] == "base" and record["mp_route"] == "molecular"
-    assert record["melting_class"] == "liquid_at_room_temperature" and _in_band(record["melting_class"], _tm(cas))
+    # ammonia also boils below 25 C (240 K, registry): a gas, in the same band
+    assert record["melting_class"] in ("liquid_at_room_temperature", "gas_at_room_temperature")
+    assert _in_band(record["melting_class"], _tm(cas))
 
 
 def test_ionic_bases_stay_on_the_salt_route():

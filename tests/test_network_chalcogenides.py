@@ -41,7 +41,9 @@ def test_chalcogenides_of_si_and_ge_are_networks_in_their_band(formula, cas):
 def test_carbon_chalcogenides_stay_molecules(formula):
     # CS2 melts at 161 K (registry), COS at 135 K (CRC Handbook; from memory)
     out = score_formula(formula)
-    assert out["substance_class"] == "covalent_molecular" and out["melting_class"] == "liquid_at_room_temperature"
+    # below 25 C; COS also boils below it (223 K, registry), so it is called a gas
+    assert out["substance_class"] == "covalent_molecular"
+    assert out["melting_class"] in ("liquid_at_room_temperature", "gas_at_room_temperature")
 
 
 def test_methanides_get_a_melting_index():

@@ -89,8 +89,10 @@ def test_rows_below_100_c_are_those_a_filter_finds(scored, frame):
     below = classes_melting_below()
     # every class whose band ends at or below 100 C: the salts' ionic_liquid (the trade's
     # definition, Wasserscheid & Welton 2008, from memory), the two bands of other compounds
-    # and the water-rich salt hydrates' melts_in_own_water (Lane 1983, from memory)
-    assert below == ("ionic_liquid", "liquid_at_room_temperature", "melts_below_100C", "melts_in_own_water")
+    # and the water-rich salt hydrates' melts_in_own_water (Lane 1983, from memory), and the gases (their
+    # registry boiling points below 25 C, scorer/data/gases.csv)
+    assert below == ("ionic_liquid", "liquid_at_room_temperature", "gas_at_room_temperature", "melts_below_100C",
+                     "melts_in_own_water")
     low = frame[frame.melting_class.isin(below)]
     assert data.low_melting_rows == len(low)
     assert set(data.low_melting) == set(low.formula_normalized)
@@ -106,10 +108,13 @@ def test_melting_bands_cover_every_class_without_gaps():
     # both ending in refractory (scorer.melting_routes.MELTING_CLASS_BANDS)
     bands = melting_bands()
     salt = [b for b in bands if b[0] in ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")]
-    other = [b for b in bands if b[0] not in ("ionic_liquid", "low_melting_salt", "molten_salt", "melts_in_own_water")]
+    other = [b for b in bands if b[0] not in ("ionic_liquid", "low_melting_salt", "molten_salt", "melts_in_own_water",
+                                              "gas_at_room_temperature")]
+    # a gas's class stands in for the other compounds' lowest band (its registry boiling point, gases.csv)
+    gas = [b for b in bands if b[0] == "gas_at_room_temperature"] + other[1:]
     # a water-rich salt hydrate's class stands in for the salts' lowest band (scorer.melting_routes)
     hydrate = [b for b in bands if b[0] == "melts_in_own_water"] + salt[1:]
-    for ladder in (salt, other, hydrate):
+    for ladder in (salt, other, hydrate, gas):
         assert ladder[0][1] == 0.0 and ladder[-1][2] == float("inf")
         for (_, _, upper, _), (_, lower, _, _) in zip(ladder, ladder[1:]):
             assert upper == lower
