@@ -10,11 +10,11 @@ from typing import Callable
 
 from ionicity.scorer.formula import laboratory_code
 from ionicity.scorer.name_reader import known_word_name
-from ionicity.scorer.slips import Slip, find_slip
+from ionicity.scorer.slips import Slip, find_slip, missing_count_suggestions
 from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
-__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row"]
+__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion"]
 
 
 def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
@@ -83,6 +83,25 @@ def code_like_row(row: tuple, text: str, position: dict[str, int], error_row: Ca
 
 
 _SYMBOLS = re.compile(r"[A-Z][a-z]?")
+
+# the messages of rows whose formula most likely lost a count (scorer.substance, scorer.applicability)
+_COUNT_MESSAGES = ("no charge-balanced set of ions found", "missing from the formula as written")
+
+
+def with_count_suggestion(row: tuple, text: str, position: dict[str, int]) -> tuple:
+    """``row`` with the formulas one count away that read as a salt, acid or base
+    (:func:`scorer.slips.missing_count_suggestions`) named in its message, where the message says a
+    count may be missing or no ions balance: "did you mean Na2SO4?" for NaSO4. The row's values and
+    status stay those of the text as written."""
+    message = row[position["message"]]
+    if row[position["status"]] == "ok" or not message or not any(m in message for m in _COUNT_MESSAGES):
+        return row
+    suggestions = missing_count_suggestions(text.strip())
+    if not suggestions:
+        return row
+    row = list(row)
+    row[position["message"]] = f"{message} (did you mean {' or '.join(suggestions)}?)"
+    return tuple(row)
 
 
 def slipped_row(row: tuple, slip: Slip, position: dict[str, int]) -> tuple:

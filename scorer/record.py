@@ -5,7 +5,7 @@ import math
 import re
 
 from ionicity.scorer.applicability import family_decided
-from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row
+from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, with_count_suggestion
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element, is_metal
@@ -361,8 +361,8 @@ def _score_text(text: str) -> tuple:
         if CAPITALS_CODE.fullmatch(text):
             # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
             return code_like_row(_parsed_row(comp), text, _layout()[1], _error_row)
-        return _parsed_row(comp)
-    return _read_row(text)
+        return with_count_suggestion(_parsed_row(comp), text, _layout()[1])
+    return with_count_suggestion(_read_row(text), text, _layout()[1])
 
 
 def _read_row(text: str) -> tuple:

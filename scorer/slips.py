@@ -49,6 +49,7 @@ from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous, decompose_within
+from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
     "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
@@ -629,6 +630,60 @@ def unknown_abbreviation(text: str) -> Slip | None:
                 " not read as a formula; write the ion's formula or add the ion to the library",
             )
     return None
+
+
+# an element symbol or a closing bracket and the count written after it (which may be none)
+_COUNTED = re.compile(r"(?:[A-Z][a-z]?|\))(\d*)")
+# anions a one-count change makes far more often than a shelf holds them
+_UNLIKELY_SUGGESTED_IONS = frozenset({"C(4-)", "C2(2-)", "N3(-)", "N(3-)", "H(-)"})
+# a hydrogen-oxoanion's small penalty (HSO4-, HCO3-) is common; uncommon, peroxo and formula-unit ions are not
+_COMMON_ION_PENALTY = 0.05
+# the counts tried where one seems missing or wrong (a formula of an inventory rarely counts more)
+_TRIED_COUNTS = range(1, 7)
+# proposals read for one text, and the solver work each may spend: an error row's suggestion costs a few reads
+_COUNT_PROPOSALS = 48
+_COUNT_WORK = 2_000
+
+
+@per_input(maxsize=4096)
+def missing_count_suggestions(text: str) -> tuple[str, ...]:
+    """Formulas one count away from ``text`` that read as a salt, acid or base in their elements' usual states:
+    what an error row suggests where no ions balance as written (``NaSO4`` -> Na2SO4, ``CaCO`` -> CaCO3;
+    ``Na2SO`` -> Na2SO3, Na2SO4). The best three by :func:`reading_penalty`; () for none.
+
+    >>> missing_count_suggestions("NaSO4"), missing_count_suggestions("CaCO")
+    (('Na2SO4',), ('CaCO3',))
+    """
+    if not isinstance(text, str) or len(text) > 40 or _parsed(text) is None or _parsed(text).charge:
+        return ()
+    proposals = {}
+    for m in _COUNTED.finditer(text):
+        written = int(m.group(1)) if m.group(1) else 1
+        for n in _TRIED_COUNTS:
+            if n != written:
+                proposal = text[:m.end() - len(m.group(1))] + (str(n) if n > 1 else "") + text[m.end():]
+                proposals.setdefault(proposal, abs(n - written))
+    scored = []
+    for proposal, step in list(proposals.items())[:_COUNT_PROPOSALS]:
+        comp = _parsed(proposal)
+        if comp is None:
+            continue
+        dec, work = decompose_within(comp, _COUNT_WORK)
+        if work >= _COUNT_WORK or dec.substance_class not in ("ionic_salt", "acid", "base") or dec.notes:
+            continue
+        if any(t.ion.monatomic and t.ion.charge not in get_element(t.ion.element).oxidation_states_main
+               or not t.ion.monatomic and _ion_penalty(t.ion) > _COMMON_ION_PENALTY for t in dec.cations + dec.anions):
+            continue  # an uncommon state or ion (Na2SO5 as peroxymonosulfate, BaNO4)
+        if any(t.ion.ion_id in _UNLIKELY_SUGGESTED_IONS for t in dec.anions):
+            continue  # a carbide or an azide made by changing one count (NaCI2 as Na6CI2, BaNO3 as BaN4O3)
+        counts = [n for _, n in comp.counts]
+        if all(float(n).is_integer() for n in counts) and math.gcd(*(int(n) for n in counts)) > 1:
+            continue  # a multiple of a simpler formula (Na2Cl2, Fe2O2): the simpler one is proposed itself
+        # fewest ion species first (Na2SO4, not Na4SO4 with oxide beside sulfate), then the smallest change
+        scored.append(((round(_penalty_of(proposal, dec), 6), len(dec.cations) + len(dec.anions), step), proposal))
+    scored.sort()
+    best = [p for key, p in scored if key[:2] == scored[0][0][:2]] if scored else []
+    return tuple(best[:3])
 
 
 def slip_kind_of(message: str | None) -> str | None:

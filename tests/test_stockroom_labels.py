@@ -187,3 +187,21 @@ def test_stray_quotes_and_punctuation_are_a_typing_slip(text, formula):
 
 def test_a_grade_word_with_its_full_stop_is_no_stray_punctuation():
     assert score_formula("H2SO4 conc.")["concentration_as_written"] == "conc."
+
+
+@pytest.mark.parametrize("text, suggestions", [
+    # one count lost: sodium sulfate, calcium carbonate, potassium permanganate, aluminium sulfate, calcium
+    # chloride (their formulas as the registry package chemicals writes them); sulfite and sulfate both fit Na2SO
+    ("NaSO4", "Na2SO4"), ("CaCO", "CaCO3"), ("KMnO", "KMnO4"), ("Al2(SO4)", "Al2(SO4)3"), ("CaCl", "CaCl2"),
+    ("Na2SO", "Na2SO3 or Na2SO4"),
+])
+def test_a_formula_that_lost_a_count_suggests_the_complete_one(text, suggestions):
+    row = score_formula(text)
+    assert row["status"] in ("error", "warning") and f"(did you mean {suggestions}?)" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["BaNO3", "NaCI2"])
+def test_no_suggestion_that_needs_an_azide_or_a_carbide(text):
+    # BaNO3 one count away is BaN4O3, Ba(N3)(NO3); NaCI2 is Na6CI2 with a carbide: no shelf holds those
+    message = score_formula(text)["message"] or ""
+    assert "N4O3" not in message and "Na6" not in message
