@@ -715,7 +715,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     gas = routes.gas_at_room_temperature(dec.composition) if route != "salt" and not dec.hydrate_water else None
     if gas is not None:
         # the registry's boiling point says more than the trend: a gas on the shelf (CO2, NH3, CH4, He)
-        notes.append(f"a gas at 25 C: {gas[1]} boils (or sublimes) at {gas[0]:g} K ({routes.GAS_SOURCE}); {CAUTION}")
+        notes.append(f"a gas at 25 C: {gas[1]} boils (or sublimes) at {gas[0]:g} K ({routes.GAS_SOURCE}): store and"
+                     " handle it as the safety data sheet says for a gas")
     if not math.isfinite(index):
         return MeltingTrend(melting_class=routes.GAS_CLASS if gas is not None else None, notes=tuple(notes),
                             steps=tuple(notes) or ("melting trend: not computed",), terms=terms, mp_route=route)

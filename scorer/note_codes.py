@@ -124,6 +124,11 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
     ("melting_radius_stand_in", r"melting trend: {ion} has no Shannon radius: lattice energy with [^;]*",
      "melting trend: the ion (in brackets) has no Shannon radius; the lattice energy takes a stand-in cation of"
      " the same charge (ionicity explain names it)"),
+    ("melting_gas",
+     r"a gas at 25 C: [^;]*? boils \(or sublimes\) at [0-9.]+ K \(registry package chemicals, scorer/data/gases.csv\):"
+     r" store and handle it as the safety data sheet says for a gas",
+     "a gas at 25 C: every registry compound of its formula boils or sublimes below 25 C (scorer/data/gases.csv,"
+     " ionicity explain gives the temperature); store and handle it as the safety data sheet says for a gas"),
     ("melting_decomposes",
      r"melting trend: {ion} decomposes on heating \(giving off oxygen, carbon dioxide, sulfur dioxide or chlorine"
      r" compounds\): the trend is of the decomposition, the salt may never melt",
