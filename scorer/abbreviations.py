@@ -25,6 +25,8 @@ reading of their atoms as ions would.
 'Sn(C4H9)3Cl'
 >>> expand_abbreviations("n-BuLi")[0], expand_abbreviations("sec-BuLi")[0], expand_abbreviations("i-PrOH")[0]
 ('(C4H9)Li', '(C4H9)Li', '(C3H7)OH')
+>>> expand_abbreviations("Zr(OPr)4")[0]
+'Zr(O(C3H7))4'
 >>> expand_abbreviations("NaCl")
 ('NaCl', ())
 """
@@ -93,6 +95,10 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
         # sBuLi, iPrOH, Ti(OiPr)4
         text = _HYPHEN_PREFIX.sub(lambda m: _PREFIX_LETTER.get(m.group(1), m.group(1)), text)
         text = _ALKOXY_HYPHEN.sub("O", text)
+    if "(OPr)" in text:
+        # a propoxide written (OPr) after a metal (Zr(OPr)4): praseodymium is never bracketed alone with one
+        # oxygen and counted, so the group is n-propoxide (common practice)
+        text = text.replace("(OPr)", "(OnPr)")
     if _QUICK.isdisjoint(text) or not _PATTERN.search(text):
         return text, ()
     used: dict[str, str] = {}

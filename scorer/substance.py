@@ -328,6 +328,8 @@ def _bridged_tetrahalide(cation, anions) -> bool:
 
 # chelating anions whose metal compounds are neutral molecular complexes (classify)
 CHELATE_ANIONS = frozenset({"C5H7O2(-)"})
+# the alkoxide anions of the ion library (classify)
+ALKOXIDE_ANIONS = frozenset({"CH3O(-)", "C2H5O(-)"})
 
 
 def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonTerm]) -> str:
@@ -362,6 +364,12 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         # a metal acetylacetonate (Cu(acac)2, Fe(acac)3, VO(acac)2) is a neutral chelate complex, each ligand
         # bound by both O atoms: a molecule that melts low, sublimes and dissolves in organic solvents, not a
         # salt (IUPAC Red Book 2005, IR-9.2; Greenwood & Earnshaw, 2nd ed., 1997, ch. 7.3 and 25.3; from memory)
+        return "covalent_molecular"
+    if anions and all(t.ion.ion_id in ALKOXIDE_ANIONS for t in anions) and any(
+            ion.monatomic and ion.charge >= 3 for ion in cation_ions):
+        # the alkoxides of metals at +3 or more (Al(OEt)3, Ti(OEt)4, Nb(OEt)5) are molecules and oligomers that
+        # distil, not salts; those of the alkali and alkaline-earth metals (NaOMe, KOtBu) are ionic (Bradley,
+        # Mehrotra & Gaur, Metal Alkoxides, 1978; Greenwood & Earnshaw, 2nd ed., 1997, ch. 21; from memory)
         return "covalent_molecular"
     if all(t.ion.ion_id == "OH(-)" for t in anions):
         return "base"

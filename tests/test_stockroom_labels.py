@@ -205,3 +205,25 @@ def test_no_suggestion_that_needs_an_azide_or_a_carbide(text):
     # BaNO3 one count away is BaN4O3, Ba(N3)(NO3); NaCI2 is Na6CI2 with a carbide: no shelf holds those
     message = score_formula(text)["message"] or ""
     assert "N4O3" not in message and "Na6" not in message
+
+
+@pytest.mark.parametrize("formula, states", [
+    # alkoxides of metals at +3 or more are molecules that distil (Bradley, Mehrotra & Gaur, Metal Alkoxides,
+    # 1978; from memory); those of the alkali metals are salts
+    ("Ti(OEt)4", "Ti:+4"), ("Al(OEt)3", "Al:+3"), ("Nb(OEt)5", "Nb:+5"),
+])
+def test_alkoxides_of_high_valent_metals_are_molecules(formula, states):
+    row = score_formula(formula)
+    assert row["substance_class"] == "covalent_molecular" and row["oxidation_states"] == states
+
+
+@pytest.mark.parametrize("formula", ["NaOMe", "NaOEt", "KOMe"])
+def test_alkoxides_of_the_alkali_metals_stay_salts(formula):
+    assert score_formula(formula)["substance_class"] == "ionic_salt"
+
+
+def test_a_bracketed_propoxide_is_no_praseodymium():
+    # zirconium(IV) propoxide, Zr(OPr)4 as catalogues write it; PrCl3 stays praseodymium(III) chloride
+    row = score_formula("Zr(OPr)4")
+    assert "Pr" not in row["formula_normalized"] and "n-propyl" in row["message"]
+    assert score_formula("PrCl3")["formula_normalized"] == "PrCl3"
