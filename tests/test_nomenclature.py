@@ -380,3 +380,20 @@ def test_a_metal_named_as_the_metal():
     from ionicity.scorer.record import score_formula
     row = score_formula("sodium metal")
     assert row["formula_normalized"] == "Na" and "'metal'" in row["message"]
+
+
+@pytest.mark.parametrize("mineral", [
+    "sapphire", "anatase", "brookite", "cassiterite", "zircon", "spinel", "periclase", "dolomite", "aragonite",
+    "magnesite", "cerussite", "witherite", "strontianite", "anglesite", "celestine", "brucite", "stibnite",
+    "molybdenite", "pyrolusite", "wollastonite", "hydroxyapatite", "moissanite", "goethite",
+])
+def test_mineral_names_read_as_the_registry_s_formula(mineral):
+    # the formula of the mineral name in scorer/data/trivial_names.csv against the registry package's own
+    # lookup of the name (chemicals.identifiers.search_chemical); the registry's entries for chalcopyrite,
+    # ilmenite, chromite, kaolinite and talc are not the minerals' formulas and are not compared
+    chemicals = pytest.importorskip("chemicals")
+    from ionicity.scorer.formula import parse_formula
+    from ionicity.scorer.record import score_formula
+    registry = parse_formula(chemicals.identifiers.search_chemical(mineral).formula).hill
+    row = score_formula(mineral)
+    assert row["status"] == "warning" and parse_formula(row["formula_normalized"]).hill == registry

@@ -41,7 +41,7 @@ ROWS = {
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 62,
-    "trivial_names.csv": 123,
+    "trivial_names.csv": 168,
     "solution_names.csv": 19,
     "registry_names.csv": 13415,
     "fusion.csv": 38,
