@@ -94,7 +94,7 @@ def with_count_suggestion(row: tuple, text: str, position: dict[str, int]) -> tu
     count may be missing or no ions balance: "did you mean Na2SO4?" for NaSO4. The row's values and
     status stay those of the text as written."""
     message = row[position["message"]]
-    if row[position["status"]] == "ok" or not message or not any(m in message for m in _COUNT_MESSAGES):
+    if not message or (_COUNT_MESSAGES[0] not in message and _COUNT_MESSAGES[1] not in message):
         return row
     suggestions = missing_count_suggestions(text.strip())
     if not suggestions:

@@ -464,6 +464,11 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
+    if "-" in text_to_parse:
+        alloy = alloy_designation(text_to_parse)
+        if alloy is not None:
+            text_to_parse, alloy_note = alloy
+            notes.append(alloy_note)
     solvent = laboratory_code(text_to_parse)
     if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
         solvent = deuterated_solvent(text_to_parse)
@@ -725,6 +730,42 @@ def _solvent_codes() -> dict[str, tuple[str, str]]:
         _CODES_AS_WRITTEN.update(row["code"] for row in rows)
         _SOLVENT_CODES.update({row["code"].upper(): (row["formula"], row["name"]) for row in rows})
     return _SOLVENT_CODES
+
+
+# an alloy as metallurgy designates it: the base metal, then each addition's weight percent before its symbol
+# (Ti-6Al-4V, Fe-18Cr-8Ni, Al-12Si, Fe-0.8C; common practice, ASTM and ISO alloy designations)
+_ALLOY = re.compile(r"\s*([A-Z][a-z]?)((?:\s*-\s*\d+(?:\.\d+)?\s*[A-Z][a-z]?)+)\s*")
+_ALLOY_ADDITION = re.compile(r"-\s*(\d+(?:\.\d+)?)\s*([A-Z][a-z]?)")
+# non-metals an alloy takes as additions (carbon and nitrogen steels, silicon and phosphorus bronzes, boron)
+_ALLOY_NON_METALS = frozenset({"B", "C", "N", "Si", "P", "S"})
+
+
+def alloy_designation(text: str) -> tuple[str, str] | None:
+    """(formula in atom fractions, note) of an alloy designation, or None for any other text: ``Ti-6Al-4V``
+    is 6 wt% Al and 4 wt% V, the balance Ti, which is Ti0.862Al0.102V0.036 in atoms (4 significant digits).
+
+    >>> alloy_designation("Ti-6Al-4V")[0], alloy_designation("LiCl-KCl")
+    ('Ti0.862Al0.102V0.036', None)
+    """
+    from ionicity.scorer.elements import get_element, is_element_symbol, is_metal
+
+    m = _ALLOY.fullmatch(text) if isinstance(text, str) else None
+    if m is None or not is_element_symbol(m.group(1)) or not is_metal(m.group(1)):
+        return None
+    additions = [(symbol, float(wt)) for wt, symbol in _ALLOY_ADDITION.findall(m.group(2))]
+    symbols = [m.group(1)] + [s for s, _ in additions]
+    if len(set(symbols)) != len(symbols) or not all(
+            is_element_symbol(s) and (is_metal(s) or s in _ALLOY_NON_METALS) for s, _ in additions):
+        return None
+    balance = 100.0 - sum(wt for _, wt in additions)
+    if balance <= 0 or any(wt <= 0 for _, wt in additions):
+        return None
+    moles = [(m.group(1), balance / get_element(m.group(1)).atomic_weight)] + [
+        (s, wt / get_element(s).atomic_weight) for s, wt in additions]
+    total = sum(n for _, n in moles)
+    formula = "".join(f"{s}{n / total:.4g}" for s, n in moles)
+    return formula, (f"alloy designation {text.strip()!r} read as weight percent of each addition with the balance"
+                     f" {m.group(1)} (common practice): in atom fractions {formula}")
 
 
 def laboratory_code(text: str) -> tuple[str, str] | None:

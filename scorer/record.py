@@ -212,6 +212,7 @@ def _layout() -> tuple[tuple[str, ...], dict[str, int], tuple]:
     columns = output_columns()
     names = tuple(c.name for c in columns)
     empty = tuple(math.nan if c.dtype == "float64" else None for c in columns)
+    assert names[_STATUS_SLOT] == "status", "status must be the first output column (record._STATUS_SLOT)"
     return names, {n: i for i, n in enumerate(names)}, empty
 
 
@@ -327,6 +328,9 @@ def _slots() -> tuple[int, ...]:
     ))
 
 
+_STATUS_SLOT = 0  # scorer.columns puts status first (checked in _layout)
+
+
 @once
 def _melting_slots() -> tuple[int, int]:
     position = _layout()[1]
@@ -361,8 +365,12 @@ def _score_text(text: str) -> tuple:
         if CAPITALS_CODE.fullmatch(text):
             # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
             return code_like_row(_parsed_row(comp), text, _layout()[1], _error_row)
-        return with_count_suggestion(_parsed_row(comp), text, _layout()[1])
-    return with_count_suggestion(_read_row(text), text, _layout()[1])
+        row = _parsed_row(comp)
+    else:
+        row = _read_row(text)
+    # an error or warning whose formula most likely lost a count names the complete ones (one check of the
+    # status for every other row)
+    return row if row[_STATUS_SLOT] == "ok" else with_count_suggestion(row, text, _layout()[1])
 
 
 def _read_row(text: str) -> tuple:

@@ -454,9 +454,10 @@ def find_slip(text: str) -> Slip | None:
         Two slips in one text (``Kl03``: l for I, then 0 for O) are found
         in two rounds; the kind is the first one's.
     """
-    stray = _stray_punctuation(text)
-    if stray is not None:
-        return stray
+    if text and (text[0] in _STRAY_FIRST or text[-1] in _STRAY_LAST):
+        stray = _stray_punctuation(text)
+        if stray is not None:
+            return stray
     allowance = [SLIP_WORK_LIMIT, _PARSED_PROPOSALS]
     slip = _find_one(text, allowance)
     if slip is None or not slip.suggested:
@@ -472,6 +473,8 @@ def find_slip(text: str) -> Slip | None:
 # quotes before or after a formula, and a comma, semicolon, colon or full stop after it: "'NaCl" (a spreadsheet's
 # text mark), "NaCl," (a list pasted cell by cell), "KCl." (common practice)
 _STRAY = re.compile(r"^\s*['\"`´‘’“”]+|['\"`´‘’“”,;:.]+\s*$")
+_STRAY_FIRST = frozenset("'\"`´‘’“” \t")
+_STRAY_LAST = frozenset("'\"`´‘’“”,;:. \t")
 
 
 def _stray_punctuation(text: str) -> Slip | None:

@@ -227,3 +227,28 @@ def test_a_bracketed_propoxide_is_no_praseodymium():
     row = score_formula("Zr(OPr)4")
     assert "Pr" not in row["formula_normalized"] and "n-propyl" in row["message"]
     assert score_formula("PrCl3")["formula_normalized"] == "PrCl3"
+
+
+@pytest.mark.parametrize("text, atoms", [
+    # weight percent of each addition, the balance the base metal (alloy designations, common practice);
+    # atom fractions from the standard atomic weights of the mendeleev snapshot
+    ("Ti-6Al-4V", {"Ti": 0.862, "Al": 0.102, "V": 0.036}),
+    ("Cu-37Zn", {"Cu": 0.6366, "Zn": 0.3634}),
+])
+def test_an_alloy_designation_is_one_metallic_solid_in_atom_fractions(text, atoms):
+    from ionicity.scorer.formula import parse_formula
+    row = score_formula(text)
+    assert row["substance_class"] == "metallic" and "alloy designation" in row["message"]
+    counts = dict(parse_formula(row["formula_normalized"]).counts)
+    assert counts == pytest.approx(atoms, abs=2e-4)
+
+
+def test_an_alloy_melts_where_its_metals_do():
+    # Ti-6Al-4V melts near 1900 K (1878-1933 K, from memory), Sn-37Pb solder at 456 K (from memory)
+    assert score_formula("Ti-6Al-4V")["melting_class"] == "refractory"
+    assert score_formula("Sn-37Pb")["melting_class"] == "low_melting_solid"
+
+
+@pytest.mark.parametrize("text", ["LiCl-KCl", "Na-K", "Fe-Cr"])
+def test_a_dash_between_formulas_without_percentages_stays_a_mixture(text):
+    assert score_formula(text)["substance_class"] == "mixture"
