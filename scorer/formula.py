@@ -715,7 +715,7 @@ _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": 
 
 # a whole cell that is a solvent's or reagent's laboratory code (THF, DMSO, EC, DMC: scorer/data/solvent_codes.csv);
 # THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
-_SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\s*")
+_SOLVENT_CODE = re.compile(r"\s*[A-Za-z][A-Za-z0-9]{1,5}\s*")
 
 
 _SOLVENT_CODES: dict[str, tuple[str, str]] = {}

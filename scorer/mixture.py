@@ -39,8 +39,9 @@ from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, alloy_designa
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
-from ionicity.scorer.melting_routes import melting_class_for
+from ionicity.scorer.melting_routes import GAS_CLASS, melting_class_for
 from ionicity.scorer.mixing import corrosive_note, mixing_warning
+from ionicity.scorer.solutions import split_grade_words
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
 from ionicity.scorer.formula import (
@@ -147,6 +148,11 @@ def _blend(text: str) -> tuple[str, str, str] | None:
                 found = _USER_BLENDS.get(stem) or _blends().get(stem)
                 if found is not None:
                     break
+    if found is None and " " in key:
+        # a blend with a cylinder's or a dewar's words ("compressed air", "air, compressed", "liquid air")
+        stem = blend_key(split_grade_words(text)[0])
+        if stem != key:
+            found = _USER_BLENDS.get(stem) or _blends().get(stem)
     if found is None:
         return None
     return text.strip(), found[0], found[1]
@@ -569,6 +575,9 @@ def _record(mixture: Mixture) -> tuple:
         # keeps the trade's names (molten_salt, ionic_liquid), a blend with a molecular component the others
         row[position["melting_class"]] = melting_class_for(
             liquidus, salt=all(r[position["mp_route"]] == "salt" for r in records))
+    elif all(r[position["melting_class"]] == GAS_CLASS for r in records):
+        # a mixture of gases (air) is a gas: no liquidus is needed to say so
+        row[position["melting_class"]] = GAS_CLASS
     verdict = finalise(warnings=warnings, gaps=gaps)
     row[position["status"]] = verdict.status
     row[position["message"]] = verdict.message

@@ -257,9 +257,15 @@ _GRADE_WORD = (
     r"|\d{2,3}\s*proof"
     # a metal as the metal ("sodium metal", "lithium metal, ribbon")
     r"|metal|ribbon|granulate"
+    # a gas cylinder's label ("argon gas", "nitrogen, compressed", "ammonia, anhydrous, liquefied")
+    r"|gas|gaseous|compressed|liquefied|cylinder|lecture\s+bottle"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
 )
 _GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)
+# the same words before the name, as cylinder and dewar labels write them ("liquid nitrogen", "compressed air",
+# "anhydrous ammonia"; common practice)
+_GRADE_HEAD = re.compile(r"^\s*(?:(?:liquid|liquefied|compressed|anhydrous|gaseous|cryogenic|refrigerated)\s+)+",
+                         re.I)
 
 
 def split_grade_words(text: str) -> tuple[str, str | None]:
@@ -271,8 +277,17 @@ def split_grade_words(text: str) -> tuple[str, str | None]:
     ('Sodium chloride', 'ACS reagent, 99.5%')
     >>> split_grade_words("NaCl")
     ('NaCl', None)
+    >>> split_grade_words("liquid nitrogen"), split_grade_words("argon gas")
+    (('nitrogen', 'liquid'), ('argon', 'gas'))
     """
-    m = _GRADE_TAIL.search(text) if isinstance(text, str) else None
+    if not isinstance(text, str):
+        return text, None
+    head = _GRADE_HEAD.match(text)
+    if head is not None and head.end() < len(text):
+        body, words = split_grade_words(text[head.end():])
+        lead = head.group().strip()
+        return body, f"{lead}, {words}" if words else lead
+    m = _GRADE_TAIL.search(text)
     if m is None or m.start() == 0:
         return text, None
     return text[:m.start()].rstrip(" ,;"), text[m.start():].strip(" ,;.") or None

@@ -157,3 +157,21 @@ def test_sodium_hydride_in_oil_keeps_its_water_hazard():
     # NaH with water gives H2 violently (Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.5; from memory)
     out = score_formula("NaH 60% dispersion in mineral oil")
     assert out["water_behaviour"] == "reacts_violently" and out["water_reaction_products"] == "H2"
+
+
+@pytest.mark.parametrize("text, formula", [
+    # a cylinder's or dewar's words around a name (common practice)
+    ("liquid nitrogen", "N2"), ("argon gas", "Ar"), ("anhydrous ammonia", "NH3"), ("nitrogen, compressed", "N2"),
+    ("LN2", "N2"),
+])
+def test_cylinder_and_dewar_labels_read_as_their_gas(text, formula):
+    out = score_formula(text)
+    assert out["formula_normalized"] == formula and out["melting_class"] == "gas_at_room_temperature"
+
+
+@pytest.mark.parametrize("text", ["air", "compressed air"])
+def test_air_is_a_mixture_of_gases(text):
+    # dry air: N2 78.08, O2 20.95, Ar 0.93 mol% (CRC Handbook, from memory)
+    out = score_formula(text)
+    assert out["substance_class"] == "mixture" and out["mixture_components"] == "N2;O2;Ar"
+    assert out["melting_class"] == "gas_at_room_temperature"
