@@ -361,15 +361,18 @@ def _error_row(message: str) -> tuple:
 def _score_text(text: str) -> tuple:
     # one scan: an ordinary formula (most texts) skips the mixture, solution and slip readers
     comp = ordinary_formula(text)
-    if comp is not None:
-        if CAPITALS_CODE.fullmatch(text):
-            # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
-            return code_like_row(_parsed_row(comp), text, _layout()[1], _error_row)
-        row = _parsed_row(comp)
-    else:
-        row = _read_row(text)
-    # an error or warning whose formula most likely lost a count names the complete ones (one check of the
-    # status for every other row)
+    if comp is None:
+        return _read_row(text)
+    row = _parsed_row(comp)
+    if CAPITALS_CODE.fullmatch(text):
+        # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
+        row = code_like_row(row, text, _layout()[1], _error_row)
+    return _counted(row, text)
+
+
+def _counted(row: tuple, text: str) -> tuple:
+    """``row``, where it is an error or warning whose formula most likely lost a count, with the complete
+    formulas named (:func:`scorer.audit_rows.with_count_suggestion`); one check of the status for the rest."""
     return row if row[_STATUS_SLOT] == "ok" else with_count_suggestion(row, text, _layout()[1])
 
 
@@ -379,7 +382,7 @@ def _read_row(text: str) -> tuple:
     if mixture is not None:
         return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
-    return audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row)
+    return _counted(audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row), text)
 
 
 def _plain_row(text: str) -> tuple:
