@@ -47,7 +47,9 @@ from ionicity.scorer.ion_library import (
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
-from ionicity.scorer.registry_formulas import registry_molecule, registry_salt
+from ionicity.scorer.registry_formulas import (
+    registry_molecule, registry_reactive_group, registry_reactive_isomer, registry_salt,
+)
 from ionicity.scorer.substance import (
     binary_carbonyl,
     classify,
@@ -65,6 +67,9 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 # groups a formula's text or a name shows that water attacks (scorer.water)
 _REACTIVE_GROUPS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
+# the elements of an acyl halide's Hill formula (registry_reactive_group is asked only for these)
+_ACYL_HALOGENS = frozenset({"F", "Cl", "Br", "I"})
+_ACYL_ELEMENTS = frozenset({"C", "H", "O"}) | _ACYL_HALOGENS
 # hypohalites, and the N-H cations that react with them (chloramine chemistry)
 _HYPOHALITES = frozenset({"ClO(-)", "BrO(-)", "IO(-)"})
 _AMMONIUM_LIKE = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
@@ -210,11 +215,23 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return metal_rich
     if len(symbols) == 1 or all(is_metal(s) for s in symbols):
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-    if comp.structure_hint in _REACTIVE_GROUPS and not any(is_metal(s) for s in symbols):
+    group = comp.structure_hint if comp.structure_hint in _REACTIVE_GROUPS else None
+    if group is None and not comp.structure_hint and not comp.ion_hints and "C" in symbols and "O" in symbols and (
+            symbols & _ACYL_HALOGENS) and symbols <= _ACYL_ELEMENTS:
+        # a Hill formula whose every registry compound is an acyl halide (C2Cl2O2 is oxalyl chloride, CCl2O
+        # phosgene); where an isomer is not (C2H3ClO: acetyl chloride and chloroacetaldehyde), no group is said
+        group = registry_reactive_group(hill_formula(counts))
+        isomer = registry_reactive_isomer(hill_formula(counts)) if group is None else None
+        if isomer is not None:
+            # the formula also names a compound water attacks: say so rather than let "miscible" stand alone
+            notes.append(f"one compound of this formula, {isomer[1]}, is an {isomer[0].replace('_', ' ')} that water"
+                         " attacks (the hydrogen halide and the acid); the formula does not say which compound this is:"
+                         " check it and its safety data sheet")
+    if group is not None and not any(is_metal(s) for s in symbols):
         # an acyl halide written out (CH3COCl, COCl2), or an acid anhydride or isocyanate a name says
         # (name_reader: the registry's SMILES): a molecule with a group water attacks
         dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
-        return dataclasses.replace(dec, written_groups=(comp.structure_hint,))
+        return dataclasses.replace(dec, written_groups=(group,))
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)

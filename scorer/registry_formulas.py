@@ -45,6 +45,47 @@ def registry_molecule(hill: str) -> str | None:
     return found[1]
 
 
+def registry_reactive_group(hill: str) -> str | None:
+    """The group water attacks (``acyl_halide``, ``acid_anhydride``, ``isocyanate``) when every compound the
+    registry lists with Hill formula ``hill`` has that one group; ``None`` otherwise.
+
+    >>> registry_reactive_group("C2Cl2O2"), registry_reactive_group("C2H3ClO")
+    ('acyl_halide', None)
+    """
+    found = _kinds().get(hill)
+    if found is None or len(found[0]) != 1:
+        return None
+    (kind,) = found[0]
+    return kind if kind in _MOLECULE_KINDS and kind != "molecule" else None
+
+
+@once
+def _reactive_names() -> dict[str, tuple[str, str]]:
+    """Hill formula -> (reactive kind, the first name the registry gives a compound of that kind)."""
+    out: dict[str, tuple[str, str]] = {}
+    for row in table("registry_names.csv"):
+        if row["kind"] in _REACTIVE_KINDS:
+            out.setdefault(row["formula"], (row["kind"], row["name"]))
+    return out
+
+
+_REACTIVE_KINDS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
+
+
+def registry_reactive_isomer(hill: str) -> tuple[str, str] | None:
+    """(kind, name) of a compound with Hill formula ``hill`` that has a group water attacks, where the registry
+    also lists compounds of that formula without one (C2H3ClO: acetyl chloride beside chloroacetaldehyde);
+    ``None`` otherwise.
+
+    >>> registry_reactive_isomer("C2H3ClO")[0], registry_reactive_isomer("C2Cl2O2")
+    ('acyl_halide', None)
+    """
+    found = _kinds().get(hill)
+    if found is None or len(found[0]) < 2 or not found[0] & _REACTIVE_KINDS:
+        return None
+    return _reactive_names().get(hill)
+
+
 def registry_salt(hill: str) -> str | None:
     """The registry's name of a compound with Hill formula ``hill`` when every compound it lists with that
     formula is a salt (several components in its SMILES); ``None`` otherwise.

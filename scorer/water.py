@@ -376,6 +376,11 @@ def _high_valent_molecular_metal(centre: str, dec: Decomposition) -> bool:
 def _fuming_halide(counts, dec) -> _Finding | None:
     if dec.is_ionic:
         return None
+    if counts == {"H": 1.0, "S": 1.0, "O": 3.0, "Cl": 1.0}:
+        # chlorosulfonic acid, HSO3Cl: reacts explosively with water to HCl and H2SO4 (Greenwood & Earnshaw,
+        # Chemistry of the Elements, 2nd ed., 1997, ch. 15.2.6; Bretherick; from memory)
+        return _finding("reacts_violently", "acidic", "HCl;H2SO4", "fuming covalent halide",
+                        "chlorosulfonic acid: reacts explosively with water (fumes in moist air), giving HCl and H2SO4")
     halogens = [s for s in counts if s in _HALOGENS]
     centres = [s for s in counts if s not in _HALOGENS and s != "O"]
     if not halogens or len(centres) != 1:

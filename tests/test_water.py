@@ -389,3 +389,31 @@ def test_written_isocyanates_and_anhydrides_react(formula, products):
 def test_an_n_acyl_group_cyanic_acid_and_cyanates_are_no_isocyanates(formula):
     # N,N-dimethylacetamide, isocyanic acid (an acid, read as before), potassium cyanate (a salt)
     assert score_formula(formula)["water_reaction_products"] != "amine;CO2"
+
+
+@pytest.mark.parametrize("formula, cas", [
+    ("C2Cl2O2", "79-37-8"),   # oxalyl chloride
+    ("C12H23ClO", "112-16-3"),  # lauroyl chloride
+])
+def test_a_hill_formula_whose_every_registry_compound_is_an_acyl_halide_reacts(formula, cas):
+    # the registry package chemicals lists only the acyl halide for these formulas (its SMILES holds C(=O)Cl);
+    # acyl halides hydrolyse to HCl and the acid (Bretherick; from memory)
+    chemicals = pytest.importorskip("chemicals")
+    assert "C(=O)Cl" in chemicals.identifiers.search_chemical(cas).smiles.replace("ClC(=O)", "C(=O)Cl")
+    from ionicity.scorer.record import score_formula
+    assert score_formula(formula)["water_behaviour"] == "reacts_violently"
+
+
+@pytest.mark.parametrize("formula, isomer", [("C2H3ClO", "Acetyl chloride"), ("C7H5ClO", "Benzoyl chloride")])
+def test_a_formula_with_an_acyl_halide_among_its_isomers_warns(formula, isomer):
+    # C2H3ClO is acetyl chloride and chloroacetaldehyde; the formula cannot say which: the row says so
+    from ionicity.scorer.record import score_formula
+    row = score_formula(formula)
+    assert row["status"] == "warning" and isomer in row["message"] and "safety data sheet" in row["message"]
+
+
+def test_chlorosulfonic_acid_reacts_violently():
+    # HSO3Cl + H2O -> HCl + H2SO4, explosively (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15.2.6; from memory)
+    from ionicity.scorer.record import score_formula
+    row = score_formula("HSO3Cl")
+    assert (row["water_behaviour"], row["water_reaction_products"]) == ("reacts_violently", "HCl;H2SO4")
