@@ -34,7 +34,7 @@ from dataclasses import dataclass
 from ionicity.scorer.caching import clear_all, once, per_input
 from ionicity.scorer.caution import CAUTION, WATER_CAUTION
 from ionicity.scorer.columns import output_columns
-from ionicity.scorer.elements import get_element
+from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, alloy_designation, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
@@ -154,8 +154,46 @@ def _blend(text: str) -> tuple[str, str, str] | None:
         if stem != key:
             found = _USER_BLENDS.get(stem) or _blends().get(stem)
     if found is None:
-        return None
+        catalyst = supported_catalyst(text)
+        return None if catalyst is None else (text.strip(), *catalyst)
     return text.strip(), found[0], found[1]
+
+
+# a metal on a support as catalogues write it: "Pd/C 10%", "Pt on carbon (5 wt%)", "Pd/Al2O3 5%"
+_SUPPORTED = re.compile(
+    r"\s*(?P<metal>[A-Z][a-z]?)\s*(?:/|\s+on\s+)\s*(?P<support>C|carbon|charcoal|Al2O3|alumina|SiO2|silica|CaCO3"
+    r"|BaSO4|TiO2)\s*,?\s*\(?\s*(?P<load>\d+(?:\.\d+)?)\s*(?:wt\.?\s*)?%\s*(?:wt\.?)?\s*\)?\s*", re.I)
+_SUPPORTS = {"carbon": "C", "charcoal": "C", "alumina": "Al2O3", "silica": "SiO2"}
+
+
+def supported_catalyst(text: str) -> tuple[str, str] | None:
+    """(mixture text, source) of a metal on a support with its loading: ``Pd/C 10%`` is 10 wt% Pd on carbon,
+    ``Pd-C (10-90 wt%)``; None for any other text. A metal on carbon carries the ignition caution of the
+    mixture notes (:func:`supported_metal_caution`).
+
+    >>> supported_catalyst("Pd/C 10%")[0], supported_catalyst("NaCl") is None
+    ('Pd-C (10-90 wt%)', True)
+    """
+    m = _SUPPORTED.fullmatch(text) if isinstance(text, str) and len(text) < 60 else None
+    if m is None or not is_metal(m.group("metal")):
+        return None
+    load = float(m.group("load"))
+    if not 0 < load < 100:
+        return None
+    support = _SUPPORTS.get(m.group("support").lower(), m.group("support"))
+    return (f"{m.group('metal')}-{support} ({load:g}-{100 - load:g} wt%)",
+            "a metal on a support, its loading in weight percent (common practice)")
+
+
+def supported_metal_caution(names) -> str:
+    """The caution of a fine metal on carbon (Pd/C, Pt/C, Raney-type catalysts): it can ignite solvent vapours
+    and hydrogen in air, above all when dry or used (Bretherick's Handbook of Reactive Chemical Hazards, 7th ed.,
+    2007; from memory); "" for other mixtures."""
+    names = tuple(names)
+    if len(names) == 2 and names[1] == "C" and is_metal(names[0]):
+        return (f"{names[0]} on carbon can ignite solvent vapours and hydrogen in air, above all when dry or spent:"
+                " keep it wet and follow the safety data sheet")
+    return ""
 
 
 def names_a_blend(text: str) -> bool:
@@ -565,6 +603,9 @@ def _record(mixture: Mixture) -> tuple:
     corrosive = corrosive_note(parts)
     if corrosive:
         gaps.append(corrosive)
+    ignition = supported_metal_caution(c.name for c in mixture.components)
+    if ignition:
+        warnings.append(ignition)
     networks = [c.name for c, r in zip(mixture.components, records)
                 if r[position["substance_class"]] in NETWORK_MELT_CLASSES]
     if networks and liquidus == liquidus and all(m is not None and m.ionic for m in map(_melt, mixture.components)):

@@ -175,3 +175,20 @@ def test_air_is_a_mixture_of_gases(text):
     out = score_formula(text)
     assert out["substance_class"] == "mixture" and out["mixture_components"] == "N2;O2;Ar"
     assert out["melting_class"] == "gas_at_room_temperature"
+
+
+@pytest.mark.parametrize("text, components, loading", [
+    ("Pd/C 10%", "Pd;C", 0.01239), ("Pt on carbon (5 wt%)", "Pt;C", 0.00323), ("Pd/Al2O3 5%", "Pd;Al2O3", 0.04801),
+])
+def test_a_metal_on_a_support_is_its_loading_in_weight_percent(text, components, loading):
+    # 10 wt% Pd on carbon is 1.24 mol% Pd (molar masses 106.42 and 12.011 g/mol, IUPAC standard atomic weights)
+    out = score_formula(text)
+    assert out["substance_class"] == "mixture" and out["mixture_components"] == components
+    assert float(out["mixture_mole_fractions"].split(";")[0]) == pytest.approx(loading, rel=1e-3)
+
+
+def test_a_metal_on_carbon_carries_the_ignition_caution():
+    # Pd/C ignites methanol vapour and hydrogen in air when dry (Bretherick; from memory)
+    out = score_formula("Pd/C 10%")
+    assert out["status"] == "warning" and "can ignite" in out["message"] and "safety data sheet" in out["message"]
+    assert "can ignite" not in (score_formula("Pd/Al2O3 5%")["message"] or "")
