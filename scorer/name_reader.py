@@ -154,8 +154,15 @@ def _basic_salt_name(name: str) -> str:
     return _BASIC_BEFORE.sub(before, _BASIC_AFTER.sub(after, name))
 
 
+# the ring nitrogen's locant written N (N-butyl-N-methylpyrrolidinium) where the library names the cation with
+# locant 1 (1-butyl-1-methylpyrrolidinium; IUPAC Blue Book 2013, P-31.1.4: both are in use)
+_N_LOCANTS = re.compile(r"\bN-([a-z]+yl)-N-([a-z]+yl)(?=pyrrolidinium|piperidinium|morpholinium|azepanium)", re.I)
+
+
 def _read_text(name: str) -> str | None:
     name = _CAS_QUALIFIERS.sub("", name)
+    if "N-" in name:
+        name = _N_LOCANTS.sub(r"1-\1-1-\2", name)
     if "basic" in name.lower():
         name = _basic_salt_name(name)
     name = _CAS_HYDRATE.sub(lambda m: f" {m.group(1)}-hydrate", name)

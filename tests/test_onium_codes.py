@@ -120,3 +120,13 @@ def test_codes_of_the_trade_read_as_their_ions(text, normalized):
     row = score_formula(text)
     assert row["status"] in ("ok", "warning") and row["formula_normalized"] == normalized
     assert row["substance_class"] == "ionic_liquid_pair"
+
+
+@pytest.mark.parametrize("name, normalized", [
+    # the ring nitrogen's locant written N or 1 (IUPAC Blue Book 2013, P-31.1.4; both in use)
+    ("N-butyl-N-methylpyrrolidinium bis(trifluoromethanesulfonyl)imide", "[C4mpyr][NTf2]"),
+    ("N-methyl-N-propylpiperidinium bromide", "[C3mpip]Br"),
+])
+def test_n_locants_of_the_ring_onium_names_read_as_locant_one(name, normalized):
+    row = score_formula(name)
+    assert row["formula_normalized"] == normalized and row["substance_class"] == "ionic_liquid_pair"
