@@ -35,7 +35,7 @@ from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
-from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.elements import element_symbols, get_element, is_metal
 from ionicity.scorer.formula import HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
@@ -555,6 +555,16 @@ def _woehler_isomer(readings) -> bool:
     return "NH4(+)" in ids and bool(ids - {"NH4(+)"}) and ids - {"NH4(+)"} <= _WOEHLER_ANIONS
 
 
+_NONMETAL_CATION_ELEMENTS: set[str] = set()
+
+
+def _nonmetal_cation_elements() -> set[str]:
+    """The non-metals and metalloids but hydrogen, filled once (the check runs on every reading the solver ranks)."""
+    if not _NONMETAL_CATION_ELEMENTS:
+        _NONMETAL_CATION_ELEMENTS.update(s for s in element_symbols() if not is_metal(s) and s != "H")
+    return _NONMETAL_CATION_ELEMENTS
+
+
 def reversed_polarity(terms) -> bool:
     """Whether a reading makes a non-metal (or metalloid) a monatomic cation beside a monatomic anion of a
     less electronegative element: Te(4+) with Ge(4-) for GeTe. An oxidation
@@ -567,8 +577,8 @@ def reversed_polarity(terms) -> bool:
     False
     """
     # hydrogen keeps +1 beside the non-metals by convention (H2Te and H2Se are acids), whatever the scale says
-    cations = [ion.element for ion, _ in terms
-               if ion.monatomic and ion.charge > 0 and not is_metal(ion.element) and ion.element != "H"]
+    nonmetals = _NONMETAL_CATION_ELEMENTS or _nonmetal_cation_elements()
+    cations = [ion.element for ion, _ in terms if ion.charge > 0 and ion.element in nonmetals and ion.monatomic]
     if not cations:
         return False
     anions = [ion.element for ion, _ in terms if ion.monatomic and ion.charge < 0]
