@@ -129,6 +129,8 @@ _OTHER_BANDS = ("liquid_at_room_temperature", "melts_below_100C", "low_melting_s
 
 
 GAS_CLASS = "gas_at_room_temperature"
+# the most atoms of a formula in gases.csv (scorer/data/build_gases.py, MAX_GAS_ATOMS)
+_GAS_MAX_ATOMS = 16
 GAS_SOURCE = "registry package chemicals, scorer/data/gases.csv"
 
 
@@ -144,6 +146,8 @@ def gas_at_room_temperature(composition) -> tuple[float, str] | None:
     >>> gas_at_room_temperature((("C", 1.0), ("O", 2.0))), gas_at_room_temperature((("H", 2.0), ("O", 1.0)))
     ((194.7, 'Carbon dioxide'), None)
     """
+    if sum(n for _, n in composition) > _GAS_MAX_ATOMS:
+        return None  # most formulas: no Hill formula to write
     return _gases().get(hill_formula(dict(composition)))
 
 

@@ -9,7 +9,8 @@ so a Hill formula is listed only when every compound of ``registry_names.csv`` w
 normal boiling point in the registry package ``chemicals`` (``chemicals.phase_change.Tb``: CRC Handbook,
 Yaws and the other sources it ranks) and the highest of them is below 298.15 K: C2H6O (dimethyl ether
 249 K, ethanol 351 K) is not listed. Formulas of more than one element that the registry lists only as
-salts are left out too. Columns: ``formula`` (Hill order), ``boiling_point_K`` (the highest over the
+salts are left out too, and formulas of more than ``MAX_GAS_ATOMS`` atoms (the registry's boiling points
+for two such are wrong). Columns: ``formula`` (Hill order), ``boiling_point_K`` (the highest over the
 formula's compounds, rounded to 0.1 K), ``name`` and ``cas`` (the compound with that boiling point), and
 ``source``. Cl2 and F2, whose names the name reader reads itself, are added by CAS number. ``--check`` exits 1 when the file differs from a rebuild.
 """
@@ -24,12 +25,18 @@ from pathlib import Path
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "gases.csv"
 ROOM_TEMPERATURE_K = 298.15
+# the most atoms a molecule has that boils below 25 C (C4F10, C4H10: 14); the two larger formulas the registry
+# puts below 25 C, 2-butanone peroxide (C8H18O6) and a triethoxy(chloropropyl)silane (C9H21ClO3Si), boil far
+# above it (common practice): MAX_GAS_ATOMS keeps such values out and lets the scorer skip larger formulas
+MAX_GAS_ATOMS = 16
 # elements that are gases as diatomic molecules and that registry_names.csv does not hold, by CAS number
 _ELEMENT_GASES = {"Cl2": ("Chlorine", "7782-50-5"), "F2": ("Fluorine", "7782-41-4")}
 
 
 def build() -> str:
     from chemicals.phase_change import Tb
+
+    from ionicity.scorer.formula import parse_formula
 
     by_formula: dict[str, list[tuple[float | None, str, str, str]]] = defaultdict(list)
     with open(HERE / "registry_names.csv", encoding="utf-8", newline="") as fh:
@@ -47,6 +54,8 @@ def build() -> str:
     for formula, entries in sorted(by_formula.items()):
         if any(kind == "salt" for *_, kind in entries):
             continue
+        if sum(n for _, n in parse_formula(formula).counts) > MAX_GAS_ATOMS:
+            continue  # a molecule this large boils far above 25 C: the registry's value is wrong
         boiling = [tb for tb, *_ in entries]
         if any(tb is None or tb != tb for tb in boiling) or max(boiling) >= ROOM_TEMPERATURE_K:
             continue
