@@ -48,7 +48,8 @@ from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
-    registry_molecule, registry_reactive_group, registry_reactive_isomer, registry_salt,
+    ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_reactive_group, registry_reactive_isomer,
+    registry_salt,
 )
 from ionicity.scorer.substance import (
     binary_carbonyl,
@@ -67,9 +68,6 @@ __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work"
 _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 # groups a formula's text or a name shows that water attacks (scorer.water)
 _REACTIVE_GROUPS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
-# the elements of an acyl halide's Hill formula (registry_reactive_group is asked only for these)
-_ACYL_HALOGENS = frozenset({"F", "Cl", "Br", "I"})
-_ACYL_ELEMENTS = frozenset({"C", "H", "O"}) | _ACYL_HALOGENS
 # hypohalites, and the N-H cations that react with them (chloramine chemistry)
 _HYPOHALITES = frozenset({"ClO(-)", "BrO(-)", "IO(-)"})
 _AMMONIUM_LIKE = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
@@ -217,7 +215,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     group = comp.structure_hint if comp.structure_hint in _REACTIVE_GROUPS else None
     if group is None and not comp.structure_hint and not comp.ion_hints and "C" in symbols and "O" in symbols and (
-            symbols & _ACYL_HALOGENS) and symbols <= _ACYL_ELEMENTS:
+            symbols & ACYL_HALOGENS) and symbols <= ACYL_HALIDE_ELEMENTS:
         # a Hill formula whose every registry compound is an acyl halide (C2Cl2O2 is oxalyl chloride, CCl2O
         # phosgene); where an isomer is not (C2H3ClO: acetyl chloride and chloroacetaldehyde), no group is said
         group = registry_reactive_group(hill_formula(counts))

@@ -62,7 +62,7 @@ from ionicity.scorer.formula import ParsedFormula, hill_formula
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_search import _NO_ORGANIC_PAIR_ANIONS
 from ionicity.scorer.model import Decomposition, IonTerm
-from ionicity.scorer.registry_formulas import registry_salt
+from ionicity.scorer.registry_formulas import ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_salt
 from ionicity.scorer.substance import classify, nonionic_decomposition, organic_candidate
 
 __all__ = [
@@ -211,10 +211,6 @@ def organic_molecule(comp: ParsedFormula) -> Decomposition | None:
     return _molecule(comp.counts, comp.structure_hint == "amide")
 
 
-# the elements of an acyl halide's formula (scorer.ions asks the registry about those)
-_ACYL_HALOGENS = frozenset({"F", "Cl", "Br", "I"})
-_ACYL_ELEMENTS = frozenset({"C", "H", "O"}) | _ACYL_HALOGENS
-
 # written groups the solver reads before the ion-pair rule: amide groups (urea
 # as CO(NH2)2) make a formula without metal a molecule at once; a C5H5 group
 # (pyridine, C5H5N) says something only beside a metal, which no candidate has
@@ -241,7 +237,7 @@ def _molecule(counts: tuple[tuple[str, float], ...], amide: bool = False) -> Dec
         return None
     if "N" in as_dict and any(x in as_dict for x in ("Cl", "Br", "I")) and registry_salt(hill_formula(as_dict)):
         return None  # the registry lists the formula only as a salt (an amine hydrohalide): the solver reads it
-    if "O" in as_dict and not as_dict.keys() - _ACYL_ELEMENTS and as_dict.keys() & _ACYL_HALOGENS:
+    if "O" in as_dict and not as_dict.keys() - ACYL_HALIDE_ELEMENTS and as_dict.keys() & ACYL_HALOGENS:
         return None  # an acyl halide's shape (C2H3ClO): the solver asks the registry whether one is meant
     # what scorer.ions reads for a formula without ions: no notes, no water, no adducts
     return settle(nonionic_decomposition(0, as_dict, [], 0.0, ()))

@@ -70,6 +70,10 @@ def _reactive_names() -> dict[str, tuple[str, str]]:
 
 
 _REACTIVE_KINDS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
+# the elements of an acyl halide's Hill formula: only formulas of these are asked about (scorer.ions) and kept
+# from the organic shortcut (scorer.organic), so that both paths read them alike
+ACYL_HALOGENS = frozenset({"F", "Cl", "Br", "I"})
+ACYL_HALIDE_ELEMENTS = frozenset({"C", "H", "O"}) | ACYL_HALOGENS
 
 
 def registry_reactive_isomer(hill: str) -> tuple[str, str] | None:

@@ -258,7 +258,7 @@ _GRADE_WORD = (
     # a metal as the metal ("sodium metal", "lithium metal, ribbon")
     r"|metal|ribbon|granulate"
     # a gas cylinder's label ("argon gas", "nitrogen, compressed", "ammonia, anhydrous, liquefied")
-    r"|gas|gaseous|compressed|liquefied|cylinder|lecture\s+bottle"
+    r"|gas|gaseous|compressed|liquefied|cylinder"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
 )
 _GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)
