@@ -14,7 +14,7 @@ from ionicity.scorer.slips import Slip, find_slip, missing_count_suggestions
 from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
-__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion"]
+__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion", "material_message"]
 
 
 def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
@@ -30,6 +30,8 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
         return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
                             position)
     slip = find_slip(text)
+    if slip is not None and material_message(text) is not None:
+        return error_row(material_message(text))  # "brass" is no BrAsS
     if slip is not None and parsed_row is not None:
         # one word of letters that the vocabulary or the registry holds as a name ("tin", "Tin", "TIN", "iron",
         # "arsine") is that name, not a formula that lost its case or had I for l (TiN, TlN, IrON, ArSiNe)
@@ -45,6 +47,25 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     else:
         row = plain_row(text) if slip.kind == "leading_zero" else error_row(slip.message)
     return slipped_row(row, slip, position)
+
+
+# materials a stock list names that have no one formula, and whose names the slip search would re-case into
+# element symbols ("brass" as BrAsS; common practice)
+_MATERIALS = {
+    "brass": "an alloy of copper and zinc", "bronze": "an alloy of copper and tin", "steel": "an alloy of iron",
+    "stainless steel": "an alloy of iron, chromium and nickel", "solder": "an alloy of tin (with lead or silver)",
+    "glass": "a silicate glass", "cement": "a mixture of calcium silicates and aluminates",
+    "concrete": "cement with sand and gravel", "seawater": "a solution of several salts",
+    "petroleum ether": "a mixture of light alkanes",
+}
+
+def material_message(text: str) -> str | None:
+    """The error of a cell naming a material of no one formula (:data:`_MATERIALS`); None for any other text."""
+    material = _MATERIALS.get(" ".join(text.lower().split()))
+    if material is None:
+        return None
+    return (f"{text.strip()!r} is {material}, of no one formula: write its composition as a formula or a mixture"
+            " (e.g. Cu-37Zn for a brass, Fe-18Cr-8Ni for a stainless steel)")
 
 
 # a whole cell of three to six capitals, which reads as one-letter element symbols: the shape of a laboratory

@@ -469,7 +469,7 @@ def parse_formula(text: str) -> ParsedFormula:
         if alloy is not None:
             text_to_parse, alloy_note = alloy
             notes.append(alloy_note)
-    solvent = laboratory_code(text_to_parse)
+    solvent = laboratory_code(text_to_parse) if _SOLVENT_CODE.fullmatch(text_to_parse) else None
     if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
         solvent = deuterated_solvent(text_to_parse)
     if solvent is not None:
@@ -715,7 +715,7 @@ _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": 
 
 # a whole cell that is a solvent's or reagent's laboratory code (THF, DMSO, EC, DMC: scorer/data/solvent_codes.csv);
 # THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
-_SOLVENT_CODE = re.compile(r"\s*[A-Za-z][A-Za-z0-9]{1,5}\s*")
+_SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\d?\s*")
 
 
 _SOLVENT_CODES: dict[str, tuple[str, str]] = {}

@@ -5,7 +5,7 @@ import math
 import re
 
 from ionicity.scorer.applicability import family_decided
-from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, with_count_suggestion
+from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, material_message, with_count_suggestion
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.elements import get_element, is_metal
@@ -395,7 +395,9 @@ def _plain_row(text: str) -> tuple:
         if comp is None:
             comp = without_grade_words(text)
             if comp is None:
-                return _error_row(_unread_text_message(text, exc) if _LOWER_WORD.search(text) else str(exc))
+                if not _LOWER_WORD.search(text):
+                    return _error_row(str(exc))
+                return _error_row(material_message(text) or _unread_text_message(text, exc))
     return _parsed_row(comp)
 
 

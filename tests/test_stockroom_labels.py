@@ -252,3 +252,10 @@ def test_an_alloy_melts_where_its_metals_do():
 @pytest.mark.parametrize("text", ["LiCl-KCl", "Na-K", "Fe-Cr"])
 def test_a_dash_between_formulas_without_percentages_stays_a_mixture(text):
     assert score_formula(text)["substance_class"] == "mixture"
+
+
+@pytest.mark.parametrize("text", ["brass", "Brass", "stainless steel", "glass", "seawater", "petroleum ether"])
+def test_materials_of_no_one_formula_say_so(text):
+    # "brass" was re-cased into BrAsS, a bromine arsenic sulfide (common practice: these name no compound)
+    row = score_formula(text)
+    assert row["status"] == "error" and "of no one formula" in row["message"]
