@@ -374,13 +374,16 @@ def _high_valent_molecular_metal(centre: str, dec: Decomposition) -> bool:
 
 
 def _fuming_halide(counts, dec) -> _Finding | None:
+    halide = _HALOSULFONIC.get(frozenset(counts.items()))
+    if halide is not None:
+        # the halosulfonic acids HSO3Cl and HSO3F (read as an acid or a molecule): water attacks the S-X bond
+        # violently, giving HX and H2SO4 (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+        # ch. 15.2.6; Bretherick; from memory)
+        return _finding("reacts_violently", "acidic", f"H{halide};H2SO4", "fuming covalent halide",
+                        f"a halosulfonic acid (HSO3{halide}): reacts violently with water (fumes in moist air), giving"
+                        f" H{halide} and H2SO4")
     if dec.is_ionic:
         return None
-    if counts == {"H": 1.0, "S": 1.0, "O": 3.0, "Cl": 1.0}:
-        # chlorosulfonic acid, HSO3Cl: reacts explosively with water to HCl and H2SO4 (Greenwood & Earnshaw,
-        # Chemistry of the Elements, 2nd ed., 1997, ch. 15.2.6; Bretherick; from memory)
-        return _finding("reacts_violently", "acidic", "HCl;H2SO4", "fuming covalent halide",
-                        "chlorosulfonic acid: reacts explosively with water (fumes in moist air), giving HCl and H2SO4")
     halogens = [s for s in counts if s in _HALOGENS]
     centres = [s for s in counts if s not in _HALOGENS and s != "O"]
     if not halogens or len(centres) != 1:
@@ -396,6 +399,7 @@ def _fuming_halide(counts, dec) -> _Finding | None:
                     f" {products.replace(';', ' and ')}")
 
 
+_HALOSULFONIC = {frozenset({("H", 1.0), ("S", 1.0), ("O", 3.0), (x, 1.0)}): x for x in ("F", "Cl")}
 _NOBLE_GASES = frozenset({"Kr", "Xe", "Rn"})
 # the oxoacid a fluoride's other halogen ends in, as usually written (IF5 + 3 H2O -> HIO3 + 5 HF)
 _INTERHALOGEN_FLUORIDE_PRODUCTS = {"Cl": "HF;Cl2;O2", "Br": "HF;HBrO3;Br2;O2", "I": "HF;HIO3"}

@@ -412,8 +412,10 @@ def test_a_formula_with_an_acyl_halide_among_its_isomers_warns(formula, isomer):
     assert row["status"] == "warning" and isomer in row["message"] and "safety data sheet" in row["message"]
 
 
-def test_chlorosulfonic_acid_reacts_violently():
-    # HSO3Cl + H2O -> HCl + H2SO4, explosively (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15.2.6; from memory)
+@pytest.mark.parametrize("formula, halide", [("HSO3Cl", "HCl"), ("HSO3F", "HF"), ("FSO3H", "HF")])
+def test_halosulfonic_acids_react_violently(formula, halide):
+    # HSO3X + H2O -> HX + H2SO4, violently (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15.2.6; from memory);
+    # fluorosulfonic acid read "dissolves" before, as a strong acid
     from ionicity.scorer.record import score_formula
-    row = score_formula("HSO3Cl")
-    assert (row["water_behaviour"], row["water_reaction_products"]) == ("reacts_violently", "HCl;H2SO4")
+    row = score_formula(formula)
+    assert (row["water_behaviour"], row["water_reaction_products"]) == ("reacts_violently", f"{halide};H2SO4")
