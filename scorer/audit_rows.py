@@ -30,8 +30,9 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
         return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
                             position)
     slip = find_slip(text)
-    if slip is not None and material_message(text) is not None:
-        return error_row(material_message(text))  # "brass" is no BrAsS
+    material = material_message(text) if slip is not None else None
+    if material is not None:
+        return error_row(material)  # "brass" is no BrAsS
     if slip is not None and parsed_row is not None:
         # one word of letters that the vocabulary or the registry holds as a name ("tin", "Tin", "TIN", "iron",
         # "arsine") is that name, not a formula that lost its case or had I for l (TiN, TlN, IrON, ArSiNe)

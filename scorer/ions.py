@@ -218,8 +218,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             symbols & ACYL_HALOGENS) and symbols <= ACYL_HALIDE_ELEMENTS:
         # a Hill formula whose every registry compound is an acyl halide (C2Cl2O2 is oxalyl chloride, CCl2O
         # phosgene); where an isomer is not (C2H3ClO: acetyl chloride and chloroacetaldehyde), no group is said
-        group = registry_reactive_group(hill_formula(counts))
-        isomer = registry_reactive_isomer(hill_formula(counts)) if group is None else None
+        hill = hill_formula(counts)
+        group = registry_reactive_group(hill)
+        isomer = registry_reactive_isomer(hill) if group is None else None
         if isomer is not None:
             # the formula also names a compound water attacks: say so rather than let "miscible" stand alone
             notes.append(f"one compound of this formula, {isomer[1]}, is an {isomer[0].replace('_', ' ')} that water"

@@ -44,6 +44,7 @@ from dataclasses import dataclass
 from math import factorial
 
 from ionicity.scorer.caching import once
+from ionicity.scorer.data.build_gases import MAX_GAS_ATOMS
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import format_count, hill_formula, parse_formula
 from ionicity.scorer.grammar import reduced_key
@@ -129,8 +130,6 @@ _OTHER_BANDS = ("liquid_at_room_temperature", "melts_below_100C", "low_melting_s
 
 
 GAS_CLASS = "gas_at_room_temperature"
-# the most atoms of a formula in gases.csv (scorer/data/build_gases.py, MAX_GAS_ATOMS)
-_GAS_MAX_ATOMS = 16
 GAS_SOURCE = "registry package chemicals, scorer/data/gases.csv"
 
 
@@ -146,7 +145,7 @@ def gas_at_room_temperature(composition) -> tuple[float, str] | None:
     >>> gas_at_room_temperature((("C", 1.0), ("O", 2.0))), gas_at_room_temperature((("H", 2.0), ("O", 1.0)))
     ((194.7, 'Carbon dioxide'), None)
     """
-    if sum(n for _, n in composition) > _GAS_MAX_ATOMS:
+    if sum(n for _, n in composition) > MAX_GAS_ATOMS:
         return None  # most formulas: no Hill formula to write
     return _gases().get(hill_formula(dict(composition)))
 
