@@ -116,7 +116,7 @@ def primitive_counts(counts) -> tuple[tuple[str, int], ...] | None:
         if k < 1 or abs(n - k) > 1e-9:
             return None
         whole.append((symbol, k))
-    g = reduce(math.gcd, (k for _, k in whole), 0)
+    g = math.gcd(*(k for _, k in whole))
     return tuple(sorted((s, k // g) for s, k in whole)) if g else None
 
 

@@ -239,7 +239,8 @@ def flattened_hydrate(comp: ParsedFormula) -> ParsedFormula | None:
     counts = dict(comp.counts)
     if "H" not in counts or "O" not in counts or not all(float(n).is_integer() for n in counts.values()):
         return None
-    dec = decompose_anhydrous(comp)
+    # a neutral organic molecule (scorer.organic: the solver's own reading, without its ion search) holds no H(+)
+    dec = organic_molecule(comp) or decompose_anhydrous(comp)
     protons = sum(t.count for t in dec.cations if t.ion.ion_id == "H(+)")
     bases = sum(t.count for t in dec.anions if t.ion.ion_id in ("O(2-)", "OH(-)"))
     if not protons or not bases:

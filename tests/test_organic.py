@@ -223,3 +223,15 @@ def test_primitive_counts_of_a_pair_multiple():
     # the solver reads glucose as a molecule, acetic acid as an acid
     assert organic_molecule(parse_formula("C6H12O6")) is not None
     assert organic_molecule(parse_formula("C2H4O2")) is None
+
+
+@pytest.mark.parametrize("text", ["C6H12O6", "C6H5NO2", "C2H6O", "C8H10N4O2"])
+def test_a_molecule_with_hydrogen_and_oxygen_is_scored_without_the_ion_search(text):
+    # the check for a hydrate written flat (FeH14O11S) asks the shortcut first: a molecule's reading holds
+    # no H(+), so the ion search is never run for it (it was two thirds of a molecule's cost)
+    from ionicity.scorer.caching import clear_all
+    from ionicity.scorer.ion_search import _ion_pair_readings
+    clear_all()
+    row = record.score_formula(text)
+    assert row["substance_class"] == "covalent_molecular"
+    assert _ion_pair_readings.cache_info().currsize == 0
