@@ -106,6 +106,7 @@ from ionicity.scorer.melting_anions import (
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
     heavy_halate_fraction,
+    coordinating_organic_anion_fraction,
     DECOMPOSING_ANIONS,
     ENERGETIC_ANIONS,
     FUEL_CATIONS,
@@ -180,6 +181,7 @@ class MeltingTerms:
     soft_pseudohalide_fraction: float = 0.0
     coinage_cation_fraction: float = 0.0
     heavy_halate_fraction: float = 0.0
+    organic_anion_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -195,7 +197,8 @@ class MeltingTerms:
             self.protic_fraction, self.hydrogen_bonded_anion_fraction, self.anion_symmetry_log10,
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
-            self.coinage_cation_fraction, self.heavy_halate_fraction, weights=weights,
+            self.coinage_cation_fraction, self.heavy_halate_fraction, self.organic_anion_fraction,
+            weights=weights,
         )
 
 
@@ -336,6 +339,7 @@ def _gather_terms(
         soft_pseudohalide_fraction=soft_cation_pseudohalide_fraction(dec.anions, png),
         coinage_cation_fraction=coinage_cation_fraction(dec.cations),
         heavy_halate_fraction=heavy_halate_fraction(dec.anions),
+        organic_anion_fraction=coordinating_organic_anion_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
 
@@ -467,6 +471,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" * their share of the cations {terms.coinage_cation_fraction:.2f}",
         f"  bromate and iodate (X...O secondary bonds join the anions): +{w['heavy_halate']}"
         f" * their share of the anions {terms.heavy_halate_fraction:.2f}",
+        f"  organic anions beside inorganic cations only (O donors bind the cations): +{w['coordinating_organic_anion']}"
+        f" * their share of the anions {terms.organic_anion_fraction:.2f}",
     )
 
 

@@ -107,6 +107,11 @@ TREND_WEIGHTS: dict[str, float] = {
     # bromates and iodates: the X(V) lone pair's long X...O secondary bonds join the anions into a
     # network the point-ion lattice energy misses (KIO3 833 K)
     "heavy_halate": 0.131,
+    # organic anions beside inorganic cations only (metal carboxylates, alkoxides, sulfonates): their O donors
+    # bind the cations (coordination polymers), a cohesion the volume-based energy of the whole anion misses;
+    # least squares of the log10 residuals of the calibration half of such salts in the open set, every other
+    # weight held (pipelines.melting_weights.fit_organic_anion_weight); validation: the other half
+    "coordinating_organic_anion": 0.123,
     # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
     # melting point per unit of the electronegativity variance (Pauling's heat of formation),
     # least squares through the origin on the calibration rows of
@@ -216,6 +221,7 @@ def melting_trend_index(
     soft_pseudohalide_fraction=0.0,
     coinage_cation_fraction=0.0,
     heavy_halate_fraction=0.0,
+    organic_anion_fraction=0.0,
     *,
     weights=None,
 ):
@@ -357,6 +363,13 @@ def melting_trend_index(
         pair's long X...O secondary bonds (Alcock 1972) join the anions into
         a network the point-ion lattice energy misses (KIO3 833 K, LiIO3
         723 K; CRC Handbook via chemicals). Weight ``w_XO3``.
+    organic_anion_fraction : float or array-like, default=0.0
+        ``f_org``: the share of the anions that are organic when every cation
+        is inorganic (:func:`scorer.melting_anions.coordinating_organic_anion_fraction`):
+        carboxylate, alkoxide and sulfonate O donors bind metal cations into
+        chains and layers, a cohesion the volume-based lattice energy of the
+        whole anion misses (Zn(OAc)2 510 K, NaOAc 601 K; CRC Handbook via
+        chemicals). Weight ``w_org``.
     weights : dict, optional
         Replaces entries of :data:`TREND_WEIGHTS` (sensitivity studies).
 
@@ -417,6 +430,7 @@ def melting_trend_index(
             + w["soft_cation_pseudohalide"] * _floats(soft_pseudohalide_fraction)
             + w["coinage_cation"] * _floats(coinage_cation_fraction)
             + w["heavy_halate"] * _floats(heavy_halate_fraction)
+            + w["coordinating_organic_anion"] * _floats(organic_anion_fraction)
         )
         s_ion = nu * w["entropy_per_ion_J_mol_K"]
         # symmetric rigid ions may lower the entropy, but never below half the ionic part
