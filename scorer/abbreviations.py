@@ -11,9 +11,11 @@ no element pairs with the following lower-case letter. ``Pr`` (praseodymium), ``
 unless prefixed (``iPr``, ``nPr``; ``OAc`` and ``acac`` are ions of the library, read by the
 formula grammar as written ions: ``Cu(acac)2``) or in
 the whole words ``AcOH``, ``Ac2O`` and ``AcCl`` (AcCl3 is actinium's).
-Neutral N-donor ligands (py, en, bpy, phen) are not expanded: the solver has
-no reading of their complexes, and a row error says so more honestly than a
-reading of their atoms as ions would.
+The silyl groups of protecting-group reagents (``TMS``, ``TBS``, ``TBDMS``,
+``TES``, ``TIPS``) are read only before another group (``TMSCl``, ``TBSOTf``):
+``TMS`` alone is tetramethylsilane, a laboratory code, and ``TBS`` alone a
+buffer's. Neutral ligands (py, en, bpy, phen, PPh3 in brackets) are read by
+:mod:`scorer.coordination` before this expansion, as ligands of a complex.
 
 >>> expand_abbreviations("Ti(OiPr)4")
 ('Ti(O(C3H7))4', ('iPr = C3H7 (isopropyl)',))
@@ -51,6 +53,13 @@ ABBREVIATIONS: dict[str, tuple[str, str]] = {
     # cholinium, as deep-eutectic-solvent recipes write it (ChCl:urea 1:2)
     "Ch": ("[Ch]", "cholinium"),
     "Cp*": ("C5(CH3)5", "pentamethylcyclopentadienyl"),
+    # silyl groups of protecting-group reagents (TMSCl, TBSCl, TBDMSOTf, TIPSCl); TMS alone is tetramethylsilane,
+    # a laboratory code (scorer/data/solvent_codes.csv), read before these
+    "TBDMS": ("Si(CH3)2C4H9", "tert-butyldimethylsilyl"),
+    "TBS": ("Si(CH3)2C4H9", "tert-butyldimethylsilyl"),
+    "TIPS": ("Si(C3H7)3", "triisopropylsilyl"),
+    "TMS": ("Si(CH3)3", "trimethylsilyl"),
+    "TES": ("Si(C2H5)3", "triethylsilyl"),
     "tBu": ("C4H9", "tert-butyl"),
     "nBu": ("C4H9", "n-butyl"),
     "sBu": ("C4H9", "sec-butyl"),
@@ -65,8 +74,11 @@ ABBREVIATIONS: dict[str, tuple[str, str]] = {
     "Cy": ("C6H11", "cyclohexyl"),
     "Cp": ("C5H5", "cyclopentadienyl"),
 }
-_CAPITALISED = [a for a in ABBREVIATIONS if a[0].isupper() or a[0] in "tnsi"]
-_LOWER = [a for a in ABBREVIATIONS if a not in _CAPITALISED]
+# the silyl groups are read only before something (TMSCl, TBSOTf): alone, TBS is a buffer's code, not a radical
+SILYL_GROUPS = ("TBDMS", "TBS", "TIPS", "TMS", "TES")
+SILYL_PREFIX = re.compile(r"(?:TBDMS|TBS|TIPS|TMS|TES)(?=[A-Z(\[])")
+_CAPITALISED = [a for a in ABBREVIATIONS if (a[0].isupper() or a[0] in "tnsi") and a not in SILYL_GROUPS]
+_LOWER = [a for a in ABBREVIATIONS if a not in _CAPITALISED and a not in SILYL_GROUPS]
 # a capitalised abbreviation is not followed by a lower-case letter (Bun is no Bu);
 # a lower-case one stands between brackets, counts, dots or the text's edges
 _WHOLE_WORDS = ("AcOH", "Ac2O", "AcCl")
@@ -75,6 +87,7 @@ _PATTERN = re.compile(
         [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z0-9])" for a in _WHOLE_WORDS]
         + [rf"{re.escape(a)}(?![a-z])" for a in _CAPITALISED if a not in _WHOLE_WORDS]
         + [rf"(?<![A-Za-z]){re.escape(a)}(?![a-z])" for a in _LOWER]
+        + [rf"{re.escape(a)}(?=[A-Z(\[])" for a in SILYL_GROUPS]
     )
 )
 _HILL = {"[Ch]": "C5H14NO", "[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}

@@ -38,8 +38,9 @@ from dataclasses import dataclass, field
 
 from ionicity.scorer import ion_library
 from ionicity.scorer.abbreviations import expand_abbreviations
+from ionicity.scorer.coordination import coordination_hint, is_ligand, ligand_compositions, written_ligands
 from ionicity.scorer.caching import per_input
-from ionicity.scorer.elements import is_element_symbol
+from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.grammar import (
     CLOSE_BRACKETS as _CLOSE,
     MAX_COUNT,
@@ -458,7 +459,8 @@ def parse_formula(text: str) -> ParsedFormula:
             " write the formula, e.g. Fe3O4 or FeCl3"
         )
     m = _ANNOTATION.search(text)
-    if m and m.start() > 0 and ion_library.find_alias(m.group().strip()[1:-1], exact_case=True) is None:
+    if m and m.start() > 0 and ion_library.find_alias(m.group().strip()[1:-1], exact_case=True) is None and not \
+            is_ligand(m.group().strip()[1:-1]):
         # "(aq)", "(anhydrous)" are notes; "(acac)" in Li(acac) is a ligand the ion library abbreviates
         notes.append(f"ignored the note {m.group().strip()!r}")
         text_to_parse = text[: m.start()]
@@ -505,6 +507,13 @@ def parse_formula(text: str) -> ParsedFormula:
     else:
         text_to_parse = _shorthand_with_spaces(text_to_parse)
         cleaned = _normalise_text(text_to_parse)
+    ligands, inner = (), ""
+    if "(" in cleaned:
+        core, ligands, inner = written_ligands(cleaned)
+        if ligands and _metal_written(core):
+            cleaned = core
+        else:
+            ligands = ()
     cleaned, abbreviations = expand_abbreviations(cleaned)
     if abbreviations:
         notes.append("read the abbreviations " + ", ".join(abbreviations) + " (common practice)")
@@ -527,6 +536,8 @@ def parse_formula(text: str) -> ParsedFormula:
         )
     try:
         parsed = _parse_normalised(cleaned)
+        if ligands:
+            parsed = _with_ligands(parsed, ligands, inner)
     except FormulaError as exc:
         message = str(exc)
         hint = _suggest(cleaned)
@@ -542,6 +553,31 @@ def parse_formula(text: str) -> ParsedFormula:
         # acid's H(+) reading stands (TFA; scorer.ions)
         parsed = dataclasses.replace(parsed, structure_hint="molecule")
     return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
+
+
+def _metal_written(text: str) -> bool:
+    """Whether ``text`` writes a metal's symbol (the ligands of :mod:`scorer.coordination` need one to bind)."""
+    return any(is_element_symbol(m.group()) and is_metal(m.group()) for m in re.finditer(r"[A-Z][a-z]?", text))
+
+
+def _with_ligands(parsed: ParsedFormula, ligands, inner: str) -> ParsedFormula:
+    """``parsed`` (the formula without its written neutral ligands) with the ligands as neutral adducts, their
+    atoms counted in, and the structure hint of a neutral complex or of a complex salt
+    (:mod:`scorer.coordination`)."""
+    totals = dict(parsed.counts)
+    for name, n in ligands:
+        for symbol, k in ligand_compositions()[name]:
+            totals[symbol] = totals.get(symbol, 0.0) + k * n
+    total_atoms = sum(totals.values()) + 3 * parsed.hydrate_water
+    if total_atoms > MAX_TOTAL_ATOMS:
+        raise FormulaError(f"{parsed.text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
+    inner_counts = dict(_parse_normalised(inner).counts) if inner else None
+    adducts = dict(parsed.neutral_adducts)
+    for name, n in ligands:
+        adducts[name] = adducts.get(name, 0.0) + n
+    return dataclasses.replace(
+        parsed, counts=tuple((s, totals[s]) for s in hill_order(totals)), neutral_adducts=tuple(sorted(adducts.items())),
+        structure_hint=coordination_hint(inner_counts))
 
 
 @per_input(maxsize=65536)

@@ -46,6 +46,7 @@ from ionicity.scorer.ion_library import (
 )
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
 from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
+from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
     ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_reactive_group, registry_reactive_isomer,
@@ -200,7 +201,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     water = comp.hydrate_water
     neutral = tuple(f"{name}*{format_count(n)}" for name, n in comp.neutral_adducts)
     for name, n in comp.neutral_adducts:
-        counts = _subtract(counts, _ADDUCT_COMPOSITIONS[name], n)
+        counts = _subtract(counts, _ADDUCT_COMPOSITIONS.get(name) or ligand_compositions()[name], n)
+    if comp.structure_hint.startswith(COORDINATION_HINT):
+        # neutral ligands written in brackets (Pd(PPh3)4, [Co(en)3]Cl3): the rest is read as any formula, then
+        # the compound is called a neutral complex or a complex salt (scorer.coordination)
+        rest = _read(tuple(counts.items()), 0.0, comp.ion_hints, (), "", budget)
+        ligands = tuple((name, n) for name, n in comp.neutral_adducts if name not in _ADDUCT_COMPOSITIONS)
+        return complex_reading(rest, ligands, comp.structure_hint, comp.counts, neutral, water)
 
     if comp.charge:
         return _lone_ion(comp, counts, notes)

@@ -265,6 +265,12 @@ def _gather_terms(
     if fuels and oxidisers:
         notes.append(f"melting trend: {fuels[0]} with {oxidisers[0]} is fuel and oxidiser in one salt: it decomposes"
                      " exothermically on heating and can explode; the trend is not a temperature to heat towards")
+    elif oxidisers:
+        # chlorates, perchlorates, permanganates, nitrates: hot or molten oxidisers (molten nitrate salts are
+        # handled this way in practice too; Bretherick's Handbook of Reactive Chemical Hazards, from memory)
+        notes.append(f"melting trend: {oxidisers[0]} salts are oxidisers: hot or molten they can ignite organic"
+                     " matter, reducing agents and powdered metals, and give off oxygen as they decompose; keep them"
+                     " apart (see the safety data sheet)")
     if (energetic or fuels and oxidisers) and not decomposing:
         notes.append(_DECOMPOSITION_CAUTION)
     terms = dec.cations + dec.anions

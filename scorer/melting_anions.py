@@ -288,10 +288,10 @@ DECOMPOSING_ANIONS = frozenset({
 
 # anions whose salts decompose violently on heating, shock or friction: azides lose N2 (sodium azide near
 # 548 K; lead, silver, copper and mercury azides detonate) and fulminates detonate (mercury and silver
-# fulminate are primary explosives) (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
-# ch. 11.3.4 and 8.5; from memory): the melting trend of their salts carries a note and the caution,
+# fulminate are primary explosives), as do dinitramides (ammonium dinitramide is a rocket oxidiser)
+# (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.4 and 8.5; from memory): the melting trend of their salts carries a note and the caution,
 # never a weight
-ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)"})
+ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)", "N(NO2)2(-)"})
 
 # fuel and oxidiser in one salt: an ammonium-like cation (NH4+, hydrazinium, hydroxylammonium) beside an
 # oxidising anion decomposes exothermically on heating and can deflagrate or explode (ammonium nitrate,
@@ -300,6 +300,7 @@ ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)"})
 # note and the caution on the melting trend, never a weight
 OXIDISING_ANIONS = frozenset({
     "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)", "CrO4(2-)",
+    "N(NO2)2(-)",
 })
 FUEL_CATIONS = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
 

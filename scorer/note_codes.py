@@ -145,6 +145,12 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      "melting trend: an ammonium-like cation (in brackets) with an oxidising anion is fuel and oxidiser in one"
      " salt: it decomposes exothermically on heating and can explode; the trend is not a temperature to heat towards"
      " (the caution that follows is written in full)"),
+    ("melting_oxidiser",
+     r"melting trend: {ion} salts are oxidisers: hot or molten they can ignite organic matter, reducing agents and"
+     r" powdered metals, and give off oxygen as they decompose; keep them apart \(see the safety data sheet\)",
+     "melting trend: salts of the anion (in brackets) are oxidisers: hot or molten they can ignite organic matter,"
+     " reducing agents and powdered metals, and give off oxygen as they decompose; keep them apart (see the safety"
+     " data sheet)"),
     ("mixture_per_component",
      r"a mixture: each column formed from its components as its method says \(lattice energies, structure type and"
      r" melting trend per component: ionicity explain\)",

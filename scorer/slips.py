@@ -45,6 +45,8 @@ from dataclasses import dataclass
 
 from ionicity.scorer import ion_library
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.abbreviations import SILYL_PREFIX
+from ionicity.scorer.coordination import written_ligands
 from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
@@ -504,6 +506,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     abbreviation = unknown_abbreviation(stripped)
     if abbreviation is not None:
         return abbreviation
+    if SILYL_PREFIX.match(stripped) and _parsed(text) is not None:
+        return None  # a silyl reagent (TMSN3, TBSCl): capitals by convention, not a formula that lost its case
     if len(stripped) > _SLIP_MAX_LENGTH:
         return None  # longer than any inventory line: read as written
     letters = _NOT_A_LETTER.sub("", stripped)
@@ -626,6 +630,11 @@ def unknown_abbreviation(text: str) -> Slip | None:
         content = m.group(1)
         if ion_library.find_alias(content) is not None:
             continue
+        if "(" in content:
+            # a complex with its neutral ligands written ([Co(en)3], scorer.coordination): judge the rest
+            core, ligands, _ = written_ligands(content)
+            if ligands:
+                content = core
         if _ION_CODE.fullmatch(content) or _CAPITAL_CODE.fullmatch(content) or not _reads_as_elements(content):
             return Slip(
                 "unknown_abbreviation", "",

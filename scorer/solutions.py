@@ -99,6 +99,21 @@ def named_solution(text: str) -> Solution | None:
 # a solute in a named solvent, as electrolyte and stock-solution labels write it:
 # "1 M LiPF6 in EC/DMC", "LiTFSI (1 M) in DME/DOL", "NaCl in water" (common practice)
 _IN_SOLVENT = re.compile(r"^(?P<left>\S.*?)\s+in\s+(?P<solvent>\S.*)$", re.I)
+_MOLAR_BEFORE_SOLVENT = re.compile(rf"^(?P<left>[A-Z(\[]\S*)\s+(?P<c>{_MOLAR.pattern})\s+(?P<solvent>[A-Za-z].*)$")
+# what may stand beside the solvents' codes in a blend's description: ratios, percentages and their bases
+_RATIO_WORD = re.compile(r"^(?:\d+(?:\.\d+)?%?|v|w|wt%?|vol%?|by|volume|weight|mass)$", re.I)
+
+
+@once
+def _solvent_codes() -> frozenset[str]:
+    return frozenset(row["code"].upper() for row in table("solvent_codes.csv"))
+
+
+def _solvent_words(text: str) -> bool:
+    """Whether ``text`` is a blend of laboratory solvent codes with its ratio (``EC/EMC 3/7``, ``EC:DMC (1:1 v/v)``)."""
+    words = [w for w in re.split(r"[\s/:,;()\-]+", text) if w]
+    return bool(words) and any(w.upper() in _solvent_codes() or w.lower() == "water" for w in words) and all(
+        w.upper() in _solvent_codes() or w.lower() == "water" or _RATIO_WORD.match(w) for w in words)
 
 
 def split_in_solvent(text: str) -> Solution | None:
@@ -113,6 +128,9 @@ def split_in_solvent(text: str) -> Solution | None:
     ('LiTFSI', '0.5 mol/L')
     >>> split_in_solvent("NaCl in water").concentration, split_in_solvent("Sn in") is None
     ('', True)
+    >>> s = split_in_solvent("LiPF6 1.0M EC/EMC 3/7")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiPF6', '1.0 M', 'EC/EMC 3/7')
     >>> s = split_in_solvent("[C4mim][BF4] + 0.5 M LiBF4")
     >>> s.solute, s.concentration, s.solvent
     ('LiBF4', '0.5 M', '[C4mim][BF4]')
@@ -121,6 +139,11 @@ def split_in_solvent(text: str) -> Solution | None:
         return None
     m = _IN_SOLVENT.match(text.strip())
     if m is None:
+        # "LiPF6 1.0M EC/EMC 3/7": a molar amount between the solute and solvent codes, as electrolyte labels write
+        bare = _MOLAR_BEFORE_SOLVENT.match(text.strip())
+        if bare is not None and _solvent_words(bare.group("solvent")):
+            return Solution(bare.group("left"), _as_written(_MOLAR, _MOLAR.match(bare.group("c"))),
+                            bare.group("solvent").strip())
         # "[C4mim][BF4] + 0.5 M LiBF4": a molar amount after "+" is a solute in what comes before it
         plus = _PLUS_MOLAR.match(text.strip()) if "+" in text else None
         if plus is None:
@@ -260,8 +283,15 @@ _GRADE_WORD = (
     # a gas cylinder's label ("argon gas", "nitrogen, compressed", "ammonia, anhydrous, liquefied")
     r"|gas|gaseous|compressed|liquefied|cylinder"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
+    # more catalogue grades ("KBr IR grade", "KCl 99.999% trace metals basis", "NaCl BioXtra")
+    r"|IR|trace\s+metals?\s+basis|metals\s+basis|basis|ReagentPlus|BioXtra|BioReagent|BioUltra|SigmaUltra|Emsure"
+    r"|optical|semiconductor|electronic|battery|puratronic|spectrosil"
+    # the package size of a stock list ("NaCl 500g", "NaCl, 500 g", "KCl 2.5 kg", "HCl 2.5 L", "NaCl - 2 bottles")
+    r"|\d+(?:[.,]\d+)?\s*(?:kg|g|mg|L|l|mL|ml|lb|lbs|oz)\.?(?![A-Za-z])|x\s*\d+|\d+\s*(?:bottles?|jars?|packs?|units?|pcs)"
 )
-_GRADE_TAIL = re.compile(rf"(?:[\s,;]+(?:{_GRADE_WORD}))+\s*[.,;]?\s*$", re.I)
+# the words may also stand in brackets: "NaCl (ACS reagent)", "KCl (99.5 %, AR)"
+_GRADE_ITEM = rf"(?:{_GRADE_WORD}|\(\s*(?:{_GRADE_WORD})(?:[\s,;]+(?:{_GRADE_WORD}))*\s*\))"
+_GRADE_TAIL = re.compile(rf"(?:(?:[\s,;]+|\s+-\s+)(?:{_GRADE_ITEM}))+\s*[.,;]?\s*$", re.I)
 # the same words before the name, as cylinder and dewar labels write them ("liquid nitrogen", "compressed air",
 # "anhydrous ammonia"; common practice)
 _GRADE_HEAD = re.compile(r"^\s*(?:(?:liquid|liquefied|compressed|anhydrous|gaseous|cryogenic|refrigerated)\s+)+",
@@ -277,6 +307,10 @@ def split_grade_words(text: str) -> tuple[str, str | None]:
     ('Sodium chloride', 'ACS reagent, 99.5%')
     >>> split_grade_words("NaCl")
     ('NaCl', None)
+    >>> split_grade_words("NaCl (ACS reagent)"), split_grade_words("KCl 99.999% trace metals basis")[0]
+    (('NaCl', '(ACS reagent)'), 'KCl')
+    >>> split_grade_words("NaCl, 500 g"), split_grade_words("NaCl - 2 bottles")[0], split_grade_words("NaCl-KCl")
+    (('NaCl', '500 g'), 'NaCl', ('NaCl-KCl', None))
     >>> split_grade_words("liquid nitrogen"), split_grade_words("argon gas")
     (('nitrogen', 'liquid'), ('argon', 'gas'))
     """

@@ -107,6 +107,8 @@ TABLES: dict[str, TableSpec] = {
         TableSpec("name_words.csv", ("kind", "word", "value", "charge", "number", "source"), "scorer.name_vocabulary"),
         TableSpec("trivial_names.csv", ("name", "formula", "source"), "scorer.name_reader"),
         TableSpec("solution_names.csv", ("name", "solute", "concentration", "caution", "source"), "scorer.solutions"),
+        TableSpec("ligands.csv", ("abbreviation", "formula", "name", "donor", "denticity", "aliases", "source"),
+                  "scorer.coordination"),
         TableSpec("registry_names.csv", ("name", "formula", "cas", "kind", "source"), "scorer.name_reader"),
         TableSpec("solvent_codes.csv", ("code", "formula", "name", "source"), "scorer.formula"),
         TableSpec(

@@ -101,6 +101,13 @@ def ph_class(pH: float) -> str:
     return "neutral"
 
 
+# complex cations whose ligands are not water ([Co(NH3)6]3+, [Co(en)3]3+): no aqua ion to hydrolyse, so the
+# salts of strong acids of the inert 3+ complexes (Co, Cr, Rh, Ir) dissolve about neutral (common practice;
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 26.3, from memory); the labile ammines of
+# Cu2+, Ni2+, Zn2+, Ag+ give off some ammonia, so their pH is left unsaid as before
+COMPLEX_CATION_FAMILIES = frozenset({"ammine-complex", "coordination-complex"})
+
+
 @once
 def acidity_table() -> dict[str, tuple[str, float, float]]:
     """ion_id -> (kind, pKa, pKa2) from ``scorer/data/water_acidity.csv``, read once."""
@@ -124,6 +131,8 @@ def salt_ph(cations, anions) -> tuple[str | None, str]:
     acid_pKa, base, unknown = None, None, []
     for term in cations:
         row = data.get(term.ion.ion_id)
+        if term.ion.family in COMPLEX_CATION_FAMILIES and term.ion.charge >= 3:
+            continue  # no aqua ion: its ligands hold no water to give up a proton (a spectator, as Na+ is)
         if row is not None:
             # a cation too weak to make its own solution acidic (Na+, Mg2+, Ca2+) is a spectator
             if weak_acid_pH(row[1]) < ACIDIC_BELOW_PH:

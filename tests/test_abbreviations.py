@@ -59,10 +59,12 @@ def test_element_symbols_are_never_taken_for_abbreviations(text):
     assert expand_abbreviations(text) == (text, ())
 
 
-@pytest.mark.parametrize("text", ["Co(en)3Cl3", "[Cu(en)2]SO4"])
-def test_neutral_n_donor_ligands_stay_row_errors(text):
-    # no reading of their complexes: an error says so rather than reading the ligand's atoms as ions
-    assert score_formula(text)["status"] == "error"
+@pytest.mark.parametrize("text, cation", [("Co(en)3Cl3", "[Co(en)3](3+)*1"), ("[Cu(en)2]SO4", "[Cu(en)2](2+)*1")])
+def test_neutral_n_donor_ligands_make_complex_ions_not_atoms_read_as_ions(text, cation):
+    # the ligand's atoms are never read as ions (an error said so before scorer.coordination read the complexes);
+    # six donor atoms of three en fill cobalt's octahedron, so the chlorides are counter-ions (common practice)
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["substance_class"] == "ionic_salt" and row["cations"] == cation
 
 
 @pytest.mark.parametrize("text", ["Cu(acac)2", "LiHMDS"])

@@ -33,7 +33,7 @@ IONIC_LIQUID_FAMILIES = frozenset({
     "fluoroalkylphosphate", "alkylphosphate",
 })
 OTHER_FAMILIES = frozenset({
-    "oxoanion", "metal-oxoanion", "hydrogen-oxoanion", "hydroxo-complex",
+    "oxoanion", "metal-oxoanion", "thiometalate", "hydrogen-oxoanion", "hydroxo-complex",
     "hydrogen-chalcogenide", "chalcogenide-polyatomic", "carbide", "hydride",
     "nitrogen-anion", "pseudohalide", "ammonium-like", "oxocation",
     "metal-cluster", "halo-complex", "polyhalide", "cyano-complex",

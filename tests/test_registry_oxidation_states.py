@@ -208,6 +208,21 @@ def test_no_fuel_oxidiser_caution_without_both(text):
     assert "fuel and oxidiser" not in (score_formula(text)["value_notes"] or "")
 
 
+@pytest.mark.parametrize("text", ["KClO3", "NaClO4", "KMnO4", "KNO3", "NaNO2", "K2Cr2O7", "KBrO3"])
+def test_salts_of_oxidising_anions_carry_the_oxidiser_caution(text):
+    # chlorates, perchlorates, permanganates, dichromates, bromates, nitrates and nitrites are oxidisers: hot or
+    # molten they ignite organic matter, reducing agents and powdered metals (Bretherick's Handbook of Reactive
+    # Chemical Hazards, 7th ed., 2007; from memory); their melting class must not read as an invitation to heat
+    notes = score_formula(text)["value_notes"]
+    assert "are oxidisers" in notes and "safety data sheet" in notes
+
+
+@pytest.mark.parametrize("text", ["NaCl", "K2SO4", "NH4NO3", "Na2CO3"])
+def test_no_oxidiser_caution_for_other_salts_or_twice(text):
+    # an ammonium salt of an oxidising anion has the stronger fuel-and-oxidiser note instead
+    assert "are oxidisers" not in (score_formula(text)["value_notes"] or "")
+
+
 @pytest.mark.parametrize("text, anions", [
     # sulfide solid electrolytes: Li10GeP2S12 is Li(+) with GeS4(4-) and PS4(3-) tetrahedra (Kamaya et al.,
     # Nat. Mater. 10 (2011) 682, from memory); Li7P3S11 holds P2S7(4-) and PS4(3-); argyrodite Li6PS5Cl

@@ -189,6 +189,11 @@ def test_a_solution_scores_its_solute(text, solute, concentration):
     ("LiTFSI (1 M) in DME/DOL", "LiTFSI", "1 M", "DME/DOL"),
     ("0.5 M LiTFSI in [C4mim][TFSI]", "LiTFSI", "0.5 M", "[C4mim][TFSI]"),
     ("NaCl in water", "NaCl", None, "water"),
+    # the molarity between the salt and the solvents' codes, without "in" (common practice on cell-maker labels)
+    ("LiPF6 1.0M EC/EMC 3/7", "LiPF6", "1.0 M", "EC/EMC 3/7"),
+    ("LiPF6 1 M EC:DMC 1:1", "LiPF6", "1 M", "EC:DMC 1:1"),
+    ("NaPF6 1M PC", "NaPF6", "1 M", "PC"),
+    ("KOH 6M water", "KOH", "6 M", "water"),
 ])
 def test_a_solute_in_a_named_solvent(text, solute, concentration, solvent):
     record = score_formula(text)
@@ -365,3 +370,11 @@ def test_a_word_that_is_a_name_is_no_slip(text, formula):
 @pytest.mark.parametrize("text, suggested", [("nacl", "NaCl"), ("SN", "Sn"), ("CD", "Cd"), ("CUSO4", "CuSO4")])
 def test_words_that_are_no_names_keep_their_slips(text, suggested):
     assert score_formula(text)["formula_suggested"] == suggested
+
+
+@pytest.mark.parametrize("text", ["HCl 1 M KCl", "LiCl 0.5 M NaCl"])
+def test_a_molarity_before_a_formula_is_no_solvent_blend(text):
+    # only laboratory solvent codes (scorer/data/solvent_codes.csv) and their ratio stand after the molarity
+    from ionicity.scorer.solutions import split_in_solvent
+
+    assert split_in_solvent(text) is None

@@ -259,3 +259,68 @@ def test_materials_of_no_one_formula_say_so(text):
     # "brass" was re-cased into BrAsS, a bromine arsenic sulfide (common practice: these name no compound)
     row = score_formula(text)
     assert row["status"] == "error" and "of no one formula" in row["message"]
+
+
+# ---------------------------------------------------------------- silyl reagents and laboratory codes
+
+
+def _registry_formula(name: str) -> dict[str, float]:
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    return _composition(identifiers.search_chemical(name).formula)
+
+
+@pytest.mark.parametrize("label, registry_name", [
+    ("TMSCl", "chlorotrimethylsilane"),
+    ("TMSN3", "azidotrimethylsilane"),
+    ("TMSCN", "trimethylsilyl cyanide"),
+    ("TMSOTf", "trimethylsilyl trifluoromethanesulfonate"),
+    ("TBSCl", "tert-butyldimethylsilyl chloride"),
+    ("TBDMSCl", "tert-butyldimethylsilyl chloride"),
+    ("TBSOTf", "tert-butyldimethylsilyl trifluoromethanesulfonate"),
+    ("TIPSCl", "triisopropylsilyl chloride"),
+    ("TESCl", "chlorotriethylsilane"),
+    ("TMS", "tetramethylsilane"),
+])
+def test_silyl_reagents_and_codes_are_the_registry_compounds(label, registry_name):
+    # the silyl groups are protecting-group abbreviations (common practice), written in capitals by convention:
+    # TMSN3 is no thulium sulfide azide, TMSCl no thulium salt
+    row = score_formula(label)
+    assert row["status"] == "warning" and "Tm" not in row["formula_normalized"]
+    assert _composition(row["formula_normalized"]) == _registry_formula(registry_name)
+    assert row["substance_class"] == "covalent_molecular"
+
+
+def test_a_silyl_code_alone_is_no_radical():
+    # TBS alone is Tris-buffered saline as often as a silyl group: read as neither (an error names it)
+    assert score_formula("TBS")["status"] == "error"
+
+
+@pytest.mark.parametrize("label", ["DIBAL-H", "DIBAL", "DIBAL-H 1.0 M in toluene"])
+def test_dibal_is_the_aluminium_hydride_not_a_mixture(label):
+    # diisobutylaluminium hydride, (i-C4H9)2AlH, C8H19Al, 142.22 g/mol (from memory; the registry package lists
+    # the formula without its hydride hydrogen)
+    row = score_formula(label)
+    assert row["formula_normalized"] == "C8H19Al"
+    assert row["molar_mass_g_mol"] == pytest.approx(142.22, abs=0.02)
+    assert row["substance_class"] == "covalent_molecular"
+
+
+@pytest.mark.parametrize("label, formula", [
+    # catalogue grades, in brackets or after the formula, and a stock list's package size (common practice)
+    ("NaCl (ACS reagent)", "NaCl"),
+    ("KCl 99.999% trace metals basis", "KCl"),
+    ("KBr IR grade", "KBr"),
+    ("NaCl 500g", "NaCl"),
+    ("NaCl, 500 g", "NaCl"),
+    ("Sodium chloride, 500 g", "NaCl"),
+    ("CuSO4·5H2O 1 kg", "CuSO4·5H2O"),
+])
+def test_grade_words_and_package_sizes_are_set_aside(label, formula):
+    row = score_formula(label)
+    assert row["status"] == "warning" and row["formula_normalized"] == formula
+    assert "grade or form words" in row["message"]
+
+
+@pytest.mark.parametrize("label", ["NaCl 1 M", "CuSO4 5H2O", "NaCl-KCl"])
+def test_a_concentration_a_hydrate_or_a_mixture_is_no_package_size(label):
+    assert "grade or form words" not in (score_formula(label)["message"] or "")
