@@ -370,6 +370,10 @@ def _unsaid_first_count(cations: list[Part], anions: list[Part], counts: list) -
     anion = anions[0]
     if anion.charge is None or anion.count is None or anion.polyatomic:
         return
+    if (anion.element or anion.text) not in _CHALCOGENS:
+        # only oxides and chalcogenides are named so; a boride's, silicide's or carbide's prefix counts atoms of a
+        # metallic phase (titanium diboride is TiB2, molybdenum disilicide MoSi2; common practice)
+        return
     element = get_element(cations[0].element)
     states = [s for s in (*element.oxidation_states_main, *element.oxidation_states_extra) if s > 0]
     highest = max(states) if states else None

@@ -360,6 +360,10 @@ def test_deuterated_solvent_codes(text, formula):
     ("chromium trioxide", "CrO3"), ("molybdenum trioxide", "MoO3"), ("iron disulfide", "FeS2"),
     # a metal of one state: the ion (disulfide(2-), ozonide)
     ("sodium disulfide", "Na2S2"), ("potassium ozonide", "KO3"),
+    # borides and silicides of metallic phases: the prefix counts atoms, the metal's count is one (the registry
+    # package chemicals: TiB2, ZrB2, VB2, MoSi2); they had read Ti2B2, Zr2B2, V2B2, Mo2Si2
+    ("titanium diboride", "TiB2"), ("zirconium diboride", "ZrB2"), ("vanadium diboride", "VB2"),
+    ("molybdenum disilicide", "MoSi2"),
 ])
 def test_traditional_oxide_names(name, formula):
     from ionicity.scorer.name_reader import read_name

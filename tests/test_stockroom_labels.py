@@ -324,3 +324,12 @@ def test_grade_words_and_package_sizes_are_set_aside(label, formula):
 @pytest.mark.parametrize("label", ["NaCl 1 M", "CuSO4 5H2O", "NaCl-KCl"])
 def test_a_concentration_a_hydrate_or_a_mixture_is_no_package_size(label):
     assert "grade or form words" not in (score_formula(label)["message"] or "")
+
+
+@pytest.mark.parametrize("label", ["basic copper carbonate", "chloroplatinic acid", "chloroauric acid",
+                                   "sodium fluorosilicate", "ammonium fluorosilicate", "sodium metaaluminate"])
+def test_catalogue_names_of_common_reagents_are_the_registry_compounds(label):
+    # trivial_names.csv rows (from memory), checked against the registry package's own name lookup
+    row = score_formula(label)
+    assert row["status"] == "warning" and "holds a name" in row["message"]
+    assert _composition(row["formula_normalized"]) == _registry_formula(label)
