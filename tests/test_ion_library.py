@@ -30,7 +30,7 @@ IONIC_LIQUID_FAMILIES = frozenset({
     "imidazolium", "pyridinium", "pyrrolidinium", "piperidinium",
     "ammonium-quaternary", "phosphonium", "cholinium", "ammonium-protic",
     "sulfonylimide", "sulfonate", "alkylsulfate", "cyano-anion",
-    "fluoroalkylphosphate", "alkylphosphate",
+    "fluoroalkylphosphate", "alkylphosphate", "aminoacidate",
 })
 OTHER_FAMILIES = frozenset({
     "oxoanion", "metal-oxoanion", "thiometalate", "hydrogen-oxoanion", "hydroxo-complex",

@@ -130,3 +130,22 @@ def test_codes_of_the_trade_read_as_their_ions(text, normalized):
 def test_n_locants_of_the_ring_onium_names_read_as_locant_one(name, normalized):
     row = score_formula(name)
     assert row["formula_normalized"] == normalized and row["substance_class"] == "ionic_liquid_pair"
+
+
+@pytest.mark.parametrize("text, cation, anion", [
+    # protic and amino-acid ionic liquids of the literature (Greaves & Drummond, Chem. Rev. 2008; Fukumoto,
+    # Yoshizawa & Ohno, J. Am. Chem. Soc. 2005; from memory): they were unknown bracketed abbreviations
+    ("[DEMA][OTf]", "[DEMA](+)*1", "[OTf](-)*1"),
+    ("[Ch][Gly]", "[Ch](+)*1", "[Gly](-)*1"),
+    ("[Ch][Ala]", "[Ch](+)*1", "[Ala](-)*1"),
+    ("[C2mim][Gly]", "[C2mim](+)*1", "[Gly](-)*1"),
+])
+def test_protic_and_amino_acid_ionic_liquids(text, cation, anion):
+    row = score_formula(text)
+    assert row["status"] == "ok" and (row["cations"], row["anions"]) == (cation, anion)
+    assert row["substance_class"] == "ionic_liquid_pair"
+
+
+def test_tea_in_brackets_stays_unread():
+    # [TEA] is triethylammonium in protic-ionic-liquid papers and tetraethylammonium beside BF4 (TEABF4): ambiguous
+    assert score_formula("[TEA][HSO4]")["status"] == "error"
