@@ -500,7 +500,7 @@ def subvalent_notes(cations) -> list[str]:
 
 
 # monatomic anions that a cation above its element's highest usual state would oxidise (common practice)
-_REDUCING_ANIONS = frozenset({"S(2-)", "Se(2-)", "Te(2-)", "C(4-)", "N(3-)", "P(3-)", "As(3-)", "H(-)", "I(-)"})
+_REDUCING_ANIONS = frozenset({"S(2-)", "Se(2-)", "Te(2-)", "C(4-)", "N(3-)", "P(3-)", "As(3-)", "H(-)", "I(-)", "Br(-)", "Cl(-)"})
 
 
 def supervalent_notes(cations, anions) -> list[str]:
@@ -527,6 +527,33 @@ def supervalent_notes(cations, anions) -> list[str]:
             out.append(f"{ion.ion_id} beside {reducing[0]}: no compound holds {ion.element} above"
                        f" {ion.element}({max(main)}+) with an anion it would oxidise; a count or an element may be"
                        " missing from the formula as written; check it")
+    return out
+
+
+def supervalent_molecule_notes(dec: Decomposition) -> list[str]:
+    """:func:`supervalent_notes` for a compound read without ions (a molecule or a chain solid): its metal's
+    formal oxidation state above the highest its element takes in its usual compounds, beside a partner it would
+    oxidise. FeCl4 (a typo for FeCl3, or the FeCl4(-) ion without its charge) and CoCl4 balance only as
+    Fe(+4) and Co(+4), which no chloride holds; MoCl5, WCl6, UCl6 and VCl4 are within their states.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> supervalent_molecule_notes(decompose(parse_formula("FeCl4")))[0][:46], supervalent_molecule_notes(
+    ...     decompose(parse_formula("MoCl5")))
+    ('Fe(+4) beside Cl: no compound holds Fe above F', [])
+    """
+    partners = [s for s, z in dec.oxidation_states if z < 0 and f"{s}(" in " ".join(_REDUCING_ANIONS)]
+    if not partners or dec.cations:
+        return []
+    out = []
+    for symbol, state in dec.oxidation_states:
+        if state <= 1 or not is_metal(symbol) or abs(state - round(state)) > 1e-9:
+            continue
+        main = [z for z, extra in listed_states(symbol) if not extra and z > 0]
+        if main and state > max(main):
+            out.append(f"{symbol}(+{state:g}) beside {partners[0]}: no compound holds {symbol} above {symbol}"
+                       f"({max(main)}+) with a partner it would oxidise; a count, an element or a charge may be missing"
+                       " from the formula as written; check it")
     return out
 
 
@@ -560,8 +587,15 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
         )
         reasons.append("formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
+        # a molecule's formal reading too: FeCl4 (a typo for FeCl3, or the FeCl4(-) ion without its charge) balances
+        # only as Fe(4+), which no chloride holds
+        supervalent = supervalent_notes(dec.cations, dec.anions)
+        if supervalent:
+            changes["notes"] = tuple(dec.notes) + tuple(supervalent)
     else:
         subvalent = subvalent_notes(dec.cations) + supervalent_notes(dec.cations, dec.anions)
+        if not dec.cations and cls in ("covalent_molecular", "chain_layer_solid"):
+            subvalent += supervalent_molecule_notes(dec)
         if subvalent:
             changes["notes"] = tuple(dec.notes) + tuple(subvalent)
     return dec.with_fields(**changes)

@@ -162,6 +162,22 @@ def test_a_cation_above_its_usual_states_beside_a_reducing_anion_warns(text, cat
     assert row["status"] == "warning" and f"{cation} beside" in row["message"] and "check it" in row["message"]
 
 
+@pytest.mark.parametrize("text, cation", [("CuCl3", "Cu(3+)"), ("NiCl3", "Ni(3+)"), ("FeCl4", "Fe(+4)"),
+                                          ("CoCl4", "Co(+4)")])
+def test_a_metal_above_its_usual_states_beside_chloride_warns(text, cation):
+    # no chloride holds Cu(III), Ni(III), Fe(IV) or Co(IV): a typo for CuCl2, NiCl2, FeCl3, CoCl3, or an anion
+    # (FeCl4(-)) written without its charge (mendeleev's main states; Greenwood & Earnshaw 1997, from memory)
+    row = score_formula(text)
+    assert row["status"] == "warning" and f"{cation} beside" in row["message"] and "check it" in row["message"]
+
+
+@pytest.mark.parametrize("formula", ["MoCl5", "WCl6", "UCl6", "VCl4", "PtCl4", "AuCl3", "TiCl4", "FeCl3", "SnCl4"])
+def test_high_state_chlorides_that_exist_stay_quiet(formula):
+    # molybdenum(V), tungsten(VI), uranium(VI), vanadium(IV), platinum(IV), gold(III) chlorides exist (Greenwood &
+    # Earnshaw 1997, from memory)
+    assert "beside Cl" not in (score_formula(formula)["message"] or "")
+
+
 @pytest.mark.parametrize("formula", ["SrFeO3", "FeS", "FeS2", "CuS", "SnS2"])
 def test_usual_states_and_high_states_with_oxide_stay_quiet(formula):
     # SrFeO3 holds Fe(4+) with oxide (Greenwood & Earnshaw, 2nd ed., 1997, ch. 25; from memory)
