@@ -108,6 +108,8 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
         anion, n_anions = organic_anion({s: n / 2 for s, n in rest.items()}, -1), 2
     else:
         anion, n_anions = organic_anion(rest, -charge), 1
+    if not _plausible_conjugate_base(dict(anion.composition), -anion.charge):
+        return [], []
     cation = monatomic_ion(metal, z)
     penalty = _PENALTY_BUILT
     if penalty >= _IONIC_THRESHOLD:
@@ -115,6 +117,23 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
     note = (f"{anion.ion_id}: an organic anion the ion library does not list, read from the formula as the"
             f" conjugate base beside {cation.ion_id} (scorer/organic_anions.py)")
     return [(penalty, [(cation, float(n_metal)), (anion, float(n_anions))])], [note]
+
+
+def _plausible_conjugate_base(composition: dict[str, float], charge: int) -> bool:
+    """Whether an anion of carbon, hydrogen and one oxygen per charge (the conjugate base of an alcohol or a
+    phenol: methoxide, tert-butoxide, phenoxide) has such a parent: with the protons back, a saturated alcohol
+    (no ring or double bond) or a phenol (six carbons or more). CHO(-) (NaHCO, a truncated NaHCO3) would be
+    deprotonated formaldehyde, a carbonyl compound and no acid (common practice). Anions with more oxygen, or
+    with N, S or P, are not judged here.
+
+    >>> _plausible_conjugate_base({"C": 4.0, "H": 9.0, "O": 1.0}, 1), _plausible_conjugate_base({"C": 1.0, "H": 1.0, "O": 1.0}, 1)
+    (True, False)
+    """
+    if set(composition) != {"C", "H", "O"} or composition["O"] != charge:
+        return True
+    carbons, hydrogens = composition["C"], composition["H"] + charge
+    rings_and_double_bonds = carbons - hydrogens / 2 + 1
+    return abs(rings_and_double_bonds) < 1e-9 or (rings_and_double_bonds >= 4 and carbons >= 6)
 
 
 def suspect_organic_reading(cations, anions) -> bool:

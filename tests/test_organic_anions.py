@@ -52,3 +52,11 @@ def test_library_organic_anions_are_still_preferred(formula, anion):
 def test_the_rule_needs_an_oxygen_per_charge_and_an_s_block_metal():
     assert organic_anion_readings({"C": 2.0, "H": 6.0, "Al": 1.0, "O": 3.0}) == ([], [])   # not s-block
     assert organic_anion_readings({"C": 6.0, "H": 5.0, "Na": 2.0, "O": 1.0}) == ([], [])   # 2 charges, 1 O
+
+
+def test_a_truncated_hydrogencarbonate_is_no_formyl_salt():
+    # NaHCO (NaHCO3 with its count lost) balanced as Na(+) with CHO(-), deprotonated formaldehyde, which is no acid
+    # (common practice): now an error that names the complete formulas; alkoxides and phenoxides still read
+    row = score_formula("NaHCO")
+    assert row["status"] == "error" and "NaHCO3" in row["message"]
+    assert score_formula("C4H9OK")["anions"] == "C4H9O(-)*1"
