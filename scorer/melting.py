@@ -567,6 +567,12 @@ def _molecular_steps(reading: _MolecularReading | _OrganicReading | None) -> tup
 
 # said in full in output files too (scorer.note_codes leaves it long)
 _DECOMPOSITION_CAUTION = "heating it can release gas and pressure: see the safety data sheet"
+# interstitial and intermetallic hydrides lose hydrogen from a few hundred C (TiH2 and ZrH2 from about 400-600 C,
+# PdH and LaNi5H6 near room temperature; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.4;
+# from memory)
+_METAL_HYDRIDE = ("melting trend: a metal hydride gives off its hydrogen (a flammable gas) on heating, far below the"
+                  " metal's melting point: the class is that of the metal left behind, not a temperature to heat"
+                  " the hydride to")
 
 
 def _organic_steps(reading: _OrganicReading) -> tuple[str, ...]:
@@ -674,6 +680,10 @@ def analyse(dec: Decomposition) -> MeltingTrend:
             index = molecular
             steps = ("  chain/layer solid without an ionic reading: the molecular index alone",)
     elif route == "element_mixture":
+        if dec.substance_class in ("intermetallic", "metallic") and any(s == "H" for s, _ in dec.composition):
+            # an interstitial hydride (TiH2, ZrH2, PdH0.7, LaNi5H6) gives its hydrogen off on heating, far below
+            # the metal's melting point, which is what the element mixture reports (TiH2 as refractory)
+            notes.extend((_METAL_HYDRIDE, _DECOMPOSITION_CAUTION))
         temperature, how = routes.element_mixture_melting_K(dec.composition)
         index = math.log10(temperature) if temperature > 0 else math.nan
         steps = (f"  networks and metals (stated rule): T = atom-fraction mean of the elements' melting points"

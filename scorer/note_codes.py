@@ -151,6 +151,11 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      "melting trend: salts of the anion (in brackets) are oxidisers: hot or molten they can ignite organic matter,"
      " reducing agents and powdered metals, and give off oxygen as they decompose; keep them apart (see the safety"
      " data sheet)"),
+    ("melting_metal_hydride",
+     r"melting trend: a metal hydride gives off its hydrogen \(a flammable gas\) on heating, far below the metal's"
+     r" melting point: the class is that of the metal left behind, not a temperature to heat the hydride to",
+     "melting trend: a metal hydride gives off its hydrogen (a flammable gas) on heating, far below the metal's"
+     " melting point; the class is that of the metal left behind, not a temperature to heat the hydride to"),
     ("mixture_per_component",
      r"a mixture: each column formed from its components as its method says \(lattice energies, structure type and"
      r" melting trend per component: ionicity explain\)",

@@ -197,6 +197,16 @@ def test_hydride_of_an_intermetallic_host_gets_a_class():
     assert _in_band(record["melting_class"], _tm("12003-81-5"))
 
 
+@pytest.mark.parametrize("formula", ["TiH2", "ZrH2", "PdH0.7", "LaNi5H6", "AlH3Ni3"])
+def test_metal_hydrides_carry_the_hydrogen_release_caution(formula):
+    # interstitial and intermetallic hydrides lose hydrogen from a few hundred C, far below their metal's melting
+    # point (Greenwood & Earnshaw 1997, ch. 3.4; from memory): the class (the metal's) must not read as a
+    # temperature to heat the hydride to
+    notes = score_formula(formula)["value_notes"]
+    assert "gives off its hydrogen" in notes and "safety data sheet" in notes
+    assert "gives off its hydrogen" not in (score_formula("Fe3AlC")["value_notes"] or "")
+
+
 # ------------------------------------ 4b. the intermetallics' rule of mixtures
 
 
