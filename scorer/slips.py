@@ -673,6 +673,8 @@ def missing_count_suggestions(text: str) -> tuple[str, ...]:
     """
     if not isinstance(text, str) or len(text) > _COUNT_MAX_LENGTH or _parsed(text) is None or _parsed(text).charge:
         return ()
+    if any(s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in _parsed(text).counts):
+        return ()  # every proposal keeps the element without chemistry, so reading_penalty is inf for each
     proposals = {}
     for m in _COUNTED.finditer(text):
         written = int(m.group(1)) if m.group(1) else 1
