@@ -36,6 +36,8 @@ from __future__ import annotations
 import re
 
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.elements import is_metal
+from ionicity.scorer.model import Decomposition, Ion, IonTerm, format_charge
 from ionicity.scorer.tables import table
 
 __all__ = ["LIGAND_SOURCE", "is_ligand", "ligand_compositions", "written_ligands", "WEAKLY_COORDINATING_ANIONS"]
@@ -191,39 +193,33 @@ def complex_reading(core, ligands: tuple[tuple[str, float], ...], hint: str, com
     (``core``, a Decomposition): a neutral complex (``covalent_molecular``) or a complex salt whose complex
     ion is built here (see the module docstring). ``composition`` and ``neutral_parts`` are the whole
     formula's. A core the solver could not read keeps its error."""
-    from ionicity.scorer.elements import is_metal
-    from ionicity.scorer.model import Decomposition, Ion, IonTerm, format_charge
-
     ligand_text = ", ".join(f"{n:g} {name}" for name, n in ligands)
     if core.substance_class == "unknown":
         return core.with_fields(composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
                                 notes=(f"the neutral ligands ({ligand_text}) were set apart, and the rest has no"
                                        " reading:", *core.notes))
     states = core.oxidation_states
+    # a neutral complex: one molecule, the metal's formal state from the rest's reading
+    molecule = Decomposition(composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
+                             oxidation_states=states, substance_class="covalent_molecular")
     weakly = any(t.ion.ion_id in WEAKLY_COORDINATING_ANIONS for t in core.anions)
     metal_atoms = sum(n for s, n in composition if is_metal(s))
     donors = sum(_denticities()[name] * n for name, n in ligands) / metal_atoms if metal_atoms else 0.0
     if not hint.startswith(COORDINATION_SALT_HINT) and not weakly and donors < SATURATED_DONORS:
-        return Decomposition(
-            composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
-            oxidation_states=states, substance_class="covalent_molecular")
+        return molecule
     # the complex: the metal cations and the anions written inside the square brackets (all of them where no
     # bracket is written beside a weakly coordinating counter-ion), with every ligand
     inner = _inner_counts(hint) if hint.startswith(COORDINATION_SALT_HINT) else None
     metals = [t for t in core.cations if any(is_metal(s) for s, _ in t.ion.composition)]
     if not metals or len(metals) > 1 and inner is None:
-        return Decomposition(
-            composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
-            oxidation_states=states, substance_class="covalent_molecular")
+        return molecule
     metal = metals[0] if inner is None else next(
         (t for t in metals if all(s in inner for s, _ in t.ion.composition)), metals[0])
     metal_symbol = metal.ion.composition[0][0]
     per_complex = inner.get(metal_symbol, 1.0) if inner else 1.0
     complexes = metal.count / per_complex
     if complexes <= 0 or abs(complexes - round(complexes)) > 1e-9:
-        return Decomposition(
-            composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
-            oxidation_states=states, substance_class="covalent_molecular")
+        return molecule
     complexes = float(round(complexes))
     left = dict(inner or {metal_symbol: per_complex})
     left[metal_symbol] = left.get(metal_symbol, 0.0) - per_complex
@@ -243,9 +239,7 @@ def complex_reading(core, ligands: tuple[tuple[str, float], ...], hint: str, com
     charge = metal.ion.charge + sum(ion.charge * n for ion, n in inner_anions)
     outer_cations = [t for t in core.cations if t is not metal]
     if charge == 0 or abs(charge - round(charge)) > 1e-9:
-        return Decomposition(
-            composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
-            oxidation_states=states, substance_class="covalent_molecular")
+        return molecule
     charge = int(round(charge))
     body: dict[str, float] = {metal_symbol: 1.0}
     for ion, n in inner_anions:
@@ -268,9 +262,7 @@ def complex_reading(core, ligands: tuple[tuple[str, float], ...], hint: str, com
     cations = (term, *outer_cations) if charge > 0 else tuple(outer_cations)
     anions = tuple(outer_anions) if charge > 0 else (term, *outer_anions)
     if not cations or not anions:
-        return Decomposition(
-            composition=tuple(composition), neutral_parts=neutral_parts, hydrate_water=water,
-            oxidation_states=states, substance_class="covalent_molecular")
+        return molecule
     return Decomposition(
         composition=tuple(composition), cations=tuple(cations), anions=tuple(anions), neutral_parts=(),
         hydrate_water=water, oxidation_states=states, substance_class="ionic_salt")
