@@ -109,7 +109,7 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
     else:
         anion, n_anions = organic_anion(rest, -charge), 1
     if not _plausible_conjugate_base(dict(anion.composition), -anion.charge):
-        return [], []
+        return [], [NO_CONJUGATE_BASE]
     cation = monatomic_ion(metal, z)
     penalty = _PENALTY_BUILT
     if penalty >= _IONIC_THRESHOLD:
@@ -117,6 +117,11 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
     note = (f"{anion.ion_id}: an organic anion the ion library does not list, read from the formula as the"
             f" conjugate base beside {cation.ion_id} (scorer/organic_anions.py)")
     return [(penalty, [(cation, float(n_metal)), (anion, float(n_anions))])], [note]
+
+
+# what organic_anion_readings says when the rest would be no acid's conjugate base (CHO(-), C2H3O(-)): the
+# caller then drops a walk's reading of the atoms too, so that the error stands
+NO_CONJUGATE_BASE = "no conjugate base of an acid"
 
 
 def _plausible_conjugate_base(composition: dict[str, float], charge: int) -> bool:

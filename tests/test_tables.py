@@ -25,7 +25,7 @@ ROWS = {
     "radical_hardness.csv": 4,
     "born_exponents.csv": 8,
     "structure_prototypes.csv": 130,
-    "ion_shape.csv": 92,
+    "ion_shape.csv": 95,
     "madelung_prototypes.csv": 16,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
@@ -49,7 +49,7 @@ ROWS = {
     "blends.csv": 11,
     "eutectics.csv": 20,
     "compound_systems.csv": 11,
-    "water_acidity.csv": 55,
+    "water_acidity.csv": 56,
 }
 
 

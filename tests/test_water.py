@@ -47,6 +47,9 @@ CASES = [
     ("KCN", "dissolves", "basic", "none", f"{PET}; HCN pKa 9.21, CRC (from memory)"),
     ("NaHCO3", "dissolves", "basic", "none", "Harris, Quantitative Chemical Analysis: pH 8.3 (from memory)"),
     ("NaHSO4", "dissolves", "acidic", "none", "CRC, H2SO4 pKa2 1.99 (from memory)"),
+    ("K2Cr2O7", "dissolves", "acidic", "none", "CRC, HCrO4- pKa 6.5; dichromate takes up water to two HCrO4-"
+                                                " (Greenwood & Earnshaw 1997, ch. 23; from memory): about pH 4"),
+    ("K2CrO4", "dissolves", "basic", "none", "CRC, HCrO4- pKa 6.5 (from memory)"),
     ("NaH2PO4", "dissolves", "acidic", "none", "CRC, H3PO4 pKa1 2.15 and pKa2 7.20 (from memory)"),
     ("LiF", "slightly_soluble", "basic", "none", f"{CRC}: 1.3 g/L"),
     ("Li2CO3", "slightly_soluble", "basic", "none", f"{CRC}: about 13 g/L (the lithium exception)"),
