@@ -71,6 +71,8 @@ rule ``each``).
 """
 from __future__ import annotations
 
+import dataclasses
+
 import re
 from dataclasses import dataclass
 
@@ -146,9 +148,15 @@ class _Finding:
     products: str | None
     rule: str
     why: str
+    # a caution the row carries whatever the behaviour (white phosphorus ignites in air)
+    caution: str = ""
 
 
 _HALOGENS = frozenset({"F", "Cl", "Br", "I"})
+# white phosphorus ignites in air near 30 C and is stored under water; red phosphorus does not, but burns and
+# ignites with oxidisers (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 12; from memory)
+PHOSPHORUS_CAUTION = ("phosphorus: the white form (P4) ignites in air (pyrophoric) and is toxic, and is stored under"
+                      " water; the red form burns and ignites with oxidisers: see the safety data sheet")
 _ALKALI = frozenset({"Li", "Na", "K", "Rb", "Cs", "Fr"})
 _HEAVY_ALKALINE_EARTH = frozenset({"Ca", "Sr", "Ba", "Ra"})
 _ORGANOMETAL = frozenset({"Li", "Na", "K", "Rb", "Cs", "Be", "Mg", "Ca", "Zn", "Cd", "Al", "Ga", "In", "B"})
@@ -302,6 +310,10 @@ def _element(counts, dec) -> _Finding | None:
         return _finding("dissolves", "acidic", None, "element", "Br2 dissolves (about 34 g/L), slightly acidic")
     if symbol == "I":
         return _finding("slightly_soluble", None, None, "element", "I2 is slightly soluble (about 0.3 g/L)")
+    if symbol == "P":
+        return dataclasses.replace(
+            _finding("insoluble", None, None, "element", "P: insoluble; white phosphorus (P4) is kept under it"),
+            caution=PHOSPHORUS_CAUTION)
     if get_element(symbol).series == "Noble gases":
         return _finding(None, None, None, "element", f"{symbol}: a noble gas, no rule")
     return _finding("insoluble", None, None, "element", f"{symbol}: an element that neither dissolves nor reacts")
@@ -743,6 +755,8 @@ def analyse(dec: Decomposition) -> WaterValues:
         notes.append("solution_ph empty: " + (
             "insoluble, no solution to take the pH of" if found.behaviour == "insoluble"
             else "no hydrolysis constant or rule here gives the pH"))
+    if found.caution:
+        notes.append(found.caution)
     if found.behaviour in ("reacts", "reacts_violently") or found.ph in ("acidic", "basic"):
         notes.append(WATER_CAUTION)
     return WaterValues(

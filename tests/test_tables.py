@@ -41,7 +41,7 @@ ROWS = {
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 64,
-    "trivial_names.csv": 178,
+    "trivial_names.csv": 181,
     "solution_names.csv": 19,
     "ligands.csv": 28,
     "registry_names.csv": 13415,

@@ -422,3 +422,11 @@ def test_halosulfonic_acids_react_violently(formula, halide):
     from ionicity.scorer.record import score_formula
     row = score_formula(formula)
     assert (row["water_behaviour"], row["water_reaction_products"]) == ("reacts_violently", f"{halide};H2SO4")
+
+
+@pytest.mark.parametrize("text", ["P4", "P", "white phosphorus", "red phosphorus"])
+def test_phosphorus_carries_the_pyrophoric_caution(text):
+    # white phosphorus ignites in air and is stored under water (Greenwood & Earnshaw 1997, ch. 12; from memory)
+    row = score_formula(text)
+    assert row["water_behaviour"] == "insoluble"
+    assert "ignites in air" in row["value_notes"] and "safety data sheet" in row["value_notes"]
