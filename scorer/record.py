@@ -453,7 +453,17 @@ def without_grade_words(text: str):
         comp = parse_as_name(body)
         if comp is None:
             return None
-    return comp.respelled(text, notes=(*comp.notes, f"ignored the grade or form words {words!r}"))
+    notes = (*comp.notes, f"ignored the grade or form words {words!r}")
+    if _FINE_FORM.search(words) and comp.counts and all(is_metal(s) for s, _ in comp.counts):
+        notes = (*notes, _FINE_METAL_CAUTION)
+    return comp.respelled(text, notes=notes)
+
+
+# a metal as powder or dust burns, and fine or freshly made powders can ignite in air; their dust clouds explode
+# (Bretherick's Handbook of Reactive Chemical Hazards, 7th ed., 2007; common practice)
+_FINE_FORM = re.compile(r"\b(?:powder(?:ed)?|dust|fine|nanopowder|flakes?)\b", re.I)
+_FINE_METAL_CAUTION = ("a finely divided metal (powder or dust) burns, can ignite in air when very fine, and its dust"
+                       " can explode: keep it from ignition sources and water as the safety data sheet says")
 
 
 def score_row(text) -> tuple:

@@ -285,7 +285,7 @@ _GRADE_WORD = (
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"
     # more catalogue grades ("KBr IR grade", "KCl 99.999% trace metals basis", "NaCl BioXtra")
     r"|IR|trace\s+metals?\s+basis|metals\s+basis|basis|ReagentPlus|BioXtra|BioReagent|BioUltra|SigmaUltra|Emsure"
-    r"|optical|semiconductor|electronic|battery|puratronic|spectrosil"
+    r"|optical|semiconductor|electronic|battery|puratronic|spectrosil|nanopowder|nanoparticles?|mesh|\d+\s*mesh|-\d+\s*mesh"
     # the package size of a stock list ("NaCl 500g", "NaCl, 500 g", "KCl 2.5 kg", "HCl 2.5 L", "NaCl - 2 bottles")
     r"|\d+(?:[.,]\d+)?\s*(?:kg|g|mg|L|l|mL|ml|lb|lbs|oz)\.?(?![A-Za-z])|x\s*\d+|\d+\s*(?:bottles?|jars?|packs?|units?|pcs)"
 )

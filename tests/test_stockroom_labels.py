@@ -349,3 +349,17 @@ def test_catalogue_names_of_common_reagents_are_the_registry_compounds(label):
     row = score_formula(label)
     assert row["status"] == "warning" and "holds a name" in row["message"]
     assert _composition(row["formula_normalized"]) == _registry_formula(label)
+
+
+@pytest.mark.parametrize("label", ["Zn dust", "Al powder", "Fe powder, 325 mesh", "Ni nanopowder"])
+def test_a_metal_powder_carries_the_fire_caution(label):
+    # finely divided metals burn, fine ones ignite in air, and their dust explodes (Bretherick's Handbook of
+    # Reactive Chemical Hazards, 7th ed., 2007; common practice)
+    row = score_formula(label)
+    assert row["status"] == "warning" and "finely divided metal" in row["message"]
+    assert "safety data sheet" in row["message"]
+
+
+@pytest.mark.parametrize("label", ["NaCl powder", "Cu foil", "Mg turnings"])
+def test_no_powder_caution_for_salts_or_massive_metal(label):
+    assert "finely divided metal" not in (score_formula(label)["message"] or "")
