@@ -181,6 +181,9 @@ _ACYL_HALIDE = re.compile(r"C(?:O|\(O\)|\(=O\))(?:Cl|Br|I|F)(?![a-z])")
 # (CH3)2NCOCH3) and a carboxylic anhydride written as (RCO)2O ((CH3CO)2O, (CF3CO)2O): common practice
 _ISOCYANATE = re.compile(r"N=?C=?O(?=$|\))")
 _ACID_ANHYDRIDE = re.compile(r"^\([A-Za-z0-9]*CO\)2O$")
+# an ester written out: a carboxyl carbon bound through its second oxygen to carbon (CH3COOCH3, CH3CO2C2H5,
+# HCOOC2H5): no acidic hydrogen, a molecule, where the Hill formula (C3H6O2) also names the acid (common practice)
+_ESTER = re.compile(r"C(?:OO|O2)C(?![a-z])")
 
 # the invisible format characters (Unicode category Cf) that copied text carries: soft hyphen, zero-width
 # space to right-to-left mark, word joiner and invisible operators, byte-order mark
@@ -551,7 +554,7 @@ def parse_formula(text: str) -> ParsedFormula:
     if solvent is not None and not parsed.ion_hints:
         # a solvent's or reagent's code names one molecule (TRIS is no propylammonium hydrogencarbonate); an
         # acid's H(+) reading stands (TFA; scorer.ions)
-        parsed = dataclasses.replace(parsed, structure_hint="molecule")
+        parsed = dataclasses.replace(parsed, structure_hint="ester" if parsed.structure_hint == "ester" else "molecule")
     return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
 
 
@@ -705,6 +708,8 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "isocyanate"
     elif _ACID_ANHYDRIDE.match(cleaned):
         hint = "acid_anhydride"
+    elif _ESTER.search(cleaned) and "COOH" not in cleaned and "CO2H" not in cleaned and not hints:
+        hint = "ester"
     elif "(NH2)" in cleaned:
         hint = "amide"
     elif _FULMINATE.search(cleaned):

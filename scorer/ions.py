@@ -238,6 +238,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # (name_reader: the registry's SMILES): a molecule with a group water attacks
         dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
         return dataclasses.replace(dec, written_groups=(group,))
+    if comp.structure_hint == "ester" and not any(is_metal(s) for s in symbols):
+        # an ester written out (CH3COOCH3): no acidic hydrogen, a molecule (its Hill formula also names an acid)
+        return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)

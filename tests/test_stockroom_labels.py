@@ -363,3 +363,22 @@ def test_a_metal_powder_carries_the_fire_caution(label):
 @pytest.mark.parametrize("label", ["NaCl powder", "Cu foil", "Mg turnings"])
 def test_no_powder_caution_for_salts_or_massive_metal(label):
     assert "finely divided metal" not in (score_formula(label)["message"] or "")
+
+
+@pytest.mark.parametrize("text, registry_name", [
+    ("CH3COOCH3", "methyl acetate"), ("CH3CO2CH3", "methyl acetate"), ("HCOOC2H5", "ethyl formate"),
+    ("HCOOCH3", "methyl formate"), ("CH3COOC2H5", "ethyl acetate"), ("MeOAc", "methyl acetate"),
+    ("EtOAc", "ethyl acetate"), ("BuOAc", "butyl acetate"),
+])
+def test_an_ester_written_out_is_a_molecule_not_an_acid(text, registry_name):
+    # C3H6O2 is propanoic acid as well as methyl acetate and ethyl formate: written out, the ester linkage
+    # (a carboxyl carbon bound through O to carbon) leaves no acidic hydrogen (common practice); the registry
+    # package's formula of the ester
+    row = score_formula(text)
+    assert row["substance_class"] == "covalent_molecular" and row["solution_ph"] != "acidic"
+    assert _composition(row["formula_normalized"]) == _registry_formula(registry_name)
+
+
+@pytest.mark.parametrize("text", ["CH3COOH", "C2H5COOH", "CH3COOCH2COOH"])
+def test_a_written_carboxylic_acid_stays_an_acid(text):
+    assert score_formula(text)["substance_class"] == "acid"

@@ -40,7 +40,7 @@ ROWS = {
     "gases.csv": 217,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
-    "solvent_codes.csv": 64,
+    "solvent_codes.csv": 67,
     "trivial_names.csv": 181,
     "solution_names.csv": 19,
     "ligands.csv": 28,
