@@ -324,4 +324,4 @@ def split_grade_words(text: str) -> tuple[str, str | None]:
     m = _GRADE_TAIL.search(text)
     if m is None or m.start() == 0:
         return text, None
-    return text[:m.start()].rstrip(" ,;"), text[m.start():].strip(" ,;.") or None
+    return text[:m.start()].rstrip(" ,;"), re.sub(r"^-\s+", "", text[m.start():].strip(" ,;.")) or None

@@ -382,3 +382,10 @@ def test_an_ester_written_out_is_a_molecule_not_an_acid(text, registry_name):
 @pytest.mark.parametrize("text", ["CH3COOH", "C2H5COOH", "CH3COOCH2COOH"])
 def test_a_written_carboxylic_acid_stays_an_acid(text):
     assert score_formula(text)["substance_class"] == "acid"
+
+
+@pytest.mark.parametrize("label, formula", [("NaCl - 2 bottles", "NaCl"), ("Al powder -325 mesh", "Al")])
+def test_a_package_size_after_a_hyphen_is_no_mixture(label, formula):
+    row = score_formula(label)
+    assert row["substance_class"] != "mixture" and row["formula_normalized"] == formula
+    assert "grade or form words" in row["message"]
