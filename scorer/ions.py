@@ -621,6 +621,13 @@ def _best(readings):
         compatible = {t: ca for t, ca in seen.items() if not redox_conflicts(*ca)}
         if compatible:
             seen = compatible
+    if len(seen) > 1:
+        # of the rest, the oxide goes into the oxoanion: orthophosphate with fluoride or oxide rather than a
+        # fluoro- or metaphosphate beside more free O(2-) (Na2FePO4F, KTiOPO4; Pauling's electrostatic valence
+        # rule: the oxide is saturated by the most acidic centre; common practice)
+        oxide = {t: sum(term.count for term in ca[1] if term.ion.ion_id == "O(2-)") for t, ca in seen.items()}
+        least = min(oxide.values())
+        seen = {t: ca for t, ca in seen.items() if oxide[t] <= least + _TOL}
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
 

@@ -389,3 +389,17 @@ def test_a_package_size_after_a_hyphen_is_no_mixture(label, formula):
     row = score_formula(label)
     assert row["substance_class"] != "mixture" and row["formula_normalized"] == formula
     assert "grade or form words" in row["message"]
+
+
+@pytest.mark.parametrize("text, anions", [
+    # the oxide goes into the oxoanion (Pauling's electrostatic valence rule; common practice): the cathode
+    # materials Na2FePO4F and LiVPO4F hold PO4(3-) and F(-), KTiOPO4 (KTP) PO4(3-) and one O(2-), and solid N2O5
+    # is nitronium nitrate (Greenwood & Earnshaw 1997, ch. 11; from memory); each had warned "ambiguous"
+    ("Na2FePO4F", "F(-)*1;PO4(3-)*1"),
+    ("LiVPO4F", "F(-)*1;PO4(3-)*1"),
+    ("KTiOPO4", "O(2-)*1;PO4(3-)*1"),
+    ("N2O5", "NO3(-)*1"),
+])
+def test_of_equal_readings_the_one_with_less_free_oxide_is_taken(text, anions):
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["anions"] == anions
