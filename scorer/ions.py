@@ -628,6 +628,14 @@ def _best(readings):
         oxide = {t: sum(term.count for term in ca[1] if term.ion.ion_id == "O(2-)") for t, ca in seen.items()}
         least = min(oxide.values())
         seen = {t: ca for t, ca in seen.items() if oxide[t] <= least + _TOL}
+    if len(seen) > 1:
+        # and the C-bound metal of a cyano complex takes the lower state, its N-bound partner the higher: Prussian
+        # blue KFe[Fe(CN)6] is Fe(3+) with hexacyanoferrate(II), the strong-field low-spin Fe(II) inside
+        # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 25; from memory)
+        cyano = {t: sum(term.ion.charge * term.count for term in ca[1] if term.ion.family == "cyano-complex")
+                 for t, ca in seen.items()}
+        most = min(cyano.values())
+        seen = {t: ca for t, ca in seen.items() if cyano[t] <= most + _TOL}
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
 

@@ -403,3 +403,12 @@ def test_a_package_size_after_a_hyphen_is_no_mixture(label, formula):
 def test_of_equal_readings_the_one_with_less_free_oxide_is_taken(text, anions):
     row = score_formula(text)
     assert row["status"] == "ok" and row["anions"] == anions
+
+
+@pytest.mark.parametrize("text", ["KFe[Fe(CN)6]", "KFeFe(CN)6"])
+def test_soluble_prussian_blue_is_iron_three_with_ferrocyanide(text):
+    # Prussian blue: Fe(III) bound to N, low-spin Fe(II) bound to C (Greenwood & Earnshaw 1997, ch. 25; from
+    # memory); the two readings had tied and warned "ambiguous"
+    row = score_formula(text)
+    assert row["status"] == "ok"
+    assert row["cations"] == "K(+)*1;Fe(3+)*1" and row["anions"] == "Fe(CN)6(4-)*1"
