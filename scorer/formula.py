@@ -474,6 +474,11 @@ def parse_formula(text: str) -> ParsedFormula:
         if alloy is not None:
             text_to_parse, alloy_note = alloy
             notes.append(alloy_note)
+    salt_of_code = code_hydrohalide(text_to_parse) if "H" in text_to_parse else None
+    if salt_of_code is not None:
+        # a buffer base's code with its acid ("Tris-HCl", "Tris HCl"): the base's hydrohalide salt
+        notes.append(salt_of_code[1])
+        text_to_parse = salt_of_code[0]
     solvent = laboratory_code(text_to_parse) if _SOLVENT_CODE.fullmatch(text_to_parse) else None
     if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
         solvent = deuterated_solvent(text_to_parse)
@@ -757,6 +762,28 @@ _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": 
 # a whole cell that is a solvent's or reagent's laboratory code (THF, DMSO, EC, DMC: scorer/data/solvent_codes.csv);
 # THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
 _SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\d?\s*")
+# a laboratory code, a hyphen, space or dot, and a hydrogen halide: "Tris-HCl", "Tris HCl", "TEA·HCl"
+_CODE_HYDROHALIDE = re.compile(r"\s*(?P<code>[A-Za-z]{2,6}\d?)\s*[-\s·.]\s*(?P<acid>HCl|HBr|HI)\s*")
+
+
+def code_hydrohalide(text: str) -> tuple[str, str] | None:
+    """(formula text, note) of a laboratory code of a base written with a hydrogen halide, read as the base's
+    hydrohalide salt ("Tris-HCl" is tris(hydroxymethyl)aminomethane hydrochloride, a buffer salt; common practice);
+    None for any other text, or a code whose formula holds no nitrogen to take the proton.
+
+    >>> code_hydrohalide("Tris-HCl")[0], code_hydrohalide("NaCl-HCl")
+    ('C4H11NO3·HCl', None)
+    """
+    m = _CODE_HYDROHALIDE.fullmatch(text) if isinstance(text, str) else None
+    if m is None:
+        return None
+    entry = laboratory_code(m.group("code"))
+    if entry is None or "N" not in re.sub(r"N[a-z]", "", entry[0]):
+        return None
+    formula, name = entry
+    return (f"{formula}·{m.group('acid')}",
+            f"read {text.strip()!r} as the {m.group('acid')} salt of the laboratory code {m.group('code')!r},"
+            f" {name} (common practice)")
 
 
 _SOLVENT_CODES: dict[str, tuple[str, str]] = {}

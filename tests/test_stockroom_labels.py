@@ -412,3 +412,16 @@ def test_soluble_prussian_blue_is_iron_three_with_ferrocyanide(text):
     row = score_formula(text)
     assert row["status"] == "ok"
     assert row["cations"] == "K(+)*1;Fe(3+)*1" and row["anions"] == "Fe(CN)6(4-)*1"
+
+
+@pytest.mark.parametrize("label", ["Tris-HCl", "Tris HCl", "TRIS-HCl"])
+def test_a_buffer_base_with_its_acid_is_its_hydrochloride(label):
+    # Tris-HCl is tris(hydroxymethyl)aminomethane hydrochloride, C4H11NO3·HCl, 157.60 g/mol (from memory), a
+    # buffer salt, not a mixture of Tris with hydrogen chloride
+    row = score_formula(label)
+    assert row["substance_class"] != "mixture" and row["anions"] == "Cl(-)*1"
+    assert row["molar_mass_g_mol"] == pytest.approx(157.60, abs=0.02)
+
+
+def test_a_salt_with_hydrogen_chloride_stays_a_mixture():
+    assert score_formula("NaCl-HCl")["substance_class"] == "mixture"
