@@ -501,6 +501,7 @@ def subvalent_notes(cations) -> list[str]:
 
 # monatomic anions that a cation above its element's highest usual state would oxidise (common practice)
 _REDUCING_ANIONS = frozenset({"S(2-)", "Se(2-)", "Te(2-)", "C(4-)", "N(3-)", "P(3-)", "As(3-)", "H(-)", "I(-)", "Br(-)", "Cl(-)"})
+_REDUCING_ELEMENTS = frozenset(ion_id.split("(")[0] for ion_id in _REDUCING_ANIONS)
 
 
 def supervalent_notes(cations, anions) -> list[str]:
@@ -530,6 +531,13 @@ def supervalent_notes(cations, anions) -> list[str]:
     return out
 
 
+@once
+def _metal_symbols() -> frozenset[str]:
+    from ionicity.scorer.elements import element_symbols
+
+    return frozenset(s for s in element_symbols() if is_metal(s))
+
+
 def supervalent_molecule_notes(dec: Decomposition) -> list[str]:
     """:func:`supervalent_notes` for a compound read without ions (a molecule or a chain solid): its metal's
     formal oxidation state above the highest its element takes in its usual compounds, beside a partner it would
@@ -542,8 +550,10 @@ def supervalent_molecule_notes(dec: Decomposition) -> list[str]:
     ...     decompose(parse_formula("MoCl5")))
     ('Fe(+4) beside Cl: no compound holds Fe above F', [])
     """
-    partners = [s for s, z in dec.oxidation_states if z < 0 and f"{s}(" in " ".join(_REDUCING_ANIONS)]
-    if not partners or dec.cations:
+    if dec.cations or not (_metal_symbols() & {s for s, _ in dec.oxidation_states}):
+        return []  # the common case (an organic molecule) leaves here: no metal at all
+    partners = [s for s, z in dec.oxidation_states if z < 0 and s in _REDUCING_ELEMENTS]
+    if not partners:
         return []
     out = []
     for symbol, state in dec.oxidation_states:

@@ -474,7 +474,8 @@ def parse_formula(text: str) -> ParsedFormula:
         if alloy is not None:
             text_to_parse, alloy_note = alloy
             notes.append(alloy_note)
-    salt_of_code = code_hydrohalide(text_to_parse) if "H" in text_to_parse else None
+    salt_of_code = code_hydrohalide(text_to_parse) if ("HCl" in text_to_parse or "HBr" in text_to_parse
+                                                        or "HI" in text_to_parse) else None
     if salt_of_code is not None:
         # a buffer base's code with its acid ("Tris-HCl", "Tris HCl"): the base's hydrohalide salt
         notes.append(salt_of_code[1])
