@@ -85,7 +85,7 @@ from ionicity.scorer.bond_class_rules import (
 )
 from ionicity.scorer.caching import once
 from ionicity.scorer.descriptor import protocol, result_class
-from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.elements import get_element, is_metal, metal_symbols
 from ionicity.scorer.grammar import hill_text_key, reduced_key  # one composition key, shared with the molecular route
 from ionicity.scorer.ion_library import monatomic_ion
 from ionicity.scorer.model import Column, Decomposition, IonTerm
@@ -531,13 +531,6 @@ def supervalent_notes(cations, anions) -> list[str]:
     return out
 
 
-@once
-def _metal_symbols() -> frozenset[str]:
-    from ionicity.scorer.elements import element_symbols
-
-    return frozenset(s for s in element_symbols() if is_metal(s))
-
-
 def supervalent_molecule_notes(dec: Decomposition) -> list[str]:
     """:func:`supervalent_notes` for a compound read without ions (a molecule or a chain solid): its metal's
     formal oxidation state above the highest its element takes in its usual compounds, beside a partner it would
@@ -550,7 +543,7 @@ def supervalent_molecule_notes(dec: Decomposition) -> list[str]:
     ...     decompose(parse_formula("MoCl5")))
     ('Fe(+4) beside Cl: no compound holds Fe above F', [])
     """
-    if dec.cations or not (_metal_symbols() & {s for s, _ in dec.oxidation_states}):
+    if dec.cations or not (metal_symbols() & {s for s, _ in dec.oxidation_states}):
         return []  # the common case (an organic molecule) leaves here: no metal at all
     partners = [s for s, z in dec.oxidation_states if z < 0 and s in _REDUCING_ELEMENTS]
     if not partners:

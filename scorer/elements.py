@@ -48,6 +48,7 @@ __all__ = [
     "get_element",
     "is_element_symbol",
     "is_metal",
+    "metal_symbols",
     "element_symbols",
     "snapshot_info",
 ]
@@ -286,6 +287,15 @@ def is_metal(symbol: str) -> bool:
 @once
 def _metal_symbols() -> frozenset[str]:
     return frozenset(e.symbol for e in _snapshot()[1].values() if e.is_metal)
+
+
+def metal_symbols() -> frozenset[str]:
+    """Every metal's symbol (:func:`is_metal`), for set tests over a whole composition.
+
+    >>> {"C", "H", "Fe"} & metal_symbols()
+    {'Fe'}
+    """
+    return _metal_symbols()
 
 
 def element_symbols() -> tuple[str, ...]:
