@@ -653,9 +653,10 @@ def mixture_row(text: str, score_row) -> tuple | None:
     label = POLYMORPH_LABEL.match(text)
     if label and not any(j in text[label.end():] for j in "-–:/+"):
         return None  # a structure label ("α-Al2O3", "2H-MoS2", "h-BN"), not a mixture
-    body, words = split_grade_words(text)
-    if words is not None and not any(j in body for j in "-–:/+") and any(j in text[len(body):] for j in "-–"):
-        return None  # a package size or mesh after a hyphen ("NaCl - 2 bottles", "Al powder -325 mesh"), not a mixture
+    if " -" in text or " –" in text:
+        body, words = split_grade_words(text)
+        if words is not None and not any(j in body for j in "-–:/+") and any(j in text[len(body):] for j in "-–"):
+            return None  # a package size or mesh after a hyphen ("NaCl - 2 bottles", "Al powder -325 mesh")
     found = read_mixture(text, score_row)
     if found is None:
         return None
