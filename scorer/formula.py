@@ -40,7 +40,7 @@ from ionicity.scorer import ion_library
 from ionicity.scorer.abbreviations import expand_abbreviations
 from ionicity.scorer.coordination import coordination_hint, is_ligand, ligand_compositions, written_ligands
 from ionicity.scorer.caching import per_input
-from ionicity.scorer.elements import is_element_symbol, is_metal
+from ionicity.scorer.elements import get_element, is_element_symbol, is_metal, metal_symbols
 from ionicity.scorer.grammar import (
     CLOSE_BRACKETS as _CLOSE,
     MAX_COUNT,
@@ -566,7 +566,7 @@ def parse_formula(text: str) -> ParsedFormula:
 
 def _metal_written(text: str) -> bool:
     """Whether ``text`` writes a metal's symbol (the ligands of :mod:`scorer.coordination` need one to bind)."""
-    return any(is_element_symbol(m.group()) and is_metal(m.group()) for m in re.finditer(r"[A-Z][a-z]?", text))
+    return any(m.group() in metal_symbols() for m in re.finditer(r"[A-Z][a-z]?", text))
 
 
 def _with_ligands(parsed: ParsedFormula, ligands, inner: str) -> ParsedFormula:
@@ -816,8 +816,6 @@ def alloy_designation(text: str) -> tuple[str, str] | None:
     >>> alloy_designation("Ti-6Al-4V")[0], alloy_designation("LiCl-KCl")
     ('Ti0.862Al0.102V0.036', None)
     """
-    from ionicity.scorer.elements import get_element, is_element_symbol, is_metal
-
     m = _ALLOY.fullmatch(text) if isinstance(text, str) else None
     if m is None or not is_element_symbol(m.group(1)) or not is_metal(m.group(1)):
         return None
