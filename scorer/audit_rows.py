@@ -8,10 +8,10 @@ from __future__ import annotations
 import re
 from typing import Callable
 
-from ionicity.scorer.formula import laboratory_code
+from ionicity.scorer.formula import FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.name_reader import known_word_name
 from ionicity.scorer.slips import Slip, find_slip, missing_count_suggestions
-from ionicity.scorer.solutions import Solution, solution_note, split_in_solvent, split_solution
+from ionicity.scorer.solutions import Solution, solution_note, split_grade_words, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
 __all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion", "material_message"]
@@ -30,6 +30,8 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
         return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
                             position)
     slip = find_slip(text)
+    if slip is not None and _formula_then_words(text):
+        slip = None  # a formula with grade or form words after it ("ZrO2 monoclinic", "CaCO3 calcite"): no slip
     material = material_message(text) if slip is not None else None
     if material is not None:
         return error_row(material)  # "brass" is no BrAsS
@@ -48,6 +50,19 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     else:
         row = plain_row(text) if slip.kind == "leading_zero" else error_row(slip.message)
     return slipped_row(row, slip, position)
+
+
+def _formula_then_words(text: str) -> bool:
+    """Whether ``text`` is a formula that reads as written followed by grade or form words
+    (:func:`scorer.solutions.split_grade_words`), whose letters the slip search would re-case."""
+    body, words = split_grade_words(text)
+    if words is None or not body:
+        return False
+    try:
+        parse_formula(body)
+    except FormulaError:
+        return False
+    return True
 
 
 # materials a stock list names that have no one formula, and whose names the slip search would re-case into

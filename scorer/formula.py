@@ -487,6 +487,13 @@ def parse_formula(text: str) -> ParsedFormula:
         formula, name = solvent
         notes.append(f"read the laboratory code {text_to_parse.strip()!r} as {name}, {formula} (common practice)")
         text_to_parse = formula
+    elif _MATERIAL_CODE.fullmatch(text_to_parse):
+        material = material_code(text_to_parse)
+        if material is not None:
+            formula, name = material
+            notes.append(f"read the materials code {text_to_parse.strip()!r} as {name}, {formula} (common practice;"
+                         " the usual composition, check it against your material's)")
+            text_to_parse = formula
     if "+" in text_to_parse and "-" in text_to_parse:
         pair = _written_ion_pair(text_to_parse)
         if pair is not None:
@@ -495,6 +502,15 @@ def parse_formula(text: str) -> ParsedFormula:
     # most cells are plain (_PLAIN): no comma, sign or space, so no solid-solution site, written
     # non-stoichiometry, spaced or hyphenated ion pair, and nothing for _normalise_text to map but the dot
     plain = _PLAIN.fullmatch(text_to_parse) is not None
+    if plain and text_to_parse.isalpha() and len(text_to_parse) <= 14:
+        alloy_sites = unsubscripted_alloy(text_to_parse)
+        if alloy_sites is not None:
+            # a semiconductor alloy by its elements alone ("InGaN", "AlGaAs", "HgCdTe"): a solid solution of
+            # unstated proportions on each site, read as one below
+            notes.append(f"a semiconductor alloy written without its fractions ({text_to_parse!r}, as for"
+                         f" {alloy_sites}): read with equal shares on each site")
+            text_to_parse = alloy_sites
+            plain = False
     if not plain and "," in text_to_parse and _SOLID_SOLUTION_SITE.search(text_to_parse):
         shared = _SOLID_SOLUTION_SITE.sub(_equal_shares, text_to_parse)
         notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
@@ -801,6 +817,31 @@ def _solvent_codes() -> dict[str, tuple[str, str]]:
     return _SOLVENT_CODES
 
 
+# a materials code of scorer/data/material_codes.csv: letters, a leading digit (8YSZ) or up to three after (NMC811)
+_MATERIAL_CODE = re.compile(r"\s*\d?[A-Za-z]{2,6}\d{0,3}\s*")
+_MATERIAL_CODES: dict[str, tuple[str, str, str]] = {}
+
+
+def material_code(text: str) -> tuple[str, str] | None:
+    """(formula, name) of a whole cell that is a materials code of ``material_codes.csv`` (a battery, ceramic,
+    laser-host or thin-film material by its usual acronym); None otherwise. The code as listed, or all in capitals
+    or all in lower case; any other mixed case is a formula's (YAg is no YAG).
+
+    >>> material_code("LFP"), material_code("nmc811")[0], material_code("YAg"), material_code("NaCl")
+    (('LiFePO4', 'lithium iron phosphate'), 'LiNi0.8Mn0.1Co0.1O2', None, None)
+    """
+    if not isinstance(text, str) or not _MATERIAL_CODE.fullmatch(text):
+        return None
+    if not _MATERIAL_CODES:
+        _MATERIAL_CODES.update({row["code"].upper(): (row["formula"], row["name"], row["code"])
+                                for row in table("material_codes.csv")})
+    code = text.strip()
+    entry = _MATERIAL_CODES.get(code.upper())
+    if entry is None or not (code == entry[2] or code.isupper() or code.islower()):
+        return None
+    return entry[0], entry[1]
+
+
 # an alloy as metallurgy designates it: the base metal, then each addition's weight percent before its symbol
 # (Ti-6Al-4V, Fe-18Cr-8Ni, Al-12Si, Fe-0.8C; common practice, ASTM and ISO alloy designations)
 _ALLOY = re.compile(r"\s*([A-Z][a-z]?)((?:\s*-\s*\d+(?:\.\d+)?\s*[A-Z][a-z]?)+)\s*")
@@ -883,13 +924,59 @@ def _ideal_count(m: re.Match) -> str:
 
 
 # elements sharing one site, as solid-state chemistry writes them: Cu(In,Ga)Se2, (Ba,Sr)TiO3
+# the usual charge of the cations and anions of the compound-semiconductor alloys: groups 2 and 12 (2+), 13 (3+),
+# Sn and Pb beside chalcogens (2+); pnictogens (3-), chalcogens (2-) (common practice: III-V, II-VI, IV-VI alloys)
+_ALLOY_CATION_CHARGE = {2: 2, 12: 2, 13: 3}
+_ALLOY_ANION_CHARGE = {15: 3, 16: 2}
+_ALLOY_IV_VI_CATIONS = frozenset({"Sn", "Pb", "Ge"})
+_SYMBOL_RUN = re.compile(r"[A-Z][a-z]?")
+
+
+@per_input(maxsize=4096)
+def unsubscripted_alloy(text: str) -> str | None:
+    """The sites of a compound-semiconductor alloy written as its elements alone, cations then anions, each
+    site of one charge and the two charges equal (``InGaN`` -> ``(In,Ga)N``, ``AlInGaP`` -> ``(Al,In,Ga)P``,
+    ``GaAsP`` -> ``Ga(As,P)``, ``HgCdTe`` -> ``(Hg,Cd)Te``); None for any other text (``NaCl``, ``KSCN``,
+    ``GaAs``, ``BiSbTe``). Vegard-type alloys are written so in
+    the semiconductor literature when the fractions vary or are not the point (common practice).
+
+    >>> unsubscripted_alloy("InGaN"), unsubscripted_alloy("GaInAsP")
+    ('(In,Ga)N', '(Ga,In)(As,P)')
+    >>> unsubscripted_alloy("GaAs"), unsubscripted_alloy("KSCN"), unsubscripted_alloy("BiSbTe")
+    (None, None, None)
+    """
+    symbols = _SYMBOL_RUN.findall(text)
+    if "".join(symbols) != text or len(set(symbols)) != len(symbols) or not all(is_element_symbol(s) for s in symbols):
+        return None
+    if len(symbols) < 3:
+        return None
+    group = {s: get_element(s).group for s in symbols}
+    split = next((i for i, s in enumerate(symbols) if group[s] in _ALLOY_ANION_CHARGE), None)
+    if split is None or split == 0:
+        return None
+    cations, anions = symbols[:split], symbols[split:]
+    if not all(group[s] in _ALLOY_ANION_CHARGE for s in anions):
+        return None
+    anion_charges = {_ALLOY_ANION_CHARGE[group[s]] for s in anions}
+    cation_charges = {2 if (s in _ALLOY_IV_VI_CATIONS and anion_charges == {2}) else
+                      _ALLOY_CATION_CHARGE.get(group[s]) for s in cations}
+    if len(anion_charges) != 1 or cation_charges != anion_charges:
+        return None
+    if len(cations) == 1 and len(anions) == 1:
+        return None
+    site = lambda run: run[0] if len(run) == 1 else f"({','.join(run)})"  # noqa: E731
+    return site(cations) + site(anions)
+
+
 _SOLID_SOLUTION_SITE = re.compile(r"\(\s*([A-Z][a-z]?(?:\s*,\s*[A-Z][a-z]?)+)\s*\)")
 
 
 def _equal_shares(m: re.Match) -> str:
     symbols = [x.strip() for x in m.group(1).split(",")]
-    share = format_count(round(1.0 / len(symbols), 4))
-    return "(" + "".join(f"{x}{share}" for x in symbols) + ")"
+    share = round(1.0 / len(symbols), 4)
+    # the last takes the rest, so that the site holds one atom (thirds: 0.3333, 0.3333, 0.3334)
+    shares = [share] * (len(symbols) - 1) + [round(1.0 - share * (len(symbols) - 1), 4)]
+    return "(" + "".join(f"{x}{format_count(n)}" for x, n in zip(symbols, shares)) + ")"
 
 
 def nonstoichiometric_text(text: str) -> str | None:

@@ -630,6 +630,10 @@ def _record(mixture: Mixture) -> tuple:
 _HYPHEN_IN_WORD = re.compile(r"(?:^|[\s(])[a-z]+-[a-z]{2,}")
 
 
+# a hyphen before a lower-case word: where a crystal form may follow a formula ("TiO2-anatase")
+_FORM_AFTER_HYPHEN = re.compile(r"[\w)\]]-[a-zα-ω]")
+
+
 def mixture_row(text: str, score_row) -> tuple | None:
     """The output row of a cell written as a mixture, or None for a compound.
 
@@ -653,6 +657,10 @@ def mixture_row(text: str, score_row) -> tuple | None:
     label = POLYMORPH_LABEL.match(text)
     if label and not any(j in text[label.end():] for j in "-–:/+"):
         return None  # a structure label ("α-Al2O3", "2H-MoS2", "h-BN"), not a mixture
+    if _FORM_AFTER_HYPHEN.search(text):
+        body, words = split_grade_words(text)
+        if words is not None and not any(j in body for j in "-–:/+"):
+            return None  # a crystal form after a hyphen ("TiO2-anatase", "ZrO2-monoclinic"), not a mixture
     if " -" in text or " –" in text:
         body, words = split_grade_words(text)
         if words is not None and not any(j in body for j in "-–:/+") and any(j in text[len(body):] for j in "-–"):

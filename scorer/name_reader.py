@@ -407,6 +407,13 @@ def parse_as_name(text: str, any_word: bool = False):
     if not isinstance(text, str) or not (any_word or _WORDLIKE.search(text)):
         return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
     formula, entry = _read_name(text)
+    if formula is None and "-" in text:
+        # stereo descriptors and optical rotation ("D-(+)-Glucose", "sodium L-lactate", "(R)-(+)-Limonene") name
+        # one isomer of the same formula: the name is read without the rotation sign, then without any descriptor
+        for bare in without_stereo_descriptors(text):
+            formula, entry = _read_name(bare)
+            if formula is not None:
+                break
     if formula is None:
         return None
     try:
@@ -424,6 +431,29 @@ def parse_as_name(text: str, any_word: bool = False):
             # or an isocyanate likewise, for the water rules
             parsed = dataclasses.replace(parsed, structure_hint=entry[4])
     return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+# the sign of optical rotation before a name ("(+)-", "(-)-", "(±)-"), and the stereo descriptors of IUPAC
+# (Fischer D and L, CIP R and S, E and Z, rac, meso; IUPAC Recommendations 2013, P-9 and P-93; common practice)
+_ROTATION_SIGN = re.compile(r"\(\s*(?:[+\-−]|±|\+/[\-−])\s*\)-")
+_STEREO_DESCRIPTOR = re.compile(
+    r"(?<![A-Za-z0-9])(?:\(\s*(?:[RSEZ]|RS|SR|[RS]\*)(?:\s*,\s*(?:\d+[RSEZ]|[RSEZ]))*\s*\)-"
+    r"|(?:D|L|DL|rac|meso)-(?=[A-Za-z(]))")
+
+
+def without_stereo_descriptors(text: str) -> tuple[str, ...]:
+    """``text`` without the sign of optical rotation, then without every stereo descriptor as well; the
+    variants that differ from ``text``, in that order. Isomers share one formula, so the name's formula
+    is read from the bare name.
+
+    >>> without_stereo_descriptors("D-(+)-Glucose"), without_stereo_descriptors("sodium L-lactate")
+    (('D-Glucose', 'Glucose'), ('sodium lactate',))
+    >>> without_stereo_descriptors("(R)-(+)-Limonene"), without_stereo_descriptors("tert-butanol")
+    (('(R)-Limonene', 'Limonene'), ())
+    """
+    unsigned = _ROTATION_SIGN.sub("", text)
+    bare = _STEREO_DESCRIPTOR.sub("", unsigned)
+    return tuple(dict.fromkeys(v for v in (unsigned, bare) if v != text and v.strip()))
 
 
 # the registry's kinds of one molecule (scorer/data/registry_names.csv): the parse's structure hint

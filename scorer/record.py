@@ -8,6 +8,7 @@ from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, material_message, with_count_suggestion
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.columns import descriptors, output_columns
+from ionicity.scorer.dopants import doped_host, doping_note
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import (
     FormulaError,
@@ -25,12 +26,12 @@ from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
-from ionicity.scorer.name_reader import ambiguous_name, formula_with_hydrate_word, parse_as_name
+from ionicity.scorer.name_reader import ambiguous_name, formula_with_hydrate_word, known_word_name, parse_as_name
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.solutions import split_grade_words
 from ionicity.scorer.systematic_name import hydrate_words
-from ionicity.scorer.verdict import finalise
+from ionicity.scorer.verdict import Verdict, finalise, with_warnings
 
 _IONIC_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "acid", "base", "ion"})
 _MOLECULAR_OR_LAYER = frozenset({"covalent_molecular", "chain_layer_solid"})
@@ -361,6 +362,10 @@ def _error_row(message: str) -> tuple:
 @per_input(maxsize=65536)
 def _score_text(text: str) -> tuple:
     # one scan: an ordinary formula (most texts) skips the mixture, solution and slip readers
+    if text.endswith(")"):
+        doped = _doped_row(text)  # "CsI(Tl)": a host and its activator, not one formula
+        if doped is not None:
+            return doped
     comp = ordinary_formula(text)
     if comp is None:
         return _read_row(text)
@@ -373,17 +378,93 @@ def _score_text(text: str) -> tuple:
 
 def _counted(row: tuple, text: str) -> tuple:
     """``row``, where it is an error or warning whose formula most likely lost a count, with the complete
-    formulas named (:func:`scorer.audit_rows.with_count_suggestion`); one check of the status for the rest."""
-    return row if row[_STATUS_SLOT] == "ok" else with_count_suggestion(row, text, _layout()[1])
+    formulas named (:func:`scorer.audit_rows.with_count_suggestion`); one check of the status for the rest.
+    An acceptor-doped oxide written with the ideal oxygen count is read with its oxygen vacancies
+    (:func:`_oxygen_vacancy_row`)."""
+    if row[_STATUS_SLOT] == "ok":
+        return row
+    vacancies = _oxygen_vacancy_row(row, text)
+    return vacancies if vacancies is not None else with_count_suggestion(row, text, _layout()[1])
+
+
+# the most oxygen a vacancy reading may take away, as a share of the oxygen written: acceptor-doped perovskites
+# and fluorites lose a few per cent (BaZr0.8Y0.2O2.9: 3 %; Zr0.85Y0.15O1.93: 4 %; common practice)
+_MAX_VACANCY_SHARE = 0.1
+
+
+def _oxygen_vacancy_row(row: tuple, text: str) -> tuple | None:
+    """The row of an oxide whose metals are substituted in fractions (an acceptor-doped perovskite or
+    fluorite: BaCe0.8Y0.2O3, Zr0.92Y0.08O2, La0.8Sr0.2Ga0.8Mg0.2O3) and whose written oxygen no ions
+    balance, read with the oxygen vacancies the acceptors bring: each acceptor of one charge below the
+    site's takes half an oxide ion away (Kroger-Vink: 2 Y'_Zr per V_O; Kroger & Vink, Solid State
+    Physics 3, 1956, 307; from memory). The smallest such deficit that balances, within
+    :data:`_MAX_VACANCY_SHARE` of the oxygen, is taken, and said; None when there is none or the row
+    has another fault."""
+    message = row[_layout()[1]["message"]] or ""
+    if row[_STATUS_SLOT] != "error" or "no charge-balanced set of ions found" not in message:
+        return None
+    try:
+        comp = parse_formula(text)
+    except FormulaError:
+        return None
+    counts = comp.as_dict()
+    oxygen = counts.get("O", 0.0)
+    if not oxygen or comp.charge or comp.ion_hints or comp.neutral_adducts or comp.hydrate_water:
+        return None
+    metals = {s: n for s, n in counts.items() if s != "O"}
+    if not metals or not all(is_metal(s) for s in metals):
+        return None
+    minor = sorted(n for n in metals.values() if abs(n - round(n)) > 1e-6 and n < 0.5)
+    if not minor:
+        return None
+    deficits = sorted({round(k * (a + b) / 2, 6) for k in (1, 2) for i, a in enumerate(minor)
+                       for b in (0.0, *minor[i + 1:])})
+    for deficit in deficits:
+        if deficit <= 0 or deficit > _MAX_VACANCY_SHARE * oxygen:
+            continue
+        left = round(oxygen - deficit, 6)
+        vacant = ParsedFormula(text, tuple((s, left if s == "O" else n) for s, n in comp.counts), 0.0, 0.0, (), (),
+                               comp.structure_hint, comp.notes, comp.isotopes)
+        candidate = _parsed_row(vacant)
+        if candidate[_STATUS_SLOT] == "error":
+            continue
+        position = _layout()[1]
+        note = (f"no ions balance the oxygen as written ({format_count(oxygen)}): read with oxygen vacancies,"
+                f" O{format_count(left)} (delta = {format_count(deficit)}), as an acceptor-doped oxide has them;"
+                f" write the oxygen count, e.g. O{format_count(left)} or O{format_count(oxygen)}-δ")
+        verdict = with_warnings(Verdict(candidate[_STATUS_SLOT], candidate[position["message"]] or "",
+                                        candidate[position["value_notes"]] or ""), [note])
+        out = list(candidate)
+        out[_STATUS_SLOT], out[position["message"]] = verdict.status, verdict.message
+        return tuple(out)
+    return None
 
 
 def _read_row(text: str) -> tuple:
     """The row of ``text`` through every reader (what an ordinary formula skips)."""
+    doped = _doped_row(text) if (":" in text or text.endswith(")")) else None
+    if doped is not None:
+        return doped
     mixture = mixture_row(text, score_row)
     if mixture is not None:
         return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
     return _counted(audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row), text)
+
+
+def _doped_row(text: str) -> tuple | None:
+    """The row of a doped material (``Y2O3:Eu``, ``Nd:YAG``, ``CsI(Tl)``): its host's row with the dopants
+    named (:mod:`scorer.dopants`); None for any other text."""
+    doping = doped_host(text)
+    if doping is None:
+        return None
+    row = list(score_row(doping.host))
+    position = _layout()[1]
+    note = doping_note(doping, row[position["formula_normalized"]])
+    verdict = with_warnings(Verdict(row[_STATUS_SLOT], row[position["message"]] or "",
+                                    row[position["value_notes"]] or ""), [note])
+    row[_STATUS_SLOT], row[position["message"]] = verdict.status, verdict.message
+    return tuple(row)
 
 
 def _plain_row(text: str) -> tuple:
@@ -450,7 +531,8 @@ def without_grade_words(text: str):
     try:
         comp = parse_formula(body)
     except FormulaError:
-        comp = parse_as_name(body)
+        # a name, or one word the vocabulary holds as a name ("Tin granules", "Iron filings")
+        comp = parse_as_name(body) or known_word_name(body)
         if comp is None:
             return None
     notes = (*comp.notes, f"ignored the grade or form words {words!r}")

@@ -116,6 +116,10 @@ def _solvent_words(text: str) -> bool:
         w.upper() in _solvent_codes() or w.lower() == "water" or _RATIO_WORD.match(w) for w in words)
 
 
+# a solute, then its strength and medium in brackets ("NaH (60% dispersion in mineral oil)", "KH (30% in oil)")
+_BRACKETED_MEDIUM = re.compile(r"^\s*(?P<solute>\S+)\s*\((?P<inner>\s*\d[^()]*?\s+in\s+[^()]+)\)\s*$", re.I)
+
+
 def split_in_solvent(text: str) -> Solution | None:
     """The solute, its concentration (written before or after it) and the solvent of
     ``SOLUTE in SOLVENT``; None for any other text.
@@ -134,9 +138,17 @@ def split_in_solvent(text: str) -> Solution | None:
     >>> s = split_in_solvent("[C4mim][BF4] + 0.5 M LiBF4")
     >>> s.solute, s.concentration, s.solvent
     ('LiBF4', '0.5 M', '[C4mim][BF4]')
+    >>> s = split_in_solvent("NaH (60% dispersion in mineral oil)")
+    >>> s.solute, s.concentration, s.solvent
+    ('NaH', '60 %', 'mineral oil')
     """
     if not isinstance(text, str) or len(text) > 200:
         return None
+    if text.rstrip().endswith(")"):
+        # the strength and medium in brackets after the solute: "NaH (60% dispersion in mineral oil)"
+        bracketed = _BRACKETED_MEDIUM.match(text)
+        if bracketed is not None:
+            return split_in_solvent(f"{bracketed.group('solute')} {bracketed.group('inner')}")
     m = _IN_SOLVENT.match(text.strip())
     if m is None:
         # "LiPF6 1.0M EC/EMC 3/7": a molar amount between the solute and solvent codes, as electrolyte labels write
@@ -272,6 +284,7 @@ def solution_note(solution: Solution, substance_class: str) -> str:
 _GRADE_WORD = (
     r"anhydrous|anhydr\.?|anhyd\.?|pellets?|powder(?:ed)?|flakes?|granular|granules?|crystals?|crystalline|cryst\.?"
     r"|beads?|lumps?|pieces?|chips?|shot|wire|foil|sticks?|rods?|ingots?|turnings|dust|fine|coarse|dried|fused"
+    r"|filings|shavings|swarf|mossy|sponge|needles|pastilles|prills"
     r"|precipitated|sublimed|resublimed|purified|recrystalli[sz]ed|distilled|redistilled|ACS|reagent|grade|technical|tech\.?|pure|puriss\.?|p\.\s?a\.|extra|ultrapure|analytical"
     r"|for\s+analysis|AR|LR|GR|USP|BP|EP|Ph\.?\s?Eur\.?|FCC|HPLC|min\.?|approx\.?|ca\.?"
     # a solvent's grades ("ethanol absolute", "acetonitrile for HPLC", "chloroform stabilised")
@@ -289,12 +302,26 @@ _GRADE_WORD = (
     # the package size of a stock list ("NaCl 500g", "NaCl, 500 g", "KCl 2.5 kg", "HCl 2.5 L", "NaCl - 2 bottles")
     r"|\d+(?:[.,]\d+)?\s*(?:kg|g|mg|L|l|mL|ml|lb|lbs|oz)\.?(?![A-Za-z])|x\s*\d+|\d+\s*(?:bottles?|jars?|packs?|units?|pcs)"
 )
+# the crystal form a materials table writes after the formula ("TiO2 rutile", "SiO2 amorphous", "BN hexagonal",
+# "ZrO2-monoclinic", "Fe2O3 alpha phase"): the composition is scored, not the polymorph (common practice)
+_FORM_WORD = (
+    r"rutile|anatase|brookite|amorphous|monoclinic|tetragonal|cubic|hexagonal|orthorhombic|trigonal|rhombohedral"
+    r"|triclinic|wurtzite|zinc[\s-]?blende|sphalerite|rock[\s-]?salt|corundum|spinel|perovskite|fluorite|quartz"
+    r"|cristobalite|tridymite|coesite|hematite|magnetite|maghemite|calcite|aragonite|vaterite|gibbsite|boehmite"
+    r"|goethite|scheelite|olivine|garnet|kesterite|chalcopyrite|pyrite|marcasite|zircon|baddeleyite"
+    r"|(?:alpha|beta|gamma|delta|theta|kappa|eta|α|β|γ|δ|θ|κ|η)(?:[\s-]?phase)?|phase|polymorph"
+    r"|nanocrystalline|polycrystalline|single[\s-]crystals?|thin[\s-]films?|films?|bulk|glassy|sintered|ceramic"
+    r"|nanorods?|nanowires?|nanotubes?|nanosheets?|whiskers?|fib(?:er|re)s?|microspheres?|nano"
+)
 # the words may also stand in brackets: "NaCl (ACS reagent)", "KCl (99.5 %, AR)"
-_GRADE_ITEM = rf"(?:{_GRADE_WORD}|\(\s*(?:{_GRADE_WORD})(?:[\s,;]+(?:{_GRADE_WORD}))*\s*\))"
-_GRADE_TAIL = re.compile(rf"(?:(?:[\s,;]+|\s+-\s+)(?:{_GRADE_ITEM}))+\s*[.,;]?\s*$", re.I)
+_GRADE_ITEM = (rf"(?:{_GRADE_WORD}|{_FORM_WORD}|\(\s*(?:{_GRADE_WORD}|{_FORM_WORD})"
+               rf"(?:[\s,;]+(?:{_GRADE_WORD}|{_FORM_WORD}))*\s*\))")
+_GRADE_TAIL = re.compile(
+    rf"(?:(?:[\s,;]+|\s+-\s+)(?:{_GRADE_ITEM})|-(?:{_FORM_WORD})(?![A-Za-z]))+\s*[.,;]?\s*$", re.I)
 # the same words before the name, as cylinder and dewar labels write them ("liquid nitrogen", "compressed air",
 # "anhydrous ammonia"; common practice)
-_GRADE_HEAD = re.compile(r"^\s*(?:(?:liquid|liquefied|compressed|anhydrous|gaseous|cryogenic|refrigerated)\s+)+",
+_GRADE_HEAD = re.compile(r"^\s*(?:(?:liquid|liquefied|compressed|anhydrous|gaseous|cryogenic|refrigerated"
+                         r"|amorphous|crystalline|nanocrystalline|polycrystalline|fused|nano|sintered|glassy)\s+)+",
                          re.I)
 
 
@@ -324,4 +351,4 @@ def split_grade_words(text: str) -> tuple[str, str | None]:
     m = _GRADE_TAIL.search(text)
     if m is None or m.start() == 0:
         return text, None
-    return text[:m.start()].rstrip(" ,;"), re.sub(r"^-\s+", "", text[m.start():].strip(" ,;.")) or None
+    return text[:m.start()].rstrip(" ,;"), re.sub(r"^-(?=\s|[^\W\d_])\s*", "", text[m.start():].strip(" ,;.")) or None

@@ -177,22 +177,25 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
     if len(symbols) == 1:
         ((symbol, n),) = counts.items()
         return ((symbol, charge / n),)
-    defaults, balancers, ranges = _formal_rules(symbols)
+    defaults, balancers, ranges, partners = _formal_rules(symbols)
     for balancer in balancers:
-        rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
-        value = (charge - rest) / counts[balancer]
-        low, high = ranges[balancer]
-        if low - _TOL <= value <= high + _TOL:
+        # metals of the balancer's group share the balance (Pb0.5Sn0.5Te: Pb and Sn +2 both, not Pb 0 and Sn +4)
+        sharing = (balancer, *partners.get(balancer, ()))
+        rest = sum(defaults[s] * counts[s] for s in symbols if s not in sharing)
+        value = (charge - rest) / sum(counts[s] for s in sharing)
+        if all(ranges[s][0] - _TOL <= value <= ranges[s][1] + _TOL for s in sharing):
             break
     else:
         balancer = balancers[0]
+        sharing = (balancer,)
         rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
         value = (charge - rest) / counts[balancer]
-    return tuple((s, round(value if s == balancer else defaults[s], 6)) for s in symbols)
+    return tuple((s, round(value if s in sharing else defaults[s], 6)) for s in symbols)
 
 
 @per_input(maxsize=4096)
-def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str], dict[str, tuple[int, int]]]:
+def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str], dict[str, tuple[int, int]],
+                                                    dict[str, tuple[str, ...]]]:
     """What :func:`formal_oxidation_states` decides from the elements alone, not
     their counts: each element's usual state, the order in which they are tried
     as the balancing element, and their listed ranges. Cached per element set:
@@ -220,9 +223,19 @@ def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str]
         return float(low if symbol == most else high)
 
     defaults = {s: default(s) for s in symbols}
+    group = {s: get_element(s).group for s in symbols}
+    metals = [s for s in symbols if is_metal(s)]
+    if metals and not is_metal(most):
+        # beside a metal, the non-metals and metalloids of the most electronegative element's group are anions
+        # as it is (GaAs0.5P0.5: As -3 with P -3, not As +5 and Ga -1; ZnS0.5Se0.5; common practice)
+        for s in symbols:
+            if s != most and group[s] == group[most] and not is_metal(s) and s not in _DEFAULT_STATES:
+                defaults[s] = defaults[most]
     # an element without a usual state (C in organics, Si in SiC) balances first
     balancers = [x for x in by_chi if x not in _DEFAULT_STATES] + [x for x in by_chi if x in _DEFAULT_STATES]
-    return defaults, balancers, ranges
+    partners = {m: tuple(s for s in metals if s != m and group[s] == group[m] and s not in _DEFAULT_STATES)
+                for m in metals}
+    return defaults, balancers, ranges, {m: p for m, p in partners.items() if p}
 
 
 # the metals of the binary carbonyls M_x(CO)_y (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,

@@ -111,6 +111,7 @@ TABLES: dict[str, TableSpec] = {
                   "scorer.coordination"),
         TableSpec("registry_names.csv", ("name", "formula", "cas", "kind", "source"), "scorer.name_reader"),
         TableSpec("solvent_codes.csv", ("code", "formula", "name", "source"), "scorer.formula"),
+        TableSpec("material_codes.csv", ("code", "formula", "name", "source"), "scorer.formula"),
         TableSpec(
             "madelung_prototypes.csv",
             ("prototype", "energy_per_cell", "r0", "r_mean_first_shell", "formula_units", "total",
