@@ -29,7 +29,7 @@ ROWS = {
     "madelung_prototypes.csv": 16,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
-    "fallback_radii.csv": 6,
+    "fallback_radii.csv": 7,
     "redox_potentials.csv": 25,
     "goldschmidt_radii.csv": 41,
     "dispersion_coefficients.csv": 20,
