@@ -583,12 +583,16 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
     changes: dict = dict(substance_class=cls, ionic_model=model, ionic_model_reasons=tuple(reasons))
     if model == "not_applicable" and cls in _IONLESS_CLASSES and dec.is_ionic:
         counts = _counts(dec)
+        # a semiconductor of monatomic ions keeps its reading's states (AgSbTe2: Ag +1, Sb +3, Te -2, the states
+        # of its formal ions; by electronegativity alone Sb took its highest state and Ag -1)
+        kept = cls == "semiconductor" and all(t.ion.monatomic for t in (*dec.cations, *dec.anions))
         changes.update(
             cations=(), anions=(), alternatives=(), formal_ions=(dec.cations, dec.anions),
             oxidation_states=_in_order(formal_oxidation_states(counts), dec.oxidation_states)
-            if len(counts) > 1 else dec.oxidation_states,
+            if len(counts) > 1 and not kept else dec.oxidation_states,
         )
-        reasons.append("formal ions dropped; oxidation states by electronegativity")
+        reasons.append("formal ions dropped; oxidation states of the formal ions" if kept else
+                       "formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
         # a molecule's formal reading too: FeCl4 (a typo for FeCl3, or the FeCl4(-) ion without its charge) balances
         # only as Fe(4+), which no chloride holds

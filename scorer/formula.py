@@ -516,6 +516,15 @@ def parse_formula(text: str) -> ParsedFormula:
         notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
                      f" assumed, {shared.strip()}; write the fractions, e.g. Cu(In0.7Ga0.3)Se2")
         text_to_parse = shared
+    variable = variable_counts(text_to_parse) if "x" in text_to_parse and _VARIABLE_COUNT.search(text_to_parse) \
+        else None
+    if variable is not None:
+        fixed, value = variable
+        notes.append(f"a variable count written ({text_to_parse.strip()!r}): scored with x = {format_count(value)},"
+                     f" {fixed.strip()} ({'equal shares of the site' if value == 0.5 else 'one per formula unit'});"
+                     " write the number")
+        text_to_parse = fixed
+        plain = False
     if not plain and _NONSTOICHIOMETRY.search(text_to_parse):
         exact = nonstoichiometric_text(text_to_parse)
         notes.append(f"non-stoichiometry written ({text_to_parse.strip()!r}): scored as the ideal formula {exact.strip()}"
@@ -917,6 +926,37 @@ def deuterated_solvent(text: str) -> tuple[str, str] | None:
 # a variable deviation from stoichiometry written on a count: TiO2-x, CeO2-δ, YBa2Cu3O7-δ, Fe1-xO, Li1+xMn2O4
 # (common practice in solid-state chemistry); a count of 1 may be left unwritten before it (TiO2-x has 2)
 _NONSTOICHIOMETRY = re.compile(r"(?<=[A-Za-z0-9)\]])(\d+(?:\.\d+)?)?\s*[-+±]\s*[xδyz](?=[A-Z(\[·.*\s]|$)")
+
+
+# a variable as a whole count after an element or a bracket ("LixCoO2", "AlxGa1-xN", "Zn1-xMgxO")
+_VARIABLE_COUNT = re.compile(r"(?<=[A-Za-z)\]])x(?=[A-Z(\[·.*\s]|$)")
+_VARIABLE_TERM = re.compile(r"(?<=[A-Za-z)\]])(\d+(?:\.\d+)?)\s*([-+])\s*x(?=[A-Z(\[·.*\s]|$)")
+
+
+def variable_counts(text: str) -> tuple[str, float] | None:
+    """(the text with its variable count x given a value, the value): x = 0.5 where x shares a site with 1 - x
+    (``AlxGa1-xN`` -> ``Al0.5Ga0.5N``, a solid solution of unstated proportions), x = 1 where x stands alone
+    (``LixCoO2`` -> ``Li1CoO2``, the full formula unit; common practice in the battery literature). Only a metal
+    takes a variable count so; None otherwise (``CxHy``, ``TlCxN``: not read).
+
+    >>> variable_counts("AlxGa1-xN"), variable_counts("LixCoO2"), variable_counts("Zn1-xMgxO")
+    (('Al0.5Ga0.5N', 0.5), ('Li1CoO2', 1.0), ('Zn0.5Mg0.5O', 0.5))
+    >>> variable_counts("TlCxN") is None
+    True
+    """
+    for m in _VARIABLE_COUNT.finditer(text):
+        symbol = re.search(r"[A-Z][a-z]?$", text[:m.start()])
+        if symbol is None or not is_element_symbol(symbol.group()) or not is_metal(symbol.group()):
+            return None
+    value = 0.5 if _VARIABLE_TERM.search(text) else 1.0
+
+    def term(m: re.Match) -> str:
+        base = float(m.group(1))
+        result = base - value if m.group(2) == "-" else base + value
+        return format_count(result) if result > 0 else "0"
+
+    fixed = _VARIABLE_TERM.sub(term, text)
+    return _VARIABLE_COUNT.sub(format_count(value), fixed), value
 
 
 def _ideal_count(m: re.Match) -> str:

@@ -310,7 +310,8 @@ class ElementParser:
         """``UO2(CH3COO)2``, ``VO(CH3CO2)2``: a round bracket holding, exactly as written, an organic anion of the
         library (acetate, formate, benzoate...): the formula writes that ion out, as ``(OAc)2`` names it, and
         the solver takes it as given rather than recombining its atoms with the cation's (uranyl acetate was
-        read as U(4+) with hydroxide and succinate)."""
+        read as U(4+) with hydroxide and succinate). Likewise an alkylammonium cation written with its NH3
+        (``(C4H9NH3)2PbI4``, ``(CH3NH3)PbI3``)."""
         if self.text[self.pos] != "(":
             return False
         end = self.text.find(")", self.pos)
@@ -318,7 +319,9 @@ class ElementParser:
         if not content or "(" in content:
             return False
         ion = self.ions.find_alias(content, exact_case=True)
-        return ion is not None and ion.organic and ion.charge < 0
+        # and an alkylammonium written out with its NH3 ("(C4H9NH3)2PbI4"): butylammonium, not its isomer
+        # tetramethylammonium, which the composition alone also fits
+        return ion is not None and ion.organic and (ion.charge < 0 or content.endswith("NH3"))
 
     def abbreviation_tail(self) -> bool:
         """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""

@@ -622,6 +622,13 @@ def _best(readings):
         if compatible:
             seen = compatible
     if len(seen) > 1:
+        # of the rest, one that gives each element one oxidation state: Na3V2(PO4)2O2F is V(4+) with oxide,
+        # phosphate and fluoride, not V(3+) beside a metavanadate V(V) and a fluorophosphate (a mixed valence
+        # hidden in two species; the reading with fewer distinct states is the simpler; common practice)
+        split = {t: _split_elements(ca) for t, ca in seen.items()}
+        fewest = min(split.values())
+        seen = {t: ca for t, ca in seen.items() if split[t] == fewest}
+    if len(seen) > 1:
         # of the rest, the oxide goes into the oxoanion: orthophosphate with fluoride or oxide rather than a
         # fluoro- or metaphosphate beside more free O(2-) (Na2FePO4F, KTiOPO4; Pauling's electrostatic valence
         # rule: the oxide is saturated by the most acidic centre; common practice)
@@ -638,6 +645,18 @@ def _best(readings):
         seen = {t: ca for t, ca in seen.items() if cyano[t] <= most + _TOL}
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
+
+
+def _split_elements(cations_anions) -> int:
+    """How many elements of a reading stand in more than one oxidation state across its ions."""
+    states: dict[str, set] = {}
+    for terms in cations_anions:
+        for term in terms:
+            ion = term.ion
+            pairs = ((ion.element, ion.charge),) if ion.monatomic else ion.oxidation_states
+            for symbol, state in pairs:
+                states.setdefault(symbol, set()).add(round(float(state), 6))
+    return sum(1 for found in states.values() if len(found) > 1)
 
 
 @once

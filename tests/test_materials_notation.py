@@ -234,3 +234,34 @@ def test_named_etching_mixtures_carry_their_mixing_hazard(name, first, second):
     assert row["substance_class"] == "mixture" and row["status"] == "warning"
     assert first in row["mixture_components"] and second in row["mixture_components"]
     assert "mixing hazard" in row["message"]
+
+
+def test_a_semiconductor_keeps_the_states_of_its_formal_ions():
+    """AgSbTe2 is Ag(+), Sb(3+), Te(2-) (the rock-salt AgSbTe2 of thermoelectrics; Wernick & Benson, J. Phys. Chem.
+    Solids 3 (1957) 157; from memory): by electronegativity alone Sb took its highest state and Ag -1."""
+    assert _states(score_formula("AgSbTe2")) == {"Ag": 1.0, "Sb": 3.0, "Te": -2.0}
+
+
+def test_a_reading_with_one_state_per_element_wins_a_tie():
+    """Na3V2(PO4)2F3's oxy-fluoride relative Na3(VO)2(PO4)2F is V(4+) with oxide, phosphate and fluoride (Sauvage
+    et al., Inorg. Chem. 45 (2006) 7904: the vanadyl V(IV) fluorophosphate; from memory), not V(3+) beside a
+    metavanadate V(V) and a fluorophosphate."""
+    row = score_formula("Na3(VO)2(PO4)2F")
+    assert row["status"] == "ok" and _states(row) == {"Na": 1.0, "V": 4.0, "O": -2.0, "P": 5.0, "F": -1.0}
+
+
+def test_an_alkylammonium_written_with_its_nh3_is_that_cation():
+    """(C4H9NH3)2PbI4, the butylammonium layered perovskite (Mitzi, Prog. Inorg. Chem. 48 (1999) 1; from
+    memory): the NH3 written says primary ammonium, not its isomer tetramethylammonium."""
+    row = score_formula("(C4H9NH3)2PbI4")
+    assert row["status"] == "ok" and row["cations"].startswith("Pb(2+)") and "[BuNH3](+)*2" in row["cations"]
+
+
+@pytest.mark.parametrize("text, formula", [
+    ("LixCoO2", "LiCoO2"), ("NaxCoO2", "NaCoO2"), ("AlxGa1-xN", "Al0.5Ga0.5N"), ("Zn1-xMgxO", "Zn0.5Mg0.5O"),
+])
+def test_a_variable_count_is_given_a_stated_value(text, formula):
+    """x alone is one per formula unit (LixCoO2 with x up to 1; common practice); x beside 1 - x shares a site."""
+    row = score_formula(text)
+    assert row["status"] == "warning" and "a variable count written" in row["message"]
+    assert _counts(row["formula_normalized"]) == _counts(formula)
