@@ -115,6 +115,10 @@ def _intermetallic_host(partner: str, counts: dict[str, float], metals: list[str
     return 2 * hosting >= total and counts[partner] <= total
 
 
+# the metalloids that join a metal-rich lattice beside carbon (MAX phases, borocarbides)
+_LATTICE_PARTNERS = frozenset({"B", "Si", "Ge"})
+
+
 def interstitial_reason(counts: dict[str, float]) -> str | None:
     """Why a composition of metals with one of C, N, H, P, As, Sb is metallic; None otherwise.
 
@@ -129,8 +133,16 @@ def interstitial_reason(counts: dict[str, float]) -> str | None:
     >>> interstitial_reason({"Mg": 2.0, "Ni": 1.0, "H": 4.0}) is None  # Mg2NiH4: 2 Mg(2+) [NiH4](4-)
     True
     """
-    partners = [s for s in counts if not is_metal(s)]
     metals = [s for s in counts if is_metal(s)]
+    partners = [s for s in counts if not is_metal(s)]
+    if "C" in partners and len(partners) > 1:
+        # B, Si and Ge beside carbon join the metal-rich lattice as they do alone with the metals (the MAX phase
+        # Ti3SiC2, the borocarbide YNi2B2C; Barsoum, Prog. Solid State Chem. 28 (2000) 201; from memory)
+        partners = [s for s in partners if s not in _LATTICE_PARTNERS]
+        if set(partners) == {"C", "N"} and counts["C"] + counts["N"] <= sum(counts[m] for m in metals) + 1e-9:
+            # and nitrogen beside carbon shares its holes, at most one atom per metal atom: the carbonitrides
+            # TiC0.5N0.5 and Ti3CN (cermets, MXenes); a cyanide has two or more per metal (Ni(CN)2)
+            partners = ["C"]
     # nitrides are read after the ion search (interstitial_nitride_reason), so that
     # their formal ionic reading stays for the melting route
     if len(partners) != 1 or not metals or partners[0] not in _PNICTOGENS | {"C", "H"}:

@@ -469,6 +469,14 @@ def parse_formula(text: str) -> ParsedFormula:
         text_to_parse = text[: m.start()]
     else:
         text_to_parse = text
+    if text_to_parse.rstrip().endswith(("Tx", "T_x", "Tₓ")):
+        mxene = _TERMINATIONS.fullmatch(text_to_parse)
+        if mxene is not None:
+            # an MXene with its surface terminations (Ti3C2Tx: O, OH and F in varying amounts; Naguib et al., Adv.
+            # Mater. 26 (2014) 992; from memory): the carbide or nitride layer is scored, the terminations are not
+            notes.append(f"the surface terminations {mxene.group('tx')!r} of the MXene are not counted (O, OH, F in"
+                         " unstated amounts): the bare layer is scored")
+            text_to_parse = mxene.group("core")
     if "-" in text_to_parse:
         alloy = alloy_designation(text_to_parse)
         if alloy is not None:
@@ -507,7 +515,7 @@ def parse_formula(text: str) -> ParsedFormula:
         if alloy_sites is not None:
             # a semiconductor alloy by its elements alone ("InGaN", "AlGaAs", "HgCdTe"): a solid solution of
             # unstated proportions on each site, read as one below
-            notes.append(f"a semiconductor alloy written without its fractions ({text_to_parse!r}, as for"
+            notes.append(f"a solid solution written by its elements alone ({text_to_parse!r}, as for"
                          f" {alloy_sites}): read with equal shares on each site")
             text_to_parse = alloy_sites
             plain = False
@@ -573,6 +581,11 @@ def parse_formula(text: str) -> ParsedFormula:
         if ligands:
             parsed = _with_ligands(parsed, ligands, inner)
     except FormulaError as exc:
+        glued = glued_ionic_liquid(cleaned) if _GLUED.fullmatch(cleaned) else None
+        if glued is not None:
+            # an ionic liquid's cation code run into its anion ("BMIMBF4", "EMIMCl"), as stock lists write it
+            notes.append(f"read {cleaned!r} as the ion codes {glued} run together (common practice)")
+            return parse_formula(glued).respelled(text, notes=tuple(notes))
         message = str(exc)
         hint = _suggest(cleaned)
         if hint:
@@ -745,6 +758,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "amide"
     elif _FULMINATE.search(cleaned):
         hint = "fulminate"
+    elif "4N" in cleaned and _QUATERNARY_WRITTEN.search(cleaned) or "N(" in cleaned and _QUATERNARY_WRITTEN.search(cleaned):
+        # four alkyl groups written on nitrogen ((CH3)4NCl, N(CH3)4OH): the quaternary cation, not its protic
+        # isomer (C4H12N+ is tetramethylammonium or butylammonium by its composition alone)
+        hint = "quaternary"
     elif "NH4" in cleaned.replace("[", "").replace("]", ""):
         # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
         # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer)
@@ -762,6 +779,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     )
 
 
+# four like alkyl groups written on one nitrogen, before or after it
+_QUATERNARY_WRITTEN = re.compile(r"\((?:CH3|C2H5|C3H7|C4H9)\)4N(?![a-z])|(?<![A-Za-z])N\((?:CH3|C2H5|C3H7|C4H9)\)4")
+# an MXene's layer (M_n+1 X_n, X carbon or nitrogen) and its terminations T_x
+_TERMINATIONS = re.compile(r"\s*(?P<core>(?:[A-Z][a-z]?\d*(?:\.\d+)?)+?[CN]\d*(?:\.\d+)?)(?P<tx>T_?[xₓ])\s*")
 _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
 # a structure label before the formula: Greek-letter polymorphs (alpha-Al2O3, γ-Fe2O3), the one-letter ones of
 # materials data (h-BN hexagonal, c-BN cubic, w- wurtzite, t-/m-/o-/r- tetragonal, monoclinic, orthorhombic,
@@ -970,6 +991,9 @@ _ALLOY_CATION_CHARGE = {2: 2, 12: 2, 13: 3}
 _ALLOY_ANION_CHARGE = {15: 3, 16: 2}
 _ALLOY_IV_VI_CATIONS = frozenset({"Sn", "Pb", "Ge"})
 _SYMBOL_RUN = re.compile(r"[A-Z][a-z]?")
+# the metals of the rock-salt nitride coatings written by their elements (TiAlN, AlCrN, TiZrN: (Ti,Al)N; PalDey &
+# Deevi, Mater. Sci. Eng. A 342 (2003) 58; from memory), one nitride ion per metal as in TiN and AlN
+_ROCK_SALT_NITRIDE_METALS = frozenset("Sc Y Ti Zr Hf V Nb Ta Cr Al Ga In".split())
 
 
 @per_input(maxsize=4096)
@@ -982,8 +1006,8 @@ def unsubscripted_alloy(text: str) -> str | None:
 
     >>> unsubscripted_alloy("InGaN"), unsubscripted_alloy("GaInAsP")
     ('(In,Ga)N', '(Ga,In)(As,P)')
-    >>> unsubscripted_alloy("GaAs"), unsubscripted_alloy("KSCN"), unsubscripted_alloy("BiSbTe")
-    (None, None, None)
+    >>> unsubscripted_alloy("GaAs"), unsubscripted_alloy("KSCN"), unsubscripted_alloy("BiSbTe"), unsubscripted_alloy("ZnSO")
+    (None, None, None, None)
     """
     symbols = _SYMBOL_RUN.findall(text)
     if "".join(symbols) != text or len(set(symbols)) != len(symbols) or not all(is_element_symbol(s) for s in symbols):
@@ -997,8 +1021,11 @@ def unsubscripted_alloy(text: str) -> str | None:
     cations, anions = symbols[:split], symbols[split:]
     if not all(group[s] in _ALLOY_ANION_CHARGE for s in anions):
         return None
+    if len(anions) > 1 and "O" in anions:
+        return None  # oxygen beside another anion is an oxoanion that lost its count (ZnSO for ZnSO4), no alloy
     anion_charges = {_ALLOY_ANION_CHARGE[group[s]] for s in anions}
     cation_charges = {2 if (s in _ALLOY_IV_VI_CATIONS and anion_charges == {2}) else
+                      3 if (s in _ROCK_SALT_NITRIDE_METALS and anions == ["N"]) else
                       _ALLOY_CATION_CHARGE.get(group[s]) for s in cations}
     if len(anion_charges) != 1 or cation_charges != anion_charges:
         return None
@@ -1076,6 +1103,29 @@ def ionic_liquid_pair_text(text: str) -> str | None:
     if second is None or second.charge >= 0:
         return None
     return f"[{m.group(1)}][{m.group(2)}]"
+
+
+_GLUED = re.compile(r"[A-Za-z][A-Za-z0-9]{3,30}")
+
+
+def glued_ionic_liquid(text: str) -> str | None:
+    """``BMIMBF4`` -> ``[BMIM][BF4]``, ``EMIMCl`` -> ``[EMIM]Cl``: an organic cation's code of the library (three
+    letters or more) followed directly by an anion's code or a halide symbol; None for any other text.
+
+    >>> glued_ionic_liquid("BMIMBF4"), glued_ionic_liquid("EMIMCl"), glued_ionic_liquid("NaCl")
+    ('[BMIM][BF4]', '[EMIM]Cl', None)
+    """
+    for cut in range(len(text) - 1, 2, -1):
+        first = ion_library.find_alias(text[:cut])
+        if first is None or first.charge <= 0 or not first.organic:
+            continue
+        rest = text[cut:]
+        if rest in ("F", "Cl", "Br", "I"):
+            return f"[{text[:cut]}]{rest}"
+        second = ion_library.find_alias(rest, exact_case=True)
+        if second is not None and second.charge < 0:
+            return f"[{text[:cut]}][{rest}]"
+    return None
 
 
 def _shorthand_with_spaces(text: str) -> str:

@@ -285,6 +285,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
             written = [r for r in readings if any(ion.ion_id == "NH4(+)" for ion, _ in r[1])]
             readings = written or readings
+        if comp.structure_hint == "quaternary":
+            # four alkyl groups written on nitrogen: the quaternary ammonium salt ((CH3)4NCl, not butylammonium)
+            written = [r for r in readings if any(ion.family == "ammonium-quaternary" for ion, _ in r[1])]
+            readings = written or readings
         if comp.structure_hint.startswith(HYDROHALIDE_HINT):
             # an amine salt written with its acid (C6H5NH2·HCl) or so named: the base protonated, beside the halide
             halide, _, n = comp.structure_hint[len(HYDROHALIDE_HINT):].partition("*")
@@ -295,7 +299,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         elif comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = _acid_readings(readings)
-        elif readings and comp.structure_hint not in ("ammonium", "fulminate"):
+        elif readings and comp.structure_hint not in ("ammonium", "fulminate", "quaternary"):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)

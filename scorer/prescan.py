@@ -58,7 +58,7 @@ _ORDINARY = re.compile(
 # proposals, 5-100 ms a formula. It cannot find a slip in one when:
 # * no character gives it evidence of a slip (what the regular expression
 #   refuses): no 0 right after a letter (a leading zero), no CI (chlorine
-#   mistyped), no count 1 written out (C1 for Cl), no count right after a group whose brackets may have
+#   mistyped), no NI or SI (Ni and Si in lost case: slips' capital I after a letter it makes a symbol with), no count 1 written out (C1 for Cl), no count right after a group whose brackets may have
 #   been left out (NH42CO3 for (NH4)2CO3: slips._BRACKETLESS_GROUP); with no evidence a proposal
 #   must read better than the text by slips.MARGIN;
 # * and no proposal can: every reading costs at least 1.0 in
@@ -70,7 +70,7 @@ _ORDINARY = re.compile(
 #   solver; any other such text is asked (reading_penalty, which the record's
 #   solver call then finds in its cache).
 _CAPITALS = re.compile(
-    r"(?!.*[A-Z]0)(?!.*CI)(?!.*[A-Z]1(?!\d))(?!.*(?:NH4|OH|NO[23]|[SC]O[34]|PO4)\d)[CHNOSPFI][CHNOSPFI\d]*\Z")
+    r"(?!.*[A-Z]0)(?!.*[CNS]I)(?!.*[A-Z]1(?!\d))(?!.*(?:NH4|OH|NO[23]|[SC]O[34]|PO4)\d)[CHNOSPFI][CHNOSPFI\d]*\Z")
 _LEAST_READING_PENALTY = 1.0
 _MOLECULE_MAX_ELEMENTS = 4
 _MOLECULE_MAX_COUNT = 100
@@ -84,7 +84,8 @@ _MOLECULE_MAX_COUNT = 100
 _WATER_WITH_ZERO = re.compile(r"(?P<salt>[^0]+[·.*])(?=[1-9]\d*H2O\Z)\d*0")
 
 # Any other text in capitals only (NH4BF4, KNO3·7H2O): every kind of slip
-# but the evidence kinds ruled out here (a 0 not inside a count, CI or TI, a count
+# but the evidence kinds ruled out here (a 0 not inside a count, CI, or an I after B, L, N, S, T: Bi, Li, Ni, Si,
+# Ti in lost case, a count
 # 1 written out) proposes only where the text reads worse than
 # slips.MARGIN + slips.BEST_PENALTY (slips.find_slip), so a text that reads
 # at least that well as written (slips.reading_penalty: the solver's reading,
@@ -92,7 +93,7 @@ _WATER_WITH_ZERO = re.compile(r"(?P<salt>[^0]+[·.*])(?=[1-9]\d*H2O\Z)\d*0")
 # those of _ORDINARY in capitals: no space, joiner, state word, leading digit
 # or closing bracket at the end, so no mixture or solution reader applies.
 _CAPITAL_TEXT = re.compile(
-    r"(?!\d)(?!.*(?:SOLN|SOLUTION))(?!.*(?<!\d)0)(?!.*[CT]I)(?!.*[A-Z]1(?!\d))"
+    r"(?!\d)(?!.*(?:SOLN|SOLUTION))(?!.*(?<!\d)0)(?!.*[BCLNST]I)(?!.*[A-Z]1(?!\d))"
     r"[A-PR-Z\d()\[\]·.*]+(?<!\))\Z",
     re.DOTALL,
 )

@@ -47,7 +47,7 @@ from ionicity.scorer import ion_library
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.abbreviations import SILYL_PREFIX
 from ionicity.scorer.coordination import written_ligands
-from ionicity.scorer.elements import element_symbols, get_element
+from ionicity.scorer.elements import element_symbols, get_element, is_element_symbol
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous, decompose_within
@@ -558,7 +558,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
                   or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
         consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options),
                  leading or water_zero or lone_zero)
-    capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
+    # in text all in capitals an I after T, N, L, S, B is the capital of the i of Ti, Ni, Li, Si, Bi (TIO2, NIO),
+    # not an l mistyped; after C it still is one (KCI for KCl)
+    capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)
+                 and not (all_caps and i and is_element_symbol(stripped[i - 1] + "i"))]
     if capital_i:
         # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many;
         # "TI" tritium (IUPAC's T for 3H) beside iodine, thallium mistyped (TlCl, TlNO3)
@@ -599,8 +602,12 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     if (all_caps or all_lower or unreadable) and not word:
         # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
         radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
+        # so is an I after a letter it makes a symbol with (TIO2, NIO, SI3N4: Ti, Ni, Si), where as written the
+        # I stands for iodine beside tritium or nitrogen; the proposal must still read better than the text
+        capital_of_i = all_caps and any(ch == "I" and i and is_element_symbol(stripped[i - 1] + "i")
+                                        for i, ch in enumerate(stripped))
         consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),
-                 all_lower or unreadable or radical)
+                 all_lower or unreadable or radical or capital_of_i)
     if not candidates:
         return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
     written = written_penalty()

@@ -378,3 +378,21 @@ def test_a_molarity_before_a_formula_is_no_solvent_blend(text):
     from ionicity.scorer.solutions import split_in_solvent
 
     assert split_in_solvent(text) is None
+
+
+# text all in capitals: an I after T, N, S, L, B is the capital of the i of Ti, Ni, Si, Li, Bi, not an l mistyped
+# (TIO2 was read as thallium superoxide TlO2, NIO as nitrosyl iodide); real compounds of capitals stay as written
+# (NI3 nitrogen triiodide, BI3 boron triiodide, KIO3 potassium iodate; from memory). Molar masses of the intended
+# formulas from molmass.
+@pytest.mark.parametrize("text, meant", [("TIO2", "TiO2"), ("NIO", "NiO"), ("SI3N4", "Si3N4"), ("TICL4", "TiCl4"),
+                                         ("KCI", "KCl")])
+def test_capital_i_in_text_all_in_capitals_is_read_as_lost_case(text, meant):
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_suggested"] == meant
+    assert math.isclose(row["molar_mass_g_mol"], molmass.Formula(meant).mass, rel_tol=1e-4)
+
+
+@pytest.mark.parametrize("text", ["NI3", "BI3", "KIO3", "HI", "CI4"])
+def test_compounds_written_in_capitals_with_iodine_stay_as_written(text):
+    row = score_formula(text)
+    assert row["status"] == "ok" and not row["formula_suggested"]
