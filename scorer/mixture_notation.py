@@ -36,7 +36,8 @@ from ionicity.scorer.solutions import split_in_solvent
 __all__ = ["MixtureText", "MixtureNotationError", "read_mixture_text", "blend_key"]
 
 _NUMBER = r"\d+(?:\.\d+)?"
-_BASIS = r"(?:\s*(?P<basis>mol|wt|mass|w/w|mol/mol)?\s*(?:%|percent|pct)?)"
+_BASIS = (r"(?:\s*(?P<basis>mol/mol|mol|wt|mass|w/w|molar|moles?|weight|by\s+(?:moles?|mol|weight|wt|mass))?\.?"
+          r"\s*(?:%|percent|pct)?)")
 # proportions in brackets at the end: "(46.5-11.5-42 mol%)", "(1:2)"
 _BRACKETED = re.compile(
     rf"\s*\(\s*(?P<numbers>{_NUMBER}(?:\s*[-–:/]\s*{_NUMBER})+){_BASIS}\s*\)\s*$", re.IGNORECASE
@@ -146,7 +147,48 @@ def _dash_split(text: str) -> list[str]:
 def _basis(word: str | None) -> str:
     if word is None:
         return "mol"
-    return "wt" if word.lower() in ("wt", "mass", "w/w") else "mol"
+    return "wt" if word.lower().split()[-1] in ("wt", "mass", "w/w", "weight") else "mol"
+
+
+# a list of components joined by commas, semicolons, "&", "and" or "with" (NaCl, KCl; NaCl and KCl;
+# "50 mol% NaCl, 50 mol% KCl"; "[EMIM][TFSI] with 0.5 M LiTFSI"), each a formula with or without its amount
+_LIST_JOINER = re.compile(r"\s*[,;&]\s*|\s+(?:and|with)\s+", re.IGNORECASE)
+_FORMULA_LIKE = re.compile(r"[\[(]?[A-Z][A-Za-z0-9()\[\]·.]*")
+_BARE_AMOUNT = re.compile(rf"^\s*{_NUMBER}\s*(?:(?:mol|wt|mass)\s*%|%|M|mol/L)?\s*(?:{_NUMBER}\s*)?"
+                          r"(?=[\[(A-Z])|\s+\(?\s*\d+(?:\.\d+)?\s*(?:(?:mol|wt|mass)\s*%|%)?\s*\)?\s*$", re.IGNORECASE)
+# "A/B = 60/40 (wt)", "A:B = 1:1": the ratio after an equals sign; a basis in brackets of its own
+_EQUALS_RATIO = re.compile(r"\s*=\s*(?=\d)")
+_BRACKETED_BASIS = re.compile(r"\s*\(\s*(wt|mol|w/w|molar|mole|weight|mass)\.?\s*\)\s*$", re.IGNORECASE)
+
+
+def _listed_components(text: str) -> str:
+    """``text`` with a list's joiners written as " + " where every item is a formula (with its amount or not);
+    ``text`` unchanged otherwise (a name followed by grade words, "Sodium chloride, ACS reagent", stays)."""
+    items = _LIST_JOINER.split(text.strip())
+    if len(items) < 2:
+        return text
+    for item in items:
+        core = _BARE_AMOUNT.sub("", item).strip()
+        if not core or not _FORMULA_LIKE.fullmatch(core) or re.search(r"[a-z]{3}", core):
+            return text
+    return " + ".join(item.strip() for item in items)
+
+
+def normalised_list(text: str) -> str:
+    """The spellings of a mixture this module reads written as those it reads first.
+
+    >>> normalised_list("NaCl and KCl"), normalised_list("50 mol% NaCl, 50 mol% KCl")
+    ('NaCl + KCl', '50 mol% NaCl + 50 mol% KCl')
+    >>> normalised_list("NaNO3/KNO3 = 60/40 (wt)"), normalised_list("Sodium chloride, ACS reagent")
+    ('NaNO3/KNO3 60/40 wt%', 'Sodium chloride, ACS reagent')
+    """
+    if "=" in text:
+        text = _EQUALS_RATIO.sub(" ", text)
+    if text.rstrip().endswith(")") and _BRACKETED_BASIS.search(text):
+        text = _BRACKETED_BASIS.sub(lambda m: f" {m.group(1)}%", text)
+    if _LIST_JOINER.search(text):
+        text = _listed_components(text)
+    return text
 
 
 def _proportions(text: str) -> tuple[str, tuple[float, ...], str]:
@@ -262,8 +304,10 @@ def read_mixture_text(text: str) -> MixtureText | None:
     >>> read_mixture_text("SO4^2-") is None, read_mixture_text("[Fe(CN)6]4-") is None
     (True, True)
     """
-    if _QUICK.isdisjoint(text):
+    if _QUICK.isdisjoint(text) and not _LIST_JOINER.search(text):
         return None
+    if any(c in text for c in ",;&=") or " and " in text or " with " in text or text.rstrip().endswith(")"):
+        text = normalised_list(text)
     if split_in_solvent(text) is not None:
         return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
     if _JOINERS.isdisjoint(text) and not text[:1].isdigit():

@@ -54,7 +54,7 @@ _TAIL_BEFORE = re.compile(r"[\s,;]+$")
 
 # the same concentrations written before the solute, and a molar amount after "+" (a solute in what precedes)
 _LEADING = tuple((p, re.compile(rf"^(?P<c>{p.pattern})\s+(?P<rest>[A-Z(\[].*)$", p.flags)) for p in (_MOLAR, _PERCENT, _GRADE))
-_PLUS_MOLAR = re.compile(rf"^(?P<solvent>\S.*?)\s*\+\s*(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$")
+_PLUS_MOLAR = re.compile(rf"^(?P<solvent>\S.*?)(?:\s*\+\s*|\s+with\s+)(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$")
 
 
 @dataclass(frozen=True)
@@ -157,7 +157,7 @@ def split_in_solvent(text: str) -> Solution | None:
             return Solution(bare.group("left"), _as_written(_MOLAR, _MOLAR.match(bare.group("c"))),
                             bare.group("solvent").strip())
         # "[C4mim][BF4] + 0.5 M LiBF4": a molar amount after "+" is a solute in what comes before it
-        plus = _PLUS_MOLAR.match(text.strip()) if "+" in text else None
+        plus = _PLUS_MOLAR.match(text.strip()) if ("+" in text or " with " in text) else None
         if plus is None:
             return None
         return Solution(plus.group("rest").strip(), _as_written(_MOLAR, _MOLAR.match(plus.group("c"))),

@@ -316,3 +316,43 @@ def test_nitride_coatings_by_their_elements_are_rock_salt_solid_solutions(text):
     Sci. Eng. A 342 (2003) 58; from memory)."""
     row = score_formula(text)
     assert _states(row)["N"] == -3.0 and sum(_counts(row["formula_normalized"]).values()) == pytest.approx(2.0)
+
+
+def _mole_fractions(row) -> list[float]:
+    return [float(x) for x in row["mixture_mole_fractions"].split(";")]
+
+
+@pytest.mark.parametrize("text", ["NaNO3/KNO3 = 60/40 (wt)", "NaNO3 (60 wt%) + KNO3 (40 wt%)"])
+def test_a_weight_ratio_after_an_equals_sign_or_beside_each_component_is_read(text):
+    """Solar salt written as formulators write it (60:40 by weight; common practice); the mole fractions follow
+    from the molar masses of molmass (an outside reference), not from our own sums."""
+    import molmass
+    row = score_formula(text)
+    assert row["substance_class"] == "mixture" and row["status"] != "error"
+    na, k = 60 / molmass.Formula("NaNO3").mass, 40 / molmass.Formula("KNO3").mass
+    assert _mole_fractions(row) == pytest.approx([na / (na + k), k / (na + k)], abs=1e-3)
+
+
+@pytest.mark.parametrize("text", ["NaCl:KCl = 1:1", "NaCl + KCl (1:1 molar)", "50 mol% NaCl, 50 mol% KCl",
+                                  "NaCl 50%, KCl 50%"])
+def test_equal_mole_mixtures_in_other_spellings(text):
+    row = score_formula(text)
+    assert row["substance_class"] == "mixture" and row["status"] == "ok"
+    assert _mole_fractions(row) == pytest.approx([0.5, 0.5])
+
+
+@pytest.mark.parametrize("text", ["NaCl and KCl", "NaCl & KCl", "NaCl, KCl", "NaCl;KCl"])
+def test_a_list_of_formulas_is_a_mixture_of_unstated_proportions(text):
+    """'NaCl and KCl' was re-cased into a formula of lanthanum and neodymium."""
+    row = score_formula(text)
+    assert row["substance_class"] == "mixture" and "no proportions given" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["Sodium chloride, ACS reagent, 99%", "NaCl, 500 g", "Fe2O3, hematite"])
+def test_grade_words_after_a_comma_are_no_list(text):
+    assert score_formula(text)["substance_class"] != "mixture"
+
+
+def test_a_salt_with_a_molar_amount_in_an_ionic_liquid():
+    row = score_formula("[EMIM][TFSI] with 0.5 M LiTFSI")
+    assert row["formula_normalized"] == "Li[NTf2]" and row["concentration_as_written"] == "0.5 M"
