@@ -789,7 +789,9 @@ _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
 # rhombohedral, a- amorphous) and Ramsdell's polytypes (2H-MoS2, 1T-TaS2, 4H-SiC); common practice
 POLYMORPH_LABEL = re.compile(
     r"^\s*(?:[αβγδεζηθκλω]|(?i:alpha|beta|gamma|delta|epsilon|zeta|eta|theta|kappa|lambda|omega)|[hcwtmora]"
-    r"|[1-9]\d?[HTRCOM])\s*-\s*(?=[A-Z(\[])")
+    r"|[1-9]\d?[HTRCOM])\s*-\s*(?=[A-Z(\[])"
+    # not the hyphenated prefix of an alkyl group (t-BuLi, t-BuOK: tert-butyl; scorer.abbreviations)
+    r"(?!(?<=t-)Bu|(?<=t -)Bu|(?<=t- )Bu)")
 # "(s)", "(aq)", "(anhydr.)", "(tech. grade)": lowercase notes after the formula
 _ANNOTATION = re.compile(r"\s*\((?=[^)]*[a-z])[a-z .,%0-9-]+\)\s*$")
 
@@ -1105,7 +1107,8 @@ def ionic_liquid_pair_text(text: str) -> str | None:
     return f"[{m.group(1)}][{m.group(2)}]"
 
 
-_GLUED = re.compile(r"[A-Za-z][A-Za-z0-9]{3,30}")
+# a cation code (letters, or C with the chain length: C4mim) run into an anion's code that starts with a capital
+_GLUED = re.compile(r"(?:[A-Za-z]{3,}|C\d{1,2}[a-z]{2,})[A-Za-z0-9]*[A-Z][A-Za-z0-9]*")
 
 
 def glued_ionic_liquid(text: str) -> str | None:
@@ -1116,6 +1119,8 @@ def glued_ionic_liquid(text: str) -> str | None:
     ('[BMIM][BF4]', '[EMIM]Cl', None)
     """
     for cut in range(len(text) - 1, 2, -1):
+        if not text[cut].isupper():
+            continue  # an anion's code starts with a capital (BF4, Cl, NTf2)
         first = ion_library.find_alias(text[:cut])
         if first is None or first.charge <= 0 or not first.organic:
             continue

@@ -356,3 +356,10 @@ def test_grade_words_after_a_comma_are_no_list(text):
 def test_a_salt_with_a_molar_amount_in_an_ionic_liquid():
     row = score_formula("[EMIM][TFSI] with 0.5 M LiTFSI")
     assert row["formula_normalized"] == "Li[NTf2]" and row["concentration_as_written"] == "0.5 M"
+
+
+def test_a_tert_butyl_prefix_is_no_structure_label():
+    """t-BuLi is tert-butyllithium (common practice), not a tetragonal polymorph of BuLi."""
+    row = score_formula("t-BuLi")
+    assert "structure label" not in row["message"] and row["formula_normalized"] == "C4H9Li"
+    assert "structure label" in score_formula("t-ZrO2")["message"]
