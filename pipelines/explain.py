@@ -37,23 +37,31 @@ def _solute(text: str) -> str | None:
 
 def explain_formula(text: str) -> str:
     """Every score of one compound with the method and the inputs behind it."""
-    mixture = explain_mixture(text, explain_formula)
-    if mixture is not None:
-        return mixture
-    shown = text if len(text) <= 80 else f"{text[:80]}... ({len(text)} characters)"
-    lines = [f"formula: {shown}"]
     # the row as `ionicity score` writes it: a typing slip, a solution's solute or a name decides what is scored
     row = score_formula(text)
+    if row["substance_class"] == "mixture":
+        mixture = explain_mixture(text, explain_formula)
+        if mixture is not None:
+            return mixture
+    shown = text if len(text) <= 80 else f"{text[:80]}... ({len(text)} characters)"
+    lines = [f"formula: {shown}"]
     scored = row["formula_suggested"] or _solute(text) or text
-    if scored != text:
-        lines.append(f"read as: {scored}")
     try:
         comp = parse_formula(scored)
     except FormulaError as exc:
         # a name, or a formula or name with grade and form words after it ("NaCl ACS reagent"), as score reads it
         comp = parse_as_name(scored) or without_grade_words(scored)
-        if comp is None:
+        if comp is None and row["status"] == "error":
             return "\n".join(lines + ["status: error", f"message: {row['message'] or exc}"])
+    # a reading that scored another composition than the text's own (a doped host, a CAS number, oxygen
+    # vacancies, a formula with its name): the composition the row holds is explained
+    normalized = _parsed_or_none(row["formula_normalized"]) if row["status"] != "error" else None
+    if normalized is not None and (comp is None or comp.total_counts != normalized.total_counts):
+        comp, scored = normalized, row["formula_normalized"]
+    if comp is None:
+        return "\n".join(lines + ["status: error", f"message: {row['message']}"])
+    if scored != text:
+        lines.append(f"read as: {scored}")
     dec = decompose(comp)
     record = score_parsed(comp)
     lines.append(f"status: {row['status']}")
@@ -80,6 +88,15 @@ def explain_formula(text: str) -> str:
     lines.append("")
     lines.append(caution_sentence())
     return "\n".join(lines)
+
+
+def _parsed_or_none(text):
+    if not text:
+        return None
+    try:
+        return parse_formula(text)
+    except FormulaError:
+        return None
 
 
 def _type_text(c) -> str:

@@ -4,7 +4,7 @@ from __future__ import annotations
 import math
 
 from ionicity.pipelines.eutectic_cli import CAUTION
-from ionicity.scorer.mixture import COLUMNS, read_mixture
+from ionicity.scorer.mixture import COLUMNS, SameCompound, read_mixture
 from ionicity.scorer.record import score_formula, score_row
 
 __all__ = ["explain_mixture"]
@@ -26,8 +26,8 @@ def explain_mixture(text: str, explain_compound) -> str | None:
     used for each component (passed in: that module calls this one).
     """
     found = read_mixture(text, score_row)
-    if found is None:
-        return None
+    if found is None or isinstance(found, SameCompound):
+        return None  # a compound (written twice, or with its name): explained as one
     record = score_formula(text)
     lines = [f"formula: {text}", "mixture"]
     for name in _SHOWN + tuple(c.name for c in COLUMNS):

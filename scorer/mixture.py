@@ -50,7 +50,7 @@ from ionicity.scorer.formula import (
 from ionicity.scorer.name_reader import formula_with_hydrate_word, parse_as_name
 from ionicity.scorer.radii import ion_radius_pm
 from ionicity.scorer.tables import table
-from ionicity.scorer.verdict import finalise
+from ionicity.scorer.verdict import Verdict, finalise, with_warnings
 
 __all__ = [
     "GROUP", "COLUMNS", "Mixture", "read_mixture", "mixture_row", "set_user_blends", "names_a_blend",
@@ -369,6 +369,19 @@ def published_point(names) -> dict | None:
 
 # ---------------------------------------------------------------- the record
 
+def compact_text(text: str) -> str:
+    """``text`` without spaces, in lower case: how two spellings of one part are compared."""
+    return "".join(text.split()).lower()
+
+
+@dataclass(frozen=True)
+class SameCompound:
+    """Two parts of a text that name one compound (a formula and its name): that compound's row."""
+
+    component: object
+    text: str
+
+
 @dataclass(frozen=True)
 class Mixture:
     """A mixture as read: components, mole fractions, and what was noticed."""
@@ -422,7 +435,7 @@ def _reads_as_compound(text: str) -> bool:
     return True
 
 
-def read_mixture(text: str, score_row) -> Mixture | str | None:
+def read_mixture(text: str, score_row) -> Mixture | SameCompound | str | None:
     """The mixture a cell describes, an error message, or None for a compound.
 
     ``score_row`` scores one component (:func:`scorer.record.score_row`;
@@ -465,6 +478,10 @@ def read_mixture(text: str, score_row) -> Mixture | str | None:
         if status == "warning":
             warnings.append(f"{component.name}: {component.record[position['message']]}")
     if len({c.name for c in components}) != len(components):
+        if len(components) == 2 and not mixture_text.amounts and blend is None and \
+                compact_text(mixture_text.parts[0]) != compact_text(mixture_text.parts[1]):
+            # a formula with its name ("NaCl - Sodium chloride", "Potassium nitrate: KNO3"): one compound
+            return SameCompound(components[0], text)
         return f"a component is named twice in {text!r}"
     try:
         fractions = _fractions(mixture_text, components, warnings, notes)
@@ -672,6 +689,15 @@ def mixture_row(text: str, score_row) -> tuple | None:
         # a name with hyphens ("1-ethyl-3-methylimidazolium chloride"), not a mixture; also where the parts
         # would read ("N-pentane" is pentane, not nitrogen and pentane)
         return None
+    if isinstance(found, SameCompound):
+        row = list(found.component.record)
+        _, position, _, _ = _layout()
+        verdict = with_warnings(Verdict(row[position["status"]], row[position["message"]] or "",
+                                        row[position["value_notes"]] or ""),
+                                [f"{text.strip()!r} names one compound twice (a formula and its name): read as"
+                                 f" {row[position['formula_normalized']]}"])
+        row[position["status"]], row[position["message"]] = verdict.status, verdict.message
+        return tuple(row)
     if isinstance(found, str) and _HYPHEN_IN_WORD.search(text):
         # a hyphen inside a word of a name the reader does not know ("potassium tert-butoxide"): the name's
         # own error says more than "component 'potassium tert' of the mixture"

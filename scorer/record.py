@@ -7,6 +7,7 @@ import re
 from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, material_message, with_count_suggestion
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.cas import cas_check_digit_valid, registry_by_cas, trailing_cas, whole_cas
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.dopants import doped_host, doping_note
 from ionicity.scorer.elements import get_element, is_metal
@@ -331,6 +332,8 @@ def _slots() -> tuple[int, ...]:
 
 
 _STATUS_SLOT = 0  # scorer.columns puts status first (checked in _layout)
+# the shape of a CAS Registry Number anywhere in a cell (digits, two digits, one check digit)
+_CAS_DIGITS = re.compile(r"\d{2,7}-\d{2}-\d(?!\d)")
 
 
 @once
@@ -428,15 +431,10 @@ def _oxygen_vacancy_row(row: tuple, text: str) -> tuple | None:
         candidate = _parsed_row(vacant)
         if candidate[_STATUS_SLOT] == "error":
             continue
-        position = _layout()[1]
-        note = (f"no ions balance the oxygen as written ({format_count(oxygen)}): read with oxygen vacancies,"
-                f" O{format_count(left)} (delta = {format_count(deficit)}), as an acceptor-doped oxide has them;"
-                f" write the oxygen count, e.g. O{format_count(left)} or O{format_count(oxygen)}-δ")
-        verdict = with_warnings(Verdict(candidate[_STATUS_SLOT], candidate[position["message"]] or "",
-                                        candidate[position["value_notes"]] or ""), [note])
-        out = list(candidate)
-        out[_STATUS_SLOT], out[position["message"]] = verdict.status, verdict.message
-        return tuple(out)
+        return _warned(candidate, f"no ions balance the oxygen as written ({format_count(oxygen)}): read with oxygen"
+                                  f" vacancies, O{format_count(left)} (delta = {format_count(deficit)}), as an"
+                                  f" acceptor-doped oxide has them; write the oxygen count, e.g."
+                                  f" O{format_count(left)} or O{format_count(oxygen)}-δ")
     return None
 
 
@@ -445,11 +443,66 @@ def _read_row(text: str) -> tuple:
     doped = _doped_row(text) if (":" in text or text.endswith(")")) else None
     if doped is not None:
         return doped
+    cas = _cas_row(text) if "-" in text and _CAS_DIGITS.search(text) else None
+    if cas is not None:
+        return cas
     mixture = mixture_row(text, score_row)
     if mixture is not None:
         return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
     return _counted(audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row), text)
+
+
+def _warned(row: tuple, note: str) -> tuple:
+    """``row`` with ``note`` among its warnings (an ``ok`` row becomes ``warning``; an error stays one)."""
+    position = _layout()[1]
+    verdict = with_warnings(Verdict(row[_STATUS_SLOT], row[position["message"]] or "",
+                                    row[position["value_notes"]] or ""), [note])
+    out = list(row)
+    out[_STATUS_SLOT], out[position["message"]] = verdict.status, verdict.message
+    return tuple(out)
+
+
+def _cas_row(text: str) -> tuple | None:
+    """The row of a cell that is a CAS Registry Number (``7647-14-5``) or ends with one (``Sodium chloride
+    [7647-14-5]``): the number's check digit checked, the registry's compound read or compared
+    (:mod:`scorer.cas`); None for any other text."""
+    number = whole_cas(text)
+    if number is not None:
+        if not cas_check_digit_valid(number):
+            return _error_row(f"{text.strip()!r} is written as a CAS Registry Number, but its check digit does not"
+                              " hold (a digit mistyped?); write the formula or the name")
+        entry = registry_by_cas(number)
+        if entry is None:
+            return _error_row(f"CAS Registry Number {number} is not in the registry table read here"
+                              " (scorer/data/registry_names.csv, from the package chemicals); write the formula or"
+                              " the name")
+        return _warned(score_row(entry[0]), f"read the CAS Registry Number {number} as {entry[1]}, {entry[0]}"
+                                            " (registry table of the package chemicals)")
+    found = trailing_cas(text)
+    if found is None:
+        return None
+    rest, number = found
+    row = score_row(rest)
+    if not cas_check_digit_valid(number):
+        return _warned(row, f"the CAS Registry Number {number} written with it fails its check digit (a digit"
+                            " mistyped?): the text before it was read, unchecked")
+    entry = registry_by_cas(number)
+    if entry is None:
+        return row
+    position = _layout()[1]
+    if row[_STATUS_SLOT] == "error":
+        return _warned(score_row(entry[0]), f"{rest!r} was not read; read the CAS Registry Number {number} written"
+                                            f" with it as {entry[1]}, {entry[0]} (registry table of the package"
+                                            " chemicals)")
+    try:
+        same = parse_formula(entry[0]).total_counts == parse_formula(row[position["formula_normalized"]]).total_counts
+    except FormulaError:
+        return row  # a mixture or a written-out ion the parser gives back in another notation: not compared
+    if same:
+        return row
+    return _warned(row, f"the CAS Registry Number {number} written with it names {entry[1]} ({entry[0]}), not the"
+                        f" compound read ({row[position['formula_normalized']]}): check which is meant")
 
 
 def _doped_row(text: str) -> tuple | None:
@@ -458,13 +511,8 @@ def _doped_row(text: str) -> tuple | None:
     doping = doped_host(text)
     if doping is None:
         return None
-    row = list(score_row(doping.host))
-    position = _layout()[1]
-    note = doping_note(doping, row[position["formula_normalized"]])
-    verdict = with_warnings(Verdict(row[_STATUS_SLOT], row[position["message"]] or "",
-                                    row[position["value_notes"]] or ""), [note])
-    row[_STATUS_SLOT], row[position["message"]] = verdict.status, verdict.message
-    return tuple(row)
+    row = score_row(doping.host)
+    return _warned(row, doping_note(doping, row[_layout()[1]["formula_normalized"]]))
 
 
 def _plain_row(text: str) -> tuple:

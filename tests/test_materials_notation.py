@@ -363,3 +363,41 @@ def test_a_tert_butyl_prefix_is_no_structure_label():
     row = score_formula("t-BuLi")
     assert "structure label" not in row["message"] and row["formula_normalized"] == "C4H9Li"
     assert "structure label" in score_formula("t-ZrO2")["message"]
+
+
+# CAS Registry Numbers as stock lists write them; the check digit rule (CAS documentation; common practice) and
+# the registry table of the package chemicals (scorer/data/registry_names.csv) decide; the expected compounds are
+# the registry's own (chemicals.identifiers.search_chemical by CAS number)
+@pytest.mark.parametrize("text, cas", [("7647-14-5", "7647-14-5"), ("CAS 7647-14-5", "7647-14-5"),
+                                       ("CAS No. 7732-18-5", "7732-18-5")])
+def test_a_cas_number_is_read_as_the_registry_compound(text, cas):
+    row = score_formula(text)
+    assert row["status"] == "warning" and "CAS Registry Number" in row["message"]
+    expected = chemicals_identifiers.search_chemical(cas).formula
+    assert parse_formula(row["formula_normalized"]).total_counts == parse_formula(expected).total_counts
+
+
+def test_a_cas_number_with_a_wrong_check_digit_is_an_error():
+    row = score_formula("7647-14-4")
+    assert row["status"] == "error" and "check digit" in row["message"]
+
+
+def test_a_cas_number_after_a_name_is_checked_against_it():
+    assert score_formula("Sodium chloride [7647-14-5]")["formula_normalized"] == "NaCl"
+    assert score_formula("KCl (CAS 7447-40-7)")["status"] == "ok"
+    row = score_formula("NaCl [7732-18-5]")  # the CAS number of water
+    assert row["status"] == "warning" and "names Water" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["NaCl - Sodium chloride", "Potassium nitrate: KNO3"])
+def test_a_formula_with_its_own_name_is_one_compound(text):
+    row = score_formula(text)
+    assert row["substance_class"] == "ionic_salt" and "names one compound twice" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["Y2O3:Eu", "7647-14-5", "CsI(Tl)", "BaZr0.8Y0.2O3", "NaCl - Sodium chloride"])
+def test_explain_shows_the_composition_the_row_scored(text):
+    from ionicity.pipelines.explain import explain_formula
+    out = explain_formula(text)
+    row = score_formula(text)
+    assert f"formula_normalized: {row['formula_normalized']}" in out and "\nmixture\n" not in out
