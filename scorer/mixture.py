@@ -647,6 +647,8 @@ def _record(mixture: Mixture) -> tuple:
 _HYPHEN_IN_WORD = re.compile(r"(?:^|[\s(])[a-z]+-[a-z]{2,}")
 
 
+# the joiners of a list ("NaCl, KCl", "NaCl and KCl"), which scorer.mixture_notation reads as components
+_LIST_ONLY = re.compile(r"[,;&]|\s(?:and|with)\s", re.IGNORECASE)
 # a hyphen before a lower-case word: where a crystal form may follow a formula ("TiO2-anatase")
 _FORM_AFTER_HYPHEN = re.compile(r"[\w)\]]-[a-zα-ω]")
 
@@ -689,6 +691,8 @@ def mixture_row(text: str, score_row) -> tuple | None:
         # a name with hyphens ("1-ethyl-3-methylimidazolium chloride"), not a mixture; also where the parts
         # would read ("N-pentane" is pentane, not nitrogen and pentane)
         return None
+    if isinstance(found, str) and _LIST_ONLY.search(text) and not any(j in text for j in "-–:/+"):
+        return None  # a list that does not read as components ("Tin, Sn"): the other readers may read it
     if isinstance(found, SameCompound):
         row = list(found.component.record)
         _, position, _, _ = _layout()

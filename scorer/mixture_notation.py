@@ -31,6 +31,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
+from ionicity.scorer.elements import is_element_symbol
 from ionicity.scorer.solutions import split_in_solvent
 
 __all__ = ["MixtureText", "MixtureNotationError", "read_mixture_text", "blend_key"]
@@ -169,8 +170,9 @@ def _listed_components(text: str) -> str:
         return text
     for item in items:
         core = _BARE_AMOUNT.sub("", item).strip()
-        if not core or not _FORMULA_LIKE.fullmatch(core) or re.search(r"[a-z]{3}", core):
-            return text
+        if not core or not _FORMULA_LIKE.fullmatch(core) or re.search(r"[a-z]{3}", core) or not all(
+                is_element_symbol(s) for s in re.findall(r"[A-Z][a-z]?", re.sub(r"\[[^\]]*\]", "", core))):
+            return text  # a word or unit that is no formula ("2.5L", "ACS reagent")
     return " + ".join(item.strip() for item in items)
 
 

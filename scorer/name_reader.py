@@ -222,8 +222,9 @@ def registry_entry(name: str) -> tuple[str, str, str, str, str] | None:
 _CAS_QUALIFIERS = re.compile(r",?\s*\((?:\d+CI,?\s*)+\)|,?\s*\((?:T|OC|SP|TB|SPY|TBPY)-[\d-]+\)-?")
 # "hydrate (1:6)": one formula unit to six water
 _CAS_HYDRATE = re.compile(r",?\s*hydrate\s*\(1:(\d+(?:\.\d+)?)\)", re.I)
-# a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate"
-_STATED = re.compile(r"(?<=\s)\(([A-Z][A-Za-z0-9().]*)\)")
+# a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate", and after a
+# comma as stock lists write it: "Potassium nitrate, KNO3"
+_STATED = re.compile(r"(?<=\s)\(([A-Z][A-Za-z0-9().]*)\)|(?<=,)\s*([A-Z][A-Za-z0-9().·]*)\s*(?=,|$)")
 # the CAS index's inverted names: "nitric acid, manganese(2+) salt, tetrahydrate",
 # "sulfuric acid, europium(3+) salt (3:2)" (acid to metal)
 _CAS_SALT = re.compile(
@@ -238,7 +239,7 @@ def _stated_formula(name: str) -> str | None:
     if not re.search(r"[a-z]{3}", _STATED.sub("", name)):
         return None  # a formula, not a name that states one
     for match in _STATED.finditer(name):
-        text = match.group(1)
+        text = match.group(1) or match.group(2)
         if re.fullmatch(r"[IVX]+", text) or not (re.search(r"\d", text) or len(re.findall(r"[A-Z]", text)) > 1):
             continue
         try:

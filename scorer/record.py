@@ -10,9 +10,10 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.cas import cas_check_digit_valid, registry_by_cas, trailing_cas, whole_cas
 from ionicity.scorer.columns import descriptors, output_columns
 from ionicity.scorer.dopants import doped_host, doping_note
-from ionicity.scorer.elements import get_element, is_metal
+from ionicity.scorer.elements import get_element, is_element_symbol, is_metal
 from ionicity.scorer.formula import (
     FormulaError,
+    deuterated_solvent,
     ParsedFormula,
     format_count,
     parse_formula,
@@ -446,6 +447,12 @@ def _read_row(text: str) -> tuple:
     cas = _cas_row(text) if "-" in text and _CAS_DIGITS.search(text) else None
     if cas is not None:
         return cas
+    deuterated = _deuterated_name_row(text) if "-d" in text else None
+    if deuterated is not None:
+        return deuterated
+    stock = _stock_symbol_row(text) if "(" in text and _STOCK_SYMBOL.search(text) else None
+    if stock is not None:
+        return stock
     mixture = mixture_row(text, score_row)
     if mixture is not None:
         return mixture
@@ -503,6 +510,59 @@ def _cas_row(text: str) -> tuple | None:
         return row
     return _warned(row, f"the CAS Registry Number {number} written with it names {entry[1]} ({entry[0]}), not the"
                         f" compound read ({row[position['formula_normalized']]}): check which is meant")
+
+
+# an element symbol with its Stock numeral, as inventories write it: "Fe(III) chloride", "Cu(II)SO4" (common
+# practice; the IUPAC Red Book writes the numeral after the element's name, IR-5.4.2.2)
+_STOCK_SYMBOL = re.compile(r"\b([A-Z][a-z]?)\s?\((I|II|III|IV|V|VI|VII|VIII)\)")
+_ROMAN = {"I": 1, "II": 2, "III": 3, "IV": 4, "V": 5, "VI": 6, "VII": 7, "VIII": 8}
+
+
+def _stock_symbol_row(text: str) -> tuple | None:
+    """The row of a text that writes a metal's symbol with its Stock numeral: before an anion's name
+    ("Fe(III) chloride" is read as iron(III) chloride) or inside a formula ("Cu(II)SO4" as CuSO4, with the
+    state checked against the reading); None for any other text."""
+    m = _STOCK_SYMBOL.search(text)
+    symbol, numeral = m.group(1), m.group(2)
+    if not is_element_symbol(symbol) or not is_metal(symbol):
+        return None
+    rest = text[m.end():]
+    if rest[:1].isspace() and re.match(r"\s+[a-z]", rest):
+        # the anion's name follows: the element's name with the numeral is the Stock name
+        named = text[:m.start()] + get_element(symbol).name.lower() + f"({numeral})" + rest
+        return _warned(score_row(named), f"read {symbol}({numeral}) in {text.strip()!r} as the element's name with"
+                                         f" its Stock numeral: {named.strip()!r}")
+    row = score_row(text[:m.start()] + symbol + rest)
+    if row[_STATUS_SLOT] == "error":
+        return None
+    written = _ROMAN[numeral]
+    states = dict(part.split(":") for part in (row[_layout()[1]["oxidation_states"]] or "").split(";") if ":" in part)
+    read = states.get(symbol)
+    if read is not None and abs(float(read) - written) < 1e-6:
+        return _warned(row, f"read the Stock numeral of {symbol}({numeral}) in {text.strip()!r} as written: the formula"
+                            f" balances with {symbol} +{written}")
+    return _warned(row, f"{symbol}({numeral}) is written in {text.strip()!r}, but the formula balances with {symbol}"
+                        f" {read or 'in another state'}: check the formula")
+
+
+# a solvent's name with its deuteration as NMR catalogues write it: "Chloroform-d", "Methanol-d4", "Acetone-d6"
+_DEUTERATED_NAME = re.compile(r"^\s*(?P<name>[A-Za-z][A-Za-z0-9 ,()']*?)\s*-\s*d(?P<n>\d{0,2})\s*$")
+
+
+def _deuterated_name_row(text: str) -> tuple | None:
+    """The row of a named solvent with every hydrogen deuterated (``Chloroform-d`` is CDCl3, ``Methanol-d4``
+    CD3OD; the count after d is the molecule's hydrogen count, as NMR solvent catalogues write it; common
+    practice); None for any other text or a count that is not the molecule's."""
+    m = _DEUTERATED_NAME.match(text)
+    if m is None or deuterated_solvent(text) is not None:
+        return None  # not a name, or a laboratory code the parser reads itself (DMSO-d6)
+    comp = parse_as_name(m.group("name")) or known_word_name(m.group("name"))
+    counts = dict(comp.counts) if comp is not None and not comp.hydrate_water else {}
+    if not counts.get("H") or counts["H"] != int(m.group("n") or 1):
+        return None
+    formula = "".join(f"{'D' if s == 'H' else s}{format_count(n) if n != 1 else ''}" for s, n in counts.items())
+    return _warned(score_row(formula), f"read {text.strip()!r} as {m.group('name').strip()} with every hydrogen"
+                                       f" deuterated, {formula} (common practice)")
 
 
 def _doped_row(text: str) -> tuple | None:

@@ -558,10 +558,22 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
                   or any(_count_owner(stripped, i) not in ("", "C", "H") for i in zeros)):
         consider("leading_zero" if leading else "zero_for_O", lambda: _replacements(stripped, zeros, _zero_options),
                  leading or water_zero or lone_zero)
-    # in text all in capitals an I after T, N, L, S, B is the capital of the i of Ti, Ni, Li, Si, Bi (TIO2, NIO),
-    # not an l mistyped; after C it still is one (KCI for KCl)
-    capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)
-                 and not (all_caps and i and is_element_symbol(stripped[i - 1] + "i"))]
+    unreadable = _parsed(text) is None
+
+    def lost_case() -> None:
+        if (all_caps or all_lower or unreadable) and not word:
+            # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
+            radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
+            # so is an I after a letter it makes a symbol with (TIO2, NIO, SI3N4: Ti, Ni, Si), where as written the
+            # I stands for iodine beside tritium or nitrogen; the proposal must still read better than the text
+            capital_of_i = all_caps and any(ch == "I" and i and is_element_symbol(stripped[i - 1] + "i")
+                                            for i, ch in enumerate(stripped))
+            consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),
+                     all_lower or unreadable or radical or capital_of_i)
+
+    if all_caps:
+        lost_case()  # first, so that a re-cased reading as good as a re-lettered one is found (TIO2: TiO2, TlO2)
+    capital_i = [i for i, ch in enumerate(stripped) if ch == "I" and _ell_options(stripped, i)]
     if capital_i:
         # "CI" is carbon beside iodine in few real formulas (CI4), chlorine mistyped in many;
         # "TI" tritium (IUPAC's T for 3H) beside iodine, thallium mistyped (TlCl, TlNO3)
@@ -598,20 +610,16 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # mixed-case text that the grammar reads (BaSi2, Cu5Si) is as written even
     # where the solver finds no ions: only text that does not parse, or is all
     # capitals or all lower case, is re-cased
-    unreadable = _parsed(text) is None
-    if (all_caps or all_lower or unreadable) and not word:
-        # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
-        radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
-        # so is an I after a letter it makes a symbol with (TIO2, NIO, SI3N4: Ti, Ni, Si), where as written the
-        # I stands for iodine beside tritium or nitrogen; the proposal must still read better than the text
-        capital_of_i = all_caps and any(ch == "I" and i and is_element_symbol(stripped[i - 1] + "i")
-                                        for i, ch in enumerate(stripped))
-        consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),
-                 all_lower or unreadable or radical or capital_of_i)
+    if not all_caps:
+        lost_case()
     if not candidates:
         return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
     written = written_penalty()
-    penalty, _, kind, best, evidence = min(candidates)
+    # in text all in capitals an I after T, N, L, S, B may be the capital of the i of Ti, Ni, Li, Si, Bi as well as
+    # an l mistyped: where both read alike, the lost case wins (TIO2 is TiO2, not thallium superoxide; TINO3 stays
+    # TlNO3, which TiNO3 cannot match)
+    penalty, _, kind, best, evidence = min(candidates, key=lambda c: (
+        round(c[0], 9), 0 if all_caps and c[2] == "letter_case" else 1, c[1]))
     if math.isinf(penalty):
         if kind == "leading_zero" and evidence and not math.isinf(written):
             return Slip(kind, "", f"typing slip? {text!r} has {SLIP_KINDS[kind]}; no better reading found")

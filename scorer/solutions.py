@@ -301,6 +301,8 @@ _GRADE_WORD = (
     r"|optical|semiconductor|electronic|battery|puratronic|spectrosil|nanopowder|nanoparticles?|mesh|\d+\s*mesh|-\d+\s*mesh"
     # the package size of a stock list ("NaCl 500g", "NaCl, 500 g", "KCl 2.5 kg", "HCl 2.5 L", "NaCl - 2 bottles")
     r"|\d+(?:[.,]\d+)?\s*(?:kg|g|mg|L|l|mL|ml|lb|lbs|oz)\.?(?![A-Za-z])|x\s*\d+|\d+\s*(?:bottles?|jars?|packs?|units?|pcs)"
+    # the container a stock line names ("KNO3 500 g bottle"), and the activity grade of chromatography alumina
+    r"|bottles?|jars?|cans?|drums?|bags?|ampoules?|ampules?|vials?|tins?|sachets?|neutral|acidic"
 )
 # the crystal form a materials table writes after the formula ("TiO2 rutile", "SiO2 amorphous", "BN hexagonal",
 # "ZrO2-monoclinic", "Fe2O3 alpha phase"): the composition is scored, not the polymorph (common practice)

@@ -401,3 +401,40 @@ def test_explain_shows_the_composition_the_row_scored(text):
     out = explain_formula(text)
     row = score_formula(text)
     assert f"formula_normalized: {row['formula_normalized']}" in out and "\nmixture\n" not in out
+
+
+@pytest.mark.parametrize("text, registry_name, hydrogens", [
+    ("Chloroform-d", "chloroform", 1), ("Methanol-d4", "methanol", 4), ("Acetone-d6", "acetone", 6),
+    ("Benzene-d6", "benzene", 6),
+])
+def test_a_named_nmr_solvent_with_its_deuteration_is_read(text, registry_name, hydrogens):
+    """NMR solvents as catalogues write them (common practice): every hydrogen of the registry's formula
+    (chemicals, by name) deuterated."""
+    row = score_formula(text)
+    assert row["status"] == "warning" and "deuterated" in row["message"]
+    expected = _registry_counts(registry_name)
+    assert expected["H"] == hydrogens
+    # the parser counts deuterium as hydrogen and keeps the isotope apart
+    assert _counts(row["formula_normalized"]) == expected
+    assert "D" in row["formula_normalized"] and "H" not in row["formula_normalized"]
+
+
+@pytest.mark.parametrize("text, formula", [("Potassium nitrate, KNO3, 500g", "KNO3"), ("KNO3 500 g bottle", "KNO3"),
+                                           ("HCl 37 %, 2.5L", "HCl"), ("Alumina, neutral", "Al2O3")])
+def test_stock_list_lines_with_name_formula_and_package(text, formula):
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == formula
+
+
+@pytest.mark.parametrize("text, formula", [("Fe(III) chloride", "FeCl3"), ("Cu(II) sulfate", "CuSO4"),
+                                           ("Cu(II)SO4", "CuSO4"), ("Fe(III)Cl3", "FeCl3")])
+def test_a_metal_symbol_with_its_stock_numeral_is_read(text, formula):
+    """Inventories write the Stock numeral after the symbol (common practice; the Red Book writes it after the
+    element's name, IUPAC 2005, IR-5.4.2.2): the compound is read, the numeral checked against the reading."""
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == formula
+
+
+def test_a_stock_numeral_the_formula_contradicts_is_said():
+    row = score_formula("Fe(II)Cl3")
+    assert row["status"] == "warning" and "balances with Fe 3" in row["message"].replace("+", "")
