@@ -438,3 +438,19 @@ def test_a_metal_symbol_with_its_stock_numeral_is_read(text, formula):
 def test_a_stock_numeral_the_formula_contradicts_is_said():
     row = score_formula("Fe(II)Cl3")
     assert row["status"] == "warning" and "balances with Fe 3" in row["message"].replace("+", "")
+
+
+@pytest.mark.parametrize("name, formula", [("Carnallite", "KMgCl3·6H2O"), ("Colemanite", "Ca2B6O11·5H2O"),
+                                           ("Kaolin", "Al2Si2O5(OH)4"), ("Arsenopyrite", "FeAsS")])
+def test_mineral_names_are_read(name, formula):
+    """Mineral formulas after the Handbook of Mineralogy (Anthony et al., from memory)."""
+    row = score_formula(name)
+    assert parse_formula(row["formula_normalized"]).total_counts == parse_formula(formula).total_counts
+
+
+@pytest.mark.parametrize("formula, metal", [("FeAsS", "Fe"), ("CoAsS", "Co"), ("NiSbS", "Ni")])
+def test_arsenopyrite_type_sulfides_hold_an_as_s_pair(formula, metal):
+    """Arsenopyrite, cobaltite and ullmannite: M(2+) with an As-S or Sb-S pair, as pyrite holds S2(2-)
+    (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15; from memory); FeAsS was read as Fe(5+)."""
+    states = _states(score_formula(formula))
+    assert states[metal] == 2.0 and states["S"] == -1.0
