@@ -45,7 +45,7 @@ from ionicity.scorer.ion_library import (
     same_label_ions,
 )
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
-from ionicity.scorer.ion_search import _ion_pair_readings, _search, _subtract
+from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
@@ -159,6 +159,37 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
+_METAL_ORGANIC_NOTE = ("metal-organic complex: a d- or f-block metal bound by an organic ligand the ion library does"
+                       " not list (porphyrins, corrins); formal oxidation states not assigned")
+# carbon atoms from which a formula with hydrogen has an organic skeleton: no inorganic ion holds them
+_SKELETON_CARBON = 4
+
+
+def _skeleton_without_library_ion(counts: dict[str, float]) -> bool:
+    """Whether ``counts`` (a metal with an organic part: four or more C beside H) has a carbon skeleton that no
+    organic ion of the library holds whole, in any number of copies. A salt's skeleton is one ion (one organic
+    species per reading, :mod:`scorer.ion_search`), so then no walk over the library can read it: the walk is
+    skipped and the last resorts read the rest as one organic anion (sodium salts of dyes, Congo red,
+    tetrasodium EDTA) or the compound as metal-organic (hematin). Those walks ran to the work limit over every
+    small ion of C, H, N, O and S, so their reading depended on it.
+
+    >>> _skeleton_without_library_ion({"C": 4.0, "H": 6.0, "Ca": 1.0, "O": 4.0})  # calcium acetate
+    False
+    >>> _skeleton_without_library_ion({"C": 10.0, "H": 12.0, "N": 2.0, "Na": 4.0, "O": 8.0})  # Na4EDTA
+    True
+    """
+    carbon = counts.get("C", 0.0)
+    if carbon < _SKELETON_CARBON or "H" not in counts or not any(is_metal(s) for s in counts):
+        return False
+    for ion in _candidates_for(frozenset(counts)):
+        if not ion.organic:
+            continue
+        held = dict(ion.composition).get("C", 0.0)
+        if held and abs(carbon / held - round(carbon / held)) < 1e-9 and round(carbon / held) <= _fits(ion.composition, counts):
+            return False
+    return True
+
+
 def _amidinium_salt(counts: dict[str, float]) -> bool:
     """Whether a formula written with NH2 groups reads as a salt of an amidinium
     cation of the library (formamidinium, guanidinium)."""
@@ -268,6 +299,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         hinted.append([(variant, n) for variant in same_label_ions(ion)])
         remaining = _subtract(remaining, ion.composition, n)
 
+    skeleton = False  # an organic skeleton no library ion holds (_skeleton_without_library_ion): no walk
     if not hinted and organic_candidate(remaining):
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
@@ -313,9 +345,11 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # no reading at or above the ionic threshold is used (:func:`_best`), so the walks
         # need not look for one; with written ions, whether any reading balances at all
         # decides a note, so there the ceiling holds once one is found
-        readings = _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
+        skeleton = not hinted and _skeleton_without_library_ion(remaining)
+        readings = [] if skeleton else \
+            _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
     chosen = _best(readings)
-    if chosen is None and not hinted:  # last resort: a complex anion built by rule (K2GeF6)
+    if chosen is None and not hinted and not skeleton:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
         if built:
             readings, chosen = built, _best(built)
@@ -331,6 +365,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # an alkali metal with a rest that is no acid's conjugate base (NaHCO, C2H3NaO): a typo of a
             # carboxylate or hydrogencarbonate is likelier than the walk's carbide reading of the atoms
             readings, chosen = [], None
+    if chosen is None and skeleton and any(get_element(s).block in ("d", "f") for s in remaining if is_metal(s)):
+        # a d- or f-block metal in an organic skeleton no library ion holds and no organic anion reads: a
+        # metal-organic complex (hematin, cobalamin), its ligand bound through N or O donors, no salt
+        return Decomposition(
+            composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+            substance_class="covalent_molecular", notes=(_METAL_ORGANIC_NOTE,),
+        )
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))

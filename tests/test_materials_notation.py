@@ -454,3 +454,20 @@ def test_arsenopyrite_type_sulfides_hold_an_as_s_pair(formula, metal):
     (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15; from memory); FeAsS was read as Fe(5+)."""
     states = _states(score_formula(formula))
     assert states[metal] == 2.0 and states["S"] == -1.0
+
+
+# sodium salts of dyes and chelators whose anion the library does not list, and metal-organic complexes, by CAS
+# number from the registry package chemicals (Congo red, Sunset Yellow FCF, tetrasodium EDTA, Eriochrome Black T):
+# their readings ran to the ion search's work limit over every small ion of C, H, N, O and S
+@pytest.mark.parametrize("cas, sodium", [("573-58-0", 2), ("2783-94-0", 2), ("64-02-8", 4), ("1787-61-7", 1)])
+def test_salts_of_large_organic_anions_are_read_without_the_work_limit(cas, sodium):
+    formula = chemicals_identifiers.search_chemical(cas).formula
+    row = score_formula(formula)
+    assert "work limit" not in (row["message"] or "") and row["substance_class"] == "ionic_salt"
+    assert row["cations"] == f"Na(+)*{sodium}"
+
+
+@pytest.mark.parametrize("cas", ["15489-90-4", "68-19-9"])  # hematin, vitamin B12
+def test_metal_organic_complexes_are_molecular(cas):
+    row = score_formula(chemicals_identifiers.search_chemical(cas).formula)
+    assert row["substance_class"] == "covalent_molecular" and "metal-organic complex" in row["message"]
