@@ -73,11 +73,27 @@ _MATERIALS = {
     "glass": "a silicate glass", "cement": "a mixture of calcium silicates and aluminates",
     "concrete": "cement with sand and gravel", "seawater": "a solution of several salts",
     "petroleum ether": "a mixture of light alkanes",
+    # mineral groups and laboratory materials of varying composition (common practice)
+    "garnet": "a mineral group (A3B2(SiO4)3: pyrope Mg3Al2Si3O12, almandine Fe3Al2Si3O12...)",
+    "olivine": "a solid solution of forsterite Mg2SiO4 and fayalite Fe2SiO4",
+    "feldspar": "a mineral group (orthoclase KAlSi3O8, albite NaAlSi3O8, anorthite CaAl2Si2O8)",
+    "mica": "a mineral group of layered aluminosilicates (muscovite KAl2(AlSi3O10)(OH)2...)",
+    "zeolite": "a family of hydrated aluminosilicate frameworks",
+    "zeolites": "a family of hydrated aluminosilicate frameworks",
+    "molecular sieves": "a zeolite, a hydrated aluminosilicate framework of varying composition",
+    "asbestos": "a group of fibrous silicate minerals (chrysotile Mg3Si2O5(OH)4, the amphiboles)",
+    "montmorillonite": "a clay of varying composition (a smectite)",
+    "bentonite": "a clay, mostly montmorillonite, of varying composition",
+    "diatomaceous earth": "mostly amorphous silica with other oxides",
+    "portland cement": "a mixture of calcium silicates and aluminates",
+    "bioactive glass": "a soda-lime phosphosilicate glass (45S5: SiO2, Na2O, CaO, P2O5)",
 }
 
 def material_message(text: str) -> str | None:
     """The error of a cell naming a material of no one formula (:data:`_MATERIALS`); None for any other text."""
-    material = _MATERIALS.get(" ".join(text.lower().split()))
+    key = " ".join(text.lower().split())
+    # a pore size or grade after a material's name ("Molecular sieves 4A", "Silica gel 60") names the same material
+    material = _MATERIALS.get(key) or _MATERIALS.get(re.sub(r"\s+\d+\s*(?:a|å|angstrom)?$", "", key))
     if material is None:
         return None
     return (f"{text.strip()!r} is {material}, of no one formula: write its composition as a formula or a mixture"

@@ -178,7 +178,19 @@ def _read_text(name: str) -> str | None:
         salt = _read_key(compact(name[: match.start()]))
         water = float(match.group(1))
         return None if salt is None or "·" in salt else salt + "·" + ("" if water == 1 else f"{water:g}") + "H2O"
-    return _read_key(compact(name)) or _as_formula(name)
+    found = _read_key(compact(name)) or _as_formula(name)
+    if found is None and "H2O" in name:
+        # a name with its lattice water written as a formula ("Na2EDTA·2H2O", "EDTA disodium salt·2H2O")
+        written = _WATER_AFTER_NAME.match(name)
+        if written is not None:
+            salt = _read_key(compact(written.group("name")))
+            if salt is not None and "·" not in salt:
+                return f"{salt}·{written.group('n') or ''}H2O"
+    return found
+
+
+# lattice water written after a name as a formula
+_WATER_AFTER_NAME = re.compile(r"^(?P<name>.*?\S)\s*[·.*•]\s*(?P<n>\d+(?:\.\d+)?)?\s*H2O\s*$")
 
 
 @once

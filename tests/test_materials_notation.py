@@ -471,3 +471,23 @@ def test_salts_of_large_organic_anions_are_read_without_the_work_limit(cas, sodi
 def test_metal_organic_complexes_are_molecular(cas):
     row = score_formula(chemicals_identifiers.search_chemical(cas).formula)
     assert row["substance_class"] == "covalent_molecular" and "metal-organic complex" in row["message"]
+
+
+@pytest.mark.parametrize("text, cas", [("Sodium lauryl sulfate", "151-21-3"), ("Tetrasodium EDTA", "64-02-8"),
+                                       ("Na2EDTA·2H2O", None)])
+def test_stock_names_of_surfactants_and_chelators(text, cas):
+    """Supplier names (common practice); the formulas of the registry package chemicals by CAS number where it
+    has them."""
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["substance_class"] == "ionic_salt"
+    if cas:
+        expected = parse_formula(chemicals_identifiers.search_chemical(cas).formula).total_counts
+        assert parse_formula(row["formula_normalized"]).total_counts == expected
+    else:
+        assert row["hydrate_water"] == 2.0
+
+
+@pytest.mark.parametrize("text", ["Garnet", "Olivine", "Molecular sieves 4A", "Portland cement", "Zeolite"])
+def test_mineral_groups_and_materials_of_no_one_formula_are_errors_that_say_so(text):
+    row = score_formula(text)
+    assert row["status"] == "error" and "of no one formula" in row["message"]

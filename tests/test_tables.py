@@ -42,7 +42,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 68,
     "material_codes.csv": 35,
-    "trivial_names.csv": 209,
+    "trivial_names.csv": 221,
     "solution_names.csv": 19,
     "ligands.csv": 28,
     "registry_names.csv": 13415,
