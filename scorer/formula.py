@@ -260,11 +260,15 @@ def _written_ion_pair(text: str) -> str | None:
 
     >>> _written_ion_pair("Na+ Cl-"), _written_ion_pair("Ca2+ 2Cl-"), _written_ion_pair("SO4^2-")
     ('(Na)(Cl)', '(Ca)(Cl)2', None)
+    >>> _written_ion_pair("Ca2+ + 2Cl-")
+    '(Ca)(Cl)2'
     """
     if "[" in text:
         return None  # bracketed codes ("[C4mim]+ [BF4]-") are read by the ionic-liquid shorthand
     tokens: list[str] = []
     for token in _ION_TOKEN_BREAK.split(text.strip()):
+        if token == "+":
+            continue  # a plus between two ions ("Ca2+ + 2Cl-") joins them, as a space does
         if token and tokens and tokens[-1].isdigit():
             tokens[-1] += token  # "3 OH-": a count written apart from its ion
         elif token:
@@ -502,6 +506,9 @@ def parse_formula(text: str) -> ParsedFormula:
             notes.append(f"read the materials code {text_to_parse.strip()!r} as {name}, {formula} (common practice;"
                          " the usual composition, check it against your material's)")
             text_to_parse = formula
+    if "⁺" in text_to_parse and "⁻" in text_to_parse and " " in text_to_parse.strip():
+        # ions written with superscript charges ("Ca²⁺ + 2Cl⁻"): read as their ASCII spelling
+        text_to_parse = unicodedata.normalize("NFKC", text_to_parse).replace("\u2212", "-")
     if "+" in text_to_parse and "-" in text_to_parse:
         pair = _written_ion_pair(text_to_parse)
         if pair is not None:
