@@ -21,13 +21,14 @@ from ionicity.scorer.elements import is_element_symbol
 
 __all__ = ["Doping", "doped_host", "doping_note"]
 
-# one dopant: an element symbol with an optional ionic charge (Eu3+, Eu^3+, Ce(III) is not read here)
-_DOPANT = r"[A-Z][a-z]?(?:\^?\d?[+-])?"
-# a level written beside the dopants: "5%", "2 wt%", "1 at.%", "0.5 mol %", "(5 mol%)"
+# a level written beside a dopant: "5%", "2 wt%", "1 at.%", "0.5 mol %", "(5 mol%)"
 _LEVEL = r"\(?\s*\d+(?:[.,]\d+)?\s*(?:(?:at|wt|mol|atom|weight)\.?\s*)?%\s*\)?"
-_DOPANTS = rf"(?:{_LEVEL}\s*)?{_DOPANT}(?:\s*{_LEVEL})?(?:\s*[,/+&]\s*(?:{_LEVEL}\s*)?{_DOPANT}(?:\s*{_LEVEL})?)*"
-_HOST_FIRST = re.compile(rf"^\s*(?P<host>[^:]*[^\s:])\s*:\s*(?P<dopants>{_DOPANTS})\s*$")
-_DOPANT_FIRST = re.compile(rf"^\s*(?P<dopants>{_DOPANTS})\s*:\s*(?P<host>[^:]*[^\s:])\s*$")
+# one dopant of a list: an element symbol with an optional ionic charge (Eu3+, Eu^3+) and a level before or after
+_DOPANT_ITEM = re.compile(rf"(?:{_LEVEL}\s*)?(?P<symbol>[A-Z][a-z]?)(?:\^?\d?[+-])?(?:\s*{_LEVEL})?")
+# a comma, slash or ampersand between dopants, or a plus that is no charge (Er+Yb, not the + of Eu3+)
+_LIST_SEPARATOR = re.compile(r"\s*(?:[,/&]|(?<![\d^+-])\+(?=\s*[A-Z(\d]))\s*")
+# the most dopants a list names (co-doped phosphors name two or three)
+_MAX_DOPANTS = 6
 # the scintillator form: a formula, then one element in brackets ("CsI(Tl)", "CaF2(Eu)")
 _BRACKETED = re.compile(r"^\s*(?P<host>[A-Z][A-Za-z0-9]*)\((?P<dopants>[A-Z][a-z]?)\)\s*$")
 _SYMBOL = re.compile(r"[A-Z][a-z]?")
@@ -63,18 +64,16 @@ def doped_host(text: str) -> Doping | None:
     >>> doped_host("LiCl:KCl") is None, doped_host("Na:K") is None, doped_host("Ca(OH)2") is None
     (True, True, True)
     """
-    if ":" in text:
-        for pattern in (_HOST_FIRST, _DOPANT_FIRST):
-            m = pattern.match(text)
-            if m is None:
-                continue
-            host, written = m.group("host"), m.group("dopants")
-            if _LONE_ELEMENTS.fullmatch(host.strip()):
+    if not isinstance(text, str) or len(text) > 200:
+        return None
+    if text.count(":") == 1:
+        left, right = (part.strip() for part in text.split(":"))
+        for host, written in ((left, right), (right, left)):
+            if not host or not written or _LONE_ELEMENTS.fullmatch(host):
                 continue  # elements on both sides: an alloy or a mixture of elements, not a doped host
             found = _dopants(written)
-            if found is None:
-                continue
-            return Doping(text, host.strip(), found, _level(written))
+            if found is not None:
+                return Doping(text, host, found, _level(written))
         return None
     if text.endswith(")"):
         m = _BRACKETED.match(text)
@@ -85,9 +84,17 @@ def doped_host(text: str) -> Doping | None:
 
 
 def _dopants(written: str) -> tuple[str, ...] | None:
-    symbols = _SYMBOL.findall(_LEVEL_RE.sub(" ", written))
-    if not symbols or not all(is_element_symbol(s) for s in symbols):
+    """The element symbols of a list of dopants (each with its charge and level or not); None when the text is
+    not such a list (a formula, a name, a ratio)."""
+    items = _LIST_SEPARATOR.split(written)
+    if len(items) > _MAX_DOPANTS:
         return None
+    symbols = []
+    for item in items:
+        m = _DOPANT_ITEM.fullmatch(item)
+        if m is None or not is_element_symbol(m.group("symbol")):
+            return None
+        symbols.append(m.group("symbol"))
     return tuple(dict.fromkeys(symbols))
 
 

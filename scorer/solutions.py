@@ -311,7 +311,8 @@ _FORM_WORD = (
     r"|triclinic|wurtzite|zinc[\s-]?blende|sphalerite|rock[\s-]?salt|corundum|spinel|perovskite|fluorite|quartz"
     r"|cristobalite|tridymite|coesite|hematite|magnetite|maghemite|calcite|aragonite|vaterite|gibbsite|boehmite"
     r"|goethite|scheelite|olivine|garnet|kesterite|chalcopyrite|pyrite|marcasite|zircon|baddeleyite"
-    r"|(?:alpha|beta|gamma|delta|theta|kappa|eta|α|β|γ|δ|θ|κ|η)(?:[\s-]?phase)?|phase|polymorph"
+    # (a Greek letter and "phase" are two words: "alpha phase" has one reading, not two, so no pattern backtracks)
+    r"|alpha|beta|gamma|delta|theta|kappa|eta|α|β|γ|δ|θ|κ|η|phase|polymorph"
     r"|nanocrystalline|polycrystalline|single[\s-]crystals?|thin[\s-]films?|films?|bulk|glassy|sintered|ceramic"
     r"|nanorods?|nanowires?|nanotubes?|nanosheets?|whiskers?|fib(?:er|re)s?|microspheres?|nano"
 )
