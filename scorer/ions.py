@@ -365,13 +365,6 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # an alkali metal with a rest that is no acid's conjugate base (NaHCO, C2H3NaO): a typo of a
             # carboxylate or hydrogencarbonate is likelier than the walk's carbide reading of the atoms
             readings, chosen = [], None
-    if chosen is None and skeleton and any(get_element(s).block in ("d", "f") for s in remaining if is_metal(s)):
-        # a d- or f-block metal in an organic skeleton no library ion holds and no organic anion reads: a
-        # metal-organic complex (hematin, cobalamin), its ligand bound through N or O donors, no salt
-        return Decomposition(
-            composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
-            substance_class="covalent_molecular", notes=(_METAL_ORGANIC_NOTE,),
-        )
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
@@ -382,6 +375,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             return Decomposition(
                 composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                 substance_class="covalent_molecular", notes=(organometallic,),
+            )
+        if chosen is None and skeleton and any(get_element(s).block in ("d", "f") for s in remaining if is_metal(s)):
+            # a d- or f-block metal in an organic skeleton no library ion holds and no organic anion reads, not
+            # an alkyl or arene: a metal-organic complex (hematin, cobalamin), its ligand bound through N or O
+            # donors, no salt
+            return Decomposition(
+                composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+                substance_class="covalent_molecular", notes=(_METAL_ORGANIC_NOTE,),
             )
     if chosen is None and not comp.ion_hints:
         # Fe4N, Pd4S: more metal than any ion reading can balance, a metal-rich phase
