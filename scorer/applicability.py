@@ -146,6 +146,33 @@ def _phillips() -> dict:
     return {hill_text_key(r["formula"]): (float(r["ionicity_fi"]), r["source"]) for r in table("phillips_ionicity.csv")}
 
 
+def _solid_solution_ionicity(dec: Decomposition) -> tuple[float, str]:
+    """Phillips ionicity of a solid solution of listed binaries on one site (In0.5Ga0.5N, GaAs0.5P0.5, Hg0.5Cd0.5Te):
+    the mean of its end members' f_i, weighted by their shares of the mixed site (a Vegard-type interpolation,
+    common practice); NaN when a member is not listed or the reading is not such a solution."""
+    cations = [(t.ion.element, t.ion.charge, t.count) for t in dec.cations if t.ion.monatomic]
+    anions = [(t.ion.element, -t.ion.charge, t.count) for t in dec.anions if t.ion.monatomic]
+    if len(cations) != len(dec.cations) or len(anions) != len(dec.anions) or not cations or not anions:
+        return math.nan, ""
+    if len(cations) > 1 and len(anions) == 1:
+        pairs = [(c, anions[0], c[2]) for c in cations]
+    elif len(anions) > 1 and len(cations) == 1:
+        pairs = [(cations[0], a, a[2]) for a in anions]
+    else:
+        return math.nan, ""
+    total, weighted = 0.0, 0.0
+    for (cation, z, _), (anion, q, _), share in pairs:
+        g = math.gcd(int(z), int(q)) or 1
+        f_i, _ = _phillips().get(reduced_key({cation: q / g, anion: z / g}), (math.nan, ""))
+        if math.isnan(f_i):
+            return math.nan, ""
+        total += share
+        weighted += share * f_i
+    return weighted / total, ("mean of the end members' Phillips ionicities, weighted by their shares of the mixed"
+                              " site (Vegard-type interpolation, common practice; Phillips, Rev. Mod. Phys. 42"
+                              " (1970) 317)")
+
+
 @once
 def _redox() -> tuple[dict, dict]:
     oxidants: dict = {}
@@ -353,6 +380,8 @@ def _criteria(dec: Decomposition) -> tuple[str, str, list[str]]:
     """The general criteria of an ionic-salt reading, after the family table."""
     counts = _counts(dec)
     f_i, source = _phillips().get(reduced_key(counts), (math.nan, ""))
+    if math.isnan(f_i):
+        f_i, source = _solid_solution_ionicity(dec)
     if not math.isnan(f_i):
         if f_i >= PHILLIPS_CRITICAL_IONICITY:
             return "ionic_salt", "applies", [

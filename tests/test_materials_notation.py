@@ -520,3 +520,13 @@ def test_the_notation_readers_have_no_runaway_patterns(text):
         signal.alarm(0)
         signal.signal(signal.SIGALRM, previous)
     assert row["status"] in ("ok", "warning", "error")
+
+
+@pytest.mark.parametrize("text, end_members", [("InGaN", ("InN", "GaN")), ("AlGaN", ("AlN", "GaN")),
+                                               ("ZnS0.5Se0.5", ("ZnS", "ZnSe")), ("HgCdTe", ("HgTe", "CdTe"))])
+def test_a_solid_solution_of_listed_semiconductors_is_one(text, end_members):
+    """Each end member is a semiconductor by its Phillips ionicity (Phillips, Rev. Mod. Phys. 42 (1970) 317, from
+    memory; scorer/data/phillips_ionicity.csv); the solution between them is one too (its f_i is their mean),
+    where InGaN had read as an ionic salt."""
+    assert all(score_formula(m)["substance_class"] == "semiconductor" for m in end_members)
+    assert score_formula(text)["substance_class"] == "semiconductor"
