@@ -765,7 +765,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "amide"
     elif _FULMINATE.search(cleaned):
         hint = "fulminate"
-    elif "4N" in cleaned and _QUATERNARY_WRITTEN.search(cleaned) or "N(" in cleaned and _QUATERNARY_WRITTEN.search(cleaned):
+    elif ("4N" in cleaned or "N(" in cleaned) and _QUATERNARY_WRITTEN.search(cleaned):
         # four alkyl groups written on nitrogen ((CH3)4NCl, N(CH3)4OH): the quaternary cation, not its protic
         # isomer (C4H12N+ is tetramethylammonium or butylammonium by its composition alone)
         hint = "quaternary"

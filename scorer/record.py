@@ -1,6 +1,7 @@
 """Score one compound into one record: a dict with one value per output column."""
 from __future__ import annotations
 
+import dataclasses
 import math
 import re
 
@@ -427,8 +428,7 @@ def _oxygen_vacancy_row(row: tuple, text: str) -> tuple | None:
         if deficit <= 0 or deficit > _MAX_VACANCY_SHARE * oxygen:
             continue
         left = round(oxygen - deficit, 6)
-        vacant = ParsedFormula(text, tuple((s, left if s == "O" else n) for s, n in comp.counts), 0.0, 0.0, (), (),
-                               comp.structure_hint, comp.notes, comp.isotopes)
+        vacant = dataclasses.replace(comp, counts=tuple((s, left if s == "O" else n) for s, n in comp.counts))
         candidate = _parsed_row(vacant)
         if candidate[_STATUS_SLOT] == "error":
             continue
