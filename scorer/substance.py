@@ -179,8 +179,17 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
         return ((symbol, charge / n),)
     defaults, balancers, ranges, partners = _formal_rules(symbols)
     for balancer in balancers:
-        # metals of the balancer's group share the balance (Pb0.5Sn0.5Te: Pb and Sn +2 both, not Pb 0 and Sn +4)
-        sharing = (balancer, *partners.get(balancer, ()))
+        # metals of the balancer's group share the balance (Pb0.5Sn0.5Te: Pb and Sn +2 both, not Pb 0 and Sn +4);
+        # most formulas (every organic molecule) have no such partners and take the one-element path
+        if balancer not in partners:
+            sharing = (balancer,)
+            rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
+            value = (charge - rest) / counts[balancer]
+            low, high = ranges[balancer]
+            if low - _TOL <= value <= high + _TOL:
+                break
+            continue
+        sharing = (balancer, *partners[balancer])
         rest = sum(defaults[s] * counts[s] for s in symbols if s not in sharing)
         value = (charge - rest) / sum(counts[s] for s in sharing)
         if all(ranges[s][0] - _TOL <= value <= ranges[s][1] + _TOL for s in sharing):
