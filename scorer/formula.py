@@ -486,6 +486,13 @@ def parse_formula(text: str) -> ParsedFormula:
         if alloy is not None:
             text_to_parse, alloy_note = alloy
             notes.append(alloy_note)
+    water_of_code = ""
+    if "H2O" in text_to_parse:
+        coded = _CODE_WITH_WATER.fullmatch(text_to_parse)
+        if coded is not None and _is_code(coded.group("code")):
+            # a code with its lattice water ("TBAF·3H2O", "TBAB.H2O"; "TBAF trihydrate" arrives so from the
+            # record's hydrate-word reader): the code is read below and the water put back after it
+            text_to_parse, water_of_code = coded.group("code"), "·" + coded.group("water")
     salt_of_code = code_hydrohalide(text_to_parse) if ("HCl" in text_to_parse or "HBr" in text_to_parse
                                                         or "HI" in text_to_parse) else None
     if salt_of_code is not None:
@@ -531,6 +538,14 @@ def parse_formula(text: str) -> ParsedFormula:
         notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
                      f" assumed, {shared.strip()}; write the fractions, e.g. Cu(In0.7Ga0.3)Se2")
         text_to_parse = shared
+    if "x" in text_to_parse and "H2O" in text_to_parse:
+        glued = _GLUED_X_WATER.search(text_to_parse)
+        if glued is not None:
+            # "CuSO4x5H2O": a lower-case x typed for the hydrate dot before a counted water (the x of a
+            # variable count stands before an element, LixCoO2)
+            read = text_to_parse[:glued.start()] + "·" + text_to_parse[glued.end():]
+            notes.append(f"read the x before the water in {text_to_parse.strip()!r} as the hydrate dot, {read.strip()}")
+            text_to_parse = read
     variable = variable_counts(text_to_parse) if "x" in text_to_parse and _VARIABLE_COUNT.search(text_to_parse) \
         else None
     if variable is not None:
@@ -550,6 +565,9 @@ def parse_formula(text: str) -> ParsedFormula:
     if reagent is not None:
         notes.append(f"read the reagent code {text_to_parse.strip()!r} as {reagent} (common practice)")
         text_to_parse = reagent
+        plain = False
+    if water_of_code:
+        text_to_parse += water_of_code
         plain = False
     if plain:
         cleaned = _plain_normalised(text_to_parse)
@@ -818,6 +836,18 @@ _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": 
 # a whole cell that is a solvent's or reagent's laboratory code (THF, DMSO, EC, DMC: scorer/data/solvent_codes.csv);
 # THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
 _SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\d?\s*")
+# a code and its lattice water after a dot: "TBAF·3H2O", "TBAB.H2O", "LiTFSI*xH2O" (common practice)
+_CODE_WITH_WATER = re.compile(r"\s*(?P<code>\d?[A-Za-z]{2,6}\d{0,3})\s*[·.*•]\s*(?P<water>(?:\d+(?:\.\d+)?|[xn])?H2O)\s*")
+# "CuSO4x5H2O": a lower-case x glued between a formula and its counted water, for the hydrate dot
+_GLUED_X_WATER = re.compile(r"(?<=[A-Za-z0-9)\]])x(?=\d+(?:\.\d+)?H2O\s*$)")
+
+
+def _is_code(text: str) -> bool:
+    """Whether ``text`` is a laboratory, materials or reagent code the readers below know (THF, LFP, TBAF)."""
+    return (laboratory_code(text) is not None
+            or (_MATERIAL_CODE.fullmatch(text) is not None and material_code(text) is not None)
+            or ((_QUATERNARY_REAGENT.fullmatch(text) is not None or text.strip() in _SALT_CODES)
+                and quaternary_reagent_code(text) is not None))
 # a laboratory code, a hyphen, space or dot, and a hydrogen halide: "Tris-HCl", "Tris HCl", "TEA·HCl"
 _CODE_HYDROHALIDE = re.compile(r"\s*(?P<code>[A-Za-z]{2,6}\d?)\s*[-\s·.]\s*(?P<acid>HCl|HBr|HI)\s*")
 
@@ -963,6 +993,10 @@ _VARIABLE_COUNT = re.compile(r"(?<=[A-Za-z)\]])x(?=[A-Z(\[·.*\s]|$)")
 _VARIABLE_TERM = re.compile(r"(?<=[A-Za-z)\]])(\d+(?:\.\d+)?)\s*([-+])\s*x(?=[A-Z(\[·.*\s]|$)")
 
 
+# the element symbol that ends a text (compiled once: a hostile cell pays no compilation)
+_SYMBOL_AT_END = re.compile(r"[A-Z][a-z]?$")
+
+
 def variable_counts(text: str) -> tuple[str, float] | None:
     """(the text with its variable count x given a value, the value): x = 0.5 where x shares a site with 1 - x
     (``AlxGa1-xN`` -> ``Al0.5Ga0.5N``, a solid solution of unstated proportions), x = 1 where x stands alone
@@ -975,7 +1009,7 @@ def variable_counts(text: str) -> tuple[str, float] | None:
     True
     """
     for m in _VARIABLE_COUNT.finditer(text):
-        symbol = re.search(r"[A-Z][a-z]?$", text[:m.start()])
+        symbol = _SYMBOL_AT_END.search(text[:m.start()])
         if symbol is None or not is_element_symbol(symbol.group()) or not is_metal(symbol.group()):
             return None
     value = 0.5 if _VARIABLE_TERM.search(text) else 1.0

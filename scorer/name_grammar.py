@@ -309,8 +309,7 @@ def formula_text(reading: NameReading) -> str | None:
     prefix, else the counts of charge balance."""
     cations, anions = reading.cations, reading.anions
     if reading.molecule is not None:
-        return None if cations or anions else reading.molecule.text.strip("[]") + (
-            "·" + ("" if reading.water == 1 else f"{reading.water:g}") + "H2O" if reading.water else "")
+        return None if cations or anions else reading.molecule.text.strip("[]") + water_text(reading.water)
     if not cations and not anions:
         return None
     if not anions:
@@ -471,6 +470,17 @@ def parts_text(parts: list[tuple[Part, float]], water: float | None) -> str:
             elif number:
                 body = f"({body})"
         text += body + number
-    if water:
-        text += "·" + ("" if water == 1 else f"{water:g}") + "H2O"
-    return text
+    return text + water_text(water)
+
+
+def water_text(water: float | None) -> str:
+    """The lattice water of a name as a formula's tail: ``·5H2O``, ``·H2O``, ``""`` for none, and ``·xH2O`` where
+    the name says "hydrate" without a number (water of unstated amount, as a catalogue's xH2O: the row says so and
+    its molar mass leaves the water out, rather than reading the salt as anhydrous without a word).
+
+    >>> water_text(5.0), water_text(1.0), water_text(0.0), water_text(None)
+    ('·5H2O', '·H2O', '', '·xH2O')
+    """
+    if water is None:
+        return "·xH2O"
+    return "·" + ("" if water == 1 else f"{water:g}") + "H2O" if water else ""

@@ -425,3 +425,49 @@ def test_a_buffer_base_with_its_acid_is_its_hydrochloride(label):
 
 def test_a_salt_with_hydrogen_chloride_stays_a_mixture():
     assert score_formula("NaCl-HCl")["substance_class"] == "mixture"
+
+
+def _molmass_g_mol(formula: str) -> float:
+    molmass = pytest.importorskip("molmass")
+    return molmass.Formula(formula).mass  # source: the registry package molmass (IUPAC atomic weights)
+
+
+@pytest.mark.parametrize("text, normalized, hill", [
+    # a lower-case x typed for the hydrate dot before a counted water (common practice in ASCII stock lists)
+    ("CuSO4x5H2O", "CuSO4·5H2O", "CuSO4(H2O)5"),
+    ("MgCl2x6H2O", "MgCl2·6H2O", "MgCl2(H2O)6"),
+])
+def test_an_x_glued_before_the_water_is_the_hydrate_dot(text, normalized, hill):
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == normalized
+    assert "hydrate dot" in row["message"]
+    assert row["molar_mass_g_mol"] == pytest.approx(_molmass_g_mol(hill), abs=0.02)
+
+
+def test_an_x_before_an_element_stays_a_variable_count():
+    row = score_formula("LixCoO2")
+    assert row["formula_normalized"] == "LiCoO2" and "variable count" in row["message"]
+
+
+@pytest.mark.parametrize("text, normalized, hill", [
+    # reagent codes with their water (tetrabutylammonium fluoride trihydrate and bromide hydrate, as
+    # catalogues sell them; common practice), a materials code and a salt code likewise
+    ("TBAF·3H2O", "[N4444]F·3H2O", "C16H36FN(H2O)3"),
+    ("TBAF trihydrate", "[N4444]F·3H2O", "C16H36FN(H2O)3"),
+    ("TBAB.H2O", "[N4444]Br·H2O", "C16H36BrN(H2O)"),
+    ("LFP·H2O", "LiFePO4·H2O", "LiFePO4(H2O)"),
+    ("EAN.H2O", "[EtNH3][NO3]·H2O", "C2H8N2O3(H2O)"),
+])
+def test_a_code_with_its_water_is_the_hydrate_of_the_code(text, normalized, hill):
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == normalized
+    assert "code" in row["message"]
+    assert row["molar_mass_g_mol"] == pytest.approx(_molmass_g_mol(hill), abs=0.02)
+
+
+@pytest.mark.parametrize("text", ["copper sulfate hydrate", "cobalt(II) chloride hydrate", "TBAB hydrate"])
+def test_a_name_or_code_with_the_bare_word_hydrate_says_its_water_is_unstated(text):
+    # "hydrate" without a number: the water is unknown, and the molar mass leaves it out (as for CuCl2 hydrate)
+    row = score_formula(text)
+    assert row["status"] == "warning" and "not stated" in row["message"]
+    assert row["hydrate_water"] == 0
