@@ -202,6 +202,8 @@ class ElementParser:
         self.ions = ions
         self.allow_ion_refs = ions is not None
         self.ion_refs: list[tuple[str, float]] = []
+        # inside a square-bracketed complex at the top level ([Fe(C2O4)3]): its organic ligand anions are named
+        self.in_complex = False
         # hydrogens written D or T (parse_element_groups fills it): {"D": 4.0}
         self.isotopes: dict[str, float] = {}
 
@@ -247,16 +249,28 @@ class ElementParser:
                     ref = self.ion_reference()
                     if ref is not None:
                         continue
+                elif depth == 1 and self.in_complex and self.allow_ion_refs and self.organic_anion_group(anion=True):
+                    # an organic anion written out as a ligand of a bracketed complex ("(NH4)3[Fe(C2O4)3]"): named
+                    # for the solver as it is outside brackets, so that the complex reads as the metal and its
+                    # ligand anions (K3[Fe(C2O4)3] likewise), not recombined with the counter-ions' atoms
+                    if self.ion_reference() is not None:
+                        continue
                 opened_at = self.pos
                 self.pos += 1
+                complex_refs = len(self.ion_refs)
+                outer_complex, self.in_complex = self.in_complex, depth == 0 and ch == "["
                 inner = self.sequence(depth + 1, _OPEN[ch])
+                self.in_complex = outer_complex
                 if self.pos >= len(text):
                     self.pos = opened_at
                     raise self.error(f"unbalanced {ch!r}: no closing {_OPEN[ch]!r}")
-                if not inner:
+                if not inner and len(self.ion_refs) == complex_refs:
                     raise self.error("empty brackets")
                 self.pos += 1
                 multiplier = self.number() or 1.0
+                if len(self.ion_refs) > complex_refs and multiplier != 1.0:
+                    # the ligand anions named inside count once per complex: [Fe(C2O4)3]2 holds six
+                    self.ion_refs[complex_refs:] = [(i, n * multiplier) for i, n in self.ion_refs[complex_refs:]]
                 if inner == {"H": 2.0, "O": 1.0}:
                     # (H2O)n, also inside a complex ([Co(H2O)6]Cl2), is water:
                     # carried as a pseudo-element so outer counts multiply it
@@ -306,7 +320,7 @@ class ElementParser:
         end = self.text.find(closer, self.pos)
         return end > 0 and self.ions.find_abbreviation(self.text[self.pos + 1:end]) is not None
 
-    def organic_anion_group(self) -> bool:
+    def organic_anion_group(self, anion: bool = False) -> bool:
         """``UO2(CH3COO)2``, ``VO(CH3CO2)2``: a round bracket holding, exactly as written, an organic anion of the
         library (acetate, formate, benzoate...): the formula writes that ion out, as ``(OAc)2`` names it, and
         the solver takes it as given rather than recombining its atoms with the cation's (uranyl acetate was
@@ -321,7 +335,7 @@ class ElementParser:
         ion = self.ions.find_alias(content, exact_case=True)
         # and an alkylammonium written out with its NH3 ("(C4H9NH3)2PbI4"): butylammonium, not its isomer
         # tetramethylammonium, which the composition alone also fits
-        return ion is not None and ion.organic and (ion.charge < 0 or content.endswith("NH3"))
+        return ion is not None and ion.organic and (ion.charge < 0 or (not anion and content.endswith("NH3")))
 
     def abbreviation_tail(self) -> bool:
         """``LiNTf2``, ``NaOTf``: the rest of the text is an abbreviation, not a formula."""

@@ -720,6 +720,34 @@ def _has_both_signs(terms) -> bool:
     return any(ion.charge > 0 for ion, _ in terms) and any(ion.charge < 0 for ion, _ in terms)
 
 
+def _written_ligand_states(comp: ParsedFormula, counts: dict[str, float], charge: int):
+    """Oxidation states of a complex ion written with its ligand anions named ("[Fe(C2O4)3]3-",
+    "Fe(C2O4)3^3-"): each named ion's own states, and the elements left (the metal) balanced by the charge the
+    named ions leave: Fe +3 in tris(oxalato)ferrate(III), where electronegativity alone gave C +4 and Fe -3.
+    None when no ion is named, or the rest shares an element with a named ion.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> comp = parse_formula("[Fe(C2O4)3]3-")
+    >>> _written_ligand_states(comp, dict(comp.counts), comp.charge)
+    (('Fe', 3.0),)
+    """
+    if not comp.ion_hints:
+        return None
+    rest = dict(counts)
+    states: list[tuple[str, float]] = []
+    left = float(charge)
+    for ion_id, n in comp.ion_hints:
+        ion = get_ion(ion_id)
+        for symbol, k in ion.composition:
+            rest[symbol] = rest.get(symbol, 0.0) - k * n
+        left -= ion.charge * n
+        states.extend(ion.oxidation_states)
+    rest = {s: n for s, n in rest.items() if abs(n) > _TOL}
+    if not rest or any(n < 0 for n in rest.values()) or rest.keys() & {s for s, _ in states}:
+        return None
+    return tuple(states) + tuple(formal_oxidation_states(rest, left))
+
+
 def _lone_ion(comp: ParsedFormula, counts: dict[str, float], notes: list[str]) -> Decomposition:
     charge = comp.charge
     candidates = ions_by_composition(counts, charge)
@@ -734,7 +762,7 @@ def _lone_ion(comp: ParsedFormula, counts: dict[str, float], notes: list[str]) -
         notes.append(f"{comp.hill} with charge {charge:+d} is not an ion of the library")
         return Decomposition(
             composition=tuple(counts.items()),
-            oxidation_states=formal_oxidation_states(counts, charge),
+            oxidation_states=_written_ligand_states(comp, counts, charge) or formal_oxidation_states(counts, charge),
             substance_class="ion",
             notes=tuple(notes),
         )
