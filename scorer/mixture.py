@@ -455,6 +455,9 @@ def read_mixture(text: str, score_row) -> Mixture | SameCompound | str | None:
         return str(exc)
     if mixture_text is None:
         return None if blend is None else f"the blend {blend[0]!r} is defined as {blend[1]!r}, which is not mixture notation"
+    if any(" ".join(part.split()) == " ".join(text_to_read.split()) for part in mixture_text.parts):
+        # a component that is the whole text would be scored by asking this reader again, without end
+        return None
     components = []
     for part in mixture_text.parts:
         if fusion_rows().get(blend_key(part)) is None:

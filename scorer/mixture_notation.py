@@ -350,6 +350,10 @@ def read_mixture_text(text: str) -> MixtureText | None:
         # "NaOH-H2O (1:1)"), or a dash before another molecule ("H2SO4-H2O2"), it is a mixture
         return None
     names, leading, leading_basis, balance_note = _leading_amounts(parts)
+    if len(names) < 2:
+        # one component is no mixture: a name with commas and a ratio in brackets read as one list item
+        # ("phosphoric acid, aluminum salt (1:1), dihydrate", the CAS index's inverted name) goes to the name reader
+        return None
     if leading and amounts:
         raise MixtureNotationError(f"{text!r} gives both leading amounts and proportions after the components; give one")
     if leading:

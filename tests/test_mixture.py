@@ -343,3 +343,18 @@ def test_the_word_eutectic_takes_the_published_point(text):
 def test_a_eutectic_without_a_published_point_asks_for_proportions():
     r = score_formula("CsCl-RbCl eutectic")
     assert r["status"] == "error" and "no published eutectic" in r["message"]
+
+
+@pytest.mark.parametrize("text, normalized, hill", [
+    # the CAS index's inverted names with the acid-to-metal ratio in brackets and a hydrate word after a comma
+    # (common practice of the registry's name tables): one compound, not a list; the first raised RecursionError
+    # (the mixture reader took the whole text for its one component and asked itself again)
+    ("phosphoric acid, aluminum salt (1:1), dihydrate", "AlPO4·2H2O", "AlPO4(H2O)2"),
+    ("sulfuric acid, europium(3+) salt (3:2), octahydrate", "Eu2(SO4)3·8H2O", "Eu2(SO4)3(H2O)8"),
+])
+def test_an_inverted_name_with_a_ratio_and_a_hydrate_word_is_one_compound(text, normalized, hill):
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == normalized
+    # within 1e-4: the two packages' atomic weights of Eu differ by 0.01
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(hill).mass, rel=1e-4)
