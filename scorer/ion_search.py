@@ -144,19 +144,32 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     coverable = [frozenset()] * (len(candidates) + 1)
     for i in range(len(candidates) - 1, -1, -1):
         coverable[i] = coverable[i + 1] | {symbol for symbol, _ in candidates[i].composition}
+    # the same over the inorganic candidates only: once a reading holds an organic ion, the walk passes over
+    # every later organic candidate (one organic species per reading), so only these can still take an atom
+    coverable_inorganic = [frozenset()] * (len(candidates) + 1)
+    for i in range(len(candidates) - 1, -1, -1):
+        coverable_inorganic[i] = coverable_inorganic[i + 1] | (
+            frozenset() if candidates[i].organic else {symbol for symbol, _ in candidates[i].composition})
+    any_organic = any(ion.organic for ion in candidates)
     # per-atom charge range of each element (a relaxation: an ion's charge
     # shared evenly by its atoms, or the element's monatomic states): a branch
     # whose leftover atoms cannot carry the charge still needed is cut, so a
     # formula with no reading is found out without visiting every combination
     per_atoms = [ion.charge / sum(k for _, k in ion.composition) for ion in candidates]
     shares = [dict(_monatomic_shares(tuple(remaining)))]
+    shares_inorganic = [shares[0]] if any_organic else shares
     for ion, per_atom in zip(reversed(candidates), reversed(per_atoms)):
-        share = dict(shares[-1])
-        for symbol, _ in ion.composition:
-            lo, hi = share.get(symbol, (float("inf"), float("-inf")))
-            share[symbol] = (min(lo, per_atom), max(hi, per_atom))
-        shares.append(share)
+        for table_ in ((shares, shares_inorganic) if any_organic and not ion.organic else (shares,)):
+            share = dict(table_[-1])
+            for symbol, _ in ion.composition:
+                lo, hi = share.get(symbol, (float("inf"), float("-inf")))
+                share[symbol] = (min(lo, per_atom), max(hi, per_atom))
+            table_.append(share)
+        if any_organic and ion.organic:
+            shares_inorganic.append(shares_inorganic[-1])
     shares.reverse()
+    if any_organic:
+        shares_inorganic.reverse()
     # the same relaxation with each candidate's capacity: the candidates holding each
     # element, by per-atom charge (``carried`` below)
     mono = dict(shares[-1])
@@ -187,7 +200,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             return None
         # a node's cost grows with the elements its charge check visits
         nodes += 1 + len(left)
-        share = shares[share_index]
+        organic_chosen = any_organic and any(c.organic for c, _ in chosen)
+        share = (shares_inorganic if organic_chosen else shares)[share_index]
         lo = hi = 0.0
         for symbol, n in left.items():
             s_lo, s_hi = share.get(symbol, _NO_SHARE)
@@ -199,7 +213,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             return None
         # a leftover element no later candidate contains becomes a monatomic
         # species of its own; the others need at least one more species
-        later = coverable[index]
+        later = (coverable_inorganic if organic_chosen else coverable)[index]
         alone = left.keys() - later
         floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
         # and each element left alone pays at least its cheapest monatomic option: a
@@ -251,8 +265,11 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         fits: dict[int, int] = {}
         lo = hi = 0.0
         room = float("inf")
+        # with an organic ion chosen, no later organic candidate takes part (one organic species per reading)
+        organic_chosen = any_organic and any(c.organic for c, _ in chosen)
+        cover = coverable_inorganic if organic_chosen else coverable
         if bound[0] < float("inf"):
-            alone = left.keys() - coverable[index]
+            alone = left.keys() - cover[index]
             least = [least_of[symbol] for symbol in alone]
             floor = cost + _PENALTY_SPECIES * (len(chosen) + len(alone) + (1 if len(left) > len(alone) else 0))
             room = bound[0] + _TOL - floor - sum(least)
@@ -261,7 +278,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         for symbol, n in left.items():
             single = mono.get(symbol)
             if single is not None and room < float("inf"):
-                single = _within_room(symbol, room + (least_of[symbol] if symbol not in coverable[index] else 0.0))
+                single = _within_room(symbol, room + (least_of[symbol] if symbol not in cover[index] else 0.0))
             highest = ordered_holders.get(symbol)
             if highest is None:
                 highest = ordered_holders[symbol] = sorted(holders.get(symbol, ()), key=lambda h: -h[0])
@@ -270,7 +287,7 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
                 rest = n
                 total = 0.0
                 for per_atom, i, k in ordered:
-                    if i < index:
+                    if i < index or organic_chosen and candidates[i].organic:
                         continue
                     if single is not None and (per_atom <= single[1] if side else per_atom >= single[0]):
                         break
