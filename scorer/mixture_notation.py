@@ -165,7 +165,14 @@ _BRACKETED_BASIS = re.compile(r"\s*\(\s*(wt|mol|w/w|molar|mole|weight|mass)\.?\s
 def _listed_components(text: str) -> str:
     """``text`` with a list's joiners written as " + " where every item is a formula (with its amount or not);
     ``text`` unchanged otherwise (a name followed by grade words, "Sodium chloride, ACS reagent", stays)."""
-    items = _LIST_JOINER.split(text.strip())
+    body, ratio = text.strip(), ""
+    for pattern in (_BRACKETED, _TRAILING):
+        m = pattern.search(body)
+        if m and m.start() > 0:
+            # the proportions after the list ("NaCl, KCl (1:1)", "NaCl and KCl 60:40 wt%") stay after it
+            body, ratio = body[: m.start()], body[m.start():]
+            break
+    items = _LIST_JOINER.split(body.strip())
     if len(items) < 2:
         return text
     for item in items:
@@ -173,7 +180,7 @@ def _listed_components(text: str) -> str:
         if not core or not _FORMULA_LIKE.fullmatch(core) or re.search(r"[a-z]{3}", core) or not all(
                 is_element_symbol(s) for s in re.findall(r"[A-Z][a-z]?", re.sub(r"\[[^\]]*\]", "", core))):
             return text  # a word or unit that is no formula ("2.5L", "ACS reagent")
-    return " + ".join(item.strip() for item in items)
+    return " + ".join(item.strip() for item in items) + ratio
 
 
 def normalised_list(text: str) -> str:
@@ -181,6 +188,8 @@ def normalised_list(text: str) -> str:
 
     >>> normalised_list("NaCl and KCl"), normalised_list("50 mol% NaCl, 50 mol% KCl")
     ('NaCl + KCl', '50 mol% NaCl + 50 mol% KCl')
+    >>> normalised_list("NaCl, KCl (1:1)"), normalised_list("NaNO3; KNO3 60:40 wt%")
+    ('NaCl + KCl (1:1)', 'NaNO3 + KNO3 60:40 wt%')
     >>> normalised_list("NaNO3/KNO3 = 60/40 (wt)"), normalised_list("Sodium chloride, ACS reagent")
     ('NaNO3/KNO3 60/40 wt%', 'Sodium chloride, ACS reagent')
     """

@@ -47,7 +47,7 @@ import dataclasses
 import re
 
 from ionicity.scorer.caching import once, per_input
-from ionicity.scorer.elements import is_metal
+from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
@@ -236,6 +236,25 @@ _CAS_QUALIFIERS = re.compile(r",?\s*\((?:\d+CI,?\s*)+\)|,?\s*\((?:T|OC|SP|TB|SPY
 _CAS_HYDRATE = re.compile(r",?\s*hydrate\s*\(1:(\d+(?:\.\d+)?)\)", re.I)
 # a formula written in the name: "magnesium chloride (MgCl2)", "iron fluoride (FeF2), tetrahydrate", and after a
 # comma as stock lists write it: "Potassium nitrate, KNO3"
+_WORD_TOKEN = re.compile(r"(?<![A-Za-z0-9])[A-Z][A-Za-z0-9]*")
+
+
+def _holds_a_formula(text: str) -> bool:
+    """Whether ``text`` holds a word that is a formula of two or more element symbols or with a count (NaCl,
+    KCl, H2O), not a name's capitalised word ("Iron"), a Stock numeral ("III") or a grade code ("ACS").
+
+    >>> _holds_a_formula("NaCl,, LiCl (30-20-50 mol%)"), _holds_a_formula("Iron(III) chloride, ACS")
+    (True, False)
+    """
+    for token in _WORD_TOKEN.findall(text):
+        if re.fullmatch(r"[IVX]+", token) or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", token):
+            continue
+        symbols = re.findall(r"[A-Z][a-z]?", token)
+        if (len(symbols) > 1 or re.search(r"\d", token)) and all(is_element_symbol(x) for x in symbols):
+            return True
+    return False
+
+
 _STATED = re.compile(r"(?<=\s)\(([A-Z][A-Za-z0-9().]*)\)|(?<=,)\s*([A-Z][A-Za-z0-9().·]*)\s*(?=,|$)")
 # the CAS index's inverted names: "nitric acid, manganese(2+) salt, tetrahydrate",
 # "sulfuric acid, europium(3+) salt (3:2)" (acid to metal)
@@ -258,6 +277,10 @@ def _stated_formula(name: str) -> str | None:
             parse_formula(text)
         except FormulaError:
             continue
+        if _holds_a_formula(name[: match.start()] + " " + name[match.end():]):
+            # another formula beside it: a list of compounds ("NaCl, KCl, LiCl (30-20-50 mol%)"), not a name
+            # that states its own
+            return None
         rest = compact(name[: match.start()] + " " + name[match.end():])
         _, water = _split_hydrate_word(rest)
         if water is None and rest.endswith("hydrate"):

@@ -348,6 +348,18 @@ def test_a_list_of_formulas_is_a_mixture_of_unstated_proportions(text):
     assert row["substance_class"] == "mixture" and "no proportions given" in row["message"]
 
 
+@pytest.mark.parametrize("text, fractions", [
+    # a list with its proportions after it (common practice in formulators' sheets); the three-component one
+    # was read as KCl alone, the middle formula taken for the one a name states
+    ("NaCl, KCl (1:1)", [0.5, 0.5]), ("NaCl; KCl (1:1)", [0.5, 0.5]), ("NaCl and KCl (1:1)", [0.5, 0.5]),
+    ("NaCl, KCl, LiCl (30-20-50 mol%)", [0.3, 0.2, 0.5]),
+])
+def test_a_list_with_its_proportions_after_it_is_that_mixture(text, fractions):
+    row = score_formula(text)
+    assert row["substance_class"] == "mixture" and row["status"] == "ok"
+    assert _mole_fractions(row) == pytest.approx(fractions)
+
+
 @pytest.mark.parametrize("text", ["Sodium chloride, ACS reagent, 99%", "NaCl, 500 g", "Fe2O3, hematite"])
 def test_grade_words_after_a_comma_are_no_list(text):
     assert score_formula(text)["substance_class"] != "mixture"
