@@ -40,7 +40,8 @@ from ionicity.scorer.elements import is_metal
 from ionicity.scorer.model import Decomposition, Ion, IonTerm, format_charge
 from ionicity.scorer.tables import table
 
-__all__ = ["LIGAND_SOURCE", "is_ligand", "ligand_compositions", "written_ligands", "WEAKLY_COORDINATING_ANIONS"]
+__all__ = ["LIGAND_SOURCE", "is_ligand", "ligand_abbreviation", "ligand_compositions", "ligand_spellings",
+           "written_ligands", "WEAKLY_COORDINATING_ANIONS"]
 
 LIGAND_SOURCE = (
     "constructed by rule (scorer/coordination.py), not from the ion library: the metal with the neutral ligands"
@@ -74,6 +75,16 @@ def ligand_compositions() -> dict[str, tuple[tuple[str, float], ...]]:
             counts[m.group(1)] = counts.get(m.group(1), 0.0) + float(m.group(2) or 1)
         out[abbreviation] = tuple(sorted(counts.items()))
     return out
+
+
+def ligand_spellings() -> tuple[str, ...]:
+    """Every abbreviation and alias of ``ligands.csv``."""
+    return tuple(_ligand_table())
+
+
+def ligand_abbreviation(spelling: str) -> str:
+    """The abbreviation of the ligand a spelling names (``THF`` -> ``thf``)."""
+    return _ligand_table()[spelling][0]
 
 
 def is_ligand(spelling: str) -> bool:

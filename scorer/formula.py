@@ -38,8 +38,15 @@ from dataclasses import dataclass, field
 
 from ionicity.scorer import ion_library
 from ionicity.scorer.abbreviations import expand_abbreviations
-from ionicity.scorer.coordination import coordination_hint, is_ligand, ligand_compositions, written_ligands
-from ionicity.scorer.caching import per_input
+from ionicity.scorer.coordination import (
+    coordination_hint,
+    is_ligand,
+    ligand_abbreviation,
+    ligand_compositions,
+    ligand_spellings,
+    written_ligands,
+)
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import get_element, is_element_symbol, is_metal, metal_symbols
 from ionicity.scorer.grammar import (
     CLOSE_BRACKETS as _CLOSE,
@@ -707,6 +714,21 @@ def _hydrate_salt(text: str) -> tuple[ParsedFormula, float] | None:
     return salt, sum(n for _, n in salt.counts)
 
 
+@once
+def _adduct_ligands() -> dict[str, str]:
+    """Spelling -> abbreviation of the neutral ligands of ``ligands.csv`` read after an adduct dot, as written
+    and as the alkyl and aryl abbreviations are expanded before the dot's parts are read (SMe2 is S(CH3)2 by
+    then); carbon monoxide aside, an element formula whose reading stays as it was (CO)."""
+    out = {}
+    for spelling in ligand_spellings():
+        name = ligand_abbreviation(spelling)
+        if name == "CO":
+            continue
+        out[spelling] = name
+        out.setdefault(expand_abbreviations(spelling)[0], name)
+    return out
+
+
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     body, charge, charge_note = _split_charge(cleaned)
     if not body:
@@ -731,6 +753,17 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             component = component[m.end():]
             if not component:
                 raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
+        if index > 0 and component in _adduct_ligands():
+            # a neutral ligand or solvent after the dot, written by its code ("LiCl·2THF", "CuBr·SMe2",
+            # "BH3·THF"): that molecule (THF read as an element formula was tritium, hydrogen and fluorine).
+            # Beside a metal salt it is set apart as an adduct, as water is; beside a molecule (BH3·THF,
+            # BF3·OEt2) the two are one molecular complex, read as a whole
+            name = _adduct_ligands()[component]
+            if any(is_metal(symbol) for symbol in totals):
+                adducts[name] = adducts.get(name, 0.0) + multiplier
+            for symbol, n in ligand_compositions()[name]:
+                totals[symbol] = totals.get(symbol, 0.0) + n * multiplier
+            continue
         counted, ion_refs, written_heavy = _component(component)
         for symbol, n in written_heavy.items():
             isotopes[symbol] = isotopes.get(symbol, 0.0) + n * multiplier

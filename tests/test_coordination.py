@@ -152,7 +152,7 @@ REGISTRY_LIGAND_NAMES = {
     "dppp": "1,3-bis(diphenylphosphino)propane", "dppm": "bis(diphenylphosphino)methane",
     "cod": "1,5-cyclooctadiene", "nbd": "norbornadiene", "dba": "dibenzylideneacetone", "MeCN": "acetonitrile",
     "PhCN": "benzonitrile", "thf": "tetrahydrofuran", "dmso": "dimethyl sulfoxide", "dmf": "dimethylformamide",
-    "CO": "carbon monoxide",
+    "CO": "carbon monoxide", "Et2O": "diethyl ether", "SMe2": "dimethyl sulfide",
 }
 
 
@@ -198,3 +198,31 @@ def test_a_lone_complex_ion_gives_its_metal_the_state_its_named_ligands_leave(te
     row = score_formula(text)
     assert row["substance_class"] == "ion"
     assert _state(row, metal[0]) == metal[1]
+
+
+@pytest.mark.parametrize("text, normalized, hill, cation", [
+    # a salt with a neutral solvent or ligand after the dot, written by its code (common practice): the molecule
+    # is set apart as water is; formula masses from the registry package molmass. "LiCl·THF" was read with
+    # tritium and fluorine ("did you mean LiCl2·THF?"), CuBr·SMe2 and MgBr2·OEt2 had no charge-balanced reading
+    ("LiCl·THF", "LiCl·thf", "LiCl(C4H8O)", "Li(+)*1"),
+    ("LiCl·2THF", "LiCl·2thf", "LiCl(C4H8O)2", "Li(+)*1"),
+    ("CuBr·SMe2", "CuBr·SMe2", "CuBr(C2H6S)", "Cu(+)*1"),
+    ("MgBr2·OEt2", "MgBr2·Et2O", "MgBr2(C4H10O)", "Mg(2+)*1"),
+])
+def test_a_salt_with_a_solvent_code_after_the_dot_sets_the_solvent_apart(text, normalized, hill, cation):
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert row["status"] != "error", row["message"]
+    assert row["formula_normalized"] == normalized and row["cations"] == cation
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(hill).mass, abs=0.02)
+
+
+@pytest.mark.parametrize("text, hill", [("BH3·THF", "C4H11BO"), ("BF3·OEt2", "C4H10BF3O")])
+def test_a_molecule_with_a_solvent_code_after_the_dot_is_one_molecular_complex(text, hill):
+    # borane-THF and boron trifluoride etherate: liquids (common practice); "BH3·THF" was read as BH4TF, with
+    # tritium and fluorine, and status ok
+    row = score_formula(text)
+    assert row["substance_class"] == "covalent_molecular"
+    assert hill_formula(dict(parse_formula(row["formula_normalized"]).counts)) == hill_formula(
+        dict(parse_formula(hill).counts))
+    assert row["melting_class"] == "liquid_at_room_temperature"

@@ -44,7 +44,7 @@ ROWS = {
     "material_codes.csv": 35,
     "trivial_names.csv": 221,
     "solution_names.csv": 19,
-    "ligands.csv": 28,
+    "ligands.csv": 30,
     "registry_names.csv": 13415,
     "fusion.csv": 38,
     "blends.csv": 13,
