@@ -263,6 +263,30 @@ def _group_valence(symbol: str) -> int | None:
     return None
 
 
+# pnictogens whose s-block compounds below the -3 of the salts hold chains and pairs (Zintl-Klemm)
+_ZINTL_PNICTOGENS = frozenset({"P", "As", "Sb", "Bi"})
+
+
+def _pnictogen_polyanion_charge(counts: dict[str, float]) -> int | None:
+    """The charge per atom (-1 or -2) of a pnictogen that takes all the valence electrons of the s-block metals
+    beside it, when that is below the -3 of a salt: NaSb and LiAs hold chains of Sb(-) and As(-) (each atom
+    with two bonds to its own kind, isoelectronic with Te and Se), CaP and SrAs dumbbells of P(2-), As(2-)
+    (8-N rule; Zintl 1939; Schaefer, Eisenmann & Mueller, Angew. Chem. Int. Ed. 1973, 12, 694; from memory).
+    None otherwise (K3Sb, Mg3Sb2 are read by the ion solver as salts of Sb(3-)).
+
+    >>> _pnictogen_polyanion_charge({"Na": 1.0, "Sb": 1.0}), _pnictogen_polyanion_charge({"K": 3.0, "Sb": 1.0})
+    (-1, None)
+    """
+    acceptors = [s for s in counts if _group_valence(s) is None]
+    if len(acceptors) != 1 or acceptors[0] not in _ZINTL_PNICTOGENS or len(counts) < 2:
+        return None
+    b = acceptors[0]
+    electrons = sum(_group_valence(s) * n for s, n in counts.items() if s != b)
+    charge = -electrons / counts[b]
+    q = round(charge)
+    return q if abs(charge - q) < 1e-9 and q in (-1, -2) else None
+
+
 def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tuple = ()) -> Decomposition | None:
     """The reading of metals with each other or with B, Si, Ge; None for
     other compositions (which the ion solver reads).
@@ -286,7 +310,8 @@ def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tu
     if len(symbols) < 2 or not any(is_metal(s) for s in symbols):
         return None
     interstitial = interstitial_reason(counts)
-    if interstitial is None and not all(is_metal(s) or s in METAL_RICH_PARTNERS for s in symbols):
+    if interstitial is None and not all(is_metal(s) or s in METAL_RICH_PARTNERS for s in symbols) and \
+            _pnictogen_polyanion_charge(counts) is None:
         return None
     base = dict(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral)
     family = structural_family(counts)

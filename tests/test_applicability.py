@@ -150,6 +150,13 @@ def test_simple_salts_apply(formula):
     ("CsAu", "Cs(+)*1", "Au(-)*1", "Jansen 2008: caesium auride"),
     ("Mg2Si", "Mg(2+)*2", "Si(4-)*1", "Nesper 1991: anti-fluorite Mg2Si"),
     ("LiAl", "Li(+)*1", "Al(-)*1", "Nesper 1991: NaTl-type LiAl"),
+    # pnictides below the -3 of a salt (errors before: "no charge-balanced set of ions"): helical chains of
+    # Sb(-), As(-), P(-) in NaSb, KSb, LiAs, LiP; P2(4-) dumbbells in CaP (Schaefer, Eisenmann & Mueller, Angew.
+    # Chem. Int. Ed. 1973, 12, 694; from memory)
+    ("NaSb", "Na(+)*1", "Sb(-)*1", "Schaefer et al. 1973: Sb(-) chains"),
+    ("KSb", "K(+)*1", "Sb(-)*1", "Schaefer et al. 1973: Sb(-) chains"),
+    ("LiAs", "Li(+)*1", "As(-)*1", "Schaefer et al. 1973: As(-) chains"),
+    ("CaP", "Ca(2+)*1", "P(2-)*1", "Schaefer et al. 1973: P2(4-) dumbbells"),
 ])
 def test_zintl_phases_have_their_ions(formula, cations, anions, source):
     r = score_formula(formula)
@@ -158,6 +165,13 @@ def test_zintl_phases_have_their_ions(formula, cations, anions, source):
     assert r["ionic_model"] == "not_applicable"
     assert math.isnan(r["lattice_energy_vbt_kJ_mol"])
     assert r["bond_type"] == "metallic_ionic"
+
+
+@pytest.mark.parametrize("formula", ["K3Sb", "Li3P", "Mg3Sb2"])
+def test_pnictides_at_minus_three_keep_their_reading(formula):
+    # the salts of the pnictide(3-) ions are read as before by the ion solver, not by the chain rule
+    r = score_formula(formula)
+    assert r["status"] == "ok" and "(3-)" in r["anions"]
 
 
 @pytest.mark.parametrize("formula", ["Cu3Au", "Fe2B", "MgB2", "FeSi", "Ni3Al"])
