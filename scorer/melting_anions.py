@@ -281,9 +281,10 @@ def coordinating_organic_anion_fraction(cations, anions) -> float:
 # weight for them was tried and not kept (datasets/melting/README.md)
 # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997: peroxides and superoxides lose O2,
 # ch. 14.2; hydrogencarbonates lose CO2 and water, ch. 8.6; hydrogensulfites, disulfites and dithionites
-# lose SO2, ch. 15.2; hypochlorites and chlorites disproportionate, ch. 17.2; from memory)
+# lose SO2, ch. 15.2; hypochlorites, chlorites and bromites disproportionate, ch. 17.2; from memory)
 DECOMPOSING_ANIONS = frozenset({
-    "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)", "S2O5(2-)",
+    "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "BrO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)",
+    "S2O5(2-)",
 })
 
 # anions whose salts decompose violently on heating, shock or friction: azides lose N2 (sodium azide near
@@ -299,7 +300,8 @@ ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)", "N(NO2)2(-)"})
 # 2nd ed., 1997, ch. 11.3.7 and 17.2.5; Bretherick's Handbook of Reactive Chemical Hazards; from memory): a
 # note and the caution on the melting trend, never a weight
 OXIDISING_ANIONS = frozenset({
-    "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)", "CrO4(2-)",
+    "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)",
+    "CrO4(2-)",
     "N(NO2)2(-)",
 })
 FUEL_CATIONS = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})

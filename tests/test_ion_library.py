@@ -488,3 +488,26 @@ def test_hexasulfides_read_as_polysulfide_salts(formula):
     from ionicity.scorer.record import score_formula
     out = score_formula(formula)
     assert out["anions"] == "S6(2-)*1" and "S:-0.333" in out["oxidation_states"]
+
+
+@pytest.mark.parametrize("text, anion, states", [
+    # lithium difluorophosphate (an electrolyte additive), sodium bromite, caesium dibromidoiodate(I): the
+    # anions' central atoms P(V), Br(III), I(I) (Greenwood & Earnshaw, 2nd ed., 1997, ch. 12, 17; IUPAC Red Book
+    # 2005, IR-9; from memory); all three were "no charge-balanced set of ions"
+    ("LiPO2F2", "PO2F2(-)*1", {"P": 5.0, "F": -1.0}),
+    ("NaBrO2", "BrO2(-)*1", {"Br": 3.0}),
+    ("CsIBr2", "IBr2(-)*1", {"I": 1.0, "Br": -1.0}),
+])
+def test_difluorophosphate_bromite_and_dibromidoiodate_salts(text, anion, states):
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["anions"] == anion
+    got = {s: float(v) for s, v in (part.split(":") for part in row["oxidation_states"].split(";"))}
+    assert all(got[s] == v for s, v in states.items())
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(text).mass, abs=0.02)
+
+
+def test_an_organic_bromide_is_no_bromite():
+    # acetylcholine bromide, C7H16BrNO2 (the registry package chemicals lists the formula only as that salt)
+    from ionicity.scorer.record import score_formula
+    assert score_formula("C7H16BrNO2")["anions"] == "Br(-)*1"
