@@ -393,6 +393,17 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
                 oxidation_states=tuple((s, 0.0) for s in counts), substance_class="intermetallic",
                 ionic_model="not_applicable", ionic_model_reasons=(metal_rich,),
             )
+    if comp.structure_hint == "ammonium" and (
+            "C" not in counts or counts.get("H", 0.0) <= 4 * counts.get("N", 0.0) + _TOL) and not _holds_ammonium(readings):
+        # NH4 written in an inorganic formula (no hydrogen beyond the ammonium's, so no organic skeleton: an
+        # ammonium salt of an organic acid the library does not list, NH4HC4H4O6, stays as it was) that no
+        # reading balances with the ammonium ion: a count left out (NH4SO4 for (NH4)2SO4 or NH4HSO4, NH4PO4 for
+        # (NH4)3PO4, NH4CO3), not a molecule with S(-2) and O(+1/4) nor hydroxylammonium metaphosphate
+        notes.append("no charge-balanced set of ions found: check the formula (counts, charges, a missing element);"
+                     " the NH4 written is an ammonium ion in no reading that balances (a count left out?"
+                     + _ammonium_count_proposal(counts) + ")")
+        return Decomposition(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
+                             substance_class="unknown", notes=tuple(notes))
     if not readings:
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
@@ -539,6 +550,26 @@ _WOEHLER_ANIONS = frozenset({"OCN(-)", "CNO(-)", "SCN(-)", "SeCN(-)"})
 
 # a basic nitrogen anion and the ammonium ions that neutralise it: NH2(-) + NH4(+) = 2 NH3, N(3-) + 3 NH4(+) = 4 NH3
 _AMMONIUM_BASES = {"NH2(-)": 1, "NH(2-)": 2, "N(3-)": 3}
+
+
+def _ammonium_count_proposal(counts: dict[str, float]) -> str:
+    """`` did you mean (NH4)2SO4?`` when the atoms beside one NH4 are a library anion of charge -2 to -4, so that
+    the ammonium count was left out; ``""`` otherwise.
+
+    >>> _ammonium_count_proposal({"H": 4.0, "N": 1.0, "O": 4.0, "S": 1.0})
+    ' did you mean (NH4)2SO4?'
+    """
+    rest = _subtract(counts, (("H", 4.0), ("N", 1.0)), 1.0)
+    for charge in (-2, -3, -4):
+        found = [ion for ion in ions_by_composition(rest, charge) if not ion.organic]
+        if found:
+            return f" did you mean (NH4){-charge}{found[0].label}?"
+    return ""
+
+
+def _holds_ammonium(readings) -> bool:
+    """Whether any reading ((penalty, [(Ion, count), ...]) pairs) holds the ammonium ion."""
+    return any(ion.ion_id == "NH4(+)" for reading in readings for ion, _ in reading[1])
 
 
 def _ammine_ligands(cations, anions) -> float:

@@ -497,3 +497,19 @@ def test_disodium_edta_is_the_dihydrogen_edetate_salt_read_without_the_work_limi
     water = 2 if "2H2O" in text else 0
     assert row["molar_mass_g_mol"] == pytest.approx(
         molmass.Formula("C10H14N2Na2O8" + (f"(H2O){water}" if water else "")).mass, abs=0.02)
+
+
+@pytest.mark.parametrize("text, proposal", [
+    # the ammonium count left out (common practice of typing slips): NH4SO4 was a molecule with S(-2) and
+    # O(+0.25), status ok; NH4PO4 hydroxylammonium metaphosphate, status ok
+    ("NH4SO4", "(NH4)2SO4"), ("NH4PO4", "(NH4)3PO4"), ("NH4CO3", "(NH4)2CO3"), ("NH4Cr2O7", "(NH4)2Cr2O7"),
+])
+def test_a_written_ammonium_that_balances_nowhere_is_an_error_that_proposes_the_count(text, proposal):
+    row = score_formula(text)
+    assert row["status"] == "error"
+    assert f"did you mean {proposal}?" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["NH4HSO4", "(NH4)2SO4", "NH4HC4H4O6", "NH4SCN", "NH4ClO"])
+def test_ammonium_salts_that_balance_and_organic_acid_salts_are_not_affected(text):
+    assert score_formula(text)["status"] != "error"
