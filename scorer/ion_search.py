@@ -7,6 +7,7 @@ from __future__ import annotations
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, _WORK, _assign_monatomic, _within_reach
+from ionicity.scorer.elements import get_element
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_penalties import (
     _IONIC_THRESHOLD,
@@ -66,10 +67,21 @@ def _monatomic_shares(symbols: tuple[str, ...]) -> tuple[tuple[str, tuple[float,
     return tuple(out)
 
 
+# superoxide and ozonide: ions of the salts of the heavy alkali and alkaline-earth metals alone (KO2, CsO3,
+# Ba(O2)2; tetramethylammonium superoxide among the organic cations), oxidants no reducing cation or other anion
+# keeps beside it (Greenwood & Earnshaw, 2nd ed., 1997, ch. 14.2.2; from memory): KCr2O7 was read as chromium(II)
+# superoxide
+_SUPEROXO_IONS = frozenset({"O2(-)", "O3(-)"})
+_SUPEROXO_PARTNERS = frozenset({"O", "C", "H", "N"})
+
+
 @per_input(maxsize=4096)
 def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
-    """Polyatomic library ions made only of the elements ``present``."""
-    return tuple(ion for ion, elements in _polyatomic_ions() if elements <= present)
+    """Polyatomic library ions made only of the elements ``present`` (superoxide and ozonide only beside the
+    s-block metals, :data:`_SUPEROXO_IONS`)."""
+    superoxo = all(s in _SUPEROXO_PARTNERS or get_element(s).block == "s" for s in present)
+    return tuple(ion for ion, elements in _polyatomic_ions()
+                 if elements <= present and (superoxo or ion.ion_id not in _SUPEROXO_IONS))
 
 
 @per_input(maxsize=4096)
