@@ -543,6 +543,13 @@ def subvalent_notes(cations) -> list[str]:
     out = []
     for term in cations:
         ion = term.ion
+        if ion.monatomic and ion.charge == 2 and ion.element in ("Al", "Ga", "In"):
+            # group 13 has no M(2+) ion (GaCl2 is Ga(+)[GaCl4](-), read so by the solver; Greenwood & Earnshaw,
+            # ch. 7.3.5; from memory): AlSO4 balances only with Al(2+), a count left out of Al2(SO4)3. Thallium
+            # aside: TlS and TlSe are Tl(I)Tl(III) chalcogenides the solver reads as Tl(2+)
+            out.append(f"{ion.ion_id} is not a state {ion.element} takes in its salts (group 13 has no M(2+) ion):"
+                       " a count may be missing from the formula as written; check it")
+            continue
         if not ion.monatomic or ion.charge != 1 or ion.element in _MONOVALENT_SALT_FORMERS:
             continue
         main = [state for state, extra in listed_states(ion.element) if not extra and state > 0]

@@ -520,6 +520,7 @@ def _readings(remaining, hinted, notes: list[str], excluded=frozenset(), budget=
 # and Tl(2+), whose readings are calibration rows of the melting index (HgCl, TlSe): changing them
 # moves the fitted weights (DEVELOPERS.md, "Group 13 and paired cations")
 _PAIRED_CATIONS = frozenset({"Al(2+)", "Ga(2+)", "In(2+)"})
+_GROUP_13_PAIRED = frozenset({"Al", "Ga", "In"})
 
 
 def _paired_reading(remaining: dict[str, float], penalty: float, budget, notes: list[str]):
@@ -540,6 +541,10 @@ def _paired_reading(remaining: dict[str, float], penalty: float, budget, notes: 
     if better is None or better[3] >= penalty - _TOL:
         return None
     cations, anions, alternatives, _ = better
+    if not any(t.ion.monatomic and t.ion.charge == 1 and t.ion.element in _GROUP_13_PAIRED for t in cations):
+        # the doubled unit is read for the M(+)[MX4](-) of group 13; a doubled unit without M(+) is no such
+        # salt (AlSO4, a count left out of Al2(SO4)3, read as Al2O(SO3)(SO4) with status ok)
+        return None
     return ([IonTerm(t.ion, t.count / 2) for t in cations], [IonTerm(t.ion, t.count / 2) for t in anions],
             alternatives)
 

@@ -513,3 +513,22 @@ def test_a_written_ammonium_that_balances_nowhere_is_an_error_that_proposes_the_
 @pytest.mark.parametrize("text", ["NH4HSO4", "(NH4)2SO4", "NH4HC4H4O6", "NH4SCN", "NH4ClO"])
 def test_ammonium_salts_that_balance_and_organic_acid_salts_are_not_affected(text):
     assert score_formula(text)["status"] != "error"
+
+
+@pytest.mark.parametrize("text, slip", [
+    # a count left out that leaves a metal in a state its salts never hold (common practice of typing slips;
+    # group 13 has no M(2+) ion: Greenwood & Earnshaw, 2nd ed., 1997, ch. 7.3.5, from memory). AlSO4 was read as
+    # Al2O(SO3)(SO4), status ok; KCr2O7 as chromium(II) superoxide, status ok
+    ("AlSO4", "Al(2+) is not a state Al takes"),
+    ("KCr2O7", "did you mean K2Cr2O7?"),
+])
+def test_a_missing_count_is_said_rather_than_read_as_an_odd_salt(text, slip):
+    row = score_formula(text)
+    assert row["status"] in ("warning", "error") and slip in row["message"]
+
+
+@pytest.mark.parametrize("text, cations", [("GaCl2", "Ga(+)*0.5"), ("KO2", "K(+)*1"), ("CsO3", "Cs(+)*1")])
+def test_gallium_dichloride_and_the_alkali_superoxides_keep_their_readings(text, cations):
+    # Ga(+)[GaCl4](-) (Greenwood & Earnshaw ch. 7.3.5); KO2 potassium superoxide, CsO3 caesium ozonide (ch. 14.2)
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["cations"] == cations
