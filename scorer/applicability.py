@@ -267,6 +267,13 @@ def _group_valence(symbol: str) -> int | None:
 _ZINTL_PNICTOGENS = frozenset({"P", "As", "Sb", "Bi"})
 
 
+def _pnictide_donor_valence(symbol: str) -> int | None:
+    """The electrons a metal gives a pnictogen polyanion: the s-block metals their group's, zinc, cadmium and
+    mercury their two (ZnP2 and CdAs2 hold P(-) and As(-) chains, ZnSb and CdSb Sb2(4-) pairs, semiconductors
+    of the Zintl-Klemm kind; Greenwood & Earnshaw, 2nd ed., 1997, ch. 12.3.4; from memory)."""
+    return 2 if symbol in ("Zn", "Cd", "Hg") else _group_valence(symbol)
+
+
 def _pnictogen_polyanion_charge(counts: dict[str, float]) -> int | None:
     """The charge per atom (-1 or -2) of a pnictogen that takes all the valence electrons of the s-block metals
     beside it, when that is below the -3 of a salt: NaSb and LiAs hold chains of Sb(-) and As(-) (each atom
@@ -277,11 +284,11 @@ def _pnictogen_polyanion_charge(counts: dict[str, float]) -> int | None:
     >>> _pnictogen_polyanion_charge({"Na": 1.0, "Sb": 1.0}), _pnictogen_polyanion_charge({"K": 3.0, "Sb": 1.0})
     (-1, None)
     """
-    acceptors = [s for s in counts if _group_valence(s) is None]
+    acceptors = [s for s in counts if _pnictide_donor_valence(s) is None]
     if len(acceptors) != 1 or acceptors[0] not in _ZINTL_PNICTOGENS or len(counts) < 2:
         return None
     b = acceptors[0]
-    electrons = sum(_group_valence(s) * n for s, n in counts.items() if s != b)
+    electrons = sum(_pnictide_donor_valence(s) * n for s, n in counts.items() if s != b)
     charge = -electrons / counts[b]
     q = round(charge)
     return q if abs(charge - q) < 1e-9 and q in (-1, -2) else None
@@ -321,7 +328,8 @@ def metal_rich_reading(counts: dict[str, float], water: float = 0.0, neutral: tu
             ionic_model=family["ionic_model"],
             ionic_model_reasons=(f"known structure: {family['structure']} ({family['source']})",),
         )
-    donors = {s: _group_valence(s) for s in symbols}
+    pnictide = interstitial is None and _pnictogen_polyanion_charge(counts) is not None
+    donors = {s: (_pnictide_donor_valence(s) if pnictide else _group_valence(s)) for s in symbols}
     acceptors = [s for s, v in donors.items() if v is None]
     if interstitial is None and len(acceptors) == 1 and len(symbols) >= 2:
         b = acceptors[0]
