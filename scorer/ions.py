@@ -57,6 +57,7 @@ from ionicity.scorer.substance import (
     classify,
     formal_oxidation_states,
     format_oxidation_states,
+    listed_states,
     nonionic_decomposition,
     organic_candidate,
     organometallic_states,
@@ -348,12 +349,21 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         skeleton = not hinted and _skeleton_without_library_ion(remaining)
         readings = [] if skeleton else \
             _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
+    if readings and ("Si" in remaining or "Ge" in remaining):
+        # silicide and germanide ions only where no other anion takes the electrons: Cu2GeS3 was read as Cu(3+)
+        # with Ge(4-) and a trisulfide (Mg2Si is Si(4-); beside S, Se, P or O the tetrel is the cation)
+        readings = [r for r in readings if not _tetride_beside_another_anion(r[1])]
     chosen = _best(readings)
     if chosen is None and not hinted and not skeleton:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
+    if chosen is None and not hinted and not skeleton:
+        tetrel = _tetrel_cation_reading(remaining)
+        if tetrel is not None:
+            readings = [tetrel]
+            chosen = _best(readings)
     if not hinted and (chosen is None or suspect_organic_reading(chosen[0], chosen[1])):
         # last resort for a salt of an organic acid the library does not list (C12H25NaO4S, KHC8H4O4):
         # the s-block metal with the rest as one organic anion
@@ -570,6 +580,49 @@ def _ammonium_count_proposal(counts: dict[str, float]) -> str:
         if found:
             return f" did you mean (NH4){-charge}{found[0].label}?"
     return ""
+
+
+def _tetride_beside_another_anion(terms) -> bool:
+    """Whether a reading ((Ion, count) pairs) holds Si(4-) or Ge(4-) beside another anion (common practice:
+    the more electronegative element takes the electrons; silicides and germanides are binary or metal-only)."""
+    anions = [ion for ion, _ in terms if ion.charge < 0]
+    return len(anions) > 1 and any(ion.monatomic and ion.element in ("Si", "Ge") for ion in anions)
+
+
+# the tetrels whose group state the ion penalties price as a non-metal cation, and the anions of the
+# tetrahedral semiconductors they form with a metal (II-IV-V2 chalcopyrites, I2-IV-VI3, I2-II-IV-VI4)
+_SEMICONDUCTOR_TETRELS = frozenset({"Si", "Ge"})
+_TETRAHEDRAL_ANIONS = frozenset({"P", "As", "Sb", "S", "Se", "Te"})
+
+
+def _tetrel_cation_reading(counts: dict[str, float]):
+    """The formal reading of a metal, Si or Ge and pnictide or chalcogenide ions, where no reading balances
+    otherwise: ZnGeP2 as Zn(2+), Ge(4+), 2 P(3-) (the chalcopyrite semiconductors ZnGeP2, CdGeAs2, MgSiP2,
+    Cu2GeS3; Shay & Wernick, Ternary Chalcopyrite Semiconductors, 1975; from memory), which the penalty of a
+    non-metal cation (Ge(4+), 5) left an error. Each element at its formal state (the electronegativity
+    order), every state one the element lists; the applicability rules then call the compound a semiconductor
+    or a salt as they do any reading. None otherwise.
+
+    >>> [ion.ion_id for ion, _ in _tetrel_cation_reading({"Zn": 1.0, "Ge": 1.0, "P": 2.0})[1]]
+    ['Zn(2+)', 'Ge(4+)', 'P(3-)']
+    """
+    symbols = set(counts)
+    if not symbols & _SEMICONDUCTOR_TETRELS or not any(is_metal(s) for s in symbols):
+        return None
+    rest = symbols - _SEMICONDUCTOR_TETRELS
+    anions = {s for s in rest if not is_metal(s)}
+    if not anions or not anions <= _TETRAHEDRAL_ANIONS:
+        return None
+    states = dict(formal_oxidation_states(counts, 0))
+    if any(s not in states or not float(states[s]).is_integer() or states[s] == 0 for s in symbols):
+        return None
+    if any(int(states[s]) not in [state for state, _ in listed_states(s)] for s in symbols):
+        return None
+    if any((states[s] < 0) != (s in anions) for s in symbols):
+        return None
+    terms = [(monatomic_ion(s, int(states[s])), counts[s]) for s in counts]
+    # priced as the walk prices it, but for the tetrel's non-metal-cation penalty: one species each
+    return 0.1 * len(terms), terms
 
 
 def _holds_ammonium(readings) -> bool:

@@ -334,3 +334,24 @@ def test_a_reducing_cation_beside_an_oxidising_one_is_no_alternative(formula, ca
     from ionicity.scorer.record import score_formula
     row = score_formula(formula)
     assert row["status"] == "ok" and row["cations"] == cations
+
+
+@pytest.mark.parametrize("formula, states", [
+    # chalcopyrite and related tetrahedral semiconductors: Zn(II) Ge(IV) P(-III) (Shay & Wernick, Ternary
+    # Chalcopyrite Semiconductors, 1975; from memory); errors before (Ge(4+) priced as a non-metal cation)
+    ("ZnGeP2", {"Zn": 2.0, "Ge": 4.0, "P": -3.0}),
+    ("CdGeAs2", {"Cd": 2.0, "Ge": 4.0, "As": -3.0}),
+    # Cu2GeS3 and Cu2ZnGeSe4: Cu(I), Ge(IV); they were read as Cu(3+) beside germanide Ge(4-) and a polysulfide
+    ("Cu2GeS3", {"Cu": 1.0, "Ge": 4.0, "S": -2.0}),
+    ("Cu2ZnGeSe4", {"Cu": 1.0, "Zn": 2.0, "Ge": 4.0, "Se": -2.0}),
+])
+def test_germanium_and_silicon_beside_pnictide_or_chalcogenide_are_the_cations(formula, states):
+    r = score_formula(formula)
+    assert r["status"] == "ok", r["message"]
+    got = {s: float(v) for s, v in (p.split(":") for p in r["oxidation_states"].split(";"))}
+    assert got == states
+
+
+@pytest.mark.parametrize("formula", ["Mg2Si", "Ca2Si", "NaSi"])
+def test_silicides_keep_their_silicide_ions(formula):
+    assert score_formula(formula)["substance_class"] == "zintl_phase"
