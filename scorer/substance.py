@@ -429,6 +429,19 @@ def _cyanocarbon(counts: dict[str, float]) -> bool:
     return set(counts) == {"C", "N"} and counts["N"] <= counts["C"]
 
 
+def _alloy_of_one_group(symbols) -> bool:
+    """Whether ``symbols`` are two or more elements of one group whose Pauling electronegativities differ by less
+    than 0.5 (the van Arkel-Ketelaar threshold of a polar bond; SiGe 0.11, SiC 0.65).
+
+    >>> _alloy_of_one_group({"Si", "Ge"}), _alloy_of_one_group({"Si", "C"})
+    (True, False)
+    """
+    elements = [get_element(s) for s in symbols]
+    chis = [e.electronegativity_pauling for e in elements]
+    return (len(elements) > 1 and len({e.group for e in elements}) == 1 and all(math.isfinite(c) for c in chis)
+            and max(chis) - min(chis) < 0.5)
+
+
 def nonionic_decomposition(
     charge: float, counts: dict[str, float], notes: list[str], water: float, neutral: tuple[str, ...]
 ) -> Decomposition:
@@ -448,6 +461,10 @@ def nonionic_decomposition(
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
             symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}) and not _cyanocarbon(counts):
         cls = "covalent_network"
+        if _alloy_of_one_group(symbols):
+            # elements of one group with nearly equal electronegativities (SiGe, Si0.8Ge0.2): a solid solution of
+            # the elements, no charge transfer (it read Ge -4 and Si +4); SiC keeps its formal Si +4, C -4
+            states = tuple((s, 0.0) for s in counts)
     elif any(is_metal(s) for s in symbols):
         cls = "unknown"
         states = ()
