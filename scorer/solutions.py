@@ -50,6 +50,8 @@ _GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacia
 _BRACKETED_TAIL = re.compile(r"\s*\(\s*([^()]*?)\s*\)\s*$")
 _STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b|\b(?P<form>dispersion|suspension|slurry)\b", re.I)
 _TAIL_BEFORE = re.compile(r"[\s,;]+$")
+# the basis of a percentage written last, after the solute ("10% H2SO4 v/v")
+_TRAILING_BASIS = re.compile(r"\s+(\(?\s*(?:w/w|w/v|v/v|m/m)\s*\)?)\s*$", re.I)
 
 
 # the same concentrations written before the solute, and a molar amount after "+" (a solute in what precedes)
@@ -221,6 +223,14 @@ def _split_solution_text(text: str) -> Solution | None:
     for pattern, leading in _LEADING:
         # or the first, before a space, as bottle labels write it: "0.1 M NaCl", "37% HCl", "conc. HNO3"
         lead = leading.match(body)
+        if lead and pattern is _PERCENT:
+            # the basis of a leading percentage may follow the solute: "10% H2SO4 v/v"
+            basis = _TRAILING_BASIS.search(lead.group("rest"))
+            if basis and basis.start() > 0 and not pattern.match(lead.group("c")).group("basis"):
+                rest = lead.group("rest")[:basis.start()]
+                written = pattern.match(f"{lead.group('c')} {basis.group(1)}")
+                if split_solution(rest) is None:
+                    return Solution(rest.strip(), _as_written(pattern, written))
         if lead and split_solution(lead.group("rest")) is None:
             return Solution(lead.group("rest").strip(), _as_written(pattern, pattern.match(lead.group("c"))))
     for pattern in (_PERCENT, _MOLAR, _GRADE):

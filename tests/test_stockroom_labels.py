@@ -532,3 +532,12 @@ def test_gallium_dichloride_and_the_alkali_superoxides_keep_their_readings(text,
     # Ga(+)[GaCl4](-) (Greenwood & Earnshaw ch. 7.3.5); KO2 potassium superoxide, CsO3 caesium ozonide (ch. 14.2)
     row = score_formula(text)
     assert row["status"] == "ok" and row["cations"] == cations
+
+
+@pytest.mark.parametrize("text, concentration", [
+    # a leading percentage with its basis after the solute (common practice on bottle labels)
+    ("10% H2SO4 v/v", "10 % v/v"), ("10% NaCl (w/v)", "10 % w/v"), ("10% v/v H2SO4", "10 % v/v"),
+])
+def test_a_leading_percentage_keeps_a_basis_written_after_the_solute(text, concentration):
+    row = score_formula(text)
+    assert row["status"] != "error" and row["concentration_as_written"] == concentration
