@@ -358,6 +358,22 @@ def _recasings(run: str, rare: bool = True) -> list[str]:
     return out
 
 
+# an oxoanion written in capitals with its usual count: the O of CO3, NO3, NO2, PO4 stays oxygen when the case of
+# the rest is restored (KCO3 lost a count of K2CO3; it is no potassium-cobalt compound KCo3)
+_CAPITAL_OXOANION = re.compile(r"(?:CO3|NO3|NO2|PO4)(?!\d)")
+
+
+def _breaks_an_oxoanion(text: str, proposal: str) -> bool:
+    """Whether a re-cased ``proposal`` turns an oxoanion the text writes in capitals into a metal symbol (CO3 into
+    Co3, NO3 into No3).
+
+    >>> _breaks_an_oxoanion("KCO3", "KCo3"), _breaks_an_oxoanion("SMCO5", "SmCo5")
+    (True, False)
+    """
+    return any(proposal[m.start():m.end()] != m.group() for m in _CAPITAL_OXOANION.finditer(text.upper())
+               if text[m.start():m.end()].upper() == m.group())
+
+
 def _case_proposals(text: str, rare: bool = True) -> list[str]:
     runs = list(_LETTER_RUN.finditer(text))
     proposals = [""]
@@ -568,7 +584,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
             # I stands for iodine beside tritium or nitrogen; the proposal must still read better than the text
             capital_of_i = all_caps and any(ch == "I" and i and is_element_symbol(stripped[i - 1] + "i")
                                             for i, ch in enumerate(stripped))
-            consider("letter_case", lambda: _case_proposals(stripped, all_caps or all_lower),
+            consider("letter_case", lambda: [p for p in _case_proposals(stripped, all_caps or all_lower)
+                                             if not _breaks_an_oxoanion(stripped, p)],
                      all_lower or unreadable or radical or capital_of_i)
 
     if all_caps:

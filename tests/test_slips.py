@@ -396,3 +396,20 @@ def test_capital_i_in_text_all_in_capitals_is_read_as_lost_case(text, meant):
 def test_compounds_written_in_capitals_with_iodine_stay_as_written(text):
     row = score_formula(text)
     assert row["status"] == "ok" and not row["formula_suggested"]
+
+
+@pytest.mark.parametrize("text, proposal", [("KCO3", "K2CO3")])
+def test_capitals_keep_a_written_oxoanion_when_a_count_is_lost(text, proposal):
+    # KCO3: potassium carbonate with its count of K lost (common practice of typing slips), not a
+    # potassium-cobalt compound KCo3 (no such intermetallic is known; from memory); the carbonate written in
+    # capitals keeps its O
+    row = score_formula(text)
+    assert row["status"] == "error" and f"did you mean {proposal}?" in row["message"]
+
+
+@pytest.mark.parametrize("text, meant", [("SMCO5", "SmCo5"), ("CACO3", "CaCO3"), ("NANO3", "NaNO3")])
+def test_capitals_still_recover_cobalt_and_sodium(text, meant):
+    # SmCo5, the samarium-cobalt magnet (CO5 is no oxoanion), and the carbonate and nitrate whose metal lost its case
+    row = score_formula(text)
+    assert row["formula_suggested"] == meant
+    assert math.isclose(row["molar_mass_g_mol"], molmass.Formula(meant).mass, rel_tol=1e-4)
