@@ -29,7 +29,7 @@ from __future__ import annotations
 from ionicity.scorer.caching import once
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.ion_library import get_ion
-from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
+from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION, _PEROXO_IONS
 from ionicity.scorer.ion_search import _search, _subtract
 from ionicity.scorer.model import Ion, format_charge
 from ionicity.scorer.substance import listed_states
@@ -166,7 +166,10 @@ def complex_anion_readings(remaining: dict[str, float], budget: list[int]) -> tu
                     for penalty, terms in found:
                         total = (penalty + _PENALTY_CONSTRUCTED + _PENALTY_SPECIES
                                  + _PENALTY_PER_MISSING_LIGAND * (counts[-1] - count))
-                        if total < _IONIC_THRESHOLD and any(ion.charge > 0 for ion, _ in terms):
+                        if total < _IONIC_THRESHOLD and any(ion.charge > 0 for ion, _ in terms) and not any(
+                                ion.ion_id in _PEROXO_IONS for ion, _ in terms):
+                            # (no peroxide, superoxide or ozonide beside a built oxoanion: the oxygen it leaves is a
+                            # count mistyped, CaPO4 for Ca3(PO4)2, not calcium superoxide dioxidophosphate(III))
                             readings.append((total, [(anion, anions_per_formula)] + list(terms)))
     if not readings:
         return readings, []

@@ -521,6 +521,8 @@ def test_ammonium_salts_that_balance_and_organic_acid_salts_are_not_affected(tex
     # Al2O(SO3)(SO4), status ok; KCr2O7 as chromium(II) superoxide, status ok
     ("AlSO4", "Al(2+) is not a state Al takes"),
     ("KCr2O7", "did you mean K2Cr2O7?"),
+    # CaPO4 (for Ca3(PO4)2) was calcium superoxide dioxidophosphate(III), built by the complex-anion rule
+    ("CaPO4", "no charge-balanced set of ions"),
 ])
 def test_a_missing_count_is_said_rather_than_read_as_an_odd_salt(text, slip):
     row = score_formula(text)
