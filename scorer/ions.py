@@ -349,6 +349,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         skeleton = not hinted and _skeleton_without_library_ion(remaining)
         readings = [] if skeleton else \
             _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
+    if readings and "H" in remaining and "O" in remaining:
+        # no hydride beside a proton donor: H(-) and an O-H or N-H acid react to H2 (H(-) + OH(-) -> H2 + O(2-);
+        # Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.6; from memory): BaH3O4P read as Ba(2+), H(-), H2PO4(-)
+        readings = [r for r in readings if not _hydride_beside_proton_donor(r[1])]
     if readings and ("Si" in remaining or "Ge" in remaining):
         # silicide and germanide ions only where no other anion takes the electrons: Cu2GeS3 was read as Cu(3+)
         # with Ge(4-) and a trisulfide (Mg2Si is Si(4-); beside S, Se, P or O the tetrel is the cation)
@@ -580,6 +584,18 @@ def _ammonium_count_proposal(counts: dict[str, float]) -> str:
         if found:
             return f" did you mean (NH4){-charge}{found[0].label}?"
     return ""
+
+
+# ions that give up a proton to a hydride (the acid anions, hydroxide and hydroxo complexes, the ammonium-like
+# cations, H(+) itself)
+_PROTIC_FAMILIES = frozenset({"hydrogen-oxoanion", "hydrogen-chalcogenide", "hydroxo-complex", "ammonium-like"})
+
+
+def _hydride_beside_proton_donor(terms) -> bool:
+    """Whether a reading ((Ion, count) pairs) holds H(-) beside an ion that gives it a proton."""
+    ids = [ion for ion, _ in terms]
+    return any(ion.ion_id == "H(-)" for ion in ids) and any(
+        ion.family in _PROTIC_FAMILIES or ion.ion_id == "H(+)" for ion in ids)
 
 
 def _tetride_beside_another_anion(terms) -> bool:

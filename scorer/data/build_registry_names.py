@@ -92,13 +92,25 @@ def _kind(smiles: str) -> str:
     return "molecule"
 
 
-def _disagrees(ident, name: str, formula: str) -> bool:
+# words of inorganic names that say the compound holds hydrogen (hydroxide, hydrogen..., acids, ammonium, amides,
+# the -ane and -ine hydrides, phosphonium); an inorganic name without one whose formula by CAS holds hydrogen is
+# the identifier table's mistake (Iron(II,III) oxide: Fe3H8O4; Magnesium germanide: GeH4Mg2; Platinum silicide:
+# H3PtSi)
+_HYDROGEN_WORDS = re.compile(r"hydr|acid|ammon|ammin|amin|amid|imid|azan|azin|hydrazin|ane\b|ine\b|onium|water|aqua",
+                             re.I)
+
+
+def _disagrees(ident, name: str, formula: str, inorganic: bool = False) -> bool:
     """Whether the package's own lookup of ``name`` gives another neutral formula than its CAS number does
-    (Bismuth titanate: BiOTi by CAS, Bi2O7Ti2 by name), or a hydride's name (-ane, -ine) has no hydrogen
-    (Stibine: Sb by CAS): either table may be wrong, so the name is left out."""
-    if re.search(r"(?:ane|ine)$", name.lower()) and "H" not in re.findall(r"[A-Z][a-z]?", formula):
-        if len(re.findall(r"[A-Z][a-z]?", formula)) == 1:
+    (Bismuth titanate: BiOTi by CAS, Bi2O7Ti2 by name), a hydride's name (-ane, -ine) has no hydrogen
+    (Stibine: Sb by CAS), or an inorganic name that says nothing of hydrogen has a formula that holds some
+    (:data:`_HYDROGEN_WORDS`): either table may be wrong, so the name is left out."""
+    elements = re.findall(r"[A-Z][a-z]?", formula)
+    if re.search(r"(?:ane|ine)$", name.lower()) and "H" not in elements:
+        if len(elements) == 1:
             return True
+    if inorganic and "H" in elements and "C" not in elements and not _HYDROGEN_WORDS.search(name):
+        return True
     try:
         by_name = ident.search_chemical(name).formula
     except Exception:  # the lookup does not know the name: nothing to disagree with
@@ -119,7 +131,7 @@ def _entries():
                     found = ident.search_chemical(row["CAS"])
                 except Exception:  # a CAS number the identifier tables do not hold: no formula, no row
                     continue
-                if _disagrees(ident, name, found.formula):
+                if _disagrees(ident, name, found.formula, source == "CRC inorganic"):
                     continue
                 yield source, name, found.formula, row["CAS"], _kind(found.smiles)
     for name, cas in SYNONYMS:
