@@ -149,3 +149,13 @@ def test_protic_and_amino_acid_ionic_liquids(text, cation, anion):
 def test_tea_in_brackets_stays_unread():
     # [TEA] is triethylammonium in protic-ionic-liquid papers and tetraethylammonium beside BF4 (TEABF4): ambiguous
     assert score_formula("[TEA][HSO4]")["status"] == "error"
+
+
+@pytest.mark.parametrize("text, normalized", [("[Py14][FSI]", "[C4mpyr][FSI]"), ("[PYR14][TFSI]", "[C4mpyr][NTf2]"),
+                                              ("[Py13][FSI]", "[C3mpyr][FSI]")])
+def test_the_battery_literature_codes_of_the_pyrrolidinium_cations(text, normalized):
+    # Py14 / PYR14: N-butyl-N-methylpyrrolidinium, Py13: N-methyl-N-propylpyrrolidinium, as electrolyte papers
+    # write them (Armand et al., Nat. Mater. 8 (2009) 621; from memory)
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["formula_normalized"] == normalized
