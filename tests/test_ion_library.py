@@ -511,3 +511,13 @@ def test_an_organic_bromide_is_no_bromite():
     # acetylcholine bromide, C7H16BrNO2 (the registry package chemicals lists the formula only as that salt)
     from ionicity.scorer.record import score_formula
     assert score_formula("C7H16BrNO2")["anions"] == "Br(-)*1"
+
+
+@pytest.mark.parametrize("text", ["Na[B(C6H5)4]", "NaBPh4", "sodium tetraphenylborate", "C24H20BNa"])
+def test_sodium_tetraphenylborate(text):
+    # Na[B(C6H5)4], a reagent for potassium and ammonium (IUPAC Red Book 2005, IR-9, tetraphenylborate(1-); from
+    # memory); molar mass from molmass. An error before the anion joined the library
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] != "error" and row["anions"] == "B(C6H5)4(-)*1" and row["cations"] == "Na(+)*1"
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("C24H20BNa").mass, abs=0.02)
