@@ -714,6 +714,10 @@ def _hydrate_salt(text: str) -> tuple[ParsedFormula, float] | None:
     return salt, sum(n for _, n in salt.counts)
 
 
+# the adducts written most often, which are no ligand code (the ligand table is not built for them)
+_PLAIN_ADDUCTS = frozenset({"H2O", "D2O", "NH3", "HCl", "HF", "H2O2"})
+
+
 @once
 def _adduct_ligands() -> dict[str, str]:
     """Spelling -> abbreviation of the neutral ligands of ``ligands.csv`` read after an adduct dot, as written
@@ -753,7 +757,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             component = component[m.end():]
             if not component:
                 raise FormulaError(f"multiplier {m.group()} with no formula after it in {text!r}")
-        if index > 0 and component in _adduct_ligands():
+        if index > 0 and component not in _PLAIN_ADDUCTS and component in _adduct_ligands():
             # a neutral ligand or solvent after the dot, written by its code ("LiCl·2THF", "CuBr·SMe2",
             # "BH3·THF"): that molecule (THF read as an element formula was tritium, hydrogen and fluorine).
             # Beside a metal salt it is set apart as an adduct, as water is; beside a molecule (BH3·THF,

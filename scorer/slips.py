@@ -584,9 +584,12 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
             # I stands for iodine beside tritium or nitrogen; the proposal must still read better than the text
             capital_of_i = all_caps and any(ch == "I" and i and is_element_symbol(stripped[i - 1] + "i")
                                             for i, ch in enumerate(stripped))
-            consider("letter_case", lambda: [p for p in _case_proposals(stripped, all_caps or all_lower)
-                                             if not _breaks_an_oxoanion(stripped, p)],
-                     all_lower or unreadable or radical or capital_of_i)
+            if _CAPITAL_OXOANION.search(stripped.upper()):
+                recased = lambda: [p for p in _case_proposals(stripped, all_caps or all_lower)  # noqa: E731
+                                   if not _breaks_an_oxoanion(stripped, p)]
+            else:
+                recased = lambda: _case_proposals(stripped, all_caps or all_lower)  # noqa: E731
+            consider("letter_case", recased, all_lower or unreadable or radical or capital_of_i)
 
     if all_caps:
         lost_case()  # first, so that a re-cased reading as good as a re-lettered one is found (TIO2: TiO2, TlO2)
