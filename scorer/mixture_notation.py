@@ -341,7 +341,14 @@ def read_mixture_text(text: str) -> MixtureText | None:
         joined_by = "/"
     elif any(d in body for d in _DOTS):
         parts = _split_top(body, _DOTS)
-        if len(parts) < 2 or not all(_LEADING_AMOUNT.match(p) and "." in _LEADING_AMOUNT.match(p).group("amount") for p in parts):
+        if len(parts) < 2 or not all(_LEADING_AMOUNT.match(p) for p in parts):
+            return None
+        leading = [float(_LEADING_AMOUNT.match(p).group("amount")) for p in parts]
+        whole_percent = all(float(a).is_integer() for a in leading) and abs(sum(leading) - 100.0) < 1e-9 and not any(
+            _ADDUCT.match(p[_LEADING_AMOUNT.match(p).end():].strip()) for p in parts[1:])
+        if not whole_percent and not all("." in _LEADING_AMOUNT.match(p).group("amount") for p in parts):
+            # whole numbers are a hydrate's or adduct's counts (CaCl2·2NH3), unless they add up to 100 before
+            # formulas that are no adducts: mole percent, as glass compositions are written (70Li2S·30P2S5)
             return None
         joined_by = "·"
     else:

@@ -360,6 +360,22 @@ def test_a_list_with_its_proportions_after_it_is_that_mixture(text, fractions):
     assert _mole_fractions(row) == pytest.approx(fractions)
 
 
+@pytest.mark.parametrize("text, fractions", [
+    # glass and solid-electrolyte compositions in mole percent before each component (common practice in the
+    # solid-electrolyte and glass literature): 70Li2S·30P2S5 was read as a typing slip, 3O for 30
+    ("70Li2S·30P2S5", [0.7, 0.3]), ("75Li2S·25P2S5", [0.75, 0.25]), ("60SiO2·40Na2O", [0.6, 0.4]),
+])
+def test_whole_mole_percents_before_the_components_are_a_mixture(text, fractions):
+    row = score_formula(text)
+    assert row["substance_class"] == "mixture" and row["status"] != "error"
+    assert _mole_fractions(row) == pytest.approx(fractions)
+
+
+@pytest.mark.parametrize("text", ["CaCl2·2NH3", "CuSO4·5H2O", "3CaO·SiO2"])
+def test_whole_counts_before_adducts_stay_one_compound(text):
+    assert score_formula(text)["substance_class"] != "mixture"
+
+
 @pytest.mark.parametrize("text", ["Sodium chloride, ACS reagent, 99%", "NaCl, 500 g", "Fe2O3, hematite"])
 def test_grade_words_after_a_comma_are_no_list(text):
     assert score_formula(text)["substance_class"] != "mixture"
