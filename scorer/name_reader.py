@@ -91,6 +91,8 @@ def _read_name(name) -> tuple[str | None, tuple[str, str, str, str, str] | None]
     if formula is None:
         formula = _hydrohalide_name(name)
     if formula is None:
+        formula = _protonated_base_name(name)
+    if formula is None:
         entry = registry_entry(name)
         if entry is None:
             return None, None
@@ -131,6 +133,34 @@ def _hydrohalide_name(name: str) -> str | None:
         return None
     n = _COUNT_OF[(m.group("n") or "").lower() or None]
     return f"{base}·{'' if n == 1 else n}H{_HALIDE_OF[m.group('x').lower()]}"
+
+
+# "pyridinium chloride", "anilinium bromide", "imidazolium chloride", "diethanolammonium chloride": the base's
+# name with -ium (or -ammonium for an -amine) beside a halide, the base protonated (IUPAC Red Book 2005, IR-8.4:
+# names of cations formed by adding a hydron; common practice)
+_PROTONATED_BASE_NAME = re.compile(r"^(?P<stem>[A-Za-z0-9,()'-]+?)(?P<ium>ammonium|ium)\s+(?P<x>chloride|bromide|iodide"
+                                   r"|fluoride)$", re.I)
+
+
+def _protonated_base_name(name: str) -> str | None:
+    """The formula of a halide named after its base protonated (``pyridinium chloride`` -> ``C5H5N·HCl``): the
+    base's name is the stem with -ine or -e (pyridin-ium: pyridine; imidazol-ium: imidazole), or -amine for
+    -ammonium (diethanolammonium: diethanolamine), read as the hydrohalide (:func:`_hydrohalide_name`); None for
+    any other name or where no base of that name is an organic molecule with nitrogen.
+
+    >>> _protonated_base_name("pyridinium chloride"), _protonated_base_name("imidazolium chloride")
+    ('C5H5N·HCl', 'C3H4N2·HCl')
+    """
+    m = _PROTONATED_BASE_NAME.match(name.strip()) if isinstance(name, str) else None
+    if m is None or len(m.group("stem")) < 4:
+        return None
+    stem, halide = m.group("stem"), m.group("x").lower()
+    bases = [stem + "amine"] if m.group("ium").lower() == "ammonium" else [stem + "ine", stem + "e"]
+    for base in bases:
+        formula = _hydrohalide_name(f"{base} hydro{halide}")
+        if formula is not None:
+            return formula
+    return None
 
 
 # the catalogues' acid-salt names (common practice): "sodium phosphate dibasic" is Na2HPO4, "monobasic" NaH2PO4,

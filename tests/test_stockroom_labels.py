@@ -74,12 +74,18 @@ def test_names_with_grade_words_and_registry_names(label, name):
     assert _composition(row["formula_normalized"]) == _composition(expected)
 
 
-@pytest.mark.parametrize("name", ["diethylammonium chloride", "dimethylammonium chloride", "triethanolammonium acetate"])
-def test_a_prefix_inside_an_onium_name_is_no_count(name):
+@pytest.mark.parametrize("name, formula", [("diethylammonium chloride", "C4H12ClN"),
+                                           ("dimethylammonium chloride", "C2H8ClN"),
+                                           ("triethanolammonium acetate", None)])
+def test_a_prefix_inside_an_onium_name_is_no_count(name, formula):
     # diethylammonium is one cation, (C2H5)2NH2(+), not two ethylammonium ions: it had read as C4H16ClN2 (common
-    # practice of substitutive names); the library does not list it, so the name is left unread, never misread
+    # practice of substitutive names). Its halide is read as the protonated diethylamine (the base's name with
+    # -ammonium, _protonated_base_name); a name of another anion the library does not pair is left unread
     row = score_formula(name)
-    assert row["status"] == "error" and row["formula_normalized"] is None
+    if formula is None:
+        assert row["status"] == "error" and row["formula_normalized"] is None
+    else:
+        assert row["status"] == "warning" and _composition(row["formula_normalized"]) == _composition(formula)
 
 
 @pytest.mark.parametrize("name, formula", [
@@ -553,3 +559,19 @@ def test_no_hydride_is_read_beside_a_proton_donor(text):
     # read as Ba(2+) H(-) H2PO4(-), Mn(4+) with hydride and hydroxide, Co(2+) H(-) HCrO4(-), status ok
     row = score_formula(text)
     assert "H(-)" not in (row["anions"] or "")
+
+
+@pytest.mark.parametrize("name, base", [
+    # a halide named after its base protonated (IUPAC Red Book 2005, IR-8.4; common practice): the base's formula
+    # from the registry package chemicals by name, plus HCl or HBr; errors before
+    ("pyridinium chloride", "pyridine"), ("anilinium chloride", "aniline"), ("imidazolium chloride", "imidazole"),
+    ("diethanolammonium chloride", "diethanolamine"), ("morpholinium chloride", "morpholine"),
+])
+def test_a_halide_named_after_its_protonated_base(name, base):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    expected = dict(_composition(identifiers.search_chemical(base).formula))
+    expected["H"] = expected.get("H", 0) + 1
+    expected["Cl"] = 1
+    row = score_formula(name)
+    assert row["status"] == "warning" and row["anions"] == "Cl(-)*1"
+    assert _composition(row["formula_normalized"]) == expected
