@@ -64,7 +64,11 @@ _ACID = re.compile(r"^(?P<stem>.+?)(?P<end>ic|ous)acid$")
 
 @once
 def _trivial() -> dict[str, str]:
-    return {compact(row["name"]): row["formula"] for row in table("trivial_names.csv")}
+    out = {compact(row["name"]): row["formula"] for row in table("trivial_names.csv")}
+    # an eponymous salt without its possessive s ("Mohr salt", "Glauber salt" for Mohr's, Glauber's salt)
+    out.update({key[:-len("ssalt")] + "salt": formula for key, formula in list(out.items())
+                if key.endswith("ssalt") and key[:-len("ssalt")] + "salt" not in out})
+    return out
 
 
 def read_name(name) -> str | None:

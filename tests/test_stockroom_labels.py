@@ -575,3 +575,10 @@ def test_a_halide_named_after_its_protonated_base(name, base):
     row = score_formula(name)
     assert row["status"] == "warning" and row["anions"] == "Cl(-)*1"
     assert _composition(row["formula_normalized"]) == expected
+
+
+@pytest.mark.parametrize("name, formula", [("Mohr salt", "Fe(NH4)2(SO4)2·6H2O"), ("Glauber salt", "Na2SO4·10H2O")])
+def test_an_eponymous_salt_without_its_possessive(name, formula):
+    # Mohr's salt and Glauber's salt (The Merck Index, 15th ed., 2013; from memory), written without the 's
+    row = score_formula(name)
+    assert row["status"] == "warning" and _composition(row["formula_normalized"]) == _composition(formula)
