@@ -44,7 +44,7 @@ from ionicity.scorer.ion_library import (
     monatomic_ion,
     same_label_ions,
 )
-from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _states
+from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _states
 from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
@@ -638,7 +638,7 @@ def _tetrel_cation_reading(counts: dict[str, float]):
         return None
     terms = [(monatomic_ion(s, int(states[s])), counts[s]) for s in counts]
     # priced as the walk prices it, but for the tetrel's non-metal-cation penalty: one species each
-    return 0.1 * len(terms), terms
+    return _PENALTY_SPECIES * len(terms), terms
 
 
 def _holds_ammonium(readings) -> bool:
