@@ -733,6 +733,26 @@ def _adduct_ligands() -> dict[str, str]:
     return out
 
 
+AMMONIUM_HINT = "ammonium*"
+_NH4_GROUP = re.compile(r"\(NH4\)(\d+(?:\.\d+)?)?|NH4")
+
+
+def _written_ammonium_groups(component: str) -> float | None:
+    """How many NH4 groups one component writes at its top level ("(NH4)2SO4" 2, "NH4Fe(SO4)2" 1); None where one
+    sits inside other brackets ("Fe(NH4SO4)2"), whose multiplier the count would miss.
+
+    >>> _written_ammonium_groups("(NH4)2SO4"), _written_ammonium_groups("NH4Fe(SO4)2"), _written_ammonium_groups("Fe(NH4SO4)2")
+    (2.0, 1.0, None)
+    """
+    total = 0.0
+    for m in _NH4_GROUP.finditer(component):
+        before = component[:m.start()]
+        if sum(before.count(o) for o in "([{") != sum(before.count(c) for c in ")]}"):
+            return None
+        total += float(m.group(1)) if m.group(1) else 1.0
+    return total
+
+
 def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     body, charge, charge_note = _split_charge(cleaned)
     if not body:
@@ -743,6 +763,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     water = 0.0
     hints: dict[str, float] = {}
     adducts: dict[str, float] = {}
+    written_ammonium: float | None = 0.0 if "NH4" in body else None
     hydrohalide: dict[str, float] = {}
     isotopes: dict[str, float] = {}
     for index, component in enumerate(_split_components(body)):
@@ -768,6 +789,9 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
             for symbol, n in ligand_compositions()[name]:
                 totals[symbol] = totals.get(symbol, 0.0) + n * multiplier
             continue
+        if written_ammonium is not None and "NH4" in component:
+            groups = _written_ammonium_groups(component)
+            written_ammonium = None if groups is None else written_ammonium + groups * multiplier
         counted, ion_refs, written_heavy = _component(component)
         for symbol, n in written_heavy.items():
             isotopes[symbol] = isotopes.get(symbol, 0.0) + n * multiplier
@@ -826,8 +850,9 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "quaternary"
     elif "NH4" in cleaned.replace("[", "").replace("]", ""):
         # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
-        # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer)
-        hint = "ammonium"
+        # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer); with the number of NH4 groups written
+        # where the text says it plainly ("ammonium*2" for (NH4)2SO4), which a reading must keep
+        hint = "ammonium" if not written_ammonium else f"{AMMONIUM_HINT}{format_count(written_ammonium)}"
     return ParsedFormula(
         text=text,
         counts=ordered,

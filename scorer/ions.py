@@ -36,7 +36,7 @@ from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import NO_CONJUGATE_BASE, organic_anion_readings, suspect_organic_reading
 from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import element_symbols, get_element, is_metal
-from ionicity.scorer.formula import HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
+from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
     ion_library,
@@ -230,6 +230,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     # the parser's notes (ignored annotations...) belong to the spelling, not the
     # composition: the record adds them, so this cache stays spelling-free
     notes: list[str] = []
+    # the ammonium ion written out, and how many NH4 groups the text writes where it says so plainly
+    ammonium = comp.structure_hint == "ammonium" or comp.structure_hint.startswith(AMMONIUM_HINT)
+    written_nh4 = float(comp.structure_hint[len(AMMONIUM_HINT):]) if comp.structure_hint.startswith(AMMONIUM_HINT) \
+        else None
+    # no hydrogen beyond the ammonium's: no organic skeleton (an ammonium salt of an organic acid the library does
+    # not list, NH4HC4H4O6, is left as it was)
+    inorganic_ammonium = ammonium and ("C" not in counts or counts.get("H", 0.0) <= 4 * counts.get("N", 0.0) + _TOL)
     water = comp.hydrate_water
     neutral = tuple(f"{name}*{format_count(n)}" for name, n in comp.neutral_adducts)
     for name, n in comp.neutral_adducts:
@@ -305,7 +312,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))
-        if comp.structure_hint not in ("ammonium", "fulminate") and _woehler_isomer(readings):
+        if not ammonium and comp.structure_hint != "fulminate" and _woehler_isomer(readings):
             readings = []
         # an organic cation beside a hypohalite is an oxidant and a fuel that do not keep: where the formula
         # also reads otherwise, that reading stands (C5H14ClNO is choline chloride, which tied with
@@ -313,7 +320,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         readings = [r for r in readings if not (
             any(ion.ion_id in _HYPOHALITES for ion, _ in r[1]) and any(ion.organic and ion.charge > 0 for ion, _ in r[1])
         )] or readings
-        if comp.structure_hint == "ammonium":
+        if ammonium:
             # the ammonium ion written out (NH4 in the text) is an ammonium salt: (NH4)2C2O4 is ammonium oxalate,
             # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
             written = [r for r in readings if any(ion.ion_id == "NH4(+)" for ion, _ in r[1])]
@@ -332,7 +339,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         elif comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = _acid_readings(readings)
-        elif readings and comp.structure_hint not in ("ammonium", "fulminate", "quaternary"):
+        elif readings and not ammonium and comp.structure_hint not in ("fulminate", "quaternary"):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)
@@ -349,6 +356,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         skeleton = not hinted and _skeleton_without_library_ion(remaining)
         readings = [] if skeleton else \
             _readings(remaining, hinted, notes, budget=budget, ceiling=_IONIC_THRESHOLD, any_reading=bool(hinted))
+    if readings and inorganic_ammonium and written_nh4 is not None:
+        # every NH4 group the text writes is an ammonium ion: (NH4)2Cr2O6 (the dichromate with an O lost) was read
+        # as one ammonium beside nitrite and chromium(II)
+        readings = [r for r in readings if _holds_ammonium([r], written_nh4)]
     if readings and "H" in remaining and "O" in remaining:
         # no hydride beside a proton donor: H(-) and an O-H or N-H acid react to H2 (H(-) + OH(-) -> H2 + O(2-);
         # Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.6; from memory): BaH3O4P read as Ba(2+), H(-), H2PO4(-)
@@ -407,8 +418,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
                 oxidation_states=tuple((s, 0.0) for s in counts), substance_class="intermetallic",
                 ionic_model="not_applicable", ionic_model_reasons=(metal_rich,),
             )
-    if comp.structure_hint == "ammonium" and (
-            "C" not in counts or counts.get("H", 0.0) <= 4 * counts.get("N", 0.0) + _TOL) and not _holds_ammonium(readings):
+    if ammonium and inorganic_ammonium and not _holds_ammonium(readings, written_nh4):
         # NH4 written in an inorganic formula (no hydrogen beyond the ammonium's, so no organic skeleton: an
         # ammonium salt of an organic acid the library does not list, NH4HC4H4O6, stays as it was) that no
         # reading balances with the ammonium ion: a count left out (NH4SO4 for (NH4)2SO4 or NH4HSO4, NH4PO4 for
@@ -452,7 +462,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         ceiling = min(_IONIC_THRESHOLD, chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA)
         other = _best(_readings(remaining, hinted, [], frozenset(hypohalites), budget, ceiling))
         if other is not None and other[3] <= chosen[3] + _REDOX_ALTERNATIVE_MAX_EXTRA:
-            if comp.structure_hint == "ammonium":  # NH4 written out: say why it is not read so
+            if ammonium:  # NH4 written out: say why it is not read so
                 notes.append(f"{hypohalites[0]} beside NH4(+) is no salt (they react to a chloramine): the composition"
                              " is read as " + _reading_text(other[0], other[1]))
             cations, anions, alternatives, _ = other
@@ -641,9 +651,14 @@ def _tetrel_cation_reading(counts: dict[str, float]):
     return _PENALTY_SPECIES * len(terms), terms
 
 
-def _holds_ammonium(readings) -> bool:
-    """Whether any reading ((penalty, [(Ion, count), ...]) pairs) holds the ammonium ion."""
-    return any(ion.ion_id == "NH4(+)" for reading in readings for ion, _ in reading[1])
+def _holds_ammonium(readings, count: float | None = None) -> bool:
+    """Whether any reading ((penalty, [(Ion, count), ...]) pairs) holds the ammonium ion (``count`` of them, when
+    given)."""
+    for reading in readings:
+        held = sum(n for ion, n in reading[1] if ion.ion_id == "NH4(+)")
+        if held and (count is None or abs(held - count) < _TOL):
+            return True
+    return False
 
 
 def _ammine_ligands(cations, anions) -> float:
