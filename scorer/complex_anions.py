@@ -174,6 +174,10 @@ def complex_anion_readings(remaining: dict[str, float], budget: list[int]) -> tu
     if not readings:
         return readings, []
     best = min(p for p, _ in readings)
+    if not any(is_constructed(ion) for p, terms in readings if p <= best + 1e-9 for ion, _ in terms):
+        # the best reading holds library ions only (a complex anion the rule built is one of the library's,
+        # SO4(2-)): the walk has judged it already, and no note names an ion that was not built
+        return [], []
     built = sorted({ion.ion_id + " (" + ion.name + ")" for p, terms in readings if p <= best + 1e-9
                     for ion, _ in terms if is_constructed(ion)})
     note = ("no library reading balances: complex anion " + ", ".join(built) +

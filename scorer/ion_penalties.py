@@ -60,9 +60,10 @@ _PENALTY_NO_DIVALENT_ION = 1.5
 _PENALTY_RARE_ANION = 1.5
 _PENALTY_UNCOMMON_ION = 0.5
 # O-O anions only where no mixed valence explains the oxygen (YBa2Cu3O7 is
-# Cu(II)/Cu(III), not Cu(I) with peroxide)
+# Cu(II)/Cu(III), not Cu(I) with peroxide); hydroperoxide is one too: at the uncommon-ion price it made
+# chromic acid H2CrO4 Cr(2+) with two HO2(-), tungstic acid W(4+) and HVO3 V(3+)
 _PENALTY_PEROXO = 3.5
-_PEROXO_IONS = frozenset({"O2(2-)", "O2(-)", "O3(-)"})
+_PEROXO_IONS = frozenset({"O2(2-)", "O2(-)", "O3(-)", "HO2(-)"})
 _PENALTY_HYDROGEN_ANION = 0.05
 # Ions real salts seldom contain; they win only where nothing common fits.
 _UNCOMMON_FAMILIES = frozenset({
@@ -70,7 +71,7 @@ _UNCOMMON_FAMILIES = frozenset({
 })
 _UNCOMMON_IONS = frozenset({
     "N2H5(+)", "N2H6(2+)", "NH3OH(+)", "NH2SO3(-)", "S2O4(2-)", "S2O5(2-)", "S2O6(2-)",
-    "S2O7(2-)", "S2O8(2-)", "HO2(-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)", "SO5(2-)",
+    "S2O7(2-)", "S2O8(2-)", "PH4(+)", "CNO(-)", "NH2(-)", "NH(2-)", "C3(4-)", "SO5(2-)",
     "FeO4(2-)",
 })
 # oxoanions that mostly exist as formula units of mixed oxides, where the

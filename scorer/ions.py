@@ -44,7 +44,7 @@ from ionicity.scorer.ion_library import (
     monatomic_ion,
     same_label_ions,
 )
-from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _states
+from ionicity.scorer.ion_penalties import _FORMULA_UNIT_OXOANIONS, _IONIC_THRESHOLD, _PENALTY_SPECIES, _pair_penalty, _states
 from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
@@ -360,17 +360,16 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # every NH4 group the text writes is an ammonium ion: (NH4)2Cr2O6 (the dichromate with an O lost) was read
         # as one ammonium beside nitrite and chromium(II)
         readings = [r for r in readings if _holds_ammonium([r], written_nh4)]
-    if readings and "H" in remaining and "O" in remaining:
-        # no hydride beside a proton donor: H(-) and an O-H or N-H acid react to H2 (H(-) + OH(-) -> H2 + O(2-);
-        # Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.6; from memory): BaH3O4P read as Ba(2+), H(-), H2PO4(-)
-        readings = [r for r in readings if not _hydride_beside_proton_donor(r[1])]
-    if readings and ("Si" in remaining or "Ge" in remaining):
-        # silicide and germanide ions only where no other anion takes the electrons: Cu2GeS3 was read as Cu(3+)
-        # with Ge(4-) and a trisulfide (Mg2Si is Si(4-); beside S, Se, P or O the tetrel is the cation)
-        readings = [r for r in readings if not _tetride_beside_another_anion(r[1])]
+    readings = _coexisting(readings, remaining)
+    if readings and not hinted:
+        # a metal's oxoacid or complex acid written whole (HMnO4, H2CrO4, HAuCl4, H3PW12O40): H(+) with its anion,
+        # not a metal(VII) cation with oxide and hydroxide
+        readings = _metal_acid_reading(remaining) or readings
     chosen = _best(readings)
     if chosen is None and not hinted and not skeleton:  # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
+        # (the same ions that cannot sit together: H2MnO4S.1H2O came back from it as Mn(4+), H(-), SO4(2-))
+        built = _coexisting(built, remaining)
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
@@ -601,11 +600,32 @@ def _ammonium_count_proposal(counts: dict[str, float]) -> str:
 _PROTIC_FAMILIES = frozenset({"hydrogen-oxoanion", "hydrogen-chalcogenide", "hydroxo-complex", "ammonium-like"})
 
 
-def _hydride_beside_proton_donor(terms) -> bool:
-    """Whether a reading ((Ion, count) pairs) holds H(-) beside an ion that gives it a proton."""
+def _coexisting(readings, remaining: dict[str, float]) -> list:
+    """The readings whose ions can sit together in one solid: no hydride beside a proton donor or an oxoanion,
+    no silicide or germanide beside another anion."""
+    if readings and "H" in remaining and "O" in remaining:
+        # no hydride beside a proton donor: H(-) and an O-H or N-H acid react to H2 (H(-) + OH(-) -> H2 + O(2-);
+        # Greenwood & Earnshaw, 2nd ed., 1997, ch. 3.6; from memory): BaH3O4P read as Ba(2+), H(-), H2PO4(-);
+        # nor beside an oxoanion, which it reduces: Ca(OH)Cl tied as Ca(2+), H(-), ClO(-) with the hydroxide
+        # chloride
+        readings = [r for r in readings if not _hydride_beside_reactive_ion(r[1])]
+    if readings and ("Si" in remaining or "Ge" in remaining):
+        # silicide and germanide ions only where no other anion takes the electrons: Cu2GeS3 was read as Cu(3+)
+        # with Ge(4-) and a trisulfide (Mg2Si is Si(4-); beside S, Se, P or O the tetrel is the cation)
+        readings = [r for r in readings if not _tetride_beside_another_anion(r[1])]
+    return readings
+
+
+def _hydride_beside_reactive_ion(terms) -> bool:
+    """Whether a reading ((Ion, count) pairs) holds H(-) beside an ion that gives it a proton, or beside an
+    oxoanion (a polyatomic anion holding oxygen), which the hydride reduces: hydride salts hold halides, oxide,
+    nitride and the hydrido complexes beside it (NaH, LaHO, Li2NH... BH4(-), AlH4(-); Greenwood & Earnshaw,
+    Chemistry of the Elements, 2nd ed., 1997, ch. 3.6; from memory)."""
     ids = [ion for ion, _ in terms]
     return any(ion.ion_id == "H(-)" for ion in ids) and any(
-        ion.family in _PROTIC_FAMILIES or ion.ion_id == "H(+)" for ion in ids)
+        ion.family in _PROTIC_FAMILIES or ion.ion_id == "H(+)"
+        or ion.charge < 0 and not ion.monatomic and any(symbol == "O" for symbol, _ in ion.composition)
+        for ion in ids)
 
 
 def _tetride_beside_another_anion(terms) -> bool:
@@ -686,6 +706,48 @@ _IONIC_LIQUID_ANION_FAMILIES = frozenset({"sulfonylimide", "sulfonate", "alkylsu
                                           "fluoroalkylphosphate", "alkylphosphate"})
 _IONIC_LIQUID_ANIONS = frozenset({"BF4(-)", "PF6(-)", "Cl(-)", "Br(-)", "I(-)", "NO3(-)", "HSO4(-)", "SCN(-)",
                                   "CH3COO(-)", "CF3COO(-)"})
+
+
+# the anions whose protonated forms are the metals' acids (permanganic, chromic, tungstic, chloroauric,
+# hexachloroplatinic, ferrocyanic and the heteropoly acids): a high-valent metal's oxoanion, a halo or cyano
+# complex (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 22-25 and 28; Pope,
+# Heteropoly and Isopoly Oxometalates, 1983; from memory). The amphoteric oxoanions of the lower states
+# (AlO2, CrO2, ZnO2, the formula units of mixed oxides) are left out: HAlO2 is boehmite AlO(OH), no acid.
+_METAL_ACID_FAMILIES = frozenset({"metal-oxoanion", "oxoanion", "halo-complex", "cyano-complex"})
+_METAL_ACID_LOWEST_OXO_STATE = 5
+
+
+@per_input(maxsize=4096)
+def _metal_acid_anions(present: frozenset) -> tuple[Ion, ...]:
+    """Library anions of :data:`_METAL_ACID_FAMILIES` made of the elements ``present`` and holding a metal."""
+    out = []
+    for ion in ion_library():
+        symbols = {symbol for symbol, _ in ion.composition}
+        if ion.charge >= 0 or ion.organic or ion.monatomic or ion.family not in _METAL_ACID_FAMILIES \
+                or not symbols <= present or ion.ion_id in _FORMULA_UNIT_OXOANIONS:
+            continue
+        metal_states = [state for symbol, state in ion.oxidation_states if is_metal(symbol)]
+        if not metal_states:
+            continue
+        if ion.family in ("metal-oxoanion", "oxoanion") and min(metal_states) < _METAL_ACID_LOWEST_OXO_STATE:
+            continue
+        out.append(ion)
+    return tuple(out)
+
+
+def _metal_acid_reading(remaining: dict[str, float]):
+    """[(penalty, [(H(+), n), (anion, 1)])] when ``remaining`` is H_n and one metal-acid anion of charge -n
+    (:func:`_metal_acid_anions`); None otherwise."""
+    hydrogen = remaining.get("H", 0.0)
+    if not hydrogen or not any(is_metal(s) for s in remaining):
+        return None
+    rest = {s: n for s, n in remaining.items() if s != "H"}
+    for ion in _metal_acid_anions(frozenset(remaining)):
+        if abs(hydrogen + ion.charge) < _TOL and dict(ion.composition) == rest:
+            proton = monatomic_ion("H", 1)
+            penalty = _pair_penalty(proton, remaining) + _pair_penalty(ion, remaining) + 2 * _PENALTY_SPECIES
+            return [(penalty, [(proton, hydrogen), (ion, 1.0)])]
+    return None
 
 
 def _acid_readings(readings):
@@ -788,6 +850,13 @@ def _best(readings):
         if compatible:
             seen = compatible
     if len(seen) > 1:
+        # of the rest, one whose hydrogen sits in an anion (hydroxide, a hydrogen-oxoanion) rather than as a
+        # bare proton beside metal cations: talc Mg3Si4O10(OH)2 is Mg(2+) with hydroxide and Si2O5(2-) sheets,
+        # not H(+) with metasilicate (a proton in a solid is bonded to an oxygen; common practice)
+        protons = {t: _bare_protons(ca) for t, ca in seen.items()}
+        fewest_protons = min(protons.values())
+        seen = {t: ca for t, ca in seen.items() if protons[t] <= fewest_protons + _TOL}
+    if len(seen) > 1:
         # of the rest, one that gives each element one oxidation state: Na3V2(PO4)2O2F is V(4+) with oxide,
         # phosphate and fluoride, not V(3+) beside a metavanadate V(V) and a fluorophosphate (a mixed valence
         # hidden in two species; the reading with fewer distinct states is the simpler; common practice)
@@ -811,6 +880,14 @@ def _best(readings):
         seen = {t: ca for t, ca in seen.items() if cyano[t] <= most + _TOL}
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
+
+
+def _bare_protons(cations_anions) -> float:
+    """How many H(+) a reading holds beside a metal cation (0 without one: an acid's protons are its cation)."""
+    cations = cations_anions[0]
+    if not any(term.ion.monatomic and is_metal(term.ion.element) for term in cations):
+        return 0.0
+    return float(sum(term.count for term in cations if term.ion.ion_id == "H(+)"))
 
 
 def _split_elements(cations_anions) -> int:

@@ -116,6 +116,7 @@ from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
 from ionicity.scorer.ion_shapes import ONIUM_FAMILIES, _shape_table, anion_symmetry_number, ion_shape
 from ionicity.scorer.caching import per_input
+from ionicity.scorer.elements import is_metal
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.melting_index import (
@@ -413,6 +414,10 @@ MeltingTrend = result_class(
 
 
 _NO_LATTICE_ENERGY = "melting trend: no lattice energy for this salt (see the lattice-energy notes)"
+_METAL_ACID = (
+    "melting trend: not computed for a metal's acid (its only cation the proton, the metal in the anion): such"
+    " acids are kept as hydrates or solutions that lose water and decompose on heating; " + CAUTION
+)
 _HYDRATE = (
     "melting trend of the anhydrous salt: a hydrate melts in its own water of crystallisation, usually far lower"
 )
@@ -655,6 +660,11 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         route = "molecular" if dec.substance_class == "base" else None
     terms, notes, steps, reading = None, [], (), None
     index = math.nan
+    if dec.substance_class == "acid" and any(is_metal(s) for s, _ in dec.composition):
+        # a metal's acid (HMnO4, H2CrO4, HAuCl4, H2PtCl6, H3PW12O40): kept as hydrates or solutions that lose
+        # water and decompose on heating (chromic acid near 470 K, tungstic acid to WO3; Greenwood & Earnshaw,
+        # 2nd ed., 1997, ch. 23; from memory); the molecular reading gave these from 250 K to 2,800 K
+        return MeltingTrend(notes=(_METAL_ACID,), steps=(_METAL_ACID,), mp_route=route)
     if route == "salt":
         index, terms, notes = _salt(dec)
     elif route == "molecular":

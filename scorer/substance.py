@@ -93,6 +93,8 @@ _ACID_ANION_FAMILIES = frozenset({
     "monatomic", "oxoanion", "hydrogen-oxoanion", "carboxylate", "halo-complex", "pseudohalide",
     "sulfonate", "sulfonylimide", "alkylsulfate", "metal-oxoanion", "cyano-anion",
 })
+# the anions of the metals' acids (scorer.ions reads them whole: _metal_acid_reading)
+_METAL_ACID_ANION_FAMILIES = frozenset({"metal-oxoanion", "oxoanion", "halo-complex", "cyano-complex"})
 # binary hydrides that are acids in water (HCl, H2S); H2O and NH3 are not
 _ACID_FORMING_ELEMENTS = frozenset({"F", "Cl", "Br", "I", "S", "Se", "Te"})
 
@@ -359,6 +361,11 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
     cation_ions = [t.ion for t in cations]
     if any(ion.organic for ion in cation_ions):
         return "ionic_liquid_pair"
+    if has_metal and cation_ions and all(ion.ion_id == "H(+)" for ion in cation_ions) and len(anions) == 1 \
+            and anions[0].ion.family in _METAL_ACID_ANION_FAMILIES:
+        # a metal's acid: its only cation the proton, the metal inside the anion (HMnO4, H2CrO4, HAuCl4,
+        # H2PtCl6, H3PW12O40; common practice)
+        return "acid"
     if not has_metal and all(ion.element == "H" for ion in cation_ions):
         anion = anions[0].ion if len(anions) == 1 and anions[0].count == 1 else None
         if anion is not None and anion.family in _ACID_ANION_FAMILIES and (
