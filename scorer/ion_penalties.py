@@ -96,7 +96,11 @@ _PENALTY_FRACTIONAL_SPLIT = 1.0
 # a bare cation of charge 5 or more is a formal device (U6+ + 2 O2- in uranyl nitrate)
 _PENALTY_HIGH_CATION = 1.0
 # hydronium only where nothing else fits: H3PO4 is 3 H+ + PO4(3-), not H3O+ + PO3-
-_ION_PENALTIES = {"H3O(+)": 2.0}
+# hydrogenperoxomonosulfate above its parent peroxomonosulfate (uncommon) by a hydrogen anion's step, so Caro's
+# acid H2SO5 is 2 H+ with SO5(2-) as sulfuric acid is 2 H+ with SO4(2-), and above an uncommon cation beside a
+# common anion, so an O-O bond loses a tie with an N-O bond: H5NO5S is hydroxylammonium hydrogensulfate, not
+# ammonium hydrogenperoxomonosulfate
+_ION_PENALTIES = {"H3O(+)": 2.0, "HSO5(-)": 2 * _PENALTY_UNCOMMON_ION + _PENALTY_HYDROGEN_ANION}
 # oxocations (NO2+, UO2 2+, VO 2+) only where nothing else fits: HNO3 is H+ + NO3-
 _PENALTY_OXOCATION = 2.0
 _IONIC_THRESHOLD = 5.0

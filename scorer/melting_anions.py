@@ -282,9 +282,10 @@ def coordinating_organic_anion_fraction(cations, anions) -> float:
 # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997: peroxides and superoxides lose O2,
 # ch. 14.2; hydrogencarbonates lose CO2 and water, ch. 8.6; hydrogensulfites, disulfites and dithionites
 # lose SO2, ch. 15.2; hypochlorites, chlorites and bromites disproportionate, ch. 17.2; from memory)
+# the peroxosulfates lose O2 too, from about 100 C (K2S2O8, potassium peroxymonosulfate; ch. 15.2.7, from memory)
 DECOMPOSING_ANIONS = frozenset({
     "O2(2-)", "O2(-)", "O3(-)", "HO2(-)", "ClO(-)", "ClO2(-)", "BrO2(-)", "HCO3(-)", "HSO3(-)", "S2O4(2-)",
-    "S2O5(2-)",
+    "S2O5(2-)", "S2O8(2-)", "SO5(2-)", "HSO5(-)",
 })
 
 # anions whose salts decompose violently on heating, shock or friction: azides lose N2 (sodium azide near
@@ -303,6 +304,8 @@ OXIDISING_ANIONS = frozenset({
     "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)",
     "CrO4(2-)",
     "N(NO2)2(-)",
+    # the peroxosulfates (ammonium persulfate is sold as an oxidiser and decomposes exothermically; ch. 15.2.7)
+    "S2O8(2-)", "SO5(2-)", "HSO5(-)",
 })
 FUEL_CATIONS = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
 

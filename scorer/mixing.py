@@ -32,7 +32,8 @@ from ionicity.scorer.melting_anions import FUEL_CATIONS, OXIDISING_ANIONS
 
 __all__ = ["mixing_warning", "corrosive_note"]
 
-_OXIDISING_IONS = OXIDISING_ANIONS | frozenset({"ClO(-)", "BrO(-)", "IO3(-)", "S2O8(2-)", "O2(2-)", "IO4(-)"})
+_OXIDISING_IONS = OXIDISING_ANIONS | frozenset({"ClO(-)", "BrO(-)", "IO3(-)", "S2O8(2-)", "O2(2-)", "IO4(-)",
+                                                 "SO5(2-)", "HSO5(-)"})
 # molecules and elements that oxidise (common practice)
 _OXIDISING_FORMULAS = frozenset({"H2O2", "O3", "F2", "Cl2", "Br2", "ClO2", "N2O4", "NO2"})
 # elements that burn: the metals, and C, S, P, B, Si (black powder is KNO3 with S and C; common practice)

@@ -57,6 +57,12 @@ _TRAILING_BASIS = re.compile(r"\s+(\(?\s*(?:w/w|w/v|v/v|m/m)\s*\)?)\s*$", re.I)
 # the same concentrations written before the solute, and a molar amount after "+" (a solute in what precedes)
 _LEADING = tuple((p, re.compile(rf"^(?P<c>{p.pattern})\s+(?P<rest>[A-Z(\[].*)$", p.flags)) for p in (_MOLAR, _PERCENT, _GRADE))
 _PLUS_MOLAR = re.compile(rf"^(?P<solvent>\S.*?)(?:\s*\+\s*|\s+with\s+)(?P<c>{_MOLAR.pattern})\s+(?P<rest>\S.*)$")
+# the same with the molar amount after the solute: "[C4mim][BF4] + LiBF4 0.5 M"
+_PLUS_SOLUTE_MOLAR = re.compile(
+    rf"^(?P<solvent>\S.*?)(?:\s*\+\s*|\s+with\s+)(?P<rest>[A-Z(\[]\S*)\s+(?P<c>{_MOLAR.pattern})$")
+# a concentration written last, after the solvent: "NaCl in water 1 M", "LiTFSI in [C4mpyr][NTf2] 1 M"
+_TRAILING_CONCENTRATION = tuple(re.compile(rf"^(?P<solvent>\S.*?)\s+(?P<c>{p.pattern})$", p.flags)
+                                for p in (_MOLAR, _PERCENT))
 
 
 @dataclass(frozen=True)
@@ -140,6 +146,12 @@ def split_in_solvent(text: str) -> Solution | None:
     >>> s = split_in_solvent("[C4mim][BF4] + 0.5 M LiBF4")
     >>> s.solute, s.concentration, s.solvent
     ('LiBF4', '0.5 M', '[C4mim][BF4]')
+    >>> s = split_in_solvent("[C4mim][BF4] + LiBF4 0.5 M")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiBF4', '0.5 M', '[C4mim][BF4]')
+    >>> s = split_in_solvent("LiTFSI in [C4mpyr][NTf2] 1 M")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiTFSI', '1 M', '[C4mpyr][NTf2]')
     >>> s = split_in_solvent("NaH (60% dispersion in mineral oil)")
     >>> s.solute, s.concentration, s.solvent
     ('NaH', '60 %', 'mineral oil')
@@ -160,6 +172,8 @@ def split_in_solvent(text: str) -> Solution | None:
                             bare.group("solvent").strip())
         # "[C4mim][BF4] + 0.5 M LiBF4": a molar amount after "+" is a solute in what comes before it
         plus = _PLUS_MOLAR.match(text.strip()) if ("+" in text or " with " in text) else None
+        if plus is None and ("+" in text or " with " in text):
+            plus = _PLUS_SOLUTE_MOLAR.match(text.strip())
         if plus is None:
             return None
         return Solution(plus.group("rest").strip(), _as_written(_MOLAR, _MOLAR.match(plus.group("c"))),
@@ -173,6 +187,10 @@ def split_in_solvent(text: str) -> Solution | None:
     trailing = split_solution(left)
     if trailing is not None:
         return Solution(trailing.solute, trailing.concentration, solvent, form=trailing.form)
+    for pattern, after in zip((_MOLAR, _PERCENT), _TRAILING_CONCENTRATION):
+        last = after.match(solvent)
+        if last is not None:
+            return Solution(left, _as_written(pattern, pattern.match(last.group("c"))), last.group("solvent").strip())
     return Solution(left, "", solvent)
 
 

@@ -265,11 +265,12 @@ def test_intermetallic_set_rebuilds_from_the_registry():
 
 # Peroxides and superoxides lose O2, hydrogencarbonates CO2 and water, hydrogensulfites and disulfites
 # SO2, hypochlorites disproportionate, all on heating (Greenwood & Earnshaw, Chemistry of the Elements,
-# 2nd ed., 1997, ch. 8.6, 14.2, 15.2, 17.2; from memory): their rows say that the trend is of a
+# 2nd ed., 1997, ch. 8.6, 14.2, 15.2, 17.2; from memory; the peroxosulfates lose O2 from about 100 C): their rows say that the trend is of a
 # decomposition and carry the caution; a carbonate, a sulfate and a chlorate do not (they melt first or
 # are not listed: KClO3 melts at 629 K before it decomposes, CRC via chemicals)
 @pytest.mark.parametrize("formula, decomposes", [
     ("BaO2", True), ("KO2", True), ("NaHCO3", True), ("Na2S2O5", True), ("Ca(ClO)2", True),
+    ("K2S2O8", True), ("KHSO5", True),
     ("K2CO3", False), ("Na2SO4", False), ("KClO3", False),
 ])
 def test_salts_of_anions_that_decompose_on_heating_say_so(formula, decomposes):

@@ -192,3 +192,38 @@ def test_a_metal_on_carbon_carries_the_ignition_caution():
     out = score_formula("Pd/C 10%")
     assert out["status"] == "warning" and "can ignite" in out["message"] and "safety data sheet" in out["message"]
     assert "can ignite" not in (score_formula("Pd/Al2O3 5%")["message"] or "")
+
+
+# the concentration written last, after the solvent, or after the solute that follows a "+" (electrolyte and
+# stock-solution labels write it so; common practice): it is the row's concentration, and the solvent is
+# named in its note; before, "NaCl in water 1 M" lost its concentration into the solvent's name and
+# "[BMIM][BF4] + LiBF4 0.5 M" was an error (element M)
+@pytest.mark.parametrize("text, solute, strength, solvent", [
+    ("NaCl in water 1 M", "NaCl", "1 M", "water"),
+    ("LiPF6 in EC/DMC 1 M", "LiPF6", "1 M", "EC/DMC"),
+    ("LiTFSI in [C4mpyr][NTf2] 1 M", "Li[NTf2]", "1 M", "[C4mpyr][NTf2]"),
+    ("NaOH in water 50 % w/w", "NaOH", "50 % w/w", "water"),
+    ("[BMIM][BF4] + LiBF4 0.5 M", "LiBF4", "0.5 M", "[BMIM][BF4]"),
+])
+def test_a_concentration_after_the_solvent_is_the_solutions(text, solute, strength, solvent):
+    row = score_formula(text)
+    assert row["status"] == "ok", row["message"]
+    assert row["formula_normalized"] == solute
+    assert row["concentration_as_written"] == strength
+    assert f"a solution ({strength}) in {solvent}:" in row["value_notes"]
+
+
+# potassium peroxymonosulfate and its triple salt 2KHSO5.KHSO4.K2SO4 (Greenwood & Earnshaw, Chemistry of the
+# Elements, 2nd ed., 1997, ch. 15.2.7; from memory): HSO5(-) as written; it was read as a hydrate of a hydroxide
+# peroxodisulfate, and KHSO5 as H(+) beside K(+) with SO5(2-); the peroxosulfates are oxidisers that lose O2 on
+# heating, and beside ammonium fuel and oxidiser in one salt
+def test_peroxomonosulfate_salts_read_with_their_anion():
+    assert score_formula("KHSO5")["anions"] == "HSO5(-)*1"
+    triple = score_formula("2KHSO5·KHSO4·K2SO4")
+    assert triple["status"] == "ok", triple["message"]
+    assert {t.split("*")[0] for t in triple["anions"].split(";")} == {"HSO5(-)", "HSO4(-)", "SO4(2-)"}
+    assert score_formula("H2SO5")["anions"] == "SO5(2-)*1"
+    # an O-O bond loses a tie with an N-O bond: hydroxylamine sulfate (the registry's H5NO5S)
+    assert score_formula("H5NO5S")["cations"] == "NH3OH(+)*1"
+    notes = score_formula("(NH4)2S2O8")["value_notes"]
+    assert "decomposes on heating" in notes and "fuel and oxidiser in one salt" in notes
