@@ -277,6 +277,10 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     if (water and values["substance_class"] in _MOLECULAR_OR_LAYER
             and family_decided(organic_molecule(comp) or decompose_anhydrous(comp))):
         values, warnings, gaps, formula, base = _anhydrous_scores(*key, True)
+    if water and values["substance_class"] in _METALLIC_CLASSES:
+        # a metal or an alloy written with water (Ca·H2O; Ca(OH2), a slip of Ca(OH)2): no metal holds water of
+        # crystallisation, and the alkali and alkaline-earth metals react with it (common practice)
+        return _error_row(_metal_with_water(formula, comp.text))
     formula_at, name_at, water_at, mass_at, status_at, message_at, notes_at = _slots()
     row = list(base)
     mass = _unrounded_mass(comp.counts)
@@ -306,6 +310,25 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
         return _error_row(row[message_at])
     row[notes_at] = gaps[1] if water else gaps[0]
     return tuple(row)
+
+
+_METALLIC_CLASSES = frozenset({"metallic", "intermetallic"})
+# a water ligand written OH2 after a metal with nothing else: a hydroxide whose count slipped inside the bracket
+_AQUA_FOR_HYDROXIDE = re.compile(r"\(OH2\)(?![\d.])")
+
+
+def _metal_with_water(formula: str, text: str) -> str:
+    """The error of a metal or alloy written with water of crystallisation, with the hydroxide where the text
+    wrote the water as an OH2 group (Ca(OH2) for Ca(OH)2).
+
+    >>> _metal_with_water("Ca", "Ca(OH2)").endswith("check the formula (Ca(OH)2?)")
+    True
+    """
+    message = (f"{formula} is written with water of crystallisation, which no metal holds: a hydroxide is written"
+               " with OH, a salt hydrate with its anion (CaCl2·2H2O); check the formula")
+    if text and _AQUA_FOR_HYDROXIDE.search(text):
+        message += f" ({_AQUA_FOR_HYDROXIDE.sub('(OH)2', text.strip())}?)"
+    return message
 
 
 def _write_isotopes(row: list, comp: ParsedFormula) -> None:

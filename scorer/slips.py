@@ -535,7 +535,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     word = letters == stripped and (len(letters) >= 7 and letters.islower() or len(letters) >= 6 and letters[0].isupper()
                                     and letters[1:].islower())
     all_lower = letters.islower() and not word
-    if not (all_caps or all_lower or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
+    # as written an element no shelf holds a compound of (Nh3 nihonium, No nobelium: NH3, NO typed with a lower-case
+    # letter), or one metal with a count no substance has (Co2, Cs2: CO2, CS2): evidence of a lost case
+    impossible = not word and _impossible_as_written(text)
+    if not (all_caps or all_lower or impossible or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
     written_box: list[float] = []
@@ -577,7 +580,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     unreadable = _parsed(text) is None
 
     def lost_case() -> None:
-        if (all_caps or all_lower or unreadable) and not word:
+        if (all_caps or all_lower or unreadable or impossible) and not word:
             # capitals that read as a radical (CD, SN) are evidence of lost case, as lower case is
             radical = all_caps and not unreadable and odd_electron_molecule(_parsed(text))
             # so is an I after a letter it makes a symbol with (TIO2, NIO, SI3N4: Ti, Ni, Si), where as written the
@@ -589,7 +592,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
                                    if not _breaks_an_oxoanion(stripped, p)]
             else:
                 recased = lambda: _case_proposals(stripped, all_caps or all_lower)  # noqa: E731
-            consider("letter_case", recased, all_lower or unreadable or radical or capital_of_i)
+            consider("letter_case", recased, all_lower or unreadable or radical or capital_of_i or impossible)
 
     if all_caps:
         lost_case()  # first, so that a re-cased reading as good as a re-lettered one is found (TIO2: TiO2, TlO2)
@@ -649,6 +652,31 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     others = [c[3] for c in sorted(candidates) if c[3] != best and c[0] <= penalty + 1.0][:2]
     also = f" (also possible: {', '.join(others)})" if others else ""
     return Slip(kind, best, f"typing slip? {text!r} looks like {best}{also}: {SLIP_KINDS[kind]}; values are for {best}")
+
+
+def _impossible_as_written(text: str) -> bool:
+    """Whether ``text`` parses but holds an element no inventory holds a compound of (:data:`_NO_CHEMISTRY`,
+    atomic number from :data:`_NO_CHEMISTRY_FROM_Z`) beside others or with a count, or is one metal with a count
+    (``Co2``: metals are no molecules).
+
+    >>> _impossible_as_written("Nh3"), _impossible_as_written("Co2"), _impossible_as_written("Co"), _impossible_as_written("I2")
+    (True, True, False, False)
+    >>> _impossible_as_written("Bk"), _impossible_as_written("Nh4Cl")
+    (False, True)
+    """
+    comp = _parsed(text)
+    return comp is not None and impossible_composition(comp.counts)
+
+
+def impossible_composition(counts) -> bool:
+    """:func:`_impossible_as_written` of parsed ``counts`` ((symbol, count) pairs): the prescan asks it of the
+    texts it would pass as ordinary."""
+    if len(counts) == 1 and counts[0][1] == 1:
+        return False  # an element's symbol alone (Bk, Es) is that element: BK is no likelier
+    if any(s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in counts):
+        return True
+    return len(counts) == 1 and counts[0][1] != 1 and tuple(counts[0]) not in _ELEMENT_MOLECULES \
+        and get_element(counts[0][0]).is_metal
 
 
 def lone_element_count(text: str) -> bool:
