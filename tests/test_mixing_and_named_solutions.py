@@ -30,6 +30,8 @@ from ionicity.scorer.slips import find_slip
     ("baryta water", "Ba(OH)2", "sat."),
     ("aqua fortis", "HNO3", None),
     ("ammonia water", "NH3", None),
+    # the registry package chemicals gives "water glass" the formula of sodium metasilicate (CAS 6834-92-0)
+    ("water glass", "Na2SiO3", None),
 ])
 def test_named_solutions_are_their_solute(text, solute, strength):
     out = score_formula(text)
