@@ -9,7 +9,7 @@ import re
 from typing import Callable
 
 from ionicity.scorer.formula import FormulaError, laboratory_code, parse_formula
-from ionicity.scorer.name_reader import known_word_name
+from ionicity.scorer.name_reader import known_word_name, registry_entry
 from ionicity.scorer.slips import Slip, find_slip, missing_count_suggestions
 from ionicity.scorer.solutions import Solution, solution_note, split_grade_words, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
@@ -41,6 +41,10 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
         named = known_word_name(text)
         if named is not None:
             return parsed_row(named)
+        if " " in text.strip() and registry_entry(text) is not None:
+            # a name of the registry's tables written with a space ("Cucurbitacin C"): the name reader's, not a
+            # re-casing of its letters into element symbols
+            slip = None
     if slip is None:
         if CAPITALS_CODE.fullmatch(text):
             return code_like_row(plain_row(text), text, position, error_row)

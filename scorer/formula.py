@@ -1258,12 +1258,18 @@ _RARE_FOR_SUGGESTIONS = frozenset(
 )
 
 
+# three to six capitals alone: as often an abbreviation (PAN, AMP) as a formula in capitals, so no rare symbol is
+# suggested for it either (PaN, AmP)
+_LETTER_CODE = re.compile(r"[A-Z]{3,6}")
+
+
 def _suggest(cleaned: str) -> str | None:
     """A corrected spelling for a mis-cased symbol ("NaCL" -> "NaCl")."""
     for i in range(len(cleaned) - 1):
         pair = cleaned[i:i + 2]
         if pair.isupper() and pair.isalpha() and is_element_symbol(pair[0] + pair[1].lower()) \
-                and (pair[0] + pair[1].lower() not in _RARE_FOR_SUGGESTIONS or cleaned.isupper()):
+                and (pair[0] + pair[1].lower() not in _RARE_FOR_SUGGESTIONS
+                     or cleaned.isupper() and not _LETTER_CODE.fullmatch(cleaned)):
             candidate = cleaned[:i] + pair[0] + pair[1].lower() + cleaned[i + 2:]
             try:
                 _parse_cleaned(candidate, candidate, [])

@@ -83,6 +83,12 @@ MARGIN = 2.0
 # everything after Bi (a reading that needs one is a worse reading)
 _RARE_FROM_Z = 84
 _RARE = frozenset({"He", "Ne", "Ar", "Kr", "Xe", "Tc", "Pm"})
+# tritium is as rare (a radioactive label): a T in a formula of capitals is thallium or thorium (TL, TH) far more
+# often (THO2 read as tritiated hydrogen peroxide HTO2)
+_RARE_ISOTOPES = frozenset({"T"})
+# the radioactive elements from polonium on whose compounds a stock list does hold: thorium and uranium salts
+# (thorium nitrate, uranyl acetate), not rare as the others from _RARE_FROM_Z on
+_STOCKED_ACTINIDES = frozenset({"Th", "U"})
 # elements no inventory holds a compound of (no long-lived isotope, or made a few atoms at a time): a reading
 # that needs one is no reading ("KNO" as nobelium, "ATP" as astatine; common practice)
 _NO_CHEMISTRY = frozenset({"At", "Rn", "Fr"})
@@ -237,9 +243,9 @@ def _parsed_penalty(text: str) -> float:
     if comp is None or _impossible_noble_gas_compound(dict(comp.counts)) or any(
             s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in comp.counts):
         return math.inf
-    penalty = 0.5 * len(comp.counts)
+    penalty = 0.5 * len(comp.counts) + 3.0 * sum(1 for symbol, _ in comp.isotopes if symbol in _RARE_ISOTOPES)
     for symbol, count in comp.counts:
-        if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z:
+        if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z and symbol not in _STOCKED_ACTINIDES:
             penalty += 3.0
     return penalty + 4.0 * sum(map(_absurd_counts(comp.counts).__contains__, (s for s, _ in comp.counts)))
 
@@ -635,6 +641,10 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # capitals or all lower case, is re-cased
     if not all_caps:
         lost_case()
+    if all_caps and _CODE_SHAPED.fullmatch(stripped):
+        # a cell of three to six capitals is as often an abbreviation (PAN, propylammonium nitrate) as a formula that
+        # lost its case: a re-casing that needs a radioactive element no shelf holds a compound of (PaN) is none
+        candidates = [c for c in candidates if not _needs_radioactive_rarity(c[3])]
     if not candidates:
         return None  # most texts: no character that can be a slip, or a written reading no proposal could beat
     written = written_penalty()
@@ -652,6 +662,21 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     others = [c[3] for c in sorted(candidates) if c[3] != best and c[0] <= penalty + 1.0][:2]
     also = f" (also possible: {', '.join(others)})" if others else ""
     return Slip(kind, best, f"typing slip? {text!r} looks like {best}{also}: {SLIP_KINDS[kind]}; values are for {best}")
+
+
+# three to six capitals alone (scorer.audit_rows.CAPITALS_CODE without the spaces)
+_CODE_SHAPED = re.compile(r"[A-Z]{3,6}")
+
+
+def _needs_radioactive_rarity(proposal: str) -> bool:
+    """Whether a proposed spelling holds an element from :data:`_RARE_FROM_Z` on other than thorium and uranium.
+
+    >>> _needs_radioactive_rarity("PaN"), _needs_radioactive_rarity("UO2"), _needs_radioactive_rarity("KCN")
+    (True, False, False)
+    """
+    comp = _parsed(proposal)
+    return comp is not None and any(get_element(s).atomic_number >= _RARE_FROM_Z and s not in _STOCKED_ACTINIDES
+                                    for s, _ in comp.counts)
 
 
 def _impossible_as_written(text: str) -> bool:

@@ -134,3 +134,20 @@ def test_anhydrides_and_isocyanates_by_name_react_with_water(name, kind, product
     assert registry_entry(name)[4] == kind
     record = score_formula(name)
     assert record["water_behaviour"] == "reacts" and record["water_reaction_products"] == products
+
+
+# A registry name written with a space is the name reader's: the slip search had re-cased its letters into
+# element symbols ("Tin (white)" as TiN with WHITe, "Cucurbitacin C" as a rubidium tantalum copper iodide) or
+# taken a bracket of a systematic name for an unknown ion code (an error). The formula is the registry's for the
+# row's CAS number (the registry package chemicals, search_chemical).
+@pytest.mark.parametrize("name, cas", [
+    ("Tin (white)", "7440-31-5"), ("Phosphorus (white)", "7723-14-0"), ("Cucurbitacin C", "5988-76-1"),
+    ("Aloin A", "1415-73-2"), ("Bis[2-(vinyloxy)ethyl] ether", "764-99-8"),
+])
+def test_a_registry_name_with_a_space_is_no_typing_slip(name, cas):
+    from chemicals.identifiers import search_chemical
+
+    row = score_formula(name)
+    assert row["status"] == "warning" and "the formula cell holds a name" in row["message"], row["message"]
+    assert "typing slip" not in row["message"]
+    assert parse_formula(row["formula_normalized"]).total_counts == parse_formula(search_chemical(cas).formula).total_counts

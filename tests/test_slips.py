@@ -453,3 +453,27 @@ def test_a_metal_written_with_water_is_an_error(text, proposal):
 def test_aqua_ligands_of_a_salt_stay_its_water():
     row = score_formula("[Cu(OH2)6]SO4")
     assert row["status"] == "ok" and row["formula_normalized"] == "CuSO4·6H2O"
+
+
+# Three to six capitals alone are as often an abbreviation as a formula that lost its case: a re-casing or a
+# suggestion that needs a radioactive element no shelf holds a compound of is no correction (PAN,
+# propylammonium nitrate or polyacrylonitrile, read as protactinium nitride with a warning before); thorium,
+# uranium and plutonium compounds written in capitals with a count still recover, and a T in capitals is thorium
+# or thallium before tritium (THO2 read as tritiated hydrogen peroxide with status ok; common practice)
+@pytest.mark.parametrize("text", ["PAN", "RAN", "AMP"])
+def test_a_capital_code_is_not_recased_into_a_radioactive_rarity(text):
+    row = score_formula(text)
+    assert row["status"] == "error"
+    assert not re.search(r"\b(?:Pa|Ra|Am)[A-Z]", row["message"] or "")
+
+
+@pytest.mark.parametrize("text, meant", [("PUO2", "PuO2"), ("THO2", "ThO2"), ("TH(NO3)4", "Th(NO3)4"),
+                                         ("FECL3", "FeCl3")])
+def test_capitals_with_counts_still_recover(text, meant):
+    row = score_formula(text)
+    assert row["formula_normalized"] == meant and "typing slip?" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["D2O", "HTO", "T2O", "CDCl3"])
+def test_isotopic_waters_and_solvents_stay_as_written(text):
+    assert score_formula(text)["formula_normalized"] == text
