@@ -543,8 +543,9 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     all_lower = letters.islower() and not word
     # as written an element no shelf holds a compound of (Nh3 nihonium, No nobelium: NH3, NO typed with a lower-case
     # letter), or one metal with a count no substance has (Co2, Cs2: CO2, CS2): evidence of a lost case
-    impossible = not word and _impossible_as_written(text)
-    if not (all_caps or all_lower or impossible or MAYBE_SLIP.search(stripped)) and _parsed(text) is not None:
+    comp = _parsed(text)
+    impossible = comp is not None and not word and impossible_composition(comp.counts)
+    if not (all_caps or all_lower or impossible or MAYBE_SLIP.search(stripped)) and comp is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
     written_box: list[float] = []
