@@ -277,7 +277,7 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     if (water and values["substance_class"] in _MOLECULAR_OR_LAYER
             and family_decided(organic_molecule(comp) or decompose_anhydrous(comp))):
         values, warnings, gaps, formula, base = _anhydrous_scores(*key, True)
-    if water and values["substance_class"] in _METALLIC_CLASSES:
+    if water and values["substance_class"] in _METALLIC_CLASSES and all(is_metal(s) for s, _ in comp.counts):
         # a metal or an alloy written with water (Ca·H2O; Ca(OH2), a slip of Ca(OH)2): no metal holds water of
         # crystallisation, and the alkali and alkaline-earth metals react with it (common practice)
         return _error_row(_metal_with_water(formula, comp.text))
@@ -313,6 +313,7 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
 
 
 _METALLIC_CLASSES = frozenset({"metallic", "intermetallic"})
+# (a metal-rich phosphide or nitride, CrP, FeN, is read as intermetallic too, and its hydrate is left as it was)
 # a water ligand written OH2 after a metal with nothing else: a hydroxide whose count slipped inside the bracket
 _AQUA_FOR_HYDROXIDE = re.compile(r"\(OH2\)(?![\d.])")
 

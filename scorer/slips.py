@@ -243,7 +243,11 @@ def _parsed_penalty(text: str) -> float:
     if comp is None or _impossible_noble_gas_compound(dict(comp.counts)) or any(
             s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in comp.counts):
         return math.inf
-    penalty = 0.5 * len(comp.counts) + 3.0 * sum(1 for symbol, _ in comp.isotopes if symbol in _RARE_ISOTOPES)
+    penalty = 0.5 * len(comp.counts)
+    if comp.isotopes and not _CODE_SHAPED.fullmatch(text.strip()):
+        # (three to six capitals alone that read only with D or T are an abbreviation: the record says so,
+        # scorer.audit_rows.code_like_row; TBS is no terbium sulfide)
+        penalty += 3.0 * sum(1 for symbol, _ in comp.isotopes if symbol in _RARE_ISOTOPES)
     for symbol, count in comp.counts:
         if symbol in _RARE or get_element(symbol).atomic_number >= _RARE_FROM_Z and symbol not in _STOCKED_ACTINIDES:
             penalty += 3.0
