@@ -107,6 +107,7 @@ from ionicity.scorer.melting_anions import (
     coinage_cation_fraction,
     heavy_halate_fraction,
     coordinating_organic_anion_fraction,
+    polarising_organic_anion_fraction,
     DECOMPOSING_ANIONS,
     ENERGETIC_ANIONS,
     FUEL_CATIONS,
@@ -183,6 +184,7 @@ class MeltingTerms:
     coinage_cation_fraction: float = 0.0
     heavy_halate_fraction: float = 0.0
     organic_anion_fraction: float = 0.0
+    polarising_organic_anion_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -199,7 +201,7 @@ class MeltingTerms:
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
             self.coinage_cation_fraction, self.heavy_halate_fraction, self.organic_anion_fraction,
-            weights=weights,
+            self.polarising_organic_anion_fraction, weights=weights,
         )
 
 
@@ -347,6 +349,7 @@ def _gather_terms(
         coinage_cation_fraction=coinage_cation_fraction(dec.cations),
         heavy_halate_fraction=heavy_halate_fraction(dec.anions),
         organic_anion_fraction=coordinating_organic_anion_fraction(dec.cations, dec.anions),
+        polarising_organic_anion_fraction=polarising_organic_anion_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
 
@@ -483,7 +486,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f"  bromate and iodate (X...O secondary bonds join the anions): +{w['heavy_halate']}"
         f" * their share of the anions {terms.heavy_halate_fraction:.2f}",
         f"  organic anions beside inorganic cations only (O donors bind the cations): +{w['coordinating_organic_anion']}"
-        f" * their share of the anions {terms.organic_anion_fraction:.2f}",
+        f" * their share of the anions {terms.organic_anion_fraction:.2f}; beside d-, p- and f-block cations"
+        f" (coordination polymers): +{w['polarising_organic_anion']} * {terms.polarising_organic_anion_fraction:.2f}",
     )
 
 
