@@ -588,6 +588,10 @@ def parse_formula(text: str) -> ParsedFormula:
             cleaned = core
         else:
             ligands = ()
+    ammines = 0.0
+    if not ligands and cleaned.startswith("[") and "(NH3)" in cleaned:
+        # a neutral ammine complex written whole in square brackets ([Pt(NH3)2Cl2], cisplatin): one molecule
+        cleaned, ammines = _neutral_ammine_complex(cleaned)
     cleaned, abbreviations = expand_abbreviations(cleaned)
     if abbreviations:
         notes.append("read the abbreviations " + ", ".join(abbreviations) + " (common practice)")
@@ -612,6 +616,8 @@ def parse_formula(text: str) -> ParsedFormula:
         parsed = _parse_normalised(cleaned)
         if ligands:
             parsed = _with_ligands(parsed, ligands, inner)
+        if ammines:
+            parsed = _with_ammines(parsed, ammines)
     except FormulaError as exc:
         glued = glued_ionic_liquid(cleaned) if _GLUED.fullmatch(cleaned) else None
         if glued is not None:
@@ -637,6 +643,42 @@ def parse_formula(text: str) -> ParsedFormula:
 def _metal_written(text: str) -> bool:
     """Whether ``text`` writes a metal's symbol (the ligands of :mod:`scorer.coordination` need one to bind)."""
     return any(m.group() in metal_symbols() for m in re.finditer(r"[A-Z][a-z]?", text))
+
+
+# an ammine group inside a complex: "(NH3)" and its count
+_AMMINE_GROUP = re.compile(r"\(NH3\)(\d*(?:\.\d+)?)")
+
+
+def _neutral_ammine_complex(cleaned: str) -> tuple[str, float]:
+    """(the text without its ammine groups, how many NH3) of a complex written whole in square brackets with no
+    charge and nothing outside them, a metal and its anionic ligands inside beside written (NH3) groups
+    (``[Pt(NH3)2Cl2]``, ``[Co(NH3)3Cl3]``); (``cleaned``, 0) for any other text. A salt of an ammine complex
+    ([Co(NH3)6]Cl3, [Cu(NH3)4]SO4) writes something beside the brackets and is read by the ion library.
+
+    >>> _neutral_ammine_complex("[Pt(NH3)2Cl2]"), _neutral_ammine_complex("[Co(NH3)6]Cl3")
+    (('PtCl2', 2.0), ('[Co(NH3)6]Cl3', 0.0))
+    """
+    if not cleaned.endswith("]") or cleaned.find("]") != len(cleaned) - 1 or cleaned.count("[") != 1:
+        return cleaned, 0.0
+    inner = cleaned[1:-1]
+    count = sum(float(m.group(1) or 1) for m in _AMMINE_GROUP.finditer(inner))
+    rest = _AMMINE_GROUP.sub("", inner)
+    if not count or not rest or not _metal_written(rest) or "(" in rest and "NH3" in rest:
+        return cleaned, 0.0
+    return rest, count
+
+
+def _with_ammines(parsed: ParsedFormula, ammines: float) -> ParsedFormula:
+    """``parsed`` (a neutral complex without its ammine ligands) with them as neutral adducts, their atoms counted
+    in, and the structure hint of a neutral complex (:mod:`scorer.coordination`)."""
+    totals = dict(parsed.counts)
+    totals["N"] = totals.get("N", 0.0) + ammines
+    totals["H"] = totals.get("H", 0.0) + 3 * ammines
+    adducts = dict(parsed.neutral_adducts)
+    adducts["NH3"] = adducts.get("NH3", 0.0) + ammines
+    return dataclasses.replace(
+        parsed, counts=tuple((s, totals[s]) for s in hill_order(totals)), neutral_adducts=tuple(sorted(adducts.items())),
+        structure_hint=coordination_hint(None))
 
 
 def _with_ligands(parsed: ParsedFormula, ligands, inner: str) -> ParsedFormula:

@@ -226,3 +226,25 @@ def test_a_molecule_with_a_solvent_code_after_the_dot_is_one_molecular_complex(t
     assert hill_formula(dict(parse_formula(row["formula_normalized"]).counts)) == hill_formula(
         dict(parse_formula(hill).counts))
     assert row["melting_class"] == "liquid_at_room_temperature"
+
+
+# A neutral ammine complex written whole in square brackets is one molecule (cisplatin, [Pt(NH3)2Cl2]:
+# cis-diamminedichloridoplatinum(II), IUPAC Red Book 2005, IR-9; the states its name says; from memory): it
+# read as the salt PtCl2 with two ammonia of crystallisation ("ionic_salt", molten_salt). Masses from molmass
+# (an outside reference). A salt of an ammine complex keeps the ion library's complex cation.
+@pytest.mark.parametrize("text, metal, state", [("[Pt(NH3)2Cl2]", "Pt", 2), ("cisplatin", "Pt", 2),
+                                                ("[Co(NH3)3Cl3]", "Co", 3), ("[Pt(NH3)2Cl4]", "Pt", 4)])
+def test_a_neutral_ammine_complex_is_a_molecule(text, metal, state):
+    from molmass import Formula
+
+    row = score_formula(text)
+    assert row["substance_class"] == "covalent_molecular" and row["cations"] in (None, "")
+    assert _state(row, metal) == state
+    formula = "[Pt(NH3)2Cl2]" if text == "cisplatin" else text
+    assert row["molar_mass_g_mol"] == pytest.approx(Formula(formula.replace("[", "(").replace("]", ")")).mass, abs=0.05)
+
+
+@pytest.mark.parametrize("text, cation", [("[Co(NH3)6]Cl3", "Co(NH3)6(3+)*1"), ("[Cu(NH3)4]SO4", "Cu(NH3)4(2+)*1")])
+def test_a_salt_of_an_ammine_complex_keeps_its_complex_cation(text, cation):
+    row = score_formula(text)
+    assert row["substance_class"] == "ionic_salt" and row["cations"] == cation
