@@ -701,12 +701,20 @@ def _impossible_as_written(text: str) -> bool:
 def impossible_composition(counts) -> bool:
     """:func:`_impossible_as_written` of parsed ``counts`` ((symbol, count) pairs): the prescan asks it of the
     texts it would pass as ordinary."""
-    if len(counts) == 1 and counts[0][1] == 1:
-        return False  # an element's symbol alone (Bk, Es) is that element: BK is no likelier
-    if any(s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in counts):
-        return True
-    return len(counts) == 1 and counts[0][1] != 1 and tuple(counts[0]) not in _ELEMENT_MOLECULES \
-        and get_element(counts[0][0]).is_metal
+    if len(counts) == 1:
+        # an element's symbol alone (Bk, Es) is that element: BK is no likelier; with a count, a metal is no molecule
+        symbol, count = counts[0]
+        return count != 1 and (symbol in _no_chemistry_symbols()
+                               or (symbol, count) not in _ELEMENT_MOLECULES and get_element(symbol).is_metal)
+    no_chemistry = _no_chemistry_symbols()
+    return any(s in no_chemistry for s, _ in counts)
+
+
+@once
+def _no_chemistry_symbols() -> frozenset[str]:
+    """:data:`_NO_CHEMISTRY` and every element from :data:`_NO_CHEMISTRY_FROM_Z` on (one set: the prescan asks
+    for every distinct text)."""
+    return _NO_CHEMISTRY | frozenset(s for s in element_symbols() if get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z)
 
 
 def lone_element_count(text: str) -> bool:
