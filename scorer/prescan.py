@@ -27,7 +27,7 @@ from ionicity.scorer.grammar import MAX_COUNT, MAX_FORMULA_LENGTH, MAX_TOTAL_ATO
 from ionicity.scorer.mixture import names_a_blend
 from ionicity.scorer.organic import organic_molecule, organic_shortcut_enabled
 from ionicity.scorer.slips import (
-    BEST_PENALTY, MARGIN, MAYBE_SLIP, absurd_count, impossible_composition, lone_element_count, odd_electron_molecule,
+    BEST_PENALTY, IMPOSSIBLE_MAX_LENGTH, MARGIN, MAYBE_SLIP, absurd_count, impossible_composition, lone_element_count, odd_electron_molecule,
     reading_penalty, unknown_abbreviation,
 )
 
@@ -123,8 +123,9 @@ def ordinary_formula(text: str) -> ParsedFormula | None:
         comp = parse_formula(text)
     except FormulaError:
         return None
-    # an element no shelf holds a compound of, or one metal with a count (Nh3, No2, Co2): the slip reader's
-    return None if impossible_composition(comp.counts) else comp
+    # an element no shelf holds a compound of, or one metal with a count (Nh3, No2, Co2), in a short text: the slip
+    # reader's
+    return None if len(text) <= IMPOSSIBLE_MAX_LENGTH and impossible_composition(comp.counts) else comp
 
 
 def _capital_formula(text: str) -> ParsedFormula | None:

@@ -548,7 +548,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # as written an element no shelf holds a compound of (Nh3 nihonium, No nobelium: NH3, NO typed with a lower-case
     # letter), or one metal with a count no substance has (Co2, Cs2: CO2, CS2): evidence of a lost case
     comp = _parsed(text)
-    impossible = comp is not None and not word and impossible_composition(comp.counts)
+    impossible = (comp is not None and not word and len(stripped) <= IMPOSSIBLE_MAX_LENGTH
+                  and impossible_composition(comp.counts))
     if not (all_caps or all_lower or impossible or MAYBE_SLIP.search(stripped)) and comp is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
@@ -696,6 +697,11 @@ def _impossible_as_written(text: str) -> bool:
     """
     comp = _parsed(text)
     return comp is not None and impossible_composition(comp.counts)
+
+
+# the longest text whose impossible element or counted metal is taken for a lost case: a shelf's formula that lost
+# its case is short (MgNh4PO4, (Nh4)2SO4); a long random string of symbols is read as written, at no extra cost
+IMPOSSIBLE_MAX_LENGTH = 16
 
 
 def impossible_composition(counts) -> bool:
