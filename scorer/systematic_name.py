@@ -11,7 +11,7 @@ complex and ionic-liquid ions by the names of the ion library
 left out, as in Stock names; where they do not (a metal in two oxidation
 states, Fe3O4), multiplicative prefixes say them (``iron(II) diiron(III)
 tetraoxide``). Every generated name is read back by
-:func:`scorer.name_reader.read_name` and kept only if it means the same
+:func:`scorer.name_reader.read_name_by_rule` and kept only if it means the same
 composition, so a name this column gives can relabel an inventory.
 Acids get their classical names (``sulfuric acid``, ``hydrochloric acid``).
 
@@ -34,7 +34,7 @@ from ionicity.scorer.descriptor import protocol, result_class
 from ionicity.scorer.elements import get_element
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.model import Column, Decomposition, Ion, IonTerm
-from ionicity.scorer.name_reader import read_name
+from ionicity.scorer.name_reader import read_name_by_rule
 from ionicity.scorer.tables import table
 
 __all__ = ["GROUP", "COLUMNS", "SystematicName", "analyse", "describe", "explain", "hydrate_words", "ion_name"]
@@ -166,7 +166,7 @@ def _ion_composition(dec: Decomposition) -> tuple:
 
 
 def _same(name: str, composition) -> bool:
-    text = read_name(name)
+    text = read_name_by_rule(name)
     if text is None:
         return False
     try:
