@@ -329,29 +329,11 @@ _OCTAHEDRAL_RADIUS_RATIO = 0.414
 _HEAVY_TRANSITION_METALS = frozenset("Zr Nb Mo Tc Ru Rh Pd Hf Ta W Re Os Ir Pt".split())
 
 
-def _ionic_tetrafluoride(cation, anion_elements) -> bool:
-    """Whether a bridged MF4 is an ionic framework rather than chains or layers: the tetrafluorides of Zr, Hf and
-    of the lanthanides and actinides put M in eight-fold fluoride coordination, every fluoride bridging (ZrF4
-    square antiprisms; UF4 and ThF4; they melt at 1200-1400 K, like salts), where the Ti, V, Sn and Pb
-    tetrafluorides are layers of MF6 octahedra that sublime or melt low (Wells, Structural Inorganic Chemistry,
-    5th ed., 1984, ch. 9; Greenwood & Earnshaw, 2nd ed., 1997, ch. 21.3.3 and 31.3.4; from memory). Told by the
-    metal's place: the f block, or group 4 from period 5 on.
-
-    >>> from ionicity.scorer.ion_library import monatomic_ion
-    >>> [_ionic_tetrafluoride(monatomic_ion(m, 4), {"F"}) for m in ("Th", "U", "Zr", "Ti", "Sn")]
-    [True, True, True, False, False]
-    """
-    if anion_elements != {"F"}:
-        return False
-    element = get_element(cation.element)
-    return element.block == "f" or (element.group == 4 and element.period >= 5)
-
-
 def _bridged_tetrahalide(cation, anions) -> bool:
     """Whether a tetrahalide MX4 is a bridged solid rather than a molecule: the M(4+)/X(-) ratio of
     Shannon radii (CN VI) reaches Pauling's octahedral limit 0.414, so M takes six or more halides
-    and every halide bridges (SnF4, PbF4, TiF4 layers; ThCl4, UCl4; the fluorides of Zr, Hf and the
-    actinides, frameworks melting at 1200-1400 K, are salts: :func:`_ionic_tetrafluoride`) while a smaller centre keeps four in a molecule (TiCl4, SnCl4, SiF4;
+    and every halide bridges (UF4, ThF4, ZrF4, SnF4: chains, layers and frameworks melting at
+    900-1400 K; ThCl4, UCl4) while a smaller centre keeps four in a molecule (TiCl4, SnCl4, SiF4;
     Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory). The 4d and 5d metals of
     groups 4-10 bridge whatever the ratio (:data:`_HEAVY_TRANSITION_METALS`: ZrCl4, HfCl4, ZrI4, NbCl4,
     MoCl4, WCl4, ReCl4, PtCl4 are chains of edge-sharing MX6 octahedra that sublime or melt at 600-800 K)
@@ -436,7 +418,7 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         anion_elements = {t.ion.element for t in anions}
         if max(metal_states) >= 4 and anion_elements <= _HALOGENS:
             if max(metal_states) == 4 and _bridged_tetrahalide(cation_ions[0], [t.ion for t in anions]):
-                return "ionic_salt" if _ionic_tetrafluoride(cation_ions[0], anion_elements) else "chain_layer_solid"
+                return "chain_layer_solid"
             return "covalent_molecular"
         if max(metal_states) >= 7 and anion_elements == {"O"}:
             return "covalent_molecular"  # Mn2O7, OsO4, RuO4

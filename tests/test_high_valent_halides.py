@@ -30,6 +30,10 @@ from _builders import registry_melting_point_K
 
 
 @pytest.mark.parametrize("formula, cas", [
+    ("UF4", "10049-14-6"),   # 1309 K
+    ("ThF4", "13709-59-6"),  # 1383 K
+    ("ZrF4", "7783-64-4"),   # 1183 K
+    ("HfF4", "13709-52-9"),  # 1298 K
     ("ThCl4", "10026-08-1"), # 1043 K
     ("UCl4", "10026-10-5"),  # 863 K
     ("UBr4", "13470-20-7"),  # 792 K
@@ -38,20 +42,6 @@ def test_bridged_tetrahalides_are_chain_layer_solids_in_their_band(formula, cas)
     out = score_formula(formula)
     assert out["substance_class"] == "chain_layer_solid" and out["mp_route"] == "chain_layer"
     assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=False)
-
-
-@pytest.mark.parametrize("formula, cas", [
-    ("UF4", "10049-14-6"),   # 1309 K
-    ("ThF4", "13709-59-6"),  # 1383 K
-    ("ZrF4", "7783-64-4"),   # 1183 K
-    ("HfF4", "13709-52-9"),  # 1298 K
-])
-def test_tetrafluorides_of_zr_hf_and_actinides_are_ionic_frameworks_in_their_band(formula, cas):
-    # eight-fold fluoride coordination, every fluoride bridging (Wells 1984, ch. 9; from memory): salts, read on
-    # the salt route (trend about 860-1100 K against the chain/layer route's 590-615 K before)
-    out = score_formula(formula)
-    assert out["substance_class"] == "ionic_salt" and out["mp_route"] == "salt"
-    assert out["melting_class"] == melting_routes.melting_class_for(registry_melting_point_K(cas), salt=True)
 
 
 @pytest.mark.parametrize("formula", ["TiCl4", "SnCl4", "SiF4", "GeCl4", "VCl4", "TiBr4"])

@@ -276,21 +276,3 @@ def test_intermetallic_set_rebuilds_from_the_registry():
 def test_salts_of_anions_that_decompose_on_heating_say_so(formula, decomposes):
     notes = score_formula(formula)["value_notes"] or ""
     assert ("decomposes on heating" in notes and "safety data sheet" in notes) is decomposes
-
-
-# The tetrafluorides of Zr, Hf and the actinides are ionic frameworks (M in eight-fold fluoride coordination,
-# every fluoride bridging; Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 9; from memory): they were
-# chain/layer solids at about 600 K; melting points CRC via chemicals (ThF4 1383 K, UF4 1309 K, ZrF4 1183 K,
-# HfF4 1298 K, PuF4 1310 K). TiF4 (650 K) keeps its layers of TiF6 octahedra.
-@pytest.mark.parametrize("formula, cas", [("ThF4", "13709-59-6"), ("UF4", "10049-14-6"), ("ZrF4", "7783-64-4"),
-                                          ("HfF4", "13709-52-9"), ("PuF4", "13709-56-3")])
-def test_tetrafluorides_of_zr_hf_and_the_actinides_are_salts_in_their_band(formula, cas):
-    record = score_formula(formula)
-    assert record["substance_class"] == "ionic_salt"
-    assert _in_band(record["melting_class"], _tm(cas))
-
-
-def test_titanium_tetrafluoride_stays_a_layer_solid_in_its_band():
-    record = score_formula("TiF4")
-    assert record["substance_class"] == "chain_layer_solid"
-    assert _in_band(record["melting_class"], _tm("7783-63-3"))
