@@ -59,7 +59,7 @@ from ionicity.scorer.caching import clear_all
 from ionicity.scorer.formula import parse_formula
 from ionicity.scorer.ions import decompose
 
-__all__ = ["INDEX_WEIGHT_MODES", "DECOMPOSITION_ONSET_K", "suspect_melting_point", "read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "report_text", "main"]
+__all__ = ["INDEX_WEIGHT_MODES", "DECOMPOSITION_ONSET_K", "suspect_melting_point", "read_training_table", "trend_weights", "organic_weights_without", "held_out_report", "repeated_held_out_report", "report_text", "repeated_report_text", "main"]
 
 
 def read_training_table(path) -> list[dict]:
@@ -157,32 +157,72 @@ def held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, cove
     Returns the dict of :func:`pipelines.melting_fit.grouped_cross_validation`
     (without the out-of-fold predictions).
     """
+    return repeated_held_out_report(rows, scheme=scheme, folds=folds, coverage=coverage, seeds=(seed,),
+                                    progress=progress, index_weights=index_weights)["repeats"][0]
+
+
+def repeated_held_out_report(rows, *, scheme: str = "cation_family", folds: int = 5, coverage: float = 0.9,
+                             seeds=(0, 1, 2, 3, 4), progress=None, index_weights: str = "fold") -> dict:
+    """:func:`held_out_report` once per seed (another assignment of groups to folds each), rows scored once.
+
+    One grouped split is one draw: which families share a fold decides part of
+    the held-out figure (DEVELOPERS.md, "Stable folds"). Returns ``repeats``
+    (one :func:`held_out_report` dict per seed, in order) and
+    ``ionic_liquid_mae_K``: the ionic liquids' held-out MAE per seed, its mean,
+    minimum and maximum.
+    """
     if scheme not in CV_SCHEMES:
         raise ValueError(f"scheme {scheme!r} is not one of {', '.join(CV_SCHEMES)}")
     if index_weights not in INDEX_WEIGHT_MODES:
         raise ValueError(f"index_weights {index_weights!r} is not one of {', '.join(INDEX_WEIGHT_MODES)}")
     if index_weights == "calibration_rows" and scheme != "cation_family":
         raise ValueError("refitting the organic weights per fold needs the scheme cation_family")
+    seeds = list(seeds)
+    if not seeds:
+        raise ValueError("at least one seed is needed")
     require_extra("sklearn")
     require_extra("scipy")
     rows, records, x, y, labels = prepare_training(rows, progress=progress)
+    terms = index_terms(rows, records) if index_weights == "fold" else None
+    flags = np.array([suspect_melting_point(row["formula_normalized"], row["mp_K"]) for row in rows])
 
     def fold_features(held_out):
         with trend_weights(organic_weights_without(held_out, progress)):
             return feature_matrix(rows)[0]
 
-    result = grouped_cross_validation(x, y, [row[scheme] for row in rows], _lattice_energy(records), folds=folds,
-                                      coverage=coverage, seed=seed, interval_groups=labels, progress=progress,
-                                      features_for_fold=fold_features if index_weights == "calibration_rows" else None,
-                                      index_terms=index_terms(rows, records) if index_weights == "fold" else None)
-    oof = np.array(result.pop("oof_predictions_K"))
-    flags = np.array([suspect_melting_point(row["formula_normalized"], row["mp_K"]) for row in rows])
-    il = (labels == "ionic_liquid") & np.isfinite(oof)
-    result["ionic_liquid_flagged"] = {flag: int(np.sum(il & (flags == flag))) for flag in ("hydrate", "decomposition")}
-    kept = il & (flags == "")
-    result["ionic_liquid_unflagged_mae_K"] = round(float(np.mean(np.abs(oof[kept] - y[kept]))), 1) if kept.any() else None
-    result["ionic_liquid_unflagged_rows"] = int(kept.sum())
-    return result
+    repeats = []
+    for seed in seeds:
+        if progress and len(seeds) > 1:
+            progress(f"repetition with seed {seed}")
+        result = grouped_cross_validation(
+            x, y, [row[scheme] for row in rows], _lattice_energy(records), folds=folds, coverage=coverage,
+            seed=seed, interval_groups=labels, progress=progress,
+            features_for_fold=fold_features if index_weights == "calibration_rows" else None, index_terms=terms)
+        oof = np.array(result.pop("oof_predictions_K"))
+        il = (labels == "ionic_liquid") & np.isfinite(oof)
+        result["seed"] = seed
+        result["ionic_liquid_flagged"] = {flag: int(np.sum(il & (flags == flag))) for flag in ("hydrate", "decomposition")}
+        kept = il & (flags == "")
+        result["ionic_liquid_unflagged_mae_K"] = round(float(np.mean(np.abs(oof[kept] - y[kept]))), 1) if kept.any() else None
+        result["ionic_liquid_unflagged_rows"] = int(kept.sum())
+        repeats.append(result)
+    maes = [r["per_group"].get("ionic_liquid", {}).get("model", {}).get("mae_K") for r in repeats]
+    known = [m for m in maes if m is not None]
+    summary = {"per_seed": dict(zip(seeds, maes))}
+    if known:
+        summary.update(mean=round(float(np.mean(known)), 1), min=min(known), max=max(known))
+    return {"repeats": repeats, "ionic_liquid_mae_K": summary}
+
+
+def repeated_report_text(report: dict, scheme: str) -> str:
+    """Every repetition's figures, then the ionic liquids' MAE over the seeds."""
+    parts = [f"seed {r['seed']}: " + report_text(r, scheme) for r in report["repeats"]]
+    mae = report["ionic_liquid_mae_K"]
+    if len(report["repeats"]) > 1 and "mean" in mae:
+        per_seed = ", ".join(f"{seed}: {value} K" for seed, value in mae["per_seed"].items())
+        parts.append(f"ionic-liquid MAE held out by {scheme.replace('_', ' ')} over {len(report['repeats'])}"
+                     f" fold assignments: mean {mae['mean']} K, range {mae['min']}-{mae['max']} K ({per_seed})")
+    return "\n".join(parts)
 
 
 def report_text(result: dict, scheme: str) -> str:
@@ -213,7 +253,10 @@ def main(argv=None) -> int:
     parser.add_argument("--scheme", default="cation_family", choices=CV_SCHEMES, help="grouping (default: cation_family)")
     parser.add_argument("--folds", type=int, default=5, help="grouped folds (default: 5)")
     parser.add_argument("--coverage", type=float, default=0.9, help="interval coverage (default: 0.9)")
-    parser.add_argument("--seed", type=int, default=0)
+    parser.add_argument("--seed", type=int, default=0, help="first seed: the groups' fold assignment and the trees")
+    parser.add_argument("--repeats", type=int, default=1,
+                        help="repeat with seeds SEED, SEED+1, ...: each another assignment of groups to folds"
+                             " (default: 1); prints every repetition and the ionic liquids' MAE over them")
     parser.add_argument("--index-weights", choices=INDEX_WEIGHT_MODES, default="fold",
                         help="the trend index's organic weights: refitted on each fold's fitted rows (fold, the"
                              " default, as fit-melting does), as shipped, or refitted on the calibration rows of"
@@ -223,13 +266,16 @@ def main(argv=None) -> int:
     args = parser.parse_args(argv)
     say = lambda text: print(f"melting_cv: {text}", file=sys.stderr)  # noqa: E731
     try:
+        if args.repeats < 1:
+            raise ValueError(f"--repeats must be at least 1, not {args.repeats}")
         rows = read_training_table(args.table)
-        result = held_out_report(rows, scheme=args.scheme, folds=args.folds, coverage=args.coverage,
-                                 seed=args.seed, progress=say, index_weights=args.index_weights)
+        report = repeated_held_out_report(rows, scheme=args.scheme, folds=args.folds, coverage=args.coverage,
+                                          seeds=range(args.seed, args.seed + args.repeats), progress=say,
+                                          index_weights=args.index_weights)
     except (OSError, ValueError) as exc:
         print(f"melting_cv: error: {exc}", file=sys.stderr)
         return 2
-    print(report_text(result, args.scheme))
+    print(repeated_report_text(report, args.scheme))
     return 0
 
 

@@ -242,7 +242,7 @@ def fit_melting_model(rows, *, folds: int = 5, coverage: float = 0.9, calibratio
     families = np.array([row["cation_family"] for row in rows])
     pipe, used, index_weights, x = fit_offset_model(
         x, y, np.arange(len(rows)), labels, families, terms,
-        lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say)
+        lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls), say, seed=seed)
     residuals = pipe.inner_log_residuals
     ok = np.isfinite(residuals)
     q, per_group = _group_halfwidths(residuals[ok], labels[ok], coverage, families[ok])

@@ -32,6 +32,7 @@ steps and fits the regressor.
 from __future__ import annotations
 
 import math
+import zlib
 
 import numpy as np
 
@@ -41,7 +42,7 @@ from ionicity.scorer.ions import decompose
 from ionicity.scorer.melting_model import MODEL_FEATURES
 from ionicity.scorer.melting_model_format import INDEX_WEIGHT_KEYS
 
-__all__ = ["index_terms", "organic_rows_of", "fit_index_weights", "with_index_weights", "MIN_ORGANIC_ROWS",
+__all__ = ["stable_group_splits", "index_terms", "organic_rows_of", "fit_index_weights", "with_index_weights", "MIN_ORGANIC_ROWS",
            "TREE_WEIGHT_CANDIDATES", "inner_predictions", "choose_tree_weight", "inner_log_residuals",
            "fit_offset_model"]
 
@@ -53,6 +54,48 @@ _COLUMN = MODEL_FEATURES.index("mp_trend_index")
 # model, 0: the index alone); the first of equal scores wins, so ties keep the fuller correction
 TREE_WEIGHT_CANDIDATES = (1.0, 0.75, 0.5, 0.25, 0.0)
 INNER_FOLDS = 4
+
+
+def stable_group_splits(groups, n_splits: int, seed: int = 0) -> list[tuple[np.ndarray, np.ndarray]]:
+    """Grouped K-fold splits whose fold of a group depends on that group's name and ``seed`` alone.
+
+    A group goes to fold ``crc32(f"{seed}:{name}") mod n_splits``. scikit-learn's
+    ``GroupKFold`` balances folds by group size, so one row more or less in any
+    group, or one new group, can move every other group to another fold and
+    change which families are held out together (the held-out ionic-liquid
+    figure moved by 5 K for one inorganic row, DEVELOPERS.md "Stable folds").
+    Here adding rows or groups never moves an existing group; ``seed``
+    draws another assignment, for repeated cross-validation. Folds are not
+    balanced by rows. Empty folds are left out; when the names fall into
+    fewer than two folds, the groups are dealt round-robin in the order of
+    their hashes instead.
+
+    Returns
+    -------
+    list of (train_rows, test_rows)
+        Index arrays, one pair per non-empty fold, in fold order.
+
+    >>> splits = stable_group_splits(["a", "a", "b", "c", "d", "e"], 3)
+    >>> sorted(int(i) for _, test in splits for i in test)
+    [0, 1, 2, 3, 4, 5]
+    >>> def held_out_together(groups):
+    ...     return [set(np.asarray(groups)[test].tolist()) for _, test in stable_group_splits(groups, 3)]
+    >>> before = held_out_together(["a", "a", "b", "c", "d", "e"])
+    >>> after = held_out_together(["a", "b", "c", "d", "e", "f", "a", "b"])
+    >>> all(any(old <= new for new in after) for old in before)
+    True
+    """
+    groups = np.asarray(groups)
+    names = sorted(set(groups.tolist()), key=str)
+    if n_splits < 2 or len(names) < 2:
+        raise ValueError(f"grouped splits need at least 2 folds and 2 groups, not {n_splits} and {len(names)}")
+    code = {name: zlib.crc32(f"{seed}:{name}".encode("utf-8")) for name in names}
+    fold_of = {name: code[name] % n_splits for name in names}
+    if len(set(fold_of.values())) < 2:
+        fold_of = {name: i % n_splits for i, name in enumerate(sorted(names, key=lambda n: (code[n], str(n))))}
+    row_fold = np.array([fold_of[g] for g in groups.tolist()])
+    everything = np.arange(len(groups))
+    return [(everything[row_fold != k], everything[row_fold == k]) for k in range(n_splits) if np.any(row_fold == k)]
 
 
 def index_terms(rows, records) -> list:
@@ -138,19 +181,17 @@ def _index_matrix(x, y_K, fit_rows, terms, progress=None):
 
 
 def inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit, *,
-                      folds: int = INNER_FOLDS) -> tuple[np.ndarray, np.ndarray]:
+                      folds: int = INNER_FOLDS, seed: int = 0) -> tuple[np.ndarray, np.ndarray]:
     """Out-of-fold log predictions of an inner grouped cross-validation on the rows ``fit_rows``.
 
-    The rows ``fit_rows`` are split by ``groups`` into ``folds`` (scikit-learn's
-    ``GroupKFold``); in each inner fold the index weights (when ``terms`` is
+    The rows ``fit_rows`` are split by ``groups`` into ``folds``
+    (:func:`stable_group_splits` with ``seed``); in each inner fold the index weights (when ``terms`` is
     given) and the trees are fitted on the inner training rows and predict the
     inner held-out rows. Returns two arrays aligned with ``fit_rows``: ln of
     the index's temperature (ln 10 times ``mp_trend_index``) and the trees'
     log correction, so that ``ln T = ln_index + share * ln_trees``; NaN where
     a row was not predicted (fewer than two groups: no split).
     """
-    from sklearn.model_selection import GroupKFold  # melting extra, checked by the callers
-
     fit_rows = np.asarray(fit_rows, dtype=int)
     inner_groups = np.asarray(groups)[fit_rows]
     ln_index = np.full(len(fit_rows), np.nan)
@@ -158,7 +199,7 @@ def inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit, *,
     n_splits = min(folds, len(set(inner_groups.tolist())))
     if n_splits < 2:
         return ln_index, ln_trees
-    for train, test in GroupKFold(n_splits=n_splits).split(fit_rows, groups=inner_groups):
+    for train, test in stable_group_splits(inner_groups, n_splits, seed):
         _, xw = _index_matrix(x, y_K, fit_rows[train], terms)
         regressor, used = fit(xw[fit_rows[train]], y_K[fit_rows[train]], np.asarray(labels)[fit_rows[train]])
         rows = fit_rows[test]
@@ -168,7 +209,7 @@ def inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit, *,
 
 
 def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: str = "ionic_liquid",
-                       folds: int = INNER_FOLDS, inner=None) -> tuple[float, dict]:
+                       folds: int = INNER_FOLDS, inner=None, seed: int = 0) -> tuple[float, dict]:
     """The share of the trees' correction for ``group``'s rows, by inner grouped cross-validation.
 
     Only the rows ``fit_rows`` take part (:func:`inner_predictions`, or
@@ -203,7 +244,7 @@ def choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, *, group: s
     if n_groups < 2:
         return 1.0, {}
     ln_index, ln_trees = inner if inner is not None else inner_predictions(
-        x, y_K, fit_rows, labels, groups, terms, fit, folds=folds)
+        x, y_K, fit_rows, labels, groups, terms, fit, folds=folds, seed=seed)
     scored = mine & np.isfinite(ln_trees)
     truth = y_K[fit_rows[scored]]
     errors = {share: round(float(np.mean(np.abs(np.exp(ln_index[scored] + share * ln_trees[scored]) - truth))), 2)
@@ -227,7 +268,7 @@ def inner_log_residuals(y_K, fit_rows, labels, inner, tree_weights) -> np.ndarra
     return np.log(y_K[fit_rows]) - (ln_index + share * ln_trees)
 
 
-def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None):
+def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None, seed: int = 0):
     """Index weights, tree share and regressor, each fitted on the rows ``fit_rows`` only.
 
     Returns
@@ -248,7 +289,7 @@ def fit_offset_model(x, y_K, fit_rows, labels, groups, terms, fit, progress=None
     regressor, used = fit(xw[fit_rows], y_K[fit_rows], np.asarray(labels)[fit_rows])
     regressor.inner_log_residuals = None
     if groups is not None:
-        inner = inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit)
+        inner = inner_predictions(x, y_K, fit_rows, labels, groups, terms, fit, seed=seed)
         share, errors = choose_tree_weight(x, y_K, fit_rows, labels, groups, terms, fit, inner=inner)
         regressor.tree_weights = {"ionic_liquid": share}
         regressor.inner_log_residuals = inner_log_residuals(y_K, fit_rows, labels, inner, regressor.tree_weights)

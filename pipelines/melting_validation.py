@@ -18,7 +18,7 @@ import math
 
 import numpy as np
 
-from ionicity.pipelines.melting_offset import fit_offset_model
+from ionicity.pipelines.melting_offset import fit_offset_model, stable_group_splits
 from ionicity.pipelines.melting_regressor import _fit_pipeline
 from ionicity.scorer import melting_model
 
@@ -192,14 +192,18 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     lattice_energy : ndarray of shape (n_samples,)
         The single feature of the linear baseline [kJ/mol].
     folds : int, default=5
-        Splits of :class:`sklearn.model_selection.GroupKFold` (fewer when
-        there are fewer groups).
+        Folds of :func:`pipelines.melting_offset.stable_group_splits`: a
+        group's fold depends on its name and ``seed`` only, so a row added to
+        one group never moves another group (fewer folds when there are fewer
+        groups, or when a fold draws no group).
     coverage : float, default=0.9
         Target coverage of the intervals.
     calibration_fraction : float, default=0.25
         Share of the training rows held back for the half-widths when
         ``choose_tree_share`` is False (unused otherwise).
     seed : int, default=0
+        Draws the fold of every group (:func:`stable_group_splits`) and seeds
+        the trees; another seed is another repetition of the cross-validation.
     interval_groups : array-like of shape (n_samples,), optional
         :func:`scorer.melting_model.interval_group` per row: the intervals are
         Mondrian (a half-width per group) and coverage is counted per group.
@@ -236,7 +240,6 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     # optional extra (melting): imported where used, so that without it fit-melting
     # ends with an install hint (require_extra), not a traceback
     from sklearn.linear_model import LinearRegression
-    from sklearn.model_selection import GroupKFold
 
     groups = np.asarray(groups)
     n_groups = len(set(groups.tolist()))
@@ -251,14 +254,15 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
     oof_lin = np.full(len(y_K), np.nan)
     inside = np.zeros(len(y_K), dtype=bool)
     width = np.full(len(y_K), np.nan)
-    for fold, (train, test) in enumerate(GroupKFold(n_splits=splits).split(x, y_K, groups)):
-        say(f"  fold {fold + 1}/{splits}: fitting on {len(train)} rows, holding out {len(test)}")
+    split_rows = stable_group_splits(groups, splits, seed)
+    for fold, (train, test) in enumerate(split_rows):
+        say(f"  fold {fold + 1}/{len(split_rows)}: fitting on {len(train)} rows, holding out {len(test)}")
         xf = x if features_for_fold is None else features_for_fold(set(groups[test].tolist()))
         fit = lambda xs, ys, ls: _fit_pipeline(xs, ys, seed, ls)  # noqa: E731
         if choose_tree_share:
             # every training row fits the model; the half-widths come from the residuals of the inner
             # grouped cross-validation that chose the tree share (rows predicted without their group)
-            pipe, used, _, xf = fit_offset_model(xf, y_K, train, labels, groups, index_terms, fit, say)
+            pipe, used, _, xf = fit_offset_model(xf, y_K, train, labels, groups, index_terms, fit, say, seed=seed)
             residuals, calib_labels, calib_families = pipe.inner_log_residuals, labels[train], groups[train]
         else:
             proper, calib = _split_calibration(len(train), calibration_fraction, rng, groups[train])
@@ -279,7 +283,7 @@ def grouped_cross_validation(x, y_K, groups, lattice_energy, *, folds: int = 5, 
         lat = lattice_energy[test]
         oof_lin[test] = np.where(np.isfinite(lat), line.predict(np.nan_to_num(lat).reshape(-1, 1)), np.mean(y_K[train]))
     return {
-        "folds": splits,
+        "folds": len(split_rows),
         "groups": n_groups,
         "model": _metrics(y_K, oof),
         "baseline_mean": _metrics(y_K, oof_mean),

@@ -96,6 +96,26 @@ def test_held_out_report_names_every_ionic_liquid_family(fast_pipeline):
     assert np.isfinite(result["per_group"]["ionic_liquid"]["model"]["mae_K"])
 
 
+@needs_sklearn
+def test_repeated_report_gives_every_seed_and_their_spread(fast_pipeline, capsys, tmp_path):
+    # plumbing of --repeats on the published table (datasets/melting/ionic_liquids.csv) and six CRC salts
+    # (from memory, as above); each seed is another assignment of families to folds
+    rows = melting_cv.read_training_table(IL_TABLE)
+    for formula, mp in (("NaCl", 1074), ("KCl", 1044), ("KBr", 1007), ("NaBr", 1020), ("LiCl", 883), ("CsCl", 919)):
+        rows.append({"formula_normalized": formula, "mp_K": float(mp), "anion_family": "halide",
+                     "cation_element": formula[:2] if formula[1].islower() else formula[0]})
+    report = melting_cv.repeated_held_out_report(rows, folds=3, seeds=(0, 1))
+    assert [r["seed"] for r in report["repeats"]] == [0, 1]
+    mae = report["ionic_liquid_mae_K"]
+    assert list(mae["per_seed"]) == [0, 1]
+    assert mae["min"] <= mae["mean"] <= mae["max"]
+    assert report["repeats"][0] == melting_cv.held_out_report(rows, folds=3, seed=0)
+    text = melting_cv.repeated_report_text(report, "cation_family")
+    assert "over 2 fold assignments: mean" in text
+    assert melting_cv.main([str(IL_TABLE), "--repeats", "0"]) == 2
+    assert "--repeats must be at least 1" in capsys.readouterr().err
+
+
 needs_scipy = pytest.mark.skipif(importlib.util.find_spec("scipy") is None, reason="scipy not installed")
 
 
