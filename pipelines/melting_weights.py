@@ -94,6 +94,7 @@ RESIDUAL_FEATURES = (
     ("soft_cation_pseudohalide", lambda t: t.soft_pseudohalide_fraction),
     ("coinage_cation", lambda t: t.coinage_cation_fraction),
     ("heavy_halate", lambda t: t.heavy_halate_fraction),
+    ("ammonium_hydrogen_bonds", lambda t: t.ammonium_cation_fraction),
 )
 
 
@@ -335,7 +336,7 @@ def _index_with(terms, weights) -> float:
         terms.hard_anion_fraction, terms.delta_chi_pauling, terms.crystal_field_share,
         terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, terms.coinage_cation_fraction,
         terms.heavy_halate_fraction, terms.organic_anion_fraction, terms.polarising_organic_anion_fraction,
-        weights=weights)
+        terms.ammonium_cation_fraction, weights=weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:

@@ -105,6 +105,7 @@ from ionicity.scorer.melting_anions import (
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
+    ammonium_type_cation_fraction,
     heavy_halate_fraction,
     coordinating_organic_anion_fraction,
     polarising_organic_anion_fraction,
@@ -185,6 +186,7 @@ class MeltingTerms:
     heavy_halate_fraction: float = 0.0
     organic_anion_fraction: float = 0.0
     polarising_organic_anion_fraction: float = 0.0
+    ammonium_cation_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -201,7 +203,7 @@ class MeltingTerms:
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
             self.coinage_cation_fraction, self.heavy_halate_fraction, self.organic_anion_fraction,
-            self.polarising_organic_anion_fraction, weights=weights,
+            self.polarising_organic_anion_fraction, self.ammonium_cation_fraction, weights=weights,
         )
 
 
@@ -350,6 +352,7 @@ def _gather_terms(
         heavy_halate_fraction=heavy_halate_fraction(dec.anions),
         organic_anion_fraction=coordinating_organic_anion_fraction(dec.cations, dec.anions),
         polarising_organic_anion_fraction=polarising_organic_anion_fraction(dec.cations, dec.anions),
+        ammonium_cation_fraction=ammonium_type_cation_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
 
@@ -488,6 +491,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f"  organic anions beside inorganic cations only (O donors bind the cations): +{w['coordinating_organic_anion']}"
         f" * their share of the anions {terms.organic_anion_fraction:.2f}; beside d-, p- and f-block cations"
         f" (coordination polymers): +{w['polarising_organic_anion']} * {terms.polarising_organic_anion_fraction:.2f}",
+        f"  NH4(+) (N-H hydrogen bonds to inorganic anions): +{w['ammonium_hydrogen_bonds']}"
+        f" * its share of the cations times the inorganic anions' share {terms.ammonium_cation_fraction:.2f}",
     )
 
 

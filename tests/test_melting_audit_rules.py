@@ -142,7 +142,8 @@ def test_lower_hydrates_keep_the_class_of_their_salt(formula, cas):
 
 def test_rule_measured_on_the_registry_hydrates():
     # the 46 salt hydrates with a registry melting point outside the audit's half B: 24 in the band of
-    # their class with the rule, 6 without (the anhydrous class); the misses are mostly registry rows
+    # their class with the rule, 7 without (the anhydrous class; 6 before the ammonium term of
+    # 5 December 2026, fourth round, put (NH4)2MoO4.4H2O's anhydrous index at 591 K, registry 673 K); the misses are mostly registry rows
     # whose written formula lost the hydrate water (a name saying nonahydrate over 'AlHNO3.1H2O') or
     # whose value is the anhydrous salt's (EuCl3.6H2O at 1123 K)
     rows = _hydrate_rows()
@@ -153,7 +154,7 @@ def test_rule_measured_on_the_registry_hydrates():
         measured = _tm(row["cas"])
         with_rule += _in_band(record["melting_class"], measured)
         without += _in_band(melting_class_for(10 ** record["mp_trend_index"], salt=True), measured)
-    assert with_rule >= 24 and without <= 6
+    assert with_rule >= 24 and without <= 7
 
 
 def test_explain_says_the_hydrate_rule_with_the_caution():

@@ -85,7 +85,7 @@ def test_calibration_each_inorganic_weight_is_the_fit_of_the_calibration_set(ref
 
 
 @pytest.mark.parametrize("name", ("crystal_field", "saline_nitride", "soft_cation_pseudohalide", "coinage_cation",
-                                  "heavy_halate"))
+                                  "heavy_halate", "ammonium_hydrogen_bonds"))
 def test_calibration_each_second_stage_weight_is_the_fit_of_the_calibration_residuals(open_salt_rows, name):
     # Calibration: least squares of the calibration residuals with the weights above held
     # (python -m ionicity.pipelines.melting_weights prints it), rounded to three decimals
@@ -131,6 +131,38 @@ def test_validation_the_coinage_cation_term_helps_the_held_out_copper_and_silver
     with_term = np.array([t.index() for _, t, _, _ in held_out])
     without = np.array([t.index({"coinage_cation": 0.0}) for _, t, _, _ in held_out])
     assert np.mean(np.abs(with_term - measured)) < np.mean(np.abs(without - measured))
+
+
+def test_validation_the_ammonium_term_helps_the_held_out_ammonium_salts(open_salt_rows):
+    # Validation: ammonium_hydrogen_bonds is fitted with the other second-stage weights on the calibration
+    # residuals only; the held-out half's ammonium salts (registry values, chemicals 1.5.2: (NH4)2HPO4,
+    # (NH4)2S2O3, (NH4)2SO4, NH4BF4, NH4HCO3, NH4I, NH4VO3, AlNH4(SO4)2) came out 0.057 low in log10 on
+    # average without it. Measured 5 December 2026 (fourth round): mean |log10 error| 0.147 -> 0.122,
+    # melting class right for 2 -> 5 of 8
+    held_out = [r for r in open_salt_rows if r[0] == "validation" and r[1].ammonium_cation_fraction > 0]
+    assert len(held_out) >= 6
+    measured = np.array([mp for _, _, mp, _ in held_out])
+    with_term = np.array([10 ** t.index() for _, t, _, _ in held_out])
+    without = np.array([10 ** t.index({"ammonium_hydrogen_bonds": 0.0}) for _, t, _, _ in held_out])
+    assert np.mean(np.abs(np.log10(with_term / measured))) < np.mean(np.abs(np.log10(without / measured))) - 0.01
+    bands = (373.15, 573.15, 1773.15)
+    right = lambda trend: sum(np.searchsorted(bands, a) == np.searchsorted(bands, b)  # noqa: E731
+                              for a, b in zip(trend, measured))
+    assert right(with_term) > right(without)
+
+
+@pytest.mark.parametrize("formula, share", [("NH4NO3", 1.0), ("NH4H2PO4", 1.0), ("NH4MgPO4", 0.5), ("KNO3", 0.0),
+                                            ("PH4I", 0.0), ("[EtNH3][NO3]", 0.0), ("NH4CH3COO", 0.0),
+                                            ("N2H5Cl", 0.0), ("NH3OHCl", 0.0)])
+def test_the_ammonium_term_counts_nh4_beside_inorganic_anions_only(formula, share):
+    # N-H...anion hydrogen bonds of NH4(+) (Greenwood & Earnshaw, 2nd ed., 1997, ch. 11.2.6; from memory); PH4(+)
+    # is a poor donor; the alkylammonium ions of protic ionic liquids are organic, with their own term (protic);
+    # beside a carboxylate the O donors' binding is the coordinating_organic_anion term's; hydrazinium and
+    # hydroxylammonium salts melt low (N2H5Cl 362 K, NH3OHCl 428 K; CRC Handbook via chemicals) and are left out
+    terms = melting.melting_terms(decompose(parse_formula(formula)))
+    assert terms.ammonium_cation_fraction == pytest.approx(share)
+    if share:
+        assert terms.index() > terms.index({"ammonium_hydrogen_bonds": 0.0})
 
 
 # Enthalpy of fusion [kJ/mol] and melting point [K] of alkali halides, CRC Handbook
