@@ -560,6 +560,26 @@ _CAGE_MOLECULES = {
 }
 
 
+def _radical_unit(centre: str, ligands) -> bool:
+    """Whether a centre with these ligands (a reduced formula unit) sits at none of its main oxidation states.
+
+    The state counts each ligand at :data:`_LIGAND_CHARGE` (other elements -1);
+    the main states are mendeleev's (``oxidation_states_main``: As -3, 3, 5;
+    S -2, 2, 4, 6; Al 3). AsS gives As(+2), SCl S(+1), SiCl3 Si(+3), NO2 N(+4):
+    halves of As4S4, S2Cl2, Si2Cl6 and N2O4, molecules held by a bond between
+    like atoms (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997,
+    ch. 13, 15, 9, 11; from memory). AlCl3 gives Al(+3): Al2Cl6 is a dimer of
+    that unit, bridged through chlorine.
+
+    >>> _radical_unit("As", (("S", 1.0),)), _radical_unit("Al", (("Cl", 3.0),)), _radical_unit("S", (("Cl", 1.0),))
+    (True, False, True)
+    """
+    state = -sum(_LIGAND_CHARGE.get(s, -1) * n for s, n in ligands)
+    if not float(state).is_integer():
+        return True
+    return int(state) not in get_element(centre).oxidation_states_main
+
+
 def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
     """Read a molecule off its composition: centre, ligands, symmetry, torsions, open sites.
 
@@ -602,6 +622,7 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
         # the empirical formula of a cage molecule (P2O5 is P4O10): the molecule counts, as written out
         comp = written = [(s, n * cage / sum(k for t, k in comp if t in _CAGE_ATOMS)) for s, n in comp]
     counts = [n for _, n in comp]
+    g = 1
     if all(float(n).is_integer() for n in counts):
         g = 0
         for n in counts:
@@ -623,6 +644,15 @@ def molecular_terms(dec: Decomposition) -> MolecularTerms | None:
             centre, n_centre = min(inner, key=lambda sn: (chi[sn[0]], sn[0]))
     ligands = tuple((s, n) for s, n in comp if s != centre)
     n_lig = sum(n for _, n in ligands)
+    if g > 1 and n_centre == 1 and ligands and "H" not in dict(comp) and _radical_unit(centre, ligands):
+        # the reduced unit would be a radical half of a molecule held by a bond between like atoms (As4S4 is
+        # no AsS, S2Cl2 no SCl, P2I4 no PI2, Si2Cl6 no SiCl3: the centre's state in the unit is none of its
+        # main ones); the formula as written is the molecule (Al2Cl6 still reads as AlCl3). Molecules with
+        # hydrogen keep the reduced unit: the hydrogen-bond weight is calibrated on it (borazine, written
+        # B3H3N3 by the registry, reads as BHN there), and read whole, Si2H6 and Ge2H6 came out twice too high
+        comp = written
+        centre, n_centre = min(comp, key=lambda sn: (chi.get(sn[0], _centre_chi(sn[0])), sn[0]))
+        ligands = tuple((s, n) for s, n in comp if s != centre)
     if n_centre != 1 or not ligands or not float(n_lig).is_integer() or "C" in dict(comp) and centre != "C":
         # the formula as written is the molecule: P4O10 is not P2O5 (the reduction is for a centre
         # with its ligands, Al2Cl6 read as AlCl3)
