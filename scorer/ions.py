@@ -453,6 +453,16 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             cations, anions, alternatives = paired
 
     reasons: tuple[str, ...] = ()
+    if not hinted and _heptavalent_beside_another_metal(cations):
+        # a monatomic cation at +7 or more (Mn, Re, Tc, Os, Ru) exists in molecules (Mn2O7, OsO4) and as the
+        # oxoanions of salts (MnO4-, ReO4-), never as a cation of a mixed-metal oxide: NCM622,
+        # LiNi0.6Mn0.2Co0.2O2, balanced as Co(2+), Ni(2+) and Mn(7+); read again without those states
+        # (Greenwood & Earnshaw, 2nd ed., 1997, ch. 24.3 and 25; from memory)
+        high = frozenset((t.ion.element, state) for t in cations if t.ion.monatomic and t.ion.charge >= 7
+                         for state, _ in _states(t.ion.element) if state >= 7)
+        other = _best(_readings(remaining, hinted, [], high, budget, _IONIC_THRESHOLD))
+        if other is not None:
+            cations, anions, alternatives, _ = other
     hypohalites = [t.ion.ion_id for t in anions if t.ion.ion_id in _HYPOHALITES]
     if hypohalites and not hinted and any(t.ion.ion_id in _AMMONIUM_LIKE for t in cations):
         # ammonium (or hydrazinium, hydroxylammonium) with a hypohalite is no salt: they react to a
@@ -598,6 +608,19 @@ def _ammonium_count_proposal(counts: dict[str, float]) -> str:
 # ions that give up a proton to a hydride (the acid anions, hydroxide and hydroxo complexes, the ammonium-like
 # cations, H(+) itself)
 _PROTIC_FAMILIES = frozenset({"hydrogen-oxoanion", "hydrogen-chalcogenide", "hydroxo-complex", "ammonium-like"})
+
+
+def _heptavalent_beside_another_metal(cations) -> bool:
+    """Whether a reading's cations hold a monatomic ion at +7 or more beside a cation of another metal.
+
+    >>> from ionicity.scorer.ion_library import monatomic_ion
+    >>> mn7, li = monatomic_ion("Mn", 7), monatomic_ion("Li", 1)
+    >>> _heptavalent_beside_another_metal((IonTerm(mn7, 0.2), IonTerm(li, 1))), _heptavalent_beside_another_metal((IonTerm(mn7, 2),))
+    (True, False)
+    """
+    high = {t.ion.element for t in cations if t.ion.monatomic and t.ion.charge >= 7}
+    return bool(high) and any(t.ion.monatomic and is_metal(t.ion.element) and t.ion.element not in high
+                              for t in cations)
 
 
 def _coexisting(readings, remaining: dict[str, float]) -> list:
