@@ -82,6 +82,7 @@ _MATERIALS = {
     "olivine": "a solid solution of forsterite Mg2SiO4 and fayalite Fe2SiO4",
     "feldspar": "a mineral group (orthoclase KAlSi3O8, albite NaAlSi3O8, anorthite CaAl2Si2O8)",
     "mica": "a mineral group of layered aluminosilicates (muscovite KAl2(AlSi3O10)(OH)2...)",
+    "apatite": "a mineral group (fluorapatite Ca5(PO4)3F, chlorapatite, hydroxylapatite Ca5(PO4)3(OH))",
     "zeolite": "a family of hydrated aluminosilicate frameworks",
     "zeolites": "a family of hydrated aluminosilicate frameworks",
     "molecular sieves": "a zeolite, a hydrated aluminosilicate framework of varying composition",
