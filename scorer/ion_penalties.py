@@ -83,8 +83,9 @@ _FORMULA_UNIT_OXOANIONS = frozenset({
     # (Wells, Structural Inorganic Chemistry, 5th ed., 1984, ch. 13; from memory)
     "AlO2(-)",
     # sheet and framework silicates share every or nearly every O between two Si: Si2O5 and Si3O8 are
-    # formula units (Na2Si2O5, NaAlSi3O8) where no discrete ion reading balances
-    "Si2O5(2-)", "Si3O8(4-)",
+    # formula units (Na2Si2O5, NaAlSi3O8) where no discrete ion reading balances; Si4O11 is the double chain
+    # of the amphiboles (tremolite Ca2Mg5(Si4O11)2(OH)2)
+    "Si2O5(2-)", "Si3O8(4-)", "Si4O11(6-)",
 })
 _PENALTY_FORMULA_UNIT_OXOANION = 1.5
 # actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)

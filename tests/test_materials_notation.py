@@ -576,3 +576,16 @@ def test_layered_cathode_oxides_hold_no_heptavalent_cation(formula):
 def test_heptavalent_states_stay_in_oxoanions_and_binary_oxides(formula, element, state):
     # permanganate, perrhenate, Mn2O7, OsO4 (Greenwood & Earnshaw, 2nd ed., 1997, ch. 24-25; from memory)
     assert _states(score_formula(formula))[element] == state
+
+
+@pytest.mark.parametrize("text", ["Ca2Mg5Si8O22(OH)2", "tremolite", "Ca2Mg5(Si4O11)2(OH)2"])
+def test_amphiboles_read_as_hydroxide_with_the_double_chain_silicate(text):
+    # tremolite: OH(-) with the Si4O11(6-) double chain (Deer, Howie & Zussman, An Introduction to the
+    # Rock-Forming Minerals, 2nd ed., 1992; from memory); it had read as a bare proton beside metasilicate with no
+    # melting class. Molar mass checked against molmass (a registry package).
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert "Si4O11(6-)*2" in row["anions"] and "OH(-)*2" in row["anions"]
+    assert "H(+)" not in (row["cations"] or "")
+    assert row["melting_class"] is not None
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("Ca2Mg5Si8O22(OH)2").mass, rel=1e-4)
