@@ -124,6 +124,8 @@ def _solvent_words(text: str) -> bool:
         w.upper() in _solvent_codes() or w.lower() == "water" or _RATIO_WORD.match(w) for w in words)
 
 
+# the oils reactive metals are kept under ("Na in mineral oil"): a storage medium, not a solvent
+_STORAGE_OIL = re.compile(r"^(?:(?:mineral|paraffin|light)\s+)?oil$|^kerosene$|^paraffin$", re.I)
 # a solute, then its strength and medium in brackets ("NaH (60% dispersion in mineral oil)", "KH (30% in oil)")
 _BRACKETED_MEDIUM = re.compile(r"^\s*(?P<solute>\S+)\s*\((?P<inner>\s*\d[^()]*?\s+in\s+[^()]+)\)\s*$", re.I)
 
@@ -179,6 +181,10 @@ def split_in_solvent(text: str) -> Solution | None:
         return Solution(plus.group("rest").strip(), _as_written(_MOLAR, _MOLAR.match(plus.group("c"))),
                         plus.group("solvent").strip())
     left, solvent = m.group("left").strip(), m.group("solvent").strip()
+    if _STORAGE_OIL.match(solvent) and not any(p.search(left) for p in (_MOLAR, _PERCENT)):
+        # "potassium in mineral oil", "Li in oil": how a reactive metal is kept, not a solution (a dispersion
+        # states its strength: "NaH (60% dispersion in mineral oil)"); the grade words take it
+        return None
     for pattern in (_MOLAR, _PERCENT):
         lead = re.match(rf"^(?P<c>{pattern.pattern})\s+(?P<rest>\S.*)$", left, pattern.flags)
         if lead:
@@ -319,8 +325,10 @@ _GRADE_WORD = (
     r"|absolute|dry|spectroscopic|spectrophotometric|GC|for\s+(?:synthesis|HPLC|spectroscopy)|stabili[sz]ed"
     # alcohol strength in US proof ("ethanol 200 proof", "190 proof": twice the volume percent)
     r"|\d{2,3}\s*proof"
-    # a metal as the metal ("sodium metal", "lithium metal, ribbon")
+    # a metal as the metal ("sodium metal", "lithium metal, ribbon"), and how a reactive metal is kept
+    # ("Na metal under oil", "potassium in mineral oil", "lithium under argon"; common practice)
     r"|metal|ribbon|granulate"
+    r"|(?:under|in)\s+(?:mineral\s+|paraffin\s+|light\s+)?oil|(?:under|in)\s+(?:kerosene|paraffin)|under\s+(?:argon|nitrogen)"
     # a gas cylinder's label ("argon gas", "nitrogen, compressed", "ammonia, anhydrous, liquefied")
     r"|gas|gaseous|compressed|liquefied|cylinder"
     r"|(?:[≥>]=?\s*)?\d+(?:[.,]\d+)?\s*%"

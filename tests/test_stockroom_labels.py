@@ -592,3 +592,34 @@ def test_an_eponymous_salt_without_its_possessive(name, formula):
     # Mohr's salt and Glauber's salt (The Merck Index, 15th ed., 2013; from memory), written without the 's
     row = score_formula(name)
     assert row["status"] == "warning" and _composition(row["formula_normalized"]) == _composition(formula)
+
+
+@pytest.mark.parametrize("label, formula", [("Na metal under oil", "Na"), ("potassium in mineral oil", "K"),
+                                            ("Li in oil", "Li"), ("K in kerosene", "K"), ("Na under paraffin", "Na")])
+def test_a_metal_kept_under_oil_is_the_metal_not_a_solution(label, formula):
+    # alkali metals are kept under mineral oil or kerosene (common practice; Bretherick's Handbook of Reactive
+    # Chemical Hazards, 7th ed., 2007, from memory): a storage medium, not a solvent; the water caution stays
+    row = score_formula(label)
+    assert row["status"] == "warning" and row["formula_normalized"] == formula
+    assert "solution" not in row["value_notes"]
+    assert row["water_behaviour"] == "reacts_violently"
+
+
+def test_a_dispersion_in_oil_with_its_strength_stays_a_dispersion():
+    # "NaH (60% dispersion in mineral oil)": the catalogue form of sodium hydride (common practice)
+    row = score_formula("NaH (60% dispersion in mineral oil)")
+    assert row["formula_normalized"] == "NaH" and "dispersion" in row["value_notes"]
+
+
+@pytest.mark.parametrize("label, formula", [
+    # the tetrahydrate sold as ammonium molybdate is the heptamolybdate (The Merck Index, 15th ed., 2013; from
+    # memory); molar mass 1235.86 g/mol checked against molmass
+    ("ammonium molybdate tetrahydrate", "(NH4)6Mo7O24·4H2O"),
+    ("n-butyllithium 2.5 M in hexanes", "C4H9Li"),
+    ("EDTA disodium dihydrate", "C10H14N2Na2O8·2H2O"),
+])
+def test_more_catalogue_names(label, formula):
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(label)
+    assert row["status"] == "warning"
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(formula.replace("·", ".")).mass, rel=1e-4)
