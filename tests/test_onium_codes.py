@@ -159,3 +159,13 @@ def test_the_battery_literature_codes_of_the_pyrrolidinium_cations(text, normali
     from ionicity.scorer.record import score_formula
     row = score_formula(text)
     assert row["status"] == "ok" and row["formula_normalized"] == normalized
+
+
+@pytest.mark.parametrize("text", ["[C2OHmim][BF4]", "[HOEMIM][BF4]", "HOEMIM BF4"])
+def test_the_hydroxyethyl_imidazolium_cation_is_read(text):
+    # 1-(2-hydroxyethyl)-3-methylimidazolium, C6H11N2O+ (Wasserscheid & Welton, Ionic Liquids in Synthesis, 2nd ed.,
+    # 2008; from memory); molar mass of the BF4 salt checked against molmass (C6H11BF4N2O)
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert row["formula_normalized"] == "[C2OHmim][BF4]" and row["substance_class"] == "ionic_liquid_pair"
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("C6H11BF4N2O").mass, rel=1e-4)
