@@ -69,3 +69,12 @@ def test_choline_chloride_is_no_hypochlorite():
     # C5H14ClNO tied between choline chloride and ethyltrimethylammonium hypochlorite, and took the hypochlorite
     # (an organic cation beside a hypohalite does not keep; common practice)
     assert score_formula("C5H14ClNO")["cations"] == "[Ch](+)*1"
+
+
+@pytest.mark.parametrize("text", ["Acetylcholine chloride", "C7H16ClNO2", "CH6ClNO", "C9H14ClNO", "C6H11BrN2O2"])
+def test_an_organic_formula_holds_no_hypohalite_or_chlorite(text):
+    # hypohalites and chlorite oxidise amines and onium ions (N-haloamines; Greenwood & Earnshaw, Chemistry of the
+    # Elements, 2nd ed., 1997, ch. 17.2; from memory): acetylcholine chloride (CAS 60-31-1, the registry package
+    # chemicals) had read as an ethylmethylpyrrolidinium chlorite, CH6ClNO as methylammonium hypochlorite
+    row = score_formula(text)
+    assert not any(code in (row["anions"] or "") for code in ("ClO(-)", "BrO(-)", "IO(-)", "ClO2(-)"))
