@@ -389,10 +389,12 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
 # that no organic formula holds; with it C7H16BrNO2, acetylcholine bromide, read as a pyrrolidinium bromite
 # nor the peroxomonosulfates, oxidants likewise: with HSO5(-) in the library C7H11NO5S (a registry formula of a
 # 4-(methylamino)phenol sulfate) read as an ethylpyridinium salt of it
-# and the hypohalites and chlorite, which oxidise amines and onium ions (N-haloamines; Greenwood & Earnshaw,
-# 2nd ed., 1997, ch. 17.2; from memory): with [C2OHmim](+) in the library C6H11BrN2O2 read as its hypobromite
+# and the hypohalites, chlorite and chlorate, which oxidise amines and onium ions (N-haloamines; Greenwood &
+# Earnshaw, 2nd ed., 1997, ch. 17.2; from memory): with [C2OHmim](+) in the library C6H11BrN2O2 read as its
+# hypobromite, acetylcholine chloride as a pyrrolidinium chlorite; hydroperoxide and ozonide likewise
+# (C8H19NO2, ammonium octanoate, read as a pyrrolidinium hydroperoxide)
 _NO_ORGANIC_PAIR_ANIONS = frozenset({"CN2(2-)", "C2(2-)", "C3(4-)", "C5H7O2(-)", "BrO2(-)", "HSO5(-)", "SO5(2-)",
-                                     "ClO(-)", "BrO(-)", "IO(-)", "ClO2(-)"})
+                                     "ClO(-)", "BrO(-)", "IO(-)", "ClO2(-)", "ClO3(-)", "HO2(-)", "O3(-)"})
 # monatomic ions an organic formula may hold as one side of its ion pair
 _ORGANIC_PAIR_MONATOMIC = (("H", 1), ("F", -1), ("Cl", -1), ("Br", -1), ("I", -1))
 
