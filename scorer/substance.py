@@ -350,8 +350,10 @@ def _bridged_tetrahalide(cation, anions) -> bool:
     return all(math.isfinite(q) and q >= _OCTAHEDRAL_RADIUS_RATIO for q in ratios)
 
 
-# chelating anions whose metal compounds are neutral molecular complexes (classify)
-CHELATE_ANIONS = frozenset({"C5H7O2(-)"})
+# chelating anions whose metal compounds are neutral molecular complexes (classify): acetylacetonate and the
+# dithiocarbamates (Zn(S2CNMe2)2, ziram; Cd, Ni, Cu, Fe(III) diethyldithiocarbamates)
+CHELATE_ANIONS = frozenset({"C5H7O2(-)", "C5H10NS2(-)", "C3H6NS2(-)"})
+_ALKALI_METALS = frozenset({"Li", "Na", "K", "Rb", "Cs"})
 # the alkoxide anions of the ion library (classify)
 ALKOXIDE_ANIONS = frozenset({"CH3O(-)", "C2H5O(-)"})
 
@@ -389,10 +391,13 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         # (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3.6;
         # the two-atom bound is common practice)
         return "covalent_molecular"
-    if has_metal and any(t.ion.ion_id in CHELATE_ANIONS for t in anions):
-        # a metal acetylacetonate (Cu(acac)2, Fe(acac)3, VO(acac)2) is a neutral chelate complex, each ligand
-        # bound by both O atoms: a molecule that melts low, sublimes and dissolves in organic solvents, not a
-        # salt (IUPAC Red Book 2005, IR-9.2; Greenwood & Earnshaw, 2nd ed., 1997, ch. 7.3 and 25.3; from memory)
+    if has_metal and any(t.ion.ion_id in CHELATE_ANIONS for t in anions) and not all(
+            ion.monatomic and ion.element in _ALKALI_METALS for ion in cation_ions):
+        # a metal acetylacetonate (Cu(acac)2, Fe(acac)3, VO(acac)2) or dithiocarbamate (Zn(S2CNMe2)2) is a
+        # neutral chelate complex, each ligand bound by both O or both S atoms: a molecule that melts low,
+        # sublimes and dissolves in organic solvents, not a salt (IUPAC Red Book 2005, IR-9.2; Greenwood &
+        # Earnshaw, 2nd ed., 1997, ch. 7.3, 8.6 and 25.3; from memory); the alkali metals' are salts (sodium
+        # diethyldithiocarbamate, sodium acetylacetonate dissolve in water as ions)
         return "covalent_molecular"
     if anions and all(t.ion.ion_id in ALKOXIDE_ANIONS for t in anions) and any(
             ion.monatomic and ion.charge >= 3 for ion in cation_ions):

@@ -248,3 +248,24 @@ def test_a_neutral_ammine_complex_is_a_molecule(text, metal, state):
 def test_a_salt_of_an_ammine_complex_keeps_its_complex_cation(text, cation):
     row = score_formula(text)
     assert row["substance_class"] == "ionic_salt" and row["cations"] == cation
+
+
+@pytest.mark.parametrize("text, metal", [
+    ("Ziram", "Zn"), ("C6H12N2S4Zn", "Zn"), ("Zn(S2CNEt2)2", "Zn"), ("Cadmium bis(diethyldithiocarbamate)", "Cd"),
+    ("Bis(diethyldithiocarbamate)nickel", "Ni"), ("Ferbam", "Fe"),
+])
+def test_metal_dithiocarbamates_are_neutral_chelate_complexes(text, metal):
+    # M(S2CNR2)n: each ligand bound by both S atoms, a molecule (Greenwood & Earnshaw, Chemistry of the Elements,
+    # 2nd ed., 1997, ch. 8.6; from memory); registry formulas and names from the package chemicals. They had read as
+    # tetraalkylammonium thiocyanate trithiocarbonates of the metal ('ionic_liquid_pair')
+    row = score_formula(text)
+    assert row["substance_class"] == "covalent_molecular"
+    assert row["cations"] in (None, "") and f"{metal}:" in row["oxidation_states"]
+
+
+@pytest.mark.parametrize("text", ["Sodium diethyldithiocarbamate", "C5H10NNaS2", "Sodium dimethyldithiocarbamate"])
+def test_alkali_dithiocarbamates_are_salts(text):
+    # sodium diethyldithiocarbamate, a reagent that dissolves in water as its ions (The Merck Index, 15th ed., 2013;
+    # from memory); it had been a row error
+    row = score_formula(text)
+    assert row["substance_class"] == "ionic_salt" and row["cations"] == "Na(+)*1"

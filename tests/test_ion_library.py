@@ -37,7 +37,7 @@ OTHER_FAMILIES = frozenset({
     "hydrogen-chalcogenide", "chalcogenide-polyatomic", "carbide", "hydride",
     "nitrogen-anion", "pseudohalide", "ammonium-like", "oxocation",
     "metal-cluster", "halo-complex", "polyhalide", "cyano-complex",
-    "ammine-complex", "carboxylate", "organic-anion", "amidinium",
+    "ammine-complex", "carboxylate", "organic-anion", "amidinium", "dithiocarbamate",
 })
 FAMILIES = IONIC_LIQUID_FAMILIES | OTHER_FAMILIES
 
