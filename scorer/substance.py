@@ -351,8 +351,8 @@ def _bridged_tetrahalide(cation, anions) -> bool:
 
 
 # chelating anions whose metal compounds are neutral molecular complexes (classify): acetylacetonate and the
-# dithiocarbamates (Zn(S2CNMe2)2, ziram; Cd, Ni, Cu, Fe(III) diethyldithiocarbamates)
-CHELATE_ANIONS = frozenset({"C5H7O2(-)", "C5H10NS2(-)", "C3H6NS2(-)"})
+# dithiocarbamates (Zn(S2CNMe2)2, ziram; Cd, Ni, Cu, Fe(III) diethyl-, Zn and Ni dibutyldithiocarbamates)
+CHELATE_ANIONS = frozenset({"C5H7O2(-)", "C5H10NS2(-)", "C3H6NS2(-)", "C9H18NS2(-)"})
 _ALKALI_METALS = frozenset({"Li", "Na", "K", "Rb", "Cs"})
 # the alkoxide anions of the ion library (classify)
 ALKOXIDE_ANIONS = frozenset({"CH3O(-)", "C2H5O(-)"})

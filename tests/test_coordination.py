@@ -252,7 +252,8 @@ def test_a_salt_of_an_ammine_complex_keeps_its_complex_cation(text, cation):
 
 @pytest.mark.parametrize("text, metal", [
     ("Ziram", "Zn"), ("C6H12N2S4Zn", "Zn"), ("Zn(S2CNEt2)2", "Zn"), ("Cadmium bis(diethyldithiocarbamate)", "Cd"),
-    ("Bis(diethyldithiocarbamate)nickel", "Ni"), ("Ferbam", "Fe"),
+    ("Bis(diethyldithiocarbamate)nickel", "Ni"), ("Ferbam", "Fe"), ("Zinc bis(dibutyldithiocarbamate)", "Zn"),
+    ("C18H36N2NiS4", "Ni"),
 ])
 def test_metal_dithiocarbamates_are_neutral_chelate_complexes(text, metal):
     # M(S2CNR2)n: each ligand bound by both S atoms, a molecule (Greenwood & Earnshaw, Chemistry of the Elements,
