@@ -533,7 +533,7 @@ class _OrganicReading:
 
 
 def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
-    organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS)
+    organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations)
     if organic is not None:
         # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
         cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()

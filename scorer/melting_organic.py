@@ -90,7 +90,8 @@ def degree_of_unsaturation(counts: Mapping[str, float]) -> float:
     >>> degree_of_unsaturation({"C": 5, "H": 5, "N": 1})
     4.0
     """
-    total = 1.0 + sum(n * (ORGANIC_ELEMENTS.get(s, 2) - 2) / 2.0 for s, n in counts.items())
+    total = 1.0 + sum(n * (ORGANIC_ELEMENTS.get(s, ORGANOMETALLIC_VALENCE.get(s, 2)) - 2) / 2.0
+                      for s, n in counts.items())
     return max(total, 0.0)
 
 
@@ -212,7 +213,27 @@ class OrganicTerms:
         return 1000.0 * self.cohesion_kJ_mol(weights) / self.entropy_J_mol_K()
 
 
-def organic_terms(composition, weights: Mapping[str, float]) -> OrganicTerms | None:
+#: main-group metals bonded to alkyl and aryl groups, with their valence in those molecules (Me4Sn, Et4Pb,
+#: Me2Hg, Et2Zn, Me3Al, Ph3Bi; Elschenbroich, Organometallics, 3rd ed., 2006; from memory)
+ORGANOMETALLIC_VALENCE: dict[str, int] = {
+    "Sn": 4, "Pb": 4, "Ge": 4, "Hg": 2, "Zn": 2, "Cd": 2, "Al": 3, "Ga": 3, "In": 3, "Tl": 3, "As": 3, "Sb": 3,
+    "Bi": 3, "Te": 2,
+}
+
+
+def organometallic_counts(counts: Mapping[str, float]) -> bool:
+    """Whether a composition is an organic molecule with one main-group metal of
+    :data:`ORGANOMETALLIC_VALENCE` (tetraethyllead, trimethylaluminium, diphenylmercury).
+
+    >>> organometallic_counts({"C": 8, "H": 20, "Pb": 1}), organometallic_counts({"C": 2, "H": 3, "Na": 1, "O": 2})
+    (True, False)
+    """
+    metals = [s for s, n in counts.items() if n > 0 and s in ORGANOMETALLIC_VALENCE]
+    rest = {s: n for s, n in counts.items() if n > 0 and s not in ORGANOMETALLIC_VALENCE}
+    return len(metals) == 1 and counts[metals[0]] <= 2 and "H" in rest and is_organic_molecule(rest)
+
+
+def organic_terms(composition, weights: Mapping[str, float], organometallic: bool = False) -> OrganicTerms | None:
     """Read an organic molecule off its composition (``(symbol, count)`` pairs), unreduced.
 
     None when :func:`is_organic_molecule` says no. ``weights`` gives the two
@@ -228,7 +249,7 @@ def organic_terms(composition, weights: Mapping[str, float]) -> OrganicTerms | N
     for symbol, n in composition:
         if n > 0:
             counts[symbol] = counts.get(symbol, 0.0) + float(n)
-    if not is_organic_molecule(counts):
+    if not (is_organic_molecule(counts) or organometallic and organometallic_counts(counts)):
         return None
     alpha = math.fsum(n * _polarisability_A3(s) for s, n in counts.items())
     return OrganicTerms(
