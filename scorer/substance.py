@@ -353,7 +353,9 @@ def _bridged_tetrahalide(cation, anions) -> bool:
 # chelating anions whose metal compounds are neutral molecular complexes (classify): acetylacetonate and the
 # dithiocarbamates (Zn(S2CNMe2)2, ziram; Cd, Ni, Cu, Fe(III) diethyl-, Zn and Ni dibutyldithiocarbamates)
 CHELATE_ANIONS = frozenset({"C5H7O2(-)", "C5H10NS2(-)", "C3H6NS2(-)", "C9H18NS2(-)"})
-_ALKALI_METALS = frozenset({"Li", "Na", "K", "Rb", "Cs"})
+# the alkali metals whose chelate-anion compounds are salts (Li(acac) stays a chelate molecule: the small Li(+)
+# binds both O atoms)
+_ALKALI_METALS = frozenset({"Na", "K", "Rb", "Cs"})
 # the alkoxide anions of the ion library (classify)
 ALKOXIDE_ANIONS = frozenset({"CH3O(-)", "C2H5O(-)"})
 
@@ -396,7 +398,7 @@ def classify(counts: dict[str, float], cations: list[IonTerm], anions: list[IonT
         # a metal acetylacetonate (Cu(acac)2, Fe(acac)3, VO(acac)2) or dithiocarbamate (Zn(S2CNMe2)2) is a
         # neutral chelate complex, each ligand bound by both O or both S atoms: a molecule that melts low,
         # sublimes and dissolves in organic solvents, not a salt (IUPAC Red Book 2005, IR-9.2; Greenwood &
-        # Earnshaw, 2nd ed., 1997, ch. 7.3, 8.6 and 25.3; from memory); the alkali metals' are salts (sodium
+        # Earnshaw, 2nd ed., 1997, ch. 7.3, 8.6 and 25.3; from memory); those of Na, K, Rb, Cs are salts (sodium
         # diethyldithiocarbamate, sodium acetylacetonate dissolve in water as ions)
         return "covalent_molecular"
     if anions and all(t.ion.ion_id in ALKOXIDE_ANIONS for t in anions) and any(
