@@ -37,7 +37,7 @@ ROWS = {
     "atomisation_enthalpies.csv": 10,
     "element_melting_points.csv": 80,
     "fluid_element_melting_points.csv": 13,
-    "gases.csv": 217,
+    "gases.csv": 214,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 68,

@@ -9,7 +9,8 @@ so a Hill formula is listed only when every compound of ``registry_names.csv`` w
 normal boiling point in the registry package ``chemicals`` (``chemicals.phase_change.Tb``: CRC Handbook,
 Yaws and the other sources it ranks) and the highest of them is below 298.15 K: C2H6O (dimethyl ether
 249 K, ethanol 351 K) is not listed. Formulas of more than one element that the registry lists only as
-salts are left out too, and formulas of more than ``MAX_GAS_ATOMS`` atoms (the registry's boiling points
+salts are left out too, and those with a compound whose registry melting point (``chemicals.phase_change.Tm``)
+is 25 C or more (a gas at 25 C melts below it; telluric acid has a 273 K boiling point in the registry), and formulas of more than ``MAX_GAS_ATOMS`` atoms (the registry's boiling points
 for two such are wrong). Columns: ``formula`` (Hill order), ``boiling_point_K`` (the highest over the
 formula's compounds, rounded to 0.1 K), ``name`` and ``cas`` (the compound with that boiling point), and
 ``source``. Cl2 and F2, whose names the name reader reads itself, are added by CAS number. ``--check`` exits 1 when the file differs from a rebuild.
@@ -34,17 +35,27 @@ _ELEMENT_GASES = {"Cl2": ("Chlorine", "7782-50-5"), "F2": ("Fluorine", "7782-41-
 
 
 def build() -> str:
-    from chemicals.phase_change import Tb
+    from chemicals.phase_change import Tb, Tm
 
     from ionicity.scorer.formula import parse_formula
 
     by_formula: dict[str, list[tuple[float | None, str, str, str]]] = defaultdict(list)
+    solid = set()
     with open(HERE / "registry_names.csv", encoding="utf-8", newline="") as fh:
         for row in csv.DictReader(fh):
             try:
                 tb = Tb(row["cas"])
             except Exception:  # the registry raises on CAS numbers it has never seen
                 tb = None
+            try:
+                tm = Tm(row["cas"])
+            except Exception:
+                tm = None
+            if tm is not None and tm == tm and tm >= ROOM_TEMPERATURE_K:
+                # a gas at 25 C melts below it: a registry melting point at or above 25 C (telluric acid, Tm
+                # listed far above the 273 K boiling point the registry also gives it) marks the boiling point
+                # as wrong, and the formula stays off the list
+                solid.add(row["formula"])
             by_formula[row["formula"]].append((tb, row["name"], row["cas"], row["kind"]))
     for formula, (name, cas) in _ELEMENT_GASES.items():
         # the diatomic halogens: the name reader reads their names itself, so the names table leaves them out
@@ -52,7 +63,7 @@ def build() -> str:
             by_formula[formula].append((Tb(cas), name, cas, "molecule"))
     rows = []
     for formula, entries in sorted(by_formula.items()):
-        if any(kind == "salt" for *_, kind in entries):
+        if any(kind == "salt" for *_, kind in entries) or formula in solid:
             continue
         if sum(n for _, n in parse_formula(formula).counts) > MAX_GAS_ATOMS:
             continue  # a molecule this large boils far above 25 C: the registry's value is wrong
