@@ -58,6 +58,9 @@ _TRAILING_AMOUNT = re.compile(
     rf"(?P<unit>(?:(?P<basis>mol|wt|mass)\s*%|%\s*(?P<after>w/w|mol/mol)?))?\s*\)?\s*$",
     re.IGNORECASE,
 )
+# a percentage before a component, and two or more of them joined by spaces only: "60% NaNO3 40% KNO3"
+_PERCENT_COMPONENT = re.compile(rf"\s*{_NUMBER}\s*(?:(?:mol|wt|mass)\s*)?%\s*[A-Z\[(][A-Za-z0-9()\[\]·.]*")
+_SPACED_PERCENTAGES = re.compile(rf"(?:{_PERCENT_COMPONENT.pattern}){{2,}}\s*")
 _QUICK = frozenset("-–—:+·•∙⋅* /")
 _JOINERS = frozenset("-–—:+ /")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
@@ -223,7 +226,18 @@ def _leading_amounts(parts: list[str]) -> tuple[list[str], tuple[float, ...], st
     bases = set()
     percent = False
     trailing = [_TRAILING_AMOUNT.match(part) for part in parts]
-    if all(trailing) and not any(_LEADING_AMOUNT.match(part) for part in parts):
+    if (len(parts) > 1 and sum(1 for m in trailing if m) == len(parts) - 1
+            and all(m.group("unit") for m in trailing if m)
+            and not any(_LEADING_AMOUNT.match(part) for part in parts)):
+        # percentages after all components but one ("[C4mim][BF4] + H2O (10 wt%)"): that one takes the balance
+        for part, m in zip(parts, trailing):
+            amounts.append(float(m.group("amount")) if m else None)
+            names.append((m.group("name") if m else part).strip())
+            if m:
+                percent = True
+                bases.add(_basis(m.group("basis") or m.group("after")))
+        trailing = [True]
+    elif all(trailing) and not any(_LEADING_AMOUNT.match(part) for part in parts):
         # every component followed by its amount; a unit on any of them is the basis of all
         for m in trailing:
             amounts.append(float(m.group("amount")))
@@ -315,6 +329,10 @@ def read_mixture_text(text: str) -> MixtureText | None:
     >>> read_mixture_text("SO4^2-") is None, read_mixture_text("[Fe(CN)6]4-") is None
     (True, True)
     """
+    spaced = _SPACED_PERCENTAGES.fullmatch(text)
+    if spaced:
+        # "60% NaNO3 40% KNO3": percentages before components joined by spaces alone (common practice)
+        text = " + ".join(m.group(0).strip() for m in _PERCENT_COMPONENT.finditer(text))
     if _QUICK.isdisjoint(text) and not _LIST_JOINER.search(text):
         return None
     if any(c in text for c in ",;&=") or " and " in text or " with " in text or text.rstrip().endswith(")"):

@@ -222,6 +222,8 @@ SOLAR_SALT_X_NANO3 = (60 / 84.9947) / (60 / 84.9947 + 40 / 101.1032)
 
 @pytest.mark.parametrize("text", [
     "NaNO3/KNO3 60:40 wt%", "NaNO3/KNO3 (60/40 wt%)", "60 wt% NaNO3 + 40 wt% KNO3", "KNO3 + 60 wt% NaNO3",
+    # spaces alone between the amounts and components, and a percentage after one component, the other the balance
+    "60 wt% NaNO3 40 wt% KNO3", "NaNO3 60 wt% + KNO3", "KNO3 + NaNO3 (60 wt%)",
 ])
 def test_solar_salt_spellings_agree(text):
     from ionicity.scorer.mixture_notation import read_mixture_text
@@ -358,3 +360,13 @@ def test_an_inverted_name_with_a_ratio_and_a_hydrate_word_is_one_compound(text, 
     assert row["status"] == "warning" and row["formula_normalized"] == normalized
     # within 1e-4: the two packages' atomic weights of Eu differ by 0.01
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(hill).mass, rel=1e-4)
+
+
+def test_water_in_an_ionic_liquid_given_after_it():
+    # "[C4mim][BF4] + H2O (10 wt%)" had ignored the note and taken equal moles; 10 wt% water with the ionic liquid
+    # as the balance: x(H2O) = (10/18.015) / (10/18.015 + 90/225.99) (molar masses from IUPAC atomic weights)
+    out = score_formula("[C4mim][BF4] + H2O (10 wt%)")
+    fractions = dict(zip(out["mixture_components"].split(";"), map(float, out["mixture_mole_fractions"].split(";"))))
+    expected = (10 / 18.015) / (10 / 18.015 + 90 / 225.99)
+    assert fractions["H2O"] == pytest.approx(expected, abs=2e-3)
+    assert "taken as the balance, 90 wt%" in out["message"]
