@@ -33,7 +33,12 @@ from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometa
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
-from ionicity.scorer.organic_anions import NO_CONJUGATE_BASE, organic_anion_readings, suspect_organic_reading
+from ionicity.scorer.organic_anions import (
+    NO_CONJUGATE_BASE,
+    ammonium_organic_anion_readings,
+    organic_anion_readings,
+    suspect_organic_reading,
+)
 from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import element_symbols, get_element, is_metal
 from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
@@ -389,6 +394,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # an alkali metal with a rest that is no acid's conjugate base (NaHCO, C2H3NaO): a typo of a
             # carboxylate or hydrogencarbonate is likelier than the walk's carbide reading of the atoms
             readings, chosen = [], None
+    if (not hinted and written_nh4 and "C" in remaining and not any(is_metal(s) for s in remaining)
+            and not _holds_ammonium(readings, written_nh4)):
+        # the NH4 the text writes beside an organic acid's conjugate base the library does not list
+        # (NH4C7H15COO, ammonium octanoate, had read as a molecule C8H19NO2)
+        built, built_notes = ammonium_organic_anion_readings(remaining, written_nh4)
+        if built:
+            readings, chosen = built, _best(built)
+            notes.extend(built_notes)
     if hinted and not remaining and not readings:
         notes.append("the ions written do not balance: " + ", ".join(
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))

@@ -31,7 +31,7 @@ from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _PENALTY_SPECIES, _P
 from ionicity.scorer.model import Ion, format_charge
 
 __all__ = ["ORGANIC_ANION_SOURCE", "built_organic_ion", "organic_anion", "organic_anion_readings",
-           "suspect_organic_reading"]
+           "ammonium_organic_anion_readings", "suspect_organic_reading"]
 
 ORGANIC_ANION_SOURCE = (
     "constructed by rule (scorer/organic_anions.py), not from the ion library: the conjugate base of an"
@@ -117,6 +117,41 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
     note = (f"{anion.ion_id}: an organic anion the ion library does not list, read from the formula as the"
             f" conjugate base beside {cation.ion_id} (scorer/organic_anions.py)")
     return [(penalty, [(cation, float(n_metal)), (anion, float(n_anions))])], [note]
+
+
+def ammonium_organic_anion_readings(remaining: dict[str, float], ammonium: float) -> tuple[list, list[str]]:
+    """The reading of ``remaining`` as ``ammonium`` written NH4(+) ions with the rest as one organic anion.
+
+    The text writes the ammonium ion (``NH4C7H15COO``, ``CH3(CH2)6COONH4``: ammonium octanoate) and no library
+    anion balances it: the rest is the conjugate base of an organic acid, as for the s-block metals above (C and
+    H, only C, H, O, N, S, P and halogens, at least one oxygen per charge). Returns ``([(penalty, [(Ion,
+    count), ...])], [note])`` or two empty lists.
+
+    >>> readings, _ = ammonium_organic_anion_readings({"C": 8.0, "H": 19.0, "N": 1.0, "O": 2.0}, 1.0)
+    >>> sorted(f"{ion.ion_id}*{n:g}" for ion, n in readings[0][1])
+    ['C8H15O2(-)*1', 'NH4(+)*1']
+    """
+    from ionicity.scorer.ion_library import get_ion
+
+    if abs(ammonium - round(ammonium)) > 1e-9 or not 1 <= round(ammonium) <= 4:
+        return [], []
+    n = int(round(ammonium))
+    rest = dict(remaining)
+    rest["N"] = rest.get("N", 0.0) - n
+    rest["H"] = rest.get("H", 0.0) - 4 * n
+    if rest["N"] < -1e-9 or rest["H"] < -1e-9:
+        return [], []
+    rest = {s: c for s, c in rest.items() if c > 1e-9}
+    if "C" not in rest or "H" not in rest or not set(rest) <= _ALLOWED or rest.get("O", 0.0) < n:
+        return [], []
+    if any(abs(c - round(c)) > 1e-9 for c in rest.values()):
+        return [], []
+    anion = organic_anion(rest, -n)
+    if not _plausible_conjugate_base(dict(anion.composition), n):
+        return [], [NO_CONJUGATE_BASE]
+    note = (f"{anion.ion_id}: an organic anion the ion library does not list, read from the formula as the"
+            " conjugate base beside the NH4(+) written (scorer/organic_anions.py)")
+    return [(_PENALTY_BUILT, [(get_ion("NH4(+)"), float(n)), (anion, 1.0)])], [note]
 
 
 # what organic_anion_readings says when the rest would be no acid's conjugate base (CHO(-), C2H3O(-)): the

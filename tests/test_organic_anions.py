@@ -61,3 +61,20 @@ def test_a_truncated_hydrogencarbonate_is_no_formyl_salt():
     row = score_formula("NaHCO")
     assert row["status"] == "error" and "NaHCO3" in row["message"]
     assert score_formula("C4H9OK")["anions"] == "C4H9O(-)*1"
+
+
+@pytest.mark.parametrize("text, anion, formula", [
+    # ammonium octanoate written three ways, ammonium lauryl sulfate, and two registry names (the package chemicals)
+    ("NH4C7H15COO", "C8H15O2(-)*1", "C8H19NO2"),
+    ("CH3(CH2)6COONH4", "C8H15O2(-)*1", "C8H19NO2"),
+    ("NH4C12H25SO4", "C12H25O4S(-)*1", "C12H29NO4S"),
+    ("Ammonium hydrogen tartrate", "C4H5O6(-)*1", "C4H9NO6"),
+])
+def test_the_ammonium_written_beside_an_unlisted_organic_anion_is_an_ammonium_salt(text, anion, formula):
+    # a salt of an organic acid is cation plus conjugate base (IUPAC Red Book 2005, IR-5.4); NH4C7H15COO had read
+    # as a molecule C8H19NO2 with status ok. Molar mass against molmass (a registry package)
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert row["substance_class"] == "ionic_salt" and row["cations"].startswith("NH4(+)")
+    assert anion in row["anions"]
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(formula).mass, rel=1e-4)
