@@ -540,6 +540,17 @@ def parse_formula(text: str) -> ParsedFormula:
                          f" {alloy_sites}): read with equal shares on each site")
             text_to_parse = alloy_sites
             plain = False
+    if plain and text_to_parse[:1] in "CA":
+        chalcopyrite = _CHALCOPYRITE_ALLOY.fullmatch(text_to_parse)
+        if chalcopyrite is not None and chalcopyrite.group("a") != chalcopyrite.group("b"):
+            # an I-III-VI2 chalcopyrite alloy written without fractions ("CuInGaSe2" for CIGS, Cu(In,Ga)Se2):
+            # literally it balances only as Cu(2+) with In(+) and Ga(+), a reading of no compound (common practice)
+            sites = (f"{chalcopyrite.group('m')}({chalcopyrite.group('a')},{chalcopyrite.group('b')})"
+                     f"{chalcopyrite.group('x')}2")
+            notes.append(f"a chalcopyrite alloy written without fractions ({text_to_parse!r}, as for {sites}):"
+                         " read with equal shares of the group-13 site; write them, e.g. Cu(In0.7Ga0.3)Se2")
+            text_to_parse = sites
+            plain = False
     if not plain and "," in text_to_parse and _SOLID_SOLUTION_SITE.search(text_to_parse):
         shared = _SOLID_SOLUTION_SITE.sub(_equal_shares, text_to_parse)
         notes.append(f"a solid solution of unstated proportions ({text_to_parse.strip()!r}): equal shares of the site"
@@ -1141,6 +1152,11 @@ _SYMBOL_RUN = re.compile(r"[A-Z][a-z]?")
 # the metals of the rock-salt nitride coatings written by their elements (TiAlN, AlCrN, TiZrN: (Ti,Al)N; PalDey &
 # Deevi, Mater. Sci. Eng. A 342 (2003) 58; from memory), one nitride ion per metal as in TiN and AlN
 _ROCK_SALT_NITRIDE_METALS = frozenset("Sc Y Ti Zr Hf V Nb Ta Cr Al Ga In".split())
+
+
+# Cu or Ag, two group-13 metals without counts and a chalcogen with count 2: the I-III-VI2 chalcopyrite alloys
+# written without fractions (CuInGaSe2, CuInGaS2, AgInGaSe2; common practice)
+_CHALCOPYRITE_ALLOY = re.compile(r"(?P<m>Cu|Ag)(?P<a>Al|Ga|In)(?P<b>Al|Ga|In)(?P<x>S|Se|Te)2")
 
 
 @per_input(maxsize=4096)

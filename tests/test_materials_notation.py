@@ -589,3 +589,16 @@ def test_amphiboles_read_as_hydroxide_with_the_double_chain_silicate(text):
     assert "H(+)" not in (row["cations"] or "")
     assert row["melting_class"] is not None
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("Ca2Mg5Si8O22(OH)2").mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("text, site", [("CuInGaSe2", "Cu(In,Ga)Se2"), ("CuInGaS2", "Cu(In,Ga)S2"),
+                                        ("AgInGaSe2", "Ag(In,Ga)Se2")])
+def test_chalcopyrite_alloys_written_without_fractions(text, site):
+    # CIGS written as CuInGaSe2 (common practice in the photovoltaics literature) is Cu(In,Ga)Se2 with Cu(+),
+    # In(3+), Ga(3+) (Greenwood & Earnshaw, 2nd ed., 1997, ch. 7; from memory); read literally it balanced only
+    # as Cu(2+) with In(+) and Ga(+) and status ok
+    row = score_formula(text)
+    states = _states(row)
+    assert states["In"] == 3.0 and states["Ga"] == 3.0 and states[text[:2]] == 1.0
+    assert row["status"] == "warning" and site in row["message"]
+    assert row["formula_normalized"] == score_formula(site)["formula_normalized"]
