@@ -71,6 +71,15 @@ def _trivial() -> dict[str, str]:
     return out
 
 
+def trivial_name_formula(name: str) -> str | None:
+    """The formula ``scorer/data/trivial_names.csv`` gives a trivial or trade name, or None.
+
+    >>> trivial_name_formula("Epsom salt"), trivial_name_formula("sodium chloride")
+    ('MgSO4·7H2O', None)
+    """
+    return _trivial().get(compact(name))
+
+
 def read_name(name) -> str | None:
     """The formula text ``name`` means, or ``None`` when it cannot be read.
 

@@ -96,13 +96,9 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
         return [], []
     n_metal = int(round(n_metal))
     rest = {s: n for s, n in remaining.items() if s != metal}
-    if "C" not in rest or "H" not in rest or not set(rest) <= _ALLOWED:
-        return [], []
-    if any(abs(n - round(n)) > 1e-9 for n in rest.values()):
-        return [], []
     z = int(element.group)
     charge = n_metal * z
-    if rest.get("O", 0.0) < charge:
+    if not _acid_rest(rest, charge):
         return [], []
     if z == 2 and n_metal == 1 and all(round(n) % 2 == 0 for n in rest.values()):
         anion, n_anions = organic_anion({s: n / 2 for s, n in rest.items()}, -1), 2
@@ -117,6 +113,13 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
     note = (f"{anion.ion_id}: an organic anion the ion library does not list, read from the formula as the"
             f" conjugate base beside {cation.ion_id} (scorer/organic_anions.py)")
     return [(penalty, [(cation, float(n_metal)), (anion, float(n_anions))])], [note]
+
+
+def _acid_rest(rest: dict[str, float], charge: int) -> bool:
+    """Whether ``rest`` (element -> count) can be an organic acid's conjugate base of ``charge`` negative charges:
+    carbon and hydrogen, only the elements of :data:`_ALLOWED`, whole counts, one oxygen or more per charge."""
+    return ("C" in rest and "H" in rest and set(rest) <= _ALLOWED and rest.get("O", 0.0) >= charge
+            and all(abs(n - round(n)) <= 1e-9 for n in rest.values()))
 
 
 def ammonium_organic_anion_readings(remaining: dict[str, float], ammonium: float) -> tuple[list, list[str]]:
@@ -142,9 +145,7 @@ def ammonium_organic_anion_readings(remaining: dict[str, float], ammonium: float
     if rest["N"] < -1e-9 or rest["H"] < -1e-9:
         return [], []
     rest = {s: c for s, c in rest.items() if c > 1e-9}
-    if "C" not in rest or "H" not in rest or not set(rest) <= _ALLOWED or rest.get("O", 0.0) < n:
-        return [], []
-    if any(abs(c - round(c)) > 1e-9 for c in rest.values()):
+    if not _acid_rest(rest, n):
         return [], []
     anion = organic_anion(rest, -n)
     if not _plausible_conjugate_base(dict(anion.composition), n):

@@ -29,9 +29,13 @@ from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
 from ionicity.scorer.model import Decomposition, IonTerm, RowWarning, format_charge
-from ionicity.scorer.name_reader import _trivial as _trivial_names
-from ionicity.scorer.name_reader import ambiguous_name, formula_with_hydrate_word, known_word_name, parse_as_name
-from ionicity.scorer.name_vocabulary import compact
+from ionicity.scorer.name_reader import (
+    ambiguous_name,
+    formula_with_hydrate_word,
+    known_word_name,
+    parse_as_name,
+    trivial_name_formula,
+)
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
 from ionicity.scorer.solutions import split_grade_words
@@ -323,7 +327,7 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
 def _trade_name_of_another(name: str, formula: str) -> str | None:
     """A note when a generated hydrate name is a trivial name of another compound (scorer/data/trivial_names.csv),
     else None: ``ammonium molybdate tetrahydrate`` names (NH4)6Mo7O24·4H2O in the trade, not (NH4)2MoO4·4H2O."""
-    meant = _trivial_names().get(compact(name))
+    meant = trivial_name_formula(name)
     if meant is None or meant == formula:
         return None
     return (f"systematic_name: not given; the generated name {name!r} is the trade name of {meant}"
