@@ -17,6 +17,7 @@ import signal
 import sys
 import threading
 
+from ionicity._entry import INTERRUPTED_NOTHING_WRITTEN, interrupt_on
 from ionicity.pipelines.aliases import load_aliases
 from ionicity.pipelines.config import ScoreConfig
 from ionicity.pipelines.errors import InputError
@@ -188,12 +189,8 @@ def _interrupt_on_sigterm() -> None:
     """Turn SIGTERM into KeyboardInterrupt so a terminated run cleans up as Ctrl-C does."""
     if threading.current_thread() is not threading.main_thread():
         return
-
-    def handler(signum, frame):
-        raise KeyboardInterrupt
-
     try:
-        signal.signal(signal.SIGTERM, handler)
+        interrupt_on(signal.SIGTERM)
     except (ValueError, OSError):
         pass
 
@@ -218,8 +215,11 @@ def _prestart_workers(args) -> None:
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = build_parser()
-    args = parser.parse_args(argv)
+    try:
+        args = build_parser().parse_args(argv)
+    except KeyboardInterrupt:  # before the command is known: nothing was written
+        print(INTERRUPTED_NOTHING_WRITTEN, file=sys.stderr)
+        return 130
     if _stdout_closed(args):
         print("ionicity: error: standard output is closed; give an output file with -o", file=sys.stderr)
         return EXIT_USAGE
@@ -243,7 +243,7 @@ def _interrupted(args) -> int:
     if getattr(args, "output", None) == "-":
         print("ionicity: interrupted; the table on stdout is incomplete", file=sys.stderr)
     else:
-        print("ionicity: interrupted; no output was written", file=sys.stderr)
+        print(INTERRUPTED_NOTHING_WRITTEN, file=sys.stderr)
     return 130
 
 

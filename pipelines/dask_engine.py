@@ -34,6 +34,7 @@ import pyarrow as pa
 import pyarrow.compute as pc
 import pyarrow.parquet as pq
 
+from ionicity._entry import stop_if_interrupted
 from ionicity.pipelines.config import ScoreConfig, Summary
 from ionicity.pipelines.arrow_columns import int_array
 from ionicity.pipelines.dask_partitions import (
@@ -450,6 +451,7 @@ def _swap_into_place(tmp: str, output: str, overwrite: bool) -> None:
     aside, new in, old deleted (a killed run's old one is put back by the next). Whatever else is found
     at ``output`` by now stays, and the result is kept beside it
     (:class:`InputError` saying where). Nothing is left at ``tmp``."""
+    stop_if_interrupted()  # a Ctrl-C that a library swallowed: the run did not finish as asked
     if not os.path.lexists(output):
         try:
             # fails if a file or a non-empty folder appeared since the check

@@ -19,6 +19,8 @@ from collections import deque
 
 import pyarrow as pa
 import pyarrow.compute as pc
+
+from ionicity._entry import stop_if_interrupted
 from ionicity.pipelines.batch_assembly import score_batch
 from ionicity.pipelines.duplicates import FirstRows
 from ionicity.pipelines.config import ScoreConfig, Summary
@@ -161,6 +163,7 @@ def _score_once(config: ScoreConfig, text_columns: set, tally=None) -> Summary:
         # Read ahead: while the workers score the new formulas of later
         # batches, earlier ones are taken from the cache and written.
         for batch in _slices(reader.batches, config.batch_rows):
+            stop_if_interrupted()  # a Ctrl-C raised where a library dropped it (ionicity._entry)
             batch = typer.convert(batch)
             waiting.append((batch, scorer.submit(formula_array(batch, formula_col))))
             while waiting and (len(waiting) > _READ_AHEAD_BATCHES or scorer.ready(waiting[0][1])):

@@ -18,6 +18,7 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 import pyarrow.parquet as pq
 
+from ionicity._entry import stop_if_interrupted
 from ionicity.pipelines.arrow_columns import as_text
 from ionicity.pipelines.errors import InputError
 from ionicity.pipelines.output_paths import (_remove, check_output_path, clean_stale_partials, keep_beside, partial_path,
@@ -221,6 +222,7 @@ class TableWriter:
             self._finish()
         except OSError as exc:
             raise self._naming_the_output(exc) from None
+        stop_if_interrupted()  # a Ctrl-C that a library swallowed: the run did not finish as asked
         if self._tmp is not None:
             self._move_into_place()
         else:
