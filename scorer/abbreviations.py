@@ -10,7 +10,10 @@ no element pairs with the following lower-case letter. ``Pr`` (praseodymium), ``
 (actinium) and ``Ts`` (tennessine) are symbols and are read as elements
 unless prefixed (``iPr``, ``nPr``; ``OAc`` and ``acac`` are ions of the library, read by the
 formula grammar as written ions: ``Cu(acac)2``) or in
-the whole words ``AcOH``, ``Ac2O`` and ``AcCl`` (AcCl3 is actinium's).
+the whole words ``AcOH``, ``Ac2O`` and ``AcCl`` (AcCl3 is actinium's), or where ``Ac`` closes a formula
+after its cation (``NaAc``, ``NH4Ac``, ``Pb(Ac)2``, ``HAc``: the acetate anion,
+as buffer recipes and stock lists write it; an actinium compound names the
+metal first, AcCl3, Ac2O3, and no alloy of actinium sits on a shelf).
 The silyl groups of protecting-group reagents (``TMS``, ``TBS``, ``TBDMS``,
 ``TES``, ``TIPS``) are read only before another group (``TMSCl``, ``TBSOTf``):
 ``TMS`` alone is tetramethylsilane, a laboratory code, and ``TBS`` alone a
@@ -29,6 +32,8 @@ buffer's. Neutral ligands (py, en, bpy, phen, PPh3 in brackets) are read by
 ('(C4H9)Li', '(C4H9)Li', '(C3H7)OH')
 >>> expand_abbreviations("Zr(OPr)4")[0]
 'Zr(O(C3H7))4'
+>>> expand_abbreviations("NaAc")[0], expand_abbreviations("Pb(Ac)2")[0], expand_abbreviations("AcCl3")[0]
+('Na(CH3COO)', 'Pb(CH3COO)2', 'AcCl3')
 >>> expand_abbreviations("NaCl")
 ('NaCl', ())
 """
@@ -112,9 +117,14 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
         # a propoxide written (OPr) after a metal (Zr(OPr)4): praseodymium is never bracketed alone with one
         # oxygen and counted, so the group is n-propoxide (common practice)
         text = text.replace("(OPr)", "(OnPr)")
-    if _QUICK.isdisjoint(text) or not _PATTERN.search(text):
+    if _QUICK.isdisjoint(text):
         return text, ()
     used: dict[str, str] = {}
+    if "Ac" in text and _ACETATE.search(text) and "[" not in text:
+        text = _ACETATE.sub(lambda m: "CH3COO" if text[m.start() - 1] == "(" else "(CH3COO)", text)
+        used["Ac"] = "Ac = CH3COO (acetate, written after its cation), not the element actinium"
+    if not _PATTERN.search(text):
+        return text, tuple(used.values())
 
     def replace(m: re.Match) -> str:
         word = m.group()
@@ -142,4 +152,7 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
 _HYPHEN_PREFIX = re.compile(r"(?<![A-Za-z])(n|t|s|i|sec|tert|iso)-(?=Bu(?![a-z])|(?<=[ni]-)Pr(?![a-z])|(?<=iso-)Pr(?![a-z]))")
 _PREFIX_LETTER = {"sec": "s", "tert": "t", "iso": "i"}
 _ALKOXY_HYPHEN = re.compile(r"O-(?=[ntsi](?:Bu|Pr)(?![a-z]))")
+# "Ac" after a cation and closing the formula or a bracket (NaAc, NH4Ac, HAc, Pb(Ac)2, NaAc·3H2O): acetate; not
+# after O (OAc is the ion library's acetate) nor before another element (K3AcF6 would be actinium's)
+_ACETATE = re.compile(r"(?<=[A-Za-z0-9)])(?<!O)Ac(?=\d*(?:·|\*|\.|\s|$))|(?<=[A-Za-z0-9)]\()Ac(?=\))")
 _CODE_IN_PARENTHESES = re.compile(r"\((\[[A-Za-z0-9]+\])\)")

@@ -520,6 +520,10 @@ def parse_formula(text: str) -> ParsedFormula:
             notes.append(f"read the materials code {text_to_parse.strip()!r} as {name}, {formula} (common practice;"
                          " the usual composition, check it against your material's)")
             text_to_parse = formula
+            alloy = alloy_designation(formula) if "-" in formula else None
+            if alloy is not None:  # a solder's designation (SAC305: Sn-3Ag-0.5Cu in weight percent)
+                text_to_parse, alloy_note = alloy
+                notes.append(alloy_note)
     if "⁺" in text_to_parse and "⁻" in text_to_parse and " " in text_to_parse.strip():
         # ions written with superscript charges ("Ca²⁺ + 2Cl⁻"): read as their ASCII spelling
         text_to_parse = unicodedata.normalize("NFKC", text_to_parse).replace("\u2212", "-")

@@ -271,6 +271,25 @@ def test_an_alloy_melts_where_its_metals_do():
     assert score_formula("Sn-37Pb")["melting_class"] == "low_melting_solid"
 
 
+@pytest.mark.parametrize("code, silver_wt_pct, copper_wt_pct", [("SAC305", 3.0, 0.5), ("SAC405", 4.0, 0.5),
+                                                                ("sac387", 3.8, 0.7)])
+def test_a_lead_free_solder_code_is_its_alloy(code, silver_wt_pct, copper_wt_pct):
+    # SAC: tin with silver and copper in weight percent (common practice; JEDEC and IPC J-STD-006, from memory);
+    # SAC305 had been re-cased into a sulfur-actinium compound. Weight fractions recomputed from the atom
+    # fractions with periodictable's standard atomic weights, an independent library; SAC305 melts at
+    # 490-493 K (from memory), in the low_melting_solid band
+    periodictable = pytest.importorskip("periodictable")
+    from ionicity.scorer.formula import parse_formula
+    row = score_formula(code)
+    assert row["substance_class"] == "metallic" and "Ac" not in row["formula_normalized"]
+    counts = dict(parse_formula(row["formula_normalized"]).counts)
+    mass = {s: n * periodictable.elements.symbol(s).mass for s, n in counts.items()}
+    total = sum(mass.values())
+    assert 100 * mass["Ag"] / total == pytest.approx(silver_wt_pct, abs=0.01)
+    assert 100 * mass["Cu"] / total == pytest.approx(copper_wt_pct, abs=0.01)
+    assert row["melting_class"] == "low_melting_solid"
+
+
 @pytest.mark.parametrize("text", ["LiCl-KCl", "Na-K", "Fe-Cr"])
 def test_a_dash_between_formulas_without_percentages_stays_a_mixture(text):
     assert score_formula(text)["substance_class"] == "mixture"

@@ -41,7 +41,7 @@ ROWS = {
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 68,
-    "material_codes.csv": 35,
+    "material_codes.csv": 39,
     "trivial_names.csv": 239,
     "solution_names.csv": 20,
     "ligands.csv": 30,
