@@ -1244,8 +1244,9 @@ def quaternary_reagent_code(text: str) -> str | None:
 
 # protic ionic liquids by their codes, written as the literature writes them (Greaves & Drummond, Chem. Rev. 108
 # (2008) 206; from memory); matched in capitals only. PAN (propylammonium nitrate) is left out: it is also
-# polyacrylonitrile, and PaN a formula
-_SALT_CODES = {"EAN": "[EtNH3][NO3]"}
+# polyacrylonitrile, and PaN a formula. The chloroaluminate literature's imidazolium chlorides: EMIC and BMIC
+# (1-ethyl- and 1-butyl-3-methylimidazolium chloride, the base of EMIC-AlCl3 electrolytes; common practice)
+_SALT_CODES = {"EAN": "[EtNH3][NO3]", "EMIC": "[C2mim]Cl", "BMIC": "[C4mim]Cl"}
 
 
 # "EMIM-BF4", "BMIM - PF6": an ionic liquid's two codes joined by a hyphen or a dash, as catalogues write them

@@ -115,6 +115,8 @@ def test_amine_codes_are_not_tritium_or_deuterium_with_ethylammonium(text):
     # aliases of the trade: BMPyrr for 1-butyl-1-methylpyrrolidinium, HNEt3 for triethylammonium, EAN for
     # ethylammonium nitrate (Greaves & Drummond, Chem. Rev. 108 (2008) 206; from memory)
     ("[BMPyrr][TFSI]", "[C4mpyr][NTf2]"), ("[HNEt3][HSO4]", "[Et3NH][HSO4]"), ("EAN", "[EtNH3][NO3]"),
+    # the chloroaluminate electrolytes' imidazolium chlorides (EMIC-AlCl3; common practice, from memory)
+    ("EMIC", "[C2mim]Cl"), ("BMIC", "[C4mim]Cl"),
 ])
 def test_codes_of_the_trade_read_as_their_ions(text, normalized):
     row = score_formula(text)
@@ -169,3 +171,12 @@ def test_the_hydroxyethyl_imidazolium_cation_is_read(text):
     row = score_formula(text)
     assert row["formula_normalized"] == "[C2OHmim][BF4]" and row["substance_class"] == "ionic_liquid_pair"
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("C6H11BF4N2O").mass, rel=1e-4)
+
+
+def test_a_chloroaluminate_electrolyte_written_with_its_code_is_a_mixture():
+    # "EMIC-AlCl3 (1:2)": an acidic chloroaluminate melt, 2 AlCl3 per [C2mim]Cl (common practice); the code had
+    # stopped the mixture reader ("unknown element 'E'")
+    row = score_formula("EMIC-AlCl3 (1:2)")
+    assert row["substance_class"] == "mixture"
+    assert row["formula_normalized"] == "[C2mim]Cl-AlCl3 (33.33-66.67 mol%)"
+    assert "reacts_violently" in row["water_behaviour"]
