@@ -38,7 +38,7 @@ from ionicity.scorer.name_reader import (
 )
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
-from ionicity.scorer.solutions import split_grade_words
+from ionicity.scorer.solutions import split_grade_words, split_stock_fields
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import Verdict, finalise, with_warnings
 
@@ -487,6 +487,11 @@ def _oxygen_vacancy_row(row: tuple, text: str) -> tuple | None:
 
 def _read_row(text: str) -> tuple:
     """The row of ``text`` through every reader (what an ordinary formula skips)."""
+    stock_line = split_stock_fields(text)
+    if stock_line is not None:
+        # a stock line's lot, catalogue, expiry or shelf after the compound: the compound's row, whatever reads it
+        body, words = stock_line
+        return _warned(score_row(body), f"ignored the grade, lot or location words {words!r}")
     doped = _doped_row(text) if (":" in text or text.endswith(")")) else None
     if doped is not None:
         return doped

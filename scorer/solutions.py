@@ -313,6 +313,19 @@ def solution_note(solution: Solution, substance_class: str) -> str:
     return note
 
 
+# a stock line's lot, catalogue and expiry fields and where the bottle stands ("KCl, 99%, Lot 12345",
+# "NaCl cat. no. S7653", "CuSO4 exp. 2027-03", "KNO3 shelf B3"; common practice)
+_STOCK_FIELD_WORD = (
+    # (the keyword whole, and a number in the field: "Wilkinson's catalyst" and "room temperature" are no fields)
+    r"(?:lot|batch|cat|catalog(?:ue)?|product|item|art|ref|order)(?![a-z])\.?\s*(?:no\.?|number|nr\.?|#)?\s*[:#]?\s*"
+    r"[A-Za-z]*\d[\w./-]*"
+    r"|(?:exp(?:iry|ires|iration)?|best\s+before|received|opened)(?![a-z])\.?\s*(?:date)?\s*:?\s*\d[\d./-]*"
+    r"|\#\s*[A-Za-z]*\d[\w./-]*"
+    r"|(?:shelf|cabinet|cupboard|room|rack|bin|fridge|freezer|store|location)(?![a-z])\s*:?\s*[A-Za-z]*\d[\w./-]*"
+)
+_STOCK_FIELD = re.compile(rf"(?:^|[\s,;])(?:{_STOCK_FIELD_WORD})", re.I)
+
+
 # grade, purity and form words that catalogues and stock lists write after a formula or a
 # name ("NaOH pellets", "Na2SO4 anhydrous", "NaCl ACS reagent, 99.5%"; common practice)
 _GRADE_WORD = (
@@ -339,6 +352,7 @@ _GRADE_WORD = (
     r"|\d+(?:[.,]\d+)?\s*(?:kg|g|mg|L|l|mL|ml|lb|lbs|oz)\.?(?![A-Za-z])|x\s*\d+|\d+\s*(?:bottles?|jars?|packs?|units?|pcs)"
     # the container a stock line names ("KNO3 500 g bottle"), and the activity grade of chromatography alumina
     r"|bottles?|jars?|cans?|drums?|bags?|ampoules?|ampules?|vials?|tins?|sachets?|neutral|acidic"
+    rf"|{_STOCK_FIELD_WORD}"
 )
 # the crystal form a materials table writes after the formula ("TiO2 rutile", "SiO2 amorphous", "BN hexagonal",
 # "ZrO2-monoclinic", "Fe2O3 alpha phase"): the composition is scored, not the polymorph (common practice)
@@ -364,6 +378,24 @@ _GRADE_HEAD = re.compile(r"^\s*(?:(?:liquid|liquefied|compressed|anhydrous|gaseo
                          re.I)
 
 
+def split_stock_fields(text: str) -> tuple[str, str] | None:
+    """(the text before them, the words) where the grade and form words at the end of ``text`` hold a stock
+    line's lot, catalogue, expiry or location field; None otherwise. Read before the mixture reader, whose
+    separators (":" in "lot: 1234") such a field would otherwise split.
+
+    >>> split_stock_fields("sodium chloride, lot: 1234-56, exp 03/2027")
+    ('sodium chloride', 'lot: 1234-56, exp 03/2027')
+    >>> split_stock_fields("NaCl, 99%") is None, split_stock_fields("NaCl:KCl 1:1") is None
+    (True, True)
+    """
+    if not isinstance(text, str) or _STOCK_FIELD.search(text) is None:
+        return None
+    body, words = split_grade_words(text)
+    if words is None or not body or _STOCK_FIELD.search(" " + words) is None:
+        return None
+    return body, words
+
+
 def split_grade_words(text: str) -> tuple[str, str | None]:
     """(text without the grade and form words at its end, the words as written or None).
 
@@ -377,6 +409,8 @@ def split_grade_words(text: str) -> tuple[str, str | None]:
     (('NaCl', '(ACS reagent)'), 'KCl')
     >>> split_grade_words("NaCl, 500 g"), split_grade_words("NaCl - 2 bottles")[0], split_grade_words("NaCl-KCl")
     (('NaCl', '500 g'), 'NaCl', ('NaCl-KCl', None))
+    >>> split_grade_words("KCl, 99%, Lot 12345"), split_grade_words("NaCl cat. no. S7653 shelf B3")[0]
+    (('KCl', '99%, Lot 12345'), 'NaCl')
     >>> split_grade_words("liquid nitrogen"), split_grade_words("argon gas")
     (('nitrogen', 'liquid'), ('argon', 'gas'))
     """

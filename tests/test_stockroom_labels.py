@@ -642,3 +642,22 @@ def test_more_catalogue_names(label, formula):
     row = score_formula(label)
     assert row["status"] == "warning"
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(formula.replace("·", ".")).mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("text, normalized", [
+    # stock lines carry their lot, catalogue, expiry and shelf after the compound (common practice); these were
+    # errors ("unexpected character ','"), and "lot: 1234" split the cell as a mixture at its colon
+    ("KCl, 99%, Lot 12345", "KCl"), ("NaCl cat. no. S7653 shelf B3", "NaCl"),
+    ("sodium chloride, lot: 1234-56, exp 03/2027", "NaCl"), ("Pb(NO3)2, Cat.No. 12345, Lot No. AB12", "Pb(NO3)2"),
+    ("CuSO4 5H2O Lot 7", "CuSO4·5H2O"), ("NaNO3-KNO3 (60-40 wt%), Lot 123", "NaNO3-KNO3 (64.08-35.92 mol%)"),
+    ("1-butyl-3-methylimidazolium hexafluorophosphate, lot 2", "[C4mim][PF6]"),
+])
+def test_lot_catalogue_expiry_and_shelf_fields_are_left_out(text, normalized):
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["formula_normalized"] == normalized
+    assert "lot or location words" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["Wilkinson's catalyst", "NaCl:KCl 1:1", "LiCl-KCl"])
+def test_words_that_only_begin_like_a_field_are_not_fields(text):
+    assert "lot or location words" not in (score_formula(text)["message"] or "")
