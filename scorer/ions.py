@@ -658,10 +658,26 @@ def _hydride_beside_reactive_ion(terms) -> bool:
     nitride and the hydrido complexes beside it (NaH, LaHO, Li2NH... BH4(-), AlH4(-); Greenwood & Earnshaw,
     Chemistry of the Elements, 2nd ed., 1997, ch. 3.6; from memory)."""
     ids = [ion for ion, _ in terms]
-    return any(ion.ion_id == "H(-)" for ion in ids) and any(
+    if not any(ion.ion_id == "H(-)" for ion in ids):
+        return False
+    if any(ion.ion_id == "O(2-)" for ion in ids) and not any(
+            ion.charge > 0 and ion.monatomic and _oxyhydride_host(ion.element) for ion in ids):
+        # an oxide hydride needs a cation of an electropositive host (LaHO, BaTiO2.5H0.5, SrVO2H): beside Al,
+        # Fe or Ti alone "Al(OH)" and "Fe(OH)" are hydroxides that lost a count, not AlHO and FeHO
+        return True
+    return any(
         ion.family in _PROTIC_FAMILIES or ion.ion_id == "H(+)"
         or ion.charge < 0 and not ion.monatomic and any(symbol == "O" for symbol, _ in ion.composition)
         for ion in ids)
+
+
+# the hosts of the known oxide hydrides: the s-block metals and the rare earths (Sc, Y, La-Lu)
+_RARE_EARTHS = frozenset({"Sc", "Y", "La", "Ce", "Pr", "Nd", "Pm", "Sm", "Eu", "Gd", "Tb", "Dy", "Ho", "Er", "Tm",
+                          "Yb", "Lu"})
+
+
+def _oxyhydride_host(symbol: str) -> bool:
+    return symbol in _RARE_EARTHS or get_element(symbol).block == "s"
 
 
 def _tetride_beside_another_anion(terms) -> bool:

@@ -79,6 +79,21 @@ def test_hydrides_with_halide_oxide_or_as_complexes_stay(text):
     assert _states(row)["H"] == -1
 
 
+@pytest.mark.parametrize("text, suggestion", [("Al(OH)", "Al(OH)3"), ("Ti(OH)", "Ti(OH)4"), ("Fe(OH)", "Fe(OH)2")])
+def test_a_hydroxide_that_lost_its_count_is_no_oxide_hydride(text, suggestion):
+    # oxide hydrides need an electropositive host: the s-block and rare-earth metals (LaHO, BaTiO3-xHx, SrVO2H;
+    # Kobayashi et al., Nat. Mater. 11 (2012) 507, from memory); "Al(OH)" had read as Al(3+), H(-), O(2-) with
+    # status ok
+    row = score_formula(text)
+    assert row["status"] == "error" and suggestion in row["message"]
+
+
+@pytest.mark.parametrize("text", ["BaTiO2.5H0.5", "SrVO2H", "GdHO"])
+def test_oxide_hydrides_of_electropositive_hosts_stay(text):
+    row = score_formula(text)
+    assert row["status"] == "ok" and _states(row)["H"] == -1
+
+
 def test_a_proton_sits_in_an_anion_beside_metal_cations():
     # talc, Mg3Si4O10(OH)2 (the registry's formula H2Mg3O12Si4 for the name): Mg(2+) with hydroxide and
     # Si2O5(2-) sheets; it tied with H(+) beside metasilicate, which carries no melting trend
