@@ -524,8 +524,8 @@ def parse_formula(text: str) -> ParsedFormula:
             if alloy is not None:  # a solder's designation (SAC305: Sn-3Ag-0.5Cu in weight percent)
                 text_to_parse, alloy_note = alloy
                 notes.append(alloy_note)
-    if "⁺" in text_to_parse and "⁻" in text_to_parse and " " in text_to_parse.strip():
-        # ions written with superscript charges ("Ca²⁺ + 2Cl⁻"): read as their ASCII spelling
+    if "⁺" in text_to_parse and "⁻" in text_to_parse:
+        # ions written with superscript charges ("Ca²⁺ + 2Cl⁻", "Na⁺Cl⁻"): read as their ASCII spelling
         text_to_parse = unicodedata.normalize("NFKC", text_to_parse).replace("\u2212", "-")
     if "+" in text_to_parse and "-" in text_to_parse:
         pair = _written_ion_pair(text_to_parse)

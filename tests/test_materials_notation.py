@@ -521,7 +521,7 @@ def test_mineral_groups_and_materials_of_no_one_formula_are_errors_that_say_so(t
     assert row["status"] == "error" and "of no one formula" in row["message"]
 
 
-@pytest.mark.parametrize("text", ["Ca2+ + 2Cl-", "Ca²⁺ + 2Cl⁻", "Na⁺ Cl⁻", "NH₄⁺ NO₃⁻"])
+@pytest.mark.parametrize("text", ["Ca2+ + 2Cl-", "Ca²⁺ + 2Cl⁻", "Na⁺ Cl⁻", "NH₄⁺ NO₃⁻", "Na⁺Cl⁻", "K⁺NO₃⁻"])
 def test_ions_with_their_charges_joined_by_plus_or_in_superscripts_are_one_salt(text):
     row = score_formula(text)
     assert row["substance_class"] == "ionic_salt" and "read the ions written with their charges" in row["message"]
