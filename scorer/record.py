@@ -487,7 +487,8 @@ def _oxygen_vacancy_row(row: tuple, text: str) -> tuple | None:
 
 def _read_row(text: str) -> tuple:
     """The row of ``text`` through every reader (what an ordinary formula skips)."""
-    stock_line = split_stock_fields(text)
+    # (a field follows a space, comma or "#": a cell without one pays no call here)
+    stock_line = split_stock_fields(text) if (" " in text or "," in text or "#" in text) else None
     if stock_line is not None:
         # a stock line's lot, catalogue, expiry or shelf after the compound: the compound's row, whatever reads it
         body, words = stock_line
