@@ -61,7 +61,12 @@ _TRAILING_AMOUNT = re.compile(
 # a percentage before a component, and two or more of them joined by spaces only: "60% NaNO3 40% KNO3"
 _PERCENT_COMPONENT = re.compile(rf"\s*{_NUMBER}\s*(?:(?:mol|wt|mass)\s*)?%\s*[A-Z\[(][A-Za-z0-9()\[\]·.]*")
 _SPACED_PERCENTAGES = re.compile(rf"(?:{_PERCENT_COMPONENT.pattern}){{2,}}\s*")
+# the same with each percentage after its component: "LiCl 44wt% KCl 56wt%", "NaNO3 60 % KNO3 40 %"
+_COMPONENT_PERCENT = re.compile(rf"\s*[A-Z\[(][A-Za-z0-9()\[\]·.]*\s+{_NUMBER}\s*(?:(?:mol|wt|mass)\s*)?%")
+_SPACED_TRAILING_PERCENTAGES = re.compile(rf"(?:{_COMPONENT_PERCENT.pattern}){{2,}}\s*")
 _QUICK = frozenset("-–—:+·•∙⋅* /")
+# proportions by volume: "1:1 v/v", "50 vol%", "by volume" (common practice)
+_BY_VOLUME = re.compile(r"(?<![A-Za-z])(?:v\s*/\s*v|vol\.?\s*%|volume\s*%|%\s*v/v|by\s+volume)(?![A-Za-z])", re.I)
 _JOINERS = frozenset("-–—:+ /")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
 
@@ -326,6 +331,8 @@ def read_mixture_text(text: str) -> MixtureText | None:
     'wt'
     >>> read_mixture_text("KNO3+NaNO3").notes[0][:45]
     "'KNO3+NaNO3' was read as a mixture of KNO3 an"
+    >>> read_mixture_text("LiCl 44wt% KCl 56wt%").amounts
+    (44.0, 56.0)
     >>> read_mixture_text("SO4^2-") is None, read_mixture_text("[Fe(CN)6]4-") is None
     (True, True)
     """
@@ -333,12 +340,19 @@ def read_mixture_text(text: str) -> MixtureText | None:
     if spaced:
         # "60% NaNO3 40% KNO3": percentages before components joined by spaces alone (common practice)
         text = " + ".join(m.group(0).strip() for m in _PERCENT_COMPONENT.finditer(text))
+    elif "%" in text and _SPACED_TRAILING_PERCENTAGES.fullmatch(text):
+        text = " + ".join(m.group(0).strip() for m in _COMPONENT_PERCENT.finditer(text))
     if _QUICK.isdisjoint(text) and not _LIST_JOINER.search(text):
         return None
     if any(c in text for c in ",;&=") or " and " in text or " with " in text or text.rstrip().endswith(")"):
         text = normalised_list(text)
     if split_in_solvent(text) is not None:
         return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
+    if ("v" in text or "V" in text) and _BY_VOLUME.search(text):
+        raise MixtureNotationError(
+            f"proportions by volume in {text.strip()!r}: converting them to mole fractions needs each component's"
+            " density, which ionicity does not hold; give them in mol% or wt% (mole fraction of i is proportional"
+            " to V_i x density_i / molar mass_i)")
     if _JOINERS.isdisjoint(text) and not text[:1].isdigit():
         return None  # only dots: a mixture needs a leading amount ("0.588LiCl·0.412KCl"); hydrates end here
     text, eutectic = _without_eutectic_word(text)

@@ -224,6 +224,8 @@ SOLAR_SALT_X_NANO3 = (60 / 84.9947) / (60 / 84.9947 + 40 / 101.1032)
     "NaNO3/KNO3 60:40 wt%", "NaNO3/KNO3 (60/40 wt%)", "60 wt% NaNO3 + 40 wt% KNO3", "KNO3 + 60 wt% NaNO3",
     # spaces alone between the amounts and components, and a percentage after one component, the other the balance
     "60 wt% NaNO3 40 wt% KNO3", "NaNO3 60 wt% + KNO3", "KNO3 + NaNO3 (60 wt%)",
+    # each percentage after its component, joined by spaces alone (an error before)
+    "NaNO3 60wt% KNO3 40wt%", "NaNO3 60 wt% KNO3 40 wt%",
 ])
 def test_solar_salt_spellings_agree(text):
     from ionicity.scorer.mixture_notation import read_mixture_text
@@ -370,3 +372,16 @@ def test_water_in_an_ionic_liquid_given_after_it():
     expected = (10 / 18.015) / (10 / 18.015 + 90 / 225.99)
     assert fractions["H2O"] == pytest.approx(expected, abs=2e-3)
     assert "taken as the balance, 90 wt%" in out["message"]
+
+
+@pytest.mark.parametrize("text", ["[C4mim][BF4]/water 1:1 v/v", "ethanol:water 70:30 v/v", "NaCl-KCl 50-50 vol%"])
+def test_proportions_by_volume_are_refused_with_the_reason(text):
+    # a volume ratio needs densities to become mole fractions (common practice); these were errors about a
+    # stray '/' or 'vol%' read as a formula
+    out = score_formula(text)
+    assert out["status"] == "error" and "proportions by volume" in out["message"] and "density" in out["message"]
+
+
+def test_a_solution_with_its_solvents_by_volume_stays_a_solution():
+    out = score_formula("1 M LiPF6 in EC/DMC (1:1 v/v)")
+    assert out["status"] != "error" and out["formula_normalized"] == "LiPF6"
