@@ -209,6 +209,9 @@ def metal_rich_phase_reason(counts: dict[str, float]) -> str | None:
     nitride = interstitial_nitride_reason(counts)
     if nitride is not None:
         return nitride.split("; its formal ionic reading")[0] + "; no ion reading balances its counts"
+    pnictide = _metal_rich_pnictide_reason(counts)
+    if pnictide is not None:
+        return pnictide
     metals = [s for s in counts if is_metal(s)]
     chalcogens = [s for s in counts if s in _CHALCOGENS]
     if not metals or not chalcogens or len(metals) + len(chalcogens) != len(counts):
@@ -221,6 +224,36 @@ def metal_rich_phase_reason(counts: dict[str, float]) -> str | None:
         "a metal-rich chalcogenide of d-block metals (at least two metal atoms per chalcogen atom, and no ion"
         " reading balances): metal-metal bonds in clusters and chains, a metallic conductor, not a salt"
         " (Franzen, Prog. Solid State Chem. 1978, 12, 53; from memory)"
+    )
+
+
+# the heavier pnictogens, semimetals that alloy with the metals in phases of no ionic reading
+_SEMIMETAL_PNICTOGENS = frozenset({"As", "Sb", "Bi"})
+
+
+def _metal_rich_pnictide_reason(counts: dict[str, float]) -> str | None:
+    """Why metals beyond the s-block with As, Sb or Bi, at least one metal atom per pnictogen atom and no ion
+    reading, are an intermetallic phase (Zn4Sb3, Cd4Sb3, Cu3Sb, Ag3Sb, Ni3Sb, Mn2Sb, Cu3As: metal-metal and
+    metal-semimetal bonds, no ions; Pearson's Handbook of Crystallographic Data, 1991; from memory); None
+    otherwise. Fewer metal atoms than pnictogen atoms without a reading (InSb2) stays a formula to check.
+
+    >>> _metal_rich_pnictide_reason({"Zn": 4.0, "Sb": 3.0}) is not None
+    True
+    >>> _metal_rich_pnictide_reason({"In": 1.0, "Sb": 2.0}), _metal_rich_pnictide_reason({"Na": 4.0, "Sb": 3.0})
+    (None, None)
+    """
+    metals = [s for s in counts if is_metal(s) and s not in _SEMIMETAL_PNICTOGENS]
+    pnictogens = [s for s in counts if s in _SEMIMETAL_PNICTOGENS]
+    if not metals or not pnictogens or len(metals) + len(pnictogens) != len(counts):
+        return None
+    if any(get_element(m).block == "s" for m in metals):
+        return None
+    if sum(counts[m] for m in metals) < sum(counts[p] for p in pnictogens) - 1e-9:
+        return None
+    return (
+        f"metals with {', '.join(sorted(pnictogens))} in a ratio no ion reading balances: an intermetallic phase of"
+        " a metal and a semimetal, held by metallic and covalent bonds, not a salt (Zn4Sb3, Cu3Sb, Ni3Sb; from"
+        " memory)"
     )
 
 
