@@ -1103,8 +1103,11 @@ def deuterated_solvent(text: str) -> tuple[str, str] | None:
 
 
 # a variable deviation from stoichiometry written on a count: TiO2-x, CeO2-δ, YBa2Cu3O7-δ, Fe1-xO, Li1+xMn2O4
-# (common practice in solid-state chemistry); a count of 1 may be left unwritten before it (TiO2-x has 2)
-_NONSTOICHIOMETRY = re.compile(r"(?<=[A-Za-z0-9)\]])(\d+(?:\.\d+)?)?\s*[-+±]\s*[xδyz](?=[A-Z(\[·.*\s]|$)")
+# (common practice in solid-state chemistry); a count of 1 may be left unwritten before it (TiO2-x has 2); a
+# plain "d" stands for delta right after a written count (YBa2Cu3O7-d, as ASCII tables write it; Chloroform-d and
+# DMSO-d6 are deuterated solvents)
+_NONSTOICHIOMETRY = re.compile(
+    r"(?<=[A-Za-z0-9)\]])(\d+(?:\.\d+)?)?\s*[-+±]\s*(?:[xδyz]|(?<=\d[-+±])d)(?=[A-Z(\[·.*\s]|$)")
 
 
 # a variable as a whole count after an element or a bracket ("LixCoO2", "AlxGa1-xN", "Zn1-xMgxO")

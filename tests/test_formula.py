@@ -379,6 +379,8 @@ def test_unstated_water_needs_a_salt_and_a_letter_count(text):
     # variable non-stoichiometry as solid-state chemistry writes it (common practice): scored at x = 0 with a
     # note; it was read as a mixture with a component 'x'
     ("TiO2-x", "TiO2"), ("CeO2-δ", "CeO2"), ("YBa2Cu3O7-δ", "Ba2Cu3YO7"), ("Fe1-xO", "FeO"),
+    # delta as ASCII tables write it, a plain d after the count (was a mixture with a component 'd')
+    ("YBa2Cu3O7-d", "Ba2Cu3YO7"), ("CeO2-d", "CeO2"),
 ])
 def test_non_stoichiometric_formulas_are_scored_as_the_ideal_one(text, ideal):
     from ionicity.scorer.record import score_formula
