@@ -102,6 +102,9 @@ _NEUTRAL_ADDUCTS = {(("H", 3.0), ("N", 1.0)): "NH3", (("H", 2.0), ("O", 2.0)): "
 _HYDROGEN_HALIDES = {(("Cl", 1.0), ("H", 1.0)): "Cl", (("Br", 1.0), ("H", 1.0)): "Br", (("H", 1.0), ("I", 1.0)): "I",
                      (("F", 1.0), ("H", 1.0)): "F"}
 HYDROHALIDE_HINT = "hydrohalide:"
+# a registry name of an open-chain onium salt ("benzyltrimethylammonium chloride", "tetrabutylphosphonium
+# bromide"): no ring cation of the same composition may stand for its cation (scorer.name_reader.parse_as_name)
+ONIUM_NAME_HINT = "onium_name"
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
 # a hydrate whose water count is a letter: "CoCl2*xH2O", "Fe2O3.nH2O", "CuSO4*(H2O)x"
 _UNSTATED_WATER = re.compile(r"(?P<salt>.+?)[*.](?P<water>[xnyz]H2O|\(H2O\)[xnyz])")

@@ -41,7 +41,7 @@ from ionicity.scorer.organic_anions import (
 )
 from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import element_symbols, get_element, is_metal
-from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ParsedFormula, format_count, hill_formula
+from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ONIUM_NAME_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
     get_ion,
     ion_library,
@@ -334,6 +334,11 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # four alkyl groups written on nitrogen: the quaternary ammonium salt ((CH3)4NCl, not butylammonium)
             written = [r for r in readings if any(ion.family == "ammonium-quaternary" for ion, _ in r[1])]
             readings = written or readings
+        if comp.structure_hint == ONIUM_NAME_HINT:
+            # a name that says ammonium or phosphonium: no ring cation of the same composition; with none left
+            # the registry's salt reading below builds the cation by rule
+            readings = [r for r in readings if not any(
+                ion.organic and ion.charge > 0 and ion.family not in _OPEN_CHAIN_ONIUM_FAMILIES for ion, _ in r[1])]
         if comp.structure_hint.startswith(HYDROHALIDE_HINT):
             # an amine salt written with its acid (C6H5NH2·HCl) or so named: the base protonated, beside the halide
             halide, _, n = comp.structure_hint[len(HYDROHALIDE_HINT):].partition("*")
@@ -616,6 +621,11 @@ def _ammonium_count_proposal(counts: dict[str, float]) -> str:
         if found:
             return f" did you mean (NH4){-charge}{found[0].label}?"
     return ""
+
+
+# the organic cation families a name with "ammonium" or "phosphonium" may mean (ONIUM_NAME_HINT)
+_OPEN_CHAIN_ONIUM_FAMILIES = frozenset({"ammonium-quaternary", "ammonium-protic", "phosphonium", "cholinium",
+                                        "organic-cation"})
 
 
 # ions that give up a proton to a hydride (the acid anions, hydroxide and hydroxo complexes, the ammonium-like

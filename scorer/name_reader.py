@@ -48,7 +48,7 @@ import re
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_element_symbol, is_metal
-from ionicity.scorer.formula import FormulaError, parse_formula
+from ionicity.scorer.formula import ONIUM_NAME_HINT, FormulaError, parse_formula
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
@@ -516,7 +516,18 @@ def parse_as_name(text: str, any_word: bool = False):
             # acyl halide (acetyl chloride, C2H3ClO) is marked as its written CH3COCl is, and an acid anhydride
             # or an isocyanate likewise, for the water rules
             parsed = dataclasses.replace(parsed, structure_hint=entry[4])
+        elif entry[4] == "salt" and not parsed.structure_hint and _OPEN_CHAIN_ONIUM_NAME.search(entry[2]) and \
+                not _RING_ONIUM_NAME.search(entry[2]):
+            # the name says an ammonium or phosphonium ion: its Hill formula must not be read as a ring cation of
+            # the same composition (benzyltrimethylammonium chloride, C10H16ClN, had read as
+            # 1-butyl-3-methylpyridinium chloride)
+            parsed = dataclasses.replace(parsed, structure_hint=ONIUM_NAME_HINT)
     return parsed.respelled(text, notes=(*parsed.notes, note))
+
+
+_OPEN_CHAIN_ONIUM_NAME = re.compile(r"(?:ammonium|phosphonium)", re.I)
+_RING_ONIUM_NAME = re.compile(r"(?:pyridinium|imidazolium|pyrrolidinium|piperidinium|morpholinium|quinolinium"
+                              r"|pyrazolium|triazolium|thiazolium|azepanium|oxazolidinium)", re.I)
 
 
 # the sign of optical rotation before a name ("(+)-", "(-)-", "(±)-"), and the stereo descriptors of IUPAC

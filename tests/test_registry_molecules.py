@@ -36,3 +36,23 @@ def test_salts_and_acids_the_registry_does_not_contradict_stay(text, cation):
     # [C4mim]Cl and ethylammonium nitrate have no registry molecule of their formula; acetic acid keeps its
     # acid reading (common practice)
     assert score_formula(text)["cations"] == cation
+
+
+@pytest.mark.parametrize("name, cas, cation", [
+    # the name says an open-chain ammonium ion, and its Hill formula is also a pyridinium salt of the library:
+    # benzyltrimethylammonium chloride read as 1-butyl-3-methylpyridinium chloride, phenyltrimethylammonium
+    # iodide as 1-butylpyridinium iodide; now the cation is built by rule from the formula
+    ("Benzyltrimethylammonium chloride", "56-93-9", "[C10H16N](+)"),
+    ("Phenyltrimethylammonium iodide", "98-04-4", "[C9H14N](+)"),
+    ("Trimethylphenylammonium chloride", "138-24-9", "[C9H14N](+)"),
+])
+def test_an_ammonium_name_is_no_ring_cation_of_the_same_formula(name, cas, cation):
+    # melting points: chemicals.phase_change.Tm (CRC Handbook, read at test time); each melts (with
+    # decomposition) between 490 and 520 K, the low_melting_salt band, where the pyridinium reading said
+    # ionic_liquid
+    phase_change = pytest.importorskip("chemicals.phase_change")
+    from ionicity.scorer.melting import MELTING_CLASS_BANDS
+    out = score_formula(name)
+    assert out["cations"].split("*")[0] == cation and "pyridinium" not in (out["systematic_name"] or "")
+    lo, hi = {band: (a, b) for band, a, b, _ in MELTING_CLASS_BANDS}[out["melting_class"]]
+    assert lo <= phase_change.Tm(cas) < hi
