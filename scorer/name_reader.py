@@ -52,6 +52,7 @@ from ionicity.scorer.formula import ONIUM_NAME_HINT, FormulaError, parse_formula
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
+from ionicity.scorer.onium_codes import canonical_quaternary_code
 from ionicity.scorer.registry_formulas import registry_knows
 from ionicity.scorer.tables import table
 
@@ -113,6 +114,8 @@ def _read_name(name, registry: bool = True) -> tuple[str | None, tuple[str, str,
     if formula is None:
         formula = _protonated_base_name(name)
     if formula is None:
+        formula = _tetraalkyl_onium_name(name)
+    if formula is None:
         entry = registry_entry(name) if registry else None
         if entry is None:
             return None, None
@@ -123,6 +126,57 @@ def _read_name(name, registry: bool = True) -> tuple[str | None, tuple[str, str,
 
 
 _DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
+
+# a tetraalkylammonium or -phosphonium salt named by its four n-alkyl groups ("tributylmethylammonium chloride",
+# "trihexyl(tetradecyl)phosphonium bromide", "cetyltrimethylammonium bromide"); the trivial chain names of
+# surfactant chemistry (lauryl 12, myristyl 14, cetyl and palmityl 16, stearyl 18; common practice)
+_TETRAALKYL_ONIUM_NAME = re.compile(r"^\s*(?P<groups>[a-z()\s-]+?)(?P<kind>ammonium|phosphonium)\s+(?P<anion>\S.*)$",
+                                    re.I)
+_ALKYL_CHAINS = {name: n for n, name in enumerate(
+    ("methyl", "ethyl", "propyl", "butyl", "pentyl", "hexyl", "heptyl", "octyl", "nonyl", "decyl", "undecyl",
+     "dodecyl", "tridecyl", "tetradecyl", "pentadecyl", "hexadecyl", "heptadecyl", "octadecyl"), start=1)}
+_ALKYL_CHAINS.update({"lauryl": 12, "myristyl": 14, "cetyl": 16, "palmityl": 16, "stearyl": 18})
+_ALKYL_NAMES = "|".join(sorted(_ALKYL_CHAINS, key=len, reverse=True))
+# a chain's own name first: "tetradecyl" is C14 and "tridecyl" C13, not four or three decyl groups
+_ALKYL_GROUP = re.compile(rf"\(?(?:(?P<alkyl>{_ALKYL_NAMES})|(?P<n>di|tri|tetra)\(?(?P<multiplied>{_ALKYL_NAMES}))\)?",
+                          re.I)
+_MULTIPLIER = {None: 1, "di": 2, "tri": 3, "tetra": 4}
+_SODIUM_SALT = re.compile(r"Na(\d*)(?P<rest>.+)")
+
+
+def _tetraalkyl_onium_name(name: str) -> str | None:
+    """The formula of a tetraalkylammonium or -phosphonium salt named by its alkyl groups, written with the
+    onium code of :mod:`scorer.onium_codes` (``tributylmethylammonium chloride`` -> ``[N1444]Cl``); None for any
+    other name, or four chains no code writes (two of ten carbons or more). The anion is read as the sodium
+    salt's (``sodium chloride``), so every anion the name grammar reads may follow.
+
+    >>> _tetraalkyl_onium_name("tributylmethylammonium chloride"), _tetraalkyl_onium_name("dimethyl sulfate")
+    ('[N1444]Cl', None)
+    """
+    m = _TETRAALKYL_ONIUM_NAME.match(name)
+    if m is None:
+        return None
+    groups = re.sub(r"[\s-]", "", m.group("groups"))
+    chains: list[int] = []
+    position = 0
+    while position < len(groups):
+        g = _ALKYL_GROUP.match(groups, position)
+        if g is None or g.end() == position:
+            return None
+        alkyl = (g.group("alkyl") or g.group("multiplied")).lower()
+        chains += [_ALKYL_CHAINS[alkyl]] * _MULTIPLIER[(g.group("n") or "").lower() or None]
+        position = g.end()
+    if len(chains) != 4:
+        return None
+    code = canonical_quaternary_code(("N" if m.group("kind").lower() == "ammonium" else "P")
+                                     + ",".join(str(c) for c in chains))
+    if code is None:
+        return None
+    sodium_salt, _ = _read_name("sodium " + m.group("anion"), registry=False)
+    salt = _SODIUM_SALT.fullmatch(sodium_salt or "")
+    if salt is None:
+        return None
+    return f"[{code}]{salt.group(1)}{salt.group('rest')}"
 
 # "aniline hydrochloride", "ethylenediamine dihydrochloride", "pyridine hydrobromide": a base and n HX
 _HYDROHALIDE_NAME = re.compile(r"^(?P<base>.+?)[\s,]+(?P<n>mono|di|tri|tetra)?hydro(?P<x>chloride|bromide|iodide|fluoride)$",

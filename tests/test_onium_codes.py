@@ -180,3 +180,30 @@ def test_a_chloroaluminate_electrolyte_written_with_its_code_is_a_mixture():
     assert row["substance_class"] == "mixture"
     assert row["formula_normalized"] == "[C2mim]Cl-AlCl3 (33.33-66.67 mol%)"
     assert "reacts_violently" in row["water_behaviour"]
+
+
+@pytest.mark.parametrize("name, normalized, hill", [
+    # tetraalkylammonium and -phosphonium salts named by their alkyl groups in any order, with the surfactant
+    # trivial chain names (cetyl 16, myristyl 14, stearyl 18; common practice): were unread unless the
+    # library lists the name; compositions from the chain lengths, molar masses from periodictable
+    ("tributylmethylammonium chloride", "[N1444]Cl", "C13H30NCl"),
+    ("methyltributylammonium chloride", "[N1444]Cl", "C13H30NCl"),
+    ("trimethylbutylammonium bromide", "[N1114]Br", "C7H18NBr"),
+    ("tetradecyltrihexylphosphonium chloride", "[P66614]Cl", "C32H68PCl"),
+    ("myristyltrimethylammonium bromide", "[N11114]Br", "C17H38NBr"),
+    ("tetrabutylammonium fluoride trihydrate", "[N4444]F·3H2O", "C16H36NF(H2O)3"),
+    ("tributylmethylammonium bis(trifluoromethylsulfonyl)imide", "[N1444][NTf2]", "C15H30N2F6O4S2"),
+])
+def test_tetraalkyl_onium_names_read_as_their_codes(name, normalized, hill):
+    periodictable = pytest.importorskip("periodictable")
+    row = score_formula(name)
+    assert row["formula_normalized"] == normalized and row["substance_class"] == "ionic_liquid_pair"
+    assert row["molar_mass_g_mol"] == pytest.approx(periodictable.formula(hill).mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("name", ["didecyldimethylammonium chloride", "dimethyl sulfate", "tributylammonium"])
+def test_names_no_onium_code_writes_are_not_forced_into_one(name):
+    # two chains of ten carbons or more have no code (scorer.onium_codes); an ester or a bare cation word is
+    # no tetraalkyl salt
+    row = score_formula(name)
+    assert not (row["formula_normalized"] or "").startswith("[N")
