@@ -348,7 +348,9 @@ def read_mixture_text(text: str) -> MixtureText | None:
         text = normalised_list(text)
     if split_in_solvent(text) is not None:
         return None  # a solute in a solvent ("1 M LiPF6 in EC/DMC"): scorer.solutions reads it
-    if ("v" in text or "V" in text) and _BY_VOLUME.search(text):
+    if ("v" in text or "V" in text) and _BY_VOLUME.search(text) and not _JOINERS.isdisjoint(
+            _BY_VOLUME.sub("", text).strip().replace(" ", "")):
+        # (a single solute with a volume percentage, "10% H2SO4 v/v", is a solution: scorer.solutions)
         raise MixtureNotationError(
             f"proportions by volume in {text.strip()!r}: converting them to mole fractions needs each component's"
             " density, which ionicity does not hold; give them in mol% or wt% (mole fraction of i is proportional"
