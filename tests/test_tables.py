@@ -42,7 +42,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 68,
     "material_codes.csv": 39,
-    "trivial_names.csv": 239,
+    "trivial_names.csv": 241,
     "solution_names.csv": 20,
     "ligands.csv": 30,
     "registry_names.csv": 13376,
