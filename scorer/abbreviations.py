@@ -95,7 +95,7 @@ _PATTERN = re.compile(
         + [rf"{re.escape(a)}(?=[A-Z(\[])" for a in SILYL_GROUPS]
     )
 )
-_HILL = {"[Ch]": "C5H14NO", "[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
+_HILL = {"[BuNH3]": "C4H12N", "[PEA]": "C8H12N", "[Ch]": "C5H14NO", "[MeNH3]": "CH3NH3", "[FA]": "CH(NH2)2", "[GA]": "C(NH2)3", "C5(CH3)5": "C10H15", "CH3COOH": "C2H4O2", "(CH3CO)2O": "C4H6O3", "CH3COCl": "C2H3ClO"}
 # the trade's tetraalkylammonium shorthand (Bu4N, NBu4) is left to the ionic-liquid reader
 _QUICK = frozenset("MEBPCAFatnsi")
 
@@ -120,6 +120,15 @@ def expand_abbreviations(text: str) -> tuple[str, tuple[str, ...]]:
     if _QUICK.isdisjoint(text):
         return text, ()
     used: dict[str, str] = {}
+    if ("BA" in text or "PEA" in text) and _PEROVSKITE_HALIDE.search(text):
+        # the spacer cations of layered hybrid perovskites, as that literature writes them ((BA)2PbI4,
+        # PEA2PbI4, BA2MA2Pb3I10): only beside a lead, tin, germanium or bismuth halide, where "BA" cannot be
+        # barium typed in capitals
+        def spacer(m: re.Match) -> str:
+            code, name = _PEROVSKITE_SPACERS[m.group(1)]
+            used[m.group(1)] = f"{m.group(1)} = {_HILL.get(code, code)} ({name})"
+            return code
+        text = _PEROVSKITE_SPACER.sub(spacer, text)
     if "Ac" in text and _ACETATE.search(text) and "[" not in text:
         text = _ACETATE.sub(lambda m: "CH3COO" if text[m.start() - 1] == "(" else "(CH3COO)", text)
         used["Ac"] = "Ac = CH3COO (acetate, written after its cation), not the element actinium"
@@ -155,4 +164,7 @@ _ALKOXY_HYPHEN = re.compile(r"O-(?=[ntsi](?:Bu|Pr)(?![a-z]))")
 # "Ac" after a cation and closing the formula or a bracket (NaAc, NH4Ac, HAc, Pb(Ac)2, NaAc·3H2O): acetate; not
 # after O (OAc is the ion library's acetate) nor before another element (K3AcF6 would be actinium's)
 _ACETATE = re.compile(r"(?<=[A-Za-z0-9)])(?<!O)Ac(?=\d*(?:·|\*|\.|\s|$))|(?<=[A-Za-z0-9)]\()Ac(?=\))")
+_PEROVSKITE_SPACERS = {"BA": ("[BuNH3]", "n-butylammonium"), "PEA": ("[PEA]", "phenethylammonium")}
+_PEROVSKITE_SPACER = re.compile(r"(?<![A-Za-z])\(?(BA|PEA)\)?(?=\d|\[|\(|[A-Z])")
+_PEROVSKITE_HALIDE = re.compile(r"(?:Pb|Sn|Ge|Bi)\d*(?:\.\d+)?(?:I|Br|Cl)")
 _CODE_IN_PARENTHESES = re.compile(r"\((\[[A-Za-z0-9]+\])\)")

@@ -155,3 +155,21 @@ def test_hyphenated_alkyl_prefixes_read_as_the_plain_ones(hyphenated, plain, for
 
 def test_a_hyphen_between_formulas_is_still_a_mixture():
     assert score_formula("NaCl-KCl")["substance_class"] == "mixture"
+
+
+@pytest.mark.parametrize("typed, formula, spacer", [
+    # the spacer cations of layered hybrid perovskites as that literature writes them (common practice): BA2PbI4
+    # had been re-cased into Ba2PBI4, a barium phosphorus boron iodide; PEA2PbI4 was an error. Masses from
+    # periodictable
+    ("BA2PbI4", "(C4H12N)2PbI4", "[BuNH3](+)"), ("(BA)2PbI4", "(C4H12N)2PbI4", "[BuNH3](+)"),
+    ("PEA2PbI4", "(C8H12N)2PbI4", "[PEA](+)"), ("(PEA)2SnI4", "(C8H12N)2SnI4", "[PEA](+)"),
+    ("BA2MA2Pb3I10", "(C4H12N)2(CH6N)2Pb3I10", "[BuNH3](+)"),
+])
+def test_layered_perovskite_spacers_are_their_ammonium_ions(typed, formula, spacer):
+    out = score_formula(typed)
+    assert spacer in out["cations"] and ("Pb(2+)" in out["cations"] or "Sn(2+)" in out["cations"])
+    assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(formula).mass, rel=1e-4)
+
+
+def test_ba_in_capitals_without_a_perovskite_halide_is_still_barium():
+    assert score_formula("BACl2")["formula_normalized"] == "BaCl2"

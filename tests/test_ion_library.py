@@ -521,3 +521,13 @@ def test_sodium_tetraphenylborate(text):
     row = score_formula(text)
     assert row["status"] != "error" and row["anions"] == "B(C6H5)4(-)*1" and row["cations"] == "Na(+)*1"
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula("C24H20BNa").mass, abs=0.02)
+
+
+@pytest.mark.parametrize("formula, cation", [("Li2B12H12", "Li(+)"), ("Na2B12H12", "Na(+)"), ("Na2B10H10", "Na(+)")])
+def test_closo_borane_salts_read_with_their_cluster_anions(formula, cation):
+    # closo-dodecaborate and -decaborate, B12H12(2-) and B10H10(2-) (Greenwood & Earnshaw, 2nd ed., 1997, ch. 6;
+    # from memory), the anions of borohydride solid electrolytes; these were errors
+    from ionicity.scorer.record import score_formula
+    out = score_formula(formula)
+    assert out["status"] == "ok" and out["cations"].startswith(cation)
+    assert out["anions"].split("*")[0] in ("B12H12(2-)", "B10H10(2-)")
