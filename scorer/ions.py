@@ -165,8 +165,8 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
-_METAL_ORGANIC_NOTE = ("metal-organic complex: a d- or f-block metal bound by an organic ligand the ion library does"
-                       " not list (porphyrins, corrins); formal oxidation states not assigned")
+_METAL_ORGANIC_NOTE = ("metal-organic complex: a metal bound by an organic ligand the ion library does not list"
+                       " (porphyrins, corrins, the alkoxides of Al, Ga, Sn); formal oxidation states not assigned")
 # carbon atoms from which a formula with hydrogen has an organic skeleton: no inorganic ion holds them
 _SKELETON_CARBON = 4
 
@@ -418,10 +418,12 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
                 composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                 substance_class="covalent_molecular", notes=(organometallic,),
             )
-        if chosen is None and skeleton and any(get_element(s).block in ("d", "f") for s in remaining if is_metal(s)):
-            # a d- or f-block metal in an organic skeleton no library ion holds and no organic anion reads, not
-            # an alkyl or arene: a metal-organic complex (hematin, cobalamin), its ligand bound through N or O
-            # donors, no salt
+        if chosen is None and skeleton and any(get_element(s).block in ("d", "f", "p") for s in remaining
+                                                if is_metal(s)):
+            # a d-, f- or p-block metal in an organic skeleton no library ion holds and no organic anion reads,
+            # not an alkyl or arene: a metal-organic complex (hematin, cobalamin; the aluminium and tin alkoxides,
+            # Al(OiPr)3 a tetramer of Al-O-Al bridges, Greenwood & Earnshaw, 2nd ed., 1997, ch. 7; from memory),
+            # its ligand bound through N or O donors, no salt
             return Decomposition(
                 composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                 substance_class="covalent_molecular", notes=(_METAL_ORGANIC_NOTE,),
