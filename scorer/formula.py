@@ -466,8 +466,9 @@ def parse_formula(text: str) -> ParsedFormula:
     notes: list[str] = []
     label = POLYMORPH_LABEL.match(text)
     if label:
+        isomer = label.group().strip().rstrip("-").strip().lower() in ("cis", "trans", "fac", "mer")
         notes.append(f"ignored the structure label {label.group().strip()!r}: the composition is scored, not the"
-                     " polymorph")
+                     + (" isomer" if isomer else " polymorph"))
         text = text[label.end():]
     if _STOCK_NAME.search(text):
         m = _STOCK_NAME.search(text)
@@ -936,6 +937,8 @@ _STOCK_NAME = re.compile(r"[A-Z][a-z]?\((?:I{1,3}|IV|V|VI{1,3}|IX|X)\)")
 # rhombohedral, a- amorphous) and Ramsdell's polytypes (2H-MoS2, 1T-TaS2, 4H-SiC); common practice
 POLYMORPH_LABEL = re.compile(
     r"^\s*(?:[αβγδεζηθκλω]|(?i:alpha|beta|gamma|delta|epsilon|zeta|eta|theta|kappa|lambda|omega)|[hcwtmora]"
+    # and the isomer descriptors of complexes (cis-[Pt(NH3)2Cl2], fac-, mer-; IUPAC Red Book 2005, IR-9.3.4)
+    r"|(?i:cis|trans|fac|mer)"
     r"|[1-9]\d?[HTRCOM])\s*-\s*(?=[A-Z(\[])"
     # not the hyphenated prefix of an alkyl group (t-BuLi, t-BuOK: tert-butyl; scorer.abbreviations)
     r"(?!(?<=t-)Bu|(?<=t -)Bu|(?<=t- )Bu)")

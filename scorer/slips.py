@@ -48,7 +48,7 @@ from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.abbreviations import SILYL_PREFIX
 from ionicity.scorer.coordination import written_ligands
 from ionicity.scorer.elements import element_symbols, get_element, is_element_symbol
-from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, parse_formula
+from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import decompose_anhydrous, decompose_within
 from ionicity.scorer.ion_penalties import _ion_penalty
@@ -534,6 +534,8 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
         return abbreviation
     if SILYL_PREFIX.match(stripped) and _parsed(text) is not None:
         return None  # a silyl reagent (TMSN3, TBSCl): capitals by convention, not a formula that lost its case
+    if stripped.isupper() and laboratory_code(stripped) is not None:
+        return None  # a laboratory code of the table (TEOS is tetraethyl orthosilicate, not TeOS)
     if len(stripped) > _SLIP_MAX_LENGTH:
         return None  # longer than any inventory line: read as written
     letters = _NOT_A_LETTER.sub("", stripped)

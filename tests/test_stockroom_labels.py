@@ -661,3 +661,24 @@ def test_lot_catalogue_expiry_and_shelf_fields_are_left_out(text, normalized):
 @pytest.mark.parametrize("text", ["Wilkinson's catalyst", "NaCl:KCl 1:1", "LiCl-KCl"])
 def test_words_that_only_begin_like_a_field_are_not_fields(text):
     assert "lot or location words" not in (score_formula(text)["message"] or "")
+
+
+@pytest.mark.parametrize("text, normalized", [
+    # isomer descriptors of complexes before the formula (IUPAC Red Book 2005, IR-9.3.4): the composition is
+    # scored, with a note; "cis-[Pt(NH3)2Cl2]" had been a mixture with a component "cis"
+    ("cis-[Pt(NH3)2Cl2]", "PtN2H6Cl2"), ("trans-[PtCl2(NH3)2]", "PtN2H6Cl2"),
+])
+def test_an_isomer_descriptor_before_a_complex_is_set_aside(text, normalized):
+    row = score_formula(text)
+    assert row["formula_normalized"] == normalized and "not the isomer" in row["message"]
+    assert row["substance_class"] == "covalent_molecular"
+
+
+@pytest.mark.parametrize("code, hill", [("TEOS", "C8H20O4Si"), ("TMOS", "C4H12O4Si")])
+def test_orthosilicate_codes_are_the_esters(code, hill):
+    # sol-gel precursors by their laboratory codes (common practice); TEOS had been re-cased into TeOS, a tellurium
+    # oxide sulfide. Masses from periodictable
+    periodictable = pytest.importorskip("periodictable")
+    row = score_formula(code)
+    assert "laboratory code" in row["message"]
+    assert row["molar_mass_g_mol"] == pytest.approx(periodictable.formula(hill).mass, rel=1e-4)

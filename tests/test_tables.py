@@ -40,7 +40,7 @@ ROWS = {
     "gases.csv": 214,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
-    "solvent_codes.csv": 68,
+    "solvent_codes.csv": 70,
     "material_codes.csv": 39,
     "trivial_names.csv": 241,
     "solution_names.csv": 20,
