@@ -771,8 +771,9 @@ def _fluid_element_melting_points() -> dict[str, tuple[float, str]]:
 
 
 def fluid_element_melting_K(composition) -> tuple[float, str] | None:
-    """The melting point of an element that is a gas or a liquid at 25 C, when the formula is that substance
-    (O2, N2, Cl2, Br2, Hg; ``scorer/data/fluid_element_melting_points.csv``, the CRC Handbook via chemicals);
+    """The melting point of an element that is a gas or a liquid at 25 C, or white phosphorus (P4), when the
+    formula is that substance (O2, N2, Cl2, Br2, Hg, P4; ``scorer/data/fluid_element_melting_points.csv``, the CRC
+    Handbook or another source of chemicals);
     None for any other formula (O alone, or a compound). The rule of mixtures leaves these elements out.
 
     >>> round(fluid_element_melting_K((("Hg", 1.0),))[0], 2), fluid_element_melting_K((("O", 1.0),))
@@ -812,6 +813,9 @@ def element_mixture_melting_K(composition) -> tuple[float, str]:
             weight += n
             used.append(symbol)
     if weight == 0:
+        if any(symbol == "P" for symbol, _ in composition):
+            return math.nan, ("phosphorus: its allotropes melt far apart (white P4 at 317 K, red P subliming near"
+                              " 690 K; from memory): write P4 for the white form")
         return math.nan, "no element of the formula is a solid at 25 C with a tabulated melting point"
     return total / weight, "mean over " + ", ".join(used)
 

@@ -467,6 +467,18 @@ def test_fluid_elements_take_their_own_melting_point(formula, cas):
     assert out["melting_class"] in _BELOW_25C["liquid_at_room_temperature"]
 
 
+def test_white_phosphorus_written_as_p4_takes_its_own_melting_point():
+    # P4 (white phosphorus, CAS 12185-10-3) melts at 317.9 K (chemicals, read at test time); P alone names no
+    # allotrope and keeps no class, with a note that says why
+    from _builders import registry_melting_point_K
+    from ionicity.scorer.record import score_formula
+    out = score_formula("P4")
+    assert 10 ** out["mp_trend_index"] == pytest.approx(registry_melting_point_K("12185-10-3"), rel=5e-3)
+    assert out["melting_class"] == "melts_below_100C"
+    bare = score_formula("P")
+    assert bare["melting_class"] is None and "allotropes" in bare["value_notes"]
+
+
 def test_the_fluid_element_table_rebuilds_from_the_registry():
     pytest.importorskip("chemicals")
     from ionicity.scorer.data import build_element_melting_points as builder

@@ -36,7 +36,7 @@ ROWS = {
     "formation_enthalpies.csv": 20,
     "atomisation_enthalpies.csv": 10,
     "element_melting_points.csv": 80,
-    "fluid_element_melting_points.csv": 13,
+    "fluid_element_melting_points.csv": 14,
     "gases.csv": 214,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,

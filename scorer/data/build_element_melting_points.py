@@ -51,12 +51,15 @@ def build() -> str:
 
 # the elements that are gases or liquids at 25 C, as the substances a formula cell names (O2, Hg): their own
 # melting points, for a row that is the element itself (the rule of mixtures still leaves them out); He has no
-# melting point at 1 atm, P's allotropes disagree
+# melting point at 1 atm; P's allotropes disagree, so only P4, the white one, is listed
 FLUID_OUT = Path(__file__).with_name("fluid_element_melting_points.csv")
 FLUID_SUBSTANCES = (("H2", "1333-74-0"), ("N2", "7727-37-9"), ("O2", "7782-44-7"), ("O3", "10028-15-6"),
                     ("F2", "7782-41-4"), ("Cl2", "7782-50-5"), ("Br2", "7726-95-6"), ("Ne", "7440-01-9"),
                     ("Ar", "7440-37-1"), ("Kr", "7439-90-9"), ("Xe", "7440-63-3"), ("Rn", "10043-92-2"),
-                    ("Hg", "7439-97-6"))
+                    ("Hg", "7439-97-6"),
+                    # white phosphorus written as its molecule: P alone names no allotrope (red P sublimes
+                    # hundreds of kelvin higher), P4 names the white one
+                    ("P4", "12185-10-3"))
 
 
 def build_fluid() -> str:
