@@ -321,7 +321,36 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     row[notes_at] = gaps[1] if water else gaps[0]
     if water and traded:
         row[notes_at] = ("; ".join(filter(None, (row[notes_at], traded))))
+    if "(" in comp.text and row[status_at] == "ok":
+        unread = _written_group_not_read(comp.text, row[_layout()[1]["anions"]] or "")
+        if unread is not None:
+            return _warned(tuple(row), unread)
     return tuple(row)
+
+
+# an oxoanion or hydroxide written as a bracketed group right after a metal ("Fe(NO3)", "Ca(SO4)") names that ion
+_WRITTEN_GROUP = re.compile(r"([A-Z][a-z]?)\d*(?:\.\d+)?\((NO3|SO4|PO4|CO3|ClO4|ClO3|BrO3|IO3|OH|HSO4|H2PO4|HPO4|HCO3"
+                            r"|C2O4|CrO4|MnO4)\)")
+_GROUP_ION = {"NO3": "NO3(-)", "SO4": "SO4(2-)", "PO4": "PO4(3-)", "CO3": "CO3(2-)", "ClO4": "ClO4(-)",
+              "ClO3": "ClO3(-)", "BrO3": "BrO3(-)", "IO3": "IO3(-)", "OH": "OH(-)", "HSO4": "HSO4(-)",
+              "H2PO4": "H2PO4(-)", "HPO4": "HPO4(2-)", "HCO3": "HCO3(-)", "C2O4": "C2O4(2-)", "CrO4": "CrO4(2-)",
+              "MnO4": "MnO4(-)"}
+
+
+def _written_group_not_read(text: str, anions: str) -> str | None:
+    """A warning where a bracketed oxoanion written after a metal outside square brackets ("Fe(NO3)") is not among
+    the reading's anions: the counts as written balance only by breaking the group (Fe(3+) with oxide and nitrite),
+    so a count was most likely lost; None otherwise."""
+    if "[" in text:
+        return None  # a complex's ligands (K[Al(OH)4], [Co(NH3)5(NO2)]Cl2) are not the salt's anions
+    for m in _WRITTEN_GROUP.finditer(text):
+        if not is_metal(m.group(1)):
+            continue  # B(OH)3, C6H4(OH)2: an acid's or a molecule's OH groups
+        ion = _GROUP_ION[m.group(2)]
+        if ion not in anions:
+            return (f"the group ({m.group(2)}) written after {m.group(1)} is not {ion} in the reading that balances"
+                    f" the counts as written: a count may be missing (check the formula)")
+    return None
 
 
 def _trade_name_of_another(name: str, formula: str) -> str | None:
