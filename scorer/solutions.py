@@ -40,10 +40,13 @@ CORROSIVE_CLASSES = frozenset({"acid", "base"})
 
 # a value or a range (95-98 %)
 _NUMBER = r"\d+(?:[.,]\d+)?(?:\s*[-–]\s*\d+(?:[.,]\d+)?)?"
-_PERCENT = re.compile(rf"(?P<value>{_NUMBER})\s*%\s*(?P<basis>\(?\s*(?:w/w|w/v|v/v|wt|vol|m/m)\s*\.?\)?)?", re.I)
+_PERCENT = re.compile(rf"(?P<value>{_NUMBER})\s*(?P<pre>(?:wt|vol|mass)\.?\s*)?%\s*"
+                      rf"(?P<basis>\(?\s*(?:w/w|w/v|v/v|wt|vol|m/m)\s*\.?\)?)?", re.I)
 # molar units as people write them; N (normality) kept as written
 _MOLAR = re.compile(
-    rf"(?P<value>{_NUMBER})\s*(?P<unit>mol\s*/\s*[lL]|mol\s*[lL]-1|mol\s*dm-3|mmol\s*/\s*[lL]|mM|M|N)(?![A-Za-z])"
+    rf"(?P<value>{_NUMBER})\s*(?P<unit>mol\s*/\s*[lL]|mol\s*[lL]-1|mol\s*dm-3|mmol\s*/\s*[lL]|mol\s*/\s*kg|mol\s*kg-1"
+    # molality, mol per kg of solvent, as electrolyte papers write it ("21 m LiTFSI", water-in-salt; common practice)
+    rf"|mM|M|N|m)(?![A-Za-z])"
 )
 _GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial|sat(?:\.|urated)?)", re.I)
 # a concentration written in brackets at the end: "HCl (37%)"
@@ -276,7 +279,8 @@ def _split_solution_text(text: str) -> Solution | None:
 
 def _as_written(pattern, m: re.Match) -> str:
     if pattern is _PERCENT:
-        basis = (m.group("basis") or "").strip(" ()").lower()
+        basis = (m.group("basis") or "").strip(" ()").lower() or {"wt": "w/w", "mass": "w/w", "vol": "v/v"}.get(
+            (m.group("pre") or "").strip(" .").lower(), "")
         value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
         return f"{value} %" + (f" {basis}" if basis else "")
     if pattern is _MOLAR:

@@ -229,3 +229,16 @@ def test_peroxomonosulfate_salts_read_with_their_anion():
     assert score_formula("H5NO5S")["cations"] == "NH3OH(+)*1"
     notes = score_formula("(NH4)2S2O8")["value_notes"]
     assert "decomposes on heating" in notes and "fuel and oxidiser in one salt" in notes
+
+
+@pytest.mark.parametrize("text, solute, concentration", [
+    # molality before the solute, as electrolyte papers write it ("21 m LiTFSI", the water-in-salt electrolyte;
+    # common practice), and a weight percent written wt% before the solvent: both were errors
+    ("1 m LiTFSI in [EMIM][FSI]", "Li[NTf2]", "1 m"), ("21 m LiTFSI in water", "Li[NTf2]", "21 m"),
+    ("NaCl 3.5 wt% in water", "NaCl", "3.5 % w/w"), ("H2SO4 96 wt.%", "H2SO4", "96 % w/w"),
+])
+def test_molality_and_weight_percent_written_wt_are_read(text, solute, concentration):
+    from ionicity.scorer.record import score_formula
+    row = score_formula(text)
+    assert row["status"] != "error" and row["formula_normalized"] == solute
+    assert row["concentration_as_written"] == concentration
