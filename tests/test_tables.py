@@ -25,7 +25,7 @@ ROWS = {
     "radical_hardness.csv": 4,
     "born_exponents.csv": 8,
     "structure_prototypes.csv": 130,
-    "ion_shape.csv": 96,
+    "ion_shape.csv": 97,
     "madelung_prototypes.csv": 16,
     "structural_families.csv": 25,
     "phillips_ionicity.csv": 43,
