@@ -52,7 +52,7 @@ from ionicity.scorer.formula import ONIUM_NAME_HINT, FormulaError, parse_formula
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
-from ionicity.scorer.onium_codes import canonical_quaternary_code
+from ionicity.scorer.onium_codes import ALKYL_NAMES, canonical_quaternary_code
 from ionicity.scorer.registry_formulas import registry_knows
 from ionicity.scorer.tables import table
 
@@ -132,9 +132,7 @@ _DIATOMIC = frozenset({"H", "N", "O", "F", "Cl", "Br", "I"})
 # surfactant chemistry (lauryl 12, myristyl 14, cetyl and palmityl 16, stearyl 18; common practice)
 _TETRAALKYL_ONIUM_NAME = re.compile(r"^\s*(?P<groups>[a-z()\s-]+?)(?P<kind>ammonium|phosphonium)\s+(?P<anion>\S.*)$",
                                     re.I)
-_ALKYL_CHAINS = {name: n for n, name in enumerate(
-    ("methyl", "ethyl", "propyl", "butyl", "pentyl", "hexyl", "heptyl", "octyl", "nonyl", "decyl", "undecyl",
-     "dodecyl", "tridecyl", "tetradecyl", "pentadecyl", "hexadecyl", "heptadecyl", "octadecyl"), start=1)}
+_ALKYL_CHAINS = {name: n for n, name in enumerate(ALKYL_NAMES, start=1)}
 _ALKYL_CHAINS.update({"lauryl": 12, "myristyl": 14, "cetyl": 16, "palmityl": 16, "stearyl": 18})
 _ALKYL_NAMES = "|".join(sorted(_ALKYL_CHAINS, key=len, reverse=True))
 # a chain's own name first: "tetradecyl" is C14 and "tridecyl" C13, not four or three decyl groups

@@ -32,12 +32,13 @@ import re
 from ionicity.scorer.caching import per_input
 from ionicity.scorer.model import Ion
 
-__all__ = ["MAX_CHAIN", "onium_from_code", "canonical_quaternary_code"]
+__all__ = ["MAX_CHAIN", "ALKYL_NAMES", "onium_from_code", "canonical_quaternary_code"]
 
 #: the longest alkyl chain a code may name (icosyl)
 MAX_CHAIN = 20
 
-_ALKYL = ("methyl", "ethyl", "propyl", "butyl", "pentyl", "hexyl", "heptyl", "octyl", "nonyl", "decyl",
+#: the n-alkyl groups by chain length (ALKYL_NAMES[n - 1] has n carbons)
+ALKYL_NAMES = ("methyl", "ethyl", "propyl", "butyl", "pentyl", "hexyl", "heptyl", "octyl", "nonyl", "decyl",
           "undecyl", "dodecyl", "tridecyl", "tetradecyl", "pentadecyl", "hexadecyl", "heptadecyl", "octadecyl",
           "nonadecyl", "icosyl")
 _SOURCE = ("built by rule from the code (scorer.onium_codes: the alkyl-chain notation of the ionic-liquid"
@@ -108,7 +109,7 @@ def onium_from_code(code: str) -> Ion | None:
             composition = (("C", float(n + c_offset)), ("H", float(2 * n + h_offset)), ("N", float(nitrogens)))
             text = label.format(n=n)
             return Ion(ion_id=text + "(+)", label=text, charge=1, composition=composition, family=family,
-                       name=name.format(alkyl=_ALKYL[n - 1]), organic=True, source=_SOURCE)
+                       name=name.format(alkyl=ALKYL_NAMES[n - 1]), organic=True, source=_SOURCE)
     m = _QUATERNARY.fullmatch(code)
     if m:
         centre, chains = m.group(1), _chains(m.group(2))
@@ -119,7 +120,7 @@ def onium_from_code(code: str) -> Ion | None:
         text = f"[{centre}" + "".join(str(c) for c in chains) + "]"
         counts = {"C": float(carbons), "H": float(2 * carbons + 4), centre: 1.0}
         composition = tuple((s, counts[s]) for s in ("C", "H", "N", "P") if s in counts)
-        names = ", ".join(_ALKYL[c - 1] for c in chains)
+        names = ", ".join(ALKYL_NAMES[c - 1] for c in chains)
         family = "ammonium-quaternary" if centre == "N" else "phosphonium"
         kind = "ammonium" if centre == "N" else "phosphonium"
         return Ion(ion_id=text + "(+)", label=text, charge=1, composition=composition, family=family,

@@ -25,6 +25,7 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.grammar import iupac_formula
+from ionicity.scorer.ion_library import find_alias
 from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
 from ionicity.scorer.mixture import mixture_row
@@ -331,10 +332,6 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
 # an oxoanion or hydroxide written as a bracketed group right after a metal ("Fe(NO3)", "Ca(SO4)") names that ion
 _WRITTEN_GROUP = re.compile(r"([A-Z][a-z]?)\d*(?:\.\d+)?\((NO3|SO4|PO4|CO3|ClO4|ClO3|BrO3|IO3|OH|HSO4|H2PO4|HPO4|HCO3"
                             r"|C2O4|CrO4|MnO4)\)")
-_GROUP_ION = {"NO3": "NO3(-)", "SO4": "SO4(2-)", "PO4": "PO4(3-)", "CO3": "CO3(2-)", "ClO4": "ClO4(-)",
-              "ClO3": "ClO3(-)", "BrO3": "BrO3(-)", "IO3": "IO3(-)", "OH": "OH(-)", "HSO4": "HSO4(-)",
-              "H2PO4": "H2PO4(-)", "HPO4": "HPO4(2-)", "HCO3": "HCO3(-)", "C2O4": "C2O4(2-)", "CrO4": "CrO4(2-)",
-              "MnO4": "MnO4(-)"}
 
 
 def _written_group_not_read(text: str, anions: str) -> str | None:
@@ -346,7 +343,7 @@ def _written_group_not_read(text: str, anions: str) -> str | None:
     for m in _WRITTEN_GROUP.finditer(text):
         if not is_metal(m.group(1)):
             continue  # B(OH)3, C6H4(OH)2: an acid's or a molecule's OH groups
-        ion = _GROUP_ION[m.group(2)]
+        ion = find_alias(m.group(2), exact_case=True).ion_id  # the library's ion of that label (NO3 -> NO3(-))
         if ion not in anions:
             return (f"the group ({m.group(2)}) written after {m.group(1)} is not {ion} in the reading that balances"
                     f" the counts as written: a count may be missing (check the formula)")
