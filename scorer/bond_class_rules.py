@@ -352,7 +352,7 @@ _CARBON_ANION_PARTNERS = _HALOGENS
 _ORGANO_OXO_METALS = frozenset({"Sn", "Pb", "Hg", "Ge", "Tl", "Bi", "Sb"})
 
 
-def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
+def organometallic_reason(counts: dict[str, float], anion_ids, carbide_only: bool = False) -> str | None:
     """Why a formula of a metal with carbon and hydrogen is an organometallic
     molecule; None otherwise.
 
@@ -360,7 +360,9 @@ def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
     reading balances). Carbon bonded to hydrogen is never a carbide anion, so
     a reading that needs one (C(4-), C2(2-)) beside hydrogen is no reading; and
     a metal with only carbon, hydrogen and halogens that no ions balance
-    (Zn(C2H5)2, C2H5MgCl) is a metal alkyl or aryl.
+    (Zn(C2H5)2, C2H5MgCl) is a metal alkyl or aryl. ``carbide_only`` says the
+    walks found no reading but one with a carbide (:func:`scorer.ion_search.carbide_balances`):
+    the same as a best reading that holds one.
 
     >>> organometallic_reason({"C": 1.0, "H": 3.0, "Li": 1.0}, ("C(4-)",)) is not None
     True
@@ -371,6 +373,8 @@ def organometallic_reason(counts: dict[str, float], anion_ids) -> str | None:
     """
     if "C" not in counts or "H" not in counts or not any(is_metal(s) for s in counts):
         return None
+    if anion_ids is None and carbide_only:
+        return ORGANOMETALLIC_NOTE
     if anion_ids is None:
         others = {s for s in counts if not is_metal(s)} - {"C", "H"}
         if others <= _CARBON_ANION_PARTNERS:

@@ -23,6 +23,12 @@ from ionicity.scorer.model import Ion
 _MAX_POLYATOMIC_SPECIES = 3
 # multiplicities of a polyatomic ion tried: the most that fit and the next ones down
 _MULTIPLICITIES = 3
+# leftover elements up to which a branch's floor is a set cover (cover_floor in _search): 2**6 subsets
+_COVER_ELEMENTS = 6
+# steps of the set cover's list comprehensions (a candidate read, a set tried on a subset) counted as one
+# unit of solver work: a unit is a node's charge check of one element, about 1 us of CPU; a step about a
+# sixth of that (measured on C12H24CaN2O6S2 and C6H12FeN3O12, whose walks compute some 800 covers)
+_STEPS_PER_UNIT = 6
 
 def _fits(composition, remaining: dict[str, float]) -> int:
     """How many times an ion's composition fits in ``remaining``."""
@@ -67,6 +73,14 @@ def _monatomic_shares(symbols: tuple[str, ...]) -> tuple[tuple[str, tuple[float,
     return tuple(out)
 
 
+# carbon bonded to hydrogen is never a carbide (common practice; the organic ion pairs hold the same rule,
+# :data:`_NO_ORGANIC_PAIR_ANIONS`): in a composition with both, no walk reads carbon as C(4-) or as the
+# acetylide and allylenide ions. Those readings were never kept (scorer.organic_anions.suspect_organic_reading
+# sets them aside), but C(4-) at no penalty let every branch of a metal's organic salt balance its charge, so
+# the walks of C12H25NaO4S or C15H30NNaO4 visited every combination of the library's organic ions
+_CARBIDE_STATE = ("C", -4)
+_CARBIDE_EXCLUSIONS = frozenset({_CARBIDE_STATE, "C2(2-)", "C3(4-)"})
+
 # superoxide and ozonide: ions of the salts of the heavy alkali and alkaline-earth metals alone (KO2, CsO3,
 # Ba(O2)2; tetramethylammonium superoxide among the organic cations), oxidants no reducing cation or other anion
 # keeps beside it (Greenwood & Earnshaw, 2nd ed., 1997, ch. 14.2.2; from memory): KCr2O7 was read as chromium(II)
@@ -85,11 +99,13 @@ def _candidates_for(present: frozenset) -> tuple[Ion, ...]:
 
 
 @per_input(maxsize=4096)
-def _least_monatomic_penalty(symbol: str) -> float:
+def _least_monatomic_penalty(symbol: str, no_anion: bool = False) -> float:
     """The least penalty of any monatomic option of ``symbol`` (a single state or a
     split over two, whose penalty is at least its lower state's single option's): a
-    floor for what the knapsack charges an element the walk leaves to it."""
-    return min([penalty for _, _, penalty in _monatomic_options(symbol, 1.0)], default=0.0)
+    floor for what the knapsack charges an element the walk leaves to it; with
+    ``no_anion``, of its cation options only (carbon beside hydrogen)."""
+    return min([penalty for kind, pair, penalty in _monatomic_options(symbol, 1.0)
+                if not no_anion or min((pair,) if kind == "single" else pair) > 0], default=0.0)
 
 
 @per_input(maxsize=4096)
@@ -124,7 +140,7 @@ _NO_SHARE = (float("inf"), float("-inf"))
 
 
 def _search(remaining: dict[str, float], needed: float, excluded: frozenset, budget: list[int],
-            ceiling: float = float("inf"), ceiling_after_first: bool = False):
+            ceiling: float = float("inf"), ceiling_after_first: bool = False, carbide: bool = False):
     """Charge-balanced readings of ``remaining`` as library and monatomic ions.
 
     A depth-first branch and bound: library ions that fit are tried, common
@@ -144,11 +160,17 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     could have been used. With ``ceiling_after_first`` the ceiling holds only
     once a first reading is found, for a caller that asks whether any reading
     balances at all (written ions whose remainder no assignment balances).
+    Carbon beside hydrogen is read in no carbide (:data:`_CARBIDE_EXCLUSIONS`)
+    unless ``carbide`` says so (the caller asking whether the atoms balance
+    only as one, :func:`carbide_balances`).
     Returns ([(penalty, [(Ion, count), ...]), ...], whether it stopped early).
     """
     if budget[0] <= 0:
         return [], True  # the composition's work limit is spent: no walk, nothing to prepare
     # ``excluded`` holds (element, state) pairs of monatomic states and the ids of library ions to leave out
+    if not carbide and "C" in remaining and "H" in remaining:
+        # carbon beside hydrogen is no carbide: its carbon sits in polyatomic ions
+        excluded = excluded | _CARBIDE_EXCLUSIONS
     candidates = [ion for ion in _candidates_for(frozenset(remaining))
                   if _fits(ion.composition, remaining) and ion.ion_id not in excluded]
     # common ions first, larger first: the best reading is found early and bounds the rest
@@ -169,6 +191,8 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     # formula with no reading is found out without visiting every combination
     per_atoms = [ion.charge / sum(k for _, k in ion.composition) for ion in candidates]
     shares = [dict(_monatomic_shares(tuple(remaining)))]
+    if _CARBIDE_STATE in excluded:
+        shares[0].pop("C", None)
     shares_inorganic = [shares[0]] if any_organic else shares
     for ion, per_atom in zip(reversed(candidates), reversed(per_atoms)):
         for table_ in ((shares, shares_inorganic) if any_organic and not ion.organic else (shares,)):
@@ -191,7 +215,60 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
             holders.setdefault(symbol, []).append((per_atom, i, k))
     # sorted when first asked (many walks end before): highest per-atom charge first
     ordered_holders: dict[str, list] = {}
-    least_of = {symbol: _least_monatomic_penalty(symbol) for symbol in remaining}
+    least_of = {symbol: _least_monatomic_penalty(symbol, symbol == "C" and _CARBIDE_STATE in excluded)
+                for symbol in remaining}
+    # the elements as bits: each candidate's, for the set cover of a node's leftover (cover_floor)
+    element_bit = {symbol: 1 << k for k, symbol in enumerate(sorted(remaining))}
+    cover_sets = [(sum(element_bit[symbol] for symbol, _ in ion.composition), _PENALTY_SPECIES + _ion_penalty(ion),
+                   ion.organic) for ion in candidates]
+    covers: dict = {}
+
+    def cover_floor(index: int, organic_chosen: bool, left) -> float:
+        """The least the species still to come can cost: a weighted set cover of the
+        elements ``left`` by the candidates from ``index`` (no organic one once an
+        organic ion is chosen), each at ``_PENALTY_SPECIES`` plus its own penalty, and
+        by monatomic species at ``_PENALTY_SPECIES`` plus the element's cheapest
+        option. Every reading below the node holds such a cover (an element sits in a
+        later candidate or is monatomic), so the floor is a lower bound; unlike a
+        count of species it tells a branch that needs two zero-penalty ions and a
+        monatomic one from one that needs two (ammonium ferric oxalate read through
+        gluconate). Exact over up to ``_COVER_ELEMENTS`` elements by dynamic
+        programming over subsets, with the sets another covers as cheaply left out;
+        0 beyond that. Memoised per walk."""
+        nonlocal nodes
+        if len(left) > _COVER_ELEMENTS:
+            return 0.0
+        elements = 0
+        for symbol in left:
+            elements |= element_bit[symbol]
+        key = (index, organic_chosen, elements)
+        found_floor = covers.get(key)
+        if found_floor is not None:
+            return found_floor
+        cheapest = {element_bit[symbol]: _PENALTY_SPECIES + least_of[symbol] for symbol in left}
+        for mask, c in [(mask, c) for mask, c, organic in cover_sets[index:]
+                        if not mask & ~elements and not (organic_chosen and organic)]:
+            if c < cheapest.get(mask, float("inf")):
+                cheapest[mask] = c
+        # a set another holds at no more cost adds nothing to a cover
+        sets: list[tuple[int, float]] = []
+        for mask, c in sorted(cheapest.items(), key=lambda mc: (mc[1], -bin(mc[0]).count("1"))):
+            if not any(mask & kept == mask and c_kept <= c for kept, c_kept in sets):
+                sets.append((mask, c))
+        # every subset of the elements, in increasing order: a subset less a set that meets it is settled before it
+        dp = {0: 0.0}
+        sub = 0
+        while True:
+            sub = (sub - elements) & elements
+            if not sub:
+                break
+            low = sub & -sub
+            dp[sub] = min([c + dp[sub & ~mask] for mask, c in sets if mask & low])
+        # counted as work: the candidates read and the subsets settled (:data:`_STEPS_PER_UNIT`)
+        nodes += (len(cover_sets) - index + len(cheapest) * len(sets) + len(dp) * len(sets)) // _STEPS_PER_UNIT
+        covers[key] = dp[elements]
+        return dp[elements]
+
     limit = budget[0]
     nodes = 0
     best = [float("inf")]
@@ -231,7 +308,16 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
         # and each element left alone pays at least its cheapest monatomic option: a
         # floor for the cut only (the knapsack's cap below counts those penalties itself)
         least = sum([least_of[symbol] for symbol in alone]) if alone else 0.0
-        return None if floor + least > bound[0] + _TOL else floor
+        if floor + least > bound[0] + _TOL:
+            return None
+        if len(left) > len(alone):
+            # the set cover, where it can cut: where every leftover element alone as a
+            # monatomic species would still be under the bound, no cover is above it
+            base = cost + _PENALTY_SPECIES * len(chosen)
+            if base + sum([_PENALTY_SPECIES + least_of[symbol] for symbol in left]) > bound[0] + _TOL and \
+                    base + cover_floor(index, organic_chosen, left) > bound[0] + _TOL:
+                return None
+        return floor
 
     def leaf(left: dict[str, float], chosen, charge: float, cost: float, floor: float) -> None:
         cap = best[0] - floor + _TOL if best[0] < float("inf") else _IONIC_THRESHOLD
@@ -375,6 +461,16 @@ def _search(remaining: dict[str, float], needed: float, excluded: frozenset, bud
     _WORK[0] += nodes
     budget[0] -= nodes + spent[0]
     return [(p, t) for p, t in found if p <= best[0] + _TOL], cut[0]
+
+
+def carbide_balances(remaining: dict[str, float], budget: list[int]) -> bool:
+    """Whether ``remaining`` (carbon beside hydrogen and a metal, of which the walks read no
+    reading) balances as ions once carbon may be a carbide: the atoms of a metal alkyl,
+    aryl or chelate (Zn(C2H5)2, Co(acac)3 with no acac ion written) that only C(4-) beside
+    H(+) balances (:func:`scorer.bond_class_rules.organometallic_reason`). The walk stops
+    at the first reading it finds (a ceiling below every penalty)."""
+    found, _ = _search(remaining, 0.0, frozenset(), budget, -1.0, True, carbide=True)
+    return bool(found)
 
 
 # anions that pair with no cation in a formula without a metal: H2CN2 is cyanamide or

@@ -50,7 +50,7 @@ from ionicity.scorer.ion_library import (
     same_label_ions,
 )
 from ionicity.scorer.ion_penalties import _FORMULA_UNIT_OXOANIONS, _IONIC_THRESHOLD, _PENALTY_SPECIES, _pair_penalty, _states
-from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract
+from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract, carbide_balances
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
@@ -84,7 +84,7 @@ _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("
 # dearest read of the demo and reference lists (Tutton's salt, 10,484 units; 7,393
 # since issue 14's exact cuts; DEVELOPERS.md, "The charge-balance solver and its
 # cost"); a walk that reaches it stops and its row's notes say so
-_SEARCH_BUDGET = 16_000
+_SEARCH_BUDGET = 24_000
 _SEARCH_CUT_NOTE = ("the ion search stopped at its work limit before trying every combination of "
                     "polyatomic ions: a more plausible reading may exist (check the formula)")
 
@@ -376,14 +376,20 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # not a metal(VII) cation with oxide and hydroxide
         readings = _metal_acid_reading(remaining) or readings
     chosen = _best(readings)
-    if chosen is None and not hinted and not skeleton:  # last resort: a complex anion built by rule (K2GeF6)
+    # carbon beside hydrogen is read in no carbide (scorer.ion_search): where nothing else balances, whether a
+    # carbide would (a metal alkyl or chelate, organometallic_reason below; the last resorts that build ions
+    # then stand aside, as they did while the walks still returned such a reading)
+    carbide_only = (chosen is None and not hinted and not skeleton and "C" in remaining and "H" in remaining
+                    and any(is_metal(s) for s in remaining) and carbide_balances(remaining, budget))
+    if chosen is None and not hinted and not skeleton and not carbide_only:
+        # last resort: a complex anion built by rule (K2GeF6)
         built, built_notes = complex_anion_readings(remaining, budget)
         # (the same ions that cannot sit together: H2MnO4S.1H2O came back from it as Mn(4+), H(-), SO4(2-))
         built = _coexisting(built, remaining)
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
-    if chosen is None and not hinted and not skeleton:
+    if chosen is None and not hinted and not skeleton and not carbide_only:
         tetrel = _tetrel_cation_reading(remaining)
         if tetrel is not None:
             readings = [tetrel]
@@ -395,10 +401,10 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         if built:
             readings, chosen = built, _best(built)
             notes.extend(built_notes)
-        elif built_notes == [NO_CONJUGATE_BASE] and chosen is not None:
+        elif built_notes == [NO_CONJUGATE_BASE] and (chosen is not None or carbide_only):
             # an alkali metal with a rest that is no acid's conjugate base (NaHCO, C2H3NaO): a typo of a
             # carboxylate or hydrogencarbonate is likelier than the walk's carbide reading of the atoms
-            readings, chosen = [], None
+            readings, chosen, carbide_only = [], None, False
     if (not hinted and written_nh4 and "C" in remaining and not any(is_metal(s) for s in remaining)
             and not _holds_ammonium(readings, written_nh4)):
         # the NH4 the text writes beside an organic acid's conjugate base the library does not list
@@ -412,7 +418,8 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             f"{ion.ion_id}*{format_count(n)}" for ion, n in (h[0] for h in hinted)))
     if not comp.ion_hints:
         # metal alkyls, aryls and arene complexes: no salt of carbide ions beside H(+)
-        organometallic = organometallic_reason(counts, None if chosen is None else [t.ion.ion_id for t in chosen[1]])
+        organometallic = organometallic_reason(counts, None if chosen is None else [t.ion.ion_id for t in chosen[1]],
+                                               carbide_only)
         if organometallic is not None:
             return Decomposition(
                 composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,

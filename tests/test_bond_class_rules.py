@@ -325,3 +325,52 @@ def test_organotin_oxides_and_hydroxides_are_metal_organic_molecules(cas):
 def test_an_unbalanced_alkali_organic_formula_is_not_called_organometallic():
     # the s-block keeps its salt readings and errors (a typo of a carboxylate is likelier than an alkoxide)
     assert "organometallic" not in (score_formula("C2H3NaO")["message"] or "")
+
+
+@pytest.mark.parametrize("cas", [
+    "13395-16-9",  # bis(acetylacetonato)copper, Cu(acac)2 in Hill form
+    "133-58-4",  # nitromersol, an organomercury compound (Hg-C bond in its PubChem name's mercurabicycle)
+])
+def test_metal_chelates_and_organomercurials_in_hill_form_are_metal_organic(cas):
+    # formulas from the registry package chemicals by CAS number; these had been errors ("no charge-balanced
+    # set of ions found"): the walks, which read carbon beside hydrogen as no carbide, find no reading, and
+    # the atoms balance only with one, so the compound is a molecule of metal-carbon or metal-oxygen bonds
+    # (Elschenbroich, Organometallics, 3rd ed., 2006; from memory)
+    from chemicals.identifiers import search_chemical
+    out = score_formula(search_chemical(cas).formula)
+    assert out["status"] == "warning" and out["substance_class"] == "covalent_molecular", out
+    assert "organometallic" in out["message"]
+
+
+def test_no_reading_holds_a_carbide_beside_hydrogen():
+    # carbon bonded to hydrogen is never a carbide (common practice): no walk may read a formula of C and H as
+    # C(4-), C2(2-) or C3(4-), whatever else it holds (grammar-aware random formulas and the metal alkyls above)
+    from ionicity.pipelines.bench_formulas import random_formulas
+    from ionicity.scorer.formula import FormulaError, parse_formula
+    from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD
+    from ionicity.scorer.ion_search import _search
+    from ionicity.scorer.ions import decompose
+    carbides = {"C(4-)", "C2(2-)", "C3(4-)"}
+    walked_any = 0
+    texts = ["CH3Li", "C2H5MgCl", "C12H24FeO14", "C10H16CuO4", "NaC2H", "CaC2H2", "C2H3NaO2", "C4H6CaO4",
+             "C6H5Na3O7", "C12H22FeO14", "C2H2O4Mg", "CHKO3", "C6H12FeN3O12"]
+    texts += [t for t in random_formulas(4000, seed=41) if "C" in t and "H" in t]
+    read = 0
+    for text in texts:
+        try:
+            comp = parse_formula(text)
+        except FormulaError:
+            continue
+        counts = comp.as_dict()
+        if "C" not in counts or "H" not in counts or comp.neutral_adducts:
+            continue  # (hydrogen only in a neutral adduct, H2O2 or NH3, leaves a carbide with none beside it)
+        read += 1
+        anions = {t.ion.ion_id for t in decompose(comp).anions}
+        assert not anions & carbides, (text, anions)
+        # nor any reading of the walk, the best or another (before the rule the walk's best reading of
+        # C12H24FeO14 was Fe(2+) with benzoate, carbonate, hydroxide, C(4-) and H(+))
+        found, _ = _search(counts, 0.0, frozenset(), [20_000], _IONIC_THRESHOLD)
+        walked = {ion.ion_id for _, terms in found for ion, _ in terms}
+        assert not walked & carbides, (text, walked)
+        walked_any += bool(found)
+    assert read > 100 and walked_any > 15

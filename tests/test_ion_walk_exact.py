@@ -10,6 +10,13 @@ reach its work limit; they let fewer reads reach it. The plain form
 (tests/_plain_ion_search.py, the knapsack's reach test switched off) is the code
 before them.
 
+Two later rules are checked the same way: the set-cover floor of a branch (the least
+its leftover elements can cost as species, ``ion_search._search``'s ``cover_floor``)
+only drops branches no reading at or under the bound lies in; carbon beside hydrogen
+is read in no carbide (``ion_search._CARBIDE_EXCLUSIONS``), readings the caller set
+aside anyway (``organic_anions.suspect_organic_reading``) or turned into the
+organometallic verdict, which now asks ``ion_search.carbide_balances``.
+
 The corpus: every formula of tests/data/formula_cases.csv (readings with their
 sources there) and seeded grammar-aware random formulas
 (:func:`ionicity.pipelines.bench_formulas.random_formulas`). No chemistry value is
@@ -24,7 +31,8 @@ import pytest
 
 from _plain_ion_search import plain_search
 from ionicity.pipelines.bench_formulas import random_formulas
-from ionicity.scorer import charge_balance, complex_anions, ions
+from ionicity.scorer import charge_balance, complex_anions, ion_search, ions
+from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD
 from ionicity.scorer.caching import clear_all
 from ionicity.scorer.formula import FormulaError, parse_formula
 
@@ -93,3 +101,43 @@ def test_more_random_formulas_read_as_with_the_plain_walk_and_fewer_reach_the_li
     # the cuts are there to let reads finish: fewer reach the limit (measured: see
     # DEVELOPERS.md, "The charge-balance solver and its cost")
     assert reached < plain_reached
+
+
+def _walk(composition: dict[str, float], budget: int) -> tuple[set, bool, int]:
+    """(readings as comparable keys, whether the walk stopped at its limit, work spent)."""
+    clear_all()
+    left = [budget]
+    found, stopped = ion_search._search(composition, 0.0, frozenset(), left, _IONIC_THRESHOLD)
+    readings = {(round(p, 9), tuple(sorted((ion.ion_id, n) for ion, n in terms))) for p, terms in found}
+    return readings, stopped, budget - left[0]
+
+
+def test_the_set_cover_floor_keeps_every_reading_and_cuts_the_walk(monkeypatch):
+    # ammonium ferric oxalate in Hill form (chemicals' PubChem name of CAS 14221-47-7: triazanium;ethanedioate;
+    # iron(3+)): the walk found Fe(3+) gluconate dinitramide hydroxide (4 species) first, and counting species
+    # alone let every branch of one organic ion and two more zero-penalty ions run on
+    composition = parse_formula("C6H12FeN3O12").as_dict()
+    with_cover, stopped, work = _walk(composition, 10**7)
+    monkeypatch.setattr(ion_search, "_COVER_ELEMENTS", 0)  # a floor of 0 for every leftover: no cover
+    without_cover, stopped_without, work_without = _walk(composition, 10**7)
+    assert not stopped and not stopped_without
+    assert with_cover == without_cover
+    assert any(dict(terms) == {"C2O4(2-)": 3.0, "Fe(3+)": 1.0, "NH4(+)": 3.0} for _, terms in with_cover)
+    assert work < work_without / 2
+
+
+def test_the_set_cover_floor_keeps_every_reading_of_random_formulas(monkeypatch):
+    compositions = []
+    for text in random_formulas(250, seed=31):
+        try:
+            compositions.append(parse_formula(text).as_dict())
+        except FormulaError:
+            continue
+    with_cover = [_walk(c, 100_000) for c in compositions]
+    monkeypatch.setattr(ion_search, "_COVER_ELEMENTS", 0)
+    without_cover = [_walk(c, 100_000) for c in compositions]
+    compared = [(a, b) for a, b in zip(with_cover, without_cover) if not a[1] and not b[1]]
+    assert len(compared) > 200
+    assert all(a[0] == b[0] for a, b in compared)
+    # and it never costs more walks to finish: every walk that finished without it finishes with it
+    assert not [a for a, b in zip(with_cover, without_cover) if a[1] and not b[1]]

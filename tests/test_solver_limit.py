@@ -83,3 +83,38 @@ def test_a_smaller_limit_changes_a_reading_and_says_so(monkeypatch):
     starved = _reads([text], 3, monkeypatch)[text]
     assert ions._SEARCH_CUT_NOTE not in full.notes
     assert ions._SEARCH_CUT_NOTE in starved.notes and starved != full
+
+
+# Salts of a metal with an organic anion whose walks reached the work limit on 4 December 2026 (then
+# 16,000 units): the walk tried every combination of the library's organic ions because carbon could
+# balance any charge as C(4-) at no penalty, and the species count alone bounded no branch. Each reads
+# whole now (no note) and the same at ten times the limit. The ions are those of the registry package
+# chemicals' PubChem name of the CAS number (chemicals.identifiers.search_chemical), whose formula is
+# checked here too (the cyclamate's CAS number is of its dihydrate).
+ONCE_AT_THE_LIMIT = [
+    # "triazanium;ethanedioate;iron(3+)", ammonium ferric oxalate: read as Fe(3+) with dinitramide, hydroxide
+    # and gluconate at the limit
+    ("C6H12FeN3O12", "14221-47-7", 0, {"Fe(3+)": 1.0, "NH4(+)": 3.0}, {"C2O4(2-)": 3.0}),
+    # "sodium;dodecyl sulfate": the anion built from the formula (no library ion holds it)
+    ("C12H25NaO4S", "151-21-3", 0, {"Na(+)": 1.0}, {"C12H25O4S(-)": 1.0}),
+    # "sodium;2-[dodecanoyl(methyl)amino]ethanoate" (sodium lauroyl sarcosinate)
+    ("C15H30NNaO4", "137-16-6", 0, {"Na(+)": 1.0}, {"C15H30NO4(-)": 1.0}),
+    # "calcium;n-cyclohexylsulfamate;dihydrate"
+    ("C12H24CaN2O6S2", "5897-16-5", 2, {"Ca(2+)": 1.0}, {"C6H12NO3S(-)": 2.0}),
+]
+
+
+@pytest.mark.parametrize("text, cas, waters, cations, anions", ONCE_AT_THE_LIMIT)
+def test_salts_that_once_reached_the_limit_read_whole(text, cas, waters, cations, anions, monkeypatch):
+    from chemicals.identifiers import search_chemical
+
+    registry = parse_formula(search_chemical(cas).formula).as_dict()
+    counts = parse_formula(text).as_dict()
+    if waters:
+        counts = {s: n + {"H": 2 * waters, "O": waters}.get(s, 0) for s, n in counts.items()}
+    assert counts == registry
+    dec = _reads([text], ions._SEARCH_BUDGET, monkeypatch)[text]
+    assert ions._SEARCH_CUT_NOTE not in dec.notes
+    assert {t.ion.ion_id: t.count for t in dec.cations} == cations
+    assert {t.ion.ion_id: t.count for t in dec.anions} == anions
+    assert _reads([text], 10 * ions._SEARCH_BUDGET, monkeypatch)[text] == dec
