@@ -518,6 +518,66 @@ def choose_organic_constants(rows) -> tuple[dict[str, float], list]:
 INTERMETALLIC_SET = MOLECULAR_SET.with_name("intermetallic_compounds.csv")
 
 
+ZWITTERION_SET = MOLECULAR_SET.with_name("zwitterions.csv")
+
+
+def zwitterion_rows():
+    """(split, formula, composition, median K, isomers) of datasets/melting/zwitterions.csv, as
+    :func:`organic_molecule_rows` reads its set (``Tm(cas, method="CRC_ORG")`` at run time, the median over a
+    formula's CAS numbers, a formula whose isomers melt more than ``ISOMER_SPREAD_LIMIT`` apart dropped)."""
+    from chemicals.phase_change import Tm  # melting extra
+
+    values: dict[tuple[str, str], list[float]] = {}
+    with open(ZWITTERION_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"], method="CRC_ORG")
+            if value is not None and value > 0:
+                values.setdefault((row["set"], row["formula"]), []).append(float(value))
+    return [(split, formula, parse_formula(formula).counts, float(np.median(found)), len(found))
+            for (split, formula), found in sorted(values.items()) if max(found) / min(found) <= ISOMER_SPREAD_LIMIT]
+
+
+def _zwitterion_K(counts, weights, zwitterion=True) -> float:
+    from ionicity.scorer.melting_organic import organic_terms
+
+    return organic_terms(counts, weights, zwitterion=zwitterion).melting_K(weights)
+
+
+def fit_zwitterion_weight(rows) -> float:
+    """``organic_zwitterion_kJ_mol``: least squares of log10 T_m on the ``calibration`` rows of
+    :func:`zwitterion_rows`, every other weight held at ``TREND_WEIGHTS``; the term adds to dH_m, so the
+    fit is one-dimensional (``scipy.optimize.least_squares`` from 0)."""
+    from scipy.optimize import least_squares  # melting extra
+
+    part = [r for r in rows if r[0] == "calibration"]
+
+    def log_errors(w):
+        weights = {**melting.TREND_WEIGHTS, "organic_zwitterion_kJ_mol": float(w[0])}
+        return np.log10([_zwitterion_K(c, weights) for _, _, c, _, _ in part]) - np.log10([t for *_, t, _ in part])
+
+    return float(least_squares(log_errors, [0.0]).x[0])
+
+
+def zwitterion_figures(rows, weights=None) -> dict:
+    """Per split, with the term (``TREND_WEIGHTS`` or ``weights``) and without it: n, Spearman, share within
+    x1.5, class right (non-salt bands), mean log10 error and its mean absolute value."""
+    weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
+    out = {}
+    for split in ("calibration", "validation"):
+        part = [r for r in rows if r[0] == split]
+        if not part:
+            continue
+        measured = [t for *_, t, _ in part]
+        for label, on in (("with_term", True), ("without_term", False)):
+            predicted = [_zwitterion_K(c, weights, on) for _, _, c, _, _ in part]
+            figures = _figures(predicted, measured, salt=False)
+            errors = np.log10(np.divide(predicted, measured))
+            figures["mean_log10"] = round(float(np.mean(errors)), 4)
+            figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
+            out[f"zwitterions_{split}_{label}"] = figures
+    return out
+
+
 def intermetallic_rows():
     """(split, formula, element-mixture K, electronegativity variance, measured K) of
     datasets/melting/intermetallic_compounds.csv (chemicals Tm at run time; ``excluded`` rows left out)."""
@@ -775,6 +835,11 @@ def main(argv=None) -> int:
     for name, figures in organic_molecule_figures(organic_molecules).items():
         print(name, figures)
     for name, figures in intermetallic_figures(metals, metal_weight).items():
+        print(name, figures)
+    zwitterions = zwitterion_rows()
+    print("zwitterion weight (fit on calibration):",
+          {"organic_zwitterion_kJ_mol": round(fit_zwitterion_weight(zwitterions), 2)})
+    for name, figures in zwitterion_figures(zwitterions).items():
         print(name, figures)
     bonded = hydrogen_bonded_rows()
     print("molecular hydrogen-bond weight (fit on calibration):",

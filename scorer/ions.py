@@ -167,6 +167,8 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
+ZWITTERION_NOTE = ("a zwitterion in the solid (an inner salt: its basic nitrogen holds the acid's proton, as in"
+                   " the amino acids); a molecule, its ions in one molecule")
 _METAL_ORGANIC_NOTE = ("metal-organic complex: a metal bound by an organic ligand the ion library does not list"
                        " (porphyrins, corrins, the alkoxides of Al, Ga, Sn); formal oxidation states not assigned")
 # carbon atoms from which a formula with hydrogen has an organic skeleton: no inorganic ion holds them
@@ -287,6 +289,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if comp.structure_hint == "ester" and not any(is_metal(s) for s in symbols):
         # an ester written out (CH3COOCH3): no acidic hydrogen, a molecule (its Hill formula also names an acid)
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if comp.structure_hint == "zwitterion":
+        # a name the registry's structure shows to be an amino acid or another inner salt (glycine, betaine,
+        # taurine: scorer.data.smiles_groups): read as any molecule the registry names (no salt of its atoms;
+        # an acid's reading stands, EDTA), and marked for the melting route, which counts the ion pair
+        # (scorer.melting_organic)
+        dec = _read(counts_key, charge, ion_hints, neutral_adducts, "molecule", budget)
+        return dataclasses.replace(dec, written_groups=(*dec.written_groups, "zwitterion"),
+                                   notes=(*dec.notes, ZWITTERION_NOTE))
     if comp.structure_hint == "amide" and not any(is_metal(s) for s in symbols) and not _amidinium_salt(counts):
         # amide groups written out (urea, CO(NH2)2) mark a molecule, not NH4+ salts;
         # an amidinium cation's own NH2 groups do not (HC(NH2)2I, C(NH2)3Cl)

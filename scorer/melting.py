@@ -533,7 +533,8 @@ class _OrganicReading:
 
 
 def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
-    organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations)
+    organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations,
+                                            zwitterion="zwitterion" in dec.written_groups)
     if organic is not None:
         # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
         cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()
@@ -601,7 +602,9 @@ def _organic_steps(reading: _OrganicReading) -> tuple[str, ...]:
         f"  cohesion: {w['organic_heavy_atom_kJ_mol']} kJ/mol * {t.heavy_atoms:g} heavy atoms +"
         f" {w['organic_polarisability_kJ_mol_A3']} kJ/mol * polarisability {t.polarisability_A3:.2f} A3 +"
         f" {w['organic_hydrogen_bond_kJ_mol']} kJ/mol * {t.hydrogen_bond_sites:g} hydrogen-bond site(s)"
-        " (O and N with H, an upper bound)",
+        " (O and N with H, an upper bound)"
+        + (f" + {w['organic_zwitterion_kJ_mol']} kJ/mol (a zwitterion: its charged ends attract)" if t.zwitterion
+           else ""),
         "  a rough guide: isomers share a formula and may melt far apart (typical scatter a factor 1.5)",
     )
 

@@ -163,6 +163,10 @@ TREND_WEIGHTS: dict[str, float] = {
     "organic_heavy_atom_kJ_mol": 0.64,
     "organic_polarisability_kJ_mol_A3": 0.626,
     "organic_hydrogen_bond_kJ_mol": 4.22,
+    # per molecule that is a zwitterion in the solid (a named amino acid or inner salt, the registry's structure):
+    # least squares of log10 T_m on the calibration half of datasets/melting/zwitterions.csv, the three above held
+    # (pipelines.melting_weights.fit_zwitterion_weight)
+    "organic_zwitterion_kJ_mol": 14.6,
     # the formula reading's two constants, each chosen on the same calibration half by its
     # Spearman rho over a grid (0.75 ... 2 and 1, 2, 4;
     # pipelines.melting_weights.choose_organic_constants): skeleton atoms held rigid per

@@ -566,7 +566,8 @@ def parse_as_name(text: str, any_word: bool = False):
             # the registry knows it as one molecule: no ion pair of the formula's atoms (tris, C4H11NO3, is no
             # propylammonium hydrogencarbonate; lysine no choline cyanate); an acid's H(+) reading stands; an
             # acyl halide (acetyl chloride, C2H3ClO) is marked as its written CH3COCl is, and an acid anhydride
-            # or an isocyanate likewise, for the water rules
+            # or an isocyanate likewise, for the water rules; an amino acid or another inner salt as a
+            # zwitterion, for the melting route
             parsed = dataclasses.replace(parsed, structure_hint=entry[4])
         elif entry[4] == "salt" and not parsed.structure_hint and _OPEN_CHAIN_ONIUM_NAME.search(entry[2]) and \
                 not _RING_ONIUM_NAME.search(entry[2]):
@@ -606,7 +607,7 @@ def without_stereo_descriptors(text: str) -> tuple[str, ...]:
 
 
 # the registry's kinds of one molecule (scorer/data/registry_names.csv): the parse's structure hint
-_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
+_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate", "zwitterion"})
 
 
 def _organic_molecule(parsed) -> bool:

@@ -18,7 +18,9 @@ from ionicity.scorer.tables import table
 
 __all__ = ["registry_knows", "registry_molecule", "registry_salt"]
 
-_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate"})
+_MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate", "zwitterion"})
+# the kinds that name a group water attacks
+_REACTIVE_KINDS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
 
 
 @once
@@ -56,7 +58,7 @@ def registry_reactive_group(hill: str) -> str | None:
     if found is None or len(found[0]) != 1:
         return None
     (kind,) = found[0]
-    return kind if kind in _MOLECULE_KINDS and kind != "molecule" else None
+    return kind if kind in _REACTIVE_KINDS else None
 
 
 @once

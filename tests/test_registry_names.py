@@ -113,8 +113,8 @@ def test_acyl_halides_by_name_react_with_water(name):
 
 def test_a_molecule_by_name_is_no_ion_pair():
     # lysine, C6H14N2O2: as a bare formula the library pair choline cyanate fits; the name is the molecule
-    # (registry SMILES of CAS 56-87-1: one component)
-    assert registry_entry("lysine")[4] == "molecule"
+    # (registry SMILES of CAS 56-87-1: one component, an amino acid: a zwitterion in the solid)
+    assert registry_entry("lysine")[4] == "zwitterion"
     named, bare = score_formula("lysine"), score_formula("C6H14N2O2")
     assert named["formula_normalized"] == "C6H14N2O2" and not named["cations"]
     # the bare formula too: every registry compound of C6H14N2O2 is a molecule (scorer.registry_formulas;

@@ -18,7 +18,8 @@ Rows, from the registry package ``chemicals`` (its version is written in the REA
 
 ``kind``: ``molecule`` when the registry's SMILES of the CAS number is one component (``acyl_halide`` when
 that molecule holds a carbonyl halide group, ``acid_anhydride`` a carboxylic anhydride, ``isocyanate`` an
-N=C=O group: water reactions a Hill formula cannot show), ``salt`` when it is several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
+N=C=O group: water reactions a Hill formula cannot show; ``zwitterion`` an amino acid or another inner salt,
+:mod:`scorer.data.smiles_groups`), ``salt`` when it is several (``[Na+].[Cl-]``), empty without a SMILES; the name reader keeps a molecule of carbon and non-metals
 from being read as an ion pair (tris, C4H11NO3, is no propylammonium hydrogencarbonate).
 
 Left out: CRC names whose formula by CAS number the package's own lookup of the name contradicts (another
@@ -37,6 +38,8 @@ import os
 import re
 import sys
 from pathlib import Path
+
+from ionicity.scorer.data.smiles_groups import zwitterion
 
 OUT = Path(__file__).with_name("registry_names.csv")
 CRC_TABLES = (("CRC organic", "Physical Constants of Organic Compounds.csv"),
@@ -78,7 +81,9 @@ _ISOCYANATE_SMILES = re.compile(r"N=C=O|O=C=N")
 def _kind(smiles: str) -> str:
     """``molecule`` for a SMILES of one component, ``acyl_halide`` for such a molecule with a carbonyl halide
     group (CC(=O)Cl: water cleaves it, which its Hill formula C2H3ClO cannot show), ``salt`` for several
-    components (``[Na+].[Cl-]``), empty when unknown."""
+    components (``[Na+].[Cl-]``), ``zwitterion`` for a molecule with a basic nitrogen and a carboxylic or
+    sulfonic acid, or with its charges written (:func:`scorer.data.smiles_groups.zwitterion`), empty when
+    unknown."""
     if not smiles:
         return ""
     if "." in smiles:
@@ -89,6 +94,9 @@ def _kind(smiles: str) -> str:
         return "acid_anhydride"
     if _ISOCYANATE_SMILES.search(smiles):
         return "isocyanate"
+    if zwitterion(smiles):
+        # an amino acid or another inner salt (glycine, betaine, taurine): an ionic crystal of one molecule
+        return "zwitterion"
     return "molecule"
 
 

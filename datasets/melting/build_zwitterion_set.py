@@ -1,0 +1,81 @@
+"""Rebuild ``zwitterions.csv``: the amino acids and other inner salts of the CRC Handbook table, in two halves.
+
+usage: python datasets/melting/build_zwitterion_set.py [--check]
+
+Rows: every CAS number of the CRC Handbook organic table of the registry package ``chemicals``
+(``chemicals.phase_change``, method ``CRC_ORG``) that has a melting point and that the package's PubChem
+identifier tables (``chemical identifiers pubchem large.tsv``, then ``... small.tsv``) give a formula and a
+SMILES for, when
+
+* the SMILES is one molecule that is a zwitterion in the solid (a basic nitrogen with a carboxylic or
+  sulfonic acid, or its charges written: :func:`ionicity.scorer.data.smiles_groups.zwitterion`), the rule
+  by which ``registry_names.csv`` marks a name ``zwitterion``;
+* the formula holds only elements of :data:`ionicity.scorer.melting_organic.ORGANIC_ELEMENTS` and
+  :func:`~ionicity.scorer.melting_organic.is_organic_molecule` says yes, with at most 60 atoms other than
+  hydrogen.
+
+The structure only chooses the rows, as it chooses the names the scorer reads as zwitterions. ``set``:
+``calibration`` or ``validation`` by :func:`ionicity.pipelines.melting_weights.open_set_half` of the formula
+as ``score_formula`` normalises it, the rule of ``organic_molecules.csv``, so an amino acid in both sets
+falls in the same half of each. No melting point is written: they are read at run time
+(``chemicals.phase_change.Tm(cas, method="CRC_ORG")``; many amino acids melt with decomposition, and the
+table gives that temperature). ``--check`` exits 1 when the file differs from a rebuild.
+"""
+from __future__ import annotations
+
+import os
+import re
+from pathlib import Path
+
+from set_file import csv_text, write_or_check  # this folder's shared writer (see set_file.py)
+
+HERE = Path(__file__).resolve().parent
+OUT = HERE / "zwitterions.csv"
+# the melting point is read at run time: chemicals Tm(CAS, method="CRC_ORG"), the CRC Handbook of
+# Chemistry and Physics, 95th ed., organic table (datasets/melting/README.md)
+SOURCE = "chemicals CRC_ORG"
+MAX_HEAVY_ATOMS = 60
+
+
+def _counts(hill: str) -> dict[str, float]:
+    counts: dict[str, float] = {}
+    for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", hill):
+        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
+    return counts
+
+
+def build() -> str:
+    import chemicals.identifiers as ident
+    import chemicals.phase_change as pc
+    from ionicity.pipelines.melting_weights import open_set_half
+    from ionicity.scorer.data.smiles_groups import zwitterion
+    from ionicity.scorer.melting_organic import is_organic_molecule
+    from ionicity.scorer.record import score_formula
+
+    pc.Tm("7732-18-5")  # loads the tables
+    crc = pc.Tm_sources["CRC_ORG"]
+    crc = crc[crc["Tm"].notna()]
+    wanted = set(crc.index)
+    folder = Path(os.path.dirname(ident.__file__)) / "Identifiers"
+    found: dict[str, tuple[str, str]] = {}
+    for name in ("chemical identifiers pubchem large.tsv", "chemical identifiers pubchem small.tsv"):
+        with open(folder / name, encoding="utf-8") as handle:
+            for line in handle:
+                f = line.split("\t", 6)
+                if len(f) > 5 and f[1] in wanted and f[1] not in found:
+                    found[f[1]] = (f[2], f[4])
+    rows = []
+    for cas, (hill, smiles) in found.items():
+        if not zwitterion(smiles) or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
+            continue
+        counts = _counts(hill)
+        if not is_organic_molecule(counts) or sum(n for s, n in counts.items() if s != "H") > MAX_HEAVY_ATOMS:
+            continue
+        normalized = score_formula(hill).get("formula_normalized") or hill
+        rows.append((hill, cas, str(crc.loc[cas, "Name"]), open_set_half(normalized)))
+    return csv_text(["formula", "cas", "name", "set", "source"],
+                    ([hill, cas, name, split, SOURCE] for hill, cas, name, split in sorted(rows)))
+
+
+if __name__ == "__main__":
+    write_or_check(build(), OUT)
