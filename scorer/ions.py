@@ -55,7 +55,7 @@ from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, lig
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
     ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_reactive_group, registry_reactive_isomer,
-    registry_salt,
+    registry_salt, registry_zwitterion,
 )
 from ionicity.scorer.substance import (
     binary_carbonyl,
@@ -167,6 +167,9 @@ def _decompose(counts_key, charge, ion_hints, neutral_adducts, structure_hint, h
     return settle(_read(counts_key, charge, ion_hints, neutral_adducts, structure_hint), hydrated=hydrated)
 
 
+# notes that say what the registry knows of a molecule, not that its reading is in doubt (scorer.slips does not
+# count them against a reading)
+ZWITTERION_REGISTRY_NOTE = "every compound of this formula the registry lists is a zwitterion"
 ZWITTERION_NOTE = ("a zwitterion in the solid (an inner salt: its basic nitrogen holds the acid's proton, as in"
                    " the amino acids); a molecule, its ions in one molecule")
 _METAL_ORGANIC_NOTE = ("metal-organic complex: a metal bound by an organic ligand the ion library does not list"
@@ -289,6 +292,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if comp.structure_hint == "ester" and not any(is_metal(s) for s in symbols):
         # an ester written out (CH3COOCH3): no acidic hydrogen, a molecule (its Hill formula also names an acid)
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
+    if (not comp.structure_hint and not comp.ion_hints and {"C", "N"} <= symbols and symbols & {"O", "S"}
+            and not any(is_metal(s) for s in symbols)):
+        # a formula alone whose every registry compound is an amino acid or another inner salt (C6H14N2O2: the
+        # lysines): read as that name would be, and said so
+        named = registry_zwitterion(hill_formula(counts))
+        if named is not None:
+            dec = _read(counts_key, charge, ion_hints, neutral_adducts, "zwitterion", budget)
+            return dataclasses.replace(dec, notes=(*dec.notes, f"{ZWITTERION_REGISTRY_NOTE} ({named}, ...)"))
     if comp.structure_hint == "zwitterion":
         # a name the registry's structure shows to be an amino acid or another inner salt (glycine, betaine,
         # taurine: scorer.data.smiles_groups): read as any molecule the registry names (no salt of its atoms;

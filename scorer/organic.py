@@ -62,7 +62,7 @@ from ionicity.scorer.formula import ParsedFormula, hill_formula
 from ionicity.scorer.ion_library import ion_library, monatomic_ion
 from ionicity.scorer.ion_search import _NO_ORGANIC_PAIR_ANIONS
 from ionicity.scorer.model import Decomposition, IonTerm
-from ionicity.scorer.registry_formulas import ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_salt
+from ionicity.scorer.registry_formulas import ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_salt, registry_zwitterion
 from ionicity.scorer.substance import classify, nonionic_decomposition, organic_candidate
 
 __all__ = [
@@ -239,6 +239,8 @@ def _molecule(counts: tuple[tuple[str, float], ...], amide: bool = False) -> Dec
         return None  # the registry lists the formula only as a salt (an amine hydrohalide): the solver reads it
     if "O" in as_dict and not as_dict.keys() - ACYL_HALIDE_ELEMENTS and as_dict.keys() & ACYL_HALOGENS:
         return None  # an acyl halide's shape (C2H3ClO): the solver asks the registry whether one is meant
+    if "N" in as_dict and as_dict.keys() & {"O", "S"} and registry_zwitterion(hill_formula(as_dict)):
+        return None  # every registry compound of the formula is a zwitterion (C6H14N2O2): the solver says so
     # what scorer.ions reads for a formula without ions: no notes, no water, no adducts
     return settle(nonionic_decomposition(0, as_dict, [], 0.0, ()))
 

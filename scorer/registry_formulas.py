@@ -47,6 +47,18 @@ def registry_molecule(hill: str) -> str | None:
     return found[1]
 
 
+def registry_zwitterion(hill: str) -> str | None:
+    """The registry's name of a compound with Hill formula ``hill`` when every compound it lists with that
+    formula is a zwitterion in the solid (an amino acid or another inner salt: ``kind`` ``zwitterion``,
+    :mod:`scorer.data.smiles_groups`); ``None`` otherwise (C2H5NO2 is glycine and nitroethane).
+
+    >>> registry_zwitterion("C6H14N2O2") is not None, registry_zwitterion("C2H5NO2")
+    (True, None)
+    """
+    found = _kinds().get(hill)
+    return found[1] if found is not None and found[0] == {"zwitterion"} else None
+
+
 def registry_reactive_group(hill: str) -> str | None:
     """The group water attacks (``acyl_halide``, ``acid_anhydride``, ``isocyanate``) when every compound the
     registry lists with Hill formula ``hill`` has that one group; ``None`` otherwise.

@@ -50,7 +50,7 @@ from ionicity.scorer.coordination import written_ligands
 from ionicity.scorer.elements import element_symbols, get_element, is_element_symbol
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
-from ionicity.scorer.ions import decompose_anhydrous, decompose_within
+from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
 from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
@@ -197,7 +197,9 @@ def _penalty_of(text: str, dec) -> float:
     if dec.substance_class == "unknown":
         return math.inf
     penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
-    penalty += len(dec.notes) + len(comp.notes)
+    # every note counts against a reading but those that say what the registry knows of the molecule (a zwitterion)
+    penalty += len([n for n in dec.notes if n != ZWITTERION_NOTE and not n.startswith(ZWITTERION_REGISTRY_NOTE)])
+    penalty += len(comp.notes)
     for term in dec.cations + dec.anions:
         element = term.ion.element
         if element and term.ion.charge not in get_element(element).oxidation_states_main:

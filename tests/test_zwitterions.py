@@ -132,3 +132,20 @@ def test_zwitterion_set_rebuilds():
     script = DATA / "build_zwitterion_set.py"
     result = subprocess.run([sys.executable, str(script), "--check"], capture_output=True, text=True, cwd=ROOT)
     assert result.returncode == 0, result.stderr[-2000:]
+
+
+def test_a_formula_whose_every_registry_compound_is_a_zwitterion_reads_as_one():
+    # C6H14N2O2: the registry's compounds of this formula are the lysines (CAS 56-87-1 and its isomers), all amino
+    # acids; C2H5NO2 is also nitroethane, so it takes no term
+    from ionicity.scorer.registry_formulas import registry_zwitterion
+
+    assert registry_zwitterion("C6H14N2O2") is not None and registry_zwitterion("C2H5NO2") is None
+    out = score_formula("C6H14N2O2")
+    assert "zwitterion" in out["message"] and out["mp_trend_index"] == score_formula("lysine")["mp_trend_index"]
+
+
+def test_a_zwitterion_note_does_not_invite_a_typing_slip():
+    # melphalan, C13H18Cl2N2O2 (CAS 148-82-3 in the registry package chemicals): its notes say what the registry
+    # knows, and the slip reader must not prefer "Cl3H18Cl2N2O2" (C13 read as Cl3) for them
+    out = score_formula("C13H18Cl2N2O2")
+    assert out["formula_normalized"] == "C13H18Cl2N2O2", out["formula_normalized"]
