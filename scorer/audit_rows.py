@@ -14,7 +14,8 @@ from ionicity.scorer.slips import Slip, find_slip, missing_count_suggestions
 from ionicity.scorer.solutions import Solution, solution_note, split_grade_words, split_in_solvent, split_solution
 from ionicity.scorer.verdict import Verdict, joined, with_warnings
 
-__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion", "material_message"]
+__all__ = ["slipped_row", "solution_row", "audited_row", "code_like_row", "with_count_suggestion", "material_message",
+           "polymer_name"]
 
 
 def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callable[[str], tuple],
@@ -29,6 +30,8 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     if solution is not None:
         return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
                             position)
+    if polymer_name(text):
+        return error_row(material_message(text))  # "PTFE" is no PtFe, "casein" no CaInSe
     slip = find_slip(text)
     if slip is not None and _formula_then_words(text):
         slip = None  # a formula with grade or form words after it ("ZrO2 monoclinic", "CaCO3 calcite"): no slip
@@ -92,17 +95,74 @@ _MATERIALS = {
     "diatomaceous earth": "mostly amorphous silica with other oxides",
     "portland cement": "a mixture of calcium silicates and aluminates",
     "bioactive glass": "a soda-lime phosphosilicate glass (45S5: SiO2, Na2O, CaO, P2O5)",
+    "alnico": "an alloy of aluminium, nickel and cobalt with iron",
+}
+
+# polymers and natural macromolecules a stock list names, with the formula of their repeat unit where they have
+# one (IUPAC Purple Book 2008 names; common practice): no one formula either, and their abbreviations read as
+# element symbols ("PTFE" as PtFe, "PVC" as P, V, C; "casein" as CaInSe, "chitin" as TiHICN)
+_POLYMERS = {
+    "ptfe": ("poly(tetrafluoroethylene), a polymer", "C2F4"),
+    "polytetrafluoroethylene": ("poly(tetrafluoroethylene), a polymer", "C2F4"),
+    "pvc": ("poly(vinyl chloride), a polymer", "C2H3Cl"),
+    "polyvinyl chloride": ("poly(vinyl chloride), a polymer", "C2H3Cl"),
+    "pvdf": ("poly(vinylidene fluoride), a polymer", "C2H2F2"),
+    "pmma": ("poly(methyl methacrylate), a polymer", "C5H8O2"),
+    "pdms": ("poly(dimethylsiloxane), a silicone polymer", "C2H6OSi"),
+    "silicone oil": ("a poly(dimethylsiloxane) liquid", "C2H6OSi"),
+    "hdpe": ("polyethylene, a polymer", "C2H4"), "ldpe": ("polyethylene, a polymer", "C2H4"),
+    "polyethylene": ("polyethylene, a polymer", "C2H4"),
+    "polypropylene": ("polypropylene, a polymer", "C3H6"),
+    "polystyrene": ("polystyrene, a polymer", "C8H8"),
+    "peg": ("poly(ethylene glycol), a polymer", "C2H4O"),
+    "polyethylene glycol": ("poly(ethylene glycol), a polymer", "C2H4O"),
+    "nylon": ("a polyamide (nylon 6: C6H11NO; nylon 6,6: C12H22N2O2 per repeat unit)", None),
+    "cellulose": ("a polysaccharide of glucose", "C6H10O5"),
+    "starch": ("a polysaccharide of glucose (amylose and amylopectin)", "C6H10O5"),
+    "dextran": ("a polysaccharide of glucose", "C6H10O5"),
+    "maltodextrin": ("a mixture of glucose oligomers", "C6H10O5"),
+    "inulin": ("a polysaccharide of fructose", "C6H10O5"),
+    "agar": ("a mixture of galactose polysaccharides (agarose and agaropectin)", None),
+    "agarose": ("a polysaccharide of galactose and anhydrogalactose", None),
+    "pectin": ("a polysaccharide of galacturonic acid", None),
+    "chitin": ("a polysaccharide of N-acetylglucosamine", "C8H13NO5"),
+    "chitosan": ("a polysaccharide of glucosamine", "C6H11NO4"),
+    "lignin": ("a polymer of phenylpropanoid units", None),
+    "gelatin": ("a protein mixture (from collagen)", None), "gelatine": ("a protein mixture (from collagen)", None),
+    "collagen": ("a protein", None), "casein": ("a family of milk proteins", None), "keratin": ("a protein", None),
+    "albumin": ("a protein", None),
+    "lecithin": ("a mixture of phospholipids", None),
+    "paraffin": ("a mixture of long-chain alkanes", None), "paraffin wax": ("a mixture of long-chain alkanes", None),
+    "mineral oil": ("a mixture of alkanes", None), "petroleum jelly": ("a mixture of alkanes", None),
 }
 
 def material_message(text: str) -> str | None:
     """The error of a cell naming a material of no one formula (:data:`_MATERIALS`); None for any other text."""
     key = " ".join(text.lower().split())
     # a pore size or grade after a material's name ("Molecular sieves 4A", "Silica gel 60") names the same material
-    material = _MATERIALS.get(key) or _MATERIALS.get(re.sub(r"\s+\d+\s*(?:a|å|angstrom)?$", "", key))
+    bare = re.sub(r"\s+\d+\s*(?:a|å|angstrom)?$", "", key)
+    polymer = _POLYMERS.get(key) or _POLYMERS.get(bare)
+    if polymer is not None:
+        what, unit = polymer
+        return (f"{text.strip()!r} is {what}, of no one formula" + (
+            f": its repeat unit {unit} can be scored as a formula (a small molecule's values, not the polymer's)"
+            if unit else ": score a defined component as a formula or a name"))
+    material = _MATERIALS.get(key) or _MATERIALS.get(bare)
     if material is None:
         return None
     return (f"{text.strip()!r} is {material}, of no one formula: write its composition as a formula or a mixture"
             " (e.g. Cu-37Zn for a brass, Fe-18Cr-8Ni for a stainless steel)")
+
+
+def polymer_name(text: str) -> bool:
+    """Whether ``text`` names a polymer or natural macromolecule of :data:`_POLYMERS` (a pore size or grade number
+    after it allowed: "PEG 400").
+
+    >>> polymer_name("PTFE"), polymer_name("PEG 400"), polymer_name("NaCl")
+    (True, True, False)
+    """
+    key = " ".join(text.lower().split())
+    return key in _POLYMERS or re.sub(r"\s+\d+$", "", key) in _POLYMERS
 
 
 # a whole cell of three to six capitals, which reads as one-letter element symbols: the shape of a laboratory

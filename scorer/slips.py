@@ -51,7 +51,7 @@ from ionicity.scorer.elements import element_symbols, get_element, is_element_sy
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
-from ionicity.scorer.ion_penalties import _ion_penalty
+from ionicity.scorer.ion_penalties import _ion_penalty, _monatomic_options
 
 __all__ = [
     "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
@@ -202,7 +202,7 @@ def _penalty_of(text: str, dec) -> float:
     penalty += len(comp.notes)
     for term in dec.cations + dec.anions:
         element = term.ion.element
-        if element and term.ion.charge not in get_element(element).oxidation_states_main:
+        if element and term.ion.charge not in _usual_states(element):
             penalty += 2.0  # Fe(7+) beside a carbide: the solver's last resort
         if element == "C":
             penalty += 2.0  # a carbide ion in an inventory line is rarer than a slip
@@ -214,6 +214,19 @@ def _penalty_of(text: str, dec) -> float:
     if dec.substance_class == "covalent_molecular" and odd_electron_molecule(comp):
         penalty += 2.0  # CD, SN, SIO2 read as radicals: an inventory holds few (NO, NO2, ClO2 aside)
     return penalty
+
+
+@per_input(maxsize=4096)
+def _usual_states(symbol: str) -> frozenset:
+    """The oxidation states of ``symbol`` no reading is suspected for: mendeleev's main ones and those the
+    solver prices at no penalty (Cu(+1) in CuSCN, CuI and CuCN; Mn(+3) in MnF3; :mod:`scorer.ion_penalties`).
+    With mendeleev's alone, 'cuscn' was re-cased into a U-Sc carbonitride rather than CuSCN, which tied.
+
+    >>> sorted(_usual_states("Cu")), 1 in _usual_states("Ni")
+    ([1, 2], False)
+    """
+    free = {state for kind, state, penalty in _monatomic_options(symbol, 1.0) if kind == "single" and penalty == 0.0}
+    return frozenset(get_element(symbol).oxidation_states_main) | free
 
 
 # the odd-electron molecules a shelf holds (common practice)
@@ -542,12 +555,13 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
         return None  # longer than any inventory line: read as written
     letters = _NOT_A_LETTER.sub("", stripped)
     all_caps = len(letters) > 1 and letters.isupper()
-    # a lower-case word of seven letters or more without a digit is a word ("eutectic", "acetone"), not a
-    # formula that lost its case: the shelf's lower-case formulas are short ("nacl", "naoh", "kscn") or counted
-    # a capitalised word of six letters or more likewise ("Unknown", "Buffer", "Solution": they were re-cased into
-    # UNKNOWN, BUFFEr, SOLuTiON); a capitalised formula that lost its case is short or counted ("Nacl", "Kscn")
-    word = letters == stripped and (len(letters) >= 7 and letters.islower() or len(letters) >= 6 and letters[0].isupper()
-                                    and letters[1:].islower())
+    # a lower-case word of six letters or more without a digit is a word ("eutectic", "acetone", "niacin", which
+    # had been re-cased into NiAcIn), not a formula that lost its case: the shelf's lower-case formulas are short
+    # ("nacl", "naoh", "kscn", "naclo") or counted; a capitalised word of six letters or more likewise ("Unknown",
+    # "Buffer", "Solution": they were re-cased into UNKNOWN, BUFFEr, SOLuTiON); a capitalised formula that lost its
+    # case is short or counted ("Nacl", "Kscn")
+    word = letters == stripped and len(letters) >= 6 and (letters.islower() or letters[0].isupper()
+                                                          and letters[1:].islower())
     all_lower = letters.islower() and not word
     # as written an element no shelf holds a compound of (Nh3 nihonium, No nobelium: NH3, NO typed with a lower-case
     # letter), or one metal with a count no substance has (Co2, Cs2: CO2, CS2): evidence of a lost case

@@ -695,3 +695,52 @@ def test_a_written_oxoanion_group_broken_by_the_reading_is_a_warning(text):
 @pytest.mark.parametrize("text", ["Fe(NO3)3", "Cu2(OH)2CO3", "K[Al(OH)4]", "B(OH)3", "UO2(NO3)2", "Pb(OH)NO3"])
 def test_written_groups_the_reading_keeps_raise_no_warning(text):
     assert "is not" not in (score_formula(text)["message"] or "")
+
+
+@pytest.mark.parametrize("name, cas", [
+    ("aspirin", "50-78-2"), ("acetylsalicylic acid", "50-78-2"), ("paracetamol", "103-90-2"),
+    ("menthol", "89-78-1"), ("mannitol", "69-65-8"), ("sorbitol", "50-70-4"), ("niacin", "59-67-6"),
+    ("nicotinamide", "98-92-0"), ("vitamin C", "50-81-7"), ("sucralose", "56038-13-2"),
+])
+def test_pharmacy_shelf_names_read_as_their_compounds(name, cas):
+    # the formula of the CAS number in the registry package chemicals (chemicals.identifiers.search_chemical);
+    # these names were unread, and 'niacin' was re-cased by the slip reader into NiAcIn, an intermetallic
+    from chemicals.identifiers import search_chemical
+    from ionicity.scorer.formula import parse_formula
+
+    out = score_formula(name)
+    assert out["status"] == "warning" and out["substance_class"] == "covalent_molecular", out["message"]
+    assert parse_formula(out["formula_normalized"]).as_dict() == parse_formula(search_chemical(cas).formula).as_dict()
+
+
+@pytest.mark.parametrize("text, expected", [("cuscn", "CuSCN"), ("cui", "CuI"), ("mnf3", "MnF3")])
+def test_lower_case_salts_of_a_usual_state_outside_mendeleevs_main_ones(text, expected):
+    # Cu(+1) and Mn(+3) are usual states (CuSCN, CuI, MnF3: Greenwood & Earnshaw, 2nd ed., 1997, ch. 25 and 28;
+    # from memory) that mendeleev's main states leave out: 'cuscn' had been re-cased into CNScU, a U-Sc
+    # carbonitride, which tied with CuSCN
+    assert score_formula(text)["formula_normalized"] == expected
+
+
+def test_a_lower_case_word_of_six_letters_is_no_formula():
+    # 'lialh' (five letters) may be a formula that lost its case; a six-letter lower-case word is a word
+    out = score_formula("agaros")
+    assert out["status"] == "error" and "neither a formula nor a name" in out["message"]
+
+
+@pytest.mark.parametrize("text, unit", [
+    ("PTFE", "C2F4"), ("PVC", "C2H3Cl"), ("PEG 400", "C2H4O"), ("cellulose", "C6H10O5"), ("chitin", "C8H13NO5"),
+    ("casein", None), ("paraffin wax", None),
+])
+def test_polymers_and_macromolecules_are_no_formula(text, unit):
+    # polymers and natural macromolecules have no one formula (IUPAC Purple Book 2008; common practice); their
+    # abbreviations and names had been re-cased into element symbols: PTFE as PtFe, casein as CaInSe (a salt),
+    # chitin as TiHICN, or read as P, V, C ("no charge-balanced set of ions")
+    out = score_formula(text)
+    assert out["status"] == "error" and "of no one formula" in out["message"], out["message"]
+    if unit:
+        assert unit in out["message"]
+
+
+def test_formulas_beside_polymer_codes_still_read():
+    # PS and PP read as written (phosphorus sulfide, P2): only the names of the table are polymers
+    assert score_formula("PS")["status"] != "error" and score_formula("NaCl")["status"] == "ok"

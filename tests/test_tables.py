@@ -45,7 +45,7 @@ ROWS = {
     "trivial_names.csv": 241,
     "solution_names.csv": 20,
     "ligands.csv": 30,
-    "registry_names.csv": 13376,
+    "registry_names.csv": 13386,
     "fusion.csv": 38,
     "blends.csv": 13,
     "eutectics.csv": 20,

@@ -62,6 +62,10 @@ SYNONYMS = (
     ("sec-butanol", "78-92-2"), ("isoamyl alcohol", "123-51-3"), ("acetylacetone", "123-54-6"),
     ("tris base", "77-86-1"), ("potassium tert-butoxide", "865-47-4"), ("sodium tert-butoxide", "865-48-5"),
     ("lithium tert-butoxide", "1907-33-1"),
+    # common names of a pharmacy or food shelf (INN and pharmacopoeia names; common practice)
+    ("aspirin", "50-78-2"), ("acetylsalicylic acid", "50-78-2"), ("paracetamol", "103-90-2"),
+    ("menthol", "89-78-1"), ("mannitol", "69-65-8"), ("sorbitol", "50-70-4"), ("niacin", "59-67-6"),
+    ("nicotinamide", "98-92-0"), ("vitamin C", "50-81-7"), ("sucralose", "56038-13-2"),
 )
 _CAS = re.compile(r"\d{2,7}-\d\d-\d")
 # longer names (stereo descriptors, CAS index inversions) are not what an inventory cell holds; nor are
