@@ -98,6 +98,17 @@ _MATERIALS = {
     "alnico": "an alloy of aluminium, nickel and cobalt with iron",
 }
 
+# laboratory media a stock list names by abbreviation (common practice): solutions of several solutes; "PBS" read
+# as the formula BPS
+_MEDIA = {
+    "pbs": "phosphate-buffered saline, a solution of NaCl, KCl, Na2HPO4 and KH2PO4 in water",
+    "dpbs": "phosphate-buffered saline, a solution of NaCl, KCl, Na2HPO4 and KH2PO4 in water",
+    "phosphate-buffered saline": "a solution of NaCl, KCl, Na2HPO4 and KH2PO4 in water",
+    "phosphate buffered saline": "a solution of NaCl, KCl, Na2HPO4 and KH2PO4 in water",
+    "lb broth": "a growth medium (tryptone, yeast extract, NaCl)",
+    "lb medium": "a growth medium (tryptone, yeast extract, NaCl)",
+}
+
 # polymers and natural macromolecules a stock list names, with the formula of their repeat unit where they have
 # one (IUPAC Purple Book 2008 names; common practice): no one formula either, and their abbreviations read as
 # element symbols ("PTFE" as PtFe, "PVC" as P, V, C; "casein" as CaInSe, "chitin" as TiHICN)
@@ -140,7 +151,11 @@ def material_message(text: str) -> str | None:
     """The error of a cell naming a material of no one formula (:data:`_MATERIALS`); None for any other text."""
     key = " ".join(text.lower().split())
     # a pore size or grade after a material's name ("Molecular sieves 4A", "Silica gel 60") names the same material
-    bare = re.sub(r"\s+\d+\s*(?:a|å|angstrom)?$", "", key)
+    bare = re.sub(r"\s+\d+\s*(?:a|å|angstrom|x)?$", "", key)
+    medium = _MEDIA.get(key) or _MEDIA.get(bare)
+    if medium is not None:
+        return (f"{text.strip()!r} is {medium}, of no one formula: score its components as a mixture or one by one"
+                " (e.g. NaCl, KCl, Na2HPO4, KH2PO4)")
     polymer = _POLYMERS.get(key) or _POLYMERS.get(bare)
     if polymer is not None:
         what, unit = polymer
@@ -156,13 +171,15 @@ def material_message(text: str) -> str | None:
 
 def polymer_name(text: str) -> bool:
     """Whether ``text`` names a polymer or natural macromolecule of :data:`_POLYMERS` (a pore size or grade number
-    after it allowed: "PEG 400").
+    after it allowed: "PEG 400"), or a laboratory medium of :data:`_MEDIA` ("PBS", "PBS 10x"): names whose letters
+    read as element symbols, checked before any other reading.
 
-    >>> polymer_name("PTFE"), polymer_name("PEG 400"), polymer_name("NaCl")
-    (True, True, False)
+    >>> polymer_name("PTFE"), polymer_name("PEG 400"), polymer_name("PBS 10x"), polymer_name("NaCl")
+    (True, True, True, False)
     """
     key = " ".join(text.lower().split())
-    return key in _POLYMERS or re.sub(r"\s+\d+$", "", key) in _POLYMERS
+    bare = re.sub(r"\s+\d+x?$", "", key)
+    return key in _POLYMERS or bare in _POLYMERS or key in _MEDIA or bare in _MEDIA
 
 
 # a whole cell of three to six capitals, which reads as one-letter element symbols: the shape of a laboratory

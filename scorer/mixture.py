@@ -435,12 +435,18 @@ def _reads_as_compound(text: str) -> bool:
     return True
 
 
+# a Greek letter (or its name) and a hyphen opening a text: a locant or anomer label of a name
+_GREEK_LOCANT_START = re.compile(r"^\s*(?:[αβγδεζηθκλμω]|(?i:alpha|beta|gamma|delta|epsilon|omega))-(?=[A-Za-z])")
+
+
 def read_mixture(text: str, score_row) -> Mixture | SameCompound | str | None:
     """The mixture a cell describes, an error message, or None for a compound.
 
     ``score_row`` scores one component (:func:`scorer.record.score_row`;
     passed in, since the record module calls this one).
     """
+    if _GREEK_LOCANT_START.match(text):
+        return None  # "β-carotene", "α-cyclodextrin": a name with a Greek-letter locant, no mixture of β and carotene
     blend = _blend(text) if not text[:1].isdigit() else None
     notes: list[str] = []
     if blend is not None:
@@ -466,8 +472,9 @@ def read_mixture(text: str, score_row) -> Mixture | SameCompound | str | None:
             except FormulaError as exc:
                 comp = parse_as_name(part)  # a component named ("sodium chloride + potassium chloride")
                 if comp is None:
-                    if blend is None and ":" not in text_to_read and not mixture_text.amounts and _reads_as_compound(text):
-                        return None  # a dash or plus inside a compound's own notation
+                    if blend is None and ":" not in text_to_read and not mixture_text.amounts and (
+                            _reads_as_compound(text) or parse_as_name(text) is not None):
+                        return None  # a dash or plus inside a compound's own notation or name ("γ-butyrolactone")
                     return f"component {part!r} of the mixture: {exc}"
             if comp.charge != 0:
                 return None if blend is None else f"component {part!r} of the blend {blend[0]!r} is an ion"

@@ -545,7 +545,7 @@ def parse_as_name(text: str, any_word: bool = False):
     if not isinstance(text, str) or not (any_word or _WORDLIKE.search(text)):
         return None  # no word of three letters: a broken formula, not a name ("K4[Fe(CN)6")
     formula, entry = _read_name(text)
-    if formula is None and "-" in text:
+    if formula is None and ("-" in text or not text.isascii()):
         # stereo descriptors and optical rotation ("D-(+)-Glucose", "sodium L-lactate", "(R)-(+)-Limonene") name
         # one isomer of the same formula: the name is read without the rotation sign, then without any descriptor
         for bare in without_stereo_descriptors(text):
@@ -591,19 +591,40 @@ _STEREO_DESCRIPTOR = re.compile(
     r"|(?:D|L|DL|rac|meso)-(?=[A-Za-z(]))")
 
 
+# Greek letters as names spell them in ASCII (the registry's names are ASCII: "gamma-butyrolactone"), and a
+# Greek-letter locant or anomer label before a name ("beta-alanine", "alpha-D-glucose": IUPAC Recommendations
+# 2013, P-14.3 and P-93; common practice), which names one isomer of the same formula
+_GREEK_LETTERS = {"α": "alpha", "β": "beta", "γ": "gamma", "δ": "delta", "ε": "epsilon", "ζ": "zeta", "η": "eta",
+                  "θ": "theta", "κ": "kappa", "λ": "lambda", "μ": "mu", "ω": "omega"}
+_GREEK_LOCANT = re.compile(r"(?<![A-Za-z0-9])(?:alpha|beta|gamma|delta|epsilon|omega)-(?=[A-Za-z(])", re.I)
+
+
+def ascii_greek(text: str) -> str:
+    """``text`` with its Greek letters spelt out.
+
+    >>> ascii_greek("γ-butyrolactone"), ascii_greek("NaCl")
+    ('gamma-butyrolactone', 'NaCl')
+    """
+    return "".join(_GREEK_LETTERS.get(c, c) for c in text) if not text.isascii() else text
+
+
 def without_stereo_descriptors(text: str) -> tuple[str, ...]:
-    """``text`` without the sign of optical rotation, then without every stereo descriptor as well; the
-    variants that differ from ``text``, in that order. Isomers share one formula, so the name's formula
-    is read from the bare name.
+    """``text`` with its Greek letters spelt out, then without the sign of optical rotation, then without every
+    stereo descriptor as well, then without Greek-letter locants; the variants that differ from ``text``, in
+    that order. Isomers share one formula, so the name's formula is read from the bare name.
 
     >>> without_stereo_descriptors("D-(+)-Glucose"), without_stereo_descriptors("sodium L-lactate")
     (('D-Glucose', 'Glucose'), ('sodium lactate',))
     >>> without_stereo_descriptors("(R)-(+)-Limonene"), without_stereo_descriptors("tert-butanol")
     (('(R)-Limonene', 'Limonene'), ())
+    >>> without_stereo_descriptors("β-alanine"), without_stereo_descriptors("α-D-glucose")
+    (('beta-alanine', 'alanine'), ('alpha-D-glucose', 'alpha-glucose', 'glucose'))
     """
-    unsigned = _ROTATION_SIGN.sub("", text)
+    spelt = ascii_greek(text)
+    unsigned = _ROTATION_SIGN.sub("", spelt)
     bare = _STEREO_DESCRIPTOR.sub("", unsigned)
-    return tuple(dict.fromkeys(v for v in (unsigned, bare) if v != text and v.strip()))
+    plain = _GREEK_LOCANT.sub("", bare)
+    return tuple(dict.fromkeys(v for v in (spelt, unsigned, bare, plain) if v != text and v.strip()))
 
 
 # the registry's kinds of one molecule (scorer/data/registry_names.csv): the parse's structure hint

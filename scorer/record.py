@@ -6,7 +6,9 @@ import math
 import re
 
 from ionicity.scorer.applicability import family_decided
-from ionicity.scorer.audit_rows import CAPITALS_CODE, audited_row, code_like_row, material_message, with_count_suggestion
+from ionicity.scorer.audit_rows import (
+    CAPITALS_CODE, audited_row, code_like_row, material_message, polymer_name, with_count_suggestion,
+)
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.cas import cas_check_digit_valid, registry_by_cas, trailing_cas, whole_cas
 from ionicity.scorer.columns import descriptors, output_columns
@@ -39,7 +41,7 @@ from ionicity.scorer.name_reader import (
 )
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
-from ionicity.scorer.solutions import split_grade_words, split_stock_fields
+from ionicity.scorer.solutions import split_grade_words, split_solution, split_stock_fields
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import Verdict, finalise, with_warnings
 
@@ -446,6 +448,8 @@ def _score_text(text: str) -> tuple:
     comp = ordinary_formula(text)
     if comp is None:
         return _read_row(text)
+    if CAPITALS_CODE.fullmatch(text) and polymer_name(text):
+        return _error_row(material_message(text))  # "PVC", "PTFE", "PBS": a polymer or a medium, no formula
     row = _parsed_row(comp)
     if CAPITALS_CODE.fullmatch(text):
         # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
@@ -531,9 +535,17 @@ def _read_row(text: str) -> tuple:
     stock = _stock_symbol_row(text) if "(" in text and _STOCK_SYMBOL.search(text) else None
     if stock is not None:
         return stock
-    mixture = mixture_row(text, score_row)
-    if mixture is not None:
-        return mixture
+    buffer = split_solution(text) if "pH" in text else None
+    if buffer is not None and buffer.concentration.startswith("pH"):
+        # a buffer's pH is no mixture component: "Tris-HCl pH 8.0", "KH2PO4-K2HPO4 pH 7"
+        mixture = mixture_row(buffer.solute, score_row)
+        if mixture is not None:
+            return _warned(mixture, f"a buffer solution ({buffer.concentration}): the values are for the components,"
+                                    " not for the solution")
+    else:
+        mixture = mixture_row(text, score_row)
+        if mixture is not None:
+            return mixture
     # the audit (a solution's concentration, a typing slip) decides which text is scored
     return _counted(audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row), text)
 

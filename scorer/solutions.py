@@ -49,6 +49,8 @@ _MOLAR = re.compile(
     rf"|mM|M|N|m)(?![A-Za-z])"
 )
 _GRADE = re.compile(r"(?P<word>conc(?:\.|entrated)?|dil(?:\.|ute)?|fuming|glacial|sat(?:\.|urated)?)", re.I)
+# the pH of a buffer written last ("Tris-HCl pH 8.0", "HEPES, pH 7.5"): a solution of that pH (common practice)
+_PH = re.compile(r"(?P<ph>pH\s*=?\s*\d{1,2}(?:[.,]\d+)?)(?![\d.,])")
 # a concentration written in brackets at the end: "HCl (37%)"
 _BRACKETED_TAIL = re.compile(r"\s*\(\s*([^()]*?)\s*\)\s*$")
 _STATE = re.compile(r"\(\s*aq\.?\s*\)|\baq\.?(?=\s|$)|\bsoln\.?|\bsolution\b|\b(?P<form>dispersion|suspension|slurry)\b", re.I)
@@ -260,7 +262,7 @@ def _split_solution_text(text: str) -> Solution | None:
                     return Solution(rest.strip(), _as_written(pattern, written))
         if lead and split_solution(lead.group("rest")) is None:
             return Solution(lead.group("rest").strip(), _as_written(pattern, pattern.match(lead.group("c"))))
-    for pattern in (_PERCENT, _MOLAR, _GRADE):
+    for pattern in (_PERCENT, _MOLAR, _GRADE, _PH):
         # the concentration is the last thing written, after a space
         for m in pattern.finditer(body):
             if m.end() != len(body) or m.start() == 0 or not body[m.start() - 1].isspace():
@@ -287,6 +289,8 @@ def _as_written(pattern, m: re.Match) -> str:
         unit = re.sub(r"\s+", "", m.group("unit"))
         value = re.sub(r"\s*[-–]\s*", "-", m.group("value"))
         return f"{value} {unit}"
+    if pattern is _PH:
+        return "pH " + re.sub(r"^pH\s*=?\s*", "", m.group("ph")).replace(",", ".")
     word = m.group("word").lower()
     return {"concentrated": "conc.", "conc": "conc.", "dilute": "dil.", "dil": "dil.", "saturated": "sat.",
             "sat": "sat."}.get(word, word)

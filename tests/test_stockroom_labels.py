@@ -149,8 +149,9 @@ def test_capitals_that_read_only_with_deuterium_or_tritium_are_no_formula(text):
     assert row["status"] == "error" and "deuterium or tritium" in row["message"]
 
 
-@pytest.mark.parametrize("text", ["PBS", "PVP", "BNS"])
+@pytest.mark.parametrize("text", ["PVP", "BNS"])
 def test_capitals_read_as_an_odd_formula_warn(text):
+    # (PBS, once here, is a medium of audit_rows._MEDIA now: test_laboratory_media_are_no_formula)
     row = score_formula(text)
     assert row["status"] == "warning" and "if it is an abbreviation" in row["message"]
 
@@ -744,3 +745,45 @@ def test_polymers_and_macromolecules_are_no_formula(text, unit):
 def test_formulas_beside_polymer_codes_still_read():
     # PS and PP read as written (phosphorus sulfide, P2): only the names of the table are polymers
     assert score_formula("PS")["status"] != "error" and score_formula("NaCl")["status"] == "ok"
+
+
+@pytest.mark.parametrize("text, cas", [
+    ("γ-butyrolactone", "96-48-0"), ("β-pinene", "127-91-3"), ("ε-caprolactam", "105-60-2"), ("β-alanine", "107-95-9"),
+    ("α-D-glucose", "492-62-6"), ("β-mercaptoethanol", "60-24-2"),
+])
+def test_names_with_greek_letters(text, cas):
+    # the registry's names are ASCII ("gamma-butyrolactone"); a Greek-letter locant names an isomer of the same
+    # formula (beta-alanine and alanine are both C3H7NO2); these were read as mixtures of a component 'γ' and the
+    # rest, an error. Formulas of the CAS numbers from the registry package chemicals
+    from chemicals.identifiers import search_chemical
+    from ionicity.scorer.formula import parse_formula
+
+    out = score_formula(text)
+    assert out["status"] == "warning" and out["substance_class"] == "covalent_molecular", out["message"]
+    assert parse_formula(out["formula_normalized"]).as_dict() == parse_formula(search_chemical(cas).formula).as_dict()
+
+
+@pytest.mark.parametrize("text, expected", [("Tris-HCl pH 8.0", "[C4H12NO3]Cl"), ("HEPES, pH 7.5", "C8H18N2O4S"),
+                                            ("KH2PO4:K2HPO4 1:1 pH 7", "KH2PO4-K2HPO4 (50-50 mol%)")])
+def test_a_buffer_written_with_its_ph(text, expected):
+    # the pH after a buffer is the solution's, not a component (common practice): "Tris-HCl pH 8.0" had been a
+    # mixture of Tris and 'HCl pH 8.0', an error
+    out = score_formula(text)
+    assert out["formula_normalized"] == expected and out["status"] != "error", out["message"]
+    assert "pH" in (out["value_notes"] or "") + (out["message"] or "")
+
+
+@pytest.mark.parametrize("text", ["PBS", "PBS 10x", "LB broth"])
+def test_laboratory_media_are_no_formula(text):
+    # phosphate-buffered saline (NaCl, KCl, Na2HPO4, KH2PO4 in water; common practice) had read as the formula BPS
+    out = score_formula(text)
+    assert out["status"] == "error" and "of no one formula" in out["message"]
+
+
+@pytest.mark.parametrize("code, cas", [("BME", "60-24-2"), ("IPTG", "367-93-1")])
+def test_two_biochemistry_codes(code, cas):
+    from chemicals.identifiers import search_chemical
+    from ionicity.scorer.formula import parse_formula
+
+    out = score_formula(code)
+    assert parse_formula(out["formula_normalized"]).as_dict() == parse_formula(search_chemical(cas).formula).as_dict()

@@ -66,6 +66,7 @@ SYNONYMS = (
     ("aspirin", "50-78-2"), ("acetylsalicylic acid", "50-78-2"), ("paracetamol", "103-90-2"),
     ("menthol", "89-78-1"), ("mannitol", "69-65-8"), ("sorbitol", "50-70-4"), ("niacin", "59-67-6"),
     ("nicotinamide", "98-92-0"), ("vitamin C", "50-81-7"), ("sucralose", "56038-13-2"),
+    ("beta-mercaptoethanol", "60-24-2"), ("mercaptoethanol", "60-24-2"),
 )
 _CAS = re.compile(r"\d{2,7}-\d\d-\d")
 # longer names (stereo descriptors, CAS index inversions) are not what an inventory cell holds; nor are
