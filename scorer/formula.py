@@ -32,6 +32,7 @@ from __future__ import annotations
 
 import dataclasses
 import math
+import itertools
 import re
 import unicodedata
 from dataclasses import dataclass, field
@@ -510,6 +511,11 @@ def parse_formula(text: str) -> ParsedFormula:
         # a buffer base's code with its acid ("Tris-HCl", "Tris HCl"): the base's hydrohalide salt
         notes.append(salt_of_code[1])
         text_to_parse = salt_of_code[0]
+    metal_salt = code_metal_salt(text_to_parse) if ("EDTA" in text_to_parse or "EGTA" in text_to_parse) else None
+    if metal_salt is not None:
+        # a chelating acid's code with metals before or after it ("K2EDTA", "EDTA-Na2"): their salt
+        notes.append(metal_salt[1])
+        text_to_parse = metal_salt[0]
     solvent = laboratory_code(text_to_parse) if _SOLVENT_CODE.fullmatch(text_to_parse) else None
     if solvent is None and _DEUTERATED_CODE.fullmatch(text_to_parse):
         solvent = deuterated_solvent(text_to_parse)
@@ -962,7 +968,8 @@ _REAGENT_ANIONS = {"B": "Br", "C": "Cl", "F": "F", "I": "I", "H": "(OH)", "OH": 
 # THF would otherwise read as tritium, hydrogen and fluorine, PC as phosphorus carbide
 _SOLVENT_CODE = re.compile(r"\s*[A-Za-z]{2,6}\d?\s*")
 # a code and its lattice water after a dot: "TBAF·3H2O", "TBAB.H2O", "LiTFSI*xH2O" (common practice)
-_CODE_WITH_WATER = re.compile(r"\s*(?P<code>\d?[A-Za-z]{2,6}\d{0,3})\s*[·.*•]\s*(?P<water>(?:\d+(?:\.\d+)?|[xn])?H2O)\s*")
+_CODE_WITH_WATER = re.compile(r"\s*(?P<code>\d?[A-Za-z]{2,6}\d{0,3}|(?:[A-Z][a-z]?\d*){1,3}E[DG]TA)\s*[·.*•]\s*"
+                              r"(?P<water>(?:\d+(?:\.\d+)?|[xn])?H2O)\s*")
 # "CuSO4x5H2O": a lower-case x glued between a formula and its counted water, for the hydrate dot
 _GLUED_X_WATER = re.compile(r"(?<=[A-Za-z0-9)\]])x(?=\d+(?:\.\d+)?H2O\s*$)")
 
@@ -970,6 +977,7 @@ _GLUED_X_WATER = re.compile(r"(?<=[A-Za-z0-9)\]])x(?=\d+(?:\.\d+)?H2O\s*$)")
 def _is_code(text: str) -> bool:
     """Whether ``text`` is a laboratory, materials or reagent code the readers below know (THF, LFP, TBAF)."""
     return (laboratory_code(text) is not None
+            or ("EDTA" in text or "EGTA" in text) and code_metal_salt(text) is not None
             or (_MATERIAL_CODE.fullmatch(text) is not None and material_code(text) is not None)
             or ((_QUATERNARY_REAGENT.fullmatch(text) is not None or text.strip() in _SALT_CODES)
                 and quaternary_reagent_code(text) is not None))
@@ -995,6 +1003,51 @@ def code_hydrohalide(text: str) -> tuple[str, str] | None:
     return (f"{formula}·{m.group('acid')}",
             f"read {text.strip()!r} as the {m.group('acid')} salt of the laboratory code {m.group('code')!r},"
             f" {name} (common practice)")
+
+
+# the chelating acids among the laboratory codes and their acidic hydrogens (four carboxylic acid groups each;
+# common practice): a metal written before or after the code names its salt, as blood tubes, fertilisers and
+# catalogues write them ("K2EDTA", "K3EDTA", "CaNa2EDTA", "NaFeEDTA", "EDTA-Na2")
+_POLYPROTIC_CODES = {"EDTA": 4, "EGTA": 4}
+_METAL_PREFIX_CODE = re.compile(r"\s*(?P<metals>(?:[A-Z][a-z]?\d*){1,3})\s*[-·]?\s*(?P<code>EDTA|EGTA)\s*")
+_CODE_METAL_SUFFIX = re.compile(r"\s*(?P<code>EDTA|EGTA)\s*-\s*(?P<metals>(?:[A-Z][a-z]?\d*){1,3})\s*")
+
+
+def code_metal_salt(text: str) -> tuple[str, str] | None:
+    """(formula text, note) of a metal salt of a chelating acid's laboratory code (:data:`_POLYPROTIC_CODES`):
+    the metals' usual charges replace as many of the acid's hydrogens, the rest stay (K2EDTA is K2H2EDTA,
+    dipotassium dihydrogen edetate; CaNa2EDTA has none left). Where a metal has several usual charges, the
+    reading that replaces every acidic hydrogen is taken, else the one that replaces most (NaFeEDTA: Fe(3+)).
+    None for any other text, or metals whose charges exceed the acid's hydrogens.
+
+    >>> code_metal_salt("K2EDTA")[0], code_metal_salt("CaNa2EDTA")[0], code_metal_salt("EDTA-Na2")[0]
+    ('K2C10H14N2O8', 'CaNa2C10H12N2O8', 'Na2C10H14N2O8')
+    >>> code_metal_salt("NaFeEDTA")[0], code_metal_salt("EDTA"), code_metal_salt("Cl2EDTA")
+    ('NaFeC10H12N2O8', None, None)
+    """
+    m = (_METAL_PREFIX_CODE.fullmatch(text) or _CODE_METAL_SUFFIX.fullmatch(text)) if isinstance(text, str) else None
+    if m is None:
+        return None
+    metals = re.findall(r"([A-Z][a-z]?)(\d*)", m.group("metals"))
+    if not metals or not all(is_element_symbol(symbol) and is_metal(symbol) for symbol, _ in metals):
+        return None
+    code = m.group("code")
+    protons = _POLYPROTIC_CODES[code]
+    choices = [[(state * int(n or 1)) for state in get_element(symbol).oxidation_states_main if state > 0]
+               for symbol, n in metals]
+    totals = sorted({sum(c) for c in itertools.product(*choices)}) if all(choices) else []
+    fitting = [t for t in totals if t <= protons]
+    if not fitting:
+        return None
+    charge = protons if protons in fitting else max(fitting)
+    formula, name = laboratory_code(code)
+    counts = {symbol: int(n) for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", formula) for n in [n or 1]}
+    counts["H"] -= charge
+    acid_part = "".join(f"{symbol}{n if n != 1 else ''}" for symbol, n in counts.items() if n)
+    written = m.group("metals") + acid_part
+    left = f"H{protons - charge}" if protons - charge > 1 else ("H" if protons - charge else "")
+    return (written, f"read {text.strip()!r} as a salt of the laboratory code {code!r} ({name}): {m.group('metals')}"
+                     f"{left}{code}, {written} (common practice)")
 
 
 _SOLVENT_CODES: dict[str, tuple[str, str]] = {}

@@ -91,7 +91,8 @@ _PENALTY_FORMULA_UNIT_OXOANION = 1.5
 # actinyl ions are the usual form of U(VI), Np(VI), Pu(VI)
 _ACTINYL_IONS = frozenset({"UO2(2+)", "UO2(+)", "NpO2(2+)", "NpO2(+)", "PuO2(2+)"})
 # acid anions that keep a proton: H2S reads 2 H+ + S2-, oxalic acid 2 H+ + C2O4(2-)
-_HYDROGEN_ANIONS = frozenset({"HS(-)", "HSe(-)", "HC2O4(-)"})
+# (and the protonated edetates: EDTA is 4 H+ with edetate, as sulfuric acid is 2 H+ with sulfate; common practice)
+_HYDROGEN_ANIONS = frozenset({"HS(-)", "HSe(-)", "HC2O4(-)", "C10H14N2O8(2-)", "C10H13N2O8(3-)"})
 _PENALTY_SPECIES = 0.1
 _PENALTY_FRACTIONAL_SPLIT = 1.0
 # a bare cation of charge 5 or more is a formal device (U6+ + 2 O2- in uranyl nitrate)

@@ -35,7 +35,7 @@ from ionicity.scorer.caching import clear_all, once, per_input
 from ionicity.scorer.caution import CAUTION, WATER_CAUTION
 from ionicity.scorer.columns import output_columns
 from ionicity.scorer.elements import get_element, is_metal
-from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, alloy_designation, code_hydrohalide, parse_formula
+from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, alloy_designation, code_hydrohalide, code_metal_salt, parse_formula
 from ionicity.scorer.ions import decompose
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
@@ -681,6 +681,8 @@ def mixture_row(text: str, score_row) -> tuple | None:
         return None  # a formula with its hydrate word ("NiCl2 6-hydrate"), not a mixture
     if code_hydrohalide(text) is not None:
         return None  # a buffer base's code with its acid ("Tris-HCl"): the base's hydrochloride
+    if ("EDTA" in text or "EGTA" in text) and code_metal_salt(text) is not None:
+        return None  # a chelating acid's metal salt ("EDTA-Na2"), not a mixture of a metal and an acid
     if alloy_designation(text) is not None:
         return None  # an alloy designation ("Ti-6Al-4V"): one metallic solid, read by the formula grammar
     label = POLYMORPH_LABEL.match(text)

@@ -787,3 +787,28 @@ def test_two_biochemistry_codes(code, cas):
 
     out = score_formula(code)
     assert parse_formula(out["formula_normalized"]).as_dict() == parse_formula(search_chemical(cas).formula).as_dict()
+
+
+@pytest.mark.parametrize("text, cas", [
+    ("K2EDTA", "25102-12-9"), ("NaFeEDTA", "15708-41-5"), ("EDTA-Na2", None), ("Na4EDTA", "64-02-8"),
+    ("K2EDTA·2H2O", "25102-12-9"),
+])
+def test_metal_salts_of_edta_written_with_the_code(text, cas):
+    # blood tubes (K2EDTA, K3EDTA), fertilisers (NaFeEDTA) and catalogues (EDTA-Na2) write the metals beside the
+    # code; the metals' charges replace as many of EDTA's four acidic hydrogens (common practice). Formulas of
+    # the CAS numbers from the registry package chemicals (dipotassium EDTA, sodium iron(III) edetate, edetate
+    # sodium); 'K2EDTA' had been an error and 'EDTA-Na2' a mixture of the acid with sodium metal
+    from chemicals.identifiers import search_chemical
+    from ionicity.scorer.formula import parse_formula
+
+    out = score_formula(text)
+    assert out["status"] == "warning" and out["substance_class"] == "ionic_salt", out["message"]
+    expected = search_chemical(cas).formula if cas else "C10H14N2Na2O8"
+    assert parse_formula(out["formula_normalized"].split("·")[0]).as_dict() == parse_formula(expected).as_dict()
+
+
+def test_edta_is_four_protons_and_edetate():
+    # as sulfuric acid is 2 H+ with sulfate: no tie with the dihydrogen edetate reading (common practice)
+    out = score_formula("EDTA")
+    assert out["cations"] == "H(+)*4" and out["anions"] == "C10H12N2O8(4-)*1"
+    assert score_formula("Na2EDTA")["anions"] == "C10H14N2O8(2-)*1"

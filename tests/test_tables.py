@@ -16,7 +16,7 @@ DATA = Path(resources.files("ionicity.scorer.data"))
 
 # Row counts as scorer/data/README.md states them (a table that grows must say so there too).
 ROWS = {
-    "ions.csv": 316,
+    "ions.csv": 318,
     "thermochemical_radii.csv": 25,
     "ion_volumes.csv": 23,
     "atomic_volumes.csv": 80,
