@@ -113,6 +113,8 @@ def named_solution(text: str) -> Solution | None:
 # "1 M LiPF6 in EC/DMC", "LiTFSI (1 M) in DME/DOL", "NaCl in water" (common practice)
 _IN_SOLVENT = re.compile(r"^(?P<left>\S.*?)\s+in\s+(?P<solvent>\S.*)$", re.I)
 _MOLAR_BEFORE_SOLVENT = re.compile(rf"^(?P<left>[A-Z(\[]\S*)\s+(?P<c>{_MOLAR.pattern})\s+(?P<solvent>[A-Za-z].*)$")
+# "1M LiPF6 EC:EMC 3:7": the molar amount first, the solute, then the solvent codes (common practice)
+_MOLAR_SOLUTE_SOLVENT = re.compile(rf"^(?P<c>{_MOLAR.pattern})\s+(?P<left>[A-Z(\[]\S*)\s+(?P<solvent>[A-Za-z].*)$")
 # what may stand beside the solvents' codes in a blend's description: ratios, percentages and their bases
 _RATIO_WORD = re.compile(r"^(?:\d+(?:\.\d+)?%?|v|w|wt%?|vol%?|by|volume|weight|mass)$", re.I)
 
@@ -150,6 +152,9 @@ def split_in_solvent(text: str) -> Solution | None:
     >>> s = split_in_solvent("LiPF6 1.0M EC/EMC 3/7")
     >>> s.solute, s.concentration, s.solvent
     ('LiPF6', '1.0 M', 'EC/EMC 3/7')
+    >>> s = split_in_solvent("1M LiPF6 EC:EMC 3:7")
+    >>> s.solute, s.concentration, s.solvent
+    ('LiPF6', '1 M', 'EC:EMC 3:7')
     >>> s = split_in_solvent("[C4mim][BF4] + 0.5 M LiBF4")
     >>> s.solute, s.concentration, s.solvent
     ('LiBF4', '0.5 M', '[C4mim][BF4]')
@@ -173,7 +178,7 @@ def split_in_solvent(text: str) -> Solution | None:
     m = _IN_SOLVENT.match(text.strip())
     if m is None:
         # "LiPF6 1.0M EC/EMC 3/7": a molar amount between the solute and solvent codes, as electrolyte labels write
-        bare = _MOLAR_BEFORE_SOLVENT.match(text.strip())
+        bare = _MOLAR_BEFORE_SOLVENT.match(text.strip()) or _MOLAR_SOLUTE_SOLVENT.match(text.strip())
         if bare is not None and _solvent_words(bare.group("solvent")):
             return Solution(bare.group("left"), _as_written(_MOLAR, _MOLAR.match(bare.group("c"))),
                             bare.group("solvent").strip())

@@ -812,3 +812,11 @@ def test_edta_is_four_protons_and_edetate():
     out = score_formula("EDTA")
     assert out["cations"] == "H(+)*4" and out["anions"] == "C10H12N2O8(4-)*1"
     assert score_formula("Na2EDTA")["anions"] == "C10H14N2O8(2-)*1"
+
+
+def test_an_electrolyte_written_amount_first_without_in():
+    # "1M LiPF6 EC:EMC 3:7", as cell builders write the electrolyte (common practice): a solution of LiPF6 in the
+    # solvent blend; it had been refused as a mixture giving both leading amounts and proportions
+    out = score_formula("1M LiPF6 EC:EMC 3:7")
+    assert out["formula_normalized"] == "LiPF6" and out["status"] != "error"
+    assert "EC:EMC 3:7" in (out["value_notes"] or "") + (out["message"] or "")
