@@ -30,7 +30,7 @@ def audited_row(text: str, plain_row: Callable[[str], tuple], error_row: Callabl
     if solution is not None:
         return solution_row(audited_row(solution.solute, plain_row, error_row, position, parsed_row), solution,
                             position)
-    if polymer_name(text):
+    if _NO_FORMULA_NAME.fullmatch(text) is not None:
         return error_row(material_message(text))  # "PTFE" is no PtFe, "casein" no CaInSe
     slip = find_slip(text)
     if slip is not None and _formula_then_words(text):
@@ -152,6 +152,8 @@ def material_message(text: str) -> str | None:
     key = " ".join(text.lower().split())
     # a pore size or grade after a material's name ("Molecular sieves 4A", "Silica gel 60") names the same material
     bare = re.sub(r"\s+\d+\s*(?:a|å|angstrom|x)?$", "", key)
+    if bare in _CODES and not text.strip()[:len(bare)].isupper():
+        return None  # an abbreviation counts in capitals only: "pbs" may be PbS typed in lower case
     medium = _MEDIA.get(key) or _MEDIA.get(bare)
     if medium is not None:
         return (f"{text.strip()!r} is {medium}, of no one formula: score its components as a mixture or one by one"
@@ -169,17 +171,29 @@ def material_message(text: str) -> str | None:
             " (e.g. Cu-37Zn for a brass, Fe-18Cr-8Ni for a stainless steel)")
 
 
-def polymer_name(text: str) -> bool:
-    """Whether ``text`` names a polymer or natural macromolecule of :data:`_POLYMERS` (a pore size or grade number
-    after it allowed: "PEG 400"), or a laboratory medium of :data:`_MEDIA` ("PBS", "PBS 10x"): names whose letters
-    read as element symbols, checked before any other reading.
+def _keys_pattern(keys) -> str:
+    return "|".join(re.escape(k).replace("\\ ", r"\s+") for k in sorted(keys, key=len, reverse=True))
 
-    >>> polymer_name("PTFE"), polymer_name("PEG 400"), polymer_name("PBS 10x"), polymer_name("NaCl")
-    (True, True, True, False)
+
+# the abbreviations in capitals as written (PbS is lead sulfide, not PBS), the names in any case; a grade number
+# after them ("PEG 400", "PBS 10x"); one regular-expression call per cell
+_CODES = {k for k in (*_POLYMERS, *_MEDIA) if k.isalpha() and len(k) <= 5 and k not in ("agar", "nylon")}
+_NO_FORMULA_NAME = re.compile(
+    r"\s*(?:" + _keys_pattern(k.upper() for k in _CODES) + "|(?i:"
+    + _keys_pattern(k for k in (*_POLYMERS, *_MEDIA) if k not in _CODES) + r"))(?:\s+\d+x?)?\s*")
+
+
+def polymer_name(text: str) -> bool:
+    """Whether ``text`` names a polymer or natural macromolecule of :data:`_POLYMERS` (a grade number after it
+    allowed: "PEG 400"), or a laboratory medium of :data:`_MEDIA` ("PBS", "PBS 10x"): names whose letters read
+    as element symbols, checked before any other reading. Abbreviations count in capitals only.
+
+    >>> polymer_name("PTFE"), polymer_name("PEG 400"), polymer_name("PBS 10x"), polymer_name("Casein")
+    (True, True, True, True)
+    >>> polymer_name("PbS"), polymer_name("NaCl")
+    (False, False)
     """
-    key = " ".join(text.lower().split())
-    bare = re.sub(r"\s+\d+x?$", "", key)
-    return key in _POLYMERS or bare in _POLYMERS or key in _MEDIA or bare in _MEDIA
+    return _NO_FORMULA_NAME.fullmatch(text) is not None
 
 
 # a whole cell of three to six capitals, which reads as one-letter element symbols: the shape of a laboratory

@@ -51,7 +51,7 @@ from ionicity.scorer.elements import element_symbols, get_element, is_element_sy
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
-from ionicity.scorer.ion_penalties import _ion_penalty, _monatomic_options
+from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
     "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
@@ -216,17 +216,22 @@ def _penalty_of(text: str, dec) -> float:
     return penalty
 
 
+# stock salts of a state mendeleev's main oxidation states leave out (CuCl, CuI, CuCN, CuSCN; AuCl; MnF3, Mn2O3:
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 28 and 24; from memory); with the main
+# states alone, 'cuscn' was re-cased into CNScU (a U-Sc carbonitride), which tied with CuSCN
+_STOCK_STATES = {"Cu": frozenset({1}), "Au": frozenset({1}), "Mn": frozenset({3})}
+
+
 @per_input(maxsize=4096)
 def _usual_states(symbol: str) -> frozenset:
-    """The oxidation states of ``symbol`` no reading is suspected for: mendeleev's main ones and those the
-    solver prices at no penalty (Cu(+1) in CuSCN, CuI and CuCN; Mn(+3) in MnF3; :mod:`scorer.ion_penalties`).
-    With mendeleev's alone, 'cuscn' was re-cased into a U-Sc carbonitride rather than CuSCN, which tied.
+    """The oxidation states of ``symbol`` no reading is suspected for: mendeleev's main ones and
+    :data:`_STOCK_STATES`. (The solver's zero-penalty states are too many here: Ti(+3) let 'TINO3' read as
+    titanium oxide nitrite rather than TlNO3.)
 
-    >>> sorted(_usual_states("Cu")), 1 in _usual_states("Ni")
+    >>> sorted(_usual_states("Cu")), 3 in _usual_states("Ti")
     ([1, 2], False)
     """
-    free = {state for kind, state, penalty in _monatomic_options(symbol, 1.0) if kind == "single" and penalty == 0.0}
-    return frozenset(get_element(symbol).oxidation_states_main) | free
+    return frozenset(get_element(symbol).oxidation_states_main) | _STOCK_STATES.get(symbol, frozenset())
 
 
 # the odd-electron molecules a shelf holds (common practice)

@@ -280,7 +280,7 @@ def test_name_columns_in_a_scored_file_and_none_without_a_name_column(tmp_path):
     assert "name_formula" not in names and "name_check" not in names and "systematic_name" in names
 
 
-@pytest.mark.parametrize("text", ["mineral oil", "polyvinyl alcohol", "Sealant solution"])  # bleach is a named solution now
+@pytest.mark.parametrize("text", ["machine oil", "polyvinyl alcohol", "Sealant solution"])  # mineral oil: a material  # bleach is a named solution now
 def test_an_unknown_name_says_names_are_read_and_to_write_the_formula(text):
     # materials of no one formula and names the name reader does not hold: the row says what happened, not
     # only "unexpected 'm'" (common practice); acetone and sodium dodecyl sulfate are read since the registry's
@@ -326,10 +326,10 @@ def test_buffer_codes_read_as_their_molecules(text, cas):
     expected = identifiers.search_chemical(cas).formula
     assert hill_formula(dict(parse_formula(row["formula_normalized"]).counts)) == hill_formula(
         dict(parse_formula(expected).counts))
-    # one molecule: no cation but an acid's proton; EDTA, whose dihydrogen anion the ion library holds (the anion
-    # of disodium EDTA), gives up the two protons of its carboxyl groups that go first (pKa 2.0 and 2.7; Martell &
-    # Smith, Critical Stability Constants, vol. 1, 1974; from memory)
-    protons = "H(+)*2" if text == "EDTA" else "H(+)*1"
+    # one molecule: no cation but an acid's protons; EDTA reads as its four carboxyl protons with edetate, the
+    # library's convention for a polyprotic acid (H3PO4 is 3 H+ with phosphate), since edetate joined the library
+    # (5 December 2026; before, as two protons with the dihydrogen edetate of disodium EDTA)
+    protons = "H(+)*4" if text == "EDTA" else "H(+)*1"
     assert row["substance_class"] in ("covalent_molecular", "acid") and (row["cations"] or protons) == protons
 
 

@@ -19,9 +19,8 @@ from ionicity.scorer.record import score_formula
     ("KHC8H4O4", "K(+)*1", "C8H5O4(-)*1"),             # potassium hydrogen phthalate (KHP)
     ("C6H7KO2", "K(+)*1", "C6H7O2(-)*1"),              # potassium sorbate
     ("C4H9OK", "K(+)*1", "C4H9O(-)*1"),                # potassium tert-butoxide
-    ("C10H12N2Na4O8", "Na(+)*4", "C10H12N2O8(4-)*1"),  # tetrasodium EDTA
-    # (disodium dihydrogen EDTA's anion is a row of the ion library since 5 December 2026:
-    # tests/test_stockroom_labels.py reads it there)
+    # (the edetates, the anions of disodium dihydrogen EDTA and tetrasodium EDTA, are rows of the ion library since
+    # 5 December 2026: tests/test_stockroom_labels.py reads them there)
 ])
 def test_salts_of_organic_acids_read_as_metal_and_organic_anion(formula, cations, anions):
     out = score_formula(formula)
