@@ -151,6 +151,9 @@ def material_message(text: str) -> str | None:
     """The error of a cell naming a material of no one formula (:data:`_MATERIALS`); None for any other text."""
     key = " ".join(text.lower().split())
     # a pore size or grade after a material's name ("Molecular sieves 4A", "Silica gel 60") names the same material
+    glass = _GLASSES.get(text.strip())
+    if glass is not None:
+        return f"{text.strip()!r} is {glass}, of no one formula: write the composition of your film as a formula"
     bare = re.sub(r"\s+\d+\s*(?:a|å|angstrom|x)?$", "", key)
     if bare in _CODES and not text.strip()[:len(bare)].isupper():
         return None  # an abbreviation counts in capitals only: "pbs" may be PbS typed in lower case
@@ -178,8 +181,12 @@ def _keys_pattern(keys) -> str:
 # the abbreviations in capitals as written (PbS is lead sulfide, not PBS), the names in any case; a grade number
 # after them ("PEG 400", "PBS 10x"); one regular-expression call per cell
 _CODES = {k for k in (*_POLYMERS, *_MEDIA) if k.isalpha() and len(k) <= 5 and k not in ("agar", "nylon")}
+# glasses of varying composition named by an abbreviation in mixed case, matched as written
+_GLASSES = {"LiPON": "lithium phosphorus oxynitride, an amorphous thin-film electrolyte of varying composition"
+                     " (about Li2.9PO3.3N0.46; common practice)"}
+GLASS_CODES = frozenset(_GLASSES)
 _NO_FORMULA_NAME = re.compile(
-    r"\s*(?:" + _keys_pattern(k.upper() for k in _CODES) + "|(?i:"
+    r"\s*(?:" + _keys_pattern(_GLASSES) + "|" + _keys_pattern(k.upper() for k in _CODES) + "|(?i:"
     + _keys_pattern(k for k in (*_POLYMERS, *_MEDIA) if k not in _CODES) + r"))(?:\s+\d+x?)?\s*")
 
 

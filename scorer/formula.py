@@ -1065,7 +1065,7 @@ def _solvent_codes() -> dict[str, tuple[str, str]]:
 
 
 # a materials code of scorer/data/material_codes.csv: letters, a leading digit (8YSZ) or up to three after (NMC811)
-_MATERIAL_CODE = re.compile(r"\s*\d?[A-Za-z]{2,6}\d{0,3}\s*")
+_MATERIAL_CODE = re.compile(r"\s*\d?[A-Za-z]{2,7}\d{0,3}\s*")
 _MATERIAL_CODES: dict[str, tuple[str, str, str]] = {}
 
 

@@ -7,7 +7,7 @@ import re
 
 from ionicity.scorer.applicability import family_decided
 from ionicity.scorer.audit_rows import (
-    CAPITALS_CODE, audited_row, code_like_row, material_message, polymer_name, with_count_suggestion,
+    CAPITALS_CODE, GLASS_CODES, audited_row, code_like_row, material_message, polymer_name, with_count_suggestion,
 )
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.cas import cas_check_digit_valid, registry_by_cas, trailing_cas, whole_cas
@@ -448,8 +448,8 @@ def _score_text(text: str) -> tuple:
     comp = ordinary_formula(text)
     if comp is None:
         return _read_row(text)
-    if CAPITALS_CODE.fullmatch(text) and polymer_name(text):
-        return _error_row(material_message(text))  # "PVC", "PTFE", "PBS": a polymer or a medium, no formula
+    if (text in GLASS_CODES or CAPITALS_CODE.fullmatch(text)) and polymer_name(text):
+        return _error_row(material_message(text))  # "PVC", "PTFE", "PBS", "LiPON": a polymer, medium or glass
     row = _parsed_row(comp)
     if CAPITALS_CODE.fullmatch(text):
         # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)

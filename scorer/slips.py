@@ -565,8 +565,11 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # ("nacl", "naoh", "kscn", "naclo") or counted; a capitalised word of six letters or more likewise ("Unknown",
     # "Buffer", "Solution": they were re-cased into UNKNOWN, BUFFEr, SOLuTiON); a capitalised formula that lost its
     # case is short or counted ("Nacl", "Kscn")
-    word = letters == stripped and len(letters) >= 6 and (letters.islower() or letters[0].isupper()
-                                                          and letters[1:].islower())
+    # and seven capitals or more without a digit are an acronym ("NASICON", "LISICON" had been re-cased into
+    # CAsIN2O and the like): a formula typed in capitals is short or counted ("NACL", "KMNO4")
+    word = letters == stripped and (len(letters) >= 6 and (letters.islower() or letters[0].isupper()
+                                                           and letters[1:].islower())
+                                    or len(letters) >= 7 and letters.isupper())
     all_lower = letters.islower() and not word
     # as written an element no shelf holds a compound of (Nh3 nihonium, No nobelium: NH3, NO typed with a lower-case
     # letter), or one metal with a count no substance has (Co2, Cs2: CO2, CS2): evidence of a lost case

@@ -820,3 +820,20 @@ def test_an_electrolyte_written_amount_first_without_in():
     out = score_formula("1M LiPF6 EC:EMC 3:7")
     assert out["formula_normalized"] == "LiPF6" and out["status"] != "error"
     assert "EC:EMC 3:7" in (out["value_notes"] or "") + (out["message"] or "")
+
+
+@pytest.mark.parametrize("code, formula", [("NASICON", "Na3Zr2Si2PO12"), ("BSCF", "Ba0.5Sr0.5Co0.8Fe0.2O3"),
+                                           ("LGPS", "Li10GeP2S12"), ("NVP", "Na3V2P3O12")])
+def test_more_materials_codes(code, formula):
+    # compositions as the fields write them (common practice); NASICON had been re-cased into CAsIN2O and BSCF
+    # into CBFS, both "typing slips"
+    from ionicity.scorer.formula import parse_formula
+
+    out = score_formula(code)
+    assert out["status"] == "warning" and "materials code" in out["message"]
+    assert parse_formula(out["formula_normalized"]).as_dict() == pytest.approx(parse_formula(formula).as_dict())
+
+
+def test_an_amorphous_film_is_no_formula():
+    out = score_formula("LiPON")
+    assert out["status"] == "error" and "varying composition" in out["message"]

@@ -41,7 +41,7 @@ ROWS = {
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 72,
-    "material_codes.csv": 39,
+    "material_codes.csv": 44,
     "trivial_names.csv": 241,
     "solution_names.csv": 20,
     "ligands.csv": 30,
