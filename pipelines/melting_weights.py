@@ -418,6 +418,23 @@ ORGANIC_CONSTANT_GRIDS = {"organic_rigid_atoms_per_unsaturation": (0.75, 1.0, 1.
 ISOMER_SPREAD_LIMIT = 1.5
 
 
+def _median_crc_rows(path, spread_limit: float):
+    """(split, formula, composition, median K, isomers) of a set file of CAS numbers (``formula``, ``cas``,
+    ``set``): melting points read at run time (``chemicals.phase_change.Tm(cas, method="CRC_ORG")``), one row per
+    formula, the median over its CAS numbers; a formula whose isomers melt more than ``spread_limit`` apart
+    (max / min) is dropped."""
+    from chemicals.phase_change import Tm  # melting extra
+
+    values: dict[tuple[str, str], list[float]] = {}
+    with open(path, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"], method="CRC_ORG")
+            if value is not None and value > 0:
+                values.setdefault((row["set"], row["formula"]), []).append(float(value))
+    return [(split, formula, parse_formula(formula).counts, float(np.median(found)), len(found))
+            for (split, formula), found in sorted(values.items()) if max(found) / min(found) <= spread_limit]
+
+
 def organic_molecule_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
     """(split, formula, composition, median K, isomers) of datasets/melting/organic_molecules.csv.
 
@@ -426,20 +443,7 @@ def organic_molecule_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
     (isomers); a formula whose isomers melt more than ``spread_limit`` apart (max / min) is
     dropped, as no reading of the formula can place it. Both halves alike.
     """
-    from chemicals.phase_change import Tm  # melting extra
-
-    values: dict[tuple[str, str], list[float]] = {}
-    with open(ORGANIC_MOLECULE_SET, newline="", encoding="utf-8") as handle:
-        for row in csv.DictReader(handle):
-            value = Tm(row["cas"], method="CRC_ORG")
-            if value is not None and value > 0:
-                values.setdefault((row["set"], row["formula"]), []).append(float(value))
-    out = []
-    for (split, formula), found in sorted(values.items()):
-        if max(found) / min(found) > spread_limit:
-            continue
-        out.append((split, formula, parse_formula(formula).counts, float(np.median(found)), len(found)))
-    return out
+    return _median_crc_rows(ORGANIC_MOLECULE_SET, spread_limit)
 
 
 def _organic_design(rows, weights):
@@ -525,16 +529,7 @@ def zwitterion_rows():
     """(split, formula, composition, median K, isomers) of datasets/melting/zwitterions.csv, as
     :func:`organic_molecule_rows` reads its set (``Tm(cas, method="CRC_ORG")`` at run time, the median over a
     formula's CAS numbers, a formula whose isomers melt more than ``ISOMER_SPREAD_LIMIT`` apart dropped)."""
-    from chemicals.phase_change import Tm  # melting extra
-
-    values: dict[tuple[str, str], list[float]] = {}
-    with open(ZWITTERION_SET, newline="", encoding="utf-8") as handle:
-        for row in csv.DictReader(handle):
-            value = Tm(row["cas"], method="CRC_ORG")
-            if value is not None and value > 0:
-                values.setdefault((row["set"], row["formula"]), []).append(float(value))
-    return [(split, formula, parse_formula(formula).counts, float(np.median(found)), len(found))
-            for (split, formula), found in sorted(values.items()) if max(found) / min(found) <= ISOMER_SPREAD_LIMIT]
+    return _median_crc_rows(ZWITTERION_SET, ISOMER_SPREAD_LIMIT)
 
 
 def _zwitterion_K(counts, weights, zwitterion=True) -> float:

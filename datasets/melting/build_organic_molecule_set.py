@@ -24,11 +24,10 @@ file differs from a rebuild.
 """
 from __future__ import annotations
 
-import os
 import re
 from pathlib import Path
 
-from set_file import csv_text, write_or_check  # this folder's shared writer (see set_file.py)
+from set_file import crc_organic_structures, csv_text, hill_counts, write_or_check  # this folder's shared helpers
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "organic_molecules.csv"
@@ -39,37 +38,17 @@ MAX_HEAVY_ATOMS = 60
 _CHARGED = re.compile(r"[+-]\d*\]")
 
 
-def _counts(hill: str) -> dict[str, float]:
-    counts: dict[str, float] = {}
-    for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", hill):
-        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
-    return counts
-
-
 def build() -> str:
-    import chemicals.identifiers as ident
-    import chemicals.phase_change as pc
     from ionicity.pipelines.melting_weights import open_set_half
     from ionicity.scorer.melting_organic import is_organic_molecule
     from ionicity.scorer.record import score_formula
 
-    pc.Tm("7732-18-5")  # loads the tables
-    crc = pc.Tm_sources["CRC_ORG"]
-    crc = crc[crc["Tm"].notna()]
-    wanted = set(crc.index)
-    folder = Path(os.path.dirname(ident.__file__)) / "Identifiers"
-    found: dict[str, tuple[str, str]] = {}
-    for name in ("chemical identifiers pubchem large.tsv", "chemical identifiers pubchem small.tsv"):
-        with open(folder / name, encoding="utf-8") as handle:
-            for line in handle:
-                f = line.split("\t", 6)
-                if len(f) > 5 and f[1] in wanted and f[1] not in found:
-                    found[f[1]] = (f[2], f[4])
+    crc, found = crc_organic_structures()
     rows = []
     for cas, (hill, smiles) in found.items():
         if "." in smiles or _CHARGED.search(smiles) or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
             continue
-        counts = _counts(hill)
+        counts = hill_counts(hill)
         if not is_organic_molecule(counts) or sum(n for s, n in counts.items() if s != "H") > MAX_HEAVY_ATOMS:
             continue
         record = score_formula(hill)

@@ -26,3 +26,37 @@ def write_or_check(text: str, path: Path, argv=None) -> None:
         sys.exit(0 if path.exists() and path.read_text(encoding="utf-8") == text else 1)
     path.write_text(text, encoding="utf-8")
     print(f"{text.count(chr(10)) - 1} rows written to {path}", file=sys.stderr)
+
+
+def hill_counts(hill: str) -> dict[str, float]:
+    """Element counts of a Hill formula as the identifier tables write it (``C2H6O``)."""
+    import re
+
+    counts: dict[str, float] = {}
+    for symbol, n in re.findall(r"([A-Z][a-z]?)(\d*)", hill):
+        counts[symbol] = counts.get(symbol, 0.0) + float(n or 1)
+    return counts
+
+
+def crc_organic_structures():
+    """(the CRC Handbook organic table of the registry package ``chemicals`` with a melting point, {CAS: (Hill
+    formula, SMILES)} from the package's PubChem identifier tables, large then small): what the organic set
+    builders read."""
+    import os
+
+    import chemicals.identifiers as ident
+    import chemicals.phase_change as pc
+
+    pc.Tm("7732-18-5")  # loads the tables
+    crc = pc.Tm_sources["CRC_ORG"]
+    crc = crc[crc["Tm"].notna()]
+    wanted = set(crc.index)
+    folder = Path(os.path.dirname(ident.__file__)) / "Identifiers"
+    found: dict[str, tuple[str, str]] = {}
+    for name in ("chemical identifiers pubchem large.tsv", "chemical identifiers pubchem small.tsv"):
+        with open(folder / name, encoding="utf-8") as handle:
+            for line in handle:
+                f = line.split("\t", 6)
+                if len(f) > 5 and f[1] in wanted and f[1] not in found:
+                    found[f[1]] = (f[2], f[4])
+    return crc, found
