@@ -448,10 +448,11 @@ def _score_text(text: str) -> tuple:
     comp = ordinary_formula(text)
     if comp is None:
         return _read_row(text)
-    if (text in GLASS_CODES or CAPITALS_CODE.fullmatch(text)) and polymer_name(text):
+    capitals = CAPITALS_CODE.fullmatch(text)
+    if (capitals or text in GLASS_CODES) and polymer_name(text):
         return _error_row(material_message(text))  # "PVC", "PTFE", "PBS", "LiPON": a polymer, medium or glass
     row = _parsed_row(comp)
-    if CAPITALS_CODE.fullmatch(text):
+    if capitals:
         # capitals alone, the shape of an abbreviation as much as of a formula (PBS, SDS, KCN)
         row = code_like_row(row, text, _layout()[1], _error_row)
     return _counted(row, text)
