@@ -28,6 +28,7 @@ __all__ = [
     "target_flags",
     "name_agrees_with_ions",
     "screen_salt",
+    "melts_as_hydroxide",
     "anion_family",
     "cation_element",
 ]
@@ -258,7 +259,7 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
     >>> screen_salt(decompose(parse_formula("CuSO4.5H2O")), "copper sulfate pentahydrate")
     (False, 'hydrate')
     """
-    if dec.substance_class not in ("ionic_salt", "ionic_liquid_pair"):
+    if dec.substance_class not in ("ionic_salt", "ionic_liquid_pair") and not melts_as_hydroxide(dec):
         return False, f"not a salt ({dec.substance_class})"
     if dec.hydrate_water or "hydrat" in (name or "").lower():
         return False, "hydrate"
@@ -294,6 +295,28 @@ def screen_salt(dec, name: str) -> tuple[bool, str]:
     if not agrees:
         return False, f"name and formula disagree: {why}"
     return True, ""
+
+
+# metals whose hydroxides melt as salts: those of the alkali metals and of strontium and barium melt without
+# losing water (LiOH 744 K, NaOH 596 K, KOH 679 K, Ba(OH)2 681 K); the others (Mg, Ca, Be, Al and the
+# transition metals) give off water and leave the oxide first, so their registry "melting points" are
+# decomposition temperatures (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 4.3.6 and
+# 5.3.5; from memory)
+_MELTING_HYDROXIDE_CATIONS = frozenset({"Li", "Na", "K", "Rb", "Cs", "Sr", "Ba"})
+
+
+def melts_as_hydroxide(dec) -> bool:
+    """A metal hydroxide that melts as a salt (:data:`_MELTING_HYDROXIDE_CATIONS`): a ``base`` reading of
+    those metals' lone cations with hydroxide alone.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [melts_as_hydroxide(decompose(parse_formula(f))) for f in ("NaOH", "Ba(OH)2", "Mg(OH)2", "NH3")]
+    [True, True, False, False]
+    """
+    return (dec.substance_class == "base" and bool(dec.cations) and bool(dec.anions)
+            and all(t.ion.monatomic and t.ion.element in _MELTING_HYDROXIDE_CATIONS for t in dec.cations)
+            and all(t.ion.ion_id == "OH(-)" for t in dec.anions))
 
 
 # metals whose +1 salts are real though mendeleev lists +1 as an extra state

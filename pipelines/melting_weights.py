@@ -86,6 +86,7 @@ SALT_FEATURES = (
     ("anion_symmetry", lambda t: t.anion_symmetry_log10),
     ("hydride_anion", lambda t: -t.hydride_fraction),
     ("pseudo_noble_gas_hard_anion", lambda t: float(t.pseudo_noble_gas) * t.hard_anion_fraction),
+    ("rotor_anion", lambda t: t.rotor_anion_fraction),
 )
 # second stage: corrections fitted on the calibration residuals of the index above, its weights held
 RESIDUAL_FEATURES = (
@@ -327,16 +328,7 @@ def fit_one_organic_anion_weight(rows) -> float:
 
 
 def _index_with(terms, weights) -> float:
-    return melting.melting_trend_index(
-        terms.lattice_energy_per_ion_kJ_mol, terms.contact_chi_pauling, terms.contact_index, terms.pseudo_noble_gas,
-        terms.polyatomic_anion_fraction, terms.ions_per_formula_unit, terms.flexibility_entropy_J_mol_K,
-        terms.chain_packing_entropy_J_mol_K, terms.delocalised_fraction, terms.trivalent_anion_fraction,
-        terms.cation_charge_above_3, terms.framework_oxoanion_fraction, terms.protic_fraction,
-        terms.hydrogen_bonded_anion_fraction, terms.anion_symmetry_log10, terms.hydride_fraction,
-        terms.hard_anion_fraction, terms.delta_chi_pauling, terms.crystal_field_share,
-        terms.saline_nitride_fraction, terms.soft_pseudohalide_fraction, terms.coinage_cation_fraction,
-        terms.heavy_halate_fraction, terms.organic_anion_fraction, terms.polarising_organic_anion_fraction,
-        terms.ammonium_cation_fraction, weights=weights)
+    return terms.index(weights)
 
 
 def fit_organic_weights(rows) -> dict[str, float]:

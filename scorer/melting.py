@@ -107,6 +107,7 @@ from ionicity.scorer.melting_anions import (
     coinage_cation_fraction,
     ammonium_type_cation_fraction,
     heavy_halate_fraction,
+    rotor_anion_fraction,
     coordinating_organic_anion_fraction,
     polarising_organic_anion_fraction,
     DECOMPOSING_ANIONS,
@@ -187,6 +188,7 @@ class MeltingTerms:
     organic_anion_fraction: float = 0.0
     polarising_organic_anion_fraction: float = 0.0
     ammonium_cation_fraction: float = 0.0
+    rotor_anion_fraction: float = 0.0
     notes: tuple[str, ...] = ()
 
     @property
@@ -203,7 +205,8 @@ class MeltingTerms:
             self.hydride_fraction, self.hard_anion_fraction, self.delta_chi_pauling,
             self.crystal_field_share, self.saline_nitride_fraction, self.soft_pseudohalide_fraction,
             self.coinage_cation_fraction, self.heavy_halate_fraction, self.organic_anion_fraction,
-            self.polarising_organic_anion_fraction, self.ammonium_cation_fraction, weights=weights,
+            self.polarising_organic_anion_fraction, self.ammonium_cation_fraction, self.rotor_anion_fraction,
+            weights=weights,
         )
 
 
@@ -353,6 +356,7 @@ def _gather_terms(
         organic_anion_fraction=coordinating_organic_anion_fraction(dec.cations, dec.anions),
         polarising_organic_anion_fraction=polarising_organic_anion_fraction(dec.cations, dec.anions),
         ammonium_cation_fraction=ammonium_type_cation_fraction(dec.cations, dec.anions),
+        rotor_anion_fraction=rotor_anion_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
 
@@ -493,6 +497,8 @@ def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
         f" (coordination polymers): +{w['polarising_organic_anion']} * {terms.polarising_organic_anion_fraction:.2f}",
         f"  NH4(+) (N-H hydrogen bonds to inorganic anions): +{w['ammonium_hydrogen_bonds']}"
         f" * its share of the cations times the inorganic anions' share {terms.ammonium_cation_fraction:.2f}",
+        f"  OH(-), HS(-), CN(-) beside s-block cations (they turn in the solid; small entropy of fusion):"
+        f" +{w['rotor_anion']} * their share of the anions {terms.rotor_anion_fraction:.2f}",
     )
 
 

@@ -28,6 +28,8 @@ __all__ = [
     "AMMONIUM_TYPE_CATIONS",
     "ammonium_type_cation_fraction",
     "heavy_halate_fraction",
+    "ROTOR_ANIONS",
+    "rotor_anion_fraction",
     "coordinating_organic_anion_fraction",
     "polarising_organic_anion_fraction",
     "DECOMPOSING_ANIONS",
@@ -289,6 +291,42 @@ def heavy_halate_fraction(anions) -> float:
     if not total:
         return 0.0
     return float(sum(t.count for t in anions if t.ion.ion_id in HEAVY_HALATES) / total)
+
+
+# heteronuclear diatomic anions that turn freely in the solid below the melting point (rotator phases)
+ROTOR_ANIONS = frozenset({"OH(-)", "HS(-)", "CN(-)"})
+
+
+def rotor_anion_fraction(cations, anions) -> float:
+    """The share of the anions that are OH(-), HS(-) or CN(-) (:data:`ROTOR_ANIONS`) in a salt of s-block
+    cations only (0 beside any other cation).
+
+    ``cations``, ``anions``: the ``IonTerm`` tuples of a decomposition. These
+    small diatomic anions are nearly spherical; beside the s-block cations
+    they turn freely in a cubic high-temperature solid phase (NaCN and KCN
+    from about 290 and 170 K, NaOH and KOH from about 570 and 520 K, NaSH),
+    so much of the entropy a polyatomic anion gains at melting is gained in
+    the solid, the entropy of fusion is small and the salt melts higher than
+    a polyatomic anion's salt of the same lattice energy (Timmermans, J.
+    Phys. Chem. Solids 1961, 18, 1; Parsonage & Staveley, Disorder in
+    Crystals, 1978, ch. 7; from memory). Beside Zn(2+), Cd(2+), Cu(+) or
+    Ag(+) cyanide bridges the cations instead
+    (:func:`soft_cation_pseudohalide_fraction`), and transition-metal
+    hydroxides give off water before they melt, so only salts whose every
+    cation is a lone s-block cation count.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> def share(f):
+    ...     d = decompose(parse_formula(f))
+    ...     return rotor_anion_fraction(d.cations, d.anions)
+    >>> [share(f) for f in ("NaOH", "KCN", "Ba(OH)2", "Zn(CN)2", "NaNO3", "K2Cd(CN)4")]
+    [1.0, 1.0, 1.0, 0.0, 0.0, 0.0]
+    """
+    total = sum(t.count for t in anions)
+    if not total or not cations or not all(is_saline_cation(t.ion) for t in cations):
+        return 0.0
+    return float(sum(t.count for t in anions if t.ion.ion_id in ROTOR_ANIONS) / total)
 
 
 def coordinating_organic_anion_fraction(cations, anions) -> float:

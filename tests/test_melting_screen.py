@@ -148,3 +148,18 @@ def test_cation_family_of_compounds_read_without_ions(formula, family):
     if family != "none":
         assert melting_screen.cation_family(_dec(formula)) == melting_screen.cation_element(
             formal_salt_reading(_dec(formula)))
+
+
+@pytest.mark.parametrize("formula, name, kept", [
+    # the hydroxides of the alkali metals, Sr and Ba melt as salts (NaOH 596 K, KOH 679 K, Ba(OH)2 681 K,
+    # CRC Handbook via chemicals); Mg(OH)2 and Ca(OH)2 give off water and leave the oxide first, so their
+    # registry values (623 K, 853 K) are decomposition temperatures (Greenwood & Earnshaw, Chemistry of the
+    # Elements, 2nd ed., 1997, ch. 5; from memory)
+    ("NaOH", "sodium hydroxide", True),
+    ("Ba(OH)2", "barium hydroxide", True),
+    ("Mg(OH)2", "magnesium hydroxide", False),
+    ("Ca(OH)2", "calcium hydroxide", False),
+    ("NH3", "ammonia", False),
+])
+def test_screen_keeps_the_hydroxides_that_melt_as_salts(formula, name, kept):
+    assert melting_screen.screen_salt(_dec(formula), name)[0] is kept

@@ -66,14 +66,27 @@ def test_saline_nitride_share_counts_nitride_beside_s_block_cations_only():
         assert melting.melting_terms(dec).saline_nitride_fraction == pytest.approx(share)
 
 
-def test_calibration_nickel_oxide_is_refractory_by_the_crystal_field_term():
-    # NiO 2230 K (CRC via chemicals), calibration: d8 Ni2+ has the largest high-spin CFSE (1.2 Delta_o);
-    # without the term the trend stops about 10 K under the refractory band
+def test_calibration_nickel_oxide_is_refractory_with_the_crystal_field_term():
+    # NiO 2230 K (CRC via chemicals), calibration: d8 Ni2+ has the largest high-spin CFSE (1.2 Delta_o)
     record = score_formula("NiO")
     assert _tm("1313-99-1") >= 1773.15 and record["melting_class"] == "refractory"
-    without = melting.trend_temperature_K(
-        record["mp_trend_index"] - melting.TREND_WEIGHTS["crystal_field"] * 0.6)
-    assert without < 1773.15
+
+
+def test_calibration_iron_sulfide_is_not_pushed_into_the_refractory_band():
+    # FeS 1461 K (CRC via chemicals), calibration half: d6 Fe2+ (0.4 Delta_o) sits about 30 K under the
+    # refractory band; half as much again of the crystal-field weight takes it over
+    record = score_formula("FeS")
+    assert _tm("1317-37-9") < 1773.15 and record["melting_class"] == "molten_salt"
+
+
+def test_validation_nickel_titanate_is_refractory_by_the_crystal_field_term():
+    # NiTiO3 1838 K (CAS 12653-76-8, the registry's Common Chemistry value via chemicals; the validation half
+    # of the open set, never fitted on): refractory, and with half the crystal-field weight no longer
+    record = score_formula("NiTiO3")
+    assert record["melting_class"] == "refractory"
+    terms = melting.melting_terms(_dec("NiTiO3"))
+    half = terms.index({"crystal_field": melting.TREND_WEIGHTS["crystal_field"] * 0.5})
+    assert melting.trend_temperature_K(half) < 1773.15
 
 
 @pytest.mark.parametrize("formula, cas", [("Li3N", "26134-62-3"), ("Sr3N2", "12033-82-8")])
@@ -111,3 +124,45 @@ def test_calibration_alkali_iodates_are_molten_salts_by_the_heavy_halate_term(fo
 def test_explain_names_the_heavy_halate_term():
     lines = "\n".join(melting.explain(_dec("KIO3")))
     assert "bromate and iodate" in lines and "their share of the anions 1.00" in lines
+
+
+# ------------------------------------- OH(-), HS(-), CN(-) beside s-block cations (rotor_anion)
+
+
+def test_rotor_anion_share_counts_diatomic_anions_beside_s_block_cations_only():
+    from ionicity.scorer.melting_anions import rotor_anion_fraction
+
+    def share(formula):
+        d = _dec(formula)
+        return rotor_anion_fraction(d.cations, d.anions)
+
+    assert [share(f) for f in ("NaOH", "Ba(OH)2", "KCN", "NaSH", "Zn(CN)2", "AgCN", "NH4CN", "NaNO3")] == \
+        [1.0, 1.0, 1.0, 1.0, 0.0, 0.0, 0.0, 0.0]
+
+
+@pytest.mark.parametrize("formula, cas", [("NaOH", "1310-73-2"), ("KOH", "1310-58-3"), ("RbOH", "1310-82-3")])
+def test_alkali_hydroxides_are_molten_salts(formula, cas):
+    # NaOH 596 K, KOH 679 K, RbOH 658 K (CRC Handbook via chemicals; NaOH is in the calibration half of the
+    # open set, KOH in the validation half, RbOH in neither: its sources disagree by more than 20 K). Before
+    # the hydroxides joined the open set and the rotor term the index, all of them came out about 500-515 K,
+    # `low_melting_salt`; with half the rotor weight all three fall back under 573 K
+    assert _tm(cas) > 573.15
+    assert score_formula(formula)["melting_class"] == "molten_salt"
+
+
+def test_validation_hydroxides_and_hydrosulfide_closer_with_the_rotor_term():
+    # Validation half of the open set (never fitted on): KOH 653 K, Ba(OH)2 681 K, KHS 723 K (the open set's
+    # consensus values from chemicals: KOH's two of three sources, the others single); mean |log10 error| of the
+    # index with the term against the same index with the term at zero
+    rows = {"KOH": 653.15, "Ba(OH)2": 681.15, "KHS": 723.15}
+    with_term, without = [], []
+    for formula, measured in rows.items():
+        terms = melting.melting_terms(_dec(formula))
+        with_term.append(abs(terms.index() - math.log10(measured)))
+        without.append(abs(terms.index({"rotor_anion": 0.0}) - math.log10(measured)))
+    assert sum(with_term) < sum(without)
+
+
+def test_explain_names_the_rotor_anion_term():
+    lines = "\n".join(melting.explain(_dec("KCN")))
+    assert "OH(-), HS(-), CN(-) beside s-block cations" in lines and "their share of the anions 1.00" in lines

@@ -32,7 +32,7 @@ FITTED_INORGANIC_WEIGHTS = (
     "intercept", "cohesion_exponent", "contact_chi", "contact_index", "pseudo_noble_gas", "polyatomic_anion",
     "ions_per_formula_unit", "trivalent_anion", "high_charge_cation", "framework_oxoanion",
     "hydrogen_bonded_anion", "cohesion_curvature", "contact_delta_chi", "anion_symmetry", "hydride_anion",
-    "pseudo_noble_gas_hard_anion",
+    "pseudo_noble_gas_hard_anion", "rotor_anion",
 )
 
 
