@@ -11,6 +11,7 @@ from __future__ import annotations
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.caching import once
 from ionicity.scorer.model import Ion
+from ionicity.scorer.onium_groups import onium_shape
 from ionicity.scorer.tables import table
 
 __all__ = ["ONIUM_FAMILIES", "ion_shape", "anion_symmetry_number"]
@@ -47,6 +48,11 @@ def ion_shape(ion: Ion) -> tuple[float, float, bool, str]:
     if ion.ion_id in shapes:
         tau, sigma, deloc, _ = shapes[ion.ion_id]
         return tau, sigma, deloc, "scorer/data/ion_shape.csv"
+    if ion.organic and ion.label.startswith("[("):
+        # an onium cation built from its written groups (scorer.onium_groups): the torsions of those groups
+        shape = onium_shape(ion.label)
+        if shape is not None:
+            return shape[0], shape[1], False, "counted from the written groups (scorer.onium_groups.onium_shape)"
     if ion.organic:
         heavy = sum(n for s, n in ion.composition if s in ("C", "N", "O", "S", "P"))
         return max(0.0, (heavy - 5) * 0.5), 1.0, False, "estimated from the composition (no ion_shape.csv entry)"

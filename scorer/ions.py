@@ -39,7 +39,8 @@ from ionicity.scorer.organic_anions import (
     organic_anion_readings,
     suspect_organic_reading,
 )
-from ionicity.scorer.organic_cations import amine_salt_readings, registry_halide_salt_readings
+from ionicity.scorer.onium_groups import ONIUM_CATION_HINT
+from ionicity.scorer.organic_cations import amine_salt_readings, onium_cation_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import element_symbols, get_element, is_metal
 from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ONIUM_NAME_HINT, ParsedFormula, format_count, hill_formula
 from ionicity.scorer.ion_library import (
@@ -335,7 +336,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         remaining = _subtract(remaining, ion.composition, n)
 
     skeleton = False  # an organic skeleton no library ion holds (_skeleton_without_library_ion): no walk
-    if not hinted and organic_candidate(remaining):
+    onium, onium_notes = onium_cation_readings(remaining, comp.structure_hint, hinted) \
+        if comp.structure_hint.startswith(ONIUM_CATION_HINT) else ([], [])
+    if onium:
+        # organic groups written on N, P, As or S before one anion (scorer.onium_groups): that onium salt
+        readings = onium
+        notes.extend(onium_notes)
+    elif not hinted and organic_candidate(remaining):
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
         readings = _ion_pair_readings(tuple(sorted(remaining.items())))

@@ -49,6 +49,7 @@ import re
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.formula import ONIUM_NAME_HINT, FormulaError, parse_formula
+from ionicity.scorer.onium_groups import onium_formula_from_groups
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
@@ -116,6 +117,8 @@ def _read_name(name, registry: bool = True) -> tuple[str | None, tuple[str, str,
     if formula is None:
         formula = _tetraalkyl_onium_name(name)
     if formula is None:
+        formula = _substituted_onium_name(name)
+    if formula is None:
         entry = registry_entry(name) if registry else None
         if entry is None:
             return None, None
@@ -175,6 +178,57 @@ def _tetraalkyl_onium_name(name: str) -> str | None:
     if salt is None:
         return None
     return f"[{code}]{salt.group(1)}{salt.group('rest')}"
+
+# any other quaternary onium salt named by its groups ("benzyltriethylammonium chloride",
+# "tetraphenylphosphonium bromide", "methyltriphenylphosphonium bromide", "didecyldimethylammonium chloride",
+# "trimethylsulfonium iodide"; IUPAC Recommendations 2013, P-73.1.2, substitutive names of onium cations; from
+# memory): the salt written by its groups (scorer.onium_groups), which the parser reads as that cation
+_ONIUM_WORDS = {"ammonium": "N", "phosphonium": "P", "arsonium": "As", "sulfonium": "S"}
+_SUBSTITUENT_ONIUM_NAME = re.compile(
+    r"^\s*(?P<groups>[a-z0-9(),\s-]+?)(?P<kind>ammonium|phosphonium|arsonium|sulfonium)\s+(?P<anion>\S.*)$", re.I)
+_OTHER_GROUPS = {"benzyl": "C7H7", "phenyl": "C6H5", "allyl": "C3H5", "vinyl": "C2H3", "cyclohexyl": "C6H11",
+                 "hydroxyethyl": "C2H5O", "phenethyl": "C8H9", "phenylethyl": "C8H9"}
+_GROUP_FORMULAS = {**{name: f"C{n if n > 1 else ''}H{2 * n + 1}" for name, n in _ALKYL_CHAINS.items()},
+                   **_OTHER_GROUPS}
+_GROUP_NAMES = "|".join(sorted(_GROUP_FORMULAS, key=len, reverse=True))
+_SUBSTITUENT = re.compile(
+    rf"\(?(?:\d+-)?(?P<alone>{_GROUP_NAMES})\)?|(?P<n>di|tri|tetra|bis|tris|tetrakis)\(?(?:\d+-)?"
+    rf"(?P<group>{_GROUP_NAMES})\)?", re.I)
+_GROUP_MULTIPLIER = {None: 1, "di": 2, "bis": 2, "tri": 3, "tris": 3, "tetra": 4, "tetrakis": 4}
+
+
+def _substituted_onium_name(name: str) -> str | None:
+    """The formula, written by its groups (:func:`scorer.onium_groups.onium_formula_from_groups`), of a
+    quaternary ammonium, phosphonium or arsonium salt or a sulfonium salt named by its groups; None for any
+    other name. Groups: the n-alkyl chains of :data:`_ALKYL_CHAINS` and :data:`_OTHER_GROUPS`; the anion is read
+    as the sodium salt's and must be monovalent.
+
+    >>> _substituted_onium_name("benzyltriethylammonium chloride"), _substituted_onium_name("tetraphenylphosphonium bromide")
+    ('(C7H7)(C2H5)3NCl', '(C6H5)4PBr')
+    >>> _substituted_onium_name("tris(2-hydroxyethyl)methylammonium hydroxide"), _substituted_onium_name("dimethyl sulfate")
+    ('(C2H5O)3(CH3)NOH', None)
+    """
+    m = _SUBSTITUENT_ONIUM_NAME.match(name)
+    if m is None:
+        return None
+    text = re.sub(r"\s", "", m.group("groups")).lower()
+    groups: list[tuple[str, int]] = []
+    position = 0
+    while position < len(text):
+        g = _SUBSTITUENT.match(text, position)
+        if g is None or g.end() == position:
+            return None
+        # a group's own name first: "tetradecyl" is C14, not four decyl groups ("tridecyl" C13)
+        groups.append((_GROUP_FORMULAS[g.group("alone") or g.group("group")], _GROUP_MULTIPLIER[g.group("n")]))
+        position = g.end()
+        while position < len(text) and text[position] in "-)":
+            position += 1
+    sodium_salt, _ = _read_name("sodium " + m.group("anion"), registry=False)
+    salt = _SODIUM_SALT.fullmatch(sodium_salt or "")
+    if salt is None or salt.group(1):
+        return None
+    return onium_formula_from_groups(groups, _ONIUM_WORDS[m.group("kind").lower()], salt.group("rest"))
+
 
 # "aniline hydrochloride", "ethylenediamine dihydrochloride", "pyridine hydrobromide": a base and n HX
 _HYDROHALIDE_NAME = re.compile(r"^(?P<base>.+?)[\s,]+(?P<n>mono|di|tri|tetra)?hydro(?P<x>chloride|bromide|iodide|fluoride)$",

@@ -15,13 +15,18 @@ is ethylammonium or dimethylammonium, C6H16N(+) triethylammonium or hexylammoniu
 """
 from __future__ import annotations
 
+import dataclasses
+
 from ionicity.scorer.grammar import hill_formula
-from ionicity.scorer.ion_library import ions_by_composition, monatomic_ion
+from ionicity.scorer.ion_library import find_alias, ions_by_composition, monatomic_ion
 from ionicity.scorer.ion_penalties import _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
 from ionicity.scorer.model import Ion
+from ionicity.scorer.onium_codes import canonical_quaternary_code, onium_from_code
+from ionicity.scorer.onium_groups import group_counts as parse_group, onium_composition, onium_from_label, onium_label, onium_name
 from ionicity.scorer.organic_anions import _ALLOWED, built_organic_ion
 
-__all__ = ["AMINE_SALT_SOURCE", "amine_salt_readings", "registry_halide_salt_readings"]
+__all__ = ["AMINE_SALT_SOURCE", "WRITTEN_ONIUM_NOTE_MARK", "amine_salt_readings", "registry_halide_salt_readings",
+           "onium_cation_readings"]
 
 AMINE_SALT_SOURCE = (
     "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic base protonated by"
@@ -31,6 +36,16 @@ REGISTRY_SALT_SOURCE = (
     "constructed by rule (scorer/organic_cations.py), not from the ion library: the organic cation of a formula"
     " the registry lists only as a salt, beside its halide ions"
 )
+WRITTEN_ONIUM_SOURCE = (
+    "constructed by rule (scorer/onium_groups.py, scorer/organic_cations.py), not from the ion library: the"
+    " central atom with the organic groups the text writes on it (or the name names), charge +1"
+)
+#: the words of the note of an onium cation built from the groups a text writes (it says how the text was read,
+#: so the typing-slip audit does not count it against the reading; scorer.slips)
+WRITTEN_ONIUM_NOTE_MARK = "cation of the groups the text writes on"
+# the family of an onium cation by its central atom (scorer.ion_shapes.ONIUM_FAMILIES pack their chains)
+_ONIUM_FAMILY = {"N": "ammonium-quaternary", "P": "phosphonium", "As": "organic-cation", "S": "organic-cation"}
+_ONIUM_WORD = {"N": "ammonium", "P": "phosphonium", "As": "arsonium", "S": "sulfonium"}
 # cation families that are the protonated form of a base (a hydrochloride's cation is never quaternary)
 _PROTIC_FAMILIES = frozenset({"ammonium-protic", "amidinium", "ammonium-like", "cholinium"})
 
@@ -113,3 +128,86 @@ def registry_halide_salt_readings(remaining: dict[str, float], name: str) -> tup
     note = (f"{cation.ion_id}: an organic cation beside {n} {halide}(-), read so because the registry lists"
             f" this formula only as a salt ({name}); built by rule (scorer/organic_cations.py)")
     return _halide_salt(cation, halide, n, _PENALTY_UNCOMMON_ION), [note]
+
+
+def onium_cation_readings(remaining: dict[str, float], hint: str, hinted=()) -> tuple[list, list[str]]:
+    """The reading of ``remaining`` as the onium cation a formula writes by its groups (the structure hint of
+    :func:`scorer.onium_groups.onium_hint`) beside one anion of charge -1, and its note; two empty lists where
+    the rest is no library anion of charge -1 (or one halide). ``hinted``: the ions the text writes in
+    brackets (lists of the same ion in its charges, as :func:`scorer.ions._read` keeps them), already taken
+    out of ``remaining``: with them, the cation must be all that is left and they must carry charge -1. A
+    library cation of that composition in an
+    open-chain onium family is taken from the library ([N4444](+) for ``(C4H9)4NBr``); any other is built by
+    rule: ``(C2H5)3(C6H5CH2)NCl`` is benzyltriethylammonium chloride, not 1-octylpyridinium chloride, which
+    has the same composition.
+
+    >>> readings, notes = onium_cation_readings({"C": 24.0, "H": 20.0, "Br": 1.0, "P": 1.0}, "onium_cation:[(C6H5)4P]")
+    >>> sorted(f"{ion.ion_id}*{k:g}" for ion, k in readings[0][1]), readings[0][1][0][0].family
+    (['Br(-)*1', '[(C6H5)4P](+)*1'], 'phosphonium')
+    """
+    read = onium_from_label(hint)
+    if read is None:
+        return [], []
+    centre, groups = read
+    cation_counts = onium_composition(centre, groups)
+    rest = dict(remaining)
+    for symbol, n in cation_counts.items():
+        rest[symbol] = rest.get(symbol, 0.0) - n
+        if rest[symbol] < -1e-9:
+            return [], []
+        if rest[symbol] < 1e-9:
+            del rest[symbol]
+    if hinted:
+        chosen = [next((v for v in variants if v[0].charge < 0), None) for variants in hinted]
+        if rest or None in chosen or abs(sum(ion.charge * n for ion, n in chosen) + 1) > 1e-9:
+            return [], []
+        anions, anion_count = [ion for ion, _ in chosen], [n for _, n in chosen]
+    else:
+        anions, anion_count = _one_anion(rest), [1.0]
+    if not anions:
+        return [], []
+    family = _ONIUM_FAMILY[centre]
+    # the library's ion only where the groups say which: choline's, and the n-alkyl chains of a code of the
+    # trade ([N1,1,10,10] is no code: two chains of ten or more); (C5H11)(CH3)3N(+) has the composition of
+    # [N2222](+) but is not it
+    listed = [ion for ion in ions_by_composition(cation_counts, 1) if ion.family == "cholinium"] \
+        if centre == "N" and groups == (("C2H5O", 1), ("CH3", 3)) else []
+    chains = [_n_alkyl_carbons(g) for g, n in groups for _ in range(n)]
+    if not listed and centre in ("N", "P") and None not in chains:
+        code = canonical_quaternary_code(centre + ",".join(str(c) for c in chains))
+        coded = (find_alias(code) or onium_from_code(code)) if code else None
+        listed = [coded] if coded is not None and coded.charge == 1 else []
+    if listed:
+        cation = listed[0]
+    else:
+        cation = built_organic_ion(onium_label(centre, groups), cation_counts, 1, family,
+                                   f"quaternary {_ONIUM_WORD[centre]} cation", WRITTEN_ONIUM_SOURCE)
+        named = onium_name(centre, groups)
+        if named:
+            # its substitutive name, which the salt's systematic name and the training screen's name check use
+            cation = dataclasses.replace(cation, name=named)
+    notes = [] if listed else [f"{cation.ion_id}: the {_ONIUM_WORD[centre]} {WRITTEN_ONIUM_NOTE_MARK} {centre},"
+                               " which the ion library does not list (built by rule, scorer/onium_groups.py)"]
+    penalty = (0.0 if listed else _PENALTY_UNCOMMON_ION) + 2 * _PENALTY_SPECIES
+    return [(penalty, [(cation, 1.0), *zip(anions, anion_count)])], notes
+
+
+def _one_anion(rest: dict[str, float]) -> list[Ion]:
+    """``rest`` as one anion of charge -1: a library ion or a monatomic one (a halide); [] otherwise."""
+    if not rest:
+        return []
+    found = ions_by_composition(rest, -1)
+    if found:
+        return found[:1]
+    if len(rest) == 1:
+        ((symbol, n),) = rest.items()
+        ion = monatomic_ion(symbol, -1) if abs(n - 1.0) < 1e-9 else None
+        return [ion] if ion is not None else []
+    return []
+
+
+def _n_alkyl_carbons(group: str) -> int | None:
+    """The carbons of a saturated CnH(2n+1) group (read as n-alkyl, as the codes of the trade are), else None."""
+    counts = dict(parse_group(group))
+    c = counts.get("C", 0)
+    return c if set(counts) == {"C", "H"} and counts["H"] == 2 * c + 1 else None

@@ -51,6 +51,7 @@ from ionicity.scorer.elements import element_symbols, get_element, is_element_sy
 from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laboratory_code, parse_formula
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
+from ionicity.scorer.organic_cations import WRITTEN_ONIUM_NOTE_MARK
 from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
@@ -198,7 +199,10 @@ def _penalty_of(text: str, dec) -> float:
         return math.inf
     penalty += _CLASS_PENALTY.get(dec.substance_class, 2.0)
     # every note counts against a reading but those that say what the registry knows of the molecule (a zwitterion)
-    penalty += len([n for n in dec.notes if n != ZWITTERION_NOTE and not n.startswith(ZWITTERION_REGISTRY_NOTE)])
+    # and those that say which onium cation the written groups make ((CH3)3SI, trimethylsulfonium iodide, is no
+    # slip for the trimethylsilyl radical (CH3)3Si)
+    penalty += len([n for n in dec.notes if n != ZWITTERION_NOTE and not n.startswith(ZWITTERION_REGISTRY_NOTE)
+                    and WRITTEN_ONIUM_NOTE_MARK not in n])
     penalty += len(comp.notes)
     for term in dec.cations + dec.anions:
         element = term.ion.element
