@@ -438,17 +438,24 @@ def organic_molecule_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
     return _median_crc_rows(ORGANIC_MOLECULE_SET, spread_limit)
 
 
+def _acid_groups_of(formula: str) -> float:
+    """The acid groups the scorer reads in ``formula`` (:func:`scorer.melting.organic_acid_groups`)."""
+    return melting.organic_acid_groups(decompose(parse_formula(formula)))
+
+
 def _organic_design(rows, weights):
-    """(features, dS_m, measured T_m) of rows: heavy atoms, polarisability, hydrogen-bond sites per row."""
+    """(features, dS_m, measured T_m, fixed dH_m) of rows: heavy atoms, polarisability, hydrogen-bond sites per
+    row, and the acid term of an organic acid as the scorer reads the formula (its weight held)."""
     from ionicity.scorer.melting_organic import organic_terms
 
-    features, entropy, measured = [], [], []
-    for _, _, counts, t, _ in rows:
+    features, entropy, measured, fixed = [], [], [], []
+    for _, formula, counts, t, _ in rows:
         m = organic_terms(counts, weights)
         features.append([m.heavy_atoms, m.polarisability_A3, m.hydrogen_bond_sites])
         entropy.append(m.entropy_J_mol_K())
         measured.append(t)
-    return np.array(features), np.array(entropy), np.array(measured)
+        fixed.append(weights["organic_acid_group_kJ_mol"] * _acid_groups_of(formula))
+    return np.array(features), np.array(entropy), np.array(measured), np.array(fixed)
 
 
 def fit_organic_molecule_weights(rows, weights=None) -> dict[str, float]:
@@ -463,11 +470,12 @@ def fit_organic_molecule_weights(rows, weights=None) -> dict[str, float]:
     from scipy.optimize import least_squares  # melting extra
 
     weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
-    features, entropy, measured = _organic_design([r for r in rows if r[0] == "calibration"], weights)
-    start, *_ = np.linalg.lstsq(features / (measured * entropy / 1000.0)[:, None], np.ones(len(measured)), rcond=None)
+    features, entropy, measured, fixed = _organic_design([r for r in rows if r[0] == "calibration"], weights)
+    scale = measured * entropy / 1000.0
+    start, *_ = np.linalg.lstsq(features / scale[:, None], 1.0 - fixed / scale, rcond=None)
 
     def log_errors(w):
-        return np.log10(np.maximum(features @ w, 1e-9) * 1000.0 / entropy) - np.log10(measured)
+        return np.log10(np.maximum(features @ w + fixed, 1e-9) * 1000.0 / entropy) - np.log10(measured)
 
     w = least_squares(log_errors, start).x
     return dict(zip(ORGANIC_MOLECULE_WEIGHTS, map(float, w)))
@@ -483,7 +491,8 @@ def organic_molecule_figures(rows, weights=None, splits=("calibration", "validat
         part = [r for r in rows if r[0] == split]
         if not part:
             continue
-        predicted = [organic_terms(c, weights).melting_K(weights) for _, _, c, _, _ in part]
+        predicted = [organic_terms(c, weights, acid_groups=_acid_groups_of(f)).melting_K(weights)
+                     for _, f, c, _, _ in part]
         measured = [t for _, _, _, t, _ in part]
         figures = _figures(predicted, measured, salt=False)
         figures["mean_abs_log10"] = round(float(np.mean(np.abs(np.log10(np.divide(predicted, measured))))), 4)
@@ -562,6 +571,72 @@ def zwitterion_figures(rows, weights=None) -> dict:
             figures["mean_log10"] = round(float(np.mean(errors)), 4)
             figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
             out[f"zwitterions_{split}_{label}"] = figures
+    return out
+
+
+ORGANIC_ACID_SET = MOLECULAR_SET.with_name("organic_acids.csv")
+
+
+def organic_acid_rows(spread_limit: float = ISOMER_SPREAD_LIMIT):
+    """(split, formula, composition, median K, acid groups, scorer reads it as that acid) of
+    datasets/melting/organic_acids.csv: melting points read at run time (``Tm(cas, method="CRC_ORG")``), one
+    row per formula and count of acid groups, the median over its CAS numbers, a formula whose isomers melt
+    more than ``spread_limit`` apart dropped (as :func:`organic_molecule_rows`)."""
+    from chemicals.phase_change import Tm  # melting extra
+
+    values: dict[tuple, list[float]] = {}
+    with open(ORGANIC_ACID_SET, newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            value = Tm(row["cas"], method="CRC_ORG")
+            if value is not None and value > 0:
+                key = (row["set"], row["formula"], float(row["acid_groups"]), row["scorer_reads_acid"] == "yes")
+                values.setdefault(key, []).append(float(value))
+    return [(split, formula, parse_formula(formula).counts, float(np.median(found)), groups, read)
+            for (split, formula, groups, read), found in sorted(values.items())
+            if max(found) / min(found) <= spread_limit]
+
+
+def _organic_acid_K(counts, groups, weights) -> float:
+    from ionicity.scorer.melting_organic import organic_terms
+
+    return organic_terms(counts, weights, acid_groups=groups).melting_K(weights)
+
+
+def fit_organic_acid_weight(rows) -> float:
+    """``organic_acid_group_kJ_mol``: least squares of log10 T_m on the ``calibration`` rows of
+    :func:`organic_acid_rows` (the count of acid groups from the structure), every other weight held at
+    ``TREND_WEIGHTS``; one-dimensional (``scipy.optimize.least_squares`` from 0)."""
+    from scipy.optimize import least_squares  # melting extra
+
+    part = [r for r in rows if r[0] == "calibration"]
+
+    def log_errors(w):
+        weights = {**melting.TREND_WEIGHTS, "organic_acid_group_kJ_mol": float(w[0])}
+        return (np.log10([_organic_acid_K(c, g, weights) for _, _, c, _, g, _ in part])
+                - np.log10([t for _, _, _, t, _, _ in part]))
+
+    return float(least_squares(log_errors, [0.0]).x[0])
+
+
+def organic_acid_figures(rows, weights=None) -> dict:
+    """Per split, with the term and without it: n, Spearman, share within x1.5, class right (non-salt bands),
+    mean log10 error and its mean absolute value; and the same on the rows the scorer reads as acids."""
+    weights = melting.TREND_WEIGHTS if weights is None else {**melting.TREND_WEIGHTS, **weights}
+    out = {}
+    for split in ("calibration", "validation"):
+        for subset, part in (("", [r for r in rows if r[0] == split]),
+                             ("_read_as_acid", [r for r in rows if r[0] == split and r[5]])):
+            if len(part) < 2:
+                continue
+            measured = [r[3] for r in part]
+            for label, scale in (("with_term", 1.0), ("without_term", 0.0)):
+                w = {**weights, "organic_acid_group_kJ_mol": weights["organic_acid_group_kJ_mol"] * scale}
+                predicted = [_organic_acid_K(c, g, w) for _, _, c, _, g, _ in part]
+                figures = _figures(predicted, measured, salt=False)
+                errors = np.log10(np.divide(predicted, measured))
+                figures["mean_log10"] = round(float(np.mean(errors)), 4)
+                figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
+                out[f"organic_acids_{split}{subset}_{label}"] = figures
     return out
 
 
@@ -827,6 +902,11 @@ def main(argv=None) -> int:
     print("zwitterion weight (fit on calibration):",
           {"organic_zwitterion_kJ_mol": round(fit_zwitterion_weight(zwitterions), 2)})
     for name, figures in zwitterion_figures(zwitterions).items():
+        print(name, figures)
+    acids = organic_acid_rows()
+    print("organic acid weight (fit on calibration):",
+          {"organic_acid_group_kJ_mol": round(fit_organic_acid_weight(acids), 2)})
+    for name, figures in organic_acid_figures(acids).items():
         print(name, figures)
     bonded = hydrogen_bonded_rows()
     print("molecular hydrogen-bond weight (fit on calibration):",

@@ -107,6 +107,9 @@ HYDROHALIDE_HINT = "hydrohalide:"
 # a registry name of an open-chain onium salt ("benzyltrimethylammonium chloride", "tetrabutylphosphonium
 # bromide"): no ring cation of the same composition may stand for its cation (scorer.name_reader.parse_as_name)
 ONIUM_NAME_HINT = "onium_name"
+# a name the registry knows as one organic molecule that is no acid (no carboxylic or sulfonic group: its name
+# says no "acid"): no reading of ions at all, not even an acid's (scorer.name_reader, scorer.ions)
+NONACID_MOLECULE_HINT = "molecule_not_acid"
 _WATER_PART = re.compile(r"(\d+(?:\.\d+)?)?H2O")
 # a hydrate whose water count is a letter: "CoCl2*xH2O", "Fe2O3.nH2O", "CuSO4*(H2O)x"
 _UNSTATED_WATER = re.compile(r"(?P<salt>.+?)[*.](?P<water>[xnyz]H2O|\(H2O\)[xnyz])")

@@ -42,7 +42,15 @@ from ionicity.scorer.organic_anions import (
 from ionicity.scorer.onium_groups import ONIUM_CATION_HINT
 from ionicity.scorer.organic_cations import amine_salt_readings, onium_cation_readings, registry_halide_salt_readings
 from ionicity.scorer.elements import element_symbols, get_element, is_metal
-from ionicity.scorer.formula import AMMONIUM_HINT, HYDROHALIDE_HINT, ONIUM_NAME_HINT, ParsedFormula, format_count, hill_formula
+from ionicity.scorer.formula import (
+    AMMONIUM_HINT,
+    HYDROHALIDE_HINT,
+    NONACID_MOLECULE_HINT,
+    ONIUM_NAME_HINT,
+    ParsedFormula,
+    format_count,
+    hill_formula,
+)
 from ionicity.scorer.ion_library import (
     get_ion,
     ion_library,
@@ -378,11 +386,14 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         elif comp.structure_hint == "molecule":
             # a name the registry knows as one molecule (name_reader.parse_as_name): only an acid's reading
             readings = _acid_readings(readings)
+        elif comp.structure_hint == NONACID_MOLECULE_HINT:
+            # the same, where the name says no acid: no reading of ions
+            readings = []
         elif readings and not ammonium and comp.structure_hint not in ("fulminate", "quaternary"):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)
-        if not readings and comp.structure_hint not in ("molecule", "amide"):
+        if not readings and comp.structure_hint not in ("molecule", "amide", NONACID_MOLECULE_HINT):
             salt = registry_salt(hill_formula(remaining))
             if salt is not None:
                 # the registry lists the formula only as a salt: an amine hydrohalide or quaternary ammonium halide

@@ -538,9 +538,24 @@ class _OrganicReading:
     temperature_K: float
 
 
+def organic_acid_groups(dec: Decomposition) -> float:
+    """The acid groups of an organic acid read as such: its H(+) per formula unit when the reading is an
+    ``acid`` whose every anion is organic (oxalic acid 2, benzoic acid 1); 0 otherwise.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> [organic_acid_groups(decompose(parse_formula(f))) for f in ("C2H2O4", "C7H6O2", "HNO3", "C2H6O")]
+    [2.0, 1.0, 0.0, 0.0]
+    """
+    if dec.substance_class != "acid" or not dec.anions or not all(t.ion.organic for t in dec.anions):
+        return 0.0
+    return float(sum(t.count for t in dec.cations if t.ion.ion_id == "H(+)"))
+
+
 def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
     organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations,
-                                            zwitterion="zwitterion" in dec.written_groups)
+                                            zwitterion="zwitterion" in dec.written_groups,
+                                            acid_groups=organic_acid_groups(dec))
     if organic is not None:
         # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
         cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()
@@ -610,7 +625,9 @@ def _organic_steps(reading: _OrganicReading) -> tuple[str, ...]:
         f" {w['organic_hydrogen_bond_kJ_mol']} kJ/mol * {t.hydrogen_bond_sites:g} hydrogen-bond site(s)"
         " (O and N with H, an upper bound)"
         + (f" + {w['organic_zwitterion_kJ_mol']} kJ/mol (a zwitterion: its charged ends attract)" if t.zwitterion
-           else ""),
+           else "")
+        + (f" + {w['organic_acid_group_kJ_mol']} kJ/mol * {t.acid_groups:g} acid group(s) (an organic acid: its"
+           " O-H...O=C pairs)" if t.acid_groups else ""),
         "  a rough guide: isomers share a formula and may melt far apart (typical scatter a factor 1.5)",
     )
 

@@ -152,7 +152,7 @@ def formula_symmetry_number(counts: Mapping[str, float], uniform_symmetry_number
 
 
 def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_bond_sites_, weights: Mapping[str, float],
-                                      zwitterion: bool = False):
+                                      zwitterion: bool = False, acid_groups: float = 0.0):
     """Heat of melting of an organic molecular crystal from size, polarisability and hydrogen bonds [kJ/mol].
 
     ``dH_m = h_n N_heavy + h_alpha alpha_mol + h_HB n_HB``: a contact share
@@ -174,6 +174,14 @@ def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_b
     ``datasets/melting/zwitterions.csv``, the three above held
     (:func:`ionicity.pipelines.melting_weights.fit_zwitterion_weight`).
 
+    An organic acid read as such (its acid protons H(+) beside a library anion: the carboxylic acids, oxalic
+    to stearic, and the sulfonic acids) adds ``h_acid`` (``organic_acid_group_kJ_mol``) per acid group: the
+    O-H...O=C pairs of its cyclic dimers or chains are stronger than the alcohols' and amines' hydrogen bonds
+    the site weight is fitted on (the formula route read the CRC Handbook's carboxylic acids 0.06 (one group)
+    to 0.09 (two) higher in log10 than its other molecules). The weight is fitted on the calibration half of
+    ``datasets/melting/organic_acids.csv``, the three above held
+    (:func:`ionicity.pipelines.melting_weights.fit_organic_acid_weight`).
+
     Parameters
     ----------
     heavy_atoms : float
@@ -187,6 +195,9 @@ def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_b
         ``organic_zwitterion_kJ_mol`` [kJ/mol].
     zwitterion : bool, default=False
         Whether the molecule is a zwitterion in the solid.
+    acid_groups : float, default=0.0
+        Acid groups of an organic acid (its H(+) per molecule in the ion reading); needs
+        ``organic_acid_group_kJ_mol`` in ``weights`` when not zero.
 
     Examples
     --------
@@ -196,10 +207,14 @@ def organic_molecular_cohesion_kJ_mol(heavy_atoms, polarisability_A3, hydrogen_b
     9.0
     >>> round(organic_molecular_cohesion_kJ_mol(3, 5.0, 1, {**w, "organic_zwitterion_kJ_mol": 6.0}, True), 6)
     15.0
+    >>> round(organic_molecular_cohesion_kJ_mol(3, 5.0, 1, {**w, "organic_acid_group_kJ_mol": 2.5}, acid_groups=2), 6)
+    14.0
     """
     total = (weights["organic_heavy_atom_kJ_mol"] * heavy_atoms
              + weights["organic_polarisability_kJ_mol_A3"] * polarisability_A3
              + weights["organic_hydrogen_bond_kJ_mol"] * hydrogen_bond_sites_)
+    if acid_groups:
+        total += weights["organic_acid_group_kJ_mol"] * acid_groups
     return total + weights["organic_zwitterion_kJ_mol"] if zwitterion else total
 
 
@@ -215,6 +230,8 @@ class OrganicTerms:
     torsions_tau: float
     #: a zwitterion in the solid (the registry's structure of a named amino acid or inner salt)
     zwitterion: bool = False
+    #: acid groups of an organic acid read as such (its H(+) per molecule)
+    acid_groups: float = 0.0
 
     def entropy_J_mol_K(self) -> float:
         """Walden's rule with Dannenfelser and Yalkowsky's terms for this molecule [J/(mol K)]."""
@@ -223,7 +240,7 @@ class OrganicTerms:
     def cohesion_kJ_mol(self, weights: Mapping[str, float]) -> float:
         """:func:`organic_molecular_cohesion_kJ_mol` of this molecule [kJ/mol]."""
         return organic_molecular_cohesion_kJ_mol(self.heavy_atoms, self.polarisability_A3,
-                                                 self.hydrogen_bond_sites, weights, self.zwitterion)
+                                                 self.hydrogen_bond_sites, weights, self.zwitterion, self.acid_groups)
 
     def melting_K(self, weights: Mapping[str, float]) -> float:
         """``T_m = dH_m / dS_m`` [K]."""
@@ -251,7 +268,7 @@ def organometallic_counts(counts: Mapping[str, float]) -> bool:
 
 
 def organic_terms(composition, weights: Mapping[str, float], organometallic: bool = False,
-                  zwitterion: bool = False) -> OrganicTerms | None:
+                  zwitterion: bool = False, acid_groups: float = 0.0) -> OrganicTerms | None:
     """Read an organic molecule off its composition (``(symbol, count)`` pairs), unreduced.
 
     None when :func:`is_organic_molecule` says no. ``weights`` gives the two
@@ -278,4 +295,5 @@ def organic_terms(composition, weights: Mapping[str, float], organometallic: boo
         symmetry_number=formula_symmetry_number(counts, weights["organic_uniform_symmetry_number"]),
         torsions_tau=formula_torsions_tau(counts, weights["organic_rigid_atoms_per_unsaturation"]),
         zwitterion=zwitterion,
+        acid_groups=float(acid_groups),
     )

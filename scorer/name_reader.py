@@ -48,7 +48,7 @@ import re
 
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_element_symbol, is_metal
-from ionicity.scorer.formula import ONIUM_NAME_HINT, FormulaError, parse_formula
+from ionicity.scorer.formula import NONACID_MOLECULE_HINT, ONIUM_NAME_HINT, FormulaError, parse_formula
 from ionicity.scorer.onium_groups import onium_formula_from_groups
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
@@ -622,7 +622,15 @@ def parse_as_name(text: str, any_word: bool = False):
             # acyl halide (acetyl chloride, C2H3ClO) is marked as its written CH3COCl is, and an acid anhydride
             # or an isocyanate likewise, for the water rules; an amino acid or another inner salt as a
             # zwitterion, for the melting route
-            parsed = dataclasses.replace(parsed, structure_hint=entry[4])
+            hint = entry[4]
+            if hint == "molecule" and not _ACID_WORD.search(entry[2]) and not _ACID_WORD.search(text) and \
+                    dict(parsed.counts).get("C", 0.0) >= 2:
+                # a molecule whose name says no acid (nor hydrogen, as ethyl hydrogen sulfate and hydrogen cyanide
+                # do) is none: 2,3-dihydroxybenzaldehyde (C7H6O3) is not read as
+                # salicylic acid, 1,3,5-trioxane (C3H6O3) not as lactic acid; one-carbon names keep the acid's
+                # reading (methanenitrile is HCN, methyl sulfate CH3OSO3H)
+                hint = NONACID_MOLECULE_HINT
+            parsed = dataclasses.replace(parsed, structure_hint=hint)
         elif entry[4] == "salt" and not parsed.structure_hint and _OPEN_CHAIN_ONIUM_NAME.search(entry[2]) and \
                 not _RING_ONIUM_NAME.search(entry[2]):
             # the name says an ammonium or phosphonium ion: its Hill formula must not be read as a ring cation of
@@ -633,6 +641,7 @@ def parse_as_name(text: str, any_word: bool = False):
 
 
 _OPEN_CHAIN_ONIUM_NAME = re.compile(r"(?:ammonium|phosphonium)", re.I)
+_ACID_WORD = re.compile(r"acid\b|hydrogen", re.I)
 _RING_ONIUM_NAME = re.compile(r"(?:pyridinium|imidazolium|pyrrolidinium|piperidinium|morpholinium|quinolinium"
                               r"|pyrazolium|triazolium|thiazolium|azepanium|oxazolidinium)", re.I)
 

@@ -32,6 +32,7 @@ MELTING_TESTS = (
     "tests/test_trend_weights_routes.py", "tests/test_melting_index_terms.py", "tests/test_melting_second_stage.py",
     "tests/test_melting_audit_rules.py", "tests/test_melting_organic_molecules.py",
     "tests/test_melting_hydrogen_bonds.py", "tests/test_melting_lone_pairs.py", "tests/test_zwitterions.py",
+    "tests/test_organic_acids.py", "tests/test_onium_groups.py",
 )
 FACTORS = (1.5, 0.5)
 # the file that checks a weight family, run first for its weights (pytest -x stops at the first
@@ -40,6 +41,7 @@ FACTORS = (1.5, 0.5)
 FIRST_FILE = {
     "organic_": "tests/test_melting_organic_molecules.py",
     "organic_zwitterion": "tests/test_zwitterions.py",
+    "organic_acid": "tests/test_organic_acids.py",
     "molecular_": "tests/test_melting_routes.py",
     "molecular_hydrogen_bond": "tests/test_melting_hydrogen_bonds.py",
     "molecular_lone_pair": "tests/test_melting_lone_pairs.py",
