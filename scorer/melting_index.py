@@ -442,15 +442,15 @@ def melting_trend_index(
     The intercept and the inorganic weights come from the least-squares fit
     described in the module docstring, not from one reference salt: NaCl
     (u = 381 kJ/mol per ion from its volume-based 762 kJ/mol, contact chi
-    2.045, contact index 0.131, delta chi left at its reference) lands at 3.002, a trend
-    temperature of 1005 K, against 1074 K measured (CRC Handbook, from memory).
+    2.045, contact index 0.131, delta chi left at its reference) lands at 3.001, a trend
+    temperature of 1002 K, against 1074 K measured (CRC Handbook, from memory).
 
     Examples
     --------
     >>> round(melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2), 3)
-    3.002
+    3.001
     >>> round(float(10 ** melting_trend_index(380.9, 2.045, 0.131, False, 0.0, 2)))
-    1005
+    1002
     """
     w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
     u = _floats(lattice_energy_per_ion_kJ_mol)
