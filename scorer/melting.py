@@ -135,6 +135,7 @@ from ionicity.scorer.model import Column, Decomposition
 __all__ = [
     "COLUMNS",
     "MELTING_CLASS_BANDS",
+    "fusion_estimate",
     "MELTING_CLASSES",
     "TREND_WEIGHTS",
     "CAUTION",
@@ -668,6 +669,44 @@ def hydrate_melting_class(melting_class: str | None, route: str | None, hydrate_
     if melting_class and route == "salt" and routes.water_rich_hydrate(hydrate_water):
         return routes.HYDRATE_MELT_CLASS
     return melting_class
+
+
+def fusion_estimate(dec: Decomposition) -> tuple[float, float, str] | None:
+    """(melting point K, enthalpy of fusion J/mol, route) as the melting routes estimate them, for a component
+    of a mixture without measured fusion data (:mod:`scorer.mixture`); None where no salt or molecular route
+    gives both.
+
+    The salt route's trend temperature ``T`` is ``dH / dS`` with ``dS = nu s0`` plus the organic ions'
+    flexibility (:func:`melting_trend_index`), the molecular routes' ``dH / dS`` with Walden's entropy
+    corrected by Dannenfelser and Yalkowsky: the enthalpy given is ``T dS`` of the same route, so the pair is
+    consistent (NaCl: 1034 K and 25.9 kJ/mol against 1077 K and 28.2 kJ/mol, CRC Handbook). Screening values:
+    the trend's scatter (a factor 1.5) carries into any liquidus drawn from them.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> t, h, route = fusion_estimate(decompose(parse_formula("NaCl")))
+    >>> round(t), round(h / 1000, 1), route
+    (1034, 25.9, 'salt')
+    """
+    route = routes.ROUTE_OF_CLASS.get(dec.substance_class)
+    if route == "salt" and dec.is_ionic:
+        terms = melting_terms(dec)
+        if terms is None or not math.isfinite(terms.lattice_energy_kJ_mol):
+            return None
+        w = TREND_WEIGHTS
+        s_ion = terms.ions_per_formula_unit * w["entropy_per_ion_J_mol_K"]
+        entropy = max(s_ion + w["flexibility"] * terms.flexibility_entropy_J_mol_K, 0.5 * s_ion)
+        temperature = trend_temperature_K(terms.index())
+    elif route == "molecular" or (route == "salt" and dec.substance_class == "base"):
+        _, reading = _molecular(dec)
+        if reading is None:
+            return None
+        entropy, temperature = reading.entropy_J_mol_K, reading.temperature_K
+    else:
+        return None
+    if not (math.isfinite(temperature) and temperature > 0 and entropy > 0):
+        return None
+    return temperature, temperature * entropy, route
 
 
 @protocol(title="", columns=COLUMNS, result=MeltingTrend, failure="melting trend not computed",

@@ -37,6 +37,7 @@ from ionicity.scorer.columns import output_columns
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.formula import POLYMORPH_LABEL, FormulaError, alloy_designation, code_hydrohalide, code_metal_salt, parse_formula
 from ionicity.scorer.ions import decompose
+from ionicity.scorer.melting import fusion_estimate
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.melting_routes import GAS_CLASS, melting_class_for
@@ -224,14 +225,16 @@ def _published(names: tuple[str, ...]) -> dict | None:
     return None
 
 
-def published_liquidus_errors(omega=None, k=None) -> tuple[dict, ...]:
+def published_liquidus_errors(omega=None, k=None, estimated: bool = False) -> tuple[dict, ...]:
     """The estimate against every published point of scorer/data/eutectics.csv.
 
     Each entry: ``system``, ``set`` (calibration or validation), ``fractions``,
     ``published_K``, ``estimate_K``, ``ideal_K`` (Temkin or molecular ideal
     line, no lambda) and ``error_pct`` (absolute, in % of the published
     kelvin). ``omega`` and ``k`` replace the calibrated coefficients (the
-    calibration scan, ``tests/calibrate_liquidus.py``).
+    calibration scan, ``tests/calibrate_liquidus.py``). With ``estimated``, every component's melting point and
+    enthalpy of fusion are the melting routes' estimates (:func:`estimated_melt`) instead of fusion.csv's: how
+    the fallback for components without measured data does where the answer is known.
     """
     rows = []
     for row in published_eutectics():
@@ -239,6 +242,9 @@ def published_liquidus_errors(omega=None, k=None) -> tuple[dict, ...]:
         for name in row["components"]:
             fusion = fusion_rows()[blend_key(name)]
             formula = fusion["formula"] if fusion["kind"] == "ionic" else ""
+            if estimated:
+                melts.append(estimated_melt(fusion["formula"]))
+                continue
             melts.append(melt_component(formula, name, float(fusion["melting_point_K"]),
                                         float(fusion["enthalpy_fusion_kJ_mol"]) * 1000.0))
         melts = tuple(melts)
@@ -319,13 +325,31 @@ def melt_component(formula: str, name: str, melting_point_K: float, enthalpy_fus
     return MeltComponent(name, melting_point_K, enthalpy_fusion_J_mol, ions(dec.cations), ions(dec.anions))
 
 
-def _melt(component: _Component) -> MeltComponent | None:
+def _melt(component: _Component, estimate: bool = False) -> MeltComponent | None:
+    """The liquidus component of ``component`` from its fusion.csv row; without one, and with ``estimate``,
+    from the melting routes' own estimate (:func:`estimated_melt`); else None."""
     row = component.fusion
     if row is None:
-        return None
+        return estimated_melt(component.name) if estimate else None
     formula = row["formula"] if row["kind"] == "ionic" else ""
     return melt_component(formula, component.name, float(row["melting_point_K"]),
                           float(row["enthalpy_fusion_kJ_mol"]) * 1000.0)
+
+
+@per_input(maxsize=1024)
+def estimated_melt(formula: str) -> MeltComponent | None:
+    """A liquidus component whose melting point and enthalpy of fusion are the melting routes' estimates
+    (:func:`scorer.melting.fusion_estimate`: the trend temperature and ``T dS`` of its route), for a component
+    fusion.csv does not hold ([C2mim][NTf2], Ca(NO3)2, LiTFSI); None where no route gives them."""
+    try:
+        dec = decompose(parse_formula(formula))
+    except FormulaError:
+        return None
+    estimate = fusion_estimate(dec)
+    if estimate is None:
+        return None
+    temperature, enthalpy, route = estimate
+    return melt_component(formula if route == "salt" else "", formula, temperature, enthalpy)
 
 
 def system_components(texts, score_row) -> tuple[MeltComponent, ...]:
@@ -565,15 +589,22 @@ def network_melt_warning(names) -> str:
 def _liquidus(mixture: Mixture) -> tuple[float, str, list[str]]:
     names = tuple(c.name for c in mixture.components)
     notes: list[str] = []
-    melts = [_melt(c) for c in mixture.components]
+    melts = [_melt(c, estimate=True) for c in mixture.components]
     missing = [c.name for c, m in zip(mixture.components, melts) if m is None]
     if missing:
-        return math.nan, "", [f"no melting point and enthalpy of fusion for {', '.join(missing)} in scorer/data/fusion.csv:"
-                              " liquidus not estimated"]
+        return math.nan, "", [f"no melting point and enthalpy of fusion for {', '.join(missing)} in scorer/data/fusion.csv,"
+                              " nor an estimate from its melting trend: liquidus not estimated"]
+    estimated = [c.name for c in mixture.components if c.fusion is None]
     result = liquidus_K(tuple(melts), mixture.fractions)
     rules = sorted({pair_lambda_J_mol(a, b)[1] for i, a in enumerate(melts) for b in melts[i + 1:]})
     rules_text = f" ({', '.join(rules)})" if all(m.ionic for m in melts) else ""
     method = f"{result.method}{rules_text}; primary phase {result.primary_phase}"
+    if estimated:
+        method += f"; fusion data estimated for {', '.join(estimated)}"
+        notes.append(f"liquidus estimate: no measured melting point and enthalpy of fusion for {', '.join(estimated)}"
+                     " in scorer/data/fusion.csv; the melting trend's estimates are used (its trend temperature and"
+                     " T dS of its route, scatter a factor 1.5), so the liquidus is rougher than one from measured"
+                     " data")
     note = compound_note(names)
     if note:
         notes.append(note)
@@ -635,7 +666,13 @@ def _record(mixture: Mixture) -> tuple:
         warnings.append(ignition)
     networks = [c.name for c, r in zip(mixture.components, records)
                 if r[position["substance_class"]] in NETWORK_MELT_CLASSES]
-    if networks and liquidus == liquidus and all(m is not None and m.ionic for m in map(_melt, mixture.components)):
+    # a metal halide that is molecular or a chain solid beside a salt (AlCl3 or ZnCl2 with [C2mim]Cl or KCl)
+    # takes the salt's halide into complex anions (AlCl4(-), Al2Cl7(-), ZnCl4(2-)) in the melt
+    lewis_acid = any(r[position["substance_class"]] in NETWORK_MELT_CLASSES and any(
+        is_metal(s) for s, _ in parse_formula(c.formula).counts) for c, r in zip(mixture.components, records)
+        if c.fusion is None or c.fusion["kind"] == "ionic") and any(r[position["mp_route"]] == "salt" for r in records)
+    if networks and liquidus == liquidus and (lewis_acid or all(
+            m is not None and m.ionic for m in (_melt(c, estimate=True) for c in mixture.components))):
         # the Temkin and regular-solution model counts simple ions (network_melt_warning)
         warnings.append(network_melt_warning(networks))
     elif liquidus == liquidus:

@@ -134,9 +134,11 @@ def test_liquidus_column_of_a_mixture_matches_the_model():
 
 
 def test_missing_fusion_data_leaves_the_liquidus_empty_with_a_note():
-    r = score_formula("CuCl2-FeCl3 1:1")
+    # silica is a network: neither fusion.csv nor the melting routes give it a melting point and an enthalpy of
+    # fusion for the ideal line
+    r = score_formula("NaCl-SiO2 1:1")
     assert r["substance_class"] == "mixture" and math.isnan(r["liquidus_estimate_K"])
-    assert "no melting point and enthalpy of fusion for" in r["value_notes"]
+    assert "no melting point and enthalpy of fusion for SiO2" in r["value_notes"] and r["melting_class"] is None
 
 
 @pytest.mark.parametrize("text", ["ZnCl2:ChCl 2:1", "ZnCl2-KCl (50-50)"])
@@ -151,3 +153,33 @@ def test_a_network_forming_component_flags_the_estimate(text):
 @pytest.mark.parametrize("text", ["LiCl-KCl (59:41)", "urea:choline chloride 2:1"])
 def test_simple_ion_and_molecular_mixtures_carry_no_network_warning(text):
     assert "not a simple-ion salt" not in (score_formula(text)["message"] or "")
+
+
+def test_validation_estimated_fusion_data_keep_the_class_of_published_eutectics():
+    # the fallback for components fusion.csv does not hold, tried where the answer is known: every component of
+    # the published points (scorer/data/eutectics.csv, a source per row) with the melting routes' estimates
+    # instead of its CRC fusion data. Validation rows (never used to set anything here), measured 5 December
+    # 2026: class right 14 of 15 (14 with measured data), median error 17 % (8 % with measured data), MAE 119 K
+    rows = [r for r in published_liquidus_errors(estimated=True) if r["set"] == "validation"]
+    from ionicity.scorer.melting_routes import melting_class_for
+
+    right = sum(melting_class_for(r["estimate_K"], True) == melting_class_for(r["published_K"], True) for r in rows)
+    assert len(rows) >= 15 and right >= len(rows) - 2
+    assert statistics.median(r["error_pct"] for r in rows) < 25.0
+
+
+def test_a_component_without_fusion_data_takes_the_estimate_and_says_so():
+    # LiTFSI in [C2mim][NTf2] at one to nine: neither is in fusion.csv; such electrolytes are liquid at room
+    # temperature (common practice)
+    row = score_formula("[EMIM][TFSI]:LiTFSI 9:1")
+    assert row["liquidus_estimate_K"] < 298.15 and row["melting_class"] == "ionic_liquid"
+    assert "fusion data estimated for" in row["liquidus_method"] and "rougher" in row["value_notes"]
+
+
+def test_a_molecular_metal_halide_beside_a_salt_flags_the_estimate():
+    # AlCl3 with [C2mim]Cl makes AlCl4(-) and Al2Cl7(-) in the melt: the chloroaluminate ionic liquids are liquid
+    # at room temperature (Wilkes, Levisky, Wilson and Hussey, Inorg. Chem. 1982, 21, 1263; from memory), the
+    # simple-ion model reads 479 K: no class, a warning
+    row = score_formula("AlCl3-[C2mim]Cl 2:1")
+    assert row["status"] == "warning" and "not a simple-ion salt" in row["message"]
+    assert row["melting_class"] is None
