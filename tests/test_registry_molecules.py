@@ -41,10 +41,11 @@ def test_salts_and_acids_the_registry_does_not_contradict_stay(text, cation):
 @pytest.mark.parametrize("name, cas, cation", [
     # the name says an open-chain ammonium ion, and its Hill formula is also a pyridinium salt of the library:
     # benzyltrimethylammonium chloride read as 1-butyl-3-methylpyridinium chloride, phenyltrimethylammonium
-    # iodide as 1-butylpyridinium iodide; now the cation is built by rule from the formula
-    ("Benzyltrimethylammonium chloride", "56-93-9", "[C10H16N](+)"),
-    ("Phenyltrimethylammonium iodide", "98-04-4", "[C9H14N](+)"),
-    ("Trimethylphenylammonium chloride", "138-24-9", "[C9H14N](+)"),
+    # iodide as 1-butylpyridinium iodide; now the cation is built by rule from the groups the name says
+    # (scorer.onium_groups)
+    ("Benzyltrimethylammonium chloride", "56-93-9", "[(C7H7)(CH3)3N](+)"),
+    ("Phenyltrimethylammonium iodide", "98-04-4", "[(C6H5)(CH3)3N](+)"),
+    ("Trimethylphenylammonium chloride", "138-24-9", "[(C6H5)(CH3)3N](+)"),
 ])
 def test_an_ammonium_name_is_no_ring_cation_of_the_same_formula(name, cas, cation):
     # melting points: chemicals.phase_change.Tm (CRC Handbook, read at test time); each melts (with
