@@ -915,10 +915,6 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         hint = "amide"
     elif _FULMINATE.search(cleaned):
         hint = "fulminate"
-    elif ("4N" in cleaned or "N(" in cleaned) and _QUATERNARY_WRITTEN.search(cleaned):
-        # four alkyl groups written on nitrogen ((CH3)4NCl, N(CH3)4OH): the quaternary cation, not its protic
-        # isomer (C4H12N+ is tetramethylammonium or butylammonium by its composition alone)
-        hint = "quaternary"
     elif written_onium(cleaned) is not None:
         # organic groups written on N, P, As (four) or S (three) before the anion ((C2H5)3(C6H5CH2)NCl,
         # (C6H5)4PBr, (CH3)3SI): that onium cation, which the composition alone does not name (C13H22ClN is
@@ -930,6 +926,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         group_keys = {tuple(sorted((s, float(n)) for s, n in group_counts(g).items())) for g, _ in groups}
         hints = {ion_id: n for ion_id, n in hints.items()
                  if tuple(sorted(ion_library.get_ion(ion_id).composition)) not in group_keys}
+    elif ("4N" in cleaned or "N(" in cleaned) and _QUATERNARY_WRITTEN.search(cleaned):
+        # four alkyl groups written on nitrogen ((CH3)4NCl, N(CH3)4OH): the quaternary cation, not its protic
+        # isomer (C4H12N+ is tetramethylammonium or butylammonium by its composition alone)
+        hint = "quaternary"
     elif "NH4" in cleaned.replace("[", "").replace("]", ""):
         # the ammonium ion written out: NH4SCN and NH4OCN are the salts, while CH4N2S and
         # CH4N2O name thiourea and urea (scorer.ions._woehler_isomer); with the number of NH4 groups written

@@ -367,7 +367,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
             # not its isomer 2-hydroxyethylammonium nitrate, with which it tied
             written = [r for r in readings if any(ion.ion_id == "NH4(+)" for ion, _ in r[1])]
             readings = written or readings
-        if comp.structure_hint == "quaternary":
+        if comp.structure_hint == "quaternary" or comp.structure_hint.startswith(ONIUM_CATION_HINT):
             # four alkyl groups written on nitrogen: the quaternary ammonium salt ((CH3)4NCl, not butylammonium)
             written = [r for r in readings if any(ion.family == "ammonium-quaternary" for ion, _ in r[1])]
             readings = written or readings
@@ -389,7 +389,8 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         elif comp.structure_hint == NONACID_MOLECULE_HINT:
             # the same, where the name says no acid: no reading of ions
             readings = []
-        elif readings and not ammonium and comp.structure_hint not in ("fulminate", "quaternary"):
+        elif readings and not ammonium and comp.structure_hint not in ("fulminate", "quaternary") and \
+                not comp.structure_hint.startswith(ONIUM_CATION_HINT):
             # (a written NH4 or C-N-O says which isomer; "organometallic" from a C5H5 in the text means nothing
             # without a metal: C5H5N5 is adenine)
             readings = _registry_molecule_readings(remaining, readings, notes)

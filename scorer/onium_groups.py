@@ -43,9 +43,9 @@ ONIUM_CATION_HINT = "onium_cation:"
 ONIUM_CENTRES = {"N": 4, "P": 4, "As": 4, "S": 3}
 
 # one organic group: a bracketed hydrocarbyl or hydroxy/alkoxy-hydrocarbyl formula with its count
-# ("(C2H5)3", "(C6H5CH2)"), or, after the centre, an unbracketed one ("PCH3Br", "NCH2C6H5Cl")
+# ("(C2H5)3", "(C6H5CH2)"), or, after the centre, an unbracketed one ("PCH3Br", "NCH2C6H5Cl", "PCH2(C6H5)Cl")
 _BRACKETED_GROUP = re.compile(r"\((?P<group>(?:[CHO]\d*)+)\)(?P<n>\d*)")
-_BARE_GROUP = re.compile(r"(?P<group>(?:C\d*H\d+)+)")
+_BARE_GROUP = re.compile(r"(?P<group>C\d*H\d+(?:C\d*H\d+|\((?:[CHO]\d*)+\))*)")
 _CENTRE = re.compile(r"(?P<centre>As|N|P|S)(?![a-z])")
 _ATOM = re.compile(r"([A-Z][a-z]?)(\d*)")
 
@@ -89,6 +89,8 @@ def written_onium(text: str) -> tuple[str, tuple[tuple[str, int], ...], str] | N
     ('N', (('C2H5', 3), ('C7H7', 1)), 'Cl')
     >>> written_onium("(C6H5)3PCH3Br")[1], written_onium("[(CH3)3S]I")
     ((('C6H5', 3), ('CH3', 1)), ('S', (('CH3', 3),), 'I'))
+    >>> written_onium("(C6H5)3PCH2(C6H5)Cl")[1]
+    (('C6H5', 3), ('C7H7', 1))
     >>> [written_onium(t) for t in ("(C6H5)3P", "(CH3)2SO", "(C2H5)3NHCl", "NaCl")]
     [None, None, None, None]
     """

@@ -45,6 +45,8 @@ def test_named_onium_salts_read_as_the_registry_formula_of_the_name(name):
     ("(C6H5)3PCH3Br", "methyltriphenylphosphonium bromide"),
     ("(C10H21)2N(CH3)2Cl", "didecyldimethylammonium chloride"),
     ("(CH3)3SI", "trimethylsulfonium iodide"),
+    ("Ph3PCH2PhCl", "benzyltriphenylphosphonium chloride"),
+    ("BnEt3NCl", "benzyltriethylammonium chloride"),
 ])
 def test_written_groups_read_as_the_same_salt_as_the_name(text, name):
     # common practice: a condensed formula writes the groups on the central atom
@@ -62,6 +64,12 @@ def test_the_written_cation_is_not_a_ring_cation_of_the_same_composition():
 def test_trimethylsulfonium_iodide_is_no_typing_slip_for_the_silyl_radical():
     record = score_formula("(CH3)3SI")
     assert record["formula_normalized"] == "[(CH3)3S]I" and "slip" not in (record["message"] or "")
+
+
+def test_a_written_quaternary_salt_of_a_library_anion_reads_as_the_salt():
+    # tetramethylammonium acetate written by its groups (common practice); its composition C6H15NO2 read as a
+    # molecule before
+    assert score_formula("(CH3)4NCH3COO")["formula_normalized"] == "[N1111][CH3COO]"
 
 
 def test_n_alkyl_groups_take_the_code_of_the_trade_not_a_library_isomer():
