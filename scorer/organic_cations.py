@@ -135,11 +135,11 @@ def onium_cation_readings(remaining: dict[str, float], hint: str, hinted=()) -> 
     :func:`scorer.onium_groups.onium_hint`) beside one anion of charge -1, and its note; two empty lists where
     the rest is no library anion of charge -1 (or one halide). ``hinted``: the ions the text writes in
     brackets (lists of the same ion in its charges, as :func:`scorer.ions._read` keeps them), already taken
-    out of ``remaining``: with them, the cation must be all that is left and they must carry charge -1. A
-    library cation of that composition in an
-    open-chain onium family is taken from the library ([N4444](+) for ``(C4H9)4NBr``); any other is built by
-    rule: ``(C2H5)3(C6H5CH2)NCl`` is benzyltriethylammonium chloride, not 1-octylpyridinium chloride, which
-    has the same composition.
+    out of ``remaining``: with them, the cation must be all that is left and they must carry charge -1.
+    Four n-alkyl groups on N or P are the code of the trade ([N4444](+) for ``(C4H9)4NBr``, from the library
+    where it lists the code), (HOCH2CH2)(CH3)3N(+) choline; any other cation is built by rule with its
+    substitutive name (:func:`scorer.onium_groups.onium_name`): ``(C2H5)3(C6H5CH2)NCl`` is
+    benzyltriethylammonium chloride, not 1-octylpyridinium chloride, which has the same composition.
 
     >>> readings, notes = onium_cation_readings({"C": 24.0, "H": 20.0, "Br": 1.0, "P": 1.0}, "onium_cation:[(C6H5)4P]")
     >>> sorted(f"{ion.ion_id}*{k:g}" for ion, k in readings[0][1]), readings[0][1][0][0].family
