@@ -112,6 +112,15 @@ def _figures(predicted_K, measured_K, salt=True) -> dict:
     }
 
 
+def _figures_with_log_errors(predicted_K, measured_K) -> dict:
+    """:func:`_figures` (non-salt bands) with the mean log10 error and its mean absolute value."""
+    figures = _figures(predicted_K, measured_K, salt=False)
+    errors = np.log10(np.divide(predicted_K, measured_K))
+    figures["mean_log10"] = round(float(np.mean(errors)), 4)
+    figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
+    return figures
+
+
 def open_set_half(formula_normalized: str) -> str:
     """``calibration`` or ``validation``: the fixed half of the open training set a formula falls in.
 
@@ -566,11 +575,7 @@ def zwitterion_figures(rows, weights=None) -> dict:
         measured = [t for *_, t, _ in part]
         for label, on in (("with_term", True), ("without_term", False)):
             predicted = [_zwitterion_K(c, weights, on) for _, _, c, _, _ in part]
-            figures = _figures(predicted, measured, salt=False)
-            errors = np.log10(np.divide(predicted, measured))
-            figures["mean_log10"] = round(float(np.mean(errors)), 4)
-            figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
-            out[f"zwitterions_{split}_{label}"] = figures
+            out[f"zwitterions_{split}_{label}"] = _figures_with_log_errors(predicted, measured)
     return out
 
 
@@ -632,11 +637,7 @@ def organic_acid_figures(rows, weights=None) -> dict:
             for label, scale in (("with_term", 1.0), ("without_term", 0.0)):
                 w = {**weights, "organic_acid_group_kJ_mol": weights["organic_acid_group_kJ_mol"] * scale}
                 predicted = [_organic_acid_K(c, g, w) for _, _, c, _, g, _ in part]
-                figures = _figures(predicted, measured, salt=False)
-                errors = np.log10(np.divide(predicted, measured))
-                figures["mean_log10"] = round(float(np.mean(errors)), 4)
-                figures["mean_abs_log10"] = round(float(np.mean(np.abs(errors))), 4)
-                out[f"organic_acids_{split}{subset}_{label}"] = figures
+                out[f"organic_acids_{split}{subset}_{label}"] = _figures_with_log_errors(predicted, measured)
     return out
 
 

@@ -25,10 +25,9 @@ rebuild.
 """
 from __future__ import annotations
 
-import re
 from pathlib import Path
 
-from set_file import crc_organic_structures, csv_text, hill_counts, write_or_check  # this folder's shared helpers
+from set_file import crc_organic_molecules, csv_text, normalised_half, write_or_check  # this folder's shared helpers
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "organic_acids.csv"
@@ -39,28 +38,18 @@ MAX_HEAVY_ATOMS = 60
 
 
 def build() -> str:
-    from ionicity.pipelines.melting_weights import open_set_half
     from ionicity.scorer.data.smiles_groups import acid_and_basic_groups, zwitterion
     from ionicity.scorer.formula import parse_formula
     from ionicity.scorer.ions import decompose
     from ionicity.scorer.melting import organic_acid_groups
-    from ionicity.scorer.melting_organic import is_organic_molecule
-    from ionicity.scorer.record import score_formula
 
-    crc, found = crc_organic_structures()
     rows = []
-    for cas, (hill, smiles) in found.items():
-        if "." in smiles or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
-            continue
-        acids, bases = acid_and_basic_groups(smiles)
+    for cas, hill, smiles, name in crc_organic_molecules(MAX_HEAVY_ATOMS):
+        acids, bases = acid_and_basic_groups(smiles) if "." not in smiles else (0, 0)
         if not acids or bases or zwitterion(smiles):
             continue
-        counts = hill_counts(hill)
-        if not is_organic_molecule(counts) or sum(n for s, n in counts.items() if s != "H") > MAX_HEAVY_ATOMS:
-            continue
         read = "yes" if organic_acid_groups(decompose(parse_formula(hill))) == acids else "no"
-        normalized = score_formula(hill).get("formula_normalized") or hill
-        rows.append((hill, cas, str(crc.loc[cas, "Name"]), acids, read, open_set_half(normalized)))
+        rows.append((hill, cas, name, acids, read, normalised_half(hill)))
     return csv_text(["formula", "cas", "name", "acid_groups", "scorer_reads_acid", "set", "source"],
                     ([hill, cas, name, str(n), read, split, SOURCE] for hill, cas, name, n, read, split in sorted(rows)))
 

@@ -23,10 +23,9 @@ table gives that temperature). ``--check`` exits 1 when the file differs from a 
 """
 from __future__ import annotations
 
-import re
 from pathlib import Path
 
-from set_file import crc_organic_structures, csv_text, hill_counts, write_or_check  # this folder's shared helpers
+from set_file import crc_organic_molecules, csv_text, normalised_half, write_or_check  # this folder's shared helpers
 
 HERE = Path(__file__).resolve().parent
 OUT = HERE / "zwitterions.csv"
@@ -37,21 +36,10 @@ MAX_HEAVY_ATOMS = 60
 
 
 def build() -> str:
-    from ionicity.pipelines.melting_weights import open_set_half
     from ionicity.scorer.data.smiles_groups import zwitterion
-    from ionicity.scorer.melting_organic import is_organic_molecule
-    from ionicity.scorer.record import score_formula
 
-    crc, found = crc_organic_structures()
-    rows = []
-    for cas, (hill, smiles) in found.items():
-        if not zwitterion(smiles) or not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
-            continue
-        counts = hill_counts(hill)
-        if not is_organic_molecule(counts) or sum(n for s, n in counts.items() if s != "H") > MAX_HEAVY_ATOMS:
-            continue
-        normalized = score_formula(hill).get("formula_normalized") or hill
-        rows.append((hill, cas, str(crc.loc[cas, "Name"]), open_set_half(normalized)))
+    rows = [(hill, cas, name, normalised_half(hill)) for cas, hill, smiles, name in crc_organic_molecules(MAX_HEAVY_ATOMS)
+            if zwitterion(smiles)]
     return csv_text(["formula", "cas", "name", "set", "source"],
                     ([hill, cas, name, split, SOURCE] for hill, cas, name, split in sorted(rows)))
 

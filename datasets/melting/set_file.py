@@ -60,3 +60,32 @@ def crc_organic_structures():
                 if len(f) > 5 and f[1] in wanted and f[1] not in found:
                     found[f[1]] = (f[2], f[4])
     return crc, found
+
+
+def crc_organic_molecules(max_heavy_atoms: int) -> list[tuple[str, str, str, str]]:
+    """(CAS, Hill formula, SMILES, name) of the CRC organic table's compounds with a PubChem formula and SMILES
+    (:func:`crc_organic_structures`) whose formula is a plain Hill formula of an organic molecule
+    (:func:`ionicity.scorer.melting_organic.is_organic_molecule`) with at most ``max_heavy_atoms`` atoms other
+    than hydrogen: what the organic set builders choose among by the SMILES."""
+    import re
+
+    from ionicity.scorer.melting_organic import is_organic_molecule
+
+    crc, found = crc_organic_structures()
+    out = []
+    for cas, (hill, smiles) in found.items():
+        if not re.fullmatch(r"(?:[A-Z][a-z]?\d*)+", hill):
+            continue
+        counts = hill_counts(hill)
+        if is_organic_molecule(counts) and sum(n for s, n in counts.items() if s != "H") <= max_heavy_atoms:
+            out.append((cas, hill, smiles, str(crc.loc[cas, "Name"])))
+    return out
+
+
+def normalised_half(hill: str) -> str:
+    """:func:`ionicity.pipelines.melting_weights.open_set_half` of a formula as ``score_formula`` normalises it
+    (the split rule of the organic sets, so a formula in two of them falls in the same half of each)."""
+    from ionicity.pipelines.melting_weights import open_set_half
+    from ionicity.scorer.record import score_formula
+
+    return open_set_half(score_formula(hill).get("formula_normalized") or hill)
