@@ -28,7 +28,7 @@ from ionicity.scorer.mixture import names_a_blend
 from ionicity.scorer.organic import organic_molecule, organic_shortcut_enabled
 from ionicity.scorer.slips import (
     BEST_PENALTY, IMPOSSIBLE_MAX_LENGTH, MARGIN, MAYBE_SLIP, absurd_count, impossible_composition, lone_element_count, odd_electron_molecule,
-    reading_penalty, unknown_abbreviation,
+    reading_penalty, registry_case_evidence, unknown_abbreviation,
 )
 
 __all__ = ["ordinary_formula"]
@@ -146,7 +146,8 @@ def _capital_formula(text: str) -> ParsedFormula | None:
     if (len(comp.counts) <= _MOLECULE_MAX_ELEMENTS and all(n <= _MOLECULE_MAX_COUNT for _, n in comp.counts)
             and organic_molecule(comp) is not None):
         return comp
-    return comp if reading_penalty(text) <= MARGIN + _LEAST_READING_PENALTY else None
+    return comp if reading_penalty(text) <= MARGIN + _LEAST_READING_PENALTY and not registry_case_evidence(text) \
+        else None
 
 
 def _capital_salt(text: str) -> ParsedFormula | None:
@@ -158,7 +159,9 @@ def _capital_salt(text: str) -> ParsedFormula | None:
         comp = parse_formula(text)
     except FormulaError:
         return None
-    return comp if reading_penalty(text) <= MARGIN + BEST_PENALTY else None
+    # a composition the registry lists no compound of is evidence for a re-casing it does list (PBSO4): the
+    # slip reader's (slips.registry_case_evidence)
+    return comp if reading_penalty(text) <= MARGIN + BEST_PENALTY and not registry_case_evidence(text) else None
 
 
 _SYMBOL_COUNT = re.compile(r"([A-Z])(\d*)")

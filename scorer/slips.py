@@ -52,6 +52,7 @@ from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laborat
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
 from ionicity.scorer.organic_cations import WRITTEN_ONIUM_NOTE_MARK
+from ionicity.scorer.registry_formulas import registry_knows
 from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
@@ -544,6 +545,23 @@ def _stray_punctuation(text: str) -> Slip | None:
     return Slip("stray_punctuation", best, f"typing slip? {text!r} looks like {best}: {kinds}; values are for {best}")
 
 
+def registry_case_evidence(text: str) -> bool:
+    """Whether ``text``, which parses, reads as written into a composition the registry lists no compound of
+    and that is no organic molecule (carbon with hydrogen, or two carbons or more): in capitals, the evidence
+    that lets a re-casing the registry does list win without :data:`MARGIN` (PBSO4 as PbSO4).
+
+    >>> registry_case_evidence("PBSO4"), registry_case_evidence("CO2"), registry_case_evidence("C6H5NO2")
+    (True, False, False)
+    """
+    comp = _parsed(text)
+    if comp is None:
+        return False
+    counts = dict(comp.counts)
+    if counts.get("C", 0.0) > 0 and ("H" in counts or counts["C"] >= 2):
+        return False
+    return not registry_knows(counts)
+
+
 def _find_one(text: str, allowance: list[int]) -> Slip | None:
     """One round of :func:`find_slip`: the best proposal of any kind. The
     proposals draw on ``allowance`` (solver work units, proposals parsed);
@@ -583,6 +601,7 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     if not (all_caps or all_lower or impossible or MAYBE_SLIP.search(stripped)) and comp is not None:
         return None  # the common case, in one regular-expression scan
     candidates: list[tuple[float, int, str, str, bool]] = []  # penalty, order, kind, text, evidence
+    registry_listed: set[str] = set()  # re-casings the registry lists where the text as written is none
     written_box: list[float] = []
 
     def written_penalty() -> float:
@@ -634,6 +653,18 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
                                    if not _breaks_an_oxoanion(stripped, p)]
             else:
                 recased = lambda: _case_proposals(stripped, all_caps or all_lower)  # noqa: E731
+            if all_caps and registry_case_evidence(text):
+                # capitals whose literal reading is no compound the registry lists, where a re-casing is one
+                # (PBSO4 read as BPSO4, PB(NO3)2 as BPN2O6, CU(NO3)2 as a uranyl nitrate cyanate, SB2O3 as B2SO3:
+                # PbSO4, Pb(NO3)2, Cu(NO3)2, Sb2O3): the registry's word is the evidence, for those proposals
+                # (first, so that the same proposal is not cut as no better than itself below)
+                def known():
+                    found = [p for p in recased() if _parsed(p) is not None
+                             and registry_knows(dict(_parsed(p).counts))]
+                    registry_listed.update(found)
+                    return found
+
+                consider("letter_case", known, True)
             consider("letter_case", recased, all_lower or unreadable or radical or capital_of_i or impossible)
 
     if all_caps:
@@ -688,12 +719,15 @@ def _find_one(text: str, allowance: list[int]) -> Slip | None:
     # an l mistyped: where both read alike, the lost case wins (TIO2 is TiO2, not thallium superoxide; TINO3 stays
     # TlNO3, which TiNO3 cannot match)
     penalty, _, kind, best, evidence = min(candidates, key=lambda c: (
-        round(c[0], 9), 0 if all_caps and c[2] == "letter_case" else 1, c[1]))
+        round(c[0], 9), 0 if all_caps and c[2] == "letter_case" else 1, 0 if c[4] else 1, c[1]))
     if math.isinf(penalty):
         if kind == "leading_zero" and evidence and not math.isinf(written):
             return Slip(kind, "", f"typing slip? {text!r} has {SLIP_KINDS[kind]}; no better reading found")
         return None
-    if not (penalty < written - MARGIN or (evidence and penalty < written) or (kind == "leading_zero" and evidence)):
+    # a tie goes to a re-casing the registry lists over a text it does not (CO(NO3)2: Co(NO3)2, not nitronium
+    # carbonate)
+    if not (penalty < written - MARGIN or (evidence and penalty < written) or (kind == "leading_zero" and evidence)
+            or (best in registry_listed and penalty <= written)):
         return None
     others = [c[3] for c in sorted(candidates) if c[3] != best and c[0] <= penalty + 1.0][:2]
     also = f" (also possible: {', '.join(others)})" if others else ""

@@ -477,3 +477,27 @@ def test_capitals_with_counts_still_recover(text, meant):
 @pytest.mark.parametrize("text", ["D2O", "HTO", "T2O", "CDCl3"])
 def test_isotopic_waters_and_solvents_stay_as_written(text):
     assert score_formula(text)["formula_normalized"] == text
+
+
+@pytest.mark.parametrize("typed, meant, name", [
+    ("PBSO4", "PbSO4", "lead sulfate"), ("PB(NO3)2", "Pb(NO3)2", "lead nitrate"),
+    ("CU(NO3)2", "Cu(NO3)2", "copper(II) nitrate"), ("CO(NO3)2", "Co(NO3)2", "cobalt(II) nitrate"),
+    ("IN2O3", "In2O3", "indium oxide"), ("NB2O5", "Nb2O5", "niobium pentoxide"), ("PBO", "PbO", "lead(II) oxide"),
+])
+def test_capitals_whose_literal_reading_is_no_registry_compound_take_the_one_it_lists(typed, meant, name):
+    # read letter by letter these are BPSO4, BPN2O6, a uranyl nitrate cyanate, nitronium carbonate, N2IO3, B2NO5,
+    # BPO: compositions the registry lists no compound of, while the re-casing is a stock salt (common practice);
+    # the registry package chemicals gives the meant formula for the name
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    from ionicity.scorer.formula import hill_formula, parse_formula
+    row = score_formula(typed)
+    assert row["formula_normalized"] == meant and "typing slip" in row["message"]
+    assert hill_formula(dict(parse_formula(meant).counts)) == identifiers.search_chemical(name).formula
+
+
+@pytest.mark.parametrize("text", ["CO", "CO2", "NO", "KI", "KIO3", "UO2", "UF6", "CS2", "SF6", "HCN", "BN", "BF3",
+                                  "VOSO4", "YF3", "WO3", "C6H5NO2"])
+def test_capital_formulas_the_registry_lists_stay_as_written(text):
+    # each is a compound as written (carbon monoxide, uranium dioxide, vanadyl sulfate...; common practice)
+    row = score_formula(text)
+    assert "typing slip" not in (row["message"] or "")
