@@ -49,7 +49,7 @@ import re
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.formula import NONACID_MOLECULE_HINT, ONIUM_NAME_HINT, FormulaError, parse_formula
-from ionicity.scorer.onium_groups import onium_formula_from_groups
+from ionicity.scorer.onium_groups import GROUP_WORDS, onium_formula_from_groups
 from ionicity.scorer.name_grammar import (NameReading, Part, Reader, count_text, formula_text, parts_text, unsaid_readings,
                                          usual_charge)
 from ionicity.scorer.name_vocabulary import MAX_NAME_LENGTH, compact, tokenise
@@ -186,10 +186,11 @@ def _tetraalkyl_onium_name(name: str) -> str | None:
 _ONIUM_WORDS = {"ammonium": "N", "phosphonium": "P", "arsonium": "As", "sulfonium": "S"}
 _SUBSTITUENT_ONIUM_NAME = re.compile(
     r"^\s*(?P<groups>[a-z0-9(),\s-]+?)(?P<kind>ammonium|phosphonium|arsonium|sulfonium)\s+(?P<anion>\S.*)$", re.I)
-_OTHER_GROUPS = {"benzyl": "C7H7", "phenyl": "C6H5", "allyl": "C3H5", "vinyl": "C2H3", "cyclohexyl": "C6H11",
-                 "hydroxyethyl": "C2H5O", "phenethyl": "C8H9", "phenylethyl": "C8H9"}
-_GROUP_FORMULAS = {**{name: f"C{n if n > 1 else ''}H{2 * n + 1}" for name, n in _ALKYL_CHAINS.items()},
-                   **_OTHER_GROUPS}
+# the groups of scorer.onium_groups by their names without locants ("2-hydroxyethyl" read as hydroxyethyl after
+# its locant), the surfactant chain names and phenethyl
+_GROUP_FORMULAS = {**{re.sub(r"^\d+-", "", word): formula for formula, word in GROUP_WORDS.items()},
+                   **{name: f"C{n if n > 1 else ''}H{2 * n + 1}" for name, n in _ALKYL_CHAINS.items()},
+                   "phenethyl": "C8H9"}
 _GROUP_NAMES = "|".join(sorted(_GROUP_FORMULAS, key=len, reverse=True))
 _SUBSTITUENT = re.compile(
     rf"\(?(?:\d+-)?(?P<alone>{_GROUP_NAMES})\)?|(?P<n>di|tri|tetra|bis|tris|tetrakis)\(?(?:\d+-)?"
@@ -200,7 +201,8 @@ _GROUP_MULTIPLIER = {None: 1, "di": 2, "bis": 2, "tri": 3, "tris": 3, "tetra": 4
 def _substituted_onium_name(name: str) -> str | None:
     """The formula, written by its groups (:func:`scorer.onium_groups.onium_formula_from_groups`), of a
     quaternary ammonium, phosphonium or arsonium salt or a sulfonium salt named by its groups; None for any
-    other name. Groups: the n-alkyl chains of :data:`_ALKYL_CHAINS` and :data:`_OTHER_GROUPS`; the anion is read
+    other name. Groups: the n-alkyl chains of :data:`_ALKYL_CHAINS` and the groups of
+    :data:`scorer.onium_groups.GROUP_WORDS`; the anion is read
     as the sodium salt's and must be monovalent.
 
     >>> _substituted_onium_name("benzyltriethylammonium chloride"), _substituted_onium_name("tetraphenylphosphonium bromide")

@@ -33,6 +33,7 @@ __all__ = [
     "onium_from_label",
     "onium_shape",
     "onium_name",
+    "GROUP_WORDS",
     "onium_formula_from_groups",
 ]
 
@@ -237,11 +238,11 @@ def onium_formula_from_groups(groups: list[tuple[str, int]], centre: str, anion:
     return "".join(f"({g}){n if n > 1 else ''}" for g, n in groups) + centre + anion
 
 
-# substituent names of the groups (IUPAC Recommendations 2013, P-29 and P-32; allyl, vinyl, benzyl and
-# phenethyl as retained or common names; from memory)
-_GROUP_WORDS = {**{f"C{n if n > 1 else ''}H{2 * n + 1}": name for n, name in enumerate(ALKYL_NAMES, start=1)},
-                "C6H5": "phenyl", "C7H7": "benzyl", "C3H5": "allyl", "C2H3": "vinyl", "C6H11": "cyclohexyl",
-                "C2H5O": "2-hydroxyethyl", "C8H9": "2-phenylethyl"}
+#: substituent names of the groups, by Hill formula (IUPAC Recommendations 2013, P-29 and P-32; allyl, vinyl,
+#: benzyl as retained or common names; from memory); the name reader reads the same names back
+GROUP_WORDS = {**{f"C{n if n > 1 else ''}H{2 * n + 1}": name for n, name in enumerate(ALKYL_NAMES, start=1)},
+               "C6H5": "phenyl", "C7H7": "benzyl", "C3H5": "allyl", "C2H3": "vinyl", "C6H11": "cyclohexyl",
+               "C2H5O": "2-hydroxyethyl", "C8H9": "2-phenylethyl"}
 _SIMPLE_MULTIPLIERS = {1: "", 2: "di", 3: "tri", 4: "tetra"}
 _GROUP_MULTIPLIERS = {1: "", 2: "bis", 3: "tris", 4: "tetrakis"}
 _CENTRE_WORDS = {"N": "ammonium", "P": "phosphonium", "As": "arsonium", "S": "sulfonium"}
@@ -264,9 +265,9 @@ def onium_name(centre: str, groups) -> str | None:
     >>> onium_name("N", (("C16H33", 1), ("C7H7", 1), ("CH3", 2)))
     'benzylhexadecyldimethylammonium (benzyldimethylhexadecylammonium)'
     """
-    if centre not in _CENTRE_WORDS or any(g not in _GROUP_WORDS for g, _ in groups):
+    if centre not in _CENTRE_WORDS or any(g not in GROUP_WORDS for g, _ in groups):
         return None
-    words = [(_GROUP_WORDS[g], n) for g, n in groups]
+    words = [(GROUP_WORDS[g], n) for g, n in groups]
 
     def bare(word: str) -> str:
         return re.sub(r"[^a-z]", "", word)
