@@ -31,6 +31,14 @@ times ``score --name-col label`` alternating with the runs without it:
 ``name_col_ratio_vs_score`` is the median of the pairs' ratios (with
 ``--memory-scaling``, both sizes are scored with the names).
 
+``--against PYTHON`` times another install's ``python -m ionicity score`` on the
+same table, alternating with this one's (fresh process each, as above):
+``paired_ratio_vs_against`` is the median of the pairs' ratios (this tree's
+seconds over the other's), so load that comes and goes on a shared machine
+hits both sides of a pair alike. The issue that asked "no slower than before"
+is answered with a virtual environment of the earlier checkout (DEVELOPERS.md,
+"The cost of one formula").
+
 ``--memory-scaling`` instead scores a table of N and one of 10 N rows (same
 D) and prints both peak RSS figures and their ratio; with ``--engine dask``,
 each worker's peak for N and 10 N rows, with D and with 10 D distinct
@@ -260,16 +268,19 @@ def measure_floor(path: str, workdir: str) -> tuple[float, float]:
 
 
 def measure_score(path: str, workdir: str, workers: int | None = None, columns: str | None = None,
-                  name_col: str | None = None) -> tuple[float, float]:
+                  name_col: str | None = None, python: str | None = None) -> tuple[float, float]:
+    """(wall seconds, peak RSS MiB) of ``python -m ionicity score`` on ``path``; ``python`` (default: this
+    interpreter, with this tree first on its path) may be another install's interpreter, run with the
+    environment as it is."""
     out = os.path.join(workdir, "scored" + os.path.splitext(path)[1])
-    argv = [sys.executable, "-m", "ionicity", "score", path, "-o", out, "--quiet", "--overwrite"]
+    argv = [python or sys.executable, "-m", "ionicity", "score", path, "-o", out, "--quiet", "--overwrite"]
     if workers:
         argv += ["--workers", str(workers)]
     if columns:
         argv += ["--columns", columns]
     if name_col:
         argv += ["--name-col", name_col]
-    return _run(argv, env=_env())
+    return _run(argv, env=_env() if python is None else dict(os.environ))
 
 
 def measure_per_row(path: str, rows: int, sample_rows: int, seed: int = 11) -> tuple[float, int, list[str]]:
@@ -323,6 +334,17 @@ def byte_compile() -> bool:
     return all(compileall.compile_dir(os.path.join(root, package), quiet=1) for package in ("scorer", "pipelines"))
 
 
+def _version_of(python: str) -> str:
+    """Where ``python`` imports ionicity from (and the commit there, when it is a git checkout)."""
+    code = "import ionicity, os; print(os.path.dirname(os.path.dirname(os.path.abspath(ionicity.__file__))))"
+    try:
+        root = subprocess.run([python, "-c", code], capture_output=True, text=True, check=True).stdout.strip()
+    except (OSError, subprocess.CalledProcessError) as error:
+        raise SystemExit(f"--against {python}: cannot import ionicity there ({error})") from None
+    commit = subprocess.run(["git", "-C", root, "rev-parse", "--short", "HEAD"], capture_output=True, text=True)
+    return f"{root} ({commit.stdout.strip() or 'not a git checkout'})"
+
+
 def _print(name: str, value) -> None:
     if isinstance(value, float):
         value = f"{value:.4g}"
@@ -351,6 +373,11 @@ def main(argv: list[str] | None = None) -> int:
                              " time score with --name-col label too, alternating with the runs without it")
     parser.add_argument("--workdir", help="folder for the generated tables (default: a temporary one)")
     parser.add_argument("--seed", type=int, default=7)
+    parser.add_argument("--against", metavar="PYTHON",
+                        help="the interpreter of another ionicity install (a virtual environment of an earlier"
+                             " checkout): its 'python -m ionicity score' is timed on the same table, alternating with"
+                             " this one's; prints score_against_seconds and paired_ratio_vs_against (the median of"
+                             " this run's score time over the other's, pair by pair)")
     parser.add_argument("--columns", metavar="LIST",
                         help="also time 'ionicity score --columns LIST' (alternating with all columns) and print"
                              " score_columns_seconds and columns_vs_all_ratio")
@@ -360,6 +387,8 @@ def main(argv: list[str] | None = None) -> int:
     if args.repeat < 1:
         parser.error("--repeat must be at least 1")
 
+    # checked before any table is written: an interpreter that cannot import ionicity ends the run at once
+    against_version = _version_of(args.against) if args.against else None
     if args.calibrate:
         for n, serial, pooled in calibrate(workers=args.workers):
             _print(f"calibrate_{n}_serial_seconds", serial)
@@ -398,10 +427,15 @@ def main(argv: list[str] | None = None) -> int:
         write_table(table, args.rows, args.distinct, args.seed, names=args.name_col)
         # floor and score alternate, --repeat times each: on a shared machine
         # one pair can be off by a third; the medians are the figures
-        floors, scores, chosen, named = [], [], [], []
+        floors, scores, chosen, named, against = [], [], [], [], []
+        if args.against:
+            _print("against", args.against)
+            _print("against_version", against_version)
         for _ in range(args.repeat):
             floors.append(measure_floor(table, workdir))
             scores.append(measure_score(table, workdir, args.workers))
+            if args.against:
+                against.append(measure_score(table, workdir, args.workers, python=args.against))
             if args.columns:
                 chosen.append(measure_score(table, workdir, args.workers, args.columns))
             if args.name_col:
@@ -429,6 +463,11 @@ def main(argv: list[str] | None = None) -> int:
         _print("ratio_vs_io_floor", seconds / floor)
         _print("speedup_vs_per_row", baseline / seconds)
         _print("distinct_per_second", args.distinct / seconds)
+        if against:
+            _print("score_against_seconds_each", ", ".join(f"{a:.3f}" for a, _ in against))
+            _print("score_against_seconds", statistics.median(a for a, _ in against))
+            _print("paired_ratio_vs_against", statistics.median(s / a for (s, _), (a, _) in zip(scores, against)))
+            _print("against_peak_rss_mib", max(r for _, r in against))
         if chosen:
             chosen_seconds = statistics.median(c for c, _ in chosen)
             _print("score_columns", args.columns)

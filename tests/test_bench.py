@@ -54,3 +54,33 @@ def test_the_bench_runs_under_both_names(module):
                             timeout=120)
     assert result.returncode == 0, result.stderr
     assert "--calibrate" in result.stdout
+
+
+@pytest.mark.slow
+def test_bench_pairs_runs_against_another_install(tmp_path):
+    # this interpreter stands in for an earlier checkout's: the pairs' ratio is printed, and where the other
+    # install imports ionicity from
+    env = dict(os.environ)
+    env["PYTHONPATH"] = str(ROOT) + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
+    result = subprocess.run(
+        [sys.executable, "-m", "ionicity.pipelines.bench", "--rows", "2000", "--distinct", "200", "--repeat", "2",
+         "--baseline-rows", "20", "--workdir", str(tmp_path), "--against", sys.executable],
+        capture_output=True, text=True, env=env, cwd=ROOT, timeout=300,
+    )
+    assert result.returncode == 0, result.stderr
+    figures = dict(line.split(": ", 1) for line in result.stdout.splitlines())
+    assert len(figures["score_against_seconds_each"].split(", ")) == 2
+    assert float(figures["paired_ratio_vs_against"]) > 0
+    assert figures["against"] == sys.executable
+
+
+def test_bench_refuses_an_interpreter_without_ionicity(tmp_path):
+    missing = tmp_path / "python-missing"
+    result = subprocess.run(
+        [sys.executable, "-m", "ionicity.pipelines.bench", "--rows", "10", "--distinct", "5", "--repeat", "1",
+         "--workdir", str(tmp_path), "--against", str(missing)],
+        capture_output=True, text=True, cwd=ROOT, timeout=120,
+    )
+    assert result.returncode != 0
+    assert f"--against {missing}: cannot import ionicity there" in result.stderr
+    assert "Traceback" not in result.stderr
