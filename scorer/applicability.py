@@ -95,7 +95,7 @@ from ionicity.scorer.tables import table
 __all__ = [
     "COLUMNS", "GROUP", "IONIC_MODELS", "PHILLIPS_CRITICAL_IONICITY", "STRAINED_MIN_IONICITY",
     "REDOX_MARGIN_V", "analyse", "describe", "explain", "settle", "metal_rich_reading",
-    "redox_conflicts", "structural_family", "phillips_ionicity", "reduced_key", "family_decided",
+    "redox_conflicts", "structural_family", "phillips_ionicity", "reduced_key", "family_decided", "AMBIGUOUS_READINGS_NOTE",
 ]
 
 GROUP = "character"
@@ -381,6 +381,10 @@ def _bare_cation_charge(dec: Decomposition) -> int:
 
 
 _FAMILY_REASON = "known structure: "
+
+
+# the note of a formula that reads as several sets of ions equally well (its start; scorer.ions adds the readings)
+AMBIGUOUS_READINGS_NOTE = "ambiguous: equally plausible readings "
 
 
 def family_decided(dec: Decomposition) -> bool:
@@ -714,11 +718,15 @@ def settle(dec: Decomposition, hydrated: bool = False) -> Decomposition:
         reasons.append("formal ions dropped; oxidation states of the formal ions" if kept else
                        "formal ions dropped; oxidation states by electronegativity")
         changes["ionic_model_reasons"] = tuple(reasons)
+        if not kept:
+            # with no ions kept, which ionic reading ties with which says nothing about the compound (N2O4 read
+            # as NO+ NO3- or NO2+ NO2-, a molecule either way)
+            changes["notes"] = tuple(n for n in dec.notes if not n.startswith(AMBIGUOUS_READINGS_NOTE))
         # a molecule's formal reading too: FeCl4 (a typo for FeCl3, or the FeCl4(-) ion without its charge) balances
         # only as Fe(4+), which no chloride holds
         supervalent = supervalent_notes(dec.cations, dec.anions)
         if supervalent:
-            changes["notes"] = tuple(dec.notes) + tuple(supervalent)
+            changes["notes"] = tuple(changes.get("notes", dec.notes)) + tuple(supervalent)
     else:
         subvalent = subvalent_notes(dec.cations) + supervalent_notes(dec.cations, dec.anions)
         if not dec.cations and cls in ("covalent_molecular", "chain_layer_solid"):

@@ -28,7 +28,7 @@ from __future__ import annotations
 import dataclasses
 import itertools
 
-from ionicity.scorer.applicability import family_decided, metal_rich_reading, redox_conflicts, settle
+from ionicity.scorer.applicability import AMBIGUOUS_READINGS_NOTE, family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
@@ -565,7 +565,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         else:
             notes.extend(c + "; no compatible reading balances the formula (check it)" for c in conflicts)
     if alternatives:
-        notes.append("ambiguous: equally plausible readings " + " | ".join(
+        notes.append(AMBIGUOUS_READINGS_NOTE + " | ".join(
             (_reading_text(cations, anions),) + alternatives))
 
     states = oxidation_states_of(cations + anions)

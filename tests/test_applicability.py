@@ -368,3 +368,29 @@ def test_a_silicon_germanium_alloy_has_no_charge_transfer(formula):
 def test_silicon_carbide_keeps_its_formal_states():
     # SiC: Si +4, C -4 (dchi 0.65; common practice)
     assert score_formula("SiC")["oxidation_states"] in ("C:-4;Si:+4", "Si:+4;C:-4")
+
+
+@pytest.mark.parametrize("formula", ["N2O4", "O2NNO2", "N2O3"])
+def test_dinitrogen_tetroxide_and_trioxide_are_molecules(formula):
+    # G&E ch. 11: planar O2N-NO2 and ON-NO2 molecules in every phase; they had read as nitrosonium salts with the
+    # melting class ionic_liquid. Their ionic readings tie (NO+ NO3- and NO2+ NO2-), which says nothing about a
+    # molecule: no "ambiguous" warning once the ions are dropped
+    out = score_formula(formula)
+    assert (out["substance_class"], out["ionic_model"]) == ("covalent_molecular", "not_applicable")
+    assert out["status"] == "ok" and not out["cations"]
+    assert out["melting_class"] in ("liquid_at_room_temperature", "gas_at_room_temperature")
+
+
+def test_dinitrogen_pentoxide_is_nitronium_nitrate():
+    # G&E ch. 11: solid N2O5 is [NO2]+[NO3]- (molecular only in the vapour)
+    out = score_formula("N2O5")
+    assert (out["cations"], out["anions"]) == ("NO2(+)*1", "NO3(-)*1")
+
+
+@pytest.mark.parametrize("formula", ["NaAsO2", "AsNaO2", "KAsO2"])
+def test_meta_arsenites_read_with_their_library_anion(formula):
+    # G&E ch. 13: sodium meta-arsenite NaAsO2 (chains of AsO3 pyramids), As(III); it had come back with the warning
+    # of an anion built by rule
+    out = score_formula(formula)
+    assert out["status"] == "ok"
+    assert out["anions"] == "AsO2(-)*1" and "As:+3" in out["oxidation_states"]
