@@ -66,6 +66,7 @@ from ionicity.scorer.grammar import (
 )
 from ionicity.scorer.model import format_charge
 from ionicity.scorer.onium_groups import group_counts, onium_hint, written_onium
+from ionicity.scorer.carboxylates import carboxylate_hint, written_carboxylates
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -898,7 +899,13 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
     ordered = tuple((s, totals[s]) for s in hill_order(totals))
     hint = ""
-    if len(hydrohalide) == 1 and next(iter(hydrohalide.values())).is_integer():
+    carboxylates = written_carboxylates(cleaned) if "CO" in cleaned and (
+        "NH4" in cleaned or any(is_metal(s) for s in totals)) else ()
+    if carboxylates and not hints:
+        # carboxylate groups written out beside a metal (Zn(C11H23COO)2, Cu(CH3(CH2)6COO)2): that metal's salt of
+        # them, not a molecule with metal-carbon bonds (scorer.carboxylates)
+        hint = carboxylate_hint(carboxylates)
+    elif len(hydrohalide) == 1 and next(iter(hydrohalide.values())).is_integer():
         (halide, n), = hydrohalide.items()
         hint = f"{HYDROHALIDE_HINT}{halide}*{int(n)}"
     elif _ORGANOMETALLIC_GROUPS.search(cleaned):

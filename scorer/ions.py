@@ -28,6 +28,7 @@ from __future__ import annotations
 import dataclasses
 import itertools
 
+from ionicity.scorer.carboxylates import CARBOXYLATE_HINT, carboxylate_salt_readings, hill_carboxylate_readings
 from ionicity.scorer.applicability import AMBIGUOUS_READINGS_NOTE, family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometallic_reason
 from ionicity.scorer.caching import once, per_input
@@ -346,10 +347,16 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     skeleton = False  # an organic skeleton no library ion holds (_skeleton_without_library_ion): no walk
     onium, onium_notes = onium_cation_readings(remaining, comp.structure_hint, hinted) \
         if comp.structure_hint.startswith(ONIUM_CATION_HINT) else ([], [])
+    carboxylate, carboxylate_notes = carboxylate_salt_readings(remaining, comp.structure_hint) \
+        if comp.structure_hint.startswith(CARBOXYLATE_HINT) and not hinted else ([], [])
     if onium:
         # organic groups written on N, P, As or S before one anion (scorer.onium_groups): that onium salt
         readings = onium
         notes.extend(onium_notes)
+    elif carboxylate:
+        # carboxylate groups written beside one metal (scorer.carboxylates): that metal's salt of them
+        readings = carboxylate
+        notes.extend(carboxylate_notes)
     elif not hinted and organic_candidate(remaining):
         # a molecule unless it is one ion pair of the library (acetic acid,
         # ethylammonium nitrate): no search over organic fragments
@@ -417,6 +424,13 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # not a metal(VII) cation with oxide and hydroxide
         readings = _metal_acid_reading(remaining) or readings
     chosen = _best(readings)
+    if chosen is None and not hinted:
+        # a metal with C, H and O whose rest is as many equal saturated carboxylates as its charge (C24H46O4Zn,
+        # zinc laurate): that salt, before the carbide test reads it as a metal alkyl (scorer.carboxylates)
+        built, built_notes = hill_carboxylate_readings(remaining)
+        if built:
+            readings, chosen = built, _best(built)
+            notes.extend(built_notes)
     # carbon beside hydrogen is read in no carbide (scorer.ion_search): where nothing else balances, whether a
     # carbide would (a metal alkyl or chelate, organometallic_reason below; the last resorts that build ions
     # then stand aside, as they did while the walks still returned such a reading)

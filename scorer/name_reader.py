@@ -47,6 +47,7 @@ import dataclasses
 import re
 
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.carboxylates import CARBOXYLATE_SOURCE
 from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.formula import NONACID_MOLECULE_HINT, ONIUM_NAME_HINT, FormulaError, parse_formula
 from ionicity.scorer.onium_groups import GROUP_WORDS, onium_formula_from_groups
@@ -769,6 +770,10 @@ def read_name_parts(name: str) -> NameReading | None:
         return None
     if anion_text is not None:
         if reading.cations or len(reading.anions) != 1:
+            return None
+        if any(w.kind == "ion" and w.ion is not None and w.ion.source == CARBOXYLATE_SOURCE for w in words):
+            # "lauric acid": a carboxylic acid is a molecule, read by its registry entry, not as H+ beside the
+            # carboxylate that names its salts (scorer.carboxylates)
             return None
         reading.cations.append(Part("H", 1, element="H"))
     elif not reading.cations and len(reading.anions) == 1 and text.startswith("hydrogen"):

@@ -28,6 +28,7 @@ import re
 from dataclasses import dataclass, replace
 
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.carboxylates import carboxylate_name_words
 from ionicity.scorer.elements import element_symbols, get_element
 from ionicity.scorer.ion_library import ion_library
 from ionicity.scorer.model import Ion
@@ -164,6 +165,11 @@ def vocabulary() -> tuple[dict[str, Word], int]:
             key = compact(alias)
             if key and key not in words:
                 add(key, Word(key, "ion", ion.label, ion.charge, ion=ion))
+    for name, ion in carboxylate_name_words():
+        # carboxylates the library does not list (laurate, 2-ethylhexanoate), built by rule: names of metal soaps
+        key = compact(name)
+        if key not in words:
+            add(key, Word(key, "ion", ion.label, ion.charge, ion=ion))
     for roman, value in ROMAN.items():
         add(f"({roman})", Word(f"({roman})", "stock", number=value))
     for n in range(1, 9):

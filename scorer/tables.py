@@ -97,6 +97,7 @@ TABLES: dict[str, TableSpec] = {
             "structural_families.csv", ("formula", "substance_class", "ionic_model", "structure", "source"),
             "scorer.applicability",
         ),
+        TableSpec("carboxylate_names.csv", ("word", "group", "source"), "scorer.carboxylates"),
         TableSpec("fallback_radii.csv", ("ion_id", "radius_pm", "source"), "scorer.radii"),
         TableSpec("phillips_ionicity.csv", ("formula", "ionicity_fi", "coordination", "source"), "scorer.applicability"),
         TableSpec(

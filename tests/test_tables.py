@@ -28,6 +28,7 @@ ROWS = {
     "ion_shape.csv": 97,
     "madelung_prototypes.csv": 16,
     "structural_families.csv": 27,
+    "carboxylate_names.csv": 40,
     "phillips_ionicity.csv": 43,
     "fallback_radii.csv": 7,
     "redox_potentials.csv": 25,
