@@ -27,11 +27,12 @@ from __future__ import annotations
 
 import dataclasses
 import itertools
+import re
 
-from ionicity.scorer.carboxylates import CARBOXYLATE_HINT, carboxylate_salt_readings, hill_carboxylate_readings
 from ionicity.scorer.applicability import AMBIGUOUS_READINGS_NOTE, family_decided, metal_rich_reading, redox_conflicts, settle
 from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometallic_reason
 from ionicity.scorer.caching import once, per_input
+from ionicity.scorer.carboxylates import CARBOXYLATE_HINT, carboxylate_salt_readings, hill_carboxylate_readings
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
 from ionicity.scorer.organic_anions import (
@@ -64,8 +65,8 @@ from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_reading
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
 from ionicity.scorer.registry_formulas import (
-    ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_reactive_group, registry_reactive_isomer,
-    registry_salt, registry_zwitterion,
+    ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_names_of, registry_reactive_group,
+    registry_reactive_isomer, registry_salt, registry_zwitterion,
 )
 from ionicity.scorer.substance import (
     binary_carbonyl,
@@ -78,6 +79,7 @@ from ionicity.scorer.substance import (
     organometallic_states,
     oxidation_states_of,
 )
+from ionicity.scorer.tables import table
 
 __all__ = ["decompose", "decompose_anhydrous", "decompose_within", "solver_work", "work_bound", "formal_oxidation_states", "format_ion_terms", "format_oxidation_states"]
 
@@ -1004,8 +1006,64 @@ def _best(readings):
                  for t, ca in seen.items()}
         most = min(cyano.values())
         seen = {t: ca for t, ca in seen.items() if cyano[t] <= most + _TOL}
+    if len(seen) > 1:
+        # and, where the registry names this formula, the reading whose ions its name says: C2H8N2O4 is ammonium
+        # oxalate, not 2-hydroxyethylammonium nitrate; H6N2O3S ammonium sulfamate, not hydrazinediium sulfite
+        seen = _registry_named(seen)
     (_, (cations, anions)), *others = seen.items()
     return cations, anions, tuple(t for t, _ in others), best_penalty
+
+
+def _ion_name_stems(ion) -> tuple[str, ...]:
+    """The compact words of an ion's name and of the alternatives in its brackets that a compound's name would
+    write: a cation's without its -ium ending (hydrazinium -> hydrazin, as in "hydrazine acetate"), an anion's
+    whole (nitrate, not nitr, which nitrite shares); none shorter than five letters."""
+    if ion.monatomic and ion.charge < 0:
+        words = _anion_element_words().get(ion.element, [])  # bromide, not bromine
+    else:
+        main, _, rest = ion.name.partition(" (")
+        words = [main, *re.split(r"[,;]", rest.rstrip(")"))] if rest else [main]
+    stems = []
+    for word in words:
+        key = re.sub(r"[^a-z0-9]", "", word.strip().lower())
+        if ion.charge > 0 and key.endswith("ium"):
+            key = key[:-3]
+        if len(key) >= 5:
+            stems.append(key)
+    return tuple(stems)
+
+
+@once
+def _anion_element_words() -> dict[str, list[str]]:
+    """Element symbol -> the names of its monatomic anion (chloride, sulfide; scorer/data/name_words.csv)."""
+    words: dict[str, list[str]] = {}
+    for row in table("name_words.csv"):
+        if row["kind"] == "anion_element":
+            words.setdefault(row["value"], []).append(row["word"])
+    return words
+
+
+def _registry_named(seen: dict) -> dict:
+    """Of tied readings (text -> (cations, anions)), the one whose every ion each of the registry's names of the
+    formula writes (:func:`registry_names_of`), where every name writes that one reading and no other; all of them
+    otherwise (C4H12ClN, which the registry lists as tetramethylammonium chloride and as two amine
+    hydrochlorides, stays a tie)."""
+    cations, anions = next(iter(seen.values()))
+    counts: dict[str, float] = {}
+    for term in (*cations, *anions):
+        for symbol, k in term.ion.composition:
+            counts[symbol] = counts.get(symbol, 0.0) + k * term.count
+    names = [re.sub(r"[^a-z0-9]", "", name.lower()) for name in registry_names_of(hill_formula(counts))]
+    if not names:
+        return seen
+    named = set()
+    for name in names:
+        full = {text for text, ca in seen.items()
+                if all(any(stem in name for stem in _ion_name_stems(term.ion)) for term in (*ca[0], *ca[1]))}
+        if len(full) != 1:
+            return seen
+        named |= full
+    return {text: seen[text] for text in named} if len(named) == 1 else seen
 
 
 def _bare_protons(cations_anions) -> float:

@@ -16,7 +16,7 @@ from ionicity.scorer.caching import once
 from ionicity.scorer.grammar import hill_text_key, reduced_key
 from ionicity.scorer.tables import table
 
-__all__ = ["registry_knows", "registry_molecule", "registry_salt"]
+__all__ = ["registry_knows", "registry_molecule", "registry_salt", "registry_names_of"]
 
 _MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate", "zwitterion"})
 # the kinds that name a group water attacks
@@ -102,6 +102,24 @@ def registry_reactive_isomer(hill: str) -> tuple[str, str] | None:
     if found is None or len(found[0]) < 2 or not found[0] & _REACTIVE_KINDS:
         return None
     return _reactive_names().get(hill)
+
+
+@once
+def _names() -> dict[str, tuple[str, ...]]:
+    """Hill formula -> every name the registry lists with it, in its order."""
+    names: dict[str, list[str]] = {}
+    for row in table("registry_names.csv"):
+        names.setdefault(row["formula"], []).append(row["name"])
+    return {formula: tuple(found) for formula, found in names.items()}
+
+
+def registry_names_of(hill: str) -> tuple[str, ...]:
+    """The names the registry lists for the Hill formula ``hill`` (none: an empty tuple).
+
+    >>> registry_names_of("H6N2O3S")
+    ('Ammonium sulfamate',)
+    """
+    return _names().get(hill, ())
 
 
 def registry_salt(hill: str) -> str | None:

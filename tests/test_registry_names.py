@@ -151,3 +151,22 @@ def test_a_registry_name_with_a_space_is_no_typing_slip(name, cas):
     assert row["status"] == "warning" and "the formula cell holds a name" in row["message"], row["message"]
     assert "typing slip" not in row["message"]
     assert parse_formula(row["formula_normalized"]).total_counts == parse_formula(search_chemical(cas).formula).total_counts
+
+
+@pytest.mark.parametrize("hill, cas, cations, anions", [
+    # Hill formulas whose ionic readings tie; the registry (the package chemicals) names one of them
+    ("C2H8N2O4", "1113-38-8", "NH4(+)*2", "C2O4(2-)*1"),  # ammonium oxalate, not 2-hydroxyethylammonium nitrate
+    ("H6N2O3S", "7773-06-0", "NH4(+)*1", "NH2SO3(-)*1"),  # ammonium sulfamate, not hydrazinediium sulfite
+])
+def test_a_tie_the_registry_names_goes_to_the_named_salt(hill, cas, cations, anions):
+    from chemicals.identifiers import search_chemical
+
+    assert parse_formula(search_chemical(cas).formula).total_counts == parse_formula(hill).total_counts
+    out = score_formula(hill)
+    assert (out["cations"], out["anions"], out["status"]) == (cations, anions, "ok")
+
+
+def test_a_tie_the_registry_names_both_ways_stays_a_tie():
+    # C4H12ClN is tetramethylammonium chloride and butylamine hydrochloride (and diethylamine hydrochloride) in the
+    # registry: no reading is the formula's only compound, so the row says both
+    assert "ambiguous" in score_formula("C4H12ClN")["message"]
