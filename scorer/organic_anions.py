@@ -15,8 +15,10 @@ written as cation plus anion; group charges of the s block: Greenwood &
 Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 4-5; from memory).
 
 Rule (stated, not fitted): one s-block metal of group 1 or 2, a whole count of
-it; the rest holds carbon and hydrogen, only C, H, O, N, S, P and halogens, and
-at least as many oxygen atoms as negative charges. One anion carries the whole
+it; the rest holds carbon with hydrogen or a halogen (sodium trichloroacetate,
+CCl3COONa), only C, H, O, N, S, P and halogens, and at least as many oxygen and
+sulfur atoms as negative charges (a dithiocarbamate or thiolate carries its
+charge on S: sodium methyldithiocarbamate, C2H4NNaS2). One anion carries the whole
 charge, except for a group-2 metal whose rest splits into two equal halves (two
 monoanions: Mg(C17H35COO)2, Ca(C6H11O7)2), the common case of the alkaline-earth
 carboxylates. Polyacid salts of the alkali metals keep one polyanion
@@ -38,6 +40,7 @@ ORGANIC_ANION_SOURCE = (
     " organic acid, everything beside the s-block metal, charge from the metal's group"
 )
 _ALLOWED = frozenset({"C", "H", "O", "N", "S", "P", "F", "Cl", "Br", "I"})
+_HALOGENS = frozenset({"F", "Cl", "Br", "I"})
 # a built anion costs like an uncommon library ion, as the complex anions built by rule do
 _PENALTY_BUILT = _PENALTY_UNCOMMON_ION + _PENALTY_SPECIES
 
@@ -117,8 +120,11 @@ def organic_anion_readings(remaining: dict[str, float]) -> tuple[list, list[str]
 
 def _acid_rest(rest: dict[str, float], charge: int) -> bool:
     """Whether ``rest`` (element -> count) can be an organic acid's conjugate base of ``charge`` negative charges:
-    carbon and hydrogen, only the elements of :data:`_ALLOWED`, whole counts, one oxygen or more per charge."""
-    return ("C" in rest and "H" in rest and set(rest) <= _ALLOWED and rest.get("O", 0.0) >= charge
+    carbon with hydrogen or a halogen (trichloroacetate CCl3COO(-) has no hydrogen), only the elements of
+    :data:`_ALLOWED`, whole counts, one oxygen or sulfur atom or more per charge (the S donors of
+    dithiocarbamates and thiolates carry the charge as O donors do)."""
+    return ("C" in rest and ("H" in rest or rest.keys() & _HALOGENS) and set(rest) <= _ALLOWED
+            and rest.get("O", 0.0) + rest.get("S", 0.0) >= charge
             and all(abs(n - round(n)) <= 1e-9 for n in rest.values()))
 
 

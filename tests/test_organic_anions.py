@@ -78,3 +78,20 @@ def test_the_ammonium_written_beside_an_unlisted_organic_anion_is_an_ammonium_sa
     assert row["substance_class"] == "ionic_salt" and row["cations"].startswith("NH4(+)")
     assert anion in row["anions"]
     assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(formula).mass, rel=1e-4)
+
+
+@pytest.mark.parametrize("name, cas, cation, anion", [
+    # organic anions with no hydrogen or with S donors; names and formulas from the registry (the package
+    # chemicals); each had come back "no charge-balanced set of ions found" (an error row)
+    ("Sodium trichloroacetate", "650-51-1", "Na(+)*1", "C2Cl3O2(-)*1"),
+    ("Sodium methyldithiocarbamate", "137-42-8", "Na(+)*1", "C2H4NS2(-)*1"),
+    ("Potassium dichloroisocyanurate", "2244-21-5", "K(+)*1", "C3Cl2N3O3(-)*1"),
+])
+def test_perhalogenated_and_sulfur_donor_organic_anions(name, cas, cation, anion):
+    # a salt of an organic acid is cation plus conjugate base (IUPAC Red Book 2005, IR-5.4); the dithiocarbamate
+    # carries its charge on S as a carboxylate does on O (Greenwood & Earnshaw, 2nd ed., 1997, ch. 15; from memory)
+    from chemicals.identifiers import search_chemical
+
+    row = score_formula(search_chemical(cas).formula)
+    assert (row["substance_class"], row["cations"], row["anions"]) == ("ionic_salt", cation, anion)
+    assert score_formula(name)["anions"] == anion
