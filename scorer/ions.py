@@ -725,7 +725,38 @@ def _coexisting(readings, remaining: dict[str, float]) -> list:
         # silicide and germanide ions only where no other anion takes the electrons: Cu2GeS3 was read as Cu(3+)
         # with Ge(4-) and a trisulfide (Mg2Si is Si(4-); beside S, Se, P or O the tetrel is the cation)
         readings = [r for r in readings if not _tetride_beside_another_anion(r[1])]
+    if readings and "N" in remaining and "O" in remaining:
+        readings = [r for r in readings if not _nitrosyl_beside_base(r[1])]
     return readings
+
+
+_NITROSYL_CATIONS = frozenset({"NO(+)", "NO2(+)"})
+# the anions of strong acids beside which NO+ and NO2+ keep as salts, and the halo-complexes (BF4-, PF6-, SbF6-,
+# AlCl4-); N2O5 is NO2+ NO3- (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3; from memory)
+_NITROSYL_PARTNERS = frozenset({"ClO4(-)", "ClO3(-)", "BrO4(-)", "IO4(-)", "NO3(-)", "HSO4(-)", "SO4(2-)",
+                                "S2O7(2-)", "SO3F(-)", "[OTf](-)", "[NTf2](-)"})
+
+
+def _nitrosyl_beside_base(terms) -> bool:
+    """Whether a reading holds the nitrosonium or nitronium ion beside an anion that is no strong acid's: NO+ and
+    NO2+ keep as salts only beside such anions (:data:`_NITROSYL_PARTNERS` and the halo-complexes: NOBF4,
+    NO2ClO4, NOHSO4); with a halide, a pseudohalide or a basic anion they are covalent molecules (NOCl, NO2F,
+    C(NO2)3Cl) or no compound at all (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 11.3;
+    from memory). The trinitromethanes had read as NO(+) with carbonate and a halide."""
+    if not any(ion.ion_id in _NITROSYL_CATIONS for ion, _ in terms):
+        return False
+    return any(ion.charge < 0 and ion.family != "halo-complex" and ion.ion_id not in _NITROSYL_PARTNERS
+               for ion, _ in terms)
+    acidity = acidity_table()
+    for ion, _ in terms:
+        if ion.charge >= 0:
+            continue
+        if ion.monatomic or ion.family == "pseudohalide":
+            return True
+        kind, pka, _ = acidity.get(ion.ion_id, ("", float("nan"), float("nan")))
+        if kind == "anion_base" and pka >= 0:
+            return True
+    return False
 
 
 def _hydride_beside_reactive_ion(terms) -> bool:

@@ -16,7 +16,8 @@ Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 4-5; from memory).
 
 Rule (stated, not fitted): one s-block metal of group 1 or 2, a whole count of
 it; the rest holds carbon with hydrogen or a halogen (sodium trichloroacetate,
-CCl3COONa), only C, H, O, N, S, P and halogens, and at least as many oxygen and
+CCl3COONa), only C, H, O, N, S, P, As and halogens (sodium cacodylate and arsanilate:
+arsonates and arsinates), and at least as many oxygen and
 sulfur atoms as negative charges (a dithiocarbamate or thiolate carries its
 charge on S: sodium methyldithiocarbamate, C2H4NNaS2). One anion carries the whole
 charge, except for a group-2 metal whose rest splits into two equal halves (two
@@ -39,7 +40,7 @@ ORGANIC_ANION_SOURCE = (
     "constructed by rule (scorer/organic_anions.py), not from the ion library: the conjugate base of an"
     " organic acid, everything beside the s-block metal, charge from the metal's group"
 )
-_ALLOWED = frozenset({"C", "H", "O", "N", "S", "P", "F", "Cl", "Br", "I"})
+_ALLOWED = frozenset({"C", "H", "O", "N", "S", "P", "As", "F", "Cl", "Br", "I"})
 _HALOGENS = frozenset({"F", "Cl", "Br", "I"})
 # a built anion costs like an uncommon library ion, as the complex anions built by rule do
 _PENALTY_BUILT = _PENALTY_UNCOMMON_ION + _PENALTY_SPECIES
@@ -132,8 +133,8 @@ def ammonium_organic_anion_readings(remaining: dict[str, float], ammonium: float
     """The reading of ``remaining`` as ``ammonium`` written NH4(+) ions with the rest as one organic anion.
 
     The text writes the ammonium ion (``NH4C7H15COO``, ``CH3(CH2)6COONH4``: ammonium octanoate) and no library
-    anion balances it: the rest is the conjugate base of an organic acid, as for the s-block metals above (C and
-    H, only C, H, O, N, S, P and halogens, at least one oxygen per charge). Returns ``([(penalty, [(Ion,
+    anion balances it: the rest is the conjugate base of an organic acid, as for the s-block metals above
+    (:func:`_acid_rest`). Returns ``([(penalty, [(Ion,
     count), ...])], [note])`` or two empty lists.
 
     >>> readings, _ = ammonium_organic_anion_readings({"C": 8.0, "H": 19.0, "N": 1.0, "O": 2.0}, 1.0)

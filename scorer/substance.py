@@ -443,6 +443,21 @@ def _cyanocarbon(counts: dict[str, float]) -> bool:
     return set(counts) == {"C", "N"} and counts["N"] <= counts["C"]
 
 
+def _carbon_nitrogen_molecule(counts: dict[str, float]) -> bool:
+    """Whether carbon, the only network former, with nitrogen and oxygen or with more nitrogen than the carbon
+    nitride C3N4 holds, is a molecule: nitro compounds and azides without hydrogen (tetranitromethane CN4O8,
+    trinitroacetonitrile C2N4O6, cyanuric triazide C3N12) are molecular liquids and solids, no refractory
+    network; carbon's networks with nitrogen alone stop at C3N4 (Greenwood & Earnshaw, Chemistry of the
+    Elements, 2nd ed., 1997, ch. 8.7 and 11.3; from memory).
+
+    >>> _carbon_nitrogen_molecule({"C": 1.0, "N": 4.0, "O": 8.0}), _carbon_nitrogen_molecule({"C": 3.0, "N": 4.0})
+    (True, False)
+    """
+    if set(counts) & _NETWORK_FORMERS != {"C"} or "N" not in counts or not set(counts) <= {"C", "N", "O"}:
+        return False
+    return "O" in counts or counts["N"] > 4 * counts["C"] / 3 + _TOL
+
+
 def _alloy_of_one_group(symbols) -> bool:
     """Whether ``symbols`` are two or more elements of one group whose Pauling electronegativities differ by less
     than 0.5 (the van Arkel-Ketelaar threshold of a polar bond; SiGe 0.11, SiC 0.65).
@@ -473,7 +488,8 @@ def nonionic_decomposition(
     elif symbols in ({"N", "H"},) and counts["N"] in (1.0, 2.0) and counts["H"] == 2 * counts["N"] + (1 if counts["N"] == 1 else 0):
         cls = "base"
     elif symbols & _NETWORK_FORMERS and symbols <= _NETWORK_PARTNERS and not (symbols == {"C", "O"}) and not (
-            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}) and not _cyanocarbon(counts):
+            symbols & _NOT_WITH_CARBON_ALONE and not symbols & {"B", "Si", "Ge"}) and not _cyanocarbon(counts) \
+            and not _carbon_nitrogen_molecule(counts):
         cls = "covalent_network"
         if _alloy_of_one_group(symbols):
             # elements of one group with nearly equal electronegativities (SiGe, Si0.8Ge0.2): a solid solution of

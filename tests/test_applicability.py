@@ -394,3 +394,30 @@ def test_meta_arsenites_read_with_their_library_anion(formula):
     out = score_formula(formula)
     assert out["status"] == "ok"
     assert out["anions"] == "AsO2(-)*1" and "As:+3" in out["oxidation_states"]
+
+
+@pytest.mark.parametrize("formula, cation, anion", [
+    ("NOBF4", "NO(+)*1", "BF4(-)*1"), ("NO2ClO4", "NO2(+)*1", "ClO4(-)*1"), ("NOHSO4", "NO(+)*1", "HSO4(-)*1"),
+])
+def test_nitrosonium_and_nitronium_salts_of_strong_acids(formula, cation, anion):
+    # G&E ch. 11.3: NO+ and NO2+ salts of the anions of strong acids; nitrosylsulfuric acid no longer ties with
+    # NO2+ beside hydrogensulfite
+    out = score_formula(formula)
+    assert (out["cations"], out["anions"], out["status"]) == (cation, anion, "ok")
+
+
+@pytest.mark.parametrize("formula", ["NOCl", "NO2Cl", "CClN3O6", "CBrN3O6", "C2N4O6"])
+def test_nitrosyl_halides_and_nitro_compounds_are_molecules(formula):
+    # G&E ch. 11.3: NOCl and NO2Cl are covalent molecules; chloropicrin-like trinitromethanes (C(NO2)3Cl) and
+    # trinitroacetonitrile had read as NO(+) beside carbonate and a halide, or NO2(+) beside cyanate
+    out = score_formula(formula)
+    assert out["substance_class"] == "covalent_molecular" and not out["cations"]
+
+
+@pytest.mark.parametrize("formula", ["CN4O8", "C3N12", "C2N4O6"])
+def test_nitro_compounds_and_azides_without_hydrogen_are_no_refractory_network(formula):
+    # tetranitromethane (a liquid, mp 14 C) and cyanuric triazide are molecules (G&E ch. 8.7 and 11.3, from
+    # memory); the carbon-nitrogen network C3N4 stays a network
+    out = score_formula(formula)
+    assert out["substance_class"] == "covalent_molecular" and out["melting_class"] != "refractory"
+    assert score_formula("C3N4")["substance_class"] == "covalent_network"

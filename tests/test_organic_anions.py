@@ -95,3 +95,13 @@ def test_perhalogenated_and_sulfur_donor_organic_anions(name, cas, cation, anion
     row = score_formula(search_chemical(cas).formula)
     assert (row["substance_class"], row["cations"], row["anions"]) == ("ionic_salt", cation, anion)
     assert score_formula(name)["anions"] == anion
+
+
+@pytest.mark.parametrize("cas, anion", [("124-65-2", "C2H6AsO2(-)*1"), ("127-85-5", "C6H7AsNO3(-)*1")])
+def test_organoarsenic_anions_of_sodium_salts(cas, anion):
+    # sodium cacodylate and sodium arsanilate (the package chemicals): Na+ beside the arsinate or arsonate; they
+    # had read as H(+), As(3-) and an acetate or a phenoxide (IUPAC Red Book 2005, IR-5.4)
+    from chemicals.identifiers import search_chemical
+
+    row = score_formula(search_chemical(cas).formula)
+    assert (row["cations"], row["anions"]) == ("Na(+)*1", anion)
