@@ -1,4 +1,5 @@
-"""What mixing the components of a mixture row can do: an oxidiser beside an acid or a fuel.
+"""What mixing the components of a mixture row can do: an oxidiser beside an acid or a fuel, water beside a
+compound that reacts with it.
 
 A mixture row (:mod:`scorer.mixture`) is scored from its components, each a
 compound of its own. Some pairs are hazards that no single component shows:
@@ -12,6 +13,10 @@ compound of its own. Some pairs are hazards that no single component shows:
 * an oxidiser beside a **fuel** (carbon compounds, ammonia and the ammonium-like
   cations, the metals, carbon, sulfur, phosphorus): bleach with ammonia gives
   chloramines; nitrates, chlorates and perchlorates with fuels burn or explode.
+
+* **water** beside a compound whose own row says it reacts with water
+  (``water_behaviour`` ``reacts`` or ``reacts_violently``: AlCl3, SOCl2, Na,
+  NaH, CaC2, P4O10): the blend is a reaction, and its liquidus is left out.
 
 The row gets a warning naming the pair, and a row with an acid or a base among
 its components the corrosion note that solutions of acids and bases carry. A
@@ -30,7 +35,7 @@ from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
 from ionicity.scorer.melting_anions import FUEL_CATIONS, OXIDISING_ANIONS
 
-__all__ = ["mixing_warning", "corrosive_note"]
+__all__ = ["mixing_warning", "corrosive_note", "water_reaction_warning"]
 
 _OXIDISING_IONS = OXIDISING_ANIONS | frozenset({"ClO(-)", "BrO(-)", "IO3(-)", "S2O8(2-)", "O2(2-)", "IO4(-)",
                                                  "SO5(2-)", "HSO5(-)"})
@@ -101,3 +106,27 @@ def corrosive_note(components) -> str:
         return ""
     return (f"{', '.join(corrosive)} make the mixture corrosive: read the safety data sheets before handling,"
             " diluting or mixing it")
+
+
+def water_reaction_warning(components) -> str:
+    """The warning of a mixture of water with a compound that reacts with water; "" otherwise.
+
+    ``components``: (name, formula_normalized, water_behaviour, water_reaction_products) per component.
+
+    >>> water_reaction_warning([("AlCl3", "AlCl3", "reacts_violently", "HCl"), ("H2O", "H2O", "miscible", None)])[:58]
+    'mixing hazard: AlCl3 reacts violently with water, giving H'
+    >>> water_reaction_warning([("NaCl", "NaCl", "dissolves", None), ("H2O", "H2O", "miscible", None)])
+    ''
+    """
+    if not any(formula == "H2O" for _, formula, _, _ in components):
+        return ""
+    for name, formula, behaviour, products in components:
+        if formula != "H2O" and behaviour in ("reacts", "reacts_violently"):
+            how = "reacts violently" if behaviour == "reacts_violently" else "reacts"
+            giving = f", giving {products.replace(';', ', ')}" if products else ""
+            return (f"mixing hazard: {name} {how} with water{giving}: put together they react rather than mix, so no"
+                    " liquidus is estimated; add such a compound to water only under a written procedure, in small"
+                    " portions with cooling and ventilation, following its safety data sheet, local codes and"
+                    " qualified people (Bretherick's Handbook of Reactive Chemical Hazards, 7th ed., 2007; from"
+                    " memory)")
+    return ""

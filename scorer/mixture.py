@@ -41,7 +41,7 @@ from ionicity.scorer.melting import fusion_estimate
 from ionicity.scorer.liquidus import MeltComponent, MeltIon, liquidus_K, pair_lambda_J_mol
 from ionicity.scorer.mixture_notation import MixtureNotationError, MixtureText, blend_key, read_mixture_text
 from ionicity.scorer.melting_routes import GAS_CLASS, melting_class_for
-from ionicity.scorer.mixing import corrosive_note, mixing_warning
+from ionicity.scorer.mixing import corrosive_note, mixing_warning, water_reaction_warning
 from ionicity.scorer.solutions import split_grade_words
 from ionicity.scorer.mixture_rules import mixture_rule
 from ionicity.scorer.model import Column
@@ -282,6 +282,15 @@ class _Component:
     molar_mass_g_mol: float
     fusion: dict | None  # its fusion.csv row
     formula: str
+
+
+def _holds_metal(formula: str) -> bool:
+    """Whether a component's formula holds a metal; False for one that is no formula (a component written by its
+    name, "water", keeps that name as its formula)."""
+    try:
+        return any(is_metal(s) for s, _ in parse_formula(formula).counts)
+    except FormulaError:
+        return False
 
 
 def _resolve(text: str, score_row) -> _Component:
@@ -658,6 +667,13 @@ def _record(mixture: Mixture) -> tuple:
     hazard = mixing_warning(parts)
     if hazard:
         warnings.append(hazard)
+    reaction = water_reaction_warning(
+        [(c.name, r[position["formula_normalized"]], r[position["water_behaviour"]], r[position["water_reaction_products"]])
+         for c, r in zip(mixture.components, records)])
+    if reaction:
+        warnings.append(reaction)
+        liquidus = math.nan
+        row[position["liquidus_estimate_K"]], row[position["liquidus_method"]] = math.nan, None
     corrosive = corrosive_note(parts)
     if corrosive:
         gaps.append(corrosive)
@@ -668,9 +684,10 @@ def _record(mixture: Mixture) -> tuple:
                 if r[position["substance_class"]] in NETWORK_MELT_CLASSES]
     # a metal halide that is molecular or a chain solid beside a salt (AlCl3 or ZnCl2 with [C2mim]Cl or KCl)
     # takes the salt's halide into complex anions (AlCl4(-), Al2Cl7(-), ZnCl4(2-)) in the melt
-    lewis_acid = any(r[position["substance_class"]] in NETWORK_MELT_CLASSES and any(
-        is_metal(s) for s, _ in parse_formula(c.formula).counts) for c, r in zip(mixture.components, records)
-        if c.fusion is None or c.fusion["kind"] == "ionic") and any(r[position["mp_route"]] == "salt" for r in records)
+    lewis_acid = any(r[position["substance_class"]] in NETWORK_MELT_CLASSES and _holds_metal(c.formula)
+                     for c, r in zip(mixture.components, records)
+                     if c.fusion is None or c.fusion["kind"] == "ionic") and any(
+        r[position["mp_route"]] == "salt" for r in records)
     if networks and liquidus == liquidus and (lewis_acid or all(
             m is not None and m.ionic for m in (_melt(c, estimate=True) for c in mixture.components))):
         # the Temkin and regular-solution model counts simple ions (network_melt_warning)

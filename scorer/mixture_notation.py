@@ -69,6 +69,8 @@ _QUICK = frozenset("-–—:+·•∙⋅* /")
 _BY_VOLUME = re.compile(r"(?<![A-Za-z])(?:v\s*/\s*v|vol\.?\s*%|volume\s*%|%\s*v/v|by\s+volume)(?![A-Za-z])", re.I)
 _JOINERS = frozenset("-–—:+ /")
 _ADDUCT = re.compile(r"^(?:\d+(?:\.\d+)?)?\s*(?:H2O2|H2O|NH3|HF|HCl|CH3OH|C2H5OH|CO2)$")
+# an organic base written by its groups (C6H5NH2, (CH3)3N, C5H5N): beside HCl it is the amine salt
+_AMINE = re.compile(r"C\d*H.*N|N.*C\d*H")
 
 
 class MixtureNotationError(ValueError):
@@ -393,6 +395,12 @@ def read_mixture_text(text: str) -> MixtureText | None:
             return None
         raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
     adducts = [p for p in parts[1:] if _ADDUCT.match(p)]
+    if joined_by == "+" and not any(p[:1].isdigit() for p in adducts) and not (
+            _AMINE.search(parts[0]) and all(p in ("HF", "HCl", "HBr", "HI") for p in adducts)):
+        # a plus before an uncounted molecule is two things put together ("NaClO + HCl", "AlCl3+H2O"), not an
+        # adduct: a hydrate is written with its dot or its count ("CuSO4·5H2O", "CaSO4+2H2O"), an amine salt with
+        # its acid ("C6H5NH2 + HCl") stays one
+        adducts = []
     if joined_by not in ("/", ":") and not amounts and adducts and (
             joined_by != "-" or any(p[:1].isdigit() or p.endswith("H2O") and "H2O2" not in p for p in adducts)):
         # a hydrate or adduct written with '+' ("CaSO4+2H2O") or with a dash before water or a counted adduct

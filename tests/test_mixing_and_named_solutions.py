@@ -242,3 +242,42 @@ def test_molality_and_weight_percent_written_wt_are_read(text, solute, concentra
     row = score_formula(text)
     assert row["status"] != "error" and row["formula_normalized"] == solute
     assert row["concentration_as_written"] == concentration
+
+
+@pytest.mark.parametrize("text", ["NaClO + HCl", "NaClO+HCl", "HNO3 + HCl", "NaOCl + NH3"])
+def test_a_plus_before_an_uncounted_molecule_is_a_mixture(text):
+    # "NaClO + HCl" had read as one compound, HNaClClO, status ok: bleach with acid gives chlorine (Bretherick's
+    # Handbook of Reactive Chemical Hazards, 7th ed., 2007; from memory). A plus before an uncounted acid, water
+    # or ammonia is two things put together; hydrates keep their dot or count
+    out = score_formula(text)
+    assert out["substance_class"] == "mixture"
+    assert "mixing hazard" in out["message"]
+
+
+@pytest.mark.parametrize("text, formula", [("CuSO4 + 5H2O", "CuSO4·5H2O"), ("CaSO4+2H2O", "CaSO4·2H2O")])
+def test_a_counted_adduct_after_a_plus_is_still_the_hydrate(text, formula):
+    assert score_formula(text)["formula_normalized"] == formula
+
+
+def test_an_amine_with_its_hydrogen_halide_is_still_its_salt():
+    # C6H5NH2 + HCl: the anilinium chloride the text writes (IUPAC Red Book 2005, IR-5.4)
+    out = score_formula("C6H5NH2 + HCl")
+    assert out["substance_class"] == "ionic_liquid_pair" and out["anions"] == "Cl(-)*1"
+
+
+@pytest.mark.parametrize("text, reactive", [
+    ("AlCl3 + H2O", "AlCl3"), ("AlCl3 + water", "AlCl3"), ("Na + water", "Na"), ("CaC2 + H2O", "CaC2"),
+    ("SOCl2 + H2O (1:10)", "SCl2O"),
+])
+def test_water_with_a_compound_that_reacts_with_it_is_a_reaction(text, reactive):
+    # AlCl3, sodium, calcium carbide and thionyl chloride react violently with water (HCl, H2, C2H2; Greenwood &
+    # Earnshaw, 2nd ed., 1997, from memory; each compound's own water_behaviour says so); the blend had come back
+    # with a liquidus estimate and no hazard
+    out = score_formula(text)
+    assert f"mixing hazard: {reactive} reacts violently with water" in out["message"]
+    assert out["liquidus_estimate_K"] != out["liquidus_estimate_K"]  # NaN: no liquidus for a reaction
+
+
+def test_water_with_a_salt_that_dissolves_keeps_its_liquidus():
+    out = score_formula("NaCl + water")
+    assert "reacts" not in out["message"] and out["liquidus_estimate_K"] > 0
