@@ -396,10 +396,11 @@ def read_mixture_text(text: str) -> MixtureText | None:
         raise MixtureNotationError(f"an empty component in {text!r}; write components joined by '-', ':' or ' + '")
     adducts = [p for p in parts[1:] if _ADDUCT.match(p)]
     if joined_by == "+" and not any(p[:1].isdigit() for p in adducts) and not (
-            _AMINE.search(parts[0]) and all(p in ("HF", "HCl", "HBr", "HI") for p in adducts)):
-        # a plus before an uncounted molecule is two things put together ("NaClO + HCl", "AlCl3+H2O"), not an
-        # adduct: a hydrate is written with its dot or its count ("CuSO4·5H2O", "CaSO4+2H2O"), an amine salt with
-        # its acid ("C6H5NH2 + HCl") stays one
+            _AMINE.search(parts[0]) and all(p in ("HF", "HCl", "HBr", "HI") for p in adducts)) and (
+            " + " in body or any(p != "H2O" for p in adducts)):
+        # a plus before an uncounted molecule is two things put together ("NaClO+HCl", "AlCl3 + H2O"), not an
+        # adduct: a hydrate is written with its dot, its count or a plus without spaces before water
+        # ("CuSO4·5H2O", "CaSO4+2H2O", "LiF+H2O"), an amine salt with its acid ("C6H5NH2 + HCl") stays one
         adducts = []
     if joined_by not in ("/", ":") and not amounts and adducts and (
             joined_by != "-" or any(p[:1].isdigit() or p.endswith("H2O") and "H2O2" not in p for p in adducts)):
