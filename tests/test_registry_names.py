@@ -170,3 +170,22 @@ def test_a_tie_the_registry_names_both_ways_stays_a_tie():
     # C4H12ClN is tetramethylammonium chloride and butylamine hydrochloride (and diethylamine hydrochloride) in the
     # registry: no reading is the formula's only compound, so the row says both
     assert "ambiguous" in score_formula("C4H12ClN")["message"]
+
+
+@pytest.mark.parametrize("name, cas", [
+    ("tris(hydroxymethyl)aminomethane", "77-86-1"), ("trichloroisocyanuric acid", "87-90-1"),
+    ("tetrakis(triphenylphosphine)palladium(0)", "14221-01-3"),
+])
+def test_stockroom_names_read_as_the_registry_compound(name, cas):
+    # each had been "neither a formula nor a name"; the composition is the registry package's (chemicals)
+    from chemicals.identifiers import search_chemical
+
+    formula = read_name(name)
+    assert formula is not None
+    assert parse_formula(formula).total_counts == parse_formula(search_chemical(cas).formula).total_counts
+
+
+def test_sodium_dichloroisocyanurate_is_the_sodium_salt():
+    # the acid C3HCl2N3O3 (CAS 2782-57-2, chemicals) with its N-H proton replaced by sodium (common practice)
+    row = score_formula("sodium dichloroisocyanurate")
+    assert (row["cations"], row["anions"]) == ("Na(+)*1", "C3Cl2N3O3(-)*1")

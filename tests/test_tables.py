@@ -43,7 +43,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 72,
     "material_codes.csv": 44,
-    "trivial_names.csv": 241,
+    "trivial_names.csv": 246,
     "solution_names.csv": 20,
     "ligands.csv": 30,
     "registry_names.csv": 13388,
