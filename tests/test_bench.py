@@ -16,17 +16,20 @@ import pytest
 ROOT = Path(__file__).resolve().parents[1]
 
 
-@pytest.mark.slow
-def test_bench_prints_every_figure_as_name_value(tmp_path):
+def _bench_figures(*args: str) -> dict[str, str]:
+    """The ``name: value`` lines of a benchmark run with ``args``, this tree first on the path."""
     env = dict(os.environ)
     env["PYTHONPATH"] = str(ROOT) + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
-    result = subprocess.run(
-        [sys.executable, "-m", "ionicity.pipelines.bench", "--rows", "3000", "--distinct", "300", "--repeat", "2",
-         "--baseline-rows", "40", "--workdir", str(tmp_path)],
-        capture_output=True, text=True, env=env, cwd=ROOT, timeout=300,
-    )
+    result = subprocess.run([sys.executable, "-m", "ionicity.pipelines.bench", *args],
+                            capture_output=True, text=True, env=env, cwd=ROOT, timeout=300)
     assert result.returncode == 0, result.stderr
-    figures = dict(line.split(": ", 1) for line in result.stdout.splitlines())
+    return dict(line.split(": ", 1) for line in result.stdout.splitlines())
+
+
+@pytest.mark.slow
+def test_bench_prints_every_figure_as_name_value(tmp_path):
+    figures = _bench_figures("--rows", "3000", "--distinct", "300", "--repeat", "2", "--baseline-rows", "40",
+                             "--workdir", str(tmp_path))
     for name in ("ratio_vs_io_floor", "speedup_vs_per_row", "distinct_per_second", "peak_rss_mib"):
         assert float(figures[name]) > 0, name
     assert len(figures["score_seconds_each"].split(", ")) == 2
@@ -60,15 +63,8 @@ def test_the_bench_runs_under_both_names(module):
 def test_bench_pairs_runs_against_another_install(tmp_path):
     # this interpreter stands in for an earlier checkout's: the pairs' ratio is printed, and where the other
     # install imports ionicity from
-    env = dict(os.environ)
-    env["PYTHONPATH"] = str(ROOT) + (os.pathsep + env["PYTHONPATH"] if env.get("PYTHONPATH") else "")
-    result = subprocess.run(
-        [sys.executable, "-m", "ionicity.pipelines.bench", "--rows", "2000", "--distinct", "200", "--repeat", "2",
-         "--baseline-rows", "20", "--workdir", str(tmp_path), "--against", sys.executable],
-        capture_output=True, text=True, env=env, cwd=ROOT, timeout=300,
-    )
-    assert result.returncode == 0, result.stderr
-    figures = dict(line.split(": ", 1) for line in result.stdout.splitlines())
+    figures = _bench_figures("--rows", "2000", "--distinct", "200", "--repeat", "2", "--baseline-rows", "20",
+                             "--workdir", str(tmp_path), "--against", sys.executable)
     assert len(figures["score_against_seconds_each"].split(", ")) == 2
     assert float(figures["paired_ratio_vs_against"]) > 0
     assert figures["against"] == sys.executable
