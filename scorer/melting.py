@@ -113,13 +113,16 @@ from ionicity.scorer.melting_anions import (
     DECOMPOSING_ANIONS,
     ENERGETIC_ANIONS,
     FUEL_CATIONS,
+    MOLECULAR_OXIDISERS,
     OXIDISING_ANIONS,
 )
 from ionicity.scorer.melting_stand_in import radius_analogue
 from ionicity.scorer.radii import fallback_radii
 from ionicity.scorer.ion_shapes import ONIUM_FAMILIES, _shape_table, anion_symmetry_number, ion_shape
-from ionicity.scorer.caching import per_input
+from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_metal
+from ionicity.scorer.formula import parse_formula
+from ionicity.scorer.grammar import hill_formula
 from ionicity.scorer.caution import CAUTION
 from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.melting_index import (
@@ -604,6 +607,14 @@ def _molecular_steps(reading: _MolecularReading | _OrganicReading | None) -> tup
 
 # said in full in output files too (scorer.note_codes leaves it long)
 _DECOMPOSITION_CAUTION = "heating it can release gas and pressure: see the safety data sheet"
+@once
+def _molecular_oxidisers() -> frozenset:
+    """:data:`MOLECULAR_OXIDISERS` as Hill formulas (OsO4 is written O4Os in Hill order)."""
+    return frozenset(hill_formula(dict(parse_formula(f).counts)) for f in MOLECULAR_OXIDISERS)
+
+
+_MOLECULAR_OXIDISER = ("melting trend: a strong oxidiser: it can ignite or react violently with organic matter, fuels,"
+                       " reducing agents, ammonia and powdered metals; keep it apart and see the safety data sheet")
 # interstitial and intermetallic hydrides lose hydrogen from a few hundred C (TiH2 and ZrH2 from about 400-600 C,
 # PdH and LaNi5H6 near room temperature; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.4;
 # from memory)
@@ -818,6 +829,8 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     else:
         reason = "melting trend: no route for substance class " + str(dec.substance_class)
         return MeltingTrend(steps=(reason,))
+    if route != "salt" and hill_formula(dict(dec.composition)) in _molecular_oxidisers():
+        notes.append(_MOLECULAR_OXIDISER)
     gas = routes.gas_at_room_temperature(dec.composition) if route != "salt" and not dec.hydrate_water else None
     if gas is not None:
         # the registry's boiling point says more than the trend: a gas on the shelf (CO2, NH3, CH4, He)

@@ -36,6 +36,7 @@ __all__ = [
     "ENERGETIC_ANIONS",
     "FUEL_CATIONS",
     "OXIDISING_ANIONS",
+    "MOLECULAR_OXIDISERS",
 ]
 
 NETWORK_FORMERS = frozenset({"B", "Al", "Ga", "Si", "Ge", "P", "As", "Ti", "Zr", "V", "Fe"})
@@ -405,6 +406,15 @@ DECOMPOSING_ANIONS = frozenset({
 # never a weight
 ENERGETIC_ANIONS = frozenset({"N3(-)", "CNO(-)", "N(NO2)2(-)"})
 
+# molecules and elements that are strong oxidisers, by Hill formula (Bretherick's Handbook of Reactive Chemical
+# Hazards, 7th ed., 2007; Greenwood & Earnshaw, 2nd ed., 1997; from memory): the salts of oxidising anions carry
+# their own note (OXIDISING_ANIONS); trichloroisocyanuric acid is the pool chlorine that gives NCl3 with ammonium
+# compounds and burns with hypochlorite
+MOLECULAR_OXIDISERS = frozenset({
+    "H2O2", "O3", "F2", "Cl2", "ClO2", "Cl2O", "Cl2O7", "OF2", "NO2", "N2O4", "ClF3", "ClF5", "BrF3", "BrF5", "IF5",
+    "IF7", "XeF2", "XeF4", "XeF6", "XeO3", "OsO4", "RuO4", "Mn2O7", "CrO2Cl2", "C3Cl3N3O3",
+})
+
 # fuel and oxidiser in one salt: an ammonium-like cation (NH4+, hydrazinium, hydroxylammonium) beside an
 # oxidising anion decomposes exothermically on heating and can deflagrate or explode (ammonium nitrate,
 # perchlorate, chlorate, nitrite, permanganate, dichromate; Greenwood & Earnshaw, Chemistry of the Elements,
@@ -414,6 +424,9 @@ OXIDISING_ANIONS = frozenset({
     "NO3(-)", "NO2(-)", "ClO4(-)", "ClO3(-)", "ClO2(-)", "BrO2(-)", "BrO3(-)", "IO4(-)", "MnO4(-)", "Cr2O7(2-)",
     "CrO4(2-)",
     "N(NO2)2(-)",
+    # hypochlorite and hypobromite (bleach, calcium hypochlorite), and dichloroisocyanurate (pool chlorine; the
+    # anion built by rule from its sodium salt, scorer.organic_anions): active-chlorine oxidisers (common practice)
+    "ClO(-)", "BrO(-)", "C3Cl2N3O3(-)",
     # the peroxosulfates (ammonium persulfate is sold as an oxidiser and decomposes exothermically; ch. 15.2.7)
     "S2O8(2-)", "SO5(2-)", "HSO5(-)",
 })

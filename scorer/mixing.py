@@ -33,14 +33,14 @@ from __future__ import annotations
 
 from ionicity.scorer.elements import is_metal
 from ionicity.scorer.formula import FormulaError, parse_formula
-from ionicity.scorer.melting_anions import FUEL_CATIONS, OXIDISING_ANIONS
+from ionicity.scorer.melting_anions import FUEL_CATIONS, MOLECULAR_OXIDISERS, OXIDISING_ANIONS
 
 __all__ = ["mixing_warning", "corrosive_note", "water_reaction_warning"]
 
 _OXIDISING_IONS = OXIDISING_ANIONS | frozenset({"ClO(-)", "BrO(-)", "IO3(-)", "S2O8(2-)", "O2(2-)", "IO4(-)",
                                                  "SO5(2-)", "HSO5(-)"})
-# molecules and elements that oxidise (common practice)
-_OXIDISING_FORMULAS = frozenset({"H2O2", "O3", "F2", "Cl2", "Br2", "ClO2", "N2O4", "NO2"})
+# molecules and elements that oxidise (common practice; melting_anions.MOLECULAR_OXIDISERS, and bromine)
+_OXIDISING_FORMULAS = MOLECULAR_OXIDISERS | frozenset({"Br2"})
 # elements that burn: the metals, and C, S, P, B, Si (black powder is KNO3 with S and C; common practice)
 _FUEL_ELEMENTS = frozenset({"C", "S", "P", "B", "Si", "H"})
 _FUEL_FORMULAS = frozenset({"NH3", "N2H4"})
@@ -73,11 +73,33 @@ def _fuel(name: str, substance_class: str, cations: str | None) -> bool:
     return substance_class in ("covalent_molecular", "ionic_liquid_pair", "acid", "base") and {"C", "H"} <= elements
 
 
+# the two kinds of active-chlorine pool chemical that must never meet: a hypochlorite and a chloroisocyanurate
+# (trichloroisocyanuric acid, dichloroisocyanurate); mixed they heat, can ignite and give off nitrogen trichloride
+# (common practice; Bretherick's Handbook of Reactive Chemical Hazards, 7th ed., 2007; from memory)
+_HYPOCHLORITES = frozenset({"ClO(-)"})
+_CHLOROISOCYANURATES = frozenset({"C3Cl3N3O3", "C3Cl2N3O3(-)"})
+
+
+def _chloroisocyanurate(name: str, anions: str | None) -> bool:
+    return name in _CHLOROISOCYANURATES or bool(_ion_ids(anions) & _CHLOROISOCYANURATES)
+
+
 def mixing_warning(components) -> str:
-    """The warning of a mixture whose components include an oxidiser and an acid or a fuel; "" otherwise.
+    """The warning of a mixture whose components include an oxidiser and an acid or a fuel, or a hypochlorite
+    and a chloroisocyanurate; "" otherwise.
 
     ``components``: (name, substance_class, cations, anions) per component, the columns of its row.
+
+    >>> mixing_warning([("Ca(ClO)2", "ionic_salt", "Ca(2+)*1", "ClO(-)*2"), ("C3Cl3N3O3", "covalent_molecular", "", "")])[:70]
+    'mixing hazard: Ca(ClO)2 (a hypochlorite) and C3Cl3N3O3 (a chloroisocya'
     """
+    hypochlorite = next((name for name, _, _, anions in components if _ion_ids(anions) & _HYPOCHLORITES), None)
+    isocyanurate = next((name for name, _, _, anions in components if _chloroisocyanurate(name, anions)), None)
+    if hypochlorite and isocyanurate:
+        return (f"mixing hazard: {hypochlorite} (a hypochlorite) and {isocyanurate} (a chloroisocyanurate) must never"
+                " be mixed: together they heat, can ignite and give off nitrogen trichloride and chlorine; keep them"
+                " apart in storage and follow the safety data sheets, local codes and qualified people"
+                " (Bretherick's Handbook of Reactive Chemical Hazards, 7th ed., 2007; from memory)")
     for i, (name, _, _, anions) in enumerate(components):
         if not _oxidiser(name, anions):
             continue

@@ -281,3 +281,28 @@ def test_water_with_a_compound_that_reacts_with_it_is_a_reaction(text, reactive)
 def test_water_with_a_salt_that_dissolves_keeps_its_liquidus():
     out = score_formula("NaCl + water")
     assert "reacts" not in out["message"] and out["liquidus_estimate_K"] > 0
+
+
+@pytest.mark.parametrize("formula", ["H2O2", "C3Cl3N3O3", "ClF3", "N2O4", "OsO4", "Cl2"])
+def test_molecular_oxidisers_say_so(formula):
+    # strong oxidisers that are molecules or elements (Bretherick's Handbook of Reactive Chemical Hazards, 7th ed.,
+    # 2007; from memory): their rows had no word of it; the salts of oxidising anions always had theirs
+    assert "a strong oxidiser" in score_formula(formula)["value_notes"]
+
+
+@pytest.mark.parametrize("formula", ["H2O", "CCl4", "C2H5OH"])
+def test_other_molecules_do_not(formula):
+    assert "oxidiser" not in (score_formula(formula)["value_notes"] or "")
+
+
+@pytest.mark.parametrize("formula", ["NaClO", "Ca(OCl)2"])
+def test_hypochlorites_are_oxidising_salts(formula):
+    assert "salts are oxidisers" in score_formula(formula)["value_notes"]
+
+
+@pytest.mark.parametrize("text", ["Ca(OCl)2 + C3Cl3N3O3 (1:1)", "NaClO + sodium dichloroisocyanurate (1:1)",
+                                  "C3Cl3N3O3 + NH4Cl (1:1)"])
+def test_pool_chlorine_pairs_warn(text):
+    # a hypochlorite with a chloroisocyanurate, or trichloroisocyanuric acid with an ammonium salt (nitrogen
+    # trichloride): never to be mixed (common practice; Bretherick's Handbook, 7th ed., 2007; from memory)
+    assert "mixing hazard" in score_formula(text)["message"]
