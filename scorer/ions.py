@@ -64,6 +64,7 @@ from ionicity.scorer.ion_penalties import _FORMULA_UNIT_OXOANIONS, _IONIC_THRESH
 from ionicity.scorer.ion_search import _candidates_for, _fits, _ion_pair_readings, _search, _subtract, carbide_balances
 from ionicity.scorer.coordination import COORDINATION_HINT, complex_reading, ligand_compositions
 from ionicity.scorer.model import Decomposition, Ion, IonTerm
+from ionicity.scorer.name_vocabulary import compact
 from ionicity.scorer.registry_formulas import (
     ACYL_HALIDE_ELEMENTS, ACYL_HALOGENS, registry_molecule, registry_names_of, registry_reactive_group,
     registry_reactive_isomer, registry_salt, registry_zwitterion,
@@ -747,16 +748,6 @@ def _nitrosyl_beside_base(terms) -> bool:
         return False
     return any(ion.charge < 0 and ion.family != "halo-complex" and ion.ion_id not in _NITROSYL_PARTNERS
                for ion, _ in terms)
-    acidity = acidity_table()
-    for ion, _ in terms:
-        if ion.charge >= 0:
-            continue
-        if ion.monatomic or ion.family == "pseudohalide":
-            return True
-        kind, pka, _ = acidity.get(ion.ion_id, ("", float("nan"), float("nan")))
-        if kind == "anion_base" and pka >= 0:
-            return True
-    return False
 
 
 def _hydride_beside_reactive_ion(terms) -> bool:
@@ -1056,7 +1047,7 @@ def _ion_name_stems(ion) -> tuple[str, ...]:
         words = [main, *re.split(r"[,;]", rest.rstrip(")"))] if rest else [main]
     stems = []
     for word in words:
-        key = re.sub(r"[^a-z0-9]", "", word.strip().lower())
+        key = compact(word)
         if ion.charge > 0 and key.endswith("ium"):
             key = key[:-3]
         if len(key) >= 5:
@@ -1084,7 +1075,7 @@ def _registry_named(seen: dict) -> dict:
     for term in (*cations, *anions):
         for symbol, k in term.ion.composition:
             counts[symbol] = counts.get(symbol, 0.0) + k * term.count
-    names = [re.sub(r"[^a-z0-9]", "", name.lower()) for name in registry_names_of(hill_formula(counts))]
+    names = [compact(name) for name in registry_names_of(hill_formula(counts))]
     if not names:
         return seen
     named = set()
