@@ -335,8 +335,13 @@ def byte_compile() -> bool:
 
 
 def _version_of(python: str) -> str:
-    """Where ``python`` imports ionicity from (and the commit there, when it is a git checkout)."""
-    code = "import ionicity, os; print(os.path.dirname(os.path.dirname(os.path.abspath(ionicity.__file__))))"
+    """Where ``python`` imports ionicity's scorer from (and the commit there, when it is a git checkout).
+
+    The scorer, not the ``ionicity`` package: run from inside a checkout, another install's interpreter finds that
+    checkout's ``ionicity/__init__.py`` first on its path, while its editable install still maps the scorer and
+    the pipelines to its own tree (what its ``score`` runs)."""
+    code = ("import ionicity.scorer, os;"
+            " print(os.path.dirname(os.path.dirname(os.path.abspath(ionicity.scorer.__file__))))")
     try:
         root = subprocess.run([python, "-c", code], capture_output=True, text=True, check=True).stdout.strip()
     except (OSError, subprocess.CalledProcessError) as error:

@@ -508,8 +508,11 @@ def _read_key(key: str) -> str | None:
         reading = read_name_parts(key)
         if reading is None:
             return None
+        if _metal_cation(reading):
+            # a metal's usual charge stands (known_reading): the candidates of an unsaid state are not needed
+            return formula_text(reading)
         unsaid = unsaid_readings(reading)  # before formula_text, which fills in usual charges
-        return known_reading(formula_text(reading), unsaid, _metal_cation(reading))[0]
+        return known_reading(formula_text(reading), unsaid, False)[0]
     except (ValueError, ZeroDivisionError, KeyError, OverflowError, IndexError):
         return None
 

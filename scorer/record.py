@@ -352,6 +352,7 @@ def _written_group_not_read(text: str, anions: str) -> str | None:
     return None
 
 
+@per_input(maxsize=65536)
 def _trade_name_of_another(name: str, formula: str) -> str | None:
     """A note when a generated hydrate name is a trivial name of another compound (scorer/data/trivial_names.csv),
     else None: ``ammonium molybdate tetrahydrate`` names (NH4)6Mo7O24·4H2O in the trade, not (NH4)2MoO4·4H2O."""

@@ -68,6 +68,8 @@ def test_bench_pairs_runs_against_another_install(tmp_path):
     assert len(figures["score_against_seconds_each"].split(", ")) == 2
     assert float(figures["paired_ratio_vs_against"]) > 0
     assert figures["against"] == sys.executable
+    # the tree whose scorer that interpreter runs: this checkout (an editable install), named with its commit
+    assert figures["against_version"].startswith(str(ROOT) + " (")
 
 
 def test_bench_refuses_an_interpreter_without_ionicity(tmp_path):
