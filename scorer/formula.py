@@ -67,6 +67,7 @@ from ionicity.scorer.grammar import (
 from ionicity.scorer.model import format_charge
 from ionicity.scorer.onium_groups import group_counts, onium_hint, written_onium
 from ionicity.scorer.carboxylates import carboxylate_hint, written_carboxylates
+from ionicity.scorer.written_ions import written_ion_hints
 from ionicity.scorer.tables import table
 
 __all__ = [
@@ -838,6 +839,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     written_ammonium: float | None = 0.0 if "NH4" in body else None
     hydrohalide: dict[str, float] = {}
     isotopes: dict[str, float] = {}
+    parts: list[str] = []  # the components other than lattice water, as written ("" with a multiplier)
     for index, component in enumerate(_split_components(body)):
         if not component:
             raise FormulaError(f"an adduct separator with nothing after it in {text!r}")
@@ -874,6 +876,7 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         if index > 0 and counts == {"H": 2.0, "O": 1.0} and not ion_refs:
             water += multiplier
             continue
+        parts.append(component if multiplier == 1.0 else "")
         key = tuple(sorted(counts.items()))
         if index > 0 and not ion_refs and key in _HYDROGEN_HALIDES:
             # an amine salt written with its acid: C6H5NH2·HCl, C2H8N2·2HCl (scorer.ions reads the amine protonated)
@@ -897,6 +900,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     total_atoms = sum(totals.values()) + 3 * water
     if total_atoms > MAX_TOTAL_ATOMS or not math.isfinite(total_atoms):
         raise FormulaError(f"{text!r} has {total_atoms:g} atoms per formula unit; the limit is {MAX_TOTAL_ATOMS}")
+    if not hints and not isotopes and not charge and len(parts) == 1 and parts[0]:
+        # an organic or protic salt written as its ions run together (N2H5HCOO, CH3NH3CH3COO): those ions, as their
+        # bracketed spelling names them (scorer.written_ions)
+        hints = dict(written_ion_hints(parts[0]))
     ordered = tuple((s, totals[s]) for s in hill_order(totals))
     hint = ""
     carboxylates = written_carboxylates(cleaned) if "CO" in cleaned and (

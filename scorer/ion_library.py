@@ -16,6 +16,7 @@ from ionicity.scorer.tables import table
 
 __all__ = [
     "ion_library",
+    "exact_aliases",
     "get_ion",
     "monatomic_ion",
     "find_alias",
@@ -70,6 +71,12 @@ def _load() -> tuple[tuple[Ion, ...], dict[str, Ion], dict[str, Ion], dict[str, 
             alias_exact.setdefault(name.strip("[]"), ion)
             alias_folded.setdefault(name.strip("[]").casefold(), ion)
     return tuple(ions), by_id, alias_exact, alias_folded, by_composition
+
+
+def exact_aliases() -> dict[str, Ion]:
+    """Every name a library ion is written by (label, formula, trade aliases), exact case, to its ion (the first
+    ion of the file where two share one)."""
+    return _load()[2]
 
 
 def ion_library() -> tuple[Ion, ...]:

@@ -26,6 +26,7 @@ from ionicity.scorer.formula import FormulaError, ParsedFormula, parse_formula
 from ionicity.scorer.grammar import MAX_COUNT, MAX_FORMULA_LENGTH, MAX_TOTAL_ATOMS, hill_order
 from ionicity.scorer.mixture import names_a_blend
 from ionicity.scorer.organic import organic_molecule, organic_shortcut_enabled
+from ionicity.scorer.written_ions import written_ion_hints
 from ionicity.scorer.slips import (
     BEST_PENALTY, IMPOSSIBLE_MAX_LENGTH, MARGIN, MAYBE_SLIP, absurd_count, impossible_composition, lone_element_count, odd_electron_molecule,
     reading_penalty, registry_case_evidence, unknown_abbreviation,
@@ -177,6 +178,8 @@ def _capital_parse(text: str) -> ParsedFormula | None:
     if (len(text) > MAX_FORMULA_LENGTH or "C5H5" in text or "NH4" in text or "COF" in text or "COI" in text
             or text.endswith("NCO") or "COOC" in text or "CO2C" in text):
         return None
+    if written_ion_hints(text):
+        return None  # a salt written as its ions run together (CH3NH3HCOO): the parser names them
     totals: dict[str, float] = {}
     for symbol, digits in _SYMBOL_COUNT.findall(text):
         n = int(digits) if digits else 1
