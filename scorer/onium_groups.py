@@ -26,6 +26,7 @@ from ionicity.scorer.onium_codes import ALKYL_NAMES
 __all__ = [
     "ONIUM_CATION_HINT",
     "ONIUM_CENTRES",
+    "PROTON_GROUP",
     "written_onium",
     "onium_composition",
     "onium_label",
@@ -48,6 +49,9 @@ ONIUM_CENTRES = {"N": 4, "P": 4, "As": 4, "S": 3}
 _BRACKETED_GROUP = re.compile(r"\((?P<group>(?:[CHO]\d*)+)\)(?P<n>\d*)")
 _BARE_GROUP = re.compile(r"(?P<group>C\d*H\d+(?:C\d*H\d+|\((?:[CHO]\d*)+\))*)")
 _CENTRE = re.compile(r"(?P<centre>As|N|P|S)(?![a-z])")
+# the hydrogens written on the nitrogen of a protonated amine, and the group that stands for one of them
+_HYDROGENS = re.compile(r"H([1-3]?)(?![a-z\d])")
+PROTON_GROUP = "H"
 _ATOM = re.compile(r"([A-Z][a-z]?)(\d*)")
 
 
@@ -82,9 +86,11 @@ def written_onium(text: str) -> tuple[str, tuple[tuple[str, int], ...], str] | N
 
     The text is the whole formula: organic groups in brackets with their counts, the centre (N, P, As with
     four groups, S with three), unbracketed groups after it where the count is not yet reached, then the
-    anion, which must be left and must start a formula (a capital letter or a bracket). The cation may
-    stand in square brackets, as :func:`onium_label` writes it. Neutral molecules (``(C6H5)3P``,
-    ``(CH3)2SO``, ``(C2H5)3N``) and protonated amines (``(C2H5)3NHCl``) have fewer groups and give None.
+    anion, which must be left and must start a formula (a capital letter or a bracket). On nitrogen, the
+    hydrogens of a protonated amine written after it fill the places the groups leave (``(C2H5)3NHCl``,
+    triethylammonium chloride: the group :data:`PROTON_GROUP` ``H``, counted like the others). The cation
+    may stand in square brackets, as :func:`onium_label` writes it. Neutral molecules (``(C6H5)3P``,
+    ``(CH3)2SO``, ``(C2H5)3N``, ``(C2H5)2NH``) have fewer groups and give None.
 
     >>> written_onium("(C2H5)3(C6H5CH2)NCl")
     ('N', (('C2H5', 3), ('C7H7', 1)), 'Cl')
@@ -92,8 +98,10 @@ def written_onium(text: str) -> tuple[str, tuple[tuple[str, int], ...], str] | N
     ((('C6H5', 3), ('CH3', 1)), ('S', (('CH3', 3),), 'I'))
     >>> written_onium("(C6H5)3PCH2(C6H5)Cl")[1]
     (('C6H5', 3), ('C7H7', 1))
-    >>> [written_onium(t) for t in ("(C6H5)3P", "(CH3)2SO", "(C2H5)3NHCl", "NaCl")]
-    [None, None, None, None]
+    >>> written_onium("(C2H5)3NHCl"), written_onium("(CH3)2NH2NO3")[1]
+    (('N', (('C2H5', 3), ('H', 1)), 'Cl'), (('CH3', 2), ('H', 2)))
+    >>> [written_onium(t) for t in ("(C6H5)3P", "(CH3)2SO", "(C2H5)3N", "(C2H5)2NH", "NaCl")]
+    [None, None, None, None, None]
     """
     if not isinstance(text, str):
         return None
@@ -126,6 +134,17 @@ def written_onium(text: str) -> tuple[str, tuple[tuple[str, int], ...], str] | N
     position = centre.end()
     while found < needed:
         m = _BRACKETED_GROUP.match(text, position) or _BARE_GROUP.match(text, position)
+        if m is None and symbol == "N" and found:
+            # the hydrogens of a protonated amine written on its nitrogen ((C2H5)3NHCl, (CH3)2NH2NO3): they
+            # fill the four places the organic groups leave
+            h = _HYDROGENS.match(text, position)
+            if h is None:
+                return None
+            n = int(h.group(1) or 1)
+            groups[PROTON_GROUP] = groups.get(PROTON_GROUP, 0) + n
+            found += n
+            position = h.end()
+            continue
         if m is None:
             return None
         counts = _counts(m.group("group"))
@@ -161,10 +180,12 @@ def onium_composition(centre: str, groups) -> dict[str, float]:
 def onium_label(centre: str, groups) -> str:
     """The label of the onium cation: its groups in brackets, then the centre (``[(C2H5)3(C7H7)N]``).
 
-    >>> onium_label("P", (("C6H5", 4),))
-    '[(C6H5)4P]'
+    >>> onium_label("P", (("C6H5", 4),)), onium_label("N", (("C2H5", 3), ("H", 1)))
+    ('[(C6H5)4P]', '[(C2H5)3NH]')
     """
-    return "[" + "".join(f"({g}){n if n > 1 else ''}" for g, n in groups) + centre + "]"
+    hydrogens = sum(n for g, n in groups if g == PROTON_GROUP)
+    return ("[" + "".join(f"({g}){n if n > 1 else ''}" for g, n in groups if g != PROTON_GROUP) + centre
+            + (f"H{hydrogens if hydrogens > 1 else ''}" if hydrogens else "") + "]")
 
 
 def onium_hint(centre: str, groups) -> str:
@@ -194,6 +215,8 @@ def _group_torsions(group: str) -> float | None:
     """Dannenfelser-Yalkowsky torsions a group adds on an onium centre: its non-terminal sp3 atoms, plus half
     a torsion for an aromatic ring (C6 with 4 degrees of unsaturation, as phenyl or benzyl); None for other
     unsaturated groups, whose shape the composition does not tell."""
+    if group == PROTON_GROUP:
+        return 0.0  # a hydrogen on the centre turns nothing
     counts = _counts(group)
     c, h, o = counts.get("C", 0), counts.get("H", 0), counts.get("O", 0)
     unsaturation = (2 * c + 2 - h - 1) // 2
@@ -228,14 +251,21 @@ def onium_shape(label: str) -> tuple[float, float] | None:
 
 def onium_formula_from_groups(groups: list[tuple[str, int]], centre: str, anion: str) -> str | None:
     """The onium salt written by its groups (``[("C7H7", 1), ("C2H5", 3)]``, ``N``, ``Cl`` ->
-    ``(C7H7)(C2H5)3NCl``), as :func:`written_onium` reads it; None unless the groups fill the centre.
+    ``(C7H7)(C2H5)3NCl``), as :func:`written_onium` reads it; None unless the groups fill the centre, or, on
+    nitrogen, one to three groups with hydrogens for the rest (a protonated amine).
 
-    >>> onium_formula_from_groups([("C6H5", 4)], "P", "Br")
-    '(C6H5)4PBr'
+    >>> onium_formula_from_groups([("C6H5", 4)], "P", "Br"), onium_formula_from_groups([("CH3", 2)], "N", "NO3")
+    ('(C6H5)4PBr', '(CH3)2NH2NO3')
     """
-    if centre not in ONIUM_CENTRES or sum(n for _, n in groups) != ONIUM_CENTRES[centre]:
+    if centre not in ONIUM_CENTRES:
         return None
-    return "".join(f"({g}){n if n > 1 else ''}" for g, n in groups) + centre + anion
+    placed = sum(n for _, n in groups)
+    # a protonated amine (an ammonium with one to three groups): the hydrogens fill the nitrogen's other places
+    hydrogens = ONIUM_CENTRES[centre] - placed if centre == "N" and 1 <= placed < 4 else 0
+    if placed + hydrogens != ONIUM_CENTRES[centre]:
+        return None
+    return ("".join(f"({g}){n if n > 1 else ''}" for g, n in groups) + centre
+            + (f"H{hydrogens if hydrogens > 1 else ''}" if hydrogens else "") + anion)
 
 
 #: substituent names of the groups, by Hill formula (IUPAC Recommendations 2013, P-29 and P-32; allyl, vinyl,
@@ -265,7 +295,8 @@ def onium_name(centre: str, groups) -> str | None:
     >>> onium_name("N", (("C16H33", 1), ("C7H7", 1), ("CH3", 2)))
     'benzylhexadecyldimethylammonium (benzyldimethylhexadecylammonium)'
     """
-    if centre not in _CENTRE_WORDS or any(g not in GROUP_WORDS for g, _ in groups):
+    groups = [(g, n) for g, n in groups if g != PROTON_GROUP]  # a protonated amine: its organic groups
+    if centre not in _CENTRE_WORDS or not groups or any(g not in GROUP_WORDS for g, _ in groups):
         return None
     words = [(GROUP_WORDS[g], n) for g, n in groups]
 

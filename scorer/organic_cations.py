@@ -22,7 +22,9 @@ from ionicity.scorer.ion_library import find_alias, ions_by_composition, monatom
 from ionicity.scorer.ion_penalties import _PENALTY_SPECIES, _PENALTY_UNCOMMON_ION
 from ionicity.scorer.model import Ion
 from ionicity.scorer.onium_codes import canonical_quaternary_code, onium_from_code
-from ionicity.scorer.onium_groups import group_counts as parse_group, onium_composition, onium_from_label, onium_label, onium_name
+from ionicity.scorer.onium_groups import (
+    PROTON_GROUP, group_counts as parse_group, onium_composition, onium_from_label, onium_label, onium_name,
+)
 from ionicity.scorer.organic_anions import _ALLOWED, built_organic_ion
 
 __all__ = ["AMINE_SALT_SOURCE", "WRITTEN_ONIUM_NOTE_MARK", "amine_salt_readings", "registry_halide_salt_readings",
@@ -166,14 +168,21 @@ def onium_cation_readings(remaining: dict[str, float], hint: str, hinted=()) -> 
         anions, anion_count = _one_anion(rest), [1.0]
     if not anions:
         return [], []
-    family = _ONIUM_FAMILY[centre]
+    protic = any(g == PROTON_GROUP for g, _ in groups)
+    family = "ammonium-protic" if protic else _ONIUM_FAMILY[centre]
     # the library's ion only where the groups say which: choline's, and the n-alkyl chains of a code of the
     # trade ([N1,1,10,10] is no code: two chains of ten or more); (C5H11)(CH3)3N(+) has the composition of
     # [N2222](+) but is not it
     listed = [ion for ion in ions_by_composition(cation_counts, 1) if ion.family == "cholinium"] \
         if centre == "N" and groups == (("C2H5O", 1), ("CH3", 3)) else []
     chains = [_n_alkyl_carbons(g) for g, n in groups for _ in range(n)]
-    if not listed and centre in ("N", "P") and None not in chains:
+    if protic:
+        # a protonated amine: the library's protic cation of that name (triethylammonium), not an isomer of its
+        # composition ([EtNH3](+) is no dimethylammonium)
+        named = onium_name(centre, groups)
+        listed = [ion for ion in ions_by_composition(cation_counts, 1)
+                  if ion.family == "ammonium-protic" and named and ion.name.split(" (")[0] == named]
+    elif not listed and centre in ("N", "P") and None not in chains:
         code = canonical_quaternary_code(centre + ",".join(str(c) for c in chains))
         coded = (find_alias(code) or onium_from_code(code)) if code else None
         listed = [coded] if coded is not None and coded.charge == 1 else []
@@ -181,7 +190,8 @@ def onium_cation_readings(remaining: dict[str, float], hint: str, hinted=()) -> 
         cation = listed[0]
     else:
         cation = built_organic_ion(onium_label(centre, groups), cation_counts, 1, family,
-                                   f"quaternary {_ONIUM_WORD[centre]} cation", WRITTEN_ONIUM_SOURCE)
+                                   "protonated amine" if protic else f"quaternary {_ONIUM_WORD[centre]} cation",
+                                   WRITTEN_ONIUM_SOURCE)
         named = onium_name(centre, groups)
         if named:
             # its substitutive name, which the salt's systematic name and the training screen's name check use

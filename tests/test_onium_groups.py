@@ -14,6 +14,7 @@ import math
 import pytest
 from ionicity.scorer.formula import hill_formula, parse_formula
 from ionicity.scorer.ion_library import get_ion
+from ionicity.scorer.ions import decompose
 from ionicity.scorer.ion_shapes import ion_shape
 from ionicity.scorer.onium_groups import onium_name, onium_shape, written_onium
 from ionicity.scorer.record import score_formula
@@ -78,7 +79,36 @@ def test_n_alkyl_groups_take_the_code_of_the_trade_not_a_library_isomer():
     assert score_formula("(HOCH2CH2)(CH3)3NCl")["formula_normalized"] == "[Ch]Cl"
 
 
-@pytest.mark.parametrize("text", ["(C6H5)3P", "(CH3)2SO", "(C2H5)3N", "(C6H5)3PO", "(CH3)3SiCl"])
+# protonated amines written by their groups and hydrogens, each with the registry's formula of the hydrochloride
+# (chemicals.identifiers, by CAS name) and the cation's name; before, (CH3)2NH2Cl read as ethylammonium chloride,
+# (C2H5)2NH2Cl as tetramethylammonium chloride and (C2H5)3NHCl tied with trimethylpropylammonium chloride
+@pytest.mark.parametrize("text, registry_name, cation", [
+    ("(CH3)2NH2Cl", "dimethylamine hydrochloride", "dimethylammonium"),
+    ("(CH3)3NHCl", "trimethylamine hydrochloride", "trimethylammonium"),
+    ("(C2H5)2NH2Cl", "diethylamine hydrochloride", "diethylammonium"),
+    ("(C2H5)3NHCl", "triethylamine hydrochloride", "triethylammonium"),
+    ("(HOCH2CH2)3NHCl", "triethanolamine hydrochloride", "tris(2-hydroxyethyl)ammonium"),
+])
+def test_protonated_amines_written_by_their_groups_read_as_that_cation(text, registry_name, cation):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    record = score_formula(text)
+    assert record["status"] != "error" and "ambiguous" not in record["message"]
+    assert _hill(record) == identifiers.search_chemical(registry_name).formula
+    assert record["systematic_name"] == cation + " chloride"
+    # a protic cation (the melting index's protic term counts it), not a quaternary one
+    assert [t.ion.family for t in decompose(parse_formula(text)).cations] == ["ammonium-protic"]
+
+
+def test_a_protonated_amine_takes_the_library_ion_of_its_name_not_an_isomer():
+    # triethylammonium is a library ion ([Et3NH](+)); dimethylammonium is not, and [EtNH3](+) of the same
+    # composition is no dimethylammonium
+    assert score_formula("(C2H5)3NHCl")["cations"] == "[Et3NH](+)*1"
+    assert score_formula("(CH3)2NH2Cl")["cations"] == "[(CH3)2NH2](+)*1"
+    # the name of a protonated amine's salt with an anion other than a halide reads the same way
+    assert score_formula("dimethylammonium nitrate")["cations"] == "[(CH3)2NH2](+)*1"
+
+
+@pytest.mark.parametrize("text", ["(C6H5)3P", "(CH3)2SO", "(C2H5)3N", "(C2H5)2NH", "(C6H5)3PO", "(CH3)3SiCl"])
 def test_neutral_molecules_with_fewer_groups_are_not_onium_salts(text):
     assert written_onium(text) is None
     assert score_formula(text)["substance_class"] not in ("ionic_liquid_pair", "ionic_salt")
