@@ -52,6 +52,7 @@ _CENTRE = re.compile(r"(?P<centre>As|N|P|S)(?![a-z])")
 # the hydrogens written on the nitrogen of a protonated amine, and the group that stands for one of them
 _HYDROGENS = re.compile(r"H([1-3]?)(?![a-z\d])")
 PROTON_GROUP = "H"
+_LEADING_GROUP = re.compile(r"(?P<group>C\d*H\d+(?:C\d*H\d+)*)N(?=H[1-3]?(?![a-z\d]))")
 _ATOM = re.compile(r"([A-Z][a-z]?)(\d*)")
 
 
@@ -126,6 +127,15 @@ def written_onium(text: str) -> tuple[str, tuple[tuple[str, int], ...], str] | N
         groups[_hill(counts)] = groups.get(_hill(counts), 0) + n
         found += n
         position = m.end()
+    if not found and closing is None:
+        # one organic group written without brackets before the nitrogen of a protonated amine (C6H5NH3Cl,
+        # anilinium chloride; C6H5CH2NH3Cl): only there, since before a centre with no hydrogens after it such a
+        # group is part of a molecule (C6H5NO2)
+        m = _LEADING_GROUP.match(text)
+        if m is not None and _is_organic_group(_counts(m.group("group"))):
+            groups[_hill(_counts(m.group("group")))] = 1
+            found = 1
+            position = m.end("group")
     centre = _CENTRE.match(text, position)
     if centre is None:
         return None

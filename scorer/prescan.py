@@ -26,6 +26,7 @@ from ionicity.scorer.formula import FormulaError, ParsedFormula, parse_formula
 from ionicity.scorer.grammar import MAX_COUNT, MAX_FORMULA_LENGTH, MAX_TOTAL_ATOMS, hill_order
 from ionicity.scorer.mixture import names_a_blend
 from ionicity.scorer.organic import organic_molecule, organic_shortcut_enabled
+from ionicity.scorer.onium_groups import written_onium
 from ionicity.scorer.written_ions import written_ion_hints
 from ionicity.scorer.slips import (
     BEST_PENALTY, IMPOSSIBLE_MAX_LENGTH, MARGIN, MAYBE_SLIP, absurd_count, impossible_composition, lone_element_count, odd_electron_molecule,
@@ -178,8 +179,10 @@ def _capital_parse(text: str) -> ParsedFormula | None:
     if (len(text) > MAX_FORMULA_LENGTH or "C5H5" in text or "NH4" in text or "COF" in text or "COI" in text
             or text.endswith("NCO") or "COOC" in text or "CO2C" in text):
         return None
-    if written_ion_hints(text):
-        return None  # a salt written as its ions run together (CH3NH3HCOO): the parser names them
+    if written_ion_hints(text) or ("NH" in text and written_onium(text) is not None):
+        # a salt written as its ions run together (CH3NH3HCOO) or a protonated amine by its group (C6H5NH3NO3):
+        # the parser names them
+        return None
     totals: dict[str, float] = {}
     for symbol, digits in _SYMBOL_COUNT.findall(text):
         n = int(digits) if digits else 1

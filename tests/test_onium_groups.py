@@ -88,6 +88,8 @@ def test_n_alkyl_groups_take_the_code_of_the_trade_not_a_library_isomer():
     ("(C2H5)2NH2Cl", "diethylamine hydrochloride", "diethylammonium"),
     ("(C2H5)3NHCl", "triethylamine hydrochloride", "triethylammonium"),
     ("(HOCH2CH2)3NHCl", "triethanolamine hydrochloride", "tris(2-hydroxyethyl)ammonium"),
+    ("C6H5NH3Cl", "aniline hydrochloride", "phenylammonium"),          # one group written without brackets
+    ("C6H5CH2NH3Cl", "benzylamine hydrochloride", "benzylammonium"),   # (C6H5NH3Cl read as methylpyridinium)
 ])
 def test_protonated_amines_written_by_their_groups_read_as_that_cation(text, registry_name, cation):
     identifiers = pytest.importorskip("chemicals.identifiers")
@@ -108,7 +110,8 @@ def test_a_protonated_amine_takes_the_library_ion_of_its_name_not_an_isomer():
     assert score_formula("dimethylammonium nitrate")["cations"] == "[(CH3)2NH2](+)*1"
 
 
-@pytest.mark.parametrize("text", ["(C6H5)3P", "(CH3)2SO", "(C2H5)3N", "(C2H5)2NH", "(C6H5)3PO", "(CH3)3SiCl"])
+@pytest.mark.parametrize("text", ["(C6H5)3P", "(CH3)2SO", "(C2H5)3N", "(C2H5)2NH", "(C6H5)3PO", "(CH3)3SiCl",
+                                  "C6H5NH2", "C6H5NO2", "C6H5NHCH3"])
 def test_neutral_molecules_with_fewer_groups_are_not_onium_salts(text):
     assert written_onium(text) is None
     assert score_formula(text)["substance_class"] not in ("ionic_liquid_pair", "ionic_salt")
