@@ -66,6 +66,7 @@ from ionicity.scorer.grammar import (
 )
 from ionicity.scorer.model import format_charge
 from ionicity.scorer.onium_groups import group_counts, onium_hint, written_onium
+from ionicity.scorer.alkoxides import ALKOXIDE_HINT, written_alkoxide
 from ionicity.scorer.carboxylates import carboxylate_hint, written_carboxylates
 from ionicity.scorer.written_ions import written_ion_hints
 from ionicity.scorer.tables import table
@@ -915,6 +916,9 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     elif len(hydrohalide) == 1 and next(iter(hydrohalide.values())).is_integer():
         (halide, n), = hydrohalide.items()
         hint = f"{HYDROHALIDE_HINT}{halide}*{int(n)}"
+    elif "(O" in cleaned and written_alkoxide(cleaned) is not None:
+        # a metal alkoxide written by its groups (Ti(OC3H7)4, Al(OiPr)3): M-O-C bonds, a molecule (scorer.alkoxides)
+        hint = ALKOXIDE_HINT
     elif _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
     elif _ACYL_HALIDE.search(cleaned):

@@ -95,6 +95,7 @@ from dataclasses import dataclass, replace
 from ionicity.scorer.bond_class_rules import layered_dichalcogenide_reason
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_organic
+from ionicity.scorer.alkoxides import ALKOXIDE_HINT
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
 from ionicity.scorer.melting_anions import (
@@ -559,7 +560,8 @@ def organic_acid_groups(dec: Decomposition) -> float:
 def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
     organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations,
                                             zwitterion="zwitterion" in dec.written_groups,
-                                            acid_groups=organic_acid_groups(dec))
+                                            acid_groups=organic_acid_groups(dec),
+                                            alkoxide=ALKOXIDE_HINT in dec.written_groups)
     if organic is not None:
         # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
         cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()

@@ -76,6 +76,7 @@ import dataclasses
 import re
 from dataclasses import dataclass
 
+from ionicity.scorer.alkoxides import ALKOXIDE_HINT, alcohol_formula, is_alkoxide_ion
 from ionicity.scorer.caution import WATER_CAUTION
 from ionicity.scorer.descriptor import protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element, is_metal
@@ -486,6 +487,35 @@ def _organic_reactive_group(counts, dec) -> _Finding | None:
     return None
 
 
+def _alkoxide(counts, dec) -> _Finding | None:
+    """A metal alkoxide written by its groups, or a salt of an alkoxide ion (scorer.alkoxides): water hydrolyses
+    the first to the metal's hydroxide or oxide and the alcohol (slowly for Si(OR)4 without acid or base); the
+    alkoxide ion takes a proton from water, giving the hydroxide and the alcohol with heat, a strongly basic
+    solution (Bradley et al., Alkoxo and Aryloxo Derivatives of Metals, 2001; Clayden et al., Organic
+    Chemistry, 2nd ed., 2012, ch. 8; from memory)."""
+    if ALKOXIDE_HINT in dec.written_groups:
+        centre = next((s for s in counts if s not in ("C", "H", "O")), None)
+        if centre is None or not counts.get("O"):
+            return None
+        c, h = counts["C"] / counts["O"], counts["H"] / counts["O"]
+        alcohol = f"C{c:g}H{h:g}OH".replace("C1H", "CH")
+        slow = " (slowly without acid or base)" if centre == "Si" else ""
+        return _finding("reacts", None, f"{centre} hydroxide or oxide;{alcohol}", "metal alkoxide",
+                        f"a metal alkoxide: water and moist air hydrolyse it to the {centre} hydroxide or oxide and"
+                        f" {alcohol}{slow}")
+    alkoxides = [t.ion for t in dec.anions if is_alkoxide_ion(t.ion)] if dec.is_ionic else []
+    if not alkoxides:
+        return None
+    metals = sorted({t.ion.element for t in dec.cations if t.ion.element})
+    alcohols = ";".join(dict.fromkeys(alcohol_formula(ion) for ion in alkoxides))
+    hydroxides = ";".join(f"{m}OH" if get_element(m).group == 1 else f"{m}(OH)2" for m in metals
+                          if get_element(m).group in (1, 2)) or "hydroxide"
+    return _finding("reacts", "basic", f"{hydroxides};{alcohols}", "alkoxide salt",
+                    f"{', '.join(ion.ion_id for ion in alkoxides)}: a stronger base than hydroxide, it takes a"
+                    f" proton from water, giving {hydroxides.replace(';', ', ')} and {alcohols.replace(';', ', ')}"
+                    " with heat (a strongly basic, corrosive solution)")
+
+
 def _anhydride(counts, dec) -> _Finding | None:
     entry = _ANHYDRIDES.get(tuple(sorted(counts.items())))
     if entry is None:
@@ -717,7 +747,7 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 #: the rules in order; the first that returns a finding decides
 RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide,
-         _organic_reactive_group, _anhydride, _acid, _molecular_base, _organic,
+         _organic_reactive_group, _alkoxide, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 
