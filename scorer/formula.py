@@ -67,6 +67,7 @@ from ionicity.scorer.grammar import (
 from ionicity.scorer.model import format_charge
 from ionicity.scorer.onium_groups import group_counts, onium_hint, written_onium
 from ionicity.scorer.alkoxides import ALKOXIDE_HINT, written_alkoxide
+from ionicity.scorer.metal_amides import METAL_AMIDE_HINT, written_metal_amide
 from ionicity.scorer.carboxylates import carboxylate_hint, written_carboxylates
 from ionicity.scorer.written_ions import written_ion_hints
 from ionicity.scorer.tables import table
@@ -916,6 +917,10 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
     elif len(hydrohalide) == 1 and next(iter(hydrohalide.values())).is_integer():
         (halide, n), = hydrohalide.items()
         hint = f"{HYDROHALIDE_HINT}{halide}*{int(n)}"
+    elif "N(" in cleaned and written_metal_amide(cleaned) is not None:
+        # an alkali-metal amide of a secondary amine written by its groups (LiN(C3H7)2, NaN(Si(CH3)3)2): a strong
+        # base of M-N bonds (scorer.metal_amides)
+        hint = METAL_AMIDE_HINT
     elif "(O" in cleaned and written_alkoxide(cleaned) is not None:
         # a metal alkoxide written by its groups (Ti(OC3H7)4, Al(OiPr)3): M-O-C bonds, a molecule (scorer.alkoxides)
         hint = ALKOXIDE_HINT

@@ -33,6 +33,7 @@ from ionicity.scorer.applicability import AMBIGUOUS_READINGS_NOTE, family_decide
 from ionicity.scorer.bond_class_rules import metal_rich_phase_reason, organometallic_reason
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.alkoxides import ALKOXIDE_HINT, alkoxide_decomposition
+from ionicity.scorer.metal_amides import METAL_AMIDE_HINT, metal_amide_decomposition
 from ionicity.scorer.carboxylates import CARBOXYLATE_HINT, carboxylate_salt_readings, hill_carboxylate_readings
 from ionicity.scorer.charge_balance import _TOL, solver_work, work_bound
 from ionicity.scorer.complex_anions import complex_anion_readings
@@ -302,6 +303,9 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         # (name_reader: the registry's SMILES): a molecule with a group water attacks
         dec = nonionic_decomposition(comp.charge, counts, notes, water, neutral)
         return dataclasses.replace(dec, written_groups=(group,))
+    if comp.structure_hint == METAL_AMIDE_HINT and not comp.ion_hints:
+        # LiN(C3H7)2, NaN(Si(CH3)3)2 written by their groups: M-N bonds in aggregates (scorer.metal_amides)
+        return metal_amide_decomposition(counts, water, neutral)
     if comp.structure_hint == ALKOXIDE_HINT and not comp.ion_hints:
         # a metal alkoxide written by its groups (Ti(OC3H7)4): a molecule of M-O-C bonds (scorer.alkoxides)
         return alkoxide_decomposition(counts, water, neutral)

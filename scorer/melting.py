@@ -96,6 +96,7 @@ from ionicity.scorer.bond_class_rules import layered_dichalcogenide_reason
 from ionicity.scorer import character, fajans, lattice
 from ionicity.scorer import melting_organic
 from ionicity.scorer.alkoxides import ALKOXIDE_HINT
+from ionicity.scorer.metal_amides import METAL_AMIDE_HINT
 from ionicity.scorer import melting_routes as routes
 from ionicity.scorer.melting_routes import MELTING_CLASS_BANDS, melting_class_for
 from ionicity.scorer.melting_anions import (
@@ -557,11 +558,15 @@ def organic_acid_groups(dec: Decomposition) -> float:
     return float(sum(t.count for t in dec.cations if t.ion.ion_id == "H(+)"))
 
 
+# metal compounds written by their organic groups, read by the organic molecular route (scorer.melting_organic)
+_METAL_BY_GROUPS = frozenset({ALKOXIDE_HINT, METAL_AMIDE_HINT})
+
+
 def _molecular(dec: Decomposition) -> tuple[float, _MolecularReading | _OrganicReading | None]:
     organic = melting_organic.organic_terms(dec.composition, TREND_WEIGHTS, organometallic=not dec.cations,
                                             zwitterion="zwitterion" in dec.written_groups,
                                             acid_groups=organic_acid_groups(dec),
-                                            alkoxide=ALKOXIDE_HINT in dec.written_groups)
+                                            metal_by_groups=bool(_METAL_BY_GROUPS & set(dec.written_groups)))
     if organic is not None:
         # a molecular formula of carbon is the molecule itself (C6H6, not CH): read unreduced
         cohesion, entropy = organic.cohesion_kJ_mol(TREND_WEIGHTS), organic.entropy_J_mol_K()

@@ -268,16 +268,17 @@ def organometallic_counts(counts: Mapping[str, float]) -> bool:
 
 
 def organic_terms(composition, weights: Mapping[str, float], organometallic: bool = False,
-                  zwitterion: bool = False, acid_groups: float = 0.0, alkoxide: bool = False) -> OrganicTerms | None:
+                  zwitterion: bool = False, acid_groups: float = 0.0,
+                  metal_by_groups: bool = False) -> OrganicTerms | None:
     """Read an organic molecule off its composition (``(symbol, count)`` pairs), unreduced.
 
     None when :func:`is_organic_molecule` says no. ``weights`` gives the two
     structural constants of the formula reading
-    (``organic_rigid_atoms_per_unsaturation``, ``organic_uniform_symmetry_number``). ``alkoxide``: a metal
-    alkoxide written by its groups (:mod:`scorer.alkoxides`, Ti(OC3H7)4), read as the organic molecule it is
-    around its metal, which counts as one more skeleton atom; its oxygens carry no hydrogen, so it has no
-    hydrogen-bond donor site (the weights are those of the organic calibration half, not fitted on
-    alkoxides).
+    (``organic_rigid_atoms_per_unsaturation``, ``organic_uniform_symmetry_number``). ``metal_by_groups``: a
+    metal alkoxide or amide written by its groups (:mod:`scorer.alkoxides`, Ti(OC3H7)4; :mod:`scorer.metal_amides`,
+    NaN(Si(CH3)3)2), read as the organic molecule it is around its metal, which counts as one more skeleton
+    atom; its O and N carry no hydrogen, so it has no hydrogen-bond donor site (the weights are those of the
+    organic calibration half, not fitted on these compounds).
 
     >>> w = {"organic_rigid_atoms_per_unsaturation": 1.0, "organic_uniform_symmetry_number": 2.0}
     >>> t = organic_terms((("C", 10.0), ("H", 8.0)), w)
@@ -288,13 +289,13 @@ def organic_terms(composition, weights: Mapping[str, float], organometallic: boo
     for symbol, n in composition:
         if n > 0:
             counts[symbol] = counts.get(symbol, 0.0) + float(n)
-    if not (is_organic_molecule(counts) or organometallic and organometallic_counts(counts) or alkoxide):
+    if not (is_organic_molecule(counts) or organometallic and organometallic_counts(counts) or metal_by_groups):
         return None
     alpha = math.fsum(n * _polarisability_A3(s) for s, n in counts.items())
     return OrganicTerms(
         heavy_atoms=sum(n for s, n in counts.items() if s != "H"),
         polarisability_A3=alpha,
-        hydrogen_bond_sites=0.0 if alkoxide else hydrogen_bond_sites(counts),
+        hydrogen_bond_sites=0.0 if metal_by_groups else hydrogen_bond_sites(counts),
         unsaturation=degree_of_unsaturation(counts),
         symmetry_number=formula_symmetry_number(counts, weights["organic_uniform_symmetry_number"]),
         torsions_tau=formula_torsions_tau(counts, weights["organic_rigid_atoms_per_unsaturation"]),

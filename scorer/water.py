@@ -78,6 +78,7 @@ from dataclasses import dataclass
 
 from ionicity.scorer.alkoxides import ALKOXIDE_HINT, alcohol_formula, is_alkoxide_ion
 from ionicity.scorer.caution import WATER_CAUTION
+from ionicity.scorer.metal_amides import METAL_AMIDE_HINT, amine_of
 from ionicity.scorer.descriptor import protocol, result_class, value_lines
 from ionicity.scorer.elements import get_element, is_metal
 from ionicity.scorer.grammar import iupac_formula
@@ -487,6 +488,18 @@ def _organic_reactive_group(counts, dec) -> _Finding | None:
     return None
 
 
+def _metal_amide(counts, dec) -> _Finding | None:
+    """An alkali-metal amide of a secondary amine written by its groups (scorer.metal_amides): water takes it
+    at once to the amine and the metal hydroxide, with heat; a strongly basic solution."""
+    if METAL_AMIDE_HINT not in dec.written_groups:
+        return None
+    metal = next(s for s in counts if s not in ("C", "H", "N", "Si"))
+    amine = amine_of(counts)
+    return _finding("reacts_violently", "basic", f"{metal}OH;{amine}", "metal amide",
+                    f"an alkali-metal amide: a stronger base than hydroxide, it reacts violently with water, giving"
+                    f" the amine {amine} and {metal}OH with heat")
+
+
 def _alkoxide(counts, dec) -> _Finding | None:
     """A metal alkoxide written by its groups, or a salt of an alkoxide ion (scorer.alkoxides): water hydrolyses
     the first to the metal's hydroxide or oxide and the alcohol (slowly for Si(OR)4 without acid or base); the
@@ -747,7 +760,7 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 #: the rules in order; the first that returns a finding decides
 RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide,
-         _organic_reactive_group, _alkoxide, _anhydride, _acid, _molecular_base, _organic,
+         _organic_reactive_group, _metal_amide, _alkoxide, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 
