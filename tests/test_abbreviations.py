@@ -178,11 +178,12 @@ def test_ba_in_capitals_without_a_perovskite_halide_is_still_barium():
 @pytest.mark.parametrize("typed, formula", [
     # alkoxides of the p-block metals (aluminium isopropoxide, a tetramer of Al-O-Al bridges; Greenwood &
     # Earnshaw, 2nd ed., 1997, ch. 7, from memory) are metal-organic molecules, as the titanium ones were; they
-    # were errors. Masses from periodictable
+    # were errors, then "metal-organic" molecules, now metal alkoxides by their written groups
+    # (scorer.alkoxides). Masses from periodictable
     ("Al(OiPr)3", "C9H21AlO3"), ("Ga(OiPr)3", "C9H21GaO3"),
 ])
 def test_p_block_metal_alkoxides_are_metal_organic_molecules(typed, formula):
     out = score_formula(typed)
     assert out["status"] == "warning" and out["substance_class"] == "covalent_molecular"
-    assert "metal-organic" in out["message"]
+    assert "a metal alkoxide M(OR)n" in out["message"]
     assert out["molar_mass_g_mol"] == pytest.approx(periodictable.formula(formula).mass, rel=1e-4)
