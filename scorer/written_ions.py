@@ -29,7 +29,7 @@ import re
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.elements import is_element_symbol, is_metal
 from ionicity.scorer.grammar import FormulaError, parse_element_groups
-from ionicity.scorer.ion_library import exact_aliases
+from ionicity.scorer.ion_library import exact_aliases, ions_by_composition
 from ionicity.scorer.ion_penalties import _IONIC_THRESHOLD, _monatomic_options
 from ionicity.scorer.model import Ion
 
@@ -48,7 +48,8 @@ _MAX_LENGTH = 60
 @once
 def _formula_aliases() -> dict[str, Ion]:
     """Aliases of polyatomic library ions that are written as the ion's own formula (``C2H3O2`` for acetate),
-    exact case; an alias two ions share is left out."""
+    exact case; an alias two ions share, or whose atoms two library ions of one charge hold (isomers), is left
+    out."""
     out: dict[str, Ion] = {}
     shared: set[str] = set()
     for alias, ion in exact_aliases().items():
@@ -62,6 +63,8 @@ def _formula_aliases() -> dict[str, Ion]:
             continue  # a code that only looks like a formula (P66614)
         if sorted(counts.items()) != sorted(ion.composition):
             continue  # OAc is O and Ac by its letters, not acetate's atoms
+        if len(ions_by_composition(counts, ion.charge)) > 1:
+            continue  # a Hill formula of isomers (C4H12N: tetramethylammonium and butylammonium) names neither
         if alias in out and out[alias].ion_id != ion.ion_id:
             shared.add(alias)
         out.setdefault(alias, ion)
