@@ -290,6 +290,22 @@ def test_binary_carbonyls_in_hill_order_are_molecules(formula, metal):
     assert f"{metal}:0" in out["oxidation_states"]
 
 
+# Carbonyl halides and hydrides in Hill order, as the registry package chemicals writes them (its identifier
+# database by CAS: rhenium pentacarbonyl bromide C5BrO5Re, 14220-21-4; tetracarbonyldihydroiron C4H2FeO4,
+# 12002-28-7): molecules of neutral CO beside halide or hydride ligands at -1 (IUPAC Red Book 2005, IR-10; from
+# memory). C5BrO5Re had read as Re(7+) with hypobromite, a C3(4-) carbide and oxalate.
+@pytest.mark.parametrize("cas, metal_state, ligand", [("14220-21-4", "Re:+1", "Br:-1"), ("12002-28-7", "Fe:+2", "H:-1")])
+def test_carbonyl_halides_and_hydrides_in_hill_order_are_molecules(cas, metal_state, ligand):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    out = score_formula(identifiers.search_chemical(cas).formula)
+    assert out["status"] == "ok" and out["substance_class"] == "covalent_molecular"
+    assert metal_state in out["oxidation_states"] and ligand in out["oxidation_states"] and "C:+2" in out["oxidation_states"]
+
+
+def test_written_carbonyl_halides_get_their_states():
+    assert score_formula("Mn(CO)5Br")["oxidation_states"] == "Mn:+1;C:+2;O:-2;Br:-1"
+
+
 @pytest.mark.parametrize("formula", ["FeC2O4", "NiC2O4"])
 def test_oxalates_stay_salts(formula):
     assert _verdict(formula)[1] == "ionic_salt"
