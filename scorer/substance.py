@@ -261,7 +261,7 @@ _CARBONYL_LIGANDS = frozenset({"F", "Cl", "Br", "I"})
 def binary_carbonyl(counts: dict[str, float]) -> bool:
     """Whether a composition is a metal carbonyl written in Hill order: one carbonyl-forming metal
     (:data:`_CARBONYL_METALS`), carbon and oxygen in equal numbers, at least 2.5 of them per metal atom, or,
-    beside halide or hydride ligands (at most three per metal atom), at least two. C5FeO5 is Fe(CO)5, C4NiO4
+    beside halide or hydride ligands (at most three per metal atom), at least one. C5FeO5 is Fe(CO)5, C4NiO4
     Ni(CO)4 (the squarate Ni(C4O4) has the same formula; the carbonyl is the stock chemical; common practice);
     C5BrMnO5 is Mn(CO)5Br and C4Cl2O4Rh2 [Rh(CO)2Cl]2 (carbonyl halides, IUPAC Red Book 2005, IR-10; from
     memory), which had read as Mn(7+) with hypobromite, a carbide and oxalate.
@@ -279,7 +279,7 @@ def binary_carbonyl(counts: dict[str, float]) -> bool:
     carbon = counts["C"]
     if abs(carbon - counts["O"]) >= _TOL or ligands > 3 * metal + _TOL:
         return False
-    return carbon >= (_CARBONYLS_PER_METAL_MIN if not ligands else 2.0) * metal
+    return carbon >= (_CARBONYLS_PER_METAL_MIN if not ligands else 1.0) * metal
 
 
 def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], ...]:
