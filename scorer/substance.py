@@ -268,7 +268,7 @@ def binary_carbonyl(counts: dict[str, float]) -> bool:
 
     >>> binary_carbonyl({"C": 5.0, "Fe": 1.0, "O": 5.0}), binary_carbonyl({"C": 2.0, "Fe": 1.0, "O": 4.0})
     (True, False)
-    >>> binary_carbonyl({"Br": 1.0, "C": 5.0, "Mn": 1.0, "O": 5.0}), binary_carbonyl({"C": 1.0, "Cl": 3.0, "Fe": 1.0, "O": 1.0})
+    >>> binary_carbonyl({"Br": 1.0, "C": 5.0, "Mn": 1.0, "O": 5.0}), binary_carbonyl({"C": 2.0, "Cl": 4.0, "Fe": 1.0, "O": 2.0})
     (True, False)
     """
     metals = [s for s in counts if s not in ("C", "O", "H") and s not in _CARBONYL_LIGANDS]
