@@ -246,6 +246,10 @@ class Reader:
         self.ligands = []
         text = f"[{central}{inner}]"
         part = Part(text, charge, count, polyatomic=True)
+        if anionic and charge >= 0:
+            # an -ate name is an anion's (Red Book 2005, IR-9.2.2.3): with no charge left it is no complex but an
+            # ester of the oxoacid ("trimethyl borate" is B(OCH3)3, not the trimethylboron [B(CH3)3])
+            return False
         if charge == 0:
             self.reading.molecule = part
             return not self.reading.cations and not self.reading.anions

@@ -88,3 +88,24 @@ def test_aluminium_isopropoxide_melts_above_100c():
     chemicals = pytest.importorskip("chemicals")
     assert chemicals.phase_change.Tm("555-31-7") > 373.15
     assert score_formula("Al(OCH(CH3)2)3")["melting_class"] == "low_melting_solid"
+
+
+# Esters of oxoacids named as "trialkyl borate" read as the ester, the registry's formula of the name (chemicals
+# identifiers by CAS: trimethyl borate C3H9BO3, 121-43-7; trimethyl phosphate C3H9O4P, 512-56-1; tetramethyl
+# orthosilicate C4H12O4Si, 681-84-5). The -ate name had been read as a neutral complex of the methyl ligand,
+# [B(CH3)3] (trimethylborane, a gas), [P(CH3)3] and Si(CH3)4; an -ate name is an anion's (IUPAC Red Book 2005,
+# IR-9.2.2.3), so with no charge left it is no complex.
+@pytest.mark.parametrize("name, cas", [("trimethyl borate", "121-43-7"), ("trimethyl phosphate", "512-56-1"),
+                                       ("tetramethyl silicate", "681-84-5")])
+def test_oxoacid_esters_by_name_read_as_the_ester(name, cas):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    out = score_formula(name)
+    assert parse_formula(out["formula_normalized"]).hill == identifiers.search_chemical(cas).formula
+
+
+
+def test_an_ate_name_with_a_charge_stays_a_complex_anion():
+    # the same rule keeps the anionic complexes: tetrachloroplatinate(II) is [PtCl4](2-) (Red Book IR-9.2.2.3)
+    from ionicity.scorer.name_reader import read_name
+    assert read_name("potassium tetrachloroplatinate") == "K2PtCl4"
+    assert read_name("sodium tetrahydroxoaluminate") == "Na[Al(OH)4]"
