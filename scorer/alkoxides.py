@@ -36,7 +36,7 @@ from ionicity.scorer.ion_penalties import _states
 from ionicity.scorer.model import Decomposition, Ion
 
 __all__ = ["ALKOXIDE_HINT", "ALKOXIDE_NOTE", "written_alkoxide", "alkoxide_decomposition", "is_alkoxide_ion",
-           "alcohol_formula"]
+           "alcohol_formula", "alkoxide_name_formula"]
 
 #: the structure hint (scorer.formula) and written group (Decomposition.written_groups) of a metal alkoxide
 ALKOXIDE_HINT = "alkoxide"
@@ -45,7 +45,7 @@ ALKOXIDE_NOTE = (
     " (Bradley et al., Alkoxo and Aryloxo Derivatives of Metals, 2001; from memory). Water and moist air"
     " hydrolyse it to the metal hydroxide or oxide and the alcohol: keep it dry and follow the safety data sheet"
 )
-_WRITTEN = re.compile(r"(?P<centre>[A-Z][a-z]?)\(O(?P<r>[CH\d()]+)\)(?P<n>\d*)")
+_WRITTEN = re.compile(r"(?P<centre>[A-Z][a-z]?)\((?:O(?P<r>[CH\d()]+)|(?P<r_first>C[CH\d]*)O)\)(?P<n>\d*)")
 _ALKOXIDE_NONMETALS = frozenset({"B", "Si", "Ge"})
 
 
@@ -67,6 +67,8 @@ def written_alkoxide(text: str) -> tuple[str, int, tuple[int, int]] | None:
 
     >>> written_alkoxide("Ti(OC3H7)4"), written_alkoxide("Ti(O(C3H7))4"), written_alkoxide("Al(OCH(CH3)2)3")
     (('Ti', 4, (3, 7)), ('Ti', 4, (3, 7)), ('Al', 3, (3, 7)))
+    >>> written_alkoxide("Ta(C2H5O)5")
+    ('Ta', 5, (2, 5))
     >>> written_alkoxide("Na(OCH3)"), written_alkoxide("Ti(OC6H5)4"), written_alkoxide("Ti(OC3H7)7")
     (None, None, None)
     """
@@ -76,7 +78,7 @@ def written_alkoxide(text: str) -> tuple[str, int, tuple[int, int]] | None:
     centre, n = m.group("centre"), int(m.group("n") or 1)
     if centre not in _ALKOXIDE_NONMETALS and not (is_metal(centre) and get_element(centre).group not in (1, 2)):
         return None
-    r = m.group("r")
+    r = m.group("r") or m.group("r_first")  # O-R, or the alkoxide ion's formula R-O (Ta(C2H5O)5, as names read)
     alkyl = _alkyl(r[1:-1] if r.startswith("(") and r.endswith(")") and r.count("(") == 1 else r)
     if alkyl is None:
         return None
@@ -115,3 +117,44 @@ def alcohol_formula(ion: Ion) -> str:
     counts = dict(ion.composition)
     c, h = int(counts["C"]), int(counts["H"])
     return f"C{c if c > 1 else ''}H{h}OH"
+
+
+# the alkoxide words of a name and the alkyl group each names, written as catalogues do (common practice)
+_ALKOXIDE_WORDS = {
+    "methoxide": "CH3", "ethoxide": "C2H5", "propoxide": "C3H7", "n-propoxide": "C3H7", "isopropoxide": "CH(CH3)2",
+    "butoxide": "C4H9", "n-butoxide": "C4H9", "isobutoxide": "CH2CH(CH3)2", "sec-butoxide": "CH(CH3)C2H5",
+    "tert-butoxide": "C(CH3)3", "t-butoxide": "C(CH3)3",
+}
+_ALKOXIDE_NAME = re.compile(
+    r"^\s*(?P<metal>[a-z]+)\s*(?:\((?P<stock>[ivx]+)\))?\s+(?:(?:tetra|tri|penta|di)-?)?(?P<word>"
+    + "|".join(sorted((re.escape(w) for w in _ALKOXIDE_WORDS), key=len, reverse=True)) + r")\s*$", re.I)
+_STOCK = {"i": 1, "ii": 2, "iii": 3, "iv": 4, "v": 5, "vi": 6}
+# the elements whose alkoxides of the trade are at one state, which a name may leave unsaid ("titanium
+# isopropoxide" is Ti(OiPr)4; common practice); any other element needs the Stock number
+_ALKOXIDE_STATE = {"B": 3, "Al": 3, "Ga": 3, "Si": 4, "Ge": 4, "Ti": 4, "Zr": 4, "Hf": 4, "Nb": 5, "Ta": 5}
+
+
+def alkoxide_name_formula(name: str) -> str | None:
+    """The formula, written by its groups, of a metal alkoxide named so (``titanium(IV) isopropoxide``,
+    ``titanium isopropoxide``, ``aluminium tri-sec-butoxide``, ``tantalum(V) ethoxide``); None for any other name
+    and for a metal of groups 1 and 2 (``sodium methoxide`` is a salt the name grammar reads).
+
+    >>> alkoxide_name_formula("titanium(IV) isopropoxide"), alkoxide_name_formula("zirconium butoxide")
+    ('Ti(OCH(CH3)2)4', 'Zr(OC4H9)4')
+    >>> alkoxide_name_formula("iron ethoxide"), alkoxide_name_formula("sodium methoxide")
+    (None, None)
+    """
+    from ionicity.scorer.name_vocabulary import compact, vocabulary  # the name words load only for names
+
+    m = _ALKOXIDE_NAME.match(name) if isinstance(name, str) else None
+    if m is None:
+        return None
+    word = vocabulary()[0].get(compact(m.group("metal")))
+    symbol = next((w.symbol for w in word.meanings() if w.kind == "element"), None) if word is not None else None
+    if symbol is None or (is_metal(symbol) and get_element(symbol).group in (1, 2)):
+        return None
+    state = _STOCK.get((m.group("stock") or "").lower()) or _ALKOXIDE_STATE.get(symbol)
+    if state is None:
+        return None
+    formula = f"{symbol}(O{_ALKOXIDE_WORDS[m.group('word').lower()]}){state if state > 1 else ''}"
+    return formula if written_alkoxide(formula) is not None else None

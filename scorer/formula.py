@@ -921,9 +921,11 @@ def _parse_cleaned(text: str, cleaned: str, notes: list[str]) -> ParsedFormula:
         # an alkali-metal amide of a secondary amine written by its groups (LiN(C3H7)2, NaN(Si(CH3)3)2): a strong
         # base of M-N bonds (scorer.metal_amides)
         hint = METAL_AMIDE_HINT
-    elif "(O" in cleaned and written_alkoxide(cleaned) is not None:
-        # a metal alkoxide written by its groups (Ti(OC3H7)4, Al(OiPr)3): M-O-C bonds, a molecule (scorer.alkoxides)
+    elif ("(O" in cleaned or "O)" in cleaned) and written_alkoxide(cleaned) is not None:
+        # a metal alkoxide written by its groups (Ti(OC3H7)4, Al(OiPr)3; Ta(C2H5O)5 as a name reads): M-O-C bonds,
+        # a molecule, not a salt of the ethoxide ion (scorer.alkoxides)
         hint = ALKOXIDE_HINT
+        hints = {}
     elif _ORGANOMETALLIC_GROUPS.search(cleaned):
         hint = "organometallic"
     elif _ACYL_HALIDE.search(cleaned):

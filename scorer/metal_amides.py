@@ -24,7 +24,8 @@ import re
 from ionicity.scorer.grammar import FormulaError, parse_element_groups, hill_formula
 from ionicity.scorer.model import Decomposition
 
-__all__ = ["METAL_AMIDE_HINT", "METAL_AMIDE_NOTE", "written_metal_amide", "metal_amide_decomposition", "amine_of"]
+__all__ = ["METAL_AMIDE_HINT", "METAL_AMIDE_NOTE", "written_metal_amide", "metal_amide_decomposition", "amine_of",
+           "metal_amide_name_formula"]
 
 #: the structure hint (scorer.formula) and written group (Decomposition.written_groups) of such an amide
 METAL_AMIDE_HINT = "metal_amide"
@@ -85,3 +86,29 @@ def amine_of(counts: dict[str, float]) -> str:
     amine = {s: n for s, n in counts.items() if s not in _ALKALI_STATES}
     amine["H"] = amine.get("H", 0.0) + 1.0
     return hill_formula(amine)
+
+
+# the amide words of the trade's names, each the amine's groups written as a formula (common practice)
+_AMIDE_WORDS = {
+    "dimethylamide": "(CH3)2", "diethylamide": "(C2H5)2", "diisopropylamide": "(CH(CH3)2)2",
+    "dipropylamide": "(C3H7)2", "dibutylamide": "(C4H9)2", "bis(trimethylsilyl)amide": "(Si(CH3)3)2",
+    "hexamethyldisilazide": "(Si(CH3)3)2",
+}
+_METAL_WORDS = {"lithium": "Li", "sodium": "Na", "potassium": "K", "rubidium": "Rb", "caesium": "Cs", "cesium": "Cs"}
+_AMIDE_NAME = re.compile(r"^\s*(?P<metal>[a-z]+)\s+(?P<word>[a-z()]+)\s*$", re.I)
+
+
+def metal_amide_name_formula(name: str) -> str | None:
+    """The formula, written by its groups, of an alkali-metal amide named so (``lithium diisopropylamide``,
+    ``sodium bis(trimethylsilyl)amide``, ``potassium hexamethyldisilazide``); None for any other name.
+
+    >>> metal_amide_name_formula("lithium diisopropylamide"), metal_amide_name_formula("sodium hexamethyldisilazide")
+    ('LiN(CH(CH3)2)2', 'NaN(Si(CH3)3)2')
+    >>> metal_amide_name_formula("sodium amide"), metal_amide_name_formula("lithium chloride")
+    (None, None)
+    """
+    m = _AMIDE_NAME.match(name) if isinstance(name, str) else None
+    if m is None:
+        return None
+    metal, groups = _METAL_WORDS.get(m.group("metal").lower()), _AMIDE_WORDS.get(m.group("word").lower())
+    return f"{metal}N{groups}" if metal and groups else None

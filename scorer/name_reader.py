@@ -46,6 +46,8 @@ from __future__ import annotations
 import dataclasses
 import re
 
+from ionicity.scorer.alkoxides import alkoxide_name_formula
+from ionicity.scorer.metal_amides import metal_amide_name_formula
 from ionicity.scorer.caching import once, per_input
 from ionicity.scorer.carboxylates import CARBOXYLATE_SOURCE
 from ionicity.scorer.elements import is_element_symbol, is_metal
@@ -119,6 +121,10 @@ def _read_name(name, registry: bool = True) -> tuple[str | None, tuple[str, str,
         formula = _tetraalkyl_onium_name(name)
     if formula is None:
         formula = _substituted_onium_name(name)
+    if formula is None:
+        # metal alkoxides and alkali-metal amides named so (titanium isopropoxide, lithium diisopropylamide):
+        # written by their groups, which the parser reads (scorer.alkoxides, scorer.metal_amides)
+        formula = alkoxide_name_formula(name) or metal_amide_name_formula(name)
     if formula is None:
         entry = registry_entry(name) if registry else None
         if entry is None:

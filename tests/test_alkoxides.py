@@ -109,3 +109,28 @@ def test_an_ate_name_with_a_charge_stays_a_complex_anion():
     from ionicity.scorer.name_reader import read_name
     assert read_name("potassium tetrachloroplatinate") == "K2PtCl4"
     assert read_name("sodium tetrahydroxoaluminate") == "Na[Al(OH)4]"
+
+
+# Names of the trade: the metal, its Stock number where the name gives one (else the one state its alkoxides are
+# sold at: Ti, Zr, Hf +4, Nb, Ta +5, Al, B +3, Si, Ge +4), and the alkoxide word; each against the registry's
+# formula by CAS (chemicals identifiers: titanium isopropoxide C12H28O4Ti 546-68-9; aluminium isopropoxide,
+# C9H21AlO3 by its composition, the registry's own row being C3H8O, isopropanol; tantalum(V) ethoxide
+# C10H25O5Ta 6074-84-6; niobium(V) ethoxide C10H25NbO5 3236-82-6). Before, the first three were errors or
+# isopropanol, and tantalum(V) ethoxide read as a salt of the ethoxide ion with no word on water.
+@pytest.mark.parametrize("name, cas", [("titanium(IV) isopropoxide", "546-68-9"), ("titanium isopropoxide", "546-68-9"),
+                                       ("tantalum(V) ethoxide", "6074-84-6"), ("niobium ethoxide", "3236-82-6")])
+def test_alkoxides_by_name_read_as_the_alkoxide(name, cas):
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    out = score_formula(name)
+    assert parse_formula(out["formula_normalized"]).hill == identifiers.search_chemical(cas).formula
+    assert out["substance_class"] == "covalent_molecular" and out["water_behaviour"] == "reacts"
+
+
+def test_aluminium_isopropoxide_by_name_is_the_alkoxide_not_the_alcohol():
+    out = score_formula("aluminium isopropoxide")
+    assert parse_formula(out["formula_normalized"]).hill == "C9H21AlO3"
+
+
+def test_an_alkoxide_name_without_a_state_for_a_metal_of_several_is_not_guessed():
+    assert score_formula("iron ethoxide")["status"] == "error"
+    assert score_formula("iron(III) ethoxide")["oxidation_states"].startswith("C:-2;H:+1;Fe:+3")

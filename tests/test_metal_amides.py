@@ -51,3 +51,14 @@ def test_hmds_salts_melting_trend_within_a_factor_1_5_of_the_registry(text, cas)
     assert chemicals.identifiers.search_chemical(cas).formula == parse_formula(text).hill
     predicted = 10 ** score_formula(text)["mp_trend_index"]
     assert abs(math.log10(predicted / chemicals.phase_change.Tm(cas))) <= math.log10(1.5)
+
+
+@pytest.mark.parametrize("name, cas", [("lithium bis(trimethylsilyl)amide", "4039-32-1"),
+                                       ("sodium hexamethyldisilazide", "1070-89-9"),
+                                       ("lithium diisopropylamide", "4111-54-0")])
+def test_amides_by_name_read_as_the_registry_formula(name, cas):
+    # before, these names were errors ("neither a formula nor a name the name reader knows")
+    identifiers = pytest.importorskip("chemicals.identifiers")
+    out = score_formula(name)
+    assert parse_formula(out["formula_normalized"]).hill == identifiers.search_chemical(cas).formula
+    assert out["water_behaviour"] == "reacts_violently"
