@@ -669,7 +669,9 @@ def parse_formula(text: str) -> ParsedFormula:
     if solvent is not None and not parsed.ion_hints:
         # a solvent's or reagent's code names one molecule (TRIS is no propylammonium hydrogencarbonate); an
         # acid's H(+) reading stands (TFA; scorer.ions)
-        parsed = dataclasses.replace(parsed, structure_hint="ester" if parsed.structure_hint == "ester" else "molecule")
+        # (an alkoxide or metal amide the code stands for keeps its written group: TEOS, TTIP, LDA)
+        parsed = dataclasses.replace(parsed, structure_hint=parsed.structure_hint if parsed.structure_hint in (
+            "ester", ALKOXIDE_HINT, METAL_AMIDE_HINT) else "molecule")
     return parsed.respelled(text, notes=tuple(notes) + parsed.notes)
 
 

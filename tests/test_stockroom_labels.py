@@ -236,8 +236,10 @@ def test_no_suggestion_that_needs_an_azide_or_a_carbide(text):
     ("Ti(OEt)4", "Ti:+4"), ("Al(OEt)3", "Al:+3"), ("Nb(OEt)5", "Nb:+5"),
 ])
 def test_alkoxides_of_high_valent_metals_are_molecules(formula, states):
+    # (every atom's formal state since 5 December 2026, ninth round, scorer.alkoxides: C -2, H +1, O -2 beside it)
     row = score_formula(formula)
-    assert row["substance_class"] == "covalent_molecular" and row["oxidation_states"] == states
+    assert row["substance_class"] == "covalent_molecular" and states in row["oxidation_states"].split(";")
+    assert "O:-2" in row["oxidation_states"]
 
 
 @pytest.mark.parametrize("formula", ["NaOMe", "NaOEt", "KOMe"])

@@ -41,7 +41,7 @@ ROWS = {
     "gases.csv": 214,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
-    "solvent_codes.csv": 72,
+    "solvent_codes.csv": 77,
     "material_codes.csv": 44,
     "trivial_names.csv": 246,
     "solution_names.csv": 20,
