@@ -488,6 +488,28 @@ def _organic_reactive_group(counts, dec) -> _Finding | None:
     return None
 
 
+# halo-complex anions of the strongly Lewis-acidic group-13 halides: the chloroaluminate and chlorogallate melts and
+# ionic liquids (NaAlCl4, [C2mim][AlCl4], [C4mim][Al2Cl7]) hydrolyse violently with water and moist air, giving the
+# hydrogen halide, as AlCl3 does (Wilkes, Levisky, Wilson & Hussey, Inorg. Chem. 21 (1982) 1263; Wasserscheid &
+# Welton, Ionic Liquids in Synthesis, 2nd ed., 2008, ch. 2; from memory)
+_HYDROLYSING_HALOMETALLATES = {
+    "AlCl4(-)": "HCl", "Al2Cl7(-)": "HCl", "AlBr4(-)": "HBr", "Al2Br7(-)": "HBr", "GaCl4(-)": "HCl",
+    "Ga2Cl7(-)": "HCl", "AlI4(-)": "HI",
+}
+
+
+def _halometallate(counts, dec) -> _Finding | None:
+    """A salt of a chloroaluminate or chlorogallate anion (the molten-salt and ionic-liquid electrolytes): reacts
+    violently with water, giving the hydrogen halide, an acidic solution."""
+    found = [t.ion.ion_id for t in dec.anions if t.ion.ion_id in _HYDROLYSING_HALOMETALLATES]
+    if not found:
+        return None
+    products = ";".join(dict.fromkeys(_HYDROLYSING_HALOMETALLATES[a] for a in found))
+    return _finding("reacts_violently", "acidic", products, "halometallate",
+                    f"{', '.join(found)}: a Lewis-acidic halometallate (a chloroaluminate melt or ionic liquid)"
+                    f" that water and moist air hydrolyse violently, giving {products.replace(';', ', ')}")
+
+
 def _metal_amide(counts, dec) -> _Finding | None:
     """An alkali-metal amide of a secondary amine written by its groups (scorer.metal_amides): water takes it
     at once to the amine and the metal hydroxide, with heat; a strongly basic solution."""
@@ -760,7 +782,7 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 #: the rules in order; the first that returns a finding decides
 RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide,
-         _organic_reactive_group, _metal_amide, _alkoxide, _anhydride, _acid, _molecular_base, _organic,
+         _organic_reactive_group, _metal_amide, _alkoxide, _halometallate, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 

@@ -51,7 +51,7 @@ ROWS = {
     "blends.csv": 13,
     "eutectics.csv": 20,
     "compound_systems.csv": 11,
-    "water_acidity.csv": 58,
+    "water_acidity.csv": 59,
 }
 
 

@@ -200,6 +200,19 @@ CASES = [
     ("UF4", "insoluble", None, "none", "CRC (from memory): actinide tetrafluorides are insoluble, as LaF3"),
     ("TeCl4", "reacts_violently", "acidic", "HCl", "Greenwood & Earnshaw ch. 16.3: hydrolyses to TeO2 and HCl"
                                                    " (from memory)"),
+    # chloroaluminate melts and ionic liquids hydrolyse as AlCl3 does (Wilkes, Levisky, Wilson & Hussey, Inorg.
+    # Chem. 21 (1982) 1263; Wasserscheid & Welton, Ionic Liquids in Synthesis, 2nd ed., 2008, ch. 2; from memory);
+    # they read "dissolves, neutral" before 5 December 2026, ninth round
+    ("NaAlCl4", "reacts_violently", "acidic", "HCl", "Wilkes et al. 1982; the ZEBRA cell's melt (from memory)"),
+    ("[C2mim][AlCl4]", "reacts_violently", "acidic", "HCl", "Wilkes et al. 1982 (from memory)"),
+    ("[C4mim][Al2Cl7]", "reacts_violently", "acidic", "HCl", "Wasserscheid & Welton 2008, ch. 2 (from memory)"),
+    ("[C2mim][AlBr4]", "reacts_violently", "acidic", "HBr", "as the chloroaluminates (from memory)"),
+    # tetrachloridoferrate(III) comes apart into the iron(III) aqua ion and chloride (Baes & Mesmer 1976)
+    ("KFeCl4", "dissolves", "acidic", "none", f"{BM}: Fe3+ pKa 2.19"),
+    # alkoxide ions are stronger bases than hydroxide (Clayden et al., Organic Chemistry, 2nd ed., 2012, ch. 8;
+    # from memory): the salts react to the hydroxide and the alcohol ("dissolves, neutral" before)
+    ("NaOCH3", "reacts", "basic", "NaOH;CH3OH", "Clayden et al. 2012, ch. 8 (from memory)"),
+    ("KOC(CH3)3", "reacts", "basic", "KOH;C4H9OH", "Clayden et al. 2012, ch. 8 (from memory)"),
 ]
 
 
