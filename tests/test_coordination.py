@@ -153,6 +153,7 @@ REGISTRY_LIGAND_NAMES = {
     "cod": "1,5-cyclooctadiene", "nbd": "norbornadiene", "dba": "dibenzylideneacetone", "MeCN": "acetonitrile",
     "PhCN": "benzonitrile", "thf": "tetrahydrofuran", "dmso": "dimethyl sulfoxide", "dmf": "dimethylformamide",
     "CO": "carbon monoxide", "Et2O": "diethyl ether", "SMe2": "dimethyl sulfide",
+    "dme": "1,2-dimethoxyethane", "G2": "diglyme", "G3": "triglyme", "G4": "tetraglyme",
 }
 
 
@@ -270,3 +271,14 @@ def test_alkali_dithiocarbamates_are_salts(text):
     # from memory); it had been a row error
     row = score_formula(text)
     assert row["substance_class"] == "ionic_salt" and row["cations"] == "Na(+)*1"
+
+
+@pytest.mark.parametrize("text, ligand", [("[Li(G4)][TFSI]", "G4"), ("[Li(G3)][TFSI]", "G3"),
+                                          ("[Li(tetraglyme)][TFSI]", "G4"), ("[Na(G4)][TFSI]", "G4")])
+def test_solvate_ionic_liquids_read_as_the_glyme_complex_salt(text, ligand):
+    # the solvate ionic liquids of lithium and sodium salts with glymes (Ueno et al., J. Phys. Chem. B 116 (2012)
+    # 11323; from memory): the cation is the metal held by the glyme, written in square brackets; the glymes'
+    # formulas are the registry's (test above). Before 5 December 2026, ninth round, [Li(G4)] was an unknown ion
+    row = score_formula(text)
+    assert row["status"] == "ok" and row["cations"].startswith("[") and f"({ligand})" in row["cations"]
+    assert row["anions"] == "[NTf2](-)*1"

@@ -45,7 +45,7 @@ ROWS = {
     "material_codes.csv": 44,
     "trivial_names.csv": 246,
     "solution_names.csv": 20,
-    "ligands.csv": 30,
+    "ligands.csv": 34,
     "registry_names.csv": 13388,
     "fusion.csv": 38,
     "blends.csv": 13,
