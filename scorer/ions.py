@@ -92,6 +92,8 @@ _REDOX_ALTERNATIVE_MAX_EXTRA = 1.0
 _REACTIVE_GROUPS = frozenset({"acyl_halide", "acid_anhydride", "isocyanate"})
 # hypohalites, and the N-H cations that react with them (chloramine chemistry)
 _HYPOHALITES = frozenset({"ClO(-)", "BrO(-)", "IO(-)"})
+# how much dearer than the cheapest reading of the atoms the reading with every written NH4 group may be
+_WRITTEN_AMMONIUM_EXTRA = 1.0
 _AMMONIUM_LIKE = frozenset({"NH4(+)", "N2H5(+)", "N2H6(2+)", "NH3OH(+)"})
 _ADDUCT_COMPOSITIONS = {"NH3": (("H", 3.0), ("N", 1.0)), "H2O2": (("H", 2.0), ("O", 2.0))}
 # solver work (search nodes plus knapsack transitions) the polyatomic-ion walks
@@ -428,7 +430,21 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
     if readings and inorganic_ammonium and written_nh4 is not None:
         # every NH4 group the text writes is an ammonium ion: (NH4)2Cr2O6 (the dichromate with an O lost) was read
         # as one ammonium beside nitrite and chromium(II)
-        readings = [r for r in readings if _holds_ammonium([r], written_nh4)]
+        kept = [r for r in readings if _holds_ammonium([r], written_nh4)]
+        if not kept and written_nh4 and not hinted and not skeleton:
+            # the walks kept only their cheapest readings, none with the ammonium written: the rest read with
+            # those NH4 groups given, as a bracketed ion is ((NH4)10W12O41, ammonium paratungstate, balances as
+            # W(6+) with oxide, dearer than hydroxide, azide and W(4+) read from the atoms), where that reading
+            # costs at most one penalty unit more (a formula that lost a count, (NH4)2Cr2O6, stays an error: it
+            # balances with the ammonium only through Cr(4+), an odd state)
+            nh4 = get_ion("NH4(+)")
+            rest = _subtract(remaining, nh4.composition, written_nh4)
+            ceiling = min(_IONIC_THRESHOLD, min(p for p, _ in readings) + _WRITTEN_AMMONIUM_EXTRA)
+            if all(n >= -_TOL for n in rest.values()):
+                rest = {s: n for s, n in rest.items() if n > _TOL}
+                kept = [r for r in _readings(rest, [[(nh4, written_nh4)]], [], budget=budget, ceiling=ceiling)
+                        if r[0] <= ceiling] if rest else []
+        readings = kept
     readings = _coexisting(readings, remaining)
     if readings and not hinted:
         # a metal's oxoacid or complex acid written whole (HMnO4, H2CrO4, HAuCl4, H3PW12O40): H(+) with its anion,

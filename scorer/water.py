@@ -498,6 +498,35 @@ _HYDROLYSING_HALOMETALLATES = {
 }
 
 
+# oxo salts of the high-valent early metals and uranium, read as the metal with oxide beside a soluble anion
+# (VOSO4, VOCl2, ZrOCl2, TiOSO4, UO2(NO3)2 written UO8N2 and the like): the oxocation (vanadyl VO2+, zirconyl,
+# titanyl, uranyl) goes into solution and hydrolyses, an acidic solution, where an oxide beside the metal would
+# say "insoluble" (vanadyl sulfate and zirconyl chloride octahydrate are the soluble salts of the trade;
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 21.3 and 22.3; from memory). The oxyhalides
+# of Bi and Sb (BiOCl, SbOCl) are insoluble and stay with the solubility rules; those of Nb and Mo (NbOCl3,
+# MoO2Cl2) fume and hydrolyse, as molecular halides do.
+_OXO_SALT_METALS = frozenset({"V", "Ti", "Zr", "Hf", "U", "Np", "Pu"})
+_OXO_SALT_ANIONS = frozenset({"SO4(2-)", "Cl(-)", "Br(-)", "NO3(-)", "ClO4(-)"})
+
+
+def _oxo_salt(counts, dec) -> _Finding | None:
+    """A salt read as such a metal with oxide beside a sulfate, halide, nitrate or perchlorate (at most two
+    oxides per metal atom): dissolves as the oxocation, acidic."""
+    if not dec.is_ionic or not dec.cations:
+        return None
+    anions = {t.ion.ion_id: t.count for t in dec.anions}
+    oxide = anions.pop("O(2-)", 0.0)
+    metals = [t for t in dec.cations if t.ion.element in _OXO_SALT_METALS]
+    if not oxide or not anions or not set(anions) <= _OXO_SALT_ANIONS or len(metals) != len(dec.cations):
+        return None
+    if oxide > 2 * sum(t.count for t in metals) + 1e-9:
+        return None
+    names = ", ".join(sorted({t.ion.element for t in metals}))
+    return _finding("dissolves", "acidic", None, "oxo salt",
+                    f"an oxo salt of {names} (an oxocation such as vanadyl, zirconyl or titanyl beside"
+                    f" {', '.join(sorted(anions))}): dissolves, the oxocation hydrolysing to an acidic solution")
+
+
 def _halometallate(counts, dec) -> _Finding | None:
     """A salt of a chloroaluminate or chlorogallate anion (the molten-salt and ionic-liquid electrolytes): reacts
     violently with water, giving the hydrogen halide, an acidic solution."""
@@ -782,7 +811,7 @@ def _fluoro_anion(counts, dec) -> _Finding | None:
 
 #: the rules in order; the first that returns a finding decides
 RULES = (_water, _metal_alkyl, _element, _binary, _fuming_halide, _interhalogen, _molecular_hydride, _acyl_halide,
-         _organic_reactive_group, _metal_amide, _alkoxide, _halometallate, _anhydride, _acid, _molecular_base, _organic,
+         _organic_reactive_group, _metal_amide, _alkoxide, _halometallate, _oxo_salt, _anhydride, _acid, _molecular_base, _organic,
          _fluoro_anion, _ionic_liquid, _salt, _insoluble_solid)
 
 

@@ -213,6 +213,11 @@ CASES = [
     # from memory): the salts react to the hydroxide and the alcohol ("dissolves, neutral" before)
     ("NaOCH3", "reacts", "basic", "NaOH;CH3OH", "Clayden et al. 2012, ch. 8 (from memory)"),
     ("KOC(CH3)3", "reacts", "basic", "KOH;C4H9OH", "Clayden et al. 2012, ch. 8 (from memory)"),
+    # oxo salts of the early metals dissolve as their oxocations, hydrolysing (Greenwood & Earnshaw ch. 21.3 and
+    # 22.3: vanadyl sulfate's blue solution, zirconyl chloride octahydrate; from memory); VOSO4 read "insoluble"
+    ("VOSO4", "dissolves", "acidic", "none", "Greenwood & Earnshaw ch. 22.3 (from memory)"),
+    ("ZrOCl2·8H2O", "dissolves", "acidic", "none", "Greenwood & Earnshaw ch. 21.3 (from memory)"),
+    ("BiOCl", "insoluble", None, "none", "Greenwood & Earnshaw ch. 13.3: bismuth oxychloride (from memory)"),
 ]
 
 
