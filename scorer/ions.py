@@ -537,6 +537,19 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         return Decomposition(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                              substance_class="unknown", notes=tuple(notes))
     if not readings:
+        if comp.ion_hints and not comp.charge:
+            # the bracketed groups may be the ligands of a complex ion the library lists (LiB(C2O4)2 is
+            # Li[B(C2O4)2], lithium bis(oxalato)borate; its oxalate groups balanced with B(3+), a non-metal
+            # cation): where the atoms read as a salt of a library ion that holds every written group, that reading
+            # (and the note that says so)
+            whole = _read(counts_key, charge, (), neutral_adducts, structure_hint, budget)
+            holder = next((t.ion for t in whole.cations + whole.anions
+                           if not t.ion.monatomic and _holds_groups(t.ion, comp.ion_hints)), None)
+            if holder is not None and whole.substance_class != "unknown":
+                written = ", ".join(ion_id for ion_id, _ in comp.ion_hints)
+                return dataclasses.replace(whole, notes=(*whole.notes, (
+                    f"the groups written in brackets ({written}) are ligands of {holder.ion_id}, not ions of their own:"
+                    " read as its salt")))
         if comp.ion_hints and not notes:
             notes.append("the written ions leave a remainder that no ion assignment balances")
         return nonionic_decomposition(comp.charge, counts, notes, water, neutral)
@@ -999,6 +1012,16 @@ def reversed_polarity(terms) -> bool:
     anions = [ion.element for ion, _ in terms if ion.monatomic and ion.charge < 0]
     chi = {s: get_element(s).electronegativity_pauling for s in {*cations, *anions}}
     return any(chi[c] is not None and chi[a] is not None and chi[c] > chi[a] for c in cations for a in anions)
+
+
+def _holds_groups(ion, ion_hints) -> bool:
+    """Whether the composition of ``ion`` holds every hinted group (as many as written) and more: the groups are its
+    ligands ([B(C2O4)2](-) holds two oxalates)."""
+    left = dict(ion.composition)
+    for ion_id, n in ion_hints:
+        for symbol, k in get_ion(ion_id).composition:
+            left[symbol] = left.get(symbol, 0.0) - k * n
+    return all(v >= -_TOL for v in left.values()) and any(v > _TOL for v in left.values())
 
 
 def _best(readings):

@@ -282,3 +282,17 @@ def test_solvate_ionic_liquids_read_as_the_glyme_complex_salt(text, ligand):
     row = score_formula(text)
     assert row["status"] == "ok" and row["cations"].startswith("[") and f"({ligand})" in row["cations"]
     assert row["anions"] == "[NTf2](-)*1"
+
+
+@pytest.mark.parametrize("text, anion, hill", [("LiB(C2O4)2", "B(C2O4)2(-)*1", "C4BLiO8"),
+                                               ("LiBF2(C2O4)", "BF2(C2O4)(-)*1", "C2BF2LiO4")])
+def test_oxalate_groups_written_inside_a_borate_are_its_ligands(text, anion, hill):
+    # lithium bis(oxalato)borate and difluoro(oxalato)borate, electrolyte salts, written with their oxalate groups
+    # in round brackets: the groups were taken as oxalate ions, which balance only with B(3+), and the rows were
+    # errors; the atoms read as the library's borate anion (composition checked with molmass, the registry
+    # package), and the row says how the groups were read
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(text)
+    assert row["status"] == "warning" and row["cations"] == "Li(+)*1" and row["anions"] == anion
+    assert "ligands of" in row["message"]
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(hill).mass, abs=0.02)
