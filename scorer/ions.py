@@ -537,7 +537,7 @@ def _read(counts_key, charge, ion_hints, neutral_adducts, structure_hint, budget
         return Decomposition(composition=tuple(counts.items()), hydrate_water=water, neutral_parts=neutral,
                              substance_class="unknown", notes=tuple(notes))
     if not readings:
-        if comp.ion_hints and not comp.charge:
+        if comp.ion_hints and not comp.charge and _ligand_holder_exists(comp.ion_hints, counts):
             # the bracketed groups may be the ligands of a complex ion the library lists (LiB(C2O4)2 is
             # Li[B(C2O4)2], lithium bis(oxalato)borate; its oxalate groups balanced with B(3+), a non-metal
             # cation): where the atoms read as a salt of a library ion that holds every written group, that reading
@@ -1012,6 +1012,14 @@ def reversed_polarity(terms) -> bool:
     anions = [ion.element for ion, _ in terms if ion.monatomic and ion.charge < 0]
     chi = {s: get_element(s).electronegativity_pauling for s in {*cations, *anions}}
     return any(chi[c] is not None and chi[a] is not None and chi[c] > chi[a] for c in cations for a in anions)
+
+
+def _ligand_holder_exists(ion_hints, counts) -> bool:
+    """Whether some polyatomic library ion of the formula's elements holds every hinted group (the read from the
+    atoms is tried only then: it costs a second walk)."""
+    present = set(counts)
+    return any(not ion.monatomic and {s for s, _ in ion.composition} <= present and _holds_groups(ion, ion_hints)
+               for ion in ion_library())
 
 
 def _holds_groups(ion, ion_hints) -> bool:
