@@ -150,7 +150,12 @@ def salt_ph(cations, anions) -> tuple[str | None, str]:
         return None, f"; pH not given: no hydrolysis constant for {', '.join(unknown)}"
     if base is not None and base[1][0] in {"strong_base", "anion_acid", "amphiprotic"}:
         pH = _anion_pH(base[1])
-        if acid_pKa is not None and base[1][0] != "strong_base":
+        if acid_pKa is not None and base[1][0] == "amphiprotic":
+            # a weak acid cation beside an amphiprotic anion takes the proton the anion accepts: the pair's pH
+            # where that is lower ((NH4+ 9.25 + H2CO3 6.35)/2 = 7.8 for NH4HCO3, measured about 7.8; common
+            # practice), the anion's own where that is (NH4H2PO4, 4.7)
+            pH = min(pH, weak_pair_pH(acid_pKa, base[1][1]))
+        elif acid_pKa is not None and base[1][0] != "strong_base":
             pH = min(pH, weak_acid_pH(acid_pKa))
         how = f"{base[0]} ({base[1][0].replace('_', ' ')})"
     elif base is not None and acid_pKa is not None:

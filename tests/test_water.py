@@ -218,6 +218,10 @@ CASES = [
     ("VOSO4", "dissolves", "acidic", "none", "Greenwood & Earnshaw ch. 22.3 (from memory)"),
     ("ZrOCl2·8H2O", "dissolves", "acidic", "none", "Greenwood & Earnshaw ch. 21.3 (from memory)"),
     ("BiOCl", "insoluble", None, "none", "Greenwood & Earnshaw ch. 13.3: bismuth oxychloride (from memory)"),
+    # ammonium beside an amphiprotic anion: the pair's pH, (pKa NH4+ 9.25 + pKa H2CO3 6.35)/2 = 7.8, where the
+    # anion's own is higher (NH4HCO3 solutions measure about 7.8; from memory); it read "acidic" (NH4+ alone, 5.1)
+    ("NH4HCO3", "dissolves", "neutral", "none", "pH about 7.8 at 0.1 mol/L (from memory)"),
+    ("NH4H2PO4", "dissolves", "acidic", "none", "pH about 4.5 (from memory): H2PO4- amphiprotic, 4.7"),
 ]
 
 
