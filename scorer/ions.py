@@ -1023,13 +1023,24 @@ def _ligand_holder_exists(ion_hints, counts) -> bool:
 
 
 def _holds_groups(ion, ion_hints) -> bool:
-    """Whether the composition of ``ion`` holds every hinted group (as many as written) and more: the groups are its
-    ligands ([B(C2O4)2](-) holds two oxalates)."""
+    """Whether ``ion`` is a complex of the hinted groups: they are anions, its composition holds every one of them
+    (as many as written), and the rest is other elements, its central atom and other ligands ([B(C2O4)2](-) holds two
+    oxalates and a boron; [C4mim](+) holds the atoms of [C2mim](+) but is no complex of it).
+
+    >>> _holds_groups(get_ion("B(C2O4)2(-)"), (("C2O4(2-)", 2.0),)), _holds_groups(get_ion("[C4mim](+)"), (("[C2mim](+)", 1.0),))
+    (True, False)
+    """
     left = dict(ion.composition)
+    group_elements = set()
     for ion_id, n in ion_hints:
-        for symbol, k in get_ion(ion_id).composition:
+        group = get_ion(ion_id)
+        if group.charge >= 0:
+            return False
+        for symbol, k in group.composition:
             left[symbol] = left.get(symbol, 0.0) - k * n
-    return all(v >= -_TOL for v in left.values()) and any(v > _TOL for v in left.values())
+            group_elements.add(symbol)
+    rest = {s for s, v in left.items() if v > _TOL}
+    return all(v >= -_TOL for v in left.values()) and bool(rest) and not rest & group_elements
 
 
 def _best(readings):
