@@ -254,14 +254,15 @@ def _formal_rules(symbols: tuple[str, ...]) -> tuple[dict[str, float], list[str]
 _CARBONYL_METALS = frozenset("V Cr Mo W Mn Tc Re Fe Ru Os Co Rh Ir Ni".split())
 # carbonyls per metal atom: Rh6(CO)16 2.67 to Cr(CO)6 6; an oxalate (C2O4) has twice the oxygens
 _CARBONYLS_PER_METAL_MIN = 2.5
-# the ligands beside CO of the carbonyl halides and hydrides (Mn(CO)5Br, HCo(CO)4), each -1
+# the ligands beside CO of the carbonyl halides (Mn(CO)5Br), each -1
 _CARBONYL_LIGANDS = frozenset({"F", "Cl", "Br", "I"})
 
 
 def binary_carbonyl(counts: dict[str, float]) -> bool:
     """Whether a composition is a metal carbonyl written in Hill order: one carbonyl-forming metal
     (:data:`_CARBONYL_METALS`), carbon and oxygen in equal numbers, at least 2.5 of them per metal atom, or,
-    beside halide or hydride ligands (at most three per metal atom), at least one. C5FeO5 is Fe(CO)5, C4NiO4
+    beside halide ligands (at most three per metal atom), at least one. Hydrogen makes none: C4H2FeO4 is ferrous
+    fumarate, the stock chemical, before tetracarbonyldihydroiron. C5FeO5 is Fe(CO)5, C4NiO4
     Ni(CO)4 (the squarate Ni(C4O4) has the same formula; the carbonyl is the stock chemical; common practice);
     C5BrMnO5 is Mn(CO)5Br and C4Cl2O4Rh2 [Rh(CO)2Cl]2 (carbonyl halides, IUPAC Red Book 2005, IR-10; from
     memory), which had read as Mn(7+) with hypobromite, a carbide and oxalate.
@@ -271,11 +272,11 @@ def binary_carbonyl(counts: dict[str, float]) -> bool:
     >>> binary_carbonyl({"Br": 1.0, "C": 5.0, "Mn": 1.0, "O": 5.0}), binary_carbonyl({"C": 2.0, "Cl": 4.0, "Fe": 1.0, "O": 2.0})
     (True, False)
     """
-    metals = [s for s in counts if s not in ("C", "O", "H") and s not in _CARBONYL_LIGANDS]
+    metals = [s for s in counts if s not in ("C", "O") and s not in _CARBONYL_LIGANDS]
     if len(metals) != 1 or metals[0] not in _CARBONYL_METALS or "C" not in counts or "O" not in counts:
         return False
     metal = counts[metals[0]]
-    ligands = sum(n for s, n in counts.items() if s == "H" or s in _CARBONYL_LIGANDS)
+    ligands = sum(n for s, n in counts.items() if s in _CARBONYL_LIGANDS)
     carbon = counts["C"]
     if abs(carbon - counts["O"]) >= _TOL or ligands > 3 * metal + _TOL:
         return False
@@ -294,7 +295,7 @@ def organometallic_states(counts: dict[str, float]) -> tuple[tuple[str, float], 
     if set(rest) == {"C", "O"} and abs(rest["C"] - rest["O"]) < _TOL:
         return ((metal, 0.0), ("C", 2.0), ("O", -2.0))
     if binary_carbonyl(counts):
-        # a carbonyl halide or hydride: CO neutral, each halide or hydride -1, the metal what balances
+        # a carbonyl halide: CO neutral, each halide -1, the metal what balances
         ligands = {s: n for s, n in rest.items() if s not in ("C", "O")}
         state = sum(ligands.values()) / counts[metal]
         return ((metal, state), ("C", 2.0), ("O", -2.0), *((s, -1.0) for s in ligands))
