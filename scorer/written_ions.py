@@ -20,7 +20,10 @@ be one of its element's usual states. The rule is applied only where one of
 the written ions is organic: a salt of inorganic ions written so (``KNO3``,
 ``N2H5NO3``) reads the same from its atoms, and ammonium has its own
 written-group rule (:mod:`scorer.formula`, ``AMMONIUM_HINT``); N2H5HSO4,
-which the atoms read as hydrazinediium sulfate, is left to them.
+which the atoms read as hydrazinediium sulfate, is left to them. A formula
+alias that two library ions of one charge share by their atoms (C4H12N:
+tetramethylammonium and butylammonium) names neither, so a Hill formula of
+isomers (C4H12NCl) stays the solver's, ambiguous.
 """
 from __future__ import annotations
 
