@@ -175,7 +175,8 @@ def _capital_parse(text: str) -> ParsedFormula | None:
     a fifth of the time a molecule's record took. The same ParsedFormula
     (``tests/test_organic.py`` compares them); None where the grammar has
     more to say (the length and count bounds, a C5H5 group, an NH4 ion, an isocyanate or an ester, which it
-    marks)."""
+    marks; ions written run together, scorer.written_ions, and a protonated amine's group on its nitrogen,
+    scorer.onium_groups, which it names)."""
     if (len(text) > MAX_FORMULA_LENGTH or "C5H5" in text or "NH4" in text or "COF" in text or "COI" in text
             or text.endswith("NCO") or "COOC" in text or "CO2C" in text):
         return None
