@@ -168,7 +168,7 @@ def with_index_weights(x: np.ndarray, terms, weights) -> np.ndarray:
     out = np.array(x, dtype=float, copy=True)
     for i, t in enumerate(terms):
         if t is not None:
-            out[i, _COLUMN] = round(float(t.index(weights)), 4)
+            out[i, _COLUMN] = round(float(t.trend_index(weights)), 4)
     return out
 
 

@@ -107,6 +107,7 @@ from ionicity.scorer.melting_anions import (
     saline_nitride_fraction,
     soft_cation_pseudohalide_fraction,
     coinage_cation_fraction,
+    ammonium_polyatomic_salt,
     ammonium_type_cation_fraction,
     heavy_halate_fraction,
     rotor_anion_fraction,
@@ -130,6 +131,7 @@ from ionicity.scorer.descriptor import fmt, protocol, result_class
 from ionicity.scorer.melting_index import (
     MELTING_CLASSES,
     TREND_WEIGHTS,
+    ammonium_salt_decomposition_index,
     dannenfelser_yalkowsky_flexibility_entropy_J_mol_K,
     melting_class_from_index,
     melting_trend_index,
@@ -195,6 +197,8 @@ class MeltingTerms:
     polarising_organic_anion_fraction: float = 0.0
     ammonium_cation_fraction: float = 0.0
     rotor_anion_fraction: float = 0.0
+    # every cation NH4(+), no monatomic anion: melts with decomposition (ammonium_salt_decomposition_index)
+    ammonium_decomposes: bool = False
     notes: tuple[str, ...] = ()
 
     @property
@@ -214,6 +218,15 @@ class MeltingTerms:
             self.polarising_organic_anion_fraction, self.ammonium_cation_fraction, self.rotor_anion_fraction,
             weights=weights,
         )
+
+    def trend_index(self, weights=None) -> float:
+        """The salt route's index: :meth:`index`, then, for an ammonium salt of polyatomic anions,
+        :func:`scorer.melting_index.ammonium_salt_decomposition_index` (the lattice index alone is what the
+        salt weights are fitted on)."""
+        lattice_index = self.index(weights)
+        if self.ammonium_decomposes:
+            return ammonium_salt_decomposition_index(lattice_index, weights)
+        return lattice_index
 
 
 @per_input(maxsize=16384)
@@ -362,6 +375,7 @@ def _gather_terms(
         organic_anion_fraction=coordinating_organic_anion_fraction(dec.cations, dec.anions),
         polarising_organic_anion_fraction=polarising_organic_anion_fraction(dec.cations, dec.anions),
         ammonium_cation_fraction=ammonium_type_cation_fraction(dec.cations, dec.anions),
+        ammonium_decomposes=ammonium_polyatomic_salt(dec.cations, dec.anions),
         rotor_anion_fraction=rotor_anion_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
@@ -437,6 +451,11 @@ _METAL_ACID = (
 _HYDRATE = (
     "melting trend of the anhydrous salt: a hydrate melts in its own water of crystallisation, usually far lower"
 )
+_LOWER_HYDRATE = (
+    "melting class of the hydrate: with {n:g} waters per formula unit (fewer than {limit:g}) a salt hydrate gives off"
+    " its water of crystallisation on heating, or melts in it, below about 300 C (lower_salt_hydrate); mp_trend_index"
+    " is the anhydrous salt's; " + CAUTION
+)
 _WATER_RICH_HYDRATE = (
     "melting class of the hydrate: with {n:g} waters per formula unit (at least {limit:g}) a salt hydrate melts or"
     " dissolves in its own water of crystallisation, usually below about 100 C (water_rich_hydrate; Lane 1983);"
@@ -453,7 +472,18 @@ def _summary(result: MeltingTrend) -> tuple[str, ...]:
         f"melting_class = {result.melting_class} (bands: {_BANDS_TEXT})",
     )
     salt = _steps(result.terms, result.terms.index()) if result.terms is not None else ()
+    if result.terms is not None and result.terms.ammonium_decomposes and result.mp_route == "salt":
+        salt = (*salt, _ammonium_step(result.terms))
     return (*head, *salt, *result.route_steps, *_molecular_steps(result.molecular), "  caution: " + CAUTION)
+
+
+def _ammonium_step(terms: MeltingTerms) -> str:
+    w = TREND_WEIGHTS
+    lattice_index = terms.index()
+    return (f"  ammonium salt of polyatomic anions (melts with decomposition, NH4X -> NH3 + HX): I ="
+            f" {w['ammonium_lattice_share']} * {lattice_index:.3f} + {1 - w['ammonium_lattice_share']:.1f}"
+            f" * log10({w['ammonium_decomposition_K']:g} K) = {terms.trend_index():.3f}"
+            f" ({trend_temperature_K(terms.trend_index()):.0f} K; ammonium_salt_decomposition_index)")
 
 
 def _steps(terms: MeltingTerms, index: float) -> tuple[str, ...]:
@@ -518,7 +548,10 @@ def _salt(dec: Decomposition) -> tuple[float, MeltingTerms | None, list[str]]:
     for t in dec.cations + dec.anions:
         if t.ion.organic and t.ion.ion_id not in _shape_table():
             notes.append(f"melting trend: flexibility of {t.ion.ion_id} estimated from its composition")
-    return float(terms.index()), terms, notes
+    if terms.ammonium_decomposes and not any(t.ion.ion_id in OXIDISING_ANIONS for t in dec.anions):
+        # NH4NO3, NH4ClO4: the fuel-and-oxidiser note says more (they do not simply lose ammonia)
+        notes.append(_AMMONIUM_DECOMPOSITION)
+    return float(terms.trend_index()), terms, notes
 
 
 @dataclass(frozen=True)
@@ -625,6 +658,9 @@ _MOLECULAR_OXIDISER = ("melting trend: a strong oxidiser: it can ignite or react
 # interstitial and intermetallic hydrides lose hydrogen from a few hundred C (TiH2 and ZrH2 from about 400-600 C,
 # PdH and LaNi5H6 near room temperature; Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 3.4;
 # from memory)
+_AMMONIUM_DECOMPOSITION = ("melting trend: an ammonium salt of this kind melts with decomposition or decomposes"
+                           " (NH4X -> NH3 + HX): ammonia and the acid are given off on heating; the trend is not a"
+                           " temperature to heat towards: see the safety data sheet")
 _METAL_HYDRIDE = ("melting trend: a metal hydride gives off its hydrogen (a flammable gas) on heating, far below the"
                   " metal's melting point: the class is that of the metal left behind, not a temperature to heat"
                   " the hydride to")
@@ -668,7 +704,8 @@ def formal_salt_reading(dec: Decomposition) -> Decomposition | None:
                                ionic_model="applies", formal_ions=())
 
 
-def hydrate_melting_class(melting_class: str | None, route: str | None, hydrate_water: float) -> str | None:
+def hydrate_melting_class(melting_class: str | None, route: str | None, hydrate_water: float,
+                          oxide_only: bool = False) -> str | None:
     """The melting class of a compound with its lattice water: a water-rich salt hydrate's own class.
 
     A salt (``mp_route`` ``salt``) with at least
@@ -679,13 +716,25 @@ def hydrate_melting_class(melting_class: str | None, route: str | None, hydrate_
     record (:mod:`scorer.record`, which scores the anhydrous compound once for
     all its hydrates) and :func:`analyse` both ask here.
 
+    A salt with fewer waters (:func:`scorer.melting_routes.lower_salt_hydrate`)
+    gives them off on heating below about 300 C: ``loses_water_below_300C``
+    (an ionic liquid's hydrate keeps ``ionic_liquid``; an oxide's, ``oxide_only``,
+    keeps its class: Al2O3.H2O and Fe2O3.H2O are oxide hydroxides, boehmite
+    and goethite, which give their water off at 570-800 K; from memory).
+
     >>> hydrate_melting_class("molten_salt", "salt", 10.0), hydrate_melting_class("molten_salt", "salt", 2.0)
-    ('melts_in_own_water', 'molten_salt')
+    ('melts_in_own_water', 'loses_water_below_300C')
+    >>> hydrate_melting_class("ionic_liquid", "salt", 1.0), hydrate_melting_class("molten_salt", "salt", 0.0)
+    ('ionic_liquid', 'molten_salt')
     >>> hydrate_melting_class("low_melting_solid", "molecular", 6.0)
     'low_melting_solid'
     """
     if melting_class and route == "salt" and routes.water_rich_hydrate(hydrate_water):
         return routes.HYDRATE_MELT_CLASS
+    if melting_class and route == "salt" and routes.lower_salt_hydrate(hydrate_water) and not oxide_only and (
+            melting_class not in ("ionic_liquid", routes.HYDRATE_MELT_CLASS)):
+        # an ionic liquid's water stays dissolved in it: its class already says it is liquid below 100 C
+        return routes.LOWER_HYDRATE_CLASS
     return melting_class
 
 
@@ -714,7 +763,7 @@ def fusion_estimate(dec: Decomposition) -> tuple[float, float, str] | None:
         w = TREND_WEIGHTS
         s_ion = terms.ions_per_formula_unit * w["entropy_per_ion_J_mol_K"]
         entropy = max(s_ion + w["flexibility"] * terms.flexibility_entropy_J_mol_K, 0.5 * s_ion)
-        temperature = trend_temperature_K(terms.index())
+        temperature = trend_temperature_K(terms.trend_index())
     elif route == "molecular" or (route == "salt" and dec.substance_class == "base"):
         _, reading = _molecular(dec)
         if reading is None:
@@ -847,9 +896,13 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         return MeltingTrend(melting_class=routes.GAS_CLASS if gas is not None else None, notes=tuple(notes),
                             steps=tuple(notes) or ("melting trend: not computed",), terms=terms, mp_route=route)
     melting_class = hydrate_melting_class(
-        melting_class_for(trend_temperature_K(index), salt=route == "salt"), route, dec.hydrate_water)
+        melting_class_for(trend_temperature_K(index), salt=route == "salt"), route, dec.hydrate_water,
+        oxide_only=bool(dec.anions) and all(t.ion.ion_id == "O(2-)" for t in dec.anions))
     if melting_class == routes.HYDRATE_MELT_CLASS:
         notes.append(_WATER_RICH_HYDRATE.format(n=dec.hydrate_water, limit=routes.WATER_RICH_HYDRATE_MIN))
+        steps = (*steps, "  " + notes[-1])
+    elif melting_class == routes.LOWER_HYDRATE_CLASS:
+        notes.append(_LOWER_HYDRATE.format(n=dec.hydrate_water, limit=routes.WATER_RICH_HYDRATE_MIN))
         steps = (*steps, "  " + notes[-1])
     elif dec.hydrate_water:
         notes.append(_HYDRATE)

@@ -26,6 +26,7 @@ __all__ = [
     "soft_cation_pseudohalide_fraction",
     "coinage_cation_fraction",
     "AMMONIUM_TYPE_CATIONS",
+    "ammonium_polyatomic_salt",
     "ammonium_type_cation_fraction",
     "heavy_halate_fraction",
     "ROTOR_ANIONS",
@@ -261,6 +262,26 @@ def ammonium_type_cation_fraction(cations, anions) -> float:
         return 0.0
     nh4 = sum(t.count for t in cations if t.ion.ion_id in AMMONIUM_TYPE_CATIONS) / total
     return float(nh4 * sum(t.count for t in anions if not t.ion.organic) / anion_total)
+
+
+def ammonium_polyatomic_salt(cations, anions) -> bool:
+    """Whether every cation is NH4(+) and no anion is monatomic (an ammonium salt that decomposes by proton transfer).
+
+    ``cations``, ``anions``: the ``IonTerm`` tuples of a decomposition. These
+    salts take :func:`scorer.melting_index.ammonium_salt_decomposition_index`;
+    the halides and the sulfide keep the lattice index, and so do double salts
+    (NH4MgPO4, the alums), whose metal cation holds the lattice.
+
+    >>> from ionicity.scorer.formula import parse_formula
+    >>> from ionicity.scorer.ions import decompose
+    >>> def salt(f):
+    ...     d = decompose(parse_formula(f))
+    ...     return ammonium_polyatomic_salt(d.cations, d.anions)
+    >>> [salt(f) for f in ("NH4NO3", "NH4CH3COO", "(NH4)2SO4", "NH4Cl", "NH4MgPO4", "KNO3", "[EtNH3][NO3]")]
+    [True, True, True, False, False, False, False]
+    """
+    return (bool(cations) and bool(anions) and all(t.ion.ion_id in AMMONIUM_TYPE_CATIONS for t in cations)
+            and not any(t.ion.monatomic for t in anions))
 
 
 # the halate anions of the heavier halogens, X(V) with a lone pair: bromate and iodate

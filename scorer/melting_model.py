@@ -272,7 +272,7 @@ def model_trend_index(dec: Decomposition | None, record: Mapping, weights=()) ->
     if terms is None or not math.isfinite(terms.lattice_energy_kJ_mol):
         return shipped
     # rounded as the column is, so the shipped weights give the column's value exactly
-    return round(float(terms.index(weights)), 4)
+    return round(float(terms.trend_index(weights)), 4)
 
 
 def _predict_ln(model: MeltingModel, x: np.ndarray, groups=None) -> np.ndarray:

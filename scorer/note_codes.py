@@ -151,6 +151,13 @@ NOTE_CODES: tuple[tuple[str, str, str], ...] = (
      "melting trend: salts of the anion (in brackets) are oxidisers: hot or molten they can ignite organic matter,"
      " reducing agents and powdered metals, and give off oxygen as they decompose; keep them apart (see the safety"
      " data sheet)"),
+    ("melting_ammonium_decomposes",
+     r"melting trend: an ammonium salt of this kind melts with decomposition or decomposes \(NH4X -> NH3 \+ HX\):"
+     r" ammonia and the acid are given off on heating; the trend is not a temperature to heat towards: see the"
+     r" safety data sheet",
+     "melting trend: an ammonium salt of a polyatomic anion melts with decomposition or decomposes (NH4X -> NH3 +"
+     " HX): ammonia and the acid are given off on heating; the trend is not a temperature to heat towards (see the"
+     " safety data sheet)"),
     ("melting_metal_hydride",
      r"melting trend: a metal hydride gives off its hydrogen \(a flammable gas\) on heating, far below the metal's"
      r" melting point: the class is that of the metal left behind, not a temperature to heat the hydride to",

@@ -308,7 +308,10 @@ def _parsed_row(comp: ParsedFormula) -> tuple:
     row[water_at] = float(water)
     if water:  # a water-rich salt hydrate melts in its own water (scorer.melting.hydrate_melting_class)
         class_at, route_at = _melting_slots()
-        row[class_at] = hydrate_melting_class(row[class_at], row[route_at], float(water))
+        anions = row[_layout()[1]["anions"]] or ""
+        row[class_at] = hydrate_melting_class(row[class_at], row[route_at], float(water),
+                                              oxide_only=bool(anions) and all(
+                                                  part.startswith("O(2-)") for part in anions.split(";")))
     if comp.isotopes:  # D2O: scored as water above, written and weighed as D2O here
         mass += isotope_mass_shift_g_mol(comp.isotopes, get_element("H").atomic_weight)
         _write_isotopes(row, comp)

@@ -32,7 +32,7 @@ MELTING_TESTS = (
     "tests/test_trend_weights_routes.py", "tests/test_melting_index_terms.py", "tests/test_melting_second_stage.py",
     "tests/test_melting_audit_rules.py", "tests/test_melting_organic_molecules.py",
     "tests/test_melting_hydrogen_bonds.py", "tests/test_melting_lone_pairs.py", "tests/test_zwitterions.py",
-    "tests/test_organic_acids.py", "tests/test_onium_groups.py",
+    "tests/test_organic_acids.py", "tests/test_onium_groups.py", "tests/test_melting_ammonium_salts.py",
 )
 FACTORS = (1.5, 0.5)
 # the file that checks a weight family, run first for its weights (pytest -x stops at the first
@@ -46,6 +46,8 @@ FIRST_FILE = {
     "molecular_hydrogen_bond": "tests/test_melting_hydrogen_bonds.py",
     "molecular_lone_pair": "tests/test_melting_lone_pairs.py",
     "intermetallic_": "tests/test_melting_audit_rules.py",
+    "ammonium_decomposition_K": "tests/test_melting_ammonium_salts.py",
+    "ammonium_lattice_share": "tests/test_melting_ammonium_salts.py",
 }
 
 
