@@ -27,6 +27,9 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.grammar import iupac_formula
+from ionicity.scorer.registry_formulas import registry_knows
+from ionicity.scorer.slips import registry_count_neighbours
+from ionicity.scorer.substance import formal_oxidation_states, formal_state_strain, most_electronegative, usual_state
 from ionicity.scorer.ion_library import find_alias
 from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
@@ -462,13 +465,59 @@ def _score_text(text: str) -> tuple:
     return _counted(row, text)
 
 
+_SYMBOL = re.compile(r"[A-Z][a-z]?")
+
+
+@per_input(maxsize=16384)
+def _unknown_molecule(normalized: str, text: str) -> str | None:
+    """A warning for a small inorganic molecule that the registry's tables list no compound of, where a count
+    was most likely lost: its formal oxidation states are strained (``SO4``: S at +6 leaves O at -1.5;
+    ``HClO5``, ``NO4``; :func:`scorer.substance.formal_state_strain`), or a spelling one count away is a listed
+    compound while an element beside the most electronegative one is at zero or below (``H2SO``, S 0 -> H2SO4;
+    ``H3PO``, P -1 -> H3PO3 or H3PO4; :func:`scorer.slips.registry_count_neighbours`).
+    None for organic molecules (carbon with hydrogen: the tables hold a small share of them), metals, hydrates
+    and anything listed. These had read ``ok`` with S(0), or with oxygen positive beside sulfur at -2."""
+    symbols = set(_SYMBOL.findall(normalized))
+    if len(symbols) < 2 or {"C", "H"} <= symbols or any(is_metal(s) for s in symbols) or not text \
+            or any(c in text for c in "·.*+ "):
+        return None
+    try:
+        comp = parse_formula(text)
+    except FormulaError:
+        return None
+    counts = dict(comp.counts)
+    if comp.charge or set(counts) != symbols or registry_knows(counts):
+        return None
+    states = formal_oxidation_states(counts)
+    strain = formal_state_strain(counts, states)
+    most = most_electronegative(tuple(counts))
+    if strain is None and not any(value < 1e-9 and s not in ("H", most) and value != usual_state(s)
+                                  for s, value in states):
+        # every element but the most electronegative above zero or at its usual negative state (NO2Cl: N +5,
+        # Cl -1; Cl2O6, XeO4): a compound the tables miss; a lost count leaves the centre at zero or below
+        # (H2SO for H2SO4: S 0; H3PO: P -1)
+        return None
+    neighbours = registry_count_neighbours(text)
+    if strain is None and not neighbours:
+        return None
+    message = "no compound of this formula is listed in the registry's tables"
+    if strain is not None:
+        message += f", and its formal oxidation states are strained ({strain})"
+    message += ": a count may be missing from the formula as written; check it"
+    return message + (f" (did you mean {' or '.join(neighbours)}?)" if neighbours else "")
+
+
 def _counted(row: tuple, text: str) -> tuple:
     """``row``, where it is an error or warning whose formula most likely lost a count, with the complete
     formulas named (:func:`scorer.audit_rows.with_count_suggestion`); one check of the status for the rest.
     An acceptor-doped oxide written with the ideal oxygen count is read with its oxygen vacancies
     (:func:`_oxygen_vacancy_row`)."""
     if row[_STATUS_SLOT] == "ok":
-        return row
+        position = _layout()[1]
+        if row[position["substance_class"]] != "covalent_molecular":
+            return row
+        unknown = _unknown_molecule(row[position["formula_normalized"]] or "", text.strip())
+        return row if unknown is None else _warned(row, unknown)
     vacancies = _oxygen_vacancy_row(row, text)
     return vacancies if vacancies is not None else with_count_suggestion(row, text, _layout()[1])
 

@@ -57,7 +57,7 @@ from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
     "Slip", "SLIP_KINDS", "SLIP_WORK_LIMIT", "MARGIN", "BEST_PENALTY", "MAYBE_SLIP", "absurd_count", "find_slip",
-    "RADICAL_MAX_ATOMS", "lone_element_count", "odd_electron_molecule", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
+    "RADICAL_MAX_ATOMS", "lone_element_count", "registry_count_neighbours", "odd_electron_molecule", "reading_penalty", "slip_kind_of", "unknown_abbreviation",
 ]
 
 # what each kind of slip is called in messages and in the audit summary
@@ -877,6 +877,36 @@ def missing_count_suggestions(text: str) -> tuple[str, ...]:
     scored.sort()
     best = [p for key, p in scored if key[:2] == scored[0][0][:2]] if scored else []
     return tuple(best[:3])
+
+
+@per_input(maxsize=4096)
+def registry_count_neighbours(text: str) -> tuple[str, ...]:
+    """Spellings of ``text`` with one count changed (to 1-6) whose composition the registry's tables list
+    (:func:`scorer.registry_formulas.registry_knows`): what a molecule the tables do not know was most likely
+    meant to be (``H2SO`` -> H2SO3, H2SO4; ``HClO5`` -> HClO3, HClO4). Nearest change first, at most three;
+    no solver is run.
+
+    >>> registry_count_neighbours("H2SO"), registry_count_neighbours("HClO5")
+    (('H2SO4',), ('HClO4', 'HClO'))
+    """
+    if not isinstance(text, str) or len(text) > _COUNT_MAX_LENGTH or _parsed(text) is None or _parsed(text).charge:
+        return ()
+    found = {}
+    for m in _COUNTED.finditer(text):
+        written = int(m.group(1)) if m.group(1) else 1
+        for n in _TRIED_COUNTS:
+            if n == written:
+                continue
+            proposal = text[:m.end() - len(m.group(1))] + (str(n) if n > 1 else "") + text[m.end():]
+            comp = _parsed(proposal)
+            if comp is None or proposal in found:
+                continue
+            counts = [c for _, c in comp.counts]
+            if all(float(c).is_integer() for c in counts) and math.gcd(*(int(c) for c in counts)) > 1:
+                continue  # a multiple of a simpler formula
+            if registry_knows(dict(comp.counts)):
+                found[proposal] = abs(n - written)
+    return tuple(sorted(found, key=lambda p: (found[p], p))[:3])
 
 
 def slip_kind_of(message: str | None) -> str | None:

@@ -72,6 +72,9 @@ __all__ = [
     "nonionic_decomposition",
     "listed_states",
     "formal_oxidation_states",
+    "formal_state_strain",
+    "most_electronegative",
+    "usual_state",
     "organometallic_states",
     "binary_carbonyl",
     "oxidation_states_of",
@@ -180,6 +183,7 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
         ((symbol, n),) = counts.items()
         return ((symbol, charge / n),)
     defaults, balancers, ranges, partners = _formal_rules(symbols)
+    most = most_electronegative(symbols)
     for balancer in balancers:
         # metals of the balancer's group share the balance (Pb0.5Sn0.5Te: Pb and Sn +2 both, not Pb 0 and Sn +4);
         # most formulas (every organic molecule) have no such partners and take the one-element path
@@ -188,7 +192,9 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
             rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
             value = (charge - rest) / counts[balancer]
             low, high = ranges[balancer]
-            if low - _TOL <= value <= high + _TOL:
+            if low - _TOL <= value <= high + _TOL and not (balancer == most and value > -_TOL and defaults[most] < 0):
+                # the most electronegative element is never the positive (or zero) partner: SO4 had read
+                # S -2 with O +0.5, H2SO5 S -2 with O 0
                 break
             continue
         sharing = (balancer, *partners[balancer])
@@ -197,11 +203,93 @@ def formal_oxidation_states(counts: dict[str, float], charge: float = 0.0) -> tu
         if all(ranges[s][0] - _TOL <= value <= ranges[s][1] + _TOL for s in sharing):
             break
     else:
+        strained = _peroxo_reading(counts, charge, defaults, balancers, ranges, most)
+        if strained is not None:
+            return strained
         balancer = balancers[0]
         sharing = (balancer,)
         rest = sum(defaults[s] * counts[s] for s in symbols if s != balancer)
         value = (charge - rest) / counts[balancer]
     return tuple((s, round(value if s in sharing else defaults[s], 6)) for s in symbols)
+
+
+def _peroxo_reading(counts, charge, defaults, balancers, ranges, most) -> tuple[tuple[str, float], ...] | None:
+    """Where no element can take the balance within its listed range, the reading that puts the element
+    nearest its range at its bound and gives the rest to the most electronegative element, when that stays
+    negative and above its default (oxygen between -2 and 0: peroxo groups, H2SO5 S +6 with O -1.6, SO4 O -1.5;
+    :func:`formal_state_strain` says so); None otherwise."""
+    best = None
+    for balancer in balancers:
+        if balancer == most or balancer in _DEFAULT_STATES and balancer == "H":
+            continue
+        rest = sum(defaults[s] * counts[s] for s in counts if s != balancer)
+        value = (charge - rest) / counts[balancer]
+        low, high = ranges[balancer]
+        clamped = float(min(max(value, low), high))
+        if best is None or abs(value - clamped) < best[0]:
+            best = (abs(value - clamped), balancer, clamped)
+    if best is None:
+        return None
+    _, balancer, clamped = best
+    if most == "N" and counts["N"] % 3 == 0 and len(counts) == 2:
+        # nitrogen in threes beside one partner: covalent azides (BrN3, IN3, ClN3), the N3 group -1 (IUPAC Red
+        # Book 2005, IR-5; from memory), not the partner at its highest state
+        azide = (charge + counts["N"] / 3) / counts[balancer]
+        if ranges[balancer][0] - _TOL <= azide <= ranges[balancer][1] + _TOL:
+            clamped = azide
+    rest = sum(defaults[s] * counts[s] for s in counts if s not in (balancer, most)) + clamped * counts[balancer]
+    value = (charge - rest) / counts[most]
+    if not max(defaults[most], ranges[most][0]) - _TOL <= value < -_TOL or value > ranges[most][1] + _TOL:
+        return None  # fluorine has no state but -1 (SF5OF keeps its out-of-range reading)
+    return tuple((s, round(clamped if s == balancer else value if s == most else defaults[s], 6)) for s in counts)
+
+
+@per_input(maxsize=4096)
+def most_electronegative(symbols: tuple[str, ...]) -> str:
+    """The element :func:`_formal_rules` reads as the negative partner (a non-metal before any metal)."""
+    nonmetal = any(not is_metal(s) for s in symbols)
+    return max(symbols, key=lambda s: (nonmetal and not is_metal(s), _electronegativity(s)))
+
+
+def usual_state(symbol: str) -> float | None:
+    """The state :func:`formal_oxidation_states` gives an element first beside a more electropositive one (F -1,
+    O -2, Cl -1, N -3, S -2 ...; :data:`_DEFAULT_STATES`), or None.
+
+    >>> usual_state("S"), usual_state("B")
+    (-2, None)
+    """
+    return _DEFAULT_STATES.get(symbol)
+
+
+def formal_state_strain(counts: dict[str, float], states) -> str | None:
+    """Why the formal states of a molecule are strained, or None: an element outside its listed range (no
+    reading balances), or the most electronegative element left above its usual state by elements at their
+    highest (oxygen between -2 and -1, where no other element can take more: a peroxo compound or a count
+    lost).
+
+    >>> formal_state_strain({"S": 1, "O": 4}, formal_oxidation_states({"S": 1, "O": 4}))
+    'S at its highest listed state +6 leaves O at -1.5 (a peroxo group, or a count lost)'
+    >>> formal_state_strain({"S": 1, "O": 3}, formal_oxidation_states({"S": 1, "O": 3})) is None
+    True
+    """
+    states = dict(states)
+    symbols = tuple(counts)
+    if len(symbols) < 2:
+        return None
+    for s, value in states.items():
+        low, high = _state_range(s)
+        if not low - _TOL <= value <= high + _TOL:
+            return f"{s} would be {_state_text(value)}, outside its listed states ({_state_text(low)} to {_state_text(high)})"
+    most = most_electronegative(symbols)
+    usual = _DEFAULT_STATES.get(most)
+    if usual is None or usual >= 0 or states.get(most, usual) <= usual + _TOL:
+        return None
+    at_top = [s for s in symbols if s not in (most, "H") and abs(states[s] - _state_range(s)[1]) < _TOL]
+    if not at_top:
+        return None
+    top = at_top[0]
+    return (f"{top} at its highest listed state {_state_text(states[top])} leaves {most} at"
+            f" {_state_text(states[most])} (a peroxo group, or a count lost)")
 
 
 @per_input(maxsize=4096)
