@@ -355,6 +355,33 @@ def _written_group_not_read(text: str, anions: str) -> str | None:
         if ion not in anions:
             return (f"the group ({m.group(2)}) written after {m.group(1)} is not {ion} in the reading that balances"
                     f" the counts as written: a count may be missing (check the formula)")
+        counted = _group_count_lost(text, m)
+        if counted is not None:
+            return (f"the group ({m.group(2)}) written in brackets after {m.group(1)} has no count, and the registry's"
+                    f" tables list no compound of this formula but list {counted}: a count may be missing from the"
+                    f" formula as written; check it (did you mean {counted}?)")
+    return None
+
+
+def _group_count_lost(text: str, m: re.Match) -> str | None:
+    """The spelling of ``text`` with a count of 2 to 4 after the bracketed group ``m``, where that group has none
+    written and the registry's tables list the counted composition but not the one as written ("Cu(NO3)": CuNO3
+    is copper(I) nitrate, which no table lists, Cu(NO3)2 is listed); None otherwise ("Ag(NO3)", "Tl(OH)")."""
+    end = m.end()
+    if end < len(text) and (text[end].isdigit() or text[end] == "."):
+        return None
+    try:
+        if registry_knows(dict(parse_formula(text).counts)):
+            return None
+    except FormulaError:
+        return None
+    for n in (2, 3, 4):
+        proposal = text[:end] + str(n) + text[end:]
+        try:
+            if registry_knows(dict(parse_formula(proposal).counts)):
+                return proposal
+        except FormulaError:
+            return None
     return None
 
 

@@ -139,3 +139,19 @@ def test_single_ions_codes_and_mixtures_are_not_taken_for_ion_lists(text):
 
 def test_a_black_circle_is_a_hydrate_dot():
     assert score_formula("CuSO4●5H2O")["formula_normalized"] == "CuSO4·5H2O"
+
+
+@pytest.mark.parametrize("text, meant", [("Cu(NO3)", "Cu(NO3)2"), ("Cu(OH)", "Cu(OH)2")])
+def test_a_bracketed_group_without_its_count_that_the_registry_lists_only_counted_warns(text, meant):
+    # Cu(NO3) reads as copper(I) nitrate, which the registry's tables (chemicals' CRC and PubChem identifier
+    # tables, scorer/data/registry_names.csv) do not list; Cu(NO3)2 they do
+    from ionicity.scorer.registry_formulas import registry_knows
+
+    assert not registry_knows(dict(parse_formula(text).counts)) and registry_knows(dict(parse_formula(meant).counts))
+    row = score_formula(text)
+    assert row["status"] == "warning" and f"did you mean {meant}?" in row["message"]
+
+
+@pytest.mark.parametrize("text", ["Ag(NO3)", "Na(OH)", "Tl(NO3)", "Zn(SO4)", "K(MnO4)", "Cu(NO3)2"])
+def test_a_bracketed_group_of_a_listed_salt_stays_ok(text):
+    assert score_formula(text)["status"] == "ok"
