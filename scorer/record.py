@@ -27,9 +27,11 @@ from ionicity.scorer.ions import (
     format_oxidation_states,
 )
 from ionicity.scorer.grammar import iupac_formula
-from ionicity.scorer.registry_formulas import registry_knows
+from ionicity.scorer.registry_formulas import inorganic_formula_listed
 from ionicity.scorer.slips import registry_count_neighbours
-from ionicity.scorer.substance import formal_oxidation_states, formal_state_strain, most_electronegative, usual_state
+from ionicity.scorer.substance import (
+    formal_oxidation_states, formal_state_strain, listed_states, most_electronegative, usual_state,
+)
 from ionicity.scorer.ion_library import find_alias
 from ionicity.scorer.isotopes import isotope_mass_shift_g_mol, isotope_text
 from ionicity.scorer.melting import hydrate_melting_class
@@ -358,8 +360,8 @@ def _written_group_not_read(text: str, anions: str) -> str | None:
         counted = _group_count_lost(text, m)
         if counted is not None:
             return (f"the group ({m.group(2)}) written in brackets after {m.group(1)} has no count, and the registry's"
-                    f" tables list no compound of this formula but list {counted}: a count may be missing from the"
-                    f" formula as written; check it (did you mean {counted}?)")
+                    f" tables list no compound of this formula but list {counted}: a count was most likely lost;"
+                    f" check it (did you mean {counted}?)")
     return None
 
 
@@ -371,14 +373,14 @@ def _group_count_lost(text: str, m: re.Match) -> str | None:
     if end < len(text) and (text[end].isdigit() or text[end] == "."):
         return None
     try:
-        if registry_knows(dict(parse_formula(text).counts)):
+        if inorganic_formula_listed(dict(parse_formula(text).counts)):
             return None
     except FormulaError:
         return None
     for n in (2, 3, 4):
         proposal = text[:end] + str(n) + text[end:]
         try:
-            if registry_knows(dict(parse_formula(proposal).counts)):
+            if inorganic_formula_listed(dict(parse_formula(proposal).counts)):
                 return proposal
         except FormulaError:
             return None
@@ -513,7 +515,7 @@ def _unknown_molecule(normalized: str, text: str) -> str | None:
     except FormulaError:
         return None
     counts = dict(comp.counts)
-    if comp.charge or set(counts) != symbols or registry_knows(counts):
+    if comp.charge or set(counts) != symbols or inorganic_formula_listed(counts):
         return None
     states = formal_oxidation_states(counts)
     strain = formal_state_strain(counts, states)
@@ -534,6 +536,53 @@ def _unknown_molecule(normalized: str, text: str) -> str | None:
     return message + (f" (did you mean {' or '.join(neighbours)}?)" if neighbours else "")
 
 
+# cations that form simple peroxides and superoxides (groups 1 and 2; zinc, cadmium and mercury peroxides too;
+# Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 14.2.3; from memory)
+_PEROXIDE_FORMERS_OTHER = frozenset({"Zn", "Cd", "Hg"})
+_PEROXIDE_IONS = frozenset({"O2(2-)", "O2(-)"})
+
+
+@per_input(maxsize=16384)
+def _unlisted_salt(text: str) -> str | None:
+    """A warning for a salt written in a short formula that the registry's tables list no compound of, whose
+    reading needs what no stocked compound has, where a spelling one count away is listed: a metal cation in a
+    state mendeleev and :data:`scorer.substance._COMMON_STATES` call uncommon (PbCl3 as Pb(3+), KMnO3 as
+    Mn(5+), AgNO4 as Ag(3+), CuO2 as Cu(4+)), one metal as cations in two states (MnO3), or a peroxide beside a
+    cation that forms none (Al2O4, TiO3). None otherwise: peroxo and manganate anions, superoxides and the
+    many real salts the tables miss (KO2, KHSO5, NaBO3, K2MnO4, LiNiO2) keep their reading."""
+    if len(text) > 16 or any(c in text for c in "·.*+ [(") or not text[:1].isupper():
+        return None
+    try:
+        comp = parse_formula(text)
+    except FormulaError:
+        return None
+    counts = dict(comp.counts)
+    if comp.charge or inorganic_formula_listed(counts):
+        return None
+    dec = decompose_anhydrous(comp)
+    reason = None
+    states: dict[str, set] = {}
+    for t in dec.cations:
+        if t.ion.monatomic and is_metal(t.ion.element):
+            states.setdefault(t.ion.element, set()).add(t.ion.charge)
+            if dict(listed_states(t.ion.element)).get(t.ion.charge, True):
+                reason = f"{t.ion.ion_id}, a state its salts seldom hold"
+    mixed = [e for e, found in states.items() if len(found) > 1]
+    if mixed:
+        reason = f"{mixed[0]} in two states"
+    if reason is None and any(t.ion.ion_id in _PEROXIDE_IONS for t in dec.anions) and any(
+            not t.ion.monatomic or get_element(t.ion.element).group not in (1, 2)
+            and t.ion.element not in _PEROXIDE_FORMERS_OTHER for t in dec.cations):
+        reason = "a peroxide beside a cation that forms none"
+    if reason is None:
+        return None
+    neighbours = registry_count_neighbours(text)
+    if not neighbours:
+        return None
+    return (f"no compound of this formula is listed in the registry's tables, and its reading needs {reason}: a"
+            f" count may be missing from the formula as written; check it (did you mean {' or '.join(neighbours)}?)")
+
+
 def _counted(row: tuple, text: str) -> tuple:
     """``row``, where it is an error or warning whose formula most likely lost a count, with the complete
     formulas named (:func:`scorer.audit_rows.with_count_suggestion`); one check of the status for the rest.
@@ -541,9 +590,13 @@ def _counted(row: tuple, text: str) -> tuple:
     (:func:`_oxygen_vacancy_row`)."""
     if row[_STATUS_SLOT] == "ok":
         position = _layout()[1]
-        if row[position["substance_class"]] != "covalent_molecular":
+        cls = row[position["substance_class"]]
+        if cls == "covalent_molecular":
+            unknown = _unknown_molecule(row[position["formula_normalized"]] or "", text.strip())
+        elif cls == "ionic_salt":
+            unknown = _unlisted_salt(text.strip())
+        else:
             return row
-        unknown = _unknown_molecule(row[position["formula_normalized"]] or "", text.strip())
         return row if unknown is None else _warned(row, unknown)
     vacancies = _oxygen_vacancy_row(row, text)
     return vacancies if vacancies is not None else with_count_suggestion(row, text, _layout()[1])

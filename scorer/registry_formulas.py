@@ -16,7 +16,7 @@ from ionicity.scorer.caching import once
 from ionicity.scorer.grammar import hill_text_key, reduced_key
 from ionicity.scorer.tables import table
 
-__all__ = ["registry_knows", "registry_molecule", "registry_salt", "registry_names_of"]
+__all__ = ["inorganic_formula_listed", "registry_knows", "registry_molecule", "registry_salt", "registry_names_of"]
 
 _MOLECULE_KINDS = frozenset({"molecule", "acyl_halide", "acid_anhydride", "isocyanate", "zwitterion"})
 # the kinds that name a group water attacks
@@ -148,3 +148,24 @@ def registry_knows(counts) -> bool:
     (True, False)
     """
     return reduced_key(counts) in _compositions()
+
+
+@once
+def _inorganic_compositions() -> frozenset:
+    """Reduced compositions of ``inorganic_formulas.csv`` (every formula without carbon-hydrogen of the
+    registry's identifier tables) and of ``registry_names.csv``."""
+    return frozenset(hill_text_key(row["formula"]) for row in table("inorganic_formulas.csv")) | _compositions()
+
+
+def inorganic_formula_listed(counts) -> bool:
+    """Whether the registry's identifier tables list a compound of this composition or a whole multiple of it:
+    :func:`registry_knows` over the wider table of formulas (``scorer/data/inorganic_formulas.csv``), which
+    holds real compounds the name table lacks (NbCl3, KO2, K2MnO4). Asked before a row says that no compound of
+    its formula is listed.
+
+    >>> inorganic_formula_listed({"Nb": 1.0, "Cl": 3.0}), registry_knows({"Nb": 1.0, "Cl": 3.0})
+    (True, False)
+    >>> inorganic_formula_listed({"S": 1.0, "O": 4.0})
+    False
+    """
+    return reduced_key(counts) in _inorganic_compositions()

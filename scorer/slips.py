@@ -52,7 +52,7 @@ from ionicity.scorer.formula import _RARE_FOR_SUGGESTIONS, FormulaError, laborat
 from ionicity.scorer.grammar import parse_element_groups
 from ionicity.scorer.ions import ZWITTERION_NOTE, ZWITTERION_REGISTRY_NOTE, decompose_anhydrous, decompose_within
 from ionicity.scorer.organic_cations import WRITTEN_ONIUM_NOTE_MARK
-from ionicity.scorer.registry_formulas import registry_knows
+from ionicity.scorer.registry_formulas import inorganic_formula_listed, registry_knows
 from ionicity.scorer.ion_penalties import _ion_penalty
 
 __all__ = [
@@ -882,12 +882,12 @@ def missing_count_suggestions(text: str) -> tuple[str, ...]:
 @per_input(maxsize=4096)
 def registry_count_neighbours(text: str) -> tuple[str, ...]:
     """Spellings of ``text`` with one count changed (to 1-6) whose composition the registry's tables list
-    (:func:`scorer.registry_formulas.registry_knows`): what a molecule the tables do not know was most likely
+    (:func:`scorer.registry_formulas.inorganic_formula_listed`): what a molecule the tables do not know was most likely
     meant to be (``H2SO`` -> H2SO3, H2SO4; ``HClO5`` -> HClO3, HClO4). Nearest change first, at most three;
     no solver is run.
 
     >>> registry_count_neighbours("H2SO"), registry_count_neighbours("HClO5")
-    (('H2SO4',), ('HClO4', 'HClO'))
+    (('H2SO3', 'H2SO4'), ('HClO4', 'HClO3', 'HClO2'))
     """
     if not isinstance(text, str) or len(text) > _COUNT_MAX_LENGTH or _parsed(text) is None or _parsed(text).charge:
         return ()
@@ -904,7 +904,7 @@ def registry_count_neighbours(text: str) -> tuple[str, ...]:
             counts = [c for _, c in comp.counts]
             if all(float(c).is_integer() for c in counts) and math.gcd(*(int(c) for c in counts)) > 1:
                 continue  # a multiple of a simpler formula
-            if registry_knows(dict(comp.counts)):
+            if inorganic_formula_listed(dict(comp.counts)):
                 found[proposal] = abs(n - written)
     return tuple(sorted(found, key=lambda p: (found[p], p))[:3])
 

@@ -90,6 +90,7 @@ TABLES: dict[str, TableSpec] = {
         TableSpec("element_melting_points.csv", ("symbol", "mp_K", "source"), "scorer.melting_routes"),
         TableSpec("fluid_element_melting_points.csv", ("substance", "mp_K", "source"), "scorer.melting_routes"),
         TableSpec("gases.csv", ("formula", "boiling_point_K", "name", "cas", "source"), "scorer.melting_routes"),
+        TableSpec("inorganic_formulas.csv", ("formula", "source"), "scorer.registry_formulas"),
         TableSpec("molecular_coordination.csv",
                   ("formula", "coordination_number", "secondary_contacts", "structure", "source"),
                   "scorer.melting_routes"),

@@ -39,6 +39,7 @@ ROWS = {
     "element_melting_points.csv": 80,
     "fluid_element_melting_points.csv": 14,
     "gases.csv": 214,
+    "inorganic_formulas.csv": 4502,
     "molecular_coordination.csv": 17,
     "name_words.csv": 241,
     "solvent_codes.csv": 77,
