@@ -46,7 +46,9 @@ from ionicity.scorer.name_reader import (
 )
 from ionicity.scorer.organic import molecule_descriptors, organic_molecule
 from ionicity.scorer.prescan import ordinary_formula
-from ionicity.scorer.solutions import split_grade_words, split_solution, split_stock_fields
+from ionicity.scorer.solutions import split_grade_words, split_in_solvent, split_solution, split_stock_fields
+from ionicity.scorer.electrolytes import solute_mole_fraction
+from ionicity.scorer.lattice_inputs import _formula_unit_volume
 from ionicity.scorer.systematic_name import hydrate_words
 from ionicity.scorer.verdict import Verdict, finalise, with_warnings
 
@@ -680,8 +682,64 @@ def _read_row(text: str) -> tuple:
         mixture = mixture_row(text, score_row)
         if mixture is not None:
             return mixture
+    electrolyte = _ionic_solvent_row(text) if " in " in text or "+" in text else None
+    if electrolyte is not None:
+        return electrolyte
     # the audit (a solution's concentration, a typing slip) decides which text is scored
     return _counted(audited_row(text, _plain_row, _error_row, _layout()[1], _parsed_row), text)
+
+
+_IONIC_SOLVENT_CLASSES = frozenset({"ionic_liquid_pair", "ionic_salt"})
+
+
+def _ionic_solvent_row(text: str) -> tuple | None:
+    """The mixture row of a solute in an ionic liquid or a molten salt written as a solution with its amount
+    (``0.5 M LiTFSI in [C4mpyr][TFSI]``, ``[C4mim][BF4] + 1 mol/kg LiBF4``): the amount as mole fractions
+    (:func:`scorer.electrolytes.solute_mole_fraction`), scored as the mixture of the two by
+    :func:`scorer.mixture.mixture_row`, with the conversion in ``value_notes`` and the amount in
+    ``concentration_as_written``. None for a molecular solvent (the solute's row, as before), an amount that
+    does not convert, or a side that does not read as one compound."""
+    solution = split_in_solvent(text)
+    if solution is None or not solution.solvent or not solution.concentration:
+        return None
+    position = _layout()[1]
+    solvent, solute = score_row(solution.solvent), score_row(solution.solute)
+    if (solvent[_STATUS_SLOT] == "error" or solute[_STATUS_SLOT] == "error"
+            or solvent[position["substance_class"]] not in _IONIC_SOLVENT_CLASSES
+            or solute[position["substance_class"]] == "mixture"):
+        return None
+    masses = (solute[position["molar_mass_g_mol"]], solvent[position["molar_mass_g_mol"]])
+    if not all(isinstance(m, float) and m > 0 for m in masses):
+        return None
+    found = solute_mole_fraction(solution.concentration, masses[0], masses[1],
+                                 _formula_unit_volume_nm3(solute[position["formula_normalized"]]),
+                                 _formula_unit_volume_nm3(solvent[position["formula_normalized"]]))
+    if found is None:
+        return None
+    x, how = found
+    share = f"{100 * x:.5g}-{100 * (1 - x):.5g} mol%"
+    row = mixture_row(f"{solution.solute} + {solution.solvent} ({share})", score_row)
+    if row is None or row[_STATUS_SLOT] == "error":
+        return None
+    row = list(row)
+    note = (f"an electrolyte: {solution.concentration} of {solution.solute} in the ionic solvent"
+            f" {solution.solvent}, scored as their mixture at a solute mole fraction of {x:.4g} ({how})")
+    row[position["value_notes"]] = "; ".join(filter(None, (note, row[position["value_notes"]])))
+    row[position["concentration_as_written"]] = solution.concentration
+    return tuple(row)
+
+
+def _formula_unit_volume_nm3(formula: str | None) -> float:
+    """The formula-unit volume of a salt from its ions (:func:`scorer.lattice_inputs._formula_unit_volume`),
+    NaN where it has none."""
+    try:
+        dec = decompose_anhydrous(parse_formula(formula or ""))
+    except FormulaError:
+        return math.nan
+    if not dec.is_ionic:
+        return math.nan
+    volume, _ = _formula_unit_volume(dec.cations, dec.anions)
+    return float(volume)
 
 
 def _warned(row: tuple, note: str) -> tuple:
