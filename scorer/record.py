@@ -549,7 +549,8 @@ def _unlisted_salt(text: str) -> str | None:
     """A warning for a salt written in a short formula that the registry's tables list no compound of, whose
     reading needs what no stocked compound has, where a spelling one count away is listed: a metal cation in a
     state mendeleev and :data:`scorer.substance._COMMON_STATES` call uncommon (PbCl3 as Pb(3+), KMnO3 as
-    Mn(5+), AgNO4 as Ag(3+), CuO2 as Cu(4+)), one metal as cations in two states (MnO3), or a peroxide beside a
+    Mn(5+), AgNO4 as Ag(3+), CuO2 as Cu(4+)), one metal as cations in two states (MnO3) or as a cation and in an
+    anion (Fe2O4 as Fe(2+) ferrate(VI); Pb3O4, listed, stays), or a peroxide beside a
     cation that forms none (Al2O4, TiO3). None otherwise: peroxo and manganate anions, superoxides and the
     many real salts the tables miss (KO2, KHSO5, NaBO3, K2MnO4, LiNiO2) keep their reading."""
     if len(text) > 16 or any(c in text for c in "·.*+ [(") or not text[:1].isupper():
@@ -570,6 +571,7 @@ def _unlisted_salt(text: str) -> str | None:
             if dict(listed_states(t.ion.element)).get(t.ion.charge, True):
                 reason = f"{t.ion.ion_id}, a state its salts seldom hold"
     mixed = [e for e, found in states.items() if len(found) > 1]
+    mixed += [e for e in states for t in dec.anions if not t.ion.monatomic and e in dict(t.ion.composition)]
     if mixed:
         reason = f"{mixed[0]} in two states"
     if reason is None and any(t.ion.ion_id in _PEROXIDE_IONS for t in dec.anions) and any(
