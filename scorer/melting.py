@@ -887,6 +887,10 @@ def analyse(dec: Decomposition) -> MeltingTrend:
         return MeltingTrend(steps=(reason,))
     if route != "salt" and hill_formula(dict(dec.composition)) in _molecular_oxidisers():
         notes.append(_MOLECULAR_OXIDISER)
+    elif any(part.split("*")[0] == "H2O2" for part in dec.neutral_parts):
+        # a hydrogen peroxide adduct (sodium percarbonate 2Na2CO3.3H2O2, urea peroxide): it gives off H2O2, an
+        # oxidiser, in water and on heating (Greenwood & Earnshaw, 2nd ed., 1997, ch. 14; from memory)
+        notes.append(_MOLECULAR_OXIDISER)
     gas = routes.gas_at_room_temperature(dec.composition) if route != "salt" and not dec.hydrate_water else None
     if gas is not None:
         # the registry's boiling point says more than the trend: a gas on the shelf (CO2, NH3, CH4, He)

@@ -851,3 +851,23 @@ def test_more_materials_codes(code, formula):
 def test_an_amorphous_film_is_no_formula():
     out = score_formula("LiPON")
     assert out["status"] == "error" and "varying composition" in out["message"]
+
+
+@pytest.mark.parametrize("name, formula", [
+    # pigment names (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997; from memory); the formulas'
+    # masses are the registry package's (molmass) within 0.01 g/mol
+    ("zinc white", "ZnO"), ("titanium white", "TiO2"), ("chrome yellow", "PbCrO4"), ("cobalt blue", "CoAl2O4"),
+    ("cadmium yellow", "CdS"), ("vermilion", "HgS"), ("lead white", "Pb3(CO3)2(OH)2"),
+])
+def test_pigment_names_read_as_their_compounds(name, formula):
+    molmass = pytest.importorskip("molmass")
+    row = score_formula(name)
+    assert row["status"] == "warning" and f"read as {formula}" in row["message"]
+    assert row["molar_mass_g_mol"] == pytest.approx(molmass.Formula(formula).mass, abs=0.01)
+
+
+def test_sodium_percarbonate_is_an_oxidiser():
+    # 2Na2CO3.3H2O2 gives off hydrogen peroxide in water and on heating (from memory): its row says oxidiser
+    row = score_formula("sodium percarbonate")
+    assert "Na4(CO3)2·3H2O2" == row["formula_normalized"]
+    assert "strong oxidiser" in row["value_notes"] and "safety data sheet" in row["value_notes"]

@@ -44,7 +44,7 @@ ROWS = {
     "name_words.csv": 241,
     "solvent_codes.csv": 77,
     "material_codes.csv": 44,
-    "trivial_names.csv": 246,
+    "trivial_names.csv": 257,
     "solution_names.csv": 20,
     "ligands.csv": 34,
     "registry_names.csv": 13388,
