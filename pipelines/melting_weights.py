@@ -297,6 +297,15 @@ def fit_ammonium_decomposition(rows) -> dict[str, float]:
     rule); the share with the least mean |log10 error| is kept, the level rounded
     to 1 K.
     """
+    share, level = fit_decomposition_band(rows)
+    return {"ammonium_lattice_share": share, "ammonium_decomposition_K": level}
+
+
+def fit_decomposition_band(rows) -> tuple[float, float]:
+    """(lattice share, level in K) of :func:`scorer.melting_index.decomposition_band_index` on the calibration
+    rows of ``rows`` ((split, terms, measured K, formula)): for each share ``a`` on a grid of 0.1 (0 to 0.9)
+    the level is the median of ``(log10 T_m - a I) / (1 - a)``; the share with the least mean |log10 error| is
+    kept, the level rounded to 1 K."""
     cal = [(t.index(), math.log10(mp)) for split, t, mp, _ in rows if split == "calibration"]
     best = None
     for a in np.round(np.arange(0.0, 1.0, 0.1), 1):
@@ -304,22 +313,34 @@ def fit_ammonium_decomposition(rows) -> dict[str, float]:
         loss = float(np.mean([abs(a * i + (1.0 - a) * level - y) for i, y in cal]))
         if best is None or loss < best[0] - 1e-12:
             best = (loss, float(a), level)
-    return {"ammonium_lattice_share": best[1], "ammonium_decomposition_K": float(round(10 ** best[2]))}
+    return best[1], float(round(10 ** best[2]))
 
 
-def ammonium_decomposition_figures(rows, weights=None) -> dict:
-    """Per split of :func:`ammonium_decomposition_rows`: figures with the rule and with the lattice index alone."""
+def decomposing_anion_rows(salts):
+    """(split, terms, measured K, formula) of :func:`salt_rows` whose every anion decomposes on heating."""
+    return [row for row in salts if row[1].decomposing_anions]
+
+
+def fit_decomposing_anion_band(rows) -> dict[str, float]:
+    """``decomposing_anion_lattice_share`` and ``decomposing_anion_K`` (:func:`fit_decomposition_band`)."""
+    share, level = fit_decomposition_band(rows)
+    return {"decomposing_anion_lattice_share": share, "decomposing_anion_K": level}
+
+
+def ammonium_decomposition_figures(rows, weights=None, label="ammonium_salts") -> dict:
+    """Per split of :func:`ammonium_decomposition_rows` (or :func:`decomposing_anion_rows`, with ``label``):
+    figures with the band and with the lattice index alone."""
     out = {}
     for split in ("calibration", "validation"):
         part = [r for r in rows if r[0] == split]
         if not part:
             continue
         measured = [mp for _, _, mp, _ in part]
-        for label, predicted in (("with_rule", [10 ** t.trend_index(weights) for _, t, _, _ in part]),
-                                 ("lattice_index", [10 ** t.index(weights) for _, t, _, _ in part])):
+        for kind, predicted in (("with_rule", [10 ** t.trend_index(weights) for _, t, _, _ in part]),
+                                ("lattice_index", [10 ** t.index(weights) for _, t, _, _ in part])):
             figures = _figures(predicted, measured)
             figures["mean_abs_log10"] = round(float(np.mean(np.abs(np.log10(np.array(predicted) / measured)))), 4)
-            out[f"ammonium_salts_{split}_{label}"] = figures
+            out[f"{label}_{split}_{kind}"] = figures
     return out
 
 
@@ -938,6 +959,10 @@ def main(argv=None) -> int:
     ammonium = ammonium_decomposition_rows(salts, anion_rows)
     print("ammonium decomposition (fit on calibration):", fit_ammonium_decomposition(ammonium))
     for name, figures in ammonium_decomposition_figures(ammonium).items():
+        print(name, figures)
+    decomposing = decomposing_anion_rows(salts)
+    print("decomposing-anion band (fit on calibration):", fit_decomposing_anion_band(decomposing))
+    for name, figures in ammonium_decomposition_figures(decomposing, label="decomposing_anion_salts").items():
         print(name, figures)
     metals = intermetallic_rows()
     metal_weight = fit_intermetallic_weight(metals)

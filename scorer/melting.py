@@ -132,6 +132,7 @@ from ionicity.scorer.melting_index import (
     MELTING_CLASSES,
     TREND_WEIGHTS,
     ammonium_salt_decomposition_index,
+    decomposing_anion_salt_index,
     dannenfelser_yalkowsky_flexibility_entropy_J_mol_K,
     melting_class_from_index,
     melting_trend_index,
@@ -199,6 +200,8 @@ class MeltingTerms:
     rotor_anion_fraction: float = 0.0
     # every cation NH4(+), no monatomic anion: melts with decomposition (ammonium_salt_decomposition_index)
     ammonium_decomposes: bool = False
+    # every anion decomposes on heating (DECOMPOSING_ANIONS): decomposing_anion_salt_index
+    decomposing_anions: bool = False
     notes: tuple[str, ...] = ()
 
     @property
@@ -226,6 +229,8 @@ class MeltingTerms:
         lattice_index = self.index(weights)
         if self.ammonium_decomposes:
             return ammonium_salt_decomposition_index(lattice_index, weights)
+        if self.decomposing_anions:
+            return decomposing_anion_salt_index(lattice_index, weights)
         return lattice_index
 
 
@@ -376,6 +381,8 @@ def _gather_terms(
         polarising_organic_anion_fraction=polarising_organic_anion_fraction(dec.cations, dec.anions),
         ammonium_cation_fraction=ammonium_type_cation_fraction(dec.cations, dec.anions),
         ammonium_decomposes=ammonium_polyatomic_salt(dec.cations, dec.anions),
+        decomposing_anions=bool(dec.anions) and all(t.ion.ion_id in DECOMPOSING_ANIONS for t in dec.anions)
+        and not organic_salt and not ammonium_polyatomic_salt(dec.cations, dec.anions),
         rotor_anion_fraction=rotor_anion_fraction(dec.cations, dec.anions),
         notes=tuple(notes),
     )
@@ -474,6 +481,13 @@ def _summary(result: MeltingTrend) -> tuple[str, ...]:
     salt = _steps(result.terms, result.terms.index()) if result.terms is not None else ()
     if result.terms is not None and result.terms.ammonium_decomposes and result.mp_route == "salt":
         salt = (*salt, _ammonium_step(result.terms))
+    elif result.terms is not None and result.terms.decomposing_anions and result.mp_route == "salt":
+        w = TREND_WEIGHTS
+        salt = (*salt, f"  salt of anions that decompose on heating (oxygen, CO2, SO2 or chlorine compounds given off):"
+                       f" I = {w['decomposing_anion_lattice_share']} * {result.terms.index():.3f} +"
+                       f" {1 - w['decomposing_anion_lattice_share']:.1f} * log10({w['decomposing_anion_K']:g} K) ="
+                       f" {result.terms.trend_index():.3f} ({trend_temperature_K(result.terms.trend_index()):.0f} K;"
+                       " decomposing_anion_salt_index)")
     return (*head, *salt, *result.route_steps, *_molecular_steps(result.molecular), "  caution: " + CAUTION)
 
 
@@ -899,8 +913,13 @@ def analyse(dec: Decomposition) -> MeltingTrend:
     if not math.isfinite(index):
         return MeltingTrend(melting_class=routes.GAS_CLASS if gas is not None else None, notes=tuple(notes),
                             steps=tuple(notes) or ("melting trend: not computed",), terms=terms, mp_route=route)
+    band_class = melting_class_for(trend_temperature_K(index), salt=route == "salt")
+    if (route == "salt" and terms is not None and (terms.ammonium_decomposes or terms.decomposing_anions)
+            and band_class in ("ionic_liquid", "low_melting_salt")):
+        # a decomposition band, not a melting point: baking soda is no ionic liquid (decomposition_band_index)
+        band_class = routes.DECOMPOSES_CLASS
     melting_class = hydrate_melting_class(
-        melting_class_for(trend_temperature_K(index), salt=route == "salt"), route, dec.hydrate_water,
+        band_class, route, dec.hydrate_water,
         oxide_only=bool(dec.anions) and all(t.ion.ion_id == "O(2-)" for t in dec.anions))
     if melting_class == routes.HYDRATE_MELT_CLASS:
         notes.append(_WATER_RICH_HYDRATE.format(n=dec.hydrate_water, limit=routes.WATER_RICH_HYDRATE_MIN))

@@ -19,6 +19,8 @@ __all__ = [
     "dannenfelser_yalkowsky_flexibility_entropy_J_mol_K",
     "melting_trend_index",
     "ammonium_salt_decomposition_index",
+    "decomposing_anion_salt_index",
+    "decomposition_band_index",
     "trend_temperature_K",
     "melting_class_from_index",
 ]
@@ -152,6 +154,11 @@ TREND_WEIGHTS: dict[str, float] = {
     # on a grid of 0.1 by mean |log10 error|, the level the median), validation on the other half's 8
     "ammonium_decomposition_K": 426.0,
     "ammonium_lattice_share": 0.2,
+    # salts whose every anion decomposes on heating (scorer.melting_anions.DECOMPOSING_ANIONS: peroxides,
+    # hypochlorites, hydrogencarbonates, disulfites ...): the same band form, fitted the same way on the 9 such
+    # salts of the calibration half (decomposing_anion_salt_index)
+    "decomposing_anion_K": 319.0,
+    "decomposing_anion_lattice_share": 0.5,
     # intermetallics (element-mixture route): log10 of the measured over the rule-of-mixtures
     # melting point per unit of the electronegativity variance (Pauling's heat of formation),
     # least squares through the origin on the calibration rows of
@@ -566,8 +573,43 @@ def ammonium_salt_decomposition_index(lattice_index, weights=None):
     384
     """
     w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
-    share = w["ammonium_lattice_share"]
-    return share * lattice_index + (1.0 - share) * math.log10(w["ammonium_decomposition_K"])
+    return decomposition_band_index(lattice_index, w["ammonium_decomposition_K"], w["ammonium_lattice_share"])
+
+
+def decomposition_band_index(lattice_index, level_K, lattice_share):
+    """The trend index of a salt that melts with decomposition in a band: ``I = a I_lattice + (1 - a) log10 T_dec``.
+
+    Defined here (a weighted mean on the log scale, both constants fitted per kind of salt on a calibration
+    half: :func:`ammonium_salt_decomposition_index`, :func:`decomposing_anion_salt_index`).
+
+    >>> round(decomposition_band_index(3.0, 100.0, 0.5), 3)
+    2.5
+    """
+    return lattice_share * lattice_index + (1.0 - lattice_share) * math.log10(level_K)
+
+
+def decomposing_anion_salt_index(lattice_index, weights=None):
+    """The trend index of a salt whose anions all decompose on heating (peroxides, superoxides, hypochlorites,
+    chlorites, hydrogencarbonates, hydrogensulfites, disulfites, dithionites, peroxosulfates:
+    :data:`scorer.melting_anions.DECOMPOSING_ANIONS`): :func:`decomposition_band_index` with
+    ``decomposing_anion_K`` and ``decomposing_anion_lattice_share`` of :data:`TREND_WEIGHTS`.
+
+    Such a salt gives off oxygen, carbon dioxide, sulfur dioxide or chlorine compounds below the melting point
+    of its lattice (2 BaO2 -> 2 BaO + O2, 2 NaHCO3 -> Na2CO3 + H2O + CO2; Greenwood & Earnshaw, Chemistry of the
+    Elements, 2nd ed., 1997, ch. 14-17; from memory): the registry's values for these salts are decomposition
+    temperatures, 291-948 K on the calibration half, where the lattice index runs 0.16 high in log10 on average
+    (SrO2 1326 K against 488 K). Both constants fitted on that half
+    (:func:`pipelines.melting_weights.fit_decomposition_band`), checked on the other.
+
+    Examples
+    --------
+    Calcium hypochlorite, whose lattice index reads 625 K (2.796); registry value 373 K (``chemicals``):
+
+    >>> round(10 ** decomposing_anion_salt_index(2.796))
+    447
+    """
+    w = TREND_WEIGHTS if weights is None else {**TREND_WEIGHTS, **weights}
+    return decomposition_band_index(lattice_index, w["decomposing_anion_K"], w["decomposing_anion_lattice_share"])
 
 
 def trend_temperature_K(index):

@@ -61,6 +61,7 @@ __all__ = [
     "HYDRATE_MELT_CLASS",
     "WATER_RICH_HYDRATE_MIN",
     "LOWER_HYDRATE_CLASS",
+    "DECOMPOSES_CLASS",
     "lower_salt_hydrate",
     "water_rich_hydrate",
     "walden_dannenfelser_yalkowsky_entropy_J_mol_K",
@@ -101,6 +102,10 @@ MELTING_CLASS_BANDS: tuple[tuple[str, float, float, str], ...] = (
     ("melts_in_own_water", 0.0, 373.15, "salt hydrate with four or more waters per formula unit: melts or dissolves"
      " in its own water of crystallisation below about 100 C (Lane, Solar Heat Storage: Latent Heat Materials,"
      " 1983; Kenisarin & Mahkamov 2007; from memory), whatever its anhydrous salt does"),
+    ("decomposes_below_300C", 0.0, 573.15, "salt that decomposes on heating below about 300 C rather than melting"
+     " as a lattice: ammonium salts of polyatomic anions and salts of peroxide, hypochlorite, hydrogencarbonate,"
+     " disulfite and other anions that give off a gas (NH4NO3, NH4H2PO4, NaHCO3, Ca(ClO)2); never called an ionic"
+     " liquid, whatever its trend"),
     ("loses_water_below_300C", 0.0, 573.15, "salt hydrate with fewer than four waters per formula unit: gives off"
      " its water of crystallisation on heating (or melts in it) below about 300 C, mostly at 100-250 C, before its"
      " anhydrous salt melts (BaCl2.2H2O near 386 K, CaSO4.2H2O to the hemihydrate near 400 K; from memory)"),
@@ -112,6 +117,8 @@ HYDRATE_MELT_CLASS = "melts_in_own_water"
 WATER_RICH_HYDRATE_MIN = 4.0
 #: the class of a salt hydrate with fewer waters (:func:`lower_salt_hydrate`)
 LOWER_HYDRATE_CLASS = "loses_water_below_300C"
+#: the class of a salt whose trend is a decomposition band below 300 C (scorer.melting_index.decomposition_band_index)
+DECOMPOSES_CLASS = "decomposes_below_300C"
 
 SALT_CLASSES = frozenset({"ionic_salt", "ionic_liquid_pair", "base"})
 

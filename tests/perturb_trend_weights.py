@@ -48,6 +48,7 @@ FIRST_FILE = {
     "intermetallic_": "tests/test_melting_audit_rules.py",
     "ammonium_decomposition_K": "tests/test_melting_ammonium_salts.py",
     "ammonium_lattice_share": "tests/test_melting_ammonium_salts.py",
+    "decomposing_anion": "tests/test_melting_ammonium_salts.py",
 }
 
 

@@ -109,14 +109,17 @@ def test_melting_bands_cover_every_class_without_gaps():
     bands = melting_bands()
     salt = [b for b in bands if b[0] in ("ionic_liquid", "low_melting_salt", "molten_salt", "refractory")]
     other = [b for b in bands if b[0] not in ("ionic_liquid", "low_melting_salt", "molten_salt", "melts_in_own_water",
-                                              "loses_water_below_300C", "gas_at_room_temperature")]
+                                              "loses_water_below_300C", "decomposes_below_300C",
+                                              "gas_at_room_temperature")]
     # a gas's class stands in for the other compounds' lowest band (its registry boiling point, gases.csv)
     gas = [b for b in bands if b[0] == "gas_at_room_temperature"] + other[1:]
     # a water-rich salt hydrate's class stands in for the salts' lowest band (scorer.melting_routes)
     hydrate = [b for b in bands if b[0] == "melts_in_own_water"] + salt[1:]
     # a lower salt hydrate's class stands in for the salts' two lowest bands (it loses its water below 300 C)
     lower_hydrate = [b for b in bands if b[0] == "loses_water_below_300C"] + salt[2:]
-    for ladder in (salt, other, hydrate, gas, lower_hydrate):
+    # so does a salt that decomposes below 300 C (a decomposition band: ammonium and peroxide salts, bicarbonates)
+    decomposing = [b for b in bands if b[0] == "decomposes_below_300C"] + salt[2:]
+    for ladder in (salt, other, hydrate, gas, lower_hydrate, decomposing):
         assert ladder[0][1] == 0.0 and ladder[-1][2] == float("inf")
         for (_, _, upper, _), (_, lower, _, _) in zip(ladder, ladder[1:]):
             assert upper == lower
