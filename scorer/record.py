@@ -499,6 +499,16 @@ def _score_text(text: str) -> tuple:
 _SYMBOL = re.compile(r"[A-Z][a-z]?")
 
 
+def _unlisted_formula(text: str) -> ParsedFormula | None:
+    """``text`` parsed, where it is a neutral formula whose composition the registry's identifier tables list no
+    compound of (:func:`scorer.registry_formulas.inorganic_formula_listed`); None otherwise."""
+    try:
+        comp = parse_formula(text)
+    except FormulaError:
+        return None
+    return None if comp.charge or inorganic_formula_listed(dict(comp.counts)) else comp
+
+
 @per_input(maxsize=16384)
 def _unknown_molecule(normalized: str, text: str) -> str | None:
     """A warning for a small inorganic molecule that the registry's tables list no compound of, where a count
@@ -512,13 +522,10 @@ def _unknown_molecule(normalized: str, text: str) -> str | None:
     if len(symbols) < 2 or {"C", "H"} <= symbols or any(is_metal(s) for s in symbols) or not text \
             or any(c in text for c in "·.*+ "):
         return None
-    try:
-        comp = parse_formula(text)
-    except FormulaError:
+    comp = _unlisted_formula(text)
+    if comp is None or set(dict(comp.counts)) != symbols:
         return None
     counts = dict(comp.counts)
-    if comp.charge or set(counts) != symbols or inorganic_formula_listed(counts):
-        return None
     states = formal_oxidation_states(counts)
     strain = formal_state_strain(counts, states)
     most = most_electronegative(tuple(counts))
@@ -555,12 +562,8 @@ def _unlisted_salt(text: str) -> str | None:
     many real salts the tables miss (KO2, KHSO5, NaBO3, K2MnO4, LiNiO2) keep their reading."""
     if len(text) > 16 or any(c in text for c in "·.*+ [(") or not text[:1].isupper():
         return None
-    try:
-        comp = parse_formula(text)
-    except FormulaError:
-        return None
-    counts = dict(comp.counts)
-    if comp.charge or inorganic_formula_listed(counts):
+    comp = _unlisted_formula(text)
+    if comp is None:
         return None
     dec = decompose_anhydrous(comp)
     reason = None
