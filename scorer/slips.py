@@ -846,13 +846,7 @@ def missing_count_suggestions(text: str) -> tuple[str, ...]:
         return ()
     if any(s in _NO_CHEMISTRY or get_element(s).atomic_number >= _NO_CHEMISTRY_FROM_Z for s, _ in _parsed(text).counts):
         return ()  # every proposal keeps the element without chemistry, so reading_penalty is inf for each
-    proposals = {}
-    for m in _COUNTED.finditer(text):
-        written = int(m.group(1)) if m.group(1) else 1
-        for n in _TRIED_COUNTS:
-            if n != written:
-                proposal = text[:m.end() - len(m.group(1))] + (str(n) if n > 1 else "") + text[m.end():]
-                proposals.setdefault(proposal, abs(n - written))
+    proposals = _count_proposals(text)
     scored = []
     allowance = COUNT_WORK_LIMIT
     for proposal, step in list(proposals.items())[:_COUNT_PROPOSALS]:
@@ -869,8 +863,7 @@ def missing_count_suggestions(text: str) -> tuple[str, ...]:
             continue  # an uncommon state or ion (Na2SO5 as peroxymonosulfate, BaNO4)
         if any(t.ion.ion_id in _UNLIKELY_SUGGESTED_IONS for t in dec.anions):
             continue  # a carbide or an azide made by changing one count (NaCI2 as Na6CI2, BaNO3 as BaN4O3)
-        counts = [n for _, n in comp.counts]
-        if all(float(n).is_integer() for n in counts) and math.gcd(*(int(n) for n in counts)) > 1:
+        if _multiple_of_simpler(comp):
             continue  # a multiple of a simpler formula (Na2Cl2, Fe2O2): the simpler one is proposed itself
         # fewest ion species first (Na2SO4, not Na4SO4 with oxide beside sulfate), then the smallest change
         scored.append(((round(_penalty_of(proposal, dec), 6), len(dec.cations) + len(dec.anions), step), proposal))
@@ -892,21 +885,30 @@ def registry_count_neighbours(text: str) -> tuple[str, ...]:
     if not isinstance(text, str) or len(text) > _COUNT_MAX_LENGTH or _parsed(text) is None or _parsed(text).charge:
         return ()
     found = {}
+    for proposal, step in _count_proposals(text).items():
+        comp = _parsed(proposal)
+        if comp is not None and not _multiple_of_simpler(comp) and inorganic_formula_listed(dict(comp.counts)):
+            found[proposal] = step
+    return tuple(sorted(found, key=lambda p: (found[p], p))[:3])
+
+
+def _count_proposals(text: str) -> dict[str, int]:
+    """Spellings of ``text`` with one count (after an element symbol or a closing bracket) changed to another of
+    :data:`_TRIED_COUNTS`, each with the size of the change, in the order of the text."""
+    proposals: dict[str, int] = {}
     for m in _COUNTED.finditer(text):
         written = int(m.group(1)) if m.group(1) else 1
         for n in _TRIED_COUNTS:
-            if n == written:
-                continue
-            proposal = text[:m.end() - len(m.group(1))] + (str(n) if n > 1 else "") + text[m.end():]
-            comp = _parsed(proposal)
-            if comp is None or proposal in found:
-                continue
-            counts = [c for _, c in comp.counts]
-            if all(float(c).is_integer() for c in counts) and math.gcd(*(int(c) for c in counts)) > 1:
-                continue  # a multiple of a simpler formula
-            if inorganic_formula_listed(dict(comp.counts)):
-                found[proposal] = abs(n - written)
-    return tuple(sorted(found, key=lambda p: (found[p], p))[:3])
+            if n != written:
+                proposal = text[:m.end() - len(m.group(1))] + (str(n) if n > 1 else "") + text[m.end():]
+                proposals.setdefault(proposal, abs(n - written))
+    return proposals
+
+
+def _multiple_of_simpler(comp) -> bool:
+    """Whether a composition's whole counts share a divisor (Na2Cl2, Fe2O2: a multiple of a simpler formula)."""
+    counts = [n for _, n in comp.counts]
+    return all(float(n).is_integer() for n in counts) and math.gcd(*(int(n) for n in counts)) > 1
 
 
 def slip_kind_of(message: str | None) -> str | None:
